@@ -1,0 +1,1 @@
+//! Classical decomposition. (Placeholder: being written.)

@@ -1,0 +1,10 @@
+//! Exponential smoothing family. (Placeholder: being written.)
+use super::{Fitted, MethodError, MethodKind};
+pub fn fit(
+    kind: MethodKind,
+    _h: &[f64],
+    _m: Option<usize>,
+    _horizon: usize,
+) -> Result<Fitted, MethodError> {
+    Err(MethodError::Diverged { method: kind })
+}
