@@ -1,1 +1,361 @@
-//! (being written)
+//! Backtest: fit each candidate on the training part, forecast the holdout, score and rank.
+//!
+//! Kept apart from: pattern detection and the final forecast ([`crate::engine::plan`] decides
+//! the season and refits the winner). This module owns the holdout rules, the rolling origins,
+//! the ranking metric and the combination candidate.
+//!
+//! Evaluation (Tashman 2000, "Out-of-sample tests of forecasting accuracy", IJF 16:437-450): with
+//! holdout length K and R origins, origin j (j = 0..R) trains on y_1..y_{n-K-j} and forecasts the
+//! next K periods. Errors of all origins are pooled into the ranking measures; origin 0 (the last
+//! K periods) is the one shown in the Error ledger. R = 1 is a single fixed holdout.
+
+use std::fmt;
+
+use crate::engine::accuracy::{self, ledger, mase_scale, LedgerRow, Measures};
+use crate::engine::methods::{self, MethodError, MethodKind};
+
+/// Number of best single methods averaged by the combination candidate.
+pub const COMBINATION_SIZE: usize = 3;
+
+/// The metric that orders the Backtest ranking.
+///
+/// Default: MASE (Hyndman & Koehler 2006). It is scale-free, so it compares across items, and it
+/// stays defined when demand has zero periods, where MAPE divides by zero.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum RankBy {
+    Mape,
+    Rmse,
+    /// Absolute value of the bias (sum of errors): closest to zero first.
+    Bias,
+    #[default]
+    Mase,
+}
+
+impl RankBy {
+    /// "mape", "rmse", "bias" or "mase".
+    pub fn key(self) -> &'static str {
+        match self {
+            RankBy::Mape => "mape",
+            RankBy::Rmse => "rmse",
+            RankBy::Bias => "bias",
+            RankBy::Mase => "mase",
+        }
+    }
+    pub fn from_key(key: &str) -> Option<RankBy> {
+        match key {
+            "mape" => Some(RankBy::Mape),
+            "rmse" => Some(RankBy::Rmse),
+            "bias" => Some(RankBy::Bias),
+            "mase" => Some(RankBy::Mase),
+            _ => None,
+        }
+    }
+    /// The score to minimise; `None` when the measure is not available (sorted last).
+    pub fn score(self, m: &Measures) -> Option<f64> {
+        match self {
+            RankBy::Mape => m.mape,
+            RankBy::Rmse => Some(m.rmse),
+            RankBy::Bias => Some(m.bias.abs()),
+            RankBy::Mase => m.mase,
+        }
+    }
+}
+
+/// A candidate in the ranking: one method, or the equal-weight combination of the best ones.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Candidate {
+    Method(MethodKind),
+    /// Plain mean of the members' forecasts. Equal weights: estimated weights rarely beat them
+    /// out of sample (the "forecast combination puzzle", Smith & Wallis 2009, Oxford Bulletin of
+    /// Economics and Statistics 71:331-355).
+    Combination(Vec<MethodKind>),
+}
+
+impl Candidate {
+    /// Machine name: the method key, or "combination".
+    pub fn key(&self) -> &'static str {
+        match self {
+            Candidate::Method(k) => k.key(),
+            Candidate::Combination(_) => "combination",
+        }
+    }
+    /// Name for people, e.g. "Combination of Theta, Damped trend, SBA".
+    pub fn label(&self) -> String {
+        match self {
+            Candidate::Method(k) => k.label().to_string(),
+            Candidate::Combination(members) => {
+                let names: Vec<&str> = members.iter().map(|m| m.label()).collect();
+                format!("Combination of {}", names.join(", "))
+            }
+        }
+    }
+}
+
+/// Forecasts `horizon` steps after `history` with a candidate. A combination fails when any
+/// member fails.
+pub fn forecast_with(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> Result<Vec<f64>, MethodError> {
+    match candidate {
+        Candidate::Method(kind) => Ok(methods::fit(*kind, history, season, horizon)?
+            .forecast()
+            .to_vec()),
+        Candidate::Combination(members) => {
+            let mut sum = vec![0.0; horizon];
+            for kind in members {
+                let f = methods::fit(*kind, history, season, horizon)?;
+                for (s, v) in sum.iter_mut().zip(f.forecast()) {
+                    *s += v;
+                }
+            }
+            let k = members.len().max(1) as f64;
+            Ok(sum.into_iter().map(|s| s / k).collect())
+        }
+    }
+}
+
+/// Why a backtest could not run.
+#[derive(Clone, Debug, PartialEq)]
+pub enum BacktestError {
+    /// The history is too short to hold out the requested periods and still train.
+    TooShort { length: usize, holdout: usize },
+    /// Every candidate failed on this history.
+    NoCandidate,
+}
+
+impl fmt::Display for BacktestError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BacktestError::TooShort { length, holdout } => write!(
+                f,
+                "{length} periods are too few to hold out {holdout}: give at least {} periods or a shorter holdout",
+                holdout + 3
+            ),
+            BacktestError::NoCandidate => write!(f, "no method could be fitted to this item's history"),
+        }
+    }
+}
+
+impl std::error::Error for BacktestError {}
+
+/// The default holdout length: the last full season (the accepted season length, else the
+/// calendar's), at least one period and at most a third of the data; 1/5 of the data when no
+/// season is known.
+pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
+    let wanted = season.filter(|m| *m >= 2).unwrap_or((length / 5).max(1));
+    wanted.clamp(1, (length / 3).max(1))
+}
+
+/// What one candidate did in the backtest.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Scored {
+    pub candidate: Candidate,
+    /// Measures pooled over all origins (what the ranking orders by).
+    pub measures: Measures,
+    /// Forecasts of the last K periods from origin 0 (aligned with [`Backtest::holdout_demand`]).
+    pub holdout_forecast: Vec<f64>,
+}
+
+impl Scored {
+    /// The Error ledger of origin 0.
+    pub fn ledger(&self, holdout_demand: &[f64], limit: f64) -> Vec<LedgerRow> {
+        ledger(&self.holdout_forecast, holdout_demand, limit)
+    }
+}
+
+/// A candidate that could not be scored, with the reason for the page to show.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Skipped {
+    pub candidate: Candidate,
+    pub reason: String,
+}
+
+/// Backtest settings.
+#[derive(Clone, Debug, PartialEq)]
+pub struct BacktestSettings {
+    /// Holdout length K.
+    pub holdout: usize,
+    /// Number of rolling origins R (at least 1).
+    pub origins: usize,
+    pub rank_by: RankBy,
+    /// Methods to try.
+    pub candidates: Vec<MethodKind>,
+    /// Whether to add the combination of the best [`COMBINATION_SIZE`] methods.
+    pub combine: bool,
+}
+
+/// The ranked outcome.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Backtest {
+    /// Best first by the ranking metric.
+    pub ranking: Vec<Scored>,
+    pub skipped: Vec<Skipped>,
+    /// The last K demands.
+    pub holdout_demand: Vec<f64>,
+    /// Origins actually used (fewer than asked when the history is short).
+    pub origins_used: usize,
+    pub rank_by: RankBy,
+}
+
+/// Runs the backtest of `settings.candidates` on `history` with the accepted `season`.
+pub fn run(
+    history: &[f64],
+    season: Option<usize>,
+    settings: &BacktestSettings,
+) -> Result<Backtest, BacktestError> {
+    let n = history.len();
+    let k = settings.holdout.max(1);
+    if n < k + 3 {
+        return Err(BacktestError::TooShort {
+            length: n,
+            holdout: k,
+        });
+    }
+    // Keep at least three training periods at the earliest origin.
+    let origins = settings.origins.max(1).min(n - k - 2);
+    let train_end = n - k;
+    let scale = mase_scale(&history[..train_end], season);
+
+    let mut scored = Vec::new();
+    let mut skipped = Vec::new();
+    let mut per_origin: Vec<(MethodKind, Vec<Vec<f64>>)> = Vec::new();
+    'methods: for &kind in &settings.candidates {
+        let mut forecasts_by_origin = Vec::with_capacity(origins);
+        for j in 0..origins {
+            let end = train_end - j;
+            match methods::fit(kind, &history[..end], season, k) {
+                Ok(f) => forecasts_by_origin.push(f.forecast().to_vec()),
+                Err(e) => {
+                    skipped.push(Skipped {
+                        candidate: Candidate::Method(kind),
+                        reason: e.to_string(),
+                    });
+                    continue 'methods;
+                }
+            }
+        }
+        per_origin.push((kind, forecasts_by_origin));
+    }
+
+    let score = |forecasts_by_origin: &[Vec<f64>]| -> Option<Measures> {
+        let mut f_all = Vec::with_capacity(origins * k);
+        let mut d_all = Vec::with_capacity(origins * k);
+        for (j, f) in forecasts_by_origin.iter().enumerate() {
+            let end = train_end - j;
+            f_all.extend_from_slice(f);
+            d_all.extend_from_slice(&history[end..end + k]);
+        }
+        accuracy::measures(&f_all, &d_all, scale).ok()
+    };
+    for (kind, fbo) in &per_origin {
+        if let Some(measures) = score(fbo) {
+            scored.push(Scored {
+                candidate: Candidate::Method(*kind),
+                measures,
+                holdout_forecast: fbo[0].clone(),
+            });
+        }
+    }
+    if scored.is_empty() {
+        return Err(BacktestError::NoCandidate);
+    }
+    sort_ranking(&mut scored, settings.rank_by);
+
+    if settings.combine && scored.len() >= 2 {
+        let members: Vec<MethodKind> = scored
+            .iter()
+            .take(COMBINATION_SIZE)
+            .filter_map(|s| match s.candidate {
+                Candidate::Method(kind) => Some(kind),
+                Candidate::Combination(_) => None,
+            })
+            .collect();
+        let mut combined = vec![vec![0.0; k]; origins];
+        for member in &members {
+            if let Some((_, fbo)) = per_origin.iter().find(|(kind, _)| kind == member) {
+                for (c, f) in combined.iter_mut().zip(fbo) {
+                    for (cv, fv) in c.iter_mut().zip(f) {
+                        *cv += fv / members.len() as f64;
+                    }
+                }
+            }
+        }
+        if let Some(measures) = score(&combined) {
+            scored.push(Scored {
+                candidate: Candidate::Combination(members),
+                measures,
+                holdout_forecast: combined[0].clone(),
+            });
+            sort_ranking(&mut scored, settings.rank_by);
+        }
+    }
+
+    Ok(Backtest {
+        ranking: scored,
+        skipped,
+        holdout_demand: history[train_end..].to_vec(),
+        origins_used: origins,
+        rank_by: settings.rank_by,
+    })
+}
+
+/// Sorts best first; unavailable scores last; ties keep the candidate order (simpler first).
+fn sort_ranking(scored: &mut [Scored], rank_by: RankBy) {
+    scored.sort_by(
+        |a, b| match (rank_by.score(&a.measures), rank_by.score(&b.measures)) {
+            (Some(x), Some(y)) => x.total_cmp(&y),
+            (Some(_), None) => std::cmp::Ordering::Less,
+            (None, Some(_)) => std::cmp::Ordering::Greater,
+            (None, None) => a.measures.rmse.total_cmp(&b.measures.rmse),
+        },
+    );
+}
+
+/// h-step errors e = F - D of a candidate from rolling origins over the whole history, for
+/// empirical bands: origins from `n - max_origins` (but leaving `min_train` periods) to n - 1,
+/// each forecasting up to `horizon` steps that still fall inside the history.
+pub fn rolling_errors(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    min_train: usize,
+    max_origins: usize,
+) -> Vec<Vec<f64>> {
+    let n = history.len();
+    let mut errors = vec![Vec::new(); horizon];
+    let first = n.saturating_sub(max_origins).max(min_train);
+    for end in first..n {
+        let steps = horizon.min(n - end);
+        if let Ok(f) = forecast_with(candidate, &history[..end], season, steps) {
+            for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {
+                errors[h].push(fv - d);
+            }
+        }
+    }
+    errors
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn default_holdout_rules() {
+        assert_eq!(default_holdout(60, Some(12)), 12);
+        assert_eq!(default_holdout(24, Some(12)), 8);
+        assert_eq!(default_holdout(2, None), 1);
+        assert_eq!(default_holdout(50, None), 10);
+    }
+
+    #[test]
+    fn rank_keys_round_trip() {
+        for r in [RankBy::Mape, RankBy::Rmse, RankBy::Bias, RankBy::Mase] {
+            assert_eq!(RankBy::from_key(r.key()), Some(r));
+        }
+        assert_eq!(RankBy::default(), RankBy::Mase);
+    }
+}

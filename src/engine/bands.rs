@@ -1,1 +1,309 @@
-//! (being written)
+//! Bands: prediction intervals around point forecasts at a chosen level.
+//!
+//! Kept apart from: fitting (the analytic variances come from [`crate::engine::methods`]) and
+//! backtesting (the rolling-origin errors come from [`crate::engine::backtest`]). This module
+//! only turns spreads into low/high pairs.
+//!
+//! Two ways, selectable ([`BandMethod`]):
+//! - the MAD rule, F ± z · 1.25 · MAD, with MAD the mean absolute one-step error of the fit
+//!   (common practice; 1.25 approximates sqrt(pi/2) = 1.2533, the ratio of the standard deviation
+//!   to the mean absolute deviation of normal errors). The same width at every horizon.
+//! - horizon-aware: F ± z · sqrt(v_h) with the analytic h-step variance v_h of Hyndman, Koehler,
+//!   Ord & Snyder (2005) where the method's model has one; else the empirical quantiles of the
+//!   rolling-origin h-step errors ([`empirical_band`]).
+//!
+//! z = Φ⁻¹(1 - (1 - level)/2) from statrs. Bands of non-negative demand stop at zero.
+
+use std::fmt;
+
+use statrs::distribution::{ContinuousCDF, Normal};
+
+/// The MAD multiplier of the MAD rule (common practice; sqrt(pi/2) = 1.2533 rounded).
+pub const MAD_TO_SIGMA: f64 = 1.25;
+
+/// Fewest rolling-origin errors at a horizon for empirical quantiles; with fewer, the band uses
+/// the normal quantile times the root mean square of those errors (our choice: quantiles of a
+/// handful of errors are too coarse to trust).
+pub const MIN_ERRORS_FOR_QUANTILES: usize = 20;
+
+/// Why a band could not be set up.
+#[derive(Clone, Debug, PartialEq)]
+pub enum BandError {
+    /// The level is outside 50 % to 99.9 %: choose a level in that range.
+    LevelOutOfRange { percent: f64 },
+}
+
+impl fmt::Display for BandError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BandError::LevelOutOfRange { percent } => {
+                write!(f, "band level {percent} % is outside 50 % to 99.9 %: choose a level in that range")
+            }
+        }
+    }
+}
+
+impl std::error::Error for BandError {}
+
+/// A band level, validated to lie in 50 % ..= 99.9 %.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Level {
+    percent: f64,
+}
+
+impl Level {
+    pub fn new(percent: f64) -> Result<Level, BandError> {
+        if percent.is_finite() && (50.0..=99.9).contains(&percent) {
+            Ok(Level { percent })
+        } else {
+            Err(BandError::LevelOutOfRange { percent })
+        }
+    }
+    pub fn percent(self) -> f64 {
+        self.percent
+    }
+    /// Two-sided normal quantile z = Φ⁻¹(1 - (1 - p)/2).
+    pub fn z(self) -> f64 {
+        standard_normal_quantile(1.0 - (1.0 - self.percent / 100.0) / 2.0)
+    }
+}
+
+impl Default for Level {
+    fn default() -> Self {
+        Level { percent: 95.0 }
+    }
+}
+
+/// Φ⁻¹(p) of the standard normal distribution (statrs).
+pub fn standard_normal_quantile(p: f64) -> f64 {
+    // Normal::new(0, 1) cannot fail: mean finite, standard deviation positive.
+    match Normal::new(0.0, 1.0) {
+        Ok(n) => n.inverse_cdf(p),
+        Err(_) => f64::NAN,
+    }
+}
+
+/// How bands are computed.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum BandMethod {
+    /// F ± z · 1.25 · MAD.
+    MadRule,
+    /// Analytic h-step variances, else empirical rolling-origin quantiles.
+    #[default]
+    HorizonAware,
+}
+
+impl BandMethod {
+    /// "mad" or "horizon".
+    pub fn key(self) -> &'static str {
+        match self {
+            BandMethod::MadRule => "mad",
+            BandMethod::HorizonAware => "horizon",
+        }
+    }
+    pub fn from_key(key: &str) -> Option<BandMethod> {
+        match key {
+            "mad" => Some(BandMethod::MadRule),
+            "horizon" => Some(BandMethod::HorizonAware),
+            _ => None,
+        }
+    }
+}
+
+/// One forecast period with its band.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct BandPoint {
+    pub value: f64,
+    pub low: f64,
+    pub high: f64,
+}
+
+/// Where the spread of each horizon came from, for the page to name.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum BandSource {
+    MadRule,
+    Analytic,
+    EmpiricalQuantiles,
+    /// Too few rolling-origin errors for quantiles: normal quantile times their RMS.
+    EmpiricalNormal,
+}
+
+fn floor_at_zero(points: &mut [BandPoint], non_negative: bool) {
+    if non_negative {
+        for p in points {
+            p.low = p.low.max(0.0);
+            p.value = p.value.max(0.0);
+            p.high = p.high.max(0.0);
+        }
+    }
+}
+
+/// MAD rule: F ± z · 1.25 · MAD at every horizon.
+pub fn mad_band(forecast: &[f64], mad: f64, level: Level, non_negative: bool) -> Vec<BandPoint> {
+    let half = level.z() * MAD_TO_SIGMA * mad;
+    let mut points: Vec<BandPoint> = forecast
+        .iter()
+        .map(|&f| BandPoint {
+            value: f,
+            low: f - half,
+            high: f + half,
+        })
+        .collect();
+    floor_at_zero(&mut points, non_negative);
+    points
+}
+
+/// Analytic band: F ± z · sqrt(v_h).
+pub fn analytic_band(
+    forecast: &[f64],
+    variance: &[f64],
+    level: Level,
+    non_negative: bool,
+) -> Vec<BandPoint> {
+    let z = level.z();
+    let mut points: Vec<BandPoint> = forecast
+        .iter()
+        .zip(variance)
+        .map(|(&f, &v)| {
+            let half = z * v.max(0.0).sqrt();
+            BandPoint {
+                value: f,
+                low: f - half,
+                high: f + half,
+            }
+        })
+        .collect();
+    floor_at_zero(&mut points, non_negative);
+    points
+}
+
+/// Quantile of sorted data with linear interpolation between order statistics (Hyndman & Fan
+/// 1996, definition 7).
+pub fn quantile_sorted(sorted: &[f64], p: f64) -> Option<f64> {
+    if sorted.is_empty() {
+        return None;
+    }
+    let h = (sorted.len() - 1) as f64 * p.clamp(0.0, 1.0);
+    let lo = h.floor() as usize;
+    let hi = h.ceil() as usize;
+    Some(sorted[lo] + (h - lo as f64) * (sorted[hi] - sorted[lo]))
+}
+
+/// Empirical band from rolling-origin errors: `errors_by_horizon[h-1]` holds the h-step errors
+/// e = F - D seen at every origin. The band is [F - q_hi(e), F - q_lo(e)] with q the error
+/// quantiles at (1-p)/2 and (1+p)/2; with fewer than [`MIN_ERRORS_FOR_QUANTILES`] errors,
+/// F ± z · RMS(e). A horizon with no errors borrows the widest spread of the shorter horizons.
+pub fn empirical_band(
+    forecast: &[f64],
+    errors_by_horizon: &[Vec<f64>],
+    level: Level,
+    non_negative: bool,
+) -> (Vec<BandPoint>, Vec<BandSource>) {
+    let p = level.percent() / 100.0;
+    let z = level.z();
+    let mut points = Vec::with_capacity(forecast.len());
+    let mut sources = Vec::with_capacity(forecast.len());
+    let mut last = (0.0, 0.0, BandSource::EmpiricalNormal);
+    for (h, &f) in forecast.iter().enumerate() {
+        let errors = errors_by_horizon.get(h).map(Vec::as_slice).unwrap_or(&[]);
+        let spread = if errors.len() >= MIN_ERRORS_FOR_QUANTILES {
+            let mut sorted = errors.to_vec();
+            sorted.sort_by(f64::total_cmp);
+            let q_lo = quantile_sorted(&sorted, (1.0 - p) / 2.0).unwrap_or(0.0);
+            let q_hi = quantile_sorted(&sorted, (1.0 + p) / 2.0).unwrap_or(0.0);
+            // D = F - e: the high end of demand pairs with the low quantile of the error.
+            (
+                (q_hi).max(0.0),
+                (-q_lo).max(0.0),
+                BandSource::EmpiricalQuantiles,
+            )
+        } else if !errors.is_empty() {
+            let rms = (errors.iter().map(|e| e * e).sum::<f64>() / errors.len() as f64).sqrt();
+            (z * rms, z * rms, BandSource::EmpiricalNormal)
+        } else {
+            last
+        };
+        // Uncertainty does not shrink with the horizon: keep the widest spread so far.
+        let below = spread.0.max(last.0);
+        let above = spread.1.max(last.1);
+        last = (below, above, spread.2);
+        points.push(BandPoint {
+            value: f,
+            low: f - below,
+            high: f + above,
+        });
+        sources.push(spread.2);
+    }
+    floor_at_zero(&mut points, non_negative);
+    (points, sources)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // scipy 1.17.1 scipy.stats.norm.ppf (tests/fixtures/refs/scipy_reference.json): statrs must
+    // agree to 1e-9.
+    #[test]
+    fn normal_quantiles_match_scipy() {
+        let text = include_str!("../../tests/fixtures/refs/scipy_reference.json");
+        let json: serde_json::Value = serde_json::from_str(text).unwrap();
+        let table = json["norm_ppf"].as_object().unwrap();
+        assert!(table.len() >= 10);
+        for (p, expected) in table {
+            let p: f64 = p.parse().unwrap();
+            let z = standard_normal_quantile(p);
+            assert!((z - expected.as_f64().unwrap()).abs() < 1e-9, "p {p}: {z}");
+        }
+        // sqrt(pi/2) from the same file: the 1.25 of the MAD rule is its rounding.
+        let ratio = json["sqrt_pi_over_2"].as_f64().unwrap();
+        assert!((ratio - (std::f64::consts::PI / 2.0).sqrt()).abs() < 1e-15);
+        assert!((ratio - MAD_TO_SIGMA).abs() < 0.0034);
+    }
+
+    #[test]
+    fn level_is_validated() {
+        assert!(Level::new(49.9).is_err());
+        assert!(Level::new(99.95).is_err());
+        assert!(Level::new(f64::NAN).is_err());
+        // scipy norm.ppf(0.975) = 1.959963984540054 (same file).
+        assert!((Level::new(95.0).unwrap().z() - 1.959963984540054).abs() < 1e-9);
+    }
+
+    #[test]
+    fn mad_rule_and_zero_floor() {
+        let b = mad_band(&[10.0, 1.0], 2.0, Level::new(95.0).unwrap(), true);
+        let half = 1.959963984540054 * 1.25 * 2.0;
+        assert!((b[0].high - (10.0 + half)).abs() < 1e-9);
+        assert!((b[0].low - (10.0 - half)).abs() < 1e-9);
+        assert_eq!(b[1].low, 0.0);
+    }
+
+    #[test]
+    fn higher_level_widens_band() {
+        let v = [4.0, 5.0, 6.0];
+        let narrow = analytic_band(&[10.0; 3], &v, Level::new(80.0).unwrap(), false);
+        let wide = analytic_band(&[10.0; 3], &v, Level::new(99.0).unwrap(), false);
+        for (n, w) in narrow.iter().zip(&wide) {
+            assert!(w.high - w.low > n.high - n.low);
+        }
+    }
+
+    #[test]
+    fn empirical_quantiles_and_fallback() {
+        // Errors -10..=10 at horizon 1: the 80 % band spans the 10 % and 90 % error quantiles.
+        let errors: Vec<f64> = (-10..=10).map(f64::from).collect();
+        let (b, s) = empirical_band(
+            &[100.0, 100.0],
+            &[errors, vec![3.0, -3.0]],
+            Level::new(80.0).unwrap(),
+            false,
+        );
+        assert_eq!(s[0], BandSource::EmpiricalQuantiles);
+        assert!((b[0].low - 92.0).abs() < 1e-12 && (b[0].high - 108.0).abs() < 1e-12);
+        // Horizon 2 has two errors: normal fallback, never narrower than horizon 1.
+        assert_eq!(s[1], BandSource::EmpiricalNormal);
+        assert!(b[1].high - b[1].low >= b[0].high - b[0].low);
+        assert_eq!(quantile_sorted(&[1.0, 2.0, 3.0, 4.0], 0.5), Some(2.5));
+    }
+}

@@ -1,1 +1,348 @@
-//! (being written)
+//! Plan: the whole job for one item, from a validated series to a ranked, banded forecast.
+//!
+//! Kept apart from: reading text and showing results. This is thin glue over
+//! [`crate::engine::patterns`], [`crate::engine::backtest`], [`crate::engine::methods`] and
+//! [`crate::engine::bands`]; it owns only the defaults and the order of the steps:
+//! 1. fill inner gaps by linear interpolation (named in the notes);
+//! 2. detect season length (a user override wins), trend and demand class;
+//! 3. choose the candidates that apply; backtest and rank them on the holdout;
+//! 4. refit the winner on all data and forecast the horizon with its band.
+
+use std::fmt;
+
+use crate::engine::accuracy::{LedgerRow, DEFAULT_TRACKING_LIMIT};
+use crate::engine::backtest::{self, Backtest, BacktestError, BacktestSettings, Candidate, RankBy};
+use crate::engine::bands::{self, BandMethod, BandPoint, BandSource, Level};
+use crate::engine::calendar::Period;
+use crate::engine::methods::{self, MethodKind};
+use crate::engine::patterns::{self, DemandClass, DemandVerdict, SeasonVerdict, TrendVerdict};
+use crate::engine::series::Series;
+
+/// Fewest periods the plan works with.
+pub const MIN_PERIODS: usize = 4;
+
+/// Rolling origins over the history used for empirical bands (our choice: enough errors at short
+/// horizons for quantiles, few enough refits to stay fast).
+pub const BAND_ORIGINS: usize = 24;
+
+/// Season length choice.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum SeasonChoice {
+    #[default]
+    Auto,
+    /// A user-given season length (1 = no season); always wins over detection.
+    Fixed(usize),
+}
+
+/// Settings of one plan. Defaults: horizon from the calendar, automatic season, holdout = last
+/// full season, 95 % horizon-aware band, ranked by MASE, tracking limit 4, 3 rolling origins.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PlanSettings {
+    /// Periods to forecast; `None`: the calendar's season length, else 6.
+    pub horizon: Option<usize>,
+    pub season: SeasonChoice,
+    /// Holdout length; `None`: [`backtest::default_holdout`].
+    pub holdout: Option<usize>,
+    pub level: Level,
+    pub band: BandMethod,
+    pub rank_by: RankBy,
+    pub tracking_limit: f64,
+    pub origins: usize,
+    /// Methods to try; `None`: all that apply.
+    pub methods: Option<Vec<MethodKind>>,
+    pub combine: bool,
+}
+
+impl Default for PlanSettings {
+    fn default() -> Self {
+        PlanSettings {
+            horizon: None,
+            season: SeasonChoice::Auto,
+            holdout: None,
+            level: Level::default(),
+            band: BandMethod::default(),
+            rank_by: RankBy::default(),
+            tracking_limit: DEFAULT_TRACKING_LIMIT,
+            origins: 3,
+            methods: None,
+            combine: true,
+        }
+    }
+}
+
+/// Why an item could not be planned.
+#[derive(Clone, Debug, PartialEq)]
+pub enum PlanError {
+    /// Fewer than [`MIN_PERIODS`] periods: add more history.
+    TooShort { name: String, length: usize },
+    /// The horizon is zero: forecast at least one period.
+    ZeroHorizon,
+    /// The backtest failed (see its message).
+    Backtest { name: String, source: BacktestError },
+}
+
+impl fmt::Display for PlanError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            PlanError::TooShort { name, length } => write!(
+                f,
+                "item \"{name}\" has {length} periods; at least {MIN_PERIODS} are needed to test and forecast"
+            ),
+            PlanError::ZeroHorizon => write!(f, "the horizon is 0: forecast at least one period"),
+            PlanError::Backtest { name, source } => write!(f, "item \"{name}\": {source}"),
+        }
+    }
+}
+
+impl std::error::Error for PlanError {}
+
+/// One forecast period.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct ForecastPoint {
+    pub period: Period,
+    pub band: BandPoint,
+    pub source: BandSource,
+}
+
+/// One holdout period of the Error ledger.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LedgerEntry {
+    pub period: Period,
+    pub row: LedgerRow,
+}
+
+/// Everything the front ends show for one item.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ItemPlan {
+    pub name: String,
+    pub season: SeasonVerdict,
+    pub trend: TrendVerdict,
+    pub demand: DemandVerdict,
+    pub backtest: Backtest,
+    pub chosen: Candidate,
+    /// Holdout periods of the chosen candidate, with its Error ledger.
+    pub ledger: Vec<LedgerEntry>,
+    /// History after gap filling.
+    pub history: Vec<f64>,
+    /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined;
+    /// all `None` for a combination).
+    pub fitted: Vec<Option<f64>>,
+    pub forecast: Vec<ForecastPoint>,
+    pub level: Level,
+    pub band: BandMethod,
+    /// Plain-words notes: gaps filled, methods skipped and why.
+    pub notes: Vec<String>,
+}
+
+/// The methods that apply to a series with this season and demand class.
+pub fn applicable_methods(
+    season: Option<usize>,
+    demand: &DemandVerdict,
+    has_zeros: bool,
+) -> Vec<MethodKind> {
+    MethodKind::ALL
+        .into_iter()
+        .filter(|k| !k.needs_season() || season.is_some())
+        .filter(|k| {
+            !k.is_intermittent()
+                || has_zeros
+                || matches!(demand.class, DemandClass::Intermittent | DemandClass::Lumpy)
+        })
+        .collect()
+}
+
+/// Plans one item.
+pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, PlanError> {
+    let name = series.name().to_string();
+    let history = series.interpolated();
+    let n = history.len();
+    if n < MIN_PERIODS {
+        return Err(PlanError::TooShort { name, length: n });
+    }
+    let frequency = series.frequency();
+    let horizon = settings
+        .horizon
+        .unwrap_or(frequency.natural_season().unwrap_or(6));
+    if horizon == 0 {
+        return Err(PlanError::ZeroHorizon);
+    }
+    let mut notes = Vec::new();
+    let gaps = series.gap_indices();
+    if !gaps.is_empty() {
+        let labels: Vec<String> = gaps.iter().map(|&i| series.period(i).to_string()).collect();
+        notes.push(format!(
+            "{} missing period(s) filled by straight-line interpolation: {}",
+            gaps.len(),
+            labels.join(", ")
+        ));
+    }
+
+    let user_season = match settings.season {
+        SeasonChoice::Auto => None,
+        SeasonChoice::Fixed(m) => Some(m),
+    };
+    let season = patterns::detect_season(&history, frequency, user_season);
+    let trend = patterns::mann_kendall(&history);
+    let demand = patterns::classify_demand(&history);
+    let m = season.length;
+    let non_negative = history.iter().all(|v| *v >= 0.0);
+    let has_zeros = history.contains(&0.0);
+
+    let candidates = settings
+        .methods
+        .clone()
+        .unwrap_or_else(|| applicable_methods(m, &demand, has_zeros));
+    let holdout = settings
+        .holdout
+        .unwrap_or_else(|| backtest::default_holdout(n, m.or(frequency.natural_season())));
+    let bt_settings = BacktestSettings {
+        holdout,
+        origins: settings.origins,
+        rank_by: settings.rank_by,
+        candidates,
+        combine: settings.combine,
+    };
+    let bt = backtest::run(&history, m, &bt_settings).map_err(|source| PlanError::Backtest {
+        name: name.clone(),
+        source,
+    })?;
+    for s in &bt.skipped {
+        notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
+    }
+    let best = &bt.ranking[0];
+    let chosen = best.candidate.clone();
+    let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit);
+    let ledger = ledger_rows
+        .into_iter()
+        .enumerate()
+        .map(|(i, row)| LedgerEntry {
+            period: series.period(n - holdout + i),
+            row,
+        })
+        .collect();
+
+    let (point, fitted, variance) = refit(&chosen, &history, m, horizon);
+    let points_and_sources = match settings.band {
+        BandMethod::MadRule => {
+            let residual_mad = mean_abs_residual(&fitted, &history)
+                .or_else(|| {
+                    best.ledger(&bt.holdout_demand, settings.tracking_limit)
+                        .last()
+                        .map(|r| r.mad)
+                })
+                .unwrap_or(0.0);
+            let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
+            let src = vec![BandSource::MadRule; pts.len()];
+            (pts, src)
+        }
+        BandMethod::HorizonAware => match variance {
+            Some(v) => {
+                let pts = bands::analytic_band(&point, &v, settings.level, non_negative);
+                let src = vec![BandSource::Analytic; pts.len()];
+                (pts, src)
+            }
+            None => {
+                let min_train = (2 * m.unwrap_or(1))
+                    .max(MIN_PERIODS)
+                    .min(n.saturating_sub(1))
+                    .max(2);
+                let errors = backtest::rolling_errors(
+                    &chosen,
+                    &history,
+                    m,
+                    horizon,
+                    min_train,
+                    BAND_ORIGINS,
+                );
+                bands::empirical_band(&point, &errors, settings.level, non_negative)
+            }
+        },
+    };
+    let last = series.period(n - 1);
+    let forecast = points_and_sources
+        .0
+        .into_iter()
+        .zip(points_and_sources.1)
+        .enumerate()
+        .map(|(h, (band, source))| ForecastPoint {
+            period: last.offset(h as i64 + 1),
+            band,
+            source,
+        })
+        .collect();
+
+    Ok(ItemPlan {
+        name,
+        season,
+        trend,
+        demand,
+        backtest: bt,
+        chosen,
+        ledger,
+        history,
+        fitted,
+        forecast,
+        level: settings.level,
+        band: settings.band,
+        notes,
+    })
+}
+
+/// Refits a candidate on all data: point forecasts, in-sample fit and analytic variances.
+/// When the refit fails (it fitted on the shorter training part, so this is rare) the
+/// seasonal-naive or naive forecast stands in, and the point forecast is still produced.
+fn refit(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
+    match candidate {
+        Candidate::Method(kind) => match methods::fit(*kind, history, season, horizon) {
+            Ok(f) => (
+                f.forecast().to_vec(),
+                f.fitted().to_vec(),
+                f.variance().map(<[f64]>::to_vec),
+            ),
+            Err(_) => fallback(history, horizon),
+        },
+        Candidate::Combination(members) => {
+            let fits: Result<Vec<_>, _> = members
+                .iter()
+                .map(|k| methods::fit(*k, history, season, horizon))
+                .collect();
+            match fits {
+                Ok(fits) if !fits.is_empty() => {
+                    let k = fits.len() as f64;
+                    let point = (0..horizon)
+                        .map(|h| fits.iter().map(|f| f.forecast()[h]).sum::<f64>() / k)
+                        .collect();
+                    let fitted = (0..history.len())
+                        .map(|t| {
+                            fits.iter()
+                                .map(|f| f.fitted()[t])
+                                .sum::<Option<f64>>()
+                                .map(|s| s / k)
+                        })
+                        .collect();
+                    (point, fitted, None)
+                }
+                _ => fallback(history, horizon),
+            }
+        }
+    }
+}
+
+fn fallback(history: &[f64], horizon: usize) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
+    let last = history.last().copied().unwrap_or(0.0);
+    (vec![last; horizon], vec![None; history.len()], None)
+}
+
+fn mean_abs_residual(fitted: &[Option<f64>], history: &[f64]) -> Option<f64> {
+    let errors: Vec<f64> = fitted
+        .iter()
+        .zip(history)
+        .filter_map(|(f, d)| f.map(|f| (f - d).abs()))
+        .collect();
+    (!errors.is_empty()).then(|| errors.iter().sum::<f64>() / errors.len() as f64)
+}

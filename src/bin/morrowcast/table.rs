@@ -1,0 +1,161 @@
+//! Readable text output: the intake report and one item's plan as aligned tables.
+
+use std::fmt::Write;
+
+use morrowcast::engine::intake::IntakeReport;
+use morrowcast::engine::plan::ItemPlan;
+
+fn opt(v: Option<f64>, decimals: usize) -> String {
+    v.map_or_else(|| "n/a".to_string(), |x| format!("{x:.decimals$}"))
+}
+
+/// The intake report in plain words.
+pub fn intake_report(r: &IntakeReport) -> String {
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "delimiter: {}   decimal mark: {}   layout: {}   frequency: {}",
+        r.delimiter.as_str(),
+        r.decimal.as_str(),
+        r.layout.as_str(),
+        r.frequency.as_str()
+    );
+    if let Some(d) = &r.date_format {
+        let _ = writeln!(s, "periods read as: {d}");
+    }
+    let _ = writeln!(
+        s,
+        "items: {}   gaps filled: {}",
+        r.items.len(),
+        r.gaps_filled
+    );
+    for item in &r.items {
+        let first = item
+            .periods
+            .first()
+            .map(ToString::to_string)
+            .unwrap_or_default();
+        let last = item
+            .periods
+            .last()
+            .map(ToString::to_string)
+            .unwrap_or_default();
+        let _ = writeln!(
+            s,
+            "  {}: {} periods, {} to {}",
+            item.name,
+            item.values.len(),
+            first,
+            last
+        );
+    }
+    for w in &r.warnings {
+        let _ = writeln!(s, "warning: {w}");
+    }
+    for e in &r.errors {
+        let _ = writeln!(
+            s,
+            "error: row {}, column \"{}\", found \"{}\": {}",
+            e.row, e.column, e.text, e.message
+        );
+    }
+    s
+}
+
+/// One item's plan: patterns, Backtest ranking, forecast with band, Error ledger.
+pub fn plan(p: &ItemPlan) -> String {
+    let mut s = String::new();
+    let _ = writeln!(s, "\n== {} ==", p.name);
+    let _ = writeln!(
+        s,
+        "season length: {} ({})",
+        p.season.length.unwrap_or(1),
+        p.season.reason
+    );
+    let _ = writeln!(
+        s,
+        "trend: {} (Mann-Kendall z {:.2}, p {:.4})",
+        p.trend.direction.as_str(),
+        p.trend.z,
+        p.trend.p_value
+    );
+    let _ = writeln!(
+        s,
+        "demand class: {} (ADI {:.2}, CV² {:.2})",
+        p.demand.class.as_str(),
+        p.demand.adi,
+        p.demand.cv2
+    );
+    for n in &p.notes {
+        let _ = writeln!(s, "note: {n}");
+    }
+    let _ = writeln!(
+        s,
+        "\nBacktest ranking by {} ({} origin(s), holdout {} periods)",
+        p.backtest.rank_by.key(),
+        p.backtest.origins_used,
+        p.backtest.holdout_demand.len()
+    );
+    let _ = writeln!(
+        s,
+        "  {:<44} {:>9} {:>11} {:>11} {:>7}",
+        "method", "MAPE %", "RMSE", "bias", "MASE"
+    );
+    for r in &p.backtest.ranking {
+        let _ = writeln!(
+            s,
+            "  {:<44} {:>9} {:>11.2} {:>11.2} {:>7}",
+            r.candidate.label(),
+            opt(r.measures.mape, 2),
+            r.measures.rmse,
+            r.measures.bias,
+            opt(r.measures.mase, 3)
+        );
+    }
+    let _ = writeln!(s, "\nchosen: {}", p.chosen.label());
+    let _ = writeln!(
+        s,
+        "forecast with {}% band ({}):",
+        p.level.percent(),
+        p.band.key()
+    );
+    let _ = writeln!(
+        s,
+        "  {:<10} {:>11} {:>11} {:>11}",
+        "period", "value", "low", "high"
+    );
+    for f in &p.forecast {
+        let _ = writeln!(
+            s,
+            "  {:<10} {:>11.2} {:>11.2} {:>11.2}",
+            f.period.to_string(),
+            f.band.value,
+            f.band.low,
+            f.band.high
+        );
+    }
+    let _ = writeln!(s, "\nError ledger (error = forecast - demand):");
+    let _ = writeln!(
+        s,
+        "  {:<10} {:>9} {:>9} {:>9} {:>8} {:>9} {:>8} {:>9} {:>7}",
+        "period", "demand", "forecast", "error", "pct %", "MAD", "MAPE %", "bias", "TS"
+    );
+    for e in &p.ledger {
+        let r = &e.row;
+        let mark = if r.out_of_limits { " !" } else { "" };
+        let _ = writeln!(
+            s,
+            "  {:<10} {:>9.2} {:>9.2} {:>9.2} {:>8} {:>9.2} {:>8} {:>9.2} {:>7}{mark}",
+            e.period.to_string(),
+            r.demand,
+            r.forecast,
+            r.error,
+            opt(r.pct_error, 1),
+            r.mad,
+            opt(r.mape, 1),
+            r.bias,
+            opt(r.tracking_signal, 2)
+        );
+    }
+    s
+}
