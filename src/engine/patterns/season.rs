@@ -139,6 +139,9 @@ pub fn autocorrelation_peak(acf: &[f64], n: usize) -> Option<usize> {
 /// and the data hold at least [`MIN_FULL_SEASONS`] full seasons. `user` always wins: `Some(m)`
 /// with m >= 2 sets the length to m, `Some(0)` or `Some(1)` means "no season"; either way the
 /// evidence is still computed and shown.
+///
+/// Cost: O(n L) for L autocorrelation lags; L is about 2m with a calendar, but n/3 for an
+/// undated series (the peak search), so O(n^2 / 3) there.
 pub fn detect_season(values: &[f64], frequency: Frequency, user: Option<usize>) -> SeasonVerdict {
     let n = values.len();
     if values.iter().any(|v| !v.is_finite()) {
@@ -180,7 +183,7 @@ pub fn detect_season(values: &[f64], frequency: Frequency, user: Option<usize>) 
     let evidence = candidate.map(|m| (m, describe_evidence(m, test.as_ref(), full_seasons, n)));
     let (length, source, reason) = match (user, evidence) {
         (Some(_), evidence) => {
-            let own = match (user_season, evidence) {
+            let reason = match (user_season, evidence) {
                 (Some(m), Some((_, e))) => format!(
                     "{m}-period season set by you; the data alone would {}: {e}",
                     if data_accepts { "accept it" } else { "not" }
@@ -194,7 +197,7 @@ pub fn detect_season(values: &[f64], frequency: Frequency, user: Option<usize>) 
                     no_candidate_reason(n).trim_start_matches("no season: ")
                 ),
             };
-            (user_season, SeasonSource::User, own)
+            (user_season, SeasonSource::User, reason)
         }
         (None, Some((m, e))) => {
             let verb = if data_accepts { "accepted" } else { "rejected" };
