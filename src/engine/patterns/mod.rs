@@ -1,118 +1,26 @@
-//! Patterns: season length, trend and demand class, each with its evidence.
-//! (Placeholder API: being written.)
+//! Patterns: season length, trend and demand class of one series, each with its evidence and a
+//! one-sentence reason a planner can read.
+//!
+//! Kept apart from: forecasting methods (they receive the accepted season length from the
+//! caller) and from I/O. Each verdict is computed from plain values so it can be checked
+//! against outside references on its own:
+//! - [`acf`]: sample autocorrelation (Box-Jenkins estimator);
+//! - [`season`]: season-length candidate and the M4 benchmark seasonality test;
+//! - [`trend`]: the Mann-Kendall trend test;
+//! - [`demand_class`]: the Syntetos-Boylan-Croston demand classes.
 
-use crate::engine::calendar::Frequency;
+pub mod acf;
+pub mod demand_class;
+pub mod season;
+pub mod trend;
 
-/// Where the season-length candidate came from.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum SeasonSource {
-    Calendar,
-    Autocorrelation,
-    User,
-    NoCandidate,
-}
+pub use acf::autocorrelation;
+pub use demand_class::{classify_demand, DemandClass, DemandVerdict, ADI_CUTOFF, CV2_CUTOFF};
+pub use season::{
+    autocorrelation_peak, detect_season, season_test, SeasonSource, SeasonTest, SeasonVerdict,
+    MIN_FULL_SEASONS, SEASON_TEST_CRITICAL_VALUE,
+};
+pub use trend::{mann_kendall, TrendDirection, TrendVerdict, TREND_SIGNIFICANCE};
 
-/// The season-length verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
-pub struct SeasonVerdict {
-    /// Accepted season length (>= 2), or `None`.
-    pub length: Option<usize>,
-    pub candidate: Option<usize>,
-    pub source: SeasonSource,
-    /// Sample autocorrelations r_1..r_max.
-    pub autocorrelation: Vec<f64>,
-    /// |r_m| at the candidate lag.
-    pub statistic: f64,
-    /// 1.645 sqrt((1 + 2 sum_{k<m} r_k^2)/n).
-    pub threshold: f64,
-    pub full_seasons: usize,
-    /// One sentence that explains the verdict.
-    pub reason: String,
-}
-
-pub fn detect_season(_values: &[f64], _frequency: Frequency, user: Option<usize>) -> SeasonVerdict {
-    SeasonVerdict {
-        length: user.filter(|m| *m >= 2),
-        candidate: user,
-        source: SeasonSource::User,
-        autocorrelation: vec![],
-        statistic: 0.0,
-        threshold: 0.0,
-        full_seasons: 0,
-        reason: String::new(),
-    }
-}
-
-/// Trend direction from the Mann-Kendall test.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum TrendDirection {
-    Up,
-    Down,
-    None,
-}
-impl TrendDirection {
-    /// "up", "down" or "none".
-    pub fn as_str(self) -> &'static str {
-        match self {
-            TrendDirection::Up => "up",
-            TrendDirection::Down => "down",
-            TrendDirection::None => "none",
-        }
-    }
-}
-
-/// The trend verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
-pub struct TrendVerdict {
-    pub direction: TrendDirection,
-    pub s: f64,
-    pub z: f64,
-    pub p_value: f64,
-    pub significance: f64,
-}
-
-pub fn mann_kendall(_values: &[f64]) -> TrendVerdict {
-    TrendVerdict {
-        direction: TrendDirection::None,
-        s: 0.0,
-        z: 0.0,
-        p_value: 1.0,
-        significance: 0.05,
-    }
-}
-
-/// Demand classes of Syntetos, Boylan & Croston (2005).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum DemandClass {
-    Smooth,
-    Erratic,
-    Intermittent,
-    Lumpy,
-}
-impl DemandClass {
-    /// "smooth", "erratic", "intermittent" or "lumpy".
-    pub fn as_str(self) -> &'static str {
-        match self {
-            DemandClass::Smooth => "smooth",
-            DemandClass::Erratic => "erratic",
-            DemandClass::Intermittent => "intermittent",
-            DemandClass::Lumpy => "lumpy",
-        }
-    }
-}
-
-/// The demand-class verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
-pub struct DemandVerdict {
-    pub class: DemandClass,
-    pub adi: f64,
-    pub cv2: f64,
-}
-
-pub fn classify_demand(_values: &[f64]) -> DemandVerdict {
-    DemandVerdict {
-        class: DemandClass::Smooth,
-        adi: 1.0,
-        cv2: 0.0,
-    }
-}
+#[cfg(test)]
+mod season_tests;
