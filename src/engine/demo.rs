@@ -1,9 +1,3 @@
-<<<<<<< HEAD
-//! (being written)
-pub fn demo_csv() -> String {
-    String::new()
-}
-=======
 //! The demo scenario: "Fernhollow Garden Supply", an invented garden shop with six items and
 //! five years of monthly unit sales (2021-12 through 2026-11), so a first-time user sees every
 //! kind of pattern the engine describes without bringing data.
@@ -181,4 +175,3 @@ impl SplitMix64 {
 
 #[cfg(test)]
 mod tests;
->>>>>>> patterns
