@@ -31,7 +31,7 @@
 //! `f_t = A_t + (1 - alpha)^t l_0`, so the best `l_0` is the least-squares solution
 //! `l_0 = sum c_t (x_t - A_t) / sum c_t^2` with `c_t = (1 - alpha)^t`. Alpha is then found by a
 //! grid over `[1e-4, 1]` refined by golden-section search on the profiled SSE
-//! ([`minimise_scalar`], shared with [`super::intermittent`]).
+//! (`minimise_scalar`, shared with the intermittent methods).
 
 use super::decompose::{self, Kind};
 use super::trend_season::fit_line;
