@@ -12,12 +12,12 @@ fn run(args: &[&str], stdin: Option<&str>) -> Output {
         .spawn()
         .expect("the binary starts");
     if let Some(text) = stdin {
-        child
+        // The tool may exit before reading (bad arguments): a broken pipe is no failure here.
+        let _ = child
             .stdin
             .take()
             .expect("stdin")
-            .write_all(text.as_bytes())
-            .expect("write stdin");
+            .write_all(text.as_bytes());
     } else {
         drop(child.stdin.take());
     }
