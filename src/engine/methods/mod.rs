@@ -8,6 +8,7 @@
 //! [`optimize`] on the history only, so a backtest that passes the training part never lets the
 //! method see the holdout.
 
+pub mod adjusted;
 pub mod decompose;
 pub mod intermittent;
 pub mod optimize;
@@ -279,7 +280,9 @@ impl Fitted {
 }
 
 /// Fits `kind` to `history` and forecasts `horizon` steps. `season_length` is the accepted
-/// season length (`None` or 1: no season).
+/// season length (`None` or 1: no season). With a season, SES, Holt's and damped trend run on
+/// the seasonally adjusted series ([`adjusted`]), as in the M3/M4 benchmarks; Theta adjusts
+/// itself; the other methods model the season directly or ignore it.
 pub fn fit(
     kind: MethodKind,
     history: &[f64],
@@ -294,10 +297,15 @@ pub fn fit(
         MethodKind::Naive => simple::naive(history, horizon),
         MethodKind::SeasonalNaive => simple::seasonal_naive(history, season.unwrap_or(1), horizon),
         MethodKind::MovingAverage => simple::moving_average(history, horizon),
-        MethodKind::Ses
-        | MethodKind::Holt
-        | MethodKind::DampedTrend
-        | MethodKind::HoltWintersAdditive
+        MethodKind::Ses | MethodKind::Holt | MethodKind::DampedTrend => {
+            match adjusted::applies(history, season) {
+                Some(m) => adjusted::fit_adjusted(history, m, horizon, |y| {
+                    smoothing::fit(kind, y, None, horizon)
+                }),
+                None => smoothing::fit(kind, history, None, horizon),
+            }
+        }
+        MethodKind::HoltWintersAdditive
         | MethodKind::HoltWintersMultiplicative
         | MethodKind::DampedHoltWintersAdditive
         | MethodKind::DampedHoltWintersMultiplicative => {
