@@ -32,8 +32,8 @@
 //! to score and the constants fall back to 0.1. No analytic variance is published for these
 //! methods, so none is returned.
 
+use super::optimize::minimise_scalar;
 use super::optimize::{self, Bound, Settings};
-use super::theta::minimise_scalar;
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
 /// Search range of every smoothing constant here.

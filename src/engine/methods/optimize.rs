@@ -1,4 +1,5 @@
-//! Bounded Nelder-Mead minimisation, used to fit smoothing parameters and initial states.
+//! Bounded Nelder-Mead minimisation, used to fit smoothing parameters and initial states, and a
+//! grid-plus-golden-section search for one-parameter problems.
 //!
 //! Kept apart from: any model. The objective is a closure over a parameter slice; bounds are a
 //! box. A compact implementation is used instead of a crate because the problems are tiny (one to
@@ -211,6 +212,65 @@ where
     })
 }
 
+/// Minimises a function of one variable on `[low, high]`: the best of `grid_points` evenly
+/// spaced points (at least 2), then golden-section search between its two neighbours until the
+/// bracket is narrower than `tolerance`. The grid guards against the several dips an SSE curve
+/// can have; golden section needs only one inside the final bracket. Returns `(x, f(x))`.
+pub fn minimise_scalar(
+    mut objective: impl FnMut(f64) -> f64,
+    low: f64,
+    high: f64,
+    grid_points: usize,
+    tolerance: f64,
+) -> (f64, f64) {
+    let points = grid_points.max(2);
+    let step = (high - low) / (points - 1) as f64;
+    let at = |i: usize| {
+        if i + 1 == points {
+            high
+        } else {
+            low + step * i as f64
+        }
+    };
+    let mut value_of = |x: f64| {
+        let v = objective(x);
+        if v.is_finite() {
+            v
+        } else {
+            f64::INFINITY
+        }
+    };
+    let grid: Vec<f64> = (0..points).map(|i| value_of(at(i))).collect();
+    let best = (0..points)
+        .min_by(|&a, &b| grid[a].total_cmp(&grid[b]))
+        .unwrap_or(0);
+    let mut best_point = (at(best), grid[best]);
+    let (mut lo, mut hi) = (at(best.saturating_sub(1)), at((best + 1).min(points - 1)));
+    let ratio = (5f64.sqrt() - 1.0) / 2.0;
+    let mut left = hi - ratio * (hi - lo);
+    let mut right = lo + ratio * (hi - lo);
+    let (mut f_left, mut f_right) = (value_of(left), value_of(right));
+    while hi - lo > tolerance {
+        if f_left <= f_right {
+            hi = right;
+            (right, f_right) = (left, f_left);
+            left = hi - ratio * (hi - lo);
+            f_left = value_of(left);
+        } else {
+            lo = left;
+            (left, f_left) = (right, f_right);
+            right = lo + ratio * (hi - lo);
+            f_right = value_of(right);
+        }
+    }
+    for candidate in [(left, f_left), (right, f_right)] {
+        if candidate.1 < best_point.1 {
+            best_point = candidate;
+        }
+    }
+    best_point
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -263,5 +323,14 @@ mod tests {
             Settings::default(),
         );
         assert!((m.point[0] - 0.5).abs() < 1e-4);
+    }
+
+    // A quartic with two dips, (x^2 - 1)^2 + 0.3 x, has its global minimum near x = -1.04 and a
+    // local one near 0.96 (calculus on the polynomial): the grid must pick the global one.
+    #[test]
+    fn scalar_search_finds_global_dip() {
+        let (x, _) = minimise_scalar(|x| (x * x - 1.0).powi(2) + 0.3 * x, -2.0, 2.0, 21, 1e-10);
+        let derivative = 4.0 * x * (x * x - 1.0) + 0.3;
+        assert!(x < 0.0 && derivative.abs() < 1e-6, "{x}");
     }
 }

@@ -31,9 +31,10 @@
 //! `f_t = A_t + (1 - alpha)^t l_0`, so the best `l_0` is the least-squares solution
 //! `l_0 = sum c_t (x_t - A_t) / sum c_t^2` with `c_t = (1 - alpha)^t`. Alpha is then found by a
 //! grid over `[1e-4, 1]` refined by golden-section search on the profiled SSE
-//! (`minimise_scalar`, shared with the intermittent methods).
+//! ([`super::optimize::minimise_scalar`]).
 
 use super::decompose::{self, Kind};
+use super::optimize::minimise_scalar;
 use super::trend_season::fit_line;
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
@@ -85,65 +86,6 @@ fn fit_ses(x: &[f64]) -> SesFit {
         ALPHA_TOLERANCE,
     );
     ses_profile(x, alpha)
-}
-
-/// Minimises a function of one variable on `[low, high]`: the best of `grid_points` evenly
-/// spaced points (at least 2), then golden-section search between its two neighbours until the
-/// bracket is narrower than `tolerance`. The grid guards against the several dips an SSE curve
-/// can have; golden section needs only one inside the final bracket. Returns `(x, f(x))`.
-pub(super) fn minimise_scalar(
-    mut objective: impl FnMut(f64) -> f64,
-    low: f64,
-    high: f64,
-    grid_points: usize,
-    tolerance: f64,
-) -> (f64, f64) {
-    let points = grid_points.max(2);
-    let step = (high - low) / (points - 1) as f64;
-    let at = |i: usize| {
-        if i + 1 == points {
-            high
-        } else {
-            low + step * i as f64
-        }
-    };
-    let mut value_of = |x: f64| {
-        let v = objective(x);
-        if v.is_finite() {
-            v
-        } else {
-            f64::INFINITY
-        }
-    };
-    let grid: Vec<f64> = (0..points).map(|i| value_of(at(i))).collect();
-    let best = (0..points)
-        .min_by(|&a, &b| grid[a].total_cmp(&grid[b]))
-        .unwrap_or(0);
-    let mut best_point = (at(best), grid[best]);
-    let (mut lo, mut hi) = (at(best.saturating_sub(1)), at((best + 1).min(points - 1)));
-    let ratio = (5f64.sqrt() - 1.0) / 2.0;
-    let mut left = hi - ratio * (hi - lo);
-    let mut right = lo + ratio * (hi - lo);
-    let (mut f_left, mut f_right) = (value_of(left), value_of(right));
-    while hi - lo > tolerance {
-        if f_left <= f_right {
-            hi = right;
-            (right, f_right) = (left, f_left);
-            left = hi - ratio * (hi - lo);
-            f_left = value_of(left);
-        } else {
-            lo = left;
-            (left, f_left) = (right, f_right);
-            right = lo + ratio * (hi - lo);
-            f_right = value_of(right);
-        }
-    }
-    for candidate in [(left, f_left), (right, f_right)] {
-        if candidate.1 < best_point.1 {
-            best_point = candidate;
-        }
-    }
-    best_point
 }
 
 /// `(1 - (1 - alpha)^k) / alpha`, computed without cancellation for small alpha (tends to k).
