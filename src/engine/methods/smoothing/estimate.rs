@@ -64,20 +64,30 @@ pub struct FitSettings {
     pub bounds: ParameterBounds,
     /// Alternations of state solve and simplex after the first multi-start search.
     pub rounds: usize,
-    /// Settings of each Nelder-Mead run.
+    /// Settings of the first, multi-start Nelder-Mead search.
     pub search: Settings,
+    /// Settings of the later single-start searches, which begin near the answer.
+    pub polish: Settings,
+    /// Stop alternating when a round improves the SSE by less than this fraction.
+    pub round_tolerance: f64,
 }
 
 impl Default for FitSettings {
     fn default() -> Self {
         FitSettings {
             bounds: ParameterBounds::default(),
-            rounds: 8,
+            rounds: 6,
             search: Settings {
-                tolerance: 1e-9,
-                max_evaluations: 400,
+                tolerance: 1e-4,
+                max_evaluations: 200,
                 initial_step: 0.1,
             },
+            polish: Settings {
+                tolerance: 1e-8,
+                max_evaluations: 200,
+                initial_step: 0.02,
+            },
+            round_tolerance: 1e-5,
         }
     }
 }
@@ -88,14 +98,12 @@ pub struct Estimate {
     pub parameters: Parameters,
     pub initial: States,
     pub sse: f64,
-    /// Objective evaluations spent by the simplex searches.
+    /// SSE evaluations spent by the simplex searches (all starts and rounds).
     pub evaluations: usize,
 }
 
-/// Stop alternating when a round improves the SSE by less than this fraction.
-const ROUND_TOLERANCE: f64 = 1e-7;
 /// Gauss-Newton steps per state solve (one suffices for additive models).
-const STATE_STEPS: usize = 4;
+const STATE_STEPS: usize = 2;
 
 /// Search starts in (α, β*, γ*, φ) — spread over the region so that a surface with several
 /// local minima is entered from different sides (common practice).
@@ -174,17 +182,20 @@ pub fn estimate(model: Model, y: &[f64], settings: &FitSettings) -> Estimate {
     let mut ring = vec![0.0; model.period()];
     let mut solver = StateSolver::new(model);
 
+    let evaluations = std::cell::Cell::new(0usize);
     let objective = |u: &[f64], states: &States, ring: &mut [f64]| {
+        evaluations.set(evaluations.get() + 1);
         let p = to_parameters(model, u);
         recursion::sse(model, &p, states, y, ring)
     };
+    // Stage 1: loose searches from every start with the heuristic states, to pick a basin.
     let mut best = minimise_from_starts(
         |u| objective(u, &states, &mut ring),
         &starts,
         &bounds,
         settings.search,
     );
-    let mut evaluations = best.evaluations;
+    // Stage 2: alternate exact state solves and tight simplex polishing from the best point.
     for _ in 0..settings.rounds {
         let p = to_parameters(model, &best.point);
         let solved = solver.refine(model, &p, &mut states, y, STATE_STEPS);
@@ -192,19 +203,19 @@ pub fn estimate(model: Model, y: &[f64], settings: &FitSettings) -> Estimate {
             |u| objective(u, &states, &mut ring),
             &best.point,
             &bounds,
-            settings.search,
+            settings.polish,
         );
-        evaluations += next.evaluations;
         let previous = best.value;
         if next.value <= solved {
             best = next;
         } else {
             best.value = solved;
         }
-        if previous - best.value <= ROUND_TOLERANCE * previous.abs() {
+        if previous - best.value <= settings.round_tolerance * previous.abs() {
             break;
         }
     }
+    let evaluations = evaluations.get();
     let parameters = to_parameters(model, &best.point);
     let sse = recursion::sse(model, &parameters, &states, y, &mut ring);
     Estimate {

@@ -150,35 +150,76 @@ pub(crate) fn forecast(model: Model, p: Parameters, last: &States, horizon: usiz
 /// SSE only, for the optimiser's objective: no allocation. `ring` is scratch of length m (its
 /// contents are overwritten). Parameters must already be [`Parameters::effective`] and
 /// `initial.seasonal` must have length m; non-finite results come back as NaN or infinity.
+/// Same equations as [`run`], specialised per model shape so that absent terms cost nothing.
 #[inline]
-pub(crate) fn sse(
-    model: Model,
+pub fn sse(model: Model, p: &Parameters, initial: &States, history: &[f64], ring: &mut [f64]) -> f64 {
+    ring.copy_from_slice(&initial.seasonal);
+    let start = (initial.level, initial.trend);
+    match (model.has_trend(), form(model)) {
+        (false, SeasonForm::None) => sse_kernel::<false, 0>(p, start, history, ring),
+        (true, SeasonForm::None) => sse_kernel::<true, 0>(p, start, history, ring),
+        (false, SeasonForm::Additive) => sse_kernel::<false, 1>(p, start, history, ring),
+        (true, SeasonForm::Additive) => sse_kernel::<true, 1>(p, start, history, ring),
+        (false, SeasonForm::Multiplicative) => sse_kernel::<false, 2>(p, start, history, ring),
+        (true, SeasonForm::Multiplicative) => sse_kernel::<true, 2>(p, start, history, ring),
+    }
+}
+
+/// `SEASON`: 0 none, 1 additive, 2 multiplicative. Without a season `ring` is empty and the
+/// history is walked in one chunk.
+///
+/// The equations of [`run`] rearranged so the loop-carried dependency is short (same values up
+/// to rounding): with base_t = l_{t−1} + φ b_{t−1}, the season-adjusted residual
+/// r_t = a_t − base_t where a_t = y_t, y_t − s_{t−m} or y_t / s_{t−m}, and q_t = φ b_t,
+///
+/// * l_t − base_t = α r_t, hence b_t = φ b_{t−1} + αβ r_t and q_t = φ q_{t−1} + φαβ r_t;
+/// * base_{t+1} = l_t + q_t = base_t + φ q_{t−1} + (α + φαβ) r_t;
+/// * the one-step error y_t − ŷ_t is r_t (none, additive) or s_{t−m} r_t (multiplicative).
+#[inline(always)]
+fn sse_kernel<const TREND: bool, const SEASON: u8>(
     p: &Parameters,
-    initial: &States,
+    (level, trend): (f64, f64),
     history: &[f64],
     ring: &mut [f64],
 ) -> f64 {
-    let m = model.period();
-    ring.copy_from_slice(&initial.seasonal);
-    let mut level = initial.level;
-    let mut trend = if model.has_trend() { initial.trend } else { 0.0 };
-    match form(model) {
-        SeasonForm::None => {
-            let mut dummy = 0.0;
-            history.iter().fold(0.0, |acc, &y| {
-                let f = step(SeasonForm::None, p, y, &mut level, &mut trend, &mut dummy);
-                acc + (y - f) * (y - f)
-            })
-        }
-        f => {
-            let mut total = 0.0;
-            for chunk in history.chunks(m) {
-                for (&y, slot) in chunk.iter().zip(ring.iter_mut()) {
-                    let fit = step(f, p, y, &mut level, &mut trend, slot);
-                    total += (y - fit) * (y - fit);
+    let (alpha, gamma, phi) = (p.alpha, p.gamma, p.phi);
+    let ab = p.alpha * p.beta;
+    let gain = if TREND { alpha + phi * ab } else { alpha };
+    let trend_gain = phi * ab;
+    let mut q = if TREND { phi * trend } else { 0.0 };
+    let mut base = level + q;
+    let mut total = 0.0;
+    let chunk = if SEASON == 0 { history.len().max(1) } else { ring.len() };
+    let mut none = [0.0];
+    for part in history.chunks(chunk) {
+        let slots: &mut [f64] = if SEASON == 0 { &mut none } else { ring };
+        for (i, &y) in part.iter().enumerate() {
+            let (r, error) = match SEASON {
+                0 => {
+                    let r = y - base;
+                    (r, r)
                 }
+                1 => {
+                    let s = slots[i];
+                    let r = (y - s) - base;
+                    slots[i] = s + gamma * r;
+                    (r, r)
+                }
+                _ => {
+                    let s = slots[i];
+                    let r = y / s - base;
+                    slots[i] = gamma * (y / base) + (1.0 - gamma) * s;
+                    (r, s * r)
+                }
+            };
+            total += error * error;
+            if TREND {
+                base = (base + phi * q) + gain * r;
+                q = phi * q + trend_gain * r;
+            } else {
+                base += gain * r;
             }
-            total
         }
     }
+    total
 }

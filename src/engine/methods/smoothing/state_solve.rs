@@ -137,16 +137,22 @@ impl StateSolver {
             } else {
                 &mut []
             };
+            // Per-step factors of the multiplicative tangents, hoisted out of the coordinate loop.
+            let (season_factor, base_factor) = if multiplicative {
+                (p.alpha * obs / (season * season), p.gamma * obs / (base * base))
+            } else {
+                (0.0, 0.0)
+            };
             for c in 0..k {
                 let d_base = self.d_level[c] + p.phi * self.d_trend[c];
                 let d_old = if m > 0 { ds[c] } else { 0.0 };
                 let (d_fit, d_new_level) = if m == 0 {
                     (d_base, (1.0 - p.alpha) * d_base)
                 } else if multiplicative {
-                    ds[c] = -p.gamma * obs * d_base / (base * base) + (1.0 - p.gamma) * d_old;
+                    ds[c] = -base_factor * d_base + (1.0 - p.gamma) * d_old;
                     (
                         d_base * season + base * d_old,
-                        -p.alpha * obs * d_old / (season * season) + (1.0 - p.alpha) * d_base,
+                        -season_factor * d_old + (1.0 - p.alpha) * d_base,
                     )
                 } else {
                     ds[c] = -p.gamma * d_base + (1.0 - p.gamma) * d_old;
