@@ -144,7 +144,12 @@ fn coordinates(model: Model, bounds: &ParameterBounds) -> (Vec<Bound>, Vec<Vec<f
         model.period() > 0,
         model.is_damped(),
     ];
-    let all = [bounds.alpha, bounds.beta_ratio, bounds.gamma_ratio, bounds.phi];
+    let all = [
+        bounds.alpha,
+        bounds.beta_ratio,
+        bounds.gamma_ratio,
+        bounds.phi,
+    ];
     let pick = |row: [f64; 4]| -> Vec<f64> {
         row.iter()
             .zip(used)

@@ -50,7 +50,10 @@ fn centred_moving_average(y: &[f64], m: usize) -> (usize, Vec<f64>) {
     } else {
         let half = m / 2;
         let count = y.len().saturating_sub(m);
-        (half, (0..count).map(|i| 0.5 * (mean(i) + mean(i + 1))).collect())
+        (
+            half,
+            (0..count).map(|i| 0.5 * (mean(i) + mean(i + 1))).collect(),
+        )
     }
 }
 

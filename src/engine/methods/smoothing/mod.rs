@@ -25,6 +25,8 @@ pub mod init;
 pub mod model;
 pub mod recursion;
 mod state_solve;
+#[cfg(test)]
+mod tests;
 pub mod variance;
 
 pub use estimate::{estimate, Estimate, FitSettings, ParameterBounds};
@@ -78,15 +80,21 @@ pub fn fit_model(
         return Err(MethodError::NeedsPositive { method: kind });
     }
     let estimate = estimate::estimate(model, history, settings);
-    let run = recursion::run(model, estimate.parameters, &estimate.initial, history, horizon)
-        .map_err(|_| MethodError::Diverged { method: kind })?;
+    let run = recursion::run(
+        model,
+        estimate.parameters,
+        &estimate.initial,
+        history,
+        horizon,
+    )
+    .map_err(|_| MethodError::Diverged { method: kind })?;
     if !run.sse.is_finite() {
         return Err(MethodError::Diverged { method: kind });
     }
     let k = model.smoothing_count() + model.free_state_count();
     let sigma2 = (history.len() > k).then(|| run.sse / (history.len() - k) as f64);
-    let variance = sigma2
-        .and_then(|s2| variance::forecast_variances(model, estimate.parameters, s2, horizon));
+    let variance =
+        sigma2.and_then(|s2| variance::forecast_variances(model, estimate.parameters, s2, horizon));
     Ok(Fit {
         model,
         estimate,

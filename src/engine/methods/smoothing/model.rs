@@ -104,9 +104,7 @@ impl Model {
             MethodKind::HoltWintersAdditive => (true, false, Season::Additive(m?)),
             MethodKind::HoltWintersMultiplicative => (true, false, Season::Multiplicative(m?)),
             MethodKind::DampedHoltWintersAdditive => (true, true, Season::Additive(m?)),
-            MethodKind::DampedHoltWintersMultiplicative => {
-                (true, true, Season::Multiplicative(m?))
-            }
+            MethodKind::DampedHoltWintersMultiplicative => (true, true, Season::Multiplicative(m?)),
             _ => return None,
         };
         Model::new(trend, damped, season).ok()
@@ -132,9 +130,7 @@ impl Model {
     /// Number of smoothing parameters the model fits: alpha, plus beta with a trend, gamma with
     /// a season, phi when damped.
     pub fn smoothing_count(self) -> usize {
-        1 + usize::from(self.trend)
-            + usize::from(self.period() > 0)
-            + usize::from(self.damped)
+        1 + usize::from(self.trend) + usize::from(self.period() > 0) + usize::from(self.damped)
     }
 
     /// Number of free initial states: l0, b0 with a trend, and m - 1 seasonal states (the last

@@ -93,7 +93,11 @@ pub fn run(
     let form = form(model);
     let m = model.period();
     let mut level = initial.level;
-    let mut trend = if model.has_trend() { initial.trend } else { 0.0 };
+    let mut trend = if model.has_trend() {
+        initial.trend
+    } else {
+        0.0
+    };
     let mut ring = initial.seasonal.clone();
     let mut dummy = 0.0;
     let mut fitted = Vec::with_capacity(history.len());
@@ -152,7 +156,13 @@ pub(crate) fn forecast(model: Model, p: Parameters, last: &States, horizon: usiz
 /// `initial.seasonal` must have length m; non-finite results come back as NaN or infinity.
 /// Same equations as [`run`], specialised per model shape so that absent terms cost nothing.
 #[inline]
-pub fn sse(model: Model, p: &Parameters, initial: &States, history: &[f64], ring: &mut [f64]) -> f64 {
+pub fn sse(
+    model: Model,
+    p: &Parameters,
+    initial: &States,
+    history: &[f64],
+    ring: &mut [f64],
+) -> f64 {
     ring.copy_from_slice(&initial.seasonal);
     let start = (initial.level, initial.trend);
     match (model.has_trend(), form(model)) {
@@ -189,7 +199,11 @@ fn sse_kernel<const TREND: bool, const SEASON: u8>(
     let mut q = if TREND { phi * trend } else { 0.0 };
     let mut base = level + q;
     let mut total = 0.0;
-    let chunk = if SEASON == 0 { history.len().max(1) } else { ring.len() };
+    let chunk = if SEASON == 0 {
+        history.len().max(1)
+    } else {
+        ring.len()
+    };
     let mut none = [0.0];
     for part in history.chunks(chunk) {
         let slots: &mut [f64] = if SEASON == 0 { &mut none } else { ring };

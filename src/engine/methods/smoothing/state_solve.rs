@@ -83,8 +83,8 @@ impl StateSolver {
             for _ in 0..=HALVINGS {
                 self.apply(model, states, scale);
                 let trial = recursion::sse(model, p, &self.trial, y, &mut self.ring);
-                let positive = !model.is_multiplicative()
-                    || self.trial.seasonal.iter().all(|s| *s > 0.0);
+                let positive =
+                    !model.is_multiplicative() || self.trial.seasonal.iter().all(|s| *s > 0.0);
                 if positive && trial.is_finite() && trial <= current {
                     accepted = true;
                     current = trial;
@@ -139,10 +139,15 @@ impl StateSolver {
             };
             // Per-step factors of the multiplicative tangents, hoisted out of the coordinate loop.
             let (season_factor, base_factor) = if multiplicative {
-                (p.alpha * obs / (season * season), p.gamma * obs / (base * base))
+                (
+                    p.alpha * obs / (season * season),
+                    p.gamma * obs / (base * base),
+                )
             } else {
                 (0.0, 0.0)
             };
+            // `c` indexes five parallel tangent arrays; an iterator chain would hide that.
+            #[allow(clippy::needless_range_loop)]
             for c in 0..k {
                 let d_base = self.d_level[c] + p.phi * self.d_trend[c];
                 let d_old = if m > 0 { ds[c] } else { 0.0 };
@@ -168,10 +173,16 @@ impl StateSolver {
                 (base, p.alpha * obs + (1.0 - p.alpha) * base)
             } else if multiplicative {
                 self.ring[slot] = p.gamma * obs / base + (1.0 - p.gamma) * season;
-                (base * season, p.alpha * obs / season + (1.0 - p.alpha) * base)
+                (
+                    base * season,
+                    p.alpha * obs / season + (1.0 - p.alpha) * base,
+                )
             } else {
                 self.ring[slot] = p.gamma * (obs - base) + (1.0 - p.gamma) * season;
-                (base + season, p.alpha * (obs - season) + (1.0 - p.alpha) * base)
+                (
+                    base + season,
+                    p.alpha * (obs - season) + (1.0 - p.alpha) * base,
+                )
             };
             trend = p.beta * (new_level - level) + (1.0 - p.beta) * p.phi * trend;
             level = new_level;
@@ -246,7 +257,12 @@ impl StateSolver {
         let m = model.period();
         let trend_at = usize::from(model.has_trend());
         self.trial.level = states.level + scale * self.rhs[0];
-        self.trial.trend = states.trend + if trend_at == 1 { scale * self.rhs[1] } else { 0.0 };
+        self.trial.trend = states.trend
+            + if trend_at == 1 {
+                scale * self.rhs[1]
+            } else {
+                0.0
+            };
         self.trial.seasonal.copy_from_slice(&states.seasonal);
         for j in 0..m.saturating_sub(1) {
             let step = scale * self.rhs[1 + trend_at + j];
