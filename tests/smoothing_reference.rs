@@ -227,7 +227,11 @@ fn optimiser_reaches_statsmodels_sse_on_training_spans() {
 
 // Speed target of the brief (common practice for a 5 ms pipeline budget): all seven variants on
 // a 60-point monthly series in about 1 ms in release mode. Run with
-// `cargo test --release --test smoothing_reference -- --ignored --nocapture`.
+// `cargo test --release --test smoothing_reference -- --ignored --nocapture --test-threads=1`.
+// Measured on the shared 2-core development machine (load average 6-7, where a bare 60-step
+// SES loop takes 650-820 ns): 2.0-3.0 ms for the seven; 1.5-1.9 ms with the simplex's
+// per-iteration allocations in optimize.rs removed (an experiment, not committed). The assert
+// only guards the 5 ms pipeline budget.
 #[test]
 #[ignore]
 fn seven_variants_on_sixty_months_are_fast() {

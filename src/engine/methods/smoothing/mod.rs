@@ -17,6 +17,9 @@
 //! * Multiplicative seasons need every value > 0 ([`MethodError::NeedsPositive`]).
 //! * σ² = SSE / (n − k), k = smoothing parameters + free initial states (l0, b0, m − 1
 //!   seasonal). With n ≤ k no degrees of freedom are left and the variance is `None`.
+//! * Speed: the objective allocates nothing and its loop-carried dependency is short (see
+//!   [`recursion`]); the seven variants on 60 monthly points take 2-3 ms on the loaded shared
+//!   development machine (ignored test `seven_variants_on_sixty_months_are_fast`).
 //! * [`Fitted::parameters`] lists α, β, γ, φ (as used by the recursion), l0 and b0; the
 //!   seasonal initial states are in [`Fit::estimate`].
 
