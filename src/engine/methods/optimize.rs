@@ -113,12 +113,16 @@ where
     let mut trial = vec![0.0; n];
     let mut trial2 = vec![0.0; n];
     while evaluations < settings.max_evaluations {
-        // Order vertices best to worst.
-        let mut order: Vec<usize> = (0..=n).collect();
-        order.sort_by(|&a, &b| values[a].total_cmp(&values[b]));
-        simplex = order.iter().map(|&i| simplex[i].clone()).collect();
-        values = order.iter().map(|&i| values[i]).collect();
-
+        // Order vertices best to worst, in place (insertion sort: n + 1 is at most ~16, and the
+        // order is nearly sorted after one move, so this avoids any allocation per iteration).
+        for i in 1..=n {
+            let mut j = i;
+            while j > 0 && values[j - 1] > values[j] {
+                values.swap(j - 1, j);
+                simplex.swap(j - 1, j);
+                j -= 1;
+            }
+        }
         let best = values[0];
         let worst = values[n];
         if worst.is_finite() && (worst - best).abs() <= settings.tolerance * (best.abs() + 1.0) {
@@ -165,12 +169,12 @@ where
                 values[n] = contracted;
             } else {
                 // Shrink towards the best vertex.
-                let best_p = simplex[0].clone();
-                for i in 1..=n {
-                    for (x, b) in simplex[i].iter_mut().zip(&best_p) {
+                let (best, rest) = simplex.split_at_mut(1);
+                for (vertex, value) in rest.iter_mut().zip(values[1..].iter_mut()) {
+                    for (x, b) in vertex.iter_mut().zip(&best[0]) {
                         *x = b + 0.5 * (*x - b);
                     }
-                    values[i] = eval(&simplex[i], &mut evaluations);
+                    *value = eval(vertex, &mut evaluations);
                 }
             }
         }
