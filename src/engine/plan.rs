@@ -25,6 +25,33 @@ pub const MIN_PERIODS: usize = 4;
 /// horizons for quantiles, few enough refits to stay fast).
 pub const BAND_ORIGINS: usize = 24;
 
+/// Which candidate becomes the forecast.
+#[derive(Clone, Debug, PartialEq, Eq, Default)]
+pub enum Choice {
+    /// The equal-weight combination of the best [`backtest::COMBINATION_SIZE`] single methods of
+    /// the ranking (the best single method when fewer than two could be scored). On the M3 data
+    /// always combining beat picking the top-ranked candidate (README, Benchmarks): a holdout of
+    /// one season is too short to tell close methods apart, and averaging hedges the pick.
+    #[default]
+    Auto,
+    /// Whatever ranks first, single method or combination.
+    Best,
+    /// A named candidate: a method key, or "combination".
+    Named(String),
+}
+
+impl Choice {
+    /// Parses "auto", "best", "combination" or a method key.
+    pub fn from_key(key: &str) -> Option<Choice> {
+        match key {
+            "auto" => Some(Choice::Auto),
+            "best" => Some(Choice::Best),
+            "combination" => Some(Choice::Named(key.to_string())),
+            other => MethodKind::from_key(other).map(|k| Choice::Named(k.key().to_string())),
+        }
+    }
+}
+
 /// Season length choice.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 pub enum SeasonChoice {
@@ -51,6 +78,7 @@ pub struct PlanSettings {
     /// Methods to try; `None`: all that apply.
     pub methods: Option<Vec<MethodKind>>,
     pub combine: bool,
+    pub choice: Choice,
 }
 
 impl Default for PlanSettings {
@@ -66,6 +94,7 @@ impl Default for PlanSettings {
             origins: 3,
             methods: None,
             combine: true,
+            choice: Choice::Auto,
         }
     }
 }
@@ -77,6 +106,12 @@ pub enum PlanError {
     TooShort { name: String, length: usize },
     /// The horizon is zero: forecast at least one period.
     ZeroHorizon,
+    /// The asked-for method could not be scored on this item: pick one of the available ones.
+    NotCandidate {
+        name: String,
+        wanted: String,
+        available: Vec<String>,
+    },
     /// The backtest failed (see its message).
     Backtest { name: String, source: BacktestError },
 }
@@ -89,6 +124,11 @@ impl fmt::Display for PlanError {
                 "item \"{name}\" has {length} periods; at least {MIN_PERIODS} are needed to test and forecast"
             ),
             PlanError::ZeroHorizon => write!(f, "the horizon is 0: forecast at least one period"),
+            PlanError::NotCandidate { name, wanted, available } => write!(
+                f,
+                "item \"{name}\": method \"{wanted}\" could not be scored here; available: {}",
+                available.join(", ")
+            ),
             PlanError::Backtest { name, source } => write!(f, "item \"{name}\": {source}"),
         }
     }
@@ -209,7 +249,18 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
     for s in &bt.skipped {
         notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
     }
-    let best = &bt.ranking[0];
+    let best = choose(&bt, &settings.choice).ok_or_else(|| PlanError::NotCandidate {
+        name: name.clone(),
+        wanted: match &settings.choice {
+            Choice::Named(key) => key.clone(),
+            _ => "auto".to_string(),
+        },
+        available: bt
+            .ranking
+            .iter()
+            .map(|s| s.candidate.key().to_string())
+            .collect(),
+    })?;
     let chosen = best.candidate.clone();
     let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit);
     let ledger = ledger_rows
@@ -286,6 +337,19 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
         band: settings.band,
         notes,
     })
+}
+
+/// The scored candidate that `choice` selects.
+fn choose<'a>(bt: &'a Backtest, choice: &Choice) -> Option<&'a backtest::Scored> {
+    match choice {
+        Choice::Best => bt.ranking.first(),
+        Choice::Auto => bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .or_else(|| bt.ranking.first()),
+        Choice::Named(key) => bt.ranking.iter().find(|s| s.candidate.key() == key),
+    }
 }
 
 /// Refits a candidate on all data: point forecasts, in-sample fit and analytic variances.

@@ -3,14 +3,14 @@
 
 use morrowcast::engine::backtest::RankBy;
 use morrowcast::engine::bands::{BandMethod, Level};
-use morrowcast::engine::plan::{PlanSettings, SeasonChoice};
+use morrowcast::engine::plan::{Choice, PlanSettings, SeasonChoice};
 
 pub const USAGE: &str = "\
 usage:
   morrowcast inspect FILE [--json]
   morrowcast forecast FILE [--item NAME] [--horizon H] [--season auto|N] [--holdout K]
                       [--level P] [--rank-by mape|rmse|bias|mase] [--band mad|horizon]
-                      [--tracking-limit L] [--origins R] [--json]
+                      [--tracking-limit L] [--origins R] [--method auto|best|NAME] [--json]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
 FILE may be - for standard input. Errors are forecast minus demand (positive = over-forecast).";
 
@@ -127,6 +127,12 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
                     return Err("--tracking-limit takes a positive number".into());
                 }
                 settings.tracking_limit = l;
+            }
+            "--method" => {
+                let v = value()?;
+                settings.choice = Choice::from_key(v).ok_or(format!(
+                    "--method takes auto, best, combination or a method name such as theta or holt_winters_multiplicative; found \"{v}\""
+                ))?;
             }
             "--origins" => {
                 let r: usize = number(flag, value()?, "a whole number, 1 or more")?;
