@@ -126,12 +126,13 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                 };
                 warnings.extend(order.warning);
                 errors.extend(order.errors);
-                days.extend(labels.iter().enumerate().map(|(i, l)| {
-                    if errors.iter().any(|(e, _)| *e == i) {
-                        return None;
-                    }
-                    two_way_days(keep(l)?, order.day_first)
-                }));
+                // Rows that do not fit the chosen order give no date (their error is above);
+                // an ambiguity error keeps every row, read day-first.
+                days.extend(
+                    labels
+                        .iter()
+                        .map(|l| two_way_days(keep(l)?, order.day_first)),
+                );
             } else {
                 if labels.iter().flatten().any(|l| l.family() == Family::Date)
                     && example.chars().any(char::is_alphabetic)

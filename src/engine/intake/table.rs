@@ -5,11 +5,13 @@
 //! [`super::period`]). This module only classifies; it decides the layout from what most cells
 //! of each column look like, so one bad cell does not change the layout.
 //!
-//! Header rule: among the first six records, the header is the last record before any data-like
-//! record that has a non-empty cell, no cell that reads as a number or a period, and (in a table
-//! of two or more columns) at least two non-empty cells. A data-like record is one where more
-//! than half of the non-empty cells read as numbers or periods. Records above the header, or
-//! above the first data-like record when there is no header, are title lines: reported, not read.
+//! Header rule: a header-like record has a non-empty cell, no cell that reads as a number or a
+//! period, and (in a table of two or more columns) at least two non-empty cells; a data-like
+//! record has more than half of its non-empty cells reading as numbers or periods. The header is
+//! the header-like record just above the first data-like record among the first six records;
+//! when none of them is data-like, the first header-like record. Records above the header, or
+//! above the first data-like record when there is no header, are title lines: reported as
+//! warnings, not read.
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
 //! one family of period labels; failing that, the first column counts when its whole numbers
@@ -74,6 +76,19 @@ pub(crate) fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
         .map(|(i, c)| (i, c.as_str()))
 }
 
+/// The most common width; ties go to the narrower, so one over-long row among two does not
+/// widen the table and pass unreported.
+fn mode_preferring_narrow(widths: &[usize]) -> (usize, usize) {
+    let mut best = (0usize, 0usize);
+    for &w in widths {
+        let count = widths.iter().filter(|x| **x == w).count();
+        if count > best.1 || (count == best.1 && w < best.0) {
+            best = (w, count);
+        }
+    }
+    best
+}
+
 fn all_distinct(cells: &[&str]) -> bool {
     let mut filled: Vec<&str> = cells.iter().copied().filter(|c| !c.is_empty()).collect();
     let count = filled.len();
@@ -127,14 +142,21 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .collect();
     let mut header_at = None;
     let mut data_at = None;
+    let mut previous: Option<usize> = None;
     for &i in non_blank.iter().take(HEADER_SEARCH) {
         if data_like(&records[i]) {
             data_at = Some(i);
+            header_at = previous.filter(|p| header_like(&records[*p], mode_width));
             break;
         }
-        if header_like(&records[i], mode_width) {
-            header_at = Some(i);
-        }
+        previous = Some(i);
+    }
+    if data_at.is_none() {
+        header_at = non_blank
+            .iter()
+            .take(HEADER_SEARCH)
+            .copied()
+            .find(|i| header_like(&records[*i], mode_width));
     }
     let body_start = match (header_at, data_at) {
         (Some(h), _) => h,
@@ -158,7 +180,15 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .map(|r| r.cells.len())
         .collect();
     let header_width = header.as_ref().map_or(0, |h| h.cells.len());
-    let width = header_width.max(mode_of(&data_widths).0).max(1);
+    let (data_width, count) = mode_preferring_narrow(&data_widths);
+    // The header fixes the width unless most rows are wider (a header missing a name).
+    let width = if header_width > 0 && !(data_width > header_width && count * 2 > data_widths.len())
+    {
+        header_width
+    } else {
+        header_width.max(data_width)
+    };
+    let width = width.max(1);
     Table {
         titles,
         header,
@@ -203,7 +233,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 Role::Empty
             } else if let Some(family) = strong_family(&cells) {
                 Role::Period(family)
-            } else if cells.iter().filter(|c| looks_number(c)).count() * 2 > cells.len() {
+            } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len() {
                 Role::Value
             } else {
                 Role::Item
