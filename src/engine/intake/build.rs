@@ -62,6 +62,9 @@ struct Builder<'a> {
     negatives: Vec<String>,
 }
 
+/// One row of a long table: period, quantity (None when empty) and the record it came from.
+type LongRow<'a> = (Period, Option<f64>, &'a Record);
+
 /// One row placed on the time axis.
 struct Entry<'a> {
     period: Period,
@@ -115,7 +118,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         let cells = table.column(p, &kept);
         let col = read_periods(&cells, meaning);
         for (i, message) in &col.errors {
-            b.error(kept[*i].line, p, &cells[*i], message.clone());
+            b.error(kept[*i].line, p, cells[*i], message.clone());
         }
         b.out.warnings.extend(col.warnings.iter().cloned());
         b.out.frequency = Some(col.frequency);
@@ -359,7 +362,7 @@ impl<'a> Builder<'a> {
     fn long(&mut self, kept: &[&'a Record], column: Option<&PeriodColumn>) {
         let value_column = self.plan.values[0];
         let mut order: Vec<String> = Vec::new();
-        let mut rows_of: HashMap<String, Vec<(Period, Option<f64>, &'a Record)>> = HashMap::new();
+        let mut rows_of: HashMap<String, Vec<LongRow<'a>>> = HashMap::new();
         for (k, row) in kept.iter().enumerate() {
             let parts: Vec<&str> = self
                 .plan

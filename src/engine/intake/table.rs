@@ -79,11 +79,12 @@ pub(crate) fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
 /// The most common width; ties go to the narrower, so one over-long row among two does not
 /// widen the table and pass unreported.
 fn mode_preferring_narrow(widths: &[usize]) -> (usize, usize) {
+    let mut sorted = widths.to_vec();
+    sorted.sort_unstable();
     let mut best = (0usize, 0usize);
-    for &w in widths {
-        let count = widths.iter().filter(|x| **x == w).count();
-        if count > best.1 || (count == best.1 && w < best.0) {
-            best = (w, count);
+    for run in sorted.chunk_by(|a, b| a == b) {
+        if run.len() > best.1 {
+            best = (run[0], run.len());
         }
     }
     best
