@@ -14,12 +14,12 @@
 //!    CRLF or LF line ends, and exact line numbers.
 //! 2. [`table`]: title lines, header, and column roles, which fix the layout (single, wide, long);
 //!    the header and layout rules are in that module's doc.
-//! 3. [`number`]: the decimal mark for the whole file (cells only one mark can read decide by
+//! 3. [`mark`] and [`number`]: the decimal mark for the whole file (cells only one mark can read decide by
 //!    majority; a lone "1,234" or "1.234" is read as thousands with a warning; otherwise comma in
 //!    semicolon files, dot elsewhere), and each value cell, with currency symbols and units
 //!    stripped (listed in that module's doc) and reported once.
-//! 4. [`label`] and [`period`]: period labels, day-first or month-first order decided from all
-//!    rows (the ambiguity rule is in [`period`]'s doc), and the frequency the dates imply.
+//! 4. [`label`], [`order`] and [`period`]: period labels, day-first or month-first order decided
+//!    from all rows (the ambiguity rule is in [`order`]'s doc), and the frequency the dates imply.
 //! 5. [`build`]: one item per value column (single, wide) or per item name (long), with a
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
 //!
@@ -33,7 +33,9 @@
 
 mod build;
 mod label;
+mod mark;
 mod number;
+mod order;
 mod period;
 mod table;
 mod text;
@@ -231,13 +233,13 @@ pub fn read(text: &str) -> IntakeReport {
     };
     report.layout = plan.layout;
     let rows = table.fitting_rows();
-    let mut tally = number::Tally::default();
+    let mut tally = mark::Tally::default();
     for &j in &plan.values {
         for cell in table.column(j, &rows) {
-            tally.add(number::evidence(cell));
+            tally.add(mark::evidence(cell));
         }
     }
-    let (mark, warning) = number::decide_mark(tally, delimiter == Delimiter::Semicolon);
+    let (mark, warning) = mark::decide_mark(tally, delimiter == Delimiter::Semicolon);
     report.decimal = mark;
     report.warnings.extend(warning);
     let built = build::build(&table, &plan, mark);
