@@ -182,3 +182,15 @@ fn too_long_a_span_is_an_error_not_a_huge_series() {
     assert_eq!(at(error), (3, "date", "9024-01-02"));
     assert!(r.items.is_empty());
 }
+
+#[test]
+fn a_period_written_another_way_is_an_error() {
+    let r = read("month,sales\n2024-01,1\n2024-02,2\n2024 Q1,3\n");
+    let error = only_error(&r);
+    assert_eq!(at(error), (4, "month", "2024 Q1"));
+    assert!(
+        error.message.contains("such as 2024-01"),
+        "{}",
+        error.message
+    );
+}

@@ -138,7 +138,7 @@ fn currency_and_units_are_stripped_with_one_warning() {
     assert_eq!(firsts, some(&[1200.0, 1200.0, 12.0, 3.5]));
     let affix_warnings: Vec<&String> = r.warnings.iter().filter(|w| w.contains("units")).collect();
     assert_eq!(affix_warnings.len(), 1, "{:?}", r.warnings);
-    for form in ["\"$\"", "\"€\"", "\"kg\"", "\"£\"", "8 cells"] {
+    for form in ["\"$\"", "\"€\"", "\"kg\"", "\"£\"", "from 8 cells"] {
         assert!(affix_warnings[0].contains(form), "{}", affix_warnings[0]);
     }
 }
@@ -185,7 +185,7 @@ fn wide_layout_with_an_empty_cell() {
     assert_eq!(r.empty_cells, 1);
     assert_eq!(r.gaps_filled, 0);
     assert!(
-        warned(&r, &["\"pears\"", "1 empty", "2024-02"]),
+        warned(&r, &["\"pears\"", "1 empty cell read", "2024-02"]),
         "{:?}",
         r.warnings
     );
@@ -219,7 +219,7 @@ fn long_layout_in_any_order_with_a_missing_period() {
     assert_eq!(r.items[1].values, vec![Some(1.0), None, Some(2.0)]);
     assert_eq!(r.gaps_filled, 1);
     assert!(
-        warned(&r, &["1 missing", "\"apples\"", "2024-02"]),
+        warned(&r, &["1 missing period filled", "\"apples\"", "2024-02"]),
         "{:?}",
         r.warnings
     );
@@ -400,7 +400,7 @@ fn missing_periods_become_gaps_with_a_warning() {
     assert_eq!(item.values, vec![Some(1.0), None, None, Some(4.0)]);
     assert_eq!(r.gaps_filled, 2);
     assert!(
-        warned(&r, &["2 missing", "\"sales\"", "2024-02, 2024-03"]),
+        warned(&r, &["2 missing periods", "\"sales\"", "2024-02, 2024-03"]),
         "{:?}",
         r.warnings
     );
@@ -411,7 +411,7 @@ fn negative_values_are_kept_with_a_warning() {
     let (r, item) = one("month,sales\n2024-01,5\n2024-02,-2\n2024-03,(1)\n");
     assert_eq!(item.values, some(&[5.0, -2.0, -1.0]));
     assert!(
-        warned(&r, &["2 negative", "2024-02 (-2)"]),
+        warned(&r, &["2 negative values", "2024-02 (-2)"]),
         "{:?}",
         r.warnings
     );
@@ -423,4 +423,21 @@ fn item_series_is_ready_for_modelling() {
     let series = item.series().unwrap();
     assert_eq!(series.len(), 3);
     assert_eq!(series.frequency(), Frequency::Monthly);
+}
+
+#[test]
+fn wide_missing_rows_are_gaps_for_every_item_in_one_warning() {
+    let r = read("2024-01;1;2\n2024-03;3;4\n");
+    assert!(r.errors.is_empty(), "{:?}", r.errors);
+    let names: Vec<&str> = r.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(names, ["Series 1", "Series 2"]);
+    assert_eq!(r.gaps_filled, 2);
+    assert!(
+        warned(
+            &r,
+            &["1 missing period", "each of Series 1, Series 2", "2024-02"]
+        ),
+        "{:?}",
+        r.warnings
+    );
 }

@@ -37,6 +37,15 @@ pub(crate) struct Built {
     pub errors: Vec<RowError>,
 }
 
+/// "1 cell", "2 cells": a count with its noun.
+pub(crate) fn count(n: usize, noun: &str) -> String {
+    if n == 1 {
+        format!("1 {noun}")
+    } else {
+        format!("{n} {noun}s")
+    }
+}
+
 /// "a, b, c and 4 more".
 pub(crate) fn listing(entries: &[String]) -> String {
     let shown = entries
@@ -239,8 +248,8 @@ impl<'a> Builder<'a> {
             format!("each of {}", listing(names))
         };
         self.out.warnings.push(format!(
-            "{} missing periods were filled as gaps for {whose}: {}",
-            missing.len(),
+            "{} filled as gaps for {whose}: {}",
+            count(missing.len(), "missing period"),
             listing(missing)
         ));
     }
@@ -331,8 +340,8 @@ impl<'a> Builder<'a> {
             }
             if !empty.is_empty() {
                 self.out.warnings.push(format!(
-                    "\"{name}\": {} empty cells were read as gaps ({})",
-                    empty.len(),
+                    "\"{name}\": {} read as gaps ({})",
+                    count(empty.len(), "empty cell"),
                     listing(&empty)
                 ));
             }
@@ -363,16 +372,16 @@ impl<'a> Builder<'a> {
         if !self.affixes.is_empty() {
             let forms: Vec<String> = self.affixes.iter().map(|a| format!("\"{a}\"")).collect();
             self.out.warnings.push(format!(
-                "removed currency symbols or units from {} cells ({}); the numbers were used as \
+                "removed currency symbols or units from {} ({}); the numbers were used as \
                  written, without any conversion",
-                self.affix_cells,
+                count(self.affix_cells, "cell"),
                 forms.join(", ")
             ));
         }
         if !self.negatives.is_empty() {
             self.out.warnings.push(format!(
-                "{} negative values were kept as they are (returns or corrections?): {}",
-                self.negatives.len(),
+                "{} kept as written (returns or corrections?): {}",
+                count(self.negatives.len(), "negative value"),
                 listing(&self.negatives)
             ));
         }

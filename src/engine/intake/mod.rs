@@ -8,20 +8,36 @@
 //! be read; front ends decide what to do (the command line exits with status 2).
 //!
 //! The steps, each in its own module:
-//! 1. [`text`]: strip a UTF-8 byte-order mark, choose the delimiter (tab, semicolon, pipe or
+//! 1. `text`: strip a UTF-8 byte-order mark, choose the delimiter (tab, semicolon, pipe or
 //!    comma: the one that splits the most records into the same number of cells, ties in that
 //!    order; a one-column text is reported as comma), split into records with RFC 4180 quotes,
 //!    CRLF or LF line ends, and exact line numbers.
-//! 2. [`table`]: title lines, header, and column roles, which fix the layout (single, wide, long);
+//! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
 //!    the header and layout rules are in that module's doc.
-//! 3. [`mark`] and [`number`]: the decimal mark for the whole file (cells only one mark can read decide by
-//!    majority; a lone "1,234" or "1.234" is read as thousands with a warning; otherwise comma in
-//!    semicolon files, dot elsewhere), and each value cell, with currency symbols and units
-//!    stripped (listed in that module's doc) and reported once.
-//! 4. [`label`], [`order`] and [`period`]: period labels, day-first or month-first order decided
-//!    from all rows (the ambiguity rule is in [`order`]'s doc), and the frequency the dates imply.
-//! 5. [`build`]: one item per value column (single, wide) or per item name (long), with a
+//! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
+//!    decide by majority; a lone "1,234" or "1.234" is read as thousands with a warning;
+//!    otherwise comma in semicolon files, dot elsewhere), and each value cell, with currency
+//!    symbols and units stripped (listed in that module's doc) and reported once.
+//! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
+//!    from all rows (the ambiguity rule is in `order`'s doc), and the frequency the dates imply.
+//! 5. `build`: one item per value column (single, wide) or per item name (long), with a
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
+//!
+//! Decisions, in short (each module's doc has the full rule):
+//! - Header: the record just above the first row whose cells are mostly numbers or periods,
+//!   if none of its cells reads as a number or a period; records above it are title lines,
+//!   skipped with a warning. No header: a warning, and the names below.
+//! - Date order: a field above 12 decides; otherwise "all on the 1st of a month" one way only,
+//!   then "a regular series with no missing period" one way only, each with a warning;
+//!   otherwise an error on the first row whose readings differ (the report is then day-first).
+//! - "Mar-24" is March 2024 (a month name with two digits is month and year); two-digit years
+//!   are 1969–2068; month names are English.
+//! - Whole numbers in the first column are years (1800–2200) or row positions (1, 2, 3, ...)
+//!   only when dense; otherwise they are values.
+//! - Empty cells and `NA`, `N/A`, `#N/A`, `null` are gaps, counted in `empty_cells`; a blank line
+//!   is a gap in a table without periods and skipped (with a warning) in a dated one.
+//! - Currency symbols, codes and units listed in `number` are stripped, with one warning naming
+//!   them; anything else after a number is an error.
 //!
 //! Names: a series is named after its value column's header; without a header the value columns
 //! are "Series 1", "Series 2", ... and errors name columns "column 1", "column 2", ... A header

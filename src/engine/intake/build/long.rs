@@ -5,7 +5,7 @@
 
 use std::collections::HashMap;
 
-use super::{listing, Builder, LongRow};
+use super::{count, listing, Builder, LongRow};
 use crate::engine::calendar::Period;
 use crate::engine::intake::period::PeriodColumn;
 use crate::engine::intake::text::Record;
@@ -112,8 +112,8 @@ impl<'a> Builder<'a> {
         }
         if !summed.is_empty() {
             self.out.warnings.push(format!(
-                "{} (item, period) pairs appear on several rows and were summed: {}",
-                summed.len(),
+                "{} on several rows, summed: {}",
+                count(summed.len(), "(item, period) pair"),
                 listing(&summed)
             ));
         }
