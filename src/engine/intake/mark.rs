@@ -1,0 +1,136 @@
+//! The decimal mark of a whole file, decided from what every value cell allows.
+//!
+//! Kept apart from: reading one cell (that is [`super::number`]). A file has one decimal mark;
+//! this module gathers the evidence and makes the choice, with a warning when it had to choose.
+
+use super::number::parse_number;
+use super::DecimalMark;
+
+/// What one cell says about the file's decimal mark.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum Evidence {
+    /// Reads the same either way (integers, space grouping) or not at all.
+    Silent,
+    /// Only a dot decimal mark reads it ("12.5", "1,234.5", "1,234,567").
+    Dot,
+    /// Only a comma decimal mark reads it ("12,5", "1.234,5", "1.234.567").
+    Comma,
+    /// Reads both ways with different values, with a lone "." before three digits ("1.234").
+    AmbiguousDot,
+    /// Reads both ways with different values, with a lone "," before three digits ("1,234").
+    AmbiguousComma,
+}
+
+/// Classifies a cell by which decimal marks read it.
+pub(crate) fn evidence(cell: &str) -> Evidence {
+    let dot = parse_number(cell, DecimalMark::Dot);
+    let comma = parse_number(cell, DecimalMark::Comma);
+    match (dot, comma) {
+        (Ok(_), Err(_)) => Evidence::Dot,
+        (Err(_), Ok(_)) => Evidence::Comma,
+        (Ok(d), Ok(c)) if d.value != c.value => {
+            if cell.contains(',') {
+                Evidence::AmbiguousComma
+            } else {
+                Evidence::AmbiguousDot
+            }
+        }
+        _ => Evidence::Silent,
+    }
+}
+
+/// Tallies of [`Evidence`] over a file's value cells.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub(crate) struct Tally {
+    pub dot: usize,
+    pub comma: usize,
+    pub ambiguous_dot: usize,
+    pub ambiguous_comma: usize,
+}
+
+impl Tally {
+    pub fn add(&mut self, evidence: Evidence) {
+        match evidence {
+            Evidence::Silent => {}
+            Evidence::Dot => self.dot += 1,
+            Evidence::Comma => self.comma += 1,
+            Evidence::AmbiguousDot => self.ambiguous_dot += 1,
+            Evidence::AmbiguousComma => self.ambiguous_comma += 1,
+        }
+    }
+}
+
+/// The file's decimal mark and, when the choice was not forced by the cells, a warning saying
+/// why it was made.
+///
+/// Rule: cells that only one mark reads decide, by majority (a tie, or no such cells, falls to
+/// the next step). Otherwise a lone separator before exactly three digits ("1,234", "1.234") is
+/// read as a thousands separator, because whole quantities grouped in thousands are more common
+/// in demand data than quantities with exactly three decimals; the warning says so. With no clue
+/// at all: comma in semicolon files (the usual pairing in spreadsheets set to a decimal-comma
+/// locale), dot otherwise.
+pub(crate) fn decide_mark(tally: Tally, semicolon_file: bool) -> (DecimalMark, Option<String>) {
+    let fallback = if semicolon_file {
+        DecimalMark::Comma
+    } else {
+        DecimalMark::Dot
+    };
+    if tally.dot != tally.comma {
+        let mark = if tally.dot > tally.comma {
+            DecimalMark::Dot
+        } else {
+            DecimalMark::Comma
+        };
+        let warning = (tally.dot.min(tally.comma) > 0).then(|| {
+            format!(
+                "the file mixes decimal marks ({} cells need a dot, {} a comma); read with a \
+                 {} decimal mark, and the other cells are reported as errors",
+                tally.dot,
+                tally.comma,
+                mark.as_str()
+            )
+        });
+        return (mark, warning);
+    }
+    let (mark, separator, count) = match (tally.ambiguous_comma, tally.ambiguous_dot) {
+        (0, 0) => return (fallback, None),
+        (c, 0) => (DecimalMark::Dot, ',', c),
+        (0, d) => (DecimalMark::Comma, '.', d),
+        (c, d) => {
+            let separator = if fallback == DecimalMark::Dot {
+                ','
+            } else {
+                '.'
+            };
+            (fallback, separator, c + d)
+        }
+    };
+    let warning = format!(
+        "{count} cells such as \"1{separator}234\" could be read either way; no cell shows the \
+         decimal mark, so \"{separator}\" was read as a thousands separator (1{separator}234 = \
+         1234); if it is a decimal mark, write one value with one or two decimals"
+    );
+    (mark, Some(warning))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use DecimalMark::{Comma, Dot};
+
+    #[test]
+    fn evidence_and_the_decided_mark() {
+        assert_eq!(evidence("12.5"), Evidence::Dot);
+        assert_eq!(evidence("12,5"), Evidence::Comma);
+        assert_eq!(evidence("1,234"), Evidence::AmbiguousComma);
+        assert_eq!(evidence("1.234"), Evidence::AmbiguousDot);
+        assert_eq!(evidence("1 234"), Evidence::Silent);
+        let mut tally = Tally::default();
+        tally.add(Evidence::AmbiguousComma);
+        assert_eq!(decide_mark(tally, false).0, Dot);
+        assert!(decide_mark(tally, false).1.is_some());
+        tally.add(Evidence::Comma);
+        assert_eq!(decide_mark(tally, false), (Comma, None));
+        assert_eq!(decide_mark(Tally::default(), true), (Comma, None));
+    }
+}

@@ -1,0 +1,324 @@
+//! Number cells: decimal marks, thousands separators, signs, and the currency symbols and units
+//! people leave in cells.
+//!
+//! Kept apart from: the choice of decimal mark for a whole file (that is [`super::mark`], fed by
+//! every value cell) and from what the numbers mean. A cell is read under one decimal mark; the
+//! other mark, spaces (also U+00A0, U+202F, U+2009) and the apostrophe are thousands separators,
+//! and groups must be well formed (1–3 digits, then groups of exactly 3), so "12,5" under a dot
+//! mark is an error rather than 125.
+//!
+//! Stripped forms (one prefix and/or one suffix, with or without a space):
+//! - prefixes: `$ € £ ¥ ₹ ₩ ₽ ₺ ₪ ₫ ₦ ₱ ฿ US$ A$ C$ NZ$ HK$ S$ R$` and the ISO codes in
+//!   [`CODES`] (written in capitals);
+//! - suffixes: the same symbols and codes, `kr zł Kč Ft %`, and the units in [`UNITS`]
+//!   (case-insensitive; one-letter units `g t l L m u x` only as written, so "1.2M" is an error,
+//!   not a million or a metre).
+//!
+//! Signs: a leading `-`, `+` or `−` (U+2212), before or after a currency prefix, and accounting
+//! parentheses: "(12)" is −12. Multipliers such as "k" or "M" and lakh grouping ("1,00,000") are
+//! not read: such cells are errors the user can fix.
+
+use super::DecimalMark;
+
+/// A number read from a cell, with the currency symbol or unit removed from it, if any.
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) struct Number {
+    pub value: f64,
+    pub affix: Option<String>,
+}
+
+/// Why a cell is not a number. [`NumberError::message`] says what to write instead.
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) enum NumberError {
+    /// No digits, or characters that belong to no number.
+    NotANumber,
+    /// Digits are there, but the separators do not fit the file's decimal mark.
+    Grouping,
+    /// A number followed by a word that is not a known unit or currency.
+    UnknownUnit(String),
+    /// More digits than a floating-point number holds.
+    TooLarge,
+}
+
+impl NumberError {
+    /// What was expected, in words, for a file read with `mark`.
+    pub fn message(&self, mark: DecimalMark) -> String {
+        let example = match mark {
+            DecimalMark::Dot => "12, 12.5 or 1,200.50",
+            DecimalMark::Comma => "12, 12,5 or 1.200,50",
+        };
+        match self {
+            NumberError::NotANumber => format!("expected a number such as {example}"),
+            NumberError::Grouping => format!(
+                "expected a number written with a {} decimal mark, as elsewhere in this file, \
+                 such as {example}",
+                mark.as_str()
+            ),
+            NumberError::UnknownUnit(unit) => format!(
+                "expected a number such as {example}; \"{unit}\" is not a known unit or currency: \
+                 remove it"
+            ),
+            NumberError::TooLarge => "expected a number small enough to compute with".to_string(),
+        }
+    }
+}
+
+/// Three-letter currency codes stripped before or after a number.
+pub(crate) const CODES: [&str; 24] = [
+    "USD", "EUR", "GBP", "CHF", "JPY", "CAD", "AUD", "NZD", "SEK", "NOK", "DKK", "PLN", "CZK",
+    "HUF", "INR", "ZAR", "BRL", "MXN", "CNY", "HKD", "SGD", "TRY", "RON", "ILS",
+];
+
+/// Currency symbols, longest first so that "US$" wins over "$".
+const SYMBOLS: [&str; 22] = [
+    "NZ$", "HK$", "US$", "A$", "C$", "S$", "R$", "$", "€", "£", "¥", "₹", "₩", "₽", "₺", "₪", "₫",
+    "₦", "₱", "฿", "¢", "%",
+];
+
+/// Currency words written after the amount.
+const WORD_SUFFIXES: [&str; 4] = ["kr", "zł", "Kč", "Ft"];
+
+/// Units of quantity stripped after a number, compared without case.
+pub(crate) const UNITS: [&str; 33] = [
+    "kg", "mg", "lb", "lbs", "oz", "ml", "cl", "m2", "m²", "m3", "m³", "cm", "mm", "km", "pcs",
+    "pc", "pce", "units", "unit", "ea", "each", "box", "boxes", "case", "cases", "pack", "packs",
+    "bag", "bags", "bottle", "bottles", "ltr", "pairs",
+];
+
+/// One-letter units, matched exactly as written.
+const LETTER_UNITS: [&str; 7] = ["g", "t", "l", "L", "m", "u", "x"];
+
+/// Whether a cell stands for "no value": empty, `NA`, `N/A`, `#N/A` or `null` (any case).
+pub(crate) fn is_missing(cell: &str) -> bool {
+    let lower = cell.trim().to_lowercase();
+    matches!(lower.as_str(), "" | "na" | "n/a" | "#n/a" | "null")
+}
+
+/// Reads `cell` as a number with decimal mark `mark`.
+pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, NumberError> {
+    let parts = split_affixes(cell)?;
+    let magnitude = parse_core(parts.core, mark)?;
+    let value = if parts.negative {
+        -magnitude
+    } else {
+        magnitude
+    };
+    Ok(Number {
+        value,
+        affix: parts.affix,
+    })
+}
+
+/// Whether the cell reads as a number under either decimal mark.
+pub(crate) fn looks_number(cell: &str) -> bool {
+    parse_number(cell, DecimalMark::Dot).is_ok() || parse_number(cell, DecimalMark::Comma).is_ok()
+}
+
+/// A cell split into sign, numeric core and the symbol or unit around it.
+struct Parts<'a> {
+    negative: bool,
+    core: &'a str,
+    affix: Option<String>,
+}
+
+fn is_group_space(c: char) -> bool {
+    matches!(c, ' ' | '\u{a0}' | '\u{202f}' | '\u{2009}')
+}
+
+fn strip_sign(s: &str) -> (bool, &str) {
+    for sign in ["-", "\u{2212}"] {
+        if let Some(rest) = s.strip_prefix(sign) {
+            return (true, rest.trim_start());
+        }
+    }
+    match s.strip_prefix('+') {
+        Some(rest) => (false, rest.trim_start()),
+        None => (false, s),
+    }
+}
+
+fn strip_prefix_symbol(s: &str) -> Option<(&'static str, &str)> {
+    SYMBOLS
+        .iter()
+        .chain(CODES.iter())
+        .filter(|sym| **sym != "%")
+        .find_map(|sym| s.strip_prefix(sym).map(|rest| (*sym, rest.trim_start())))
+}
+
+fn is_suffix(tail: &str) -> bool {
+    SYMBOLS.contains(&tail)
+        || CODES.contains(&tail)
+        || WORD_SUFFIXES.contains(&tail)
+        || LETTER_UNITS.contains(&tail)
+        || UNITS
+            .iter()
+            .any(|u| u.eq_ignore_ascii_case(tail) || *u == tail)
+}
+
+fn split_affixes(cell: &str) -> Result<Parts<'_>, NumberError> {
+    let mut s = cell.trim();
+    let mut negative = false;
+    if s.len() >= 2 && s.starts_with('(') && s.ends_with(')') {
+        negative = true;
+        s = s[1..s.len() - 1].trim();
+    }
+    let (sign, rest) = strip_sign(s);
+    negative ^= sign;
+    s = rest;
+    let mut affix = None;
+    if let Some((symbol, rest)) = strip_prefix_symbol(s) {
+        affix = Some(symbol.to_string());
+        let (sign, rest) = strip_sign(rest);
+        negative ^= sign;
+        s = rest;
+    }
+    let core_len = s
+        .char_indices()
+        .find(|(_, c)| !(c.is_ascii_digit() || matches!(c, '.' | ',' | '\'') || is_group_space(*c)))
+        .map_or(s.len(), |(i, _)| i);
+    let core = s[..core_len].trim_end_matches(is_group_space);
+    let tail = s[core_len..].trim();
+    if !core.chars().any(|c| c.is_ascii_digit()) {
+        return Err(NumberError::NotANumber);
+    }
+    if !tail.is_empty() {
+        if affix.is_some() || !is_suffix(tail) {
+            return Err(if tail.chars().all(char::is_alphabetic) {
+                NumberError::UnknownUnit(tail.to_string())
+            } else {
+                NumberError::NotANumber
+            });
+        }
+        affix = Some(tail.to_string());
+    }
+    Ok(Parts {
+        negative,
+        core,
+        affix,
+    })
+}
+
+/// Reads digits and separators under `mark`; see the module doc for the grouping rule.
+fn parse_core(core: &str, mark: DecimalMark) -> Result<f64, NumberError> {
+    let decimal = match mark {
+        DecimalMark::Dot => '.',
+        DecimalMark::Comma => ',',
+    };
+    let mut pieces = core.split(decimal);
+    let whole = pieces.next().unwrap_or("");
+    let fraction = pieces.next();
+    if pieces.next().is_some() {
+        return Err(NumberError::Grouping);
+    }
+    if let Some(f) = fraction {
+        if f.is_empty() || !f.chars().all(|c| c.is_ascii_digit()) {
+            return Err(NumberError::Grouping);
+        }
+    }
+    let mut digits = String::with_capacity(core.len() + 1);
+    let separator_kinds: Vec<char> = {
+        let mut kinds: Vec<char> = whole
+            .chars()
+            .filter(|c| !c.is_ascii_digit())
+            .map(|c| if is_group_space(c) { ' ' } else { c })
+            .collect();
+        kinds.sort_unstable();
+        kinds.dedup();
+        kinds
+    };
+    match separator_kinds.as_slice() {
+        [] => digits.push_str(if whole.is_empty() { "0" } else { whole }),
+        [kind] => {
+            let groups: Vec<&str> = whole
+                .split(|c: char| (if is_group_space(c) { ' ' } else { c }) == *kind)
+                .collect();
+            let well_formed = groups.iter().enumerate().all(|(i, g)| {
+                let len_ok = if i == 0 {
+                    (1..=3).contains(&g.len())
+                } else {
+                    g.len() == 3
+                };
+                len_ok && g.chars().all(|c| c.is_ascii_digit())
+            });
+            if !well_formed {
+                return Err(NumberError::Grouping);
+            }
+            groups.iter().for_each(|g| digits.push_str(g));
+        }
+        _ => return Err(NumberError::Grouping),
+    }
+    if let Some(f) = fraction {
+        digits.push('.');
+        digits.push_str(f);
+    }
+    let value: f64 = digits.parse().map_err(|_| NumberError::NotANumber)?;
+    if value.is_finite() {
+        Ok(value)
+    } else {
+        Err(NumberError::TooLarge)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use DecimalMark::{Comma, Dot};
+
+    fn value(cell: &str, mark: DecimalMark) -> Option<f64> {
+        parse_number(cell, mark).ok().map(|n| n.value)
+    }
+
+    #[test]
+    fn dot_mark_reads_comma_groups() {
+        assert_eq!(value("1,234.5", Dot), Some(1234.5));
+        assert_eq!(value("1,234,567", Dot), Some(1_234_567.0));
+        assert_eq!(value("12,5", Dot), None);
+        assert_eq!(value("1'234.50", Dot), Some(1234.5));
+    }
+
+    #[test]
+    fn comma_mark_reads_dot_and_space_groups() {
+        assert_eq!(value("1.234,5", Comma), Some(1234.5));
+        assert_eq!(value("1 234,5", Comma), Some(1234.5));
+        assert_eq!(value("1\u{a0}234,5", Comma), Some(1234.5));
+        assert_eq!(value("1\u{202f}234\u{202f}567", Comma), Some(1_234_567.0));
+        assert_eq!(value("0,25", Comma), Some(0.25));
+        assert_eq!(value(",5", Comma), Some(0.5));
+    }
+
+    #[test]
+    fn currency_and_units_are_stripped_and_named() {
+        let n = parse_number("$1,200", Dot).unwrap();
+        assert_eq!((n.value, n.affix.as_deref()), (1200.0, Some("$")));
+        let n = parse_number("1 200 €", Comma).unwrap();
+        assert_eq!((n.value, n.affix.as_deref()), (1200.0, Some("€")));
+        assert_eq!(value("12 kg", Dot), Some(12.0));
+        assert_eq!(value("12KG", Dot), Some(12.0));
+        assert_eq!(value("£3.50", Dot), Some(3.5));
+        assert_eq!(value("EUR 7", Dot), Some(7.0));
+        assert_eq!(value("1.2M", Dot), None);
+        assert_eq!(
+            parse_number("12 apples", Dot),
+            Err(NumberError::UnknownUnit("apples".into()))
+        );
+    }
+
+    #[test]
+    fn signs_and_accounting_parentheses() {
+        assert_eq!(value("-4", Dot), Some(-4.0));
+        assert_eq!(value("\u{2212}4", Dot), Some(-4.0));
+        assert_eq!(value("(1,200)", Dot), Some(-1200.0));
+        assert_eq!(value("-$12", Dot), Some(-12.0));
+        assert_eq!(value("$-12", Dot), Some(-12.0));
+    }
+
+    #[test]
+    fn not_numbers() {
+        for cell in [
+            "", "abc", "NaN", "inf", "1e5", "12-", "--3", "1,2,3", "1 23",
+        ] {
+            assert!(!looks_number(cell), "{cell:?} read as a number");
+        }
+        assert_eq!(value(&"9".repeat(400), Dot), None);
+    }
+}

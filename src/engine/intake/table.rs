@@ -1,0 +1,313 @@
+//! Records to a table: title lines, the header, the data rows, and the role of each column
+//! (period, item name, value), which fixes the layout.
+//!
+//! Kept apart from: reading cell values (numbers in [`super::number`], periods in
+//! [`super::period`]). This module only classifies; it decides the layout from what most cells
+//! of each column look like, so one bad cell does not change the layout.
+//!
+//! Header rule: a header-like record has a non-empty cell, no cell that reads as a number or a
+//! period, and (in a table of two or more columns) at least two non-empty cells; a data-like
+//! record has more than half of its non-empty cells reading as numbers or periods. The header is
+//! the header-like record just above the first data-like record among the first six records;
+//! when none of them is data-like, the first header-like record. Records above the header, or
+//! above the first data-like record when there is no header, are title lines: reported as
+//! warnings, not read.
+//!
+//! Layout rule: a column is a period column when more than half of its non-empty cells read as
+//! one family of period labels; failing that, the first column counts when its whole numbers
+//! read as years or row positions ([`super::period::integer_meaning`]). A column is a value column
+//! when more than half of its non-empty cells read as numbers, and an item column otherwise.
+//! Any item column makes the layout long (item, period, quantity; several item columns are
+//! joined with " / "); otherwise one value column is single and several are wide.
+
+use super::label::Family;
+use super::number::{is_missing, looks_number};
+use super::period::{integer_meaning, strong_family, IntegerMeaning};
+use super::text::{mode_of, Record};
+use super::{Layout, RowError};
+
+/// How far down a header or title line is looked for.
+const HEADER_SEARCH: usize = 6;
+
+/// A table: title lines, optional header, and data rows (blank records inside the data kept).
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) struct Table {
+    pub titles: Vec<Record>,
+    pub header: Option<Record>,
+    pub rows: Vec<Record>,
+    pub width: usize,
+}
+
+impl Table {
+    /// The name used for column `index` in reports: the header text, or "column N".
+    pub fn column_name(&self, index: usize) -> String {
+        self.header
+            .as_ref()
+            .and_then(|h| h.cells.get(index))
+            .filter(|c| !c.is_empty())
+            .cloned()
+            .unwrap_or_else(|| format!("column {}", index + 1))
+    }
+
+    /// The cells of column `index` over the rows that fit the table's width.
+    pub fn column<'a>(&'a self, index: usize, rows: &[&'a Record]) -> Vec<&'a str> {
+        rows.iter()
+            .map(|r| r.cells.get(index).map_or("", String::as_str))
+            .collect()
+    }
+
+    /// Non-blank data rows with no non-empty cell beyond the table's width.
+    pub fn fitting_rows(&self) -> Vec<&Record> {
+        self.rows
+            .iter()
+            .filter(|r| !r.is_blank() && overflow(r, self.width).is_none())
+            .collect()
+    }
+}
+
+/// The first non-empty cell beyond `width`, as (column index, text).
+pub(crate) fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
+    record
+        .cells
+        .iter()
+        .enumerate()
+        .skip(width)
+        .find(|(_, c)| !c.is_empty())
+        .map(|(i, c)| (i, c.as_str()))
+}
+
+/// The most common width; ties go to the narrower, so one over-long row among two does not
+/// widen the table and pass unreported.
+fn mode_preferring_narrow(widths: &[usize]) -> (usize, usize) {
+    let mut sorted = widths.to_vec();
+    sorted.sort_unstable();
+    let mut best = (0usize, 0usize);
+    for run in sorted.chunk_by(|a, b| a == b) {
+        if run.len() > best.1 {
+            best = (run[0], run.len());
+        }
+    }
+    best
+}
+
+fn all_distinct(cells: &[&str]) -> bool {
+    let mut filled: Vec<&str> = cells.iter().copied().filter(|c| !c.is_empty()).collect();
+    let count = filled.len();
+    filled.sort_unstable();
+    filled.dedup();
+    count >= 2 && filled.len() == count
+}
+
+fn reads_as_data(cell: &str) -> bool {
+    looks_number(cell) || super::label::parse_label(cell).is_some()
+}
+
+fn data_like(record: &Record) -> bool {
+    let filled = record.filled();
+    let data = record
+        .cells
+        .iter()
+        .filter(|c| !c.is_empty() && reads_as_data(c))
+        .count();
+    filled > 0 && data * 2 > filled
+}
+
+fn header_like(record: &Record, width: usize) -> bool {
+    let filled = record.filled();
+    filled >= width.clamp(1, 2)
+        && record
+            .cells
+            .iter()
+            .all(|c| c.is_empty() || !reads_as_data(c))
+}
+
+/// Splits records into titles, header and data rows; leading and trailing blank records go.
+pub(crate) fn shape(records: Vec<Record>) -> Table {
+    let mut records: Vec<Record> = records;
+    while records.last().is_some_and(Record::is_blank) {
+        records.pop();
+    }
+    let first = records
+        .iter()
+        .position(|r| !r.is_blank())
+        .unwrap_or(records.len());
+    records.drain(..first);
+    let widths: Vec<usize> = records
+        .iter()
+        .filter(|r| !r.is_blank())
+        .map(|r| r.cells.len())
+        .collect();
+    let (mode_width, _) = mode_of(&widths);
+    let non_blank: Vec<usize> = (0..records.len())
+        .filter(|i| !records[*i].is_blank())
+        .collect();
+    let mut header_at = None;
+    let mut data_at = None;
+    let mut previous: Option<usize> = None;
+    for &i in non_blank.iter().take(HEADER_SEARCH) {
+        if data_like(&records[i]) {
+            data_at = Some(i);
+            header_at = previous.filter(|p| header_like(&records[*p], mode_width));
+            break;
+        }
+        previous = Some(i);
+    }
+    if data_at.is_none() {
+        header_at = non_blank
+            .iter()
+            .take(HEADER_SEARCH)
+            .copied()
+            .find(|i| header_like(&records[*i], mode_width));
+    }
+    let body_start = match (header_at, data_at) {
+        (Some(h), _) => h,
+        (None, Some(d)) => d,
+        (None, None) => non_blank.first().copied().unwrap_or(0),
+    };
+    let mut rest = records.split_off(body_start);
+    let titles: Vec<Record> = records.into_iter().filter(|r| !r.is_blank()).collect();
+    let header = match header_at {
+        Some(_) if !rest.is_empty() => Some(rest.remove(0)),
+        _ => None,
+    };
+    let first_row = rest
+        .iter()
+        .position(|r| !r.is_blank())
+        .unwrap_or(rest.len());
+    rest.drain(..first_row);
+    let data_widths: Vec<usize> = rest
+        .iter()
+        .filter(|r| !r.is_blank())
+        .map(|r| r.cells.len())
+        .collect();
+    let header_width = header.as_ref().map_or(0, |h| h.cells.len());
+    let (data_width, count) = mode_preferring_narrow(&data_widths);
+    // The header fixes the width unless most rows are wider (a header missing a name).
+    let width = if header_width > 0 && !(data_width > header_width && count * 2 > data_widths.len())
+    {
+        header_width
+    } else {
+        header_width.max(data_width)
+    };
+    let width = width.max(1);
+    Table {
+        titles,
+        header,
+        rows: rest,
+        width,
+    }
+}
+
+/// The role of each column, and the layout they make.
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) struct Plan {
+    pub layout: Layout,
+    /// The period column and, when it holds whole numbers, how they are read.
+    pub period: Option<(usize, Option<IntegerMeaning>)>,
+    /// Item-name columns (long layout only).
+    pub item_columns: Vec<usize>,
+    /// Value columns: one for single and long, several for wide.
+    pub values: Vec<usize>,
+    /// Columns with cells that no role uses (long layout extras).
+    pub ignored: Vec<usize>,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Role {
+    Period(Family),
+    Value,
+    Item,
+    Empty,
+}
+
+/// Decides the column roles. `Err` when no column holds values.
+pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
+    let rows = table.fitting_rows();
+    let roles: Vec<Role> = (0..table.width)
+        .map(|j| {
+            let cells: Vec<&str> = table
+                .column(j, &rows)
+                .into_iter()
+                .filter(|c| !is_missing(c))
+                .collect();
+            if cells.is_empty() {
+                Role::Empty
+            } else if let Some(family) = strong_family(&cells) {
+                Role::Period(family)
+            } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len() {
+                Role::Value
+            } else {
+                Role::Item
+            }
+        })
+        .collect();
+    let mut item_columns: Vec<usize> = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Item)
+        .collect();
+    let mut period = roles
+        .iter()
+        .position(|r| matches!(r, Role::Period(_)))
+        .map(|j| (j, None));
+    if period.is_none() {
+        // A text column whose cells never repeat names periods, not items: reading it as the
+        // period column turns each unreadable label into an error the user can act on.
+        if let Some(k) = item_columns
+            .iter()
+            .position(|j| all_distinct(&table.column(*j, &rows)))
+        {
+            period = Some((item_columns.remove(k), None));
+        }
+    }
+    let long = !item_columns.is_empty();
+    let value_columns: Vec<usize> = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Value)
+        .collect();
+    if period.is_none() && value_columns.len() >= 2 {
+        let candidates: Vec<usize> = if long {
+            value_columns.clone()
+        } else {
+            value_columns
+                .iter()
+                .copied()
+                .take(1)
+                .filter(|j| *j == 0)
+                .collect()
+        };
+        period = candidates.into_iter().find_map(|j| {
+            let cells: Vec<&str> = table.column(j, &rows);
+            integer_meaning(&cells, !long).map(|m| (j, Some(m)))
+        });
+    }
+    let mut values: Vec<usize> = value_columns
+        .into_iter()
+        .filter(|j| period.is_none_or(|(p, _)| p != *j))
+        .collect();
+    let mut ignored: Vec<usize> = (0..roles.len())
+        .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
+        .collect();
+    if values.is_empty() {
+        let header_line = table.header.as_ref().map_or(1, |h| h.line);
+        return Err(RowError {
+            row: rows.first().map_or(header_line, |r| r.line),
+            column: String::new(),
+            text: String::new(),
+            message: "expected a column of numbers (the quantities); none was found".to_string(),
+        });
+    }
+    let layout = if long {
+        ignored.extend(values.drain(1..));
+        Layout::Long
+    } else if values.len() == 1 {
+        Layout::Single
+    } else {
+        Layout::Wide
+    };
+    ignored.sort_unstable();
+    Ok(Plan {
+        layout,
+        period,
+        item_columns,
+        values,
+        ignored,
+    })
+}
