@@ -5,6 +5,16 @@ use std::fmt::Write;
 use morrowcast::engine::intake::IntakeReport;
 use morrowcast::engine::plan::ItemPlan;
 
+/// Shortens a label to `width` characters, marking the cut with "...".
+fn fit_width(label: &str, width: usize) -> String {
+    if label.chars().count() <= width {
+        label.to_string()
+    } else {
+        let kept: String = label.chars().take(width.saturating_sub(3)).collect();
+        format!("{kept}...")
+    }
+}
+
 fn opt(v: Option<f64>, decimals: usize) -> String {
     v.map_or_else(|| "n/a".to_string(), |x| format!("{x:.decimals$}"))
 }
@@ -105,7 +115,7 @@ pub fn plan(p: &ItemPlan) -> String {
         let _ = writeln!(
             s,
             "  {:<44} {:>9} {:>11.2} {:>11.2} {:>7}",
-            r.candidate.label(),
+            fit_width(&r.candidate.label(), 44),
             opt(r.measures.mape, 2),
             r.measures.rmse,
             r.measures.bias,

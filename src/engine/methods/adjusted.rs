@@ -1,22 +1,33 @@
 //! Seasonal adjustment around non-seasonal methods, as the M3/M4 benchmarks apply SES, Holt and
 //! damped trend: divide by classical multiplicative seasonal indices, fit and forecast the
-//! adjusted series, multiply the season back.
+//! adjusted series, multiply the season back. Series with zeros or returns use additive indices
+//! (subtract, then add back), since a ratio to a zero season is undefined.
 //!
 //! Kept apart from: the methods themselves, which stay plain; [`super::fit`] decides when to wrap
-//! them. Applied only when a season is accepted, every value is above zero and the history holds
-//! at least two full seasons; otherwise the method runs on the raw series.
+//! them. Applied only when a season is accepted and the history holds at least two full seasons;
+//! otherwise the method runs on the raw series.
 //!
-//! With indices s_t (mean 1 over a season) and the method's forecast x̂ of the adjusted series
-//! x_t = y_t / s_t: ŷ_{n+h} = x̂_{n+h} s_{n+h}; fitted ŷ_t = x̂_t s_t; the h-step variance is
-//! v_h s_{n+h}^2 (the indices are treated as known, an approximation).
+//! With multiplicative indices s_t (mean 1 over a season) and the method's forecast x̂ of the
+//! adjusted series x_t = y_t / s_t: ŷ_{n+h} = x̂_{n+h} s_{n+h}; fitted ŷ_t = x̂_t s_t; the h-step
+//! variance is v_h s_{n+h}^2 (the indices are treated as known, an approximation). With additive
+//! indices (sum 0): x_t = y_t - s_t, ŷ = x̂ + s, and the variance is unchanged.
 
 use super::decompose::{self, Kind};
 use super::{Fitted, MethodError, Parameter};
 
-/// Whether the adjustment applies to this history and season.
+/// The season length to adjust by, when the adjustment applies to this history and season.
 pub fn applies(history: &[f64], season: Option<usize>) -> Option<usize> {
     let m = season.filter(|m| *m >= 2)?;
-    (history.len() >= 2 * m && history.iter().all(|v| *v > 0.0)).then_some(m)
+    (history.len() >= 2 * m).then_some(m)
+}
+
+/// Multiplicative indices for strictly positive demand, additive otherwise.
+fn kind_for(history: &[f64]) -> Kind {
+    if history.iter().all(|v| *v > 0.0) {
+        Kind::Multiplicative
+    } else {
+        Kind::Additive
+    }
 }
 
 /// Runs `plain` on the seasonally adjusted history and puts the season back.
@@ -29,24 +40,31 @@ pub fn fit_adjusted<F>(
 where
     F: Fn(&[f64]) -> Result<Fitted, MethodError>,
 {
-    let Ok(indices) = decompose::seasonal_indices(history, m, Kind::Multiplicative) else {
+    let kind = kind_for(history);
+    let Ok(indices) = decompose::seasonal_indices(history, m, kind) else {
         return plain(history);
     };
     let n = history.len();
-    let adjusted = decompose::deseasonalise(history, &indices, Kind::Multiplicative);
+    let adjusted = decompose::deseasonalise(history, &indices, kind);
+    let put_back = |x: f64, index: f64| match kind {
+        Kind::Multiplicative => x * index,
+        Kind::Additive => x + index,
+    };
     let inner = plain(&adjusted)?;
     let fitted = inner
         .fitted()
         .iter()
         .enumerate()
-        .map(|(t, f)| f.map(|f| f * decompose::index_at(&indices, n, t)))
+        .map(|(t, f)| f.map(|f| put_back(f, decompose::index_at(&indices, n, t))))
         .collect();
-    let forecast =
-        decompose::reseasonalise_forecast(inner.forecast(), &indices, Kind::Multiplicative);
+    let forecast = decompose::reseasonalise_forecast(inner.forecast(), &indices, kind);
     let variance = inner.variance().map(|v| {
         v.iter()
             .enumerate()
-            .map(|(i, var)| var * decompose::index_at(&indices, n, n + i).powi(2))
+            .map(|(i, var)| match kind {
+                Kind::Multiplicative => var * decompose::index_at(&indices, n, n + i).powi(2),
+                Kind::Additive => *var,
+            })
             .collect()
     });
     let mut parameters = inner.parameters().to_vec();
@@ -84,13 +102,25 @@ mod tests {
     }
 
     #[test]
-    fn applies_only_to_positive_series_with_two_seasons() {
+    fn applies_with_two_full_seasons() {
         assert_eq!(applies(&[1.0; 8], Some(4)), Some(4));
         assert_eq!(applies(&[1.0; 7], Some(4)), None);
-        assert_eq!(
-            applies(&[1.0, 0.0, 1.0, 1.0, 1.0, 1.0, 1.0, 1.0], Some(4)),
-            None
-        );
         assert_eq!(applies(&[1.0; 8], None), None);
+    }
+
+    // With a zero in the history the adjustment is additive: on an exact additive pattern around
+    // a flat level of 10 (arithmetic check) Naive2 forecasts the pattern itself.
+    #[test]
+    fn zeros_switch_to_additive_indices() {
+        let pattern = [-10.0, 5.0, 3.0, 2.0];
+        let y: Vec<f64> = (0..12).map(|t| 10.0 + pattern[t % 4]).collect();
+        assert_eq!(y[0], 0.0);
+        let f = fit_adjusted(&y, 4, 4, |x| simple::naive(x, 4)).unwrap();
+        for (h, v) in f.forecast().iter().enumerate() {
+            assert!(
+                (v - (10.0 + pattern[(12 + h) % 4])).abs() < 1e-9,
+                "h {h}: {v}"
+            );
+        }
     }
 }
