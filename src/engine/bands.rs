@@ -190,9 +190,16 @@ pub fn quantile_sorted(sorted: &[f64], p: f64) -> Option<f64> {
 }
 
 /// Empirical band from rolling-origin errors: `errors_by_horizon[h-1]` holds the h-step errors
-/// e = F - D seen at every origin. The band is [F - q_hi(e), F - q_lo(e)] with q the error
-/// quantiles at (1-p)/2 and (1+p)/2; with fewer than [`MIN_ERRORS_FOR_QUANTILES`] errors,
-/// F ± z · RMS(e). A horizon with no errors borrows the widest spread of the shorter horizons.
+/// e = F - D seen at every origin.
+///
+/// Each horizon keeps its own scale r_h = RMS of its errors (uncertainty grows with h), while
+/// the shape comes from all horizons at once: the standardised errors u = e / r_h of every
+/// horizon are pooled, and their quantiles q at (1-p)/2 and (1+p)/2 give the band
+/// [F - q_hi r_h, F - q_lo r_h] (D = F - e, so the high end of demand pairs with the low error
+/// quantile). Pooling lets a few origins give enough points for quantiles: with fewer than
+/// [`MIN_ERRORS_FOR_QUANTILES`] pooled errors the band is F ± z r_h. A horizon with no errors
+/// borrows the scale of the longest horizon that has some, and no horizon is narrower than the
+/// one before (uncertainty does not shrink with the horizon).
 pub fn empirical_band(
     forecast: &[f64],
     errors_by_horizon: &[Vec<f64>],
@@ -201,41 +208,49 @@ pub fn empirical_band(
 ) -> (Vec<BandPoint>, Vec<BandSource>) {
     let p = level.percent() / 100.0;
     let z = level.z();
+    let rms: Vec<Option<f64>> = (0..forecast.len())
+        .map(|h| {
+            let e = errors_by_horizon.get(h).map(Vec::as_slice).unwrap_or(&[]);
+            (!e.is_empty()).then(|| (e.iter().map(|x| x * x).sum::<f64>() / e.len() as f64).sqrt())
+        })
+        .collect();
+    let mut pooled: Vec<f64> = Vec::new();
+    for (h, scale) in rms.iter().enumerate() {
+        if let (Some(r), Some(errors)) = (scale, errors_by_horizon.get(h)) {
+            if *r > 0.0 {
+                pooled.extend(errors.iter().map(|e| e / r));
+            }
+        }
+    }
+    pooled.sort_by(f64::total_cmp);
+    let (quantiles, source) = if pooled.len() >= MIN_ERRORS_FOR_QUANTILES {
+        let q_lo = quantile_sorted(&pooled, (1.0 - p) / 2.0).unwrap_or(-z);
+        let q_hi = quantile_sorted(&pooled, (1.0 + p) / 2.0).unwrap_or(z);
+        (
+            (q_hi.max(0.0), (-q_lo).max(0.0)),
+            BandSource::EmpiricalQuantiles,
+        )
+    } else {
+        ((z, z), BandSource::EmpiricalNormal)
+    };
     let mut points = Vec::with_capacity(forecast.len());
-    let mut sources = Vec::with_capacity(forecast.len());
-    let mut last = (0.0, 0.0, BandSource::EmpiricalNormal);
+    let mut widest = (0.0f64, 0.0f64);
+    let mut last_scale = 0.0;
     for (h, &f) in forecast.iter().enumerate() {
-        let errors = errors_by_horizon.get(h).map(Vec::as_slice).unwrap_or(&[]);
-        let spread = if errors.len() >= MIN_ERRORS_FOR_QUANTILES {
-            let mut sorted = errors.to_vec();
-            sorted.sort_by(f64::total_cmp);
-            let q_lo = quantile_sorted(&sorted, (1.0 - p) / 2.0).unwrap_or(0.0);
-            let q_hi = quantile_sorted(&sorted, (1.0 + p) / 2.0).unwrap_or(0.0);
-            // D = F - e: the high end of demand pairs with the low quantile of the error.
-            (
-                (q_hi).max(0.0),
-                (-q_lo).max(0.0),
-                BandSource::EmpiricalQuantiles,
-            )
-        } else if !errors.is_empty() {
-            let rms = (errors.iter().map(|e| e * e).sum::<f64>() / errors.len() as f64).sqrt();
-            (z * rms, z * rms, BandSource::EmpiricalNormal)
-        } else {
-            last
-        };
-        // Uncertainty does not shrink with the horizon: keep the widest spread so far.
-        let below = spread.0.max(last.0);
-        let above = spread.1.max(last.1);
-        last = (below, above, spread.2);
+        let scale = rms[h].unwrap_or(last_scale);
+        last_scale = scale;
+        widest = (
+            widest.0.max(quantiles.0 * scale),
+            widest.1.max(quantiles.1 * scale),
+        );
         points.push(BandPoint {
             value: f,
-            low: f - below,
-            high: f + above,
+            low: f - widest.0,
+            high: f + widest.1,
         });
-        sources.push(spread.2);
     }
     floor_at_zero(&mut points, non_negative);
-    (points, sources)
+    (points, vec![source; forecast.len()])
 }
 
 #[cfg(test)]
@@ -291,19 +306,47 @@ mod tests {
 
     #[test]
     fn empirical_quantiles_and_fallback() {
-        // Errors -10..=10 at horizon 1: the 80 % band spans the 10 % and 90 % error quantiles.
+        // Errors -10..=10 at horizon 1 and twice those at horizon 2: RMS 6.06 and 12.11, the
+        // standardised errors pool to 42 points, so quantiles apply, and horizon 2 is twice as
+        // wide as horizon 1 (arithmetic check).
         let errors: Vec<f64> = (-10..=10).map(f64::from).collect();
+        let doubled: Vec<f64> = errors.iter().map(|e| 2.0 * e).collect();
         let (b, s) = empirical_band(
             &[100.0, 100.0],
-            &[errors, vec![3.0, -3.0]],
+            &[errors.clone(), doubled],
             Level::new(80.0).unwrap(),
             false,
         );
         assert_eq!(s[0], BandSource::EmpiricalQuantiles);
-        assert!((b[0].low - 92.0).abs() < 1e-12 && (b[0].high - 108.0).abs() < 1e-12);
-        // Horizon 2 has two errors: normal fallback, never narrower than horizon 1.
-        assert_eq!(s[1], BandSource::EmpiricalNormal);
-        assert!(b[1].high - b[1].low >= b[0].high - b[0].low);
+        // The pooled standardised errors are -10..=10 over RMS 1, twice: their 10 % and 90 %
+        // quantiles are -8 and 8 in error units, so horizon 1 spans 92..108.
+        assert!(
+            (b[0].low - 92.0).abs() < 1e-9 && (b[0].high - 108.0).abs() < 1e-9,
+            "{:?}",
+            b[0]
+        );
+        assert!(
+            (b[1].low - 84.0).abs() < 1e-9 && (b[1].high - 116.0).abs() < 1e-9,
+            "{:?}",
+            b[1]
+        );
+        // Two errors only: the normal quantile times their RMS.
+        let (b, s) = empirical_band(
+            &[100.0],
+            &[vec![3.0, -3.0]],
+            Level::new(95.0).unwrap(),
+            false,
+        );
+        assert_eq!(s[0], BandSource::EmpiricalNormal);
+        assert!((b[0].high - (100.0 + 1.959963984540054 * 3.0)).abs() < 1e-9);
         assert_eq!(quantile_sorted(&[1.0, 2.0, 3.0, 4.0], 0.5), Some(2.5));
+        // A horizon beyond the errors keeps the last scale; widths never shrink.
+        let (b, _) = empirical_band(
+            &[100.0, 100.0, 100.0],
+            &[errors, vec![1.0, -1.0]],
+            Level::new(80.0).unwrap(),
+            false,
+        );
+        assert!(b[2].high - b[2].low >= b[0].high - b[0].low);
     }
 }

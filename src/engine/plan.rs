@@ -21,9 +21,10 @@ use crate::engine::series::Series;
 /// Fewest periods the plan works with.
 pub const MIN_PERIODS: usize = 4;
 
-/// Rolling origins over the history used for empirical bands (our choice: enough errors at short
-/// horizons for quantiles, few enough refits to stay fast).
-pub const BAND_ORIGINS: usize = 24;
+/// Rolling origins over the history used for empirical bands (our choice: with the pooled
+/// standardised errors of [`bands::empirical_band`] twelve origins give enough points for
+/// quantiles, and few enough refits to stay fast).
+pub const BAND_ORIGINS: usize = 12;
 
 /// Which candidate becomes the forecast.
 #[derive(Clone, Debug, PartialEq, Eq, Default)]
