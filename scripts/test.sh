@@ -11,9 +11,15 @@ for component in rustfmt clippy; do
   fi
 done
 
+if ! rustup target list --installed 2>/dev/null | grep -q '^wasm32-unknown-unknown$'; then
+  rustup target add wasm32-unknown-unknown
+fi
+
 echo "== cargo fmt --check"
 cargo fmt --all -- --check
 echo "== cargo clippy (warnings are errors)"
 cargo clippy --all-targets --locked -- -D warnings
+echo "== the engine builds for the browser (wasm32)"
+cargo check --lib --locked --target wasm32-unknown-unknown
 echo "== cargo test"
 cargo test --locked --all-targets
