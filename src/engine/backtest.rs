@@ -314,9 +314,36 @@ fn sort_ranking(scored: &mut [Scored], rank_by: RankBy) {
     );
 }
 
-/// h-step errors e = F - D of a candidate from rolling origins over the whole history, for
-/// empirical bands: origins from `n - max_origins` (but leaving `min_train` periods) to n - 1,
-/// each forecasting up to `horizon` steps that still fall inside the history.
+/// The training ends of the rolling origins used for empirical bands: the `max_origins` latest
+/// ends from which the whole `horizon` still falls inside the history (each origin then gives one
+/// error at every horizon), topped up, when the history is too short for that, with later ends
+/// whose horizon is cut at the end of the data. No end leaves fewer than `min_train` periods.
+pub fn band_origins(
+    length: usize,
+    horizon: usize,
+    min_train: usize,
+    max_origins: usize,
+) -> Vec<usize> {
+    let mut ends: Vec<usize> = Vec::with_capacity(max_origins);
+    let full_last = length.saturating_sub(horizon);
+    let mut end = full_last;
+    while ends.len() < max_origins && end >= min_train && end > 0 {
+        ends.push(end);
+        end -= 1;
+    }
+    let mut partial = full_last + 1;
+    while ends.len() < max_origins && partial < length {
+        if partial >= min_train {
+            ends.push(partial);
+        }
+        partial += 1;
+    }
+    ends.sort_unstable();
+    ends
+}
+
+/// h-step errors e = F - D of a candidate from the rolling origins of [`band_origins`], one list
+/// per horizon step, for empirical bands.
 pub fn rolling_errors(
     candidate: &Candidate,
     history: &[f64],
@@ -327,8 +354,7 @@ pub fn rolling_errors(
 ) -> Vec<Vec<f64>> {
     let n = history.len();
     let mut errors = vec![Vec::new(); horizon];
-    let first = n.saturating_sub(max_origins).max(min_train);
-    for end in first..n {
+    for end in band_origins(n, horizon, min_train, max_origins) {
         let steps = horizon.min(n - end);
         if let Ok(f) = forecast_with(candidate, &history[..end], season, steps) {
             for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {
@@ -349,6 +375,17 @@ mod tests {
         assert_eq!(default_holdout(24, Some(12)), 8);
         assert_eq!(default_holdout(2, None), 1);
         assert_eq!(default_holdout(50, None), 10);
+    }
+
+    #[test]
+    fn band_origins_prefer_full_horizons() {
+        // 60 periods, horizon 12: the 8 latest ends with a full horizon are 41..=48.
+        assert_eq!(band_origins(60, 12, 24, 8), (41..=48).collect::<Vec<_>>());
+        // 30 periods, horizon 12, at least 24 to train: no end leaves a full horizon, so the
+        // ends 24..=29 with horizons cut at the end of the data are used.
+        assert_eq!(band_origins(30, 12, 24, 8), (24..=29).collect::<Vec<_>>());
+        // Too short for any origin.
+        assert!(band_origins(10, 12, 24, 8).is_empty());
     }
 
     #[test]

@@ -21,10 +21,10 @@ use crate::engine::series::Series;
 /// Fewest periods the plan works with.
 pub const MIN_PERIODS: usize = 4;
 
-/// Rolling origins over the history used for empirical bands (our choice: with the pooled
-/// standardised errors of [`bands::empirical_band`] twelve origins give enough points for
-/// quantiles, and few enough refits to stay fast).
-pub const BAND_ORIGINS: usize = 12;
+/// Rolling origins over the history used for empirical bands (our choice: each origin forecasts
+/// the whole horizon, so eight origins give eight errors at every horizon and, pooled by
+/// [`bands::empirical_band`], enough points for quantiles, with few enough refits to stay fast).
+pub const BAND_ORIGINS: usize = 8;
 
 /// Which candidate becomes the forecast.
 #[derive(Clone, Debug, PartialEq, Eq, Default)]
@@ -274,41 +274,37 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
         .collect();
 
     let (point, fitted, variance) = refit(&chosen, &history, m, horizon);
-    let points_and_sources = match settings.band {
-        BandMethod::MadRule => {
-            let residual_mad = mean_abs_residual(&fitted, &history)
-                .or_else(|| {
-                    best.ledger(&bt.holdout_demand, settings.tracking_limit)
-                        .last()
-                        .map(|r| r.mad)
-                })
-                .unwrap_or(0.0);
-            let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
-            let src = vec![BandSource::MadRule; pts.len()];
+    let residual_mad = mean_abs_residual(&fitted, &history)
+        .or_else(|| {
+            best.ledger(&bt.holdout_demand, settings.tracking_limit)
+                .last()
+                .map(|r| r.mad)
+        })
+        .unwrap_or(0.0);
+    let mad_band = || {
+        let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
+        let src = vec![BandSource::MadRule; pts.len()];
+        (pts, src)
+    };
+    let points_and_sources = match (settings.band, variance) {
+        (BandMethod::MadRule, _) => mad_band(),
+        (BandMethod::HorizonAware, Some(v)) => {
+            let pts = bands::analytic_band(&point, &v, settings.level, non_negative);
+            let src = vec![BandSource::Analytic; pts.len()];
             (pts, src)
         }
-        BandMethod::HorizonAware => match variance {
-            Some(v) => {
-                let pts = bands::analytic_band(&point, &v, settings.level, non_negative);
-                let src = vec![BandSource::Analytic; pts.len()];
-                (pts, src)
-            }
-            None => {
-                let min_train = (2 * m.unwrap_or(1))
-                    .max(MIN_PERIODS)
-                    .min(n.saturating_sub(1))
-                    .max(2);
-                let errors = backtest::rolling_errors(
-                    &chosen,
-                    &history,
-                    m,
-                    horizon,
-                    min_train,
-                    BAND_ORIGINS,
-                );
+        (BandMethod::HorizonAware, None) => {
+            let min_train = (2 * m.unwrap_or(1)).max(MIN_PERIODS);
+            let errors =
+                backtest::rolling_errors(&chosen, &history, m, horizon, min_train, BAND_ORIGINS);
+            if errors.iter().all(Vec::is_empty) {
+                // Too short for any rolling origin: the MAD rule is the honest fallback.
+                notes.push("the history is too short for rolling-origin errors: the band uses the MAD rule".into());
+                mad_band()
+            } else {
                 bands::empirical_band(&point, &errors, settings.level, non_negative)
             }
-        },
+        }
     };
     let last = series.period(n - 1);
     let forecast = points_and_sources
