@@ -388,6 +388,106 @@ mod tests {
         assert!(band_origins(10, 12, 24, 8).is_empty());
     }
 
+    fn settings(candidates: Vec<MethodKind>) -> BacktestSettings {
+        BacktestSettings {
+            holdout: 6,
+            origins: 3,
+            rank_by: RankBy::Rmse,
+            candidates,
+            combine: true,
+        }
+    }
+
+    fn wave(n: usize) -> Vec<f64> {
+        (0..n)
+            .map(|t| 50.0 + 0.5 * t as f64 + 10.0 * ((t % 6) as f64 - 2.5).abs())
+            .collect()
+    }
+
+    #[test]
+    fn methods_never_see_the_holdout() {
+        let y = wave(40);
+        let mut changed = y.clone();
+        for v in &mut changed[34..] {
+            *v *= 3.0;
+        }
+        let kinds = vec![
+            MethodKind::Naive,
+            MethodKind::Ses,
+            MethodKind::Holt,
+            MethodKind::Theta,
+        ];
+        let a = run(&y, None, &settings(kinds.clone())).unwrap();
+        let b = run(&changed, None, &settings(kinds)).unwrap();
+        // Scores differ (the demand differs) but each method's origin-0 forecast is the same.
+        assert_eq!(a.ranking.len(), b.ranking.len());
+        for x in &a.ranking {
+            let same = b
+                .ranking
+                .iter()
+                .find(|s| s.candidate == x.candidate)
+                .unwrap();
+            assert_eq!(x.holdout_forecast, same.holdout_forecast);
+        }
+        assert_eq!(a.holdout_demand, y[34..].to_vec());
+    }
+
+    #[test]
+    fn ranking_is_sorted_and_combination_is_the_mean_of_its_members() {
+        let y = wave(40);
+        let kinds = vec![
+            MethodKind::Naive,
+            MethodKind::Ses,
+            MethodKind::Holt,
+            MethodKind::DampedTrend,
+            MethodKind::Theta,
+        ];
+        let bt = run(&y, None, &settings(kinds)).unwrap();
+        let scores: Vec<f64> = bt.ranking.iter().map(|s| s.measures.rmse).collect();
+        assert!(scores.windows(2).all(|w| w[0] <= w[1]), "{scores:?}");
+        let combo = bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .unwrap();
+        let Candidate::Combination(members) = &combo.candidate else {
+            unreachable!()
+        };
+        assert_eq!(members.len(), COMBINATION_SIZE);
+        for h in 0..6 {
+            let mean = members
+                .iter()
+                .map(|k| {
+                    bt.ranking
+                        .iter()
+                        .find(|s| s.candidate == Candidate::Method(*k))
+                        .unwrap()
+                        .holdout_forecast[h]
+                })
+                .sum::<f64>()
+                / members.len() as f64;
+            assert!((combo.holdout_forecast[h] - mean).abs() < 1e-9);
+        }
+        assert_eq!(bt.origins_used, 3);
+    }
+
+    #[test]
+    fn failing_methods_are_skipped_with_a_reason() {
+        let y = wave(20);
+        let bt = run(
+            &y,
+            None,
+            &settings(vec![MethodKind::Naive, MethodKind::HoltWintersAdditive]),
+        )
+        .unwrap();
+        assert_eq!(bt.skipped.len(), 1);
+        assert!(bt.skipped[0].reason.contains("season length"));
+        assert!(matches!(
+            run(&y[..5], None, &settings(vec![MethodKind::Naive])),
+            Err(BacktestError::TooShort { .. })
+        ));
+    }
+
     #[test]
     fn rank_keys_round_trip() {
         for r in [RankBy::Mape, RankBy::Rmse, RankBy::Bias, RankBy::Mase] {

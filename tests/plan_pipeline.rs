@@ -1,0 +1,153 @@
+//! The whole plan on constructed series: defaults, overrides, gaps, short histories, bands.
+//! The series here are made up for these checks (arithmetic cases), never outside references.
+
+use morrowcast::engine::bands::{BandMethod, BandSource, Level};
+use morrowcast::engine::calendar::Period;
+use morrowcast::engine::plan::{plan_item, Choice, PlanError, PlanSettings, SeasonChoice};
+use morrowcast::engine::series::Series;
+
+fn seasonal(n: usize) -> Vec<f64> {
+    let shape = [0.6, 0.7, 0.9, 1.2, 1.5, 1.6, 1.4, 1.1, 0.9, 0.8, 0.7, 0.6];
+    (0..n)
+        .map(|t| ((100.0 + t as f64) * shape[t % 12] + ((t * 7919) % 13) as f64 - 6.0).round())
+        .collect()
+}
+
+fn monthly(values: Vec<Option<f64>>) -> Series {
+    Series::new("Test item", Period::month(2021, 1), values).unwrap()
+}
+
+#[test]
+fn defaults_detect_the_season_and_forecast_a_calendar_year() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let p = plan_item(&s, &PlanSettings::default()).unwrap();
+    assert_eq!(p.season.length, Some(12));
+    assert_eq!(p.forecast.len(), 12);
+    assert_eq!(p.forecast[0].period.to_string(), "2026-01");
+    assert_eq!(p.ledger.len(), 12);
+    assert_eq!(p.ledger[0].period.to_string(), "2025-01");
+    assert_eq!(p.chosen.key(), "combination");
+    for f in &p.forecast {
+        assert!(f.band.low <= f.band.value && f.band.value <= f.band.high);
+        assert!(f.band.low >= 0.0);
+    }
+}
+
+#[test]
+fn user_season_override_wins() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        season: SeasonChoice::Fixed(1),
+        ..PlanSettings::default()
+    };
+    let p = plan_item(&s, &settings).unwrap();
+    assert_eq!(p.season.length, None);
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .all(|r| r.candidate.key() != "holt_winters_additive"));
+}
+
+#[test]
+fn gaps_are_interpolated_and_named() {
+    let mut values: Vec<Option<f64>> = seasonal(48).into_iter().map(Some).collect();
+    values[20] = None;
+    let p = plan_item(&monthly(values), &PlanSettings::default()).unwrap();
+    assert!(
+        p.notes
+            .iter()
+            .any(|n| n.contains("interpolation") && n.contains("2022-09")),
+        "{:?}",
+        p.notes
+    );
+}
+
+#[test]
+fn wider_level_widens_every_band_and_mad_rule_is_flat() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let at = |level: f64, band: BandMethod| {
+        let settings = PlanSettings {
+            level: Level::new(level).unwrap(),
+            band,
+            ..PlanSettings::default()
+        };
+        plan_item(&s, &settings).unwrap()
+    };
+    let (narrow, wide) = (
+        at(80.0, BandMethod::HorizonAware),
+        at(99.0, BandMethod::HorizonAware),
+    );
+    for (n, w) in narrow.forecast.iter().zip(&wide.forecast) {
+        assert!(w.band.high - w.band.low > n.band.high - n.band.low);
+    }
+    let mad = at(95.0, BandMethod::MadRule);
+    assert!(mad.forecast.iter().all(|f| f.source == BandSource::MadRule));
+    let widths: Vec<f64> = mad
+        .forecast
+        .iter()
+        .map(|f| f.band.high - f.band.low)
+        .collect();
+    assert!(widths
+        .windows(2)
+        .all(|w| (w[0] - w[1]).abs() < 1e-9 || w[1] < w[0] + 1e-9));
+}
+
+#[test]
+fn named_method_is_used_and_unknown_is_an_error() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        choice: Choice::from_key("theta").unwrap(),
+        ..PlanSettings::default()
+    };
+    assert_eq!(plan_item(&s, &settings).unwrap().chosen.key(), "theta");
+    let short: Vec<Option<f64>> = seasonal(12).into_iter().map(Some).collect();
+    let settings = PlanSettings {
+        choice: Choice::from_key("holt_winters_additive").unwrap(),
+        ..PlanSettings::default()
+    };
+    assert!(matches!(
+        plan_item(&monthly(short), &settings),
+        Err(PlanError::NotCandidate { .. })
+    ));
+    assert!(Choice::from_key("magic").is_none());
+}
+
+#[test]
+fn short_and_zero_horizon_are_errors_with_messages() {
+    let s = monthly(vec![Some(1.0), Some(2.0), Some(3.0)]);
+    let e = plan_item(&s, &PlanSettings::default()).unwrap_err();
+    assert!(e.to_string().contains("at least 4"));
+    let s = monthly(seasonal(30).into_iter().map(Some).collect());
+    let e = plan_item(
+        &s,
+        &PlanSettings {
+            horizon: Some(0),
+            ..PlanSettings::default()
+        },
+    )
+    .unwrap_err();
+    assert_eq!(e, PlanError::ZeroHorizon);
+}
+
+#[test]
+fn intermittent_demand_gets_intermittent_methods_and_no_mape() {
+    let values: Vec<Option<f64>> = (0..48)
+        .map(|t| {
+            Some(if t % 5 == 0 {
+                ((t / 5) % 3 + 1) as f64
+            } else {
+                0.0
+            })
+        })
+        .collect();
+    let p = plan_item(&monthly(values), &PlanSettings::default()).unwrap();
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .any(|r| r.candidate.key() == "croston"));
+    assert!(p.backtest.ranking.iter().all(|r| r.measures.mape.is_none()));
+    assert!(p.backtest.ranking.iter().all(|r| r.measures.mase.is_some()));
+    assert!(p.forecast.iter().all(|f| f.band.low >= 0.0));
+}
