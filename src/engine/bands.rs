@@ -138,19 +138,11 @@ fn floor_at_zero(points: &mut [BandPoint], non_negative: bool) {
     }
 }
 
-/// MAD rule: F ± z · 1.25 · MAD at every horizon.
+/// MAD rule: F ± z · 1.25 · MAD at every horizon, i.e. an analytic band whose variance is
+/// (1.25 · MAD)² at every step.
 pub fn mad_band(forecast: &[f64], mad: f64, level: Level, non_negative: bool) -> Vec<BandPoint> {
-    let half = level.z() * MAD_TO_SIGMA * mad;
-    let mut points: Vec<BandPoint> = forecast
-        .iter()
-        .map(|&f| BandPoint {
-            value: f,
-            low: f - half,
-            high: f + half,
-        })
-        .collect();
-    floor_at_zero(&mut points, non_negative);
-    points
+    let variance = vec![(MAD_TO_SIGMA * mad).powi(2); forecast.len()];
+    analytic_band(forecast, &variance, level, non_negative)
 }
 
 /// Analytic band: F ± z · sqrt(v_h).
