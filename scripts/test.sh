@@ -22,4 +22,4 @@ cargo clippy --all-targets --locked -- -D warnings
 echo "== the engine builds for the browser (wasm32)"
 cargo check --lib --locked --target wasm32-unknown-unknown
 echo "== cargo test"
-cargo test --locked --all-targets
+cargo test --locked --lib --bins --tests
