@@ -153,7 +153,9 @@ pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
 #[derive(Clone, Debug, PartialEq)]
 pub struct Scored {
     pub candidate: Candidate,
-    /// Measures pooled over all origins (what the ranking orders by).
+    /// Measures pooled over all origins (what the ranking orders by); `bias` is the sum of
+    /// errors over one holdout, averaged over the origins, so it reads like the Error ledger's
+    /// final bias.
     pub measures: Measures,
     /// Forecasts of the last K periods from origin 0 (aligned with [`Backtest::holdout_demand`]).
     pub holdout_forecast: Vec<f64>,
@@ -248,7 +250,11 @@ pub fn run(
             f_all.extend_from_slice(f);
             d_all.extend_from_slice(&history[end..end + k]);
         }
-        accuracy::measures(&f_all, &d_all, scale).ok()
+        accuracy::measures(&f_all, &d_all, scale).ok().map(|mut m| {
+            // Bias is a sum over one holdout; with several origins report the average holdout's.
+            m.bias /= forecasts_by_origin.len().max(1) as f64;
+            m
+        })
     };
     for (kind, fbo) in &per_origin {
         if let Some(measures) = score(fbo) {

@@ -27,11 +27,11 @@ fn main() -> ExitCode {
     };
     match command {
         Command::Help => {
-            println!("{}", args::USAGE);
+            out(&format!("{}\n", args::USAGE));
             ExitCode::SUCCESS
         }
         Command::Demo => {
-            print!("{}", demo::demo_csv());
+            out(&demo::demo_csv());
             ExitCode::SUCCESS
         }
         Command::Inspect { file, json } => match read_input(&file) {
@@ -42,6 +42,20 @@ fn main() -> ExitCode {
             Ok(text) => forecast(&text, &fa),
             Err(message) => fail_input(&message),
         },
+    }
+}
+
+/// Writes to standard output; a closed pipe (e.g. `| head`) ends the program quietly instead of
+/// panicking.
+fn out(text: &str) {
+    use std::io::Write;
+    let mut stdout = std::io::stdout().lock();
+    if stdout
+        .write_all(text.as_bytes())
+        .and_then(|()| stdout.flush())
+        .is_err()
+    {
+        std::process::exit(0);
     }
 }
 
@@ -71,7 +85,7 @@ fn read_input(file: &str) -> Result<String, String> {
 
 fn print_json<T: serde::Serialize>(value: &T) {
     match serde_json::to_string_pretty(value) {
-        Ok(s) => println!("{s}"),
+        Ok(s) => out(&format!("{s}\n")),
         Err(e) => eprintln!("morrowcast: could not write JSON: {e}"),
     }
 }
@@ -81,7 +95,7 @@ fn inspect(text: &str, json: bool) -> ExitCode {
     if json {
         print_json(&InspectJson::from(&report));
     } else {
-        print!("{}", table::intake_report(&report));
+        out(&table::intake_report(&report));
     }
     if report.has_errors() {
         ExitCode::from(2)
@@ -136,10 +150,10 @@ fn forecast(text: &str, fa: &ForecastArgs) -> ExitCode {
         });
     } else {
         for w in &report.warnings {
-            println!("note: {w}");
+            out(&format!("note: {w}\n"));
         }
         for p in &plans {
-            print!("{}", table::plan(p));
+            out(&table::plan(p));
         }
         for f in &failed {
             eprintln!("morrowcast: {}: {}", f.name, f.message);
