@@ -99,15 +99,32 @@ pub fn forecast_with(
     season: Option<usize>,
     horizon: usize,
 ) -> Result<Vec<f64>, MethodError> {
-    match candidate {
-        Candidate::Method(kind) => Ok(methods::fit(*kind, history, season, horizon)?
+    forecast_cached(candidate, history, season, horizon, None)
+}
+
+/// [`forecast_with`], taking a method's forecast from the backtest's origins when it fitted the
+/// same training part there (the fit is deterministic, so the numbers are the same).
+fn forecast_cached(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    cache: Option<&Backtest>,
+) -> Result<Vec<f64>, MethodError> {
+    let one = |kind: MethodKind| -> Result<Vec<f64>, MethodError> {
+        if let Some(f) = cache.and_then(|bt| bt.origin_forecast(kind, history.len(), horizon)) {
+            return Ok(f.to_vec());
+        }
+        Ok(methods::fit(kind, history, season, horizon)?
             .forecast()
-            .to_vec()),
+            .to_vec())
+    };
+    match candidate {
+        Candidate::Method(kind) => one(*kind),
         Candidate::Combination(members) => {
             let mut sum = vec![0.0; horizon];
             for kind in members {
-                let f = methods::fit(*kind, history, season, horizon)?;
-                for (s, v) in sum.iter_mut().zip(f.forecast()) {
+                for (s, v) in sum.iter_mut().zip(one(*kind)?) {
                     *s += v;
                 }
             }
@@ -200,6 +217,24 @@ pub struct Backtest {
     /// Origins actually used (fewer than asked when the history is short).
     pub origins_used: usize,
     pub rank_by: RankBy,
+    /// Each scored method's forecasts by origin: (method, training length, forecast).
+    origin_forecasts: Vec<(MethodKind, usize, Vec<f64>)>,
+}
+
+impl Backtest {
+    /// The first `steps` forecasts of `kind` trained on the first `train_length` periods, when
+    /// the backtest made them.
+    pub fn origin_forecast(
+        &self,
+        kind: MethodKind,
+        train_length: usize,
+        steps: usize,
+    ) -> Option<&[f64]> {
+        self.origin_forecasts
+            .iter()
+            .find(|(k, end, f)| *k == kind && *end == train_length && f.len() >= steps)
+            .map(|(_, _, f)| &f[..steps])
+    }
 }
 
 /// Runs the backtest of `settings.candidates` on `history` with the accepted `season`.
@@ -305,6 +340,14 @@ pub fn run(
         holdout_demand: history[train_end..].to_vec(),
         origins_used: origins,
         rank_by: settings.rank_by,
+        origin_forecasts: per_origin
+            .into_iter()
+            .flat_map(|(kind, fbo)| {
+                fbo.into_iter()
+                    .enumerate()
+                    .map(move |(j, f)| (kind, train_end - j, f))
+            })
+            .collect(),
     })
 }
 
@@ -349,7 +392,7 @@ pub fn band_origins(
 }
 
 /// h-step errors e = F - D of a candidate from the rolling origins of [`band_origins`], one list
-/// per horizon step, for empirical bands.
+/// per horizon step, for empirical bands. Forecasts the backtest `cache` already made are reused.
 pub fn rolling_errors(
     candidate: &Candidate,
     history: &[f64],
@@ -357,12 +400,13 @@ pub fn rolling_errors(
     horizon: usize,
     min_train: usize,
     max_origins: usize,
+    cache: Option<&Backtest>,
 ) -> Vec<Vec<f64>> {
     let n = history.len();
     let mut errors = vec![Vec::new(); horizon];
     for end in band_origins(n, horizon, min_train, max_origins) {
         let steps = horizon.min(n - end);
-        if let Ok(f) = forecast_with(candidate, &history[..end], season, steps) {
+        if let Ok(f) = forecast_cached(candidate, &history[..end], season, steps, cache) {
             for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {
                 errors[h].push(fv - d);
             }
@@ -492,6 +536,26 @@ mod tests {
             run(&y[..5], None, &settings(vec![MethodKind::Naive])),
             Err(BacktestError::TooShort { .. })
         ));
+    }
+
+    #[test]
+    fn cached_origin_forecasts_equal_fresh_fits() {
+        let y = wave(40);
+        let kinds = vec![MethodKind::Ses, MethodKind::Holt, MethodKind::Theta];
+        let bt = run(&y, None, &settings(kinds)).unwrap();
+        let combo = bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .unwrap();
+        let fresh = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, None);
+        let cached = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, Some(&bt));
+        assert_eq!(fresh, cached);
+        assert_eq!(
+            bt.origin_forecast(MethodKind::Ses, 34, 6).map(<[f64]>::len),
+            Some(6)
+        );
+        assert!(bt.origin_forecast(MethodKind::Ses, 33, 7).is_none());
     }
 
     #[test]

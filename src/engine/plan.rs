@@ -295,8 +295,15 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
         }
         (BandMethod::HorizonAware, None) => {
             let min_train = (2 * m.unwrap_or(1)).max(MIN_PERIODS);
-            let errors =
-                backtest::rolling_errors(&chosen, &history, m, horizon, min_train, BAND_ORIGINS);
+            let errors = backtest::rolling_errors(
+                &chosen,
+                &history,
+                m,
+                horizon,
+                min_train,
+                BAND_ORIGINS,
+                Some(&bt),
+            );
             if errors.iter().all(Vec::is_empty) {
                 // Too short for any rolling origin: the MAD rule is the honest fallback.
                 notes.push("the history is too short for rolling-origin errors: the band uses the MAD rule".into());
