@@ -42,7 +42,11 @@ fn session() -> Option<web_sys::Storage> {
 pub fn kept_text() -> Option<(String, String)> {
     let s = session()?;
     let text = s.get_item(TEXT_KEY).ok().flatten()?;
-    let source = s.get_item(SOURCE_KEY).ok().flatten().unwrap_or_else(|| "pasted text".into());
+    let source = s
+        .get_item(SOURCE_KEY)
+        .ok()
+        .flatten()
+        .unwrap_or_else(|| "pasted text".into());
     Some((text, source))
 }
 
@@ -65,7 +69,12 @@ pub fn now_ms() -> f64 {
 /// Today as YYYY-MM-DD (local time), for file names.
 pub fn today() -> String {
     let d = js_sys::Date::new_0();
-    format!("{:04}-{:02}-{:02}", d.get_full_year(), d.get_month() + 1, d.get_date())
+    format!(
+        "{:04}-{:02}-{:02}",
+        d.get_full_year(),
+        d.get_month() + 1,
+        d.get_date()
+    )
 }
 
 fn click_link(href: &str, file_name: &str) -> Option<()> {
@@ -100,7 +109,10 @@ pub fn draw_into(
     canvas: &HtmlCanvasElement,
     draw: impl FnOnce(&Area<'_, CanvasBackend>) -> Result<(), ChartError>,
 ) -> Result<(), ChartError> {
-    let (w, h) = (canvas.client_width().max(320) as u32, canvas.client_height().max(200) as u32);
+    let (w, h) = (
+        canvas.client_width().max(320) as u32,
+        canvas.client_height().max(200) as u32,
+    );
     if canvas.width() != w {
         canvas.set_width(w);
     }

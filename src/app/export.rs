@@ -30,8 +30,20 @@ pub fn forecast_csv(points: &[ForecastPoint], method: &str, level_percent: f64) 
 pub fn ledger_csv(ledger: &[LedgerEntry]) -> String {
     let mut w = csv::Writer::from_writer(Vec::new());
     let _ = w.write_record([
-        "period", "demand", "forecast", "error", "abs_error", "sq_error", "pct_error", "mad", "mse", "rmse", "mape",
-        "bias", "tracking_signal", "out_of_limits",
+        "period",
+        "demand",
+        "forecast",
+        "error",
+        "abs_error",
+        "sq_error",
+        "pct_error",
+        "mad",
+        "mse",
+        "rmse",
+        "mape",
+        "bias",
+        "tracking_signal",
+        "out_of_limits",
     ]);
     let opt = |v: Option<f64>| v.map(|v| v.to_string()).unwrap_or_default();
     for e in ledger {
@@ -89,7 +101,11 @@ mod tests {
     fn forecast_csv_round_trips_numbers_and_quotes_labels() {
         let points = vec![ForecastPoint {
             period: Period::month(2026, 1),
-            band: BandPoint { value: 0.1 + 0.2, low: 0.0, high: 12.5 },
+            band: BandPoint {
+                value: 0.1 + 0.2,
+                low: 0.0,
+                high: 12.5,
+            },
             source: BandSource::Analytic,
         }];
         let csv = forecast_csv(&points, "Combination of Theta, SBA", 95.0);
@@ -105,14 +121,21 @@ mod tests {
         let entries: Vec<LedgerEntry> = rows
             .into_iter()
             .enumerate()
-            .map(|(i, row)| LedgerEntry { period: Period::quarter(2025, i as u32 + 1), row })
+            .map(|(i, row)| LedgerEntry {
+                period: Period::quarter(2025, i as u32 + 1),
+                row,
+            })
             .collect();
         let csv = ledger_csv(&entries);
         let lines: Vec<&str> = csv.lines().collect();
         assert_eq!(lines.len(), 3);
         // Zero demand: percent error and MAPE not available; MAD 1 so tracking signal 1.
         assert_eq!(lines[1], "2025-Q1,0,1,1,1,1,,1,1,1,,1,1,false");
-        assert!(lines[2].starts_with("2025-Q2,2,3,1,1,1,50,1,1,1,,2,2,false"), "{}", lines[2]);
+        assert!(
+            lines[2].starts_with("2025-Q2,2,3,1,1,1,50,1,1,1,,2,2,false"),
+            "{}",
+            lines[2]
+        );
     }
 
     #[test]
@@ -121,6 +144,9 @@ mod tests {
             file_name("Potting mix 40 L", "forecast", "2026-12-01", "csv"),
             "morrowcast-potting-mix-40-l-forecast-2026-12-01.csv"
         );
-        assert_eq!(file_name("  ", "ledger", "2026-12-01", "csv"), "morrowcast-item-ledger-2026-12-01.csv");
+        assert_eq!(
+            file_name("  ", "ledger", "2026-12-01", "csv"),
+            "morrowcast-item-ledger-2026-12-01.csv"
+        );
     }
 }

@@ -27,7 +27,10 @@ pub fn row_ledger(plan: &ItemPlan, series: &Series, row: &Scored, limit: f64) ->
     row.ledger(&plan.backtest.holdout_demand, limit)
         .into_iter()
         .enumerate()
-        .map(|(i, r)| LedgerEntry { period: series.period(start + i), row: r })
+        .map(|(i, r)| LedgerEntry {
+            period: series.period(start + i),
+            row: r,
+        })
         .collect()
 }
 
@@ -48,7 +51,11 @@ pub fn look_ahead(series: &Series, ranked: &ItemPlan, row: &Scored, shown: &Item
         forecast: shown
             .forecast
             .iter()
-            .map(|f| BandValue { value: f.band.value, low: f.band.low, high: f.band.high })
+            .map(|f| BandValue {
+                value: f.band.value,
+                low: f.band.low,
+                high: f.band.high,
+            })
             .collect(),
         level_percent: shown.level.percent(),
         unit: UNIT.into(),
@@ -83,7 +90,9 @@ pub fn tracking(ledger: &[LedgerEntry], limit: f64) -> Tracking {
     }
 }
 
-const MONTHS: [&str; 12] = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+const MONTHS: [&str; 12] = [
+    "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+];
 const WEEKDAYS: [&str; 7] = ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"];
 
 /// Name of season position `p` (0-based) on a calendar.
@@ -119,9 +128,19 @@ pub fn overlay(series: &Series, values: &[f64], season: Option<usize>) -> Option
         }
     }
     let positions = (0..m)
-        .map(|p| if calendar { position_name(frequency, p) } else { (p + 1).to_string() })
+        .map(|p| {
+            if calendar {
+                position_name(frequency, p)
+            } else {
+                (p + 1).to_string()
+            }
+        })
         .collect();
-    Some(Overlay { positions, years, unit: UNIT.into() })
+    Some(Overlay {
+        positions,
+        years,
+        unit: UNIT.into(),
+    })
 }
 
 #[cfg(test)]
@@ -132,7 +151,12 @@ mod tests {
     fn monthly_overlay_groups_by_calendar_year() {
         // 14 months from 2023-11: two months of 2023, all of 2024.
         let values: Vec<f64> = (0..14).map(f64::from).collect();
-        let series = Series::new("x", Period::month(2023, 11), values.iter().map(|v| Some(*v)).collect()).unwrap();
+        let series = Series::new(
+            "x",
+            Period::month(2023, 11),
+            values.iter().map(|v| Some(*v)).collect(),
+        )
+        .unwrap();
         let o = overlay(&series, &values, Some(12)).unwrap();
         assert_eq!(o.positions[0], "Jan");
         assert_eq!(o.years.len(), 2);

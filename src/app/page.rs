@@ -17,7 +17,8 @@ pub const DEMO_SOURCE: &str = "the demo";
 
 #[component]
 pub fn App() -> impl IntoView {
-    let (text, source) = browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
+    let (text, source) =
+        browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
     let state = State::new(text, source);
     provide_context(state);
     view! {

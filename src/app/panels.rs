@@ -48,7 +48,11 @@ pub fn IntakePanel() -> impl IntoView {
     let on_drop = move |ev: leptos::ev::DragEvent| {
         ev.prevent_default();
         dragging.set(false);
-        if let Some(file) = ev.data_transfer().and_then(|d| d.files()).and_then(|f| f.get(0)) {
+        if let Some(file) = ev
+            .data_transfer()
+            .and_then(|d| d.files())
+            .and_then(|f| f.get(0))
+        {
             read_file(state, file);
         }
     };
@@ -98,7 +102,7 @@ pub fn IntakePanel() -> impl IntoView {
             </Show>
             <div id="intake-report" class="intake-report" aria-live="polite">
                 <ul class="plain">
-                    {move || state.report.with(|r| words::intake_lines(r).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
+                    {move || state.report.with(|r| state.text.with(|t| words::intake_lines(t, r)).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
                 </ul>
                 <Show when=move || state.report.with(|r| r.has_errors())>
                     <h3 class="errors-title">"Cells that could not be read"</h3>
@@ -163,7 +167,11 @@ fn TextSetting(
 #[component]
 pub fn SettingsPanel() -> impl IntoView {
     let state = expect_context::<State>();
-    let level_is = move |p: f64| state.form.with(|f| f.level.trim().parse::<f64>().ok() == Some(p));
+    let level_is = move |p: f64| {
+        state
+            .form
+            .with(|f| f.level.trim().parse::<f64>().ok() == Some(p))
+    };
     view! {
         <section class="panel settings" id="settings" aria-labelledby="settings-title">
             <h2 id="settings-title">"Settings"</h2>

@@ -25,7 +25,8 @@ fn fixed(v: f64, decimals: usize) -> String {
 }
 
 fn fixed_opt(v: Option<f64>, decimals: usize) -> String {
-    v.map(|v| fixed(v, decimals)).unwrap_or_else(|| "n/a".into())
+    v.map(|v| fixed(v, decimals))
+        .unwrap_or_else(|| "n/a".into())
 }
 
 /// A canvas that redraws whenever its data changes, its text summary beside it, and a button
@@ -54,8 +55,17 @@ where
     let text = move || data.with(|d| d.as_ref().map(summary).unwrap_or_default());
     let save = move |_| {
         if let Some(el) = canvas.get() {
-            let item = state.plan.with(|p| p.as_ref().and_then(|p| p.as_ref().ok()).map(|p| p.name.clone()));
-            let name = export::file_name(&item.unwrap_or_default(), file_part, &browser::today(), "png");
+            let item = state.plan.with(|p| {
+                p.as_ref()
+                    .and_then(|p| p.as_ref().ok())
+                    .map(|p| p.name.clone())
+            });
+            let name = export::file_name(
+                &item.unwrap_or_default(),
+                file_part,
+                &browser::today(),
+                "png",
+            );
             browser::download_canvas(&el, &name);
         }
     };
@@ -109,7 +119,11 @@ pub fn LookAheadPanel() -> impl IntoView {
     });
     let export_forecast = move |_| {
         if let Some(s) = state.shown.get() {
-            let csv = export::forecast_csv(&s.plan.forecast, &s.plan.chosen.label(), s.plan.level.percent());
+            let csv = export::forecast_csv(
+                &s.plan.forecast,
+                &s.plan.chosen.label(),
+                s.plan.level.percent(),
+            );
             let name = export::file_name(&s.plan.name, "forecast", &browser::today(), "csv");
             browser::download_text(&name, "text/csv", &csv);
         }
@@ -261,7 +275,10 @@ pub fn ErrorLedger() -> impl IntoView {
 #[component]
 pub fn PatternView() -> impl IntoView {
     let state = expect_context::<State>();
-    let with_plan = move |f: &dyn Fn(&morrowcast::engine::series::Series, &morrowcast::engine::plan::ItemPlan) -> Option<String>| {
+    let with_plan = move |f: &dyn Fn(
+        &morrowcast::engine::series::Series,
+        &morrowcast::engine::plan::ItemPlan,
+    ) -> Option<String>| {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
             state.series.with(|s| f(s.as_ref()?.as_ref().ok()?, plan))
@@ -270,17 +287,29 @@ pub fn PatternView() -> impl IntoView {
     let history = Memo::new(move |_| {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| Some(model::history(s.as_ref()?.as_ref().ok()?, plan)))
+            state
+                .series
+                .with(|s| Some(model::history(s.as_ref()?.as_ref().ok()?, plan)))
         })
     });
     let overlay = Memo::new(move |_| {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| model::overlay(s.as_ref()?.as_ref().ok()?, &plan.history, plan.season.length))
+            state.series.with(|s| {
+                model::overlay(
+                    s.as_ref()?.as_ref().ok()?,
+                    &plan.history,
+                    plan.season.length,
+                )
+            })
         })
     });
     let acf = Memo::new(move |_| {
-        state.plan.with(|p| p.as_ref().and_then(|p| p.as_ref().ok()).map(model::autocorrelation))
+        state.plan.with(|p| {
+            p.as_ref()
+                .and_then(|p| p.as_ref().ok())
+                .map(model::autocorrelation)
+        })
     });
     view! {
         <section class="panel" id="pattern-view" aria-labelledby="pattern-title">

@@ -61,23 +61,38 @@ impl SettingsForm {
         let mut s = PlanSettings::default();
         match auto_or_count(&self.horizon, 1, "The horizon") {
             Ok(v) => s.horizon = v,
-            Err(m) => errors.push(FieldError { field: "horizon", message: m }),
+            Err(m) => errors.push(FieldError {
+                field: "horizon",
+                message: m,
+            }),
         }
         match auto_or_count(&self.holdout, 1, "The holdout length") {
             Ok(v) => s.holdout = v,
-            Err(m) => errors.push(FieldError { field: "holdout", message: m }),
+            Err(m) => errors.push(FieldError {
+                field: "holdout",
+                message: m,
+            }),
         }
         match auto_or_count(&self.season, 1, "The season length") {
             Ok(None) => s.season = SeasonChoice::Auto,
             Ok(Some(m)) => s.season = SeasonChoice::Fixed(m),
-            Err(m) => errors.push(FieldError { field: "season", message: m }),
+            Err(m) => errors.push(FieldError {
+                field: "season",
+                message: m,
+            }),
         }
         match parse_number(&self.level).map(Level::new) {
             Some(Ok(level)) => s.level = level,
-            Some(Err(e)) => errors.push(FieldError { field: "level", message: capitalise(&e.to_string()) }),
+            Some(Err(e)) => errors.push(FieldError {
+                field: "level",
+                message: capitalise(&e.to_string()),
+            }),
             None => errors.push(FieldError {
                 field: "level",
-                message: format!("The band level \"{}\" is not a number: type a percent such as 95", self.level.trim()),
+                message: format!(
+                    "The band level \"{}\" is not a number: type a percent such as 95",
+                    self.level.trim()
+                ),
             }),
         }
         s.band = self.band;
@@ -116,7 +131,12 @@ fn auto_or_count(text: &str, min: usize, what: &str) -> Result<Option<usize>, St
 
 /// A number typed with a dot or a decimal comma ("97,5").
 fn parse_number(text: &str) -> Option<f64> {
-    text.trim().trim_end_matches('%').trim().replace(',', ".").parse().ok()
+    text.trim()
+        .trim_end_matches('%')
+        .trim()
+        .replace(',', ".")
+        .parse()
+        .ok()
 }
 
 fn format_number(v: f64) -> String {
@@ -146,7 +166,10 @@ mod tests {
 
     #[test]
     fn defaults_give_the_engine_defaults() {
-        assert_eq!(SettingsForm::default().to_settings(), Ok(PlanSettings::default()));
+        assert_eq!(
+            SettingsForm::default().to_settings(),
+            Ok(PlanSettings::default())
+        );
     }
 
     #[test]
@@ -182,10 +205,26 @@ mod tests {
         };
         let errors = form.to_settings().unwrap_err();
         let fields: Vec<&str> = errors.iter().map(|e| e.field).collect();
-        assert_eq!(fields, ["horizon", "holdout", "season", "level", "tracking-limit"]);
-        assert!(errors[0].message.contains("from 1 to 120"), "{}", errors[0].message);
-        assert!(errors[3].message.starts_with("Band level 120 %"), "{}", errors[3].message);
-        let words = SettingsForm { level: "ninety".into(), ..SettingsForm::default() };
-        assert!(words.to_settings().unwrap_err()[0].message.contains("not a number"));
+        assert_eq!(
+            fields,
+            ["horizon", "holdout", "season", "level", "tracking-limit"]
+        );
+        assert!(
+            errors[0].message.contains("from 1 to 120"),
+            "{}",
+            errors[0].message
+        );
+        assert!(
+            errors[3].message.starts_with("Band level 120 %"),
+            "{}",
+            errors[3].message
+        );
+        let words = SettingsForm {
+            level: "ninety".into(),
+            ..SettingsForm::default()
+        };
+        assert!(words.to_settings().unwrap_err()[0]
+            .message
+            .contains("not a number"));
     }
 }

@@ -49,7 +49,8 @@ impl State {
         let report = Memo::new(move |_| text.with(|t| intake::read(t)));
         let item = RwSignal::new(0usize);
         let form = RwSignal::new(SettingsForm::default());
-        let form_errors = Memo::new(move |_| form.with(|f| f.to_settings().err().unwrap_or_default()));
+        let form_errors =
+            Memo::new(move |_| form.with(|f| f.to_settings().err().unwrap_or_default()));
         let settings = Memo::new(move |previous: Option<&PlanSettings>| {
             form.with(|f| f.to_settings())
                 .unwrap_or_else(|_| previous.cloned().unwrap_or_default())
@@ -85,10 +86,18 @@ impl State {
                 };
                 let row = wanted
                     .as_ref()
-                    .and_then(|w| p.backtest.ranking.iter().position(|r| &r.candidate.label() == w))
+                    .and_then(|w| {
+                        p.backtest
+                            .ranking
+                            .iter()
+                            .position(|r| &r.candidate.label() == w)
+                    })
                     .unwrap_or(0);
                 if row == 0 {
-                    return Some(Shown { row, plan: p.clone() });
+                    return Some(Shown {
+                        row,
+                        plan: p.clone(),
+                    });
                 }
                 let candidate = &p.backtest.ranking[row].candidate;
                 let mut only = s.clone();
@@ -110,7 +119,10 @@ impl State {
                     Some(plan) if &plan.chosen == candidate => Some(Shown { row, plan }),
                     // The refit ranked another candidate first (only possible for the
                     // combination): fall back to the top row rather than mislabel.
-                    _ => Some(Shown { row: 0, plan: p.clone() }),
+                    _ => Some(Shown {
+                        row: 0,
+                        plan: p.clone(),
+                    }),
                 }
             })
         });

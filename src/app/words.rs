@@ -6,15 +6,19 @@
 //! e = F - D, forecast minus demand; a positive error is an over-forecast.
 
 use morrowcast::engine::intake::{IntakeReport, Layout, RowError};
-use morrowcast::engine::patterns::{DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict};
+use morrowcast::engine::patterns::{
+    DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
+};
 use morrowcast::engine::plan::LedgerEntry;
 
 use crate::chart::round_for_people;
 
-/// What Intake understood, one plain sentence per fact.
-pub fn intake_lines(report: &IntakeReport) -> Vec<String> {
-    if report.items.is_empty() && report.errors.is_empty() {
-        return vec!["Nothing read yet: paste a table, open or drop a file, or load the demo.".into()];
+/// What Intake understood from `text`, one plain sentence per fact.
+pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
+    if text.trim().is_empty() {
+        return vec![
+            "Nothing read yet: paste a table, open or drop a file, or load the demo.".into(),
+        ];
     }
     let mut lines = Vec::new();
     let layout = match report.layout {
@@ -41,7 +45,12 @@ pub fn intake_lines(report: &IntakeReport) -> Vec<String> {
     let n = report.items.len();
     if n > 0 {
         let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
-        let longest = report.items.iter().map(|i| i.values.len()).max().unwrap_or(0);
+        let longest = report
+            .items
+            .iter()
+            .map(|i| i.values.len())
+            .max()
+            .unwrap_or(0);
         lines.push(format!(
             "{n} item{} ({}), up to {longest} periods each.",
             if n == 1 { "" } else { "s" },
@@ -84,11 +93,21 @@ pub fn bias_sentence(ledger: &[LedgerEntry], unit: &str) -> String {
     let under = ledger.iter().filter(|e| e.row.error < 0.0).count();
     let over = ledger.iter().filter(|e| e.row.error > 0.0).count();
     let bias = ledger.last().map(|e| e.row.bias).unwrap_or(0.0);
-    let (runs, side) = if under >= over { (under, "under") } else { (over, "over") };
+    let (runs, side) = if under >= over {
+        (under, "under")
+    } else {
+        (over, "over")
+    };
     let total = if bias < 0.0 {
-        format!("summed over the holdout it was {} {unit} too low", round_for_people(-bias))
+        format!(
+            "summed over the holdout it was {} {unit} too low",
+            round_for_people(-bias)
+        )
     } else if bias > 0.0 {
-        format!("summed over the holdout it was {} {unit} too high", round_for_people(bias))
+        format!(
+            "summed over the holdout it was {} {unit} too high",
+            round_for_people(bias)
+        )
     } else {
         "summed over the holdout the errors cancel out".to_string()
     };
@@ -151,7 +170,10 @@ mod tests {
         ledger(forecast, demand, 4.0)
             .into_iter()
             .enumerate()
-            .map(|(i, row)| LedgerEntry { period: Period::month(2025, i as u32 + 1), row })
+            .map(|(i, row)| LedgerEntry {
+                period: Period::month(2025, i as u32 + 1),
+                row,
+            })
             .collect()
     }
 
@@ -179,12 +201,17 @@ mod tests {
             text: "12x".into(),
             message: "Type a number.".into(),
         };
-        assert_eq!(row_error_line(&e), "Row 5, column \"units\": found \"12x\". Type a number.");
+        assert_eq!(
+            row_error_line(&e),
+            "Row 5, column \"units\": found \"12x\". Type a number."
+        );
     }
 
     #[test]
     fn empty_report_invites_input() {
-        let r = morrowcast::engine::intake::read("");
-        assert!(intake_lines(&r)[0].starts_with("Nothing read yet"));
+        let r = morrowcast::engine::intake::read(" \n");
+        let lines = intake_lines(" \n", &r);
+        assert_eq!(lines.len(), 1);
+        assert!(lines[0].starts_with("Nothing read yet"));
     }
 }

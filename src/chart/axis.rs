@@ -33,7 +33,11 @@ pub fn value_range(values: impl IntoIterator<Item = f64>) -> Option<Range<f64>> 
         hi = lo + 1.0;
     }
     let pad = (hi - lo) * 0.06;
-    Some(if lo == 0.0 { 0.0..hi + pad } else { lo - pad..hi + pad })
+    Some(if lo == 0.0 {
+        0.0..hi + pad
+    } else {
+        lo - pad..hi + pad
+    })
 }
 
 /// The label of the period at position `x` when `x` is (close to) a whole number inside the
@@ -60,7 +64,11 @@ pub fn frame<'a, DB: DrawingBackend + 'a>(
     y_desc: &str,
     labels: &'a [String],
 ) -> Result<
-    ChartContext<'a, DB, Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>>,
+    ChartContext<
+        'a,
+        DB,
+        Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
+    >,
     ChartError,
 >
 where
@@ -110,7 +118,10 @@ mod tests {
 
     #[test]
     fn period_labels_only_at_whole_positions() {
-        let labels: Vec<String> = ["2024-01", "2024-02"].iter().map(|s| s.to_string()).collect();
+        let labels: Vec<String> = ["2024-01", "2024-02"]
+            .iter()
+            .map(|s| s.to_string())
+            .collect();
         assert_eq!(period_label(&labels, 1.0), "2024-02");
         assert_eq!(period_label(&labels, 0.5), "");
         assert_eq!(period_label(&labels, 2.0), "");

@@ -85,7 +85,12 @@ where
                 FORECAST.mix(BAND_OPACITY).filled(),
             )))?
             .label(format!("{}% band", round_for_people(data.level_percent)))
-            .legend(|(x, y)| Rectangle::new([(x, y - 5), (x + 18, y + 5)], FORECAST.mix(BAND_OPACITY).filled()));
+            .legend(|(x, y)| {
+                Rectangle::new(
+                    [(x, y - 5), (x + 18, y + 5)],
+                    FORECAST.mix(BAND_OPACITY).filled(),
+                )
+            });
     }
 
     if let Some(start) = data.holdout_start.filter(|s| *s < n) {
@@ -100,10 +105,13 @@ where
         chart.draw_series(std::iter::once(Text::new(
             "holdout starts",
             (x, hi),
-            (FONT, 12).into_font().color(&MARKER).pos(plotters::style::text_anchor::Pos::new(
-                plotters::style::text_anchor::HPos::Left,
-                plotters::style::text_anchor::VPos::Top,
-            )),
+            (FONT, 12)
+                .into_font()
+                .color(&MARKER)
+                .pos(plotters::style::text_anchor::Pos::new(
+                    plotters::style::text_anchor::HPos::Left,
+                    plotters::style::text_anchor::VPos::Top,
+                )),
         )))?;
     }
 
@@ -117,8 +125,9 @@ where
             FITTED.stroke_width(2),
         )))?;
         if first_run {
-            anno.label("fit on history")
-                .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], FITTED.stroke_width(2)));
+            anno.label("fit on history").legend(|(x, y)| {
+                PathElement::new(vec![(x, y), (x + 18, y)], FITTED.stroke_width(2))
+            });
             first_run = false;
         }
     }
@@ -130,12 +139,18 @@ where
         .map(|(i, v)| (i as f64, *v))
         .collect();
     chart
-        .draw_series(std::iter::once(PathElement::new(history.clone(), DEMAND.stroke_width(2))))?
+        .draw_series(std::iter::once(PathElement::new(
+            history.clone(),
+            DEMAND.stroke_width(2),
+        )))?
         .label("demand")
         .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], DEMAND.stroke_width(2)));
     chart.draw_series(history.iter().map(|p| Circle::new(*p, 3, DEMAND.filled())))?;
 
-    if let Some(start) = data.holdout_start.filter(|s| *s < n && !data.holdout_forecast.is_empty()) {
+    if let Some(start) = data
+        .holdout_start
+        .filter(|s| *s < n && !data.holdout_forecast.is_empty())
+    {
         let points: Vec<(f64, f64)> = data
             .holdout_forecast
             .iter()
@@ -143,7 +158,10 @@ where
             .map(|(i, v)| ((start + i) as f64, *v))
             .collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(points.clone(), HOLDOUT.stroke_width(2))))?
+            .draw_series(std::iter::once(PathElement::new(
+                points.clone(),
+                HOLDOUT.stroke_width(2),
+            )))?
             .label("holdout forecast")
             .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], HOLDOUT.stroke_width(2)));
         chart.draw_series(
@@ -164,14 +182,18 @@ where
             .chain(points.iter().copied())
             .collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(line, FORECAST.stroke_width(3))))?
+            .draw_series(std::iter::once(PathElement::new(
+                line,
+                FORECAST.stroke_width(3),
+            )))?
             .label("forecast")
             .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], FORECAST.stroke_width(3)));
-        chart.draw_series(
-            points
-                .iter()
-                .map(|p| Rectangle::new([(p.0 - 0.12, p.1), (p.0 + 0.12, p.1)], FORECAST.stroke_width(6))),
-        )?;
+        chart.draw_series(points.iter().map(|p| {
+            Rectangle::new(
+                [(p.0 - 0.12, p.1), (p.0 + 0.12, p.1)],
+                FORECAST.stroke_width(6),
+            )
+        }))?;
     }
 
     chart
@@ -254,10 +276,18 @@ mod tests {
 
     fn sample() -> LookAhead {
         // Invented shapes for drawing checks only (no forecast is computed here).
-        let history: Vec<f64> = (0..24).map(|t| 50.0 + 10.0 * ((t % 12) as f64 / 2.0).sin()).collect();
-        let fitted = (0..24).map(|t| (t > 0).then(|| 50.0 + t as f64 * 0.1)).collect();
+        let history: Vec<f64> = (0..24)
+            .map(|t| 50.0 + 10.0 * ((t % 12) as f64 / 2.0).sin())
+            .collect();
+        let fitted = (0..24)
+            .map(|t| (t > 0).then_some(50.0 + t as f64 * 0.1))
+            .collect();
         let forecast: Vec<BandValue> = (0..6)
-            .map(|i| BandValue { value: 55.0, low: 45.0 - i as f64, high: 65.0 + i as f64 })
+            .map(|i| BandValue {
+                value: 55.0,
+                low: 45.0 - i as f64,
+                high: 65.0 + i as f64,
+            })
             .collect();
         let labels = (0..30).map(|i| format!("2024-{:02}", i % 12 + 1)).collect();
         LookAhead {
@@ -351,10 +381,12 @@ mod tests {
         let (w, h) = (600u32, 300u32);
         let mut buf = vec![0u8; (w * h * 3) as usize];
         {
-            let area = probe::TextlessBitmap(BitMapBackend::with_buffer(&mut buf, (w, h))).into_drawing_area();
+            let area = probe::TextlessBitmap(BitMapBackend::with_buffer(&mut buf, (w, h)))
+                .into_drawing_area();
             draw_look_ahead(&area, &data).unwrap();
         }
-        let tinted = probe::count_pixels_near(&buf, probe::blend(FORECAST, BACKGROUND, BAND_OPACITY), 12);
+        let tinted =
+            probe::count_pixels_near(&buf, probe::blend(FORECAST, BACKGROUND, BAND_OPACITY), 12);
         assert!(tinted > 500, "only {tinted} band pixels");
         let background = probe::count_pixels_near(&buf, BACKGROUND, 0);
         assert!(background < (w * h) as usize, "the canvas is blank");

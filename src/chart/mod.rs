@@ -40,7 +40,9 @@ impl fmt::Display for ChartError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             ChartError::NoData => f.write_str("there is nothing to draw yet: load data first"),
-            ChartError::Backend(m) => write!(f, "the chart could not be drawn ({m}): reload the page"),
+            ChartError::Backend(m) => {
+                write!(f, "the chart could not be drawn ({m}): reload the page")
+            }
         }
     }
 }

@@ -119,7 +119,9 @@ mod tests {
 
     #[test]
     fn year_colours_darken_from_oldest_to_newest() {
-        let l: Vec<f64> = (0..5).map(|i| relative_luminance(year_colour(i, 5))).collect();
+        let l: Vec<f64> = (0..5)
+            .map(|i| relative_luminance(year_colour(i, 5)))
+            .collect();
         assert!(l.windows(2).all(|w| w[1] < w[0]), "{l:?}");
         assert_eq!(year_colour(0, 1), year_colour(3, 4));
     }

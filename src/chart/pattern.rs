@@ -25,7 +25,10 @@ pub struct History {
 
 /// Draws the history: straight segments, a filled marker per observed period, a hollow one per
 /// filled gap.
-pub fn draw_history<DB: DrawingBackend>(area: &Area<'_, DB>, data: &History) -> Result<(), ChartError>
+pub fn draw_history<DB: DrawingBackend>(
+    area: &Area<'_, DB>,
+    data: &History,
+) -> Result<(), ChartError>
 where
     DB::ErrorType: 'static,
 {
@@ -39,7 +42,10 @@ where
         .enumerate()
         .map(|(i, v)| (i as f64, *v))
         .collect();
-    chart.draw_series(std::iter::once(PathElement::new(points.clone(), DEMAND.stroke_width(2))))?;
+    chart.draw_series(std::iter::once(PathElement::new(
+        points.clone(),
+        DEMAND.stroke_width(2),
+    )))?;
     chart.draw_series(points.iter().enumerate().map(|(i, p)| {
         if data.filled.contains(&i) {
             Circle::new(*p, 4, ALERT.stroke_width(2))
@@ -54,12 +60,16 @@ where
 /// Summary of the history chart.
 pub fn history_summary(data: &History) -> String {
     let n = data.values.len();
-    let (Some(first), Some(last)) = (data.labels.first(), data.labels.get(n.saturating_sub(1))) else {
+    let (Some(first), Some(last)) = (data.labels.first(), data.labels.get(n.saturating_sub(1)))
+    else {
         return "No history to show yet.".to_string();
     };
-    let (lo, hi) = data.values.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
-        (a.min(*v), b.max(*v))
-    });
+    let (lo, hi) = data
+        .values
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+            (a.min(*v), b.max(*v))
+        });
     let mut s = format!(
         "{n} periods from {first} to {last}; demand between {} and {} {}.",
         round_for_people(lo),
@@ -86,13 +96,20 @@ pub struct Overlay {
 }
 
 /// Draws the seasonal overlay with a legend; the newest year is darkest and thickest.
-pub fn draw_overlay<DB: DrawingBackend>(area: &Area<'_, DB>, data: &Overlay) -> Result<(), ChartError>
+pub fn draw_overlay<DB: DrawingBackend>(
+    area: &Area<'_, DB>,
+    data: &Overlay,
+) -> Result<(), ChartError>
 where
     DB::ErrorType: 'static,
 {
     clear(area)?;
-    let range = value_range(data.years.iter().flat_map(|(_, v)| v.iter().flatten().copied()))
-        .ok_or(ChartError::NoData)?;
+    let range = value_range(
+        data.years
+            .iter()
+            .flat_map(|(_, v)| v.iter().flatten().copied()),
+    )
+    .ok_or(ChartError::NoData)?;
     let y_desc = format!("demand ({})", data.unit);
     let mut chart = frame(area, data.positions.len(), range, &y_desc, &data.positions)?;
     let count = data.years.len();
@@ -105,9 +122,14 @@ where
             .filter_map(|(i, v)| v.map(|v| (i as f64, v)))
             .collect();
         chart
-            .draw_series(std::iter::once(PathElement::new(points.clone(), colour.stroke_width(width))))?
+            .draw_series(std::iter::once(PathElement::new(
+                points.clone(),
+                colour.stroke_width(width),
+            )))?
             .label(year.clone())
-            .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], colour.stroke_width(width)));
+            .legend(move |(x, y)| {
+                PathElement::new(vec![(x, y), (x + 18, y)], colour.stroke_width(width))
+            });
         chart.draw_series(points.iter().map(|p| Circle::new(*p, 3, colour.filled())))?;
     }
     chart
@@ -185,11 +207,24 @@ where
         .fold(data.threshold.abs(), f64::max)
         .clamp(0.1, 1.0)
         * 1.1;
-    let mut chart = frame(area, labels.len(), -extent..extent, "autocorrelation", &labels)?;
+    let mut chart = frame(
+        area,
+        labels.len(),
+        -extent..extent,
+        "autocorrelation",
+        &labels,
+    )?;
     chart.draw_series(data.values.iter().enumerate().map(|(i, r)| {
         let lag = i + 1;
-        let colour = if Some(lag) == data.candidate { FITTED } else { DEMAND };
-        Rectangle::new([(i as f64 - 0.3, 0.0), (i as f64 + 0.3, *r)], colour.filled())
+        let colour = if Some(lag) == data.candidate {
+            FITTED
+        } else {
+            DEMAND
+        };
+        Rectangle::new(
+            [(i as f64 - 0.3, 0.0), (i as f64 + 0.3, *r)],
+            colour.filled(),
+        )
     }))?;
     let n = data.values.len() as f64;
     for t in [data.threshold, -data.threshold] {
@@ -239,7 +274,9 @@ mod tests {
     #[test]
     fn history_has_a_marker_per_period_and_hollow_ones_for_gaps() {
         let data = History {
-            labels: (1..=10).map(|i| format!("2024-Q{}", (i - 1) % 4 + 1)).collect(),
+            labels: (1..=10)
+                .map(|i| format!("2024-Q{}", (i - 1) % 4 + 1))
+                .collect(),
             values: vec![5.0, 6.0, 7.0, 6.5, 6.0, 5.0, 8.0, 9.0, 7.0, 6.0],
             filled: vec![3],
             unit: "units".into(),
@@ -251,18 +288,27 @@ mod tests {
         assert_eq!(svg.circles_with_fill(&hex(DEMAND)), 9);
         assert!(svg.texts.iter().any(|t| t == "2024-Q1"));
         let s = history_summary(&data);
-        assert!(s.starts_with("10 periods from 2024-Q1 to 2024-Q2; demand between 5 and 9 units."), "{s}");
+        assert!(
+            s.starts_with("10 periods from 2024-Q1 to 2024-Q2; demand between 5 and 9 units."),
+            "{s}"
+        );
         assert!(s.contains("1 missing period(s)"));
     }
 
     #[test]
     fn overlay_draws_one_line_per_year_with_a_legend() {
-        let positions: Vec<String> = ["Jan", "Feb", "Mar", "Apr"].iter().map(|s| s.to_string()).collect();
+        let positions: Vec<String> = ["Jan", "Feb", "Mar", "Apr"]
+            .iter()
+            .map(|s| s.to_string())
+            .collect();
         let data = Overlay {
             positions,
             years: vec![
                 ("2022".into(), vec![None, Some(2.0), Some(5.0), Some(3.0)]),
-                ("2023".into(), vec![Some(1.0), Some(2.5), Some(6.0), Some(3.0)]),
+                (
+                    "2023".into(),
+                    vec![Some(1.0), Some(2.5), Some(6.0), Some(3.0)],
+                ),
                 ("2024".into(), vec![Some(1.5), Some(7.0), Some(6.5), None]),
             ],
             unit: "units".into(),
@@ -310,9 +356,18 @@ mod tests {
     fn empty_inputs_are_errors() {
         let mut out = String::new();
         let area = SVGBackend::with_string(&mut out, (100, 100)).into_drawing_area();
-        let empty = Autocorrelation { values: vec![], candidate: None, threshold: 0.0 };
+        let empty = Autocorrelation {
+            values: vec![],
+            candidate: None,
+            threshold: 0.0,
+        };
         assert_eq!(draw_autocorrelation(&area, &empty), Err(ChartError::NoData));
-        let h = History { labels: vec![], values: vec![], filled: vec![], unit: "units".into() };
+        let h = History {
+            labels: vec![],
+            values: vec![],
+            filled: vec![],
+            unit: "units".into(),
+        };
         assert_eq!(draw_history(&area, &h), Err(ChartError::NoData));
         assert_eq!(history_summary(&h), "No history to show yet.");
     }

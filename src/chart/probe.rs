@@ -53,7 +53,10 @@ impl Svg {
             if rest.starts_with('/') {
                 continue;
             }
-            let tag: String = rest.chars().take_while(|c| c.is_ascii_alphabetic()).collect();
+            let tag: String = rest
+                .chars()
+                .take_while(|c| c.is_ascii_alphabetic())
+                .collect();
             let mut attrs = Vec::new();
             let mut s = &rest[tag.len()..];
             while let Some(eq) = s.find("=\"") {
@@ -94,7 +97,10 @@ impl Svg {
         self.elements
             .iter()
             .filter(|e| e.tag == "polygon")
-            .filter(|e| e.attr("fill").is_some_and(|f| f.eq_ignore_ascii_case(colour)))
+            .filter(|e| {
+                e.attr("fill")
+                    .is_some_and(|f| f.eq_ignore_ascii_case(colour))
+            })
             .map(Element::points)
             .collect()
     }
@@ -150,11 +156,14 @@ pub fn count_pixels_near(buf: &[u8], colour: RGBColor, tolerance: u8) -> usize {
 pub struct TextlessBitmap<'a>(pub plotters::prelude::BitMapBackend<'a>);
 
 impl plotters::prelude::DrawingBackend for TextlessBitmap<'_> {
-    type ErrorType = <plotters::prelude::BitMapBackend<'static> as plotters::prelude::DrawingBackend>::ErrorType;
+    type ErrorType =
+        <plotters::prelude::BitMapBackend<'static> as plotters::prelude::DrawingBackend>::ErrorType;
     fn get_size(&self) -> (u32, u32) {
         self.0.get_size()
     }
-    fn ensure_prepared(&mut self) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+    fn ensure_prepared(
+        &mut self,
+    ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
         self.0.ensure_prepared()
     }
     fn present(&mut self) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
@@ -184,7 +193,10 @@ impl plotters::prelude::DrawingBackend for TextlessBitmap<'_> {
     ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
         self.0.draw_rect(upper_left, bottom_right, style, fill)
     }
-    fn fill_polygon<S: plotters_backend::BackendStyle, I: IntoIterator<Item = plotters_backend::BackendCoord>>(
+    fn fill_polygon<
+        S: plotters_backend::BackendStyle,
+        I: IntoIterator<Item = plotters_backend::BackendCoord>,
+    >(
         &mut self,
         vert: I,
         style: &S,
@@ -205,6 +217,9 @@ impl plotters::prelude::DrawingBackend for TextlessBitmap<'_> {
         style: &TStyle,
     ) -> Result<(u32, u32), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
         let size = style.size();
-        Ok(((size * 0.6 * text.chars().count() as f64) as u32, size as u32))
+        Ok((
+            (size * 0.6 * text.chars().count() as f64) as u32,
+            size as u32,
+        ))
     }
 }

@@ -23,7 +23,10 @@ pub struct Tracking {
 
 /// Draws the signal with limits at plus and minus L; out-of-limit periods get a large hollow
 /// ring in the alert colour around their marker.
-pub fn draw_tracking<DB: DrawingBackend>(area: &Area<'_, DB>, data: &Tracking) -> Result<(), ChartError>
+pub fn draw_tracking<DB: DrawingBackend>(
+    area: &Area<'_, DB>,
+    data: &Tracking,
+) -> Result<(), ChartError>
 where
     DB::ErrorType: 'static,
 {
@@ -43,7 +46,13 @@ where
         .fold(data.limit.abs(), f64::max)
         .max(1.0)
         * 1.15;
-    let mut chart = frame(area, data.signal.len(), -extent..extent, "tracking signal", &data.labels)?;
+    let mut chart = frame(
+        area,
+        data.signal.len(),
+        -extent..extent,
+        "tracking signal",
+        &data.labels,
+    )?;
     let n = data.signal.len() as f64;
     for l in [data.limit, -data.limit] {
         chart.draw_series(std::iter::once(DashedPathElement::new(
@@ -53,7 +62,10 @@ where
             MARKER.stroke_width(1),
         )))?;
     }
-    chart.draw_series(std::iter::once(PathElement::new(points.clone(), DEMAND.stroke_width(2))))?;
+    chart.draw_series(std::iter::once(PathElement::new(
+        points.clone(),
+        DEMAND.stroke_width(2),
+    )))?;
     chart.draw_series(points.iter().map(|p| Circle::new(*p, 3, DEMAND.filled())))?;
     chart.draw_series(
         points
@@ -118,10 +130,17 @@ mod tests {
         let rings: Vec<&crate::chart::probe::Element> = svg
             .elements
             .iter()
-            .filter(|e| e.tag == "circle" && e.attr("stroke").is_some_and(|s| s.eq_ignore_ascii_case(&hex(ALERT))))
+            .filter(|e| {
+                e.tag == "circle"
+                    && e.attr("stroke")
+                        .is_some_and(|s| s.eq_ignore_ascii_case(&hex(ALERT)))
+            })
             .collect();
         assert_eq!(rings.len(), 2);
-        let ring_x: Vec<i32> = rings.iter().map(|e| e.attr("cx").unwrap().parse().unwrap()).collect();
+        let ring_x: Vec<i32> = rings
+            .iter()
+            .map(|e| e.attr("cx").unwrap().parse().unwrap())
+            .collect();
         assert_eq!(ring_x, vec![line[2].0, line[3].0]);
         assert_eq!(
             tracking_summary(&data),

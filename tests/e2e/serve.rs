@@ -39,10 +39,22 @@ fn handle(mut stream: TcpStream, root: &Path, log: &Mutex<Vec<String>>) {
     while reader.read_line(&mut line).map(|n| n > 2).unwrap_or(false) {
         line.clear();
     }
-    let path = request_line.split_whitespace().nth(1).unwrap_or("/").to_string();
+    let path = request_line
+        .split_whitespace()
+        .nth(1)
+        .unwrap_or("/")
+        .to_string();
     log.lock().unwrap().push(path.clone());
-    let clean = path.split(['?', '#']).next().unwrap_or("/").trim_start_matches('/');
-    let file: PathBuf = if clean.is_empty() { root.join("index.html") } else { root.join(clean) };
+    let clean = path
+        .split(['?', '#'])
+        .next()
+        .unwrap_or("/")
+        .trim_start_matches('/');
+    let file: PathBuf = if clean.is_empty() {
+        root.join("index.html")
+    } else {
+        root.join(clean)
+    };
     let inside = !clean.split('/').any(|p| p == "..");
     let (status, body, kind) = match std::fs::read(&file) {
         Ok(b) if inside => ("200 OK", b, content_type(&file)),

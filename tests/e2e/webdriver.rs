@@ -23,7 +23,11 @@ const CHROMIUM_ARGS: [&str; 9] = [
 ];
 
 fn free_port() -> u16 {
-    TcpListener::bind("127.0.0.1:0").unwrap().local_addr().unwrap().port()
+    TcpListener::bind("127.0.0.1:0")
+        .unwrap()
+        .local_addr()
+        .unwrap()
+        .port()
 }
 
 /// One HTTP/1.1 exchange with `Connection: close`; returns the JSON body.
@@ -35,12 +39,17 @@ fn http(port: u16, method: &str, path: &str, body: Option<&Value>) -> Result<Val
         "{method} {path} HTTP/1.1\r\nHost: 127.0.0.1:{port}\r\nContent-Type: application/json\r\nContent-Length: {}\r\nConnection: close\r\n\r\n{payload}",
         payload.len()
     );
-    stream.write_all(request.as_bytes()).map_err(|e| e.to_string())?;
+    stream
+        .write_all(request.as_bytes())
+        .map_err(|e| e.to_string())?;
     let mut raw = Vec::new();
     stream.read_to_end(&mut raw).map_err(|e| e.to_string())?;
     let text = String::from_utf8_lossy(&raw);
     let (head, body) = text.split_once("\r\n\r\n").ok_or("no HTTP body")?;
-    let body = if head.to_ascii_lowercase().contains("transfer-encoding: chunked") {
+    let body = if head
+        .to_ascii_lowercase()
+        .contains("transfer-encoding: chunked")
+    {
         dechunk(body)
     } else {
         body.to_string()
@@ -92,7 +101,12 @@ impl Browser {
             "browserName": "chrome",
             "goog:chromeOptions": {"binary": chromium, "args": args}
         }}});
-        let mut browser = Browser { driver, port, session: String::new(), profile };
+        let mut browser = Browser {
+            driver,
+            port,
+            session: String::new(),
+            profile,
+        };
         let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
         browser.session = reply["value"]["sessionId"]
             .as_str()
@@ -103,7 +117,8 @@ impl Browser {
 
     fn command(&self, method: &str, path: &str, body: Option<Value>) -> Value {
         let url = format!("/session/{}{path}", self.session);
-        let reply = http(self.port, method, &url, body.as_ref()).unwrap_or_else(|e| panic!("{path}: {e}"));
+        let reply =
+            http(self.port, method, &url, body.as_ref()).unwrap_or_else(|e| panic!("{path}: {e}"));
         if reply["value"].get("error").is_some() {
             panic!("WebDriver {path}: {}", reply["value"]);
         }
@@ -116,7 +131,11 @@ impl Browser {
 
     /// Runs a script (its `return` value comes back as JSON).
     pub fn js(&self, script: &str) -> Value {
-        self.command("POST", "/execute/sync", Some(json!({ "script": script, "args": [] })))
+        self.command(
+            "POST",
+            "/execute/sync",
+            Some(json!({ "script": script, "args": [] })),
+        )
     }
 
     /// Polls a script until it returns a truthy value, or panics after `timeout`.
@@ -152,7 +171,12 @@ impl Browser {
 impl Drop for Browser {
     fn drop(&mut self) {
         if !self.session.is_empty() {
-            let _ = http(self.port, "DELETE", &format!("/session/{}", self.session), None);
+            let _ = http(
+                self.port,
+                "DELETE",
+                &format!("/session/{}", self.session),
+                None,
+            );
         }
         let _ = self.driver.kill();
         let _ = self.driver.wait();
