@@ -90,6 +90,10 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
         "return document.querySelectorAll('#ranking-table button.row-pick').length",
         WAIT,
     );
+    // Recorded, not asserted (timing targets live in benchmarks): navigation start to ranking.
+    let first_render = browser.js("return performance.now()");
+    let recompute = browser.js("return document.getElementById('compute-time').textContent");
+    eprintln!("first render of the demo: {first_render} ms after navigation start; {recompute}");
     let season = browser.js("return document.getElementById('season-verdict').textContent");
     assert!(
         season.as_str().unwrap_or("").starts_with("Season length "),

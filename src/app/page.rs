@@ -21,6 +21,10 @@ pub fn App() -> impl IntoView {
         browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
     let state = State::new(text, source);
     provide_context(state);
+    // Charts redraw at their new size; the handle lives as long as the page.
+    let _resize = window_event_listener(leptos::ev::resize, move |_| {
+        state.layout.update(|t| *t += 1)
+    });
     view! {
         <a class="skip-link" href="#results">"Skip to the results"</a>
         <header class="masthead">

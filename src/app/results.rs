@@ -46,6 +46,7 @@ where
     let canvas = NodeRef::<Canvas>::new();
     let failure = RwSignal::new(None::<String>);
     Effect::new(move |_| {
+        state.layout.track();
         let value = data.get();
         if let (Some(el), Some(value)) = (canvas.get(), value) {
             let result = browser::draw_into(&el, |area| draw(area, &value));
@@ -85,6 +86,9 @@ where
 pub fn Headline() -> impl IntoView {
     let state = expect_context::<State>();
     view! {
+        <p class="busy" class:on=move || state.busy.get() role="status" id="busy">
+            {move || if state.busy.get() { "Working…" } else { "" }}
+        </p>
         <section class="headline" aria-live="polite" id="headline">
             {move || state.plan.with(|p| match p {
                 None => view! { <p class="lead">"Load data in Intake to see its forecast here."</p> }.into_any(),

@@ -34,7 +34,13 @@ pub struct State {
     /// The last settings that passed the checks.
     pub settings: Memo<PlanSettings>,
     pub series: Memo<Option<Result<Series, String>>>,
-    pub plan: Memo<Option<Result<ItemPlan, String>>>,
+    /// The ranked plan of the chosen item; computed one tick after its inputs change, so the
+    /// page can show that it is working first.
+    pub plan: RwSignal<Option<Result<ItemPlan, String>>>,
+    /// True from a change of input until its plan is in.
+    pub busy: RwSignal<bool>,
+    /// Bumped when the window is resized, so charts redraw at their new size.
+    pub layout: RwSignal<u32>,
     /// Label of the ranking row the user picked; `None`: the top row.
     pub picked: RwSignal<Option<String>>,
     pub shown: Memo<Option<Shown>>,
@@ -63,18 +69,30 @@ impl State {
             })
         });
         let compute_ms = RwSignal::new(0.0);
-        let plan = Memo::new(move |_| {
+        let plan = RwSignal::new(None::<Result<ItemPlan, String>>);
+        let busy = RwSignal::new(false);
+        Effect::new(move |_| {
             let s = settings.get();
-            series.with(|series| match series {
-                Some(Ok(series)) => {
-                    let t0 = browser::now_ms();
-                    let result = plan_item(series, &s).map_err(|e| e.to_string());
-                    compute_ms.set(browser::now_ms() - t0);
-                    Some(result)
-                }
-                Some(Err(e)) => Some(Err(e.clone())),
-                None => None,
-            })
+            let input = series.get();
+            busy.set(true);
+            // One tick later: the busy indicator is painted before the work starts.
+            set_timeout(
+                move || {
+                    let result = match input {
+                        Some(Ok(series)) => {
+                            let t0 = browser::now_ms();
+                            let r = plan_item(&series, &s).map_err(|e| e.to_string());
+                            compute_ms.set(browser::now_ms() - t0);
+                            Some(r)
+                        }
+                        Some(Err(e)) => Some(Err(e)),
+                        None => None,
+                    };
+                    plan.set(result);
+                    busy.set(false);
+                },
+                std::time::Duration::ZERO,
+            );
         });
         let picked = RwSignal::new(None::<String>);
         let shown = Memo::new(move |_| {
@@ -136,6 +154,8 @@ impl State {
             settings,
             series,
             plan,
+            busy,
+            layout: RwSignal::new(0),
             picked,
             shown,
             compute_ms,
