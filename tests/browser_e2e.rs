@@ -131,6 +131,11 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
     let rows = browser.js("return document.querySelectorAll('#forecast-table tbody tr').length");
     assert!(number(&rows) >= 1.0);
     save_screenshot(&browser, "demo-loaded.png");
+    for section in ["ranking", "error-ledger", "pattern-view"] {
+        browser.js(&format!("document.getElementById('{section}').scrollIntoView()"));
+        std::thread::sleep(Duration::from_millis(300));
+        save_screenshot(&browser, &format!("demo-{section}.png"));
+    }
 
     // Only the page's own files were asked for, from its own origin.
     let resources = browser.js("return performance.getEntriesByType('resource').map(e => e.name)");
