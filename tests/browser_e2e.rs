@@ -132,7 +132,9 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
     assert!(number(&rows) >= 1.0);
     save_screenshot(&browser, "demo-loaded.png");
     for section in ["ranking", "error-ledger", "pattern-view"] {
-        browser.js(&format!("document.getElementById('{section}').scrollIntoView()"));
+        browser.js(&format!(
+            "document.getElementById('{section}').scrollIntoView()"
+        ));
         std::thread::sleep(Duration::from_millis(300));
         save_screenshot(&browser, &format!("demo-{section}.png"));
     }

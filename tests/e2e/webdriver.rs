@@ -42,18 +42,43 @@ fn http(port: u16, method: &str, path: &str, body: Option<&Value>) -> Result<Val
     stream
         .write_all(request.as_bytes())
         .map_err(|e| e.to_string())?;
+    // chromedriver keeps the connection open despite `Connection: close`: read the headers,
+    // then exactly Content-Length bytes (or up to the last chunk), never to the end.
     let mut raw = Vec::new();
-    stream.read_to_end(&mut raw).map_err(|e| e.to_string())?;
-    let text = String::from_utf8_lossy(&raw);
-    let (head, body) = text.split_once("\r\n\r\n").ok_or("no HTTP body")?;
-    let body = if head
-        .to_ascii_lowercase()
-        .contains("transfer-encoding: chunked")
-    {
-        dechunk(body)
-    } else {
-        body.to_string()
+    let mut buf = [0u8; 65536];
+    let header_end = loop {
+        let n = stream.read(&mut buf).map_err(|e| e.to_string())?;
+        if n == 0 {
+            return Err("connection closed before the headers".into());
+        }
+        raw.extend_from_slice(&buf[..n]);
+        if let Some(i) = raw.windows(4).position(|w| w == b"\r\n\r\n") {
+            break i + 4;
+        }
     };
+    let head = String::from_utf8_lossy(&raw[..header_end]).to_ascii_lowercase();
+    let length = head
+        .lines()
+        .find_map(|l| l.strip_prefix("content-length:"))
+        .and_then(|v| v.trim().parse::<usize>().ok());
+    let chunked = head.contains("transfer-encoding: chunked");
+    loop {
+        let body = &raw[header_end..];
+        let done = match length {
+            Some(n) => body.len() >= n,
+            None => chunked && body.windows(5).any(|w| w == b"0\r\n\r\n"),
+        };
+        if done {
+            break;
+        }
+        let n = stream.read(&mut buf).map_err(|e| e.to_string())?;
+        if n == 0 {
+            break;
+        }
+        raw.extend_from_slice(&buf[..n]);
+    }
+    let text = String::from_utf8_lossy(&raw[header_end..]).into_owned();
+    let body = if chunked { dechunk(&text) } else { text };
     serde_json::from_str(&body).map_err(|e| format!("{e}: {body}"))
 }
 
@@ -88,25 +113,26 @@ impl Browser {
             .stderr(Stdio::null())
             .spawn()
             .expect("start chromedriver");
-        let deadline = Instant::now() + Duration::from_secs(20);
-        while http(port, "GET", "/status", None).is_err() {
-            assert!(Instant::now() < deadline, "chromedriver did not start");
-            std::thread::sleep(Duration::from_millis(100));
-        }
         let profile = std::env::temp_dir().join(format!("morrowcast-e2e-{port}"));
-        let mut args: Vec<String> = CHROMIUM_ARGS.iter().map(|s| s.to_string()).collect();
-        args.push(format!("--user-data-dir={}", profile.display()));
-        args.push(format!("--window-size={},{}", window.0, window.1));
-        let caps = json!({"capabilities": {"alwaysMatch": {
-            "browserName": "chrome",
-            "goog:chromeOptions": {"binary": chromium, "args": args}
-        }}});
+        // Built before anything can fail, so its Drop stops the driver in every case.
         let mut browser = Browser {
             driver,
             port,
             session: String::new(),
             profile,
         };
+        let deadline = Instant::now() + Duration::from_secs(20);
+        while http(port, "GET", "/status", None).is_err() {
+            assert!(Instant::now() < deadline, "chromedriver did not start");
+            std::thread::sleep(Duration::from_millis(100));
+        }
+        let mut args: Vec<String> = CHROMIUM_ARGS.iter().map(|s| s.to_string()).collect();
+        args.push(format!("--user-data-dir={}", browser.profile.display()));
+        args.push(format!("--window-size={},{}", window.0, window.1));
+        let caps = json!({"capabilities": {"alwaysMatch": {
+            "browserName": "chrome",
+            "goog:chromeOptions": {"binary": chromium, "args": args}
+        }}});
         let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
         browser.session = reply["value"]["sessionId"]
             .as_str()
