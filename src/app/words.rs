@@ -93,10 +93,11 @@ pub fn bias_sentence(ledger: &[LedgerEntry], unit: &str) -> String {
     let under = ledger.iter().filter(|e| e.row.error < 0.0).count();
     let over = ledger.iter().filter(|e| e.row.error > 0.0).count();
     let bias = ledger.last().map(|e| e.row.bias).unwrap_or(0.0);
-    let (runs, side) = if under >= over {
-        (under, "under")
-    } else {
-        (over, "over")
+    let runs = match (under, over) {
+        (u, 0) => format!("under demand in {u} of {n} periods"),
+        (0, o) => format!("over demand in {o} of {n} periods"),
+        (u, o) if u >= o => format!("under demand in {u} of {n} periods and over it in {o}"),
+        (u, o) => format!("over demand in {o} of {n} periods and under it in {u}"),
     };
     let total = if bias < 0.0 {
         format!(
@@ -111,7 +112,7 @@ pub fn bias_sentence(ledger: &[LedgerEntry], unit: &str) -> String {
     } else {
         "summed over the holdout the errors cancel out".to_string()
     };
-    format!("The forecast ran {side} demand in {runs} of {n} periods; {total}.")
+    format!("The forecast ran {runs}; {total}.")
 }
 
 /// The season verdict in words.
@@ -183,7 +184,7 @@ mod tests {
         let e = entries(&[8.0, 9.0, 12.0, 7.0], &[10.0, 10.0, 10.0, 10.0]);
         assert_eq!(
             bias_sentence(&e, "units"),
-            "The forecast ran under demand in 3 of 4 periods; summed over the holdout it was 4 units too low."
+            "The forecast ran under demand in 3 of 4 periods and over it in 1; summed over the holdout it was 4 units too low."
         );
         let e = entries(&[11.0, 12.0], &[10.0, 10.0]);
         assert_eq!(

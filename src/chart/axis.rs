@@ -55,6 +55,45 @@ pub fn x_label_count(width: u32, periods: usize) -> usize {
     ((width / 70) as usize).clamp(2, periods.max(2))
 }
 
+/// Positions that carry a period label: every `step` periods from the first, with the step the
+/// smallest of 1, 2, 3, 4, 6, 12, 24, 36, ... (whole seasons of months and quarters) that keeps
+/// the labels within `max_labels`. Regular steps keep a year's labels on the same month.
+pub fn tick_positions(periods: usize, max_labels: usize) -> Vec<f64> {
+    let max_labels = max_labels.max(1);
+    let mut steps = vec![1usize, 2, 3, 4, 6];
+    steps.extend(
+        (1..)
+            .map(|k| 12 * k)
+            .take_while(|s| *s < periods.max(12) * 2),
+    );
+    let step = steps
+        .into_iter()
+        .find(|s| periods.div_ceil(*s) <= max_labels)
+        .unwrap_or(periods.max(1));
+    (0..periods).step_by(step).map(|p| p as f64).collect()
+}
+
+/// The time axis: positions as f64, labelled only at [`tick_positions`] (plotters would
+/// otherwise pick "nice" decimal ticks, which drift across the months of a year).
+pub struct PeriodAxis {
+    inner: plotters::coord::types::RangedCoordf64,
+    ticks: Vec<f64>,
+}
+
+impl Ranged for PeriodAxis {
+    type FormatOption = plotters::coord::ranged1d::DefaultFormatting;
+    type ValueType = f64;
+    fn map(&self, value: &f64, limit: (i32, i32)) -> i32 {
+        self.inner.map(value, limit)
+    }
+    fn key_points<Hint: plotters::coord::ranged1d::KeyPointHint>(&self, _hint: Hint) -> Vec<f64> {
+        self.ticks.clone()
+    }
+    fn range(&self) -> Range<f64> {
+        self.inner.range()
+    }
+}
+
 /// A Cartesian chart over positions 0..periods and the given value range, with our calm frame:
 /// light horizontal lines only, period labels below, the value unit on the left.
 pub fn frame<'a, DB: DrawingBackend + 'a>(
@@ -64,11 +103,7 @@ pub fn frame<'a, DB: DrawingBackend + 'a>(
     y_desc: &str,
     labels: &'a [String],
 ) -> Result<
-    ChartContext<
-        'a,
-        DB,
-        Cartesian2d<plotters::coord::types::RangedCoordf64, plotters::coord::types::RangedCoordf64>,
-    >,
+    ChartContext<'a, DB, Cartesian2d<PeriodAxis, plotters::coord::types::RangedCoordf64>>,
     ChartError,
 >
 where
@@ -79,7 +114,13 @@ where
         .margin(12)
         .x_label_area_size(34)
         .y_label_area_size(56)
-        .build_cartesian_2d(-0.5..(periods.max(1) as f64 - 0.5), values)?;
+        .build_cartesian_2d(
+            PeriodAxis {
+                inner: (-0.5..(periods.max(1) as f64 - 0.5)).into(),
+                ticks: tick_positions(periods, x_label_count(width, periods)),
+            },
+            values,
+        )?;
     let label_fmt = move |x: &f64| period_label(labels, *x);
     let value_fmt = |v: &f64| super::round_for_people(*v);
     chart
@@ -88,7 +129,6 @@ where
         .light_line_style(BACKGROUND)
         .bold_line_style(GRID.stroke_width(1))
         .axis_style(INK.mix(0.6))
-        .x_labels(x_label_count(width, periods))
         .y_labels(6)
         .x_label_formatter(&label_fmt)
         .y_label_formatter(&value_fmt)
@@ -128,5 +168,17 @@ mod tests {
         assert_eq!(period_label(&labels, -1.0), "");
         assert_eq!(x_label_count(700, 60), 10);
         assert_eq!(x_label_count(700, 3), 3);
+    }
+
+    #[test]
+    fn ticks_step_by_whole_seasons() {
+        assert_eq!(tick_positions(5, 10), vec![0.0, 1.0, 2.0, 3.0, 4.0]);
+        // 72 months, 10 labels: every 12 months.
+        let t = tick_positions(72, 10);
+        assert_eq!(t.len(), 6);
+        assert!(t.windows(2).all(|w| w[1] - w[0] == 12.0));
+        // 240 months, 8 labels: every 36.
+        assert_eq!(tick_positions(240, 8)[1], 36.0);
+        assert_eq!(tick_positions(0, 8), Vec::<f64>::new());
     }
 }
