@@ -17,7 +17,8 @@ use super::settings::{FieldError, SettingsForm};
 pub struct Shown {
     /// Index of the row in the ranking.
     pub row: usize,
-    /// The plan refitted with that row's candidate (the ranked plan itself for the top row).
+    /// The plan refitted with that row's candidate (the ranked plan itself for the row the
+    /// engine chose).
     pub plan: ItemPlan,
 }
 
@@ -41,7 +42,7 @@ pub struct State {
     pub busy: RwSignal<bool>,
     /// Bumped when the window is resized, so charts redraw at their new size.
     pub layout: RwSignal<u32>,
-    /// Label of the ranking row the user picked; `None`: the top row.
+    /// Label of the ranking row the user picked; `None`: the engine's choice.
     pub picked: RwSignal<Option<String>>,
     pub shown: Memo<Option<Shown>>,
     /// Time of the last recompute of the ranked plan, in milliseconds.
@@ -102,6 +103,14 @@ impl State {
                 let Some(Ok(p)) = p else {
                     return None;
                 };
+                // The row the engine chose (not always the top one: its choice rule may prefer
+                // the combination).
+                let chosen = p
+                    .backtest
+                    .ranking
+                    .iter()
+                    .position(|r| r.candidate == p.chosen)
+                    .unwrap_or(0);
                 let row = wanted
                     .as_ref()
                     .and_then(|w| {
@@ -110,8 +119,8 @@ impl State {
                             .iter()
                             .position(|r| &r.candidate.label() == w)
                     })
-                    .unwrap_or(0);
-                if row == 0 {
+                    .unwrap_or(chosen);
+                if row == chosen {
                     return Some(Shown {
                         row,
                         plan: p.clone(),
@@ -135,10 +144,10 @@ impl State {
                 });
                 match refit {
                     Some(plan) if &plan.chosen == candidate => Some(Shown { row, plan }),
-                    // The refit ranked another candidate first (only possible for the
-                    // combination): fall back to the top row rather than mislabel.
+                    // The refit chose another candidate: show the engine's choice rather than
+                    // mislabel the row.
                     _ => Some(Shown {
-                        row: 0,
+                        row: chosen,
                         plan: p.clone(),
                     }),
                 }
