@@ -1,0 +1,29 @@
+//! The browser app: one page that does the whole job (Intake, settings, Look-ahead, Backtest
+//! ranking, Error ledger, Pattern view).
+//!
+//! Kept apart from: the engine (called through `plan_item` and `intake::read` only) and the
+//! charts (src/chart). The pure parts (settings checking, words, exports, chart data) build and
+//! are tested natively; the components and browser glue build for wasm32 only.
+
+pub mod export;
+pub mod model;
+pub mod settings;
+pub mod words;
+
+#[cfg(target_arch = "wasm32")]
+mod browser;
+#[cfg(target_arch = "wasm32")]
+mod page;
+#[cfg(target_arch = "wasm32")]
+mod panels;
+#[cfg(target_arch = "wasm32")]
+mod results;
+#[cfg(target_arch = "wasm32")]
+mod state;
+
+/// Installs the panic hook and mounts the page.
+#[cfg(target_arch = "wasm32")]
+pub fn start() {
+    browser::install_panic_hook();
+    leptos::mount::mount_to_body(page::App);
+}

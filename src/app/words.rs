@@ -1,0 +1,218 @@
+//! Plain words for the page: the intake report, rejected cells, the bias sentence and the
+//! verdicts of the Pattern view.
+//!
+//! Kept apart from: computing anything. Every sentence is made from the engine's report and plan;
+//! counts of signs are the only arithmetic here. Error sign (as the engine and the page state it):
+//! e = F - D, forecast minus demand; a positive error is an over-forecast.
+
+use morrowcast::engine::intake::{IntakeReport, Layout, RowError};
+use morrowcast::engine::patterns::{
+    DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
+};
+use morrowcast::engine::plan::LedgerEntry;
+
+use crate::chart::round_for_people;
+
+/// What Intake understood from `text`, one plain sentence per fact.
+pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
+    if text.trim().is_empty() {
+        return vec![
+            "Nothing read yet: paste a table, open or drop a file, or load the demo.".into(),
+        ];
+    }
+    let mut lines = Vec::new();
+    let layout = match report.layout {
+        Layout::Single => "one item in a single column of values",
+        Layout::Wide => "one column per item",
+        Layout::Long => "one row per item and period",
+    };
+    lines.push(format!(
+        "Columns separated by {}, decimals written with a {}; layout: {layout}.",
+        match report.delimiter.as_str() {
+            "tab" => "tabs".to_string(),
+            other => format!("{other}s"),
+        },
+        report.decimal.as_str()
+    ));
+    let freq = match report.frequency.as_str() {
+        "none" => "plain positions with no calendar dates".to_string(),
+        other => format!("{other} periods"),
+    };
+    match &report.date_format {
+        Some(f) => lines.push(format!("Periods read as {freq}, written as {f}.")),
+        None => lines.push(format!("Periods read as {freq}.")),
+    }
+    let n = report.items.len();
+    if n > 0 {
+        let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+        let longest = report
+            .items
+            .iter()
+            .map(|i| i.values.len())
+            .max()
+            .unwrap_or(0);
+        lines.push(format!(
+            "{n} item{} ({}), up to {longest} periods each.",
+            if n == 1 { "" } else { "s" },
+            names.join(", ")
+        ));
+    }
+    if report.gaps_filled > 0 {
+        lines.push(format!(
+            "{} missing period(s) found; they are filled by straight-line interpolation and named in the notes.",
+            report.gaps_filled
+        ));
+    }
+    lines.extend(report.warnings.iter().cloned());
+    if !report.errors.is_empty() {
+        lines.push(format!(
+            "{} cell(s) could not be read; the list below says where. Fix the text in the box and it is read again.",
+            report.errors.len()
+        ));
+    }
+    lines
+}
+
+/// One rejected cell: "Row 5, column "units": found "12x": <what to do>".
+pub fn row_error_line(e: &RowError) -> String {
+    let column = if e.column.is_empty() {
+        String::new()
+    } else {
+        format!(", column \"{}\"", e.column)
+    };
+    format!("Row {}{column}: found \"{}\". {}", e.row, e.text, e.message)
+}
+
+/// The sentence under the Error ledger that says what the bias means, e.g. "The forecast ran
+/// under demand in 9 of 12 periods; summed over the holdout it was 34 units too low."
+pub fn bias_sentence(ledger: &[LedgerEntry], unit: &str) -> String {
+    let n = ledger.len();
+    if n == 0 {
+        return "No holdout periods, so there is no bias to report.".into();
+    }
+    let under = ledger.iter().filter(|e| e.row.error < 0.0).count();
+    let over = ledger.iter().filter(|e| e.row.error > 0.0).count();
+    let bias = ledger.last().map(|e| e.row.bias).unwrap_or(0.0);
+    let runs = match (under, over) {
+        (u, 0) => format!("under demand in {u} of {n} periods"),
+        (0, o) => format!("over demand in {o} of {n} periods"),
+        (u, o) if u >= o => format!("under demand in {u} of {n} periods and over it in {o}"),
+        (u, o) => format!("over demand in {o} of {n} periods and under it in {u}"),
+    };
+    let total = if bias < 0.0 {
+        format!(
+            "summed over the holdout it was {} {unit} too low",
+            round_for_people(-bias)
+        )
+    } else if bias > 0.0 {
+        format!(
+            "summed over the holdout it was {} {unit} too high",
+            round_for_people(bias)
+        )
+    } else {
+        "summed over the holdout the errors cancel out".to_string()
+    };
+    format!("The forecast ran {runs}; {total}.")
+}
+
+/// The season verdict in words.
+pub fn season_words(v: &SeasonVerdict) -> String {
+    let base = match (v.length, v.source) {
+        (Some(m), SeasonSource::User) => format!("Season length {m}, as you set it."),
+        (None, SeasonSource::User) => "No season, as you set it.".into(),
+        (Some(m), _) => format!("Season length {m}, detected."),
+        (None, _) => "No season detected.".into(),
+    };
+    if v.reason.is_empty() {
+        base
+    } else {
+        format!("{base} {}", v.reason)
+    }
+}
+
+/// The trend verdict in words, with its evidence (Mann-Kendall S, z and p).
+pub fn trend_words(v: &TrendVerdict) -> String {
+    let what = match v.direction {
+        TrendDirection::Up => "Demand trends up",
+        TrendDirection::Down => "Demand trends down",
+        TrendDirection::None => "No clear trend",
+    };
+    format!(
+        "{what} (Mann-Kendall S = {}, z = {:.2}, p = {:.3}; significance level {}).",
+        round_for_people(v.s),
+        v.z,
+        v.p_value,
+        v.significance
+    )
+}
+
+/// The demand class in words, with ADI and CV² and the cut-offs of Syntetos, Boylan & Croston
+/// (2005): ADI 1.32, CV² 0.49.
+pub fn demand_words(v: &DemandVerdict) -> String {
+    let what = match v.class {
+        DemandClass::Smooth => "Smooth demand: regular, not very variable",
+        DemandClass::Erratic => "Erratic demand: regular but highly variable",
+        DemandClass::Intermittent => "Intermittent demand: many periods without sales",
+        DemandClass::Lumpy => "Lumpy demand: many periods without sales, and variable sizes",
+    };
+    format!(
+        "{what} (average interval between demands {:.2}, cut-off 1.32; CV² of sizes {:.2}, cut-off 0.49).",
+        v.adi, v.cv2
+    )
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use morrowcast::engine::accuracy::ledger;
+    use morrowcast::engine::calendar::Period;
+
+    fn entries(forecast: &[f64], demand: &[f64]) -> Vec<LedgerEntry> {
+        ledger(forecast, demand, 4.0)
+            .into_iter()
+            .enumerate()
+            .map(|(i, row)| LedgerEntry {
+                period: Period::month(2025, i as u32 + 1),
+                row,
+            })
+            .collect()
+    }
+
+    // Sign convention of the glossary: e = F - D, so F < D is an under-forecast.
+    #[test]
+    fn bias_sentence_counts_under_and_over_forecasts() {
+        let e = entries(&[8.0, 9.0, 12.0, 7.0], &[10.0, 10.0, 10.0, 10.0]);
+        assert_eq!(
+            bias_sentence(&e, "units"),
+            "The forecast ran under demand in 3 of 4 periods and over it in 1; summed over the holdout it was 4 units too low."
+        );
+        let e = entries(&[11.0, 12.0], &[10.0, 10.0]);
+        assert_eq!(
+            bias_sentence(&e, "units"),
+            "The forecast ran over demand in 2 of 2 periods; summed over the holdout it was 3 units too high."
+        );
+        assert!(bias_sentence(&[], "units").starts_with("No holdout"));
+    }
+
+    #[test]
+    fn row_errors_name_row_column_and_text() {
+        let e = RowError {
+            row: 5,
+            column: "units".into(),
+            text: "12x".into(),
+            message: "Type a number.".into(),
+        };
+        assert_eq!(
+            row_error_line(&e),
+            "Row 5, column \"units\": found \"12x\". Type a number."
+        );
+    }
+
+    #[test]
+    fn empty_report_invites_input() {
+        let r = morrowcast::engine::intake::read(" \n");
+        let lines = intake_lines(" \n", &r);
+        assert_eq!(lines.len(), 1);
+        assert!(lines[0].starts_with("Nothing read yet"));
+    }
+}

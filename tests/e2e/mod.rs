@@ -1,0 +1,9 @@
+//! Support for the browser end-to-end tests: a static file server for dist/ on 127.0.0.1 and a
+//! small WebDriver client for chromedriver, both over std TCP.
+//!
+//! Kept apart from: the tests' assertions (tests/browser_e2e.rs). Hand-written instead of the
+//! fantoccini crate: its tokio/hyper/TLS tree costs minutes of build on 2 shared cores, and the
+//! handful of WebDriver commands used here are plain JSON over HTTP/1.1.
+
+pub mod serve;
+pub mod webdriver;
