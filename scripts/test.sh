@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
-# Runs every check of the project: formatting, lints (warnings are errors), and all tests.
-# Installs what is missing itself (rustfmt and clippy components); downloads only from the
-# package registries. Used by .ci/run and by the README.
+# Runs every check of the project: formatting, lints (warnings are errors) natively and for the
+# browser build, the release build of the app, and all tests, the browser ones in headless
+# Chromium against that build. Installs what is missing itself (rustup components and target,
+# trunk, wasm-bindgen-cli, binaryen from npm, Debian's chromium and chromium-driver); downloads
+# only from the package registries. Used by .ci/run and by the README.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -10,16 +12,18 @@ for component in rustfmt clippy; do
     rustup component add "$component"
   fi
 done
+source scripts/tools.sh
+ensure_browser_build_tools
+ensure_chromium
 
-if ! rustup target list --installed 2>/dev/null | grep -q '^wasm32-unknown-unknown$'; then
-  rustup target add wasm32-unknown-unknown
-fi
-
-echo "== cargo fmt --check"
+say "cargo fmt --check"
 cargo fmt --all -- --check
-echo "== cargo clippy (warnings are errors)"
+say "cargo clippy, native (warnings are errors)"
 cargo clippy --all-targets --locked -- -D warnings
-echo "== the engine builds for the browser (wasm32)"
-cargo check --lib --locked --target wasm32-unknown-unknown
-echo "== cargo test"
-cargo test --locked --lib --bins --tests
+say "cargo clippy, browser build (warnings are errors)"
+cargo clippy --locked --target wasm32-unknown-unknown --lib --bin morrowcast-app -- -D warnings
+say "building the app (trunk, release) into dist/"
+rm -rf dist
+trunk --skip-version-check build --release
+say "cargo test (the browser tests drive headless Chromium against dist/)"
+MORROWCAST_REQUIRE_DIST=1 cargo test --locked --lib --bins --tests

@@ -19,6 +19,11 @@ fn dist() -> Option<PathBuf> {
     if d.join("index.html").exists() {
         Some(d)
     } else {
+        // scripts/test.sh sets this: there a missing build is a failure, never a skip.
+        assert!(
+            std::env::var_os("MORROWCAST_REQUIRE_DIST").is_none(),
+            "dist/ is missing but MORROWCAST_REQUIRE_DIST is set: build the app first"
+        );
         eprintln!(
             "SKIPPED browser end-to-end test: dist/ is missing. Build it with `trunk build --release` \
              (scripts/test.sh does) to run these tests."

@@ -4,9 +4,8 @@
 //! Kept apart from: how the state is shown (panels, results). The engine is called here only.
 
 use leptos::prelude::*;
-use morrowcast::engine::backtest::Candidate;
 use morrowcast::engine::intake::{self, IntakeReport};
-use morrowcast::engine::plan::{plan_item, ItemPlan, PlanSettings};
+use morrowcast::engine::plan::{plan_item, Choice, ItemPlan, PlanSettings};
 use morrowcast::engine::series::Series;
 
 use super::browser;
@@ -127,17 +126,11 @@ impl State {
                     });
                 }
                 let candidate = &p.backtest.ranking[row].candidate;
-                let mut only = s.clone();
-                match candidate {
-                    Candidate::Method(k) => {
-                        only.methods = Some(vec![*k]);
-                        only.combine = false;
-                    }
-                    Candidate::Combination(members) => {
-                        only.methods = Some(members.clone());
-                        only.combine = true;
-                    }
-                }
+                // The same plan with the picked row chosen: the ranking stays whole.
+                let only = PlanSettings {
+                    choice: Choice::Named(candidate.key().to_string()),
+                    ..s.clone()
+                };
                 let refit = series.with(|series| match series {
                     Some(Ok(series)) => plan_item(series, &only).ok(),
                     _ => None,
