@@ -12,7 +12,6 @@ use morrowcast::engine::methods::optimize::Bound;
 use morrowcast::engine::methods::smoothing::{
     self, init, recursion, FitSettings, Model, ParameterBounds, Parameters, Season, States,
 };
-use morrowcast::engine::methods::MethodKind;
 
 // Source: statsmodels 0.15.0 ExponentialSmoothing with fixed parameters and known initial
 // states on AirPassengers, JohnsonJohnson, USAccDeaths (fixed_params_reference.json; the
@@ -237,15 +236,7 @@ fn optimiser_reaches_statsmodels_sse_on_training_spans() {
 fn seven_variants_on_sixty_months_are_fast() {
     let y = csv_column("USAccDeaths.csv", "value");
     let train = &y[..60];
-    let kinds = [
-        MethodKind::Ses,
-        MethodKind::Holt,
-        MethodKind::DampedTrend,
-        MethodKind::HoltWintersAdditive,
-        MethodKind::HoltWintersMultiplicative,
-        MethodKind::DampedHoltWintersAdditive,
-        MethodKind::DampedHoltWintersMultiplicative,
-    ];
+    let kinds = morrowcast::engine::methods::smoothing::KINDS;
     let repeats = 200;
     let mut per_kind = vec![0.0; kinds.len()];
     let start = std::time::Instant::now();

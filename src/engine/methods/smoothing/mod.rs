@@ -38,6 +38,17 @@ pub use recursion::{run, Run};
 
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
+/// The methods this module fits.
+pub const KINDS: [MethodKind; 7] = [
+    MethodKind::Ses,
+    MethodKind::Holt,
+    MethodKind::DampedTrend,
+    MethodKind::HoltWintersAdditive,
+    MethodKind::HoltWintersMultiplicative,
+    MethodKind::DampedHoltWintersAdditive,
+    MethodKind::DampedHoltWintersMultiplicative,
+];
+
 /// A model fitted to a history, with everything the tests and callers may inspect.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Fit {

@@ -3,15 +3,7 @@
 
 use super::*;
 
-const SEVEN: [MethodKind; 7] = [
-    MethodKind::Ses,
-    MethodKind::Holt,
-    MethodKind::DampedTrend,
-    MethodKind::HoltWintersAdditive,
-    MethodKind::HoltWintersMultiplicative,
-    MethodKind::DampedHoltWintersAdditive,
-    MethodKind::DampedHoltWintersMultiplicative,
-];
+const SEVEN: [MethodKind; 7] = KINDS;
 
 fn seasonal_series(n: usize) -> Vec<f64> {
     (0..n)
