@@ -81,7 +81,9 @@ impl State {
                     let result = match input {
                         Some(Ok(series)) => {
                             let t0 = browser::now_ms();
-                            let r = plan_item(&series, &s).map_err(|e| e.to_string());
+                            let r = browser::measured("morrowcast:plan", || {
+                                plan_item(&series, &s).map_err(|e| e.to_string())
+                            });
                             compute_ms.set(browser::now_ms() - t0);
                             Some(r)
                         }
