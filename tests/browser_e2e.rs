@@ -7,61 +7,9 @@
 
 mod e2e;
 
-use std::path::{Path, PathBuf};
 use std::time::Duration;
 
-use e2e::serve::StaticServer;
-use e2e::webdriver::Browser;
-use serde_json::Value;
-
-fn dist() -> Option<PathBuf> {
-    let d = Path::new(env!("CARGO_MANIFEST_DIR")).join("dist");
-    if d.join("index.html").exists() {
-        Some(d)
-    } else {
-        // scripts/test.sh sets this: there a missing build is a failure, never a skip.
-        assert!(
-            std::env::var_os("MORROWCAST_REQUIRE_DIST").is_none(),
-            "dist/ is missing but MORROWCAST_REQUIRE_DIST is set: build the app first"
-        );
-        eprintln!(
-            "SKIPPED browser end-to-end test: dist/ is missing. Build it with `trunk build --release` \
-             (scripts/test.sh does) to run these tests."
-        );
-        None
-    }
-}
-
-fn tool(env_key: &str, default: &str) -> String {
-    let path = std::env::var(env_key).unwrap_or_else(|_| default.to_string());
-    assert!(
-        Path::new(&path).exists(),
-        "{path} is missing: install Debian's chromium and chromium-driver (scripts/test.sh does), or set {env_key}"
-    );
-    path
-}
-
-fn open(window: (u32, u32)) -> Option<(StaticServer, Browser)> {
-    let dist = dist()?;
-    let server = StaticServer::start(&dist);
-    let browser = Browser::start(
-        &tool("CHROMEDRIVER", "/usr/bin/chromedriver"),
-        &tool("CHROMIUM", "/usr/bin/chromium"),
-        window,
-    );
-    browser.goto(&format!("{}/index.html", server.origin));
-    Some((server, browser))
-}
-
-fn save_screenshot(browser: &Browser, name: &str) {
-    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/screenshots");
-    std::fs::create_dir_all(&dir).unwrap();
-    let png = browser.screenshot();
-    assert!(png.starts_with(b"\x89PNG"), "screenshot is not a PNG");
-    std::fs::write(dir.join(name), png).unwrap();
-}
-
-const WAIT: Duration = Duration::from_secs(30);
+use e2e::page::{dist, number, open, save_screenshot, WAIT};
 
 /// Pixels of a canvas that differ from its background, and pixels close to the band's tint
 /// (the forecast colour #c05000 at 22 % over #fbfaf7: src/chart/palette.rs).
@@ -79,17 +27,14 @@ for (let i = 0; i < d.length; i += 4) {
 return [ink, tint, c.width * c.height];
 "#;
 
-fn number(v: &Value) -> f64 {
-    v.as_f64().unwrap_or(f64::NAN)
-}
-
 /// The demo loads on the first visit: season length, ranking, a drawn Look-ahead with its band,
 /// and no request beyond the page's own files.
 #[test]
 fn demo_loads_with_ranking_and_drawn_look_ahead() {
-    let Some((server, browser)) = open((1366, 900)) else {
+    let Some(page) = open((1366, 900)) else {
         return;
     };
+    let (server, browser) = (&page.server, &page.browser);
     browser.wait_for(
         "the ranking",
         "return document.querySelectorAll('#ranking-table button.row-pick').length",
@@ -135,13 +80,13 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
 
     let rows = browser.js("return document.querySelectorAll('#forecast-table tbody tr').length");
     assert!(number(&rows) >= 1.0);
-    save_screenshot(&browser, "demo-loaded.png");
+    save_screenshot(browser, "demo-loaded.png");
     for section in ["ranking", "error-ledger", "pattern-view"] {
         browser.js(&format!(
             "document.getElementById('{section}').scrollIntoView()"
         ));
         std::thread::sleep(Duration::from_millis(300));
-        save_screenshot(&browser, &format!("demo-{section}.png"));
+        save_screenshot(browser, &format!("demo-{section}.png"));
     }
 
     // Only the page's own files were asked for, from its own origin.
@@ -171,9 +116,10 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
 /// A broken table shows the row and column of each error and keeps the text in the box.
 #[test]
 fn broken_paste_shows_row_and_column_and_keeps_the_text() {
-    let Some((_server, browser)) = open((1366, 900)) else {
+    let Some(page) = open((1366, 900)) else {
         return;
     };
+    let browser = &page.browser;
     browser.wait_for(
         "the page",
         "return document.getElementById('intake-text')",
@@ -196,15 +142,16 @@ fn broken_paste_shows_row_and_column_and_keeps_the_text() {
     );
     let kept = browser.js("return document.getElementById('intake-text').value");
     assert_eq!(kept.as_str().unwrap_or(""), broken.replace("\\n", "\n"));
-    save_screenshot(&browser, "broken-paste.png");
+    save_screenshot(browser, "broken-paste.png");
 }
 
 /// A lower band level narrows the band of every forecast period.
 #[test]
 fn band_level_changes_the_band() {
-    let Some((_server, browser)) = open((1366, 900)) else {
+    let Some(page) = open((1366, 900)) else {
         return;
     };
+    let browser = &page.browser;
     let widths = "return [...document.querySelectorAll('#forecast-table tbody tr')].map(r => \
                   parseFloat(r.children[3].textContent) - parseFloat(r.children[2].textContent))";
     browser.wait_for(
@@ -228,5 +175,5 @@ fn band_level_changes_the_band() {
             "95% width {w}, 80% width {n}"
         );
     }
-    save_screenshot(&browser, "band-80.png");
+    save_screenshot(browser, "band-80.png");
 }

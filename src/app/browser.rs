@@ -1,5 +1,5 @@
 //! Browser glue: the panic hook, the tab's own copy of the Intake text, downloads, the date and
-//! the clock, and drawing a chart into a canvas.
+//! the clock (with performance measures), and drawing a chart into a canvas.
 //!
 //! Kept apart from: the components. Nothing here reaches the network: downloads are local
 //! `blob:` and `data:` links, storage is the tab's sessionStorage.
@@ -64,6 +64,23 @@ pub fn now_ms() -> f64 {
         .and_then(|w| w.performance())
         .map(|p| p.now())
         .unwrap_or(0.0)
+}
+
+/// Runs `work` between two marks and records it as the performance measure `name` (seen in
+/// the browser's performance timeline; the end-to-end tests read them to say where a
+/// recompute's time goes).
+pub fn measured<T>(name: &str, work: impl FnOnce() -> T) -> T {
+    let performance = web_sys::window().and_then(|w| w.performance());
+    let start = format!("{name}:start");
+    if let Some(p) = &performance {
+        let _ = p.mark(&start);
+    }
+    let out = work();
+    if let Some(p) = &performance {
+        let _ = p.measure_with_start_mark(name, &start);
+        p.clear_marks_with_mark_name(&start);
+    }
+    out
 }
 
 /// Today as YYYY-MM-DD (local time), for file names.

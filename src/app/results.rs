@@ -49,7 +49,9 @@ where
         state.layout.track();
         let value = data.get();
         if let (Some(el), Some(value)) = (canvas.get(), value) {
-            let result = browser::draw_into(&el, |area| draw(area, &value));
+            let result = browser::measured(&format!("morrowcast:draw:{id}"), || {
+                browser::draw_into(&el, |area| draw(area, &value))
+            });
             failure.set(result.err().map(|e| e.to_string()));
         }
     });

@@ -11,6 +11,10 @@ use morrowcast::engine::series::Series;
 use super::browser;
 use super::settings::{FieldError, SettingsForm};
 
+/// A recompute faster than this (milliseconds) runs without first showing "Working…" (our
+/// choice: well under the 100 ms a change may take, so a pause of one frame is not worth it).
+const QUICK_MS: f64 = 40.0;
+
 /// What the Look-ahead and the Error ledger show: one row of the ranking and its refit plan.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Shown {
@@ -74,25 +78,33 @@ impl State {
         Effect::new(move |_| {
             let s = settings.get();
             let input = series.get();
-            busy.set(true);
-            // One tick later: the busy indicator is painted before the work starts.
-            set_timeout(
-                move || {
-                    let result = match input {
-                        Some(Ok(series)) => {
-                            let t0 = browser::now_ms();
-                            let r = plan_item(&series, &s).map_err(|e| e.to_string());
-                            compute_ms.set(browser::now_ms() - t0);
-                            Some(r)
-                        }
-                        Some(Err(e)) => Some(Err(e)),
-                        None => None,
-                    };
-                    plan.set(result);
-                    busy.set(false);
-                },
-                std::time::Duration::ZERO,
-            );
+            let run = move || {
+                let result = match input {
+                    Some(Ok(series)) => {
+                        let t0 = browser::now_ms();
+                        let r = browser::measured("morrowcast:plan", || {
+                            plan_item(&series, &s).map_err(|e| e.to_string())
+                        });
+                        compute_ms.set(browser::now_ms() - t0);
+                        Some(r)
+                    }
+                    Some(Err(e)) => Some(Err(e)),
+                    None => None,
+                };
+                plan.set(result);
+                busy.set(false);
+            };
+            // A plan that was quick last time runs at once: waiting a tick to show "Working…"
+            // would cost more than the work. Otherwise one tick later, so the busy indicator
+            // is painted before the work starts.
+            let was_quick =
+                plan.with_untracked(|p| p.is_some()) && compute_ms.get_untracked() < QUICK_MS;
+            if was_quick {
+                run();
+            } else {
+                busy.set(true);
+                set_timeout(run, std::time::Duration::ZERO);
+            }
         });
         let picked = RwSignal::new(None::<String>);
         let shown = Memo::new(move |_| {

@@ -157,18 +157,29 @@ impl Browser {
 
     /// Runs a script (its `return` value comes back as JSON).
     pub fn js(&self, script: &str) -> Value {
+        self.js_args(script, json!([]))
+    }
+
+    /// Runs a script with `arguments[0..]` taken from the JSON array `args` (no quoting of
+    /// text into the script).
+    pub fn js_args(&self, script: &str, args: Value) -> Value {
         self.command(
             "POST",
             "/execute/sync",
-            Some(json!({ "script": script, "args": [] })),
+            Some(json!({ "script": script, "args": args })),
         )
     }
 
     /// Polls a script until it returns a truthy value, or panics after `timeout`.
     pub fn wait_for(&self, what: &str, script: &str, timeout: Duration) -> Value {
+        self.wait_for_args(what, script, json!([]), timeout)
+    }
+
+    /// [`Browser::wait_for`] with script arguments.
+    pub fn wait_for_args(&self, what: &str, script: &str, args: Value, timeout: Duration) -> Value {
         let deadline = Instant::now() + timeout;
         loop {
-            let v = self.js(script);
+            let v = self.js_args(script, args.clone());
             let truthy = match &v {
                 Value::Null => false,
                 Value::Bool(b) => *b,
