@@ -38,6 +38,9 @@ pub struct LookAhead {
     pub unit: String,
 }
 
+/// Share of the value span added above the data, where the legend sits.
+const LEGEND_HEADROOM: f64 = 0.45;
+
 /// Draws the Look-ahead chart into `area`.
 pub fn draw_look_ahead<DB: DrawingBackend>(
     area: &Area<'_, DB>,
@@ -57,6 +60,8 @@ where
         .chain(data.holdout_forecast.iter().copied())
         .chain(data.forecast.iter().flat_map(|b| [b.low, b.value, b.high]));
     let range = value_range(all).ok_or(ChartError::NoData)?;
+    // Headroom above the data for the legend box (upper left), so it covers no line.
+    let range = range.start..range.end + LEGEND_HEADROOM * (range.end - range.start);
     if n == 0 {
         return Err(ChartError::NoData);
     }
