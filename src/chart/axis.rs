@@ -14,6 +14,26 @@ use super::ChartError;
 /// Font family of chart text: the system's sans-serif (no remote fonts).
 pub const FONT: &str = "sans-serif";
 
+/// Draws the legend of the series drawn so far, in the charts' common style, at `position`.
+pub fn draw_legend<'a, DB, CT>(
+    chart: &mut ChartContext<'a, DB, CT>,
+    position: SeriesLabelPosition,
+) -> Result<(), ChartError>
+where
+    DB: DrawingBackend + 'a,
+    DB::ErrorType: 'static,
+    CT: CoordTranslate,
+{
+    chart
+        .configure_series_labels()
+        .position(position)
+        .background_style(BACKGROUND.mix(0.9))
+        .border_style(INK.mix(0.25))
+        .label_font((FONT, 13).into_font().color(&INK))
+        .draw()?;
+    Ok(())
+}
+
 /// A value range covering every finite value, with 6 % headroom, from zero when all values are
 /// non-negative (demand charts start at zero so heights compare honestly). `None` when no value
 /// is finite.

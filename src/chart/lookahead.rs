@@ -7,8 +7,8 @@
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
-use super::axis::{frame, value_range, FONT};
-use super::palette::{BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, INK, MARKER};
+use super::axis::{draw_legend, frame, value_range, FONT};
+use super::palette::{BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
 use super::{clear, round_for_people, Area, ChartError};
 
 /// One future period: point forecast and band.
@@ -201,13 +201,7 @@ where
         }))?;
     }
 
-    chart
-        .configure_series_labels()
-        .position(SeriesLabelPosition::UpperLeft)
-        .background_style(super::palette::BACKGROUND.mix(0.9))
-        .border_style(INK.mix(0.25))
-        .label_font((FONT, 13).into_font().color(&INK))
-        .draw()?;
+    draw_legend(&mut chart, SeriesLabelPosition::UpperLeft)?;
     area.present()?;
     Ok(())
 }

@@ -9,8 +9,8 @@
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
-use super::axis::{frame, value_range, FONT};
-use super::palette::{year_colour, ALERT, DEMAND, FITTED, INK, MARKER};
+use super::axis::{draw_legend, frame, value_range};
+use super::palette::{year_colour, ALERT, DEMAND, FITTED, MARKER};
 use super::{clear, round_for_people, Area, ChartError};
 
 /// The history chart's data.
@@ -132,13 +132,7 @@ where
             });
         chart.draw_series(points.iter().map(|p| Circle::new(*p, 3, colour.filled())))?;
     }
-    chart
-        .configure_series_labels()
-        .position(SeriesLabelPosition::UpperRight)
-        .background_style(super::palette::BACKGROUND.mix(0.9))
-        .border_style(INK.mix(0.25))
-        .label_font((FONT, 13).into_font().color(&INK))
-        .draw()?;
+    draw_legend(&mut chart, SeriesLabelPosition::UpperRight)?;
     area.present()?;
     Ok(())
 }

@@ -264,7 +264,7 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
     })?;
     let chosen = best.candidate.clone();
     let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit);
-    let ledger = ledger_rows
+    let ledger: Vec<LedgerEntry> = ledger_rows
         .into_iter()
         .enumerate()
         .map(|(i, row)| LedgerEntry {
@@ -275,11 +275,7 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
 
     let (point, fitted, variance) = refit(&chosen, &history, m, horizon);
     let residual_mad = mean_abs_residual(&fitted, &history)
-        .or_else(|| {
-            best.ledger(&bt.holdout_demand, settings.tracking_limit)
-                .last()
-                .map(|r| r.mad)
-        })
+        .or_else(|| ledger.last().map(|e| e.row.mad))
         .unwrap_or(0.0);
     let mad_band = || {
         let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
