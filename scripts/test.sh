@@ -21,9 +21,12 @@ cargo fmt --all -- --check
 say "cargo clippy, native (warnings are errors)"
 cargo clippy --all-targets --locked -- -D warnings
 say "cargo clippy, browser build (warnings are errors)"
-cargo clippy --locked --target wasm32-unknown-unknown --lib --bin morrowcast-app -- -D warnings
+cargo clippy --locked --target wasm32-unknown-unknown --lib --bin morrowcast-app --bin morrowcast-worker -- -D warnings
+cargo clippy --locked --target wasm32-unknown-unknown --bin morrowcast-app --profile test -- -D warnings
 say "building the app (trunk, release) into dist/"
 rm -rf dist
 trunk --skip-version-check build --release
 say "cargo test (the browser tests drive headless Chromium against dist/)"
 MORROWCAST_REQUIRE_DIST=1 cargo test --locked --lib --bins --tests
+say "the page's pieces in headless Chromium (wasm-bindgen-test)"
+CHROMEDRIVER=/usr/bin/chromedriver cargo test --locked --target wasm32-unknown-unknown --bin morrowcast-app

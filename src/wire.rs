@@ -1,8 +1,8 @@
-//! The wire boundary: the JSON shapes of the command line's contract (and, later, of the browser
-//! worker's messages).
+//! The wire boundary: the JSON shapes of the command line's contract.
 //!
-//! Kept apart from: the engine, which has no serde derives. Only this module serialises, so the
-//! contract's names live in one place. A measure that is not available (MAPE with zero demand)
+//! Kept apart from: the engine's own types (they derive serde only for the browser worker's
+//! bincode messages, src/worker.rs, which are not a contract). Only this module writes JSON, so
+//! the contract's names live in one place. A measure that is not available (MAPE with zero demand)
 //! is `null`, never infinity.
 
 use serde::Serialize;

@@ -1,5 +1,5 @@
 //! Browser glue: the panic hook, the tab's own copy of the Intake text, downloads, the date and
-//! the clock (with performance measures), and drawing a chart into a canvas.
+//! performance measures, fault drills, and drawing a chart into a canvas.
 //!
 //! Kept apart from: the components. Nothing here reaches the network: downloads are local
 //! `blob:` and `data:` links, storage is the tab's sessionStorage.
@@ -22,16 +22,21 @@ pub fn install_panic_hook() {
     std::panic::set_hook(Box::new(|info| {
         let message = info.to_string();
         web_sys::console::error_1(&message.clone().into());
-        let Some(doc) = web_sys::window().and_then(|w| w.document()) else {
-            return;
-        };
-        if let Some(el) = doc.get_element_by_id("fault-detail") {
-            el.set_text_content(Some(&message));
-        }
-        if let Some(el) = doc.get_element_by_id("fault-notice") {
-            let _ = el.remove_attribute("hidden");
-        }
+        show_fault(&message);
     }));
+}
+
+/// Reveals the fault notice with `detail` in it (called by the panic hook).
+pub fn show_fault(detail: &str) {
+    let Some(doc) = web_sys::window().and_then(|w| w.document()) else {
+        return;
+    };
+    if let Some(el) = doc.get_element_by_id("fault-detail") {
+        el.set_text_content(Some(detail));
+    }
+    if let Some(el) = doc.get_element_by_id("fault-notice") {
+        let _ = el.remove_attribute("hidden");
+    }
 }
 
 fn session() -> Option<web_sys::Storage> {
@@ -58,14 +63,6 @@ pub fn keep_text(text: &str, source: &str) {
     }
 }
 
-/// Milliseconds from the page's clock.
-pub fn now_ms() -> f64 {
-    web_sys::window()
-        .and_then(|w| w.performance())
-        .map(|p| p.now())
-        .unwrap_or(0.0)
-}
-
 /// Runs `work` between two marks and records it as the performance measure `name` (seen in
 /// the browser's performance timeline; the end-to-end tests read them to say where a
 /// recompute's time goes).
@@ -81,6 +78,31 @@ pub fn measured<T>(name: &str, work: impl FnOnce() -> T) -> T {
         p.clear_marks_with_mark_name(&start);
     }
     out
+}
+
+/// Marks the start of the performance measure `name`, ended by [`end_measure`] (for work that
+/// ends in a later event, such as the worker's answer).
+pub fn start_measure(name: &str) {
+    if let Some(p) = web_sys::window().and_then(|w| w.performance()) {
+        let _ = p.mark(&format!("{name}:start"));
+    }
+}
+
+/// Records the performance measure `name` from its latest [`start_measure`] to now.
+pub fn end_measure(name: &str) {
+    if let Some(p) = web_sys::window().and_then(|w| w.performance()) {
+        let start = format!("{name}:start");
+        if p.measure_with_start_mark(name, &start).is_ok() {
+            p.clear_marks_with_mark_name(&start);
+        }
+    }
+}
+
+/// The fault drill the page was opened with (`#drill=page-fault` or `#drill=worker-fault`), so
+/// the browser tests can check that a fault is reported and the data kept.
+pub fn drill() -> Option<String> {
+    let hash = web_sys::window()?.location().hash().ok()?;
+    hash.strip_prefix("#drill=").map(str::to_string)
 }
 
 /// Today as YYYY-MM-DD (local time), for file names.

@@ -13,6 +13,10 @@ pub mod words;
 #[cfg(target_arch = "wasm32")]
 mod browser;
 #[cfg(target_arch = "wasm32")]
+mod courier;
+#[cfg(all(test, target_arch = "wasm32"))]
+mod in_browser;
+#[cfg(target_arch = "wasm32")]
 mod page;
 #[cfg(target_arch = "wasm32")]
 mod panels;
@@ -26,4 +30,11 @@ mod state;
 pub fn start() {
     browser::install_panic_hook();
     leptos::mount::mount_to_body(page::App);
+    if browser::drill().as_deref() == Some("page-fault") {
+        // After the page has drawn, as a real fault would come.
+        leptos::prelude::set_timeout(
+            || panic!("fault drill: a deliberate fault to check that the page reports it"),
+            std::time::Duration::from_millis(300),
+        );
+    }
 }

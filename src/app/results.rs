@@ -88,9 +88,16 @@ where
 pub fn Headline() -> impl IntoView {
     let state = expect_context::<State>();
     view! {
-        <p class="busy" class:on=move || state.busy.get() role="status" id="busy">
-            {move || if state.busy.get() { "Working…" } else { "" }}
-        </p>
+        // Shown only when the worker takes longer than a moment (the style delays it 0.2 s).
+        <div class="busy" class:on=move || state.busy.get() role="status" id="busy">
+            {move || state.busy.get().then(|| view! {
+                <progress aria-label="Computing the plan"></progress>
+                <span>{move || state.series.with(|s| match s {
+                    Some(Ok(s)) => format!("Ranking the methods for {}…", s.name()),
+                    _ => "Working…".to_string(),
+                })}</span>
+            })}
+        </div>
         <section class="headline" aria-live="polite" id="headline">
             {move || state.plan.with(|p| match p {
                 None => view! { <p class="lead">"Load data in Intake to see its forecast here."</p> }.into_any(),
@@ -116,8 +123,8 @@ pub fn LookAheadPanel() -> impl IntoView {
         let shown = state.shown.get()?;
         state.plan.with(|p| {
             let ranked = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| {
-                let series = s.as_ref()?.as_ref().ok()?;
+            state.planned.with(|s| {
+                let series = s.as_ref()?;
                 let row = ranked.backtest.ranking.get(shown.row)?;
                 Some(model::look_ahead(series, ranked, row, &shown.plan))
             })
@@ -223,8 +230,8 @@ pub fn ErrorLedger() -> impl IntoView {
         let limit = state.settings.with(|s| s.tracking_limit);
         state.plan.with(|p| {
             let ranked = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| {
-                let series = s.as_ref()?.as_ref().ok()?;
+            state.planned.with(|s| {
+                let series = s.as_ref()?;
                 let row = ranked.backtest.ranking.get(shown.row)?;
                 Some(model::row_ledger(ranked, series, row, limit))
             })
@@ -287,7 +294,7 @@ pub fn PatternView() -> impl IntoView {
     ) -> Option<String>| {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| f(s.as_ref()?.as_ref().ok()?, plan))
+            state.planned.with(|s| f(s.as_ref()?, plan))
         })
     };
     let history = Memo::new(move |_| {
@@ -301,13 +308,9 @@ pub fn PatternView() -> impl IntoView {
     let overlay = Memo::new(move |_| {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
-            state.series.with(|s| {
-                model::overlay(
-                    s.as_ref()?.as_ref().ok()?,
-                    &plan.history,
-                    plan.season.length,
-                )
-            })
+            state
+                .planned
+                .with(|s| model::overlay(s.as_ref()?, &plan.history, plan.season.length))
         })
     });
     let acf = Memo::new(move |_| {

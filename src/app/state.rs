@@ -1,29 +1,20 @@
-//! The page's state: the Intake text, the chosen item, the settings form, and the engine results
-//! derived from them (recomputed at once when any of these changes).
+//! The page's state: the Intake text, the chosen item, the settings form, and the plans the
+//! worker computes from them (asked for at once when any of these changes).
 //!
-//! Kept apart from: how the state is shown (panels, results). The engine is called here only.
+//! Kept apart from: how the state is shown (panels, results) and the worker's messages
+//! (courier.rs). The page reads Intake itself (it is quick and the report shows as you type);
+//! every plan is computed in the worker.
 
 use leptos::prelude::*;
 use morrowcast::engine::intake::{self, IntakeReport};
-use morrowcast::engine::plan::{plan_item, Choice, ItemPlan, PlanSettings};
+use morrowcast::engine::plan::{ItemPlan, PlanSettings};
 use morrowcast::engine::series::Series;
+pub use morrowcast::worker::Shown;
+use morrowcast::worker::{PlanAnswer, PlanAsk};
 
 use super::browser;
+use super::courier::{Courier, WORKER_FAULT_PREFIX};
 use super::settings::{FieldError, SettingsForm};
-
-/// A recompute faster than this (milliseconds) runs without first showing "Working…" (our
-/// choice: well under the 100 ms a change may take, so a pause of one frame is not worth it).
-const QUICK_MS: f64 = 40.0;
-
-/// What the Look-ahead and the Error ledger show: one row of the ranking and its refit plan.
-#[derive(Clone, Debug, PartialEq)]
-pub struct Shown {
-    /// Index of the row in the ranking.
-    pub row: usize,
-    /// The plan refitted with that row's candidate (the ranked plan itself for the row the
-    /// engine chose).
-    pub plan: ItemPlan,
-}
 
 /// Every signal of the page; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
@@ -37,9 +28,11 @@ pub struct State {
     pub form_errors: Memo<Vec<FieldError>>,
     /// The last settings that passed the checks.
     pub settings: Memo<PlanSettings>,
+    /// The chosen item's series from the Intake text (what the next plan will be made from).
     pub series: Memo<Option<Result<Series, String>>>,
-    /// The ranked plan of the chosen item; computed one tick after its inputs change, so the
-    /// page can show that it is working first.
+    /// The series the shown plan was made from (it lags `series` while the worker computes).
+    pub planned: RwSignal<Option<Series>>,
+    /// The ranked plan of the chosen item, as the worker last answered.
     pub plan: RwSignal<Option<Result<ItemPlan, String>>>,
     /// True from a change of input until its plan is in.
     pub busy: RwSignal<bool>,
@@ -47,8 +40,9 @@ pub struct State {
     pub layout: RwSignal<u32>,
     /// Label of the ranking row the user picked; `None`: the engine's choice.
     pub picked: RwSignal<Option<String>>,
-    pub shown: Memo<Option<Shown>>,
-    /// Time of the last recompute of the ranked plan, in milliseconds.
+    /// The row the Look-ahead and the Error ledger show, with its plan.
+    pub shown: RwSignal<Option<Shown>>,
+    /// Time the worker took for the last plan, in milliseconds.
     pub compute_ms: RwSignal<f64>,
 }
 
@@ -74,89 +68,79 @@ impl State {
         });
         let compute_ms = RwSignal::new(0.0);
         let plan = RwSignal::new(None::<Result<ItemPlan, String>>);
+        let planned = RwSignal::new(None::<Series>);
+        let shown = RwSignal::new(None::<Shown>);
         let busy = RwSignal::new(false);
-        Effect::new(move |_| {
-            let s = settings.get();
-            let input = series.get();
-            let run = move || {
-                let result = match input {
-                    Some(Ok(series)) => {
-                        let t0 = browser::now_ms();
-                        let r = browser::measured("morrowcast:plan", || {
-                            plan_item(&series, &s).map_err(|e| e.to_string())
-                        });
-                        compute_ms.set(browser::now_ms() - t0);
-                        Some(r)
-                    }
-                    Some(Err(e)) => Some(Err(e)),
-                    None => None,
-                };
-                plan.set(result);
-                busy.set(false);
-            };
-            // A plan that was quick last time runs at once: waiting a tick to show "Working…"
-            // would cost more than the work. Otherwise one tick later, so the busy indicator
-            // is painted before the work starts.
-            let was_quick =
-                plan.with_untracked(|p| p.is_some()) && compute_ms.get_untracked() < QUICK_MS;
-            if was_quick {
-                run();
-            } else {
-                busy.set(true);
-                set_timeout(run, std::time::Duration::ZERO);
-            }
-        });
         let picked = RwSignal::new(None::<String>);
-        let shown = Memo::new(move |_| {
-            let wanted = picked.get();
-            let s = settings.get();
-            plan.with(|p| {
-                let Some(Ok(p)) = p else {
-                    return None;
-                };
-                // The row the engine chose (not always the top one: its choice rule may prefer
-                // the combination).
-                let chosen = p
-                    .backtest
-                    .ranking
-                    .iter()
-                    .position(|r| r.candidate == p.chosen)
-                    .unwrap_or(0);
-                let row = wanted
-                    .as_ref()
-                    .and_then(|w| {
-                        p.backtest
-                            .ranking
-                            .iter()
-                            .position(|r| &r.candidate.label() == w)
-                    })
-                    .unwrap_or(chosen);
-                if row == chosen {
-                    return Some(Shown {
-                        row,
-                        plan: p.clone(),
+        let courier = Courier::start(move |answer: PlanAnswer| {
+            // The round trip from ask to answer, as a performance measure.
+            browser::end_measure("morrowcast:plan");
+            compute_ms.set(answer.compute_ms);
+            planned.set(Some(answer.series));
+            shown.set(answer.shown);
+            plan.set(Some(answer.ranked));
+            busy.set(false);
+        });
+        if let Some(courier) = courier.clone() {
+            // A fault in the worker reaches the page as an error event with the worker's
+            // message: say so where the plan would be, and start a new worker.
+            let listener = window_event_listener(leptos::ev::error, move |e| {
+                let message = e.message();
+                if message.contains(WORKER_FAULT_PREFIX) {
+                    e.prevent_default();
+                    courier.restart();
+                    plan.set(Some(Err(worker_fault_words(&message))));
+                    shown.set(None);
+                    busy.set(false);
+                }
+            });
+            // The page lives as long as the tab.
+            std::mem::forget(listener);
+        }
+        // The worker-fault drill spoils the first plan only, so recovery can be seen.
+        let drill_pending = StoredValue::new(browser::drill().as_deref() == Some("worker-fault"));
+        Effect::new(move |_| {
+            let settings = settings.get();
+            let input = series.get();
+            let picked = picked.get();
+            match (input, &courier) {
+                (Some(Ok(series)), Some(courier)) => {
+                    busy.set(true);
+                    browser::start_measure("morrowcast:plan");
+                    let fault_drill = drill_pending.get_value();
+                    drill_pending.set_value(false);
+                    courier.ask(PlanAsk {
+                        ticket: 0,
+                        series,
+                        settings,
+                        picked,
+                        fault_drill,
                     });
                 }
-                let candidate = &p.backtest.ranking[row].candidate;
-                // The same plan with the picked row chosen: the ranking stays whole.
-                let only = PlanSettings {
-                    choice: Choice::Named(candidate.key().to_string()),
-                    ..s.clone()
-                };
-                let refit = series.with(|series| match series {
-                    Some(Ok(series)) => plan_item(series, &only).ok(),
-                    _ => None,
-                });
-                match refit {
-                    Some(plan) if &plan.chosen == candidate => Some(Shown { row, plan }),
-                    // The refit chose another candidate: show the engine's choice rather than
-                    // mislabel the row.
-                    _ => Some(Shown {
-                        row: chosen,
-                        plan: p.clone(),
-                    }),
+                (Some(Ok(_)), None) => {
+                    plan.set(Some(Err(
+                        "this copy of the page has no worker to compute with (it was built without scripts/inline-wasm.sh)".into(),
+                    )));
                 }
-            })
+                (Some(Err(e)), _) => {
+                    if let Some(c) = &courier {
+                        c.forget();
+                    }
+                    plan.set(Some(Err(e)));
+                    shown.set(None);
+                    planned.set(None);
+                    busy.set(false);
+                }
+                (None, _) => {
+                    if let Some(c) = &courier {
+                        c.forget();
+                    }
+                    plan.set(None);
+                    shown.set(None);
+                    planned.set(None);
+                    busy.set(false);
+                }
+            }
         });
         State {
             text,
@@ -167,6 +151,7 @@ impl State {
             form_errors,
             settings,
             series,
+            planned,
             plan,
             busy,
             layout: RwSignal::new(0),
@@ -184,4 +169,17 @@ impl State {
         self.picked.set(None);
         self.text.set(text);
     }
+}
+
+/// What the page says when the worker stopped on a fault.
+fn worker_fault_words(message: &str) -> String {
+    let detail = message
+        .split(WORKER_FAULT_PREFIX)
+        .nth(1)
+        .unwrap_or(message)
+        .trim();
+    format!(
+        "the computation stopped on a fault ({detail}). Your data is kept in the Intake box and a fresh \
+         worker has started: change a setting to try again, or reload the page"
+    )
 }

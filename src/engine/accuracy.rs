@@ -7,6 +7,8 @@
 //! demand, so a positive error is an over-forecast. Bias is the running sum of errors; the
 //! tracking signal is bias / MAD.
 
+use serde::{Deserialize, Serialize};
+
 /// Summary error measures over a run of periods.
 ///
 /// With n periods, e_t = F_t - D_t:
@@ -17,7 +19,7 @@
 /// Koehler 2006), not available when the scale is zero;
 /// sMAPE = (100/n) sum 200 |e_t| / (|D_t| + |F_t|) / 100, the M3 definition (terms with
 /// D_t = F_t = 0 count as zero error).
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Measures {
     pub count: usize,
     pub mad: f64,
@@ -129,7 +131,7 @@ pub fn measures(
 pub const DEFAULT_TRACKING_LIMIT: f64 = 4.0;
 
 /// One period of the Error ledger: the period's own errors and the running measures up to it.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct LedgerRow {
     pub demand: f64,
     pub forecast: f64,

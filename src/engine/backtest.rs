@@ -9,6 +9,7 @@
 //! next K periods. Errors of all origins are pooled into the ranking measures; origin 0 (the last
 //! K periods) is the one shown in the Error ledger. R = 1 is a single fixed holdout.
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 use crate::engine::accuracy::{self, ledger, mase_scale, LedgerRow, Measures};
@@ -21,7 +22,7 @@ pub const COMBINATION_SIZE: usize = 3;
 ///
 /// Default: MASE (Hyndman & Koehler 2006). It is scale-free, so it compares across items, and it
 /// stays defined when demand has zero periods, where MAPE divides by zero.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, Serialize, Deserialize)]
 pub enum RankBy {
     Mape,
     Rmse,
@@ -62,7 +63,7 @@ impl RankBy {
 }
 
 /// A candidate in the ranking: one method, or the equal-weight combination of the best ones.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub enum Candidate {
     Method(MethodKind),
     /// Plain mean of the members' forecasts. Equal weights: estimated weights rarely beat them
@@ -85,7 +86,7 @@ impl Candidate {
             Candidate::Method(k) => k.label().to_string(),
             Candidate::Combination(members) => {
                 let names: Vec<&str> = members.iter().map(|m| m.label()).collect();
-                format!("Combination of {}", names.join(", "))
+                format!("Combination of {}", names.join(" + "))
             }
         }
     }
@@ -167,7 +168,7 @@ pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
 }
 
 /// What one candidate did in the backtest.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Scored {
     pub candidate: Candidate,
     /// Measures pooled over all origins (what the ranking orders by); `bias` is the sum of
@@ -186,7 +187,7 @@ impl Scored {
 }
 
 /// A candidate that could not be scored, with the reason for the page to show.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Skipped {
     pub candidate: Candidate,
     pub reason: String,
@@ -207,7 +208,7 @@ pub struct BacktestSettings {
 }
 
 /// The ranked outcome.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Backtest {
     /// Best first by the ranking metric.
     pub ranking: Vec<Scored>,

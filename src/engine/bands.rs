@@ -14,6 +14,7 @@
 //!
 //! z = Φ⁻¹(1 - (1 - level)/2) from statrs. Bands of non-negative demand stop at zero.
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 use statrs::distribution::{ContinuousCDF, Normal};
@@ -46,9 +47,25 @@ impl fmt::Display for BandError {
 impl std::error::Error for BandError {}
 
 /// A band level, validated to lie in 50 % ..= 99.9 %.
-#[derive(Clone, Copy, Debug, PartialEq)]
+///
+/// Crosses the worker boundary as its percent; reading it back re-checks the range.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(try_from = "f64", into = "f64")]
 pub struct Level {
     percent: f64,
+}
+
+impl TryFrom<f64> for Level {
+    type Error = BandError;
+    fn try_from(percent: f64) -> Result<Level, BandError> {
+        Level::new(percent)
+    }
+}
+
+impl From<Level> for f64 {
+    fn from(level: Level) -> f64 {
+        level.percent
+    }
 }
 
 impl Level {
@@ -84,7 +101,7 @@ pub fn standard_normal_quantile(p: f64) -> f64 {
 }
 
 /// How bands are computed.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, Serialize, Deserialize)]
 pub enum BandMethod {
     /// F ± z · 1.25 · MAD.
     MadRule,
@@ -111,7 +128,7 @@ impl BandMethod {
 }
 
 /// One forecast period with its band.
-#[derive(Clone, Copy, Debug, PartialEq)]
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct BandPoint {
     pub value: f64,
     pub low: f64,
@@ -119,7 +136,7 @@ pub struct BandPoint {
 }
 
 /// Where the spread of each horizon came from, for the page to name.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum BandSource {
     MadRule,
     Analytic,

@@ -7,10 +7,11 @@
 //! Day numbers use the algorithm of H. Hinnant, "chrono-Compatible Low-Level Date Algorithms"
 //! (public domain): day 0 is 1970-01-01.
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 /// How often a series is observed.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
 pub enum Frequency {
     Daily,
     Weekly,
@@ -137,7 +138,7 @@ pub fn iso_weeks_in_year(year: i32) -> u32 {
 /// Invariant: `ordinal` counts days (daily), Monday-based weeks since the Monday 1969-12-29
 /// (weekly), months since year 0 (monthly), quarters since year 0 (quarterly), years (yearly) or
 /// positions starting at 1 (undated).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
 pub struct Period {
     frequency: Frequency,
     ordinal: i64,

@@ -8,6 +8,7 @@
 //! 3. choose the candidates that apply; backtest and rank them on the holdout;
 //! 4. refit the winner on all data and forecast the horizon with its band.
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 use crate::engine::accuracy::{LedgerRow, DEFAULT_TRACKING_LIMIT};
@@ -27,7 +28,7 @@ pub const MIN_PERIODS: usize = 4;
 pub const BAND_ORIGINS: usize = 8;
 
 /// Which candidate becomes the forecast.
-#[derive(Clone, Debug, PartialEq, Eq, Default)]
+#[derive(Clone, Debug, PartialEq, Eq, Default, Serialize, Deserialize)]
 pub enum Choice {
     /// The equal-weight combination of the best [`backtest::COMBINATION_SIZE`] single methods of
     /// the ranking (the best single method when fewer than two could be scored). On the M3 data
@@ -54,7 +55,7 @@ impl Choice {
 }
 
 /// Season length choice.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, Serialize, Deserialize)]
 pub enum SeasonChoice {
     #[default]
     Auto,
@@ -64,7 +65,7 @@ pub enum SeasonChoice {
 
 /// Settings of one plan. Defaults: horizon from the calendar, automatic season, holdout = last
 /// full season, 95 % horizon-aware band, ranked by MASE, tracking limit 4, 3 rolling origins.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct PlanSettings {
     /// Periods to forecast; `None`: the calendar's season length, else 6.
     pub horizon: Option<usize>,
@@ -138,7 +139,7 @@ impl fmt::Display for PlanError {
 impl std::error::Error for PlanError {}
 
 /// One forecast period.
-#[derive(Clone, Copy, Debug, PartialEq)]
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ForecastPoint {
     pub period: Period,
     pub band: BandPoint,
@@ -146,14 +147,14 @@ pub struct ForecastPoint {
 }
 
 /// One holdout period of the Error ledger.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct LedgerEntry {
     pub period: Period,
     pub row: LedgerRow,
 }
 
 /// Everything the front ends show for one item.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ItemPlan {
     pub name: String,
     pub season: SeasonVerdict,

@@ -5,6 +5,7 @@
 //! private: a `Series` is always regular (one value slot per period, no skipped periods), finite,
 //! and has at least one observed value.
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 use crate::engine::calendar::{Frequency, Period};
@@ -47,11 +48,29 @@ impl std::error::Error for SeriesError {}
 ///
 /// Invariants: at least one value is `Some`; the first and last slots are `Some` (leading and
 /// trailing gaps are trimmed by [`Series::new`]); every value is finite.
-#[derive(Clone, Debug, PartialEq)]
+///
+/// Crosses the worker boundary as its parts; reading it back goes through [`Series::new`].
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(try_from = "SeriesParts")]
 pub struct Series {
     name: String,
     start: Period,
     values: Vec<Option<f64>>,
+}
+
+/// A series as it crosses the worker boundary, before [`Series::new`] checks it again.
+#[derive(Deserialize)]
+struct SeriesParts {
+    name: String,
+    start: Period,
+    values: Vec<Option<f64>>,
+}
+
+impl TryFrom<SeriesParts> for Series {
+    type Error = SeriesError;
+    fn try_from(parts: SeriesParts) -> Result<Series, SeriesError> {
+        Series::new(parts.name, parts.start, parts.values)
+    }
 }
 
 impl Series {

@@ -1,8 +1,8 @@
 //! Support for the browser end-to-end tests: a static file server for dist/ on 127.0.0.1 and a
 //! small WebDriver client for chromedriver, both over std TCP.
 //!
-//! The tests of pasting, dropping and exporting against the command line, and the recompute
-//! measurement, live here too (submodules of the browser_e2e test binary).
+//! The tests of pasting, dropping and exporting against the command line, of faults, and the
+//! recompute measurement, live here too (submodules of the browser_e2e test binary).
 //!
 //! Kept apart from: the demo tests' assertions (tests/browser_e2e.rs). Hand-written instead of the
 //! fantoccini crate: its tokio/hyper/TLS tree costs minutes of build on 2 shared cores, and the
@@ -13,4 +13,5 @@ pub mod serve;
 pub mod webdriver;
 
 mod engine_match;
+mod faults;
 mod recompute;

@@ -59,6 +59,11 @@ pub struct Page {
 
 /// Opens the app at the given window size; `None` when dist/ is missing (see [`dist`]).
 pub fn open(window: (u32, u32)) -> Option<Page> {
+    open_at(window, "")
+}
+
+/// Opens the app with `fragment` after its address (such as `#drill=page-fault`).
+pub fn open_at(window: (u32, u32), fragment: &str) -> Option<Page> {
     let dist = dist()?;
     // A test that failed while holding the turn leaves nothing behind (its browser is closed).
     let turn = TURN.lock().unwrap_or_else(|e| e.into_inner());
@@ -68,7 +73,7 @@ pub fn open(window: (u32, u32)) -> Option<Page> {
         &tool("CHROMIUM", "/usr/bin/chromium"),
         window,
     );
-    browser.goto(&format!("{}/index.html", server.origin));
+    browser.goto(&format!("{}/index.html{fragment}", server.origin));
     Some(Page {
         server,
         browser,

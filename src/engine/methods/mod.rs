@@ -17,10 +17,11 @@ pub mod smoothing;
 pub mod theta;
 pub mod trend_season;
 
+use serde::{Deserialize, Serialize};
 use std::fmt;
 
 /// The candidate methods. Published methods keep their usual names.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize, Deserialize)]
 pub enum MethodKind {
     /// Last value repeated.
     Naive,

@@ -19,13 +19,15 @@
 //! - No demand at all (every value zero or negative, or no values) gives ADI = infinity (n / 0),
 //!   CV^2 = 0 and hence "intermittent": the cut-off rule applied to the honest numbers.
 
+use serde::{Deserialize, Serialize};
+
 /// ADI at or above which demand counts as infrequent (Syntetos, Boylan & Croston 2005).
 pub const ADI_CUTOFF: f64 = 1.32;
 /// CV^2 of demand sizes at or above which sizes count as highly variable (same source).
 pub const CV2_CUTOFF: f64 = 0.49;
 
 /// Demand classes of Syntetos, Boylan & Croston (2005).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum DemandClass {
     /// Frequent demand of steady size (ADI < 1.32, CV^2 < 0.49).
     Smooth,
@@ -60,7 +62,7 @@ impl DemandClass {
 }
 
 /// The demand-class verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct DemandVerdict {
     pub class: DemandClass,
     /// n / k (infinite when k = 0).

@@ -20,6 +20,7 @@
 
 use super::acf::autocorrelation;
 use crate::engine::calendar::Frequency;
+use serde::{Deserialize, Serialize};
 
 /// Critical value of the seasonality test (the standard normal 95 % quantile, as in M4).
 pub const SEASON_TEST_CRITICAL_VALUE: f64 = 1.645;
@@ -29,7 +30,7 @@ pub const MIN_FULL_SEASONS: usize = 2;
 const LAGS_SHOWN_WITHOUT_CANDIDATE: usize = 24;
 
 /// Where the season-length candidate came from.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum SeasonSource {
     /// The frequency's natural season ([`Frequency::natural_season`]).
     Calendar,
@@ -54,7 +55,7 @@ impl SeasonSource {
 }
 
 /// The season-length verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct SeasonVerdict {
     /// Accepted season length (>= 2), or `None`.
     pub length: Option<usize>,

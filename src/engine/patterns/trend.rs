@@ -11,13 +11,14 @@
 //! small and the test too eager to call a trend. A seasonal variant (Hirsch, Slack & Smith 1982)
 //! compares only like season positions; it is not used here.
 
+use serde::{Deserialize, Serialize};
 use statrs::distribution::{ContinuousCDF, Normal};
 
 /// Two-sided significance level below which a trend is called.
 pub const TREND_SIGNIFICANCE: f64 = 0.05;
 
 /// Trend direction from the Mann-Kendall test.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum TrendDirection {
     Up,
     Down,
@@ -36,7 +37,7 @@ impl TrendDirection {
 }
 
 /// The trend verdict and its evidence.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct TrendVerdict {
     pub direction: TrendDirection,
     /// S = sum_{i<j} sign(y_j - y_i).

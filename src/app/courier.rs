@@ -1,0 +1,142 @@
+//! The page's side of the plan worker: sends asks, keeps at most one in flight, and hands the
+//! newest answer to the page's state.
+//!
+//! Kept apart from: what the worker computes (src/worker.rs) and how answers are shown. Only
+//! this file and the worker serialise in the browser (gloo-worker's bincode codec).
+//!
+//! Why one in flight: a worker answers in order, so a burst of changes (typing a horizon, a
+//! string of clicks) would otherwise queue a plan per keystroke. While one is out, newer asks
+//! replace each other; when its answer arrives it is dropped if a newer ask waits, and that one
+//! goes out. The page so always ends showing the plan of its latest inputs.
+
+use std::cell::RefCell;
+use std::rc::Rc;
+
+use gloo_worker::{Spawnable, WorkerBridge};
+use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker};
+
+/// Where the worker's boot module is named: index.html gets a `<meta name="...">` from
+/// scripts/inline-wasm.sh (its file name carries a hash, so a stale cached copy is never used).
+const WORKER_META: &str = "morrowcast-worker";
+/// The worker's own panic hook starts its message with this (src/bin/morrowcast-worker.rs).
+pub const WORKER_FAULT_PREFIX: &str = "morrowcast worker:";
+
+type Deliver = Rc<dyn Fn(PlanAnswer)>;
+
+struct Inner {
+    bridge: Option<WorkerBridge<PlanWorker>>,
+    next_ticket: u64,
+    in_flight: Option<u64>,
+    waiting: Option<PlanAsk>,
+    /// Ticket of the newest ask; `None` after [`Courier::forget`]. Only its answer is shown.
+    latest: Option<u64>,
+    deliver: Deliver,
+}
+
+/// The page's handle on the worker; cheap to clone.
+#[derive(Clone)]
+pub struct Courier {
+    inner: Rc<RefCell<Inner>>,
+}
+
+/// The worker's boot module as index.html names it.
+fn worker_path() -> Option<String> {
+    let doc = web_sys::window()?.document()?;
+    let meta = doc
+        .query_selector(&format!("meta[name=\"{WORKER_META}\"]"))
+        .ok()??;
+    meta.get_attribute("content")
+}
+
+impl Courier {
+    /// Starts the worker; `deliver` gets each answer the page should show. `None` when the
+    /// page does not name its worker (a build without scripts/inline-wasm.sh).
+    pub fn start(deliver: impl Fn(PlanAnswer) + 'static) -> Option<Courier> {
+        let courier = Courier {
+            inner: Rc::new(RefCell::new(Inner {
+                bridge: None,
+                next_ticket: 1,
+                in_flight: None,
+                waiting: None,
+                latest: None,
+                deliver: Rc::new(deliver),
+            })),
+        };
+        courier.spawn()?;
+        Some(courier)
+    }
+
+    fn spawn(&self) -> Option<()> {
+        let path = worker_path()?;
+        let weak = Rc::downgrade(&self.inner);
+        let bridge = PlanWorker::spawner()
+            .callback(move |answer| {
+                if let Some(inner) = weak.upgrade() {
+                    Courier { inner }.arrived(answer);
+                }
+            })
+            .with_loader(true)
+            .spawn(&path);
+        self.inner.borrow_mut().bridge = Some(bridge);
+        Some(())
+    }
+
+    /// Asks for a plan (the ticket is filled in here).
+    pub fn ask(&self, mut ask: PlanAsk) {
+        let mut inner = self.inner.borrow_mut();
+        ask.ticket = inner.next_ticket;
+        inner.next_ticket += 1;
+        inner.latest = Some(ask.ticket);
+        if inner.in_flight.is_some() {
+            inner.waiting = Some(ask);
+            return;
+        }
+        inner.in_flight = Some(ask.ticket);
+        if let Some(bridge) = &inner.bridge {
+            bridge.send(ask);
+        }
+    }
+
+    fn arrived(&self, answer: PlanAnswer) {
+        let deliver = {
+            let mut inner = self.inner.borrow_mut();
+            if inner.in_flight != Some(answer.ticket) {
+                return;
+            }
+            inner.in_flight = None;
+            match inner.waiting.take() {
+                Some(next) => {
+                    inner.in_flight = Some(next.ticket);
+                    if let Some(bridge) = &inner.bridge {
+                        bridge.send(next);
+                    }
+                    return;
+                }
+                None if inner.latest == Some(answer.ticket) => inner.deliver.clone(),
+                None => return,
+            }
+        };
+        // Outside the borrow: delivering updates the page, which may ask again at once.
+        deliver(answer);
+    }
+
+    /// Drops what was asked: the page's input has no plan to wait for any more.
+    pub fn forget(&self) {
+        let mut inner = self.inner.borrow_mut();
+        inner.waiting = None;
+        inner.latest = None;
+    }
+
+    /// The worker stopped (its panic reached the page): forget what was in flight and start a
+    /// new worker; the caller says what happened.
+    pub fn restart(&self) {
+        {
+            let mut inner = self.inner.borrow_mut();
+            inner.in_flight = None;
+            inner.waiting = None;
+            inner.latest = None;
+            inner.bridge = None;
+        }
+        self.spawn();
+    }
+}

@@ -1,0 +1,60 @@
+//! Faults in the page and in its worker: each is reported in words, the user's text stays in the
+//! Intake box, and (for the worker) the next change computes again.
+//!
+//! Kept apart from: how faults are caused. The page has two drills for this (src/app/browser.rs
+//! `drill`): `#drill=page-fault` panics in the page after it has drawn, `#drill=worker-fault`
+//! makes the worker panic on its first plan. No input is known to panic; the drills stand in.
+
+use super::page::{open_at, save_screenshot, wait_for_item, WAIT};
+
+/// A panic in the page shows the fault notice with what to do; the data stays in the box.
+#[test]
+fn a_page_fault_shows_the_notice_and_keeps_the_text() {
+    let Some(page) = open_at((1366, 768), "#drill=page-fault") else {
+        return;
+    };
+    let browser = &page.browser;
+    browser.wait_for(
+        "the fault notice",
+        "return !document.getElementById('fault-notice').hidden",
+        WAIT,
+    );
+    let notice = browser.js("return document.getElementById('fault-notice').textContent");
+    let notice = notice.as_str().unwrap_or("");
+    assert!(notice.contains("still in the Intake box"), "{notice}");
+    assert!(
+        notice.contains("fault drill"),
+        "the detail names the fault: {notice}"
+    );
+    // The page is still there (not blank) and so is the text.
+    let text = browser.js("return document.getElementById('intake-text').value");
+    assert!(text.as_str().unwrap_or("").starts_with("month,"), "{text}");
+    save_screenshot(browser, "fault-page.png");
+}
+
+/// A panic in the worker is reported where the plan would be, and a new worker takes over.
+#[test]
+fn a_worker_fault_is_reported_and_the_next_change_computes_again() {
+    let Some(page) = open_at((1366, 768), "#drill=worker-fault") else {
+        return;
+    };
+    let browser = &page.browser;
+    let said = browser.wait_for(
+        "the worker's fault in the headline",
+        "const p = document.querySelector('#headline .problem'); return p && p.textContent",
+        WAIT,
+    );
+    let said = said.as_str().unwrap_or("");
+    assert!(
+        said.contains("the computation stopped on a fault"),
+        "{said}"
+    );
+    assert!(said.contains("fault drill"), "{said}");
+    assert!(said.contains("Your data is kept"), "{said}");
+    save_screenshot(browser, "fault-worker.png");
+    // The notice for page faults stays hidden: the page itself is fine.
+    let hidden = browser.js("return document.getElementById('fault-notice').hidden");
+    assert_eq!(hidden, serde_json::json!(true));
+    browser.js("document.getElementById('level-80').click()");
+    wait_for_item(browser, "Seed packets");
+}
