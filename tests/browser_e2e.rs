@@ -142,7 +142,27 @@ fn broken_paste_shows_row_and_column_and_keeps_the_text() {
     );
     let kept = browser.js("return document.getElementById('intake-text').value");
     assert_eq!(kept.as_str().unwrap_or(""), broken.replace("\\n", "\n"));
+    // Once the worker is done, the headline says what became of the item.
+    let headline = browser.wait_for(
+        "the headline after the paste",
+        "const h = document.getElementById('headline'); \
+         return !document.getElementById('busy').classList.contains('on') && h.textContent",
+        WAIT,
+    );
+    let headline = headline.as_str().unwrap_or("");
+    assert!(
+        headline.contains("1 cell of this table could not be read"),
+        "the forecast says it was made without the unread cell: {headline}"
+    );
     save_screenshot(browser, "broken-paste.png");
+    // An emptied box: the results column says what will appear instead of bare tables.
+    e2e::page::paste(browser, "");
+    browser.wait_for(
+        "the guide instead of empty results",
+        "return !!document.getElementById('what-comes') && !document.getElementById('ranking-table')",
+        WAIT,
+    );
+    save_screenshot(browser, "empty-intake.png");
 }
 
 /// A lower band level narrows the band of every forecast period.
@@ -176,4 +196,27 @@ fn band_level_changes_the_band() {
         );
     }
     save_screenshot(browser, "band-80.png");
+}
+
+/// The page prints: the browser's own print gives a PDF of a few pages (the controls are left
+/// out by the print style), saved as tests/screenshots/print.pdf for review.
+#[test]
+fn the_plan_prints_to_a_few_pages() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    e2e::page::wait_for_item(browser, "Seed packets");
+    let pdf = browser.print_pdf();
+    assert!(pdf.starts_with(b"%PDF"), "print gave no PDF");
+    // Pages as the PDF's page objects count them ("/Type /Page" but not the "/Type /Pages"
+    // tree; Chromium writes them uncompressed).
+    let pages = pdf
+        .windows(12)
+        .filter(|w| w.starts_with(b"/Type /Page") && w[11] != b's')
+        .count();
+    assert!((2..=14).contains(&pages), "{pages} pages");
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/screenshots");
+    std::fs::create_dir_all(&dir).unwrap();
+    std::fs::write(dir.join("print.pdf"), &pdf).unwrap();
 }

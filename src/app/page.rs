@@ -43,10 +43,13 @@ pub fn App() -> impl IntoView {
             </div>
             <div class="results" id="results" tabindex="-1">
                 <Headline/>
-                <LookAheadPanel/>
-                <Ranking/>
-                <ErrorLedger/>
-                <PatternView/>
+                // Until there is a plan, a short guide instead of empty charts and bare tables.
+                <Show when=move || state.plan.with(|p| matches!(p, Some(Ok(_)))) fallback=WhatComes>
+                    <LookAheadPanel/>
+                    <Ranking/>
+                    <ErrorLedger/>
+                    <PatternView/>
+                </Show>
             </div>
         </main>
         <footer class="colophon">
@@ -57,5 +60,21 @@ pub fn App() -> impl IntoView {
             </p>
             <p>"Morrowcast runs entirely in this browser tab. Closing the tab forgets your data."</p>
         </footer>
+    }
+}
+
+/// What the results column will hold, shown while there is no plan to show.
+#[component]
+fn WhatComes() -> impl IntoView {
+    view! {
+        <section class="panel what-comes" id="what-comes" aria-labelledby="what-comes-title">
+            <h2 id="what-comes-title">"What appears here"</h2>
+            <ul class="plain">
+                <li><strong>"Look-ahead: "</strong>"the history, the fit, the holdout forecast and the forecast with its band, with a table."</li>
+                <li><strong>"Backtest ranking: "</strong>"every method that fits the item, scored on the holdout."</li>
+                <li><strong>"Error ledger: "</strong>"the errors period by period and the tracking signal against its limits."</li>
+                <li><strong>"Pattern view: "</strong>"season length, trend and demand class, each with its evidence."</li>
+            </ul>
+        </section>
     }
 }

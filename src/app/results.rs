@@ -108,6 +108,9 @@ pub fn Headline() -> impl IntoView {
                     view! {
                         <h2 class="item-name" id="item-name">{plan.name.clone()}</h2>
                         <p class="lead">{format!("Forecast for the next {h} periods by {method}, with a {}% band.", plan.level.percent())}</p>
+                        {move || state.report.with(|r| r.has_errors().then(|| view! {
+                            <p class="notice" id="unread-cells">{words::unread_cells_note(r.errors.len())}</p>
+                        }))}
                         <p class="timing" id="compute-time">{move || format!("Recomputed in {:.0} ms.", state.compute_ms.get())}</p>
                     }.into_any()
                 }

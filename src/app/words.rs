@@ -73,6 +73,19 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
     lines
 }
 
+/// Said above a forecast made while some cells could not be read: they are gaps until fixed.
+pub fn unread_cells_note(count: usize) -> String {
+    let cells = if count == 1 {
+        "1 cell".to_string()
+    } else {
+        format!("{count} cells")
+    };
+    format!(
+        "{cells} of this table could not be read (listed under Intake). Until fixed, the forecast \
+         treats them as missing values, filled by straight-line interpolation, so it may change."
+    )
+}
+
 /// One rejected cell: "Row 5, column "units": found "12x": <what to do>".
 pub fn row_error_line(e: &RowError) -> String {
     let column = if e.column.is_empty() {
@@ -192,6 +205,12 @@ mod tests {
             "The forecast ran over demand in 2 of 2 periods; summed over the holdout it was 3 units too high."
         );
         assert!(bias_sentence(&[], "units").starts_with("No holdout"));
+    }
+
+    #[test]
+    fn unread_cells_are_counted_in_words() {
+        assert!(unread_cells_note(1).starts_with("1 cell of this table"));
+        assert!(unread_cells_note(3).starts_with("3 cells of this table"));
     }
 
     #[test]

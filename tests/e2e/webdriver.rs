@@ -198,6 +198,16 @@ impl Browser {
         }
     }
 
+    /// The page printed as PDF (A4 portrait, backgrounds on), as the browser's print does.
+    pub fn print_pdf(&self) -> Vec<u8> {
+        let b64 = self.command(
+            "POST",
+            "/print",
+            Some(json!({ "background": true, "page": { "width": 21.0, "height": 29.7 } })),
+        );
+        decode_base64(b64.as_str().unwrap_or(""))
+    }
+
     /// A PNG screenshot of the window.
     pub fn screenshot(&self) -> Vec<u8> {
         let b64 = self.command("GET", "/screenshot", None);
