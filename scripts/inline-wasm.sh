@@ -49,7 +49,7 @@ worker_glue_name="morrowcast-worker-$worker_hash.js"
 worker_boot="worker-$worker_hash.js"
 mv "$worker_glue" "$dir/$worker_glue_name"
 boot_module "$worker_glue_name" "$worker_wasm" "the plan worker's .wasm" > "$dir/$worker_boot"
-rm "$worker_wasm"
+# Both .wasm files stay in dist/ (never fetched) so their sizes can be measured there.
 
 # Drop trunk's inline loader and the .wasm preloads (both fetch); load the boot module instead.
 perl -0pi -e '

@@ -68,7 +68,11 @@ pub fn IntakePanel() -> impl IntoView {
                 on:drop=on_drop
                 id="drop-zone"
             >
-                <label for="intake-text">"Paste your table here, or drop a file on this box"</label>
+                <label for="intake-text">{move || if dragging.get() {
+                    "Let go to read the file (it stays on this machine)"
+                } else {
+                    "Paste your table here, or drop a file on this box"
+                }}</label>
                 <textarea
                     id="intake-text"
                     rows="9"

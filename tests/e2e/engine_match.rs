@@ -154,7 +154,8 @@ fn dropped_file_is_read() {
     assert_eq!(accepted, json!(false), "dragover was not cancelled");
     browser.wait_for(
         "the drop zone to show the drag",
-        "return document.getElementById('drop-zone').classList.contains('dragging')",
+        "const z = document.getElementById('drop-zone'); \
+         return z.classList.contains('dragging') && z.textContent.includes('Let go to read the file')",
         WAIT,
     );
     save_screenshot(browser, "drop-dragging.png");
