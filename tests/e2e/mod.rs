@@ -12,6 +12,7 @@ pub mod page;
 pub mod serve;
 pub mod webdriver;
 
+mod access;
 mod engine_match;
 mod faults;
 mod recompute;
