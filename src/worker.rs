@@ -3,7 +3,7 @@
 //! Kept apart from: the DOM (the worker has none) and the CLI's JSON contract (src/wire.rs).
 //! The page sends a [`PlanAsk`] (the chosen item's series, the settings, the ranking row the
 //! user picked); the worker answers with a [`PlanAnswer`] holding the ranked plan and the plan
-//! of the picked row. Messages are bincode (gloo-worker's codec) of the engine's own types: both
+//! of the picked row, after [`WorkerNews::Progress`] messages when the plan is slow. Messages are bincode (gloo-worker's codec) of the engine's own types: both
 //! ends are built from this source at once, so the encoding is not a contract and may change
 //! with any commit. Infinity and NaN cross unchanged (JSON could not carry them).
 //!
@@ -12,7 +12,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::engine::plan::{plan_item, Choice, ItemPlan, PlanSettings};
+use crate::engine::plan::{plan_item_observed, Choice, ItemPlan, PlanSettings, Progress};
 use crate::engine::series::Series;
 
 /// One request to the worker.
@@ -37,6 +37,19 @@ pub struct Shown {
     /// The plan refitted with that row's candidate (the ranked plan itself for the row the
     /// engine chose).
     pub plan: ItemPlan,
+}
+
+/// What the worker sends back: news of how far an ask has come, then its answer.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub enum WorkerNews {
+    /// `done` of `total` steps of the ask with this ticket (sent only for slow plans).
+    Progress {
+        ticket: u64,
+        done: usize,
+        total: usize,
+    },
+    /// Boxed: an answer is large, progress news small.
+    Answer(Box<PlanAnswer>),
 }
 
 /// The worker's answer to one [`PlanAsk`].
@@ -70,19 +83,29 @@ impl PlanDesk {
     /// # Panics
     /// On purpose, when `ask.fault_drill` is set.
     pub fn answer(&mut self, ask: PlanAsk) -> PlanAnswer {
+        self.answer_observed(ask, &mut |_| {})
+    }
+
+    /// [`PlanDesk::answer`], reporting the plan's [`Progress`] as it goes.
+    pub fn answer_observed(
+        &mut self,
+        ask: PlanAsk,
+        progress: &mut dyn FnMut(Progress),
+    ) -> PlanAnswer {
         if ask.fault_drill {
             panic!("fault drill: a deliberate fault to check that the page reports it");
         }
         let reuse = matches!(&self.last, Some((s, p, _)) if *s == ask.series && *p == ask.settings);
         if !reuse {
-            let ranked = plan_item(&ask.series, &ask.settings).map_err(|e| e.to_string());
+            let ranked =
+                plan_item_observed(&ask.series, &ask.settings, progress).map_err(|e| e.to_string());
             self.last = Some((ask.series.clone(), ask.settings.clone(), ranked));
         }
         let Some((_, _, ranked)) = &self.last else {
             unreachable!("set just above")
         };
         let shown = match ranked {
-            Ok(plan) => Some(shown_row(plan, &ask)),
+            Ok(plan) => Some(shown_row(plan, &ask, progress)),
             Err(_) => None,
         };
         PlanAnswer {
@@ -96,7 +119,7 @@ impl PlanDesk {
 }
 
 /// The row the user picked with its refit plan, or the engine's choice.
-fn shown_row(ranked: &ItemPlan, ask: &PlanAsk) -> Shown {
+fn shown_row(ranked: &ItemPlan, ask: &PlanAsk, progress: &mut dyn FnMut(Progress)) -> Shown {
     let ranking = &ranked.backtest.ranking;
     // The row the engine chose (not always the top one: its choice rule may prefer the
     // combination).
@@ -124,7 +147,7 @@ fn shown_row(ranked: &ItemPlan, ask: &PlanAsk) -> Shown {
         choice: Choice::Named(candidate.key().to_string()),
         ..ask.settings.clone()
     };
-    match plan_item(&ask.series, &only) {
+    match plan_item_observed(&ask.series, &only, progress) {
         Ok(plan) if &plan.chosen == candidate => Shown { row, plan },
         // The refit chose another candidate: show the engine's choice rather than mislabel
         // the row.
@@ -141,7 +164,11 @@ mod glue {
     use gloo_worker::{HandlerId, Worker, WorkerScope};
     use wasm_bindgen::JsCast;
 
-    use super::{PlanAnswer, PlanAsk, PlanDesk};
+    use super::{PlanAsk, PlanDesk, WorkerNews};
+
+    /// Progress is sent only once a plan has run this long (milliseconds): a quick plan's
+    /// answer comes before any bar could be seen.
+    const PROGRESS_AFTER_MS: f64 = 100.0;
 
     /// The Web Worker that computes plans (registered by src/bin/morrowcast-worker.rs).
     pub struct PlanWorker {
@@ -160,7 +187,7 @@ mod glue {
     impl Worker for PlanWorker {
         type Message = ();
         type Input = PlanAsk;
-        type Output = PlanAnswer;
+        type Output = WorkerNews;
 
         fn create(_scope: &WorkerScope<Self>) -> Self {
             PlanWorker {
@@ -172,9 +199,21 @@ mod glue {
 
         fn received(&mut self, scope: &WorkerScope<Self>, ask: PlanAsk, id: HandlerId) {
             let t0 = now_ms();
-            let mut answer = self.desk.answer(ask);
+            let ticket = ask.ticket;
+            let mut answer = self.desk.answer_observed(ask, &mut |p| {
+                if now_ms() - t0 >= PROGRESS_AFTER_MS {
+                    scope.respond(
+                        id,
+                        WorkerNews::Progress {
+                            ticket,
+                            done: p.done,
+                            total: p.total,
+                        },
+                    );
+                }
+            });
             answer.compute_ms = now_ms() - t0;
-            scope.respond(id, answer);
+            scope.respond(id, WorkerNews::Answer(Box::new(answer)));
         }
     }
 }
@@ -183,6 +222,7 @@ mod glue {
 mod tests {
     use super::*;
     use crate::engine::calendar::Period;
+    use crate::engine::plan::plan_item;
 
     fn seasonal() -> Series {
         let values = (0..48)
@@ -236,6 +276,20 @@ mod tests {
         assert_eq!(shown.plan.chosen, first.backtest.ranking[other].candidate);
         // The ranking itself is the same as before the pick.
         assert_eq!(a.ranked.unwrap(), first);
+    }
+
+    #[test]
+    fn progress_is_reported_while_answering() {
+        let mut desk = PlanDesk::new();
+        let mut steps = Vec::new();
+        let a = desk.answer_observed(ask(1, None), &mut |p| steps.push(p));
+        assert!(a.ranked.is_ok());
+        let last = steps.last().unwrap();
+        assert_eq!(last.done + 1, last.total, "{steps:?}");
+        // The same ask again reuses the ranked plan: no backtest, so no progress.
+        steps.clear();
+        desk.answer_observed(ask(2, None), &mut |p| steps.push(p));
+        assert!(steps.is_empty(), "{steps:?}");
     }
 
     #[test]

@@ -3,7 +3,9 @@
 
 use morrowcast::engine::bands::{BandMethod, BandSource, Level};
 use morrowcast::engine::calendar::Period;
-use morrowcast::engine::plan::{plan_item, Choice, PlanError, PlanSettings, SeasonChoice};
+use morrowcast::engine::plan::{
+    plan_item, plan_item_observed, Choice, PlanError, PlanSettings, Progress, SeasonChoice,
+};
 use morrowcast::engine::series::Series;
 
 fn seasonal(n: usize) -> Vec<f64> {
@@ -31,6 +33,21 @@ fn defaults_detect_the_season_and_forecast_a_calendar_year() {
         assert!(f.band.low <= f.band.value && f.band.value <= f.band.high);
         assert!(f.band.low >= 0.0);
     }
+}
+
+#[test]
+fn progress_counts_every_candidate_and_the_plan_is_the_same() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let mut seen: Vec<Progress> = Vec::new();
+    let p = plan_item_observed(&s, &PlanSettings::default(), &mut |step| seen.push(step)).unwrap();
+    assert_eq!(p, plan_item(&s, &PlanSettings::default()).unwrap());
+    let total = seen[0].total;
+    // One step per candidate method (scored or skipped), then the refit and band.
+    let candidates = p.backtest.ranking.len() - 1 + p.backtest.skipped.len();
+    assert_eq!(total, candidates + 1);
+    assert!(seen.iter().all(|s| s.total == total));
+    let done: Vec<usize> = seen.iter().map(|s| s.done).collect();
+    assert_eq!(done, (0..total).collect::<Vec<_>>());
 }
 
 #[test]

@@ -13,7 +13,7 @@ use std::cell::RefCell;
 use std::rc::Rc;
 
 use gloo_worker::{Spawnable, WorkerBridge};
-use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker};
+use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
 
 /// Where the worker's boot module is named: index.html gets a `<meta name="...">` from
 /// scripts/inline-wasm.sh (its file name carries a hash, so a stale cached copy is never used).
@@ -22,6 +22,7 @@ const WORKER_META: &str = "morrowcast-worker";
 pub const WORKER_FAULT_PREFIX: &str = "morrowcast worker:";
 
 type Deliver = Rc<dyn Fn(PlanAnswer)>;
+type Report = Rc<dyn Fn(usize, usize)>;
 
 struct Inner {
     bridge: Option<WorkerBridge<PlanWorker>>,
@@ -31,6 +32,7 @@ struct Inner {
     /// Ticket of the newest ask; `None` after [`Courier::forget`]. Only its answer is shown.
     latest: Option<u64>,
     deliver: Deliver,
+    report: Report,
 }
 
 /// The page's handle on the worker; cheap to clone.
@@ -49,9 +51,13 @@ fn worker_path() -> Option<String> {
 }
 
 impl Courier {
-    /// Starts the worker; `deliver` gets each answer the page should show. `None` when the
-    /// page does not name its worker (a build without scripts/inline-wasm.sh).
-    pub fn start(deliver: impl Fn(PlanAnswer) + 'static) -> Option<Courier> {
+    /// Starts the worker; `deliver` gets each answer the page should show, `report` the
+    /// progress (done, total) of the ask it waits for. `None` when the page does not name its
+    /// worker (a build without scripts/inline-wasm.sh).
+    pub fn start(
+        deliver: impl Fn(PlanAnswer) + 'static,
+        report: impl Fn(usize, usize) + 'static,
+    ) -> Option<Courier> {
         let courier = Courier {
             inner: Rc::new(RefCell::new(Inner {
                 bridge: None,
@@ -60,6 +66,7 @@ impl Courier {
                 waiting: None,
                 latest: None,
                 deliver: Rc::new(deliver),
+                report: Rc::new(report),
             })),
         };
         courier.spawn()?;
@@ -70,9 +77,16 @@ impl Courier {
         let path = worker_path()?;
         let weak = Rc::downgrade(&self.inner);
         let bridge = PlanWorker::spawner()
-            .callback(move |answer| {
+            .callback(move |news| {
                 if let Some(inner) = weak.upgrade() {
-                    Courier { inner }.arrived(answer);
+                    match news {
+                        WorkerNews::Answer(answer) => Courier { inner }.arrived(*answer),
+                        WorkerNews::Progress {
+                            ticket,
+                            done,
+                            total,
+                        } => Courier { inner }.progressed(ticket, done, total),
+                    }
                 }
             })
             .with_loader(true)
@@ -118,6 +132,18 @@ impl Courier {
         };
         // Outside the borrow: delivering updates the page, which may ask again at once.
         deliver(answer);
+    }
+
+    fn progressed(&self, ticket: u64, done: usize, total: usize) {
+        let report = {
+            let inner = self.inner.borrow();
+            // Only the ask whose answer will be shown (nothing newer waiting).
+            if inner.in_flight != Some(ticket) || inner.waiting.is_some() {
+                return;
+            }
+            inner.report.clone()
+        };
+        report(done, total);
     }
 
     /// Drops what was asked: the page's input has no plan to wait for any more.

@@ -45,6 +45,7 @@ pub fn look_ahead(series: &Series, ranked: &ItemPlan, row: &Scored, shown: &Item
     LookAhead {
         labels,
         history: ranked.history.clone(),
+        filled: series.gap_indices(),
         fitted: shown.fitted.clone(),
         holdout_start: (k > 0 && k < n).then(|| n - k),
         holdout_forecast: row.holdout_forecast.clone(),

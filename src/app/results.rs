@@ -91,11 +91,19 @@ pub fn Headline() -> impl IntoView {
         // Shown only when the worker takes longer than a moment (the style delays it 0.2 s).
         <div class="busy" class:on=move || state.busy.get() role="status" id="busy">
             {move || state.busy.get().then(|| view! {
-                <progress aria-label="Computing the plan"></progress>
-                <span>{move || state.series.with(|s| match s {
-                    Some(Ok(s)) => format!("Ranking the methods for {}…", s.name()),
-                    _ => "Working…".to_string(),
-                })}</span>
+                {move || match state.progress.get() {
+                    Some((done, total)) => view! {
+                        <progress aria-label="Computing the plan" max=total.to_string() value=done.to_string()></progress>
+                    }.into_any(),
+                    None => view! { <progress aria-label="Computing the plan"></progress> }.into_any(),
+                }}
+                <span>{move || {
+                    let steps = state.progress.get().map(|(d, t)| format!(": step {} of {t}", (d + 1).min(t))).unwrap_or_default();
+                    state.series.with(|s| match s {
+                        Some(Ok(s)) => format!("Ranking the methods for {}{steps}…", s.name()),
+                        _ => "Working…".to_string(),
+                    })
+                }}</span>
             })}
         </div>
         <section class="headline" aria-live="polite" id="headline">

@@ -36,6 +36,8 @@ pub struct State {
     pub plan: RwSignal<Option<Result<ItemPlan, String>>>,
     /// True from a change of input until its plan is in.
     pub busy: RwSignal<bool>,
+    /// (done, total) steps of the plan being computed, once the worker reports them.
+    pub progress: RwSignal<Option<(usize, usize)>>,
     /// Bumped when the window is resized, so charts redraw at their new size.
     pub layout: RwSignal<u32>,
     /// Label of the ranking row the user picked; `None`: the engine's choice.
@@ -71,16 +73,21 @@ impl State {
         let planned = RwSignal::new(None::<Series>);
         let shown = RwSignal::new(None::<Shown>);
         let busy = RwSignal::new(false);
+        let progress = RwSignal::new(None::<(usize, usize)>);
         let picked = RwSignal::new(None::<String>);
-        let courier = Courier::start(move |answer: PlanAnswer| {
-            // The round trip from ask to answer, as a performance measure.
-            browser::end_measure("morrowcast:plan");
-            compute_ms.set(answer.compute_ms);
-            planned.set(Some(answer.series));
-            shown.set(answer.shown);
-            plan.set(Some(answer.ranked));
-            busy.set(false);
-        });
+        let courier = Courier::start(
+            move |answer: PlanAnswer| {
+                // The round trip from ask to answer, as a performance measure.
+                browser::end_measure("morrowcast:plan");
+                compute_ms.set(answer.compute_ms);
+                planned.set(Some(answer.series));
+                shown.set(answer.shown);
+                plan.set(Some(answer.ranked));
+                busy.set(false);
+                progress.set(None);
+            },
+            move |done, total| progress.set(Some((done, total))),
+        );
         if let Some(courier) = courier.clone() {
             // A fault in the worker reaches the page as an error event with the worker's
             // message: say so where the plan would be, and start a new worker.
@@ -106,6 +113,7 @@ impl State {
             match (input, &courier) {
                 (Some(Ok(series)), Some(courier)) => {
                     busy.set(true);
+                    progress.set(None);
                     browser::start_measure("morrowcast:plan");
                     let fault_drill = drill_pending.get_value();
                     drill_pending.set_value(false);
@@ -154,6 +162,7 @@ impl State {
             planned,
             plan,
             busy,
+            progress,
             layout: RwSignal::new(0),
             picked,
             shown,

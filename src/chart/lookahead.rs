@@ -8,7 +8,7 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
 use super::axis::{draw_legend, frame, value_range, FONT};
-use super::palette::{BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
+use super::palette::{ALERT, BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
 use super::{clear, round_for_people, Area, ChartError};
 
 /// One future period: point forecast and band.
@@ -25,6 +25,8 @@ pub struct LookAhead {
     /// Labels of every position: the n history periods, then the h forecast periods.
     pub labels: Vec<String>,
     pub history: Vec<f64>,
+    /// Positions in `history` that were gaps filled by interpolation (hollow markers).
+    pub filled: Vec<usize>,
     /// The fit aligned with `history` (`None` where the method has none).
     pub fitted: Vec<Option<f64>>,
     /// Position of the first holdout period, when there is a holdout.
@@ -150,7 +152,26 @@ where
         )))?
         .label("demand")
         .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], DEMAND.stroke_width(2)));
-    chart.draw_series(history.iter().map(|p| Circle::new(*p, 3, DEMAND.filled())))?;
+    chart.draw_series(
+        history
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| !data.filled.contains(i))
+            .map(|(_, p)| Circle::new(*p, 3, DEMAND.filled())),
+    )?;
+    if !data.filled.is_empty() {
+        // Filled gaps are not demand anyone saw: hollow, in the alert colour, as in the
+        // Pattern view's history.
+        chart
+            .draw_series(
+                data.filled
+                    .iter()
+                    .filter_map(|i| history.get(*i))
+                    .map(|p| Circle::new(*p, 4, ALERT.stroke_width(2))),
+            )?
+            .label("filled gap")
+            .legend(|(x, y)| Circle::new((x + 9, y), 4, ALERT.stroke_width(2)));
+    }
 
     if let Some(start) = data
         .holdout_start
@@ -242,6 +263,12 @@ pub fn look_ahead_summary(data: &LookAhead) -> String {
         round_for_people(data.history[n - 1]),
         data.unit
     );
+    if !data.filled.is_empty() {
+        s.push_str(&format!(
+            " {} missing period(s) filled by straight-line interpolation (hollow markers).",
+            data.filled.len()
+        ));
+    }
     if let Some(start) = data.holdout_start.filter(|s| *s < n) {
         s.push_str(&format!(
             " The holdout runs from {} ({} periods).",
@@ -292,6 +319,7 @@ mod tests {
         LookAhead {
             labels,
             history,
+            filled: vec![],
             fitted,
             holdout_start: Some(18),
             holdout_forecast: vec![52.0; 6],
@@ -323,6 +351,22 @@ mod tests {
         assert!(svg.texts.iter().any(|t| t == "95% band"));
         assert!(svg.texts.iter().any(|t| t == "holdout starts"));
         assert!(svg.texts.iter().any(|t| t.starts_with("2024-")));
+    }
+
+    #[test]
+    fn filled_gaps_get_hollow_markers_and_a_legend_entry() {
+        let mut data = sample();
+        data.filled = vec![4, 5];
+        let svg = draw_svg(&data);
+        // 22 observed periods keep their filled markers; the two gaps are hollow (stroked in
+        // the alert colour), plus the legend's sample.
+        assert_eq!(svg.circles_with_fill(&hex(DEMAND)), 22);
+        assert_eq!(svg.circles_with_stroke(&hex(ALERT)), 3);
+        assert!(svg.texts.iter().any(|t| t == "filled gap"));
+        assert!(look_ahead_summary(&data).contains("2 missing period(s) filled"));
+        // Without gaps, no legend entry.
+        let svg = draw_svg(&sample());
+        assert!(!svg.texts.iter().any(|t| t == "filled gap"));
     }
 
     #[test]

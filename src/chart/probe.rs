@@ -109,6 +109,11 @@ impl Svg {
         self.select("circle", "fill", colour).count()
     }
 
+    /// Circles outlined in this colour (hollow markers).
+    pub fn circles_with_stroke(&self, colour: &str) -> usize {
+        self.select("circle", "stroke", colour).count()
+    }
+
     /// Opaque rectangles of this fill colour, as (x, y, width, height).
     pub fn rects_with_fill(&self, colour: &str) -> Vec<(i32, i32, i32, i32)> {
         self.select("rect", "fill", colour)

@@ -244,6 +244,17 @@ pub fn run(
     season: Option<usize>,
     settings: &BacktestSettings,
 ) -> Result<Backtest, BacktestError> {
+    run_observed(history, season, settings, &mut |_, _| {})
+}
+
+/// [`run`], calling `progress(done, total)` after each candidate method has been fitted at
+/// every origin (`total` = the number of candidates), so a front end can show how far it is.
+pub fn run_observed(
+    history: &[f64],
+    season: Option<usize>,
+    settings: &BacktestSettings,
+    progress: &mut dyn FnMut(usize, usize),
+) -> Result<Backtest, BacktestError> {
     let n = history.len();
     let k = settings.holdout.max(1);
     if n < k + 3 {
@@ -260,7 +271,9 @@ pub fn run(
     let mut scored = Vec::new();
     let mut skipped = Vec::new();
     let mut per_origin: Vec<(MethodKind, Vec<Vec<f64>>)> = Vec::new();
-    'methods: for &kind in &settings.candidates {
+    let total = settings.candidates.len();
+    'methods: for (done, &kind) in settings.candidates.iter().enumerate() {
+        progress(done, total);
         let mut forecasts_by_origin = Vec::with_capacity(origins);
         for j in 0..origins {
             let end = train_end - j;
@@ -277,6 +290,7 @@ pub fn run(
         }
         per_origin.push((kind, forecasts_by_origin));
     }
+    progress(total, total);
 
     let score = |forecasts_by_origin: &[Vec<f64>]| -> Option<Measures> {
         let mut f_all = Vec::with_capacity(origins * k);

@@ -193,8 +193,25 @@ pub fn applicable_methods(
         .collect()
 }
 
+/// How far a plan has come: `done` of `total` steps (one per candidate method in the backtest,
+/// then one for the chosen method's refit and band).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Progress {
+    pub done: usize,
+    pub total: usize,
+}
+
 /// Plans one item.
 pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, PlanError> {
+    plan_item_observed(series, settings, &mut |_| {})
+}
+
+/// [`plan_item`], reporting its [`Progress`] as it goes.
+pub fn plan_item_observed(
+    series: &Series,
+    settings: &PlanSettings,
+    progress: &mut dyn FnMut(Progress),
+) -> Result<ItemPlan, PlanError> {
     let name = series.name().to_string();
     let history = series.interpolated();
     let n = history.len();
@@ -244,7 +261,11 @@ pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, P
         candidates,
         combine: settings.combine,
     };
-    let bt = backtest::run(&history, m, &bt_settings).map_err(|source| PlanError::Backtest {
+    let steps = bt_settings.candidates.len() + 1;
+    let bt = backtest::run_observed(&history, m, &bt_settings, &mut |done, _| {
+        progress(Progress { done, total: steps })
+    })
+    .map_err(|source| PlanError::Backtest {
         name: name.clone(),
         source,
     })?;

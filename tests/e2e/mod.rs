@@ -15,4 +15,5 @@ pub mod webdriver;
 mod access;
 mod engine_match;
 mod faults;
+mod progress;
 mod recompute;
