@@ -4,7 +4,7 @@
 //! Kept apart from: the speed of the plan (benches) and the quick demo items (recompute.rs),
 //! whose answers come before any bar is due.
 
-use super::page::{open, paste, wait_for_item, WAIT};
+use super::page::{open, paste, wait_for_item};
 
 /// Ten years of daily demand with a weekly pattern (made up for this test).
 fn daily_history() -> String {
