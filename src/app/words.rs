@@ -5,6 +5,7 @@
 //! counts of signs are the only arithmetic here. Error sign (as the engine and the page state it):
 //! e = F - D, forecast minus demand; a positive error is an over-forecast.
 
+use morrowcast::engine::backtest::Candidate;
 use morrowcast::engine::intake::{IntakeReport, Layout, RowError};
 use morrowcast::engine::patterns::{
     DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
@@ -84,6 +85,18 @@ pub fn unread_cells_note(count: usize) -> String {
         "{cells} of this table could not be read (listed under Intake). Until fixed, the forecast \
          treats them as missing values, filled by straight-line interpolation, so it may change."
     )
+}
+
+/// Why the plan's own choice is the combination (empty for a single method).
+pub fn combination_choice(chosen: &Candidate) -> String {
+    match chosen {
+        Candidate::Combination(members) => format!(
+            " The forecast uses the combination, the plain mean of the {} best methods: on the M3 \
+             competition data that was more accurate than the single best (README, Benchmarks).",
+            members.len()
+        ),
+        Candidate::Method(_) => String::new(),
+    }
 }
 
 /// One rejected cell: "Row 5, column "units": found "12x": <what to do>".
@@ -205,6 +218,18 @@ mod tests {
             "The forecast ran over demand in 2 of 2 periods; summed over the holdout it was 3 units too high."
         );
         assert!(bias_sentence(&[], "units").starts_with("No holdout"));
+    }
+
+    #[test]
+    fn the_combination_choice_is_explained_and_a_single_method_is_not() {
+        use morrowcast::engine::methods::MethodKind;
+        let combo =
+            Candidate::Combination(vec![MethodKind::Theta, MethodKind::Ses, MethodKind::Holt]);
+        assert!(combination_choice(&combo).contains("plain mean of the 3 best methods"));
+        assert_eq!(
+            combination_choice(&Candidate::Method(MethodKind::Theta)),
+            ""
+        );
     }
 
     #[test]

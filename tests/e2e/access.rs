@@ -145,6 +145,15 @@ fn the_layout_fits_a_laptop_and_a_wide_screen() {
             n(0) <= n(1),
             "{window:?}: the page scrolls sideways ({fit})"
         );
+        // Every column of the Error ledger is in view, down to the tracking signal.
+        let ledger = browser.js(
+            "const w = document.querySelector('#error-ledger .table-wrap'); \
+             return [w.scrollWidth, w.clientWidth]",
+        );
+        assert!(
+            ledger[0].as_f64() <= ledger[1].as_f64(),
+            "{window:?}: the Error ledger scrolls sideways ({ledger})"
+        );
         assert!(
             n(2) >= 0.9 * n(3) - 40.0,
             "{window:?}: the chart is narrower than its panel ({fit})"
