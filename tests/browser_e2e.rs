@@ -220,3 +220,36 @@ fn the_plan_prints_to_a_few_pages() {
     std::fs::create_dir_all(&dir).unwrap();
     std::fs::write(dir.join("print.pdf"), &pdf).unwrap();
 }
+
+/// The Pattern view's season choices: going without a season and back to detection, in one
+/// click each, with the Settings field following.
+#[test]
+fn season_choices_switch_the_season_off_and_back() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    e2e::page::wait_for_item(browser, "Seed packets");
+    let verdict = "return document.getElementById('season-verdict').textContent";
+    assert!(browser
+        .js(verdict)
+        .as_str()
+        .unwrap_or("")
+        .starts_with("Season length 12, detected."));
+    browser.js("document.getElementById('season-none').click()");
+    browser.wait_for(
+        "the plan without a season",
+        "return document.getElementById('season-verdict').textContent.startsWith('No season, as you set it.')",
+        WAIT,
+    );
+    let field = browser.js("return document.getElementById('season').value");
+    assert_eq!(field.as_str(), Some("1"));
+    browser.js("document.getElementById('season-auto').click()");
+    browser.wait_for(
+        "the detected season again",
+        "return document.getElementById('season-verdict').textContent.startsWith('Season length 12, detected.')",
+        WAIT,
+    );
+    let field = browser.js("return document.getElementById('season').value");
+    assert_eq!(field.as_str(), Some("auto"));
+}

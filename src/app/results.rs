@@ -340,12 +340,52 @@ pub fn PatternView() -> impl IntoView {
                 <li>{move || with_plan(&|_, p| Some(words::trend_words(&p.trend)))}</li>
                 <li>{move || with_plan(&|_, p| Some(words::demand_words(&p.demand)))}</li>
             </ul>
-            <p class="hint">"To override the season length, type it under Settings."</p>
+            <SeasonChoices/>
             {chart_figure("history-chart", "History, period by period", "history", history, chart::history_summary, chart::draw_history)}
             <div class="chart-pair">
                 {chart_figure("overlay-chart", "Seasonal overlay: one line per year", "seasonal-overlay", overlay, chart::overlay_summary, chart::draw_overlay)}
                 {chart_figure("acf-chart", "Autocorrelation by lag, with the season test's threshold", "autocorrelation", acf, chart::autocorrelation_summary, chart::draw_autocorrelation)}
             </div>
         </section>
+    }
+}
+
+/// One-click season choices beside the verdict: try the rejected candidate anyway, go without
+/// a season, or return to detection. Each sets the Settings field, so the two never disagree.
+#[component]
+fn SeasonChoices() -> impl IntoView {
+    let state = expect_context::<State>();
+    let set = move |value: String| state.form.update(|f| f.season = value);
+    let typed = move || state.form.with(|f| f.season.trim().to_string());
+    let automatic = move || {
+        let t = typed();
+        t.is_empty() || t.eq_ignore_ascii_case("auto")
+    };
+    view! {
+        <p class="hint season-choices" id="season-choices">
+            {move || state.plan.with(|p| {
+                let p = p.as_ref()?.as_ref().ok()?;
+                if !automatic() {
+                    return Some(view! {
+                        <span>{match typed().as_str() {
+                            "1" => "No season, as set under Settings. ".to_string(),
+                            t => format!("Season length {t}, as set under Settings. "),
+                        }}</span>
+                        <button type="button" class="quiet" id="season-auto" on:click=move |_| set("auto".into())>"Detect it again"</button>
+                    }.into_any());
+                }
+                Some(match (p.season.length, p.season.candidate) {
+                    (Some(_), _) => view! {
+                        <span>"Or type another season length under Settings. "</span>
+                        <button type="button" class="quiet" id="season-none" on:click=move |_| set("1".into())>"Forecast without a season"</button>
+                    }.into_any(),
+                    (None, Some(m)) => view! {
+                        <span>{format!("The {m}-period season was not accepted. ")}</span>
+                        <button type="button" class="quiet" id="season-try" on:click=move |_| set(m.to_string())>{format!("Use a {m}-period season anyway")}</button>
+                    }.into_any(),
+                    (None, None) => view! { <span>"To set a season length yourself, type it under Settings."</span> }.into_any(),
+                })
+            })}
+        </p>
     }
 }

@@ -149,10 +149,13 @@ pub fn season_words(v: &SeasonVerdict) -> String {
         (Some(m), _) => format!("Season length {m}, detected."),
         (None, _) => "No season detected.".into(),
     };
-    if v.reason.is_empty() {
+    let reason = v.reason.trim();
+    if reason.is_empty() {
         base
+    } else if reason.ends_with(['.', '!', '?']) {
+        format!("{base} {reason}")
     } else {
-        format!("{base} {}", v.reason)
+        format!("{base} {reason}.")
     }
 }
 
