@@ -24,9 +24,19 @@ pub struct PlanAsk {
     pub settings: PlanSettings,
     /// Label of the ranking row the user picked (`Candidate::label`); `None`: the engine's choice.
     pub picked: Option<String>,
-    /// A deliberate panic in the worker instead of a plan (the page's `#drill=worker-fault`),
-    /// so the browser tests can check that a fault there is caught, reported and recovered.
-    pub fault_drill: bool,
+    /// A deliberate failure instead of a plan (the page's `#drill=worker-fault` and
+    /// `#drill=worker-silent`), so the browser tests can check that it is caught, reported
+    /// and recovered from.
+    pub drill: Option<Drill>,
+}
+
+/// The worker's fault drills.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+pub enum Drill {
+    /// Panic (as a bug would).
+    Panic,
+    /// Never answer (as a worker that did not start would look to the page).
+    Silence,
 }
 
 /// What the Look-ahead and the Error ledger show: one row of the ranking and its plan.
@@ -81,7 +91,7 @@ impl PlanDesk {
     /// Answers one ask (with `compute_ms` 0: the caller times it).
     ///
     /// # Panics
-    /// On purpose, when `ask.fault_drill` is set.
+    /// On purpose, when `ask.drill` is [`Drill::Panic`].
     pub fn answer(&mut self, ask: PlanAsk) -> PlanAnswer {
         self.answer_observed(ask, &mut |_| {})
     }
@@ -92,7 +102,7 @@ impl PlanDesk {
         ask: PlanAsk,
         progress: &mut dyn FnMut(Progress),
     ) -> PlanAnswer {
-        if ask.fault_drill {
+        if ask.drill == Some(Drill::Panic) {
             panic!("fault drill: a deliberate fault to check that the page reports it");
         }
         let reuse = matches!(&self.last, Some((s, p, _)) if *s == ask.series && *p == ask.settings);
@@ -164,7 +174,7 @@ mod glue {
     use gloo_worker::{HandlerId, Worker, WorkerScope};
     use wasm_bindgen::JsCast;
 
-    use super::{PlanAsk, PlanDesk, WorkerNews};
+    use super::{Drill, PlanAsk, PlanDesk, WorkerNews};
 
     /// Progress is sent only once a plan has run this long (milliseconds): a quick plan's
     /// answer comes before any bar could be seen.
@@ -198,6 +208,9 @@ mod glue {
         fn update(&mut self, _scope: &WorkerScope<Self>, _msg: ()) {}
 
         fn received(&mut self, scope: &WorkerScope<Self>, ask: PlanAsk, id: HandlerId) {
+            if ask.drill == Some(Drill::Silence) {
+                return;
+            }
             let t0 = now_ms();
             let ticket = ask.ticket;
             let mut answer = self.desk.answer_observed(ask, &mut |p| {
@@ -243,7 +256,7 @@ mod tests {
             series: seasonal(),
             settings: PlanSettings::default(),
             picked,
-            fault_drill: false,
+            drill: None,
         }
     }
 
@@ -296,7 +309,7 @@ mod tests {
     #[should_panic(expected = "fault drill")]
     fn the_fault_drill_panics_on_purpose() {
         let mut q = ask(1, None);
-        q.fault_drill = true;
+        q.drill = Some(Drill::Panic);
         PlanDesk::new().answer(q);
     }
 

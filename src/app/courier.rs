@@ -33,12 +33,21 @@ struct Inner {
     latest: Option<u64>,
     deliver: Deliver,
     report: Report,
+    /// Page clock (ms) when the worker was last asked or last heard from.
+    last_heard: f64,
 }
 
 /// The page's handle on the worker; cheap to clone.
 #[derive(Clone)]
 pub struct Courier {
     inner: Rc<RefCell<Inner>>,
+}
+
+fn now_ms() -> f64 {
+    web_sys::window()
+        .and_then(|w| w.performance())
+        .map(|p| p.now())
+        .unwrap_or(0.0)
 }
 
 /// The worker's boot module as index.html names it.
@@ -67,6 +76,7 @@ impl Courier {
                 latest: None,
                 deliver: Rc::new(deliver),
                 report: Rc::new(report),
+                last_heard: 0.0,
             })),
         };
         courier.spawn()?;
@@ -106,14 +116,23 @@ impl Courier {
             return;
         }
         inner.in_flight = Some(ask.ticket);
+        inner.last_heard = now_ms();
         if let Some(bridge) = &inner.bridge {
             bridge.send(ask);
         }
     }
 
+    /// How long the worker has been silent while an ask is out (milliseconds); `None` when
+    /// nothing is out. A live worker sends news at least once per candidate method.
+    pub fn silent_for(&self) -> Option<f64> {
+        let inner = self.inner.borrow();
+        inner.in_flight.map(|_| now_ms() - inner.last_heard)
+    }
+
     fn arrived(&self, answer: PlanAnswer) {
         let deliver = {
             let mut inner = self.inner.borrow_mut();
+            inner.last_heard = now_ms();
             if inner.in_flight != Some(answer.ticket) {
                 return;
             }
@@ -121,6 +140,7 @@ impl Courier {
             match inner.waiting.take() {
                 Some(next) => {
                     inner.in_flight = Some(next.ticket);
+                    inner.last_heard = now_ms();
                     if let Some(bridge) = &inner.bridge {
                         bridge.send(next);
                     }
@@ -136,7 +156,8 @@ impl Courier {
 
     fn progressed(&self, ticket: u64, done: usize, total: usize) {
         let report = {
-            let inner = self.inner.borrow();
+            let mut inner = self.inner.borrow_mut();
+            inner.last_heard = now_ms();
             // Only the ask whose answer will be shown (nothing newer waiting).
             if inner.in_flight != Some(ticket) || inner.waiting.is_some() {
                 return;
@@ -153,8 +174,8 @@ impl Courier {
         inner.latest = None;
     }
 
-    /// The worker stopped (its panic reached the page): forget what was in flight and start a
-    /// new worker; the caller says what happened.
+    /// The worker stopped (its panic reached the page, or it fell silent): forget what was in
+    /// flight and start a new worker; the caller says what happened.
     pub fn restart(&self) {
         {
             let mut inner = self.inner.borrow_mut();

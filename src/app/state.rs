@@ -10,11 +10,16 @@ use morrowcast::engine::intake::{self, IntakeReport};
 use morrowcast::engine::plan::{ItemPlan, PlanSettings};
 use morrowcast::engine::series::Series;
 pub use morrowcast::worker::Shown;
-use morrowcast::worker::{PlanAnswer, PlanAsk};
+use morrowcast::worker::{Drill, PlanAnswer, PlanAsk};
 
 use super::browser;
 use super::courier::{Courier, WORKER_FAULT_PREFIX};
 use super::settings::{FieldError, SettingsForm};
+
+/// How long the worker may stay silent while computing before the page says it stopped
+/// (milliseconds; our choice: a live worker sends news after every candidate method, which
+/// takes milliseconds, so 15 s of silence means it is not working).
+const SILENCE_MS: f64 = 15_000.0;
 
 /// Every signal of the page; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
@@ -89,6 +94,7 @@ impl State {
             move |done, total| progress.set(Some((done, total))),
         );
         if let Some(courier) = courier.clone() {
+            let watchdog = courier.clone();
             // A fault in the worker reaches the page as an error event with the worker's
             // message: say so where the plan would be, and start a new worker.
             let listener = window_event_listener(leptos::ev::error, move |e| {
@@ -103,9 +109,27 @@ impl State {
             });
             // The page lives as long as the tab.
             std::mem::forget(listener);
+            // A worker that never answers (it did not start in this browser, or it hangs)
+            // would leave "Working" up for ever: after SILENCE_MS without news, say so.
+            let _ = set_interval_with_handle(
+                move || {
+                    if watchdog.silent_for().is_some_and(|ms| ms > SILENCE_MS) {
+                        watchdog.restart();
+                        plan.set(Some(Err(worker_silent_words())));
+                        shown.set(None);
+                        busy.set(false);
+                        progress.set(None);
+                    }
+                },
+                std::time::Duration::from_secs(2),
+            );
         }
-        // The worker-fault drill spoils the first plan only, so recovery can be seen.
-        let drill_pending = StoredValue::new(browser::drill().as_deref() == Some("worker-fault"));
+        // A worker drill spoils the first plan only, so recovery can be seen.
+        let drill_pending = StoredValue::new(match browser::drill().as_deref() {
+            Some("worker-fault") => Some(Drill::Panic),
+            Some("worker-silent") => Some(Drill::Silence),
+            _ => None,
+        });
         Effect::new(move |_| {
             let settings = settings.get();
             let input = series.get();
@@ -115,14 +139,14 @@ impl State {
                     busy.set(true);
                     progress.set(None);
                     browser::start_measure("morrowcast:plan");
-                    let fault_drill = drill_pending.get_value();
-                    drill_pending.set_value(false);
+                    let drill = drill_pending.get_value();
+                    drill_pending.set_value(None);
                     courier.ask(PlanAsk {
                         ticket: 0,
                         series,
                         settings,
                         picked,
-                        fault_drill,
+                        drill,
                     });
                 }
                 (Some(Ok(_)), None) => {
@@ -191,4 +215,12 @@ fn worker_fault_words(message: &str) -> String {
         "the computation stopped on a fault ({detail}). Your data is kept in the Intake box and a fresh \
          worker has started: change a setting to try again, or reload the page"
     )
+}
+
+/// What the page says when the worker has not answered for [`SILENCE_MS`].
+fn worker_silent_words() -> String {
+    "the computing part of the page has not answered for 15 seconds, so it was restarted. \
+     Your data is kept in the Intake box: change a setting to try again. If this repeats, this \
+     browser may not run module Web Workers (recent Chromium, Edge, Firefox and Safari do)"
+        .to_string()
 }

@@ -3,7 +3,8 @@
 //!
 //! Kept apart from: how faults are caused. The page has two drills for this (src/app/browser.rs
 //! `drill`): `#drill=page-fault` panics in the page after it has drawn, `#drill=worker-fault`
-//! makes the worker panic on its first plan. No input is known to panic; the drills stand in.
+//! makes the worker panic on its first plan, `#drill=worker-silent` makes it never answer it.
+//! No input is known to panic; the drills stand in.
 
 use super::page::{open_at, save_screenshot, wait_for_item, WAIT};
 
@@ -55,6 +56,32 @@ fn a_worker_fault_is_reported_and_the_next_change_computes_again() {
     // The notice for page faults stays hidden: the page itself is fine.
     let hidden = browser.js("return document.getElementById('fault-notice').hidden");
     assert_eq!(hidden, serde_json::json!(true));
+    browser.js("document.getElementById('level-80').click()");
+    wait_for_item(browser, "Seed packets");
+}
+
+/// A worker that never answers (as one that did not start would look) is reported after its
+/// silence limit (15 s, src/app/state.rs), and a fresh worker computes the next change.
+#[test]
+fn a_silent_worker_is_reported_and_replaced() {
+    let Some(page) = open_at((1366, 768), "#drill=worker-silent") else {
+        return;
+    };
+    let browser = &page.browser;
+    let said = browser.wait_for(
+        "the silent worker in the headline",
+        "const p = document.querySelector('#headline .problem'); return p && p.textContent",
+        WAIT,
+    );
+    let said = said.as_str().unwrap_or("");
+    assert!(said.contains("has not answered for 15 seconds"), "{said}");
+    assert!(said.contains("Your data is kept"), "{said}");
+    let busy = browser.js("return document.getElementById('busy').classList.contains('on')");
+    assert_eq!(
+        busy,
+        serde_json::json!(false),
+        "the progress indicator stays up"
+    );
     browser.js("document.getElementById('level-80').click()");
     wait_for_item(browser, "Seed packets");
 }
