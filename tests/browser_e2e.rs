@@ -253,3 +253,47 @@ fn season_choices_switch_the_season_off_and_back() {
     let field = browser.js("return document.getElementById('season').value");
     assert_eq!(field.as_str(), Some("auto"));
 }
+
+/// Three years of a clear 12-month pattern (invented for this check): the season test turns
+/// the season down (its threshold is high on a short history), the page invites a try, and one
+/// click brings the seasonal methods into the ranking.
+#[test]
+fn a_rejected_season_can_be_tried_in_one_click() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    e2e::page::wait_for_item(browser, "Seed packets");
+    let mut text = String::from("month,Rain barrels\n");
+    for t in 0..36 {
+        let (y, m) = (2023 + (11 + t) / 12, (11 + t) % 12 + 1);
+        let v = 100.0
+            + 40.0 * (2.0 * std::f64::consts::PI * t as f64 / 12.0).sin()
+            + ((t * 7919) % 11) as f64
+            - 5.0;
+        text.push_str(&format!("{y}-{m:02},{v:.0}\n"));
+    }
+    e2e::page::paste(browser, &text);
+    e2e::page::wait_for_item(browser, "Rain barrels");
+    let verdict = "return document.getElementById('season-verdict').textContent";
+    assert!(browser
+        .js(verdict)
+        .as_str()
+        .unwrap_or("")
+        .starts_with("No season detected."));
+    let hint = browser.js("return document.getElementById('season-choices').textContent");
+    assert!(
+        hint.as_str()
+            .unwrap_or("")
+            .contains("with only 3 full seasons the test is strict"),
+        "{hint}"
+    );
+    browser.js("document.getElementById('season-try').click()");
+    browser.wait_for(
+        "the plan with the tried season",
+        "return document.getElementById('season-verdict').textContent.startsWith('Season length 12, as you set it.') \
+           && [...document.querySelectorAll('#ranking-table tbody tr')].some(r => r.textContent.includes('Holt-Winters'))",
+        WAIT,
+    );
+    save_screenshot(browser, "season-tried.png");
+}

@@ -51,6 +51,29 @@ fn progress_counts_every_candidate_and_the_plan_is_the_same() {
 }
 
 #[test]
+fn three_years_with_a_season_keep_the_seasonal_methods() {
+    // 36 months, holdout 12: three rolling origins would leave 22 to 24 training periods, too
+    // few for Holt-Winters (two full seasons); the backtest uses fewer origins instead.
+    let s = monthly(seasonal(36).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        season: SeasonChoice::Fixed(12),
+        ..PlanSettings::default()
+    };
+    let p = plan_item(&s, &settings).unwrap();
+    assert_eq!(p.backtest.origins_used, 1);
+    assert!(
+        p.backtest.skipped.is_empty(),
+        "left out: {:?}",
+        p.backtest.skipped
+    );
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .any(|r| r.candidate.key() == "holt_winters_multiplicative"));
+}
+
+#[test]
 fn user_season_override_wins() {
     let s = monthly(seasonal(60).into_iter().map(Some).collect());
     let settings = PlanSettings {

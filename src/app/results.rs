@@ -380,7 +380,7 @@ fn SeasonChoices() -> impl IntoView {
                         <button type="button" class="quiet" id="season-none" on:click=move |_| set("1".into())>"Forecast without a season"</button>
                     }.into_any(),
                     (None, Some(m)) => view! {
-                        <span>{format!("The {m}-period season was not accepted. ")}</span>
+                        <span>{words::rejected_season_hint(m, p.season.full_seasons)}</span>
                         <button type="button" class="quiet" id="season-try" on:click=move |_| set(m.to_string())>{format!("Use a {m}-period season anyway")}</button>
                     }.into_any(),
                     (None, None) => view! { <span>"To set a season length yourself, type it under Settings."</span> }.into_any(),

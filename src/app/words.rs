@@ -87,6 +87,20 @@ pub fn unread_cells_note(count: usize) -> String {
     )
 }
 
+/// Said beside "use it anyway" when the season test turned down a candidate season. With few
+/// full seasons the test's threshold is high (it grows with the autocorrelation at the shorter
+/// lags, so a clear season can still fall short of it).
+pub fn rejected_season_hint(m: usize, full_seasons: usize) -> String {
+    if full_seasons <= 4 {
+        format!(
+            "The {m}-period season was not accepted; with only {full_seasons} full seasons the test \
+             is strict. If this item sells by season, try it and compare the holdout scores. "
+        )
+    } else {
+        format!("The {m}-period season was not accepted. ")
+    }
+}
+
 /// Why the plan's own choice is the combination (empty for a single method).
 pub fn combination_choice(chosen: &Candidate) -> String {
     match chosen {
@@ -233,6 +247,12 @@ mod tests {
             combination_choice(&Candidate::Method(MethodKind::Theta)),
             ""
         );
+    }
+
+    #[test]
+    fn a_rejected_season_on_a_short_history_invites_a_try() {
+        assert!(rejected_season_hint(12, 3).contains("only 3 full seasons"));
+        assert!(!rejected_season_hint(12, 6).contains("full seasons"));
     }
 
     #[test]

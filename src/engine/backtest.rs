@@ -263,8 +263,13 @@ pub fn run_observed(
             holdout: k,
         });
     }
-    // Keep at least three training periods at the earliest origin.
-    let origins = settings.origins.max(1).min(n - k - 2);
+    // Keep at least three training periods at the earliest origin, and with a season two full
+    // seasons where the history allows (seasonal methods need them to start): on a short
+    // history fewer origins beat leaving the seasonal methods out.
+    let mut origins = settings.origins.max(1).min(n - k - 2);
+    if let Some(m) = season.filter(|m| *m > 1 && n - k >= 2 * m) {
+        origins = origins.min(n - k - 2 * m + 1);
+    }
     let train_end = n - k;
     let scale = mase_scale(&history[..train_end], season);
 
