@@ -15,6 +15,24 @@ use serde::{Deserialize, Serialize};
 use crate::engine::plan::{plan_item_observed, Choice, ItemPlan, PlanSettings, Progress};
 use crate::engine::series::Series;
 
+/// How a panic's message in the worker starts, as the page sees it in the error event:
+/// `morrowcast worker, ask 17: panicked at ...`. The ask's ticket lets the page tell a fault of
+/// its current worker from one of a worker it has already replaced.
+pub const FAULT_PREFIX: &str = "morrowcast worker, ask ";
+
+/// The message the worker's panic hook throws for a panic while answering ask `ticket`.
+pub fn fault_message(ticket: u64, panic: &str) -> String {
+    format!("{FAULT_PREFIX}{ticket}: {panic}")
+}
+
+/// The ask and the detail in a worker's fault message (the page's error event may wrap it,
+/// as in "Uncaught Error: morrowcast worker, ask 17: ..."); `None` for any other message.
+pub fn parse_fault(message: &str) -> Option<(u64, &str)> {
+    let rest = &message[message.find(FAULT_PREFIX)? + FAULT_PREFIX.len()..];
+    let (ticket, detail) = rest.split_once(": ")?;
+    Some((ticket.parse().ok()?, detail))
+}
+
 /// One request to the worker.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct PlanAsk {
@@ -166,7 +184,7 @@ fn shown_row(ranked: &ItemPlan, ask: &PlanAsk, progress: &mut dyn FnMut(Progress
 }
 
 #[cfg(target_arch = "wasm32")]
-pub use glue::PlanWorker;
+pub use glue::{answering, PlanWorker};
 
 /// The gloo-worker side (wasm only): one [`PlanDesk`], timed with the worker's clock.
 #[cfg(target_arch = "wasm32")]
@@ -183,6 +201,16 @@ mod glue {
     /// The Web Worker that computes plans (registered by src/bin/morrowcast-worker.rs).
     pub struct PlanWorker {
         desk: PlanDesk,
+    }
+
+    thread_local! {
+        /// The ask being answered, for the panic hook's message.
+        static ANSWERING: std::cell::Cell<u64> = const { std::cell::Cell::new(0) };
+    }
+
+    /// The ticket of the ask the worker is answering (0 before the first).
+    pub fn answering() -> u64 {
+        ANSWERING.with(|a| a.get())
     }
 
     fn now_ms() -> f64 {
@@ -211,6 +239,7 @@ mod glue {
             if ask.drill == Some(Drill::Silence) {
                 return;
             }
+            ANSWERING.with(|a| a.set(ask.ticket));
             let t0 = now_ms();
             let ticket = ask.ticket;
             let mut answer = self.desk.answer_observed(ask, &mut |p| {
@@ -303,6 +332,18 @@ mod tests {
         steps.clear();
         desk.answer_observed(ask(2, None), &mut |p| steps.push(p));
         assert!(steps.is_empty(), "{steps:?}");
+    }
+
+    #[test]
+    fn fault_messages_name_their_ask_and_read_back() {
+        let m = fault_message(17, "panicked at src/x.rs:1:2: boom");
+        assert_eq!(
+            parse_fault(&m),
+            Some((17, "panicked at src/x.rs:1:2: boom"))
+        );
+        let wrapped = format!("Uncaught Error: {m}");
+        assert_eq!(parse_fault(&wrapped).map(|f| f.0), Some(17));
+        assert_eq!(parse_fault("Uncaught TypeError: x is undefined"), None);
     }
 
     #[test]

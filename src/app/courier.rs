@@ -14,12 +14,12 @@ use std::rc::Rc;
 
 use gloo_worker::{Spawnable, WorkerBridge};
 use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
+use wasm_bindgen::prelude::*;
+use wasm_bindgen::JsCast;
 
 /// Where the worker's boot module is named: index.html gets a `<meta name="...">` from
 /// scripts/inline-wasm.sh (its file name carries a hash, so a stale cached copy is never used).
 const WORKER_META: &str = "morrowcast-worker";
-/// The worker's own panic hook starts its message with this (src/bin/morrowcast-worker.rs).
-pub const WORKER_FAULT_PREFIX: &str = "morrowcast worker:";
 
 type Deliver = Rc<dyn Fn(PlanAnswer)>;
 type Report = Rc<dyn Fn(usize, usize)>;
@@ -50,23 +50,101 @@ fn now_ms() -> f64 {
         .unwrap_or(0.0)
 }
 
-/// The worker's boot module as index.html names it.
-fn worker_path() -> Option<String> {
+/// The worker's boot module as index.html names it, as an absolute address.
+fn worker_module() -> Option<String> {
     let doc = web_sys::window()?.document()?;
     let meta = doc
         .query_selector(&format!("meta[name=\"{WORKER_META}\"]"))
         .ok()??;
-    meta.get_attribute("content")
+    let path = meta.get_attribute("content")?;
+    let base = doc.base_uri().ok()??;
+    Some(web_sys::Url::new_with_base(&path, &base).ok()?.href())
+}
+
+/// A `blob:` address of a one-line module that imports the worker's boot module.
+///
+/// Why: a worker started from a page's own file takes its Content-Security-Policy from that
+/// file's HTTP headers, which a static host does not send, so it could connect anywhere. A
+/// worker started from a `blob:` address inherits the page's policy instead (CSP Level 3,
+/// "initialize a worker's policy container"), so `connect-src 'none'` binds it too.
+///
+/// The import is dynamic: Chromium 156 failed to load the static `import "..."` form in a
+/// `blob:` module worker (an error event with no message), while `import()` loads. A failed
+/// import is thrown again outside the promise, so it surfaces as the worker's error.
+fn worker_blob(module: &str) -> Option<String> {
+    worker_blob_source(&format!(
+        "import(\"{}\").catch((e) => setTimeout(() => {{ throw e; }}));",
+        module.replace('"', "%22")
+    ))
+}
+
+/// Whether this browser starts module workers (`new Worker(url, { type: "module" })`): a
+/// browser that does not know the option never reads it, which the getter notices.
+fn module_workers_supported() -> bool {
+    let seen = Rc::new(std::cell::Cell::new(false));
+    let flag = seen.clone();
+    let getter = Closure::<dyn FnMut() -> JsValue>::new(move || {
+        flag.set(true);
+        JsValue::from_str("module")
+    });
+    let options = js_sys::Object::new();
+    let descriptor = js_sys::Object::new();
+    let _ = js_sys::Reflect::set(&descriptor, &"get".into(), getter.as_ref());
+    let _ = js_sys::Reflect::define_property(&options, &"type".into(), &descriptor);
+    // An empty module: nothing runs, nothing is fetched.
+    if let Some(url) = worker_blob_source("") {
+        if let Ok(w) = web_sys::Worker::new_with_options(&url, options.unchecked_ref()) {
+            w.terminate();
+        }
+        let _ = web_sys::Url::revoke_object_url(&url);
+    }
+    seen.get()
+}
+
+fn worker_blob_source(source: &str) -> Option<String> {
+    let parts = js_sys::Array::of1(&JsValue::from_str(source));
+    let options = web_sys::BlobPropertyBag::new();
+    options.set_type("text/javascript");
+    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &options).ok()?;
+    web_sys::Url::create_object_url_with_blob(&blob).ok()
+}
+
+/// Why the page has no worker to compute with.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum NoWorker {
+    /// The page does not name its worker (built without scripts/inline-wasm.sh).
+    NotBuilt,
+    /// This browser cannot start module workers.
+    Unsupported,
+}
+
+impl NoWorker {
+    /// The page's words for it.
+    pub fn words(self) -> &'static str {
+        match self {
+            NoWorker::NotBuilt => {
+                "this copy of the page has no worker to compute with (it was built without scripts/inline-wasm.sh)"
+            }
+            NoWorker::Unsupported => {
+                "this browser cannot run the page's computing part (it needs module Web Workers, which recent Chromium, Edge, Firefox and Safari have). Your data stays in the Intake box"
+            }
+        }
+    }
 }
 
 impl Courier {
     /// Starts the worker; `deliver` gets each answer the page should show, `report` the
-    /// progress (done, total) of the ask it waits for. `None` when the page does not name its
-    /// worker (a build without scripts/inline-wasm.sh).
+    /// progress (done, total) of the ask it waits for.
     pub fn start(
         deliver: impl Fn(PlanAnswer) + 'static,
         report: impl Fn(usize, usize) + 'static,
-    ) -> Option<Courier> {
+    ) -> Result<Courier, NoWorker> {
+        if worker_module().is_none() {
+            return Err(NoWorker::NotBuilt);
+        }
+        if !module_workers_supported() {
+            return Err(NoWorker::Unsupported);
+        }
         let courier = Courier {
             inner: Rc::new(RefCell::new(Inner {
                 bridge: None,
@@ -79,12 +157,12 @@ impl Courier {
                 last_heard: 0.0,
             })),
         };
-        courier.spawn()?;
-        Some(courier)
+        courier.spawn().ok_or(NoWorker::NotBuilt)?;
+        Ok(courier)
     }
 
     fn spawn(&self) -> Option<()> {
-        let path = worker_path()?;
+        let path = worker_blob(&worker_module()?)?;
         let weak = Rc::downgrade(&self.inner);
         let bridge = PlanWorker::spawner()
             .callback(move |news| {
@@ -165,6 +243,11 @@ impl Courier {
             inner.report.clone()
         };
         report(done, total);
+    }
+
+    /// Whether a fault on ask `ticket` concerns the current worker (the ask is the one out).
+    pub fn is_current(&self, ticket: u64) -> bool {
+        self.inner.borrow().in_flight == Some(ticket)
     }
 
     /// Drops what was asked: the page's input has no plan to wait for any more.

@@ -10,10 +10,10 @@ use morrowcast::engine::intake::{self, IntakeReport};
 use morrowcast::engine::plan::{ItemPlan, PlanSettings};
 use morrowcast::engine::series::Series;
 pub use morrowcast::worker::Shown;
-use morrowcast::worker::{Drill, PlanAnswer, PlanAsk};
+use morrowcast::worker::{parse_fault, Drill, PlanAnswer, PlanAsk};
 
 use super::browser;
-use super::courier::{Courier, WORKER_FAULT_PREFIX};
+use super::courier::Courier;
 use super::settings::{FieldError, SettingsForm};
 
 /// How long the worker may stay silent while computing before the page says it stopped
@@ -93,18 +93,23 @@ impl State {
             },
             move |done, total| progress.set(Some((done, total))),
         );
-        if let Some(courier) = courier.clone() {
+        if let Ok(courier) = courier.clone() {
             let watchdog = courier.clone();
             // A fault in the worker reaches the page as an error event with the worker's
             // message: say so where the plan would be, and start a new worker.
+            // A fault of a worker already replaced (it named an older ask) changes nothing.
             let listener = window_event_listener(leptos::ev::error, move |e| {
                 let message = e.message();
-                if message.contains(WORKER_FAULT_PREFIX) {
-                    e.prevent_default();
+                let Some((ticket, detail)) = parse_fault(&message) else {
+                    return;
+                };
+                e.prevent_default();
+                if courier.is_current(ticket) {
                     courier.restart();
-                    plan.set(Some(Err(worker_fault_words(&message))));
+                    plan.set(Some(Err(worker_fault_words(detail))));
                     shown.set(None);
                     busy.set(false);
+                    progress.set(None);
                 }
             });
             // The page lives as long as the tab.
@@ -135,7 +140,7 @@ impl State {
             let input = series.get();
             let picked = picked.get();
             match (input, &courier) {
-                (Some(Ok(series)), Some(courier)) => {
+                (Some(Ok(series)), Ok(courier)) => {
                     busy.set(true);
                     progress.set(None);
                     browser::start_measure("morrowcast:plan");
@@ -149,13 +154,9 @@ impl State {
                         drill,
                     });
                 }
-                (Some(Ok(_)), None) => {
-                    plan.set(Some(Err(
-                        "this copy of the page has no worker to compute with (it was built without scripts/inline-wasm.sh)".into(),
-                    )));
-                }
+                (Some(Ok(_)), Err(why)) => plan.set(Some(Err(why.words().into()))),
                 (Some(Err(e)), _) => {
-                    if let Some(c) = &courier {
+                    if let Ok(c) = &courier {
                         c.forget();
                     }
                     plan.set(Some(Err(e)));
@@ -164,7 +165,7 @@ impl State {
                     busy.set(false);
                 }
                 (None, _) => {
-                    if let Some(c) = &courier {
+                    if let Ok(c) = &courier {
                         c.forget();
                     }
                     plan.set(None);
@@ -205,15 +206,11 @@ impl State {
 }
 
 /// What the page says when the worker stopped on a fault.
-fn worker_fault_words(message: &str) -> String {
-    let detail = message
-        .split(WORKER_FAULT_PREFIX)
-        .nth(1)
-        .unwrap_or(message)
-        .trim();
+fn worker_fault_words(detail: &str) -> String {
     format!(
-        "the computation stopped on a fault ({detail}). Your data is kept in the Intake box and a fresh \
-         worker has started: change a setting to try again, or reload the page"
+        "the computation stopped on a fault ({}). Your data is kept in the Intake box and a fresh \
+         worker has started: change a setting to try again, or reload the page",
+        detail.trim()
     )
 }
 

@@ -6,10 +6,18 @@
 #[cfg(target_arch = "wasm32")]
 fn main() {
     use gloo_worker::Registrable;
-    // A panic in the worker is thrown as a JavaScript error with its message, so the page
-    // (listening for the worker's errors) can say what happened and start a new worker.
+    use wasm_bindgen::JsCast;
+    // A panic in the worker is thrown as a JavaScript error naming the ask and the panic, so
+    // the page (listening for its workers' errors) can say what happened and start a new
+    // worker. The worker first closes itself: after a panic its state cannot be trusted, and
+    // the page has no handle to end it (gloo-worker keeps the Worker object to itself).
     std::panic::set_hook(Box::new(|info| {
-        wasm_bindgen::throw_str(&format!("morrowcast worker: {info}"));
+        let message =
+            morrowcast::worker::fault_message(morrowcast::worker::answering(), &info.to_string());
+        if let Ok(scope) = js_sys::global().dyn_into::<web_sys::DedicatedWorkerGlobalScope>() {
+            scope.close();
+        }
+        wasm_bindgen::throw_str(&message);
     }));
     morrowcast::worker::PlanWorker::registrar().register();
 }

@@ -85,3 +85,33 @@ fn a_silent_worker_is_reported_and_replaced() {
     browser.js("document.getElementById('level-80').click()");
     wait_for_item(browser, "Seed packets");
 }
+
+/// The page's Content-Security-Policy binds its worker: a worker started as the page starts its
+/// own (a `blob:` module importing the worker's boot module, src/app/courier.rs) may load the
+/// page's files but not connect anywhere, not even to the page's own host.
+#[test]
+fn the_page_policy_binds_its_worker() {
+    let Some(page) = super::page::open((800, 600)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    browser.js(
+        r#"
+        window.__worker = [];
+        const meta = document.querySelector('meta[name="morrowcast-worker"]').content;
+        const boot = new URL(meta, document.baseURI).href;
+        const src = 'import("' + boot + '").then(() => self.postMessage("imported"), e => self.postMessage("import failed " + e));'
+          + 'fetch("' + boot + '").then(() => self.postMessage("fetch allowed"), () => self.postMessage("fetch blocked"));';
+        const url = URL.createObjectURL(new Blob([src], { type: 'text/javascript' }));
+        const w = new Worker(url, { type: 'module' });
+        w.onmessage = (e) => { if (typeof e.data === 'string') window.__worker.push(e.data); };
+        "#,
+    );
+    let seen = browser.wait_for(
+        "the test worker's two reports",
+        "return window.__worker.length >= 2 && window.__worker.slice().sort()",
+        WAIT,
+    );
+    assert_eq!(seen, serde_json::json!(["fetch blocked", "imported"]));
+}

@@ -192,7 +192,12 @@ impl Browser {
             }
             if Instant::now() > deadline {
                 let fault = self.js("const f = document.getElementById('fault-detail'); return f ? f.textContent : ''");
-                panic!("timed out waiting for {what} (fault notice: {fault})");
+                let headline = self.js(
+                    "const h = document.getElementById('headline'); return h ? h.textContent : ''",
+                );
+                panic!(
+                    "timed out waiting for {what} (fault notice: {fault}; headline: {headline})"
+                );
             }
             std::thread::sleep(Duration::from_millis(100));
         }
