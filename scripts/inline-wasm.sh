@@ -21,7 +21,8 @@ worker_glue="$dir/morrowcast-worker.js"
   echo "inline-wasm: the worker's files (morrowcast-worker.js, _bg.wasm) are missing" >&2
   exit 1
 }
-app_wasm=$(ls "$dir"/*_bg.wasm | grep -v '/morrowcast-worker_bg.wasm$' | head -n 1)
+app_wasm=$(ls "$dir"/*_bg.wasm | grep -v '/morrowcast-worker_bg.wasm$' | head -n 1 || true)
+[ -n "$app_wasm" ] || { echo "inline-wasm: the page's .wasm is missing from $dir" >&2; exit 1; }
 app_glue=$(basename "${app_wasm%_bg.wasm}.js")
 [ -f "$dir/$app_glue" ] || { echo "inline-wasm: no glue $app_glue next to $app_wasm" >&2; exit 1; }
 

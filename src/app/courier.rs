@@ -201,10 +201,16 @@ impl Courier {
     }
 
     /// How long the worker has been silent while an ask is out (milliseconds); `None` when
-    /// nothing is out. A live worker sends news at least once per candidate method.
+    /// nothing is out. A live worker, once it has worked 100 ms on a plan, sends news after
+    /// every candidate method.
     pub fn silent_for(&self) -> Option<f64> {
         let inner = self.inner.borrow();
-        inner.in_flight.map(|_| now_ms() - inner.last_heard)
+        // An ask nobody waits for any more (the input was emptied) is not the page's worry.
+        let awaited = inner.latest.is_some() || inner.waiting.is_some();
+        inner
+            .in_flight
+            .filter(|_| awaited)
+            .map(|_| now_ms() - inner.last_heard)
     }
 
     fn arrived(&self, answer: PlanAnswer) {

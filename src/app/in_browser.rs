@@ -160,18 +160,33 @@ fn the_look_ahead_draws_into_a_canvas() {
     );
 }
 
+/// The fault notice exactly as index.html holds it (from its opening tag to the noscript).
+fn notice_markup() -> &'static str {
+    let page = include_str!("../../index.html");
+    let start = page
+        .find("<div id=\"fault-notice\"")
+        .expect("index.html holds the fault notice");
+    let end = page[start..]
+        .find("<noscript>")
+        .expect("the noscript note follows the fault notice");
+    &page[start..start + end]
+}
+
 #[wasm_bindgen_test]
 fn the_fault_notice_shows_the_message_and_says_the_data_is_kept() {
-    // The notice is static in index.html; the test page builds the same two elements.
-    let notice = document().create_element("div").unwrap();
-    notice.set_id("fault-notice");
-    notice.set_attribute("hidden", "").unwrap();
-    notice.set_inner_html(
-        "<p>Your data is still in the Intake box.</p><code id=\"fault-detail\"></code>",
-    );
-    document().body().unwrap().append_child(&notice).unwrap();
+    // The notice is static in index.html (so it exists even when the app does not start).
+    let holder = host();
+    holder.set_inner_html(notice_markup());
+    let notice = document().get_element_by_id("fault-notice").unwrap();
+    assert!(notice.has_attribute("hidden"), "the notice starts hidden");
     browser::show_fault("panicked at src/somewhere.rs: a test fault");
     assert!(!notice.has_attribute("hidden"));
+    let text = notice.text_content().unwrap_or_default();
+    assert!(
+        text.contains("Your data is still in the Intake box"),
+        "{text}"
+    );
+    assert!(text.contains("Reload the page"), "{text}");
     let detail = document().get_element_by_id("fault-detail").unwrap();
     assert_eq!(
         detail.text_content().as_deref(),

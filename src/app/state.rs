@@ -21,6 +21,10 @@ use super::settings::{FieldError, SettingsForm};
 /// takes milliseconds, so 15 s of silence means it is not working).
 const SILENCE_MS: f64 = 15_000.0;
 
+/// The worker sends progress news once a plan has run this long (milliseconds; our choice: the
+/// busy indicator shows after 200 ms, so news before 100 ms would not be seen).
+const NEWS_AFTER_MS: f64 = 100.0;
+
 /// Every signal of the page; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
 pub struct State {
@@ -129,6 +133,7 @@ impl State {
                 std::time::Duration::from_secs(2),
             );
         }
+        let eager_news = browser::drill().as_deref() == Some("eager-news");
         // A worker drill spoils the first plan only, so recovery can be seen.
         let drill_pending = StoredValue::new(match browser::drill().as_deref() {
             Some("worker-fault") => Some(Drill::Panic),
@@ -152,6 +157,7 @@ impl State {
                         settings,
                         picked,
                         drill,
+                        news_after_ms: if eager_news { 0.0 } else { NEWS_AFTER_MS },
                     });
                 }
                 (Some(Ok(_)), Err(why)) => plan.set(Some(Err(why.words().into()))),

@@ -35,7 +35,13 @@ for (const el of document.querySelectorAll('body *')) {
   if (st.visibility === 'hidden' || st.display === 'none' || Number(st.opacity) === 0) continue;
   const r = el.getBoundingClientRect();
   if (r.width === 0 || r.height === 0) continue;
-  const fg = rgb(st.color).slice(0, 3), bg = background(el);
+  // Text colour and the opacity of the element and its ancestors blend the text into its
+  // background: contrast is of what is drawn.
+  let alpha = rgb(st.color).length === 4 ? rgb(st.color)[3] : 1;
+  for (let e = el; e; e = e.parentElement) alpha *= Number(getComputedStyle(e).opacity);
+  if (alpha === 0) continue;
+  const bg = background(el);
+  const fg = rgb(st.color).slice(0, 3).map((c, i) => c * alpha + bg[i] * (1 - alpha));
   const [a, b] = [lum(fg), lum(bg)];
   const ratio = (Math.max(a, b) + 0.05) / (Math.min(a, b) + 0.05);
   const size = parseFloat(st.fontSize), bold = Number(st.fontWeight) >= 700;
@@ -68,16 +74,23 @@ return [...document.querySelectorAll('input, select, textarea, button, a[href]')
   .map(el => el.outerHTML.slice(0, 80));
 "#;
 
-/// Focus each kind of control and read its focus ring.
+/// Focus each kind of control and compare its look focused and unfocused: the ring (outline
+/// of at least 2 px, or a box shadow) must appear with the focus.
 const FOCUS_RINGS: &str = r#"
+const ring = el => {
+  const st = getComputedStyle(el);
+  return [st.outlineStyle !== 'none' && parseFloat(st.outlineWidth) >= 2, st.boxShadow];
+};
 const out = [];
 for (const sel of ['#intake-text', '#load-demo', '#horizon', '#rank-by', '#level-90', '#ranking-table button.row-pick']) {
   const el = document.querySelector(sel);
   if (!el) { out.push([sel, 'missing']); continue; }
+  if (document.activeElement) document.activeElement.blur();
+  const [outlineBefore, shadowBefore] = ring(el);
   el.focus();
-  const st = getComputedStyle(el);
-  const ring = st.outlineStyle !== 'none' && parseFloat(st.outlineWidth) >= 2;
-  if (!ring && st.boxShadow === 'none') out.push([sel, st.outlineStyle + ' ' + st.outlineWidth]);
+  const [outlineAfter, shadowAfter] = ring(el);
+  const shows = (outlineAfter && !outlineBefore) || (shadowAfter !== 'none' && shadowAfter !== shadowBefore);
+  if (document.activeElement !== el || !shows) out.push([sel, outlineAfter, shadowAfter]);
 }
 document.activeElement.blur();
 return out;
