@@ -12,7 +12,9 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::engine::plan::{plan_item_observed, Choice, ItemPlan, PlanSettings, Progress};
+use crate::engine::plan::{
+    plan_item_observed, plan_item_reusing, Choice, ItemPlan, PlanSettings, Progress,
+};
 use crate::engine::series::Series;
 
 /// How a panic's message in the worker starts, as the page sees it in the error event:
@@ -98,9 +100,8 @@ pub struct PlanAnswer {
     pub compute_ms: f64,
 }
 
-/// The worker's state: the last ranked plan, so picking a row of the same ranking does not
-/// rank again. The picked row's own plan is still a whole `plan_item` run with that candidate
-/// named (the engine has no refit-from-a-ranking yet): a pick costs one plan, not two.
+/// The worker's state: the last ranked plan, so picking a row of the same ranking refits only
+/// that row's candidate (the engine reuses the ranking: `plan_item_reusing`).
 #[derive(Debug, Default)]
 pub struct PlanDesk {
     last: Option<(Series, PlanSettings, Result<ItemPlan, String>)>,
@@ -138,7 +139,7 @@ impl PlanDesk {
             unreachable!("set just above")
         };
         let shown = match ranked {
-            Ok(plan) => Some(shown_row(plan, &ask, progress)),
+            Ok(plan) => Some(shown_row(plan, &ask)),
             Err(_) => None,
         };
         PlanAnswer {
@@ -152,7 +153,7 @@ impl PlanDesk {
 }
 
 /// The row the user picked with its refit plan, or the engine's choice.
-fn shown_row(ranked: &ItemPlan, ask: &PlanAsk, progress: &mut dyn FnMut(Progress)) -> Shown {
+fn shown_row(ranked: &ItemPlan, ask: &PlanAsk) -> Shown {
     let ranking = &ranked.backtest.ranking;
     // The row the engine chose (not always the top one: its choice rule may prefer the
     // combination).
@@ -180,7 +181,7 @@ fn shown_row(ranked: &ItemPlan, ask: &PlanAsk, progress: &mut dyn FnMut(Progress
         choice: Choice::Named(candidate.key().to_string()),
         ..ask.settings.clone()
     };
-    match plan_item_observed(&ask.series, &only, progress) {
+    match plan_item_reusing(&ask.series, &only, ranked, &ask.settings) {
         Ok(plan) if &plan.chosen == candidate => Shown { row, plan },
         // The refit chose another candidate: show the engine's choice rather than mislabel
         // the row.

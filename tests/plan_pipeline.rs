@@ -4,7 +4,8 @@
 use morrowcast::engine::bands::{BandMethod, BandSource, Level};
 use morrowcast::engine::calendar::Period;
 use morrowcast::engine::plan::{
-    plan_item, plan_item_observed, Choice, PlanError, PlanSettings, Progress, SeasonChoice,
+    plan_item, plan_item_observed, plan_item_reusing, Choice, PlanError, PlanSettings, Progress,
+    SeasonChoice,
 };
 use morrowcast::engine::series::Series;
 
@@ -71,6 +72,32 @@ fn three_years_with_a_season_keep_the_seasonal_methods() {
         .ranking
         .iter()
         .any(|r| r.candidate.key() == "holt_winters_multiplicative"));
+}
+
+#[test]
+fn reusing_a_ranking_gives_the_same_plan_as_ranking_again() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let auto = PlanSettings::default();
+    let ranked = plan_item(&s, &auto).unwrap();
+    let theta = PlanSettings {
+        choice: Choice::Named("theta".into()),
+        ..auto.clone()
+    };
+    let fresh = plan_item(&s, &theta).unwrap();
+    assert_eq!(
+        plan_item_reusing(&s, &theta, &ranked, &auto).unwrap(),
+        fresh
+    );
+    assert_eq!(fresh.chosen.key(), "theta");
+    // Other settings than the choice: the earlier ranking does not apply and is not used.
+    let shorter = PlanSettings {
+        holdout: Some(6),
+        ..theta.clone()
+    };
+    assert_eq!(
+        plan_item_reusing(&s, &shorter, &ranked, &auto).unwrap(),
+        plan_item(&s, &shorter).unwrap()
+    );
 }
 
 #[test]

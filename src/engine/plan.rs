@@ -212,6 +212,36 @@ pub fn plan_item_observed(
     settings: &PlanSettings,
     progress: &mut dyn FnMut(Progress),
 ) -> Result<ItemPlan, PlanError> {
+    plan_inner(series, settings, progress, None)
+}
+
+/// [`plan_item`] with another choice of candidate, reusing the ranking of `earlier` (the plan
+/// of this series under `earlier_settings`) instead of backtesting again. The ranking is
+/// reused only when it is the one these settings would make: the same history and settings
+/// that differ at most in [`PlanSettings::choice`]; otherwise the plan is made afresh.
+pub fn plan_item_reusing(
+    series: &Series,
+    settings: &PlanSettings,
+    earlier: &ItemPlan,
+    earlier_settings: &PlanSettings,
+) -> Result<ItemPlan, PlanError> {
+    let same_ranking = PlanSettings {
+        choice: Choice::Auto,
+        ..settings.clone()
+    } == PlanSettings {
+        choice: Choice::Auto,
+        ..earlier_settings.clone()
+    } && earlier.history == series.interpolated();
+    let reuse = same_ranking.then_some(&earlier.backtest);
+    plan_inner(series, settings, &mut |_| {}, reuse)
+}
+
+fn plan_inner(
+    series: &Series,
+    settings: &PlanSettings,
+    progress: &mut dyn FnMut(Progress),
+    reuse: Option<&Backtest>,
+) -> Result<ItemPlan, PlanError> {
     let name = series.name().to_string();
     let history = series.interpolated();
     let n = history.len();
@@ -262,13 +292,16 @@ pub fn plan_item_observed(
         combine: settings.combine,
     };
     let steps = bt_settings.candidates.len() + 1;
-    let bt = backtest::run_observed(&history, m, &bt_settings, &mut |done, _| {
-        progress(Progress { done, total: steps })
-    })
-    .map_err(|source| PlanError::Backtest {
-        name: name.clone(),
-        source,
-    })?;
+    let bt = match reuse {
+        Some(bt) => bt.clone(),
+        None => backtest::run_observed(&history, m, &bt_settings, &mut |done, _| {
+            progress(Progress { done, total: steps })
+        })
+        .map_err(|source| PlanError::Backtest {
+            name: name.clone(),
+            source,
+        })?,
+    };
     for s in &bt.skipped {
         notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
     }
