@@ -202,7 +202,7 @@ impl Courier {
 
     /// How long the worker has been silent while an ask is out (milliseconds); `None` when
     /// nothing is out. A live worker, once it has worked 100 ms on a plan, sends news after
-    /// every candidate method.
+    /// every candidate method and every rolling origin of the band.
     pub fn silent_for(&self) -> Option<f64> {
         let inner = self.inner.borrow();
         // An ask nobody waits for any more (the input was emptied) is not the page's worry.

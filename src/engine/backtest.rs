@@ -422,9 +422,35 @@ pub fn rolling_errors(
     max_origins: usize,
     cache: Option<&Backtest>,
 ) -> Vec<Vec<f64>> {
+    rolling_errors_observed(
+        candidate,
+        history,
+        season,
+        horizon,
+        min_train,
+        max_origins,
+        cache,
+        &mut || {},
+    )
+}
+
+/// [`rolling_errors`], calling `tick` after each origin (so a front end hears that the work
+/// goes on).
+#[allow(clippy::too_many_arguments)]
+pub fn rolling_errors_observed(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    min_train: usize,
+    max_origins: usize,
+    cache: Option<&Backtest>,
+    tick: &mut dyn FnMut(),
+) -> Vec<Vec<f64>> {
     let n = history.len();
     let mut errors = vec![Vec::new(); horizon];
     for end in band_origins(n, horizon, min_train, max_origins) {
+        tick();
         let steps = horizon.min(n - end);
         if let Ok(f) = forecast_cached(candidate, &history[..end], season, steps, cache) {
             for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {

@@ -194,7 +194,8 @@ pub fn applicable_methods(
 }
 
 /// How far a plan has come: `done` of `total` steps (one per candidate method in the backtest,
-/// then one for the chosen method's refit and band).
+/// then one for the chosen method's refit and band, which is reported again at each of the
+/// band's rolling origins, so a listener hears that the work goes on).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub struct Progress {
     pub done: usize,
@@ -346,7 +347,11 @@ fn plan_inner(
         }
         (BandMethod::HorizonAware, None) => {
             let min_train = (2 * m.unwrap_or(1)).max(MIN_PERIODS);
-            let errors = backtest::rolling_errors(
+            let last_step = Progress {
+                done: steps - 1,
+                total: steps,
+            };
+            let errors = backtest::rolling_errors_observed(
                 &chosen,
                 &history,
                 m,
@@ -354,6 +359,7 @@ fn plan_inner(
                 min_train,
                 BAND_ORIGINS,
                 Some(&bt),
+                &mut || progress(last_step),
             );
             if errors.iter().all(Vec::is_empty) {
                 // Too short for any rolling origin: the MAD rule is the honest fallback.
