@@ -413,31 +413,9 @@ pub fn band_origins(
 
 /// h-step errors e = F - D of a candidate from the rolling origins of [`band_origins`], one list
 /// per horizon step, for empirical bands. Forecasts the backtest `cache` already made are reused.
-pub fn rolling_errors(
-    candidate: &Candidate,
-    history: &[f64],
-    season: Option<usize>,
-    horizon: usize,
-    min_train: usize,
-    max_origins: usize,
-    cache: Option<&Backtest>,
-) -> Vec<Vec<f64>> {
-    rolling_errors_observed(
-        candidate,
-        history,
-        season,
-        horizon,
-        min_train,
-        max_origins,
-        cache,
-        &mut || {},
-    )
-}
-
-/// [`rolling_errors`], calling `tick` after each origin (so a front end hears that the work
-/// goes on).
+/// `tick` is called at each origin, so a front end hears that the work goes on.
 #[allow(clippy::too_many_arguments)]
-pub fn rolling_errors_observed(
+pub fn rolling_errors(
     candidate: &Candidate,
     history: &[f64],
     season: Option<usize>,
@@ -594,8 +572,8 @@ mod tests {
             .iter()
             .find(|s| matches!(s.candidate, Candidate::Combination(_)))
             .unwrap();
-        let fresh = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, None);
-        let cached = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, Some(&bt));
+        let fresh = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, None, &mut || {});
+        let cached = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, Some(&bt), &mut || {});
         assert_eq!(fresh, cached);
         assert_eq!(
             bt.origin_forecast(MethodKind::Ses, 34, 6).map(<[f64]>::len),

@@ -351,7 +351,7 @@ fn plan_inner(
                 done: steps - 1,
                 total: steps,
             };
-            let errors = backtest::rolling_errors_observed(
+            let errors = backtest::rolling_errors(
                 &chosen,
                 &history,
                 m,
