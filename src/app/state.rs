@@ -84,6 +84,14 @@ impl State {
         let busy = RwSignal::new(false);
         let progress = RwSignal::new(None::<(usize, usize)>);
         let picked = RwSignal::new(None::<String>);
+        // What every failure does: the message where the plan would be, nothing left busy.
+        let fail = move |message: String| {
+            plan.set(Some(Err(message)));
+            shown.set(None);
+            planned.set(None);
+            busy.set(false);
+            progress.set(None);
+        };
         let courier = Courier::start(
             move |answer: PlanAnswer| {
                 // The round trip from ask to answer, as a performance measure.
@@ -110,10 +118,7 @@ impl State {
                 e.prevent_default();
                 if courier.is_current(ticket) {
                     courier.restart();
-                    plan.set(Some(Err(worker_fault_words(detail))));
-                    shown.set(None);
-                    busy.set(false);
-                    progress.set(None);
+                    fail(worker_fault_words(detail));
                 }
             });
             // The page lives as long as the tab.
@@ -124,10 +129,7 @@ impl State {
                 move || {
                     if watchdog.silent_for().is_some_and(|ms| ms > SILENCE_MS) {
                         watchdog.restart();
-                        plan.set(Some(Err(worker_silent_words())));
-                        shown.set(None);
-                        busy.set(false);
-                        progress.set(None);
+                        fail(worker_silent_words());
                     }
                 },
                 std::time::Duration::from_secs(2),
@@ -160,15 +162,12 @@ impl State {
                         news_after_ms: if eager_news { 0.0 } else { NEWS_AFTER_MS },
                     });
                 }
-                (Some(Ok(_)), Err(why)) => plan.set(Some(Err(why.words().into()))),
+                (Some(Ok(_)), Err(why)) => fail(why.words().into()),
                 (Some(Err(e)), _) => {
                     if let Ok(c) = &courier {
                         c.forget();
                     }
-                    plan.set(Some(Err(e)));
-                    shown.set(None);
-                    planned.set(None);
-                    busy.set(false);
+                    fail(e);
                 }
                 (None, _) => {
                     if let Ok(c) = &courier {
@@ -222,8 +221,10 @@ fn worker_fault_words(detail: &str) -> String {
 
 /// What the page says when the worker has not answered for [`SILENCE_MS`].
 fn worker_silent_words() -> String {
-    "the computing part of the page has not answered for 15 seconds, so it was restarted. \
-     Your data is kept in the Intake box: change a setting to try again. If this repeats, this \
-     browser may not run module Web Workers (recent Chromium, Edge, Firefox and Safari do)"
-        .to_string()
+    format!(
+        "the computing part of the page has not answered for {:.0} seconds, so it was restarted. \
+         Your data is kept in the Intake box: change a setting to try again. If this repeats, \
+         this browser may not run module Web Workers (recent Chromium, Edge, Firefox and Safari do)",
+        SILENCE_MS / 1000.0
+    )
 }
