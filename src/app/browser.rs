@@ -63,6 +63,14 @@ pub fn keep_text(text: &str, source: &str) {
     }
 }
 
+/// Milliseconds from the page's clock.
+pub fn now_ms() -> f64 {
+    web_sys::window()
+        .and_then(|w| w.performance())
+        .map(|p| p.now())
+        .unwrap_or(0.0)
+}
+
 /// Runs `work` between two marks and records it as the performance measure `name` (seen in
 /// the browser's performance timeline; the end-to-end tests read them to say where a
 /// recompute's time goes).

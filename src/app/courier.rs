@@ -14,6 +14,8 @@ use std::rc::Rc;
 
 use gloo_worker::{Spawnable, WorkerBridge};
 use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
+
+use super::browser::now_ms;
 use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 
@@ -41,13 +43,6 @@ struct Inner {
 #[derive(Clone)]
 pub struct Courier {
     inner: Rc<RefCell<Inner>>,
-}
-
-fn now_ms() -> f64 {
-    web_sys::window()
-        .and_then(|w| w.performance())
-        .map(|p| p.now())
-        .unwrap_or(0.0)
 }
 
 /// The worker's boot module as index.html names it, as an absolute address.
