@@ -133,13 +133,18 @@ fn click_link(href: &str, file_name: &str) -> Option<()> {
     Some(())
 }
 
-/// Saves text as a file through a local blob link.
-pub fn download_text(file_name: &str, mime: &str, body: &str) -> Option<()> {
+/// A local `blob:` address holding `body` as `mime` (revoke it with `Url::revoke_object_url`).
+pub fn blob_url(body: &str, mime: &str) -> Option<String> {
     let parts = js_sys::Array::of1(&wasm_bindgen::JsValue::from_str(body));
     let options = BlobPropertyBag::new();
     options.set_type(mime);
     let blob = Blob::new_with_str_sequence_and_options(&parts, &options).ok()?;
-    let url = Url::create_object_url_with_blob(&blob).ok()?;
+    Url::create_object_url_with_blob(&blob).ok()
+}
+
+/// Saves text as a file through a local blob link.
+pub fn download_text(file_name: &str, mime: &str, body: &str) -> Option<()> {
+    let url = blob_url(body, mime)?;
     click_link(&url, file_name);
     let _ = Url::revoke_object_url(&url);
     Some(())

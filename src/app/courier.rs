@@ -15,7 +15,7 @@ use std::rc::Rc;
 use gloo_worker::{Spawnable, WorkerBridge};
 use morrowcast::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
 
-use super::browser::now_ms;
+use super::browser::{blob_url, now_ms};
 use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 
@@ -37,6 +37,17 @@ struct Inner {
     report: Report,
     /// Page clock (ms) when the worker was last asked or last heard from.
     last_heard: f64,
+}
+
+impl Inner {
+    /// Sends `ask` to the worker as the one in flight.
+    fn send_now(&mut self, ask: PlanAsk) {
+        self.in_flight = Some(ask.ticket);
+        self.last_heard = now_ms();
+        if let Some(bridge) = &self.bridge {
+            bridge.send(ask);
+        }
+    }
 }
 
 /// The page's handle on the worker; cheap to clone.
@@ -67,10 +78,13 @@ fn worker_module() -> Option<String> {
 /// `blob:` module worker (an error event with no message), while `import()` loads. A failed
 /// import is thrown again outside the promise, so it surfaces as the worker's error.
 fn worker_blob(module: &str) -> Option<String> {
-    worker_blob_source(&format!(
-        "import(\"{}\").catch((e) => setTimeout(() => {{ throw e; }}));",
-        module.replace('"', "%22")
-    ))
+    blob_url(
+        &format!(
+            "import(\"{}\").catch((e) => setTimeout(() => {{ throw e; }}));",
+            module.replace('"', "%22")
+        ),
+        "text/javascript",
+    )
 }
 
 /// Whether this browser starts module workers (`new Worker(url, { type: "module" })`): a
@@ -87,21 +101,13 @@ fn module_workers_supported() -> bool {
     let _ = js_sys::Reflect::set(&descriptor, &"get".into(), getter.as_ref());
     let _ = js_sys::Reflect::define_property(&options, &"type".into(), &descriptor);
     // An empty module: nothing runs, nothing is fetched.
-    if let Some(url) = worker_blob_source("") {
+    if let Some(url) = blob_url("", "text/javascript") {
         if let Ok(w) = web_sys::Worker::new_with_options(&url, options.unchecked_ref()) {
             w.terminate();
         }
         let _ = web_sys::Url::revoke_object_url(&url);
     }
     seen.get()
-}
-
-fn worker_blob_source(source: &str) -> Option<String> {
-    let parts = js_sys::Array::of1(&JsValue::from_str(source));
-    let options = web_sys::BlobPropertyBag::new();
-    options.set_type("text/javascript");
-    let blob = web_sys::Blob::new_with_str_sequence_and_options(&parts, &options).ok()?;
-    web_sys::Url::create_object_url_with_blob(&blob).ok()
 }
 
 /// Why the page has no worker to compute with.
@@ -188,11 +194,7 @@ impl Courier {
             inner.waiting = Some(ask);
             return;
         }
-        inner.in_flight = Some(ask.ticket);
-        inner.last_heard = now_ms();
-        if let Some(bridge) = &inner.bridge {
-            bridge.send(ask);
-        }
+        inner.send_now(ask);
     }
 
     /// How long the worker has been silent while an ask is out (milliseconds); `None` when
@@ -218,11 +220,7 @@ impl Courier {
             inner.in_flight = None;
             match inner.waiting.take() {
                 Some(next) => {
-                    inner.in_flight = Some(next.ticket);
-                    inner.last_heard = now_ms();
-                    if let Some(bridge) = &inner.bridge {
-                        bridge.send(next);
-                    }
+                    inner.send_now(next);
                     return;
                 }
                 None if inner.latest == Some(answer.ticket) => inner.deliver.clone(),
