@@ -9,7 +9,7 @@ use plotters::prelude::*;
 
 use super::axis::{draw_legend, frame, value_range, FONT};
 use super::palette::{ALERT, BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
-use super::{clear, round_for_people, Area, ChartError};
+use super::{clear, filled_gap_marker, filled_gaps_words, round_for_people, Area, ChartError};
 
 /// One future period: point forecast and band.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -167,7 +167,7 @@ where
                 data.filled
                     .iter()
                     .filter_map(|i| history.get(*i))
-                    .map(|p| Circle::new(*p, 4, ALERT.stroke_width(2))),
+                    .map(|p| filled_gap_marker(*p)),
             )?
             .label("filled gap")
             .legend(|(x, y)| Circle::new((x + 9, y), 4, ALERT.stroke_width(2)));
@@ -263,12 +263,7 @@ pub fn look_ahead_summary(data: &LookAhead) -> String {
         round_for_people(data.history[n - 1]),
         data.unit
     );
-    if !data.filled.is_empty() {
-        s.push_str(&format!(
-            " {} missing period(s) filled by straight-line interpolation (hollow markers).",
-            data.filled.len()
-        ));
-    }
+    s.push_str(&filled_gaps_words(data.filled.len()));
     if let Some(start) = data.holdout_start.filter(|s| *s < n) {
         s.push_str(&format!(
             " The holdout runs from {} ({} periods).",

@@ -67,6 +67,21 @@ where
     Ok(())
 }
 
+/// The hollow marker of a gap filled by interpolation (not demand anyone saw), the same on
+/// every chart of the history.
+pub(crate) fn filled_gap_marker(at: (f64, f64)) -> plotters::element::Circle<(f64, f64), i32> {
+    use plotters::style::Color;
+    plotters::element::Circle::new(at, 4, palette::ALERT.stroke_width(2))
+}
+
+/// The summaries' sentence on filled gaps (empty when there are none).
+pub(crate) fn filled_gaps_words(count: usize) -> String {
+    if count == 0 {
+        return String::new();
+    }
+    format!(" {count} missing period(s) filled by straight-line interpolation (hollow markers).")
+}
+
 /// A number for people: no decimals from 100 up, one below, two below 1 (charts and summaries).
 pub fn round_for_people(v: f64) -> String {
     if !v.is_finite() {

@@ -10,8 +10,8 @@ use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
 use super::axis::{draw_legend, frame, value_range};
-use super::palette::{year_colour, ALERT, DEMAND, FITTED, MARKER};
-use super::{clear, round_for_people, Area, ChartError};
+use super::palette::{year_colour, DEMAND, FITTED, MARKER};
+use super::{clear, filled_gap_marker, filled_gaps_words, round_for_people, Area, ChartError};
 
 /// The history chart's data.
 #[derive(Clone, Debug, PartialEq)]
@@ -48,7 +48,7 @@ where
     )))?;
     chart.draw_series(points.iter().enumerate().map(|(i, p)| {
         if data.filled.contains(&i) {
-            Circle::new(*p, 4, ALERT.stroke_width(2))
+            filled_gap_marker(*p)
         } else {
             Circle::new(*p, 3, DEMAND.filled())
         }
@@ -76,12 +76,7 @@ pub fn history_summary(data: &History) -> String {
         round_for_people(hi),
         data.unit
     );
-    if !data.filled.is_empty() {
-        s.push_str(&format!(
-            " {} missing period(s) filled by straight-line interpolation (hollow markers).",
-            data.filled.len()
-        ));
-    }
+    s.push_str(&filled_gaps_words(data.filled.len()));
     s
 }
 
