@@ -129,15 +129,15 @@ impl PlanDesk {
         if ask.drill == Some(Drill::Panic) {
             panic!("fault drill: a deliberate fault to check that the page reports it");
         }
-        let reuse = matches!(&self.last, Some((s, p, _)) if *s == ask.series && *p == ask.settings);
-        if !reuse {
-            let ranked =
-                plan_item_observed(&ask.series, &ask.settings, progress).map_err(|e| e.to_string());
-            self.last = Some((ask.series.clone(), ask.settings.clone(), ranked));
-        }
-        let Some((_, _, ranked)) = &self.last else {
-            unreachable!("set just above")
+        let last = match self.last.take() {
+            Some(last) if last.0 == ask.series && last.1 == ask.settings => last,
+            _ => {
+                let ranked = plan_item_observed(&ask.series, &ask.settings, progress)
+                    .map_err(|e| e.to_string());
+                (ask.series.clone(), ask.settings.clone(), ranked)
+            }
         };
+        let (_, _, ranked) = self.last.insert(last);
         let shown = match ranked {
             Ok(plan) => Some(shown_row(plan, &ask)),
             Err(_) => None,
