@@ -108,7 +108,11 @@ pub fn Headline() -> impl IntoView {
         </div>
         <section class="headline" aria-live="polite" id="headline">
             {move || state.plan.with(|p| match p {
-                None => view! { <p class="lead">"Load data in Intake to see its forecast here."</p> }.into_any(),
+                // No plan yet: either there is no item, or its first plan is on its way.
+                None => view! { <p class="lead">{move || state.series.with(|s| match s {
+                    Some(Ok(s)) => format!("Working out the forecast for {}: it appears here in a moment.", s.name()),
+                    _ => "Load data in Intake to see its forecast here.".to_string(),
+                })}</p> }.into_any(),
                 Some(Err(e)) => view! { <p class="lead problem" role="alert">{format!("This item cannot be forecast yet: {e}.")}</p> }.into_any(),
                 Some(Ok(plan)) => {
                     let method = state.shown.with(|s| s.as_ref().map(|s| s.plan.chosen.label()).unwrap_or_default());
