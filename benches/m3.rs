@@ -15,11 +15,11 @@
 use std::collections::BTreeMap;
 use std::time::Instant;
 
-use morrowcast::engine::calendar::Period;
-use morrowcast::engine::methods::{self, MethodKind};
-use morrowcast::engine::patterns;
-use morrowcast::engine::plan::{self, PlanSettings};
-use morrowcast::engine::series::Series;
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::methods::{self, MethodKind};
+use morrowcast_engine::patterns;
+use morrowcast_engine::plan::{self, PlanSettings};
+use morrowcast_engine::series::Series;
 
 struct M3Series {
     id: String,

@@ -12,9 +12,9 @@
 use std::fmt::Write;
 use std::time::Instant;
 
-use morrowcast::engine::calendar::Period;
-use morrowcast::engine::plan::{self, PlanSettings};
-use morrowcast::engine::series::Series;
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::plan::{self, PlanSettings};
+use morrowcast_engine::series::Series;
 
 /// SplitMix64 (Steele, Lea & Flood 2014): a small, well-known seeded generator.
 struct SplitMix(u64);
@@ -96,7 +96,7 @@ fn main() {
 
     // The same with the MAD-rule band, to show what the empirical band's rolling origins cost.
     let mad_settings = PlanSettings {
-        band: morrowcast::engine::bands::BandMethod::MadRule,
+        band: morrowcast_engine::bands::BandMethod::MadRule,
         ..PlanSettings::default()
     };
     let mut times = Vec::new();

@@ -11,7 +11,7 @@ cd "$(dirname "$0")/.."
 
 if [ "${1:-}" = "--cli" ]; then
   shift
-  cargo build --release --locked --bin morrowcast
+  cargo build --release --locked -p morrowcast-cli
   ./target/release/morrowcast demo | ./target/release/morrowcast forecast - "$@"
   exit 0
 fi

@@ -19,14 +19,17 @@ ensure_chromium
 say "cargo fmt --check"
 cargo fmt --all -- --check
 say "cargo clippy, native (warnings are errors)"
-cargo clippy --all-targets --locked -- -D warnings
+cargo clippy --workspace --all-targets --locked -- -D warnings
+say "cargo clippy, the engine alone as a caller gets it (no serde, no internals) and for wasm32"
+cargo clippy -p morrowcast-engine --locked -- -D warnings
+cargo clippy -p morrowcast-engine --locked --target wasm32-unknown-unknown -- -D warnings
 say "cargo clippy, browser build (warnings are errors)"
-cargo clippy --locked --target wasm32-unknown-unknown --lib --bin morrowcast-app --bin morrowcast-worker -- -D warnings
-cargo clippy --locked --target wasm32-unknown-unknown --bin morrowcast-app --profile test -- -D warnings
+cargo clippy --locked --target wasm32-unknown-unknown -p morrowcast-app --lib --bins -- -D warnings
+cargo clippy --locked --target wasm32-unknown-unknown -p morrowcast-app --lib --profile test -- -D warnings
 say "building the app (trunk, release) into dist/"
 rm -rf dist
 trunk --skip-version-check build --release
 say "cargo test (the browser tests drive headless Chromium against dist/)"
-MORROWCAST_REQUIRE_DIST=1 cargo test --locked --lib --bins --tests
+MORROWCAST_REQUIRE_DIST=1 cargo test --locked --workspace
 say "the page's pieces in headless Chromium (wasm-bindgen-test)"
-CHROMEDRIVER=/usr/bin/chromedriver cargo test --locked --target wasm32-unknown-unknown --bin morrowcast-app
+CHROMEDRIVER=/usr/bin/chromedriver cargo test --locked --target wasm32-unknown-unknown -p morrowcast-app --lib

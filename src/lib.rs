@@ -1,11 +1,15 @@
-//! Morrowcast: demand forecasting for small businesses and planners.
+//! Morrowcast in the browser: the page, its charts and the Web Worker that computes plans.
 //!
-//! The crate has two layers. [`engine`] is the whole computation (intake, patterns, methods,
-//! backtest, bands) in pure Rust with no I/O and no browser types. [`wire`] is the one place that
-//! turns engine results into JSON, the command line's contract. [`worker`] is the browser's
-//! Web Worker side: it carries engine values between the page and the worker (bincode, not a
-//! contract) and computes plans there.
+//! Kept apart from: the computation (the engine, crates/engine) and the command line
+//! (crates/cli). Three parts, cut by responsibility:
+//! - [`page`]: the Leptos page (client-side), its state and its browser glue; its pure parts
+//!   (settings form, words, exports, chart data) build and are tested natively;
+//! - [`chart`]: drawings generic over plotters' `DrawingBackend`, each with a text summary;
+//! - [`worker`]: what crosses between page and worker, the worker's logic, and the ask queue of
+//!   the page's side, all pure; the gloo-worker glue is wasm only.
+//!
+//! Arrows: page -> chart, page -> worker, and all three -> the engine; nothing points back.
 
-pub mod engine;
-pub mod wire;
+pub mod chart;
+pub mod page;
 pub mod worker;

@@ -1,16 +1,10 @@
 //! The browser app's entry point: mounts the page (wasm) or says how to build it (native).
 //!
-//! Kept apart from: everything it mounts. The page lives in [`app`], the charts in [`chart`].
-
-// Natively only the pure parts build (and are tested); nothing calls them outside the tests.
-#[cfg_attr(not(target_arch = "wasm32"), allow(dead_code, unused_imports))]
-mod app;
-#[cfg_attr(not(target_arch = "wasm32"), allow(dead_code, unused_imports))]
-mod chart;
+//! Kept apart from: everything it mounts (the library of this package, src/lib.rs).
 
 #[cfg(target_arch = "wasm32")]
 fn main() {
-    app::start();
+    morrowcast_app::page::start();
 }
 
 #[cfg(not(target_arch = "wasm32"))]

@@ -1,6 +1,6 @@
 //! The page's Web Worker (wasm): registers the plan worker and waits for asks.
 //!
-//! Kept apart from: everything it registers ([`morrowcast::worker`]). Natively it only says what
+//! Kept apart from: everything it registers ([`crate::worker`]). Natively it only says what
 //! it is, like the app's own entry point.
 
 #[cfg(target_arch = "wasm32")]
@@ -12,14 +12,16 @@ fn main() {
     // worker. The worker first closes itself: after a panic its state cannot be trusted, and
     // the page has no handle to end it (gloo-worker keeps the Worker object to itself).
     std::panic::set_hook(Box::new(|info| {
-        let message =
-            morrowcast::worker::fault_message(morrowcast::worker::answering(), &info.to_string());
+        let message = morrowcast_app::worker::fault_message(
+            morrowcast_app::worker::answering(),
+            &info.to_string(),
+        );
         if let Ok(scope) = js_sys::global().dyn_into::<web_sys::DedicatedWorkerGlobalScope>() {
             scope.close();
         }
         wasm_bindgen::throw_str(&message);
     }));
-    morrowcast::worker::PlanWorker::registrar().register();
+    morrowcast_app::worker::PlanWorker::registrar().register();
 }
 
 #[cfg(not(target_arch = "wasm32"))]

@@ -1,7 +1,7 @@
 //! The page against the command line on the same text: a pasted table of two items, a dropped
 //! file, and the forecast CSV the page saves, each compared with `morrowcast forecast --json`.
 //!
-//! Kept apart from: the demo tests (tests/browser_e2e.rs). The data is invented for these tests
+//! Kept apart from: the demo tests (tests/e2e/demo.rs). The data is invented for these tests
 //! (two items of 36 months); the reference is the engine itself run natively, so the check is
 //! that the page computes, rounds, shows and exports what the engine does.
 

@@ -1,12 +1,11 @@
 //! What every browser test needs: the built app (dist/), the browser tools, one page opened on
 //! the static server, screenshots, and the command line's own answer on the same text.
 //!
-//! Kept apart from: the assertions (tests/browser_e2e.rs and its sibling modules here). The
+//! Kept apart from: the assertions (demo.rs and the sibling modules here). The
 //! browser tests take turns (one Chromium at a time): the machine has 2 cores, and the
 //! recompute measurement needs a quiet page.
 
 use std::path::{Path, PathBuf};
-use std::process::Command;
 use std::sync::{Mutex, MutexGuard};
 use std::time::Duration;
 
@@ -136,28 +135,15 @@ pub fn forecast_table(browser: &Browser) -> Vec<Vec<String>> {
         .collect()
 }
 
-/// `morrowcast forecast FILE --json --item ITEM` on `text` (the native command line, built by
-/// cargo for this test): the item's plan object.
+/// `morrowcast forecast - --json --item ITEM` on `text` (the command line in-process): the
+/// item's plan object.
 pub fn engine_plan(text: &str, item: &str) -> Value {
-    let file = std::env::temp_dir().join(format!(
-        "morrowcast-e2e-{}-{}.csv",
-        std::process::id(),
-        item.replace(' ', "-")
-    ));
-    std::fs::write(&file, text).unwrap();
-    let out = Command::new(env!("CARGO_BIN_EXE_morrowcast"))
-        .arg("forecast")
-        .arg(&file)
-        .args(["--item", item, "--json"])
-        .output()
-        .unwrap();
-    let _ = std::fs::remove_file(&file);
-    assert!(
-        out.status.success(),
-        "morrowcast forecast failed: {}",
-        String::from_utf8_lossy(&out.stderr)
+    let out = crate::support::cli(
+        &["forecast", "-", "--item", item, "--json"],
+        text.as_bytes(),
     );
-    let json: Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(out.code, 0, "morrowcast forecast failed: {}", out.stderr);
+    let json = out.json();
     let plan = json["items"]
         .as_array()
         .and_then(|items| items.iter().find(|p| p["name"] == item))

@@ -9,9 +9,9 @@ use super::page::{open_at, paste, wait_for_item};
 /// Ten years of daily demand with a weekly pattern (made up for this test).
 fn daily_history() -> String {
     let mut text = String::from("day,Trellis ties\n");
-    let start = morrowcast::engine::calendar::days_from_civil(2016, 1, 1);
+    let start = morrowcast_engine::calendar::days_from_civil(2016, 1, 1);
     for t in 0..3650i64 {
-        let (y, m, d) = morrowcast::engine::calendar::civil_from_days(start + t);
+        let (y, m, d) = morrowcast_engine::calendar::civil_from_days(start + t);
         let weekly = 8.0 * (2.0 * std::f64::consts::PI * t as f64 / 7.0).sin();
         let v = 40.0 + 0.01 * t as f64 + weekly + ((t * 7919) % 13 - 6) as f64;
         text.push_str(&format!("{y:04}-{m:02}-{d:02},{v:.0}\n"));

@@ -1,0 +1,196 @@
+//! Readable text output: the intake report and one item's plan as aligned tables.
+
+use std::fmt::Write;
+
+use morrowcast_engine::intake::IntakeReport;
+use morrowcast_engine::plan::ItemPlan;
+
+/// Text from the input made safe for a terminal: control characters (escape sequences, bells,
+/// carriage returns, line breaks inside a quoted cell) and the characters that reorder
+/// displayed text (bidirectional overrides and isolates) are shown as escapes such as `\u{1b}`,
+/// so a name in a file cannot move the cursor, recolour the terminal or hide other text.
+pub fn clean(text: &str) -> String {
+    let mut s = String::with_capacity(text.len());
+    for c in text.chars() {
+        let reorders = matches!(c, '\u{202a}'..='\u{202e}' | '\u{2066}'..='\u{2069}');
+        if c.is_control() || reorders {
+            s.push_str(&format!("\\u{{{:x}}}", u32::from(c)));
+        } else {
+            s.push(c);
+        }
+    }
+    s
+}
+
+/// A name from the input in quotes, made safe for a terminal.
+pub fn quoted(name: &str) -> String {
+    format!("\"{}\"", clean(name))
+}
+
+/// Shortens a label to `width` characters, marking the cut with "...".
+fn fit_width(label: &str, width: usize) -> String {
+    if label.chars().count() <= width {
+        label.to_string()
+    } else {
+        let kept: String = label.chars().take(width.saturating_sub(3)).collect();
+        format!("{kept}...")
+    }
+}
+
+fn opt(v: Option<f64>, decimals: usize) -> String {
+    v.map_or_else(|| "n/a".to_string(), |x| format!("{x:.decimals$}"))
+}
+
+/// The intake report in plain words.
+pub fn intake_report(r: &IntakeReport) -> String {
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "delimiter: {}   decimal mark: {}   layout: {}   frequency: {}",
+        r.delimiter.as_str(),
+        r.decimal.as_str(),
+        r.layout.as_str(),
+        r.frequency.as_str()
+    );
+    if let Some(d) = &r.date_format {
+        let _ = writeln!(s, "periods read as: {d}");
+    }
+    let _ = writeln!(
+        s,
+        "items: {}   gaps filled: {}",
+        r.items.len(),
+        r.gaps_filled
+    );
+    for item in &r.items {
+        let first = item
+            .periods
+            .first()
+            .map(ToString::to_string)
+            .unwrap_or_default();
+        let last = item
+            .periods
+            .last()
+            .map(ToString::to_string)
+            .unwrap_or_default();
+        let _ = writeln!(
+            s,
+            "  {}: {} periods, {} to {}",
+            clean(&item.name),
+            item.values.len(),
+            first,
+            last
+        );
+    }
+    for w in &r.warnings {
+        let _ = writeln!(s, "warning: {}", clean(w));
+    }
+    for e in &r.errors {
+        let _ = writeln!(
+            s,
+            "error: row {}, column {}, found {}: {}",
+            e.row,
+            quoted(&e.column),
+            quoted(&e.text),
+            clean(&e.message)
+        );
+    }
+    s
+}
+
+/// One item's plan: patterns, Backtest ranking, forecast with band, Error ledger.
+pub fn plan(p: &ItemPlan) -> String {
+    let mut s = String::new();
+    let _ = writeln!(s, "\n== {} ==", clean(&p.name));
+    let _ = writeln!(
+        s,
+        "season length: {} ({})",
+        p.season.length.unwrap_or(1),
+        p.season.reason
+    );
+    let _ = writeln!(
+        s,
+        "trend: {} (Mann-Kendall z {:.2}, p {:.4})",
+        p.trend.direction.as_str(),
+        p.trend.z,
+        p.trend.p_value
+    );
+    let _ = writeln!(
+        s,
+        "demand class: {} (ADI {:.2}, CV² {:.2})",
+        p.demand.class.as_str(),
+        p.demand.adi,
+        p.demand.cv2
+    );
+    for n in &p.notes {
+        let _ = writeln!(s, "note: {}", clean(n));
+    }
+    let _ = writeln!(
+        s,
+        "\nBacktest ranking by {} ({} origin(s), holdout {} periods)",
+        p.backtest.rank_by.key(),
+        p.backtest.origins_used,
+        p.backtest.holdout_demand.len()
+    );
+    let _ = writeln!(
+        s,
+        "  {:<44} {:>9} {:>11} {:>11} {:>7}",
+        "method", "MAPE %", "RMSE", "bias", "MASE"
+    );
+    for r in &p.backtest.ranking {
+        let _ = writeln!(
+            s,
+            "  {:<44} {:>9} {:>11.2} {:>11.2} {:>7}",
+            fit_width(&r.candidate.label(), 44),
+            opt(r.measures.mape, 2),
+            r.measures.rmse,
+            r.measures.bias,
+            opt(r.measures.mase, 3)
+        );
+    }
+    let _ = writeln!(s, "\nchosen: {}", p.chosen.label());
+    let _ = writeln!(
+        s,
+        "forecast with {}% band ({}):",
+        p.level.percent(),
+        p.band.key()
+    );
+    let _ = writeln!(
+        s,
+        "  {:<10} {:>11} {:>11} {:>11}",
+        "period", "value", "low", "high"
+    );
+    for f in &p.forecast {
+        let _ = writeln!(
+            s,
+            "  {:<10} {:>11.2} {:>11.2} {:>11.2}",
+            f.period.to_string(),
+            f.band.value,
+            f.band.low,
+            f.band.high
+        );
+    }
+    let _ = writeln!(s, "\nError ledger (error = forecast - demand):");
+    let _ = writeln!(
+        s,
+        "  {:<10} {:>9} {:>9} {:>9} {:>8} {:>9} {:>8} {:>9} {:>7}",
+        "period", "demand", "forecast", "error", "pct %", "MAD", "MAPE %", "bias", "TS"
+    );
+    for e in &p.ledger {
+        let r = &e.row;
+        let mark = if r.out_of_limits { " !" } else { "" };
+        let _ = writeln!(
+            s,
+            "  {:<10} {:>9.2} {:>9.2} {:>9.2} {:>8} {:>9.2} {:>8} {:>9.2} {:>7}{mark}",
+            e.period.to_string(),
+            r.demand,
+            r.forecast,
+            r.error,
+            opt(r.pct_error, 1),
+            r.mad,
+            opt(r.mape, 1),
+            r.bias,
+            opt(r.tracking_signal, 2)
+        );
+    }
+    s
+}

@@ -1,0 +1,596 @@
+//! Backtest: fit each candidate on the training part, forecast the holdout, score and rank.
+//!
+//! Kept apart from: pattern detection and the final forecast ([`crate::plan`] decides
+//! the season and refits the winner). This module owns the holdout rules, the rolling origins,
+//! the ranking metric and the combination candidate.
+//!
+//! Evaluation (Tashman 2000, "Out-of-sample tests of forecasting accuracy", IJF 16:437-450): with
+//! holdout length K and R origins, origin j (j = 0..R) trains on y_1..y_{n-K-j} and forecasts the
+//! next K periods. Errors of all origins are pooled into the ranking measures; origin 0 (the last
+//! K periods) is the one shown in the Error ledger. R = 1 is a single fixed holdout.
+
+use std::fmt;
+
+use crate::accuracy::{self, ledger, mase_scale, LedgerRow, Measures};
+use crate::methods::{self, MethodError, MethodKind};
+
+/// Number of best single methods averaged by the combination candidate.
+pub const COMBINATION_SIZE: usize = 3;
+
+/// The metric that orders the Backtest ranking.
+///
+/// Default: MASE (Hyndman & Koehler 2006). It is scale-free, so it compares across items, and it
+/// stays defined when demand has zero periods, where MAPE divides by zero.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum RankBy {
+    Mape,
+    Rmse,
+    /// Absolute value of the bias (sum of errors): closest to zero first.
+    Bias,
+    #[default]
+    Mase,
+}
+
+impl RankBy {
+    /// "mape", "rmse", "bias" or "mase".
+    pub fn key(self) -> &'static str {
+        match self {
+            RankBy::Mape => "mape",
+            RankBy::Rmse => "rmse",
+            RankBy::Bias => "bias",
+            RankBy::Mase => "mase",
+        }
+    }
+    pub fn from_key(key: &str) -> Option<RankBy> {
+        match key {
+            "mape" => Some(RankBy::Mape),
+            "rmse" => Some(RankBy::Rmse),
+            "bias" => Some(RankBy::Bias),
+            "mase" => Some(RankBy::Mase),
+            _ => None,
+        }
+    }
+    /// The score to minimise; `None` when the measure is not available (sorted last).
+    pub fn score(self, m: &Measures) -> Option<f64> {
+        match self {
+            RankBy::Mape => m.mape,
+            RankBy::Rmse => Some(m.rmse),
+            RankBy::Bias => Some(m.bias.abs()),
+            RankBy::Mase => m.mase,
+        }
+    }
+}
+
+/// A candidate in the ranking: one method, or the equal-weight combination of the best ones.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum Candidate {
+    Method(MethodKind),
+    /// Plain mean of the members' forecasts. Equal weights: estimated weights rarely beat them
+    /// out of sample (the "forecast combination puzzle", Smith & Wallis 2009, Oxford Bulletin of
+    /// Economics and Statistics 71:331-355).
+    Combination(Vec<MethodKind>),
+}
+
+impl Candidate {
+    /// Machine name: the method key, or "combination".
+    pub fn key(&self) -> &'static str {
+        match self {
+            Candidate::Method(k) => k.key(),
+            Candidate::Combination(_) => "combination",
+        }
+    }
+    /// Name for people, e.g. "Combination of Theta, Damped trend, SBA".
+    pub fn label(&self) -> String {
+        match self {
+            Candidate::Method(k) => k.label().to_string(),
+            Candidate::Combination(members) => {
+                let names: Vec<&str> = members.iter().map(|m| m.label()).collect();
+                format!("Combination of {}", names.join(" + "))
+            }
+        }
+    }
+}
+
+/// Forecasts `horizon` steps after `history` with a candidate. A combination fails when any
+/// member fails.
+pub fn forecast_with(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> Result<Vec<f64>, MethodError> {
+    forecast_cached(candidate, history, season, horizon, None)
+}
+
+/// [`forecast_with`], taking a method's forecast from the backtest's origins when it fitted the
+/// same training part there (the fit is deterministic, so the numbers are the same).
+fn forecast_cached(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    cache: Option<&Backtest>,
+) -> Result<Vec<f64>, MethodError> {
+    let one = |kind: MethodKind| -> Result<Vec<f64>, MethodError> {
+        if let Some(f) = cache.and_then(|bt| bt.origin_forecast(kind, history.len(), horizon)) {
+            return Ok(f.to_vec());
+        }
+        Ok(methods::fit(kind, history, season, horizon)?
+            .forecast()
+            .to_vec())
+    };
+    match candidate {
+        Candidate::Method(kind) => one(*kind),
+        Candidate::Combination(members) => {
+            let mut sum = vec![0.0; horizon];
+            for kind in members {
+                for (s, v) in sum.iter_mut().zip(one(*kind)?) {
+                    *s += v;
+                }
+            }
+            let k = members.len().max(1) as f64;
+            Ok(sum.into_iter().map(|s| s / k).collect())
+        }
+    }
+}
+
+/// Why a backtest could not run.
+#[derive(Clone, Debug, PartialEq)]
+pub enum BacktestError {
+    /// The history is too short to hold out the requested periods and still train.
+    TooShort { length: usize, holdout: usize },
+    /// Every candidate failed on this history.
+    NoCandidate,
+}
+
+impl fmt::Display for BacktestError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BacktestError::TooShort { length, holdout } => write!(
+                f,
+                "{length} periods are too few to hold out {holdout}: give at least {} periods or a shorter holdout",
+                holdout + 3
+            ),
+            BacktestError::NoCandidate => write!(f, "no method could be fitted to this item's history"),
+        }
+    }
+}
+
+impl std::error::Error for BacktestError {}
+
+/// The default holdout length: the last full season (the accepted season length, else the
+/// calendar's), at least one period and at most a third of the data; 1/5 of the data when no
+/// season is known.
+pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
+    let wanted = season.filter(|m| *m >= 2).unwrap_or((length / 5).max(1));
+    wanted.clamp(1, (length / 3).max(1))
+}
+
+/// What one candidate did in the backtest.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct Scored {
+    pub candidate: Candidate,
+    /// Measures pooled over all origins (what the ranking orders by); `bias` is the sum of
+    /// errors over one holdout, averaged over the origins, so it reads like the Error ledger's
+    /// final bias.
+    pub measures: Measures,
+    /// Forecasts of the last K periods from origin 0 (aligned with [`Backtest::holdout_demand`]).
+    pub holdout_forecast: Vec<f64>,
+}
+
+impl Scored {
+    /// The Error ledger of origin 0.
+    pub fn ledger(&self, holdout_demand: &[f64], limit: f64) -> Vec<LedgerRow> {
+        ledger(&self.holdout_forecast, holdout_demand, limit)
+    }
+}
+
+/// A candidate that could not be scored, with the reason for the page to show.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct Skipped {
+    pub candidate: Candidate,
+    pub reason: String,
+}
+
+/// Backtest settings.
+#[derive(Clone, Debug, PartialEq)]
+pub struct BacktestSettings {
+    /// Holdout length K.
+    pub holdout: usize,
+    /// Number of rolling origins R (at least 1).
+    pub origins: usize,
+    pub rank_by: RankBy,
+    /// Methods to try.
+    pub candidates: Vec<MethodKind>,
+    /// Whether to add the combination of the best [`COMBINATION_SIZE`] methods.
+    pub combine: bool,
+}
+
+/// The ranked outcome.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct Backtest {
+    /// Best first by the ranking metric.
+    pub ranking: Vec<Scored>,
+    pub skipped: Vec<Skipped>,
+    /// The last K demands.
+    pub holdout_demand: Vec<f64>,
+    /// Origins actually used (fewer than asked when the history is short).
+    pub origins_used: usize,
+    pub rank_by: RankBy,
+    /// Each scored method's forecasts by origin: (method, training length, forecast).
+    origin_forecasts: Vec<(MethodKind, usize, Vec<f64>)>,
+}
+
+impl Backtest {
+    /// The first `steps` forecasts of `kind` trained on the first `train_length` periods, when
+    /// the backtest made them.
+    pub fn origin_forecast(
+        &self,
+        kind: MethodKind,
+        train_length: usize,
+        steps: usize,
+    ) -> Option<&[f64]> {
+        self.origin_forecasts
+            .iter()
+            .find(|(k, end, f)| *k == kind && *end == train_length && f.len() >= steps)
+            .map(|(_, _, f)| &f[..steps])
+    }
+}
+
+/// Runs the backtest of `settings.candidates` on `history` with the accepted `season`.
+pub fn run(
+    history: &[f64],
+    season: Option<usize>,
+    settings: &BacktestSettings,
+) -> Result<Backtest, BacktestError> {
+    run_observed(history, season, settings, &mut |_, _| {})
+}
+
+/// [`run`], calling `progress(done, total)` after each candidate method has been fitted at
+/// every origin (`total` = the number of candidates), so a front end can show how far it is.
+pub fn run_observed(
+    history: &[f64],
+    season: Option<usize>,
+    settings: &BacktestSettings,
+    progress: &mut dyn FnMut(usize, usize),
+) -> Result<Backtest, BacktestError> {
+    let n = history.len();
+    let k = settings.holdout.max(1);
+    if n < k + 3 {
+        return Err(BacktestError::TooShort {
+            length: n,
+            holdout: k,
+        });
+    }
+    // Keep at least three training periods at the earliest origin, and with a season two full
+    // seasons where the history allows (seasonal methods need them to start): on a short
+    // history fewer origins beat leaving the seasonal methods out.
+    let mut origins = settings.origins.max(1).min(n - k - 2);
+    if let Some(m) = season.filter(|m| *m > 1 && n - k >= 2 * m) {
+        origins = origins.min(n - k - 2 * m + 1);
+    }
+    let train_end = n - k;
+    let scale = mase_scale(&history[..train_end], season);
+
+    let mut scored = Vec::new();
+    let mut skipped = Vec::new();
+    let mut per_origin: Vec<(MethodKind, Vec<Vec<f64>>)> = Vec::new();
+    let total = settings.candidates.len();
+    'methods: for (done, &kind) in settings.candidates.iter().enumerate() {
+        progress(done, total);
+        let mut forecasts_by_origin = Vec::with_capacity(origins);
+        for j in 0..origins {
+            let end = train_end - j;
+            match methods::fit(kind, &history[..end], season, k) {
+                Ok(f) => forecasts_by_origin.push(f.forecast().to_vec()),
+                Err(e) => {
+                    skipped.push(Skipped {
+                        candidate: Candidate::Method(kind),
+                        reason: e.to_string(),
+                    });
+                    continue 'methods;
+                }
+            }
+        }
+        per_origin.push((kind, forecasts_by_origin));
+    }
+    progress(total, total);
+
+    let score = |forecasts_by_origin: &[Vec<f64>]| -> Option<Measures> {
+        let mut f_all = Vec::with_capacity(origins * k);
+        let mut d_all = Vec::with_capacity(origins * k);
+        for (j, f) in forecasts_by_origin.iter().enumerate() {
+            let end = train_end - j;
+            f_all.extend_from_slice(f);
+            d_all.extend_from_slice(&history[end..end + k]);
+        }
+        accuracy::measures(&f_all, &d_all, scale).ok().map(|mut m| {
+            // Bias is a sum over one holdout; with several origins report the average holdout's.
+            m.bias /= forecasts_by_origin.len().max(1) as f64;
+            m
+        })
+    };
+    for (kind, fbo) in &per_origin {
+        if let Some(measures) = score(fbo) {
+            scored.push(Scored {
+                candidate: Candidate::Method(*kind),
+                measures,
+                holdout_forecast: fbo[0].clone(),
+            });
+        }
+    }
+    if scored.is_empty() {
+        return Err(BacktestError::NoCandidate);
+    }
+    sort_ranking(&mut scored, settings.rank_by);
+
+    if settings.combine && scored.len() >= 2 {
+        let members: Vec<MethodKind> = scored
+            .iter()
+            .take(COMBINATION_SIZE)
+            .filter_map(|s| match s.candidate {
+                Candidate::Method(kind) => Some(kind),
+                Candidate::Combination(_) => None,
+            })
+            .collect();
+        let mut combined = vec![vec![0.0; k]; origins];
+        for member in &members {
+            if let Some((_, fbo)) = per_origin.iter().find(|(kind, _)| kind == member) {
+                for (c, f) in combined.iter_mut().zip(fbo) {
+                    for (cv, fv) in c.iter_mut().zip(f) {
+                        *cv += fv / members.len() as f64;
+                    }
+                }
+            }
+        }
+        if let Some(measures) = score(&combined) {
+            scored.push(Scored {
+                candidate: Candidate::Combination(members),
+                measures,
+                holdout_forecast: combined[0].clone(),
+            });
+            sort_ranking(&mut scored, settings.rank_by);
+        }
+    }
+
+    Ok(Backtest {
+        ranking: scored,
+        skipped,
+        holdout_demand: history[train_end..].to_vec(),
+        origins_used: origins,
+        rank_by: settings.rank_by,
+        origin_forecasts: per_origin
+            .into_iter()
+            .flat_map(|(kind, fbo)| {
+                fbo.into_iter()
+                    .enumerate()
+                    .map(move |(j, f)| (kind, train_end - j, f))
+            })
+            .collect(),
+    })
+}
+
+/// Sorts best first; unavailable scores last; ties keep the candidate order (simpler first).
+fn sort_ranking(scored: &mut [Scored], rank_by: RankBy) {
+    scored.sort_by(
+        |a, b| match (rank_by.score(&a.measures), rank_by.score(&b.measures)) {
+            (Some(x), Some(y)) => x.total_cmp(&y),
+            (Some(_), None) => std::cmp::Ordering::Less,
+            (None, Some(_)) => std::cmp::Ordering::Greater,
+            (None, None) => a.measures.rmse.total_cmp(&b.measures.rmse),
+        },
+    );
+}
+
+/// The training ends of the rolling origins used for empirical bands: the `max_origins` latest
+/// ends from which the whole `horizon` still falls inside the history (each origin then gives one
+/// error at every horizon), topped up, when the history is too short for that, with later ends
+/// whose horizon is cut at the end of the data. No end leaves fewer than `min_train` periods.
+pub fn band_origins(
+    length: usize,
+    horizon: usize,
+    min_train: usize,
+    max_origins: usize,
+) -> Vec<usize> {
+    let mut ends: Vec<usize> = Vec::with_capacity(max_origins);
+    let full_last = length.saturating_sub(horizon);
+    let mut end = full_last;
+    while ends.len() < max_origins && end >= min_train && end > 0 {
+        ends.push(end);
+        end -= 1;
+    }
+    let mut partial = full_last + 1;
+    while ends.len() < max_origins && partial < length {
+        if partial >= min_train {
+            ends.push(partial);
+        }
+        partial += 1;
+    }
+    ends.sort_unstable();
+    ends
+}
+
+/// h-step errors e = F - D of a candidate from the rolling origins of [`band_origins`], one list
+/// per horizon step, for empirical bands. Forecasts the backtest `cache` already made are reused.
+/// `tick` is called at each origin, so a front end hears that the work goes on.
+#[allow(clippy::too_many_arguments)]
+pub fn rolling_errors(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    min_train: usize,
+    max_origins: usize,
+    cache: Option<&Backtest>,
+    tick: &mut dyn FnMut(),
+) -> Vec<Vec<f64>> {
+    let n = history.len();
+    let mut errors = vec![Vec::new(); horizon];
+    for end in band_origins(n, horizon, min_train, max_origins) {
+        tick();
+        let steps = horizon.min(n - end);
+        if let Ok(f) = forecast_cached(candidate, &history[..end], season, steps, cache) {
+            for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {
+                errors[h].push(fv - d);
+            }
+        }
+    }
+    errors
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn default_holdout_rules() {
+        assert_eq!(default_holdout(60, Some(12)), 12);
+        assert_eq!(default_holdout(24, Some(12)), 8);
+        assert_eq!(default_holdout(2, None), 1);
+        assert_eq!(default_holdout(50, None), 10);
+    }
+
+    #[test]
+    fn band_origins_prefer_full_horizons() {
+        // 60 periods, horizon 12: the 8 latest ends with a full horizon are 41..=48.
+        assert_eq!(band_origins(60, 12, 24, 8), (41..=48).collect::<Vec<_>>());
+        // 30 periods, horizon 12, at least 24 to train: no end leaves a full horizon, so the
+        // ends 24..=29 with horizons cut at the end of the data are used.
+        assert_eq!(band_origins(30, 12, 24, 8), (24..=29).collect::<Vec<_>>());
+        // Too short for any origin.
+        assert!(band_origins(10, 12, 24, 8).is_empty());
+    }
+
+    fn settings(candidates: Vec<MethodKind>) -> BacktestSettings {
+        BacktestSettings {
+            holdout: 6,
+            origins: 3,
+            rank_by: RankBy::Rmse,
+            candidates,
+            combine: true,
+        }
+    }
+
+    fn wave(n: usize) -> Vec<f64> {
+        (0..n)
+            .map(|t| 50.0 + 0.5 * t as f64 + 10.0 * ((t % 6) as f64 - 2.5).abs())
+            .collect()
+    }
+
+    #[test]
+    fn methods_never_see_the_holdout() {
+        let y = wave(40);
+        let mut changed = y.clone();
+        for v in &mut changed[34..] {
+            *v *= 3.0;
+        }
+        let kinds = vec![
+            MethodKind::Naive,
+            MethodKind::Ses,
+            MethodKind::Holt,
+            MethodKind::Theta,
+        ];
+        let a = run(&y, None, &settings(kinds.clone())).unwrap();
+        let b = run(&changed, None, &settings(kinds)).unwrap();
+        // Scores differ (the demand differs) but each method's origin-0 forecast is the same.
+        assert_eq!(a.ranking.len(), b.ranking.len());
+        for x in &a.ranking {
+            let same = b
+                .ranking
+                .iter()
+                .find(|s| s.candidate == x.candidate)
+                .unwrap();
+            assert_eq!(x.holdout_forecast, same.holdout_forecast);
+        }
+        assert_eq!(a.holdout_demand, y[34..].to_vec());
+    }
+
+    #[test]
+    fn ranking_is_sorted_and_combination_is_the_mean_of_its_members() {
+        let y = wave(40);
+        let kinds = vec![
+            MethodKind::Naive,
+            MethodKind::Ses,
+            MethodKind::Holt,
+            MethodKind::DampedTrend,
+            MethodKind::Theta,
+        ];
+        let bt = run(&y, None, &settings(kinds)).unwrap();
+        let scores: Vec<f64> = bt.ranking.iter().map(|s| s.measures.rmse).collect();
+        assert!(scores.windows(2).all(|w| w[0] <= w[1]), "{scores:?}");
+        let combo = bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .unwrap();
+        let Candidate::Combination(members) = &combo.candidate else {
+            unreachable!()
+        };
+        assert_eq!(members.len(), COMBINATION_SIZE);
+        for h in 0..6 {
+            let mean = members
+                .iter()
+                .map(|k| {
+                    bt.ranking
+                        .iter()
+                        .find(|s| s.candidate == Candidate::Method(*k))
+                        .unwrap()
+                        .holdout_forecast[h]
+                })
+                .sum::<f64>()
+                / members.len() as f64;
+            assert!((combo.holdout_forecast[h] - mean).abs() < 1e-9);
+        }
+        assert_eq!(bt.origins_used, 3);
+    }
+
+    #[test]
+    fn failing_methods_are_skipped_with_a_reason() {
+        let y = wave(20);
+        let bt = run(
+            &y,
+            None,
+            &settings(vec![MethodKind::Naive, MethodKind::HoltWintersAdditive]),
+        )
+        .unwrap();
+        assert_eq!(bt.skipped.len(), 1);
+        assert!(bt.skipped[0].reason.contains("season length"));
+        assert!(matches!(
+            run(&y[..5], None, &settings(vec![MethodKind::Naive])),
+            Err(BacktestError::TooShort { .. })
+        ));
+    }
+
+    #[test]
+    fn cached_origin_forecasts_equal_fresh_fits() {
+        let y = wave(40);
+        let kinds = vec![MethodKind::Ses, MethodKind::Holt, MethodKind::Theta];
+        let bt = run(&y, None, &settings(kinds)).unwrap();
+        let combo = bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .unwrap();
+        let fresh = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, None, &mut || {});
+        let cached = rolling_errors(&combo.candidate, &y, None, 6, 6, 8, Some(&bt), &mut || {});
+        assert_eq!(fresh, cached);
+        assert_eq!(
+            bt.origin_forecast(MethodKind::Ses, 34, 6).map(<[f64]>::len),
+            Some(6)
+        );
+        assert!(bt.origin_forecast(MethodKind::Ses, 33, 7).is_none());
+    }
+
+    #[test]
+    fn rank_keys_round_trip() {
+        for r in [RankBy::Mape, RankBy::Rmse, RankBy::Bias, RankBy::Mase] {
+            assert_eq!(RankBy::from_key(r.key()), Some(r));
+        }
+        assert_eq!(RankBy::default(), RankBy::Mase);
+    }
+}

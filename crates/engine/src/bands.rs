@@ -1,0 +1,345 @@
+//! Bands: prediction intervals around point forecasts at a chosen level.
+//!
+//! Kept apart from: fitting (the analytic variances come from [`crate::methods`]) and
+//! backtesting (the rolling-origin errors come from [`crate::backtest`]). This module
+//! only turns spreads into low/high pairs.
+//!
+//! Two ways, selectable ([`BandMethod`]):
+//! - the MAD rule, F ± z · 1.25 · MAD, with MAD the mean absolute one-step error of the fit
+//!   (common practice; 1.25 approximates sqrt(pi/2) = 1.2533, the ratio of the standard deviation
+//!   to the mean absolute deviation of normal errors). The same width at every horizon.
+//! - horizon-aware: F ± z · sqrt(v_h) with the analytic h-step variance v_h of Hyndman, Koehler,
+//!   Ord & Snyder (2005) where the method's model has one; else the empirical quantiles of the
+//!   rolling-origin h-step errors ([`empirical_band`]).
+//!
+//! z = Φ⁻¹(1 - (1 - level)/2) from statrs. Bands of non-negative demand stop at zero.
+
+use std::fmt;
+
+use statrs::distribution::{ContinuousCDF, Normal};
+
+/// The MAD multiplier of the MAD rule (common practice; sqrt(pi/2) = 1.2533 rounded).
+pub const MAD_TO_SIGMA: f64 = 1.25;
+
+/// Fewest rolling-origin errors at a horizon for empirical quantiles; with fewer, the band uses
+/// the normal quantile times the root mean square of those errors (our choice: quantiles of a
+/// handful of errors are too coarse to trust).
+pub const MIN_ERRORS_FOR_QUANTILES: usize = 20;
+
+/// Why a band could not be set up.
+#[derive(Clone, Debug, PartialEq)]
+pub enum BandError {
+    /// The level is outside 50 % to 99.9 %: choose a level in that range.
+    LevelOutOfRange { percent: f64 },
+}
+
+impl fmt::Display for BandError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BandError::LevelOutOfRange { percent } => {
+                write!(f, "band level {percent} % is outside 50 % to 99.9 %: choose a level in that range")
+            }
+        }
+    }
+}
+
+impl std::error::Error for BandError {}
+
+/// A band level, validated to lie in 50 % ..= 99.9 %.
+///
+/// Crosses the worker boundary as its percent; reading it back re-checks the range.
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(try_from = "f64", into = "f64"))]
+pub struct Level {
+    percent: f64,
+}
+
+impl TryFrom<f64> for Level {
+    type Error = BandError;
+    fn try_from(percent: f64) -> Result<Level, BandError> {
+        Level::new(percent)
+    }
+}
+
+impl From<Level> for f64 {
+    fn from(level: Level) -> f64 {
+        level.percent
+    }
+}
+
+impl Level {
+    pub fn new(percent: f64) -> Result<Level, BandError> {
+        if percent.is_finite() && (50.0..=99.9).contains(&percent) {
+            Ok(Level { percent })
+        } else {
+            Err(BandError::LevelOutOfRange { percent })
+        }
+    }
+    pub fn percent(self) -> f64 {
+        self.percent
+    }
+    /// Two-sided normal quantile z = Φ⁻¹(1 - (1 - p)/2).
+    pub fn z(self) -> f64 {
+        standard_normal_quantile(1.0 - (1.0 - self.percent / 100.0) / 2.0)
+    }
+}
+
+impl Default for Level {
+    fn default() -> Self {
+        Level { percent: 95.0 }
+    }
+}
+
+/// Φ⁻¹(p) of the standard normal distribution (statrs).
+pub fn standard_normal_quantile(p: f64) -> f64 {
+    // Normal::new(0, 1) cannot fail: mean finite, standard deviation positive.
+    match Normal::new(0.0, 1.0) {
+        Ok(n) => n.inverse_cdf(p),
+        Err(_) => f64::NAN,
+    }
+}
+
+/// How bands are computed.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum BandMethod {
+    /// F ± z · 1.25 · MAD.
+    MadRule,
+    /// Analytic h-step variances, else empirical rolling-origin quantiles.
+    #[default]
+    HorizonAware,
+}
+
+impl BandMethod {
+    /// "mad" or "horizon".
+    pub fn key(self) -> &'static str {
+        match self {
+            BandMethod::MadRule => "mad",
+            BandMethod::HorizonAware => "horizon",
+        }
+    }
+    pub fn from_key(key: &str) -> Option<BandMethod> {
+        match key {
+            "mad" => Some(BandMethod::MadRule),
+            "horizon" => Some(BandMethod::HorizonAware),
+            _ => None,
+        }
+    }
+}
+
+/// One forecast period with its band.
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct BandPoint {
+    pub value: f64,
+    pub low: f64,
+    pub high: f64,
+}
+
+/// Where the spread of each horizon came from, for the page to name.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum BandSource {
+    MadRule,
+    Analytic,
+    EmpiricalQuantiles,
+    /// Too few rolling-origin errors for quantiles: normal quantile times their RMS.
+    EmpiricalNormal,
+}
+
+fn floor_at_zero(points: &mut [BandPoint], non_negative: bool) {
+    if non_negative {
+        for p in points {
+            p.low = p.low.max(0.0);
+            p.value = p.value.max(0.0);
+            p.high = p.high.max(0.0);
+        }
+    }
+}
+
+/// MAD rule: F ± z · 1.25 · MAD at every horizon, i.e. an analytic band whose variance is
+/// (1.25 · MAD)² at every step.
+pub fn mad_band(forecast: &[f64], mad: f64, level: Level, non_negative: bool) -> Vec<BandPoint> {
+    let variance = vec![(MAD_TO_SIGMA * mad).powi(2); forecast.len()];
+    analytic_band(forecast, &variance, level, non_negative)
+}
+
+/// Analytic band: F ± z · sqrt(v_h).
+pub fn analytic_band(
+    forecast: &[f64],
+    variance: &[f64],
+    level: Level,
+    non_negative: bool,
+) -> Vec<BandPoint> {
+    let z = level.z();
+    let mut points: Vec<BandPoint> = forecast
+        .iter()
+        .zip(variance)
+        .map(|(&f, &v)| {
+            let half = z * v.max(0.0).sqrt();
+            BandPoint {
+                value: f,
+                low: f - half,
+                high: f + half,
+            }
+        })
+        .collect();
+    floor_at_zero(&mut points, non_negative);
+    points
+}
+
+/// Quantile of sorted data with linear interpolation between order statistics (Hyndman & Fan
+/// 1996, definition 7).
+pub fn quantile_sorted(sorted: &[f64], p: f64) -> Option<f64> {
+    if sorted.is_empty() {
+        return None;
+    }
+    let h = (sorted.len() - 1) as f64 * p.clamp(0.0, 1.0);
+    let lo = h.floor() as usize;
+    let hi = h.ceil() as usize;
+    Some(sorted[lo] + (h - lo as f64) * (sorted[hi] - sorted[lo]))
+}
+
+/// Empirical band from rolling-origin errors: `errors_by_horizon[h-1]` holds the h-step errors
+/// e = F - D seen at every origin.
+///
+/// Each horizon keeps its own scale r_h = RMS of its errors (uncertainty grows with h), while
+/// the shape comes from all horizons at once: the standardised errors u = e / r_h of every
+/// horizon are pooled, and their quantiles q at (1-p)/2 and (1+p)/2 give the band
+/// [F - q_hi r_h, F - q_lo r_h] (D = F - e, so the high end of demand pairs with the low error
+/// quantile). Pooling lets a few origins give enough points for quantiles: with fewer than
+/// [`MIN_ERRORS_FOR_QUANTILES`] pooled errors the band is F ± z r_h. A horizon with no errors
+/// borrows the scale of the longest horizon that has some, and no horizon is narrower than the
+/// one before (uncertainty does not shrink with the horizon).
+pub fn empirical_band(
+    forecast: &[f64],
+    errors_by_horizon: &[Vec<f64>],
+    level: Level,
+    non_negative: bool,
+) -> (Vec<BandPoint>, Vec<BandSource>) {
+    let p = level.percent() / 100.0;
+    let z = level.z();
+    let rms: Vec<Option<f64>> = (0..forecast.len())
+        .map(|h| {
+            let e = errors_by_horizon.get(h).map(Vec::as_slice).unwrap_or(&[]);
+            (!e.is_empty()).then(|| (e.iter().map(|x| x * x).sum::<f64>() / e.len() as f64).sqrt())
+        })
+        .collect();
+    let mut pooled: Vec<f64> = Vec::new();
+    for (h, scale) in rms.iter().enumerate() {
+        if let (Some(r), Some(errors)) = (scale, errors_by_horizon.get(h)) {
+            if *r > 0.0 {
+                pooled.extend(errors.iter().map(|e| e / r));
+            }
+        }
+    }
+    pooled.sort_by(f64::total_cmp);
+    let (quantiles, source) = if pooled.len() >= MIN_ERRORS_FOR_QUANTILES {
+        let q_lo = quantile_sorted(&pooled, (1.0 - p) / 2.0).unwrap_or(-z);
+        let q_hi = quantile_sorted(&pooled, (1.0 + p) / 2.0).unwrap_or(z);
+        (
+            (q_hi.max(0.0), (-q_lo).max(0.0)),
+            BandSource::EmpiricalQuantiles,
+        )
+    } else {
+        ((z, z), BandSource::EmpiricalNormal)
+    };
+    let mut points = Vec::with_capacity(forecast.len());
+    let mut widest = (0.0f64, 0.0f64);
+    let mut last_scale = 0.0;
+    for (h, &f) in forecast.iter().enumerate() {
+        let scale = rms[h].unwrap_or(last_scale);
+        last_scale = scale;
+        widest = (
+            widest.0.max(quantiles.0 * scale),
+            widest.1.max(quantiles.1 * scale),
+        );
+        points.push(BandPoint {
+            value: f,
+            low: f - widest.0,
+            high: f + widest.1,
+        });
+    }
+    floor_at_zero(&mut points, non_negative);
+    (points, vec![source; forecast.len()])
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn level_is_validated() {
+        assert!(Level::new(49.9).is_err());
+        assert!(Level::new(99.95).is_err());
+        assert!(Level::new(f64::NAN).is_err());
+        // scipy norm.ppf(0.975) = 1.959963984540054 (same file).
+        assert!((Level::new(95.0).unwrap().z() - 1.959963984540054).abs() < 1e-9);
+    }
+
+    #[test]
+    fn mad_rule_and_zero_floor() {
+        let b = mad_band(&[10.0, 1.0], 2.0, Level::new(95.0).unwrap(), true);
+        let half = 1.959963984540054 * 1.25 * 2.0;
+        assert!((b[0].high - (10.0 + half)).abs() < 1e-9);
+        assert!((b[0].low - (10.0 - half)).abs() < 1e-9);
+        assert_eq!(b[1].low, 0.0);
+    }
+
+    #[test]
+    fn higher_level_widens_band() {
+        let v = [4.0, 5.0, 6.0];
+        let narrow = analytic_band(&[10.0; 3], &v, Level::new(80.0).unwrap(), false);
+        let wide = analytic_band(&[10.0; 3], &v, Level::new(99.0).unwrap(), false);
+        for (n, w) in narrow.iter().zip(&wide) {
+            assert!(w.high - w.low > n.high - n.low);
+        }
+    }
+
+    #[test]
+    fn empirical_quantiles_and_fallback() {
+        // Errors -10..=10 at horizon 1 and twice those at horizon 2: RMS 6.06 and 12.11, the
+        // standardised errors pool to 42 points, so quantiles apply, and horizon 2 is twice as
+        // wide as horizon 1 (arithmetic check).
+        let errors: Vec<f64> = (-10..=10).map(f64::from).collect();
+        let doubled: Vec<f64> = errors.iter().map(|e| 2.0 * e).collect();
+        let (b, s) = empirical_band(
+            &[100.0, 100.0],
+            &[errors.clone(), doubled],
+            Level::new(80.0).unwrap(),
+            false,
+        );
+        assert_eq!(s[0], BandSource::EmpiricalQuantiles);
+        // The pooled standardised errors are -10..=10 over RMS 1, twice: their 10 % and 90 %
+        // quantiles are -8 and 8 in error units, so horizon 1 spans 92..108.
+        assert!(
+            (b[0].low - 92.0).abs() < 1e-9 && (b[0].high - 108.0).abs() < 1e-9,
+            "{:?}",
+            b[0]
+        );
+        assert!(
+            (b[1].low - 84.0).abs() < 1e-9 && (b[1].high - 116.0).abs() < 1e-9,
+            "{:?}",
+            b[1]
+        );
+        // Two errors only: the normal quantile times their RMS.
+        let (b, s) = empirical_band(
+            &[100.0],
+            &[vec![3.0, -3.0]],
+            Level::new(95.0).unwrap(),
+            false,
+        );
+        assert_eq!(s[0], BandSource::EmpiricalNormal);
+        assert!((b[0].high - (100.0 + 1.959963984540054 * 3.0)).abs() < 1e-9);
+        assert_eq!(quantile_sorted(&[1.0, 2.0, 3.0, 4.0], 0.5), Some(2.5));
+        // A horizon beyond the errors keeps the last scale; widths never shrink.
+        let (b, _) = empirical_band(
+            &[100.0, 100.0, 100.0],
+            &[errors, vec![1.0, -1.0]],
+            Level::new(80.0).unwrap(),
+            false,
+        );
+        assert!(b[2].high - b[2].low >= b[0].high - b[0].low);
+    }
+}

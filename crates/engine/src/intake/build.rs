@@ -1,0 +1,390 @@
+//! Rows to items: each item gets a regular run of periods from its first to its last, with gaps
+//! where a period is missing or a cell is empty, and every anomaly becomes a warning or an error.
+//!
+//! Kept apart from: classification (that is [`super::table`]) and cell reading (numbers and
+//! periods). Here the decisions are about rows: order, duplicates, gaps, blank lines.
+//!
+//! Rules: single and wide tables must have one row per period (a repeated period is an error
+//! naming both lines; rows out of order are sorted, with a warning). Long tables may list rows in
+//! any order, and repeated (item, period) rows are summed, with a warning naming item, period and
+//! lines. Tables with no period column number their rows 1, 2, ...; a blank line inside such a
+//! table is a gap, while in dated tables blank lines are skipped with a warning.
+
+use super::number::{is_missing, parse_number};
+use super::period::read_periods;
+use super::table::{overflow, Plan, Table};
+use super::text::Record;
+
+mod long;
+use super::{DecimalMark, Item, Layout, RowError};
+use crate::calendar::{Frequency, Period};
+
+/// Longest run of periods one item may span (about 270 years of days).
+pub(crate) const MAX_PERIODS: i64 = 100_000;
+
+/// How many entries a warning lists before "and N more".
+const LISTED: usize = 8;
+
+/// What the rows made.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub(crate) struct Built {
+    pub items: Vec<Item>,
+    pub frequency: Option<Frequency>,
+    pub date_format: Option<String>,
+    pub gaps_filled: usize,
+    pub empty_cells: usize,
+    pub warnings: Vec<String>,
+    pub errors: Vec<RowError>,
+}
+
+/// "1 cell", "2 cells": a count with its noun.
+pub(crate) fn count(n: usize, noun: &str) -> String {
+    if n == 1 {
+        format!("1 {noun}")
+    } else {
+        format!("{n} {noun}s")
+    }
+}
+
+/// "a, b, c and 4 more".
+pub(crate) fn listing(entries: &[String]) -> String {
+    let shown = entries
+        .iter()
+        .take(LISTED)
+        .cloned()
+        .collect::<Vec<_>>()
+        .join(", ");
+    if entries.len() > LISTED {
+        format!("{shown} and {} more", entries.len() - LISTED)
+    } else {
+        shown
+    }
+}
+
+struct Builder<'a> {
+    table: &'a Table,
+    plan: &'a Plan,
+    mark: DecimalMark,
+    out: Built,
+    affixes: Vec<String>,
+    affix_cells: usize,
+    negatives: Vec<String>,
+}
+
+/// One row of a long table: period, quantity (None when empty) and the record it came from.
+pub(crate) type LongRow<'a> = (Period, Option<f64>, &'a Record);
+
+/// One row placed on the time axis.
+struct Entry<'a> {
+    period: Period,
+    row: &'a Record,
+}
+
+pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
+    let mut b = Builder {
+        table,
+        plan,
+        mark,
+        out: Built::default(),
+        affixes: Vec::new(),
+        affix_cells: 0,
+        negatives: Vec::new(),
+    };
+    for &j in &plan.ignored {
+        b.out.warnings.push(format!(
+            "column \"{}\" was not used: a long table reads one item, one period and one \
+             quantity column",
+            table.column_name(j)
+        ));
+    }
+    let mut kept: Vec<&Record> = Vec::new();
+    let mut blank_lines = Vec::new();
+    let mut positions: Vec<Option<&Record>> = Vec::new();
+    for row in &table.rows {
+        if row.is_blank() {
+            blank_lines.push(row.line.to_string());
+            positions.push(None);
+        } else if let Some((j, text)) = overflow(row, table.width) {
+            b.reject_wide_row(row, j, text);
+            positions.push(None);
+        } else {
+            kept.push(row);
+            positions.push(Some(row));
+        }
+    }
+    let dated = plan.period.is_some();
+    if !blank_lines.is_empty() {
+        let what = if dated || plan.layout == Layout::Long {
+            "were skipped"
+        } else {
+            "were read as gaps (a blank line in a pasted column is an empty cell)"
+        };
+        b.out
+            .warnings
+            .push(format!("blank lines {} {what}", listing(&blank_lines)));
+    }
+    let column = plan.period.map(|(p, meaning)| {
+        let cells = table.column(p, &kept);
+        let col = read_periods(&cells, meaning);
+        for (i, message) in &col.errors {
+            b.error(kept[*i].line, p, cells[*i], message.clone());
+        }
+        b.out.warnings.extend(col.warnings.iter().cloned());
+        b.out.frequency = Some(col.frequency);
+        b.out.date_format = Some(col.description.clone());
+        col
+    });
+    match (plan.layout, column) {
+        (Layout::Long, column) => b.long(&kept, column.as_ref()),
+        (_, Some(col)) => {
+            let entries = kept
+                .iter()
+                .zip(&col.periods)
+                .filter_map(|(row, p)| p.map(|period| Entry { period, row }))
+                .collect();
+            b.single_or_wide(entries, true);
+        }
+        (_, None) => {
+            let entries = positions
+                .iter()
+                .enumerate()
+                .filter_map(|(i, row)| {
+                    row.map(|row| Entry {
+                        period: Period::position(i as i64 + 1),
+                        row,
+                    })
+                })
+                .collect();
+            b.out.empty_cells += blank_lines.len() * plan.values.len();
+            b.single_or_wide(entries, false);
+        }
+    }
+    b.finish()
+}
+
+impl<'a> Builder<'a> {
+    fn error(&mut self, row: usize, column: usize, text: &str, message: String) {
+        self.out.errors.push(RowError {
+            row,
+            column: self.table.column_name(column),
+            text: text.to_string(),
+            message,
+        });
+    }
+
+    fn reject_wide_row(&mut self, row: &Record, column: usize, text: &str) {
+        let hint = if text.chars().all(|c| c.is_ascii_digit()) && text.len() == 3 {
+            "; a number whose thousands separator is also the delimiter must be quoted, like \
+             \"1,200\""
+        } else {
+            ""
+        };
+        let message = format!(
+            "expected at most {} cells in a row, as in the rest of the table; this row has {} \
+             and was not read{hint}",
+            self.table.width,
+            row.cells.len()
+        );
+        self.error(row.line, column, text, message);
+    }
+
+    /// Reads one value cell: `Ok(None)` for an empty cell, `Err(())` when reported as an error.
+    fn value(&mut self, row: &Record, column: usize) -> Result<Option<f64>, ()> {
+        let cell = row.cells.get(column).map_or("", String::as_str);
+        if is_missing(cell) {
+            self.out.empty_cells += 1;
+            return Ok(None);
+        }
+        match parse_number(cell, self.mark) {
+            Ok(number) => {
+                if let Some(affix) = number.affix {
+                    self.affix_cells += 1;
+                    if !self.affixes.contains(&affix) {
+                        self.affixes.push(affix);
+                    }
+                }
+                Ok(Some(number.value))
+            }
+            Err(problem) => {
+                let message = problem.message(self.mark);
+                self.error(row.line, column, cell, message);
+                Err(())
+            }
+        }
+    }
+
+    fn check_negative(&mut self, item: &str, period: Period, value: Option<f64>) {
+        if let Some(v) = value.filter(|v| *v < 0.0) {
+            self.negatives.push(format!("\"{item}\" {period} ({v})"));
+        }
+    }
+
+    /// The run from `first` to `last`, or an error at `row` when it is too long.
+    fn run(&mut self, first: Period, last: Period, row: &Record, column: usize) -> Option<i64> {
+        let steps = first.steps_to(last);
+        if steps >= MAX_PERIODS {
+            let cell = row.cells.get(column).cloned().unwrap_or_default();
+            self.error(
+                row.line,
+                column,
+                &cell,
+                format!(
+                    "expected periods within {MAX_PERIODS} steps of the first ({first}); this one \
+                     is {steps} steps later: check its year"
+                ),
+            );
+            return None;
+        }
+        Some(steps + 1)
+    }
+
+    fn gap_warning(&mut self, names: &[String], missing: &[String]) {
+        if missing.is_empty() || names.is_empty() {
+            return;
+        }
+        let whose = if names.len() == 1 {
+            format!("\"{}\"", names[0])
+        } else {
+            format!("each of {}", listing(names))
+        };
+        self.out.warnings.push(format!(
+            "{} filled as gaps for {whose}: {}",
+            count(missing.len(), "missing period"),
+            listing(missing)
+        ));
+    }
+
+    fn item_name(&self, value_index: usize, column: usize, taken: &[Item]) -> String {
+        let base = if self.table.header.is_some() {
+            self.table.column_name(column)
+        } else {
+            format!("Series {}", value_index + 1)
+        };
+        let mut name = base.clone();
+        let mut n = 2;
+        while taken.iter().any(|i| i.name == name) {
+            name = format!("{base} ({n})");
+            n += 1;
+        }
+        name
+    }
+
+    fn single_or_wide(&mut self, mut entries: Vec<Entry<'a>>, dated: bool) {
+        if let Some(w) = entries.windows(2).find(|w| w[1].period < w[0].period) {
+            self.out.warnings.push(format!(
+                "rows are not in time order (line {} comes before line {}); they were sorted by \
+                 period",
+                w[0].row.line, w[1].row.line
+            ));
+        }
+        entries.sort_by_key(|e| e.period);
+        let period_column = self.plan.period.map_or(0, |(p, _)| p);
+        let mut unique: Vec<Entry<'a>> = Vec::with_capacity(entries.len());
+        for entry in entries {
+            match unique.last() {
+                Some(prev) if prev.period == entry.period => {
+                    let first_line = prev.row.line;
+                    let cell = entry
+                        .row
+                        .cells
+                        .get(period_column)
+                        .cloned()
+                        .unwrap_or_default();
+                    self.error(
+                        entry.row.line,
+                        period_column,
+                        &cell,
+                        format!(
+                            "expected each period once; {} is also on line {first_line}: keep \
+                             one of the two rows (to add up several rows per period, use item, \
+                             period, quantity rows)",
+                            entry.period
+                        ),
+                    );
+                }
+                _ => unique.push(entry),
+            }
+        }
+        let (Some(first), Some(last)) = (unique.first(), unique.last()) else {
+            return;
+        };
+        let (start, last_row) = (first.period, last.row);
+        let Some(len) = self.run(start, last.period, last_row, period_column) else {
+            return;
+        };
+        let mut present = vec![false; len as usize];
+        for e in &unique {
+            present[start.steps_to(e.period) as usize] = true;
+        }
+        let missing: Vec<String> = (0..len)
+            .filter(|i| !present[*i as usize])
+            .map(|i| start.offset(i).to_string())
+            .collect();
+        let mut items: Vec<Item> = Vec::new();
+        let value_columns = self.plan.values.clone();
+        for (k, &j) in value_columns.iter().enumerate() {
+            let name = self.item_name(k, j, &items);
+            let mut values = vec![None; len as usize];
+            let mut empty = Vec::new();
+            let mut errors = 0;
+            for e in &unique {
+                let slot = start.steps_to(e.period) as usize;
+                match self.value(e.row, j) {
+                    Ok(None) => empty.push(e.period.to_string()),
+                    Ok(v) => {
+                        self.check_negative(&name, e.period, v);
+                        values[slot] = v;
+                    }
+                    Err(()) => errors += 1,
+                }
+            }
+            if !empty.is_empty() {
+                self.out.warnings.push(format!(
+                    "\"{name}\": {} read as gaps ({})",
+                    count(empty.len(), "empty cell"),
+                    listing(&empty)
+                ));
+            }
+            if values.iter().all(Option::is_none) {
+                if errors == 0 {
+                    self.out
+                        .warnings
+                        .push(format!("column \"{name}\" has no values and was left out"));
+                }
+                continue;
+            }
+            let periods = (0..len).map(|i| start.offset(i)).collect();
+            items.push(Item {
+                name,
+                periods,
+                values,
+            });
+        }
+        if dated {
+            let names: Vec<String> = items.iter().map(|i| i.name.clone()).collect();
+            self.out.gaps_filled += missing.len() * items.len();
+            self.gap_warning(&names, &missing);
+        }
+        self.out.items = items;
+    }
+
+    fn finish(mut self) -> Built {
+        if !self.affixes.is_empty() {
+            let forms: Vec<String> = self.affixes.iter().map(|a| format!("\"{a}\"")).collect();
+            self.out.warnings.push(format!(
+                "removed currency symbols or units from {} ({}); the numbers were used as \
+                 written, without any conversion",
+                count(self.affix_cells, "cell"),
+                forms.join(", ")
+            ));
+        }
+        if !self.negatives.is_empty() {
+            self.out.warnings.push(format!(
+                "{} kept as written (returns or corrections?): {}",
+                count(self.negatives.len(), "negative value"),
+                listing(&self.negatives)
+            ));
+        }
+        self.out
+    }
+}

@@ -1,0 +1,210 @@
+//! Bytes to text: the encodings a sales export arrives in, and every byte that is not text.
+//!
+//! Kept apart from: everything after decoding (the rest of intake takes `&str`). Front ends that
+//! hold bytes (a file read from disk, a dropped file) pass them here instead of decoding
+//! themselves, so an undecodable byte is reported with its line instead of silently replaced.
+//!
+//! Rules: a UTF-16 byte-order mark (FF FE little-endian, FE FF big-endian; spreadsheets write it
+//! for "Unicode text") decodes as UTF-16; anything else decodes as UTF-8 (a UTF-8 byte-order
+//! mark is dropped later by the tokeniser). Bytes that do not decode become U+FFFD, and each
+//! line holding any is reported once, with the bytes found, so a front end never plans from a
+//! misread file without saying so.
+
+use super::RowError;
+
+/// Most lines with undecodable bytes reported one by one; the rest are counted in one more
+/// error (our choice: a wrongly encoded file has them on most lines, and a thousand identical
+/// messages help no one).
+const MAX_REPORTED_LINES: usize = 20;
+
+/// Decoded text and the lines whose bytes could not be decoded.
+pub(crate) struct Decoded {
+    pub text: String,
+    pub errors: Vec<RowError>,
+}
+
+/// Decodes `bytes` by the rules of this module's doc.
+pub(crate) fn decode(bytes: &[u8]) -> Decoded {
+    match bytes {
+        [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
+        [0xFE, 0xFF, rest @ ..] => decode_utf16(rest, false),
+        _ => decode_utf8(bytes),
+    }
+}
+
+fn decode_utf8(bytes: &[u8]) -> Decoded {
+    let mut text = String::with_capacity(bytes.len());
+    let mut bad = BadLines::default();
+    let mut line = 1;
+    for chunk in bytes.utf8_chunks() {
+        let valid = chunk.valid();
+        line += valid.bytes().filter(|b| *b == b'\n').count();
+        text.push_str(valid);
+        let invalid = chunk.invalid();
+        if !invalid.is_empty() {
+            text.push(char::REPLACEMENT_CHARACTER);
+            bad.add(line, invalid);
+        }
+    }
+    let errors = report(
+        bad.0,
+        "UTF-8",
+        "save the file as UTF-8 (in a spreadsheet: CSV UTF-8) and read it again",
+    );
+    Decoded { text, errors }
+}
+
+fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
+    let to_unit = |a: u8, b: u8| {
+        if little_endian {
+            u16::from_le_bytes([a, b])
+        } else {
+            u16::from_be_bytes([a, b])
+        }
+    };
+    let as_found = |u: u16| {
+        if little_endian {
+            u.to_le_bytes()
+        } else {
+            u.to_be_bytes()
+        }
+    };
+    let (pairs, odd) = (bytes.chunks_exact(2), bytes.len() % 2 == 1);
+    let mut text = String::with_capacity(bytes.len() / 2);
+    let mut bad = BadLines::default();
+    let mut line = 1;
+    for c in char::decode_utf16(pairs.map(|p| to_unit(p[0], p[1]))) {
+        match c {
+            Ok(c) => {
+                line += usize::from(c == '\n');
+                text.push(c);
+            }
+            Err(e) => {
+                text.push(char::REPLACEMENT_CHARACTER);
+                bad.add(line, &as_found(e.unpaired_surrogate()));
+            }
+        }
+    }
+    if odd {
+        // An odd final byte: half a character.
+        text.push(char::REPLACEMENT_CHARACTER);
+        bad.add(line, &bytes[bytes.len() - 1..]);
+    }
+    let errors = report(
+        bad.0,
+        "UTF-16 (the file starts with a UTF-16 byte-order mark)",
+        "save the file again as UTF-8 (in a spreadsheet: CSV UTF-8) and read it again",
+    );
+    Decoded { text, errors }
+}
+
+/// Undecodable bytes gathered by line, in order.
+#[derive(Default)]
+struct BadLines(Vec<(usize, Vec<u8>)>);
+
+impl BadLines {
+    fn add(&mut self, line: usize, found: &[u8]) {
+        match self.0.last_mut() {
+            Some((l, f)) if *l == line => f.extend_from_slice(found),
+            _ => self.0.push((line, found.to_vec())),
+        }
+    }
+}
+
+/// One error per line with undecodable bytes, the first [`MAX_REPORTED_LINES`] of them.
+fn report(bad_lines: Vec<(usize, Vec<u8>)>, encoding: &str, remedy: &str) -> Vec<RowError> {
+    let total = bad_lines.len();
+    let mut errors: Vec<RowError> = bad_lines
+        .into_iter()
+        .take(MAX_REPORTED_LINES)
+        .map(|(line, bytes)| RowError {
+            row: line,
+            column: String::new(),
+            text: hex(&bytes),
+            message: format!(
+                "expected {encoding} text; these bytes are not, so the line was read with \
+                 \u{fffd} in their place: {remedy}"
+            ),
+        })
+        .collect();
+    if total > MAX_REPORTED_LINES {
+        let last = errors.last().map_or(1, |e| e.row);
+        errors.push(RowError {
+            row: last,
+            column: String::new(),
+            text: String::new(),
+            message: format!(
+                "{} more lines after this one hold bytes that are not {encoding} text: {remedy}",
+                total - MAX_REPORTED_LINES
+            ),
+        });
+    }
+    errors
+}
+
+/// Bytes as `\xE9\x80` (at most 16 shown).
+fn hex(bytes: &[u8]) -> String {
+    let mut s: String = bytes
+        .iter()
+        .take(16)
+        .map(|b| format!("\\x{b:02X}"))
+        .collect();
+    if bytes.len() > 16 {
+        s.push('…');
+    }
+    s
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// (bytes, decoded text, lines reported with the bytes found).
+    fn check(bytes: &[u8], text: &str, expected: &[(usize, &str)]) {
+        let d = decode(bytes);
+        assert_eq!(d.text, text);
+        let got: Vec<(usize, &str)> = d.errors.iter().map(|e| (e.row, e.text.as_str())).collect();
+        assert_eq!(got, expected);
+    }
+
+    #[test]
+    fn encodings_and_bad_bytes() {
+        check(b"a,b\n1,2\n", "a,b\n1,2\n", &[]);
+        // Windows-1252 "Café" on line 2, then two bad bytes on line 3.
+        check(
+            b"name\nCaf\xE9\nx\xFF\xFEy\n",
+            "name\nCaf\u{fffd}\nx\u{fffd}\u{fffd}y\n",
+            &[(2, "\\xE9"), (3, "\\xFF\\xFE")],
+        );
+        // UTF-16 little-endian with its byte-order mark, as "Unicode text" exports are.
+        let le: Vec<u8> = [0xFF, 0xFE]
+            .into_iter()
+            .chain("a\tb\n1\t2\n".encode_utf16().flat_map(u16::to_le_bytes))
+            .collect();
+        check(&le, "a\tb\n1\t2\n", &[]);
+        let be: Vec<u8> = [0xFE, 0xFF]
+            .into_iter()
+            .chain("é\n".encode_utf16().flat_map(u16::to_be_bytes))
+            .collect();
+        check(&be, "é\n", &[]);
+        // An unpaired surrogate and an odd final byte.
+        check(
+            &[0xFF, 0xFE, 0x0A, 0x00, 0x00, 0xD8, 0x41],
+            "\n\u{fffd}\u{fffd}",
+            &[(2, "\\x00\\xD8\\x41")],
+        );
+    }
+
+    #[test]
+    fn many_bad_lines_are_counted_not_listed() {
+        let bytes: Vec<u8> = (0..30).flat_map(|_| b"\xE9\n".to_vec()).collect();
+        let d = decode(&bytes);
+        assert_eq!(d.errors.len(), MAX_REPORTED_LINES + 1);
+        assert!(d
+            .errors
+            .last()
+            .unwrap()
+            .message
+            .starts_with("10 more lines"));
+    }
+}

@@ -1,0 +1,364 @@
+//! Period labels: one cell of a period column read into a calendar label, before the column as a
+//! whole decides date order and frequency.
+//!
+//! Kept apart from: decisions that need every row (day-first or month-first, which frequency);
+//! those are in [`super::period`]. This module reads one cell and never looks at its neighbours.
+//!
+//! Accepted forms (letters in any case; separators `-`, `/`, `.`, space where shown):
+//! - year-first dates `2024-03-31`, `2024/03/31`, `2024.03.31`, optionally followed by a
+//!   midnight time (`2024-03-31 00:00`, `2024-03-31T00:00:00Z`), which spreadsheets add;
+//! - two-way dates `31/03/2024`, `03/31/2024`, `31-03-24`, `31.03.2024` (order decided later);
+//! - dates with month names `31 Mar 2024`, `31-Mar-24`, `Mar 31, 2024`, `March 31 2024`;
+//! - months `2024-03`, `2024/03`, `03/2024`, `Mar 2024`, `March 2024`, `2024 Mar`, `Mar-24`
+//!   (a month name and two digits is Excel's "mmm-yy": month and year, never a day);
+//! - quarters `2024 Q1`, `2024-Q1`, `2024Q1`, `Q1 2024`, `Q1-24`;
+//! - ISO weeks `2024-W05`, `2024W05`, `2024 W5`, `W05 2024`;
+//! - plain whole numbers (`2024`, `7`): years or row positions, decided by the column.
+//!
+//! Two-digit years follow the POSIX `strptime` `%y` rule (from memory): 69–99 are 1969–1999,
+//! 00–68 are 2000–2068. Month names are English (full, three letters, or "Sept").
+
+use crate::calendar::{is_valid_date, iso_weeks_in_year};
+
+/// One cell read as a period label.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum Label {
+    /// An unambiguous date (year-first, or with a month name).
+    Date {
+        year: i32,
+        month: u32,
+        day: u32,
+    },
+    /// `a/b/year`: day-first if `a` is the day, month-first if `b` is.
+    TwoWay {
+        a: u32,
+        b: u32,
+        year: i32,
+    },
+    Month {
+        year: i32,
+        month: u32,
+    },
+    Quarter {
+        year: i32,
+        quarter: u32,
+    },
+    Week {
+        year: i32,
+        week: u32,
+    },
+    /// A plain whole number.
+    Integer(i64),
+}
+
+/// The family a label belongs to; a period column holds one family.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub(crate) enum Family {
+    Date,
+    TwoWay,
+    Month,
+    Quarter,
+    Week,
+    Integer,
+}
+
+impl Label {
+    pub fn family(self) -> Family {
+        match self {
+            Label::Date { .. } => Family::Date,
+            Label::TwoWay { .. } => Family::TwoWay,
+            Label::Month { .. } => Family::Month,
+            Label::Quarter { .. } => Family::Quarter,
+            Label::Week { .. } => Family::Week,
+            Label::Integer(_) => Family::Integer,
+        }
+    }
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Token<'a> {
+    Digits(&'a str),
+    Word(&'a str),
+}
+
+/// Splits a cell into digit runs and letter runs; separators (`-`, `/`, `.`, `,`, space) only
+/// divide. The list of separators between tokens is returned too, trimmed of spaces.
+fn tokens(cell: &str) -> Option<(Vec<Token<'_>>, Vec<String>)> {
+    let mut out = Vec::new();
+    let mut seps = Vec::new();
+    let mut current_sep = String::new();
+    let mut start: Option<(usize, bool)> = None;
+    for (i, c) in cell.char_indices() {
+        let kind = if c.is_ascii_digit() {
+            Some(true)
+        } else if c.is_alphabetic() {
+            Some(false)
+        } else {
+            None
+        };
+        if let Some((s, digit)) = start {
+            if kind != Some(digit) {
+                let text = &cell[s..i];
+                out.push(if digit {
+                    Token::Digits(text)
+                } else {
+                    Token::Word(text)
+                });
+                start = None;
+            }
+        }
+        match kind {
+            Some(digit) => {
+                if start.is_none() {
+                    if !out.is_empty() {
+                        seps.push(current_sep.trim().to_string());
+                    }
+                    current_sep.clear();
+                    start = Some((i, digit));
+                }
+            }
+            None if out.is_empty() && start.is_none() => return None,
+            None if matches!(c, '-' | '/' | '.' | ',' | ' ' | '\u{a0}') => current_sep.push(c),
+            None => return None,
+        }
+    }
+    if let Some((s, digit)) = start {
+        let text = &cell[s..];
+        out.push(if digit {
+            Token::Digits(text)
+        } else {
+            Token::Word(text)
+        });
+    } else if !current_sep.trim().is_empty() {
+        return None;
+    }
+    Some((out, seps))
+}
+
+/// Month number of an English month name or abbreviation.
+fn month_name(word: &str) -> Option<u32> {
+    const NAMES: [&str; 12] = [
+        "january",
+        "february",
+        "march",
+        "april",
+        "may",
+        "june",
+        "july",
+        "august",
+        "september",
+        "october",
+        "november",
+        "december",
+    ];
+    let lower = word.to_lowercase();
+    if lower == "sept" {
+        return Some(9);
+    }
+    NAMES
+        .iter()
+        .position(|name| lower == *name || (lower.len() == 3 && name.starts_with(&lower)))
+        .map(|i| i as u32 + 1)
+}
+
+fn year_of(digits: &str) -> Option<i32> {
+    match digits.len() {
+        4 if !digits.starts_with('0') => digits.parse().ok(),
+        2 => {
+            let yy: i32 = digits.parse().ok()?;
+            Some(if yy >= 69 { 1900 + yy } else { 2000 + yy })
+        }
+        _ => None,
+    }
+}
+
+fn small(digits: &str, max_len: usize) -> Option<u32> {
+    if digits.is_empty() || digits.len() > max_len {
+        return None;
+    }
+    digits.parse().ok()
+}
+
+/// Removes a midnight time after a date: " 00:00", " 00:00:00", "T00:00:00", optional ".000"
+/// and "Z". Any other time of day is not a period label.
+fn strip_midnight(cell: &str) -> &str {
+    for sep in [' ', 'T'] {
+        if let Some(pos) = cell.rfind(sep) {
+            let time = &cell[pos + 1..];
+            let time = time.strip_suffix('Z').unwrap_or(time);
+            let midnight = !time.is_empty()
+                && time.contains(':')
+                && time.chars().all(|c| matches!(c, '0' | ':' | '.'));
+            if midnight && pos > 0 {
+                return cell[..pos].trim_end();
+            }
+        }
+    }
+    cell
+}
+
+/// Reads one cell as a period label; `None` when it is not one of the accepted forms.
+pub(crate) fn parse_label(cell: &str) -> Option<Label> {
+    let cell = strip_midnight(cell.trim());
+    let (toks, seps) = tokens(cell)?;
+    use Token::{Digits as D, Word as W};
+    let same_sep = |allowed: &[&str]| seps.iter().all(|s| allowed.contains(&s.as_str()));
+    let label = match toks.as_slice() {
+        [D(n)] => {
+            if n.len() > 12 {
+                return None;
+            }
+            Label::Integer(n.parse().ok()?)
+        }
+        [D(y), D(m), D(d)] if y.len() == 4 => {
+            if !(same_sep(&["-"]) || same_sep(&["/"]) || same_sep(&["."])) {
+                return None;
+            }
+            date(year_of(y)?, small(m, 2)?, small(d, 2)?)?
+        }
+        [D(a), D(b), D(y)] if a.len() <= 2 && b.len() <= 2 => {
+            if !(same_sep(&["-"]) || same_sep(&["/"]) || same_sep(&["."])) {
+                return None;
+            }
+            let (a, b, year) = (small(a, 2)?, small(b, 2)?, year_of(y)?);
+            if a == 0 || b == 0 || (a > 12 && b > 12) {
+                return None;
+            }
+            Label::TwoWay { a, b, year }
+        }
+        [D(y), D(m)] if y.len() == 4 && same_sep(&["-", "/"]) => month(year_of(y)?, small(m, 2)?)?,
+        [D(m), D(y)] if y.len() == 4 && same_sep(&["-", "/"]) => month(year_of(y)?, small(m, 2)?)?,
+        [W(w), D(y)] if month_name(w).is_some() => month(year_of(y)?, month_name(w)?)?,
+        [D(y), W(w)] if y.len() == 4 && month_name(w).is_some() => {
+            month(year_of(y)?, month_name(w)?)?
+        }
+        [D(d), W(w), D(y)] if month_name(w).is_some() => {
+            date(year_of(y)?, month_name(w)?, small(d, 2)?)?
+        }
+        [W(w), D(d), D(y)] if month_name(w).is_some() => {
+            date(year_of(y)?, month_name(w)?, small(d, 2)?)?
+        }
+        [D(y), W(q), D(n)] if q.eq_ignore_ascii_case("q") && y.len() == 4 => {
+            quarter(year_of(y)?, small(n, 1)?)?
+        }
+        [W(q), D(n), D(y)] if q.eq_ignore_ascii_case("q") => quarter(year_of(y)?, small(n, 1)?)?,
+        [D(y), W(w), D(n)] if w.eq_ignore_ascii_case("w") && y.len() == 4 => {
+            week(year_of(y)?, small(n, 2)?)?
+        }
+        [W(w), D(n), D(y)] if w.eq_ignore_ascii_case("w") && y.len() == 4 => {
+            week(year_of(y)?, small(n, 2)?)?
+        }
+        _ => return None,
+    };
+    Some(label)
+}
+
+fn date(year: i32, month: u32, day: u32) -> Option<Label> {
+    is_valid_date(year, month, day).then_some(Label::Date { year, month, day })
+}
+fn month(year: i32, month: u32) -> Option<Label> {
+    (1..=12)
+        .contains(&month)
+        .then_some(Label::Month { year, month })
+}
+fn quarter(year: i32, quarter: u32) -> Option<Label> {
+    (1..=4)
+        .contains(&quarter)
+        .then_some(Label::Quarter { year, quarter })
+}
+fn week(year: i32, week: u32) -> Option<Label> {
+    (week >= 1 && week <= iso_weeks_in_year(year)).then_some(Label::Week { year, week })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn date_of(y: i32, m: u32, d: u32) -> Option<Label> {
+        Some(Label::Date {
+            year: y,
+            month: m,
+            day: d,
+        })
+    }
+    fn month_of(y: i32, m: u32) -> Option<Label> {
+        Some(Label::Month { year: y, month: m })
+    }
+
+    #[test]
+    fn year_first_dates_with_and_without_midnight() {
+        for cell in [
+            "2024-03-31",
+            "2024/03/31",
+            "2024.03.31",
+            "2024-03-31 00:00",
+            "2024-03-31T00:00:00Z",
+        ] {
+            assert_eq!(parse_label(cell), date_of(2024, 3, 31), "{cell}");
+        }
+        assert_eq!(parse_label("2024-02-30"), None);
+        assert_eq!(parse_label("2024-03-31 14:30"), None);
+        assert_eq!(parse_label("2024-03/31"), None);
+    }
+
+    #[test]
+    fn two_way_dates_wait_for_the_column() {
+        let two_way = |a, b, year| Some(Label::TwoWay { a, b, year });
+        assert_eq!(parse_label("31/03/2024"), two_way(31, 3, 2024));
+        assert_eq!(parse_label("03-31-24"), two_way(3, 31, 2024));
+        assert_eq!(parse_label("05.06.99"), two_way(5, 6, 1999));
+        assert_eq!(parse_label("31/31/2024"), None);
+    }
+
+    #[test]
+    fn month_forms() {
+        for cell in [
+            "2024-03",
+            "2024/03",
+            "03/2024",
+            "Mar 2024",
+            "march 2024",
+            "2024 Mar",
+            "Mar-24",
+            "MAR. 2024",
+        ] {
+            assert_eq!(parse_label(cell), month_of(2024, 3), "{cell}");
+        }
+        assert_eq!(parse_label("Sept 2024"), month_of(2024, 9));
+        assert_eq!(parse_label("2024-13"), None);
+        assert_eq!(parse_label("24-Mar"), None);
+    }
+
+    #[test]
+    fn named_dates() {
+        for cell in ["31 Mar 2024", "31-Mar-24", "Mar 31, 2024", "March 31 2024"] {
+            assert_eq!(parse_label(cell), date_of(2024, 3, 31), "{cell}");
+        }
+    }
+
+    #[test]
+    fn quarters_weeks_and_integers() {
+        let q1 = Some(Label::Quarter {
+            year: 2024,
+            quarter: 1,
+        });
+        for cell in ["2024 Q1", "2024-Q1", "2024Q1", "Q1 2024", "q1-24"] {
+            assert_eq!(parse_label(cell), q1, "{cell}");
+        }
+        assert_eq!(parse_label("2024 Q5"), None);
+        let w5 = Some(Label::Week {
+            year: 2024,
+            week: 5,
+        });
+        for cell in ["2024-W05", "2024W05", "2024 W5", "W05 2024"] {
+            assert_eq!(parse_label(cell), w5, "{cell}");
+        }
+        // ISO 8601: 2020 has 53 weeks, 2024 has 52 (calendar facts, common practice).
+        assert!(parse_label("2020-W53").is_some());
+        assert_eq!(parse_label("2024-W53"), None);
+        assert_eq!(parse_label("2024"), Some(Label::Integer(2024)));
+        assert_eq!(parse_label("Sales"), None);
+        assert_eq!(parse_label("12.5"), None);
+        assert_eq!(parse_label("-5"), None);
+    }
+}

@@ -1,0 +1,284 @@
+//! Intake: raw text (pasted, dropped or read from a file) to items, with a report of what was
+//! understood. No configuration: delimiter, decimal mark, header, layout, date order and
+//! frequency are all read from the text itself.
+//!
+//! Kept apart from: modelling. Intake never guesses silently: every assumption (delimiter,
+//! decimal mark, layout, date order, frequency, gaps) is reported, and every rejected cell is an
+//! error with its row, column and text. When there are errors the report still holds what could
+//! be read; front ends decide what to do (the command line exits with status 2).
+//!
+//! The steps, each in its own module:
+//! 1. `text`: strip a UTF-8 byte-order mark, choose the delimiter (tab, semicolon, pipe or
+//!    comma: the one that splits the most records into the same number of cells, ties in that
+//!    order; a one-column text is reported as comma), split into records with RFC 4180 quotes,
+//!    CRLF or LF line ends, and exact line numbers.
+//! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
+//!    the header and layout rules are in that module's doc.
+//! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
+//!    decide by majority; a lone "1,234" or "1.234" is read as thousands with a warning;
+//!    otherwise comma in semicolon files, dot elsewhere), and each value cell, with currency
+//!    symbols and units stripped (listed in that module's doc) and reported once.
+//! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
+//!    from all rows (the ambiguity rule is in `order`'s doc), and the frequency the dates imply.
+//! 5. `build`: one item per value column (single, wide) or per item name (long), with a
+//!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
+//!
+//! Decisions, in short (each module's doc has the full rule):
+//! - Header: the record just above the first row whose cells are mostly numbers or periods,
+//!   if none of its cells reads as a number or a period; records above it are title lines,
+//!   skipped with a warning. No header: a warning, and the names below.
+//! - Date order: a field above 12 decides; otherwise "all on the 1st of a month" one way only,
+//!   then "a regular series with no missing period" one way only, each with a warning;
+//!   otherwise an error on the first row whose readings differ (the report is then day-first).
+//! - "Mar-24" is March 2024 (a month name with two digits is month and year); two-digit years
+//!   are 1969–2068; month names are English.
+//! - Whole numbers in the first column are years (1800–2200) or row positions (1, 2, 3, ...)
+//!   only when dense; otherwise they are values.
+//! - Empty cells and `NA`, `N/A`, `#N/A`, `null` are gaps, counted in `empty_cells`; a blank line
+//!   is a gap in a table without periods and skipped (with a warning) in a dated one.
+//! - Currency symbols, codes and units listed in `number` are stripped, with one warning naming
+//!   them; anything else after a number is an error.
+//!
+//! Names: a series is named after its value column's header; without a header the value columns
+//! are "Series 1", "Series 2", ... and errors name columns "column 1", "column 2", ... A header
+//! cell that is empty also gives "column N". Repeated header names get " (2)", " (3)" appended,
+//! so item names are unique.
+//!
+//! Row numbers in errors are 1-based lines of the text as given: title lines, the header and
+//! blank lines all count, and a quoted cell spanning lines counts every line.
+
+mod build;
+mod dates;
+mod decode;
+mod label;
+mod mark;
+mod number;
+mod order;
+mod period;
+mod table;
+mod text;
+
+use crate::calendar::{Frequency, Period};
+use crate::series::{Series, SeriesError};
+
+/// The field separator found.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Delimiter {
+    Comma,
+    Semicolon,
+    Tab,
+    Pipe,
+}
+impl Delimiter {
+    /// "comma", "semicolon", "tab" or "pipe".
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Delimiter::Comma => "comma",
+            Delimiter::Semicolon => "semicolon",
+            Delimiter::Tab => "tab",
+            Delimiter::Pipe => "pipe",
+        }
+    }
+}
+
+/// The decimal mark found.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum DecimalMark {
+    Dot,
+    Comma,
+}
+impl DecimalMark {
+    /// "dot" or "comma".
+    pub fn as_str(self) -> &'static str {
+        match self {
+            DecimalMark::Dot => "dot",
+            DecimalMark::Comma => "comma",
+        }
+    }
+}
+
+/// How items are laid out in the table.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Layout {
+    Single,
+    Wide,
+    Long,
+}
+impl Layout {
+    /// "single", "wide" or "long".
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Layout::Single => "single",
+            Layout::Wide => "wide",
+            Layout::Long => "long",
+        }
+    }
+}
+
+/// One rejected cell or row.
+#[derive(Clone, Debug, PartialEq)]
+pub struct RowError {
+    /// 1-based line number in the text (title line and header count).
+    pub row: usize,
+    /// The header text of the column; "column 3" style when there is no header or the header
+    /// cell is empty; "" for problems of the whole text (such as an unclosed quote).
+    pub column: String,
+    /// The text found.
+    pub text: String,
+    /// What was expected, in words a user can act on.
+    pub message: String,
+}
+
+/// One item as read: a regular run of periods (gaps included as `None`).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Item {
+    pub name: String,
+    pub periods: Vec<Period>,
+    pub values: Vec<Option<f64>>,
+}
+
+impl Item {
+    /// The validated series for modelling.
+    pub fn series(&self) -> Result<Series, SeriesError> {
+        let start = self.periods.first().copied().unwrap_or(Period::position(1));
+        Series::new(self.name.clone(), start, self.values.clone())
+    }
+}
+
+/// What intake understood.
+#[derive(Clone, Debug, PartialEq)]
+pub struct IntakeReport {
+    /// The field separator; comma when the text has a single column.
+    pub delimiter: Delimiter,
+    pub decimal: DecimalMark,
+    pub layout: Layout,
+    pub frequency: Frequency,
+    /// How the period column was read, in words (e.g. "day-first dates (31/01/2024)").
+    pub date_format: Option<String>,
+    pub items: Vec<Item>,
+    /// Number of gaps inserted for missing periods, summed over items.
+    pub gaps_filled: usize,
+    pub warnings: Vec<String>,
+    pub errors: Vec<RowError>,
+    /// Whether a header row was found (item names come from it).
+    pub has_header: bool,
+    /// Empty value cells (including `NA`, `N/A`, `#N/A`, `null`) read as gaps.
+    pub empty_cells: usize,
+}
+
+impl IntakeReport {
+    /// True when at least one cell or row was rejected.
+    pub fn has_errors(&self) -> bool {
+        !self.errors.is_empty()
+    }
+}
+
+/// Reads bytes (a file as stored) into a report: UTF-8, or UTF-16 with its byte-order mark;
+/// every line holding bytes that are not text is an error (see the `decode` module). Never
+/// panics, whatever the bytes.
+pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
+    let decoded = decode::decode(bytes);
+    let mut report = read(&decoded.text);
+    report.errors.extend(decoded.errors);
+    report.errors.sort_by_key(|e| e.row);
+    report
+}
+
+/// Reads text into a report. Never panics, whatever the text.
+pub fn read(text: &str) -> IntakeReport {
+    let text = text::strip_bom(text);
+    let delimiter = text::sniff_delimiter(text).unwrap_or(Delimiter::Comma);
+    let tokens = text::tokenize(text, text::delimiter_char(delimiter));
+    let mut report = IntakeReport {
+        delimiter,
+        decimal: DecimalMark::Dot,
+        layout: Layout::Single,
+        frequency: Frequency::Undated,
+        date_format: None,
+        items: Vec::new(),
+        gaps_filled: 0,
+        warnings: Vec::new(),
+        errors: Vec::new(),
+        has_header: false,
+        empty_cells: 0,
+    };
+    for line in &tokens.unclosed_quotes {
+        report.errors.push(RowError {
+            row: *line,
+            column: String::new(),
+            text: "\"".to_string(),
+            message: "expected a closing quote mark for the cell opened on this line; the quote \
+                      mark was read as plain text: close it or remove it"
+                .to_string(),
+        });
+    }
+    let table = table::shape(tokens.records);
+    for title in &table.titles {
+        let words: Vec<&str> = title
+            .cells
+            .iter()
+            .map(String::as_str)
+            .filter(|c| !c.is_empty())
+            .collect();
+        report.warnings.push(format!(
+            "line {} (\"{}\") reads as a title above the table and was skipped",
+            title.line,
+            words.join(" ")
+        ));
+    }
+    report.has_header = table.header.is_some();
+    if table.rows.iter().all(text::Record::is_blank) {
+        let (row, message) = match &table.header {
+            Some(h) => (
+                h.line,
+                "expected rows of data below the header; there are none",
+            ),
+            None => (
+                1,
+                "expected a table of periods and quantities; the text is empty",
+            ),
+        };
+        report.errors.push(RowError {
+            row,
+            column: String::new(),
+            text: String::new(),
+            message: message.to_string(),
+        });
+        return report;
+    }
+    if !report.has_header {
+        report.warnings.push(
+            "no header row: columns are called \"column 1\", \"column 2\", ... and series \
+             \"Series 1\", \"Series 2\", ..."
+                .to_string(),
+        );
+    }
+    let plan = match table::plan(&table) {
+        Ok(plan) => plan,
+        Err(error) => {
+            report.errors.push(error);
+            return report;
+        }
+    };
+    report.layout = plan.layout;
+    let rows = table.fitting_rows();
+    let mut tally = mark::Tally::default();
+    for &j in &plan.values {
+        for cell in table.column(j, &rows) {
+            tally.add(mark::evidence(cell));
+        }
+    }
+    let (mark, warning) = mark::decide_mark(tally, delimiter == Delimiter::Semicolon);
+    report.decimal = mark;
+    report.warnings.extend(warning);
+    let built = build::build(&table, &plan, mark);
+    report.frequency = built.frequency.unwrap_or(Frequency::Undated);
+    report.date_format = built.date_format;
+    report.items = built.items;
+    report.gaps_filled = built.gaps_filled;
+    report.empty_cells = built.empty_cells;
+    report.warnings.extend(built.warnings);
+    report.errors.extend(built.errors);
+    report.errors.sort_by_key(|e| e.row);
+    report
+}

@@ -1,0 +1,325 @@
+//! Forecasting methods: each fits itself to a history and forecasts a horizon.
+//!
+//! Kept apart from: scoring and ranking ([`crate::backtest`]), bands
+//! ([`crate::bands`], which uses the analytic variances returned here when a method has
+//! them) and pattern detection (the caller passes the accepted season length).
+//!
+//! Every method goes through [`fit`]: history in, [`Fitted`] out. Parameters are fitted by
+//! [`optimize`] on the history only, so a backtest that passes the training part never lets the
+//! method see the holdout.
+
+crate::internal_modules!(
+    adjusted,
+    decompose,
+    intermittent,
+    optimize,
+    simple,
+    smoothing,
+    theta,
+    trend_season,
+);
+
+use std::fmt;
+
+/// The candidate methods. Published methods keep their usual names.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum MethodKind {
+    /// Last value repeated.
+    Naive,
+    /// Value of the same season position one season ago.
+    SeasonalNaive,
+    /// Mean of the last k values, k chosen on the history by one-step SSE.
+    MovingAverage,
+    /// Simple exponential smoothing (Brown 1956).
+    Ses,
+    /// Holt's linear trend (Holt 1957).
+    Holt,
+    /// Additive damped trend (Gardner & McKenzie 1985).
+    DampedTrend,
+    /// Holt-Winters with additive season (Winters 1960).
+    HoltWintersAdditive,
+    /// Holt-Winters with multiplicative season (Winters 1960).
+    HoltWintersMultiplicative,
+    /// Holt-Winters additive with damped trend.
+    DampedHoltWintersAdditive,
+    /// Holt-Winters multiplicative with damped trend.
+    DampedHoltWintersMultiplicative,
+    /// The Theta method as the M3/M4 benchmark (Assimakopoulos & Nikolopoulos 2000).
+    Theta,
+    /// Least-squares line times classical seasonal indices.
+    TrendSeasonal,
+    /// Croston's method for intermittent demand (Croston 1972).
+    Croston,
+    /// Syntetos-Boylan approximation (Syntetos & Boylan 2005).
+    Sba,
+    /// Teunter-Syntetos-Babai (Teunter, Syntetos & Babai 2011).
+    Tsb,
+}
+
+impl MethodKind {
+    /// Every method, in a stable order.
+    pub const ALL: [MethodKind; 15] = [
+        MethodKind::Naive,
+        MethodKind::SeasonalNaive,
+        MethodKind::MovingAverage,
+        MethodKind::Ses,
+        MethodKind::Holt,
+        MethodKind::DampedTrend,
+        MethodKind::HoltWintersAdditive,
+        MethodKind::HoltWintersMultiplicative,
+        MethodKind::DampedHoltWintersAdditive,
+        MethodKind::DampedHoltWintersMultiplicative,
+        MethodKind::Theta,
+        MethodKind::TrendSeasonal,
+        MethodKind::Croston,
+        MethodKind::Sba,
+        MethodKind::Tsb,
+    ];
+
+    /// Stable machine name used in JSON and on the command line.
+    pub fn key(self) -> &'static str {
+        match self {
+            MethodKind::Naive => "naive",
+            MethodKind::SeasonalNaive => "seasonal_naive",
+            MethodKind::MovingAverage => "moving_average",
+            MethodKind::Ses => "ses",
+            MethodKind::Holt => "holt",
+            MethodKind::DampedTrend => "damped_trend",
+            MethodKind::HoltWintersAdditive => "holt_winters_additive",
+            MethodKind::HoltWintersMultiplicative => "holt_winters_multiplicative",
+            MethodKind::DampedHoltWintersAdditive => "holt_winters_additive_damped",
+            MethodKind::DampedHoltWintersMultiplicative => "holt_winters_multiplicative_damped",
+            MethodKind::Theta => "theta",
+            MethodKind::TrendSeasonal => "trend_seasonal",
+            MethodKind::Croston => "croston",
+            MethodKind::Sba => "sba",
+            MethodKind::Tsb => "tsb",
+        }
+    }
+
+    /// Name for people.
+    pub fn label(self) -> &'static str {
+        match self {
+            MethodKind::Naive => "Naive",
+            MethodKind::SeasonalNaive => "Seasonal naive",
+            MethodKind::MovingAverage => "Moving average",
+            MethodKind::Ses => "Simple exponential smoothing",
+            MethodKind::Holt => "Holt's linear trend",
+            MethodKind::DampedTrend => "Damped trend",
+            MethodKind::HoltWintersAdditive => "Holt-Winters additive",
+            MethodKind::HoltWintersMultiplicative => "Holt-Winters multiplicative",
+            MethodKind::DampedHoltWintersAdditive => "Holt-Winters additive, damped",
+            MethodKind::DampedHoltWintersMultiplicative => "Holt-Winters multiplicative, damped",
+            MethodKind::Theta => "Theta",
+            MethodKind::TrendSeasonal => "Linear trend with seasonal indices",
+            MethodKind::Croston => "Croston",
+            MethodKind::Sba => "SBA",
+            MethodKind::Tsb => "TSB",
+        }
+    }
+
+    /// Parses a [`MethodKind::key`].
+    pub fn from_key(key: &str) -> Option<MethodKind> {
+        MethodKind::ALL.into_iter().find(|k| k.key() == key)
+    }
+
+    /// Whether the method needs an accepted season length of at least 2.
+    pub fn needs_season(self) -> bool {
+        matches!(
+            self,
+            MethodKind::SeasonalNaive
+                | MethodKind::HoltWintersAdditive
+                | MethodKind::HoltWintersMultiplicative
+                | MethodKind::DampedHoltWintersAdditive
+                | MethodKind::DampedHoltWintersMultiplicative
+                | MethodKind::TrendSeasonal
+        )
+    }
+
+    /// Whether the method is meant for intermittent demand (many zero periods).
+    pub fn is_intermittent(self) -> bool {
+        matches!(
+            self,
+            MethodKind::Croston | MethodKind::Sba | MethodKind::Tsb
+        )
+    }
+}
+
+impl fmt::Display for MethodKind {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.label())
+    }
+}
+
+/// Why a method cannot be fitted to this history. Each message says what would make it fit.
+#[derive(Clone, Debug, PartialEq)]
+pub enum MethodError {
+    /// Too few observations for the method.
+    TooShort {
+        method: MethodKind,
+        needed: usize,
+        found: usize,
+    },
+    /// The method needs a season length of at least 2 and none was accepted.
+    NeedsSeason { method: MethodKind },
+    /// Multiplicative season needs strictly positive demand.
+    NeedsPositive { method: MethodKind },
+    /// Intermittent methods need at least one non-zero demand.
+    NoDemand { method: MethodKind },
+    /// The fit produced non-finite numbers (the data are too extreme for the method).
+    Diverged { method: MethodKind },
+}
+
+impl fmt::Display for MethodError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            MethodError::TooShort {
+                method,
+                needed,
+                found,
+            } => write!(
+                f,
+                "{method} needs at least {needed} periods of history, this item has {found}"
+            ),
+            MethodError::NeedsSeason { method } => write!(
+                f,
+                "{method} needs a season length of 2 or more; none was detected (set one to use it)"
+            ),
+            MethodError::NeedsPositive { method } => write!(
+                f,
+                "{method} needs every period's demand above zero; this item has zeros or returns"
+            ),
+            MethodError::NoDemand { method } => {
+                write!(
+                    f,
+                    "{method} needs at least one period with demand above zero"
+                )
+            }
+            MethodError::Diverged { method } => write!(
+                f,
+                "{method} could not be fitted: its numbers ran out of range on this item"
+            ),
+        }
+    }
+}
+
+impl std::error::Error for MethodError {}
+
+/// A named fitted parameter or initial state, for display (e.g. "alpha", "l0").
+#[derive(Clone, Debug, PartialEq)]
+pub struct Parameter {
+    pub name: &'static str,
+    pub value: f64,
+}
+
+/// A method fitted to a history.
+///
+/// Invariants: `fitted.len()` equals the history length; `forecast.len()` equals the requested
+/// horizon; `variance`, when present, has one positive entry per horizon step.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Fitted {
+    kind: MethodKind,
+    fitted: Vec<Option<f64>>,
+    forecast: Vec<f64>,
+    variance: Option<Vec<f64>>,
+    parameters: Vec<Parameter>,
+}
+
+impl Fitted {
+    /// Assembles a fit. Methods call this; checks the invariants in debug builds.
+    pub fn new(
+        kind: MethodKind,
+        fitted: Vec<Option<f64>>,
+        forecast: Vec<f64>,
+        variance: Option<Vec<f64>>,
+        parameters: Vec<Parameter>,
+    ) -> Result<Fitted, MethodError> {
+        let finite = forecast.iter().all(|v| v.is_finite())
+            && fitted.iter().flatten().all(|v| v.is_finite())
+            && variance
+                .as_ref()
+                .is_none_or(|v| v.iter().all(|x| x.is_finite() && *x >= 0.0));
+        if !finite {
+            return Err(MethodError::Diverged { method: kind });
+        }
+        Ok(Fitted {
+            kind,
+            fitted,
+            forecast,
+            variance,
+            parameters,
+        })
+    }
+
+    pub fn kind(&self) -> MethodKind {
+        self.kind
+    }
+    /// One-step-ahead in-sample forecasts, aligned with the history; `None` where the method
+    /// has no forecast yet (e.g. the first period of the naive method).
+    pub fn fitted(&self) -> &[Option<f64>] {
+        &self.fitted
+    }
+    /// Point forecasts for steps 1..=horizon after the history.
+    pub fn forecast(&self) -> &[f64] {
+        &self.forecast
+    }
+    /// Analytic h-step forecast-error variances (Hyndman, Koehler, Ord & Snyder 2005) where the
+    /// method's model has them.
+    pub fn variance(&self) -> Option<&[f64]> {
+        self.variance.as_deref()
+    }
+    pub fn parameters(&self) -> &[Parameter] {
+        &self.parameters
+    }
+    /// One-step in-sample errors e_t = F_t - D_t where a fitted value exists.
+    pub fn residuals(&self, history: &[f64]) -> Vec<f64> {
+        self.fitted
+            .iter()
+            .zip(history)
+            .filter_map(|(f, d)| f.map(|f| f - d))
+            .collect()
+    }
+}
+
+/// Fits `kind` to `history` and forecasts `horizon` steps. `season_length` is the accepted
+/// season length (`None` or 1: no season). With a season, SES, Holt's and damped trend run on
+/// the seasonally adjusted series ([`adjusted`]), as in the M3/M4 benchmarks; Theta adjusts
+/// itself; the other methods model the season directly or ignore it.
+pub fn fit(
+    kind: MethodKind,
+    history: &[f64],
+    season_length: Option<usize>,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
+    let season = season_length.filter(|m| *m >= 2);
+    if kind.needs_season() && season.is_none() {
+        return Err(MethodError::NeedsSeason { method: kind });
+    }
+    match kind {
+        MethodKind::Naive => simple::naive(history, horizon),
+        MethodKind::SeasonalNaive => simple::seasonal_naive(history, season.unwrap_or(1), horizon),
+        MethodKind::MovingAverage => simple::moving_average(history, horizon),
+        MethodKind::Ses | MethodKind::Holt | MethodKind::DampedTrend => {
+            match adjusted::applies(history, season) {
+                Some(m) => adjusted::fit_adjusted(history, m, horizon, |y| {
+                    smoothing::fit(kind, y, None, horizon)
+                }),
+                None => smoothing::fit(kind, history, None, horizon),
+            }
+        }
+        MethodKind::HoltWintersAdditive
+        | MethodKind::HoltWintersMultiplicative
+        | MethodKind::DampedHoltWintersAdditive
+        | MethodKind::DampedHoltWintersMultiplicative => {
+            smoothing::fit(kind, history, season, horizon)
+        }
+        MethodKind::Theta => theta::theta(history, season, horizon),
+        MethodKind::TrendSeasonal => {
+            trend_season::trend_seasonal(history, season.unwrap_or(1), horizon)
+        }
+        MethodKind::Croston | MethodKind::Sba | MethodKind::Tsb => {
+            intermittent::fit(kind, history, horizon)
+        }
+    }
+}

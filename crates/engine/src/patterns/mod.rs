@@ -1,0 +1,23 @@
+//! Patterns: season length, trend and demand class of one series, each with its evidence and a
+//! one-sentence reason a planner can read.
+//!
+//! Kept apart from: forecasting methods (they receive the accepted season length from the
+//! caller) and from I/O. Each verdict is computed from plain values so it can be checked
+//! against outside references on its own:
+//! - [`acf`]: sample autocorrelation (Box-Jenkins estimator);
+//! - [`season`]: season-length candidate and the M4 benchmark seasonality test;
+//! - [`trend`]: the Mann-Kendall trend test;
+//! - [`demand_class`]: the Syntetos-Boylan-Croston demand classes.
+
+crate::internal_modules!(acf, demand_class, season, trend);
+
+pub use acf::autocorrelation;
+pub use demand_class::{classify_demand, DemandClass, DemandVerdict, ADI_CUTOFF, CV2_CUTOFF};
+pub use season::{
+    autocorrelation_peak, detect_season, season_test, SeasonSource, SeasonTest, SeasonVerdict,
+    MIN_FULL_SEASONS, SEASON_TEST_CRITICAL_VALUE,
+};
+pub use trend::{mann_kendall, TrendDirection, TrendVerdict, TREND_SIGNIFICANCE};
+
+#[cfg(test)]
+mod season_tests;

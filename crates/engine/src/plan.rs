@@ -1,0 +1,478 @@
+//! Plan: the whole job for one item, from a validated series to a ranked, banded forecast.
+//!
+//! Kept apart from: reading text and showing results. This is thin glue over
+//! [`crate::patterns`], [`crate::backtest`], [`crate::methods`] and
+//! [`crate::bands`]; it owns only the defaults and the order of the steps:
+//! 1. fill inner gaps by linear interpolation (named in the notes);
+//! 2. detect season length (a user override wins), trend and demand class;
+//! 3. choose the candidates that apply; backtest and rank them on the holdout;
+//! 4. refit the winner on all data and forecast the horizon with its band.
+
+use std::fmt;
+
+use crate::accuracy::{LedgerRow, DEFAULT_TRACKING_LIMIT};
+use crate::backtest::{self, Backtest, BacktestError, BacktestSettings, Candidate, RankBy};
+use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
+use crate::calendar::Period;
+use crate::methods::{self, MethodKind};
+use crate::patterns::{self, DemandClass, DemandVerdict, SeasonVerdict, TrendVerdict};
+use crate::series::Series;
+
+/// Fewest periods the plan works with.
+pub const MIN_PERIODS: usize = 4;
+
+/// Rolling origins over the history used for empirical bands (our choice: each origin forecasts
+/// the whole horizon, so eight origins give eight errors at every horizon and, pooled by
+/// [`bands::empirical_band`], enough points for quantiles, with few enough refits to stay fast).
+pub const BAND_ORIGINS: usize = 8;
+
+/// Which candidate becomes the forecast.
+#[derive(Clone, Debug, PartialEq, Eq, Default)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum Choice {
+    /// The equal-weight combination of the best [`backtest::COMBINATION_SIZE`] single methods of
+    /// the ranking (the best single method when fewer than two could be scored). On the M3 data
+    /// always combining beat picking the top-ranked candidate (README, Benchmarks): a holdout of
+    /// one season is too short to tell close methods apart, and averaging hedges the pick.
+    #[default]
+    Auto,
+    /// Whatever ranks first, single method or combination.
+    Best,
+    /// A named candidate: a method key, or "combination".
+    Named(String),
+}
+
+impl Choice {
+    /// Parses "auto", "best", "combination" or a method key.
+    pub fn from_key(key: &str) -> Option<Choice> {
+        match key {
+            "auto" => Some(Choice::Auto),
+            "best" => Some(Choice::Best),
+            "combination" => Some(Choice::Named(key.to_string())),
+            other => MethodKind::from_key(other).map(|k| Choice::Named(k.key().to_string())),
+        }
+    }
+}
+
+/// Season length choice.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum SeasonChoice {
+    #[default]
+    Auto,
+    /// A user-given season length (1 = no season); always wins over detection.
+    Fixed(usize),
+}
+
+/// Settings of one plan. Defaults: horizon from the calendar, automatic season, holdout = last
+/// full season, 95 % horizon-aware band, ranked by MASE, tracking limit 4, 3 rolling origins.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct PlanSettings {
+    /// Periods to forecast; `None`: the calendar's season length, else 6.
+    pub horizon: Option<usize>,
+    pub season: SeasonChoice,
+    /// Holdout length; `None`: [`backtest::default_holdout`].
+    pub holdout: Option<usize>,
+    pub level: Level,
+    pub band: BandMethod,
+    pub rank_by: RankBy,
+    pub tracking_limit: f64,
+    pub origins: usize,
+    /// Methods to try; `None`: all that apply.
+    pub methods: Option<Vec<MethodKind>>,
+    pub combine: bool,
+    pub choice: Choice,
+}
+
+impl Default for PlanSettings {
+    fn default() -> Self {
+        PlanSettings {
+            horizon: None,
+            season: SeasonChoice::Auto,
+            holdout: None,
+            level: Level::default(),
+            band: BandMethod::default(),
+            rank_by: RankBy::default(),
+            tracking_limit: DEFAULT_TRACKING_LIMIT,
+            origins: 3,
+            methods: None,
+            combine: true,
+            choice: Choice::Auto,
+        }
+    }
+}
+
+/// Why an item could not be planned.
+#[derive(Clone, Debug, PartialEq)]
+pub enum PlanError {
+    /// Fewer than [`MIN_PERIODS`] periods: add more history.
+    TooShort { name: String, length: usize },
+    /// The horizon is zero: forecast at least one period.
+    ZeroHorizon,
+    /// The asked-for method could not be scored on this item: pick one of the available ones.
+    NotCandidate {
+        name: String,
+        wanted: String,
+        available: Vec<String>,
+    },
+    /// The backtest failed (see its message).
+    Backtest { name: String, source: BacktestError },
+}
+
+impl fmt::Display for PlanError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            PlanError::TooShort { name, length } => write!(
+                f,
+                "item \"{name}\" has {length} periods; at least {MIN_PERIODS} are needed to test and forecast"
+            ),
+            PlanError::ZeroHorizon => write!(f, "the horizon is 0: forecast at least one period"),
+            PlanError::NotCandidate { name, wanted, available } => write!(
+                f,
+                "item \"{name}\": method \"{wanted}\" could not be scored here; available: {}",
+                available.join(", ")
+            ),
+            PlanError::Backtest { name, source } => write!(f, "item \"{name}\": {source}"),
+        }
+    }
+}
+
+impl std::error::Error for PlanError {}
+
+/// One forecast period.
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct ForecastPoint {
+    pub period: Period,
+    pub band: BandPoint,
+    pub source: BandSource,
+}
+
+/// One holdout period of the Error ledger.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LedgerEntry {
+    pub period: Period,
+    pub row: LedgerRow,
+}
+
+/// Everything the front ends show for one item.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct ItemPlan {
+    pub name: String,
+    pub season: SeasonVerdict,
+    pub trend: TrendVerdict,
+    pub demand: DemandVerdict,
+    pub backtest: Backtest,
+    pub chosen: Candidate,
+    /// Holdout periods of the chosen candidate, with its Error ledger.
+    pub ledger: Vec<LedgerEntry>,
+    /// History after gap filling.
+    pub history: Vec<f64>,
+    /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined;
+    /// all `None` for a combination).
+    pub fitted: Vec<Option<f64>>,
+    pub forecast: Vec<ForecastPoint>,
+    pub level: Level,
+    pub band: BandMethod,
+    /// Plain-words notes: gaps filled, methods skipped and why.
+    pub notes: Vec<String>,
+}
+
+/// The methods that apply to a series with this season and demand class.
+pub fn applicable_methods(
+    season: Option<usize>,
+    demand: &DemandVerdict,
+    has_zeros: bool,
+) -> Vec<MethodKind> {
+    MethodKind::ALL
+        .into_iter()
+        .filter(|k| !k.needs_season() || season.is_some())
+        .filter(|k| {
+            !k.is_intermittent()
+                || has_zeros
+                || matches!(demand.class, DemandClass::Intermittent | DemandClass::Lumpy)
+        })
+        .collect()
+}
+
+/// How far a plan has come: `done` of `total` steps (one per candidate method in the backtest,
+/// then one for the chosen method's refit and band, which is reported again at each of the
+/// band's rolling origins, so a listener hears that the work goes on).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Progress {
+    pub done: usize,
+    pub total: usize,
+}
+
+/// Plans one item.
+pub fn plan_item(series: &Series, settings: &PlanSettings) -> Result<ItemPlan, PlanError> {
+    plan_item_observed(series, settings, &mut |_| {})
+}
+
+/// [`plan_item`], reporting its [`Progress`] as it goes.
+pub fn plan_item_observed(
+    series: &Series,
+    settings: &PlanSettings,
+    progress: &mut dyn FnMut(Progress),
+) -> Result<ItemPlan, PlanError> {
+    plan_inner(series, settings, progress, None)
+}
+
+/// [`plan_item`] with another choice of candidate, reusing the ranking of `earlier` (the plan
+/// of this series under `earlier_settings`) instead of backtesting again. The ranking is
+/// reused only when it is the one these settings would make: the same history and settings
+/// that differ at most in [`PlanSettings::choice`]; otherwise the plan is made afresh.
+pub fn plan_item_reusing(
+    series: &Series,
+    settings: &PlanSettings,
+    earlier: &ItemPlan,
+    earlier_settings: &PlanSettings,
+) -> Result<ItemPlan, PlanError> {
+    let same_ranking = PlanSettings {
+        choice: Choice::Auto,
+        ..settings.clone()
+    } == PlanSettings {
+        choice: Choice::Auto,
+        ..earlier_settings.clone()
+    } && earlier.history == series.interpolated();
+    let reuse = same_ranking.then_some(&earlier.backtest);
+    plan_inner(series, settings, &mut |_| {}, reuse)
+}
+
+fn plan_inner(
+    series: &Series,
+    settings: &PlanSettings,
+    progress: &mut dyn FnMut(Progress),
+    reuse: Option<&Backtest>,
+) -> Result<ItemPlan, PlanError> {
+    let name = series.name().to_string();
+    let history = series.interpolated();
+    let n = history.len();
+    if n < MIN_PERIODS {
+        return Err(PlanError::TooShort { name, length: n });
+    }
+    let frequency = series.frequency();
+    let horizon = settings
+        .horizon
+        .unwrap_or(frequency.natural_season().unwrap_or(6));
+    if horizon == 0 {
+        return Err(PlanError::ZeroHorizon);
+    }
+    let mut notes = Vec::new();
+    let gaps = series.gap_indices();
+    if !gaps.is_empty() {
+        let labels: Vec<String> = gaps.iter().map(|&i| series.period(i).to_string()).collect();
+        notes.push(format!(
+            "{} missing period(s) filled by straight-line interpolation: {}",
+            gaps.len(),
+            labels.join(", ")
+        ));
+    }
+
+    let user_season = match settings.season {
+        SeasonChoice::Auto => None,
+        SeasonChoice::Fixed(m) => Some(m),
+    };
+    let season = patterns::detect_season(&history, frequency, user_season);
+    let trend = patterns::mann_kendall(&history);
+    let demand = patterns::classify_demand(&history);
+    let m = season.length;
+    let non_negative = history.iter().all(|v| *v >= 0.0);
+    let has_zeros = history.contains(&0.0);
+
+    let candidates = settings
+        .methods
+        .clone()
+        .unwrap_or_else(|| applicable_methods(m, &demand, has_zeros));
+    let holdout = settings
+        .holdout
+        .unwrap_or_else(|| backtest::default_holdout(n, m.or(frequency.natural_season())));
+    let bt_settings = BacktestSettings {
+        holdout,
+        origins: settings.origins,
+        rank_by: settings.rank_by,
+        candidates,
+        combine: settings.combine,
+    };
+    let steps = bt_settings.candidates.len() + 1;
+    let bt = match reuse {
+        Some(bt) => bt.clone(),
+        None => backtest::run_observed(&history, m, &bt_settings, &mut |done, _| {
+            progress(Progress { done, total: steps })
+        })
+        .map_err(|source| PlanError::Backtest {
+            name: name.clone(),
+            source,
+        })?,
+    };
+    for s in &bt.skipped {
+        notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
+    }
+    let best = choose(&bt, &settings.choice).ok_or_else(|| PlanError::NotCandidate {
+        name: name.clone(),
+        wanted: match &settings.choice {
+            Choice::Named(key) => key.clone(),
+            _ => "auto".to_string(),
+        },
+        available: bt
+            .ranking
+            .iter()
+            .map(|s| s.candidate.key().to_string())
+            .collect(),
+    })?;
+    let chosen = best.candidate.clone();
+    let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit);
+    let ledger: Vec<LedgerEntry> = ledger_rows
+        .into_iter()
+        .enumerate()
+        .map(|(i, row)| LedgerEntry {
+            period: series.period(n - holdout + i),
+            row,
+        })
+        .collect();
+
+    let (point, fitted, variance) = refit(&chosen, &history, m, horizon);
+    let residual_mad = mean_abs_residual(&fitted, &history)
+        .or_else(|| ledger.last().map(|e| e.row.mad))
+        .unwrap_or(0.0);
+    let mad_band = || {
+        let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
+        let src = vec![BandSource::MadRule; pts.len()];
+        (pts, src)
+    };
+    let points_and_sources = match (settings.band, variance) {
+        (BandMethod::MadRule, _) => mad_band(),
+        (BandMethod::HorizonAware, Some(v)) => {
+            let pts = bands::analytic_band(&point, &v, settings.level, non_negative);
+            let src = vec![BandSource::Analytic; pts.len()];
+            (pts, src)
+        }
+        (BandMethod::HorizonAware, None) => {
+            let min_train = (2 * m.unwrap_or(1)).max(MIN_PERIODS);
+            let last_step = Progress {
+                done: steps - 1,
+                total: steps,
+            };
+            let errors = backtest::rolling_errors(
+                &chosen,
+                &history,
+                m,
+                horizon,
+                min_train,
+                BAND_ORIGINS,
+                Some(&bt),
+                &mut || progress(last_step),
+            );
+            if errors.iter().all(Vec::is_empty) {
+                // Too short for any rolling origin: the MAD rule is the honest fallback.
+                notes.push("the history is too short for rolling-origin errors: the band uses the MAD rule".into());
+                mad_band()
+            } else {
+                bands::empirical_band(&point, &errors, settings.level, non_negative)
+            }
+        }
+    };
+    let last = series.period(n - 1);
+    let forecast = points_and_sources
+        .0
+        .into_iter()
+        .zip(points_and_sources.1)
+        .enumerate()
+        .map(|(h, (band, source))| ForecastPoint {
+            period: last.offset(h as i64 + 1),
+            band,
+            source,
+        })
+        .collect();
+
+    Ok(ItemPlan {
+        name,
+        season,
+        trend,
+        demand,
+        backtest: bt,
+        chosen,
+        ledger,
+        history,
+        fitted,
+        forecast,
+        level: settings.level,
+        band: settings.band,
+        notes,
+    })
+}
+
+/// The scored candidate that `choice` selects.
+fn choose<'a>(bt: &'a Backtest, choice: &Choice) -> Option<&'a backtest::Scored> {
+    match choice {
+        Choice::Best => bt.ranking.first(),
+        Choice::Auto => bt
+            .ranking
+            .iter()
+            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .or_else(|| bt.ranking.first()),
+        Choice::Named(key) => bt.ranking.iter().find(|s| s.candidate.key() == key),
+    }
+}
+
+/// Refits a candidate on all data: point forecasts, in-sample fit and analytic variances.
+/// When the refit fails (it fitted on the shorter training part, so this is rare) the
+/// seasonal-naive or naive forecast stands in, and the point forecast is still produced.
+fn refit(
+    candidate: &Candidate,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
+    match candidate {
+        Candidate::Method(kind) => match methods::fit(*kind, history, season, horizon) {
+            Ok(f) => (
+                f.forecast().to_vec(),
+                f.fitted().to_vec(),
+                f.variance().map(<[f64]>::to_vec),
+            ),
+            Err(_) => fallback(history, horizon),
+        },
+        Candidate::Combination(members) => {
+            let fits: Result<Vec<_>, _> = members
+                .iter()
+                .map(|k| methods::fit(*k, history, season, horizon))
+                .collect();
+            match fits {
+                Ok(fits) if !fits.is_empty() => {
+                    let k = fits.len() as f64;
+                    let point = (0..horizon)
+                        .map(|h| fits.iter().map(|f| f.forecast()[h]).sum::<f64>() / k)
+                        .collect();
+                    let fitted = (0..history.len())
+                        .map(|t| {
+                            fits.iter()
+                                .map(|f| f.fitted()[t])
+                                .sum::<Option<f64>>()
+                                .map(|s| s / k)
+                        })
+                        .collect();
+                    (point, fitted, None)
+                }
+                _ => fallback(history, horizon),
+            }
+        }
+    }
+}
+
+fn fallback(history: &[f64], horizon: usize) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
+    let last = history.last().copied().unwrap_or(0.0);
+    (vec![last; horizon], vec![None; history.len()], None)
+}
+
+fn mean_abs_residual(fitted: &[Option<f64>], history: &[f64]) -> Option<f64> {
+    let errors: Vec<f64> = fitted
+        .iter()
+        .zip(history)
+        .filter_map(|(f, d)| f.map(|f| (f - d).abs()))
+        .collect();
+    (!errors.is_empty()).then(|| errors.iter().sum::<f64>() / errors.len() as f64)
+}

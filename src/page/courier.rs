@@ -1,0 +1,271 @@
+//! The page's side of the plan worker: sends asks, keeps at most one in flight, and hands the
+//! newest answer to the page's state.
+//!
+//! Kept apart from: what the worker computes (src/worker.rs) and how answers are shown. Only
+//! this file and the worker serialise in the browser (gloo-worker's bincode codec).
+//!
+//! Why one in flight: a worker answers in order, so a burst of changes (typing a horizon, a
+//! string of clicks) would otherwise queue a plan per keystroke. While one is out, newer asks
+//! replace each other; when its answer arrives it is dropped if a newer ask waits, and that one
+//! goes out. The page so always ends showing the plan of its latest inputs.
+
+use std::cell::RefCell;
+use std::rc::Rc;
+
+use crate::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
+use gloo_worker::{Spawnable, WorkerBridge};
+
+use super::browser::{blob_url, now_ms};
+use wasm_bindgen::prelude::*;
+use wasm_bindgen::JsCast;
+
+/// Where the worker's boot module is named: index.html gets a `<meta name="...">` from
+/// scripts/inline-wasm.sh (its file name carries a hash, so a stale cached copy is never used).
+const WORKER_META: &str = "morrowcast-worker";
+
+type Deliver = Rc<dyn Fn(PlanAnswer)>;
+type Report = Rc<dyn Fn(usize, usize)>;
+
+struct Inner {
+    bridge: Option<WorkerBridge<PlanWorker>>,
+    next_ticket: u64,
+    in_flight: Option<u64>,
+    waiting: Option<PlanAsk>,
+    /// Ticket of the newest ask; `None` after [`Courier::forget`]. Only its answer is shown.
+    latest: Option<u64>,
+    deliver: Deliver,
+    report: Report,
+    /// Page clock (ms) when the worker was last asked or last heard from.
+    last_heard: f64,
+}
+
+impl Inner {
+    /// Sends `ask` to the worker as the one in flight.
+    fn send_now(&mut self, ask: PlanAsk) {
+        self.in_flight = Some(ask.ticket);
+        self.last_heard = now_ms();
+        if let Some(bridge) = &self.bridge {
+            bridge.send(ask);
+        }
+    }
+}
+
+/// The page's handle on the worker; cheap to clone.
+#[derive(Clone)]
+pub struct Courier {
+    inner: Rc<RefCell<Inner>>,
+}
+
+/// The worker's boot module as index.html names it, as an absolute address.
+fn worker_module() -> Option<String> {
+    let doc = web_sys::window()?.document()?;
+    let meta = doc
+        .query_selector(&format!("meta[name=\"{WORKER_META}\"]"))
+        .ok()??;
+    let path = meta.get_attribute("content")?;
+    let base = doc.base_uri().ok()??;
+    Some(web_sys::Url::new_with_base(&path, &base).ok()?.href())
+}
+
+/// A `blob:` address of a one-line module that imports the worker's boot module.
+///
+/// Why: a worker started from a page's own file takes its Content-Security-Policy from that
+/// file's HTTP headers, which a static host does not send, so it could connect anywhere. A
+/// worker started from a `blob:` address inherits the page's policy instead (CSP Level 3,
+/// "initialize a worker's policy container"), so `connect-src 'none'` binds it too.
+///
+/// The import is dynamic: Chromium 156 failed to load the static `import "..."` form in a
+/// `blob:` module worker (an error event with no message), while `import()` loads. A failed
+/// import is thrown again outside the promise, so it surfaces as the worker's error.
+fn worker_blob(module: &str) -> Option<String> {
+    blob_url(
+        &format!(
+            "import(\"{}\").catch((e) => setTimeout(() => {{ throw e; }}));",
+            module.replace('"', "%22")
+        ),
+        "text/javascript",
+    )
+}
+
+/// Whether this browser starts module workers (`new Worker(url, { type: "module" })`): a
+/// browser that does not know the option never reads it, which the getter notices.
+fn module_workers_supported() -> bool {
+    let seen = Rc::new(std::cell::Cell::new(false));
+    let flag = seen.clone();
+    let getter = Closure::<dyn FnMut() -> JsValue>::new(move || {
+        flag.set(true);
+        JsValue::from_str("module")
+    });
+    let options = js_sys::Object::new();
+    let descriptor = js_sys::Object::new();
+    let _ = js_sys::Reflect::set(&descriptor, &"get".into(), getter.as_ref());
+    let _ = js_sys::Reflect::define_property(&options, &"type".into(), &descriptor);
+    // An empty module: nothing runs, nothing is fetched.
+    if let Some(url) = blob_url("", "text/javascript") {
+        if let Ok(w) = web_sys::Worker::new_with_options(&url, options.unchecked_ref()) {
+            w.terminate();
+        }
+        let _ = web_sys::Url::revoke_object_url(&url);
+    }
+    seen.get()
+}
+
+/// Why the page has no worker to compute with.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum NoWorker {
+    /// The page does not name its worker (built without scripts/inline-wasm.sh).
+    NotBuilt,
+    /// This browser cannot start module workers.
+    Unsupported,
+}
+
+impl NoWorker {
+    /// The page's words for it.
+    pub fn words(self) -> &'static str {
+        match self {
+            NoWorker::NotBuilt => {
+                "this copy of the page has no worker to compute with (it was built without scripts/inline-wasm.sh)"
+            }
+            NoWorker::Unsupported => {
+                "this browser cannot run the page's computing part (it needs module Web Workers, which recent Chromium, Edge, Firefox and Safari have). Your data stays in the Intake box"
+            }
+        }
+    }
+}
+
+impl Courier {
+    /// Starts the worker; `deliver` gets each answer the page should show, `report` the
+    /// progress (done, total) of the ask it waits for.
+    pub fn start(
+        deliver: impl Fn(PlanAnswer) + 'static,
+        report: impl Fn(usize, usize) + 'static,
+    ) -> Result<Courier, NoWorker> {
+        if worker_module().is_none() {
+            return Err(NoWorker::NotBuilt);
+        }
+        if !module_workers_supported() {
+            return Err(NoWorker::Unsupported);
+        }
+        let courier = Courier {
+            inner: Rc::new(RefCell::new(Inner {
+                bridge: None,
+                next_ticket: 1,
+                in_flight: None,
+                waiting: None,
+                latest: None,
+                deliver: Rc::new(deliver),
+                report: Rc::new(report),
+                last_heard: 0.0,
+            })),
+        };
+        courier.spawn().ok_or(NoWorker::NotBuilt)?;
+        Ok(courier)
+    }
+
+    fn spawn(&self) -> Option<()> {
+        let path = worker_blob(&worker_module()?)?;
+        let weak = Rc::downgrade(&self.inner);
+        let bridge = PlanWorker::spawner()
+            .callback(move |news| {
+                if let Some(inner) = weak.upgrade() {
+                    match news {
+                        WorkerNews::Answer(answer) => Courier { inner }.arrived(*answer),
+                        WorkerNews::Progress {
+                            ticket,
+                            done,
+                            total,
+                        } => Courier { inner }.progressed(ticket, done, total),
+                    }
+                }
+            })
+            .with_loader(true)
+            .spawn(&path);
+        self.inner.borrow_mut().bridge = Some(bridge);
+        Some(())
+    }
+
+    /// Asks for a plan (the ticket is filled in here).
+    pub fn ask(&self, mut ask: PlanAsk) {
+        let mut inner = self.inner.borrow_mut();
+        ask.ticket = inner.next_ticket;
+        inner.next_ticket += 1;
+        inner.latest = Some(ask.ticket);
+        if inner.in_flight.is_some() {
+            inner.waiting = Some(ask);
+            return;
+        }
+        inner.send_now(ask);
+    }
+
+    /// How long the worker has been silent while an ask is out (milliseconds); `None` when
+    /// nothing is out. A live worker, once it has worked 100 ms on a plan, sends news after
+    /// every candidate method and every rolling origin of the band.
+    pub fn silent_for(&self) -> Option<f64> {
+        let inner = self.inner.borrow();
+        // An ask nobody waits for any more (the input was emptied) is not the page's worry.
+        let awaited = inner.latest.is_some() || inner.waiting.is_some();
+        inner
+            .in_flight
+            .filter(|_| awaited)
+            .map(|_| now_ms() - inner.last_heard)
+    }
+
+    fn arrived(&self, answer: PlanAnswer) {
+        let deliver = {
+            let mut inner = self.inner.borrow_mut();
+            inner.last_heard = now_ms();
+            if inner.in_flight != Some(answer.ticket) {
+                return;
+            }
+            inner.in_flight = None;
+            match inner.waiting.take() {
+                Some(next) => {
+                    inner.send_now(next);
+                    return;
+                }
+                None if inner.latest == Some(answer.ticket) => inner.deliver.clone(),
+                None => return,
+            }
+        };
+        // Outside the borrow: delivering updates the page, which may ask again at once.
+        deliver(answer);
+    }
+
+    fn progressed(&self, ticket: u64, done: usize, total: usize) {
+        let report = {
+            let mut inner = self.inner.borrow_mut();
+            inner.last_heard = now_ms();
+            // Only the ask whose answer will be shown (nothing newer waiting).
+            if inner.in_flight != Some(ticket) || inner.waiting.is_some() {
+                return;
+            }
+            inner.report.clone()
+        };
+        report(done, total);
+    }
+
+    /// Whether a fault on ask `ticket` concerns the current worker (the ask is the one out).
+    pub fn is_current(&self, ticket: u64) -> bool {
+        self.inner.borrow().in_flight == Some(ticket)
+    }
+
+    /// Drops what was asked: the page's input has no plan to wait for any more.
+    pub fn forget(&self) {
+        let mut inner = self.inner.borrow_mut();
+        inner.waiting = None;
+        inner.latest = None;
+    }
+
+    /// The worker stopped (its panic reached the page, or it fell silent): forget what was in
+    /// flight and start a new worker; the caller says what happened.
+    pub fn restart(&self) {
+        {
+            let mut inner = self.inner.borrow_mut();
+            inner.in_flight = None;
+            inner.waiting = None;
+            inner.latest = None;
+            inner.bridge = None;
+        }
+        self.spawn();
+    }
+}

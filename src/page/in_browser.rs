@@ -1,0 +1,195 @@
+//! Tests of the page's pieces in a real browser (wasm-bindgen-test in headless Chromium): each
+//! mounts one component, or draws one chart, into this test page's DOM and reads it back.
+//!
+//! Kept apart from: the whole page against the release build (tests/e2e/demo.rs), and the
+//! pure parts (settings, words, export, chart data), tested natively. These run with
+//! `cargo test --target wasm32-unknown-unknown --bin morrowcast-app` (the runner is set in
+//! .cargo/config.toml; scripts/test.sh runs them).
+
+use leptos::prelude::*;
+use morrowcast_engine::intake;
+use morrowcast_engine::plan::{plan_item, PlanSettings};
+use wasm_bindgen::JsCast;
+use wasm_bindgen_test::*;
+use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement, HtmlElement, HtmlInputElement};
+
+use super::browser;
+use super::model;
+use super::panels::{IntakePanel, SettingsPanel};
+use super::state::State;
+use crate::chart;
+
+wasm_bindgen_test_configure!(run_in_browser);
+
+fn document() -> web_sys::Document {
+    web_sys::window().unwrap().document().unwrap()
+}
+
+/// A fresh element in the test page's body to mount into.
+fn host() -> HtmlElement {
+    let el: HtmlElement = document().create_element("div").unwrap().unchecked_into();
+    document().body().unwrap().append_child(&el).unwrap();
+    el
+}
+
+/// Lets the page's effects and timers run (Leptos updates the DOM after a microtask).
+async fn settle() {
+    let promise = js_sys::Promise::new(&mut |resolve, _| {
+        web_sys::window()
+            .unwrap()
+            .set_timeout_with_callback_and_timeout_and_arguments_0(&resolve, 30)
+            .unwrap();
+    });
+    wasm_bindgen_futures::JsFuture::from(promise).await.unwrap();
+}
+
+fn text_of(root: &HtmlElement, selector: &str) -> String {
+    root.query_selector(selector)
+        .unwrap()
+        .unwrap_or_else(|| panic!("no {selector} on the page"))
+        .text_content()
+        .unwrap_or_default()
+}
+
+/// Mounts `view` with a fresh page state for `text` and returns its host element.
+fn mount_with<V: IntoView + 'static>(text: &str, view: fn() -> V) -> HtmlElement {
+    let el = host();
+    let text = text.to_string();
+    let handle = leptos::mount::mount_to(el.clone(), move || {
+        provide_context(State::new(text.clone(), "pasted text".into()));
+        view()
+    });
+    handle.forget();
+    el
+}
+
+#[wasm_bindgen_test]
+async fn intake_lists_each_rejected_cell_with_row_column_and_text() {
+    let broken = "month,units\n2024-01,5\n2024-02,7\n2024-03,seven\n2024-04,6\n";
+    let root = mount_with(broken, || view! { <IntakePanel/> });
+    settle().await;
+    let errors = text_of(&root, "#row-errors");
+    assert!(errors.contains("Row 4"), "{errors}");
+    assert!(errors.contains("column \"units\""), "{errors}");
+    assert!(errors.contains("found \"seven\""), "{errors}");
+    // The text stays in the box to fix.
+    let area: web_sys::HtmlTextAreaElement = root
+        .query_selector("#intake-text")
+        .unwrap()
+        .unwrap()
+        .unchecked_into();
+    assert_eq!(area.value(), broken);
+}
+
+#[wasm_bindgen_test]
+async fn intake_offers_the_items_of_a_wide_file() {
+    let wide = "month,Lantern oil,Seed packets\n2024-01,5,9\n2024-02,7,8\n2024-03,6,9\n";
+    let root = mount_with(wide, || view! { <IntakePanel/> });
+    settle().await;
+    let options = text_of(&root, "#item-choice");
+    assert!(
+        options.contains("Lantern oil") && options.contains("Seed packets"),
+        "{options}"
+    );
+}
+
+#[wasm_bindgen_test]
+async fn a_bad_horizon_is_marked_with_a_message_naming_the_field() {
+    let root = mount_with("month,units\n2024-01,5\n", || view! { <SettingsPanel/> });
+    settle().await;
+    let input: HtmlInputElement = root
+        .query_selector("#horizon")
+        .unwrap()
+        .unwrap()
+        .unchecked_into();
+    input.set_value("twelve");
+    input
+        .dispatch_event(&web_sys::Event::new("input").unwrap())
+        .unwrap();
+    settle().await;
+    assert_eq!(input.get_attribute("aria-invalid").as_deref(), Some("true"));
+    let message = text_of(&root, ".field.invalid .field-error");
+    assert!(message.contains("twelve"), "{message}");
+    // Fixing it clears the mark.
+    input.set_value("12");
+    input
+        .dispatch_event(&web_sys::Event::new("input").unwrap())
+        .unwrap();
+    settle().await;
+    assert_eq!(
+        input.get_attribute("aria-invalid").as_deref(),
+        Some("false")
+    );
+}
+
+#[wasm_bindgen_test]
+fn the_look_ahead_draws_into_a_canvas() {
+    let report = intake::read(&morrowcast_engine::demo::demo_csv());
+    let series = report.items[0].series().unwrap();
+    let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+    let row = plan
+        .backtest
+        .ranking
+        .iter()
+        .find(|r| r.candidate == plan.chosen)
+        .unwrap();
+    let data = model::look_ahead(&series, &plan, row, &plan);
+    let canvas: HtmlCanvasElement = document()
+        .create_element("canvas")
+        .unwrap()
+        .unchecked_into();
+    canvas
+        .set_attribute("style", "width: 640px; height: 360px")
+        .unwrap();
+    document().body().unwrap().append_child(&canvas).unwrap();
+    browser::draw_into(&canvas, |area| chart::draw_look_ahead(area, &data)).unwrap();
+    let ctx: CanvasRenderingContext2d = canvas.get_context("2d").unwrap().unwrap().unchecked_into();
+    let (w, h) = (canvas.width(), canvas.height());
+    assert!(w >= 640 && h >= 360, "{w}x{h}");
+    let pixels = ctx
+        .get_image_data(0.0, 0.0, w as f64, h as f64)
+        .unwrap()
+        .data();
+    let corner = &pixels[0..4].to_vec();
+    let drawn = pixels.chunks(4).filter(|p| p != corner).count();
+    // Lines, band and labels: well over 2 % of the canvas differs from its background.
+    assert!(
+        drawn * 50 > (w * h) as usize,
+        "{drawn} of {} pixels drawn",
+        w * h
+    );
+}
+
+/// The fault notice exactly as index.html holds it (from its opening tag to the noscript).
+fn notice_markup() -> &'static str {
+    let page = include_str!("../../index.html");
+    let start = page
+        .find("<div id=\"fault-notice\"")
+        .expect("index.html holds the fault notice");
+    let end = page[start..]
+        .find("<noscript>")
+        .expect("the noscript note follows the fault notice");
+    &page[start..start + end]
+}
+
+#[wasm_bindgen_test]
+fn the_fault_notice_shows_the_message_and_says_the_data_is_kept() {
+    // The notice is static in index.html (so it exists even when the app does not start).
+    let holder = host();
+    holder.set_inner_html(notice_markup());
+    let notice = document().get_element_by_id("fault-notice").unwrap();
+    assert!(notice.has_attribute("hidden"), "the notice starts hidden");
+    browser::show_fault("panicked at src/somewhere.rs: a test fault");
+    assert!(!notice.has_attribute("hidden"));
+    let text = notice.text_content().unwrap_or_default();
+    assert!(
+        text.contains("Your data is still in the Intake box"),
+        "{text}"
+    );
+    assert!(text.contains("Reload the page"), "{text}");
+    let detail = document().get_element_by_id("fault-detail").unwrap();
+    assert_eq!(
+        detail.text_content().as_deref(),
+        Some("panicked at src/somewhere.rs: a test fault")
+    );
+}

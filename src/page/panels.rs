@@ -1,0 +1,243 @@
+//! The controls column: Intake (paste box, file picker, drop zone, the demo, the intake report
+//! and rejected cells, the item choice) and Settings (in plain words).
+//!
+//! Kept apart from: reading the text (the engine's intake does) and checking settings
+//! (settings.rs). The user's text is never replaced by an error: it stays in the box to fix.
+
+use leptos::prelude::*;
+use leptos::task::spawn_local;
+use morrowcast_engine::backtest::RankBy;
+use morrowcast_engine::bands::BandMethod;
+use morrowcast_engine::demo;
+use wasm_bindgen_futures::JsFuture;
+use web_sys::{File, HtmlInputElement};
+
+use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
+use super::state::{State, DEMO_SOURCE};
+use super::words;
+
+/// Reads a file's text locally and puts it in the Intake box.
+fn read_file(state: State, file: File) {
+    let name = file.name();
+    spawn_local(async move {
+        match JsFuture::from(file.text()).await {
+            Ok(v) => state.set_text(v.as_string().unwrap_or_default(), &name),
+            Err(_) => state.set_text(String::new(), &format!("{name} (could not be read)")),
+        }
+    });
+}
+
+#[component]
+pub fn IntakePanel() -> impl IntoView {
+    let state = expect_context::<State>();
+    let dragging = RwSignal::new(false);
+    let demo_missing = RwSignal::new(false);
+    let load_demo = move |_| {
+        let csv = demo::demo_csv();
+        demo_missing.set(csv.is_empty());
+        state.set_text(csv, DEMO_SOURCE);
+    };
+    let on_file = move |ev: leptos::ev::Event| {
+        let input: HtmlInputElement = event_target(&ev);
+        if let Some(file) = input.files().and_then(|f| f.get(0)) {
+            read_file(state, file);
+        }
+        input.set_value("");
+    };
+    let on_drop = move |ev: leptos::ev::DragEvent| {
+        ev.prevent_default();
+        dragging.set(false);
+        if let Some(file) = ev
+            .data_transfer()
+            .and_then(|d| d.files())
+            .and_then(|f| f.get(0))
+        {
+            read_file(state, file);
+        }
+    };
+    view! {
+        <section class="panel intake" id="intake" aria-labelledby="intake-title">
+            <h2 id="intake-title">"Intake"</h2>
+            <p class="hint">"Sales history as a table: a period column and one or more value columns, or one row per item and period. CSV, TSV or plain text."</p>
+            <div
+                class="drop-zone"
+                class:dragging=move || dragging.get()
+                on:dragover=move |ev: leptos::ev::DragEvent| { ev.prevent_default(); dragging.set(true); }
+                on:dragleave=move |_| dragging.set(false)
+                on:drop=on_drop
+                id="drop-zone"
+            >
+                <label for="intake-text">{move || if dragging.get() {
+                    "Let go to read the file (it stays on this machine)"
+                } else {
+                    "Paste your table here, or drop a file on this box"
+                }}</label>
+                <textarea
+                    id="intake-text"
+                    rows="9"
+                    spellcheck="false"
+                    autocomplete="off"
+                    aria-describedby="intake-report"
+                    prop:value=move || state.text.get()
+                    on:input=move |ev| {
+                        let t = event_target_value(&ev);
+                        super::browser::keep_text(&t, "pasted text");
+                        state.source.set("pasted text".into());
+                        state.picked.set(None);
+                        state.text.set(t);
+                    }
+                ></textarea>
+            </div>
+            <div class="intake-actions">
+                <label class="file-button" for="intake-file">"Open a file…"</label>
+                <input
+                    id="intake-file"
+                    class="visually-hidden-file"
+                    type="file"
+                    accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values,text/plain"
+                    on:change=on_file
+                />
+                <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>
+            </div>
+            <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.get()}</span></p>
+            <Show when=move || demo_missing.get()>
+                <p class="notice">"The demo data is not part of this build yet."</p>
+            </Show>
+            <div id="intake-report" class="intake-report" aria-live="polite">
+                <ul class="plain">
+                    {move || state.report.with(|r| state.text.with(|t| words::intake_lines(t, r)).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
+                </ul>
+                <Show when=move || state.report.with(|r| r.has_errors())>
+                    <h3 class="errors-title">"Cells that could not be read"</h3>
+                    <ol class="row-errors" id="row-errors">
+                        {move || state.report.with(|r| r.errors.iter().map(|e| view! { <li>{words::row_error_line(e)}</li> }).collect_view())}
+                    </ol>
+                </Show>
+            </div>
+            <Show when=move || state.report.with(|r| r.items.len() > 1)>
+                <div class="field">
+                    <label for="item-choice">"Item to forecast"</label>
+                    <select id="item-choice" on:change=move |ev| {
+                        state.picked.set(None);
+                        state.item.set(event_target_value(&ev).parse().unwrap_or(0));
+                    }>
+                        {move || state.report.with(|r| r.items.iter().enumerate().map(|(i, it)| {
+                            let name = it.name.clone();
+                            view! { <option value=i.to_string() prop:selected=move || state.item.get() == i>{name}</option> }
+                        }).collect_view())}
+                    </select>
+                </div>
+            </Show>
+        </section>
+    }
+}
+
+/// A text field of the settings form, with its hint and its error tied to it.
+#[component]
+fn TextSetting(
+    id: &'static str,
+    label: &'static str,
+    hint: &'static str,
+    get: fn(&super::settings::SettingsForm) -> String,
+    set: fn(&mut super::settings::SettingsForm, String),
+) -> impl IntoView {
+    let state = expect_context::<State>();
+    let hint_id = format!("{id}-hint");
+    let error = move || {
+        state
+            .form_errors
+            .with(|e| e.iter().find(|e| e.field == id).map(|e| e.message.clone()))
+    };
+    view! {
+        <div class="field" class:invalid=move || error().is_some()>
+            <label for=id>{label}</label>
+            <input
+                id=id
+                type="text"
+                inputmode="decimal"
+                autocomplete="off"
+                aria-describedby=hint_id.clone()
+                aria-invalid=move || if error().is_some() { "true" } else { "false" }
+                prop:value=move || state.form.with(get)
+                on:input=move |ev| { let v = event_target_value(&ev); state.form.update(|f| set(f, v)); }
+            />
+            <p class="hint" id=hint_id>{hint}</p>
+            {move || error().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
+        </div>
+    }
+}
+
+#[component]
+pub fn SettingsPanel() -> impl IntoView {
+    let state = expect_context::<State>();
+    let level_is = move |p: f64| {
+        state
+            .form
+            .with(|f| f.level.trim().parse::<f64>().ok() == Some(p))
+    };
+    view! {
+        <section class="panel settings" id="settings" aria-labelledby="settings-title">
+            <h2 id="settings-title">"Settings"</h2>
+            <p class="hint">"Every change recomputes at once."</p>
+            <TextSetting id="horizon" label="Periods to forecast"
+                hint="auto (one season, else 6) or a number"
+                get=|f| f.horizon.clone() set=|f, v| f.horizon = v/>
+            <TextSetting id="holdout" label="Holdout: periods kept back to test the methods"
+                hint="auto (the last full season) or a number"
+                get=|f| f.holdout.clone() set=|f, v| f.holdout = v/>
+            <TextSetting id="season" label="Season length"
+                hint="auto (detected), or a number of periods; 1 means no season"
+                get=|f| f.season.clone() set=|f, v| f.season = v/>
+            <fieldset class="field">
+                <legend>"Band level"</legend>
+                <div class="choice-row">
+                    {LEVEL_CHOICES.iter().map(|p| {
+                        let p = *p;
+                        let id = format!("level-{p}");
+                        view! {
+                            <span class="choice">
+                                <input type="radio" name="level" id=id.clone()
+                                    prop:checked=move || level_is(p)
+                                    on:change=move |_| state.form.update(|f| f.level = p.to_string())/>
+                                <label for=id>{format!("{p}%")}</label>
+                            </span>
+                        }
+                    }).collect_view()}
+                </div>
+            </fieldset>
+            <TextSetting id="level" label="…or type a band level (percent)"
+                hint="from 50 to 99.9"
+                get=|f| f.level.clone() set=|f, v| f.level = v/>
+            <fieldset class="field">
+                <legend>"How the band is worked out"</legend>
+                <span class="choice block">
+                    <input type="radio" name="band" id="band-horizon"
+                        prop:checked=move || state.form.with(|f| f.band == BandMethod::HorizonAware)
+                        on:change=move |_| state.form.update(|f| f.band = BandMethod::HorizonAware)/>
+                    <label for="band-horizon">"Horizon-aware: widens the further ahead"</label>
+                </span>
+                <span class="choice block">
+                    <input type="radio" name="band" id="band-mad"
+                        prop:checked=move || state.form.with(|f| f.band == BandMethod::MadRule)
+                        on:change=move |_| state.form.update(|f| f.band = BandMethod::MadRule)/>
+                    <label for="band-mad">"MAD rule: forecast ± z × 1.25 × MAD"</label>
+                </span>
+            </fieldset>
+            <div class="field">
+                <label for="rank-by">"Rank the methods by"</label>
+                <select id="rank-by" on:change=move |ev| {
+                    let key = event_target_value(&ev);
+                    state.form.update(|f| f.rank_by = RankBy::from_key(&key).unwrap_or_default());
+                }>
+                    {RANK_CHOICES.iter().map(|(r, name)| {
+                        let r = *r;
+                        view! { <option value=r.key() prop:selected=move || state.form.with(|f| f.rank_by == r)>{*name}</option> }
+                    }).collect_view()}
+                </select>
+            </div>
+            <TextSetting id="tracking-limit" label="Tracking-signal limit"
+                hint="periods beyond plus or minus this are marked; 4 is common practice"
+                get=|f| f.tracking_limit.clone() set=|f, v| f.tracking_limit = v/>
+        </section>
+    }
+}

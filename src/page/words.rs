@@ -1,0 +1,285 @@
+//! Plain words for the page: the intake report, rejected cells, the bias sentence and the
+//! verdicts of the Pattern view.
+//!
+//! Kept apart from: computing anything. Every sentence is made from the engine's report and plan;
+//! counts of signs are the only arithmetic here. Error sign (as the engine and the page state it):
+//! e = F - D, forecast minus demand; a positive error is an over-forecast.
+
+use morrowcast_engine::backtest::Candidate;
+use morrowcast_engine::intake::{IntakeReport, Layout, RowError};
+use morrowcast_engine::patterns::{
+    DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
+};
+use morrowcast_engine::plan::LedgerEntry;
+
+use crate::chart::round_for_people;
+
+/// What Intake understood from `text`, one plain sentence per fact.
+pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
+    if text.trim().is_empty() {
+        return vec![
+            "Nothing read yet: paste a table, open or drop a file, or load the demo.".into(),
+        ];
+    }
+    let mut lines = Vec::new();
+    let layout = match report.layout {
+        Layout::Single => "one item in a single column of values",
+        Layout::Wide => "one column per item",
+        Layout::Long => "one row per item and period",
+    };
+    lines.push(format!(
+        "Columns separated by {}, decimals written with a {}; layout: {layout}.",
+        match report.delimiter.as_str() {
+            "tab" => "tabs".to_string(),
+            other => format!("{other}s"),
+        },
+        report.decimal.as_str()
+    ));
+    let freq = match report.frequency.as_str() {
+        "none" => "plain positions with no calendar dates".to_string(),
+        other => format!("{other} periods"),
+    };
+    match &report.date_format {
+        Some(f) => lines.push(format!("Periods read as {freq}, written as {f}.")),
+        None => lines.push(format!("Periods read as {freq}.")),
+    }
+    let n = report.items.len();
+    if n > 0 {
+        let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+        let longest = report
+            .items
+            .iter()
+            .map(|i| i.values.len())
+            .max()
+            .unwrap_or(0);
+        lines.push(format!(
+            "{n} item{} ({}), up to {longest} periods each.",
+            if n == 1 { "" } else { "s" },
+            names.join(", ")
+        ));
+    }
+    if report.gaps_filled > 0 {
+        lines.push(format!(
+            "{} missing period(s) found; they are filled by straight-line interpolation and named in the notes.",
+            report.gaps_filled
+        ));
+    }
+    lines.extend(report.warnings.iter().cloned());
+    if !report.errors.is_empty() {
+        lines.push(format!(
+            "{} cell(s) could not be read; the list below says where. Fix the text in the box and it is read again.",
+            report.errors.len()
+        ));
+    }
+    lines
+}
+
+/// Said above a forecast made while some cells could not be read: they are gaps until fixed.
+pub fn unread_cells_note(count: usize) -> String {
+    let cells = if count == 1 {
+        "1 cell".to_string()
+    } else {
+        format!("{count} cells")
+    };
+    format!(
+        "{cells} of this table could not be read (listed under Intake). Until fixed, the forecast \
+         treats them as missing values, filled by straight-line interpolation, so it may change."
+    )
+}
+
+/// Said beside "use it anyway" when the season test turned down a candidate season. With few
+/// full seasons the test's threshold is high (it grows with the autocorrelation at the shorter
+/// lags, so a clear season can still fall short of it).
+pub fn rejected_season_hint(m: usize, full_seasons: usize) -> String {
+    if full_seasons <= 4 {
+        format!(
+            "The {m}-period season was not accepted; with only {full_seasons} full seasons the test \
+             is strict. If this item sells by season, try it and compare the holdout scores. "
+        )
+    } else {
+        format!("The {m}-period season was not accepted. ")
+    }
+}
+
+/// Why the plan's own choice is the combination (empty for a single method).
+pub fn combination_choice(chosen: &Candidate) -> String {
+    match chosen {
+        Candidate::Combination(members) => format!(
+            " The forecast uses the combination, the plain mean of the {} best methods: on the M3 \
+             competition data that was more accurate than the single best (README, Benchmarks).",
+            members.len()
+        ),
+        Candidate::Method(_) => String::new(),
+    }
+}
+
+/// One rejected cell: "Row 5, column "units": found "12x": <what to do>".
+pub fn row_error_line(e: &RowError) -> String {
+    let column = if e.column.is_empty() {
+        String::new()
+    } else {
+        format!(", column \"{}\"", e.column)
+    };
+    format!("Row {}{column}: found \"{}\". {}", e.row, e.text, e.message)
+}
+
+/// The sentence under the Error ledger that says what the bias means, e.g. "The forecast ran
+/// under demand in 9 of 12 periods; summed over the holdout it was 34 units too low."
+pub fn bias_sentence(ledger: &[LedgerEntry], unit: &str) -> String {
+    let n = ledger.len();
+    if n == 0 {
+        return "No holdout periods, so there is no bias to report.".into();
+    }
+    let under = ledger.iter().filter(|e| e.row.error < 0.0).count();
+    let over = ledger.iter().filter(|e| e.row.error > 0.0).count();
+    let bias = ledger.last().map(|e| e.row.bias).unwrap_or(0.0);
+    let runs = match (under, over) {
+        (u, 0) => format!("under demand in {u} of {n} periods"),
+        (0, o) => format!("over demand in {o} of {n} periods"),
+        (u, o) if u >= o => format!("under demand in {u} of {n} periods and over it in {o}"),
+        (u, o) => format!("over demand in {o} of {n} periods and under it in {u}"),
+    };
+    let total = if bias < 0.0 {
+        format!(
+            "summed over the holdout it was {} {unit} too low",
+            round_for_people(-bias)
+        )
+    } else if bias > 0.0 {
+        format!(
+            "summed over the holdout it was {} {unit} too high",
+            round_for_people(bias)
+        )
+    } else {
+        "summed over the holdout the errors cancel out".to_string()
+    };
+    format!("The forecast ran {runs}; {total}.")
+}
+
+/// The season verdict in words.
+pub fn season_words(v: &SeasonVerdict) -> String {
+    let base = match (v.length, v.source) {
+        (Some(m), SeasonSource::User) => format!("Season length {m}, as you set it."),
+        (None, SeasonSource::User) => "No season, as you set it.".into(),
+        (Some(m), _) => format!("Season length {m}, detected."),
+        (None, _) => "No season detected.".into(),
+    };
+    let reason = v.reason.trim();
+    if reason.is_empty() {
+        base
+    } else if reason.ends_with(['.', '!', '?']) {
+        format!("{base} {reason}")
+    } else {
+        format!("{base} {reason}.")
+    }
+}
+
+/// The trend verdict in words, with its evidence (Mann-Kendall S, z and p).
+pub fn trend_words(v: &TrendVerdict) -> String {
+    let what = match v.direction {
+        TrendDirection::Up => "Demand trends up",
+        TrendDirection::Down => "Demand trends down",
+        TrendDirection::None => "No clear trend",
+    };
+    format!(
+        "{what} (Mann-Kendall S = {}, z = {:.2}, p = {:.3}; significance level {}).",
+        round_for_people(v.s),
+        v.z,
+        v.p_value,
+        v.significance
+    )
+}
+
+/// The demand class in words, with ADI and CV² and the cut-offs of Syntetos, Boylan & Croston
+/// (2005): ADI 1.32, CV² 0.49.
+pub fn demand_words(v: &DemandVerdict) -> String {
+    let what = match v.class {
+        DemandClass::Smooth => "Smooth demand: regular, not very variable",
+        DemandClass::Erratic => "Erratic demand: regular but highly variable",
+        DemandClass::Intermittent => "Intermittent demand: many periods without sales",
+        DemandClass::Lumpy => "Lumpy demand: many periods without sales, and variable sizes",
+    };
+    format!(
+        "{what} (average interval between demands {:.2}, cut-off 1.32; CV² of sizes {:.2}, cut-off 0.49).",
+        v.adi, v.cv2
+    )
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use morrowcast_engine::accuracy::ledger;
+    use morrowcast_engine::calendar::Period;
+
+    fn entries(forecast: &[f64], demand: &[f64]) -> Vec<LedgerEntry> {
+        ledger(forecast, demand, 4.0)
+            .into_iter()
+            .enumerate()
+            .map(|(i, row)| LedgerEntry {
+                period: Period::month(2025, i as u32 + 1),
+                row,
+            })
+            .collect()
+    }
+
+    // Sign convention of the glossary: e = F - D, so F < D is an under-forecast.
+    #[test]
+    fn bias_sentence_counts_under_and_over_forecasts() {
+        let e = entries(&[8.0, 9.0, 12.0, 7.0], &[10.0, 10.0, 10.0, 10.0]);
+        assert_eq!(
+            bias_sentence(&e, "units"),
+            "The forecast ran under demand in 3 of 4 periods and over it in 1; summed over the holdout it was 4 units too low."
+        );
+        let e = entries(&[11.0, 12.0], &[10.0, 10.0]);
+        assert_eq!(
+            bias_sentence(&e, "units"),
+            "The forecast ran over demand in 2 of 2 periods; summed over the holdout it was 3 units too high."
+        );
+        assert!(bias_sentence(&[], "units").starts_with("No holdout"));
+    }
+
+    #[test]
+    fn the_combination_choice_is_explained_and_a_single_method_is_not() {
+        use morrowcast_engine::methods::MethodKind;
+        let combo =
+            Candidate::Combination(vec![MethodKind::Theta, MethodKind::Ses, MethodKind::Holt]);
+        assert!(combination_choice(&combo).contains("plain mean of the 3 best methods"));
+        assert_eq!(
+            combination_choice(&Candidate::Method(MethodKind::Theta)),
+            ""
+        );
+    }
+
+    #[test]
+    fn a_rejected_season_on_a_short_history_invites_a_try() {
+        assert!(rejected_season_hint(12, 3).contains("only 3 full seasons"));
+        assert!(!rejected_season_hint(12, 6).contains("full seasons"));
+    }
+
+    #[test]
+    fn unread_cells_are_counted_in_words() {
+        assert!(unread_cells_note(1).starts_with("1 cell of this table"));
+        assert!(unread_cells_note(3).starts_with("3 cells of this table"));
+    }
+
+    #[test]
+    fn row_errors_name_row_column_and_text() {
+        let e = RowError {
+            row: 5,
+            column: "units".into(),
+            text: "12x".into(),
+            message: "Type a number.".into(),
+        };
+        assert_eq!(
+            row_error_line(&e),
+            "Row 5, column \"units\": found \"12x\". Type a number."
+        );
+    }
+
+    #[test]
+    fn empty_report_invites_input() {
+        let r = morrowcast_engine::intake::read(" \n");
+        let lines = intake_lines(" \n", &r);
+        assert_eq!(lines.len(), 1);
+        assert!(lines[0].starts_with("Nothing read yet"));
+    }
+}

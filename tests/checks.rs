@@ -1,0 +1,18 @@
+//! Every integration test of the workspace, in one test binary: the engine checked against
+//! outside sources and on constructed cases, the command line's contract, and the browser app
+//! end to end in headless Chromium.
+//!
+//! Kept apart from: the unit tests beside the code (each crate's own `#[cfg(test)]` modules).
+//! One binary, so fixtures, tolerances and builders live once, in [`support`], and a change
+//! builds one test program instead of many.
+
+mod support;
+
+mod bands;
+mod cli;
+mod e2e;
+mod intake;
+mod methods;
+mod patterns;
+mod plan;
+mod smoothing;

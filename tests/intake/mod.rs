@@ -1,0 +1,5 @@
+//! Intake: the formats it reads, where it says a problem is, and what holds whatever the text.
+
+mod errors;
+mod formats;
+mod robustness;

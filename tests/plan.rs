@@ -1,0 +1,222 @@
+//! The whole plan on constructed series: defaults, overrides, gaps, short histories, bands.
+//! The series here are made up for these checks (arithmetic cases), never outside references.
+
+use morrowcast_engine::bands::{BandMethod, BandSource, Level};
+use morrowcast_engine::plan::{
+    plan_item, plan_item_observed, plan_item_reusing, Choice, PlanError, PlanSettings, Progress,
+    SeasonChoice,
+};
+
+use crate::support::monthly;
+
+fn seasonal(n: usize) -> Vec<f64> {
+    let shape = [0.6, 0.7, 0.9, 1.2, 1.5, 1.6, 1.4, 1.1, 0.9, 0.8, 0.7, 0.6];
+    (0..n)
+        .map(|t| ((100.0 + t as f64) * shape[t % 12] + ((t * 7919) % 13) as f64 - 6.0).round())
+        .collect()
+}
+
+#[test]
+fn defaults_detect_the_season_and_forecast_a_calendar_year() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let p = plan_item(&s, &PlanSettings::default()).unwrap();
+    assert_eq!(p.season.length, Some(12));
+    assert_eq!(p.forecast.len(), 12);
+    assert_eq!(p.forecast[0].period.to_string(), "2026-01");
+    assert_eq!(p.ledger.len(), 12);
+    assert_eq!(p.ledger[0].period.to_string(), "2025-01");
+    assert_eq!(p.chosen.key(), "combination");
+    for f in &p.forecast {
+        assert!(f.band.low <= f.band.value && f.band.value <= f.band.high);
+        assert!(f.band.low >= 0.0);
+    }
+}
+
+#[test]
+fn progress_counts_every_candidate_and_the_plan_is_the_same() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let mut seen: Vec<Progress> = Vec::new();
+    let p = plan_item_observed(&s, &PlanSettings::default(), &mut |step| seen.push(step)).unwrap();
+    assert_eq!(p, plan_item(&s, &PlanSettings::default()).unwrap());
+    let total = seen[0].total;
+    // One step per candidate method (scored or skipped), then the refit and band.
+    let candidates = p.backtest.ranking.len() - 1 + p.backtest.skipped.len();
+    assert_eq!(total, candidates + 1);
+    assert!(seen.iter().all(|s| s.total == total));
+    let mut done: Vec<usize> = seen.iter().map(|s| s.done).collect();
+    // The last step (refit and band) is heard again at each of the band's 8 rolling origins.
+    let last_heard = done.iter().filter(|d| **d == total - 1).count();
+    assert_eq!(last_heard, 1 + 8);
+    done.dedup();
+    assert_eq!(done, (0..total).collect::<Vec<_>>());
+}
+
+#[test]
+fn three_years_with_a_season_keep_the_seasonal_methods() {
+    // 36 months, holdout 12: three rolling origins would leave 22 to 24 training periods, too
+    // few for Holt-Winters (two full seasons); the backtest uses fewer origins instead.
+    let s = monthly(seasonal(36).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        season: SeasonChoice::Fixed(12),
+        ..PlanSettings::default()
+    };
+    let p = plan_item(&s, &settings).unwrap();
+    assert_eq!(p.backtest.origins_used, 1);
+    assert!(
+        p.backtest.skipped.is_empty(),
+        "left out: {:?}",
+        p.backtest.skipped
+    );
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .any(|r| r.candidate.key() == "holt_winters_multiplicative"));
+}
+
+#[test]
+fn reusing_a_ranking_gives_the_same_plan_as_ranking_again() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let auto = PlanSettings::default();
+    let ranked = plan_item(&s, &auto).unwrap();
+    let theta = PlanSettings {
+        choice: Choice::Named("theta".into()),
+        ..auto.clone()
+    };
+    let fresh = plan_item(&s, &theta).unwrap();
+    assert_eq!(
+        plan_item_reusing(&s, &theta, &ranked, &auto).unwrap(),
+        fresh
+    );
+    assert_eq!(fresh.chosen.key(), "theta");
+    // Other settings than the choice: the earlier ranking does not apply and is not used.
+    let shorter = PlanSettings {
+        holdout: Some(6),
+        ..theta.clone()
+    };
+    assert_eq!(
+        plan_item_reusing(&s, &shorter, &ranked, &auto).unwrap(),
+        plan_item(&s, &shorter).unwrap()
+    );
+}
+
+#[test]
+fn user_season_override_wins() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        season: SeasonChoice::Fixed(1),
+        ..PlanSettings::default()
+    };
+    let p = plan_item(&s, &settings).unwrap();
+    assert_eq!(p.season.length, None);
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .all(|r| r.candidate.key() != "holt_winters_additive"));
+}
+
+#[test]
+fn gaps_are_interpolated_and_named() {
+    let mut values: Vec<Option<f64>> = seasonal(48).into_iter().map(Some).collect();
+    values[20] = None;
+    let p = plan_item(&monthly(values), &PlanSettings::default()).unwrap();
+    assert!(
+        p.notes
+            .iter()
+            .any(|n| n.contains("interpolation") && n.contains("2022-09")),
+        "{:?}",
+        p.notes
+    );
+}
+
+#[test]
+fn wider_level_widens_every_band_and_mad_rule_is_flat() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let at = |level: f64, band: BandMethod| {
+        let settings = PlanSettings {
+            level: Level::new(level).unwrap(),
+            band,
+            ..PlanSettings::default()
+        };
+        plan_item(&s, &settings).unwrap()
+    };
+    let (narrow, wide) = (
+        at(80.0, BandMethod::HorizonAware),
+        at(99.0, BandMethod::HorizonAware),
+    );
+    for (n, w) in narrow.forecast.iter().zip(&wide.forecast) {
+        assert!(w.band.high - w.band.low > n.band.high - n.band.low);
+    }
+    let mad = at(95.0, BandMethod::MadRule);
+    assert!(mad.forecast.iter().all(|f| f.source == BandSource::MadRule));
+    // The MAD rule adds the same z · 1.25 · MAD above every forecast.
+    let above: Vec<f64> = mad
+        .forecast
+        .iter()
+        .map(|f| f.band.high - f.band.value)
+        .collect();
+    assert!(
+        above.windows(2).all(|w| (w[0] - w[1]).abs() < 1e-9),
+        "{above:?}"
+    );
+}
+
+#[test]
+fn named_method_is_used_and_unknown_is_an_error() {
+    let s = monthly(seasonal(60).into_iter().map(Some).collect());
+    let settings = PlanSettings {
+        choice: Choice::from_key("theta").unwrap(),
+        ..PlanSettings::default()
+    };
+    assert_eq!(plan_item(&s, &settings).unwrap().chosen.key(), "theta");
+    let short: Vec<Option<f64>> = seasonal(12).into_iter().map(Some).collect();
+    let settings = PlanSettings {
+        choice: Choice::from_key("holt_winters_additive").unwrap(),
+        ..PlanSettings::default()
+    };
+    assert!(matches!(
+        plan_item(&monthly(short), &settings),
+        Err(PlanError::NotCandidate { .. })
+    ));
+    assert!(Choice::from_key("magic").is_none());
+}
+
+#[test]
+fn short_and_zero_horizon_are_errors_with_messages() {
+    let s = monthly(vec![Some(1.0), Some(2.0), Some(3.0)]);
+    let e = plan_item(&s, &PlanSettings::default()).unwrap_err();
+    assert!(e.to_string().contains("at least 4"));
+    let s = monthly(seasonal(30).into_iter().map(Some).collect());
+    let e = plan_item(
+        &s,
+        &PlanSettings {
+            horizon: Some(0),
+            ..PlanSettings::default()
+        },
+    )
+    .unwrap_err();
+    assert_eq!(e, PlanError::ZeroHorizon);
+}
+
+#[test]
+fn intermittent_demand_gets_intermittent_methods_and_no_mape() {
+    let values: Vec<Option<f64>> = (0..48)
+        .map(|t| {
+            Some(if t % 5 == 0 {
+                ((t / 5) % 3 + 1) as f64
+            } else {
+                0.0
+            })
+        })
+        .collect();
+    let p = plan_item(&monthly(values), &PlanSettings::default()).unwrap();
+    assert!(p
+        .backtest
+        .ranking
+        .iter()
+        .any(|r| r.candidate.key() == "croston"));
+    assert!(p.backtest.ranking.iter().all(|r| r.measures.mape.is_none()));
+    assert!(p.backtest.ranking.iter().all(|r| r.measures.mase.is_some()));
+    assert!(p.forecast.iter().all(|f| f.band.low >= 0.0));
+}

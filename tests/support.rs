@@ -1,0 +1,107 @@
+//! What the tests share: where the fixtures are and how to read them, the tolerance rule for
+//! reference values, series builders, and the command line run in-process.
+//!
+//! Kept apart from: the checks themselves (each module of the test binary).
+
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::series::Series;
+use serde_json::Value;
+
+/// The outside reference material (tests/fixtures/refs/SOURCES.md names every origin).
+pub const REFS: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/refs/");
+
+/// A fixture file of [`REFS`] as text.
+pub fn fixture_text(name: &str) -> String {
+    std::fs::read_to_string(format!("{REFS}{name}"))
+        .unwrap_or_else(|e| panic!("fixture {name}: {e}"))
+}
+
+/// A JSON fixture of [`REFS`].
+pub fn json(name: &str) -> Value {
+    serde_json::from_str(&fixture_text(name)).unwrap_or_else(|e| panic!("fixture {name}: {e}"))
+}
+
+/// Column `column` of a fixture CSV of [`REFS`] (plain numbers with a header row; no quoting
+/// in these files).
+pub fn csv_column(name: &str, column: &str) -> Vec<f64> {
+    let text = fixture_text(name);
+    let mut lines = text.lines();
+    let header: Vec<&str> = lines.next().unwrap().split(',').collect();
+    let at = header
+        .iter()
+        .position(|h| h.trim() == column)
+        .unwrap_or_else(|| panic!("fixture {name} has no column {column}"));
+    lines
+        .filter(|l| !l.trim().is_empty())
+        .map(|l| l.split(',').nth(at).unwrap().trim().parse().unwrap())
+        .collect()
+}
+
+/// The numbers of a JSON array.
+pub fn numbers(v: &Value) -> Vec<f64> {
+    v.as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_f64().unwrap())
+        .collect()
+}
+
+/// The tolerance rule of every reference check: |a − b| <= tol · max(1, |b|), absolute for
+/// small values and relative for large ones.
+pub fn close(a: f64, b: f64, tol: f64) -> bool {
+    (a - b).abs() <= tol * b.abs().max(1.0)
+}
+
+/// [`close`] at every position, with the position named on failure.
+pub fn assert_all_close(what: &str, got: &[f64], want: &[f64], tol: f64) {
+    assert_eq!(got.len(), want.len(), "{what}: length");
+    for (i, (g, w)) in got.iter().zip(want).enumerate() {
+        assert!(
+            close(*g, *w, tol),
+            "{what}[{i}]: got {g}, want {w} (tol {tol})"
+        );
+    }
+}
+
+/// A monthly series from January 2021 named "Test item" (gaps as `None`).
+pub fn monthly(values: Vec<Option<f64>>) -> Series {
+    Series::new("Test item", Period::month(2021, 1), values).unwrap()
+}
+
+/// What one in-process run of the command line gave.
+pub struct CliRun {
+    pub code: u8,
+    pub stdout: Vec<u8>,
+    pub stderr: String,
+}
+
+impl CliRun {
+    /// Standard output as JSON (failing with both streams shown when it is not).
+    pub fn json(&self) -> Value {
+        serde_json::from_slice(&self.stdout).unwrap_or_else(|e| {
+            panic!(
+                "not JSON ({e}): {}\nstderr: {}",
+                String::from_utf8_lossy(&self.stdout),
+                self.stderr
+            )
+        })
+    }
+
+    /// Standard output as text.
+    pub fn text(&self) -> String {
+        String::from_utf8(self.stdout.clone()).expect("the command line writes UTF-8")
+    }
+}
+
+/// Runs `morrowcast ARGS` in-process with `stdin` as standard input (the library the program
+/// is a thin shell over: crates/cli/src/main.rs).
+pub fn cli(args: &[&str], stdin: &[u8]) -> CliRun {
+    let argv: Vec<String> = args.iter().map(|a| a.to_string()).collect();
+    let (mut stdout, mut stderr) = (Vec::new(), Vec::new());
+    let code = morrowcast_cli::run(&argv, &mut &stdin[..], &mut stdout, &mut stderr);
+    CliRun {
+        code,
+        stdout,
+        stderr: String::from_utf8_lossy(&stderr).into_owned(),
+    }
+}
