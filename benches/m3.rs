@@ -18,8 +18,9 @@ use std::time::Instant;
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::methods::{self, MethodKind};
 use morrowcast_engine::patterns;
-use morrowcast_engine::plan::{self, PlanSettings};
+use morrowcast_engine::plan;
 use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
 
 struct M3Series {
     id: String,
@@ -150,10 +151,9 @@ fn main() {
             continue;
         }
         for s in all.iter().filter(|s| s.subset == subset).take(limit) {
-            let settings = PlanSettings {
-                horizon: Some(s.horizon),
-                ..PlanSettings::default()
-            };
+            let settings = PlanSettings::default()
+                .with_horizon(Some(s.horizon as u64))
+                .expect("M3 horizons are within the limit");
             let forecast = match plan::plan_item(&series_for(s), &settings) {
                 Ok(p) => {
                     *chosen.entry(p.chosen.key().to_string()).or_default() += 1;

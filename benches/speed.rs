@@ -13,8 +13,9 @@ use std::fmt::Write;
 use std::time::Instant;
 
 use morrowcast_engine::calendar::Period;
-use morrowcast_engine::plan::{self, PlanSettings};
+use morrowcast_engine::plan;
 use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
 
 /// SplitMix64 (Steele, Lea & Flood 2014): a small, well-known seeded generator.
 struct SplitMix(u64);
@@ -95,10 +96,8 @@ fn main() {
     );
 
     // The same with the MAD-rule band, to show what the empirical band's rolling origins cost.
-    let mad_settings = PlanSettings {
-        band: morrowcast_engine::bands::BandMethod::MadRule,
-        ..PlanSettings::default()
-    };
+    let mad_settings =
+        PlanSettings::default().with_band(morrowcast_engine::bands::BandMethod::MadRule);
     let mut times = Vec::new();
     for _ in 0..200 {
         let t = Instant::now();

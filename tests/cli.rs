@@ -181,3 +181,142 @@ fn text_output_states_the_error_sign() {
     assert!(text.contains("error = forecast - demand"));
     assert!(text.contains("Backtest ranking"));
 }
+
+/// `morrowcast ARGS` on the demo must refuse with exit 2 and this line on standard error.
+fn check_refused(args: &[&str], expected_line: &str) {
+    let out = cli(args, &demo());
+    assert_eq!(out.code, 2, "{args:?}: {}", out.stderr);
+    assert!(
+        out.stderr.lines().any(|l| l == expected_line),
+        "{args:?}: stderr was\n{}",
+        out.stderr
+    );
+    assert!(
+        out.stdout.is_empty(),
+        "{args:?}: nothing on standard output"
+    );
+}
+
+// Settings outside their limits are refused, naming the setting, the value and the range
+// (limits: crates/engine/src/settings.rs). Before the limits a horizon of 4294967296 aborted on
+// a failed allocation, 10000000 took 10 GB, origins 0 became 1 and 99999999999 ran for a
+// minute, season 0 was taken.
+#[test]
+fn settings_beyond_their_limits_are_refused_with_the_range() {
+    let horizon = |v: &str| {
+        format!(
+            "morrowcast: the horizon \"{v}\" cannot be used: give auto, or a whole number of periods from 1 to 366"
+        )
+    };
+    check_refused(
+        &["forecast", "-", "--horizon", "4294967296"],
+        &horizon("4294967296"),
+    );
+    check_refused(
+        &["forecast", "-", "--horizon", "10000000"],
+        &horizon("10000000"),
+    );
+    check_refused(&["forecast", "-", "--horizon", "0"], &horizon("0"));
+    check_refused(
+        &["forecast", "-", "--origins", "0"],
+        "morrowcast: the number of rolling origins \"0\" cannot be used: give a whole number from 1 to 24",
+    );
+    check_refused(
+        &["forecast", "-", "--origins", "99999999999"],
+        "morrowcast: the number of rolling origins \"99999999999\" cannot be used: give a whole number from 1 to 24",
+    );
+    check_refused(
+        &["forecast", "-", "--season", "0"],
+        "morrowcast: the season length \"0\" cannot be used: give auto, none, or a whole number of periods from 1 (no season) to 366",
+    );
+    check_refused(
+        &["forecast", "-", "--tracking-limit", "0"],
+        "morrowcast: the tracking limit \"0\" cannot be used: give a number from 1 to 20 (4 is common practice)",
+    );
+    // Two refusals at once are both said.
+    let out = cli(
+        &["forecast", "-", "--horizon", "0", "--holdout", "x"],
+        &demo(),
+    );
+    assert!(out.stderr.contains("horizon \"0\"") && out.stderr.contains("holdout \"x\""));
+}
+
+// A flag given twice used to keep its last value silently; --item may repeat and plans each.
+#[test]
+fn repeated_flags_are_refused_and_repeated_items_are_all_planned() {
+    check_refused(
+        &["forecast", "-", "--horizon", "3", "--horizon", "4"],
+        "morrowcast: --horizon is given twice: give it once",
+    );
+    check_refused(
+        &[
+            "forecast",
+            "-",
+            "--item",
+            "Gift card",
+            "--item",
+            "Gift card",
+        ],
+        "morrowcast: --item \"Gift card\" is given twice: name each item once",
+    );
+    check_refused(
+        &["forecast", "a.csv", "b.csv"],
+        "morrowcast: forecast takes one FILE; found \"a.csv\" and \"b.csv\"",
+    );
+    let out = cli(
+        &[
+            "forecast",
+            "-",
+            "--item",
+            "Gift card",
+            "--item",
+            "Frost cloth",
+            "--json",
+        ],
+        &demo(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let names: Vec<String> = out.json()["items"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["name"].as_str().unwrap().to_string())
+        .collect();
+    assert_eq!(names, ["Gift card", "Frost cloth"]);
+}
+
+// The contract: with --json, JSON comes whenever the input was read, also when its bytes are
+// not text (this used to exit 2 with nothing on standard output).
+#[test]
+fn bytes_that_are_not_text_give_json_with_their_line() {
+    let bytes = b"month,sales\n2024-01,5\n2024-02,\xE9\n2024-03,7\n";
+    for command in ["inspect", "forecast"] {
+        let out = cli(&[command, "-", "--json"], bytes);
+        assert_eq!(out.code, 2, "{command}");
+        let v = out.json();
+        let errors = v["errors"].as_array().unwrap();
+        assert!(
+            errors.iter().any(|e| e["row"] == 3 && e["text"] == "\\xE9"),
+            "{command}: {v}"
+        );
+    }
+}
+
+// Names from a file reach a terminal only with their control characters escaped: an escape
+// sequence in an item name must not recolour the terminal or move the cursor.
+#[test]
+fn terminal_escapes_in_names_are_shown_not_obeyed() {
+    let text = "month,\"Oak\x1b[31m tray\u{202e}\"\n2024-01,5\n2024-02,6\n2024-03,7\n2024-04,8\n2024-05,9\n";
+    for args in [&["inspect", "-"][..], &["forecast", "-"][..]] {
+        let out = cli(args, text.as_bytes());
+        let printed = out.text();
+        assert!(
+            !printed.contains('\x1b') && !printed.contains('\u{202e}'),
+            "{printed}"
+        );
+        assert!(
+            printed.contains("Oak\\u{1b}[31m tray\\u{202e}"),
+            "{printed}"
+        );
+    }
+}

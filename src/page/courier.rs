@@ -1,18 +1,15 @@
 //! The page's side of the plan worker: sends asks, keeps at most one in flight, and hands the
 //! newest answer to the page's state.
 //!
-//! Kept apart from: what the worker computes (src/worker.rs) and how answers are shown. Only
-//! this file and the worker serialise in the browser (gloo-worker's bincode codec).
-//!
-//! Why one in flight: a worker answers in order, so a burst of changes (typing a horizon, a
-//! string of clicks) would otherwise queue a plan per keystroke. While one is out, newer asks
-//! replace each other; when its answer arrives it is dropped if a newer ask waits, and that one
-//! goes out. The page so always ends showing the plan of its latest inputs.
+//! Kept apart from: what the worker computes (src/worker) and how answers are shown. Only this
+//! file and the worker serialise in the browser (gloo-worker's bincode codec). The rules of
+//! which ask goes out and which answer is shown are the pure [`AskQueue`] (src/worker/queue.rs,
+//! tested natively); this file joins it to the worker bridge and the page's clock.
 
 use std::cell::RefCell;
 use std::rc::Rc;
 
-use crate::worker::{PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
+use crate::worker::{Arrival, AskQueue, PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
 use gloo_worker::{Spawnable, WorkerBridge};
 
 use super::browser::{blob_url, now_ms};
@@ -28,22 +25,13 @@ type Report = Rc<dyn Fn(usize, usize)>;
 
 struct Inner {
     bridge: Option<WorkerBridge<PlanWorker>>,
-    next_ticket: u64,
-    in_flight: Option<u64>,
-    waiting: Option<PlanAsk>,
-    /// Ticket of the newest ask; `None` after [`Courier::forget`]. Only its answer is shown.
-    latest: Option<u64>,
+    queue: AskQueue,
     deliver: Deliver,
     report: Report,
-    /// Page clock (ms) when the worker was last asked or last heard from.
-    last_heard: f64,
 }
 
 impl Inner {
-    /// Sends `ask` to the worker as the one in flight.
-    fn send_now(&mut self, ask: PlanAsk) {
-        self.in_flight = Some(ask.ticket);
-        self.last_heard = now_ms();
+    fn send(&self, ask: PlanAsk) {
         if let Some(bridge) = &self.bridge {
             bridge.send(ask);
         }
@@ -149,13 +137,9 @@ impl Courier {
         let courier = Courier {
             inner: Rc::new(RefCell::new(Inner {
                 bridge: None,
-                next_ticket: 1,
-                in_flight: None,
-                waiting: None,
-                latest: None,
+                queue: AskQueue::new(),
                 deliver: Rc::new(deliver),
                 report: Rc::new(report),
-                last_heard: 0.0,
             })),
         };
         courier.spawn().ok_or(NoWorker::NotBuilt)?;
@@ -184,47 +168,31 @@ impl Courier {
         Some(())
     }
 
-    /// Asks for a plan (the ticket is filled in here).
-    pub fn ask(&self, mut ask: PlanAsk) {
+    /// Asks for a plan (the ticket is filled in by the queue).
+    pub fn ask(&self, ask: PlanAsk) {
         let mut inner = self.inner.borrow_mut();
-        ask.ticket = inner.next_ticket;
-        inner.next_ticket += 1;
-        inner.latest = Some(ask.ticket);
-        if inner.in_flight.is_some() {
-            inner.waiting = Some(ask);
-            return;
+        if let Some(now) = inner.queue.ask(ask, now_ms()) {
+            inner.send(now);
         }
-        inner.send_now(ask);
     }
 
     /// How long the worker has been silent while an ask is out (milliseconds); `None` when
-    /// nothing is out. A live worker, once it has worked 100 ms on a plan, sends news after
+    /// nothing is awaited. A live worker, once it has worked 100 ms on a plan, sends news after
     /// every candidate method and every rolling origin of the band.
     pub fn silent_for(&self) -> Option<f64> {
-        let inner = self.inner.borrow();
-        // An ask nobody waits for any more (the input was emptied) is not the page's worry.
-        let awaited = inner.latest.is_some() || inner.waiting.is_some();
-        inner
-            .in_flight
-            .filter(|_| awaited)
-            .map(|_| now_ms() - inner.last_heard)
+        self.inner.borrow().queue.silent_for(now_ms())
     }
 
     fn arrived(&self, answer: PlanAnswer) {
         let deliver = {
             let mut inner = self.inner.borrow_mut();
-            inner.last_heard = now_ms();
-            if inner.in_flight != Some(answer.ticket) {
-                return;
-            }
-            inner.in_flight = None;
-            match inner.waiting.take() {
-                Some(next) => {
-                    inner.send_now(next);
+            match inner.queue.arrived(answer.ticket, now_ms()) {
+                Arrival::Show => inner.deliver.clone(),
+                Arrival::SendNext(next) => {
+                    inner.send(*next);
                     return;
                 }
-                None if inner.latest == Some(answer.ticket) => inner.deliver.clone(),
-                None => return,
+                Arrival::Drop => return,
             }
         };
         // Outside the borrow: delivering updates the page, which may ask again at once.
@@ -234,9 +202,7 @@ impl Courier {
     fn progressed(&self, ticket: u64, done: usize, total: usize) {
         let report = {
             let mut inner = self.inner.borrow_mut();
-            inner.last_heard = now_ms();
-            // Only the ask whose answer will be shown (nothing newer waiting).
-            if inner.in_flight != Some(ticket) || inner.waiting.is_some() {
+            if !inner.queue.progressed(ticket, now_ms()) {
                 return;
             }
             inner.report.clone()
@@ -246,14 +212,12 @@ impl Courier {
 
     /// Whether a fault on ask `ticket` concerns the current worker (the ask is the one out).
     pub fn is_current(&self, ticket: u64) -> bool {
-        self.inner.borrow().in_flight == Some(ticket)
+        self.inner.borrow().queue.is_current(ticket)
     }
 
     /// Drops what was asked: the page's input has no plan to wait for any more.
     pub fn forget(&self) {
-        let mut inner = self.inner.borrow_mut();
-        inner.waiting = None;
-        inner.latest = None;
+        self.inner.borrow_mut().queue.forget();
     }
 
     /// The worker stopped (its panic reached the page, or it fell silent): forget what was in
@@ -261,9 +225,7 @@ impl Courier {
     pub fn restart(&self) {
         {
             let mut inner = self.inner.borrow_mut();
-            inner.in_flight = None;
-            inner.waiting = None;
-            inner.latest = None;
+            inner.queue.restart();
             inner.bridge = None;
         }
         self.spawn();

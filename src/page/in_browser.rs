@@ -8,7 +8,8 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::intake;
-use morrowcast_engine::plan::{plan_item, PlanSettings};
+use morrowcast_engine::plan::plan_item;
+use morrowcast_engine::settings::PlanSettings;
 use wasm_bindgen::JsCast;
 use wasm_bindgen_test::*;
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement, HtmlElement, HtmlInputElement};
@@ -16,7 +17,7 @@ use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement, HtmlElement, HtmlInpu
 use super::browser;
 use super::model;
 use super::panels::{IntakePanel, SettingsPanel};
-use super::state::State;
+use super::state::{IntakeState, PlanState, Resized};
 use crate::chart;
 
 wasm_bindgen_test_configure!(run_in_browser);
@@ -56,7 +57,10 @@ fn mount_with<V: IntoView + 'static>(text: &str, view: fn() -> V) -> HtmlElement
     let el = host();
     let text = text.to_string();
     let handle = leptos::mount::mount_to(el.clone(), move || {
-        provide_context(State::new(text.clone(), "pasted text".into()));
+        let intake = IntakeState::new(text.clone(), "pasted text".into());
+        provide_context(intake);
+        provide_context(PlanState::new(intake));
+        provide_context(Resized(RwSignal::new(0)));
         view()
     });
     handle.forget();

@@ -20,20 +20,6 @@ pub fn history_labels(series: &Series) -> Vec<String> {
     series.periods().map(|p| p.to_string()).collect()
 }
 
-/// The Error ledger of one ranked row (origin 0 of the backtest), with its periods.
-pub fn row_ledger(plan: &ItemPlan, series: &Series, row: &Scored, limit: f64) -> Vec<LedgerEntry> {
-    let k = plan.backtest.holdout_demand.len();
-    let start = series.len().saturating_sub(k);
-    row.ledger(&plan.backtest.holdout_demand, limit)
-        .into_iter()
-        .enumerate()
-        .map(|(i, r)| LedgerEntry {
-            period: series.period(start + i),
-            row: r,
-        })
-        .collect()
-}
-
 /// The Look-ahead chart's data: history and holdout from `ranked` (the plan the ranking came
 /// from), fit and forecast from `shown` (the plan refitted with the row the user picked; the same
 /// plan when the top row is shown).

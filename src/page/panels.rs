@@ -9,15 +9,16 @@ use leptos::task::spawn_local;
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
 use morrowcast_engine::demo;
+use morrowcast_engine::settings::SettingsText;
 use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
 use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
-use super::state::{State, DEMO_SOURCE};
+use super::state::{IntakeState, PlanState, DEMO_SOURCE};
 use super::words;
 
 /// Reads a file's text locally and puts it in the Intake box.
-fn read_file(state: State, file: File) {
+fn read_file(state: IntakeState, file: File) {
     let name = file.name();
     spawn_local(async move {
         match JsFuture::from(file.text()).await {
@@ -29,7 +30,7 @@ fn read_file(state: State, file: File) {
 
 #[component]
 pub fn IntakePanel() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<IntakeState>();
     let dragging = RwSignal::new(false);
     let demo_missing = RwSignal::new(false);
     let load_demo = move |_| {
@@ -83,7 +84,6 @@ pub fn IntakePanel() -> impl IntoView {
                         let t = event_target_value(&ev);
                         super::browser::keep_text(&t, "pasted text");
                         state.source.set("pasted text".into());
-                        state.picked.set(None);
                         state.text.set(t);
                     }
                 ></textarea>
@@ -118,7 +118,6 @@ pub fn IntakePanel() -> impl IntoView {
                 <div class="field">
                     <label for="item-choice">"Item to forecast"</label>
                     <select id="item-choice" on:change=move |ev| {
-                        state.picked.set(None);
                         state.item.set(event_target_value(&ev).parse().unwrap_or(0));
                     }>
                         {move || state.report.with(|r| r.items.iter().enumerate().map(|(i, it)| {
@@ -138,10 +137,10 @@ fn TextSetting(
     id: &'static str,
     label: &'static str,
     hint: &'static str,
-    get: fn(&super::settings::SettingsForm) -> String,
-    set: fn(&mut super::settings::SettingsForm, String),
+    get: fn(&SettingsText) -> String,
+    set: fn(&mut SettingsText, String),
 ) -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
     let hint_id = format!("{id}-hint");
     let error = move || {
         state
@@ -169,7 +168,7 @@ fn TextSetting(
 
 #[component]
 pub fn SettingsPanel() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
     let level_is = move |p: f64| {
         state
             .form

@@ -12,7 +12,7 @@ use plotters_canvas::CanvasBackend;
 use super::browser;
 use super::export;
 use super::model;
-use super::state::State;
+use super::state::{IntakeState, PlanState, Resized};
 use super::words;
 use crate::chart::{self, Area, ChartError};
 
@@ -42,11 +42,12 @@ fn chart_figure<T>(
 where
     T: Clone + PartialEq + Send + Sync + 'static,
 {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
+    let resized = expect_context::<Resized>().0;
     let canvas = NodeRef::<Canvas>::new();
     let failure = RwSignal::new(None::<String>);
     Effect::new(move |_| {
-        state.layout.track();
+        resized.track();
         let value = data.get();
         if let (Some(el), Some(value)) = (canvas.get(), value) {
             let result = browser::measured(&format!("morrowcast:draw:{id}"), || {
@@ -86,7 +87,8 @@ where
 
 #[component]
 pub fn Headline() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
+    let intake = expect_context::<IntakeState>();
     view! {
         // Shown only when the worker takes longer than a moment (the style delays it 0.2 s).
         <div class="busy" class:on=move || state.busy.get() role="status" id="busy">
@@ -99,7 +101,7 @@ pub fn Headline() -> impl IntoView {
                 }}
                 <span>{move || {
                     let steps = state.progress.get().map(|(d, t)| format!(": step {} of {t}", (d + 1).min(t))).unwrap_or_default();
-                    state.series.with(|s| match s {
+                    intake.series.with(|s| match s {
                         Some(Ok(s)) => format!("Ranking the methods for {}{steps}…", s.name()),
                         _ => "Working…".to_string(),
                     })
@@ -109,7 +111,7 @@ pub fn Headline() -> impl IntoView {
         <section class="headline" aria-live="polite" id="headline">
             {move || state.plan.with(|p| match p {
                 // No plan yet: either there is no item, or its first plan is on its way.
-                None => view! { <p class="lead">{move || state.series.with(|s| match s {
+                None => view! { <p class="lead">{move || intake.series.with(|s| match s {
                     Some(Ok(s)) => format!("Working out the forecast for {}: it appears here in a moment.", s.name()),
                     _ => "Load data in Intake to see its forecast here.".to_string(),
                 })}</p> }.into_any(),
@@ -120,7 +122,7 @@ pub fn Headline() -> impl IntoView {
                     view! {
                         <h2 class="item-name" id="item-name">{plan.name.clone()}</h2>
                         <p class="lead">{format!("Forecast for the next {h} periods by {method}, with a {}% band.", plan.level.percent())}</p>
-                        {move || state.report.with(|r| r.has_errors().then(|| view! {
+                        {move || intake.report.with(|r| r.has_errors().then(|| view! {
                             <p class="notice" id="unread-cells">{words::unread_cells_note(r.errors.len())}</p>
                         }))}
                         <p class="timing" id="compute-time">{move || format!("Recomputed in {:.0} ms.", state.compute_ms.get())}</p>
@@ -133,7 +135,7 @@ pub fn Headline() -> impl IntoView {
 
 #[component]
 pub fn LookAheadPanel() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
     let data = Memo::new(move |_| {
         let shown = state.shown.get()?;
         state.plan.with(|p| {
@@ -178,8 +180,8 @@ pub fn LookAheadPanel() -> impl IntoView {
 
 #[component]
 pub fn Ranking() -> impl IntoView {
-    let state = expect_context::<State>();
-    let metric = move || state.settings.with(|s| s.rank_by);
+    let state = expect_context::<PlanState>();
+    let metric = move || state.settings.with(|s| s.rank_by());
     view! {
         <section class="panel" id="ranking" aria-labelledby="ranking-title">
             <h2 id="ranking-title">"Backtest ranking"</h2>
@@ -205,16 +207,16 @@ pub fn Ranking() -> impl IntoView {
                         {move || state.plan.with(|p| match p {
                             Some(Ok(p)) => p.backtest.ranking.iter().enumerate().map(|(i, s)| {
                                 let label = s.candidate.label();
-                                let pick = label.clone();
-                                let pick_row = label.clone();
+                                let pick = s.candidate.clone();
+                                let pick_row = s.candidate.clone();
                                 let is_shown = move || state.shown.with(|sh| sh.as_ref().map(|sh| sh.row) == Some(i));
                                 let m = &s.measures;
                                 view! {
-                                    <tr class:shown=is_shown on:click=move |_| state.picked.set(Some(pick_row.clone()))>
+                                    <tr class:shown=is_shown on:click=move |_| state.pick(pick_row.clone())>
                                         <td class="num">{i + 1}</td>
                                         <th scope="row">
                                             <button type="button" class="row-pick" aria-pressed=move || if is_shown() { "true" } else { "false" }
-                                                on:click=move |ev| { ev.stop_propagation(); state.picked.set(Some(pick.clone())); }>{label}</button>
+                                                on:click=move |ev| { ev.stop_propagation(); state.pick(pick.clone()); }>{label}</button>
                                         </th>
                                         <td class="num">{fixed_opt(m.mase, 3)}</td>
                                         <td class="num">{fixed_opt(m.mape, 1)}</td>
@@ -240,22 +242,19 @@ pub fn Ranking() -> impl IntoView {
 
 #[component]
 pub fn ErrorLedger() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
+    // The shown row's plan carries its own ledger (the engine builds it once, with the
+    // tracking limit the plan was made with).
     let ledger = Memo::new(move |_| {
-        let shown = state.shown.get()?;
-        let limit = state.settings.with(|s| s.tracking_limit);
-        state.plan.with(|p| {
-            let ranked = p.as_ref()?.as_ref().ok()?;
-            state.planned.with(|s| {
-                let series = s.as_ref()?;
-                let row = ranked.backtest.ranking.get(shown.row)?;
-                Some(model::row_ledger(ranked, series, row, limit))
-            })
-        })
+        state
+            .shown
+            .with(|s| s.as_ref().map(|s| s.plan.ledger.clone()))
     });
     let tracking = Memo::new(move |_| {
-        let limit = state.settings.with(|s| s.tracking_limit);
-        ledger.with(|l| l.as_ref().map(|l| model::tracking(l, limit)))
+        state.shown.with(|s| {
+            s.as_ref()
+                .map(|s| model::tracking(&s.plan.ledger, s.plan.tracking_limit))
+        })
     });
     let export_ledger = move |_| {
         if let (Some(l), Some(s)) = (ledger.get(), state.shown.get()) {
@@ -303,7 +302,7 @@ pub fn ErrorLedger() -> impl IntoView {
 
 #[component]
 pub fn PatternView() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
     let with_plan = move |f: &dyn Fn(
         &morrowcast_engine::series::Series,
         &morrowcast_engine::plan::ItemPlan,
@@ -317,8 +316,8 @@ pub fn PatternView() -> impl IntoView {
         state.plan.with(|p| {
             let plan = p.as_ref()?.as_ref().ok()?;
             state
-                .series
-                .with(|s| Some(model::history(s.as_ref()?.as_ref().ok()?, plan)))
+                .planned
+                .with(|s| Some(model::history(s.as_ref()?, plan)))
         })
     });
     let overlay = Memo::new(move |_| {
@@ -358,7 +357,7 @@ pub fn PatternView() -> impl IntoView {
 /// a season, or return to detection. Each sets the Settings field, so the two never disagree.
 #[component]
 fn SeasonChoices() -> impl IntoView {
-    let state = expect_context::<State>();
+    let state = expect_context::<PlanState>();
     let set = move |value: String| state.form.update(|f| f.season = value);
     let typed = move || state.form.with(|f| f.season.trim().to_string());
     let automatic = move || {

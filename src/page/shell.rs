@@ -1,7 +1,7 @@
 //! The page: masthead, the controls column (Intake, Settings) and the results column
 //! (Look-ahead, Backtest ranking, Error ledger, Pattern view), with the conventions stated.
 //!
-//! Kept apart from: the state's computation (state.rs) and each part's contents (panels.rs,
+//! Kept apart from: the state's computation (state/) and each part's contents (panels.rs,
 //! results.rs). Loads the demo on a first visit; a reload keeps the tab's own Intake text.
 
 use leptos::prelude::*;
@@ -10,18 +10,20 @@ use morrowcast_engine::demo;
 use super::browser;
 use super::panels::{IntakePanel, SettingsPanel};
 use super::results::{ErrorLedger, Headline, LookAheadPanel, PatternView, Ranking};
-use super::state::{State, DEMO_SOURCE};
+use super::state::{IntakeState, PlanState, Resized, DEMO_SOURCE};
 
 #[component]
 pub fn App() -> impl IntoView {
     let (text, source) =
         browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
-    let state = State::new(text, source);
+    let intake = IntakeState::new(text, source);
+    let state = PlanState::new(intake);
+    let resized = RwSignal::new(0u32);
+    provide_context(intake);
     provide_context(state);
+    provide_context(Resized(resized));
     // Charts redraw at their new size; the handle lives as long as the page.
-    let _resize = window_event_listener(leptos::ev::resize, move |_| {
-        state.layout.update(|t| *t += 1)
-    });
+    let _resize = window_event_listener(leptos::ev::resize, move |_| resized.update(|t| *t += 1));
     view! {
         <a class="skip-link" href="#results">"Skip to the results"</a>
         <header class="masthead">

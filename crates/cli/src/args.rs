@@ -1,18 +1,36 @@
 //! Argument parsing for the command line (by hand: four subcommands and a few flags do not
 //! justify a parser dependency in the build).
+//!
+//! Kept apart from: the settings' limits and their messages (the engine's
+//! [`morrowcast_engine::settings`] decides them for the page and the command line alike). A
+//! flag given twice is refused rather than one value silently kept; only `--item` repeats.
 
 use morrowcast_engine::backtest::RankBy;
-use morrowcast_engine::bands::{BandMethod, Level};
-use morrowcast_engine::plan::{Choice, PlanSettings, SeasonChoice};
+use morrowcast_engine::bands::BandMethod;
+use morrowcast_engine::settings::{Choice, PlanSettings, Setting, SettingsText};
 
-pub const USAGE: &str = "\
+/// The help text; the limits come from the engine's settings, where they are decided.
+pub fn usage() -> String {
+    format!(
+        "\
 usage:
   morrowcast inspect FILE [--json]
-  morrowcast forecast FILE [--item NAME] [--horizon H] [--season auto|N] [--holdout K]
-                      [--level P] [--rank-by mape|rmse|bias|mase] [--band mad|horizon]
-                      [--tracking-limit L] [--origins R] [--method auto|best|NAME] [--json]
+  morrowcast forecast FILE [--item NAME]... [--horizon auto|H] [--season auto|none|N]
+                      [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
+                      [--band mad|horizon] [--tracking-limit L] [--origins R]
+                      [--method auto|best|NAME] [--json]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
-FILE may be - for standard input. Errors are forecast minus demand (positive = over-forecast).";
+FILE may be - for standard input. --item may be repeated (each item named is planned; without
+it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
+origins {}. Errors are forecast minus demand (positive = over-forecast).",
+        Setting::Horizon.allowed(),
+        Setting::Holdout.allowed(),
+        Setting::Season.allowed(),
+        Setting::Level.allowed(),
+        Setting::TrackingLimit.allowed(),
+        Setting::Origins.allowed(),
+    )
+}
 
 pub enum Command {
     Help,
@@ -27,11 +45,6 @@ pub struct ForecastArgs {
     pub items: Vec<String>,
     pub json: bool,
     pub settings: PlanSettings,
-}
-
-fn number<T: std::str::FromStr>(flag: &str, text: &str, what: &str) -> Result<T, String> {
-    text.parse()
-        .map_err(|_| format!("{flag} takes {what}; found \"{text}\""))
 }
 
 pub fn parse(argv: &[String]) -> Result<Command, String> {
@@ -49,7 +62,14 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
                 match a.as_str() {
                     "--json" => json = true,
                     s if s.starts_with("--") => return Err(format!("inspect does not know {s}")),
-                    s => file = Some(s.to_string()),
+                    s => {
+                        if let Some(earlier) = &file {
+                            return Err(format!(
+                                "inspect takes one FILE; found \"{earlier}\" and \"{s}\""
+                            ));
+                        }
+                        file = Some(s.to_string());
+                    }
                 }
             }
             let file = file.ok_or("inspect needs a FILE (or - for standard input)")?;
@@ -64,100 +84,79 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
     let mut file = None;
     let mut items: Vec<String> = Vec::new();
     let mut json = false;
-    let mut settings = PlanSettings::default();
+    let mut text = SettingsText::default();
+    let mut seen: Vec<&str> = Vec::new();
     let mut i = 0;
     while i < rest.len() {
         let flag = rest[i].as_str();
-        let value = || {
-            rest.get(i + 1)
-                .map(String::as_str)
-                .ok_or(format!("{flag} needs a value"))
-        };
-        match flag {
-            "--json" => {
-                json = true;
-                i += 1;
-                continue;
+        if flag == "--json" {
+            json = true;
+            i += 1;
+            continue;
+        }
+        if !flag.starts_with("--") || flag == "-" {
+            if let Some(earlier) = &file {
+                return Err(format!(
+                    "forecast takes one FILE; found \"{earlier}\" and \"{flag}\""
+                ));
             }
+            file = Some(flag.to_string());
+            i += 1;
+            continue;
+        }
+        let value = rest
+            .get(i + 1)
+            .map(String::as_str)
+            .ok_or(format!("{flag} needs a value"))?;
+        // A flag given twice would silently keep one of the two values; only --item repeats.
+        if flag != "--item" {
+            if seen.contains(&flag) {
+                return Err(format!("{flag} is given twice: give it once"));
+            }
+            seen.push(flag);
+        }
+        match flag {
             "--item" => {
-                let name = value()?.to_string();
-                if items.contains(&name) {
+                if items.iter().any(|n| n == value) {
                     return Err(format!(
                         "--item {} is given twice: name each item once",
-                        crate::table::quoted(&name)
+                        crate::table::quoted(value)
                     ));
                 }
-                items.push(name);
+                items.push(value.to_string());
             }
-            "--horizon" => {
-                let h: usize = number(flag, value()?, "a whole number of periods, 1 or more")?;
-                if h == 0 {
-                    return Err("--horizon takes 1 or more periods; found \"0\"".into());
-                }
-                settings.horizon = Some(h);
-            }
-            "--season" => {
-                let v = value()?;
-                settings.season = if v == "auto" {
-                    SeasonChoice::Auto
-                } else {
-                    SeasonChoice::Fixed(number(flag, v, "auto or a whole number (1 = no season)")?)
-                };
-            }
-            "--holdout" => {
-                let k: usize = number(flag, value()?, "a whole number of periods, 1 or more")?;
-                if k == 0 {
-                    return Err("--holdout takes 1 or more periods; found \"0\"".into());
-                }
-                settings.holdout = Some(k);
-            }
-            "--level" => {
-                let v = value()?;
-                let p: f64 = number(
-                    flag,
-                    v.trim_end_matches('%'),
-                    "a percentage from 50 to 99.9",
-                )?;
-                settings.level = Level::new(p).map_err(|e| e.to_string())?;
-            }
+            "--horizon" => text.horizon = value.into(),
+            "--season" => text.season = value.into(),
+            "--holdout" => text.holdout = value.into(),
+            "--level" => text.level = value.into(),
+            "--tracking-limit" => text.tracking_limit = value.into(),
+            "--origins" => text.origins = value.into(),
             "--rank-by" => {
-                let v = value()?;
-                settings.rank_by = RankBy::from_key(v).ok_or(format!(
-                    "--rank-by takes mape, rmse, bias or mase; found \"{v}\""
+                text.rank_by = RankBy::from_key(value).ok_or(format!(
+                    "--rank-by takes mape, rmse, bias or mase; found \"{value}\""
                 ))?;
             }
             "--band" => {
-                let v = value()?;
-                settings.band = BandMethod::from_key(v)
-                    .ok_or(format!("--band takes mad or horizon; found \"{v}\""))?;
-            }
-            "--tracking-limit" => {
-                let l: f64 = number(flag, value()?, "a positive number")?;
-                if !(l > 0.0 && l.is_finite()) {
-                    return Err("--tracking-limit takes a positive number".into());
-                }
-                settings.tracking_limit = l;
+                text.band = BandMethod::from_key(value)
+                    .ok_or(format!("--band takes mad or horizon; found \"{value}\""))?;
             }
             "--method" => {
-                let v = value()?;
-                settings.choice = Choice::from_key(v).ok_or(format!(
-                    "--method takes auto, best, combination or a method name such as theta or holt_winters_multiplicative; found \"{v}\""
+                text.choice = Choice::from_key(value).ok_or(format!(
+                    "--method takes auto, best, combination or a method name such as theta or holt_winters_multiplicative; found \"{value}\""
                 ))?;
             }
-            "--origins" => {
-                let r: usize = number(flag, value()?, "a whole number, 1 or more")?;
-                settings.origins = r.max(1);
-            }
-            s if s.starts_with("--") => return Err(format!("forecast does not know {s}")),
-            s => {
-                file = Some(s.to_string());
-                i += 1;
-                continue;
-            }
+            s => return Err(format!("forecast does not know {s}")),
         }
         i += 2;
     }
     let file = file.ok_or("forecast needs a FILE (or - for standard input)")?;
+    let settings = PlanSettings::from_text(&text).map_err(|errors| {
+        errors
+            .iter()
+            .map(|e| e.to_string())
+            .collect::<Vec<_>>()
+            .join("; ")
+    })?;
     Ok(ForecastArgs {
         file,
         items,

@@ -32,13 +32,13 @@ pub fn run(
     let command = match args::parse(argv) {
         Ok(c) => c,
         Err(message) => {
-            console.err(&format!("morrowcast: {message}\n\n{}\n", args::USAGE));
+            console.err(&format!("morrowcast: {message}\n\n{}\n", args::usage()));
             return 2;
         }
     };
     match command {
         Command::Help => {
-            console.out(&format!("{}\n", args::USAGE));
+            console.out(&format!("{}\n", args::usage()));
             0
         }
         Command::Demo => {

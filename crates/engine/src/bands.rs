@@ -69,8 +69,14 @@ impl From<Level> for f64 {
 }
 
 impl Level {
+    /// Lowest level a band may have (percent; our choice: a narrower band says little).
+    pub const MIN_PERCENT: f64 = 50.0;
+    /// Highest level a band may have (percent; beyond it the normal tails that set the band
+    /// are far outside anything a few years of sales can check).
+    pub const MAX_PERCENT: f64 = 99.9;
+
     pub fn new(percent: f64) -> Result<Level, BandError> {
-        if percent.is_finite() && (50.0..=99.9).contains(&percent) {
+        if percent.is_finite() && (Level::MIN_PERCENT..=Level::MAX_PERCENT).contains(&percent) {
             Ok(Level { percent })
         } else {
             Err(BandError::LevelOutOfRange { percent })

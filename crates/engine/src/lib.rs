@@ -43,3 +43,4 @@ pub mod methods;
 pub mod patterns;
 pub mod plan;
 pub mod series;
+pub mod settings;

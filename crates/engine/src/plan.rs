@@ -10,13 +10,14 @@
 
 use std::fmt;
 
-use crate::accuracy::{LedgerRow, DEFAULT_TRACKING_LIMIT};
-use crate::backtest::{self, Backtest, BacktestError, BacktestSettings, Candidate, RankBy};
+use crate::accuracy::LedgerRow;
+use crate::backtest::{self, Backtest, BacktestError, BacktestSettings, Candidate};
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::Period;
 use crate::methods::{self, MethodKind};
 use crate::patterns::{self, DemandClass, DemandVerdict, SeasonVerdict, TrendVerdict};
 use crate::series::Series;
+use crate::settings::{Choice, PlanSettings, SeasonChoice};
 
 /// Fewest periods the plan works with.
 pub const MIN_PERIODS: usize = 4;
@@ -26,90 +27,11 @@ pub const MIN_PERIODS: usize = 4;
 /// [`bands::empirical_band`], enough points for quantiles, with few enough refits to stay fast).
 pub const BAND_ORIGINS: usize = 8;
 
-/// Which candidate becomes the forecast.
-#[derive(Clone, Debug, PartialEq, Eq, Default)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-pub enum Choice {
-    /// The equal-weight combination of the best [`backtest::COMBINATION_SIZE`] single methods of
-    /// the ranking (the best single method when fewer than two could be scored). On the M3 data
-    /// always combining beat picking the top-ranked candidate (README, Benchmarks): a holdout of
-    /// one season is too short to tell close methods apart, and averaging hedges the pick.
-    #[default]
-    Auto,
-    /// Whatever ranks first, single method or combination.
-    Best,
-    /// A named candidate: a method key, or "combination".
-    Named(String),
-}
-
-impl Choice {
-    /// Parses "auto", "best", "combination" or a method key.
-    pub fn from_key(key: &str) -> Option<Choice> {
-        match key {
-            "auto" => Some(Choice::Auto),
-            "best" => Some(Choice::Best),
-            "combination" => Some(Choice::Named(key.to_string())),
-            other => MethodKind::from_key(other).map(|k| Choice::Named(k.key().to_string())),
-        }
-    }
-}
-
-/// Season length choice.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-pub enum SeasonChoice {
-    #[default]
-    Auto,
-    /// A user-given season length (1 = no season); always wins over detection.
-    Fixed(usize),
-}
-
-/// Settings of one plan. Defaults: horizon from the calendar, automatic season, holdout = last
-/// full season, 95 % horizon-aware band, ranked by MASE, tracking limit 4, 3 rolling origins.
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-pub struct PlanSettings {
-    /// Periods to forecast; `None`: the calendar's season length, else 6.
-    pub horizon: Option<usize>,
-    pub season: SeasonChoice,
-    /// Holdout length; `None`: [`backtest::default_holdout`].
-    pub holdout: Option<usize>,
-    pub level: Level,
-    pub band: BandMethod,
-    pub rank_by: RankBy,
-    pub tracking_limit: f64,
-    pub origins: usize,
-    /// Methods to try; `None`: all that apply.
-    pub methods: Option<Vec<MethodKind>>,
-    pub combine: bool,
-    pub choice: Choice,
-}
-
-impl Default for PlanSettings {
-    fn default() -> Self {
-        PlanSettings {
-            horizon: None,
-            season: SeasonChoice::Auto,
-            holdout: None,
-            level: Level::default(),
-            band: BandMethod::default(),
-            rank_by: RankBy::default(),
-            tracking_limit: DEFAULT_TRACKING_LIMIT,
-            origins: 3,
-            methods: None,
-            combine: true,
-            choice: Choice::Auto,
-        }
-    }
-}
-
 /// Why an item could not be planned.
 #[derive(Clone, Debug, PartialEq)]
 pub enum PlanError {
     /// Fewer than [`MIN_PERIODS`] periods: add more history.
     TooShort { name: String, length: usize },
-    /// The horizon is zero: forecast at least one period.
-    ZeroHorizon,
     /// The asked-for method could not be scored on this item: pick one of the available ones.
     NotCandidate {
         name: String,
@@ -127,7 +49,6 @@ impl fmt::Display for PlanError {
                 f,
                 "item \"{name}\" has {length} periods; at least {MIN_PERIODS} are needed to test and forecast"
             ),
-            PlanError::ZeroHorizon => write!(f, "the horizon is 0: forecast at least one period"),
             PlanError::NotCandidate { name, wanted, available } => write!(
                 f,
                 "item \"{name}\": method \"{wanted}\" could not be scored here; available: {}",
@@ -177,6 +98,8 @@ pub struct ItemPlan {
     pub forecast: Vec<ForecastPoint>,
     pub level: Level,
     pub band: BandMethod,
+    /// The tracking-signal limit the Error ledger's marks were set with.
+    pub tracking_limit: f64,
     /// Plain-words notes: gaps filled, methods skipped and why.
     pub notes: Vec<String>,
 }
@@ -231,13 +154,9 @@ pub fn plan_item_reusing(
     earlier: &ItemPlan,
     earlier_settings: &PlanSettings,
 ) -> Result<ItemPlan, PlanError> {
-    let same_ranking = PlanSettings {
-        choice: Choice::Auto,
-        ..settings.clone()
-    } == PlanSettings {
-        choice: Choice::Auto,
-        ..earlier_settings.clone()
-    } && earlier.history == series.interpolated();
+    let same_ranking = settings.clone().with_choice(Choice::Auto)
+        == earlier_settings.clone().with_choice(Choice::Auto)
+        && earlier.history == series.interpolated();
     let reuse = same_ranking.then_some(&earlier.backtest);
     plan_inner(series, settings, &mut |_| {}, reuse)
 }
@@ -256,11 +175,8 @@ fn plan_inner(
     }
     let frequency = series.frequency();
     let horizon = settings
-        .horizon
+        .horizon()
         .unwrap_or(frequency.natural_season().unwrap_or(6));
-    if horizon == 0 {
-        return Err(PlanError::ZeroHorizon);
-    }
     let mut notes = Vec::new();
     let gaps = series.gap_indices();
     if !gaps.is_empty() {
@@ -272,7 +188,7 @@ fn plan_inner(
         ));
     }
 
-    let user_season = match settings.season {
+    let user_season = match settings.season() {
         SeasonChoice::Auto => None,
         SeasonChoice::Fixed(m) => Some(m),
     };
@@ -284,18 +200,18 @@ fn plan_inner(
     let has_zeros = history.contains(&0.0);
 
     let candidates = settings
-        .methods
-        .clone()
+        .methods()
+        .map(<[MethodKind]>::to_vec)
         .unwrap_or_else(|| applicable_methods(m, &demand, has_zeros));
     let holdout = settings
-        .holdout
+        .holdout()
         .unwrap_or_else(|| backtest::default_holdout(n, m.or(frequency.natural_season())));
     let bt_settings = BacktestSettings {
         holdout,
-        origins: settings.origins,
-        rank_by: settings.rank_by,
+        origins: settings.origins(),
+        rank_by: settings.rank_by(),
         candidates,
-        combine: settings.combine,
+        combine: settings.combine(),
     };
     let steps = bt_settings.candidates.len() + 1;
     let bt = match reuse {
@@ -311,9 +227,9 @@ fn plan_inner(
     for s in &bt.skipped {
         notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
     }
-    let best = choose(&bt, &settings.choice).ok_or_else(|| PlanError::NotCandidate {
+    let best = choose(&bt, settings.choice()).ok_or_else(|| PlanError::NotCandidate {
         name: name.clone(),
-        wanted: match &settings.choice {
+        wanted: match settings.choice() {
             Choice::Named(key) => key.clone(),
             _ => "auto".to_string(),
         },
@@ -324,7 +240,7 @@ fn plan_inner(
             .collect(),
     })?;
     let chosen = best.candidate.clone();
-    let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit);
+    let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit());
     let ledger: Vec<LedgerEntry> = ledger_rows
         .into_iter()
         .enumerate()
@@ -339,14 +255,14 @@ fn plan_inner(
         .or_else(|| ledger.last().map(|e| e.row.mad))
         .unwrap_or(0.0);
     let mad_band = || {
-        let pts = bands::mad_band(&point, residual_mad, settings.level, non_negative);
+        let pts = bands::mad_band(&point, residual_mad, settings.level(), non_negative);
         let src = vec![BandSource::MadRule; pts.len()];
         (pts, src)
     };
-    let points_and_sources = match (settings.band, variance) {
+    let points_and_sources = match (settings.band(), variance) {
         (BandMethod::MadRule, _) => mad_band(),
         (BandMethod::HorizonAware, Some(v)) => {
-            let pts = bands::analytic_band(&point, &v, settings.level, non_negative);
+            let pts = bands::analytic_band(&point, &v, settings.level(), non_negative);
             let src = vec![BandSource::Analytic; pts.len()];
             (pts, src)
         }
@@ -371,7 +287,7 @@ fn plan_inner(
                 notes.push("the history is too short for rolling-origin errors: the band uses the MAD rule".into());
                 mad_band()
             } else {
-                bands::empirical_band(&point, &errors, settings.level, non_negative)
+                bands::empirical_band(&point, &errors, settings.level(), non_negative)
             }
         }
     };
@@ -399,8 +315,9 @@ fn plan_inner(
         history,
         fitted,
         forecast,
-        level: settings.level,
-        band: settings.band,
+        level: settings.level(),
+        band: settings.band(),
+        tracking_limit: settings.tracking_limit(),
         notes,
     })
 }

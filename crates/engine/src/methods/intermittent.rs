@@ -41,8 +41,8 @@ const SMOOTHING_RANGE: Bound = Bound::new(0.05, 0.3);
 /// Used when the history leaves nothing to fit on (common practice).
 const FALLBACK_SMOOTHING: f64 = 0.1;
 
-// Called only by the reference tests (feature `internals`).
-#[cfg(any(test, feature = "internals"))]
+// For the reference tests (feature `internals`).
+#[cfg(feature = "internals")]
 /// The demand sizes `q_i` and inter-demand intervals `a_i` of a history (see the module doc).
 pub fn demand_sizes_and_intervals(history: &[f64]) -> (Vec<f64>, Vec<usize>) {
     let mut sizes = Vec::new();
@@ -213,7 +213,7 @@ pub fn fit(kind: MethodKind, history: &[f64], horizon: usize) -> Result<Fitted, 
     }
 }
 
-// Called only by the reference tests (feature `internals`).
+// For the reference tests (feature `internals`) and this module's own tests.
 #[cfg(any(test, feature = "internals"))]
 /// Croston's method with a given smoothing constant (e.g. to reproduce a published example).
 pub fn croston_with_alpha(
@@ -225,7 +225,7 @@ pub fn croston_with_alpha(
     croston_family(MethodKind::Croston, history, first, alpha, horizon)
 }
 
-// Called only by the reference tests (feature `internals`).
+// For the reference tests (feature `internals`) and this module's own tests.
 #[cfg(any(test, feature = "internals"))]
 /// SBA with a given smoothing constant.
 pub fn sba_with_alpha(history: &[f64], alpha: f64, horizon: usize) -> Result<Fitted, MethodError> {
@@ -233,7 +233,7 @@ pub fn sba_with_alpha(history: &[f64], alpha: f64, horizon: usize) -> Result<Fit
     croston_family(MethodKind::Sba, history, first, alpha, horizon)
 }
 
-// Called only by the reference tests (feature `internals`).
+// For the reference tests (feature `internals`) and this module's own tests.
 #[cfg(any(test, feature = "internals"))]
 /// TSB with given constants for the size (`alpha`) and the demand probability (`beta`).
 pub fn tsb_with_parameters(

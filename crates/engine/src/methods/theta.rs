@@ -150,8 +150,8 @@ pub fn theta(
     assemble(history, adjusted, ses.alpha, ses.level0, horizon)
 }
 
-// Called only by the reference tests (feature `internals`).
-#[cfg(any(test, feature = "internals"))]
+// For the reference tests (feature `internals`).
+#[cfg(feature = "internals")]
 /// Theta with a given smoothing constant and initial level instead of fitted ones, e.g. to
 /// reproduce a result computed elsewhere. `alpha` must lie in `(0, 1]`.
 pub fn theta_with_smoothing(

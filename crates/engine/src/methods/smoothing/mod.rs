@@ -33,20 +33,19 @@ mod tests;
 pub mod variance;
 
 pub use estimate::{Estimate, FitSettings};
-#[cfg(any(test, feature = "internals"))]
+#[cfg(feature = "internals")]
 pub use estimate::{estimate, ParameterBounds};
 pub use model::Model;
-#[cfg(any(test, feature = "internals"))]
+#[cfg(feature = "internals")]
 pub use model::{ModelError, Parameters, Season, States};
 pub use recursion::Run;
-#[cfg(any(test, feature = "internals"))]
+#[cfg(feature = "internals")]
 pub use recursion::run;
 
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
-// Called only by the reference tests (feature `internals`).
+/// The methods this module fits (listed for the tests, here and in the reference tests).
 #[cfg(any(test, feature = "internals"))]
-/// The methods this module fits.
 pub const KINDS: [MethodKind; 7] = [
     MethodKind::Ses,
     MethodKind::Holt,

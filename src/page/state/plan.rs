@@ -1,23 +1,21 @@
-//! The page's state: the Intake text, the chosen item, the settings form, and the plans the
-//! worker computes from them (asked for at once when any of these changes).
+//! The plan part of the page's state: the settings form, the ranking row the user picked, and
+//! the plans the worker computes for the chosen item (asked for at once when any of these or
+//! the item changes).
 //!
-//! Kept apart from: how the state is shown (panels, results) and the worker's messages
-//! (courier.rs). The page reads Intake itself (it is quick and the report shows as you type);
-//! every plan is computed in the worker.
+//! Kept apart from: the Intake text (intake.rs; this part only reads its chosen series), how
+//! plans are shown (results.rs) and the worker's messages (courier.rs).
 
-pub use crate::worker::Shown;
-use crate::worker::{parse_fault, Drill, PlanAnswer, PlanAsk};
+use crate::worker::{parse_fault, Drill, PlanAnswer, PlanAsk, Shown};
 use leptos::prelude::*;
-use morrowcast_engine::intake::{self, IntakeReport};
-use morrowcast_engine::plan::{ItemPlan, PlanSettings};
+use morrowcast_engine::backtest::Candidate;
+use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::{PlanSettings, SettingsText};
 
-use super::browser;
-use super::courier::Courier;
-use super::settings::{FieldError, SettingsForm};
-
-/// Name of the demo as a source (file names and the intake report use it).
-pub const DEMO_SOURCE: &str = "the demo";
+use super::super::browser;
+use super::super::courier::Courier;
+use super::super::settings::{to_settings, FieldError};
+use super::IntakeState;
 
 /// How long the worker may stay silent while computing before the page says it stopped
 /// (milliseconds; our choice: a live worker sends news after every candidate method, which
@@ -28,21 +26,24 @@ const SILENCE_MS: f64 = 15_000.0;
 /// busy indicator shows after 200 ms, so news before 100 ms would not be seen).
 const NEWS_AFTER_MS: f64 = 100.0;
 
-/// Every signal of the page; `Copy`, handed around by context.
+/// A ranking row the user picked, with the series whose ranking it was picked from: a pick
+/// holds only for that series (another item, or edited data, shows the engine's choice again).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Picked {
+    pub series: Series,
+    pub candidate: Candidate,
+}
+
+/// The plan signals; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
-pub struct State {
-    pub text: RwSignal<String>,
-    /// Where the text came from: "the demo", a file name, "pasted text".
-    pub source: RwSignal<String>,
-    pub report: Memo<IntakeReport>,
-    pub item: RwSignal<usize>,
-    pub form: RwSignal<SettingsForm>,
+pub struct PlanState {
+    /// The settings form as typed.
+    pub form: RwSignal<SettingsText>,
     pub form_errors: Memo<Vec<FieldError>>,
     /// The last settings that passed the checks.
     pub settings: Memo<PlanSettings>,
-    /// The chosen item's series from the Intake text (what the next plan will be made from).
-    pub series: Memo<Option<Result<Series, String>>>,
-    /// The series the shown plan was made from (it lags `series` while the worker computes).
+    /// The series the shown plan was made from (it lags the Intake's series while the worker
+    /// computes).
     pub planned: RwSignal<Option<Series>>,
     /// The ranked plan of the chosen item, as the worker last answered.
     pub plan: RwSignal<Option<Result<ItemPlan, String>>>,
@@ -50,35 +51,24 @@ pub struct State {
     pub busy: RwSignal<bool>,
     /// (done, total) steps of the plan being computed, once the worker reports them.
     pub progress: RwSignal<Option<(usize, usize)>>,
-    /// Bumped when the window is resized, so charts redraw at their new size.
-    pub layout: RwSignal<u32>,
-    /// Label of the ranking row the user picked; `None`: the engine's choice.
-    pub picked: RwSignal<Option<String>>,
+    /// The ranking row the user picked; `None`: the engine's choice.
+    pub picked: RwSignal<Option<Picked>>,
     /// The row the Look-ahead and the Error ledger show, with its plan.
     pub shown: RwSignal<Option<Shown>>,
     /// Time the worker took for the last plan, in milliseconds.
     pub compute_ms: RwSignal<f64>,
 }
 
-impl State {
-    pub fn new(initial_text: String, initial_source: String) -> State {
-        let text = RwSignal::new(initial_text);
-        let source = RwSignal::new(initial_source);
-        let report = Memo::new(move |_| text.with(|t| intake::read(t)));
-        let item = RwSignal::new(0usize);
-        let form = RwSignal::new(SettingsForm::default());
+impl PlanState {
+    /// The plan state for the item `intake` has chosen; starts the worker.
+    pub fn new(intake: IntakeState) -> PlanState {
+        let series = intake.series;
+        let form = RwSignal::new(SettingsText::default());
         let form_errors =
-            Memo::new(move |_| form.with(|f| f.to_settings().err().unwrap_or_default()));
+            Memo::new(move |_| form.with(|f| to_settings(f).err().unwrap_or_default()));
         let settings = Memo::new(move |previous: Option<&PlanSettings>| {
-            form.with(|f| f.to_settings())
+            form.with(to_settings)
                 .unwrap_or_else(|_| previous.cloned().unwrap_or_default())
-        });
-        let series = Memo::new(move |_| {
-            report.with(|r| {
-                r.items
-                    .get(item.get().min(r.items.len().saturating_sub(1)))
-                    .map(|i| i.series().map_err(|e| e.to_string()))
-            })
         });
         let compute_ms = RwSignal::new(0.0);
         let plan = RwSignal::new(None::<Result<ItemPlan, String>>);
@@ -86,7 +76,7 @@ impl State {
         let shown = RwSignal::new(None::<Shown>);
         let busy = RwSignal::new(false);
         let progress = RwSignal::new(None::<(usize, usize)>);
-        let picked = RwSignal::new(None::<String>);
+        let picked = RwSignal::new(None::<Picked>);
         // What every failure does: the message where the plan would be, nothing left busy.
         let fail = move |message: String| {
             plan.set(Some(Err(message)));
@@ -145,10 +135,14 @@ impl State {
             Some("worker-silent") => Some(Drill::Silence),
             _ => None,
         });
+        // Syncs the worker (outside the page) with the inputs: every change asks for a plan.
         Effect::new(move |_| {
             let settings = settings.get();
             let input = series.get();
-            let picked = picked.get();
+            let picked = picked.with(|p| match (p, &input) {
+                (Some(p), Some(Ok(s))) if &p.series == s => Some(p.candidate.clone()),
+                _ => None,
+            });
             match (input, &courier) {
                 (Some(Ok(series)), Ok(courier)) => {
                     busy.set(true);
@@ -183,33 +177,25 @@ impl State {
                 }
             }
         });
-        State {
-            text,
-            source,
-            report,
-            item,
+        PlanState {
             form,
             form_errors,
             settings,
-            series,
             planned,
             plan,
             busy,
             progress,
-            layout: RwSignal::new(0),
             picked,
             shown,
             compute_ms,
         }
     }
 
-    /// Replaces the Intake text (and keeps it for this tab).
-    pub fn set_text(&self, text: String, source: &str) {
-        browser::keep_text(&text, source);
-        self.source.set(source.to_string());
-        self.item.set(0);
-        self.picked.set(None);
-        self.text.set(text);
+    /// Shows the ranking row of `candidate` (picked on the plan being shown).
+    pub fn pick(&self, candidate: Candidate) {
+        if let Some(series) = self.planned.get_untracked() {
+            self.picked.set(Some(Picked { series, candidate }));
+        }
     }
 }
 

@@ -1,0 +1,19 @@
+//! The page's state, in two parts handed around by context: [`IntakeState`] (the Intake text
+//! and what the engine read from it) and [`PlanState`] (the settings form and the plans the
+//! worker computes), plus the page-wide [`Resized`] tick charts redraw on.
+//!
+//! Kept apart from: how the state is shown (panels, results) and the worker's messages
+//! (courier.rs). The page reads Intake itself (it is quick and the report shows as you type);
+//! every plan is computed in the worker.
+
+mod intake;
+mod plan;
+
+pub use intake::{IntakeState, DEMO_SOURCE};
+pub use plan::PlanState;
+
+use leptos::prelude::RwSignal;
+
+/// Bumped when the window is resized, so charts redraw at their new size.
+#[derive(Clone, Copy)]
+pub struct Resized(pub RwSignal<u32>);
