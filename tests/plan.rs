@@ -198,3 +198,33 @@ fn intermittent_demand_gets_intermittent_methods_and_no_mape() {
     assert!(p.backtest.ranking.iter().all(|r| r.measures.mase.is_some()));
     assert!(p.forecast.iter().all(|f| f.band.low >= 0.0));
 }
+
+// A method scored on the training part may not refit on all the data: a multiplicative season
+// needs demand above zero, and here only the last season holds a zero. The plan used to name
+// the method while forecasting the last value; now the next method of the ranking that refits
+// forecasts, is named as chosen, and a note says so (the page and the JSON show the notes).
+#[test]
+fn a_chosen_method_that_cannot_refit_hands_over_to_the_next_with_a_note() {
+    let mut values: Vec<Option<f64>> = seasonal(60).into_iter().map(Some).collect();
+    values[58] = Some(0.0);
+    let s = monthly(values);
+    let settings =
+        PlanSettings::default().with_choice(Choice::from_key("holt_winters_multiplicative").unwrap());
+    let p = plan_item(&s, &settings).unwrap();
+    let ranked: Vec<&str> = p.backtest.ranking.iter().map(|r| r.candidate.key()).collect();
+    assert!(ranked.contains(&"holt_winters_multiplicative"), "{ranked:?}");
+    assert_ne!(p.chosen.key(), "holt_winters_multiplicative");
+    let note = p
+        .notes
+        .iter()
+        .find(|n| n.contains("could not be refitted"))
+        .unwrap_or_else(|| panic!("no note in {:?}", p.notes));
+    assert!(note.contains("Holt-Winters") && note.contains(&p.chosen.label()), "{note}");
+    // The ledger is the stand-in's: its holdout forecasts.
+    let row = p.backtest.ranking.iter().find(|r| r.candidate == p.chosen).unwrap();
+    let ledger_forecasts: Vec<f64> = p.ledger.iter().map(|e| e.row.forecast).collect();
+    assert_eq!(ledger_forecasts, row.holdout_forecast);
+    // The forecast is the stand-in's own, not the last value repeated.
+    let first = p.forecast[0].band.value;
+    assert!(p.forecast.iter().any(|f| (f.band.value - first).abs() > 1.0));
+}

@@ -93,6 +93,29 @@ impl Candidate {
     }
 }
 
+/// The combination's value at one position from its members' values there: their plain mean
+/// (equal weights; see [`Candidate::Combination`]), `None` when any member has none or there
+/// are no members. The one place this rule is written: the backtest's holdout forecasts, the
+/// band's rolling origins and the refit on all data all combine through it.
+pub(crate) fn combine_point(members: impl IntoIterator<Item = Option<f64>>) -> Option<f64> {
+    let (mut sum, mut count) = (0.0, 0usize);
+    for v in members {
+        sum += v?;
+        count += 1;
+    }
+    (count > 0).then(|| sum / count as f64)
+}
+
+/// [`combine_point`] at every position of the members' forecasts. Every method forecasts the
+/// whole horizon it is asked for and a combination has at least two members, so each position
+/// has a value; NaN would mark a broken promise (and the accuracy measures refuse NaN).
+pub(crate) fn combine_forecasts(members: &[Vec<f64>], len: usize) -> Vec<f64> {
+    debug_assert!(!members.is_empty() && members.iter().all(|f| f.len() >= len));
+    (0..len)
+        .map(|h| combine_point(members.iter().map(|f| f.get(h).copied())).unwrap_or(f64::NAN))
+        .collect()
+}
+
 /// Forecasts `horizon` steps after `history` with a candidate. A combination fails when any
 /// member fails.
 pub fn forecast_with(
@@ -124,14 +147,11 @@ fn forecast_cached(
     match candidate {
         Candidate::Method(kind) => one(*kind),
         Candidate::Combination(members) => {
-            let mut sum = vec![0.0; horizon];
-            for kind in members {
-                for (s, v) in sum.iter_mut().zip(one(*kind)?) {
-                    *s += v;
-                }
-            }
-            let k = members.len().max(1) as f64;
-            Ok(sum.into_iter().map(|s| s / k).collect())
+            let forecasts = members
+                .iter()
+                .map(|kind| one(*kind))
+                .collect::<Result<Vec<_>, _>>()?;
+            Ok(combine_forecasts(&forecasts, horizon))
         }
     }
 }
@@ -338,16 +358,17 @@ pub fn run_observed(
                 Candidate::Combination(_) => None,
             })
             .collect();
-        let mut combined = vec![vec![0.0; k]; origins];
-        for member in &members {
-            if let Some((_, fbo)) = per_origin.iter().find(|(kind, _)| kind == member) {
-                for (c, f) in combined.iter_mut().zip(fbo) {
-                    for (cv, fv) in c.iter_mut().zip(f) {
-                        *cv += fv / members.len() as f64;
-                    }
-                }
-            }
-        }
+        let member_forecasts: Vec<&Vec<Vec<f64>>> = members
+            .iter()
+            .filter_map(|m| per_origin.iter().find(|(kind, _)| kind == m).map(|(_, f)| f))
+            .collect();
+        let combined: Vec<Vec<f64>> = (0..origins)
+            .map(|j| {
+                let at_origin: Vec<Vec<f64>> =
+                    member_forecasts.iter().map(|f| f[j].clone()).collect();
+                combine_forecasts(&at_origin, k)
+            })
+            .collect();
         if let Some(measures) = score(&combined) {
             scored.push(Scored {
                 candidate: Candidate::Combination(members),

@@ -40,6 +40,8 @@ pub enum PlanError {
     },
     /// The backtest failed (see its message).
     Backtest { name: String, source: BacktestError },
+    /// No ranked candidate could be refitted on all the data: each one's reason.
+    NoRefit { name: String, reasons: Vec<String> },
 }
 
 impl fmt::Display for PlanError {
@@ -55,6 +57,11 @@ impl fmt::Display for PlanError {
                 available.join(", ")
             ),
             PlanError::Backtest { name, source } => write!(f, "item \"{name}\": {source}"),
+            PlanError::NoRefit { name, reasons } => write!(
+                f,
+                "item \"{name}\": no method of the Backtest ranking could be refitted on all the data ({})",
+                reasons.join("; ")
+            ),
         }
     }
 }
@@ -227,7 +234,7 @@ fn plan_inner(
     for s in &bt.skipped {
         notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
     }
-    let best = choose(&bt, settings.choice()).ok_or_else(|| PlanError::NotCandidate {
+    let wanted = choose(&bt, settings.choice()).ok_or_else(|| PlanError::NotCandidate {
         name: name.clone(),
         wanted: match settings.choice() {
             Choice::Named(key) => key.clone(),
@@ -239,9 +246,16 @@ fn plan_inner(
             .map(|s| s.candidate.key().to_string())
             .collect(),
     })?;
+    let (row, Refit { point, fitted, variance }) =
+        refit_first_that_fits(&bt, wanted, &mut notes, |c| refit(c, &history, m, horizon))
+            .map_err(|reasons| PlanError::NoRefit {
+                name: name.clone(),
+                reasons,
+            })?;
+    let best = &bt.ranking[row];
     let chosen = best.candidate.clone();
-    let ledger_rows = best.ledger(&bt.holdout_demand, settings.tracking_limit());
-    let ledger: Vec<LedgerEntry> = ledger_rows
+    let ledger: Vec<LedgerEntry> = best
+        .ledger(&bt.holdout_demand, settings.tracking_limit())
         .into_iter()
         .enumerate()
         .map(|(i, row)| LedgerEntry {
@@ -250,7 +264,6 @@ fn plan_inner(
         })
         .collect();
 
-    let (point, fitted, variance) = refit(&chosen, &history, m, horizon);
     let residual_mad = mean_abs_residual(&fitted, &history)
         .or_else(|| ledger.last().map(|e| e.row.mad))
         .unwrap_or(0.0);
@@ -322,67 +335,95 @@ fn plan_inner(
     })
 }
 
-/// The scored candidate that `choice` selects.
-fn choose<'a>(bt: &'a Backtest, choice: &Choice) -> Option<&'a backtest::Scored> {
+/// The row of the ranking that `choice` selects.
+fn choose(bt: &Backtest, choice: &Choice) -> Option<usize> {
+    let ranking = &bt.ranking;
     match choice {
-        Choice::Best => bt.ranking.first(),
-        Choice::Auto => bt
-            .ranking
+        Choice::Best => (!ranking.is_empty()).then_some(0),
+        Choice::Auto => ranking
             .iter()
-            .find(|s| matches!(s.candidate, Candidate::Combination(_)))
-            .or_else(|| bt.ranking.first()),
-        Choice::Named(key) => bt.ranking.iter().find(|s| s.candidate.key() == key),
+            .position(|s| matches!(s.candidate, Candidate::Combination(_)))
+            .or((!ranking.is_empty()).then_some(0)),
+        Choice::Named(key) => ranking.iter().position(|s| s.candidate.key() == key),
     }
 }
 
-/// Refits a candidate on all data: point forecasts, in-sample fit and analytic variances.
-/// When the refit fails (it fitted on the shorter training part, so this is rare) the
-/// seasonal-naive or naive forecast stands in, and the point forecast is still produced.
+/// A candidate refitted on all data: point forecasts, in-sample one-step fit (`None` where
+/// undefined) and analytic variances where the method has them.
+struct Refit {
+    point: Vec<f64>,
+    fitted: Vec<Option<f64>>,
+    variance: Option<Vec<f64>>,
+}
+
+/// The refit of ranking row `wanted` or, when that candidate cannot be refitted on all the
+/// data (it was scored on the shorter training part, which may lack what it needs: a
+/// multiplicative season cannot take a zero that only the holdout holds), of the next row of
+/// the ranking that can, then of the rows above it, best first. A stand-in is named in `notes`
+/// and becomes the chosen candidate, so the plan never names one method while forecasting with
+/// another. `Err` holds every candidate's reason when none can be refitted.
+fn refit_first_that_fits(
+    bt: &Backtest,
+    wanted: usize,
+    notes: &mut Vec<String>,
+    mut try_refit: impl FnMut(&Candidate) -> Result<Refit, String>,
+) -> Result<(usize, Refit), Vec<String>> {
+    let order = (wanted..bt.ranking.len()).chain(0..wanted);
+    let mut reasons = Vec::new();
+    for row in order {
+        let candidate = &bt.ranking[row].candidate;
+        match try_refit(candidate) {
+            Ok(refit) => {
+                if row != wanted {
+                    notes.push(format!(
+                        "{} could not be refitted on all the data ({}); the forecast uses {}, \
+                         the next method in the Backtest ranking that could",
+                        bt.ranking[wanted].candidate.label(),
+                        reasons.first().map_or("", String::as_str),
+                        candidate.label()
+                    ));
+                }
+                return Ok((row, refit));
+            }
+            Err(reason) => reasons.push(reason),
+        }
+    }
+    Err(reasons)
+}
+
+/// Refits a candidate on all data; a combination through [`backtest::combine_point`], the
+/// rule the backtest scored it with.
 fn refit(
     candidate: &Candidate,
     history: &[f64],
     season: Option<usize>,
     horizon: usize,
-) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
-    match candidate {
-        Candidate::Method(kind) => match methods::fit(*kind, history, season, horizon) {
-            Ok(f) => (
-                f.forecast().to_vec(),
-                f.fitted().to_vec(),
-                f.variance().map(<[f64]>::to_vec),
-            ),
-            Err(_) => fallback(history, horizon),
-        },
-        Candidate::Combination(members) => {
-            let fits: Result<Vec<_>, _> = members
-                .iter()
-                .map(|k| methods::fit(*k, history, season, horizon))
-                .collect();
-            match fits {
-                Ok(fits) if !fits.is_empty() => {
-                    let k = fits.len() as f64;
-                    let point = (0..horizon)
-                        .map(|h| fits.iter().map(|f| f.forecast()[h]).sum::<f64>() / k)
-                        .collect();
-                    let fitted = (0..history.len())
-                        .map(|t| {
-                            fits.iter()
-                                .map(|f| f.fitted()[t])
-                                .sum::<Option<f64>>()
-                                .map(|s| s / k)
-                        })
-                        .collect();
-                    (point, fitted, None)
-                }
-                _ => fallback(history, horizon),
-            }
+) -> Result<Refit, String> {
+    let fit = |kind: &MethodKind| {
+        methods::fit(*kind, history, season, horizon).map_err(|e| e.to_string())
+    };
+    let members = match candidate {
+        Candidate::Method(kind) => {
+            let f = fit(kind)?;
+            return Ok(Refit {
+                point: f.forecast().to_vec(),
+                fitted: f.fitted().to_vec(),
+                variance: f.variance().map(<[f64]>::to_vec),
+            });
         }
-    }
-}
-
-fn fallback(history: &[f64], horizon: usize) -> (Vec<f64>, Vec<Option<f64>>, Option<Vec<f64>>) {
-    let last = history.last().copied().unwrap_or(0.0);
-    (vec![last; horizon], vec![None; history.len()], None)
+        Candidate::Combination(members) => members,
+    };
+    let fits = members.iter().map(fit).collect::<Result<Vec<_>, _>>()?;
+    let forecasts: Vec<Vec<f64>> = fits.iter().map(|f| f.forecast().to_vec()).collect();
+    let fitted = (0..history.len())
+        .map(|t| backtest::combine_point(fits.iter().map(|f| f.fitted()[t])))
+        .collect();
+    Ok(Refit {
+        point: backtest::combine_forecasts(&forecasts, horizon),
+        fitted,
+        // A combination has no analytic variance: its band comes from rolling-origin errors.
+        variance: None,
+    })
 }
 
 fn mean_abs_residual(fitted: &[Option<f64>], history: &[f64]) -> Option<f64> {
