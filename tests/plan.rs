@@ -228,3 +228,19 @@ fn a_chosen_method_that_cannot_refit_hands_over_to_the_next_with_a_note() {
     let first = p.forecast[0].band.value;
     assert!(p.forecast.iter().any(|f| (f.band.value - first).abs() > 1.0));
 }
+
+// A straight line is fitted exactly, so every error is zero; the band used to have zero
+// width. It is now never narrower than the recording step allows (here 10: z x 10/sqrt(12)).
+#[test]
+fn a_perfectly_linear_history_still_gets_a_band() {
+    let s = monthly((1..=36).map(|t| Some(10.0 * t as f64)).collect());
+    for band in [BandMethod::HorizonAware, BandMethod::MadRule] {
+        let p = plan_item(&s, &PlanSettings::default().with_band(band)).unwrap();
+        let z = p.level.z();
+        for f in &p.forecast {
+            let half = (f.band.high - f.band.low) / 2.0;
+            assert!(half >= z * 10.0 / 12f64.sqrt() - 1e-9, "{band:?}: {:?}", f.band);
+            assert!(f.band.low <= f.band.value && f.band.value <= f.band.high);
+        }
+    }
+}

@@ -164,6 +164,44 @@ fn floor_at_zero(points: &mut [BandPoint], non_negative: bool) {
     }
 }
 
+/// The standard deviation of the error made by recording values to a step Δ: Δ/√12, the
+/// spread of a uniform error on [-Δ/2, Δ/2] (Sheppard's correction for grouping, Sheppard 1898,
+/// Proceedings of the London Mathematical Society 29). Δ is the coarsest decimal step (1e9, ...,
+/// 10, 1, 0.1, ..., 1e-6) of which every value of the history is a whole multiple; a history
+/// of zeros is taken to be recorded in whole units, and one recorded more finely than 1e-6
+/// gives 0.
+///
+/// Why: a history that a method fits exactly (a straight line, a repeated season) leaves
+/// errors of zero and so a band of zero width, a certainty the history cannot give: the next
+/// demand is recorded to the same step, so it can differ from any forecast by rounding alone.
+pub fn recording_sd(history: &[f64]) -> f64 {
+    let finite: Vec<f64> = history.iter().copied().filter(|v| v.is_finite()).collect();
+    if finite.iter().all(|v| *v == 0.0) {
+        return 1.0 / 12f64.sqrt();
+    }
+    let is_multiple = |step: f64| {
+        finite
+            .iter()
+            .all(|v| (v - (v / step).round() * step).abs() <= 1e-9 * v.abs())
+    };
+    (-6..=9)
+        .rev()
+        .map(|k| 10f64.powi(k))
+        .find(|step| is_multiple(*step))
+        .map_or(0.0, |step| step / 12f64.sqrt())
+}
+
+/// Widens each band to at least F ± z · `min_sd` (see [`recording_sd`]), keeping the band of
+/// non-negative demand at or above zero.
+pub fn widen_to_at_least(points: &mut [BandPoint], level: Level, min_sd: f64, non_negative: bool) {
+    let half = level.z() * min_sd;
+    for p in points.iter_mut() {
+        p.low = p.low.min(p.value - half);
+        p.high = p.high.max(p.value + half);
+    }
+    floor_at_zero(points, non_negative);
+}
+
 /// MAD rule: F ± z · 1.25 · MAD at every horizon, i.e. an analytic band whose variance is
 /// (1.25 · MAD)² at every step.
 pub fn mad_band(forecast: &[f64], mad: f64, level: Level, non_negative: bool) -> Vec<BandPoint> {
@@ -274,6 +312,41 @@ pub fn empirical_band(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A history and the recording step it implies (the floor is that step / sqrt(12)).
+    fn check_step(history: &[f64], step: f64) {
+        let got = recording_sd(history) * 12f64.sqrt();
+        assert!((got - step).abs() <= 1e-12 * step.max(1.0), "{history:?}: {got}");
+    }
+
+    // The steps are arithmetic facts of the values; the 1/sqrt(12) is Sheppard's (1898).
+    #[test]
+    fn recording_steps() {
+        check_step(&[10.0, 20.0, 30.0], 10.0);
+        check_step(&[12.0, 15.0, 7.0], 1.0);
+        check_step(&[12.5, 13.0], 0.1);
+        check_step(&[0.25, 0.5], 0.01);
+        check_step(&[3000.0, 5000.0, 0.0], 1000.0);
+        check_step(&[0.0, 0.0], 1.0);
+        check_step(&[1.0 / 3.0], 0.0);
+        check_step(&[-20.0, 40.0], 10.0);
+    }
+
+    #[test]
+    fn a_band_is_widened_to_the_floor_and_kept_above_zero() {
+        let level = Level::new(95.0).unwrap();
+        let mut points = mad_band(&[10.0, 0.5], 0.0, level, true);
+        assert_eq!(points[0].low, points[0].high, "zero MAD: zero width before the floor");
+        widen_to_at_least(&mut points, level, 1.0, true);
+        let z = level.z();
+        assert!((points[0].high - 10.0 - z).abs() < 1e-12 && (10.0 - points[0].low - z).abs() < 1e-12);
+        assert_eq!(points[1].low, 0.0);
+        // A band already wider stays as it was.
+        let mut wide = mad_band(&[10.0], 4.0, level, true);
+        let before = wide.clone();
+        widen_to_at_least(&mut wide, level, 1.0, true);
+        assert_eq!(wide, before);
+    }
 
     #[test]
     fn level_is_validated() {

@@ -6,7 +6,8 @@
 //! 1. fill inner gaps by linear interpolation (named in the notes);
 //! 2. detect season length (a user override wins), trend and demand class;
 //! 3. choose the candidates that apply; backtest and rank them on the holdout;
-//! 4. refit the winner on all data and forecast the horizon with its band.
+//! 4. refit the winner on all data and forecast the horizon with its band, never narrower than
+//!    the history's recording step allows ([`bands::recording_sd`]).
 
 use std::fmt;
 
@@ -304,11 +305,17 @@ fn plan_inner(
             }
         }
     };
+    let (mut band_points, band_sources) = points_and_sources;
+    bands::widen_to_at_least(
+        &mut band_points,
+        settings.level(),
+        bands::recording_sd(&history),
+        non_negative,
+    );
     let last = series.period(n - 1);
-    let forecast = points_and_sources
-        .0
+    let forecast = band_points
         .into_iter()
-        .zip(points_and_sources.1)
+        .zip(band_sources)
         .enumerate()
         .map(|(h, (band, source))| ForecastPoint {
             period: last.offset(h as i64 + 1),
