@@ -208,25 +208,44 @@ fn a_chosen_method_that_cannot_refit_hands_over_to_the_next_with_a_note() {
     let mut values: Vec<Option<f64>> = seasonal(60).into_iter().map(Some).collect();
     values[58] = Some(0.0);
     let s = monthly(values);
-    let settings =
-        PlanSettings::default().with_choice(Choice::from_key("holt_winters_multiplicative").unwrap());
+    let settings = PlanSettings::default()
+        .with_choice(Choice::from_key("holt_winters_multiplicative").unwrap());
     let p = plan_item(&s, &settings).unwrap();
-    let ranked: Vec<&str> = p.backtest.ranking.iter().map(|r| r.candidate.key()).collect();
-    assert!(ranked.contains(&"holt_winters_multiplicative"), "{ranked:?}");
+    let ranked: Vec<&str> = p
+        .backtest
+        .ranking
+        .iter()
+        .map(|r| r.candidate.key())
+        .collect();
+    assert!(
+        ranked.contains(&"holt_winters_multiplicative"),
+        "{ranked:?}"
+    );
     assert_ne!(p.chosen.key(), "holt_winters_multiplicative");
     let note = p
         .notes
         .iter()
         .find(|n| n.contains("could not be refitted"))
         .unwrap_or_else(|| panic!("no note in {:?}", p.notes));
-    assert!(note.contains("Holt-Winters") && note.contains(&p.chosen.label()), "{note}");
+    assert!(
+        note.contains("Holt-Winters") && note.contains(&p.chosen.label()),
+        "{note}"
+    );
     // The ledger is the stand-in's: its holdout forecasts.
-    let row = p.backtest.ranking.iter().find(|r| r.candidate == p.chosen).unwrap();
+    let row = p
+        .backtest
+        .ranking
+        .iter()
+        .find(|r| r.candidate == p.chosen)
+        .unwrap();
     let ledger_forecasts: Vec<f64> = p.ledger.iter().map(|e| e.row.forecast).collect();
     assert_eq!(ledger_forecasts, row.holdout_forecast);
     // The forecast is the stand-in's own, not the last value repeated.
     let first = p.forecast[0].band.value;
-    assert!(p.forecast.iter().any(|f| (f.band.value - first).abs() > 1.0));
+    assert!(p
+        .forecast
+        .iter()
+        .any(|f| (f.band.value - first).abs() > 1.0));
 }
 
 // A straight line is fitted exactly, so every error is zero; the band used to have zero
@@ -239,8 +258,45 @@ fn a_perfectly_linear_history_still_gets_a_band() {
         let z = p.level.z();
         for f in &p.forecast {
             let half = (f.band.high - f.band.low) / 2.0;
-            assert!(half >= z * 10.0 / 12f64.sqrt() - 1e-9, "{band:?}: {:?}", f.band);
+            assert!(
+                half >= z * 10.0 / 12f64.sqrt() - 1e-9,
+                "{band:?}: {:?}",
+                f.band
+            );
             assert!(f.band.low <= f.band.value && f.band.value <= f.band.high);
         }
     }
+}
+
+// A very long history: the backtest and the band work on the most recent RECENT_PERIODS
+// periods (said in a note), the chosen method is refitted on all of them, and the ledger's
+// periods are the history's last ones. (Its time is measured in benches/speed.rs.)
+#[test]
+fn a_very_long_history_is_ranked_on_its_recent_periods_and_says_so() {
+    use morrowcast_engine::plan::RECENT_PERIODS;
+    let n = RECENT_PERIODS + 500;
+    let values: Vec<Option<f64>> = (0..n)
+        .map(|t| {
+            Some(50.0 + ((t * 7919) % 23) as f64 + [0.0, 4.0, 9.0, 3.0, -2.0, -6.0, -8.0][t % 7])
+        })
+        .collect();
+    let s = morrowcast_engine::series::Series::new(
+        "Long item",
+        morrowcast_engine::calendar::Period::day(2010, 1, 1),
+        values,
+    )
+    .unwrap();
+    let p = plan_item(&s, &PlanSettings::default()).unwrap();
+    assert!(
+        p.notes
+            .iter()
+            .any(|n| n.contains(&format!("last {RECENT_PERIODS} of the {} periods", s.len()))),
+        "{:?}",
+        p.notes
+    );
+    assert_eq!(p.history.len(), n);
+    assert_eq!(p.fitted.len(), n);
+    let last = s.period(n - 1);
+    assert_eq!(p.ledger.last().unwrap().period, last);
+    assert_eq!(p.forecast[0].period, last.offset(1));
 }

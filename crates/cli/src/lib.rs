@@ -13,12 +13,13 @@ pub mod args;
 pub mod table;
 pub mod wire;
 
+use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
 use morrowcast_engine::{demo, intake, plan};
 
 use args::{Command, ForecastArgs};
-use wire::{FailedJson, ForecastJson, InspectJson, PlanJson};
+use wire::{FailedJson, ForecastJson, InspectJson, PlanJson, Streamed};
 
 /// Runs one command line. `argv` excludes the program name. Writes results to `stdout` and
 /// messages to `stderr`; returns the exit code.
@@ -80,10 +81,20 @@ impl Console<'_> {
         2
     }
 
+    /// Writes `value` as pretty JSON straight to standard output (not through one string: a
+    /// large plan list streams).
     fn json<T: serde::Serialize>(&mut self, value: &T) {
-        match serde_json::to_string_pretty(value) {
-            Ok(s) => self.out(&format!("{s}\n")),
-            Err(e) => self.err(&format!("morrowcast: could not write JSON: {e}\n")),
+        let mut out = std::io::BufWriter::new(&mut *self.stdout);
+        let written = serde_json::to_writer_pretty(&mut out, value)
+            .map_err(std::io::Error::from)
+            .and_then(|()| out.write_all(b"\n"))
+            .and_then(|()| out.flush());
+        drop(out);
+        if let Err(e) = written {
+            // A closed pipe (`| head`) is not worth a word; anything else is.
+            if e.kind() != std::io::ErrorKind::BrokenPipe {
+                self.err(&format!("morrowcast: could not write JSON: {e}\n"));
+            }
         }
     }
 }
@@ -144,35 +155,45 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
     if fa.items.is_empty() {
         items = report.items.iter().collect();
     }
-    let mut plans = Vec::new();
-    let mut failed = Vec::new();
-    for item in items {
-        let outcome = item
-            .series()
-            .map_err(|e| e.to_string())
-            .and_then(|s| plan::plan_item(&s, &fa.settings).map_err(|e| e.to_string()));
-        match outcome {
-            Ok(p) => plans.push(p),
-            Err(message) => failed.push(FailedJson {
-                name: item.name.clone(),
-                message,
-            }),
+    // Plans are made and written one item at a time, so a file of thousands of items never
+    // holds all its plans, or all their JSON, in memory.
+    let planned = Cell::new(0usize);
+    let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
+    let mut pending = items.into_iter();
+    let mut next_plan = || {
+        for item in pending.by_ref() {
+            let outcome = item
+                .series()
+                .map_err(|e| e.to_string())
+                .and_then(|s| plan::plan_item(&s, &fa.settings).map_err(|e| e.to_string()));
+            match outcome {
+                Ok(p) => {
+                    planned.set(planned.get() + 1);
+                    return Some(p);
+                }
+                Err(message) => failed.borrow_mut().push(FailedJson {
+                    name: item.name.clone(),
+                    message,
+                }),
+            }
         }
-    }
+        None
+    };
     if fa.json {
         console.json(&ForecastJson {
-            items: plans.iter().map(PlanJson::from).collect(),
-            failed,
+            items: Streamed(RefCell::new(|| next_plan().as_ref().map(PlanJson::from))),
+            // Written after `items`, so complete by then.
+            failed: &failed,
             warnings: report.warnings.clone(),
         });
     } else {
         for w in &report.warnings {
             console.out(&format!("note: {}\n", table::clean(w)));
         }
-        for p in &plans {
-            console.out(&table::plan(p));
+        while let Some(p) = next_plan() {
+            console.out(&table::plan(&p));
         }
-        for f in &failed {
+        for f in failed.borrow().iter() {
             console.err(&format!(
                 "morrowcast: {}: {}\n",
                 table::clean(&f.name),
@@ -180,7 +201,7 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
             ));
         }
     }
-    if plans.is_empty() {
+    if planned.get() == 0 {
         1
     } else {
         0

@@ -73,13 +73,31 @@ impl From<&IntakeReport> for InspectJson {
     }
 }
 
-/// `morrowcast forecast --json`.
+/// `morrowcast forecast --json`: `items` is a sequence of [`PlanJson`], `failed` one of
+/// [`FailedJson`]. Generic so the command line can write the plans while it makes them (see
+/// [`Streamed`]) instead of holding every plan of a large file in memory; the JSON is the same.
 #[derive(Serialize, Debug)]
-pub struct ForecastJson {
-    pub items: Vec<PlanJson>,
+pub struct ForecastJson<Items: Serialize, Failed: Serialize> {
+    pub items: Items,
     /// Items that could not be planned, with the reason.
-    pub failed: Vec<FailedJson>,
+    pub failed: Failed,
     pub warnings: Vec<String>,
+}
+
+/// A JSON sequence whose elements are made one at a time while it is written: `next` gives
+/// each element in turn (`None` ends it). Made for one write.
+pub struct Streamed<F>(pub std::cell::RefCell<F>);
+
+impl<T: Serialize, F: FnMut() -> Option<T>> Serialize for Streamed<F> {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        use serde::ser::SerializeSeq;
+        let mut seq = serializer.serialize_seq(None)?;
+        let mut next = self.0.borrow_mut();
+        while let Some(element) = next() {
+            seq.serialize_element(&element)?;
+        }
+        seq.end()
+    }
 }
 
 #[derive(Serialize, Debug)]

@@ -13,6 +13,7 @@ use std::fmt;
 
 use crate::accuracy::{self, ledger, mase_scale, LedgerRow, Measures};
 use crate::methods::{self, MethodError, MethodKind};
+use crate::settings::MAX_HOLDOUT;
 
 /// Number of best single methods averaged by the combination candidate.
 pub const COMBINATION_SIZE: usize = 3;
@@ -182,10 +183,10 @@ impl std::error::Error for BacktestError {}
 
 /// The default holdout length: the last full season (the accepted season length, else the
 /// calendar's), at least one period and at most a third of the data; 1/5 of the data when no
-/// season is known.
+/// season is known; never more than [`MAX_HOLDOUT`], the longest a user may ask for.
 pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
     let wanted = season.filter(|m| *m >= 2).unwrap_or((length / 5).max(1));
-    wanted.clamp(1, (length / 3).max(1))
+    wanted.clamp(1, (length / 3).max(1)).min(MAX_HOLDOUT)
 }
 
 /// What one candidate did in the backtest.
@@ -360,7 +361,12 @@ pub fn run_observed(
             .collect();
         let member_forecasts: Vec<&Vec<Vec<f64>>> = members
             .iter()
-            .filter_map(|m| per_origin.iter().find(|(kind, _)| kind == m).map(|(_, f)| f))
+            .filter_map(|m| {
+                per_origin
+                    .iter()
+                    .find(|(kind, _)| kind == m)
+                    .map(|(_, f)| f)
+            })
             .collect();
         let combined: Vec<Vec<f64>> = (0..origins)
             .map(|j| {
@@ -474,6 +480,7 @@ mod tests {
         assert_eq!(default_holdout(24, Some(12)), 8);
         assert_eq!(default_holdout(2, None), 1);
         assert_eq!(default_holdout(50, None), 10);
+        assert_eq!(default_holdout(100_000, None), 366);
     }
 
     #[test]

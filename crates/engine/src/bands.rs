@@ -316,7 +316,10 @@ mod tests {
     /// A history and the recording step it implies (the floor is that step / sqrt(12)).
     fn check_step(history: &[f64], step: f64) {
         let got = recording_sd(history) * 12f64.sqrt();
-        assert!((got - step).abs() <= 1e-12 * step.max(1.0), "{history:?}: {got}");
+        assert!(
+            (got - step).abs() <= 1e-12 * step.max(1.0),
+            "{history:?}: {got}"
+        );
     }
 
     // The steps are arithmetic facts of the values; the 1/sqrt(12) is Sheppard's (1898).
@@ -336,10 +339,15 @@ mod tests {
     fn a_band_is_widened_to_the_floor_and_kept_above_zero() {
         let level = Level::new(95.0).unwrap();
         let mut points = mad_band(&[10.0, 0.5], 0.0, level, true);
-        assert_eq!(points[0].low, points[0].high, "zero MAD: zero width before the floor");
+        assert_eq!(
+            points[0].low, points[0].high,
+            "zero MAD: zero width before the floor"
+        );
         widen_to_at_least(&mut points, level, 1.0, true);
         let z = level.z();
-        assert!((points[0].high - 10.0 - z).abs() < 1e-12 && (10.0 - points[0].low - z).abs() < 1e-12);
+        assert!(
+            (points[0].high - 10.0 - z).abs() < 1e-12 && (10.0 - points[0].low - z).abs() < 1e-12
+        );
         assert_eq!(points[1].low, 0.0);
         // A band already wider stays as it was.
         let mut wide = mad_band(&[10.0], 4.0, level, true);
