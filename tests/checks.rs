@@ -15,4 +15,5 @@ mod intake;
 mod methods;
 mod patterns;
 mod plan;
+mod properties;
 mod smoothing;

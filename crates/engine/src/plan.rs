@@ -49,6 +49,9 @@ pub enum PlanError {
     },
     /// The backtest failed (see its message).
     Backtest { name: String, source: BacktestError },
+    /// A number of the plan came out infinite or undefined (the last guard; no series within
+    /// the bound is known to cause it).
+    NotFinite { name: String },
     /// No ranked candidate could be refitted on all the data: each one's reason.
     NoRefit { name: String, reasons: Vec<String> },
 }
@@ -66,6 +69,11 @@ impl fmt::Display for PlanError {
                 available.join(", ")
             ),
             PlanError::Backtest { name, source } => write!(f, "item \"{name}\": {source}"),
+            PlanError::NotFinite { name } => write!(
+                f,
+                "item \"{name}\": the computation gave a number that is not finite, so no \
+                 forecast is shown; check the item's values for extreme ones"
+            ),
             PlanError::NoRefit { name, reasons } => write!(
                 f,
                 "item \"{name}\": no method of the Backtest ranking could be refitted on all the data ({})",
@@ -346,7 +354,7 @@ fn plan_inner(
         })
         .collect();
 
-    Ok(ItemPlan {
+    let plan = ItemPlan {
         name,
         season,
         trend,
@@ -361,7 +369,51 @@ fn plan_inner(
         band: settings.band(),
         tracking_limit: settings.tracking_limit(),
         notes,
-    })
+    };
+    if numbers_are_finite(&plan) {
+        Ok(plan)
+    } else {
+        Err(PlanError::NotFinite { name: plan.name })
+    }
+}
+
+/// Whether every number a front end shows or acts on is finite: forecasts and band ends,
+/// holdout forecasts, ranking measures, the Error ledger and the fit. A series within
+/// [`crate::series::MAX_ABS_VALUE`] keeps them finite (tests/properties.rs checks it on
+/// generated series); this is the last guard, so a number that is not finite is never shown
+/// as if it were a forecast.
+fn numbers_are_finite(plan: &ItemPlan) -> bool {
+    let measures = plan.backtest.ranking.iter().all(|r| {
+        let m = &r.measures;
+        [m.rmse, m.mad, m.bias].iter().all(|v| v.is_finite())
+            && m.mape.is_none_or(f64::is_finite)
+            && m.mase.is_none_or(f64::is_finite)
+            && r.holdout_forecast.iter().all(|v| v.is_finite())
+    });
+    let ledger = plan.ledger.iter().all(|e| {
+        let r = &e.row;
+        [
+            r.demand,
+            r.forecast,
+            r.error,
+            r.abs_error,
+            r.sq_error,
+            r.mad,
+            r.mse,
+            r.rmse,
+            r.bias,
+        ]
+        .iter()
+        .all(|v| v.is_finite())
+            && r.pct_error.is_none_or(f64::is_finite)
+            && r.mape.is_none_or(f64::is_finite)
+            && r.tracking_signal.is_none_or(f64::is_finite)
+    });
+    let forecast = plan
+        .forecast
+        .iter()
+        .all(|f| f.band.low.is_finite() && f.band.value.is_finite() && f.band.high.is_finite());
+    measures && ledger && forecast && plan.fitted.iter().flatten().all(|v| v.is_finite())
 }
 
 /// The row of the ranking that `choice` selects.

@@ -9,6 +9,11 @@ use std::fmt;
 
 use crate::calendar::{Frequency, Period};
 
+/// Largest magnitude a value may have: a thousand million million units. No sales count comes
+/// near it, and below it every computation of a plan stays finite (squares of errors summed
+/// over a long history stay far below f64's 1.8e308; values of 1e155 and more overflowed there).
+pub const MAX_ABS_VALUE: f64 = 1e15;
+
 /// Why a series could not be built. Each message says what to change.
 #[derive(Clone, Debug, PartialEq)]
 pub enum SeriesError {
@@ -16,6 +21,12 @@ pub enum SeriesError {
     Empty { name: String },
     /// A value is NaN or infinite.
     NotFinite { name: String, period: String },
+    /// A value's magnitude is above [`MAX_ABS_VALUE`].
+    TooLarge {
+        name: String,
+        period: String,
+        value: f64,
+    },
     /// The start period's frequency differs from the series' frequency.
     MixedFrequency { name: String },
 }
@@ -32,6 +43,15 @@ impl fmt::Display for SeriesError {
             SeriesError::NotFinite { name, period } => write!(
                 f,
                 "item \"{name}\" has a value at {period} that is not a finite number: replace it"
+            ),
+            SeriesError::TooLarge {
+                name,
+                period,
+                value,
+            } => write!(
+                f,
+                "item \"{name}\" has the value {value:e} at {period}, beyond the largest a plan \
+                 works with ({MAX_ABS_VALUE:e} in magnitude): check that value"
             ),
             SeriesError::MixedFrequency { name } => write!(
                 f,
@@ -77,7 +97,8 @@ impl TryFrom<SeriesParts> for Series {
 
 impl Series {
     /// Builds a series, trimming leading and trailing gaps (they are "not sold yet" or "no
-    /// longer recorded", not zero demand) and rejecting non-finite values.
+    /// longer recorded", not zero demand) and rejecting non-finite values and values beyond
+    /// [`MAX_ABS_VALUE`].
     pub fn new(
         name: impl Into<String>,
         start: Period,
@@ -90,6 +111,13 @@ impl Series {
                     return Err(SeriesError::NotFinite {
                         name,
                         period: start.offset(i as i64).to_string(),
+                    });
+                }
+                if x.abs() > MAX_ABS_VALUE {
+                    return Err(SeriesError::TooLarge {
+                        name,
+                        period: start.offset(i as i64).to_string(),
+                        value: *x,
                     });
                 }
             }
@@ -203,5 +231,13 @@ mod tests {
             Series::new("a", Period::position(1), vec![Some(f64::NAN)]),
             Err(SeriesError::NotFinite { .. })
         ));
+        // The bound is inclusive; 1e155 used to overflow squares into nulls downstream.
+        assert!(Series::from_values("a", &[MAX_ABS_VALUE, -MAX_ABS_VALUE]).is_ok());
+        let too_large = Series::new("a", Period::month(2024, 1), vec![Some(1.0), Some(-1e155)]);
+        assert_eq!(
+            too_large.unwrap_err().to_string(),
+            "item \"a\" has the value -1e155 at 2024-02, beyond the largest a plan works with \
+             (1e15 in magnitude): check that value"
+        );
     }
 }
