@@ -19,5 +19,6 @@ mod access;
 mod demo;
 mod engine_match;
 mod faults;
+mod pick;
 mod progress;
 mod recompute;
