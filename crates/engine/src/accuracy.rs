@@ -20,14 +20,23 @@
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct Measures {
+    /// Periods scored.
     pub count: usize,
+    /// Mean absolute error.
     pub mad: f64,
+    /// Mean squared error.
     pub mse: f64,
+    /// Root mean squared error.
     pub rmse: f64,
+    /// Mean absolute percent error; `None` when a demand is zero.
     pub mape: Option<f64>,
+    /// Sum of errors (positive: over-forecast).
     pub bias: f64,
+    /// Mean error, bias / count.
     pub mean_error: f64,
+    /// Mean absolute scaled error; `None` when the in-sample scale is zero or unknown.
     pub mase: Option<f64>,
+    /// Symmetric MAPE, the M3 definition.
     pub smape: f64,
 }
 
@@ -37,7 +46,12 @@ pub enum AccuracyError {
     /// No periods to score: make the holdout at least one period long.
     NoPeriods,
     /// Forecasts and demands differ in length (a programming error upstream).
-    LengthMismatch { forecasts: usize, demands: usize },
+    LengthMismatch {
+        /// Forecasts given.
+        forecasts: usize,
+        /// Demands given.
+        demands: usize,
+    },
 }
 
 impl std::fmt::Display for AccuracyError {
@@ -133,16 +147,23 @@ pub const DEFAULT_TRACKING_LIMIT: f64 = 4.0;
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct LedgerRow {
+    /// Demand D_t of the period.
     pub demand: f64,
+    /// Forecast F_t of the period.
     pub forecast: f64,
     /// e_t = F_t - D_t.
     pub error: f64,
+    /// |e_t|.
     pub abs_error: f64,
+    /// e_t squared.
     pub sq_error: f64,
     /// 100 |e_t| / |D_t|; not available when D_t = 0.
     pub pct_error: Option<f64>,
+    /// Running mean absolute error.
     pub mad: f64,
+    /// Running mean squared error.
     pub mse: f64,
+    /// Running root mean squared error.
     pub rmse: f64,
     /// Running MAPE; not available from the first period with zero demand on.
     pub mape: Option<f64>,

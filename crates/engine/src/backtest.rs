@@ -25,11 +25,14 @@ pub const COMBINATION_SIZE: usize = 3;
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum RankBy {
+    /// MAPE: lowest first (not available with zero demand, sorted last).
     Mape,
+    /// RMSE: lowest first.
     Rmse,
     /// Absolute value of the bias (sum of errors): closest to zero first.
     Bias,
     #[default]
+    /// MASE: lowest first (the default).
     Mase,
 }
 
@@ -43,6 +46,7 @@ impl RankBy {
             RankBy::Mase => "mase",
         }
     }
+    /// The measure named by its key (see [`RankBy::key`]).
     pub fn from_key(key: &str) -> Option<RankBy> {
         match key {
             "mape" => Some(RankBy::Mape),
@@ -67,6 +71,7 @@ impl RankBy {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Candidate {
+    /// One method.
     Method(MethodKind),
     /// Plain mean of the members' forecasts. Equal weights: estimated weights rarely beat them
     /// out of sample (the "forecast combination puzzle", Smith & Wallis 2009, Oxford Bulletin of
@@ -161,7 +166,12 @@ fn forecast_cached(
 #[derive(Clone, Debug, PartialEq)]
 pub enum BacktestError {
     /// The history is too short to hold out the requested periods and still train.
-    TooShort { length: usize, holdout: usize },
+    TooShort {
+        /// Periods in the history.
+        length: usize,
+        /// Periods asked to hold out.
+        holdout: usize,
+    },
     /// Every candidate failed on this history.
     NoCandidate,
 }
@@ -193,6 +203,7 @@ pub fn default_holdout(length: usize, season: Option<usize>) -> usize {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct Scored {
+    /// The candidate scored.
     pub candidate: Candidate,
     /// Measures pooled over all origins (what the ranking orders by); `bias` is the sum of
     /// errors over one holdout, averaged over the origins, so it reads like the Error ledger's
@@ -213,7 +224,9 @@ impl Scored {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct Skipped {
+    /// The candidate left out.
     pub candidate: Candidate,
+    /// Why, in words for the page.
     pub reason: String,
 }
 
@@ -224,6 +237,7 @@ pub struct BacktestSettings {
     pub holdout: usize,
     /// Number of rolling origins R (at least 1).
     pub origins: usize,
+    /// The measure that orders the ranking.
     pub rank_by: RankBy,
     /// Methods to try.
     pub candidates: Vec<MethodKind>,
@@ -237,11 +251,13 @@ pub struct BacktestSettings {
 pub struct Backtest {
     /// Best first by the ranking metric.
     pub ranking: Vec<Scored>,
+    /// Candidates that could not be scored, with their reasons.
     pub skipped: Vec<Skipped>,
     /// The last K demands.
     pub holdout_demand: Vec<f64>,
     /// Origins actually used (fewer than asked when the history is short).
     pub origins_used: usize,
+    /// The measure the ranking is ordered by.
     pub rank_by: RankBy,
     /// Each scored method's forecasts by origin: (method, training length, forecast).
     origin_forecasts: Vec<(MethodKind, usize, Vec<f64>)>,

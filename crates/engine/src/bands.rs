@@ -30,7 +30,10 @@ pub const MIN_ERRORS_FOR_QUANTILES: usize = 20;
 #[derive(Clone, Debug, PartialEq)]
 pub enum BandError {
     /// The level is outside 50 % to 99.9 %: choose a level in that range.
-    LevelOutOfRange { percent: f64 },
+    LevelOutOfRange {
+        /// The level asked for.
+        percent: f64,
+    },
 }
 
 impl fmt::Display for BandError {
@@ -75,6 +78,7 @@ impl Level {
     /// are far outside anything a few years of sales can check).
     pub const MAX_PERCENT: f64 = 99.9;
 
+    /// A level of `percent` (see [`Level::MIN_PERCENT`] and [`Level::MAX_PERCENT`]).
     pub fn new(percent: f64) -> Result<Level, BandError> {
         if percent.is_finite() && (Level::MIN_PERCENT..=Level::MAX_PERCENT).contains(&percent) {
             Ok(Level { percent })
@@ -82,6 +86,7 @@ impl Level {
             Err(BandError::LevelOutOfRange { percent })
         }
     }
+    /// The level in percent.
     pub fn percent(self) -> f64 {
         self.percent
     }
@@ -125,6 +130,7 @@ impl BandMethod {
             BandMethod::HorizonAware => "horizon",
         }
     }
+    /// The method named by its key (see [`BandMethod::key`]).
     pub fn from_key(key: &str) -> Option<BandMethod> {
         match key {
             "mad" => Some(BandMethod::MadRule),
@@ -138,8 +144,11 @@ impl BandMethod {
 #[derive(Clone, Copy, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct BandPoint {
+    /// The point forecast.
     pub value: f64,
+    /// The band's low end.
     pub low: f64,
+    /// The band's high end.
     pub high: f64,
 }
 
@@ -147,8 +156,11 @@ pub struct BandPoint {
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum BandSource {
+    /// The MAD rule.
     MadRule,
+    /// The method's analytic h-step variance.
     Analytic,
+    /// Quantiles of rolling-origin errors.
     EmpiricalQuantiles,
     /// Too few rolling-origin errors for quantiles: normal quantile times their RMS.
     EmpiricalNormal,

@@ -13,10 +13,15 @@ use std::fmt;
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Frequency {
+    /// One observation a day.
     Daily,
+    /// One a week (ISO weeks, Monday to Sunday).
     Weekly,
+    /// One a month.
     Monthly,
+    /// One a quarter.
     Quarterly,
+    /// One a year.
     Yearly,
     /// Plain positions 1, 2, 3, ... with no calendar meaning.
     Undated,
@@ -201,6 +206,7 @@ impl Period {
         }
     }
 
+    /// The frequency of the axis this period lies on.
     pub fn frequency(self) -> Frequency {
         self.frequency
     }

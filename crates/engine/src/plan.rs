@@ -40,20 +40,41 @@ pub const BAND_ORIGINS: usize = 8;
 #[derive(Clone, Debug, PartialEq)]
 pub enum PlanError {
     /// Fewer than [`MIN_PERIODS`] periods: add more history.
-    TooShort { name: String, length: usize },
+    TooShort {
+        /// The item.
+        name: String,
+        /// Periods it has.
+        length: usize,
+    },
     /// The asked-for method could not be scored on this item: pick one of the available ones.
     NotCandidate {
+        /// The item.
         name: String,
+        /// The key asked for.
         wanted: String,
+        /// The keys of the ranked candidates.
         available: Vec<String>,
     },
     /// The backtest failed (see its message).
-    Backtest { name: String, source: BacktestError },
+    Backtest {
+        /// The item.
+        name: String,
+        /// Why.
+        source: BacktestError,
+    },
     /// A number of the plan came out infinite or undefined (the last guard; no series within
     /// the bound is known to cause it).
-    NotFinite { name: String },
-    /// No ranked candidate could be refitted on all the data: each one's reason.
-    NoRefit { name: String, reasons: Vec<String> },
+    NotFinite {
+        /// The item.
+        name: String,
+    },
+    /// No ranked candidate could be refitted on all the data.
+    NoRefit {
+        /// The item.
+        name: String,
+        /// Each candidate's reason, in ranking order from the one chosen.
+        reasons: Vec<String>,
+    },
 }
 
 impl fmt::Display for PlanError {
@@ -89,8 +110,11 @@ impl std::error::Error for PlanError {}
 #[derive(Clone, Copy, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct ForecastPoint {
+    /// The period forecast.
     pub period: Period,
+    /// The forecast and its band.
     pub band: BandPoint,
+    /// Where the band's spread came from.
     pub source: BandSource,
 }
 
@@ -98,7 +122,9 @@ pub struct ForecastPoint {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct LedgerEntry {
+    /// The holdout period.
     pub period: Period,
+    /// Its errors and running measures.
     pub row: LedgerRow,
 }
 
@@ -106,21 +132,30 @@ pub struct LedgerEntry {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct ItemPlan {
+    /// The item's name.
     pub name: String,
+    /// Season length verdict and its evidence.
     pub season: SeasonVerdict,
+    /// Trend verdict and its evidence.
     pub trend: TrendVerdict,
+    /// Demand class and its evidence.
     pub demand: DemandVerdict,
+    /// The Backtest ranking.
     pub backtest: Backtest,
+    /// The candidate that forecasts (see the notes when it is not the one asked for).
     pub chosen: Candidate,
     /// Holdout periods of the chosen candidate, with its Error ledger.
     pub ledger: Vec<LedgerEntry>,
     /// History after gap filling.
     pub history: Vec<f64>,
-    /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined;
-    /// all `None` for a combination).
+    /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined; a
+    /// combination's is its members' mean where every member has one).
     pub fitted: Vec<Option<f64>>,
+    /// The forecast periods with their bands.
     pub forecast: Vec<ForecastPoint>,
+    /// The band level.
     pub level: Level,
+    /// How the band was worked out.
     pub band: BandMethod,
     /// The tracking-signal limit the Error ledger's marks were set with.
     pub tracking_limit: f64,
@@ -150,7 +185,9 @@ pub fn applicable_methods(
 /// band's rolling origins, so a listener hears that the work goes on).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub struct Progress {
+    /// Steps done.
     pub done: usize,
+    /// Steps in all.
     pub total: usize,
 }
 

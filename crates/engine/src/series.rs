@@ -18,17 +18,31 @@ pub const MAX_ABS_VALUE: f64 = 1e15;
 #[derive(Clone, Debug, PartialEq)]
 pub enum SeriesError {
     /// The item has no observed value at all.
-    Empty { name: String },
+    Empty {
+        /// The item.
+        name: String,
+    },
     /// A value is NaN or infinite.
-    NotFinite { name: String, period: String },
+    NotFinite {
+        /// The item.
+        name: String,
+        /// Where, as a period label.
+        period: String,
+    },
     /// A value's magnitude is above [`MAX_ABS_VALUE`].
     TooLarge {
+        /// The item.
         name: String,
+        /// Where, as a period label.
         period: String,
+        /// The value found.
         value: f64,
     },
     /// The start period's frequency differs from the series' frequency.
-    MixedFrequency { name: String },
+    MixedFrequency {
+        /// The item.
+        name: String,
+    },
 }
 
 impl fmt::Display for SeriesError {
@@ -143,12 +157,15 @@ impl Series {
         )
     }
 
+    /// The item's name.
     pub fn name(&self) -> &str {
         &self.name
     }
+    /// How often the series is observed.
     pub fn frequency(&self) -> Frequency {
         self.start.frequency()
     }
+    /// The first period (it always holds a value).
     pub fn start(&self) -> Period {
         self.start
     }

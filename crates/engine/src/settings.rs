@@ -76,6 +76,7 @@ impl Choice {
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum SeasonChoice {
     #[default]
+    /// Detected from the history (a calendar candidate or an autocorrelation peak).
     Auto,
     /// A user-given season length (1 = no season); always wins over detection.
     Fixed(usize),
@@ -84,11 +85,17 @@ pub enum SeasonChoice {
 /// A setting with limits.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Setting {
+    /// Periods to forecast.
     Horizon,
+    /// Periods held back to score the methods.
     Holdout,
+    /// Season length.
     Season,
+    /// Band level.
     Level,
+    /// Tracking-signal limit.
     TrackingLimit,
+    /// Rolling origins of the backtest.
     Origins,
 }
 
@@ -133,6 +140,7 @@ impl Setting {
 /// A refused setting: which, the text or value found, and what is allowed.
 #[derive(Clone, Debug, PartialEq)]
 pub struct SettingError {
+    /// The setting refused.
     pub setting: Setting,
     /// The value as given.
     pub found: String,
@@ -349,36 +357,47 @@ impl PlanSettings {
         }
     }
 
+    /// Periods to forecast; `None`: automatic.
     pub fn horizon(&self) -> Option<usize> {
         self.horizon
     }
+    /// Holdout length; `None`: automatic.
     pub fn holdout(&self) -> Option<usize> {
         self.holdout
     }
+    /// Season length choice.
     pub fn season(&self) -> SeasonChoice {
         self.season
     }
+    /// Band level.
     pub fn level(&self) -> Level {
         self.level
     }
+    /// How the band is worked out.
     pub fn band(&self) -> BandMethod {
         self.band
     }
+    /// The measure that orders the ranking.
     pub fn rank_by(&self) -> RankBy {
         self.rank_by
     }
+    /// Tracking-signal limit.
     pub fn tracking_limit(&self) -> f64 {
         self.tracking_limit
     }
+    /// Rolling origins of the backtest.
     pub fn origins(&self) -> usize {
         self.origins
     }
+    /// Methods to try; `None`: every method that applies.
     pub fn methods(&self) -> Option<&[MethodKind]> {
         self.methods.as_deref()
     }
+    /// Whether the combination candidate is added.
     pub fn combine(&self) -> bool {
         self.combine
     }
+    /// Which candidate forecasts.
     pub fn choice(&self) -> &Choice {
         &self.choice
     }
@@ -401,8 +420,11 @@ pub struct SettingsText {
     pub tracking_limit: String,
     /// "auto", "" or a whole number.
     pub origins: String,
+    /// How the band is worked out.
     pub band: BandMethod,
+    /// The measure that orders the ranking.
     pub rank_by: RankBy,
+    /// Which candidate forecasts.
     pub choice: Choice,
 }
 

@@ -157,18 +157,33 @@ impl fmt::Display for MethodKind {
 pub enum MethodError {
     /// Too few observations for the method.
     TooShort {
+        /// The method.
         method: MethodKind,
+        /// Observations it needs.
         needed: usize,
+        /// Observations the history has.
         found: usize,
     },
     /// The method needs a season length of at least 2 and none was accepted.
-    NeedsSeason { method: MethodKind },
+    NeedsSeason {
+        /// The method.
+        method: MethodKind,
+    },
     /// Multiplicative season needs strictly positive demand.
-    NeedsPositive { method: MethodKind },
+    NeedsPositive {
+        /// The method.
+        method: MethodKind,
+    },
     /// Intermittent methods need at least one non-zero demand.
-    NoDemand { method: MethodKind },
+    NoDemand {
+        /// The method.
+        method: MethodKind,
+    },
     /// The fit produced non-finite numbers (the data are too extreme for the method).
-    Diverged { method: MethodKind },
+    Diverged {
+        /// The method.
+        method: MethodKind,
+    },
 }
 
 impl fmt::Display for MethodError {
@@ -209,7 +224,9 @@ impl std::error::Error for MethodError {}
 /// A named fitted parameter or initial state, for display (e.g. "alpha", "l0").
 #[derive(Clone, Debug, PartialEq)]
 pub struct Parameter {
+    /// Its name as printed (e.g. "alpha").
     pub name: &'static str,
+    /// Its fitted value.
     pub value: f64,
 }
 
@@ -252,6 +269,7 @@ impl Fitted {
         })
     }
 
+    /// The method fitted.
     pub fn kind(&self) -> MethodKind {
         self.kind
     }
@@ -269,6 +287,7 @@ impl Fitted {
     pub fn variance(&self) -> Option<&[f64]> {
         self.variance.as_deref()
     }
+    /// The fitted parameters and initial states, for display.
     pub fn parameters(&self) -> &[Parameter] {
         &self.parameters
     }

@@ -64,6 +64,7 @@ impl DemandClass {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct DemandVerdict {
+    /// The class the measures give.
     pub class: DemandClass,
     /// n / k (infinite when k = 0).
     pub adi: f64,

@@ -63,6 +63,7 @@ pub struct SeasonVerdict {
     /// The lag the evidence below is about. With a user choice of 1 ("no season") this is the
     /// lag the automatic rule would have tested, so the user sees what they overrode.
     pub candidate: Option<usize>,
+    /// Where the candidate came from.
     pub source: SeasonSource,
     /// Sample autocorrelations r_1..r_L, L = min(n - 1, max(m, 2m)) around a candidate m, or
     /// min(n - 1, 24) without one.

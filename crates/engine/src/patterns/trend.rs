@@ -20,8 +20,11 @@ pub const TREND_SIGNIFICANCE: f64 = 0.05;
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum TrendDirection {
+    /// Values tend to rise.
     Up,
+    /// Values tend to fall.
     Down,
+    /// No trend shown.
     None,
 }
 
@@ -40,6 +43,7 @@ impl TrendDirection {
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct TrendVerdict {
+    /// The verdict.
     pub direction: TrendDirection,
     /// S = sum_{i<j} sign(y_j - y_i).
     pub s: f64,
