@@ -1,4 +1,5 @@
-//! Axes shared by the charts: the value range with headroom, and period labels on a position axis.
+//! What the charts share around their series: the value range with headroom, period labels on
+//! a position axis, the frame, and the legend.
 //!
 //! Kept apart from: drawing the series. Periods sit at whole-number positions 0, 1, 2, ...;
 //! the axis runs from -0.5 to n - 0.5 so the first and last points are not on the frame.
@@ -6,7 +7,9 @@
 use std::ops::Range;
 
 use plotters::coord::Shift;
+use plotters::element::DashedPathElement;
 use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use super::palette::{BACKGROUND, GRID, INK};
 use super::ChartError;
@@ -14,23 +17,149 @@ use super::ChartError;
 /// Font family of chart text: the system's sans-serif (no remote fonts).
 pub const FONT: &str = "sans-serif";
 
-/// Draws the legend of the series drawn so far, in the charts' common style, at `position`.
+/// What a legend row shows before its words: a sample of how its series is drawn.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Swatch {
+    /// A solid line of this colour and width.
+    Line(RGBColor, u32),
+    /// A dashed line of this colour and width.
+    Dashed(RGBColor, u32),
+    /// A box filled with this colour at this opacity (a band).
+    Fill(RGBColor, f64),
+    /// A hollow ring (the filled-gap marker).
+    Ring(RGBColor),
+}
+
+/// One legend row: a swatch and its words.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LegendEntry {
+    pub label: String,
+    pub swatch: Swatch,
+}
+
+impl LegendEntry {
+    pub fn new(label: impl Into<String>, swatch: Swatch) -> Self {
+        LegendEntry {
+            label: label.into(),
+            swatch,
+        }
+    }
+}
+
+/// Where the legend box sits in the plotting area.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Corner {
+    UpperLeft,
+    UpperRight,
+}
+
+/// Size of legend text in pixels (as the axis labels).
+const LEGEND_TEXT: u32 = 13;
+/// Gap between the plotting area's edge and the legend box, and inside the box around its rows.
+const LEGEND_INSET: i32 = 6;
+const LEGEND_PADDING: i32 = 8;
+/// Width of a swatch and the gap between it and its words.
+const SWATCH_WIDTH: i32 = 18;
+const SWATCH_GAP: i32 = 8;
+
+/// Where a legend's parts go, in pixels of the plotting area.
+struct LegendLayout {
+    upper_left: (i32, i32),
+    size: (i32, i32),
+    /// Where each row's words start: (left, middle y); its swatch sits before them.
+    rows: Vec<(i32, i32)>,
+}
+
+/// The legend box's place and its rows, from the measured size of each label.
+fn legend_layout(area: (u32, u32), text_sizes: &[(u32, u32)], corner: Corner) -> LegendLayout {
+    let widest = text_sizes.iter().map(|s| s.0 as i32).max().unwrap_or(0);
+    // Rows as tall as the tallest text, and never tighter than 1.25 lines (plotters' own
+    // legend spacing), so rows never touch.
+    let row = text_sizes
+        .iter()
+        .map(|s| s.1 as i32)
+        .max()
+        .unwrap_or(0)
+        .max((f64::from(LEGEND_TEXT) * 1.25).round() as i32);
+    let size = (
+        LEGEND_PADDING + SWATCH_WIDTH + SWATCH_GAP + widest + LEGEND_PADDING,
+        LEGEND_PADDING * 2 + row * text_sizes.len() as i32,
+    );
+    let left = match corner {
+        Corner::UpperLeft => LEGEND_INSET,
+        Corner::UpperRight => area.0 as i32 - size.0 - LEGEND_INSET,
+    };
+    let top = LEGEND_INSET;
+    let rows = (0..text_sizes.len() as i32)
+        .map(|i| {
+            (
+                left + LEGEND_PADDING + SWATCH_WIDTH + SWATCH_GAP,
+                top + LEGEND_PADDING + i * row + row / 2,
+            )
+        })
+        .collect();
+    LegendLayout {
+        upper_left: (left, top),
+        size,
+        rows,
+    }
+}
+
+/// Draws a legend of `entries` in a corner of the chart's plotting area, in the charts' common
+/// style. Each label is measured by the chart's own backend (the page's canvas measures with
+/// the canvas: src/chart/canvas.rs), so the box fits the words as drawn. Plotters' own series
+/// legend is not used: it measures through the font, which in the browser means a span with an
+/// inline style in the page (refused by its Content-Security-Policy).
 pub fn draw_legend<'a, DB, CT>(
-    chart: &mut ChartContext<'a, DB, CT>,
-    position: SeriesLabelPosition,
+    chart: &ChartContext<'a, DB, CT>,
+    entries: &[LegendEntry],
+    corner: Corner,
 ) -> Result<(), ChartError>
 where
     DB: DrawingBackend + 'a,
     DB::ErrorType: 'static,
     CT: CoordTranslate,
 {
-    chart
-        .configure_series_labels()
-        .position(position)
-        .background_style(BACKGROUND.mix(0.9))
-        .border_style(INK.mix(0.25))
-        .label_font((FONT, 13).into_font().color(&INK))
-        .draw()?;
+    if entries.is_empty() {
+        return Ok(());
+    }
+    let area = chart.plotting_area().strip_coord_spec();
+    let style = (FONT, LEGEND_TEXT)
+        .into_font()
+        .color(&INK)
+        .pos(Pos::new(HPos::Left, VPos::Center));
+    let sizes = entries
+        .iter()
+        .map(|e| area.estimate_text_size(&e.label, &style))
+        .collect::<Result<Vec<_>, _>>()?;
+    let LegendLayout {
+        upper_left: (left, top),
+        size: (w, h),
+        rows,
+    } = legend_layout(area.dim_in_pixel(), &sizes, corner);
+    let corners = [(left, top), (left + w, top + h)];
+    area.draw(&Rectangle::new(corners, BACKGROUND.mix(0.9).filled()))?;
+    area.draw(&Rectangle::new(corners, INK.mix(0.25)))?;
+    for (entry, (x, y)) in entries.iter().zip(rows) {
+        let x0 = x - SWATCH_GAP - SWATCH_WIDTH;
+        let ends = vec![(x0, y), (x0 + SWATCH_WIDTH, y)];
+        match entry.swatch {
+            Swatch::Line(c, width) => area.draw(&PathElement::new(ends, c.stroke_width(width)))?,
+            Swatch::Dashed(c, width) => {
+                area.draw(&DashedPathElement::new(ends, 6, 3, c.stroke_width(width)))?
+            }
+            Swatch::Fill(c, opacity) => area.draw(&Rectangle::new(
+                [(x0, y - 5), (x0 + SWATCH_WIDTH, y + 5)],
+                c.mix(opacity).filled(),
+            ))?,
+            Swatch::Ring(c) => area.draw(&Circle::new(
+                (x0 + SWATCH_WIDTH / 2, y),
+                4,
+                c.stroke_width(2),
+            ))?,
+        }
+        area.draw(&Text::new(entry.label.as_str(), (x, y), style.clone()))?;
+    }
     Ok(())
 }
 
@@ -188,6 +317,68 @@ mod tests {
         assert_eq!(period_label(&labels, -1.0), "");
         assert_eq!(x_label_count(700, 60), 10);
         assert_eq!(x_label_count(700, 3), 3);
+    }
+
+    /// Draws a legend of two rows into a recorder measuring `char_width` pixels a character.
+    fn recorded_legend(char_width: u32, corner: Corner) -> crate::chart::probe::Record {
+        use crate::chart::palette::{DEMAND, HOLDOUT};
+        use crate::chart::probe::Recorder;
+        let record = std::rc::Rc::new(std::cell::RefCell::new(Default::default()));
+        let area = Recorder {
+            size: (600, 300),
+            char_width,
+            record: record.clone(),
+        }
+        .into_drawing_area();
+        let chart = ChartBuilder::on(&area)
+            .build_cartesian_2d(0.0..1.0, 0.0..1.0)
+            .unwrap();
+        let entries = [
+            LegendEntry::new("demand", Swatch::Line(DEMAND, 2)),
+            LegendEntry::new("holdout forecast", Swatch::Line(HOLDOUT, 2)),
+        ];
+        draw_legend(&chart, &entries, corner).unwrap();
+        drop(chart);
+        drop(area);
+        std::rc::Rc::try_unwrap(record).unwrap().into_inner()
+    }
+
+    // Our layout: the box is as wide as its widest label as the backend measures it, plus the
+    // swatch and paddings; every label lies inside it, rows one under the other.
+    #[test]
+    fn the_legend_box_is_sized_from_the_backends_measurements() {
+        for char_width in [7, 14] {
+            let record = recorded_legend(char_width, Corner::UpperRight);
+            let boxes: Vec<_> = record
+                .filled_rects
+                .iter()
+                .filter(|r| r.2 == BACKGROUND)
+                .collect();
+            assert_eq!(boxes.len(), 1, "{boxes:?}");
+            let (upper_left, lower_right, _) = *boxes[0];
+            let widest = 16 * char_width as i32;
+            assert_eq!(
+                lower_right.0 - upper_left.0,
+                LEGEND_PADDING * 2 + SWATCH_WIDTH + SWATCH_GAP + widest
+            );
+            assert_eq!(lower_right.0, 600 - LEGEND_INSET, "flush with the right");
+            assert_eq!(record.texts.len(), 2);
+            let mut last_bottom = upper_left.1;
+            for (text, (x, y), (w, h)) in &record.texts {
+                let (w, h) = (*w as i32, *h as i32);
+                assert!(
+                    upper_left.0 < *x && x + w <= lower_right.0 - LEGEND_PADDING,
+                    "{text} sticks out sideways"
+                );
+                assert!(
+                    last_bottom <= y - h / 2 && y + h / 2 <= lower_right.1 - LEGEND_PADDING / 2,
+                    "{text} overlaps a row or sticks out"
+                );
+                last_bottom = y + h / 2;
+            }
+        }
+        let left = recorded_legend(7, Corner::UpperLeft);
+        assert_eq!(left.filled_rects[0].0, (LEGEND_INSET, LEGEND_INSET));
     }
 
     #[test]

@@ -7,7 +7,7 @@
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
-use super::axis::{draw_legend, frame, value_range, FONT};
+use super::axis::{draw_legend, frame, value_range, Corner, LegendEntry, Swatch, FONT};
 use super::palette::{ALERT, BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
 use super::{clear, filled_gap_marker, filled_gaps_words, round_for_people, Area, ChartError};
 
@@ -69,6 +69,8 @@ where
     }
     let y_desc = format!("demand ({})", data.unit);
     let mut chart = frame(area, n + h, range, &y_desc, &data.labels)?;
+    // The legend's rows, in the order the series are drawn.
+    let mut legend = Vec::new();
 
     // The band first, so every line sits on top of it. It starts at the last demand so the
     // forecast visibly leaves from there.
@@ -86,18 +88,14 @@ where
             .rev()
             .map(|(i, b)| ((n + i) as f64, b.low));
         let outline: Vec<(f64, f64)> = std::iter::once(last).chain(upper).chain(lower).collect();
-        chart
-            .draw_series(std::iter::once(Polygon::new(
-                outline,
-                FORECAST.mix(BAND_OPACITY).filled(),
-            )))?
-            .label(format!("{}% band", round_for_people(data.level_percent)))
-            .legend(|(x, y)| {
-                Rectangle::new(
-                    [(x, y - 5), (x + 18, y + 5)],
-                    FORECAST.mix(BAND_OPACITY).filled(),
-                )
-            });
+        chart.draw_series(std::iter::once(Polygon::new(
+            outline,
+            FORECAST.mix(BAND_OPACITY).filled(),
+        )))?;
+        legend.push(LegendEntry::new(
+            format!("{}% band", round_for_people(data.level_percent)),
+            Swatch::Fill(FORECAST, BAND_OPACITY),
+        ));
     }
 
     if let Some(start) = data.holdout_start.filter(|s| *s < n) {
@@ -109,34 +107,37 @@ where
             4,
             MARKER.stroke_width(1),
         )))?;
-        chart.draw_series(std::iter::once(Text::new(
-            "holdout starts",
-            (x, hi),
-            (FONT, 12)
-                .into_font()
-                .color(&MARKER)
-                .pos(plotters::style::text_anchor::Pos::new(
-                    plotters::style::text_anchor::HPos::Left,
-                    plotters::style::text_anchor::VPos::Top,
-                )),
-        )))?;
+        // A few pixels right of the marker and below the top, so the words do not touch it.
+        chart.draw_series(std::iter::once(
+            EmptyElement::at((x, hi))
+                + Text::new(
+                    "holdout starts",
+                    (4, 2),
+                    (FONT, 12).into_font().color(&MARKER).pos(
+                        plotters::style::text_anchor::Pos::new(
+                            plotters::style::text_anchor::HPos::Left,
+                            plotters::style::text_anchor::VPos::Top,
+                        ),
+                    ),
+                ),
+        ))?;
     }
 
     // The fit: dashed, drawn in runs where it exists.
-    let mut first_run = true;
-    for run in runs(&data.fitted) {
-        let anno = chart.draw_series(std::iter::once(DashedPathElement::new(
-            run,
+    let fit = runs(&data.fitted);
+    for run in &fit {
+        chart.draw_series(std::iter::once(DashedPathElement::new(
+            run.iter().copied(),
             6,
             3,
             FITTED.stroke_width(2),
         )))?;
-        if first_run {
-            anno.label("fit on history").legend(|(x, y)| {
-                PathElement::new(vec![(x, y), (x + 18, y)], FITTED.stroke_width(2))
-            });
-            first_run = false;
-        }
+    }
+    if !fit.is_empty() {
+        legend.push(LegendEntry::new(
+            "fit on history",
+            Swatch::Dashed(FITTED, 2),
+        ));
     }
 
     let history: Vec<(f64, f64)> = data
@@ -145,13 +146,11 @@ where
         .enumerate()
         .map(|(i, v)| (i as f64, *v))
         .collect();
-    chart
-        .draw_series(std::iter::once(PathElement::new(
-            history.clone(),
-            DEMAND.stroke_width(2),
-        )))?
-        .label("demand")
-        .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], DEMAND.stroke_width(2)));
+    chart.draw_series(std::iter::once(PathElement::new(
+        history.clone(),
+        DEMAND.stroke_width(2),
+    )))?;
+    legend.push(LegendEntry::new("demand", Swatch::Line(DEMAND, 2)));
     chart.draw_series(
         history
             .iter()
@@ -162,15 +161,13 @@ where
     if !data.filled.is_empty() {
         // Filled gaps are not demand anyone saw: hollow, in the alert colour, as in the
         // Pattern view's history.
-        chart
-            .draw_series(
-                data.filled
-                    .iter()
-                    .filter_map(|i| history.get(*i))
-                    .map(|p| filled_gap_marker(*p)),
-            )?
-            .label("filled gap")
-            .legend(|(x, y)| Circle::new((x + 9, y), 4, ALERT.stroke_width(2)));
+        chart.draw_series(
+            data.filled
+                .iter()
+                .filter_map(|i| history.get(*i))
+                .map(|p| filled_gap_marker(*p)),
+        )?;
+        legend.push(LegendEntry::new("filled gap", Swatch::Ring(ALERT)));
     }
 
     if let Some(start) = data
@@ -183,13 +180,14 @@ where
             .enumerate()
             .map(|(i, v)| ((start + i) as f64, *v))
             .collect();
-        chart
-            .draw_series(std::iter::once(PathElement::new(
-                points.clone(),
-                HOLDOUT.stroke_width(2),
-            )))?
-            .label("holdout forecast")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], HOLDOUT.stroke_width(2)));
+        chart.draw_series(std::iter::once(PathElement::new(
+            points.clone(),
+            HOLDOUT.stroke_width(2),
+        )))?;
+        legend.push(LegendEntry::new(
+            "holdout forecast",
+            Swatch::Line(HOLDOUT, 2),
+        ));
         chart.draw_series(
             points
                 .iter()
@@ -207,13 +205,11 @@ where
         let line: Vec<(f64, f64)> = std::iter::once((n as f64 - 1.0, data.history[n - 1]))
             .chain(points.iter().copied())
             .collect();
-        chart
-            .draw_series(std::iter::once(PathElement::new(
-                line,
-                FORECAST.stroke_width(3),
-            )))?
-            .label("forecast")
-            .legend(|(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], FORECAST.stroke_width(3)));
+        chart.draw_series(std::iter::once(PathElement::new(
+            line,
+            FORECAST.stroke_width(3),
+        )))?;
+        legend.push(LegendEntry::new("forecast", Swatch::Line(FORECAST, 3)));
         chart.draw_series(points.iter().map(|p| {
             Rectangle::new(
                 [(p.0 - 0.12, p.1), (p.0 + 0.12, p.1)],
@@ -222,7 +218,7 @@ where
         }))?;
     }
 
-    draw_legend(&mut chart, SeriesLabelPosition::UpperLeft)?;
+    draw_legend(&chart, &legend, Corner::UpperLeft)?;
     area.present()?;
     Ok(())
 }

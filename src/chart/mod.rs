@@ -4,8 +4,11 @@
 //! Kept apart from: the engine and the DOM. A chart takes plain numbers and labels (the app turns
 //! an engine plan into them) and draws into any backend: a canvas in the page, SVG or a bitmap in
 //! native tests. Nothing here computes a forecast or a measure; it only places what it is given.
+//! The one piece that knows a browser object is canvas.rs (wasm only): the page's backend.
 
 pub mod axis;
+#[cfg(target_arch = "wasm32")]
+pub mod canvas;
 pub mod lookahead;
 pub mod palette;
 pub mod pattern;

@@ -9,7 +9,7 @@
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
-use super::axis::{draw_legend, frame, value_range};
+use super::axis::{draw_legend, frame, value_range, Corner, LegendEntry, Swatch};
 use super::palette::{year_colour, DEMAND, FITTED, MARKER};
 use super::{clear, filled_gap_marker, filled_gaps_words, round_for_people, Area, ChartError};
 
@@ -108,6 +108,7 @@ where
     let y_desc = format!("demand ({})", data.unit);
     let mut chart = frame(area, data.positions.len(), range, &y_desc, &data.positions)?;
     let count = data.years.len();
+    let mut legend = Vec::new();
     for (k, (year, values)) in data.years.iter().enumerate() {
         let colour = year_colour(k, count);
         let width = if k + 1 == count { 3 } else { 2 };
@@ -116,18 +117,14 @@ where
             .enumerate()
             .filter_map(|(i, v)| v.map(|v| (i as f64, v)))
             .collect();
-        chart
-            .draw_series(std::iter::once(PathElement::new(
-                points.clone(),
-                colour.stroke_width(width),
-            )))?
-            .label(year.clone())
-            .legend(move |(x, y)| {
-                PathElement::new(vec![(x, y), (x + 18, y)], colour.stroke_width(width))
-            });
+        chart.draw_series(std::iter::once(PathElement::new(
+            points.clone(),
+            colour.stroke_width(width),
+        )))?;
+        legend.push(LegendEntry::new(year.clone(), Swatch::Line(colour, width)));
         chart.draw_series(points.iter().map(|p| Circle::new(*p, 3, colour.filled())))?;
     }
-    draw_legend(&mut chart, SeriesLabelPosition::UpperRight)?;
+    draw_legend(&chart, &legend, Corner::UpperRight)?;
     area.present()?;
     Ok(())
 }

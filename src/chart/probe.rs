@@ -228,3 +228,83 @@ impl plotters::prelude::DrawingBackend for TextlessBitmap<'_> {
         ))
     }
 }
+
+/// What a [`Recorder`] was asked to draw.
+#[derive(Debug, Default)]
+pub struct Record {
+    /// Filled rectangles: upper left, lower right, colour.
+    pub filled_rects: Vec<(Point, Point, RGBColor)>,
+    /// Texts: the words, where they were placed, and the size the backend measured for them.
+    pub texts: Vec<(String, Point, (u32, u32))>,
+}
+
+/// A backend that draws nothing: it records filled rectangles and texts, and measures text as
+/// `char_width` pixels a character by the font's size, so a test knows what each label
+/// measures and can tell that a layout took its sizes from the backend.
+pub struct Recorder {
+    pub size: (u32, u32),
+    pub char_width: u32,
+    pub record: std::rc::Rc<std::cell::RefCell<Record>>,
+}
+
+impl plotters::prelude::DrawingBackend for Recorder {
+    type ErrorType = std::convert::Infallible;
+    fn get_size(&self) -> (u32, u32) {
+        self.size
+    }
+    fn ensure_prepared(
+        &mut self,
+    ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        Ok(())
+    }
+    fn present(&mut self) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        Ok(())
+    }
+    fn draw_pixel(
+        &mut self,
+        _point: plotters_backend::BackendCoord,
+        _color: plotters_backend::BackendColor,
+    ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        Ok(())
+    }
+    fn draw_rect<S: plotters_backend::BackendStyle>(
+        &mut self,
+        upper_left: plotters_backend::BackendCoord,
+        bottom_right: plotters_backend::BackendCoord,
+        style: &S,
+        fill: bool,
+    ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        if fill {
+            let (r, g, b) = style.color().rgb;
+            self.record.borrow_mut().filled_rects.push((
+                upper_left,
+                bottom_right,
+                RGBColor(r, g, b),
+            ));
+        }
+        Ok(())
+    }
+    fn draw_text<TStyle: plotters_backend::BackendTextStyle>(
+        &mut self,
+        text: &str,
+        style: &TStyle,
+        pos: plotters_backend::BackendCoord,
+    ) -> Result<(), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        let size = self.estimate_text_size(text, style)?;
+        self.record
+            .borrow_mut()
+            .texts
+            .push((text.to_string(), pos, size));
+        Ok(())
+    }
+    fn estimate_text_size<TStyle: plotters_backend::BackendTextStyle>(
+        &self,
+        text: &str,
+        style: &TStyle,
+    ) -> Result<(u32, u32), plotters_backend::DrawingErrorKind<Self::ErrorType>> {
+        Ok((
+            self.char_width * text.chars().count() as u32,
+            style.size().ceil() as u32,
+        ))
+    }
+}

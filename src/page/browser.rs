@@ -1,14 +1,15 @@
 //! Browser glue: the panic hook, the tab's own copy of the Intake text, downloads, the date and
-//! performance measures, fault drills, and drawing a chart into a canvas.
+//! performance measures, fault drills, and drawing a chart into a canvas at the screen's pixel
+//! density.
 //!
 //! Kept apart from: the components. Nothing here reaches the network: downloads are local
 //! `blob:` and `data:` links, storage is the tab's sessionStorage.
 
 use plotters::prelude::IntoDrawingArea;
-use plotters_canvas::CanvasBackend;
 use wasm_bindgen::JsCast;
 use web_sys::{Blob, BlobPropertyBag, HtmlAnchorElement, HtmlCanvasElement, Url};
 
+use crate::chart::canvas::PageCanvas;
 use crate::chart::{Area, ChartError};
 
 /// Key of the Intake text in sessionStorage (kept so a reload after a fault keeps the data).
@@ -150,29 +151,38 @@ pub fn download_text(file_name: &str, mime: &str, body: &str) -> Option<()> {
     Some(())
 }
 
-/// Saves a canvas as PNG.
+/// Saves a canvas as PNG: its backing store, so at the density it was drawn at.
 pub fn download_canvas(canvas: &HtmlCanvasElement, file_name: &str) -> Option<()> {
     let url = canvas.to_data_url_with_type("image/png").ok()?;
     click_link(&url, file_name)
 }
 
-/// Sizes the canvas to its laid-out size and draws into it.
+/// Device pixels per CSS pixel of the screen the page is on (2 on most HiDPI screens).
+pub fn density() -> f64 {
+    web_sys::window()
+        .map(|w| w.device_pixel_ratio())
+        .unwrap_or(1.0)
+}
+
+/// Draws into the canvas at its laid-out size in CSS pixels, sharp at the screen's density.
 pub fn draw_into(
     canvas: &HtmlCanvasElement,
-    draw: impl FnOnce(&Area<'_, CanvasBackend>) -> Result<(), ChartError>,
+    draw: impl FnOnce(&Area<'_, PageCanvas>) -> Result<(), ChartError>,
 ) -> Result<(), ChartError> {
-    let (w, h) = (
-        canvas.client_width().max(320) as u32,
-        canvas.client_height().max(200) as u32,
-    );
-    if canvas.width() != w {
-        canvas.set_width(w);
-    }
-    if canvas.height() != h {
-        canvas.set_height(h);
-    }
-    let backend = CanvasBackend::with_canvas_object(canvas.clone())
+    draw_into_at(canvas, density(), draw)
+}
+
+/// [`draw_into`] at a given density (the browser tests draw at 2 on any screen). The laid-out
+/// size keeps its fractions (a canvas in a 436.5-pixel column holds 873 device pixels at
+/// density 2), and has a floor so a canvas not laid out yet still gets a readable chart.
+pub fn draw_into_at(
+    canvas: &HtmlCanvasElement,
+    density: f64,
+    draw: impl FnOnce(&Area<'_, PageCanvas>) -> Result<(), ChartError>,
+) -> Result<(), ChartError> {
+    let laid_out = canvas.get_bounding_client_rect();
+    let css = (laid_out.width().max(320.0), laid_out.height().max(200.0));
+    let backend = PageCanvas::new(canvas, css, density)
         .ok_or_else(|| ChartError::Backend("this browser gave no 2D canvas".into()))?;
-    let area = backend.into_drawing_area();
-    draw(&area)
+    draw(&backend.into_drawing_area())
 }

@@ -7,13 +7,13 @@
 
 use leptos::html::Canvas;
 use leptos::prelude::*;
-use plotters_canvas::CanvasBackend;
 
 use super::browser;
 use super::export;
 use super::model;
 use super::state::{IntakeState, PlanState, Resized};
 use super::words;
+use crate::chart::canvas::PageCanvas;
 use crate::chart::{self, Area, ChartError};
 
 fn fixed(v: f64, decimals: usize) -> String {
@@ -37,7 +37,7 @@ fn chart_figure<T>(
     file_part: &'static str,
     data: Memo<Option<T>>,
     summary: fn(&T) -> String,
-    draw: fn(&Area<'_, CanvasBackend>, &T) -> Result<(), ChartError>,
+    draw: fn(&Area<'_, PageCanvas>, &T) -> Result<(), ChartError>,
 ) -> impl IntoView
 where
     T: Clone + PartialEq + Send + Sync + 'static,

@@ -75,7 +75,7 @@ fn demo_loads_with_ranking_and_drawn_look_ahead() {
     let rows = browser.js("return document.querySelectorAll('#forecast-table tbody tr').length");
     assert!(number(&rows) >= 1.0);
     save_screenshot(browser, "demo-loaded.png");
-    for section in ["ranking", "error-ledger", "pattern-view"] {
+    for section in ["ranking", "error-ledger", "pattern-view", "overlay-chart"] {
         browser.js(&format!(
             "document.getElementById('{section}').scrollIntoView()"
         ));

@@ -11,9 +11,11 @@ use super::page::{open_at, save_screenshot, wait_for_item, WAIT};
 /// A panic in the page shows the fault notice with what to do; the data stays in the box.
 #[test]
 fn a_page_fault_shows_the_notice_and_keeps_the_text() {
-    let Some(page) = open_at((1366, 768), "#drill=page-fault") else {
+    let Some(mut page) = open_at((1366, 768), "#drill=page-fault") else {
         return;
     };
+    // The panic hook logs the panic; the aborted wasm throws "unreachable" as it stops.
+    page.expect_console_errors(&["fault drill", "RuntimeError: unreachable"]);
     let browser = &page.browser;
     browser.wait_for(
         "the fault notice",
@@ -36,9 +38,11 @@ fn a_page_fault_shows_the_notice_and_keeps_the_text() {
 /// A panic in the worker is reported where the plan would be, and a new worker takes over.
 #[test]
 fn a_worker_fault_is_reported_and_the_next_change_computes_again() {
-    let Some(page) = open_at((1366, 768), "#drill=worker-fault") else {
+    let Some(mut page) = open_at((1366, 768), "#drill=worker-fault") else {
         return;
     };
+    // The worker's panic reaches the page as an error event it does not handle.
+    page.expect_console_errors(&["morrowcast worker, ask 1: panicked"]);
     let browser = &page.browser;
     let said = browser.wait_for(
         "the worker's fault in the headline",
@@ -91,9 +95,11 @@ fn a_silent_worker_is_reported_and_replaced() {
 /// page's files but not connect anywhere, not even to the page's own host.
 #[test]
 fn the_page_policy_binds_its_worker() {
-    let Some(page) = super::page::open((800, 600)) else {
+    let Some(mut page) = super::page::open((800, 600)) else {
         return;
     };
+    // The test worker's fetch is refused, and the browser logs the refusal.
+    page.expect_console_errors(&["connect-src 'none'", "Refused to connect"]);
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
     browser.js(

@@ -17,6 +17,7 @@ pub mod webdriver;
 
 mod access;
 mod demo;
+mod density;
 mod engine_match;
 mod faults;
 mod pick;

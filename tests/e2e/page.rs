@@ -1,9 +1,17 @@
 //! What every browser test needs: the built app (dist/), the browser tools, one page opened on
-//! the static server, screenshots, and the command line's own answer on the same text.
+//! the static server with its console watched, screenshots, and the command line's own answer
+//! on the same text.
 //!
 //! Kept apart from: the assertions (demo.rs and the sibling modules here). The
 //! browser tests take turns (one Chromium at a time): the machine has 2 cores, and the
 //! recompute measurement needs a quiet page.
+//!
+//! The console check: every page is opened with a watcher installed before any of the page's
+//! own scripts (a DevTools "script on new document"), which records each
+//! `securitypolicyviolation` event, uncaught error and unhandled rejection; and the browser's
+//! console log is kept (chromedriver's `goog:loggingPrefs`). When a test's [`Page`] is dropped,
+//! at the end of the test, both are read and any finding fails the test, unless the test
+//! declared it with [`Page::expect_console_errors`] (only the fault drills do).
 
 use std::path::{Path, PathBuf};
 use std::sync::{Mutex, MutexGuard};
@@ -48,21 +56,54 @@ fn tool(env_key: &str, default: &str) -> String {
     path
 }
 
-/// A page of the app in headless Chromium. Fields drop in order: the browser closes before
-/// the next test gets its turn.
+/// A page of the app in headless Chromium. Its console is checked when it is dropped (see the
+/// module's documentation). Fields drop in order: the browser closes before the next test gets
+/// its turn.
 pub struct Page {
     pub server: StaticServer,
     pub browser: Browser,
+    /// Parts of the console findings this test provokes on purpose.
+    expected: Vec<&'static str>,
     _turn: MutexGuard<'static, ()>,
 }
 
+/// Installed before the page's own scripts run, in every document the page opens: records
+/// what the console check looks at (the events carry more than the log line: the directive,
+/// the source and a sample of what was refused).
+const WATCH_CONSOLE: &str = r#"
+(() => {
+  const seen = [];
+  Object.defineProperty(window, '__morrowcastConsole', { value: seen });
+  document.addEventListener('securitypolicyviolation', (e) => {
+    seen.push('securitypolicyviolation: ' + e.effectiveDirective + ' refused '
+      + (e.blockedURI || 'an inline part') + ' (' + (e.sourceFile || 'no source') + ':'
+      + e.lineNumber + (e.sample ? ', sample "' + e.sample + '"' : '') + ')');
+  }, true);
+  window.addEventListener('error', (e) => {
+    if (e.target !== window) {
+      seen.push('failed to load ' + (e.target.src || e.target.href || e.target.tagName));
+    } else {
+      seen.push('uncaught error: ' + e.message + ' (' + e.filename + ':' + e.lineno + ')');
+    }
+  }, true);
+  window.addEventListener('unhandledrejection', (e) => {
+    seen.push('unhandled rejection: ' + e.reason);
+  });
+})();
+"#;
+
 /// Opens the app at the given window size; `None` when dist/ is missing (see [`dist`]).
 pub fn open(window: (u32, u32)) -> Option<Page> {
-    open_at(window, "")
+    open_with(window, "", 1.0)
 }
 
 /// Opens the app with `fragment` after its address (such as `#drill=page-fault`).
 pub fn open_at(window: (u32, u32), fragment: &str) -> Option<Page> {
+    open_with(window, fragment, 1.0)
+}
+
+/// Opens the app on a screen of `device_scale` device pixels per CSS pixel (2: HiDPI).
+pub fn open_with(window: (u32, u32), fragment: &str, device_scale: f64) -> Option<Page> {
     let dist = dist()?;
     // A test that failed while holding the turn leaves nothing behind (its browser is closed).
     let turn = TURN.lock().unwrap_or_else(|e| e.into_inner());
@@ -71,13 +112,111 @@ pub fn open_at(window: (u32, u32), fragment: &str) -> Option<Page> {
         &tool("CHROMEDRIVER", "/usr/bin/chromedriver"),
         &tool("CHROMIUM", "/usr/bin/chromium"),
         window,
+        device_scale,
+    );
+    browser.devtools(
+        "Page.addScriptToEvaluateOnNewDocument",
+        serde_json::json!({ "source": WATCH_CONSOLE }),
     );
     browser.goto(&format!("{}/index.html{fragment}", server.origin));
     Some(Page {
         server,
         browser,
+        expected: Vec::new(),
         _turn: turn,
     })
+}
+
+impl Page {
+    /// Declares console findings this test provokes on purpose (a fault drill): a finding that
+    /// contains one of `parts` passes the console check, and each part must be found (so a
+    /// declaration cannot outlive the fault it names).
+    pub fn expect_console_errors(&mut self, parts: &[&'static str]) {
+        self.expected.extend_from_slice(parts);
+    }
+
+    /// What the page's console holds: the watcher's records, then the browser's console log
+    /// entries at error level.
+    fn console_findings(&self) -> Result<Vec<String>, String> {
+        let watched = self
+            .browser
+            .try_js("return window.__morrowcastConsole || ['the console watcher is missing']")?;
+        let mut findings: Vec<String> = watched
+            .as_array()
+            .map(|a| {
+                a.iter()
+                    .map(|v| v.as_str().unwrap_or_default().to_string())
+                    .collect()
+            })
+            .unwrap_or_default();
+        for entry in self.browser.try_console_log()? {
+            if entry["level"] == "SEVERE" {
+                findings.push(format!(
+                    "console error ({}): {}",
+                    entry["source"].as_str().unwrap_or("?"),
+                    entry["message"].as_str().unwrap_or_default()
+                ));
+            }
+        }
+        Ok(findings)
+    }
+}
+
+/// Findings as lines, identical ones counted once ("22 x ...").
+fn grouped(findings: &[&String]) -> String {
+    let mut groups: Vec<(&String, usize)> = Vec::new();
+    for f in findings {
+        match groups.iter_mut().find(|(g, _)| g == f) {
+            Some((_, n)) => *n += 1,
+            None => groups.push((f, 1)),
+        }
+    }
+    groups
+        .iter()
+        .map(|(f, n)| format!("\n  {n} x {f}"))
+        .collect()
+}
+
+impl Drop for Page {
+    /// The console check, at the end of every test: here so that no test can leave it out.
+    fn drop(&mut self) {
+        let findings = self.console_findings();
+        if std::thread::panicking() {
+            // The test failed already; say what the console held, for the diagnosis, without
+            // a second panic.
+            if let Ok(f) = &findings {
+                if !f.is_empty() {
+                    eprintln!(
+                        "the page's console held:{}",
+                        grouped(&f.iter().collect::<Vec<_>>())
+                    );
+                }
+            }
+            return;
+        }
+        let findings =
+            findings.unwrap_or_else(|e| panic!("the page's console could not be read: {e}"));
+        let (declared, unexpected): (Vec<&String>, Vec<&String>) = findings
+            .iter()
+            .partition(|f| self.expected.iter().any(|part| f.contains(part)));
+        let missing: Vec<&&str> = self
+            .expected
+            .iter()
+            .filter(|part| !declared.iter().any(|f| f.contains(**part)))
+            .collect();
+        assert!(
+            unexpected.is_empty(),
+            "the page's console is not clean: {} finding(s) (securitypolicyviolation events, \
+             uncaught errors, console errors):{}",
+            unexpected.len(),
+            grouped(&unexpected)
+        );
+        assert!(
+            missing.is_empty(),
+            "the console findings this test declared did not appear: {missing:?} (it held:{})",
+            grouped(&findings.iter().collect::<Vec<_>>())
+        );
+    }
 }
 
 /// Saves the window as tests/screenshots/NAME (not committed; for review).

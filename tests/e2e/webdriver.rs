@@ -1,4 +1,5 @@
-//! A minimal W3C WebDriver client for chromedriver: sessions, navigation, scripts, screenshots.
+//! A minimal W3C WebDriver client for chromedriver: sessions, navigation, scripts, screenshots,
+//! the browser's console log and DevTools commands (chromedriver's own extensions).
 //! The session and the driver are closed on drop, also when an assertion panics, so no Chromium
 //! is left running.
 
@@ -104,8 +105,14 @@ pub struct Browser {
 }
 
 impl Browser {
-    /// Starts chromedriver on a free port and opens a headless Chromium session.
-    pub fn start(chromedriver: &str, chromium: &str, window: (u32, u32)) -> Browser {
+    /// Starts chromedriver on a free port and opens a headless Chromium session with a window of
+    /// `window` CSS pixels at `device_scale` device pixels per CSS pixel (2 is a HiDPI screen).
+    pub fn start(
+        chromedriver: &str,
+        chromium: &str,
+        window: (u32, u32),
+        device_scale: f64,
+    ) -> Browser {
         let port = free_port();
         let driver = Command::new(chromedriver)
             .arg(format!("--port={port}"))
@@ -129,9 +136,12 @@ impl Browser {
         let mut args: Vec<String> = CHROMIUM_ARGS.iter().map(|s| s.to_string()).collect();
         args.push(format!("--user-data-dir={}", browser.profile.display()));
         args.push(format!("--window-size={},{}", window.0, window.1));
+        args.push(format!("--force-device-scale-factor={device_scale}"));
+        // Every console message of the page is kept, so a test can fail on any error in it.
         let caps = json!({"capabilities": {"alwaysMatch": {
             "browserName": "chrome",
-            "goog:chromeOptions": {"binary": chromium, "args": args}
+            "goog:chromeOptions": {"binary": chromium, "args": args},
+            "goog:loggingPrefs": {"browser": "ALL"}
         }}});
         let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
         browser.session = reply["value"]["sessionId"]
@@ -142,13 +152,44 @@ impl Browser {
     }
 
     fn command(&self, method: &str, path: &str, body: Option<Value>) -> Value {
+        self.try_command(method, path, body)
+            .unwrap_or_else(|e| panic!("WebDriver {path}: {e}"))
+    }
+
+    /// [`Browser::command`] that reports a failure instead of panicking (for use while a test
+    /// is already panicking, where a second panic would abort the run).
+    fn try_command(&self, method: &str, path: &str, body: Option<Value>) -> Result<Value, String> {
         let url = format!("/session/{}{path}", self.session);
-        let reply =
-            http(self.port, method, &url, body.as_ref()).unwrap_or_else(|e| panic!("{path}: {e}"));
+        let reply = http(self.port, method, &url, body.as_ref())?;
         if reply["value"].get("error").is_some() {
-            panic!("WebDriver {path}: {}", reply["value"]);
+            return Err(reply["value"].to_string());
         }
-        reply["value"].clone()
+        Ok(reply["value"].clone())
+    }
+
+    /// Runs a Chrome DevTools Protocol command (chromedriver's `goog/cdp/execute`).
+    pub fn devtools(&self, cmd: &str, params: Value) -> Value {
+        self.command(
+            "POST",
+            "/goog/cdp/execute",
+            Some(json!({ "cmd": cmd, "params": params })),
+        )
+    }
+
+    /// The browser's console messages since the last call (chromedriver's log endpoint; each
+    /// entry has `level`, `message`, `source`, `timestamp`).
+    pub fn try_console_log(&self) -> Result<Vec<Value>, String> {
+        let entries = self.try_command("POST", "/se/log", Some(json!({ "type": "browser" })))?;
+        Ok(entries.as_array().cloned().unwrap_or_default())
+    }
+
+    /// [`Browser::js`] that reports a failure instead of panicking.
+    pub fn try_js(&self, script: &str) -> Result<Value, String> {
+        self.try_command(
+            "POST",
+            "/execute/sync",
+            Some(json!({ "script": script, "args": [] })),
+        )
     }
 
     pub fn goto(&self, url: &str) {
