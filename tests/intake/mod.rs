@@ -2,4 +2,5 @@
 
 mod errors;
 mod formats;
+mod misreads;
 mod robustness;

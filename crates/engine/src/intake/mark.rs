@@ -4,7 +4,7 @@
 //! this module gathers the evidence and makes the choice, with a warning when it had to choose.
 
 use super::number::parse_number;
-use super::DecimalMark;
+use super::{DecimalMark, Delimiter};
 
 /// What one cell says about the file's decimal mark.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -63,23 +63,26 @@ impl Tally {
 /// The file's decimal mark and, when the choice was not forced by the cells, a warning saying
 /// why it was made.
 ///
-/// Rule: cells that only one mark reads decide, by majority (a tie, or no such cells, falls to
-/// the next step). Otherwise a lone separator before exactly three digits ("1,234", "1.234") is
-/// read as a thousands separator, because whole quantities grouped in thousands are more common
-/// in demand data than quantities with exactly three decimals; the warning says so. With no clue
-/// at all: comma in semicolon files (the usual pairing in spreadsheets set to a decimal-comma
-/// locale), dot otherwise.
-pub(crate) fn decide_mark(tally: Tally, semicolon_file: bool) -> (DecimalMark, Option<String>) {
-    let fallback = if semicolon_file {
+/// Rule: cells that only one mark reads decide, by majority; when both kinds are present the
+/// warning says so and the minority are errors (a tie goes to the fallback below). Otherwise, in
+/// a comma-delimited file the mark is a dot: there an unquoted comma is a delimiter, so a decimal
+/// comma could only be inside quotes, and a quoted cell that only a comma reads would have
+/// decided already; "1.250" is one and a quarter. In other files a lone separator before exactly
+/// three digits ("1,234", "1.234") is read as a thousands separator, because whole quantities
+/// grouped in thousands are more common in demand data than quantities with exactly three
+/// decimals; the warning says so. With no clue at all: comma in semicolon files (the usual
+/// pairing in spreadsheets set to a decimal-comma locale), dot otherwise.
+pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, Option<String>) {
+    let fallback = if delimiter == Delimiter::Semicolon {
         DecimalMark::Comma
     } else {
         DecimalMark::Dot
     };
-    if tally.dot != tally.comma {
-        let mark = if tally.dot > tally.comma {
-            DecimalMark::Dot
-        } else {
-            DecimalMark::Comma
+    if tally.dot > 0 || tally.comma > 0 {
+        let mark = match tally.dot.cmp(&tally.comma) {
+            std::cmp::Ordering::Greater => DecimalMark::Dot,
+            std::cmp::Ordering::Less => DecimalMark::Comma,
+            std::cmp::Ordering::Equal => fallback,
         };
         let warning = (tally.dot.min(tally.comma) > 0).then(|| {
             format!(
@@ -94,6 +97,8 @@ pub(crate) fn decide_mark(tally: Tally, semicolon_file: bool) -> (DecimalMark, O
     }
     let (mark, separator, count) = match (tally.ambiguous_comma, tally.ambiguous_dot) {
         (0, 0) => return (fallback, None),
+        (0, _) if delimiter == Delimiter::Comma => return (DecimalMark::Dot, None),
+        (c, _) if delimiter == Delimiter::Comma => (DecimalMark::Dot, ',', c),
         (c, 0) => (DecimalMark::Dot, ',', c),
         (0, d) => (DecimalMark::Comma, '.', d),
         (c, d) => {
@@ -125,12 +130,50 @@ mod tests {
         assert_eq!(evidence("1,234"), Evidence::AmbiguousComma);
         assert_eq!(evidence("1.234"), Evidence::AmbiguousDot);
         assert_eq!(evidence("1 234"), Evidence::Silent);
-        let mut tally = Tally::default();
-        tally.add(Evidence::AmbiguousComma);
-        assert_eq!(decide_mark(tally, false).0, Dot);
-        assert!(decide_mark(tally, false).1.is_some());
-        tally.add(Evidence::Comma);
-        assert_eq!(decide_mark(tally, false), (Comma, None));
-        assert_eq!(decide_mark(Tally::default(), true), (Comma, None));
+        assert_eq!(evidence("1.5e3"), Evidence::Dot);
+        assert_eq!(evidence("1,5e3"), Evidence::Comma);
+        assert_eq!(evidence("1e3"), Evidence::Silent);
+    }
+
+    fn tally(dot: usize, comma: usize, ambiguous_dot: usize, ambiguous_comma: usize) -> Tally {
+        Tally {
+            dot,
+            comma,
+            ambiguous_dot,
+            ambiguous_comma,
+        }
+    }
+
+    /// (cells' evidence, delimiter, the mark, whether a warning is given).
+    fn check(t: Tally, delimiter: Delimiter, mark: DecimalMark, warned: bool) {
+        let (got, warning) = decide_mark(t, delimiter);
+        assert_eq!(
+            (got, warning.is_some()),
+            (mark, warned),
+            "{t:?} in a {} file: {warning:?}",
+            delimiter.as_str()
+        );
+    }
+
+    #[test]
+    fn decided_marks() {
+        use Delimiter::{Comma as C, Pipe, Semicolon, Tab};
+        check(tally(0, 0, 0, 0), Semicolon, Comma, false);
+        check(tally(0, 0, 0, 0), C, Dot, false);
+        check(tally(2, 0, 5, 0), Tab, Dot, false);
+        check(tally(0, 1, 0, 3), Tab, Comma, false);
+        check(tally(3, 1, 0, 0), Pipe, Dot, true);
+        check(tally(1, 1, 0, 0), Semicolon, Comma, true);
+        check(tally(1, 1, 0, 0), C, Dot, true);
+        // A lone three-digit group: thousands, with a warning...
+        check(tally(0, 0, 0, 1), Tab, Dot, true);
+        check(tally(0, 0, 1, 0), Tab, Comma, true);
+        check(tally(0, 0, 2, 2), Semicolon, Comma, true);
+        // ...except a dot in a comma-delimited file, where a decimal comma needs quotes.
+        check(tally(0, 0, 3, 0), C, Dot, false);
+        check(tally(0, 0, 3, 1), C, Dot, true);
+        check(tally(0, 0, 0, 1), C, Dot, true);
+        // A quoted decimal comma still decides.
+        check(tally(0, 1, 3, 0), C, Comma, false);
     }
 }

@@ -15,9 +15,10 @@
 //! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
 //!    the header and layout rules are in that module's doc.
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
-//!    decide by majority; a lone "1,234" or "1.234" is read as thousands with a warning;
-//!    otherwise comma in semicolon files, dot elsewhere), and each value cell, with currency
-//!    symbols and units stripped (listed in that module's doc) and reported once.
+//!    decide by majority; in a comma-delimited file the mark is otherwise a dot, since a decimal
+//!    comma there needs quotes; elsewhere a lone "1,234" or "1.234" is read as thousands with a
+//!    warning; otherwise comma in semicolon files, dot elsewhere), and each value cell, with
+//!    currency symbols and units stripped (listed in that module's doc) and reported once.
 //! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
 //!    from all rows (the ambiguity rule is in `order`'s doc), and the frequency the dates imply.
 //! 5. `build`: one item per value column (single, wide) or per item name (long), with a
@@ -34,10 +35,14 @@
 //!   are 1969–2068; month names are English.
 //! - Whole numbers in the first column are years (1800–2200) or row positions (1, 2, 3, ...)
 //!   only when dense; otherwise they are values.
+//! - Numbers: scientific notation (`1e5`, `1.5E+03`, `2,5e3` with a decimal comma) is read;
+//!   `inf`, `nan`, `infinity` and any value above 10^15 in size are errors at their cell (they
+//!   still count as numbers for the layout). 10^15: far above any sales quantity, exact in f64,
+//!   and far from overflow in the computations that square and sum values.
 //! - Empty cells and `NA`, `N/A`, `#N/A`, `null` are gaps, counted in `empty_cells`; a blank line
 //!   is a gap in a table without periods and skipped (with a warning) in a dated one.
 //! - Currency symbols, codes and units listed in `number` are stripped, with one warning naming
-//!   them; anything else after a number is an error.
+//!   them; anything else after a number ("12x") is an error.
 //!
 //! Names: a series is named after its value column's header; without a header the value columns
 //! are "Series 1", "Series 2", ... and errors name columns "column 1", "column 2", ... A header
@@ -268,7 +273,7 @@ pub fn read(text: &str) -> IntakeReport {
             tally.add(mark::evidence(cell));
         }
     }
-    let (mark, warning) = mark::decide_mark(tally, delimiter == Delimiter::Semicolon);
+    let (mark, warning) = mark::decide_mark(tally, delimiter);
     report.decimal = mark;
     report.warnings.extend(warning);
     let built = build::build(&table, &plan, mark);

@@ -1,5 +1,5 @@
-//! Number cells: decimal marks, thousands separators, signs, and the currency symbols and units
-//! people leave in cells.
+//! Number cells: decimal marks, thousands separators, signs, scientific notation, and the
+//! currency symbols and units people leave in cells.
 //!
 //! Kept apart from: the choice of decimal mark for a whole file (that is [`super::mark`], fed by
 //! every value cell) and from what the numbers mean. A cell is read under one decimal mark; the
@@ -11,12 +11,25 @@
 //! - prefixes: `$ € £ ¥ ₹ ₩ ₽ ₺ ₪ ₫ ₦ ₱ ฿ US$ A$ C$ NZ$ HK$ S$ R$` and the ISO codes in
 //!   [`CODES`] (written in capitals);
 //! - suffixes: the same symbols and codes, `kr zł Kč Ft %`, and the units in [`UNITS`]
-//!   (case-insensitive; one-letter units `g t l L m u x` only as written, so "1.2M" is an error,
-//!   not a million or a metre).
+//!   (case-insensitive; one-letter units `g t l L m u` only as written, so "1.2M" is an error,
+//!   not a million or a metre). Anything else after a number is an error: "12x" is not 12.
 //!
 //! Signs: a leading `-`, `+` or `−` (U+2212), before or after a currency prefix, and accounting
 //! parentheses: "(12)" is −12. Multipliers such as "k" or "M" and lakh grouping ("1,00,000") are
 //! not read: such cells are errors the user can fix.
+//!
+//! Scientific notation, as spreadsheets write large or small numbers: a mantissa without
+//! thousands separators, written with the file's decimal mark, then `e` or `E`, an optional sign
+//! and digits, right after the mantissa: `1e5`, `1.5E+03`, and `2,5e3` in a decimal-comma file.
+//!
+//! Refused, each as an error at its cell: `inf`, `infinity`, `nan` and `∞` (any case and sign),
+//! which formulas leave behind and which are never a quantity; and any value whose size is above
+//! [`MAX_MAGNITUDE`] (10^15). Why that bound: no sales quantity comes near it, f64 still holds
+//! every whole number up to it exactly (up to 2^53 ≈ 9.0 × 10^15), and squares and sums of
+//! thousands of such values (errors, MSE, smoothing states) stay far below f64's limit of about
+//! 1.8 × 10^308, so nothing downstream overflows into a missing measure. Such cells still count
+//! as numbers when intake decides the layout, so one of them never turns a column of quantities
+//! into item names.
 
 use super::DecimalMark;
 
@@ -36,9 +49,14 @@ pub(crate) enum NumberError {
     Grouping,
     /// A number followed by a word that is not a known unit or currency.
     UnknownUnit(String),
-    /// More digits than a floating-point number holds.
+    /// A size above [`MAX_MAGNITUDE`].
     TooLarge,
+    /// An infinity or not-a-number word ("inf", "NaN").
+    NotFinite,
 }
+
+/// The largest size of a value intake reads (see the module doc for why 10^15).
+pub(crate) const MAX_MAGNITUDE: f64 = 1e15;
 
 impl NumberError {
     /// What was expected, in words, for a file read with `mark`.
@@ -58,7 +76,13 @@ impl NumberError {
                 "expected a number such as {example}; \"{unit}\" is not a known unit or currency: \
                  remove it"
             ),
-            NumberError::TooLarge => "expected a number small enough to compute with".to_string(),
+            NumberError::TooLarge => "expected a quantity of at most 10^15 \
+                 (1,000,000,000,000,000) in size; no sales quantity is that large: check the cell \
+                 for extra digits"
+                .to_string(),
+            NumberError::NotFinite => "expected a quantity; an infinity or \"not a number\" is \
+                 none (a formula's error?): write the quantity, or leave the cell empty for a gap"
+                .to_string(),
         }
     }
 }
@@ -86,7 +110,10 @@ pub(crate) const UNITS: [&str; 33] = [
 ];
 
 /// One-letter units, matched exactly as written.
-const LETTER_UNITS: [&str; 7] = ["g", "t", "l", "L", "m", "u", "x"];
+const LETTER_UNITS: [&str; 6] = ["g", "t", "l", "L", "m", "u"];
+
+/// Words for an infinity or a not-a-number, compared without case after an optional sign.
+const NOT_FINITE: [&str; 4] = ["inf", "infinity", "nan", "\u{221e}"];
 
 /// Whether a cell stands for "no value": empty, `NA`, `N/A`, `#N/A` or `null` (any case).
 pub(crate) fn is_missing(cell: &str) -> bool {
@@ -94,10 +121,18 @@ pub(crate) fn is_missing(cell: &str) -> bool {
     matches!(lower.as_str(), "" | "na" | "n/a" | "#n/a" | "null")
 }
 
-/// Reads `cell` as a number with decimal mark `mark`.
+/// Reads `cell` as a number with decimal mark `mark`; the value is finite and at most
+/// [`MAX_MAGNITUDE`] in size.
 pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, NumberError> {
+    let (_, word) = strip_sign(cell.trim());
+    if NOT_FINITE.iter().any(|w| w.eq_ignore_ascii_case(word)) {
+        return Err(NumberError::NotFinite);
+    }
     let parts = split_affixes(cell)?;
-    let magnitude = parse_core(parts.core, mark)?;
+    let magnitude = parse_core(parts.core, parts.exponent, mark)?;
+    if !magnitude.is_finite() || magnitude > MAX_MAGNITUDE {
+        return Err(NumberError::TooLarge);
+    }
     let value = if parts.negative {
         -magnitude
     } else {
@@ -109,15 +144,23 @@ pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, Numb
     })
 }
 
-/// Whether the cell reads as a number under either decimal mark.
+/// Whether the cell reads as a number under either decimal mark, or is one that intake refuses
+/// (too large, or an infinity): those still count as numbers for the table's shape.
 pub(crate) fn looks_number(cell: &str) -> bool {
-    parse_number(cell, DecimalMark::Dot).is_ok() || parse_number(cell, DecimalMark::Comma).is_ok()
+    [DecimalMark::Dot, DecimalMark::Comma].iter().any(|mark| {
+        matches!(
+            parse_number(cell, *mark),
+            Ok(_) | Err(NumberError::TooLarge | NumberError::NotFinite)
+        )
+    })
 }
 
-/// A cell split into sign, numeric core and the symbol or unit around it.
+/// A cell split into sign, numeric core, exponent and the symbol or unit around it.
 struct Parts<'a> {
     negative: bool,
     core: &'a str,
+    /// The exponent's sign and digits ("+03", "5"), when the cell is in scientific notation.
+    exponent: Option<&'a str>,
     affix: Option<String>,
 }
 
@@ -177,7 +220,13 @@ fn split_affixes(cell: &str) -> Result<Parts<'_>, NumberError> {
         .find(|(_, c)| !(c.is_ascii_digit() || matches!(c, '.' | ',' | '\'') || is_group_space(*c)))
         .map_or(s.len(), |(i, _)| i);
     let core = s[..core_len].trim_end_matches(is_group_space);
-    let tail = s[core_len..].trim();
+    // An exponent follows the mantissa directly: "1e5", never "1 e5".
+    let (exponent, rest) = if core.len() == core_len {
+        split_exponent(&s[core_len..])
+    } else {
+        (None, &s[core_len..])
+    };
+    let tail = rest.trim();
     if !core.chars().any(|c| c.is_ascii_digit()) {
         return Err(NumberError::NotANumber);
     }
@@ -194,12 +243,35 @@ fn split_affixes(cell: &str) -> Result<Parts<'_>, NumberError> {
     Ok(Parts {
         negative,
         core,
+        exponent,
         affix,
     })
 }
 
-/// Reads digits and separators under `mark`; see the module doc for the grouping rule.
-fn parse_core(core: &str, mark: DecimalMark) -> Result<f64, NumberError> {
+/// An exponent (`e` or `E`, an optional `+`, `-` or `−`, digits) at the start of `s`, and what
+/// follows it; `(None, s)` when `s` does not start with one.
+fn split_exponent(s: &str) -> (Option<&str>, &str) {
+    let Some(rest) = s.strip_prefix(['e', 'E']) else {
+        return (None, s);
+    };
+    let sign_len = rest
+        .chars()
+        .next()
+        .filter(|c| matches!(c, '+' | '-' | '\u{2212}'))
+        .map_or(0, char::len_utf8);
+    let digits = rest[sign_len..]
+        .find(|c: char| !c.is_ascii_digit())
+        .unwrap_or(rest.len() - sign_len);
+    if digits == 0 {
+        return (None, s);
+    }
+    let end = sign_len + digits;
+    (Some(&rest[..end]), &rest[end..])
+}
+
+/// Reads digits and separators under `mark`, times ten to `exponent`; see the module doc for
+/// the grouping rule. A mantissa in scientific notation has no thousands separators.
+fn parse_core(core: &str, exponent: Option<&str>, mark: DecimalMark) -> Result<f64, NumberError> {
     let decimal = match mark {
         DecimalMark::Dot => '.',
         DecimalMark::Comma => ',',
@@ -226,6 +298,9 @@ fn parse_core(core: &str, mark: DecimalMark) -> Result<f64, NumberError> {
         kinds.dedup();
         kinds
     };
+    if exponent.is_some() && !separator_kinds.is_empty() {
+        return Err(NumberError::Grouping);
+    }
     match separator_kinds.as_slice() {
         [] => digits.push_str(if whole.is_empty() { "0" } else { whole }),
         [kind] => {
@@ -251,12 +326,13 @@ fn parse_core(core: &str, mark: DecimalMark) -> Result<f64, NumberError> {
         digits.push('.');
         digits.push_str(f);
     }
-    let value: f64 = digits.parse().map_err(|_| NumberError::NotANumber)?;
-    if value.is_finite() {
-        Ok(value)
-    } else {
-        Err(NumberError::TooLarge)
+    if let Some(e) = exponent {
+        digits.push('e');
+        digits.push_str(&e.replace('\u{2212}', "-"));
     }
+    // Rust's float parsing rounds correctly, so every way of writing one decimal number (with
+    // or without grouping or exponent) gives the same f64.
+    digits.parse().map_err(|_| NumberError::NotANumber)
 }
 
 #[cfg(test)]
@@ -297,6 +373,7 @@ mod tests {
         assert_eq!(value("£3.50", Dot), Some(3.5));
         assert_eq!(value("EUR 7", Dot), Some(7.0));
         assert_eq!(value("1.2M", Dot), None);
+        assert_eq!(value("12x", Dot), None);
         assert_eq!(
             parse_number("12 apples", Dot),
             Err(NumberError::UnknownUnit("apples".into()))
@@ -315,10 +392,61 @@ mod tests {
     #[test]
     fn not_numbers() {
         for cell in [
-            "", "abc", "NaN", "inf", "1e5", "12-", "--3", "1,2,3", "1 23",
+            "", "abc", "12-", "--3", "1,2,3", "1 23", "12x", "12 e5", "1e", "e5",
         ] {
             assert!(!looks_number(cell), "{cell:?} read as a number");
         }
-        assert_eq!(value(&"9".repeat(400), Dot), None);
+    }
+
+    /// (cell, mark, the value or the error).
+    fn check(cell: &str, mark: DecimalMark, expected: Result<f64, NumberError>) {
+        let got = parse_number(cell, mark).map(|n| n.value);
+        assert_eq!(got, expected, "{cell:?} with a {} mark", mark.as_str());
+    }
+
+    #[test]
+    fn scientific_notation() {
+        check("1e5", Dot, Ok(1e5));
+        check("1E5", Comma, Ok(1e5));
+        check("1.5E+03", Dot, Ok(1500.0));
+        check("2,5e3", Comma, Ok(2500.0));
+        check("-4E-1", Dot, Ok(-0.4));
+        check("4e\u{2212}1", Dot, Ok(0.4));
+        check("1.5e3 kg", Dot, Ok(1500.0));
+        check("$2e3", Dot, Ok(2000.0));
+        // The same decimal number written two ways is the same f64.
+        check("1.2345e3", Dot, Ok("1234.5".parse().unwrap()));
+        // No grouping in a mantissa, and the file's mark only.
+        check("1,500e3", Dot, Err(NumberError::Grouping));
+        check("1.5e3", Comma, Err(NumberError::Grouping));
+        check("1.e3", Dot, Err(NumberError::Grouping));
+    }
+
+    #[test]
+    fn infinities_and_oversized_values_are_refused_but_look_like_numbers() {
+        for cell in [
+            "inf",
+            "-inf",
+            "+Infinity",
+            "NaN",
+            "nan",
+            "\u{221e}",
+            "\u{2212}\u{221e}",
+        ] {
+            check(cell, Dot, Err(NumberError::NotFinite));
+            assert!(looks_number(cell), "{cell}");
+        }
+        // The bound, 10^15, and the first values past it.
+        check("1000000000000000", Dot, Ok(1e15));
+        check("-1e15", Dot, Ok(-1e15));
+        check("1,000,000,000,000,000.0", Dot, Ok(1e15));
+        check("1000000000000000.5", Dot, Err(NumberError::TooLarge));
+        check("1000000000000001", Dot, Err(NumberError::TooLarge));
+        check("1e16", Dot, Err(NumberError::TooLarge));
+        check(&"9".repeat(400), Dot, Err(NumberError::TooLarge));
+        check("1e99999999999999999999", Dot, Err(NumberError::TooLarge));
+        assert!(looks_number(&"9".repeat(400)));
+        // Tiny values are values.
+        check("1e-300", Dot, Ok(1e-300));
     }
 }

@@ -1,0 +1,178 @@
+//! The misreads a robustness run of about 4,000 mutated files found, one named test each; every
+//! test here failed (or, for the work caps, did not finish) before its fix. The rule they hold
+//! intake to: a number that drives an order is right or absent, a reinterpretation is a warning
+//! and a rejected cell an error with its row, column and text.
+//!
+//! Kept apart from: the format features read on clean files (`formats`), where errors point
+//! (`errors`) and generated inputs (`robustness`).
+
+use morrowcast_engine::calendar::Frequency;
+use morrowcast_engine::intake::{read, DecimalMark, IntakeReport, Layout};
+
+/// What one read must give. `errors` are compared whole, as (row, column, text); the other
+/// fields only when set. `warned`: for each list, some warning holds all of its words.
+#[derive(Default)]
+struct Expect<'a> {
+    errors: Vec<(usize, &'a str, &'a str)>,
+    items: Option<Vec<(&'a str, Vec<Option<f64>>)>>,
+    periods: Option<Vec<&'a str>>,
+    warned: Vec<Vec<&'a str>>,
+    decimal: Option<DecimalMark>,
+    layout: Option<Layout>,
+    frequency: Option<Frequency>,
+}
+
+fn check(input: &str, expected: Expect<'_>) -> IntakeReport {
+    let r = read(input);
+    let errors: Vec<(usize, &str, &str)> = r
+        .errors
+        .iter()
+        .map(|e| (e.row, e.column.as_str(), e.text.as_str()))
+        .collect();
+    assert_eq!(
+        errors, expected.errors,
+        "errors of {input:?}: {:#?}",
+        r.errors
+    );
+    if let Some(items) = &expected.items {
+        let got: Vec<(&str, Vec<Option<f64>>)> = r
+            .items
+            .iter()
+            .map(|i| (i.name.as_str(), i.values.clone()))
+            .collect();
+        assert_eq!(&got, items, "items of {input:?}");
+    }
+    if let Some(periods) = &expected.periods {
+        let got: Vec<String> = r.items[0].periods.iter().map(|p| p.to_string()).collect();
+        assert_eq!(&got, periods, "periods of {input:?}");
+    }
+    for words in &expected.warned {
+        assert!(
+            r.warnings
+                .iter()
+                .any(|w| words.iter().all(|word| w.contains(word))),
+            "no warning with {words:?} for {input:?}: {:#?}",
+            r.warnings
+        );
+    }
+    if let Some(mark) = expected.decimal {
+        assert_eq!(r.decimal, mark, "decimal mark of {input:?}");
+    }
+    if let Some(layout) = expected.layout {
+        assert_eq!(r.layout, layout, "layout of {input:?}");
+    }
+    if let Some(frequency) = expected.frequency {
+        assert_eq!(r.frequency, frequency, "frequency of {input:?}");
+    }
+    r
+}
+
+fn some(values: &[f64]) -> Vec<Option<f64>> {
+    values.iter().map(|v| Some(*v)).collect()
+}
+
+// 1. An unquoted comma in a comma-delimited file is a delimiter, so "1.250" there is one and a
+// quarter, never 1250.
+#[test]
+fn comma_file_with_three_decimals_reads_a_dot_mark() {
+    check(
+        "month,sales\n2024-01,1.250\n2024-02,2.500\n2024-03,0.125\n",
+        Expect {
+            items: Some(vec![("sales", some(&[1.25, 2.5, 0.125]))]),
+            decimal: Some(DecimalMark::Dot),
+            ..Expect::default()
+        },
+    );
+    // Decimal commas are still read where they can be: inside quotes.
+    check(
+        "month,sales\n2024-01,\"1,250\"\n2024-02,\"2,5\"\n",
+        Expect {
+            items: Some(vec![("sales", some(&[1.25, 2.5]))]),
+            decimal: Some(DecimalMark::Comma),
+            ..Expect::default()
+        },
+    );
+}
+
+#[test]
+fn trailing_garbage_after_a_number_is_an_error() {
+    check(
+        "month,sales\n2024-01,5\n2024-02,12x\n2024-03,7\n",
+        Expect {
+            errors: vec![(3, "sales", "12x")],
+            items: Some(vec![("sales", vec![Some(5.0), None, Some(7.0)])]),
+            ..Expect::default()
+        },
+    );
+}
+
+// 4. Scientific notation is a number; infinities and NaN are errors at their cell, and neither
+// changes the layout.
+#[test]
+fn scientific_notation_is_read_as_numbers() {
+    check(
+        "month,a,b\n2024-01,1e5,2\n2024-02,1.5E+03,3\n2024-03,2,4\n",
+        Expect {
+            items: Some(vec![
+                ("a", some(&[1e5, 1500.0, 2.0])),
+                ("b", some(&[2.0, 3.0, 4.0])),
+            ]),
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    check(
+        "month;a\n2024-01;2,5e3\n2024-02;1,5\n2024-03;-4E-1\n",
+        Expect {
+            items: Some(vec![("a", some(&[2500.0, 1.5, -0.4]))]),
+            decimal: Some(DecimalMark::Comma),
+            ..Expect::default()
+        },
+    );
+}
+
+#[test]
+fn infinities_and_nan_are_errors_at_their_cell() {
+    for word in ["inf", "-inf", "NaN", "Infinity"] {
+        // Two of the column's three cells: before the fix the column became item names.
+        let text = format!("month,a,b\n2024-01,{word},2\n2024-02,{word},3\n2024-03,3,4\n");
+        check(
+            &text,
+            Expect {
+                errors: vec![(2, "a", word), (3, "a", word)],
+                items: Some(vec![
+                    ("a", vec![None, None, Some(3.0)]),
+                    ("b", some(&[2.0, 3.0, 4.0])),
+                ]),
+                layout: Some(Layout::Wide),
+                ..Expect::default()
+            },
+        );
+    }
+}
+
+// 7. A value that would overflow the computations is refused at its cell.
+#[test]
+fn values_too_large_to_compute_with_are_errors() {
+    let huge = format!("1{}", "0".repeat(155));
+    let text = format!("month,sales\n2024-01,5\n2024-02,{huge}\n2024-03,7\n");
+    check(
+        &text,
+        Expect {
+            errors: vec![(3, "sales", huge.as_str())],
+            items: Some(vec![("sales", vec![Some(5.0), None, Some(7.0)])]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "month,sales\n2024-01,1000000000000000\n2024-02,-1000000000000000\n2024-03,1000000000000001\n2024-04,1e16\n",
+        Expect {
+            errors: vec![
+                (4, "sales", "1000000000000001"),
+                (5, "sales", "1e16"),
+            ],
+            items: Some(vec![("sales", vec![Some(1e15), Some(-1e15), None, None])]),
+            ..Expect::default()
+        },
+    );
+}
