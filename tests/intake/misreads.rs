@@ -94,6 +94,53 @@ fn comma_file_with_three_decimals_reads_a_dot_mark() {
     );
 }
 
+// 2. A bad cell in the first data row is an error at its cell; the header stays the header.
+#[test]
+fn bad_cell_in_the_first_data_row_is_reported_not_a_title() {
+    check(
+        "month,sales\n2024-01,abc\n2024-02,5\n2024-03,6\n",
+        Expect {
+            errors: vec![(2, "sales", "abc")],
+            items: Some(vec![("sales", vec![None, Some(5.0), Some(6.0)])]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "item,month,qty\nOak tray,2024-01,lots\nOak tray,2024-02,5\nOak tray,2024-03,6\n",
+        Expect {
+            errors: vec![(2, "qty", "lots")],
+            items: Some(vec![("Oak tray", some(&[5.0, 6.0]))]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "2024-01,abc\n2024-02,5\n2024-03,6\n",
+        Expect {
+            errors: vec![(1, "column 2", "abc")],
+            items: Some(vec![("Series 1", vec![None, Some(5.0), Some(6.0)])]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "demand\n?\n5\n6\n",
+        Expect {
+            errors: vec![(2, "demand", "?")],
+            items: Some(vec![("demand", vec![None, Some(5.0), Some(6.0)])]),
+            ..Expect::default()
+        },
+    );
+    // A title line above the header is still a title.
+    check(
+        "Sales report, shop 2\nmonth,sales\n2024-01,oops\n2024-02,2\n2024-03,3\n",
+        Expect {
+            errors: vec![(3, "sales", "oops")],
+            items: Some(vec![("sales", vec![None, Some(2.0), Some(3.0)])]),
+            warned: vec![vec!["line 1", "title"]],
+            ..Expect::default()
+        },
+    );
+}
+
 #[test]
 fn trailing_garbage_after_a_number_is_an_error() {
     check(

@@ -7,10 +7,15 @@
 //!
 //! Header rule: a header-like record has a non-empty cell, no cell that reads as a number or a
 //! period, and (in a table of two or more columns) at least two non-empty cells; a data-like
-//! record has more than half of its non-empty cells reading as numbers or periods. The header is
-//! the header-like record just above the first data-like record among the first six records;
-//! when none of them is data-like, the first header-like record. Records above the header, or
-//! above the first data-like record when there is no header, are title lines: reported as
+//! record has more than half of its non-empty cells reading as numbers or periods. Among the
+//! first six records, the header is the last header-like record above the first data-like
+//! record; the records between the two are data rows whose bad cells are reported (a first row
+//! with a bad cell is a data row with an error, never a title). In a one-column text nothing
+//! tells a title from a header, or a header from a word in the first data cell, so there the
+//! header is the first header-like record and everything below it is data. When there is no
+//! header, the data starts at the first record with a cell that reads as a number or a period.
+//! When none of the six is data-like, the header is the first header-like record. Records above
+//! the header, or above the data when there is no header, are title lines: reported as
 //! warnings, not read.
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
@@ -141,28 +146,26 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     let non_blank: Vec<usize> = (0..records.len())
         .filter(|i| !records[*i].is_blank())
         .collect();
-    let mut header_at = None;
-    let mut data_at = None;
-    let mut previous: Option<usize> = None;
-    for &i in non_blank.iter().take(HEADER_SEARCH) {
-        if data_like(&records[i]) {
-            data_at = Some(i);
-            header_at = previous.filter(|p| header_like(&records[*p], mode_width));
-            break;
+    let window: Vec<usize> = non_blank.iter().take(HEADER_SEARCH).copied().collect();
+    let header_like_at = |i: &&usize| header_like(&records[**i], mode_width);
+    let (header_at, body_start) = match window.iter().position(|i| data_like(&records[*i])) {
+        Some(k) => {
+            let above = &window[..k];
+            let header = if mode_width >= 2 {
+                above.iter().rfind(header_like_at)
+            } else {
+                above.iter().find(header_like_at)
+            };
+            let first_data = above
+                .iter()
+                .find(|i| records[**i].cells.iter().any(|c| reads_as_data(c)))
+                .unwrap_or(&window[k]);
+            (header.copied(), *header.unwrap_or(first_data))
         }
-        previous = Some(i);
-    }
-    if data_at.is_none() {
-        header_at = non_blank
-            .iter()
-            .take(HEADER_SEARCH)
-            .copied()
-            .find(|i| header_like(&records[*i], mode_width));
-    }
-    let body_start = match (header_at, data_at) {
-        (Some(h), _) => h,
-        (None, Some(d)) => d,
-        (None, None) => non_blank.first().copied().unwrap_or(0),
+        None => {
+            let header = window.iter().find(header_like_at).copied();
+            (header, header.or(window.first().copied()).unwrap_or(0))
+        }
     };
     let mut rest = records.split_off(body_start);
     let titles: Vec<Record> = records.into_iter().filter(|r| !r.is_blank()).collect();
