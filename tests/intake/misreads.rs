@@ -6,8 +6,9 @@
 //! Kept apart from: the format features read on clean files (`formats`), where errors point
 //! (`errors`) and generated inputs (`robustness`).
 
-use morrowcast_engine::calendar::Frequency;
+use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::intake::{read, DecimalMark, IntakeReport, Layout};
+use morrowcast_engine::settings::MAX_HORIZON;
 
 /// What one read must give. `errors` are compared whole, as (row, column, text); the other
 /// fields only when set. `warned`: for each list, some warning holds all of its words.
@@ -196,6 +197,135 @@ fn infinities_and_nan_are_errors_at_their_cell() {
             },
         );
     }
+}
+
+// 5. Compact dates, as exports write them.
+#[test]
+fn compact_dates_are_read_as_dates() {
+    let r = check(
+        "date,sales\n20240101,5\n20240102,6\n20240103,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            periods: Some(vec!["2024-01-01", "2024-01-02", "2024-01-03"]),
+            frequency: Some(Frequency::Daily),
+            ..Expect::default()
+        },
+    );
+    assert!(
+        r.date_format.as_deref().unwrap_or("").contains("20240101"),
+        "{:?}",
+        r.date_format
+    );
+    check(
+        "month,sales\n202401,5\n202402,6\n202403,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            periods: Some(vec!["2024-01", "2024-02", "2024-03"]),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    // One impossible date among compact dates is an error at its cell, not a value column.
+    check(
+        "date,sales\n20240101,5\n20240132,6\n20240103,7\n20240104,8\n",
+        Expect {
+            errors: vec![(3, "date", "20240132")],
+            items: Some(vec![("sales", vec![Some(5.0), None, Some(7.0), Some(8.0)])]),
+            ..Expect::default()
+        },
+    );
+}
+
+// 6. A period far from all the others is a typo: an error at its cell, not thousands of gaps.
+#[test]
+fn a_mistyped_year_is_an_error_not_a_fill() {
+    let mut text = String::from("month,a,b,c,d\n");
+    for m in 0..24 {
+        text.push_str(&format!("{}-{:02},1,2,3,4\n", 2022 + m / 12, m % 12 + 1));
+    }
+    text.push_str("9999-12,5,6,7,8\n");
+    let r = check(
+        &text,
+        Expect {
+            errors: vec![(26, "month", "9999-12")],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(r.gaps_filled, 0);
+    assert_eq!(r.items[0].values.len(), 24);
+    // The same typo inside the years a forecast can reach.
+    let text = text.replace("9999-12", "2204-12");
+    let r = check(
+        &text,
+        Expect {
+            errors: vec![(26, "month", "2204-12")],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(r.gaps_filled, 0);
+}
+
+#[test]
+fn dates_far_apart_are_an_error_not_a_fill() {
+    // 2000-01-01 plus 99,990 days is 2273-10-07 (day arithmetic, common practice).
+    check(
+        "date,sales\n2000-01-01,1\n2273-10-07,2\n",
+        Expect {
+            errors: vec![(3, "date", "2273-10-07")],
+            items: Some(vec![("sales", some(&[1.0]))]),
+            ..Expect::default()
+        },
+    );
+}
+
+/// Labels of `first` and the `n - 1` periods after it, one per row, read back.
+fn read_labels(first: Period, n: i64) -> IntakeReport {
+    let mut text = String::from("period,qty\n");
+    for i in 0..n {
+        text.push_str(&format!("{},1\n", first.offset(i)));
+    }
+    read(&text)
+}
+
+// Every period label the engine writes (a history's periods and a forecast of up to
+// MAX_HORIZON periods after them) reads back as the same period. A history is refused after
+// 9633 so that its forecast never needs a five-digit year; a written label past that year is
+// refused as a history with that reason, never misread or unreadable. (The label grammar on its
+// own is checked up to year 9999 in the engine's period tests.)
+#[test]
+fn written_period_labels_read_back() {
+    let mut accepted = 0;
+    for year in [1000, 1969, 2024, 9633, 9634, 9999] {
+        for last in [
+            Period::day(year, 12, 31),
+            Period::week_containing(year, 12, 20),
+            Period::month(year, 12),
+            Period::quarter(year, 4),
+        ] {
+            if read_labels(last.offset(-1), 2).has_errors() {
+                assert!(year > 9633, "history ending {last} refused");
+                continue;
+            }
+            accepted += 1;
+            let written = MAX_HORIZON as i64 + 2;
+            let back = read_labels(last.offset(-1), written);
+            for e in &back.errors {
+                assert!(
+                    e.message.contains("no later than 9633"),
+                    "label {} after {last}: {}",
+                    e.text,
+                    e.message
+                );
+            }
+            let periods = &back.items[0].periods;
+            let expected: Vec<Period> = (0..written)
+                .map(|i| last.offset(i - 1))
+                .take(written as usize - back.errors.len())
+                .collect();
+            assert_eq!(periods, &expected, "after {last}");
+        }
+    }
+    assert_eq!(accepted, 16);
 }
 
 // 7. A value that would overflow the computations is refused at its cell.

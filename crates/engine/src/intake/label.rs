@@ -13,7 +13,8 @@
 //!   (a month name and two digits is Excel's "mmm-yy": month and year, never a day);
 //! - quarters `2024 Q1`, `2024-Q1`, `2024Q1`, `Q1 2024`, `Q1-24`;
 //! - ISO weeks `2024-W05`, `2024W05`, `2024 W5`, `W05 2024`;
-//! - plain whole numbers (`2024`, `7`): years or row positions, decided by the column.
+//! - plain whole numbers (`2024`, `7`, `20240131`, `202401`): years, row positions, 8-digit dates
+//!   or 6-digit months, decided by the column ([`super::period`]).
 //!
 //! Two-digit years follow the POSIX `strptime` `%y` rule (from memory): 69–99 are 1969–1999,
 //! 00–68 are 2000–2068. Month names are English (full, three letters, or "Sept").

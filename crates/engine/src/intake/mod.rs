@@ -20,7 +20,8 @@
 //!    warning; otherwise comma in semicolon files, dot elsewhere), and each value cell, with
 //!    currency symbols and units stripped (listed in that module's doc) and reported once.
 //! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
-//!    from all rows (the ambiguity rule is in `order`'s doc), and the frequency the dates imply.
+//!    from all rows (the ambiguity rule is in `order`'s doc), the frequency the dates imply, and
+//!    the periods refused as likely typos.
 //! 5. `build`: one item per value column (single, wide) or per item name (long), with a
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
 //!
@@ -35,8 +36,13 @@
 //!   otherwise an error on the first row whose readings differ (the report is then day-first).
 //! - "Mar-24" is March 2024 (a month name with two digits is month and year); two-digit years
 //!   are 1969–2068; month names are English.
-//! - Whole numbers in the first column are years (1800–2200) or row positions (1, 2, 3, ...)
-//!   only when dense; otherwise they are values.
+//! - Whole numbers in the first column are years (1800–2200), row positions (1, 2, 3, ...),
+//!   8-digit dates (20240131) or 6-digit months (202401) only when the whole column reads so;
+//!   otherwise they are values. The report's period description says which.
+//! - Periods refused, each an error at its cell (the row is not read): a year after 9633 (a
+//!   forecast from it must still have four-digit labels: every period label the engine writes
+//!   is one this reader reads back), and a period beyond a gap of more than max(100, 2 × the
+//!   periods present): a likely typo, not thousands of filled gaps.
 //! - Numbers: scientific notation (`1e5`, `1.5E+03`, `2,5e3` with a decimal comma) is read;
 //!   `inf`, `nan`, `infinity` and any value above 10^15 in size are errors at their cell (they
 //!   still count as numbers for the layout). 10^15: far above any sales quantity, exact in f64,

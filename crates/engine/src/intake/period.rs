@@ -6,16 +6,52 @@
 //!
 //! The frequency the dates imply is the rule of [`super::dates`]; the date order of `a/b/year`
 //! dates is decided in [`super::order`].
+//!
+//! Whole numbers: a column of them is years (all in [`PLAUSIBLE_YEARS`], 1800–2200), row
+//! positions (1, 2, 3, ...), 8-digit dates `YYYYMMDD` (more than half of the cells are valid
+//! dates with a year in [`PLAUSIBLE_YEARS`], every cell is digits; the others are errors) or
+//! 6-digit months `YYYYMM` (every cell a month of a year in [`PLAUSIBLE_YEARS`]); years,
+//! positions and 6-digit months also need their distinct values to cover at least half of their
+//! span, so scattered quantities are not taken for periods. The report's period description
+//! says which reading was made.
+//!
+//! Periods refused, each as an error at its cell (the row is then not read):
+//! - a year after [`LAST_YEAR`] (9633): a forecast reaches up to [`MAX_HORIZON`] periods (366
+//!   years at most) past the last period, and every period the engine writes must have a label
+//!   this reader reads back (four-digit years), so 9999 − 366 is the last year read;
+//! - a period far from all the others, a likely typo (9999-12 or 2204-12 among the 2020s): the
+//!   distinct periods are split wherever more than `max(100, 2 × N)` periods are missing between
+//!   neighbours (N the number of distinct periods in the column); the part holding the most
+//!   periods is kept (the earliest of equal parts) and every period outside it is an error,
+//!   instead of thousands of filled gaps. Gaps up to that size are filled, with a warning
+//!   listing them. For dates the frequency is then inferred again from the dates kept.
+
+use std::ops::RangeInclusive;
 
 use super::dates::{date_period, infer_frequency, two_way_days};
 use super::label::{parse_label, Family, Label};
-use crate::calendar::{days_from_civil, Frequency, Period};
+use crate::calendar::{civil_from_days, days_from_civil, is_valid_date, Frequency, Period};
+use crate::settings::MAX_HORIZON;
+
+/// Years that plain whole numbers and 8- or 6-digit dates may name: plausible years of sales
+/// history (our choice; two-digit years, 1969–2068, fall inside).
+pub(crate) const PLAUSIBLE_YEARS: RangeInclusive<i32> = 1800..=2200;
+
+/// The last year a period may fall in (see the module doc).
+pub(crate) const LAST_YEAR: i32 = 9999 - MAX_HORIZON as i32;
+
+/// Fewest missing periods between neighbours that can make a typo (see the module doc).
+const TYPO_GAP_FLOOR: usize = 100;
 
 /// How plain whole numbers in a period column are read.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub(crate) enum IntegerMeaning {
     Years,
     Positions,
+    /// `YYYYMMDD`.
+    CompactDates,
+    /// `YYYYMM`.
+    CompactMonths,
 }
 
 /// The outcome for a period column: one entry per input cell.
@@ -47,27 +83,43 @@ pub(crate) fn strong_family(cells: &[&str]) -> Option<Family> {
     (count * 2 > filled.len()).then_some(family)
 }
 
-/// Whether a column of whole numbers reads as years (all in 1800..=2200) or as row positions
-/// (starting at 1, strictly increasing when `in_row_order`); both need the distinct values to
-/// cover at least half of their span, so scattered quantities are not taken for periods.
+/// How a column of whole numbers reads as periods, if it does (see the module doc);
+/// `in_row_order` asks positions to increase down the column.
 pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<IntegerMeaning> {
-    let mut values = Vec::with_capacity(cells.len());
-    for cell in cells.iter().filter(|c| !c.is_empty()) {
+    let filled: Vec<&str> = cells.iter().copied().filter(|c| !c.is_empty()).collect();
+    if filled.is_empty() || !filled.iter().all(|c| c.bytes().all(|b| b.is_ascii_digit())) {
+        return None;
+    }
+    let dates = filled.iter().filter(|c| compact_date(c).is_some()).count();
+    if dates * 2 > filled.len() {
+        return Some(IntegerMeaning::CompactDates);
+    }
+    if filled.iter().all(|c| c.len() == 6) {
+        let months: Option<Vec<i64>> = filled
+            .iter()
+            .map(|c| match compact_month(c)? {
+                Label::Month { year, month } => Some(Period::month(year, month).ordinal()),
+                _ => None,
+            })
+            .collect();
+        return months
+            .filter(|m| dense(m))
+            .map(|_| IntegerMeaning::CompactMonths);
+    }
+    let mut values = Vec::with_capacity(filled.len());
+    for cell in &filled {
         match parse_label(cell) {
             Some(Label::Integer(n)) => values.push(n),
             _ => return None,
         }
     }
     let increasing = values.windows(2).all(|w| w[0] < w[1]);
-    let mut distinct = values.clone();
-    distinct.sort_unstable();
-    distinct.dedup();
-    let (first, last) = (*distinct.first()?, *distinct.last()?);
-    let dense = (last - first + 1) <= 2 * distinct.len() as i64;
-    if !dense {
+    if !dense(&values) {
         return None;
     }
-    if (1800..=2200).contains(&first) && (1800..=2200).contains(&last) {
+    let (first, last) = (*values.iter().min()?, *values.iter().max()?);
+    let plausible = |n: i64| i32::try_from(n).is_ok_and(|y| PLAUSIBLE_YEARS.contains(&y));
+    if plausible(first) && plausible(last) {
         Some(IntegerMeaning::Years)
     } else if first == 1 && (increasing || !in_row_order) {
         Some(IntegerMeaning::Positions)
@@ -76,12 +128,68 @@ pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<Inte
     }
 }
 
-/// Reads every cell of a period column. Empty cells are errors (a row needs its period).
+/// Whether the distinct values cover at least half of their span.
+fn dense(values: &[i64]) -> bool {
+    let mut distinct = values.to_vec();
+    distinct.sort_unstable();
+    distinct.dedup();
+    match (distinct.first(), distinct.last()) {
+        (Some(first), Some(last)) => (last - first + 1) <= 2 * distinct.len() as i64,
+        _ => false,
+    }
+}
+
+/// An 8-digit date `YYYYMMDD` with a plausible year.
+fn compact_date(cell: &str) -> Option<Label> {
+    if cell.len() != 8 || !cell.bytes().all(|b| b.is_ascii_digit()) {
+        return None;
+    }
+    let (year, month, day) = (
+        cell[..4].parse().ok()?,
+        cell[4..6].parse().ok()?,
+        cell[6..].parse().ok()?,
+    );
+    (PLAUSIBLE_YEARS.contains(&year) && is_valid_date(year, month, day)).then_some(Label::Date {
+        year,
+        month,
+        day,
+    })
+}
+
+/// A 6-digit month `YYYYMM` with a plausible year.
+fn compact_month(cell: &str) -> Option<Label> {
+    if cell.len() != 6 || !cell.bytes().all(|b| b.is_ascii_digit()) {
+        return None;
+    }
+    let (year, month): (i32, u32) = (cell[..4].parse().ok()?, cell[4..].parse().ok()?);
+    (PLAUSIBLE_YEARS.contains(&year) && (1..=12).contains(&month))
+        .then_some(Label::Month { year, month })
+}
+
+/// Reads every cell of a period column. Empty cells are errors (a row needs its period), and so
+/// are the periods the module doc refuses.
 pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> PeriodColumn {
-    let labels: Vec<Option<Label>> = cells.iter().map(|c| parse_label(c)).collect();
-    let family = match integers {
-        Some(_) => Family::Integer,
-        None => majority_family(&labels).unwrap_or(Family::Date),
+    let (labels, family, compact): (Vec<Option<Label>>, Family, Option<&str>) = match integers {
+        Some(IntegerMeaning::CompactDates) => (
+            cells.iter().map(|c| compact_date(c)).collect(),
+            Family::Date,
+            Some("8-digit year-month-day dates"),
+        ),
+        Some(IntegerMeaning::CompactMonths) => (
+            cells.iter().map(|c| compact_month(c)).collect(),
+            Family::Month,
+            Some("6-digit year-month months"),
+        ),
+        Some(_) => (
+            cells.iter().map(|c| parse_label(c)).collect(),
+            Family::Integer,
+            None,
+        ),
+        None => {
+            let labels: Vec<Option<Label>> = cells.iter().map(|c| parse_label(c)).collect();
+            let family = majority_family(&labels).unwrap_or(Family::Date);
+            (labels, family, None)
+        }
     };
     let example = cells
         .iter()
@@ -102,11 +210,11 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         errors.push((i, message));
     }
     let keep = |l: &Option<Label>| l.filter(|l| l.family() == family);
-    let (periods, frequency, kind) = match family {
+    let mut days: Option<Vec<Option<i64>>> = None;
+    let (mut periods, mut frequency, kind) = match family {
         Family::Date | Family::TwoWay => {
-            let mut days: Vec<Option<i64>> = Vec::with_capacity(labels.len());
             let mut kind = "year-month-day dates";
-            if family == Family::TwoWay {
+            let column_days: Vec<Option<i64>> = if family == Family::TwoWay {
                 let order = super::order::decide_order(&labels);
                 kind = if order.day_first {
                     "day-first dates"
@@ -117,28 +225,32 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                 errors.extend(order.errors);
                 // Rows that do not fit the chosen order give no date (their error is above);
                 // an ambiguity error keeps every row, read day-first.
-                days.extend(
-                    labels
-                        .iter()
-                        .map(|l| two_way_days(keep(l)?, order.day_first)),
-                );
+                labels
+                    .iter()
+                    .map(|l| two_way_days(keep(l)?, order.day_first))
+                    .collect()
             } else {
-                if labels.iter().flatten().any(|l| l.family() == Family::Date)
-                    && example.chars().any(char::is_alphabetic)
-                {
+                if example.chars().any(char::is_alphabetic) {
                     kind = "dates with month names";
                 }
-                days.extend(labels.iter().map(|l| match keep(l)? {
-                    Label::Date { year, month, day } => Some(days_from_civil(year, month, day)),
-                    _ => None,
-                }));
+                labels
+                    .iter()
+                    .map(|l| match keep(l)? {
+                        Label::Date { year, month, day } => Some(days_from_civil(year, month, day)),
+                        _ => None,
+                    })
+                    .collect()
+            };
+            let mut column_days = column_days;
+            for (i, d) in column_days.iter_mut().enumerate() {
+                if d.is_some_and(|d| civil_from_days(d).0 > LAST_YEAR) {
+                    errors.push((i, too_late()));
+                    *d = None;
+                }
             }
-            let frequency = infer_frequency(&days.iter().flatten().copied().collect::<Vec<_>>());
-            let periods = days
-                .iter()
-                .map(|d| d.map(|d| date_period(d, frequency)))
-                .collect();
-            (periods, frequency, kind)
+            let (periods, frequency) = dated(&column_days);
+            days = Some(column_days);
+            (periods, frequency, compact.unwrap_or(kind))
         }
         Family::Month => (
             map_labels(&labels, family, |l| match l {
@@ -146,7 +258,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                 _ => None,
             }),
             Frequency::Monthly,
-            "months",
+            compact.unwrap_or("months"),
         ),
         Family::Quarter => (
             map_labels(&labels, family, |l| match l {
@@ -178,6 +290,33 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             }
         }
     };
+    for (i, p) in periods.iter_mut().enumerate() {
+        if p.and_then(Period::calendar_year)
+            .is_some_and(|y| y > LAST_YEAR)
+        {
+            errors.push((i, too_late()));
+            *p = None;
+        }
+    }
+    let strays = stray_periods(&periods);
+    if !strays.is_empty() {
+        for (i, message) in strays {
+            periods[i] = None;
+            if let Some(days) = days.as_mut() {
+                days[i] = None;
+            }
+            errors.push((i, message));
+        }
+        // A stray date can hide the frequency of the others (monthly dates and one typo on
+        // the 15th read as daily): infer it again from the dates kept, and check once more.
+        if let Some(days) = &days {
+            (periods, frequency) = dated(days);
+            for (i, message) in stray_periods(&periods) {
+                periods[i] = None;
+                errors.push((i, message));
+            }
+        }
+    }
     let apart = match (family, frequency) {
         (Family::Date | Family::TwoWay, Frequency::Weekly) => ", a week apart",
         (Family::Date | Family::TwoWay, Frequency::Monthly) => ", a month apart",
@@ -192,6 +331,72 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         errors,
         warnings,
     }
+}
+
+/// The periods of dates (day numbers) at the frequency they imply.
+fn dated(days: &[Option<i64>]) -> (Vec<Option<Period>>, Frequency) {
+    let frequency = infer_frequency(&days.iter().flatten().copied().collect::<Vec<_>>());
+    let periods = days
+        .iter()
+        .map(|d| d.map(|d| date_period(d, frequency)))
+        .collect();
+    (periods, frequency)
+}
+
+fn too_late() -> String {
+    format!(
+        "expected a year no later than {LAST_YEAR}, so that a forecast of up to {MAX_HORIZON} \
+         periods still has four-digit years: check the year"
+    )
+}
+
+/// The periods far from all the others (the module doc's rule), as (index, what was expected).
+pub(crate) fn stray_periods(periods: &[Option<Period>]) -> Vec<(usize, String)> {
+    let mut distinct: Vec<Period> = periods.iter().flatten().copied().collect();
+    distinct.sort_unstable();
+    distinct.dedup();
+    let limit = TYPO_GAP_FLOOR.max(2 * distinct.len()) as i64;
+    // Parts of the sorted distinct periods, split at every gap longer than the limit.
+    let mut parts: Vec<(usize, usize)> = Vec::new();
+    let mut start = 0;
+    for i in 1..=distinct.len() {
+        if i == distinct.len() || distinct[i - 1].steps_to(distinct[i]) - 1 > limit {
+            parts.push((start, i - 1));
+            start = i;
+        }
+    }
+    if parts.len() < 2 {
+        return Vec::new();
+    }
+    let mut kept = parts[0];
+    for part in &parts[1..] {
+        if part.1 - part.0 > kept.1 - kept.0 {
+            kept = *part;
+        }
+    }
+    let (first, last) = (distinct[kept.0], distinct[kept.1]);
+    periods
+        .iter()
+        .enumerate()
+        .filter_map(|(i, p)| {
+            let p = (*p)?;
+            let (steps, side) = if p < first {
+                (p.steps_to(first), "before")
+            } else if p > last {
+                (last.steps_to(p), "after")
+            } else {
+                return None;
+            };
+            Some((
+                i,
+                format!(
+                    "expected a period near the others in this column ({first} to {last}); \
+                     this one is {steps} periods {side} them, more than a gap of {limit} \
+                     periods allows: check its year"
+                ),
+            ))
+        })
+        .collect()
 }
 
 fn majority_family(labels: &[Option<Label>]) -> Option<Family> {
@@ -234,6 +439,133 @@ mod tests {
         assert_eq!(integer_meaning(&["1", "3", "2"], true), None);
         assert_eq!(integer_meaning(&["12", "15", "11"], true), None);
         assert_eq!(integer_meaning(&["1", "2", "x"], true), None);
+    }
+
+    #[test]
+    fn compact_columns() {
+        use IntegerMeaning::{CompactDates, CompactMonths};
+        let meaning = |cells: &[&str]| integer_meaning(cells, true);
+        assert_eq!(meaning(&["20240101", "20240102"]), Some(CompactDates));
+        assert_eq!(
+            meaning(&["20240101", "20240132", "20240103"]),
+            Some(CompactDates)
+        );
+        // More than half must be dates of a plausible year; every cell must be digits.
+        assert_eq!(meaning(&["20240101", "20240132"]), None);
+        assert_eq!(meaning(&["99990101", "99990102"]), None);
+        assert_eq!(meaning(&["20240101", "2024-01-02", "20240103"]), None);
+        assert_eq!(
+            meaning(&["202401", "202402", "202404"]),
+            Some(CompactMonths)
+        );
+        assert_eq!(meaning(&["202401", "202413"]), None);
+        assert_eq!(meaning(&["202401", "202501"]), None);
+        assert_eq!(meaning(&["123456", "123457"]), None);
+        let col = read_periods(&["20240101", "20240132", "20240103"], Some(CompactDates));
+        assert_eq!(col.frequency, Frequency::Daily);
+        assert_eq!(col.errors.len(), 1);
+        assert_eq!(col.errors[0].0, 1);
+        assert!(
+            col.description.starts_with("8-digit"),
+            "{}",
+            col.description
+        );
+        let col = read_periods(&["202401", "202402"], Some(CompactMonths));
+        assert_eq!(col.periods[1], Some(Period::month(2024, 2)));
+    }
+
+    /// (distinct months present after January 2000, as offsets, and the offsets refused).
+    fn check_strays(offsets: &[i64], refused: &[i64]) {
+        let start = Period::month(2000, 1);
+        let periods: Vec<Option<Period>> = offsets.iter().map(|o| Some(start.offset(*o))).collect();
+        let got: Vec<i64> = stray_periods(&periods)
+            .into_iter()
+            .map(|(i, _)| offsets[i])
+            .collect();
+        assert_eq!(got, refused, "{offsets:?}");
+    }
+
+    #[test]
+    fn strays_are_periods_beyond_a_gap_longer_than_max_100_or_twice_the_count() {
+        // Two periods: the limit is 100 missing periods between them; the later one goes.
+        check_strays(&[0, 101], &[]);
+        check_strays(&[0, 102], &[102]);
+        // Sixty periods and one more: the limit is 2 × 61 = 122 missing periods.
+        let mut sixty: Vec<i64> = (0..60).collect();
+        sixty.push(59 + 123);
+        check_strays(&sixty, &[]);
+        sixty.pop();
+        sixty.push(59 + 124);
+        check_strays(&sixty, &[59 + 124]);
+        // Before or after, and the larger part kept whichever side it is on.
+        check_strays(&[-5000, 0, 1, 2], &[-5000]);
+        check_strays(&[0, 1, 2, 9000, 9001, 9002, 9003], &[0, 1, 2]);
+        // Repeated periods count once, and every row of a stray period is refused.
+        check_strays(&[0, 0, 1, 5000, 5000], &[5000, 5000]);
+        check_strays(&[7], &[]);
+    }
+
+    #[test]
+    fn a_stray_date_does_not_decide_the_frequency() {
+        let mut cells: Vec<String> = (1..=12).map(|m| format!("2024-{m:02}-01")).collect();
+        cells.push("2042-01-15".to_string());
+        let cells: Vec<&str> = cells.iter().map(String::as_str).collect();
+        let col = read_periods(&cells, None);
+        assert_eq!(col.frequency, Frequency::Monthly);
+        assert_eq!(col.errors.len(), 1);
+        assert_eq!(col.errors[0].0, 12);
+        assert_eq!(col.periods[12], None);
+    }
+
+    /// The period a label of `p`'s frequency reads back as.
+    fn read_back(p: Period) -> Option<Period> {
+        let label = parse_label(&p.to_string())?;
+        match (label, p.frequency()) {
+            (Label::Date { year, month, day }, Frequency::Daily) => {
+                Some(Period::day(year, month, day))
+            }
+            (Label::Week { year, week }, Frequency::Weekly) => Some(Period::iso_week(year, week)),
+            (Label::Month { year, month }, Frequency::Monthly) => Some(Period::month(year, month)),
+            (Label::Quarter { year, quarter }, Frequency::Quarterly) => {
+                Some(Period::quarter(year, quarter))
+            }
+            (Label::Integer(n), Frequency::Yearly) => Some(Period::year(i32::try_from(n).ok()?)),
+            (Label::Integer(n), Frequency::Undated) => Some(Period::position(n)),
+            _ => None,
+        }
+    }
+
+    // Every period intake can read, and every period a forecast of up to MAX_HORIZON periods
+    // reaches from it, has a label this reader reads back as the same period.
+    #[test]
+    fn every_period_written_reads_back() {
+        for year in [1000, 1969, 2024, LAST_YEAR] {
+            for last in [
+                Period::day(year, 12, 31),
+                Period::week_containing(year, 12, 31),
+                Period::month(year, 12),
+                Period::quarter(year, 4),
+                Period::year(year),
+            ] {
+                for k in 0..=MAX_HORIZON as i64 {
+                    let p = last.offset(k);
+                    assert_eq!(read_back(p), Some(p), "{p}");
+                }
+            }
+        }
+        for n in [1, 100_000, 100_000 + MAX_HORIZON as i64] {
+            assert_eq!(read_back(Period::position(n)), Some(Period::position(n)));
+        }
+        // The edge of the history's years: 9633 read, 9634 refused.
+        let col = read_periods(&["9633-12", "9634-01"], None);
+        assert_eq!(col.periods, vec![Some(Period::month(LAST_YEAR, 12)), None]);
+        assert!(
+            col.errors[0].1.contains("no later than 9633"),
+            "{:?}",
+            col.errors
+        );
+        let col = read_periods(&["9633-12-31", "9634-01-01"], None);
+        assert_eq!(col.errors.len(), 1, "{:?}", col.errors);
     }
 
     #[test]
