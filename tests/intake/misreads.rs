@@ -154,6 +154,66 @@ fn trailing_garbage_after_a_number_is_an_error() {
     );
 }
 
+// 3. Nothing vanishes: an item without values, white-space spellings of one item, repeated
+// headers.
+#[test]
+fn item_with_no_values_is_reported() {
+    check(
+        "item,month,qty\nOak tray,2024-01,5\nOak tray,2024-02,6\nPine box,2024-01,n/a\nPine box,2024-02,\n",
+        Expect {
+            items: Some(vec![("Oak tray", some(&[5.0, 6.0]))]),
+            warned: vec![vec!["\"Pine box\"", "no values", "not planned"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "month,shop,web\n2024-01,1,\n2024-02,2,n/a\n",
+        Expect {
+            items: Some(vec![("shop", some(&[1.0, 2.0]))]),
+            warned: vec![vec!["\"web\"", "no values", "not planned"]],
+            ..Expect::default()
+        },
+    );
+}
+
+#[test]
+fn item_spellings_differing_in_white_space_are_one_item_with_a_warning() {
+    for (spelling, shown) in [
+        ("Oak tray ", "\"Oak tray \""),
+        ("Oak tray\t", "\"Oak tray\\t\""),
+        ("Oak tray\u{a0}", "\"Oak tray\\u{a0}\""),
+        (" Oak  tray", "\" Oak  tray\""),
+    ] {
+        let text = format!(
+            "item;month;qty\nOak tray;2024-01;5\n{spelling};2024-02;6\nOak tray;2024-03;7\n"
+        );
+        check(
+            &text,
+            Expect {
+                items: Some(vec![("Oak tray", some(&[5.0, 6.0, 7.0]))]),
+                warned: vec![vec![
+                    "\"Oak tray\" (lines 2 and 4)",
+                    &format!("{shown} (line 3)"),
+                    "one item",
+                ]],
+                ..Expect::default()
+            },
+        );
+    }
+}
+
+#[test]
+fn duplicate_wide_headers_are_renamed_with_a_warning() {
+    check(
+        "month,shop,shop\n2024-01,1,2\n",
+        Expect {
+            items: Some(vec![("shop", some(&[1.0])), ("shop (2)", some(&[2.0]))]),
+            warned: vec![vec!["\"shop\"", "\"shop (2)\"", "columns 2 and 3"]],
+            ..Expect::default()
+        },
+    );
+}
+
 // 4. Scientific notation is a number; infinities and NaN are errors at their cell, and neither
 // changes the layout.
 #[test]
@@ -352,4 +412,39 @@ fn values_too_large_to_compute_with_are_errors() {
             ..Expect::default()
         },
     );
+}
+
+// 8. Work proportional to the text: stray quotes, repeated headers, many items. (Before their
+// fixes the last two took hours at these sizes; timings belong in benches/speed.rs.)
+#[test]
+fn many_stray_quotes_are_read_whole() {
+    let text: String = std::iter::once("month,sales\n".to_string())
+        .chain((0..20_000).map(|i| format!("2024-01,\"{i}\n")))
+        .collect();
+    let r = read(&text);
+    assert!(r.errors.iter().all(|e| e.row <= 20_001));
+}
+
+#[test]
+fn many_repeated_headers_are_named_whole() {
+    let n = 20_000;
+    let text = format!(
+        "month,{}\n2024-01,{}\n",
+        vec!["a"; n].join(","),
+        vec!["1"; n].join(",")
+    );
+    let r = read(&text);
+    assert_eq!(r.items.len(), n);
+    assert_eq!(r.items[n - 1].name, format!("a ({n})"));
+}
+
+#[test]
+fn many_long_items_are_built_whole() {
+    let n = 50_000;
+    let text: String = std::iter::once("item,month,qty\n".to_string())
+        .chain((0..n).map(|i| format!("sku{i},2024-01,5\n")))
+        .collect();
+    let r = read(&text);
+    assert!(r.errors.is_empty(), "{:?}", &r.errors[..1]);
+    assert_eq!(r.items.len(), n);
 }

@@ -7,8 +7,23 @@
 //! Rules: single and wide tables must have one row per period (a repeated period is an error
 //! naming both lines; rows out of order are sorted, with a warning). Long tables may list rows in
 //! any order, and repeated (item, period) rows are summed, with a warning naming item, period and
-//! lines. Tables with no period column number their rows 1, 2, ...; a blank line inside such a
-//! table is a gap, while in dated tables blank lines are skipped with a warning.
+//! lines; a total above the values' bound (10^15, see [`super::number`]) is an error. Item names
+//! that differ only in white space (leading, trailing, repeated, tabs, no-break spaces) are one
+//! item, with a warning naming each spelling and its lines. Tables with no period column number
+//! their rows 1, 2, ...; a blank line inside such a table is a gap, while in dated tables blank
+//! lines are skipped with a warning.
+//!
+//! Nothing vanishes: an item whose cells are all empty or "n/a" is not built and a warning says
+//! it has no values; a value column whose header repeats another's gets " (2)", " (3)", ... and a
+//! warning names the columns.
+//!
+//! Work: an item holds one slot per period from its first to its last, so a few rows far apart
+//! could make many slots. Besides the typo rule for periods (in [`super::period`]) and
+//! [`MAX_PERIODS`] per item, all items together hold at most [`MAX_PERIODS`] plus
+//! [`SLOTS_PER_ROW`] slots per row read; an item that would pass that is an error, not read.
+//! So reading takes time and memory proportional to the text.
+
+use std::collections::{HashMap, HashSet};
 
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
@@ -21,6 +36,10 @@ use crate::calendar::{Frequency, Period};
 
 /// Longest run of periods one item may span (about 270 years of days).
 pub(crate) const MAX_PERIODS: i64 = 100_000;
+
+/// Slots (periods of items) allowed per row read, on top of [`MAX_PERIODS`] (our choice: a
+/// transaction log where most items sell a few times over years needs a few hundred per row).
+pub(crate) const SLOTS_PER_ROW: usize = 1_000;
 
 /// How many entries a warning lists before "and N more".
 const LISTED: usize = 8;
@@ -61,6 +80,23 @@ pub(crate) fn listing(entries: &[String]) -> String {
     }
 }
 
+/// "a", "a and b", "a, b and c"; past [`LISTED`] entries, "a, b, ... and N more".
+pub(crate) fn joined(entries: &[String]) -> String {
+    match entries {
+        [] => String::new(),
+        [one] => one.clone(),
+        _ if entries.len() > LISTED => listing(entries),
+        [rest @ .., last] => format!("{} and {last}", rest.join(", ")),
+    }
+}
+
+/// "line 3" or "lines 2 and 4".
+pub(crate) fn lines(numbers: &[usize]) -> String {
+    let numbers: Vec<String> = numbers.iter().map(usize::to_string).collect();
+    let noun = if numbers.len() == 1 { "line" } else { "lines" };
+    format!("{noun} {}", joined(&numbers))
+}
+
 struct Builder<'a> {
     table: &'a Table,
     plan: &'a Plan,
@@ -69,6 +105,10 @@ struct Builder<'a> {
     affixes: Vec<String>,
     affix_cells: usize,
     negatives: Vec<String>,
+    /// Slots all items may still take (see the module doc), and the whole allowance.
+    slots_left: usize,
+    slots: usize,
+    rows_read: usize,
 }
 
 /// One row of a long table: period, quantity (None when empty) and the record it came from.
@@ -81,6 +121,8 @@ struct Entry<'a> {
 }
 
 pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
+    let rows_read = table.rows.iter().filter(|r| !r.is_blank()).count();
+    let slots = MAX_PERIODS as usize + SLOTS_PER_ROW * rows_read;
     let mut b = Builder {
         table,
         plan,
@@ -89,6 +131,9 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         affixes: Vec::new(),
         affix_cells: 0,
         negatives: Vec::new(),
+        slots_left: slots,
+        slots,
+        rows_read,
     };
     for &j in &plan.ignored {
         b.out.warnings.push(format!(
@@ -96,6 +141,25 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
              quantity column",
             table.column_name(j)
         ));
+    }
+    for &j in &plan.empty {
+        let named = table
+            .header
+            .as_ref()
+            .is_some_and(|h| h.cells.get(j).is_some_and(|c| !c.is_empty()));
+        let marked = table
+            .rows
+            .iter()
+            .any(|r| r.cells.get(j).is_some_and(|c| !c.is_empty()));
+        if !(named || marked) {
+            continue;
+        }
+        let name = table.column_name(j);
+        b.out.warnings.push(if plan.layout == Layout::Long {
+            format!("column \"{name}\" is empty (every cell is empty or n/a) and was not used")
+        } else {
+            format!("\"{name}\" has no values (every cell is empty or n/a), so it was not planned")
+        });
     }
     let mut kept: Vec<&Record> = Vec::new();
     let mut blank_lines = Vec::new();
@@ -238,6 +302,23 @@ impl<'a> Builder<'a> {
         Some(steps + 1)
     }
 
+    /// Takes `len` slots for item `name`; `false`, with an error at `row` and `column`, when
+    /// all items together would pass the allowance of the module doc.
+    fn take_slots(&mut self, len: usize, name: &str, row: usize, column: usize) -> bool {
+        if len <= self.slots_left {
+            self.slots_left -= len;
+            return true;
+        }
+        let message = format!(
+            "expected the items' periods to fit in {} in all ({} rows read: {SLOTS_PER_ROW} per \
+             row, plus {MAX_PERIODS}); \"{name}\" would need {len} more, so it was not read: \
+             check for periods far from the rest",
+            self.slots, self.rows_read
+        );
+        self.error(row, column, name, message);
+        false
+    }
+
     fn gap_warning(&mut self, names: &[String], missing: &[String]) {
         if missing.is_empty() || names.is_empty() {
             return;
@@ -254,19 +335,13 @@ impl<'a> Builder<'a> {
         ));
     }
 
-    fn item_name(&self, value_index: usize, column: usize, taken: &[Item]) -> String {
-        let base = if self.table.header.is_some() {
+    /// The name of value column `column` (the `value_index`-th), before repeats are told apart.
+    fn base_name(&self, value_index: usize, column: usize) -> String {
+        if self.table.header.is_some() {
             self.table.column_name(column)
         } else {
             format!("Series {}", value_index + 1)
-        };
-        let mut name = base.clone();
-        let mut n = 2;
-        while taken.iter().any(|i| i.name == name) {
-            name = format!("{base} ({n})");
-            n += 1;
         }
-        name
     }
 
     fn single_or_wide(&mut self, mut entries: Vec<Entry<'a>>, dated: bool) {
@@ -308,7 +383,7 @@ impl<'a> Builder<'a> {
         let (Some(first), Some(last)) = (unique.first(), unique.last()) else {
             return;
         };
-        let (start, last_row) = (first.period, last.row);
+        let (start, last_row, first_line) = (first.period, last.row, first.row.line);
         let Some(len) = self.run(start, last.period, last_row, period_column) else {
             return;
         };
@@ -322,8 +397,9 @@ impl<'a> Builder<'a> {
             .collect();
         let mut items: Vec<Item> = Vec::new();
         let value_columns = self.plan.values.clone();
+        let mut names = Names::default();
         for (k, &j) in value_columns.iter().enumerate() {
-            let name = self.item_name(k, j, &items);
+            let name = names.unique(self.base_name(k, j), j);
             let mut values = vec![None; len as usize];
             let mut empty = Vec::new();
             let mut errors = 0;
@@ -338,6 +414,15 @@ impl<'a> Builder<'a> {
                     Err(()) => errors += 1,
                 }
             }
+            if values.iter().all(Option::is_none) {
+                if errors == 0 {
+                    self.out.warnings.push(format!(
+                        "\"{name}\" has no values (every cell is empty or n/a), so it was not \
+                         planned"
+                    ));
+                }
+                continue;
+            }
             if !empty.is_empty() {
                 self.out.warnings.push(format!(
                     "\"{name}\": {} read as gaps ({})",
@@ -345,12 +430,8 @@ impl<'a> Builder<'a> {
                     listing(&empty)
                 ));
             }
-            if values.iter().all(Option::is_none) {
-                if errors == 0 {
-                    self.out
-                        .warnings
-                        .push(format!("column \"{name}\" has no values and was left out"));
-                }
+            let header_line = self.table.header.as_ref().map_or(first_line, |h| h.line);
+            if !self.take_slots(len as usize, &name, header_line, j) {
                 continue;
             }
             let periods = (0..len).map(|i| start.offset(i)).collect();
@@ -360,6 +441,7 @@ impl<'a> Builder<'a> {
                 values,
             });
         }
+        self.out.warnings.extend(names.repeats());
         if dated {
             let names: Vec<String> = items.iter().map(|i| i.name.clone()).collect();
             self.out.gaps_filled += missing.len() * items.len();
@@ -386,5 +468,56 @@ impl<'a> Builder<'a> {
             ));
         }
         self.out
+    }
+}
+
+/// Unique item names for value columns: a repeated header gets " (2)", " (3)", ...; each
+/// repeat is told in a warning. Linear in the number of columns.
+#[derive(Default)]
+struct Names {
+    taken: HashSet<String>,
+    next_suffix: HashMap<String, usize>,
+    /// Each header text with the columns (index, name given) that carry it, in order.
+    headed: Vec<(String, Vec<(usize, String)>)>,
+    headed_at: HashMap<String, usize>,
+}
+
+impl Names {
+    fn unique(&mut self, base: String, column: usize) -> String {
+        let mut name = base.clone();
+        if !self.taken.insert(name.clone()) {
+            let n = self.next_suffix.entry(base.clone()).or_insert(2);
+            loop {
+                name = format!("{base} ({n})");
+                *n += 1;
+                if self.taken.insert(name.clone()) {
+                    break;
+                }
+            }
+        }
+        let at = *self.headed_at.entry(base.clone()).or_insert_with(|| {
+            self.headed.push((base, Vec::new()));
+            self.headed.len() - 1
+        });
+        self.headed[at].1.push((column, name.clone()));
+        name
+    }
+
+    /// One warning per header text carried by several columns.
+    fn repeats(&self) -> Vec<String> {
+        self.headed
+            .iter()
+            .filter(|(_, columns)| columns.len() > 1)
+            .map(|(base, columns)| {
+                let numbers: Vec<String> =
+                    columns.iter().map(|(j, _)| (j + 1).to_string()).collect();
+                let names: Vec<String> = columns.iter().map(|(_, n)| format!("\"{n}\"")).collect();
+                format!(
+                    "columns {} are headed \"{base}\"; they are read as {}",
+                    joined(&numbers),
+                    joined(&names)
+                )
+            })
+            .collect()
     }
 }

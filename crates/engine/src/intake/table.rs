@@ -213,6 +213,8 @@ pub(crate) struct Plan {
     pub values: Vec<usize>,
     /// Columns with cells that no role uses (long layout extras).
     pub ignored: Vec<usize>,
+    /// Columns whose cells are all empty or "n/a".
+    pub empty: Vec<usize>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -306,11 +308,15 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         Layout::Wide
     };
     ignored.sort_unstable();
+    let empty = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Empty)
+        .collect();
     Ok(Plan {
         layout,
         period,
         item_columns,
         values,
         ignored,
+        empty,
     })
 }

@@ -1,41 +1,77 @@
 //! Long tables (item, period, quantity): rows grouped by item in any order, repeated (item,
-//! period) rows summed with a warning, and each item's own run of periods with gaps.
+//! period) rows summed with a warning, spellings of one name that differ only in white space
+//! read as one item with a warning, and each item's own run of periods with gaps.
 //!
 //! Kept apart from: single and wide tables (in [`super`]), where a repeated period is an error.
 
 use std::collections::HashMap;
 
-use super::{count, listing, Builder, LongRow};
+use super::{count, lines, listing, Builder, LongRow};
 use crate::calendar::Period;
+use crate::intake::number::MAX_MAGNITUDE;
 use crate::intake::period::PeriodColumn;
 use crate::intake::text::Record;
 use crate::intake::Item;
 
+/// One item's rows as read, under the name of its first row.
+struct LongItem<'a> {
+    name: String,
+    rows: Vec<LongRow<'a>>,
+    /// Each spelling of the name as written (before trimming) and the lines that use it.
+    spellings: Vec<(String, Vec<usize>)>,
+}
+
+/// A spelling in quotes, with tabs and white space other than the plain space made visible.
+fn shown(spelling: &str) -> String {
+    let mut s = String::from("\"");
+    for c in spelling.chars() {
+        match c {
+            '\t' => s.push_str("\\t"),
+            ' ' => s.push(' '),
+            c if c.is_whitespace() || c == '\u{feff}' => {
+                s.push_str(&format!("\\u{{{:x}}}", u32::from(c)));
+            }
+            c => s.push(c),
+        }
+    }
+    s.push('"');
+    s
+}
+
 impl<'a> Builder<'a> {
     pub(super) fn long(&mut self, kept: &[&'a Record], column: Option<&PeriodColumn>) {
         let value_column = self.plan.values[0];
+        let item_columns = self.plan.item_columns.clone();
         let mut order: Vec<String> = Vec::new();
-        let mut rows_of: HashMap<String, Vec<LongRow<'a>>> = HashMap::new();
+        let mut items: HashMap<String, LongItem<'a>> = HashMap::new();
         for (k, row) in kept.iter().enumerate() {
-            let parts: Vec<&str> = self
-                .plan
-                .item_columns
+            let filled: Vec<usize> = item_columns
                 .iter()
-                .map(|j| row.cells.get(*j).map_or("", String::as_str))
-                .filter(|c| !c.is_empty())
+                .copied()
+                .filter(|j| row.cells.get(*j).is_some_and(|c| !c.is_empty()))
                 .collect();
-            if parts.is_empty() {
-                let j = self.plan.item_columns[0];
+            if filled.is_empty() {
                 self.error(
                     row.line,
-                    j,
+                    item_columns[0],
                     "",
                     "expected an item name; this row has none".into(),
                 );
                 continue;
             }
-            let name = parts.join(" / ");
-            let next_position = rows_of.get(&name).map_or(1, |r| r.len() as i64 + 1);
+            let name = filled
+                .iter()
+                .map(|j| row.cells[*j].as_str())
+                .collect::<Vec<_>>()
+                .join(" / ");
+            let written = filled
+                .iter()
+                .map(|j| row.as_written(*j))
+                .collect::<Vec<_>>()
+                .join(" / ");
+            // Names that differ only in white space are one item.
+            let key = name.split_whitespace().collect::<Vec<_>>().join(" ");
+            let next_position = items.get(&key).map_or(1, |i| i.rows.len() as i64 + 1);
             let period = match column {
                 Some(col) => match col.periods.get(k).copied().flatten() {
                     Some(p) => p,
@@ -46,17 +82,45 @@ impl<'a> Builder<'a> {
             let Ok(value) = self.value(row, value_column) else {
                 continue;
             };
-            if !rows_of.contains_key(&name) {
-                order.push(name.clone());
+            let item = items.entry(key).or_insert_with_key(|key| {
+                order.push(key.clone());
+                LongItem {
+                    name,
+                    rows: Vec::new(),
+                    spellings: Vec::new(),
+                }
+            });
+            item.rows.push((period, value, row));
+            match item.spellings.iter_mut().find(|(s, _)| *s == written) {
+                Some((_, lines)) => lines.push(row.line),
+                None => item.spellings.push((written, vec![row.line])),
             }
-            rows_of.entry(name).or_default().push((period, value, row));
         }
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
         let mut summed = Vec::new();
-        for name in order {
-            let mut rows = rows_of.remove(&name).unwrap_or_default();
+        for key in order {
+            let Some(LongItem {
+                name,
+                mut rows,
+                spellings,
+            }) = items.remove(&key)
+            else {
+                continue;
+            };
+            if spellings.len() > 1 {
+                let forms: Vec<String> = spellings
+                    .iter()
+                    .map(|(s, l)| format!("{} ({})", shown(s), lines(l)))
+                    .collect();
+                self.out.warnings.push(format!(
+                    "\"{name}\" is written in {} ways that differ only in white space, read as \
+                     one item: {}",
+                    spellings.len(),
+                    listing(&forms)
+                ));
+            }
             rows.sort_by_key(|r| r.0);
-            let mut merged: Vec<(Period, Option<f64>, Vec<usize>)> = Vec::new();
+            let mut merged: Vec<(Period, Option<f64>, Vec<&'a Record>)> = Vec::new();
             for (period, value, row) in rows {
                 match merged.last_mut() {
                     Some(last) if last.0 == period => {
@@ -64,28 +128,54 @@ impl<'a> Builder<'a> {
                             (Some(a), Some(b)) => Some(a + b),
                             (a, b) => a.or(b),
                         };
-                        last.2.push(row.line);
+                        last.2.push(row);
                     }
-                    _ => merged.push((period, value, vec![row.line])),
+                    _ => merged.push((period, value, vec![row])),
                 }
             }
-            for (period, value, lines) in merged.iter().filter(|m| m.2.len() > 1) {
-                let lines: Vec<String> = lines.iter().map(usize::to_string).collect();
+            for (period, value, rows) in merged.iter_mut().filter(|m| m.2.len() > 1) {
+                let numbers: Vec<usize> = rows.iter().map(|r| r.line).collect();
                 let total = value.map_or("no value".to_string(), |v| v.to_string());
+                if value.is_some_and(|v| v.abs() > MAX_MAGNITUDE) {
+                    let last = rows[rows.len() - 1];
+                    let cell = last.cells.get(value_column).cloned().unwrap_or_default();
+                    self.error(
+                        last.line,
+                        value_column,
+                        &cell,
+                        format!(
+                            "expected the rows of \"{name}\" for {period} ({}) to add up to at \
+                             most 10^15 in size; they add up to {total}: check them",
+                            lines(&numbers)
+                        ),
+                    );
+                    *value = None;
+                    continue;
+                }
                 summed.push(format!(
-                    "\"{name}\" {period} (lines {}, total {total})",
-                    lines.join(" and ")
+                    "\"{name}\" {period} ({}, total {total})",
+                    lines(&numbers)
                 ));
+            }
+            if merged.iter().all(|m| m.1.is_none()) {
+                self.out.warnings.push(format!(
+                    "\"{name}\" has no values (every quantity is empty or n/a), so it was not \
+                     planned"
+                ));
+                continue;
             }
             let (Some(first), Some(last)) = (merged.first(), merged.last()) else {
                 continue;
             };
             let start = first.0;
-            let last_line = last.2.last().copied().unwrap_or(0);
-            let last_row = kept.iter().find(|r| r.line == last_line).copied();
-            let Some(len) = last_row.and_then(|r| self.run(start, last.0, r, period_column)) else {
+            let (first_row, last_row) = (first.2[0], last.2[last.2.len() - 1]);
+            let Some(len) = self.run(start, last.0, last_row, period_column) else {
                 continue;
             };
+            let item_column = item_columns[0];
+            if !self.take_slots(len as usize, &name, first_row.line, item_column) {
+                continue;
+            }
             let mut values = vec![None; len as usize];
             let mut present = vec![false; len as usize];
             for (period, value, _) in &merged {
@@ -100,9 +190,6 @@ impl<'a> Builder<'a> {
                 .collect();
             self.out.gaps_filled += missing.len();
             self.gap_warning(std::slice::from_ref(&name), &missing);
-            if values.iter().all(Option::is_none) {
-                continue;
-            }
             let periods = (0..len).map(|i| start.offset(i)).collect();
             self.out.items.push(Item {
                 name,
@@ -117,5 +204,18 @@ impl<'a> Builder<'a> {
                 listing(&summed)
             ));
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::shown;
+
+    #[test]
+    fn spellings_show_their_white_space() {
+        assert_eq!(shown("Oak tray "), "\"Oak tray \"");
+        assert_eq!(shown("Oak tray\t"), "\"Oak tray\\t\"");
+        assert_eq!(shown("Oak\u{a0}tray"), "\"Oak\\u{a0}tray\"");
+        assert_eq!(shown("Oak\u{202f}tray"), "\"Oak\\u{202f}tray\"");
     }
 }
