@@ -10,12 +10,15 @@ use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::intake::{read, DecimalMark, IntakeReport, Layout};
 use morrowcast_engine::settings::MAX_HORIZON;
 
+/// An item as (name, values).
+type Named<'a> = (&'a str, Vec<Option<f64>>);
+
 /// What one read must give. `errors` are compared whole, as (row, column, text); the other
 /// fields only when set. `warned`: for each list, some warning holds all of its words.
 #[derive(Default)]
 struct Expect<'a> {
     errors: Vec<(usize, &'a str, &'a str)>,
-    items: Option<Vec<(&'a str, Vec<Option<f64>>)>>,
+    items: Option<Vec<Named<'a>>>,
     periods: Option<Vec<&'a str>>,
     warned: Vec<Vec<&'a str>>,
     decimal: Option<DecimalMark>,
@@ -36,7 +39,7 @@ fn check(input: &str, expected: Expect<'_>) -> IntakeReport {
         r.errors
     );
     if let Some(items) = &expected.items {
-        let got: Vec<(&str, Vec<Option<f64>>)> = r
+        let got: Vec<Named<'_>> = r
             .items
             .iter()
             .map(|i| (i.name.as_str(), i.values.clone()))

@@ -8,7 +8,8 @@
 //! for "Unicode text") decodes as UTF-16; anything else decodes as UTF-8 (a UTF-8 byte-order
 //! mark is dropped later by the tokeniser). Bytes that do not decode become U+FFFD, and each
 //! line holding any is reported once, with the bytes found, so a front end never plans from a
-//! misread file without saying so.
+//! misread file without saying so. Lines are counted as the tokeniser counts them: LF, CRLF and
+//! a lone CR each end one.
 
 use super::RowError;
 
@@ -32,18 +33,40 @@ pub(crate) fn decode(bytes: &[u8]) -> Decoded {
     }
 }
 
+/// Line ends seen so far: LF, CRLF and a lone CR each end one line.
+struct Lines {
+    line: usize,
+    after_cr: bool,
+}
+
+impl Lines {
+    fn new() -> Lines {
+        Lines {
+            line: 1,
+            after_cr: false,
+        }
+    }
+    fn see(&mut self, c: char) {
+        if c == '\r' || (c == '\n' && !self.after_cr) {
+            self.line += 1;
+        }
+        self.after_cr = c == '\r';
+    }
+}
+
 fn decode_utf8(bytes: &[u8]) -> Decoded {
     let mut text = String::with_capacity(bytes.len());
     let mut bad = BadLines::default();
-    let mut line = 1;
+    let mut lines = Lines::new();
     for chunk in bytes.utf8_chunks() {
         let valid = chunk.valid();
-        line += valid.bytes().filter(|b| *b == b'\n').count();
+        valid.bytes().for_each(|b| lines.see(char::from(b)));
         text.push_str(valid);
         let invalid = chunk.invalid();
         if !invalid.is_empty() {
             text.push(char::REPLACEMENT_CHARACTER);
-            bad.add(line, invalid);
+            lines.see(char::REPLACEMENT_CHARACTER);
+            bad.add(lines.line, invalid);
         }
     }
     let errors = report(
@@ -72,23 +95,24 @@ fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
     let (pairs, odd) = (bytes.chunks_exact(2), bytes.len() % 2 == 1);
     let mut text = String::with_capacity(bytes.len() / 2);
     let mut bad = BadLines::default();
-    let mut line = 1;
+    let mut lines = Lines::new();
     for c in char::decode_utf16(pairs.map(|p| to_unit(p[0], p[1]))) {
         match c {
             Ok(c) => {
-                line += usize::from(c == '\n');
+                lines.see(c);
                 text.push(c);
             }
             Err(e) => {
                 text.push(char::REPLACEMENT_CHARACTER);
-                bad.add(line, &as_found(e.unpaired_surrogate()));
+                lines.see(char::REPLACEMENT_CHARACTER);
+                bad.add(lines.line, &as_found(e.unpaired_surrogate()));
             }
         }
     }
     if odd {
         // An odd final byte: half a character.
         text.push(char::REPLACEMENT_CHARACTER);
-        bad.add(line, &bytes[bytes.len() - 1..]);
+        bad.add(lines.line, &bytes[bytes.len() - 1..]);
     }
     let errors = report(
         bad.0,
@@ -193,6 +217,18 @@ mod tests {
             "\n\u{fffd}\u{fffd}",
             &[(2, "\\x00\\xD8\\x41")],
         );
+        // Lines ended by CRLF and by a lone CR, counted as the tokeniser counts them.
+        check(
+            b"a\r\nb\rc\xE9\r\n\xE9",
+            "a\r\nb\rc\u{fffd}\r\n\u{fffd}",
+            &[(3, "\\xE9"), (4, "\\xE9")],
+        );
+        let le: Vec<u8> = [0xFF, 0xFE]
+            .into_iter()
+            .chain("a\rb\r\n".encode_utf16().flat_map(u16::to_le_bytes))
+            .chain([0x00, 0xD8])
+            .collect();
+        check(&le, "a\rb\r\n\u{fffd}", &[(3, "\\x00\\xD8")]);
     }
 
     #[test]

@@ -26,11 +26,12 @@
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
 //!
 //! Decisions, in short (each module's doc has the full rule):
-//! - Header: the last record above the first row whose cells are mostly numbers or periods, if
-//!   none of its cells reads as a number or a period; rows between the two are data (a bad cell
-//!   in the first data row is an error, never a title); records above the header are title
-//!   lines, skipped with a warning. In a one-column text the header is the first such record. No
-//!   header: a warning, and the names below.
+//! - Header: the last record above the first row with at least half of its cells numbers or
+//!   periods, if none of its cells reads as a number or a period, it names at least two columns
+//!   (`n/a` names none) and none of its cells stands again below in its column (an item name);
+//!   rows between the two are data (a bad cell in the first data row is an error, never a
+//!   title); records above the header are title lines, skipped with a warning. In a one-column
+//!   text the header is the first such record. No header: a warning, and the names below.
 //! - Date order: a field above 12 decides; otherwise "all on the 1st of a month" one way only,
 //!   then "a regular series with no missing period" one way only, each with a warning;
 //!   otherwise an error on the first row whose readings differ (the report is then day-first).

@@ -5,18 +5,22 @@
 //! [`super::period`]). This module only classifies; it decides the layout from what most cells
 //! of each column look like, so one bad cell does not change the layout.
 //!
-//! Header rule: a header-like record has a non-empty cell, no cell that reads as a number or a
-//! period, and (in a table of two or more columns) at least two non-empty cells; a data-like
-//! record has more than half of its non-empty cells reading as numbers or periods. Among the
-//! first six records, the header is the last header-like record above the first data-like
-//! record; the records between the two are data rows whose bad cells are reported (a first row
-//! with a bad cell is a data row with an error, never a title). In a one-column text nothing
-//! tells a title from a header, or a header from a word in the first data cell, so there the
-//! header is the first header-like record and everything below it is data. When there is no
-//! header, the data starts at the first record with a cell that reads as a number or a period.
-//! When none of the six is data-like, the header is the first header-like record. Records above
-//! the header, or above the data when there is no header, are title lines: reported as
-//! warnings, not read.
+//! Header rule: a header-like record has no cell that reads as a number or a period, and at
+//! least one cell (two in a table of two or more columns) that names something: not empty and
+//! not a "no value" marker such as `n/a` (a first data row of a bad period and an `n/a` is not
+//! a header); and none of its cells stands again further down the same column (that is an item
+//! name of a long table, so the record is a data row). A data-like record has at least half of
+//! its non-empty cells, and at least one, reading as numbers or periods. Among the first six
+//! records, the header is the last header-like record above the first data-like record; the
+//! records between the two are data rows whose bad cells are reported (a first row with a bad
+//! cell is a data row with an error, never a title). In a one-column text nothing tells a title
+//! from a header, or a header from a word in the first data cell, so there the header is the
+//! first header-like record and everything below it is data. When there is no header, the data
+//! starts at the first record with a cell that reads as a number, a period or a "no value"
+//! marker, or that stands again further down its column; so a headerless first row whose only
+//! cell is unreadable ("13/13/2024" alone) is a title line, with its warning. When none of the
+//! six is data-like, the header is the first header-like record. Records above the header, or
+//! above the data when there is no header, are title lines: reported as warnings, not read.
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
 //! one family of period labels; failing that, the first column counts when its whole numbers
@@ -114,16 +118,33 @@ fn data_like(record: &Record) -> bool {
         .iter()
         .filter(|c| !c.is_empty() && reads_as_data(c))
         .count();
-    filled > 0 && data * 2 > filled
+    data > 0 && data * 2 >= filled
+}
+
+/// A cell that names something: not empty, and not a "no value" marker such as `n/a`.
+fn names(cell: &str) -> bool {
+    !cell.is_empty() && !is_missing(cell)
 }
 
 fn header_like(record: &Record, width: usize) -> bool {
-    let filled = record.filled();
-    filled >= width.clamp(1, 2)
+    let named = record.cells.iter().filter(|c| names(c)).count();
+    named >= width.clamp(1, 2)
         && record
             .cells
             .iter()
             .all(|c| c.is_empty() || !reads_as_data(c))
+}
+
+/// Whether a cell of `records[at]` also stands in its column further down: an item name, so
+/// the record is a row of a long table rather than its header.
+fn repeats_below(records: &[Record], at: usize) -> bool {
+    let cells = &records[at].cells;
+    records[at + 1..].iter().any(|r| {
+        r.cells
+            .iter()
+            .zip(cells)
+            .any(|(below, cell)| names(cell) && below == cell)
+    })
 }
 
 /// Splits records into titles, header and data rows; leading and trailing blank records go.
@@ -147,7 +168,8 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .filter(|i| !records[*i].is_blank())
         .collect();
     let window: Vec<usize> = non_blank.iter().take(HEADER_SEARCH).copied().collect();
-    let header_like_at = |i: &&usize| header_like(&records[**i], mode_width);
+    let header_like_at =
+        |i: &&usize| header_like(&records[**i], mode_width) && !repeats_below(&records, **i);
     let (header_at, body_start) = match window.iter().position(|i| data_like(&records[*i])) {
         Some(k) => {
             let above = &window[..k];
@@ -158,7 +180,13 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
             };
             let first_data = above
                 .iter()
-                .find(|i| records[**i].cells.iter().any(|c| reads_as_data(c)))
+                .find(|i| {
+                    records[**i]
+                        .cells
+                        .iter()
+                        .any(|c| reads_as_data(c) || (!c.is_empty() && is_missing(c)))
+                        || repeats_below(&records, **i)
+                })
                 .unwrap_or(&window[k]);
             (header.copied(), *header.unwrap_or(first_data))
         }
