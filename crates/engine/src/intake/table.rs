@@ -6,7 +6,8 @@
 //! of each column look like, so one bad cell does not change the layout.
 //!
 //! Header rule: a header-like record has no cell that reads as a number or a period, and at
-//! least one cell (two in a table of two or more columns) that names something: not empty and
+//! least one cell (two in a table of two or more columns, not counting columns that only a
+//! delimiter at the end of every line makes) that names something: not empty and
 //! not a "no value" marker such as `n/a` (a first data row of a bad period and an `n/a` is not
 //! a header); and none of its cells stands again further down the same column (that is an item
 //! name of a long table, so the record is a data row). A data-like record has at least half of
@@ -24,8 +25,11 @@
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
 //! one family of period labels; failing that, the first column counts when its whole numbers
-//! read as years or row positions ([`super::period::integer_meaning`]). A column is a value column
-//! when more than half of its non-empty cells read as numbers, and an item column otherwise.
+//! read as years, row positions or 8- or 6-digit dates ([`super::period::integer_meaning`]). A
+//! column is a value column when at least half of its cells that hold something (not empty, not
+//! "n/a") read as numbers, or when fewer than half of its rows hold something (an item column
+//! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
+//! is an item column.
 //! Any item column makes the layout long (item, period, quantity; several item columns are
 //! joined with " / "); otherwise one value column is single and several are wide.
 
@@ -158,10 +162,16 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .position(|r| !r.is_blank())
         .unwrap_or(records.len());
     records.drain(..first);
+    // Widths without trailing empty cells: a delimiter at the end of every line adds no column.
     let widths: Vec<usize> = records
         .iter()
         .filter(|r| !r.is_blank())
-        .map(|r| r.cells.len())
+        .map(|r| {
+            r.cells
+                .iter()
+                .rposition(|c| !c.is_empty())
+                .map_or(0, |i| i + 1)
+        })
         .collect();
     let (mode_width, _) = mode_of(&widths);
     let non_blank: Vec<usize> = (0..records.len())
@@ -267,7 +277,11 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 Role::Empty
             } else if let Some(family) = strong_family(&cells) {
                 Role::Period(family)
-            } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len() {
+            } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len()
+                || cells.len() * 2 < rows.len()
+            {
+                // An item column names the item on most rows; a column mostly empty or "n/a"
+                // holds quantities, and its few words are bad cells.
                 Role::Value
             } else {
                 Role::Item

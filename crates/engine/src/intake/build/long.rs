@@ -1,6 +1,7 @@
 //! Long tables (item, period, quantity): rows grouped by item in any order, repeated (item,
 //! period) rows summed with a warning, spellings of one name that differ only in white space
-//! read as one item with a warning, and each item's own run of periods with gaps.
+//! read as one item with a warning, and each item's own run of periods with gaps. A row whose
+//! item cell is empty or a "no value" marker (`n/a`) is an error: it names no item.
 //!
 //! Kept apart from: single and wide tables (in [`super`]), where a repeated period is an error.
 
@@ -8,7 +9,7 @@ use std::collections::HashMap;
 
 use super::{count, lines, listing, Builder, LongRow};
 use crate::calendar::Period;
-use crate::intake::number::MAX_MAGNITUDE;
+use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
 use crate::intake::text::Record;
 use crate::intake::Item;
@@ -45,16 +46,19 @@ impl<'a> Builder<'a> {
         let mut order: Vec<String> = Vec::new();
         let mut items: HashMap<String, LongItem<'a>> = HashMap::new();
         for (k, row) in kept.iter().enumerate() {
+            // A "no value" marker names no item.
             let filled: Vec<usize> = item_columns
                 .iter()
                 .copied()
-                .filter(|j| row.cells.get(*j).is_some_and(|c| !c.is_empty()))
+                .filter(|j| row.cells.get(*j).is_some_and(|c| !is_missing(c)))
                 .collect();
             if filled.is_empty() {
+                let j = item_columns[0];
+                let cell = row.cells.get(j).map_or("", String::as_str);
                 self.error(
                     row.line,
-                    item_columns[0],
-                    "",
+                    j,
+                    cell,
                     "expected an item name; this row has none".into(),
                 );
                 continue;
