@@ -48,12 +48,11 @@ impl Record {
     }
     /// Cell `index` as written, before trimming ("" beyond the record's end).
     pub fn as_written(&self, index: usize) -> &str {
-        self.untrimmed
-            .iter()
-            .find(|(i, _)| *i == index)
-            .map(|(_, raw)| raw.as_str())
-            .or(self.cells.get(index).map(String::as_str))
-            .unwrap_or("")
+        // `untrimmed` is in cell order, so a lookup costs log of its length.
+        match self.untrimmed.binary_search_by_key(&index, |(i, _)| *i) {
+            Ok(at) => &self.untrimmed[at].1,
+            Err(_) => self.cells.get(index).map_or("", String::as_str),
+        }
     }
 }
 

@@ -18,8 +18,10 @@ use crate::intake::Item;
 struct LongItem<'a> {
     name: String,
     rows: Vec<LongRow<'a>>,
-    /// Each spelling of the name as written (before trimming) and the lines that use it.
+    /// Each spelling of the name as written (before trimming) and the lines that use it, in
+    /// the order first seen; `spelled` finds a spelling's place.
     spellings: Vec<(String, Vec<usize>)>,
+    spelled: HashMap<String, usize>,
 }
 
 /// A spelling in quotes, with tabs and white space other than the plain space made visible.
@@ -92,12 +94,16 @@ impl<'a> Builder<'a> {
                     name,
                     rows: Vec::new(),
                     spellings: Vec::new(),
+                    spelled: HashMap::new(),
                 }
             });
             item.rows.push((period, value, row));
-            match item.spellings.iter_mut().find(|(s, _)| *s == written) {
-                Some((_, lines)) => lines.push(row.line),
-                None => item.spellings.push((written, vec![row.line])),
+            match item.spelled.get(&written) {
+                Some(at) => item.spellings[*at].1.push(row.line),
+                None => {
+                    item.spelled.insert(written.clone(), item.spellings.len());
+                    item.spellings.push((written, vec![row.line]));
+                }
             }
         }
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
@@ -107,6 +113,7 @@ impl<'a> Builder<'a> {
                 name,
                 mut rows,
                 spellings,
+                ..
             }) = items.remove(&key)
             else {
                 continue;
