@@ -23,6 +23,7 @@ use std::collections::HashSet;
 
 use morrowcast_engine::calendar::{civil_from_days, days_in_month, Frequency, Period};
 use morrowcast_engine::intake::{read, read_bytes, DecimalMark, Delimiter, IntakeReport, Layout};
+use morrowcast_engine::series::MAX_ABS_VALUE;
 
 use crate::support::fixture_text;
 
@@ -51,8 +52,8 @@ impl Rng {
 // ---------------------------------------------------------------------------------------------
 // The promises a report keeps whatever it was given.
 
-/// Largest size of a value read (crates/engine/src/intake/number.rs, `MAX_MAGNITUDE`).
-const MAX_MAGNITUDE: f64 = 1e15;
+/// Largest size of a value read: the series' bound, which intake keeps too.
+const MAX_MAGNITUDE: f64 = MAX_ABS_VALUE;
 
 /// Slots all items may hold: 100,000 plus 1,000 per row (crates/engine/src/intake/build.rs).
 fn slot_cap(lines: usize) -> usize {

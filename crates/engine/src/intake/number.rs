@@ -24,12 +24,13 @@
 //!
 //! Refused, each as an error at its cell: `inf`, `infinity`, `nan` and `∞` (any case and sign),
 //! which formulas leave behind and which are never a quantity; and any value whose size is above
-//! [`MAX_MAGNITUDE`] (10^15). Why that bound: no sales quantity comes near it, f64 still holds
-//! every whole number up to it exactly (up to 2^53 ≈ 9.0 × 10^15), and squares and sums of
-//! thousands of such values (errors, MSE, smoothing states) stay far below f64's limit of about
-//! 1.8 × 10^308, so nothing downstream overflows into a missing measure. Such cells still count
-//! as numbers when intake decides the layout, so one of them never turns a column of quantities
-//! into item names.
+//! [`MAX_MAGNITUDE`], the series' own bound [`crate::series::MAX_ABS_VALUE`] (10^15), so that
+//! intake refuses at its cell what a series would refuse later. Why that bound: no sales
+//! quantity comes near it, f64 still holds every whole number up to it exactly (up to 2^53 ≈
+//! 9.0 × 10^15), and squares and sums of thousands of such values (errors, MSE, smoothing
+//! states) stay far below f64's limit of about 1.8 × 10^308, so nothing downstream overflows
+//! into a missing measure. Such cells still count as numbers when intake decides the layout, so
+//! one of them never turns a column of quantities into item names.
 
 use super::DecimalMark;
 
@@ -55,8 +56,9 @@ pub(crate) enum NumberError {
     NotFinite,
 }
 
-/// The largest size of a value intake reads (see the module doc for why 10^15).
-pub(crate) const MAX_MAGNITUDE: f64 = 1e15;
+/// The largest size of a value intake reads: the series' bound (see the module doc for why
+/// 10^15).
+pub(crate) const MAX_MAGNITUDE: f64 = crate::series::MAX_ABS_VALUE;
 
 impl NumberError {
     /// What was expected, in words, for a file read with `mark`.
