@@ -11,7 +11,8 @@
 //! 1. `text`: strip a UTF-8 byte-order mark, choose the delimiter (tab, semicolon, pipe or
 //!    comma: the one that splits the most records into the same number of cells, ties in that
 //!    order; a one-column text is reported as comma), split into records with RFC 4180 quotes,
-//!    CRLF or LF line ends, and exact line numbers, in at most two passes whatever the quotes.
+//!    LF, CRLF or lone CR line ends, and exact line numbers, in at most two passes whatever the
+//!    quotes.
 //! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
 //!    the header and layout rules are in that module's doc.
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
@@ -28,7 +29,8 @@
 //! Decisions, in short (each module's doc has the full rule):
 //! - Header: the last record above the first row with at least half of its cells numbers or
 //!   periods, if none of its cells reads as a number or a period, it names at least two columns
-//!   (`n/a` names none) and none of its cells stands again below in its column (an item name);
+//!   (one in a one-column text; `n/a` names none) and none of its cells stands again below in
+//!   its column (an item name);
 //!   rows between the two are data (a bad cell in the first data row is an error, never a
 //!   title); records above the header are title lines, skipped with a warning. In a one-column
 //!   text the header is the first such record. No header: a warning, and the names below.
@@ -37,24 +39,29 @@
 //!   otherwise an error on the first row whose readings differ (the report is then day-first).
 //! - "Mar-24" is March 2024 (a month name with two digits is month and year); two-digit years
 //!   are 1969–2068; month names are English.
+//! - Layout: a column is item names only when most of its rows name something; a column mostly
+//!   empty or `n/a` holds quantities, and its few words are bad cells (errors).
 //! - Whole numbers in the first column are years (1800–2200), row positions (1, 2, 3, ...),
-//!   8-digit dates (20240131) or 6-digit months (202401) only when the whole column reads so;
+//!   8-digit dates (20240131: every cell digits, more than half of them dates of 1800–2200, the
+//!   others errors) or 6-digit months (202401, every cell) only when the column reads so;
 //!   otherwise they are values. The report's period description says which.
 //! - Periods refused, each an error at its cell (the row is not read): a year after 9633 (a
 //!   forecast from it must still have four-digit labels: every period label the engine writes
 //!   is one this reader reads back), and a period beyond a gap of more than max(100, 2 × the
 //!   periods present): a likely typo, not thousands of filled gaps.
 //! - Numbers: scientific notation (`1e5`, `1.5E+03`, `2,5e3` with a decimal comma) is read;
-//!   `inf`, `nan`, `infinity` and any value above 10^15 in size are errors at their cell (they
-//!   still count as numbers for the layout). 10^15: far above any sales quantity, exact in f64,
-//!   and far from overflow in the computations that square and sum values.
+//!   `inf`, `nan`, `infinity` and any value above 10^15 in size (the series' bound) are errors at
+//!   their cell (they still count as numbers for the layout). 10^15: far above any sales
+//!   quantity, exact in f64, and far from overflow in the computations that square and sum
+//!   values.
 //! - Empty cells and `NA`, `N/A`, `#N/A`, `null` are gaps, counted in `empty_cells`; a blank line
 //!   is a gap in a table without periods and skipped (with a warning) in a dated one.
 //! - Currency symbols, codes and units listed in `number` are stripped, with one warning naming
 //!   them; anything else after a number ("12x") is an error.
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space are
-//!   one item, with a warning naming each spelling and its lines.
+//!   one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
+//!   item (an error).
 //! - Work is proportional to the text: the tokeniser makes at most two passes, and all items
 //!   together hold at most 100,000 periods plus 1,000 per row read (an item past that is an
 //!   error).
@@ -65,7 +72,8 @@
 //! with a warning naming the columns, so item names are unique.
 //!
 //! Row numbers in errors are 1-based lines of the text as given: title lines, the header and
-//! blank lines all count, and a quoted cell spanning lines counts every line.
+//! blank lines all count, a quoted cell spanning lines counts every line, and LF, CRLF and a
+//! lone CR each end a line (in errors of undecodable bytes too).
 
 mod build;
 mod dates;
