@@ -343,6 +343,33 @@ fn dates_far_apart_are_an_error_not_a_fill() {
     );
 }
 
+// The same in a column of plain years, and of 6-digit months: the typo made the column a value
+// column (an item "year" with no error) before; now the column is periods and the typo an error.
+#[test]
+fn a_mistyped_year_in_a_column_of_years_is_an_error() {
+    for typo in ["2042", "20222", "1024"] {
+        let text = format!("year,sales\n2019,4\n2020,5\n2021,6\n2022,7\n{typo},8\n");
+        check(
+            &text,
+            Expect {
+                errors: vec![(6, "year", typo)],
+                items: Some(vec![("sales", some(&[4.0, 5.0, 6.0, 7.0]))]),
+                frequency: Some(Frequency::Yearly),
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "month,sales\n202401,4\n202402,5\n202403,6\n204203,7\n",
+        Expect {
+            errors: vec![(5, "month", "204203")],
+            items: Some(vec![("sales", some(&[4.0, 5.0, 6.0]))]),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+}
+
 /// Labels of `first` and the `n - 1` periods after it, one per row, read back.
 fn read_labels(first: Period, n: i64) -> IntakeReport {
     let mut text = String::from("period,qty\n");
@@ -376,7 +403,7 @@ fn written_period_labels_read_back() {
             let back = read_labels(last.offset(-1), written);
             for e in &back.errors {
                 assert!(
-                    e.message.contains("no later than 9633"),
+                    e.message.contains("from 1000 to 9633"),
                     "label {} after {last}: {}",
                     e.text,
                     e.message

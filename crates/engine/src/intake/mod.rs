@@ -27,13 +27,13 @@
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
 //!
 //! Decisions, in short (each module's doc has the full rule):
-//! - Header: the last record above the first row with at least half of its cells numbers or
-//!   periods, if none of its cells reads as a number or a period, it names at least two columns
-//!   (one in a one-column text; `n/a` names none) and none of its cells stands again below in
-//!   its column (an item name);
-//!   rows between the two are data (a bad cell in the first data row is an error, never a
-//!   title); records above the header are title lines, skipped with a warning. In a one-column
-//!   text the header is the first such record. No header: a warning, and the names below.
+//! - Header: the last record above the first row with at least half of its cells numbers,
+//!   periods or `n/a`, if none of its cells reads as a number or a period, it names at least two
+//!   columns (one in a one-column text; `n/a` names none) and none of its cells stands again
+//!   below in its column (an item name); rows between the two are data (a bad cell in the first
+//!   data row is an error, never a title); records above the header are title lines, skipped
+//!   with a warning. In a one-column text the header is the first such record. No header: a
+//!   warning, and the names below.
 //! - Date order: a field above 12 decides; otherwise "all on the 1st of a month" one way only,
 //!   then "a regular series with no missing period" one way only, each with a warning;
 //!   otherwise an error on the first row whose readings differ (the report is then day-first).
@@ -42,13 +42,15 @@
 //! - Layout: a column is item names only when most of its rows name something; a column mostly
 //!   empty or `n/a` holds quantities, and its few words are bad cells (errors).
 //! - Whole numbers in the first column are years (1800–2200), row positions (1, 2, 3, ...),
-//!   8-digit dates (20240131: every cell digits, more than half of them dates of 1800–2200, the
-//!   others errors) or 6-digit months (202401, every cell) only when the column reads so;
-//!   otherwise they are values. The report's period description says which.
-//! - Periods refused, each an error at its cell (the row is not read): a year after 9633 (a
-//!   forecast from it must still have four-digit labels: every period label the engine writes
-//!   is one this reader reads back), and a period beyond a gap of more than max(100, 2 × the
-//!   periods present): a likely typo, not thousands of filled gaps.
+//!   8-digit dates (20240131) or 6-digit months (202401) when more than half of the cells read
+//!   so and, for years, months and positions, they mostly follow each other closely (every cell
+//!   for positions); the other cells are errors. Otherwise they are values. The report's period
+//!   description says which.
+//! - Periods refused, each an error at its cell (the row is not read): a year outside 1000 to
+//!   9633 (labels have four-digit years, and a forecast from the last period must still have
+//!   them: every period label the engine writes is one this reader reads back), and a period
+//!   beyond a gap of more than max(about two years of periods, 2 × the periods present): a
+//!   likely typo, not a run of filled gaps.
 //! - Numbers: scientific notation (`1e5`, `1.5E+03`, `2,5e3` with a decimal comma) is read;
 //!   `inf`, `nan`, `infinity` and any value above 10^15 in size (the series' bound) are errors at
 //!   their cell (they still count as numbers for the layout). 10^15: far above any sales

@@ -7,24 +7,29 @@
 //! The frequency the dates imply is the rule of [`super::dates`]; the date order of `a/b/year`
 //! dates is decided in [`super::order`].
 //!
-//! Whole numbers: a column of them is years (all in [`PLAUSIBLE_YEARS`], 1800–2200), row
-//! positions (1, 2, 3, ...), 8-digit dates `YYYYMMDD` (more than half of the cells are valid
-//! dates with a year in [`PLAUSIBLE_YEARS`], every cell is digits; the others are errors) or
-//! 6-digit months `YYYYMM` (every cell a month of a year in [`PLAUSIBLE_YEARS`]); years,
-//! positions and 6-digit months also need their distinct values to cover at least half of their
-//! span, so scattered quantities are not taken for periods. The report's period description
-//! says which reading was made.
+//! Whole numbers: a column of them is 8-digit dates `YYYYMMDD` when more than half of its cells
+//! are valid dates with a year in [`PLAUSIBLE_YEARS`] (1800–2200);
+//! 6-digit months `YYYYMM` when more than half are months of such years and their median step
+//! is at most three months; years when more than half are in [`PLAUSIBLE_YEARS`] and their
+//! median step is at most two; row positions (1, 2, 3, ...) when they start at 1 with a median
+//! step of at most two, every cell one (and increase, in a first column). "More than half" and
+//! the median step keep one bad cell or a typo far away from changing the reading (they are then
+//! errors at their cells, as below) while scattered quantities are not taken for periods. The
+//! report's period description says which reading was made.
 //!
 //! Periods refused, each as an error at its cell (the row is then not read):
-//! - a year after [`LAST_YEAR`] (9633): a forecast reaches up to [`MAX_HORIZON`] periods (366
-//!   years at most) past the last period, and every period the engine writes must have a label
-//!   this reader reads back (four-digit years), so 9999 − 366 is the last year read;
-//! - a period far from all the others, a likely typo (9999-12 or 2204-12 among the 2020s): the
-//!   distinct periods are split wherever more than `max(100, 2 × N)` periods are missing between
-//!   neighbours (N the number of distinct periods in the column); the part holding the most
-//!   periods is kept (the earliest of equal parts) and every period outside it is an error,
-//!   instead of thousands of filled gaps. Gaps up to that size are filled, with a warning
-//!   listing them. For dates the frequency is then inferred again from the dates kept.
+//! - a year outside 1000 to [`LAST_YEAR`] (9633): labels have four-digit years, and a forecast
+//!   reaches up to [`MAX_HORIZON`] periods (366 years at most) past the last period; every
+//!   period the engine writes must have a label this reader reads back, so 9999 − 366 is the
+//!   last year read;
+//! - a period far from all the others, a likely typo (9999-12 or 2204-12 among the 2020s, 2042
+//!   among 2019–2022): the distinct periods are split wherever more than `max(floor, 2 × N)`
+//!   periods are missing between neighbours, N the number of distinct periods in the column and
+//!   the floor about two years of the frequency (100 days, 104 weeks, 24 months, 8 quarters, 5
+//!   years; 100 positions); the part holding the most periods is kept (the earliest of equal
+//!   parts) and every period outside it is an error, instead of a run of filled gaps. Gaps up
+//!   to that size are filled, with a warning listing them. For dates the frequency is then
+//!   inferred again from the dates kept.
 
 use std::ops::RangeInclusive;
 
@@ -40,8 +45,8 @@ pub(crate) const PLAUSIBLE_YEARS: RangeInclusive<i32> = 1800..=2200;
 /// The last year a period may fall in (see the module doc).
 pub(crate) const LAST_YEAR: i32 = 9999 - MAX_HORIZON as i32;
 
-/// Fewest missing periods between neighbours that can make a typo (see the module doc).
-const TYPO_GAP_FLOOR: usize = 100;
+/// The years a period may fall in: four-digit years, with room for a forecast after the last.
+const YEARS_READ: RangeInclusive<i32> = 1000..=LAST_YEAR;
 
 /// How plain whole numbers in a period column are read.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -87,56 +92,53 @@ pub(crate) fn strong_family(cells: &[&str]) -> Option<Family> {
 /// `in_row_order` asks positions to increase down the column.
 pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<IntegerMeaning> {
     let filled: Vec<&str> = cells.iter().copied().filter(|c| !c.is_empty()).collect();
-    if filled.is_empty() || !filled.iter().all(|c| c.bytes().all(|b| b.is_ascii_digit())) {
-        return None;
-    }
+    let most = |n: usize| n * 2 > filled.len();
     let dates = filled.iter().filter(|c| compact_date(c).is_some()).count();
-    if dates * 2 > filled.len() {
+    if most(dates) {
         return Some(IntegerMeaning::CompactDates);
     }
-    if filled.iter().all(|c| c.len() == 6) {
-        let months: Option<Vec<i64>> = filled
-            .iter()
-            .map(|c| match compact_month(c)? {
-                Label::Month { year, month } => Some(Period::month(year, month).ordinal()),
-                _ => None,
-            })
-            .collect();
-        return months
-            .filter(|m| dense(m))
-            .map(|_| IntegerMeaning::CompactMonths);
+    let months: Vec<i64> = filled
+        .iter()
+        .filter_map(|c| match compact_month(c)? {
+            Label::Month { year, month } => Some(Period::month(year, month).ordinal()),
+            _ => None,
+        })
+        .collect();
+    if most(months.len()) && close(&months, 3) {
+        return Some(IntegerMeaning::CompactMonths);
     }
-    let mut values = Vec::with_capacity(filled.len());
-    for cell in &filled {
-        match parse_label(cell) {
-            Some(Label::Integer(n)) => values.push(n),
-            _ => return None,
-        }
+    let values: Vec<i64> = filled
+        .iter()
+        .filter_map(|c| match parse_label(c) {
+            Some(Label::Integer(n)) => Some(n),
+            _ => None,
+        })
+        .collect();
+    let plausible = |n: &i64| i32::try_from(*n).is_ok_and(|y| PLAUSIBLE_YEARS.contains(&y));
+    let years: Vec<i64> = values.iter().copied().filter(plausible).collect();
+    if most(years.len()) && close(&years, 2) {
+        return Some(IntegerMeaning::Years);
     }
     let increasing = values.windows(2).all(|w| w[0] < w[1]);
-    if !dense(&values) {
-        return None;
-    }
-    let (first, last) = (*values.iter().min()?, *values.iter().max()?);
-    let plausible = |n: i64| i32::try_from(n).is_ok_and(|y| PLAUSIBLE_YEARS.contains(&y));
-    if plausible(first) && plausible(last) {
-        Some(IntegerMeaning::Years)
-    } else if first == 1 && (increasing || !in_row_order) {
-        Some(IntegerMeaning::Positions)
-    } else {
-        None
-    }
+    let positions = values.len() == filled.len()
+        && values.iter().min() == Some(&1)
+        && close(&values, 2)
+        && (increasing || !in_row_order);
+    positions.then_some(IntegerMeaning::Positions)
 }
 
-/// Whether the distinct values cover at least half of their span.
-fn dense(values: &[i64]) -> bool {
+/// Whether the distinct values mostly follow each other closely: the median step between
+/// neighbours (the lower one of an even count) is at most `step`. Years, months and positions
+/// do, even with a typo far away; scattered quantities do not.
+fn close(values: &[i64], step: i64) -> bool {
     let mut distinct = values.to_vec();
     distinct.sort_unstable();
     distinct.dedup();
-    match (distinct.first(), distinct.last()) {
-        (Some(first), Some(last)) => (last - first + 1) <= 2 * distinct.len() as i64,
-        _ => false,
-    }
+    let mut steps: Vec<i64> = distinct.windows(2).map(|w| w[1] - w[0]).collect();
+    steps.sort_unstable();
+    steps
+        .get(steps.len().saturating_sub(1) / 2)
+        .is_none_or(|s| *s <= step)
 }
 
 /// An 8-digit date `YYYYMMDD` with a plausible year.
@@ -243,8 +245,8 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             };
             let mut column_days = column_days;
             for (i, d) in column_days.iter_mut().enumerate() {
-                if d.is_some_and(|d| civil_from_days(d).0 > LAST_YEAR) {
-                    errors.push((i, too_late()));
+                if d.is_some_and(|d| !YEARS_READ.contains(&civil_from_days(d).0)) {
+                    errors.push((i, year_out_of_range()));
                     *d = None;
                 }
             }
@@ -279,7 +281,10 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         Family::Integer => {
             let years = integers != Some(IntegerMeaning::Positions);
             let periods = map_labels(&labels, family, |l| match l {
-                Label::Integer(n) if years => i32::try_from(n).ok().map(Period::year),
+                // A number too large for a year still gives a period, refused below.
+                Label::Integer(n) if years => {
+                    Some(Period::year(i32::try_from(n).unwrap_or(i32::MAX)))
+                }
                 Label::Integer(n) => Some(Period::position(n)),
                 _ => None,
             });
@@ -292,9 +297,9 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
     };
     for (i, p) in periods.iter_mut().enumerate() {
         if p.and_then(Period::calendar_year)
-            .is_some_and(|y| y > LAST_YEAR)
+            .is_some_and(|y| !YEARS_READ.contains(&y))
         {
-            errors.push((i, too_late()));
+            errors.push((i, year_out_of_range()));
             *p = None;
         }
     }
@@ -343,11 +348,24 @@ fn dated(days: &[Option<i64>]) -> (Vec<Option<Period>>, Frequency) {
     (periods, frequency)
 }
 
-fn too_late() -> String {
+fn year_out_of_range() -> String {
     format!(
-        "expected a year no later than {LAST_YEAR}, so that a forecast of up to {MAX_HORIZON} \
-         periods still has four-digit years: check the year"
+        "expected a year from {} to {LAST_YEAR}, so that every period and a forecast of up to \
+         {MAX_HORIZON} periods after them have four-digit years: check the year",
+        YEARS_READ.start()
     )
+}
+
+/// Missing periods between neighbours that a gap may hold before it counts as a typo, whatever
+/// the number of periods: about two years (a hundred days, or a hundred positions).
+fn typo_gap_floor(frequency: Frequency) -> usize {
+    match frequency {
+        Frequency::Daily | Frequency::Undated => 100,
+        Frequency::Weekly => 104,
+        Frequency::Monthly => 24,
+        Frequency::Quarterly => 8,
+        Frequency::Yearly => 5,
+    }
 }
 
 /// The periods far from all the others (the module doc's rule), as (index, what was expected).
@@ -355,7 +373,10 @@ pub(crate) fn stray_periods(periods: &[Option<Period>]) -> Vec<(usize, String)> 
     let mut distinct: Vec<Period> = periods.iter().flatten().copied().collect();
     distinct.sort_unstable();
     distinct.dedup();
-    let limit = TYPO_GAP_FLOOR.max(2 * distinct.len()) as i64;
+    let Some(first) = distinct.first() else {
+        return Vec::new();
+    };
+    let limit = typo_gap_floor(first.frequency()).max(2 * distinct.len()) as i64;
     // Parts of the sorted distinct periods, split at every gap longer than the limit.
     let mut parts: Vec<(usize, usize)> = Vec::new();
     let mut start = 0;
@@ -439,6 +460,35 @@ mod tests {
         assert_eq!(integer_meaning(&["1", "3", "2"], true), None);
         assert_eq!(integer_meaning(&["12", "15", "11"], true), None);
         assert_eq!(integer_meaning(&["1", "2", "x"], true), None);
+        // A typo far away, or one bad cell, keeps the reading (and is refused as a period
+        // later)...
+        let years = Some(IntegerMeaning::Years);
+        assert_eq!(
+            integer_meaning(&["2019", "2020", "2021", "2042"], true),
+            years
+        );
+        assert_eq!(
+            integer_meaning(&["2019", "2020", "2021", "20222"], true),
+            years
+        );
+        assert_eq!(
+            integer_meaning(&["2019", "2020", "someday", "2022"], true),
+            years
+        );
+        assert_eq!(
+            integer_meaning(&["2018", "2020", "2022", "2024"], true),
+            years
+        );
+        // ...while scattered quantities, even inside 1800-2200, are not periods.
+        assert_eq!(
+            integer_meaning(&["1850", "1900", "1875", "2010"], true),
+            None
+        );
+        assert_eq!(integer_meaning(&["2019", "2020", "5", "7"], true), None);
+        assert_eq!(
+            integer_meaning(&["1", "2", "3", "50"], true),
+            Some(IntegerMeaning::Positions)
+        );
     }
 
     #[test]
@@ -450,10 +500,13 @@ mod tests {
             meaning(&["20240101", "20240132", "20240103"]),
             Some(CompactDates)
         );
-        // More than half must be dates of a plausible year; every cell must be digits.
+        // More than half must be dates of a plausible year.
         assert_eq!(meaning(&["20240101", "20240132"]), None);
         assert_eq!(meaning(&["99990101", "99990102"]), None);
-        assert_eq!(meaning(&["20240101", "2024-01-02", "20240103"]), None);
+        assert_eq!(
+            meaning(&["20240101", "someday", "20240103"]),
+            Some(CompactDates)
+        );
         assert_eq!(
             meaning(&["202401", "202402", "202404"]),
             Some(CompactMonths)
@@ -474,19 +527,23 @@ mod tests {
         assert_eq!(col.periods[1], Some(Period::month(2024, 2)));
     }
 
-    /// (distinct months present after January 2000, as offsets, and the offsets refused).
-    fn check_strays(offsets: &[i64], refused: &[i64]) {
-        let start = Period::month(2000, 1);
+    /// (periods present, as offsets from `start`, and the offsets refused).
+    fn check_strays_from(start: Period, offsets: &[i64], refused: &[i64]) {
         let periods: Vec<Option<Period>> = offsets.iter().map(|o| Some(start.offset(*o))).collect();
         let got: Vec<i64> = stray_periods(&periods)
             .into_iter()
             .map(|(i, _)| offsets[i])
             .collect();
-        assert_eq!(got, refused, "{offsets:?}");
+        assert_eq!(got, refused, "{offsets:?} from {start}");
+    }
+
+    /// Positions, whose floor is 100 missing periods.
+    fn check_strays(offsets: &[i64], refused: &[i64]) {
+        check_strays_from(Period::position(10_000), offsets, refused);
     }
 
     #[test]
-    fn strays_are_periods_beyond_a_gap_longer_than_max_100_or_twice_the_count() {
+    fn strays_are_periods_beyond_a_gap_longer_than_the_floor_or_twice_the_count() {
         // Two periods: the limit is 100 missing periods between them; the later one goes.
         check_strays(&[0, 101], &[]);
         check_strays(&[0, 102], &[102]);
@@ -503,6 +560,14 @@ mod tests {
         // Repeated periods count once, and every row of a stray period is refused.
         check_strays(&[0, 0, 1, 5000, 5000], &[5000, 5000]);
         check_strays(&[7], &[]);
+        // The floor by frequency: 24 months, 5 years.
+        let month = Period::month(2020, 1);
+        check_strays_from(month, &[0, 25], &[]);
+        check_strays_from(month, &[0, 26], &[26]);
+        let year = Period::year(2019);
+        check_strays_from(year, &[0, 1, 2, 3, 23], &[23]);
+        check_strays_from(year, &[0, 1, 2, 3, 14], &[]);
+        check_strays_from(year, &[0, 1, 2, 3, 15], &[15]);
     }
 
     #[test]
@@ -560,7 +625,7 @@ mod tests {
         let col = read_periods(&["9633-12", "9634-01"], None);
         assert_eq!(col.periods, vec![Some(Period::month(LAST_YEAR, 12)), None]);
         assert!(
-            col.errors[0].1.contains("no later than 9633"),
+            col.errors[0].1.contains("from 1000 to 9633"),
             "{:?}",
             col.errors
         );

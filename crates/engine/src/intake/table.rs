@@ -6,12 +6,13 @@
 //! of each column look like, so one bad cell does not change the layout.
 //!
 //! Header rule: a header-like record has no cell that reads as a number or a period, and at
-//! least one cell (two in a table of two or more columns, not counting columns that only a
-//! delimiter at the end of every line makes) that names something: not empty and
+//! least one cell (two in a table of two or more columns, not counting columns empty in every
+//! record, as a delimiter at the end of every line makes) that names something: not empty and
 //! not a "no value" marker such as `n/a` (a first data row of a bad period and an `n/a` is not
 //! a header); and none of its cells stands again further down the same column (that is an item
 //! name of a long table, so the record is a data row). A data-like record has at least half of
-//! its non-empty cells, and at least one, reading as numbers or periods. Among the first six
+//! its non-empty cells, and at least one, reading as numbers, periods or "no value" markers
+//! (which stand where a quantity would). Among the first six
 //! records, the header is the last header-like record above the first data-like record; the
 //! records between the two are data rows whose bad cells are reported (a first row with a bad
 //! cell is a data row with an error, never a title). In a one-column text nothing tells a title
@@ -20,8 +21,9 @@
 //! starts at the first record with a cell that reads as a number, a period or a "no value"
 //! marker, or that stands again further down its column; so a headerless first row whose only
 //! cell is unreadable ("13/13/2024" alone) is a title line, with its warning. When none of the
-//! six is data-like, the header is the first header-like record. Records above the header, or
-//! above the data when there is no header, are title lines: reported as warnings, not read.
+//! six is data-like, the header is the first header-like record, and without one the data
+//! starts as above. Records above the header, or above the data when there is no header, are
+//! title lines: reported as warnings, not read.
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
 //! one family of period labels; failing that, the first column counts when its whole numbers
@@ -115,13 +117,14 @@ fn reads_as_data(cell: &str) -> bool {
     looks_number(cell) || super::label::parse_label(cell).is_some()
 }
 
+/// A cell that reads as a number or a period, or a "no value" marker standing in for one.
+fn data_or_gap(cell: &str) -> bool {
+    !cell.is_empty() && (reads_as_data(cell) || is_missing(cell))
+}
+
 fn data_like(record: &Record) -> bool {
     let filled = record.filled();
-    let data = record
-        .cells
-        .iter()
-        .filter(|c| !c.is_empty() && reads_as_data(c))
-        .count();
+    let data = record.cells.iter().filter(|c| data_or_gap(c)).count();
     data > 0 && data * 2 >= filled
 }
 
@@ -162,49 +165,40 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .position(|r| !r.is_blank())
         .unwrap_or(records.len());
     records.drain(..first);
-    // Widths without trailing empty cells: a delimiter at the end of every line adds no column.
     let widths: Vec<usize> = records
         .iter()
         .filter(|r| !r.is_blank())
-        .map(|r| {
-            r.cells
-                .iter()
-                .rposition(|c| !c.is_empty())
-                .map_or(0, |i| i + 1)
-        })
+        .map(|r| r.cells.len())
         .collect();
-    let (mode_width, _) = mode_of(&widths);
+    // Columns empty in every record (a delimiter at the end of every line) do not count.
+    let used = records
+        .iter()
+        .filter_map(|r| r.cells.iter().rposition(|c| !c.is_empty()))
+        .max()
+        .map_or(0, |i| i + 1);
+    let mode_width = mode_of(&widths).0.min(used);
     let non_blank: Vec<usize> = (0..records.len())
         .filter(|i| !records[*i].is_blank())
         .collect();
     let window: Vec<usize> = non_blank.iter().take(HEADER_SEARCH).copied().collect();
     let header_like_at =
         |i: &&usize| header_like(&records[**i], mode_width) && !repeats_below(&records, **i);
-    let (header_at, body_start) = match window.iter().position(|i| data_like(&records[*i])) {
-        Some(k) => {
-            let above = &window[..k];
-            let header = if mode_width >= 2 {
-                above.iter().rfind(header_like_at)
-            } else {
-                above.iter().find(header_like_at)
-            };
-            let first_data = above
-                .iter()
-                .find(|i| {
-                    records[**i]
-                        .cells
-                        .iter()
-                        .any(|c| reads_as_data(c) || (!c.is_empty() && is_missing(c)))
-                        || repeats_below(&records, **i)
-                })
-                .unwrap_or(&window[k]);
-            (header.copied(), *header.unwrap_or(first_data))
-        }
-        None => {
-            let header = window.iter().find(header_like_at).copied();
-            (header, header.or(window.first().copied()).unwrap_or(0))
-        }
-    };
+    let data_at = window.iter().position(|i| data_like(&records[*i]));
+    let above = &window[..data_at.unwrap_or(window.len())];
+    let header_at = match data_at {
+        Some(_) if mode_width >= 2 => above.iter().rfind(header_like_at),
+        _ => above.iter().find(header_like_at),
+    }
+    .copied();
+    // Without a header the data starts at the first record that reads as data in part.
+    let first_data = above
+        .iter()
+        .copied()
+        .find(|i| records[*i].cells.iter().any(|c| data_or_gap(c)) || repeats_below(&records, *i))
+        .or(data_at.map(|k| window[k]))
+        .or(window.first().copied())
+        .unwrap_or(0);
+    let body_start = header_at.unwrap_or(first_data);
     let mut rest = records.split_off(body_start);
     let titles: Vec<Record> = records.into_iter().filter(|r| !r.is_blank()).collect();
     let header = match header_at {
