@@ -8,9 +8,34 @@ use libfuzzer_sys::fuzz_target;
 use morrowcast_engine::intake::read_bytes;
 use morrowcast_engine::series::MAX_ABS_VALUE;
 
+/// The text's lines as Intake counts them: LF, CRLF and a lone CR each end one; UTF-16 with
+/// its byte-order mark is decoded first.
+fn line_count(data: &[u8]) -> usize {
+    let text: String = match data {
+        [0xFF, 0xFE, rest @ ..] | [0xFE, 0xFF, rest @ ..] => {
+            let little = data[0] == 0xFF;
+            let units = rest.chunks(2).map(|p| match p {
+                [a, b] if little => u16::from_le_bytes([*a, *b]),
+                [a, b] => u16::from_be_bytes([*a, *b]),
+                _ => 0xFFFD,
+            });
+            char::decode_utf16(units).map(|c| c.unwrap_or('\u{fffd}')).collect()
+        }
+        _ => String::from_utf8_lossy(data).into_owned(),
+    };
+    let mut lines = 1;
+    let mut chars = text.chars().peekable();
+    while let Some(c) = chars.next() {
+        if c == '\n' || (c == '\r' && chars.peek() != Some(&'\n')) {
+            lines += 1;
+        }
+    }
+    lines
+}
+
 fuzz_target!(|data: &[u8]| {
     let report = read_bytes(data);
-    let lines = data.iter().filter(|b| **b == b'\n').count() + 1;
+    let lines = line_count(data);
     for e in &report.errors {
         assert!(e.row >= 1 && e.row <= lines, "row {} of {lines}", e.row);
     }
