@@ -8,8 +8,8 @@ use leptos::prelude::*;
 use leptos::task::spawn_local;
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
-use morrowcast_engine::demo;
 use morrowcast_engine::settings::SettingsText;
+use morrowcast_engine::{demo, intake};
 use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
@@ -17,12 +17,18 @@ use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
 use super::state::{IntakeState, PlanState, DEMO_SOURCE};
 use super::words;
 
-/// Reads a file's text locally and puts it in the Intake box.
+/// Reads a file locally and puts its text in the Intake box. The bytes are decoded by the
+/// engine (UTF-8, or UTF-16 with its byte-order mark), not by the browser's `text()`, which
+/// would replace what it cannot read without a word; the engine's marks for such bytes are
+/// reported by Intake, line by line.
 fn read_file(state: IntakeState, file: File) {
     let name = file.name();
     spawn_local(async move {
-        match JsFuture::from(file.text()).await {
-            Ok(v) => state.set_text(v.as_string().unwrap_or_default(), &name),
+        match JsFuture::from(file.array_buffer()).await {
+            Ok(buffer) => {
+                let bytes = js_sys::Uint8Array::new(&buffer).to_vec();
+                state.set_text(intake::decode_bytes(&bytes), &name)
+            }
             Err(_) => state.set_text(String::new(), &format!("{name} (could not be read)")),
         }
     });
@@ -108,7 +114,7 @@ pub fn IntakePanel() -> impl IntoView {
                     {move || state.report.with(|r| state.text.with(|t| words::intake_lines(t, r)).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
                 </ul>
                 <Show when=move || state.report.with(|r| r.has_errors())>
-                    <h3 class="errors-title">"Cells that could not be read"</h3>
+                    <h3 class="errors-title">"What could not be read"</h3>
                     <ol class="row-errors" id="row-errors">
                         {move || state.report.with(|r| r.errors.iter().map(|e| view! { <li>{words::row_error_line(e)}</li> }).collect_view())}
                     </ol>

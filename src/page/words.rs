@@ -67,23 +67,25 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
     lines.extend(report.warnings.iter().cloned());
     if !report.errors.is_empty() {
         lines.push(format!(
-            "{} cell(s) could not be read; the list below says where. Fix the text in the box and it is read again.",
+            "{} problem(s) found; the list below says where. Fix the text in the box and it is read again.",
             report.errors.len()
         ));
     }
     lines
 }
 
-/// Said above a forecast made while some cells could not be read: they are gaps until fixed.
+/// Said above a forecast made while Intake found problems (a cell, a row or a line it could not
+/// read): what could not be read is left out until fixed.
 pub fn unread_cells_note(count: usize) -> String {
-    let cells = if count == 1 {
-        "1 cell".to_string()
+    let problems = if count == 1 {
+        "1 problem".to_string()
     } else {
-        format!("{count} cells")
+        format!("{count} problems")
     };
     format!(
-        "{cells} of this table could not be read (listed under Intake). Until fixed, the forecast \
-         treats them as missing values, filled by straight-line interpolation, so it may change."
+        "{problems} in this table (listed under Intake). Until fixed, the forecast leaves out what \
+         could not be read (a value that could not be read counts as a missing period, filled by \
+         straight-line interpolation), so it may change."
     )
 }
 
@@ -257,8 +259,8 @@ mod tests {
 
     #[test]
     fn unread_cells_are_counted_in_words() {
-        assert!(unread_cells_note(1).starts_with("1 cell of this table"));
-        assert!(unread_cells_note(3).starts_with("3 cells of this table"));
+        assert!(unread_cells_note(1).starts_with("1 problem in this table"));
+        assert!(unread_cells_note(3).starts_with("3 problems in this table"));
     }
 
     #[test]

@@ -141,7 +141,7 @@ fn broken_paste_shows_row_and_column_and_keeps_the_text() {
     let headline = browser.js("return document.getElementById('headline').textContent");
     let headline = headline.as_str().unwrap_or("");
     assert!(
-        headline.contains("1 cell of this table could not be read"),
+        headline.contains("1 problem in this table"),
         "the forecast says it was made without the unread cell: {headline}"
     );
     save_screenshot(browser, "broken-paste.png");

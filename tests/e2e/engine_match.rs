@@ -260,3 +260,54 @@ fn exported_forecast_csv_equals_the_engines() {
     }
     save_screenshot(browser, "export-forecast.png");
 }
+
+/// Drops a file holding `bytes` (a JSON array of byte values) named `name` on the drop zone.
+fn drop_bytes(browser: &Browser, bytes: &[u8], name: &str) {
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], arguments[1])); \
+         const z = document.getElementById('drop-zone'); \
+         z.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));",
+        json!([bytes, name]),
+    );
+    browser.wait_for_args(
+        "the dropped file's name as the source",
+        "return document.getElementById('intake-source').textContent === arguments[0]",
+        json!([name]),
+        WAIT,
+    );
+}
+
+/// A file's bytes are decoded by the engine, not by the browser: a UTF-16 export (as
+/// spreadsheets write "Unicode text") is read whole, and a byte that is not text is reported at
+/// its line (the browser's own decoding used to replace it without a word).
+#[test]
+fn dropped_bytes_are_decoded_by_the_engine() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let tsv = twine_tsv();
+    let utf16: Vec<u8> = [0xFF, 0xFE]
+        .into_iter()
+        .chain(tsv.encode_utf16().flat_map(u16::to_le_bytes))
+        .collect();
+    drop_bytes(browser, &utf16, "twine-unicode.txt");
+    wait_for_item(browser, "Garden twine");
+    assert_page_shows(browser, &engine_plan(&tsv, "Garden twine"));
+
+    let mut latin1 = b"month,Caf\xE9 chairs\n".to_vec();
+    for line in TWO_ITEMS.lines().skip(1) {
+        let cells: Vec<&str> = line.split(',').collect();
+        latin1.extend_from_slice(format!("{},{}\n", cells[0], cells[1]).as_bytes());
+    }
+    drop_bytes(browser, &latin1, "chairs-latin1.csv");
+    browser.wait_for(
+        "the undecodable byte reported at its line",
+        "const e = document.getElementById('row-errors'); \
+         return !!e && e.textContent.includes('Row 1') && e.textContent.includes('\u{fffd}')",
+        WAIT,
+    );
+    save_screenshot(browser, "drop-latin1.png");
+}

@@ -195,3 +195,31 @@ fn a_period_written_another_way_is_an_error() {
         error.message
     );
 }
+
+// Text decoded by another program (a browser, an editor, a paste) carries U+FFFD where bytes
+// were lost; read as text it used to be taken silently (a name "Caf\u{fffd}", a number cell
+// refused without saying why). Each such line is now an error. Read as bytes, a line with
+// undecodable bytes is reported once, with the bytes.
+#[test]
+fn text_with_replacement_marks_is_reported_by_line() {
+    let r = read("month,sales\n2024-01,5\n2024-02,\u{fffd}7\n2024-03,6\n");
+    assert!(
+        r.errors.iter().any(|e| e.row == 3
+            && e.text == "\u{fffd}"
+            && e.message.contains("could not be read as text")),
+        "{:#?}",
+        r.errors
+    );
+    let bytes = morrowcast_engine::intake::read_bytes(b"month,sales\n2024-01,5\n2024-02,\xE97\n");
+    let on_row_3: Vec<&str> = bytes
+        .errors
+        .iter()
+        .filter(|e| e.row == 3 && e.column.is_empty())
+        .map(|e| e.text.as_str())
+        .collect();
+    assert_eq!(on_row_3, ["\\xE9"], "{:#?}", bytes.errors);
+    assert_eq!(
+        morrowcast_engine::intake::decode_bytes(b"a\n\xE9\n"),
+        "a\n\u{fffd}\n"
+    );
+}

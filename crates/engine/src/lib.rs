@@ -19,12 +19,16 @@
 //! The method internals are public only with the `internals` feature, which the project's
 //! reference tests turn on.
 
+#![warn(missing_docs)]
+
 /// Declares modules that are public with the `internals` feature (the project's reference tests
 /// turn it on) and private to the engine without it: pieces a caller of the engine never needs.
 macro_rules! internal_modules {
     ($($name:ident),* $(,)?) => {
         $(
+            // Internals are not the API: the documentation rule covers what callers use.
             #[cfg(feature = "internals")]
+            #[allow(missing_docs)]
             pub mod $name;
             #[cfg(not(feature = "internals"))]
             mod $name;

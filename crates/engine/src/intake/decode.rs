@@ -3,6 +3,8 @@
 //! Kept apart from: everything after decoding (the rest of intake takes `&str`). Front ends that
 //! hold bytes (a file read from disk, a dropped file) pass them here instead of decoding
 //! themselves, so an undecodable byte is reported with its line instead of silently replaced.
+//! Text that arrives already decoded may still carry U+FFFD, the mark another program left for
+//! bytes it could not read: [`replacement_marks`] reports those lines too.
 //!
 //! Rules: a UTF-16 byte-order mark (FF FE little-endian, FE FF big-endian; spreadsheets write it
 //! for "Unicode text") decodes as UTF-16; anything else decodes as UTF-8 (a UTF-8 byte-order
@@ -137,33 +139,69 @@ impl BadLines {
 
 /// One error per line with undecodable bytes, the first [`MAX_REPORTED_LINES`] of them.
 fn report(bad_lines: Vec<(usize, Vec<u8>)>, encoding: &str, remedy: &str) -> Vec<RowError> {
-    let total = bad_lines.len();
-    let mut errors: Vec<RowError> = bad_lines
+    let lines = bad_lines
         .into_iter()
-        .take(MAX_REPORTED_LINES)
-        .map(|(line, bytes)| RowError {
-            row: line,
-            column: String::new(),
-            text: hex(&bytes),
-            message: format!(
-                "expected {encoding} text; these bytes are not, so the line was read with \
-                 \u{fffd} in their place: {remedy}"
-            ),
-        })
-        .collect();
-    if total > MAX_REPORTED_LINES {
+        .map(|(line, bytes)| (line, hex(&bytes)));
+    let message = format!(
+        "expected {encoding} text; these bytes are not, so the line was read with \u{fffd} in \
+         their place: {remedy}"
+    );
+    let more = format!("hold bytes that are not {encoding} text: {remedy}");
+    capped(lines, &message, &more)
+}
+
+/// One error per line (with the text found there) for the first [`MAX_REPORTED_LINES`] lines,
+/// then one error counting the rest ("N more lines after this one " + `more`).
+fn capped(
+    lines: impl Iterator<Item = (usize, String)>,
+    message: &str,
+    more: &str,
+) -> Vec<RowError> {
+    let mut errors = Vec::new();
+    let mut rest = 0usize;
+    for (row, text) in lines {
+        if errors.len() < MAX_REPORTED_LINES {
+            errors.push(RowError {
+                row,
+                column: String::new(),
+                text,
+                message: message.to_string(),
+            });
+        } else {
+            rest += 1;
+        }
+    }
+    if rest > 0 {
         let last = errors.last().map_or(1, |e| e.row);
         errors.push(RowError {
             row: last,
             column: String::new(),
             text: String::new(),
-            message: format!(
-                "{} more lines after this one hold bytes that are not {encoding} text: {remedy}",
-                total - MAX_REPORTED_LINES
-            ),
+            message: format!("{rest} more lines after this one {more}"),
         });
     }
     errors
+}
+
+/// The lines of `text` that hold U+FFFD, the mark a program leaves where it could not read bytes
+/// as text (a browser or editor that decoded a file wrongly, or a paste from one): each such
+/// line is an error, so a name or number misread there is never planned without a word.
+pub(crate) fn replacement_marks(text: &str) -> Vec<RowError> {
+    let mut lines = Lines::new();
+    let mut marked: Vec<usize> = Vec::new();
+    for c in text.chars() {
+        if c == char::REPLACEMENT_CHARACTER && marked.last() != Some(&lines.line) {
+            marked.push(lines.line);
+        }
+        lines.see(c);
+    }
+    capped(
+        marked.into_iter().map(|row| (row, "\u{fffd}".to_string())),
+        "this line holds \u{fffd}, the mark left where bytes could not be read as text, so a \
+         name or number here may be wrong: open or drop the file itself, or save it as UTF-8 \
+         (in a spreadsheet: CSV UTF-8)",
+        "hold \u{fffd}, the mark of bytes that could not be read as text",
+    )
 }
 
 /// Bytes as `\xE9\x80` (at most 16 shown).
@@ -229,6 +267,23 @@ mod tests {
             .chain([0x00, 0xD8])
             .collect();
         check(&le, "a\rb\r\n\u{fffd}", &[(3, "\\x00\\xD8")]);
+    }
+
+    // Text decoded elsewhere (a browser's File.text(), an editor, a paste) carries U+FFFD where
+    // bytes were lost: each line holding it is reported once, whatever its line ends.
+    #[test]
+    fn replacement_marks_are_reported_by_line() {
+        let rows =
+            |text: &str| -> Vec<usize> { replacement_marks(text).iter().map(|e| e.row).collect() };
+        assert_eq!(rows("a,b\n1,2\n"), Vec::<usize>::new());
+        assert_eq!(
+            rows("name\nCaf\u{fffd}\u{fffd}\nok\r\n\u{fffd}\rx\u{fffd}"),
+            [2, 4, 5]
+        );
+        let many: String = (0..25).map(|_| "\u{fffd}\n").collect();
+        let errors = replacement_marks(&many);
+        assert_eq!(errors.len(), MAX_REPORTED_LINES + 1);
+        assert!(errors.last().unwrap().message.starts_with("5 more lines"));
     }
 
     #[test]

@@ -94,9 +94,13 @@ use crate::series::{Series, SeriesError};
 /// The field separator found.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Delimiter {
+    /// `,`
     Comma,
+    /// `;`
     Semicolon,
+    /// A tab.
     Tab,
+    /// `|`
     Pipe,
 }
 impl Delimiter {
@@ -114,7 +118,9 @@ impl Delimiter {
 /// The decimal mark found.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum DecimalMark {
+    /// `1.5`
     Dot,
+    /// `1,5`
     Comma,
 }
 impl DecimalMark {
@@ -130,8 +136,11 @@ impl DecimalMark {
 /// How items are laid out in the table.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Layout {
+    /// One column of values (with or without a period column).
     Single,
+    /// A period column and one column per item.
     Wide,
+    /// One row per item and period: item, period, quantity.
     Long,
 }
 impl Layout {
@@ -162,8 +171,11 @@ pub struct RowError {
 /// One item as read: a regular run of periods (gaps included as `None`).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Item {
+    /// The item's name (from the header, or "Series N").
     pub name: String,
+    /// Its periods, one per slot, without holes.
     pub periods: Vec<Period>,
+    /// Its values; `None` for a gap.
     pub values: Vec<Option<f64>>,
 }
 
@@ -180,15 +192,21 @@ impl Item {
 pub struct IntakeReport {
     /// The field separator; comma when the text has a single column.
     pub delimiter: Delimiter,
+    /// The decimal mark decided for the whole file.
     pub decimal: DecimalMark,
+    /// How items are laid out.
     pub layout: Layout,
+    /// How often the periods come.
     pub frequency: Frequency,
     /// How the period column was read, in words (e.g. "day-first dates (31/01/2024)").
     pub date_format: Option<String>,
+    /// The items read.
     pub items: Vec<Item>,
     /// Number of gaps inserted for missing periods, summed over items.
     pub gaps_filled: usize,
+    /// What was assumed or reinterpreted, in words.
     pub warnings: Vec<String>,
+    /// What could not be read: each cell or line with its row, column and text.
     pub errors: Vec<RowError>,
     /// Whether a header row was found (item names come from it).
     pub has_header: bool,
@@ -208,14 +226,37 @@ impl IntakeReport {
 /// panics, whatever the bytes.
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     let decoded = decode::decode(bytes);
-    let mut report = read(&decoded.text);
-    report.errors.extend(decoded.errors);
+    let mut report = read_text(&decoded.text);
+    // A line with undecodable bytes is reported with those bytes; a U+FFFD written in the
+    // file itself (valid UTF-8) only by its mark.
+    let byte_rows: Vec<usize> = decoded.errors.iter().map(|e| e.row).collect();
+    let marks = decode::replacement_marks(&decoded.text)
+        .into_iter()
+        .filter(|e| !byte_rows.contains(&e.row));
+    report
+        .errors
+        .extend(decoded.errors.into_iter().chain(marks));
     report.errors.sort_by_key(|e| e.row);
     report
 }
 
-/// Reads text into a report. Never panics, whatever the text.
+/// The text of `bytes` as [`read_bytes`] reads it (UTF-8, or UTF-16 with its byte-order mark;
+/// undecodable bytes become U+FFFD, which [`read`] then reports by line). For a front end that
+/// shows the text itself, such as the page's Intake box.
+pub fn decode_bytes(bytes: &[u8]) -> String {
+    decode::decode(bytes).text
+}
+
+/// Reads text into a report; every line holding U+FFFD (bytes another program could not read
+/// as text) is an error. Never panics, whatever the text.
 pub fn read(text: &str) -> IntakeReport {
+    let mut report = read_text(text);
+    report.errors.extend(decode::replacement_marks(text));
+    report.errors.sort_by_key(|e| e.row);
+    report
+}
+
+fn read_text(text: &str) -> IntakeReport {
     let text = text::strip_bom(text);
     let delimiter = text::sniff_delimiter(text).unwrap_or(Delimiter::Comma);
     let tokens = text::tokenize(text, text::delimiter_char(delimiter));
