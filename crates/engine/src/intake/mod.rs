@@ -64,6 +64,9 @@
 //!   (it has no values, so it is not planned); item names that differ only in white space are
 //!   one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
 //!   item (an error).
+//! - Bytes: `read_bytes` decodes UTF-8, or UTF-16 with its byte-order mark, and reports every
+//!   line with bytes that are not text, with the bytes; `read` reports every line holding
+//!   U+FFFD, the mark another program leaves for bytes it could not read (module `decode`).
 //! - Work is proportional to the text: the tokeniser makes at most two passes, and all items
 //!   together hold at most 100,000 periods plus 1,000 per row read (an item past that is an
 //!   error).
