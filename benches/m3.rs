@@ -11,6 +11,11 @@
 //! horizon of a subset; MASE = |y - f| divided by the in-sample mean absolute seasonal
 //! difference, averaged the same way. "All" pools every series-horizon of every subset (this
 //! reproduces the published "all" figures from the subset figures).
+//!
+//! Bands, at 95 % and 80 %: the share of held-out actuals inside the band ("holds"), and MSIS
+//! as defined for the M4 competition (Makridakis, Spiliotis & Assimakopoulos 2020, IJF 36:
+//! 54-74): [(U - L) + (2/a)(L - y)1{y < L} + (2/a)(y - U)1{y > U}] with a = 1 - level, divided
+//! by the same in-sample seasonal-difference scale as MASE, averaged like MASE.
 
 use std::collections::BTreeMap;
 use std::time::Instant;
@@ -72,6 +77,60 @@ fn series_for(s: &M3Series) -> Series {
     .unwrap_or_else(|e| panic!("{e}"))
 }
 
+/// Band scores of one subset at one level.
+#[derive(Default, Clone)]
+struct BandTally {
+    inside: usize,
+    count: usize,
+    msis_sum: f64,
+    msis_count: usize,
+}
+
+impl BandTally {
+    fn add(&mut self, s: &M3Series, bands: &[(f64, f64)], level: f64) {
+        let alpha = 1.0 - level / 100.0;
+        let scale = seasonal_scale(s);
+        for (y, &(low, high)) in s.test.iter().zip(bands) {
+            self.count += 1;
+            if low <= *y && *y <= high {
+                self.inside += 1;
+            }
+            let penalty = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
+            let scaled = ((high - low) + penalty) / scale;
+            if scaled.is_finite() {
+                self.msis_sum += scaled;
+                self.msis_count += 1;
+            }
+        }
+    }
+    fn cells(&self) -> (String, String) {
+        (
+            format!("{:.1}%", 100.0 * self.inside as f64 / self.count.max(1) as f64),
+            format!("{:.2}", self.msis_sum / self.msis_count.max(1) as f64),
+        )
+    }
+    fn merge(&mut self, o: &BandTally) {
+        self.inside += o.inside;
+        self.count += o.count;
+        self.msis_sum += o.msis_sum;
+        self.msis_count += o.msis_count;
+    }
+}
+
+/// The in-sample mean absolute seasonal difference (the MASE and MSIS scale).
+fn seasonal_scale(s: &M3Series) -> f64 {
+    let m = s.season.max(1);
+    if s.train.len() > m {
+        s.train
+            .windows(m + 1)
+            .map(|w| (w[m] - w[0]).abs())
+            .sum::<f64>()
+            / (s.train.len() - m) as f64
+    } else {
+        f64::NAN
+    }
+}
+
 #[derive(Default, Clone)]
 struct Tally {
     smape_sum: f64,
@@ -82,16 +141,7 @@ struct Tally {
 
 impl Tally {
     fn add(&mut self, s: &M3Series, forecast: &[f64]) {
-        let m = s.season.max(1);
-        let scale = if s.train.len() > m {
-            s.train
-                .windows(m + 1)
-                .map(|w| (w[m] - w[0]).abs())
-                .sum::<f64>()
-                / (s.train.len() - m) as f64
-        } else {
-            f64::NAN
-        };
+        let scale = seasonal_scale(s);
         for (y, f) in s.test.iter().zip(forecast) {
             self.smape_sum += 200.0 * (y - f).abs() / (y.abs() + f.abs());
             self.smape_count += 1;
@@ -144,6 +194,8 @@ fn main() {
     let mut auto: BTreeMap<&str, Tally> = BTreeMap::new();
     let mut theta: BTreeMap<&str, Tally> = BTreeMap::new();
     let mut chosen: BTreeMap<String, usize> = BTreeMap::new();
+    let levels = [95.0, 80.0];
+    let mut bands: BTreeMap<(&str, usize), BandTally> = BTreeMap::new();
     let started = Instant::now();
     let mut count = 0;
     for subset in subsets {
@@ -151,20 +203,33 @@ fn main() {
             continue;
         }
         for s in all.iter().filter(|s| s.subset == subset).take(limit) {
-            let settings = PlanSettings::default()
-                .with_horizon(Some(s.horizon as u64))
-                .expect("M3 horizons are within the limit");
-            let forecast = match plan::plan_item(&series_for(s), &settings) {
-                Ok(p) => {
-                    *chosen.entry(p.chosen.key().to_string()).or_default() += 1;
-                    p.forecast.iter().map(|f| f.band.value).collect()
+            for (i, level) in levels.iter().enumerate() {
+                let settings = PlanSettings::default()
+                    .with_horizon(Some(s.horizon as u64))
+                    .and_then(|p| p.with_level(*level))
+                    .expect("M3 horizons and these levels are within the limits");
+                let (forecast, band): (Vec<f64>, Vec<(f64, f64)>) =
+                    match plan::plan_item(&series_for(s), &settings) {
+                        Ok(p) => {
+                            if i == 0 {
+                                *chosen.entry(p.chosen.key().to_string()).or_default() += 1;
+                            }
+                            p.forecast
+                                .iter()
+                                .map(|f| (f.band.value, (f.band.low, f.band.high)))
+                                .unzip()
+                        }
+                        Err(e) => {
+                            eprintln!("{}: {e}", s.id);
+                            let last = *s.train.last().unwrap_or(&0.0);
+                            (vec![last; s.horizon], vec![(last, last); s.horizon])
+                        }
+                    };
+                if i == 0 {
+                    auto.entry(subset).or_default().add(s, &forecast);
                 }
-                Err(e) => {
-                    eprintln!("{}: {e}", s.id);
-                    vec![*s.train.last().unwrap_or(&0.0); s.horizon]
-                }
-            };
-            auto.entry(subset).or_default().add(s, &forecast);
+                bands.entry((subset, i)).or_default().add(s, &band, *level);
+            }
             theta.entry(subset).or_default().add(s, &theta_forecast(s));
             count += 1;
         }
@@ -228,6 +293,32 @@ fn main() {
     for (name, cells) in published {
         println!("| {name} | {} |", cells.join(" | "));
     }
+    println!();
+    println!("| subset | 95% band holds | MSIS at 95% | 80% band holds | MSIS at 80% |");
+    println!("| --- | --- | --- | --- | --- |");
+    let mut totals = [BandTally::default(), BandTally::default()];
+    for subset in subsets {
+        let mut cells = Vec::new();
+        for (i, total) in totals.iter_mut().enumerate() {
+            match bands.get(&(subset, i)) {
+                Some(t) => {
+                    let (holds, msis) = t.cells();
+                    cells.push(format!("{holds} | {msis}"));
+                    total.merge(t);
+                }
+                None => cells.push("- | -".into()),
+            }
+        }
+        println!("| {} | {} |", subset.to_lowercase(), cells.join(" | "));
+    }
+    let all: Vec<String> = totals
+        .iter()
+        .map(|t| {
+            let (holds, msis) = t.cells();
+            format!("{holds} | {msis}")
+        })
+        .collect();
+    println!("| all | {} |", all.join(" | "));
     let mut picks: Vec<_> = chosen.into_iter().collect();
     picks.sort_by_key(|p| std::cmp::Reverse(p.1));
     let picks: Vec<String> = picks.iter().map(|(k, v)| format!("{k} {v}")).collect();
