@@ -1,0 +1,319 @@
+//! Band laboratory: how ways of turning rolling-origin errors into bands hold on the M3 data.
+//! A research tool for choosing the band rule (the plan's own bands are scored by m3.rs).
+//!
+//! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]`.
+
+use std::collections::BTreeMap;
+
+use morrowcast_engine::backtest;
+use morrowcast_engine::bands::standard_normal_quantile;
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::plan;
+use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
+
+struct M3Series {
+    id: String,
+    subset: String,
+    season: usize,
+    horizon: usize,
+    train: Vec<f64>,
+    test: Vec<f64>,
+}
+
+fn load(path: &str) -> Vec<M3Series> {
+    let text = std::fs::read_to_string(path).unwrap();
+    let mut by_id: BTreeMap<String, M3Series> = BTreeMap::new();
+    for line in text.lines().skip(1) {
+        let f: Vec<&str> = line.split(',').collect();
+        if f.len() < 8 {
+            continue;
+        }
+        let entry = by_id.entry(f[0].to_string()).or_insert_with(|| M3Series {
+            id: f[0].to_string(),
+            subset: f[1].to_string(),
+            season: f[3].parse().unwrap_or(1),
+            horizon: f[4].parse().unwrap_or(1),
+            train: Vec::new(),
+            test: Vec::new(),
+        });
+        let v: f64 = f[7].parse().unwrap_or(f64::NAN);
+        if f[6] == "train" {
+            entry.train.push(v);
+        } else {
+            entry.test.push(v);
+        }
+    }
+    by_id.into_values().collect()
+}
+
+fn series_for(s: &M3Series) -> Series {
+    let start = match s.subset.as_str() {
+        "MONTHLY" => Period::month(2000, 1),
+        "QUARTERLY" => Period::quarter(2000, 1),
+        "YEARLY" => Period::year(1900),
+        _ => Period::position(1),
+    };
+    Series::new(s.id.clone(), start, s.train.iter().map(|v| Some(*v)).collect()).unwrap()
+}
+
+fn scale(s: &M3Series) -> f64 {
+    let m = s.season.max(1);
+    s.train.windows(m + 1).map(|w| (w[m] - w[0]).abs()).sum::<f64>() / (s.train.len() - m) as f64
+}
+
+/// Student-t quantile by the Cornish-Fisher expansion in 1/nu (Abramowitz & Stegun 26.7.5).
+fn t_quantile(p: f64, nu: f64) -> f64 {
+    let z = standard_normal_quantile(p);
+    let (z3, z5, z7) = (z.powi(3), z.powi(5), z.powi(7));
+    z + (z3 + z) / (4.0 * nu)
+        + (5.0 * z5 + 16.0 * z3 + 3.0 * z) / (96.0 * nu * nu)
+        + (3.0 * z7 + 19.0 * z5 + 17.0 * z3 - 15.0 * z) / (384.0 * nu.powi(3))
+}
+
+#[derive(Default)]
+struct Score {
+    inside: [usize; 2],
+    count: usize,
+    msis: [f64; 2],
+}
+
+/// A rule: from the per-horizon errors, the (low, high) offsets below/above the forecast at
+/// each horizon for level p.
+type Rule = fn(&[Vec<f64>], usize, f64) -> Vec<(f64, f64)>;
+
+fn rms(e: &[f64]) -> f64 {
+    (e.iter().map(|x| x * x).sum::<f64>() / e.len().max(1) as f64).sqrt()
+}
+
+/// The engine's rule (per-horizon RMS, pooled standardised quantiles, monotone).
+fn current(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let level = morrowcast_engine::bands::Level::new(p * 100.0).unwrap();
+    let f = vec![0.0; h];
+    let (pts, _) = morrowcast_engine::bands::empirical_band(&f, errors, level, false);
+    pts.iter().map(|b| (-b.low, b.high)).collect()
+}
+
+/// Per-horizon RMS times a t quantile for its error count, with the predictive sqrt(1+1/k).
+fn t_rms(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    let mut last = 0.0;
+    for e in errors.iter().take(h) {
+        let k = e.len();
+        let half = if k >= 2 {
+            t_quantile((1.0 + p) / 2.0, k as f64) * rms(e) * (1.0 + 1.0 / k as f64).sqrt()
+        } else {
+            last
+        };
+        last = half;
+        widest = widest.max(half);
+        out.push((widest, widest));
+    }
+    while out.len() < h {
+        out.push((widest, widest));
+    }
+    out
+}
+
+/// t_rms with the degrees of freedom cut to the independent errors: h-step errors of
+/// neighbouring origins share h - 1 shocks, so k of them count about as k / h.
+fn t_eff(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    let mut last = 0.0;
+    for (i, e) in errors.iter().take(h).enumerate() {
+        let k = e.len();
+        let half = if k >= 2 {
+            let df = (k as f64 / (i + 1) as f64).max(1.0);
+            t_quantile((1.0 + p) / 2.0, df) * rms(e) * (1.0 + 1.0 / df).sqrt()
+        } else {
+            last
+        };
+        last = half;
+        widest = widest.max(half);
+        out.push((widest, widest));
+    }
+    while out.len() < h {
+        out.push((widest, widest));
+    }
+    out
+}
+
+/// Quantile of sorted values (Hyndman & Fan definition 7).
+fn quantile(sorted: &[f64], p: f64) -> f64 {
+    morrowcast_engine::bands::quantile_sorted(sorted, p).unwrap_or(0.0)
+}
+
+/// The shape from the pooled standardised errors (their own quantiles, both tails), the scale
+/// per horizon, and the scale's estimation noise as the t/z ratio for k_h / h effective errors.
+fn shape_t_eff(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let scales: Vec<f64> = errors.iter().map(|e| rms(e)).collect();
+    let mut pooled: Vec<f64> = errors
+        .iter()
+        .zip(&scales)
+        .flat_map(|(e, r)| e.iter().filter(move |_| *r > 0.0).map(move |x| x / r))
+        .collect();
+    pooled.sort_by(f64::total_cmp);
+    if pooled.len() < 20 {
+        return t_eff(errors, h, p);
+    }
+    // e = F - D: demand above the forecast is a negative error.
+    let (q_lo, q_hi) = (quantile(&pooled, (1.0 - p) / 2.0), quantile(&pooled, (1.0 + p) / 2.0));
+    let z = standard_normal_quantile((1.0 + p) / 2.0);
+    let mut out = Vec::new();
+    let (mut below, mut above) = (0.0f64, 0.0f64);
+    let mut last: (f64, usize) = (0.0, 1);
+    for i in 0..h {
+        let (r, k) = match errors.get(i) {
+            Some(e) if e.len() >= 2 => (rms(e), e.len()),
+            _ => last,
+        };
+        last = (r, k);
+        let df = (k as f64 / (i + 1) as f64).max(1.0);
+        let factor = t_quantile((1.0 + p) / 2.0, df) * (1.0 + 1.0 / df).sqrt() / z;
+        below = below.max(q_hi.max(0.0) * r * factor);
+        above = above.max((-q_lo).max(0.0) * r * factor);
+        out.push((below, above));
+    }
+    out
+}
+
+/// Standardised errors with a scale that leaves out the error itself and its neighbours that
+/// share shocks with it (h-block leave-out: origins within h - 1 of it), pooled over the
+/// horizons; the band is the full scale times their quantiles (both tails).
+fn jack_block(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let mut pooled = Vec::new();
+    let mut scales = Vec::new();
+    for (i, e) in errors.iter().enumerate() {
+        let k = e.len();
+        scales.push(rms(e));
+        let block = i; // neighbours on each side sharing shocks with an (i+1)-step error
+        for j in 0..k {
+            let lo = j.saturating_sub(block);
+            let hi = (j + block + 1).min(k);
+            let rest: Vec<f64> = e[..lo].iter().chain(&e[hi..]).copied().collect();
+            if rest.len() >= 2 {
+                let r = rms(&rest);
+                if r > 0.0 {
+                    pooled.push(e[j] / r);
+                }
+            }
+        }
+    }
+    pooled.sort_by(f64::total_cmp);
+    if pooled.len() < 20 {
+        return t_eff(errors, h, p);
+    }
+    let (q_lo, q_hi) = (quantile(&pooled, (1.0 - p) / 2.0), quantile(&pooled, (1.0 + p) / 2.0));
+    let mut out = Vec::new();
+    let (mut below, mut above) = (0.0f64, 0.0f64);
+    let mut last = 0.0;
+    for i in 0..h {
+        let r = match errors.get(i) {
+            Some(e) if e.len() >= 2 => rms(e),
+            _ => last,
+        };
+        last = r;
+        below = below.max(q_hi.max(0.0) * r);
+        above = above.max((-q_lo).max(0.0) * r);
+        out.push((below, above));
+    }
+    out
+}
+
+/// Conformal on scaled errors: per-horizon scale r_h (RMS), scores |e|/r_h pooled over all
+/// horizons, the ceil((n+1)p)-th smallest score.
+fn conformal(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let scales: Vec<f64> = errors.iter().map(|e| rms(e)).collect();
+    let mut scores: Vec<f64> = errors
+        .iter()
+        .zip(&scales)
+        .flat_map(|(e, r)| e.iter().filter(move |_| *r > 0.0).map(move |x| x.abs() / r))
+        .collect();
+    scores.sort_by(f64::total_cmp);
+    let n = scores.len();
+    let rank = (((n + 1) as f64) * p).ceil() as usize;
+    let q = if rank >= 1 && rank <= n { scores[rank - 1] } else { *scores.last().unwrap_or(&2.0) * 1.5 };
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    for i in 0..h {
+        let r = scales.get(i).copied().unwrap_or(0.0);
+        widest = widest.max(q * r);
+        out.push((widest, widest));
+    }
+    out
+}
+
+fn main() {
+    let args: Vec<String> = std::env::args().collect();
+    let arg = |name: &str| args.iter().position(|a| a == name).and_then(|i| args.get(i + 1)).cloned();
+    let subset_filter = arg("--subset");
+    let limit: usize = arg("--limit").and_then(|v| v.parse().ok()).unwrap_or(usize::MAX);
+    let all = load(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/m3/m3.csv"));
+    let rules: [(&str, Rule); 1] = [("t_eff", t_eff)];
+    let origin_counts = [8usize, 12, 16, 24, 1000];
+    let mut scores: BTreeMap<(String, String), Score> = BTreeMap::new();
+    let mut taken: BTreeMap<String, usize> = BTreeMap::new();
+    for s in all.iter().filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset)) {
+        let n = taken.entry(s.subset.clone()).or_default();
+        if *n >= limit {
+            continue;
+        }
+        *n += 1;
+        let settings = PlanSettings::default().with_horizon(Some(s.horizon as u64)).unwrap();
+        let Ok(p) = plan::plan_item(&series_for(s), &settings) else { continue };
+        let m = p.season.length;
+        let point: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
+        let min_train = (2 * m.unwrap_or(1)).max(plan::MIN_PERIODS);
+        for origins in origin_counts {
+            let ends = backtest::band_origins(s.train.len(), s.horizon, min_train, origins);
+            let mut errors = vec![Vec::new(); s.horizon];
+            let mut relative = vec![Vec::new(); s.horizon];
+            for end in ends {
+                let steps = s.horizon.min(s.train.len() - end);
+                if let Ok(f) = backtest::forecast_with(&p.chosen, &s.train[..end], m, steps) {
+                    for (h, (fv, d)) in f.iter().zip(&s.train[end..end + steps]).enumerate() {
+                        errors[h].push(fv - d);
+                        if fv.abs() > 1e-9 {
+                            relative[h].push((fv - d) / fv.abs());
+                        }
+                    }
+                }
+            }
+            for (kind, errs) in [("abs", &errors)] {
+            for (name, rule) in rules {
+                let key = (s.subset.clone(), format!("{name}/{kind}/{origins}"));
+                let score = scores.entry(key).or_default();
+                for (li, level) in [0.95, 0.80].iter().enumerate() {
+                    let offsets = rule(errs, s.horizon, *level);
+                    let alpha = 1.0 - level;
+                    for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
+                        let unit = if kind == "rel" { f.abs() } else { 1.0 };
+                        let _ = &relative;
+                        let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
+                        if low <= *y && *y <= high {
+                            score.inside[li] += 1;
+                        }
+                        let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
+                        score.msis[li] += ((high - low) + pen) / scale(s);
+                    }
+                }
+                score.count += s.test.len().min(s.horizon);
+            }
+            }
+        }
+        let _ = &s.id;
+    }
+    println!("| subset | rule/origins | 95% holds | MSIS 95 | 80% holds | MSIS 80 |");
+    for ((subset, rule), sc) in &scores {
+        let c = sc.count.max(1) as f64;
+        println!(
+            "| {subset} | {rule} | {:.1}% | {:.2} | {:.1}% | {:.2} |",
+            100.0 * sc.inside[0] as f64 / c,
+            sc.msis[0] / c,
+            100.0 * sc.inside[1] as f64 / c,
+            sc.msis[1] / c
+        );
+    }
+}
