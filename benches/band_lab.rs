@@ -54,12 +54,21 @@ fn series_for(s: &M3Series) -> Series {
         "YEARLY" => Period::year(1900),
         _ => Period::position(1),
     };
-    Series::new(s.id.clone(), start, s.train.iter().map(|v| Some(*v)).collect()).unwrap()
+    Series::new(
+        s.id.clone(),
+        start,
+        s.train.iter().map(|v| Some(*v)).collect(),
+    )
+    .unwrap()
 }
 
 fn scale(s: &M3Series) -> f64 {
     let m = s.season.max(1);
-    s.train.windows(m + 1).map(|w| (w[m] - w[0]).abs()).sum::<f64>() / (s.train.len() - m) as f64
+    s.train
+        .windows(m + 1)
+        .map(|w| (w[m] - w[0]).abs())
+        .sum::<f64>()
+        / (s.train.len() - m) as f64
 }
 
 /// Student-t quantile by the Cornish-Fisher expansion in 1/nu (Abramowitz & Stegun 26.7.5).
@@ -159,7 +168,10 @@ fn shape_t_eff(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
         return t_eff(errors, h, p);
     }
     // e = F - D: demand above the forecast is a negative error.
-    let (q_lo, q_hi) = (quantile(&pooled, (1.0 - p) / 2.0), quantile(&pooled, (1.0 + p) / 2.0));
+    let (q_lo, q_hi) = (
+        quantile(&pooled, (1.0 - p) / 2.0),
+        quantile(&pooled, (1.0 + p) / 2.0),
+    );
     let z = standard_normal_quantile((1.0 + p) / 2.0);
     let mut out = Vec::new();
     let (mut below, mut above) = (0.0f64, 0.0f64);
@@ -205,7 +217,10 @@ fn jack_block(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     if pooled.len() < 20 {
         return t_eff(errors, h, p);
     }
-    let (q_lo, q_hi) = (quantile(&pooled, (1.0 - p) / 2.0), quantile(&pooled, (1.0 + p) / 2.0));
+    let (q_lo, q_hi) = (
+        quantile(&pooled, (1.0 - p) / 2.0),
+        quantile(&pooled, (1.0 + p) / 2.0),
+    );
     let mut out = Vec::new();
     let (mut below, mut above) = (0.0f64, 0.0f64);
     let mut last = 0.0;
@@ -234,7 +249,11 @@ fn conformal(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     scores.sort_by(f64::total_cmp);
     let n = scores.len();
     let rank = (((n + 1) as f64) * p).ceil() as usize;
-    let q = if rank >= 1 && rank <= n { scores[rank - 1] } else { *scores.last().unwrap_or(&2.0) * 1.5 };
+    let q = if rank >= 1 && rank <= n {
+        scores[rank - 1]
+    } else {
+        *scores.last().unwrap_or(&2.0) * 1.5
+    };
     let mut out = Vec::new();
     let mut widest = 0.0f64;
     for i in 0..h {
@@ -247,22 +266,39 @@ fn conformal(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
 
 fn main() {
     let args: Vec<String> = std::env::args().collect();
-    let arg = |name: &str| args.iter().position(|a| a == name).and_then(|i| args.get(i + 1)).cloned();
+    let arg = |name: &str| {
+        args.iter()
+            .position(|a| a == name)
+            .and_then(|i| args.get(i + 1))
+            .cloned()
+    };
     let subset_filter = arg("--subset");
-    let limit: usize = arg("--limit").and_then(|v| v.parse().ok()).unwrap_or(usize::MAX);
-    let all = load(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/m3/m3.csv"));
+    let limit: usize = arg("--limit")
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(usize::MAX);
+    let all = load(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/m3/m3.csv"
+    ));
     let rules: [(&str, Rule); 1] = [("t_eff", t_eff)];
     let origin_counts = [8usize, 12, 16, 24, 1000];
     let mut scores: BTreeMap<(String, String), Score> = BTreeMap::new();
     let mut taken: BTreeMap<String, usize> = BTreeMap::new();
-    for s in all.iter().filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset)) {
+    for s in all
+        .iter()
+        .filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset))
+    {
         let n = taken.entry(s.subset.clone()).or_default();
         if *n >= limit {
             continue;
         }
         *n += 1;
-        let settings = PlanSettings::default().with_horizon(Some(s.horizon as u64)).unwrap();
-        let Ok(p) = plan::plan_item(&series_for(s), &settings) else { continue };
+        let settings = PlanSettings::default()
+            .with_horizon(Some(s.horizon as u64))
+            .unwrap();
+        let Ok(p) = plan::plan_item(&series_for(s), &settings) else {
+            continue;
+        };
         let m = p.season.length;
         let point: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
         let min_train = (2 * m.unwrap_or(1)).max(plan::MIN_PERIODS);
@@ -282,25 +318,25 @@ fn main() {
                 }
             }
             for (kind, errs) in [("abs", &errors)] {
-            for (name, rule) in rules {
-                let key = (s.subset.clone(), format!("{name}/{kind}/{origins}"));
-                let score = scores.entry(key).or_default();
-                for (li, level) in [0.95, 0.80].iter().enumerate() {
-                    let offsets = rule(errs, s.horizon, *level);
-                    let alpha = 1.0 - level;
-                    for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
-                        let unit = if kind == "rel" { f.abs() } else { 1.0 };
-                        let _ = &relative;
-                        let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
-                        if low <= *y && *y <= high {
-                            score.inside[li] += 1;
+                for (name, rule) in rules {
+                    let key = (s.subset.clone(), format!("{name}/{kind}/{origins}"));
+                    let score = scores.entry(key).or_default();
+                    for (li, level) in [0.95, 0.80].iter().enumerate() {
+                        let offsets = rule(errs, s.horizon, *level);
+                        let alpha = 1.0 - level;
+                        for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
+                            let unit = if kind == "rel" { f.abs() } else { 1.0 };
+                            let _ = &relative;
+                            let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
+                            if low <= *y && *y <= high {
+                                score.inside[li] += 1;
+                            }
+                            let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
+                            score.msis[li] += ((high - low) + pen) / scale(s);
                         }
-                        let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
-                        score.msis[li] += ((high - low) + pen) / scale(s);
                     }
+                    score.count += s.test.len().min(s.horizon);
                 }
-                score.count += s.test.len().min(s.horizon);
-            }
             }
         }
         let _ = &s.id;

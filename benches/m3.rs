@@ -105,7 +105,10 @@ impl BandTally {
     }
     fn cells(&self) -> (String, String) {
         (
-            format!("{:.1}%", 100.0 * self.inside as f64 / self.count.max(1) as f64),
+            format!(
+                "{:.1}%",
+                100.0 * self.inside as f64 / self.count.max(1) as f64
+            ),
             format!("{:.2}", self.msis_sum / self.msis_count.max(1) as f64),
         )
     }
