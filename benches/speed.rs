@@ -124,6 +124,7 @@ fn main() {
     let total = t.elapsed().as_secs_f64();
     println!("1,000 such series on one core: {total:.2} s (target < 5 s)");
     println!("chosen: {chosen:?}");
+    thousand_through_the_command_line(&data);
 
     method_fits(&data[0]);
     intake_of_large_files();
@@ -199,6 +200,31 @@ fn one_very_long_history() {
         std::hint::black_box(plan::plan_item(&series, &PlanSettings::default()).ok());
     });
     println!("one item of 100,000 daily periods: {ms:.0} ms");
+}
+
+/// The 1,000 synthetic 60-month series through `morrowcast forecast - --json` (in process),
+/// which plans on every core the machine offers (`taskset -c 0` limits it to one).
+fn thousand_through_the_command_line(data: &[Vec<f64>]) {
+    let mut text = String::from("item,month,units\n");
+    for (i, s) in data.iter().enumerate() {
+        for (t, v) in s.iter().enumerate() {
+            let _ = writeln!(text, "s{i},{}-{:02},{v}", 2020 + t / 12, t % 12 + 1);
+        }
+    }
+    let args: Vec<String> = ["forecast", "-", "--json"].map(String::from).to_vec();
+    let t = Instant::now();
+    let code = morrowcast_cli::run(
+        &args,
+        &mut text.as_bytes(),
+        &mut std::io::sink(),
+        &mut std::io::sink(),
+    );
+    println!(
+        "the same 1,000 series through the command line on {} thread(s): {:.2} s, exit {code} \
+         (target < 1.5 s on 2 cores)",
+        morrowcast_cli::parallel::available_threads(),
+        t.elapsed().as_secs_f64()
+    );
 }
 
 /// A long-layout file of 5,000 items of 24 months through `morrowcast forecast - --json` (in

@@ -10,6 +10,7 @@
 //! was rejected (the intake report with its errors).
 
 pub mod args;
+pub mod parallel;
 pub mod table;
 pub mod wire;
 
@@ -155,26 +156,32 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
     if fa.items.is_empty() {
         items = report.items.iter().collect();
     }
-    // Plans are made and written one item at a time, so a file of thousands of items never
-    // holds all its plans, or all their JSON, in memory.
+    // Plans are made on every core a batch at a time and written in the file's order
+    // ([`parallel::InOrder`]), so a file of thousands of items never holds all its plans, or
+    // all their JSON, in memory.
     let planned = Cell::new(0usize);
     let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
-    let mut pending = items.into_iter();
-    let mut next_plan = || {
-        for item in pending.by_ref() {
-            let outcome = item
-                .series()
+    let mut pending = parallel::InOrder::new(
+        &items,
+        parallel::available_threads(),
+        |item: &&intake::Item| {
+            item.series()
                 .map_err(|e| e.to_string())
-                .and_then(|s| plan::plan_item(&s, &fa.settings).map_err(|e| e.to_string()));
+                .and_then(|s| plan::plan_item(&s, &fa.settings).map_err(|e| e.to_string()))
+                .map_err(|message| FailedJson {
+                    name: item.name.clone(),
+                    message,
+                })
+        },
+    );
+    let mut next_plan = || {
+        for outcome in pending.by_ref() {
             match outcome {
                 Ok(p) => {
                     planned.set(planned.get() + 1);
                     return Some(p);
                 }
-                Err(message) => failed.borrow_mut().push(FailedJson {
-                    name: item.name.clone(),
-                    message,
-                }),
+                Err(failure) => failed.borrow_mut().push(failure),
             }
         }
         None
