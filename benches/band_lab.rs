@@ -1,7 +1,15 @@
 //! Band laboratory: how ways of turning rolling-origin errors into bands hold on the M3 data.
-//! A research tool for choosing the band rule (the plan's own bands are scored by m3.rs).
+//! A research tool for choosing the band rule (the plan's own bands are scored by m3.rs); the
+//! README records what it showed. Each series is planned as the page would plan it; then the
+//! chosen candidate is refitted at the rolling origins (8, 36 or every one) and each rule turns
+//! the errors into bands, scored on the held-out actuals.
 //!
-//! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]`.
+//! Rules: engine (bands::rolling_band, the rule the plan uses); t_pure (the same, written
+//! here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
+//! pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
+//! conformal (split conformal on scaled errors). "rel" variants scale errors by the forecast.
+//!
+//! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]` (a few minutes).
 
 use std::collections::BTreeMap;
 
@@ -95,12 +103,14 @@ fn rms(e: &[f64]) -> f64 {
     (e.iter().map(|x| x * x).sum::<f64>() / e.len().max(1) as f64).sqrt()
 }
 
-/// The engine's rule (per-horizon RMS, pooled standardised quantiles, monotone).
-fn current(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+/// The engine's rule, bands::rolling_band (equal to t_pure).
+fn engine(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     let level = morrowcast_engine::bands::Level::new(p * 100.0).unwrap();
     let f = vec![0.0; h];
-    let (pts, _) = morrowcast_engine::bands::empirical_band(&f, errors, level, false);
-    pts.iter().map(|b| (-b.low, b.high)).collect()
+    match morrowcast_engine::bands::rolling_band(&f, errors, level, false) {
+        Some(pts) => pts.iter().map(|b| (-b.low, b.high)).collect(),
+        None => vec![(0.0, 0.0); h],
+    }
 }
 
 /// Per-horizon RMS times a t quantile for its error count, with the predictive sqrt(1+1/k).
@@ -145,6 +155,67 @@ fn t_eff(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     }
     while out.len() < h {
         out.push((widest, widest));
+    }
+    out
+}
+
+/// t_eff without the sqrt(1 + 1/df) factor: e_new / s ~ t_df when s^2 is a mean of df squared
+/// independent N(0, sigma^2) errors.
+fn t_pure(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    let mut last = 0.0;
+    for (i, e) in errors.iter().take(h).enumerate() {
+        let k = e.len();
+        let half = if k >= 2 {
+            let df = (k as f64 / (i + 1) as f64).max(1.0);
+            t_quantile((1.0 + p) / 2.0, df) * rms(e)
+        } else {
+            last
+        };
+        last = half;
+        widest = widest.max(half);
+        out.push((widest, widest));
+    }
+    while out.len() < h {
+        out.push((widest, widest));
+    }
+    out
+}
+
+/// The empirical shape of the pooled standardised errors where at least 10 of them lie beyond
+/// each tail quantile (so the quantile rests on data), else t_pure; the scale per horizon with
+/// its estimation noise as the ratio t_df / z for df = k_h / h.
+fn hybrid(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let scales: Vec<f64> = errors.iter().map(|e| rms(e)).collect();
+    let mut pooled: Vec<f64> = errors
+        .iter()
+        .zip(&scales)
+        .flat_map(|(e, r)| e.iter().filter(move |_| *r > 0.0).map(move |x| x / r))
+        .collect();
+    if (pooled.len() as f64) * (1.0 - p) / 2.0 < 10.0 {
+        return t_pure(errors, h, p);
+    }
+    pooled.sort_by(f64::total_cmp);
+    let (q_lo, q_hi) = (
+        quantile(&pooled, (1.0 - p) / 2.0),
+        quantile(&pooled, (1.0 + p) / 2.0),
+    );
+    let z = standard_normal_quantile((1.0 + p) / 2.0);
+    let mut out = Vec::new();
+    let (mut below, mut above) = (0.0f64, 0.0f64);
+    let mut last: (f64, usize) = (0.0, 1);
+    for i in 0..h {
+        let (r, k) = match errors.get(i) {
+            Some(e) if e.len() >= 2 => (rms(e), e.len()),
+            _ => last,
+        };
+        last = (r, k);
+        let df = (k as f64 / (i + 1) as f64).max(1.0);
+        let factor = t_quantile((1.0 + p) / 2.0, df) / z;
+        below = below.max(q_hi.max(0.0) * r * factor);
+        above = above.max((-q_lo).max(0.0) * r * factor);
+        out.push((below, above));
     }
     out
 }
@@ -264,6 +335,37 @@ fn conformal(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     out
 }
 
+/// Like backtest::band_origins, with `stride` periods between origins: the latest ends whose
+/// whole horizon falls in the history, every `stride`-th going back, then later ends with the
+/// horizon cut at the end of the data.
+fn strided_origins(
+    length: usize,
+    horizon: usize,
+    min_train: usize,
+    most: usize,
+    stride: usize,
+) -> Vec<usize> {
+    let mut ends = Vec::new();
+    let full_last = length.saturating_sub(horizon);
+    let mut end = full_last;
+    while ends.len() < most && end >= min_train && end > 0 {
+        ends.push(end);
+        if end < stride {
+            break;
+        }
+        end -= stride;
+    }
+    let mut partial = full_last + 1;
+    while ends.len() < most && partial < length {
+        if partial >= min_train {
+            ends.push(partial);
+        }
+        partial += stride;
+    }
+    ends.sort_unstable();
+    ends
+}
+
 fn main() {
     let args: Vec<String> = std::env::args().collect();
     let arg = |name: &str| {
@@ -280,8 +382,26 @@ fn main() {
         env!("CARGO_MANIFEST_DIR"),
         "/tests/fixtures/m3/m3.csv"
     ));
-    let rules: [(&str, Rule); 1] = [("t_eff", t_eff)];
-    let origin_counts = [8usize, 12, 16, 24, 1000];
+    let rules: [(&str, Rule); 8] = [
+        ("engine", engine),
+        ("t_pure", t_pure),
+        ("t_rms", t_rms),
+        ("t_eff", t_eff),
+        ("shape_t_eff", shape_t_eff),
+        ("hybrid", hybrid),
+        ("jack_block", jack_block),
+        ("conformal", conformal),
+    ];
+    // (most origins, periods between origins)
+    let patterns = [
+        (8usize, 1usize),
+        (36, 1),
+        (12, 3),
+        (12, 2),
+        (9, 4),
+        (18, 2),
+        (1000, 1),
+    ];
     let mut scores: BTreeMap<(String, String), Score> = BTreeMap::new();
     let mut taken: BTreeMap<String, usize> = BTreeMap::new();
     for s in all
@@ -299,44 +419,41 @@ fn main() {
         let Ok(p) = plan::plan_item(&series_for(s), &settings) else {
             continue;
         };
-        let m = p.season.length;
         let point: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
-        let min_train = (2 * m.unwrap_or(1)).max(plan::MIN_PERIODS);
-        for origins in origin_counts {
-            let ends = backtest::band_origins(s.train.len(), s.horizon, min_train, origins);
+        let min_train =
+            (2 * p.seasons.for_candidate(&p.chosen).unwrap_or(1)).max(plan::MIN_PERIODS);
+        // Forecasts at every end any pattern uses, made once per series.
+        let mut made: BTreeMap<usize, Option<Vec<f64>>> = BTreeMap::new();
+        for (count, stride) in patterns {
+            let ends = strided_origins(s.train.len(), s.horizon, min_train, count, stride);
             let mut errors = vec![Vec::new(); s.horizon];
-            let mut relative = vec![Vec::new(); s.horizon];
             for end in ends {
                 let steps = s.horizon.min(s.train.len() - end);
-                if let Ok(f) = backtest::forecast_with(&p.chosen, &s.train[..end], m, steps) {
+                let f = made.entry(end).or_insert_with(|| {
+                    backtest::forecast_with(&p.chosen, &s.train[..end], p.seasons, steps).ok()
+                });
+                if let Some(f) = f {
                     for (h, (fv, d)) in f.iter().zip(&s.train[end..end + steps]).enumerate() {
                         errors[h].push(fv - d);
-                        if fv.abs() > 1e-9 {
-                            relative[h].push((fv - d) / fv.abs());
-                        }
                     }
                 }
             }
-            for (kind, errs) in [("abs", &errors)] {
-                for (name, rule) in rules {
-                    let key = (s.subset.clone(), format!("{name}/{kind}/{origins}"));
-                    let score = scores.entry(key).or_default();
-                    for (li, level) in [0.95, 0.80].iter().enumerate() {
-                        let offsets = rule(errs, s.horizon, *level);
-                        let alpha = 1.0 - level;
-                        for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
-                            let unit = if kind == "rel" { f.abs() } else { 1.0 };
-                            let _ = &relative;
-                            let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
-                            if low <= *y && *y <= high {
-                                score.inside[li] += 1;
-                            }
-                            let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
-                            score.msis[li] += ((high - low) + pen) / scale(s);
+            for (name, rule) in rules {
+                let key = (s.subset.clone(), format!("{name}/{count}x{stride}"));
+                let score = scores.entry(key).or_default();
+                for (li, level) in [0.95, 0.80].iter().enumerate() {
+                    let offsets = rule(&errors, s.horizon, *level);
+                    let alpha = 1.0 - level;
+                    for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
+                        let (low, high) = ((f - below).max(0.0), f + above);
+                        if low <= *y && *y <= high {
+                            score.inside[li] += 1;
                         }
+                        let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
+                        score.msis[li] += ((high - low) + pen) / scale(s);
                     }
-                    score.count += s.test.len().min(s.horizon);
                 }
+                score.count += s.test.len().min(s.horizon);
             }
         }
         let _ = &s.id;

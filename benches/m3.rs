@@ -191,8 +191,16 @@ fn main() {
     let limit: usize = arg("--limit")
         .and_then(|v| v.parse().ok())
         .unwrap_or(usize::MAX);
+    // `--keep N`: a short-history study, each series' train cut to its last N periods.
+    let keep: Option<usize> = arg("--keep").and_then(|v| v.parse().ok());
     let path = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/m3/m3.csv");
-    let all = load(path);
+    let mut all = load(path);
+    if let Some(keep) = keep {
+        for s in &mut all {
+            let cut = s.train.len().saturating_sub(keep);
+            s.train.drain(..cut);
+        }
+    }
     let subsets = ["YEARLY", "QUARTERLY", "MONTHLY", "OTHER"];
     let mut auto: BTreeMap<&str, Tally> = BTreeMap::new();
     let mut theta: BTreeMap<&str, Tally> = BTreeMap::new();

@@ -21,3 +21,25 @@ fn normal_quantiles_match_scipy() {
     assert!((ratio - (std::f64::consts::PI / 2.0).sqrt()).abs() < 1e-15);
     assert!((ratio - MAD_TO_SIGMA).abs() < 0.0034);
 }
+
+// scipy 1.17.1 scipy.stats.t.ppf (tests/fixtures/refs/t_quantiles.json, made by
+// scripts/t_quantile_reference.py), fractional degrees of freedom included: statrs, which the
+// rolling-origin band uses, must agree to 1e-8 relative.
+#[test]
+fn student_t_quantiles_match_scipy() {
+    let reference = json("t_quantiles.json");
+    let rows = reference["t_ppf"].as_array().unwrap();
+    assert!(rows.len() >= 60);
+    for row in rows {
+        let (p, df, q) = (
+            row["p"].as_f64().unwrap(),
+            row["df"].as_f64().unwrap(),
+            row["q"].as_f64().unwrap(),
+        );
+        let got = morrowcast_engine::bands::student_t_quantile(p, df);
+        assert!(
+            (got - q).abs() <= 1e-8 * q.abs().max(1.0),
+            "t({df}) at {p}: {got} vs scipy {q}"
+        );
+    }
+}

@@ -44,9 +44,11 @@ fn progress_counts_every_candidate_and_the_plan_is_the_same() {
     assert_eq!(total, candidates + 1);
     assert!(seen.iter().all(|s| s.total == total));
     let mut done: Vec<usize> = seen.iter().map(|s| s.done).collect();
-    // The last step (refit and band) is heard again at each of the band's 8 rolling origins.
+    // The last step (refit and band) is heard again at each of the band's rolling origins: 60
+    // periods, 12 to forecast, at least 24 to train, so 36 ends (24 to 59, the later ones with
+    // the horizon cut at the end of the data), all within BAND_ORIGINS.
     let last_heard = done.iter().filter(|d| **d == total - 1).count();
-    assert_eq!(last_heard, 1 + 8);
+    assert_eq!(last_heard, 1 + 36);
     done.dedup();
     assert_eq!(done, (0..total).collect::<Vec<_>>());
 }
@@ -71,6 +73,58 @@ fn three_years_with_a_season_keep_the_seasonal_methods() {
         .ranking
         .iter()
         .any(|r| r.candidate.key() == "holt_winters_multiplicative"));
+}
+
+#[test]
+fn a_season_rejected_on_three_years_is_tried_in_the_backtest() {
+    let s = monthly(seasonal(36).into_iter().map(Some).collect());
+    let p = plan_item(&s, &PlanSettings::default()).unwrap();
+    // The test's threshold is strict on three seasons: it rejects this clear season...
+    assert_eq!(p.season.length, None, "{}", p.season.reason);
+    // ...so the seasonal methods compete with it, the others stay without a season...
+    assert_eq!(p.seasons.trial_length(), Some(12));
+    assert_eq!(p.seasons.accepted_length(), None);
+    let keys: Vec<&str> = p
+        .backtest
+        .ranking
+        .iter()
+        .map(|r| r.candidate.key())
+        .collect();
+    assert!(keys.contains(&"holt_winters_additive"), "{keys:?}");
+    // ...they win it, and the forecast peaks in the pattern's peak month (index 5 of 12).
+    let note = p
+        .notes
+        .iter()
+        .find(|n| n.contains("rejected a 12-period season"));
+    assert!(
+        note.is_some_and(|n| n.ends_with("so the forecast follows the season")),
+        "{:?}",
+        p.notes
+    );
+    let values: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
+    let peak = (0..12)
+        .max_by(|a, b| values[*a].total_cmp(&values[*b]))
+        .unwrap();
+    assert!(peak == 4 || peak == 5, "{values:?}");
+    // "No season", chosen by the user, is not overridden by a trial.
+    let none = PlanSettings::default()
+        .with_season(SeasonChoice::Fixed(1))
+        .unwrap();
+    let q = plan_item(&s, &none).unwrap();
+    assert_eq!(q.seasons.trial_length(), None);
+    assert!(q
+        .backtest
+        .ranking
+        .iter()
+        .all(|r| !r.candidate.key().starts_with("holt_winters")));
+    // Five years: the test accepts the season on its own; nothing is on trial.
+    let long = plan_item(
+        &monthly(seasonal(60).into_iter().map(Some).collect()),
+        &PlanSettings::default(),
+    )
+    .unwrap();
+    assert_eq!(long.seasons.accepted_length(), Some(12));
+    assert_eq!(long.seasons.trial_length(), None);
 }
 
 #[test]

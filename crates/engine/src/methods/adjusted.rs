@@ -73,7 +73,7 @@ where
         value: m as f64,
     });
     debug_assert_eq!(inner.forecast().len(), horizon);
-    Fitted::new(inner.kind(), fitted, forecast, variance, parameters)
+    Ok(Fitted::new(inner.kind(), fitted, forecast, variance, parameters)?.with_anchor_of(&inner))
 }
 
 #[cfg(test)]

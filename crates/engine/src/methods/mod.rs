@@ -241,6 +241,8 @@ pub struct Fitted {
     forecast: Vec<f64>,
     variance: Option<Vec<f64>>,
     parameters: Vec<Parameter>,
+    /// What [`update`] reuses: the smoothing parameters and initial states, for smoothing fits.
+    anchor: Option<smoothing::Anchor>,
 }
 
 impl Fitted {
@@ -266,7 +268,20 @@ impl Fitted {
             forecast,
             variance,
             parameters,
+            anchor: None,
         })
+    }
+
+    /// Keeps what [`update`] needs of a smoothing fit.
+    pub(crate) fn with_anchor(mut self, anchor: smoothing::Anchor) -> Fitted {
+        self.anchor = Some(anchor);
+        self
+    }
+
+    /// Carries over the [`smoothing::Anchor`] of the fit this one was built from.
+    pub(crate) fn with_anchor_of(mut self, inner: &Fitted) -> Fitted {
+        self.anchor = inner.anchor.clone();
+        self
     }
 
     /// The method fitted.
@@ -340,5 +355,41 @@ pub fn fit(
         MethodKind::Croston | MethodKind::Sba | MethodKind::Tsb => {
             intermittent::fit(kind, history, horizon)
         }
+    }
+}
+
+/// Forecasts `horizon` steps after `history` with the model of `earlier`, a fit of the same
+/// method to a prefix of `history`: smoothing methods keep its parameters and initial states
+/// and only run their recursion over the longer history (rolling-origin updating, Tashman 2000,
+/// IJF 16, from memory; the seasonal indices of the adjusted methods are recomputed); every
+/// other method, cheap to fit, is fitted afresh. Used for the band's many rolling origins
+/// ([`crate::backtest::rolling_errors`]), where a fit at each origin would cost ten times more.
+pub(crate) fn update(
+    earlier: &Fitted,
+    history: &[f64],
+    season_length: Option<usize>,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
+    let kind = earlier.kind;
+    let Some(anchor) = &earlier.anchor else {
+        return fit(kind, history, season_length, horizon);
+    };
+    let season = season_length.filter(|m| *m >= 2);
+    match kind {
+        MethodKind::Ses | MethodKind::Holt | MethodKind::DampedTrend => {
+            match adjusted::applies(history, season) {
+                Some(m) => adjusted::fit_adjusted(history, m, horizon, |y| {
+                    smoothing::update(kind, anchor, y, horizon)
+                }),
+                None => smoothing::update(kind, anchor, history, horizon),
+            }
+        }
+        MethodKind::HoltWintersAdditive
+        | MethodKind::HoltWintersMultiplicative
+        | MethodKind::DampedHoltWintersAdditive
+        | MethodKind::DampedHoltWintersMultiplicative => {
+            smoothing::update(kind, anchor, history, horizon)
+        }
+        _ => fit(kind, history, season_length, horizon),
     }
 }

@@ -112,17 +112,7 @@ pub fn fit_model(
     if !run.sse.is_finite() {
         return Err(MethodError::Diverged { method: kind });
     }
-    let k = model.smoothing_count() + model.free_state_count();
-    let sigma2 = (history.len() > k).then(|| run.sse / (history.len() - k) as f64);
-    let variance =
-        sigma2.and_then(|s2| variance::forecast_variances(model, estimate.parameters, s2, horizon));
-    Ok(Fit {
-        model,
-        estimate,
-        run,
-        sigma2,
-        variance,
-    })
+    Ok(finish(model, estimate, run, horizon))
 }
 
 /// Entry point used by [`crate::methods::fit`] for the seven smoothing kinds.
@@ -138,6 +128,75 @@ pub fn fit(
         None => return Err(MethodError::Diverged { method: kind }),
     };
     let fit = fit_model(kind, model, history, horizon, &FitSettings::default())?;
+    to_fitted(kind, fit)
+}
+
+/// Runs the recursion of an earlier fit of `kind` (its smoothing parameters and initial states
+/// held fixed) over `history`, which extends the history of that fit, and forecasts `horizon`
+/// steps: rolling-origin updating rather than recalibration (Tashman 2000, IJF 16, from memory),
+/// thousands of times cheaper than a fit. The caller ([`crate::methods::update`]) falls back to
+/// a fit where the earlier fit is not a smoothing fit.
+pub fn update(
+    kind: MethodKind,
+    anchor: &Anchor,
+    history: &[f64],
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
+    let model = anchor.model;
+    if history.len() < minimum_length(model) {
+        return Err(MethodError::TooShort {
+            method: kind,
+            needed: minimum_length(model),
+            found: history.len(),
+        });
+    }
+    if history.iter().any(|v| !v.is_finite()) {
+        return Err(MethodError::Diverged { method: kind });
+    }
+    if model.is_multiplicative() && history.iter().any(|v| *v <= 0.0) {
+        return Err(MethodError::NeedsPositive { method: kind });
+    }
+    let run = recursion::run(model, anchor.parameters, &anchor.initial, history, horizon)
+        .map_err(|_| MethodError::Diverged { method: kind })?;
+    if !run.sse.is_finite() {
+        return Err(MethodError::Diverged { method: kind });
+    }
+    let estimate = Estimate {
+        parameters: anchor.parameters,
+        initial: anchor.initial.clone(),
+        sse: run.sse,
+        evaluations: 0,
+    };
+    to_fitted(kind, finish(model, estimate, run, horizon))
+}
+
+/// What [`update`] keeps of a fit: the model, its smoothing parameters and initial states.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Anchor {
+    model: Model,
+    parameters: model::Parameters,
+    initial: model::States,
+}
+
+/// σ² and the analytic variances of a recursion run at an estimate.
+fn finish(model: Model, estimate: Estimate, run: Run, horizon: usize) -> Fit {
+    let n = run.fitted.len();
+    let k = model.smoothing_count() + model.free_state_count();
+    let sigma2 = (n > k).then(|| run.sse / (n - k) as f64);
+    let variance =
+        sigma2.and_then(|s2| variance::forecast_variances(model, estimate.parameters, s2, horizon));
+    Fit {
+        model,
+        estimate,
+        run,
+        sigma2,
+        variance,
+    }
+}
+
+/// The [`Fitted`] of a smoothing fit, with its [`Anchor`] for later updates.
+fn to_fitted(kind: MethodKind, fit: Fit) -> Result<Fitted, MethodError> {
+    let model = fit.model;
     let p = fit.estimate.parameters.effective(model);
     let mut parameters = vec![Parameter {
         name: "alpha",
@@ -171,11 +230,17 @@ pub fn fit(
             value: fit.estimate.initial.trend,
         });
     }
-    Fitted::new(
+    let anchor = Anchor {
+        model,
+        parameters: fit.estimate.parameters,
+        initial: fit.estimate.initial.clone(),
+    };
+    Ok(Fitted::new(
         kind,
         fit.run.fitted.into_iter().map(Some).collect(),
         fit.run.forecast,
         fit.variance,
         parameters,
-    )
+    )?
+    .with_anchor(anchor))
 }

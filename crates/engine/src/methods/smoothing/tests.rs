@@ -127,3 +127,39 @@ fn awkward_inputs_do_not_panic() {
         assert!(fit(kind, &[], Some(4), 3).is_err());
     }
 }
+
+#[test]
+fn updating_keeps_the_fit_and_runs_its_states_on() {
+    let y = seasonal_series(40);
+    for kind in SEVEN {
+        let season = kind.needs_season().then_some(4);
+        let earlier = fit(kind, &y[..32], season, 5).unwrap();
+        let anchor = earlier.anchor.clone().unwrap();
+        // Over the same history, updating reproduces the fit exactly.
+        let same = update(kind, &anchor, &y[..32], 5).unwrap();
+        assert_eq!(same.forecast(), earlier.forecast(), "{kind:?}");
+        assert_eq!(same.parameters(), earlier.parameters(), "{kind:?}");
+        // Over a longer history the parameters stay, the fitted values up to 32 are the same,
+        // and the forecast starts from the later states.
+        let later = update(kind, &anchor, &y, 5).unwrap();
+        assert_eq!(later.parameters(), earlier.parameters(), "{kind:?}");
+        assert_eq!(&later.fitted()[..32], earlier.fitted(), "{kind:?}");
+        assert_eq!(later.fitted().len(), 40);
+        assert_ne!(later.forecast(), earlier.forecast(), "{kind:?}");
+    }
+    // A later zero rules a multiplicative season out, as a fit would.
+    let mut with_zero = y.clone();
+    with_zero[35] = 0.0;
+    let earlier = fit(MethodKind::HoltWintersMultiplicative, &y[..32], Some(4), 5).unwrap();
+    assert_eq!(
+        update(
+            MethodKind::HoltWintersMultiplicative,
+            earlier.anchor.as_ref().unwrap(),
+            &with_zero,
+            5
+        ),
+        Err(MethodError::NeedsPositive {
+            method: MethodKind::HoltWintersMultiplicative
+        })
+    );
+}
