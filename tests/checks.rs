@@ -12,6 +12,7 @@ mod bands;
 mod cli;
 mod e2e;
 mod intake;
+mod intermittent_choice;
 mod methods;
 mod patterns;
 mod plan;
