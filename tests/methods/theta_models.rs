@@ -2,6 +2,10 @@
 //! Theta method), Fiorucci, Pellegrini, Louzada, Petropoulos & Koehler, IJF 32 (2016)
 //! 1151-1161.
 //!
+//! Kept apart from the benchmark Theta's checks in [`super`] (that method keeps theta at 2 and
+//! fits alpha by SES alone); this file checks the model's forecast function, its recursion and
+//! its estimation.
+//!
 //! Sources (each test names its own):
 //! - statsmodels 0.15.0 (numpy 2.4.6, pandas 3.1.1) ThetaModel, via
 //!   `scripts/theta_models_reference_statsmodels.py`, which writes
