@@ -5,7 +5,7 @@
 //! counts of signs are the only arithmetic here. Error sign (as the engine and the page state it):
 //! e = F - D, forecast minus demand; a positive error is an over-forecast.
 
-use morrowcast_engine::backtest::Candidate;
+use morrowcast_engine::backtest::{Candidate, COMBINATION_ANCHORS};
 use morrowcast_engine::intake::{IntakeReport, Layout, RowError};
 use morrowcast_engine::patterns::{
     DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
@@ -106,11 +106,27 @@ pub fn rejected_season_hint(m: usize, full_seasons: usize) -> String {
 /// Why the plan's own choice is the combination (empty for a single method).
 pub fn combination_choice(chosen: &Candidate) -> String {
     match chosen {
-        Candidate::Combination(members) => format!(
-            " The forecast uses the combination, the plain mean of the {} best methods: on the M3 \
-             competition data that was more accurate than the single best (README, Benchmarks).",
-            members.len()
-        ),
+        Candidate::Combination(members) => {
+            let anchors: Vec<&str> = members
+                .iter()
+                .filter(|m| COMBINATION_ANCHORS.contains(m))
+                .map(|m| m.label())
+                .collect();
+            let which = if anchors.is_empty() {
+                format!("the {} best methods", members.len())
+            } else {
+                format!(
+                    "{} methods, {} with the best of the others",
+                    members.len(),
+                    anchors.join(" and ")
+                )
+            };
+            format!(
+                " The forecast uses the combination, the plain mean of {which}: on the M3 \
+                 competition data that was more accurate than the single best (README, \
+                 Benchmarks)."
+            )
+        }
         Candidate::Method(_) => String::new(),
     }
 }
@@ -243,8 +259,16 @@ mod tests {
     fn the_combination_choice_is_explained_and_a_single_method_is_not() {
         use morrowcast_engine::methods::MethodKind;
         let combo =
-            Candidate::Combination(vec![MethodKind::Theta, MethodKind::Ses, MethodKind::Holt]);
+            Candidate::Combination(vec![MethodKind::Naive, MethodKind::Ses, MethodKind::Holt]);
         assert!(combination_choice(&combo).contains("plain mean of the 3 best methods"));
+        let anchored = Candidate::Combination(vec![
+            MethodKind::DynamicOptimisedTheta,
+            MethodKind::Theta,
+            MethodKind::Ses,
+            MethodKind::Holt,
+        ]);
+        assert!(combination_choice(&anchored)
+            .contains("plain mean of 4 methods, Dynamic optimised Theta and Theta with the best"));
         assert_eq!(
             combination_choice(&Candidate::Method(MethodKind::Theta)),
             ""

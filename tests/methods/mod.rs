@@ -1,5 +1,6 @@
 //! Reference checks of the benchmark, decomposition, Theta, trend-seasonal and intermittent
-//! methods against values computed outside the engine.
+//! methods against values computed outside the engine; the dynamic optimised Theta method in
+//! [`theta_models`].
 //!
 //! Sources (each test names its own):
 //! - statsmodels 0.15.0 (numpy 2.4.6), via `scripts/methods_reference_statsmodels.py`; the values
@@ -39,6 +40,7 @@ fn parameter(f: &Fitted, name: &str) -> f64 {
 
 mod reference_values;
 use reference_values::*;
+mod theta_models;
 
 // ---------------------------------------------------------------- decomposition
 

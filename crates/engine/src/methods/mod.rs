@@ -11,6 +11,7 @@
 crate::internal_modules!(
     adjusted,
     decompose,
+    dotm,
     intermittent,
     optimize,
     simple,
@@ -47,6 +48,8 @@ pub enum MethodKind {
     DampedHoltWintersMultiplicative,
     /// The Theta method as the M3/M4 benchmark (Assimakopoulos & Nikolopoulos 2000).
     Theta,
+    /// Dynamic optimised Theta (Fiorucci, Pellegrini, Louzada, Petropoulos & Koehler 2016).
+    DynamicOptimisedTheta,
     /// Least-squares line times classical seasonal indices.
     TrendSeasonal,
     /// Croston's method for intermittent demand (Croston 1972).
@@ -59,7 +62,7 @@ pub enum MethodKind {
 
 impl MethodKind {
     /// Every method, in a stable order.
-    pub const ALL: [MethodKind; 15] = [
+    pub const ALL: [MethodKind; 16] = [
         MethodKind::Naive,
         MethodKind::SeasonalNaive,
         MethodKind::MovingAverage,
@@ -71,6 +74,7 @@ impl MethodKind {
         MethodKind::DampedHoltWintersAdditive,
         MethodKind::DampedHoltWintersMultiplicative,
         MethodKind::Theta,
+        MethodKind::DynamicOptimisedTheta,
         MethodKind::TrendSeasonal,
         MethodKind::Croston,
         MethodKind::Sba,
@@ -91,6 +95,7 @@ impl MethodKind {
             MethodKind::DampedHoltWintersAdditive => "holt_winters_additive_damped",
             MethodKind::DampedHoltWintersMultiplicative => "holt_winters_multiplicative_damped",
             MethodKind::Theta => "theta",
+            MethodKind::DynamicOptimisedTheta => "dynamic_optimised_theta",
             MethodKind::TrendSeasonal => "trend_seasonal",
             MethodKind::Croston => "croston",
             MethodKind::Sba => "sba",
@@ -112,6 +117,7 @@ impl MethodKind {
             MethodKind::DampedHoltWintersAdditive => "Holt-Winters additive, damped",
             MethodKind::DampedHoltWintersMultiplicative => "Holt-Winters multiplicative, damped",
             MethodKind::Theta => "Theta",
+            MethodKind::DynamicOptimisedTheta => "Dynamic optimised Theta",
             MethodKind::TrendSeasonal => "Linear trend with seasonal indices",
             MethodKind::Croston => "Croston",
             MethodKind::Sba => "SBA",
@@ -318,8 +324,9 @@ impl Fitted {
 
 /// Fits `kind` to `history` and forecasts `horizon` steps. `season_length` is the accepted
 /// season length (`None` or 1: no season). With a season, SES, Holt's and damped trend run on
-/// the seasonally adjusted series ([`adjusted`]), as in the M3/M4 benchmarks; Theta adjusts
-/// itself; the other methods model the season directly or ignore it.
+/// the seasonally adjusted series ([`adjusted`]), as in the M3/M4 benchmarks; Theta and the
+/// dynamic optimised Theta adjust themselves; the other methods model the season directly or
+/// ignore it.
 pub fn fit(
     kind: MethodKind,
     history: &[f64],
@@ -349,6 +356,7 @@ pub fn fit(
             smoothing::fit(kind, history, season, horizon)
         }
         MethodKind::Theta => theta::theta(history, season, horizon),
+        MethodKind::DynamicOptimisedTheta => dotm::dotm(history, season, horizon),
         MethodKind::TrendSeasonal => {
             trend_season::trend_seasonal(history, season.unwrap_or(1), horizon)
         }
