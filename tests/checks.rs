@@ -18,3 +18,4 @@ mod patterns;
 mod plan;
 mod properties;
 mod smoothing;
+mod stock;

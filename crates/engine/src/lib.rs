@@ -48,3 +48,4 @@ pub mod patterns;
 pub mod plan;
 pub mod series;
 pub mod settings;
+pub mod stock;
