@@ -27,6 +27,7 @@ use morrowcast_engine::patterns;
 use morrowcast_engine::plan;
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::stock;
 
 struct M3Series {
     id: String,
@@ -182,6 +183,73 @@ fn method_forecast(kind: MethodKind, s: &M3Series) -> Vec<f64> {
     }
 }
 
+/// The Stock plan's reorder point held against the held-out demand over the lead time: for each
+/// monthly series, lead times 1 to 3 and cycle-service targets 95 % and 90 %, whether the
+/// demand of the first L held-out months stayed at or below the reorder point (the issue's
+/// policy backtest; the reorder point from `stock::demand_over` and `stock::figures`).
+#[derive(Default)]
+struct PolicyTally {
+    /// (lead time, target index) -> (cases held, cases, cases without a spread).
+    cells: BTreeMap<(usize, usize), (usize, usize, usize)>,
+}
+
+const POLICY_TARGETS: [f64; 2] = [0.95, 0.90];
+
+impl PolicyTally {
+    fn add(&mut self, p: &plan::ItemPlan, test: &[f64]) {
+        for lead in 1..=3usize {
+            let actual: f64 = test[..lead].iter().sum();
+            for (ti, target) in POLICY_TARGETS.iter().enumerate() {
+                let cell = self.cells.entry((lead, ti)).or_default();
+                cell.1 += 1;
+                let Some((demand, _)) = stock::demand_over(p, lead) else {
+                    cell.2 += 1;
+                    continue;
+                };
+                let figures = stock::figures(
+                    demand,
+                    demand,
+                    stock::Review::continuous(demand.mean().abs().max(1.0)).unwrap(),
+                    demand.mean().abs().max(1.0),
+                    stock::Target::cycle_service(*target).unwrap(),
+                )
+                .unwrap();
+                if actual <= figures.level {
+                    cell.0 += 1;
+                }
+            }
+        }
+    }
+
+    fn print(&self) {
+        if self.cells.is_empty() {
+            return;
+        }
+        println!();
+        println!(
+            "Stock plan, monthly: held-out demand over the lead time at or below the reorder point"
+        );
+        println!("| lead time | target 95 % | target 90 % |");
+        println!("| --- | --- | --- |");
+        for lead in 1..=3usize {
+            let cell = |ti: usize| {
+                let (held, cases, missing) = self.cells[&(lead, ti)];
+                let with = cases - missing;
+                format!(
+                    "{:.1}% of {with}{}",
+                    100.0 * held as f64 / with.max(1) as f64,
+                    if missing > 0 {
+                        format!(" ({missing} without a spread)")
+                    } else {
+                        String::new()
+                    }
+                )
+            };
+            println!("| {lead} | {} | {} |", cell(0), cell(1));
+        }
+    }
+}
+
 fn main() {
     let args: Vec<String> = std::env::args().collect();
     let arg = |name: &str| {
@@ -211,6 +279,7 @@ fn main() {
     let mut chosen: BTreeMap<String, usize> = BTreeMap::new();
     let levels = [95.0, 80.0];
     let mut bands: BTreeMap<(&str, usize), BandTally> = BTreeMap::new();
+    let mut policy = PolicyTally::default();
     let started = Instant::now();
     let mut count = 0;
     for subset in subsets {
@@ -228,6 +297,9 @@ fn main() {
                         Ok(p) => {
                             if i == 0 {
                                 *chosen.entry(p.chosen.key().to_string()).or_default() += 1;
+                                if subset == "MONTHLY" {
+                                    policy.add(&p, &s.test);
+                                }
                             }
                             p.forecast
                                 .iter()
@@ -344,5 +416,6 @@ fn main() {
     let mut picks: Vec<_> = chosen.into_iter().collect();
     picks.sort_by_key(|p| std::cmp::Reverse(p.1));
     let picks: Vec<String> = picks.iter().map(|(k, v)| format!("{k} {v}")).collect();
+    policy.print();
     println!("chosen: {}", picks.join(", "));
 }

@@ -527,8 +527,46 @@ pub fn band_origins(
 /// subset, for a fifth of the time; refitting every twelfth raised its MSIS by 2-6 %.
 pub const REFIT_EVERY: usize = 6;
 
-/// h-step errors e = F - D of a candidate from the rolling origins of [`band_origins`], one list
-/// per horizon step, for the band. Between refits the methods are updated ([`REFIT_EVERY`]). `tick` is called at each origin,
+/// Forecast errors e = F - D of a candidate from rolling origins: one path e_1, e_2, ... per
+/// origin, oldest origin first (paths from the latest origins stop at the end of the data).
+#[derive(Clone, Debug, Default, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct OriginErrors {
+    paths: Vec<Vec<f64>>,
+}
+
+impl OriginErrors {
+    /// The paths, oldest origin first.
+    pub fn paths(&self) -> &[Vec<f64>] {
+        &self.paths
+    }
+
+    /// The h-step errors for h = 1..=horizon, one list per step (for the band).
+    pub fn by_horizon(&self, horizon: usize) -> Vec<Vec<f64>> {
+        (0..horizon)
+            .map(|h| {
+                self.paths
+                    .iter()
+                    .filter_map(|p| p.get(h).copied())
+                    .collect()
+            })
+            .collect()
+    }
+
+    /// Errors of the total over the first `periods` steps, from each origin whose path reaches
+    /// that far: the forecast total minus the demand total, with every covariance between the
+    /// steps in it.
+    pub fn totals(&self, periods: usize) -> Vec<f64> {
+        self.paths
+            .iter()
+            .filter(|p| periods > 0 && p.len() >= periods)
+            .map(|p| p[..periods].iter().sum())
+            .collect()
+    }
+}
+
+/// Errors e = F - D of a candidate from the rolling origins of [`band_origins`], for the band
+/// and the Stock plan. Between refits the methods are updated ([`REFIT_EVERY`]). `tick` is called at each origin,
 /// so a front end hears that the work goes on.
 #[allow(clippy::too_many_arguments)]
 pub fn rolling_errors(
@@ -539,14 +577,14 @@ pub fn rolling_errors(
     min_train: usize,
     max_origins: usize,
     tick: &mut dyn FnMut(),
-) -> Vec<Vec<f64>> {
+) -> OriginErrors {
     let n = history.len();
     let members: Vec<MethodKind> = match candidate {
         Candidate::Method(kind) => vec![*kind],
         Candidate::Combination(members) => members.clone(),
     };
     let mut latest_fit: Vec<Option<Fitted>> = vec![None; members.len()];
-    let mut errors = vec![Vec::new(); horizon];
+    let mut paths = Vec::new();
     for (i, end) in band_origins(n, horizon, min_train, max_origins)
         .into_iter()
         .enumerate()
@@ -580,11 +618,14 @@ pub fn rolling_errors(
             continue;
         };
         let f = combine_forecasts(&forecasts, steps);
-        for (h, (fv, d)) in f.iter().zip(&history[end..end + steps]).enumerate() {
-            errors[h].push(fv - d);
-        }
+        paths.push(
+            f.iter()
+                .zip(&history[end..end + steps])
+                .map(|(fv, d)| fv - d)
+                .collect(),
+        );
     }
-    errors
+    OriginErrors { paths }
 }
 
 #[cfg(test)]
@@ -776,7 +817,8 @@ mod tests {
             10,
             20,
             &mut || ticks += 1,
-        );
+        )
+        .by_horizon(3);
         assert_eq!(ticks, 20);
         for (h, errs) in naive.iter().enumerate() {
             assert!(errs.iter().all(|e| (e + 2.0 * (h + 1) as f64).abs() < 1e-9));
@@ -789,7 +831,8 @@ mod tests {
             10,
             20,
             &mut || {},
-        );
+        )
+        .by_horizon(3);
         assert_eq!(holt.iter().map(Vec::len).sum::<usize>(), 3 * 20);
         assert!(holt.iter().flatten().all(|e| e.abs() < 1e-3), "{holt:?}");
     }

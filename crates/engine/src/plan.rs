@@ -12,7 +12,9 @@
 use std::fmt;
 
 use crate::accuracy::LedgerRow;
-use crate::backtest::{self, Backtest, BacktestError, BacktestSettings, Candidate, Seasons};
+use crate::backtest::{
+    self, Backtest, BacktestError, BacktestSettings, Candidate, OriginErrors, Seasons,
+};
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::Period;
 use crate::methods::{self, MethodKind};
@@ -144,6 +146,10 @@ pub struct ItemPlan {
     /// The season lengths the methods were fitted with: the accepted one, or the rejected
     /// calendar season on trial for the seasonal methods.
     pub seasons: Seasons,
+    /// The chosen candidate's forecast errors from up to [`BAND_ORIGINS`] rolling origins in the
+    /// history, `horizon` steps each (fewer at the latest origins): what the horizon-aware band
+    /// and the Stock plan's spread rest on. Empty when the history is too short for them.
+    pub origin_errors: OriginErrors,
     /// Trend verdict and its evidence.
     pub trend: TrendVerdict,
     /// Demand class and its evidence.
@@ -425,22 +431,30 @@ fn plan_inner(
         let src = vec![BandSource::MadRule; pts.len()];
         (pts, src)
     };
-    let mut rolling = || {
-        let min_train = (2 * seasons.for_candidate(&chosen).unwrap_or(1)).max(MIN_PERIODS);
-        let last_step = Progress {
-            done: steps - 1,
-            total: steps,
-        };
-        let errors = backtest::rolling_errors(
-            &chosen,
-            recent,
-            seasons,
-            horizon,
-            min_train,
-            BAND_ORIGINS,
-            &mut || progress(last_step),
-        );
-        bands::rolling_band(&point, &errors, settings.level(), non_negative)
+    // The chosen candidate's errors from rolling origins: the horizon-aware band and the Stock
+    // plan's spread over the lead time both rest on them, so they are worked out whatever band
+    // is shown.
+    let min_train = (2 * seasons.for_candidate(&chosen).unwrap_or(1)).max(MIN_PERIODS);
+    let last_step = Progress {
+        done: steps - 1,
+        total: steps,
+    };
+    let origin_errors = backtest::rolling_errors(
+        &chosen,
+        recent,
+        seasons,
+        horizon,
+        min_train,
+        BAND_ORIGINS,
+        &mut || progress(last_step),
+    );
+    let rolling = || {
+        bands::rolling_band(
+            &point,
+            &origin_errors.by_horizon(horizon),
+            settings.level(),
+            non_negative,
+        )
     };
     let points_and_sources = match settings.band() {
         BandMethod::MadRule => mad_band(),
@@ -491,6 +505,7 @@ fn plan_inner(
         name,
         season,
         seasons,
+        origin_errors,
         trend,
         demand,
         backtest: bt,

@@ -30,6 +30,8 @@ use std::fmt;
 
 use statrs::distribution::{ContinuousCDF, Normal};
 
+use crate::plan::ItemPlan;
+
 /// Why stock figures cannot be worked out. Each message names the input and what it needs.
 #[derive(Clone, Debug, PartialEq)]
 pub enum StockError {
@@ -74,8 +76,9 @@ fn density(k: f64) -> f64 {
 }
 
 /// 1 - Phi(k) from Marsaglia's series (G. Marsaglia, "Evaluating the normal distribution",
-/// Journal of Statistical Software 11(4), 2004): Phi(k) - 1/2 = phi(k) (k + k^3/3 + k^5/(3 5)
-/// + ...), every term of one sign, summed until it stops changing the total. Accurate to a few
+/// Journal of Statistical Software 11(4), 2004): Phi(k) - 1/2 = phi(k) times the sum of
+/// k^(2n+1) / (1 3 5 ... (2n+1)) over n >= 0, every term of one sign, summed until it stops
+/// changing the total. Accurate to a few
 /// units in the last digit for k <= 0; for k > 0 the subtraction from 1/2 loses about
 /// log10(1 / (1 - Phi(k))) digits (3.4 at k = 3), which is why [`normal_loss`] leaves it above 3.
 fn upper_tail(k: f64) -> f64 {
@@ -294,6 +297,31 @@ pub fn sd_variable_lead_time(
     (periods.max(0.0) * sigma_per_period * sigma_per_period
         + mean_per_period * mean_per_period * lead_time_sd * lead_time_sd)
         .sqrt()
+}
+
+/// Demand over the next `periods` periods of a plan: the sum of its forecasts (not the mean
+/// times the periods: the path carries trend and season) and, as its spread, the root mean
+/// square of the errors of that sum at the plan's rolling origins. Covariances between the
+/// steps are therefore in it, as they are in the total the stock must cover (the sum of the
+/// per-step variances would leave them out: tests/fixtures/refs/stock/README.md, trap 6).
+/// Returns the demand and how many origin totals the spread rests on; `None` when the plan's
+/// forecast is shorter than `periods` or fewer than two origins reach that far.
+pub fn demand_over(plan: &ItemPlan, periods: usize) -> Option<(IntervalDemand, usize)> {
+    if periods == 0 || plan.forecast.len() < periods {
+        return None;
+    }
+    let mean = plan.forecast[..periods]
+        .iter()
+        .map(|f| f.band.value)
+        .sum::<f64>();
+    let totals = plan.origin_errors.totals(periods);
+    if totals.len() < 2 {
+        return None;
+    }
+    let rms = (totals.iter().map(|e| e * e).sum::<f64>() / totals.len() as f64).sqrt();
+    IntervalDemand::new(mean, rms)
+        .ok()
+        .map(|d| (d, totals.len()))
 }
 
 /// The stock figures of one item under one policy and target.
