@@ -10,6 +10,7 @@ mod support;
 
 mod bands;
 mod cli;
+mod cli_stock;
 mod e2e;
 mod intake;
 mod intermittent_choice;

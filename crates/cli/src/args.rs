@@ -8,6 +8,7 @@
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
 use morrowcast_engine::settings::{Choice, PlanSettings, Setting, SettingsText};
+use morrowcast_engine::stock;
 
 /// The help text; the limits come from the engine's settings, where they are decided.
 pub fn usage() -> String {
@@ -19,10 +20,16 @@ usage:
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
                       [--method auto|best|NAME] [--json]
+  morrowcast stock FILE [--item NAME]... [--lead-time L] [--lead-time-sd S] [--review R]
+                   [--service P | --fill-rate P] [--order-quantity Q] [forecast options] [--json]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
 FILE may be - for standard input. --item may be repeated (each item named is planned; without
 it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
-origins {}. Errors are forecast minus demand (positive = over-forecast).",
+origins {}. Errors are forecast minus demand (positive = over-forecast).
+stock: lead time L and review period R in whole periods (L default 1; without --review,
+continuous review); --service (cycle service level, default 95) and --fill-rate take a fraction
+(0.95) or a percent (95). Stock figures are estimates from past demand: your own policies,
+supplier terms and judgement decide the order.",
         Setting::Horizon.allowed(),
         Setting::Holdout.allowed(),
         Setting::Season.allowed(),
@@ -37,6 +44,16 @@ pub enum Command {
     Demo,
     Inspect { file: String, json: bool },
     Forecast(ForecastArgs),
+    Stock(StockArgs),
+}
+
+pub struct StockArgs {
+    pub file: String,
+    /// Items to plan, in the order given; empty: every item of the file.
+    pub items: Vec<String>,
+    pub json: bool,
+    pub settings: PlanSettings,
+    pub stock: stock::StockSettings,
 }
 
 pub struct ForecastArgs {
@@ -76,11 +93,116 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
             Ok(Command::Inspect { file, json })
         }
         "forecast" => parse_forecast(rest).map(Command::Forecast),
+        "stock" => parse_stock(rest).map(Command::Stock),
         other => Err(format!("unknown command \"{other}\"")),
     }
 }
 
 fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
+    let parsed = parse_item_command("forecast", rest, &mut |_, _| Ok(false))?;
+    Ok(ForecastArgs {
+        file: parsed.file,
+        items: parsed.items,
+        json: parsed.json,
+        settings: parsed.settings,
+    })
+}
+
+fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
+    let mut lead_time = "1".to_string();
+    let mut lead_time_sd = None;
+    let mut review = None;
+    let mut service = None;
+    let mut fill_rate = None;
+    let mut order_quantity = None;
+    let parsed = parse_item_command("stock", rest, &mut |flag, value| {
+        let slot = match flag {
+            "--lead-time" => {
+                lead_time = value.to_string();
+                return Ok(true);
+            }
+            "--lead-time-sd" => &mut lead_time_sd,
+            "--review" => &mut review,
+            "--service" => &mut service,
+            "--fill-rate" => &mut fill_rate,
+            "--order-quantity" => &mut order_quantity,
+            _ => return Ok(false),
+        };
+        *slot = Some(value.to_string());
+        Ok(true)
+    })?;
+    let whole = |flag: &str, text: &str| -> Result<usize, String> {
+        text.trim()
+            .parse::<usize>()
+            .map_err(|_| format!("{flag} takes a whole number of periods; found \"{text}\""))
+    };
+    let number = |flag: &str, text: &str| -> Result<f64, String> {
+        text.trim()
+            .parse::<f64>()
+            .map_err(|_| format!("{flag} takes a number; found \"{text}\""))
+    };
+    let target = match (service, fill_rate) {
+        (Some(_), Some(_)) => {
+            return Err("give --service or --fill-rate, not both".to_string());
+        }
+        (None, Some(text)) => stock::service_fraction("fill rate", &text)
+            .and_then(stock::Target::fill_rate)
+            .map_err(|e| format!("--fill-rate: {e}"))?,
+        (service, None) => {
+            stock::service_fraction("cycle service level", service.as_deref().unwrap_or("0.95"))
+                .and_then(stock::Target::cycle_service)
+                .map_err(|e| format!("--service: {e}"))?
+        }
+    };
+    let review = review.map(|r| whole("--review", &r)).transpose()?;
+    let mut stock = stock::StockSettings::new(whole("--lead-time", &lead_time)?, review, target)
+        .map_err(|e| e.to_string())?;
+    if let Some(sd) = lead_time_sd {
+        stock = stock
+            .with_lead_time_sd(number("--lead-time-sd", &sd)?)
+            .map_err(|e| e.to_string())?;
+    }
+    if let Some(q) = order_quantity {
+        if review.is_some() {
+            return Err("--order-quantity is for continuous review: leave out --review".into());
+        }
+        stock = stock
+            .with_order_quantity(number("--order-quantity", &q)?)
+            .map_err(|e| e.to_string())?;
+    }
+    let periods = stock.protection_periods();
+    if let Some(h) = parsed.settings.horizon() {
+        if h < periods {
+            return Err(format!(
+                "--horizon {h} is shorter than the protection interval of {periods} periods \
+                 (lead time plus review period): give at least {periods}, or leave it automatic"
+            ));
+        }
+    }
+    Ok(StockArgs {
+        file: parsed.file,
+        items: parsed.items,
+        json: parsed.json,
+        settings: parsed.settings,
+        stock,
+    })
+}
+
+/// What the item commands share.
+struct ItemCommand {
+    file: String,
+    items: Vec<String>,
+    json: bool,
+    settings: PlanSettings,
+}
+
+/// Parses FILE, --item, --json and the plan's settings of `command`; `extra` is offered every
+/// other flag with its value first and says whether it took it.
+fn parse_item_command(
+    command: &str,
+    rest: &[String],
+    extra: &mut dyn FnMut(&str, &str) -> Result<bool, String>,
+) -> Result<ItemCommand, String> {
     let mut file = None;
     let mut items: Vec<String> = Vec::new();
     let mut json = false;
@@ -97,7 +219,7 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
         if !flag.starts_with("--") || flag == "-" {
             if let Some(earlier) = &file {
                 return Err(format!(
-                    "forecast takes one FILE; found \"{earlier}\" and \"{flag}\""
+                    "{command} takes one FILE; found \"{earlier}\" and \"{flag}\""
                 ));
             }
             file = Some(flag.to_string());
@@ -145,11 +267,15 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
                     "--method takes auto, best, combination or a method name such as theta or holt_winters_multiplicative; found \"{value}\""
                 ))?;
             }
-            s => return Err(format!("forecast does not know {s}")),
+            s => {
+                if !extra(s, value)? {
+                    return Err(format!("{command} does not know {s}"));
+                }
+            }
         }
         i += 2;
     }
-    let file = file.ok_or("forecast needs a FILE (or - for standard input)")?;
+    let file = file.ok_or(format!("{command} needs a FILE (or - for standard input)"))?;
     let settings = PlanSettings::from_text(&text).map_err(|errors| {
         errors
             .iter()
@@ -157,7 +283,7 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
             .collect::<Vec<_>>()
             .join("; ")
     })?;
-    Ok(ForecastArgs {
+    Ok(ItemCommand {
         file,
         items,
         json,

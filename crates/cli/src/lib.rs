@@ -17,10 +17,10 @@ pub mod wire;
 use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
-use morrowcast_engine::{demo, intake, plan};
+use morrowcast_engine::{demo, intake, plan, series, stock};
 
-use args::{Command, ForecastArgs};
-use wire::{FailedJson, ForecastJson, InspectJson, PlanJson, Streamed};
+use args::{Command, ForecastArgs, StockArgs};
+use wire::{FailedJson, ForecastJson, InspectJson, PlanJson, StockItemJson, Streamed};
 
 /// Runs one command line. `argv` excludes the program name. Writes results to `stdout` and
 /// messages to `stderr`; returns the exit code.
@@ -53,6 +53,10 @@ pub fn run(
         },
         Command::Forecast(fa) => match read_input(&fa.file, stdin) {
             Ok(bytes) => forecast(&mut console, &intake::read_bytes(&bytes), &fa),
+            Err(message) => console.fail_input(&message),
+        },
+        Command::Stock(sa) => match read_input(&sa.file, stdin) {
+            Ok(bytes) => stock(&mut console, &intake::read_bytes(&bytes), &sa),
             Err(message) => console.fail_input(&message),
         },
     }
@@ -127,90 +131,156 @@ fn inspect(console: &mut Console<'_>, report: &intake::IntakeReport, json: bool)
 }
 
 fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &ForecastArgs) -> u8 {
-    if report.has_errors() {
-        if fa.json {
-            console.json(&InspectJson::from(report));
-        } else {
-            console.err(&table::intake_report(report));
+    let run = ItemRun {
+        names: &fa.items,
+        json: fa.json,
+        header: None,
+    };
+    run.go(
+        console,
+        report,
+        |s| plan::plan_item(s, &fa.settings).map_err(|e| e.to_string()),
+        |p| PlanJson::from(p),
+        table::plan,
+    )
+}
+
+fn stock(console: &mut Console<'_>, report: &intake::IntakeReport, sa: &StockArgs) -> u8 {
+    let run = ItemRun {
+        names: &sa.items,
+        json: sa.json,
+        header: Some(table::stock_header(&sa.stock)),
+    };
+    run.go(
+        console,
+        report,
+        |s| {
+            // The plan must reach over the protection interval: an automatic horizon shorter
+            // than it is lengthened (a horizon the user gave was checked against it).
+            let periods = sa.stock.protection_periods();
+            let settings = match sa.settings.horizon() {
+                None if plan::default_horizon(s.frequency()) < periods => sa
+                    .settings
+                    .clone()
+                    .with_horizon(Some(periods as u64))
+                    .map_err(|e| e.to_string())?,
+                _ => sa.settings.clone(),
+            };
+            let plan = plan::plan_item(s, &settings).map_err(|e| e.to_string())?;
+            let stock = stock::plan_stock(&plan, &sa.stock).map_err(|e| e.to_string())?;
+            Ok((plan, stock))
+        },
+        |(plan, stock)| StockItemJson::new(plan, stock),
+        |(plan, stock)| table::stock(plan, stock),
+    )
+}
+
+/// What `forecast` and `stock` share: the items asked for, every core working on them, and
+/// the output in the file's order as JSON or text.
+struct ItemRun<'a> {
+    names: &'a [String],
+    json: bool,
+    /// Printed before the items in text output.
+    header: Option<String>,
+}
+
+impl ItemRun<'_> {
+    fn go<R: Send, J: serde::Serialize>(
+        &self,
+        console: &mut Console<'_>,
+        report: &intake::IntakeReport,
+        work: impl Fn(&series::Series) -> Result<R, String> + Sync,
+        to_json: impl Fn(&R) -> J,
+        to_text: impl Fn(&R) -> String,
+    ) -> u8 {
+        if report.has_errors() {
+            if self.json {
+                console.json(&InspectJson::from(report));
+            } else {
+                console.err(&table::intake_report(report));
+            }
+            return 2;
         }
-        return 2;
-    }
-    let mut items: Vec<&intake::Item> = Vec::new();
-    for name in &fa.items {
-        match report.items.iter().find(|i| &i.name == name) {
-            Some(item) => items.push(item),
-            None => {
-                let names: Vec<String> = report
-                    .items
-                    .iter()
-                    .map(|i| table::quoted(&i.name))
-                    .collect();
-                return console.fail_input(&format!(
-                    "no item named {}; the file holds: {}",
-                    table::quoted(name),
-                    names.join(", ")
+        let mut items: Vec<&intake::Item> = Vec::new();
+        for name in self.names {
+            match report.items.iter().find(|i| &i.name == name) {
+                Some(item) => items.push(item),
+                None => {
+                    let names: Vec<String> = report
+                        .items
+                        .iter()
+                        .map(|i| table::quoted(&i.name))
+                        .collect();
+                    return console.fail_input(&format!(
+                        "no item named {}; the file holds: {}",
+                        table::quoted(name),
+                        names.join(", ")
+                    ));
+                }
+            }
+        }
+        if self.names.is_empty() {
+            items = report.items.iter().collect();
+        }
+        // Items are worked on every core a batch at a time and written in the file's order
+        // ([`parallel::InOrder`]), so a file of thousands of items never holds all its plans,
+        // or all their JSON, in memory.
+        let done = Cell::new(0usize);
+        let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
+        let mut pending = parallel::InOrder::new(
+            &items,
+            parallel::available_threads(),
+            |item: &&intake::Item| {
+                item.series()
+                    .map_err(|e| e.to_string())
+                    .and_then(|s| work(&s))
+                    .map_err(|message| FailedJson {
+                        name: item.name.clone(),
+                        message,
+                    })
+            },
+        );
+        let mut next = || {
+            for outcome in pending.by_ref() {
+                match outcome {
+                    Ok(r) => {
+                        done.set(done.get() + 1);
+                        return Some(r);
+                    }
+                    Err(failure) => failed.borrow_mut().push(failure),
+                }
+            }
+            None
+        };
+        if self.json {
+            console.json(&ForecastJson {
+                items: Streamed(RefCell::new(|| next().as_ref().map(&to_json))),
+                // Written after `items`, so complete by then.
+                failed: &failed,
+                warnings: report.warnings.clone(),
+            });
+        } else {
+            for w in &report.warnings {
+                console.out(&format!("note: {}\n", table::clean(w)));
+            }
+            if let Some(header) = &self.header {
+                console.out(header);
+            }
+            while let Some(r) = next() {
+                console.out(&to_text(&r));
+            }
+            for f in failed.borrow().iter() {
+                console.err(&format!(
+                    "morrowcast: {}: {}\n",
+                    table::clean(&f.name),
+                    table::clean(&f.message)
                 ));
             }
         }
-    }
-    if fa.items.is_empty() {
-        items = report.items.iter().collect();
-    }
-    // Plans are made on every core a batch at a time and written in the file's order
-    // ([`parallel::InOrder`]), so a file of thousands of items never holds all its plans, or
-    // all their JSON, in memory.
-    let planned = Cell::new(0usize);
-    let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
-    let mut pending = parallel::InOrder::new(
-        &items,
-        parallel::available_threads(),
-        |item: &&intake::Item| {
-            item.series()
-                .map_err(|e| e.to_string())
-                .and_then(|s| plan::plan_item(&s, &fa.settings).map_err(|e| e.to_string()))
-                .map_err(|message| FailedJson {
-                    name: item.name.clone(),
-                    message,
-                })
-        },
-    );
-    let mut next_plan = || {
-        for outcome in pending.by_ref() {
-            match outcome {
-                Ok(p) => {
-                    planned.set(planned.get() + 1);
-                    return Some(p);
-                }
-                Err(failure) => failed.borrow_mut().push(failure),
-            }
+        if done.get() == 0 {
+            1
+        } else {
+            0
         }
-        None
-    };
-    if fa.json {
-        console.json(&ForecastJson {
-            items: Streamed(RefCell::new(|| next_plan().as_ref().map(PlanJson::from))),
-            // Written after `items`, so complete by then.
-            failed: &failed,
-            warnings: report.warnings.clone(),
-        });
-    } else {
-        for w in &report.warnings {
-            console.out(&format!("note: {}\n", table::clean(w)));
-        }
-        while let Some(p) = next_plan() {
-            console.out(&table::plan(&p));
-        }
-        for f in failed.borrow().iter() {
-            console.err(&format!(
-                "morrowcast: {}: {}\n",
-                table::clean(&f.name),
-                table::clean(&f.message)
-            ));
-        }
-    }
-    if planned.get() == 0 {
-        1
-    } else {
-        0
     }
 }

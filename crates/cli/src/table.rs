@@ -4,6 +4,7 @@ use std::fmt::Write;
 
 use morrowcast_engine::intake::IntakeReport;
 use morrowcast_engine::plan::ItemPlan;
+use morrowcast_engine::stock;
 
 /// Text from the input made safe for a terminal: control characters (escape sequences, bells,
 /// carriage returns, line breaks inside a quoted cell) and the characters that reorder
@@ -191,6 +192,75 @@ pub fn plan(p: &ItemPlan) -> String {
             r.bias,
             opt(r.tracking_signal, 2)
         );
+    }
+    s
+}
+
+/// What `stock` prints before its items: the policy and target, and that the figures are
+/// estimates.
+pub fn stock_header(settings: &stock::StockSettings) -> String {
+    let policy = match settings.review_period() {
+        None => "continuous review (reorder point)".to_string(),
+        Some(r) => format!("periodic review every {r} period(s) (order-up-to level)"),
+    };
+    let target = match settings.target() {
+        stock::Target::CycleService(p) => format!("cycle service level {:.1} %", 100.0 * p),
+        stock::Target::FillRate(p) => format!("fill rate {:.1} %", 100.0 * p),
+    };
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "Stock plan: {policy}; lead time {} period(s){}; target {target}.",
+        settings.lead_time(),
+        if settings.lead_time_sd() > 0.0 {
+            format!(" (standard deviation {})", settings.lead_time_sd())
+        } else {
+            String::new()
+        }
+    );
+    let _ = writeln!(
+        s,
+        "These are estimates from past demand. Your own policies, supplier terms and judgement \
+         decide the order; on hand and on order are not known here, so no order is suggested."
+    );
+    s
+}
+
+/// One item's Stock plan in a few lines.
+pub fn stock(p: &ItemPlan, st: &stock::StockPlan) -> String {
+    let f = &st.figures;
+    let level_name = match st.settings.review_period() {
+        None => "reorder point",
+        Some(_) => "order-up-to level",
+    };
+    let mut s = String::new();
+    let _ = writeln!(s, "\n== {} ==", clean(&p.name));
+    let _ = writeln!(
+        s,
+        "demand over {} period(s): {:.1} (spread {:.1}, {} model, from {} rolling origins)",
+        st.protection_periods,
+        st.demand_over_protection,
+        st.sd_over_protection,
+        st.distribution.key(),
+        st.origins_used
+    );
+    let _ = writeln!(
+        s,
+        "safety stock {:.1}{}; {level_name} {:.1}",
+        f.safety_stock,
+        f.safety_factor
+            .map_or(String::new(), |k| format!(" (k = {k:.3})")),
+        f.level
+    );
+    let _ = writeln!(
+        s,
+        "expected: cycle service level {:.1} %, fill rate {:.2} % (shortage per cycle {:.2})",
+        100.0 * f.cycle_service_level,
+        100.0 * f.fill_rate,
+        f.expected_shortage
+    );
+    for n in &st.notes {
+        let _ = writeln!(s, "note: {}", clean(n));
     }
     s
 }

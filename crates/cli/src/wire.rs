@@ -10,6 +10,7 @@ use serde::Serialize;
 use morrowcast_engine::backtest::{Candidate, Scored};
 use morrowcast_engine::intake::IntakeReport;
 use morrowcast_engine::plan::ItemPlan;
+use morrowcast_engine::stock;
 
 /// `morrowcast inspect --json`.
 #[derive(Serialize, Debug)]
@@ -251,6 +252,87 @@ impl From<&ItemPlan> for PlanJson {
                 })
                 .collect(),
             notes: p.notes.clone(),
+        }
+    }
+}
+
+/// One item of `morrowcast stock --json`. Service levels are fractions; `reorder_point` is set
+/// for continuous review and `order_up_to` for periodic review, the other `null`; `on_hand`,
+/// `on_order` and `suggested_order` are `null` until a stock table is read.
+#[derive(Serialize, Debug)]
+pub struct StockItemJson {
+    pub name: String,
+    pub policy: &'static str,
+    pub lead_time: usize,
+    pub lead_time_sd: f64,
+    pub review_period: Option<usize>,
+    pub protection_periods: usize,
+    pub distribution: &'static str,
+    pub demand_over_protection: f64,
+    pub sd_over_protection: f64,
+    pub origins_used: usize,
+    pub target: TargetJson,
+    pub safety_factor: Option<f64>,
+    pub safety_stock: f64,
+    pub reorder_point: Option<f64>,
+    pub order_up_to: Option<f64>,
+    pub order_quantity: Option<f64>,
+    pub on_hand: Option<f64>,
+    pub on_order: Option<f64>,
+    pub suggested_order: Option<f64>,
+    pub expected_shortage: f64,
+    pub cycle_service_level: f64,
+    pub fill_rate: f64,
+    /// Hadley & Whitin's exact (s, Q) or Sobel's (R, S) fill rate; the empirical model's own.
+    pub fill_rate_exact: f64,
+    pub alerts: Vec<String>,
+}
+
+#[derive(Serialize, Debug)]
+pub struct TargetJson {
+    pub kind: &'static str,
+    pub value: f64,
+}
+
+impl StockItemJson {
+    pub fn new(p: &ItemPlan, st: &stock::StockPlan) -> Self {
+        let f = &st.figures;
+        let continuous = st.settings.review_period().is_none();
+        let target = match st.settings.target() {
+            stock::Target::CycleService(value) => TargetJson {
+                kind: "cycle_service_level",
+                value,
+            },
+            stock::Target::FillRate(value) => TargetJson {
+                kind: "fill_rate",
+                value,
+            },
+        };
+        StockItemJson {
+            name: p.name.clone(),
+            policy: if continuous { "continuous" } else { "periodic" },
+            lead_time: st.settings.lead_time(),
+            lead_time_sd: st.settings.lead_time_sd(),
+            review_period: st.settings.review_period(),
+            protection_periods: st.protection_periods,
+            distribution: st.distribution.key(),
+            demand_over_protection: st.demand_over_protection,
+            sd_over_protection: st.sd_over_protection,
+            origins_used: st.origins_used,
+            target,
+            safety_factor: f.safety_factor,
+            safety_stock: f.safety_stock,
+            reorder_point: continuous.then_some(f.level),
+            order_up_to: (!continuous).then_some(f.level),
+            order_quantity: continuous.then_some(st.cycle_demand),
+            on_hand: None,
+            on_order: None,
+            suggested_order: None,
+            expected_shortage: f.expected_shortage,
+            cycle_service_level: f.cycle_service_level,
+            fill_rate: f.fill_rate,
+            fill_rate_exact: f.fill_rate_exact,
+            alerts: st.notes.clone(),
         }
     }
 }

@@ -16,7 +16,7 @@ use crate::backtest::{
     self, Backtest, BacktestError, BacktestSettings, Candidate, OriginErrors, Seasons,
 };
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
-use crate::calendar::Period;
+use crate::calendar::{Frequency, Period};
 use crate::methods::{self, MethodKind};
 use crate::patterns::{
     self, DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict,
@@ -240,6 +240,11 @@ fn trial_note(seasons: Seasons, bt: &Backtest, chosen: &Candidate) -> Option<Str
     })
 }
 
+/// The horizon when the settings leave it automatic: one calendar season, else 6 periods.
+pub fn default_horizon(frequency: Frequency) -> usize {
+    frequency.natural_season().unwrap_or(6)
+}
+
 /// The methods that apply to a series with this season and demand class.
 pub fn applicable_methods(
     season: Option<usize>,
@@ -312,9 +317,7 @@ fn plan_inner(
         return Err(PlanError::TooShort { name, length: n });
     }
     let frequency = series.frequency();
-    let horizon = settings
-        .horizon()
-        .unwrap_or(frequency.natural_season().unwrap_or(6));
+    let horizon = settings.horizon().unwrap_or(default_horizon(frequency));
     let mut notes = Vec::new();
     let gaps = series.gap_indices();
     if !gaps.is_empty() {

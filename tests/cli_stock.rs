@@ -1,0 +1,194 @@
+//! `morrowcast stock`: its JSON contract, that it carries the engine's figures unchanged, and
+//! its refusals. The figures' arithmetic is checked against outside references in stock.rs.
+
+use morrowcast_engine::{intake, plan, stock};
+
+use crate::support::cli;
+
+fn demo() -> Vec<u8> {
+    cli(&["demo"], b"").stdout
+}
+
+/// The demo's `name` planned and stocked in process, as the command line should.
+fn engine_stock(name: &str, settings: &stock::StockSettings) -> stock::StockPlan {
+    let report = intake::read_bytes(&demo());
+    let item = report.items.iter().find(|i| i.name == name).unwrap();
+    let series = item.series().unwrap();
+    let plan = plan::plan_item(&series, &Default::default()).unwrap();
+    stock::plan_stock(&plan, settings).unwrap()
+}
+
+#[test]
+fn stock_json_has_the_contract_fields_and_the_engine_figures() {
+    let out = cli(&["stock", "-", "--lead-time", "2", "--json"], &demo());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let json = out.json();
+    let items = json["items"].as_array().unwrap();
+    assert_eq!(items.len(), 6);
+    for item in items {
+        for key in [
+            "name",
+            "policy",
+            "lead_time",
+            "review_period",
+            "protection_periods",
+            "distribution",
+            "demand_over_protection",
+            "sd_over_protection",
+            "target",
+            "safety_factor",
+            "safety_stock",
+            "reorder_point",
+            "order_up_to",
+            "on_hand",
+            "on_order",
+            "suggested_order",
+            "cycle_service_level",
+            "fill_rate",
+            "alerts",
+        ] {
+            assert!(item.get(key).is_some(), "{key} missing in {item}");
+        }
+        assert_eq!(item["policy"], "continuous");
+        assert!(item["order_up_to"].is_null());
+        assert_eq!(item["target"]["kind"], "cycle_service_level");
+        assert_eq!(item["target"]["value"], 0.95);
+        let (mean, ss, s) = (
+            item["demand_over_protection"].as_f64().unwrap(),
+            item["safety_stock"].as_f64().unwrap(),
+            item["reorder_point"].as_f64().unwrap(),
+        );
+        assert!((mean + ss - s).abs() < 1e-9 * s.abs().max(1.0), "{item}");
+    }
+    // Intermittent demand gets the empirical model and says so.
+    let hose = items
+        .iter()
+        .find(|i| i["name"] == "Hose repair kit")
+        .unwrap();
+    assert_eq!(hose["distribution"], "empirical");
+    assert!(hose["safety_factor"].is_null());
+    assert!(hose["alerts"][0]
+        .as_str()
+        .unwrap()
+        .contains("rolling-origin totals"));
+    // The numbers are the engine's.
+    let settings =
+        stock::StockSettings::new(2, None, stock::Target::cycle_service(0.95).unwrap()).unwrap();
+    let seed = items.iter().find(|i| i["name"] == "Seed packets").unwrap();
+    let want = engine_stock("Seed packets", &settings);
+    assert_eq!(seed["reorder_point"].as_f64(), Some(want.figures.level));
+    assert_eq!(
+        seed["safety_stock"].as_f64(),
+        Some(want.figures.safety_stock)
+    );
+    assert_eq!(
+        seed["sd_over_protection"].as_f64(),
+        Some(want.sd_over_protection)
+    );
+}
+
+#[test]
+fn periodic_review_with_a_fill_rate_target_in_percent() {
+    let out = cli(
+        &[
+            "stock",
+            "-",
+            "--item",
+            "Gift card",
+            "--review",
+            "3",
+            "--lead-time",
+            "1",
+            "--fill-rate",
+            "98",
+            "--json",
+        ],
+        &demo(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let item = &out.json()["items"][0];
+    assert_eq!(item["policy"], "periodic");
+    assert_eq!(item["protection_periods"], 4);
+    assert!(item["reorder_point"].is_null());
+    assert_eq!(item["target"]["kind"], "fill_rate");
+    assert_eq!(item["target"]["value"], 0.98);
+    assert!((item["fill_rate"].as_f64().unwrap() - 0.98).abs() < 1e-9);
+}
+
+#[test]
+fn a_protection_interval_beyond_the_season_lengthens_the_automatic_horizon() {
+    // Monthly demo: the automatic horizon is 12; 10 + 6 = 16 periods must still be planned.
+    let out = cli(
+        &[
+            "stock",
+            "-",
+            "--item",
+            "Seed packets",
+            "--lead-time",
+            "10",
+            "--review",
+            "6",
+            "--json",
+        ],
+        &demo(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    assert_eq!(out.json()["items"][0]["protection_periods"], 16);
+}
+
+#[test]
+fn text_output_says_the_figures_are_estimates() {
+    let out = cli(&["stock", "-", "--item", "Frost cloth"], &demo());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let text = out.text();
+    assert!(text.contains("estimates from past demand"), "{text}");
+    assert!(text.contains("judgement decide the order"), "{text}");
+    assert!(text.contains("reorder point"), "{text}");
+}
+
+fn check_refused(args: &[&str], expected: &str) {
+    let out = cli(args, &demo());
+    assert_eq!(out.code, 2, "{args:?}: {}", out.stderr);
+    assert!(
+        out.stderr.contains(expected),
+        "{args:?}: stderr was\n{}",
+        out.stderr
+    );
+    assert!(out.stdout.is_empty(), "{args:?}");
+}
+
+#[test]
+fn stock_settings_beyond_their_limits_are_refused() {
+    check_refused(
+        &["stock", "-", "--service", "95", "--fill-rate", "0.9"],
+        "give --service or --fill-rate, not both",
+    );
+    check_refused(
+        &["stock", "-", "--service", "150"],
+        "cycle service level target 150 is outside 0 to 1",
+    );
+    check_refused(
+        &["stock", "-", "--fill-rate", "lots"],
+        "fill rate \"lots\" is not a number",
+    );
+    check_refused(
+        &["stock", "-", "--review", "0"],
+        "review period 0 is not usable: it must be a whole number of periods from 1 to 366",
+    );
+    check_refused(
+        &["stock", "-", "--lead-time", "2.5"],
+        "--lead-time takes a whole number of periods; found \"2.5\"",
+    );
+    check_refused(
+        &["stock", "-", "--lead-time", "4", "--horizon", "3"],
+        "--horizon 3 is shorter than the protection interval of 4 periods",
+    );
+    check_refused(
+        &["stock", "-", "--review", "2", "--order-quantity", "50"],
+        "--order-quantity is for continuous review",
+    );
+    check_refused(
+        &["stock", "-", "--lead-time", "1", "--lead-time", "2"],
+        "given twice",
+    );
+}
