@@ -99,7 +99,8 @@ fn main() {
         times[100], times[180]
     );
 
-    // The same with the MAD-rule band, to show what the empirical band's rolling origins cost.
+    // The same with the MAD-rule band (the rolling origins are worked out either way: the Stock
+    // plan's spread rests on them).
     let mad_settings =
         PlanSettings::default().with_band(morrowcast_engine::bands::BandMethod::MadRule);
     let mut times = Vec::new();

@@ -398,10 +398,21 @@ pub fn run_observed(
     'methods: for (done, &kind) in settings.candidates.iter().enumerate() {
         progress(done, total);
         let mut forecasts_by_origin = Vec::with_capacity(origins);
-        for j in 0..origins {
+        // Earliest origin first: each later one starts its search from the fit one period
+        // earlier, which saw less data, never more (so no origin's holdout reaches its fit).
+        let mut neighbour: Option<Fitted> = None;
+        for j in (0..origins).rev() {
             let end = train_end - j;
-            match methods::fit(kind, &history[..end], seasons.for_method(kind), k) {
-                Ok(f) => forecasts_by_origin.push(f.forecast().to_vec()),
+            let season = seasons.for_method(kind);
+            let fitted = match &neighbour {
+                Some(earlier) => methods::fit_near(earlier, &history[..end], season, k),
+                None => methods::fit(kind, &history[..end], season, k),
+            };
+            match fitted {
+                Ok(f) => {
+                    forecasts_by_origin.push(f.forecast().to_vec());
+                    neighbour = Some(f);
+                }
                 Err(e) => {
                     skipped.push(Skipped {
                         candidate: Candidate::Method(kind),
@@ -411,6 +422,7 @@ pub fn run_observed(
                 }
             }
         }
+        forecasts_by_origin.reverse();
         per_origin.push((kind, forecasts_by_origin));
     }
     progress(total, total);
@@ -566,8 +578,8 @@ impl OriginErrors {
 }
 
 /// Errors e = F - D of a candidate from the rolling origins of [`band_origins`], for the band
-/// and the Stock plan. Between refits the methods are updated ([`REFIT_EVERY`]). `tick` is called at each origin,
-/// so a front end hears that the work goes on.
+/// and the Stock plan. Between refits the methods are updated ([`REFIT_EVERY`]). `tick` is
+/// called at each origin, so a front end hears that the work goes on.
 #[allow(clippy::too_many_arguments)]
 pub fn rolling_errors(
     candidate: &Candidate,
@@ -606,7 +618,8 @@ pub fn rolling_errors(
                         )
                     }
                     None => {
-                        let fitted = methods::fit(*kind, train, seasons.for_method(*kind), steps)?;
+                        let season = seasons.for_method(*kind);
+                        let fitted = methods::fit(*kind, train, season, steps)?;
                         let f = fitted.forecast().to_vec();
                         *latest = Some(fitted);
                         Ok(f)

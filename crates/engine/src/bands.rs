@@ -279,8 +279,8 @@ pub fn student_t_quantile(p: f64, df: f64) -> f64 {
 /// end). Refitting at the origins (every [`crate::backtest::REFIT_EVERY`]-th; updated between)
 /// puts the parameters' own uncertainty into the errors.
 ///
-/// On the M3 data this rule, with up to [`crate::plan::BAND_ORIGINS`] origins, held 93.9-97.5 %
-/// at 95 % and 79.9-87.6 % at 80 % per subset, where the former per-horizon RMS with pooled
+/// On the M3 data this rule, with up to [`crate::plan::BAND_ORIGINS`] origins, held 94.1-97.5 %
+/// at 95 % and 80.2-87.7 % at 80 % per subset, where the former per-horizon RMS with pooled
 /// standardised quantiles from 8 origins held 64-78 % and 52-64 % (README, Benchmarks; the
 /// rules compared are in benches/band_lab.rs). A horizon with fewer than two errors borrows
 /// the scale of the horizon before; `None` when no horizon has two.

@@ -390,7 +390,43 @@ fn assemble(
             value: b_n,
         },
     ];
-    Fitted::new(kind_of(dynamics), fitted, forecast, None, parameters)
+    Ok(
+        Fitted::new(kind_of(dynamics), fitted, forecast, None, parameters)?.with_anchor(
+            super::Anchor::OptimisedTheta {
+                dynamics,
+                alpha: p.alpha,
+                weight: p.weight,
+                level0: p.level0,
+            },
+        ),
+    )
+}
+
+/// The model of an earlier fit (alpha, trend weight and `l_0` kept) over a longer history, the
+/// trend lines and seasonal indices worked out again ([`super::update`]).
+pub(crate) fn update(
+    history: &[f64],
+    season: Option<usize>,
+    dynamics: Dynamics,
+    alpha: f64,
+    weight: f64,
+    level0: f64,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
+    with_season(history, season, horizon, |y| {
+        check(y, dynamics)?;
+        let lines = trend_lines(y, dynamics);
+        let sse = one_step(y, &lines, alpha, level0, weight)
+            .map(|(value, mu)| (value - mu).powi(2))
+            .sum();
+        let chosen = Profile {
+            alpha,
+            level0,
+            weight,
+            sse,
+        };
+        assemble(y, &lines, dynamics, chosen, horizon)
+    })
 }
 
 #[cfg(test)]

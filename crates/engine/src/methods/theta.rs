@@ -150,10 +150,9 @@ pub fn theta(
     assemble(history, adjusted, ses.alpha, ses.level0, horizon)
 }
 
-// For the reference tests (feature `internals`).
-#[cfg(feature = "internals")]
-/// Theta with a given smoothing constant and initial level instead of fitted ones, e.g. to
-/// reproduce a result computed elsewhere. `alpha` must lie in `(0, 1]`.
+/// Theta with a given smoothing constant and initial level instead of fitted ones: to update an
+/// earlier fit over a longer history ([`super::update`]) or to reproduce a result computed
+/// elsewhere (the reference tests). `alpha` must lie in `(0, 1]`.
 pub fn theta_with_smoothing(
     history: &[f64],
     season: Option<usize>,
@@ -244,13 +243,14 @@ fn assemble(
             value: 1.0,
         });
     }
-    Fitted::new(
+    Ok(Fitted::new(
         MethodKind::Theta,
         fitted,
         forecast,
         Some(variance),
         parameters,
-    )
+    )?
+    .with_anchor(super::Anchor::Theta { alpha, level0 }))
 }
 
 #[cfg(test)]

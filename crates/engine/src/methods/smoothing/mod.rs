@@ -86,6 +86,18 @@ pub fn fit_model(
     horizon: usize,
     settings: &FitSettings,
 ) -> Result<Fit, MethodError> {
+    fit_model_from(kind, model, history, horizon, settings, None)
+}
+
+/// [`fit_model`] with the search started from an earlier fit ([`estimate::estimate_from`]).
+fn fit_model_from(
+    kind: MethodKind,
+    model: Model,
+    history: &[f64],
+    horizon: usize,
+    settings: &FitSettings,
+    start: Option<&Anchor>,
+) -> Result<Fit, MethodError> {
     let needed = minimum_length(model);
     if history.len() < needed {
         return Err(MethodError::TooShort {
@@ -100,7 +112,8 @@ pub fn fit_model(
     if model.is_multiplicative() && history.iter().any(|v| *v <= 0.0) {
         return Err(MethodError::NeedsPositive { method: kind });
     }
-    let estimate = estimate::estimate(model, history, settings);
+    let start = start.map(|a| (a.parameters, &a.initial));
+    let estimate = estimate::estimate_from(model, history, settings, start);
     let run = recursion::run(
         model,
         estimate.parameters,
@@ -129,6 +142,26 @@ pub fn fit(
     };
     let fit = fit_model(kind, model, history, horizon, &FitSettings::default())?;
     to_fitted(kind, fit)
+}
+
+/// Fits `kind` to `history` starting from `anchor`, an earlier fit of the same model to a
+/// history a few periods longer or shorter ([`estimate::estimate_from`]); a fit from scratch
+/// when the model differs.
+pub fn fit_near(
+    kind: MethodKind,
+    anchor: &Anchor,
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
+    match Model::for_kind(kind, season) {
+        Some(model) if model == anchor.model => {
+            let settings = FitSettings::default();
+            let fit = fit_model_from(kind, model, history, horizon, &settings, Some(anchor))?;
+            to_fitted(kind, fit)
+        }
+        _ => fit(kind, history, season, horizon),
+    }
 }
 
 /// Runs the recursion of an earlier fit of `kind` (its smoothing parameters and initial states
@@ -242,5 +275,5 @@ fn to_fitted(kind: MethodKind, fit: Fit) -> Result<Fitted, MethodError> {
         fit.variance,
         parameters,
     )?
-    .with_anchor(anchor))
+    .with_anchor(super::Anchor::Smoothing(anchor)))
 }
