@@ -192,3 +192,89 @@ fn stock_settings_beyond_their_limits_are_refused() {
         "given twice",
     );
 }
+
+/// A stock table written to a file of its own for one test.
+fn table_file(name: &str, text: &str) -> String {
+    let path = std::path::Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
+    std::fs::write(&path, text).unwrap();
+    path.to_string_lossy().into_owned()
+}
+
+#[test]
+fn a_stock_table_gives_on_hand_on_order_and_the_order_today() {
+    let path = table_file(
+        "stock_table_ok.csv",
+        "Item,On hand,On order,Lead time,Order multiple\n\
+         Seed packets,120,40,2,25\n\
+         Frost cloth,15,,,\n\
+         Unknown thing,4,,,\n",
+    );
+    let out = cli(
+        &["stock", "-", "--stock", &path, "--review", "1", "--json"],
+        &demo(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let json = out.json();
+    let item = |name: &str| {
+        json["items"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|i| i["name"] == name)
+            .unwrap()
+            .clone()
+    };
+    let seed = item("Seed packets");
+    // The row's lead time (2) overrides the file's (1): protection over R + L = 3.
+    assert_eq!(seed["protection_periods"], 3);
+    assert_eq!(seed["on_hand"], 120.0);
+    assert_eq!(seed["on_order"], 40.0);
+    // Order up to S from the position 160, rounded up to a multiple of 25.
+    let s = seed["order_up_to"].as_f64().unwrap();
+    let want = ((s - 160.0) / 25.0).ceil() * 25.0;
+    assert_eq!(seed["suggested_order"].as_f64(), Some(want));
+    // No on order given: 0; no multiple: whole units (the demo counts whole units).
+    let frost = item("Frost cloth");
+    assert_eq!(frost["on_order"], 0.0);
+    let s = frost["order_up_to"].as_f64().unwrap();
+    assert_eq!(frost["suggested_order"].as_f64(), Some((s - 15.0).ceil()));
+    // An item without a row: no position, no order, and it says why.
+    let pots = item("Terracotta pot");
+    assert!(pots["on_hand"].is_null() && pots["suggested_order"].is_null());
+    assert!(pots["alerts"]
+        .to_string()
+        .contains("no row in the stock table"));
+    // A row for an item the history does not hold is named.
+    assert!(
+        json["warnings"].to_string().contains("Unknown thing"),
+        "{json}"
+    );
+}
+
+#[test]
+fn a_rejected_stock_table_names_row_column_and_text() {
+    let path = table_file(
+        "stock_table_bad.csv",
+        "Item,On hand,Review\nSeed packets,ten,1\nFrost cloth,3,0\n",
+    );
+    let out = cli(&["stock", "-", "--stock", &path, "--json"], &demo());
+    assert_eq!(out.code, 2);
+    let errors = out.json()["stock_table_errors"].clone();
+    assert_eq!(errors[0]["row"], 2);
+    assert_eq!(errors[0]["column"], "On hand");
+    assert_eq!(errors[0]["text"], "ten");
+    assert_eq!(errors[1]["row"], 3);
+    assert_eq!(errors[1]["column"], "Review");
+    let text = cli(&["stock", "-", "--stock", &path], &demo());
+    assert_eq!(text.code, 2);
+    assert!(
+        text.stderr
+            .contains("stock table, row 2, column \"On hand\", found \"ten\""),
+        "{}",
+        text.stderr
+    );
+    check_refused(
+        &["stock", "-", "--stock", "-"],
+        "FILE and --stock TABLE cannot both be standard input",
+    );
+}

@@ -22,7 +22,7 @@ fuzz_target!(|data: &[u8]| {
         .collect();
     // Keep the command a reading one and its FILE standard input.
     match args.first().map(String::as_str) {
-        Some("inspect") | Some("forecast") => args.insert(1, "-".into()),
+        Some("inspect") | Some("forecast") | Some("stock") => args.insert(1, "-".into()),
         _ => args.insert(0, "forecast".into()),
     }
     if args.first().map(String::as_str) == Some("forecast") && args.get(1).map(String::as_str) != Some("-") {

@@ -20,7 +20,7 @@ usage:
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
                       [--method auto|best|NAME] [--json]
-  morrowcast stock FILE [--item NAME]... [--lead-time L] [--lead-time-sd S] [--review R]
+  morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S] [--review R]
                    [--service P | --fill-rate P] [--order-quantity Q] [forecast options] [--json]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
 FILE may be - for standard input. --item may be repeated (each item named is planned; without
@@ -28,8 +28,10 @@ it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking l
 origins {}. Errors are forecast minus demand (positive = over-forecast).
 stock: lead time L and review period R in whole periods (L default 1; without --review,
 continuous review); --service (cycle service level, default 95) and --fill-rate take a fraction
-(0.95) or a percent (95). Stock figures are estimates from past demand: your own policies,
-supplier terms and judgement decide the order.",
+(0.95) or a percent (95). --stock TABLE: a table with a header and a row per item: item, on
+hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
+quantity, order multiple, minimum order (each overrides the options for its item). Stock figures
+are estimates from past demand: your own policies, supplier terms and judgement decide the order.",
         Setting::Horizon.allowed(),
         Setting::Holdout.allowed(),
         Setting::Season.allowed(),
@@ -54,6 +56,8 @@ pub struct StockArgs {
     pub json: bool,
     pub settings: PlanSettings,
     pub stock: stock::StockSettings,
+    /// The stock table's file (`-`: standard input), when given.
+    pub table: Option<String>,
 }
 
 pub struct ForecastArgs {
@@ -115,6 +119,7 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
     let mut service = None;
     let mut fill_rate = None;
     let mut order_quantity = None;
+    let mut table = None;
     let parsed = parse_item_command("stock", rest, &mut |flag, value| {
         let slot = match flag {
             "--lead-time" => {
@@ -126,6 +131,7 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
             "--service" => &mut service,
             "--fill-rate" => &mut fill_rate,
             "--order-quantity" => &mut order_quantity,
+            "--stock" => &mut table,
             _ => return Ok(false),
         };
         *slot = Some(value.to_string());
@@ -185,6 +191,7 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
         json: parsed.json,
         settings: parsed.settings,
         stock,
+        table,
     })
 }
 

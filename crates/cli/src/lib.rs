@@ -20,7 +20,9 @@ use std::io::{Read, Write};
 use morrowcast_engine::{demo, intake, plan, series, stock};
 
 use args::{Command, ForecastArgs, StockArgs};
-use wire::{FailedJson, ForecastJson, InspectJson, PlanJson, StockItemJson, Streamed};
+use wire::{
+    FailedJson, ForecastJson, InspectJson, PlanJson, StockItemJson, StockTableJson, Streamed,
+};
 
 /// Runs one command line. `argv` excludes the program name. Writes results to `stdout` and
 /// messages to `stderr`; returns the exit code.
@@ -55,10 +57,29 @@ pub fn run(
             Ok(bytes) => forecast(&mut console, &intake::read_bytes(&bytes), &fa),
             Err(message) => console.fail_input(&message),
         },
-        Command::Stock(sa) => match read_input(&sa.file, stdin) {
-            Ok(bytes) => stock(&mut console, &intake::read_bytes(&bytes), &sa),
-            Err(message) => console.fail_input(&message),
-        },
+        Command::Stock(sa) => {
+            if sa.file == "-" && sa.table.as_deref() == Some("-") {
+                return console.fail_input(
+                    "FILE and --stock TABLE cannot both be standard input: name one as a file",
+                );
+            }
+            let table = match &sa.table {
+                Some(path) => match read_input(path, stdin) {
+                    Ok(bytes) => Some(intake::read_stock_table(&bytes)),
+                    Err(message) => return console.fail_input(&message),
+                },
+                None => None,
+            };
+            match read_input(&sa.file, stdin) {
+                Ok(bytes) => stock(
+                    &mut console,
+                    &intake::read_bytes(&bytes),
+                    table.as_ref(),
+                    &sa,
+                ),
+                Err(message) => console.fail_input(&message),
+            }
+        }
     }
 }
 
@@ -135,6 +156,7 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
         names: &fa.items,
         json: fa.json,
         header: None,
+        warnings: Vec::new(),
     };
     run.go(
         console,
@@ -145,29 +167,73 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
     )
 }
 
-fn stock(console: &mut Console<'_>, report: &intake::IntakeReport, sa: &StockArgs) -> u8 {
+fn stock(
+    console: &mut Console<'_>,
+    report: &intake::IntakeReport,
+    table: Option<&intake::StockTable>,
+    sa: &StockArgs,
+) -> u8 {
+    let mut warnings = Vec::new();
+    if let Some(table) = table {
+        if !table.errors.is_empty() {
+            if sa.json {
+                console.json(&StockTableJson::from(table));
+            } else {
+                console.err(&table::stock_table_errors(table));
+            }
+            return 2;
+        }
+        warnings.extend(table.warnings.iter().cloned());
+        for row in &table.rows {
+            if !report.items.iter().any(|i| i.name == row.item) {
+                warnings.push(format!(
+                    "the stock table has a row for {}, which the history does not hold; it is \
+                     left out",
+                    table::quoted(&row.item)
+                ));
+            }
+        }
+    }
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
-        header: Some(table::stock_header(&sa.stock)),
+        header: Some(table::stock_header(&sa.stock, table.is_some())),
+        warnings,
     };
     run.go(
         console,
         report,
         |s| {
+            let row = table.and_then(|t| t.row(s.name()));
+            let settings = match row {
+                Some(row) => sa.stock.for_row(row).map_err(|e| e.to_string())?,
+                None => sa.stock.clone(),
+            };
             // The plan must reach over the protection interval: an automatic horizon shorter
             // than it is lengthened (a horizon the user gave was checked against it).
-            let periods = sa.stock.protection_periods();
-            let settings = match sa.settings.horizon() {
+            let periods = settings.protection_periods();
+            let plan_settings = match sa.settings.horizon() {
                 None if plan::default_horizon(s.frequency()) < periods => sa
                     .settings
                     .clone()
                     .with_horizon(Some(periods as u64))
                     .map_err(|e| e.to_string())?,
+                Some(h) if h < periods => {
+                    return Err(format!(
+                        "--horizon {h} is shorter than this item's protection interval of \
+                         {periods} periods (from the stock table)"
+                    ))
+                }
                 _ => sa.settings.clone(),
             };
-            let plan = plan::plan_item(s, &settings).map_err(|e| e.to_string())?;
-            let stock = stock::plan_stock(&plan, &sa.stock).map_err(|e| e.to_string())?;
+            let plan = plan::plan_item(s, &plan_settings).map_err(|e| e.to_string())?;
+            let mut stock = stock::plan_stock(&plan, &settings).map_err(|e| e.to_string())?;
+            if table.is_some() && row.is_none() {
+                stock.notes.push(
+                    "no row in the stock table: on hand unknown, so no order is suggested"
+                        .to_string(),
+                );
+            }
             Ok((plan, stock))
         },
         |(plan, stock)| StockItemJson::new(plan, stock),
@@ -182,6 +248,8 @@ struct ItemRun<'a> {
     json: bool,
     /// Printed before the items in text output.
     header: Option<String>,
+    /// Said besides the history's own warnings.
+    warnings: Vec<String>,
 }
 
 impl ItemRun<'_> {
@@ -257,10 +325,15 @@ impl ItemRun<'_> {
                 items: Streamed(RefCell::new(|| next().as_ref().map(&to_json))),
                 // Written after `items`, so complete by then.
                 failed: &failed,
-                warnings: report.warnings.clone(),
+                warnings: report
+                    .warnings
+                    .iter()
+                    .chain(&self.warnings)
+                    .cloned()
+                    .collect(),
             });
         } else {
-            for w in &report.warnings {
+            for w in report.warnings.iter().chain(&self.warnings) {
                 console.out(&format!("note: {}\n", table::clean(w)));
             }
             if let Some(header) = &self.header {

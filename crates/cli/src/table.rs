@@ -198,7 +198,7 @@ pub fn plan(p: &ItemPlan) -> String {
 
 /// What `stock` prints before its items: the policy and target, and that the figures are
 /// estimates.
-pub fn stock_header(settings: &stock::StockSettings) -> String {
+pub fn stock_header(settings: &stock::StockSettings, with_table: bool) -> String {
     let policy = match settings.review_period() {
         None => "continuous review (reorder point)".to_string(),
         Some(r) => format!("periodic review every {r} period(s) (order-up-to level)"),
@@ -221,8 +221,37 @@ pub fn stock_header(settings: &stock::StockSettings) -> String {
     let _ = writeln!(
         s,
         "These are estimates from past demand. Your own policies, supplier terms and judgement \
-         decide the order; on hand and on order are not known here, so no order is suggested."
+         decide the order.{}",
+        if with_table {
+            " Rows of the stock table override these settings for their item."
+        } else {
+            " On hand and on order are not known (give --stock TABLE), so no order is suggested."
+        }
     );
+    s
+}
+
+/// A rejected stock table: every error with its row, column and text.
+pub fn stock_table_errors(t: &morrowcast_engine::intake::StockTable) -> String {
+    let mut s = String::new();
+    for e in &t.errors {
+        let _ = writeln!(
+            s,
+            "morrowcast: stock table, row {}{}{}: {}",
+            e.row,
+            if e.column.is_empty() {
+                String::new()
+            } else {
+                format!(", column {}", quoted(&e.column))
+            },
+            if e.text.is_empty() {
+                String::new()
+            } else {
+                format!(", found {}", quoted(&e.text))
+            },
+            clean(&e.message)
+        );
+    }
     s
 }
 
@@ -259,6 +288,13 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan) -> String {
         100.0 * f.fill_rate,
         f.expected_shortage
     );
+    if let (Some(p), Some(order)) = (st.position, st.suggested_order) {
+        let _ = writeln!(
+            s,
+            "on hand {}, on order {}: suggested order today {}",
+            p.on_hand, p.on_order, order
+        );
+    }
     for n in &st.notes {
         let _ = writeln!(s, "note: {}", clean(n));
     }

@@ -258,7 +258,7 @@ impl From<&ItemPlan> for PlanJson {
 
 /// One item of `morrowcast stock --json`. Service levels are fractions; `reorder_point` is set
 /// for continuous review and `order_up_to` for periodic review, the other `null`; `on_hand`,
-/// `on_order` and `suggested_order` are `null` until a stock table is read.
+/// `on_order` and `suggested_order` are `null` without a stock table row for the item.
 #[derive(Serialize, Debug)]
 pub struct StockItemJson {
     pub name: String,
@@ -325,14 +325,39 @@ impl StockItemJson {
             reorder_point: continuous.then_some(f.level),
             order_up_to: (!continuous).then_some(f.level),
             order_quantity: continuous.then_some(st.cycle_demand),
-            on_hand: None,
-            on_order: None,
-            suggested_order: None,
+            on_hand: st.position.map(|p| p.on_hand),
+            on_order: st.position.map(|p| p.on_order),
+            suggested_order: st.suggested_order,
             expected_shortage: f.expected_shortage,
             cycle_service_level: f.cycle_service_level,
             fill_rate: f.fill_rate,
             fill_rate_exact: f.fill_rate_exact,
             alerts: st.notes.clone(),
+        }
+    }
+}
+
+/// `morrowcast stock --stock TABLE --json` when the stock table is rejected.
+#[derive(Serialize, Debug)]
+pub struct StockTableJson {
+    pub stock_table_errors: Vec<ErrorJson>,
+    pub warnings: Vec<String>,
+}
+
+impl From<&morrowcast_engine::intake::StockTable> for StockTableJson {
+    fn from(t: &morrowcast_engine::intake::StockTable) -> Self {
+        StockTableJson {
+            stock_table_errors: t
+                .errors
+                .iter()
+                .map(|e| ErrorJson {
+                    row: e.row,
+                    column: e.column.clone(),
+                    text: e.text.clone(),
+                    message: e.message.clone(),
+                })
+                .collect(),
+            warnings: t.warnings.clone(),
         }
     }
 }

@@ -88,8 +88,11 @@ mod mark;
 mod number;
 mod order;
 mod period;
+mod stock_table;
 mod table;
 mod text;
+
+pub use stock_table::{read_stock_table, StockRow, StockTable};
 
 use crate::calendar::{Frequency, Period};
 use crate::series::{Series, SeriesError};

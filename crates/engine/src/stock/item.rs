@@ -5,6 +5,7 @@
 //! (the plan is taken as made; [`StockSettings::protection_periods`] tells a caller how far
 //! ahead it must forecast).
 
+use crate::intake::StockRow;
 use crate::patterns::DemandClass;
 use crate::plan::ItemPlan;
 
@@ -27,6 +28,18 @@ pub struct StockSettings {
     review_period: Option<usize>,
     target: Target,
     order_quantity: Option<f64>,
+    position: Option<Position>,
+    order_multiple: Option<f64>,
+    minimum_order: Option<f64>,
+}
+
+/// Units on hand and on order, for the suggested order.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Position {
+    /// On hand (negative: backorders).
+    pub on_hand: f64,
+    /// Ordered, not yet received.
+    pub on_order: f64,
 }
 
 fn check_periods(what: &'static str, value: usize, least: usize) -> Result<usize, StockError> {
@@ -63,7 +76,54 @@ impl StockSettings {
             review_period,
             target,
             order_quantity: None,
+            position: None,
+            order_multiple: None,
+            minimum_order: None,
         })
+    }
+
+    /// These settings with what an item's row of the stock table gives instead: its lead
+    /// time, spread, review period (which makes the policy periodic), target and order
+    /// quantity override the file's; on hand, on order, order multiple and minimum order are
+    /// the item's own. The row's values were checked when the table was read; they are
+    /// checked again here, so a row built by other code cannot slip past.
+    pub fn for_row(&self, row: &StockRow) -> Result<StockSettings, StockError> {
+        let mut s = StockSettings::new(
+            row.lead_time.unwrap_or(self.lead_time),
+            row.review_period.or(self.review_period),
+            row.target.unwrap_or(self.target),
+        )?;
+        s = s.with_lead_time_sd(row.lead_time_sd.unwrap_or(self.lead_time_sd))?;
+        if s.review_period.is_none() {
+            if let Some(q) = row.order_quantity.or(self.order_quantity) {
+                s = s.with_order_quantity(q)?;
+            }
+        }
+        if let Some(on_hand) = row.on_hand {
+            let on_order = row.on_order.unwrap_or(0.0);
+            let finite = |what, v: f64| {
+                if v.is_finite() {
+                    Ok(v)
+                } else {
+                    Err(StockError::BadQuantity {
+                        what,
+                        value: v,
+                        needs: "a finite number",
+                    })
+                }
+            };
+            s.position = Some(Position {
+                on_hand: finite("on hand", on_hand)?,
+                on_order: check_quantity("on order", on_order, false)?,
+            });
+        }
+        if let Some(m) = row.order_multiple {
+            s.order_multiple = Some(check_quantity("order multiple", m, true)?);
+        }
+        if let Some(m) = row.minimum_order {
+            s.minimum_order = Some(check_quantity("minimum order", m, false)?);
+        }
+        Ok(s)
     }
 
     /// The lead time's standard deviation in periods (0 or more).
@@ -112,6 +172,11 @@ pub fn service_fraction(what: &'static str, text: &str) -> Result<f64, StockErro
             what,
             text: text.to_string(),
         })?;
+    service_fraction_of(what, value)
+}
+
+/// [`service_fraction`] for a number already read (by the stock table, with its decimal mark).
+pub fn service_fraction_of(what: &'static str, value: f64) -> Result<f64, StockError> {
     let fraction = if value >= 1.0 { value / 100.0 } else { value };
     if fraction > 0.0 && fraction < 1.0 {
         Ok(fraction)
@@ -160,8 +225,52 @@ pub struct StockPlan {
     pub cycle_demand: f64,
     /// The figures: safety stock, level, shortage, service.
     pub figures: Figures,
+    /// Units on hand and on order, when the stock table gives them.
+    pub position: Option<Position>,
+    /// What to order today, when on hand is known (see [`suggested_order`]).
+    pub suggested_order: Option<f64>,
     /// Plain-words notes: the model and why, what the spread rests on, a negative safety stock.
     pub notes: Vec<String>,
+}
+
+/// What to order today, from the stock position IP = on hand + on order:
+///
+/// ```text
+/// periodic review, level S:      max(0, S - IP)
+/// continuous review, level s:    0 while IP > s; else n Q with n the fewest whole orders that
+///                                lift IP above s, n = floor((s - IP) / Q) + 1   ((s, nQ) policy)
+/// ```
+///
+/// then, when above 0, rounded up to a whole multiple of `multiple`, raised to `minimum`, and
+/// (when the history counts whole units and no multiple is given) rounded up to a whole unit.
+/// Common practice; rounding up never lowers the service the level was set for.
+pub fn suggested_order(
+    review: Review,
+    level: f64,
+    position: Position,
+    multiple: Option<f64>,
+    minimum: Option<f64>,
+    whole_units: bool,
+) -> f64 {
+    let inventory_position = position.on_hand + position.on_order;
+    let mut order = match review {
+        Review::Periodic { .. } => (level - inventory_position).max(0.0),
+        Review::Continuous { order_quantity } if inventory_position <= level => {
+            order_quantity * (((level - inventory_position) / order_quantity).floor() + 1.0)
+        }
+        Review::Continuous { .. } => 0.0,
+    };
+    if order > 0.0 {
+        match multiple {
+            Some(m) => order = (order / m).ceil() * m,
+            None if whole_units => order = order.ceil(),
+            None => {}
+        }
+        if let Some(least) = minimum {
+            order = order.max(least);
+        }
+    }
+    order
 }
 
 /// Demand over the next `periods` periods of a plan: the sum of its forecasts (not the mean
@@ -298,7 +407,20 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                 .to_string(),
         );
     }
+    let whole_units = plan.history.iter().all(|v| v.fract() == 0.0);
+    let suggested = settings.position.map(|position| {
+        suggested_order(
+            review,
+            figures.level,
+            position,
+            settings.order_multiple,
+            settings.minimum_order,
+            whole_units,
+        )
+    });
     Ok(StockPlan {
+        position: settings.position,
+        suggested_order: suggested,
         settings: settings.clone(),
         protection_periods: periods,
         distribution,
@@ -330,6 +452,90 @@ mod tests {
         check("0", Err(()));
         check("-5", Err(()));
         check("ninety", Err(()));
+    }
+
+    /// (review, level, on hand, on order, multiple, minimum, whole units) -> order.
+    fn check_order(
+        review: Review,
+        level: f64,
+        (on_hand, on_order): (f64, f64),
+        (multiple, minimum, whole): (Option<f64>, Option<f64>, bool),
+        want: f64,
+    ) {
+        let got = suggested_order(
+            review,
+            level,
+            Position { on_hand, on_order },
+            multiple,
+            minimum,
+            whole,
+        );
+        assert!(
+            (got - want).abs() < 1e-9,
+            "{review:?} {level}: {got} vs {want}"
+        );
+    }
+
+    #[test]
+    fn suggested_orders_by_hand() {
+        let periodic = Review::Periodic { every: 1.0 };
+        let q40 = Review::Continuous {
+            order_quantity: 40.0,
+        };
+        // S 100, position 30 + 20: 50; whole units; multiples of 12 -> 60; minimum 70 -> 70.
+        check_order(periodic, 100.0, (30.0, 20.0), (None, None, true), 50.0);
+        check_order(periodic, 100.4, (30.0, 20.0), (None, None, true), 51.0);
+        check_order(periodic, 100.4, (30.0, 20.0), (None, None, false), 50.4);
+        check_order(
+            periodic,
+            100.0,
+            (30.0, 20.0),
+            (Some(12.0), None, true),
+            60.0,
+        );
+        check_order(
+            periodic,
+            100.0,
+            (30.0, 20.0),
+            (Some(12.0), Some(70.0), true),
+            70.0,
+        );
+        // Above S: nothing, whatever the minimum.
+        check_order(periodic, 100.0, (90.0, 20.0), (None, Some(70.0), true), 0.0);
+        // (s, nQ): s 100, Q 40. Position 101: nothing; 100: one Q; 50: two; -30: four.
+        check_order(q40, 100.0, (101.0, 0.0), (None, None, true), 0.0);
+        check_order(q40, 100.0, (100.0, 0.0), (None, None, true), 40.0);
+        check_order(q40, 100.0, (30.0, 20.0), (None, None, true), 80.0);
+        check_order(q40, 100.0, (-30.0, 0.0), (None, None, true), 160.0);
+    }
+
+    #[test]
+    fn a_row_overrides_the_file_settings() {
+        let file = StockSettings::new(1, None, Target::cycle_service(0.95).unwrap()).unwrap();
+        let row = StockRow {
+            item: "A".into(),
+            on_hand: Some(12.0),
+            lead_time: Some(3),
+            review_period: Some(2),
+            order_multiple: Some(6.0),
+            ..StockRow::default()
+        };
+        let s = file.for_row(&row).unwrap();
+        assert_eq!(s.protection_periods(), 5);
+        assert_eq!(
+            s.position,
+            Some(Position {
+                on_hand: 12.0,
+                on_order: 0.0
+            })
+        );
+        assert_eq!(s.order_multiple, Some(6.0));
+        assert_eq!(s.target(), Target::CycleService(0.95));
+        let bad = StockRow {
+            on_order: Some(-1.0),
+            ..row
+        };
+        assert!(file.for_row(&bad).is_err());
     }
 
     #[test]

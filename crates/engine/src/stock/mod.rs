@@ -35,7 +35,8 @@ use std::fmt;
 
 pub use empirical::empirical_figures;
 pub use item::{
-    demand_over, plan_stock, service_fraction, Distribution, StockPlan, StockSettings, MAX_PERIODS,
+    demand_over, plan_stock, service_fraction, service_fraction_of, suggested_order, Distribution,
+    Position, StockPlan, StockSettings, MAX_PERIODS,
 };
 pub use normal::{
     figures, inverse_normal_loss, normal_loss, sd_independent, sd_per_horizon,

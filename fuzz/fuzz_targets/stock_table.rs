@@ -1,0 +1,24 @@
+//! Any bytes as a stock table: no panic, no hang; every row kept has an item name, no name
+//! twice; every error names a row within the text; every kept row applies to the Stock plan's
+//! settings without an error (the table checked what the settings check).
+
+#![no_main]
+
+use libfuzzer_sys::fuzz_target;
+use morrowcast_engine::intake::read_stock_table;
+use morrowcast_engine::stock::{StockSettings, Target};
+
+fuzz_target!(|data: &[u8]| {
+    let table = read_stock_table(data);
+    // An upper bound on the lines (CR LF counts twice; lone CR ends a line too).
+    let lines = data.iter().filter(|b| **b == b'\n' || **b == b'\r').count() + 1;
+    for e in &table.errors {
+        assert!(e.row >= 1 && e.row <= lines, "row {} of {lines}", e.row);
+    }
+    let base = StockSettings::new(1, None, Target::cycle_service(0.95).unwrap()).unwrap();
+    for (i, row) in table.rows.iter().enumerate() {
+        assert!(!row.item.is_empty());
+        assert!(table.rows[..i].iter().all(|r| r.item != row.item));
+        base.for_row(row).expect("a row the table accepted applies");
+    }
+});
