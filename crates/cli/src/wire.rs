@@ -60,16 +60,18 @@ impl From<&IntakeReport> for InspectJson {
                 })
                 .collect(),
             warnings: r.warnings.clone(),
-            errors: r
-                .errors
-                .iter()
-                .map(|e| ErrorJson {
-                    row: e.row,
-                    column: e.column.clone(),
-                    text: e.text.clone(),
-                    message: e.message.clone(),
-                })
-                .collect(),
+            errors: r.errors.iter().map(ErrorJson::from).collect(),
+        }
+    }
+}
+
+impl From<&morrowcast_engine::intake::RowError> for ErrorJson {
+    fn from(e: &morrowcast_engine::intake::RowError) -> Self {
+        ErrorJson {
+            row: e.row,
+            column: e.column.clone(),
+            text: e.text.clone(),
+            message: e.message.clone(),
         }
     }
 }
@@ -347,16 +349,7 @@ pub struct StockTableJson {
 impl From<&morrowcast_engine::intake::StockTable> for StockTableJson {
     fn from(t: &morrowcast_engine::intake::StockTable) -> Self {
         StockTableJson {
-            stock_table_errors: t
-                .errors
-                .iter()
-                .map(|e| ErrorJson {
-                    row: e.row,
-                    column: e.column.clone(),
-                    text: e.text.clone(),
-                    message: e.message.clone(),
-                })
-                .collect(),
+            stock_table_errors: t.errors.iter().map(ErrorJson::from).collect(),
             warnings: t.warnings.clone(),
         }
     }

@@ -327,8 +327,19 @@ fn plain_with_parameters(
             method: kind_of(dynamics),
         });
     }
+    at_parameters(y, dynamics, alpha, 1.0 - 1.0 / theta, level0, horizon)
+}
+
+/// The model at given alpha, trend weight and `l_0` on the (adjusted) series `y`.
+fn at_parameters(
+    y: &[f64],
+    dynamics: Dynamics,
+    alpha: f64,
+    weight: f64,
+    level0: f64,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
     let lines = trend_lines(y, dynamics);
-    let weight = 1.0 - 1.0 / theta;
     let sse = one_step(y, &lines, alpha, level0, weight)
         .map(|(value, mu)| (value - mu).powi(2))
         .sum();
@@ -415,17 +426,7 @@ pub(crate) fn update(
 ) -> Result<Fitted, MethodError> {
     with_season(history, season, horizon, |y| {
         check(y, dynamics)?;
-        let lines = trend_lines(y, dynamics);
-        let sse = one_step(y, &lines, alpha, level0, weight)
-            .map(|(value, mu)| (value - mu).powi(2))
-            .sum();
-        let chosen = Profile {
-            alpha,
-            level0,
-            weight,
-            sse,
-        };
-        assemble(y, &lines, dynamics, chosen, horizon)
+        at_parameters(y, dynamics, alpha, weight, level0, horizon)
     })
 }
 
