@@ -290,66 +290,64 @@ impl ItemRun<'_> {
         if self.names.is_empty() {
             items = report.items.iter().collect();
         }
-        // Items are worked on every core a batch at a time and written in the file's order
-        // ([`parallel::InOrder`]), so a file of thousands of items never holds all its plans,
+        // Items are worked on every core while this thread writes them in the file's order
+        // ([`parallel::in_order`]), so a file of thousands of items never holds all its plans,
         // or all their JSON, in memory.
         let done = Cell::new(0usize);
         let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
-        let mut pending = parallel::InOrder::new(
-            &items,
-            parallel::available_threads(),
-            |item: &&intake::Item| {
-                item.series()
-                    .map_err(|e| e.to_string())
-                    .and_then(|s| work(&s))
-                    .map_err(|message| FailedJson {
-                        name: item.name.clone(),
-                        message,
-                    })
-            },
-        );
-        let mut next = || {
-            for outcome in pending.by_ref() {
-                match outcome {
-                    Ok(r) => {
-                        done.set(done.get() + 1);
-                        return Some(r);
+        let plan_one = |item: &&intake::Item| {
+            item.series()
+                .map_err(|e| e.to_string())
+                .and_then(|s| work(&s))
+                .map_err(|message| FailedJson {
+                    name: item.name.clone(),
+                    message,
+                })
+        };
+        parallel::in_order(&items, parallel::available_threads(), plan_one, |results| {
+            let mut next = || {
+                for outcome in &mut *results {
+                    match outcome {
+                        Ok(r) => {
+                            done.set(done.get() + 1);
+                            return Some(r);
+                        }
+                        Err(failure) => failed.borrow_mut().push(failure),
                     }
-                    Err(failure) => failed.borrow_mut().push(failure),
+                }
+                None
+            };
+            if self.json {
+                console.json(&ForecastJson {
+                    items: Streamed(RefCell::new(|| next().as_ref().map(&to_json))),
+                    // Written after `items`, so complete by then.
+                    failed: &failed,
+                    warnings: report
+                        .warnings
+                        .iter()
+                        .chain(&self.warnings)
+                        .cloned()
+                        .collect(),
+                });
+            } else {
+                for w in report.warnings.iter().chain(&self.warnings) {
+                    console.out(&format!("note: {}\n", table::clean(w)));
+                }
+                if let Some(header) = &self.header {
+                    console.out(header);
+                }
+                while let Some(r) = next() {
+                    console.out(&to_text(&r));
+                }
+                for f in failed.borrow().iter() {
+                    console.err(&format!(
+                        "morrowcast: {}: {}\n",
+                        table::clean(&f.name),
+                        table::clean(&f.message)
+                    ));
                 }
             }
-            None
-        };
-        if self.json {
-            console.json(&ForecastJson {
-                items: Streamed(RefCell::new(|| next().as_ref().map(&to_json))),
-                // Written after `items`, so complete by then.
-                failed: &failed,
-                warnings: report
-                    .warnings
-                    .iter()
-                    .chain(&self.warnings)
-                    .cloned()
-                    .collect(),
-            });
-        } else {
-            for w in report.warnings.iter().chain(&self.warnings) {
-                console.out(&format!("note: {}\n", table::clean(w)));
-            }
-            if let Some(header) = &self.header {
-                console.out(header);
-            }
-            while let Some(r) = next() {
-                console.out(&to_text(&r));
-            }
-            for f in failed.borrow().iter() {
-                console.err(&format!(
-                    "morrowcast: {}: {}\n",
-                    table::clean(&f.name),
-                    table::clean(&f.message)
-                ));
-            }
-        }
+        });
         if done.get() == 0 {
             1
         } else {

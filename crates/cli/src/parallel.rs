@@ -1,120 +1,115 @@
 //! Work on every core, results in input order: the command line plans many items at once.
 //!
 //! Kept apart from: what the work is (the caller's closure; here, planning an item) and how
-//! results are written ([`crate::wire`], [`crate::table`]). [`InOrder`] hands out results one
-//! at a time in the order of the input, computing them a batch at a time on scoped threads, so
-//! the output is the same on one core as on many, and at most one batch of results is held in
-//! memory (a file of thousands of items never holds all its plans).
+//! results are written ([`crate::wire`], [`crate::table`]). [`in_order`] runs the work on
+//! scoped threads while the calling thread consumes the results in the order of the input, so
+//! writing overlaps planning, and the output is the same on one core as on many. Threads run
+//! at most [`AHEAD_PER_THREAD`] items per thread ahead of what has been consumed, so a file of
+//! thousands of items never holds all its plans in memory.
 
-use std::collections::VecDeque;
+use std::collections::BTreeMap;
 use std::num::NonZeroUsize;
-use std::sync::atomic::{AtomicUsize, Ordering};
+use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
+use std::sync::mpsc;
 
-/// Results per thread in one batch: enough that the threads rarely wait for the slowest item of
-/// a batch, few enough that a batch's plans stay small in memory (our choice).
-const BATCH_PER_THREAD: usize = 32;
+/// How far the threads may run ahead of the consumer, per thread: enough that they rarely wait
+/// for it, few enough that the results waiting stay small in memory (our choice).
+pub const AHEAD_PER_THREAD: usize = 32;
 
 /// The threads to use: the cores the system offers to this process, 1 when it cannot tell.
 pub fn available_threads() -> usize {
     std::thread::available_parallelism().map_or(1, NonZeroUsize::get)
 }
 
-/// An iterator of `work(item)` over `items`, in their order, computed on `threads` threads a
-/// batch at a time.
-pub struct InOrder<'a, T, R, F> {
-    items: &'a [T],
-    next: usize,
-    threads: usize,
-    work: F,
-    ready: VecDeque<R>,
-}
-
-impl<'a, T, R, F> InOrder<'a, T, R, F>
+/// Runs `work` over `items` on `threads` threads (0 counts as 1) and hands `consume` an
+/// iterator of the results in input order; returns what `consume` returns. When `consume`
+/// returns before the end, the threads stop taking new items. A panic in `work` reaches the
+/// caller once the threads have stopped (the iterator ends early then).
+pub fn in_order<T, R, F, C, Out>(items: &[T], threads: usize, work: F, consume: C) -> Out
 where
     T: Sync,
     R: Send,
     F: Fn(&T) -> R + Sync,
+    C: FnOnce(&mut dyn Iterator<Item = R>) -> Out,
 {
-    /// `threads` of 0 counts as 1.
-    pub fn new(items: &'a [T], threads: usize, work: F) -> Self {
-        InOrder {
-            items,
-            next: 0,
-            threads: threads.max(1),
-            work,
-            ready: VecDeque::new(),
-        }
+    let threads = threads.max(1);
+    if threads == 1 || items.len() <= 1 {
+        return consume(&mut items.iter().map(&work));
     }
-
-    fn fill(&mut self) {
-        let end = (self.next + self.threads * BATCH_PER_THREAD).min(self.items.len());
-        let batch = &self.items[self.next..end];
-        self.next = end;
-        self.ready
-            .extend(map_on_threads(batch, self.threads, &self.work));
-    }
-}
-
-impl<T, R, F> Iterator for InOrder<'_, T, R, F>
-where
-    T: Sync,
-    R: Send,
-    F: Fn(&T) -> R + Sync,
-{
-    type Item = R;
-
-    fn next(&mut self) -> Option<R> {
-        if self.ready.is_empty() && self.next < self.items.len() {
-            self.fill();
-        }
-        self.ready.pop_front()
-    }
-}
-
-/// `work` over `items` on up to `threads` scoped threads, each taking the next unclaimed item
-/// (so a slow item does not hold up a fixed share), results in input order. A panic in `work`
-/// is passed on to the caller, as it would be without threads.
-fn map_on_threads<T, R, F>(items: &[T], threads: usize, work: &F) -> Vec<R>
-where
-    T: Sync,
-    R: Send,
-    F: Fn(&T) -> R + Sync,
-{
-    if threads <= 1 || items.len() <= 1 {
-        return items.iter().map(work).collect();
-    }
+    let window = threads * AHEAD_PER_THREAD;
     let claimed = AtomicUsize::new(0);
-    let mut slots: Vec<Option<R>> = std::iter::repeat_with(|| None).take(items.len()).collect();
+    let consumed = AtomicUsize::new(0);
+    let stop = AtomicBool::new(false);
+    let (sender, receiver) = mpsc::channel::<(usize, R)>();
     std::thread::scope(|scope| {
-        let workers: Vec<_> = (0..threads.min(items.len()))
-            .map(|_| {
-                scope.spawn(|| {
-                    let mut done = Vec::new();
-                    loop {
-                        let i = claimed.fetch_add(1, Ordering::Relaxed);
-                        let Some(item) = items.get(i) else {
-                            return done;
-                        };
-                        done.push((i, work(item)));
+        let mut workers = Vec::new();
+        for _ in 0..threads.min(items.len()) {
+            let sender = sender.clone();
+            let (claimed, consumed, stop, work) = (&claimed, &consumed, &stop, &work);
+            workers.push(scope.spawn(move || {
+                // A panicking thread stops the others, so none waits on the window for ever.
+                let _stops_all_on_panic = StopOnPanic(stop);
+                loop {
+                    if stop.load(Ordering::Relaxed) {
+                        return;
                     }
-                })
-            })
-            .collect();
-        for worker in workers {
-            match worker.join() {
-                Ok(done) => {
-                    for (i, r) in done {
-                        slots[i] = Some(r);
+                    let i = claimed.fetch_add(1, Ordering::Relaxed);
+                    let Some(item) = items.get(i) else {
+                        return;
+                    };
+                    // Stay within the window ahead of the consumer.
+                    while i >= consumed.load(Ordering::Acquire) + window {
+                        if stop.load(Ordering::Relaxed) {
+                            return;
+                        }
+                        std::thread::sleep(std::time::Duration::from_micros(200));
+                    }
+                    if sender.send((i, work(item))).is_err() {
+                        return;
                     }
                 }
-                Err(panic) => std::panic::resume_unwind(panic),
+            }));
+        }
+        drop(sender);
+        let mut waiting: BTreeMap<usize, R> = BTreeMap::new();
+        let mut next = 0usize;
+        let mut results = std::iter::from_fn(|| {
+            if next >= items.len() {
+                return None;
+            }
+            loop {
+                if let Some(r) = waiting.remove(&next) {
+                    next += 1;
+                    consumed.store(next, Ordering::Release);
+                    return Some(r);
+                }
+                // Every thread gone before `next` arrived: one of them panicked; the scope
+                // passes the panic on when it ends.
+                let (i, r) = receiver.recv().ok()?;
+                waiting.insert(i, r);
+            }
+        });
+        let out = consume(&mut results);
+        stop.store(true, Ordering::Relaxed);
+        // Joined here rather than by the scope, so a panic reaches the caller as it was.
+        for worker in workers {
+            if let Err(panic) = worker.join() {
+                std::panic::resume_unwind(panic);
             }
         }
-    });
-    slots
-        .into_iter()
-        .map(|r| r.expect("every index below the length is claimed exactly once"))
-        .collect()
+        out
+    })
+}
+
+/// Sets the flag when dropped during a panic.
+struct StopOnPanic<'a>(&'a AtomicBool);
+
+impl Drop for StopOnPanic<'_> {
+    fn drop(&mut self) {
+        if std::thread::panicking() {
+            self.0.store(true, Ordering::Relaxed);
+        }
+    }
 }
 
 #[cfg(test)]
@@ -123,15 +118,19 @@ mod tests {
 
     fn check(len: usize, threads: usize) {
         let items: Vec<usize> = (0..len).collect();
-        let out: Vec<usize> = InOrder::new(&items, threads, |x| {
-            // Uneven work, so threads finish out of order.
-            let mut acc = *x;
-            for _ in 0..(x % 7) * 1000 {
-                acc = std::hint::black_box(acc);
-            }
-            acc * 2
-        })
-        .collect();
+        let out: Vec<usize> = in_order(
+            &items,
+            threads,
+            |x| {
+                // Uneven work, so threads finish out of order.
+                let mut acc = *x;
+                for _ in 0..(x % 7) * 1000 {
+                    acc = std::hint::black_box(acc);
+                }
+                acc * 2
+            },
+            |results| results.collect(),
+        );
         assert_eq!(
             out,
             (0..len).map(|x| x * 2).collect::<Vec<_>>(),
@@ -157,22 +156,41 @@ mod tests {
     }
 
     #[test]
-    fn batches_bound_what_is_held() {
-        let items: Vec<u32> = (0..500).collect();
-        let mut it = InOrder::new(&items, 2, |x| *x);
-        assert_eq!(it.next(), Some(0));
-        assert_eq!(it.ready.len(), 2 * BATCH_PER_THREAD - 1);
-        assert_eq!(it.count(), 499);
+    fn threads_stay_within_the_window_and_stop_when_the_consumer_does() {
+        let items: Vec<u32> = (0..10_000).collect();
+        let done = AtomicUsize::new(0);
+        let first: Vec<u32> = in_order(
+            &items,
+            2,
+            |x| {
+                done.fetch_add(1, Ordering::Relaxed);
+                *x
+            },
+            |results| {
+                let first = results.take(3).collect();
+                std::thread::sleep(std::time::Duration::from_millis(50));
+                // Three consumed: the threads may be at most the window ahead of that.
+                assert!(done.load(Ordering::Relaxed) <= 3 + 2 * AHEAD_PER_THREAD + 2);
+                first
+            },
+        );
+        assert_eq!(first, vec![0, 1, 2]);
+        assert!(done.load(Ordering::Relaxed) < 10_000);
     }
 
     #[test]
     #[should_panic(expected = "item 7")]
     fn a_panic_reaches_the_caller() {
-        let items: Vec<u32> = (0..20).collect();
-        let _: Vec<u32> = InOrder::new(&items, 2, |x| {
-            assert_ne!(*x, 7, "item 7");
-            *x
-        })
-        .collect();
+        // More items than the window: the other thread must not wait for ever.
+        let items: Vec<u32> = (0..1000).collect();
+        let _: Vec<u32> = in_order(
+            &items,
+            2,
+            |x| {
+                assert_ne!(*x, 7, "item 7");
+                *x
+            },
+            |results| results.collect(),
+        );
     }
 }
