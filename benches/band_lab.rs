@@ -7,7 +7,8 @@
 //! Rules: engine (bands::rolling_band, the rule the plan uses); t_pure (the same, written
 //! here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
 //! pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
-//! conformal (split conformal on scaled errors). "rel" variants scale errors by the forecast.
+//! conformal (split conformal on scaled errors). "rel" variants (36 origins) take each error
+//! relative to its own forecast and scale the band by today's forecast.
 //!
 //! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]` (a few minutes).
 
@@ -427,6 +428,8 @@ fn main() {
         for (count, stride) in patterns {
             let ends = strided_origins(s.train.len(), s.horizon, min_train, count, stride);
             let mut errors = vec![Vec::new(); s.horizon];
+            // Errors relative to the forecast they belong to, for bands that scale with it.
+            let mut relative = vec![Vec::new(); s.horizon];
             for end in ends {
                 let steps = s.horizon.min(s.train.len() - end);
                 let f = made.entry(end).or_insert_with(|| {
@@ -435,17 +438,28 @@ fn main() {
                 if let Some(f) = f {
                     for (h, (fv, d)) in f.iter().zip(&s.train[end..end + steps]).enumerate() {
                         errors[h].push(fv - d);
+                        if fv.abs() > 1e-9 {
+                            relative[h].push((fv - d) / fv.abs());
+                        }
                     }
                 }
             }
-            for (name, rule) in rules {
-                let key = (s.subset.clone(), format!("{name}/{count}x{stride}"));
+            let kinds: &[(&str, &Vec<Vec<f64>>)] = if count == 36 && stride == 1 {
+                &[("abs", &errors), ("rel", &relative)]
+            } else {
+                &[("abs", &errors)]
+            };
+            for ((name, rule), (kind, errs)) in
+                rules.iter().flat_map(|r| kinds.iter().map(move |k| (r, k)))
+            {
+                let key = (s.subset.clone(), format!("{name}/{kind}/{count}x{stride}"));
                 let score = scores.entry(key).or_default();
                 for (li, level) in [0.95, 0.80].iter().enumerate() {
-                    let offsets = rule(&errors, s.horizon, *level);
+                    let offsets = rule(errs, s.horizon, *level);
                     let alpha = 1.0 - level;
                     for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
-                        let (low, high) = ((f - below).max(0.0), f + above);
+                        let unit = if *kind == "rel" { f.abs() } else { 1.0 };
+                        let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
                         if low <= *y && *y <= high {
                             score.inside[li] += 1;
                         }
