@@ -8,7 +8,10 @@
 //! here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
 //! pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
 //! conformal (split conformal on scaled errors). "rel" variants (36 origins) take each error
-//! relative to its own forecast and scale the band by today's forecast.
+//! relative to its own forecast and scale the band by today's forecast; "shape" variants
+//! divide each error by its forecast's size against the mean of that origin's path, and scale
+//! today's band by the same shape of today's forecast (a seasonal item's band follows its
+//! season, the scale stays additive).
 //!
 //! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]` (a few minutes).
 
@@ -421,6 +424,8 @@ fn main() {
             continue;
         };
         let point: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
+        let today_mean =
+            (point.iter().map(|v| v.abs()).sum::<f64>() / point.len().max(1) as f64).max(1e-9);
         let min_train =
             (2 * p.seasons.for_candidate(&p.chosen).unwrap_or(1)).max(plan::MIN_PERIODS);
         // Forecasts at every end any pattern uses, made once per series.
@@ -430,6 +435,8 @@ fn main() {
             let mut errors = vec![Vec::new(); s.horizon];
             // Errors relative to the forecast they belong to, for bands that scale with it.
             let mut relative = vec![Vec::new(); s.horizon];
+            // Errors over the forecast's own shape: |f_h| / mean |f| of that origin's path.
+            let mut shaped = vec![Vec::new(); s.horizon];
             for end in ends {
                 let steps = s.horizon.min(s.train.len() - end);
                 let f = made.entry(end).or_insert_with(|| {
@@ -442,10 +449,17 @@ fn main() {
                             relative[h].push((fv - d) / fv.abs());
                         }
                     }
+                    let mean = f.iter().map(|v| v.abs()).sum::<f64>() / f.len().max(1) as f64;
+                    for (h, (fv, d)) in f.iter().zip(&s.train[end..end + steps]).enumerate() {
+                        let shape = fv.abs() / mean;
+                        if mean > 1e-9 && shape > 1e-3 {
+                            shaped[h].push((fv - d) / shape);
+                        }
+                    }
                 }
             }
             let kinds: &[(&str, &Vec<Vec<f64>>)] = if count == 36 && stride == 1 {
-                &[("abs", &errors), ("rel", &relative)]
+                &[("abs", &errors), ("rel", &relative), ("shape", &shaped)]
             } else {
                 &[("abs", &errors)]
             };
@@ -458,7 +472,11 @@ fn main() {
                     let offsets = rule(errs, s.horizon, *level);
                     let alpha = 1.0 - level;
                     for ((y, f), (below, above)) in s.test.iter().zip(&point).zip(&offsets) {
-                        let unit = if *kind == "rel" { f.abs() } else { 1.0 };
+                        let unit = match *kind {
+                            "rel" => f.abs(),
+                            "shape" => f.abs() / today_mean,
+                            _ => 1.0,
+                        };
                         let (low, high) = ((f - below * unit).max(0.0), f + above * unit);
                         if low <= *y && *y <= high {
                             score.inside[li] += 1;
