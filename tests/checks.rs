@@ -8,6 +8,7 @@
 
 mod support;
 
+mod alerts;
 mod bands;
 mod cli;
 mod cli_stock;

@@ -46,6 +46,7 @@ fn stock_json_has_the_contract_fields_and_the_engine_figures() {
             "cycle_service_level",
             "fill_rate",
             "alerts",
+            "notes",
         ] {
             assert!(item.get(key).is_some(), "{key} missing in {item}");
         }
@@ -67,10 +68,16 @@ fn stock_json_has_the_contract_fields_and_the_engine_figures() {
         .unwrap();
     assert_eq!(hose["distribution"], "empirical");
     assert!(hose["safety_factor"].is_null());
-    assert!(hose["alerts"][0]
+    assert!(hose["notes"][0]
         .as_str()
         .unwrap()
         .contains("rolling-origin totals"));
+    // ...and the alert for sparse demand.
+    assert!(hose["alerts"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|a| a["kind"] == "sparse_demand" && a["reason"].as_str().is_some()));
     // The numbers are the engine's.
     let settings =
         stock::StockSettings::new(2, None, stock::Target::cycle_service(0.95).unwrap()).unwrap();
@@ -241,7 +248,7 @@ fn a_stock_table_gives_on_hand_on_order_and_the_order_today() {
     // An item without a row: no position, no order, and it says why.
     let pots = item("Terracotta pot");
     assert!(pots["on_hand"].is_null() && pots["suggested_order"].is_null());
-    assert!(pots["alerts"]
+    assert!(pots["notes"]
         .to_string()
         .contains("no row in the stock table"));
     // A row for an item the history does not hold is named.

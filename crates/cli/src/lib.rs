@@ -17,7 +17,7 @@ pub mod wire;
 use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
-use morrowcast_engine::{demo, intake, plan, series, stock};
+use morrowcast_engine::{alerts, demo, intake, plan, series, stock};
 
 use args::{Command, ForecastArgs, StockArgs};
 use wire::{
@@ -234,10 +234,11 @@ fn stock(
                         .to_string(),
                 );
             }
-            Ok((plan, stock))
+            let alerts = alerts::alerts(&plan, s.frequency());
+            Ok((plan, stock, alerts))
         },
-        |(plan, stock)| StockItemJson::new(plan, stock),
-        |(plan, stock)| table::stock(plan, stock),
+        |(plan, stock, alerts)| StockItemJson::new(plan, stock, alerts),
+        |(plan, stock, alerts)| table::stock(plan, stock, alerts),
     )
 }
 

@@ -2,6 +2,7 @@
 
 use std::fmt::Write;
 
+use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::intake::IntakeReport;
 use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::stock;
@@ -256,7 +257,7 @@ pub fn stock_table_errors(t: &morrowcast_engine::intake::StockTable) -> String {
 }
 
 /// One item's Stock plan in a few lines.
-pub fn stock(p: &ItemPlan, st: &stock::StockPlan) -> String {
+pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
     let f = &st.figures;
     let level_name = match st.settings.review_period() {
         None => "reorder point",
@@ -294,6 +295,9 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan) -> String {
             "on hand {}, on order {}: suggested order today {}",
             p.on_hand, p.on_order, order
         );
+    }
+    for a in alerts {
+        let _ = writeln!(s, "alert ({}): {}", a.kind.key(), clean(&a.reason));
     }
     for n in &st.notes {
         let _ = writeln!(s, "note: {}", clean(n));

@@ -7,6 +7,7 @@
 
 use serde::Serialize;
 
+use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::backtest::{Candidate, Scored};
 use morrowcast_engine::intake::IntakeReport;
 use morrowcast_engine::plan::ItemPlan;
@@ -287,7 +288,16 @@ pub struct StockItemJson {
     pub fill_rate: f64,
     /// Hadley & Whitin's exact (s, Q) or Sobel's (R, S) fill rate; the empirical model's own.
     pub fill_rate_exact: f64,
-    pub alerts: Vec<String>,
+    /// Why the item needs attention (the engine's alerts).
+    pub alerts: Vec<AlertJson>,
+    /// How the figures were worked out, where it is not the usual way.
+    pub notes: Vec<String>,
+}
+
+#[derive(Serialize, Debug)]
+pub struct AlertJson {
+    pub kind: &'static str,
+    pub reason: String,
 }
 
 #[derive(Serialize, Debug)]
@@ -297,7 +307,7 @@ pub struct TargetJson {
 }
 
 impl StockItemJson {
-    pub fn new(p: &ItemPlan, st: &stock::StockPlan) -> Self {
+    pub fn new(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> Self {
         let f = &st.figures;
         let continuous = st.settings.review_period().is_none();
         let target = match st.settings.target() {
@@ -334,7 +344,14 @@ impl StockItemJson {
             cycle_service_level: f.cycle_service_level,
             fill_rate: f.fill_rate,
             fill_rate_exact: f.fill_rate_exact,
-            alerts: st.notes.clone(),
+            alerts: alerts
+                .iter()
+                .map(|a| AlertJson {
+                    kind: a.kind.key(),
+                    reason: a.reason.clone(),
+                })
+                .collect(),
+            notes: st.notes.clone(),
         }
     }
 }

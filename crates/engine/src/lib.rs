@@ -38,6 +38,7 @@ macro_rules! internal_modules {
 pub(crate) use internal_modules;
 
 pub mod accuracy;
+pub mod alerts;
 pub mod backtest;
 pub mod bands;
 pub mod calendar;
