@@ -6,7 +6,6 @@
 //! nothing themselves). The cut-offs are here, each with its source or marked as our choice.
 
 use crate::calendar::Frequency;
-use crate::patterns::DemandClass;
 use crate::plan::ItemPlan;
 
 /// What an alert is about (for filtering; the reason says the rest).
@@ -131,10 +130,7 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
             ),
         );
     }
-    let sparse = matches!(
-        plan.demand.class,
-        DemandClass::Intermittent | DemandClass::Lumpy
-    );
+    let sparse = plan.demand.class.is_sparse();
     if sparse {
         say(AlertKind::SparseDemand, plan.demand.reason.clone());
     }

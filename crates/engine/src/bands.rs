@@ -251,6 +251,15 @@ pub fn quantile_sorted(sorted: &[f64], p: f64) -> Option<f64> {
     Some(sorted[lo] + (h - lo as f64) * (sorted[hi] - sorted[lo]))
 }
 
+/// sqrt((1/k) sum e^2): the spread of forecast errors about zero, bias included (the band's
+/// per-horizon scale and the Stock plan's spread over a protection interval). 0 for no errors.
+pub fn root_mean_square(errors: &[f64]) -> f64 {
+    if errors.is_empty() {
+        return 0.0;
+    }
+    (errors.iter().map(|e| e * e).sum::<f64>() / errors.len() as f64).sqrt()
+}
+
 /// Student-t quantile t_df(p) (statrs); `df` may be fractional.
 pub fn student_t_quantile(p: f64, df: f64) -> f64 {
     // StudentsT::new(0, 1, df) fails only for df <= 0 or NaN, which callers never pass; the
@@ -297,9 +306,8 @@ pub fn rolling_band(
         let errors = errors_by_horizon.get(h).map(Vec::as_slice).unwrap_or(&[]);
         if errors.len() >= 2 {
             let k = errors.len() as f64;
-            let rms = (errors.iter().map(|e| e * e).sum::<f64>() / k).sqrt();
             let df = (k / (h + 1) as f64).max(1.0);
-            let half = student_t_quantile(upper, df) * rms;
+            let half = student_t_quantile(upper, df) * root_mean_square(errors);
             widest = Some(widest.map_or(half, |w| w.max(half)));
         }
         let half = widest?;

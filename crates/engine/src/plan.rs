@@ -18,9 +18,7 @@ use crate::backtest::{
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::{Frequency, Period};
 use crate::methods::{self, MethodKind};
-use crate::patterns::{
-    self, DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict,
-};
+use crate::patterns::{self, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict};
 use crate::series::Series;
 use crate::settings::{Choice, PlanSettings, SeasonChoice};
 
@@ -211,11 +209,8 @@ fn seasons_to_try(
 /// forecast uses a season.
 fn trial_note(seasons: Seasons, bt: &Backtest, chosen: &Candidate) -> Option<String> {
     let m = seasons.trial_length()?;
-    let seasonal = |c: &Candidate| match c {
-        Candidate::Method(kind) => kind.needs_season(),
-        Candidate::Combination(members) => members.iter().any(|k| k.needs_season()),
-    };
-    let outcome = if seasonal(chosen) {
+    // With a season on trial only the seasonal methods get one.
+    let outcome = if seasons.for_candidate(chosen).is_some() {
         "so the forecast follows the season".to_string()
     } else {
         "the forecast has no season".to_string()
@@ -254,11 +249,7 @@ pub fn applicable_methods(
     MethodKind::ALL
         .into_iter()
         .filter(|k| !k.needs_season() || season.is_some())
-        .filter(|k| {
-            !k.is_intermittent()
-                || has_zeros
-                || matches!(demand.class, DemandClass::Intermittent | DemandClass::Lumpy)
-        })
+        .filter(|k| !k.is_intermittent() || has_zeros || demand.class.is_sparse())
         .collect()
 }
 
@@ -578,7 +569,7 @@ fn numbers_are_finite(plan: &ItemPlan) -> bool {
 /// combination.
 fn choose(bt: &Backtest, choice: &Choice, demand: &DemandVerdict) -> Option<usize> {
     let ranking = &bt.ranking;
-    let sparse = matches!(demand.class, DemandClass::Intermittent | DemandClass::Lumpy);
+    let sparse = demand.class.is_sparse();
     let sba = || {
         ranking
             .iter()

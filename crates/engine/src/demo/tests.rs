@@ -3,8 +3,8 @@
 
 use super::*;
 use crate::calendar::Frequency;
+use crate::patterns::TrendDirection;
 use crate::patterns::{classify_demand, detect_season, mann_kendall};
-use crate::patterns::{DemandClass, TrendDirection};
 
 /// (header, month labels, one column of values per item) of a demo CSV.
 fn parse(csv: &str) -> (Vec<String>, Vec<String>, Vec<Vec<f64>>) {
@@ -86,7 +86,7 @@ fn broken_promises(csv: &str, check_pot: bool) -> Vec<String> {
         broken.push(format!("Seed packets trend: {}", trend.reason));
     }
     let hose = classify_demand(&columns[3]);
-    if !matches!(hose.class, DemandClass::Intermittent | DemandClass::Lumpy) {
+    if !hose.class.is_sparse() {
         broken.push(format!("Hose repair kit: {}", hose.reason));
     }
     broken

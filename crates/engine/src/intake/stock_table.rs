@@ -263,27 +263,13 @@ fn read_text(text: &str) -> StockTable {
             if field == Field::Item || is_missing(cell) {
                 continue;
             }
-            let err = |message: String| RowError {
-                row: r.line,
-                column: column_name(i),
-                text: cell.clone(),
-                message,
-            };
-            match read_cell(field, cell, mark) {
-                Ok(value) => match (field, value) {
-                    (Field::OnHand, Value::Number(v)) => row.on_hand = Some(v),
-                    (Field::OnOrder, Value::Number(v)) => row.on_order = Some(v),
-                    (Field::LeadTime, Value::Periods(v)) => row.lead_time = Some(v),
-                    (Field::LeadTimeSd, Value::Number(v)) => row.lead_time_sd = Some(v),
-                    (Field::Review, Value::Periods(v)) => row.review_period = Some(v),
-                    (Field::Service, Value::Fraction(v)) => service = Some(v),
-                    (Field::FillRate, Value::Fraction(v)) => fill = Some(v),
-                    (Field::OrderQuantity, Value::Number(v)) => row.order_quantity = Some(v),
-                    (Field::OrderMultiple, Value::Number(v)) => row.order_multiple = Some(v),
-                    (Field::MinimumOrder, Value::Number(v)) => row.minimum_order = Some(v),
-                    _ => bad.push(err("this cell could not be read".into())),
-                },
-                Err(message) => bad.push(err(message)),
+            if let Err(message) = read_cell(field, cell, mark, &mut row, &mut service, &mut fill) {
+                bad.push(RowError {
+                    row: r.line,
+                    column: column_name(i),
+                    text: cell.clone(),
+                    message,
+                });
             }
         }
         row.target = match (service, fill) {
@@ -309,48 +295,51 @@ fn read_text(text: &str) -> StockTable {
     out
 }
 
-enum Value {
-    Number(f64),
-    Periods(usize),
-    Fraction(f64),
-}
-
-/// One cell of `field`, or what was expected instead.
-fn read_cell(field: Field, cell: &str, mark: DecimalMark) -> Result<Value, String> {
-    if matches!(field, Field::Service | Field::FillRate) {
-        let what = if field == Field::Service {
-            "cycle service level"
-        } else {
-            "fill rate"
-        };
-        let number = parse_number(cell, mark).map_err(|e| e.message(mark))?.value;
-        return service_fraction_of(what, number)
-            .map(Value::Fraction)
-            .map_err(|e| e.to_string());
-    }
+/// Reads one cell of `field` into `row` (a service or fill-rate target into `service` or
+/// `fill`, which the caller checks against each other), or says what was expected instead.
+fn read_cell(
+    field: Field,
+    cell: &str,
+    mark: DecimalMark,
+    row: &mut StockRow,
+    service: &mut Option<f64>,
+    fill: &mut Option<f64>,
+) -> Result<(), String> {
     let number = parse_number(cell, mark).map_err(|e| e.message(mark))?.value;
+    let periods = |least: f64| {
+        if number.fract() == 0.0 && number >= least && number <= MAX_PERIODS as f64 {
+            Ok(number as usize)
+        } else {
+            Err(format!(
+                "expected a whole number of periods from {least} to {MAX_PERIODS}"
+            ))
+        }
+    };
+    let at_least_zero = || {
+        (number >= 0.0)
+            .then_some(number)
+            .ok_or_else(|| "expected a quantity of 0 or more".to_string())
+    };
+    let above_zero = || {
+        (number > 0.0)
+            .then_some(number)
+            .ok_or_else(|| "expected a quantity above 0".to_string())
+    };
+    let fraction = |what| service_fraction_of(what, number).map_err(|e| e.to_string());
     match field {
-        Field::LeadTime | Field::Review => {
-            let least = if field == Field::Review { 1.0 } else { 0.0 };
-            let whole = number.fract() == 0.0 && number >= least && number <= MAX_PERIODS as f64;
-            if whole {
-                Ok(Value::Periods(number as usize))
-            } else {
-                Err(format!(
-                    "expected a whole number of periods from {least} to {MAX_PERIODS}"
-                ))
-            }
-        }
-        Field::OnHand => Ok(Value::Number(number)),
-        Field::OnOrder | Field::LeadTimeSd | Field::MinimumOrder if number >= 0.0 => {
-            Ok(Value::Number(number))
-        }
-        Field::OrderQuantity | Field::OrderMultiple if number > 0.0 => Ok(Value::Number(number)),
-        Field::OrderQuantity | Field::OrderMultiple => {
-            Err("expected a quantity above 0".to_string())
-        }
-        _ => Err("expected a quantity of 0 or more".to_string()),
+        Field::Item => {}
+        Field::OnHand => row.on_hand = Some(number),
+        Field::OnOrder => row.on_order = Some(at_least_zero()?),
+        Field::LeadTime => row.lead_time = Some(periods(0.0)?),
+        Field::LeadTimeSd => row.lead_time_sd = Some(at_least_zero()?),
+        Field::Review => row.review_period = Some(periods(1.0)?),
+        Field::Service => *service = Some(fraction("cycle service level")?),
+        Field::FillRate => *fill = Some(fraction("fill rate")?),
+        Field::OrderQuantity => row.order_quantity = Some(above_zero()?),
+        Field::OrderMultiple => row.order_multiple = Some(above_zero()?),
+        Field::MinimumOrder => row.minimum_order = Some(at_least_zero()?),
     }
+    Ok(())
 }
 
 #[cfg(test)]

@@ -49,6 +49,13 @@ impl DemandClass {
         }
     }
 
+    /// Intermittent or lumpy: demands at least [`ADI_CUTOFF`] periods apart on average, where
+    /// SBA is the automatic choice, the Stock plan leaves the normal model, and some alerts
+    /// stand down.
+    pub fn is_sparse(self) -> bool {
+        matches!(self, DemandClass::Intermittent | DemandClass::Lumpy)
+    }
+
     /// The class of an (ADI, CV^2) pair under the published cut-offs.
     pub fn from_measures(adi: f64, cv2: f64) -> DemandClass {
         match (adi >= ADI_CUTOFF, cv2 >= CV2_CUTOFF) {

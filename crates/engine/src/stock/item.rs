@@ -5,8 +5,8 @@
 //! (the plan is taken as made; [`StockSettings::protection_periods`] tells a caller how far
 //! ahead it must forecast).
 
+use crate::bands::root_mean_square;
 use crate::intake::StockRow;
-use crate::patterns::DemandClass;
 use crate::plan::ItemPlan;
 
 use super::normal::figures;
@@ -288,8 +288,7 @@ pub fn demand_over(plan: &ItemPlan, periods: usize) -> Option<(IntervalDemand, u
     if totals.len() < 2 {
         return None;
     }
-    let rms = (totals.iter().map(|e| e * e).sum::<f64>() / totals.len() as f64).sqrt();
-    IntervalDemand::new(forecast_total(plan, 0, periods), rms)
+    IntervalDemand::new(forecast_total(plan, 0, periods), root_mean_square(&totals))
         .ok()
         .map(|d| (d, totals.len()))
 }
@@ -309,10 +308,7 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         return Err(StockError::ShortPlan { periods, horizon });
     }
     let mut notes = Vec::new();
-    let sparse = matches!(
-        plan.demand.class,
-        DemandClass::Intermittent | DemandClass::Lumpy
-    );
+    let sparse = plan.demand.class.is_sparse();
     let distribution = if sparse {
         Distribution::Empirical
     } else {
@@ -329,14 +325,14 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
     } else {
         0.0
     };
-    let sd = if settings.lead_time_sd > 0.0 {
-        // sqrt(sigma_P^2 + mu^2 s_L^2): the lead time's spread on top of the forecast's
-        // (Chopra & Meindl ch. 12, from memory, with the forecast's total error for P sigma^2).
-        (protection.sd().powi(2) + (per_period * settings.lead_time_sd).powi(2)).sqrt()
-    } else {
-        protection.sd()
+    // sqrt(sigma^2 + mu^2 s_L^2): the lead time's spread on top of the forecast's (Chopra &
+    // Meindl ch. 12, from memory, with the forecast's total error for P sigma^2); the same for
+    // the lead time alone under periodic review.
+    let with_lead_time_spread = |d: IntervalDemand| {
+        let sd = (d.sd().powi(2) + (per_period * settings.lead_time_sd).powi(2)).sqrt();
+        IntervalDemand::new(d.mean(), sd)
     };
-    let protection = IntervalDemand::new(protection.mean(), sd)?;
+    let protection = with_lead_time_spread(protection)?;
     let (review, cycle_demand) = match settings.review_period {
         None => {
             let q = settings
@@ -359,8 +355,7 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                         periods: lead,
                         horizon,
                     })?;
-                    let sd = (d.sd().powi(2) + (per_period * settings.lead_time_sd).powi(2)).sqrt();
-                    IntervalDemand::new(d.mean(), sd)?
+                    with_lead_time_spread(d)?
                 }
             };
             figures(
