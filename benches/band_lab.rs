@@ -19,69 +19,12 @@ use std::collections::BTreeMap;
 
 use morrowcast_engine::backtest;
 use morrowcast_engine::bands::standard_normal_quantile;
-use morrowcast_engine::calendar::Period;
 use morrowcast_engine::plan;
-use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 
-struct M3Series {
-    id: String,
-    subset: String,
-    season: usize,
-    horizon: usize,
-    train: Vec<f64>,
-    test: Vec<f64>,
-}
-
-fn load(path: &str) -> Vec<M3Series> {
-    let text = std::fs::read_to_string(path).unwrap();
-    let mut by_id: BTreeMap<String, M3Series> = BTreeMap::new();
-    for line in text.lines().skip(1) {
-        let f: Vec<&str> = line.split(',').collect();
-        if f.len() < 8 {
-            continue;
-        }
-        let entry = by_id.entry(f[0].to_string()).or_insert_with(|| M3Series {
-            id: f[0].to_string(),
-            subset: f[1].to_string(),
-            season: f[3].parse().unwrap_or(1),
-            horizon: f[4].parse().unwrap_or(1),
-            train: Vec::new(),
-            test: Vec::new(),
-        });
-        let v: f64 = f[7].parse().unwrap_or(f64::NAN);
-        if f[6] == "train" {
-            entry.train.push(v);
-        } else {
-            entry.test.push(v);
-        }
-    }
-    by_id.into_values().collect()
-}
-
-fn series_for(s: &M3Series) -> Series {
-    let start = match s.subset.as_str() {
-        "MONTHLY" => Period::month(2000, 1),
-        "QUARTERLY" => Period::quarter(2000, 1),
-        "YEARLY" => Period::year(1900),
-        _ => Period::position(1),
-    };
-    Series::new(
-        s.id.clone(),
-        start,
-        s.train.iter().map(|v| Some(*v)).collect(),
-    )
-    .unwrap()
-}
-
-fn scale(s: &M3Series) -> f64 {
-    let m = s.season.max(1);
-    s.train
-        .windows(m + 1)
-        .map(|w| (w[m] - w[0]).abs())
-        .sum::<f64>()
-        / (s.train.len() - m) as f64
-}
+#[path = "common/m3_data.rs"]
+mod m3_data;
+use m3_data::{load, seasonal_scale as scale, series_for};
 
 /// Student-t quantile by the Cornish-Fisher expansion in 1/nu (Abramowitz & Stegun 26.7.5).
 fn t_quantile(p: f64, nu: f64) -> f64 {
@@ -104,7 +47,7 @@ struct Score {
 type Rule = fn(&[Vec<f64>], usize, f64) -> Vec<(f64, f64)>;
 
 fn rms(e: &[f64]) -> f64 {
-    (e.iter().map(|x| x * x).sum::<f64>() / e.len().max(1) as f64).sqrt()
+    morrowcast_engine::bands::root_mean_square(e)
 }
 
 /// The engine's rule, bands::rolling_band (equal to t_pure).

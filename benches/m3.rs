@@ -21,63 +21,15 @@
 use std::collections::BTreeMap;
 use std::time::Instant;
 
-use morrowcast_engine::calendar::Period;
 use morrowcast_engine::methods::{self, MethodKind};
 use morrowcast_engine::patterns;
 use morrowcast_engine::plan;
-use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock;
 
-struct M3Series {
-    id: String,
-    subset: String,
-    season: usize,
-    horizon: usize,
-    train: Vec<f64>,
-    test: Vec<f64>,
-}
-
-fn load(path: &str) -> Vec<M3Series> {
-    let text = std::fs::read_to_string(path).unwrap_or_else(|e| panic!("cannot read {path}: {e}"));
-    let mut by_id: BTreeMap<String, M3Series> = BTreeMap::new();
-    for line in text.lines().skip(1) {
-        let f: Vec<&str> = line.split(',').collect();
-        if f.len() < 8 {
-            continue;
-        }
-        let entry = by_id.entry(f[0].to_string()).or_insert_with(|| M3Series {
-            id: f[0].to_string(),
-            subset: f[1].to_string(),
-            season: f[3].parse().unwrap_or(1),
-            horizon: f[4].parse().unwrap_or(1),
-            train: Vec::new(),
-            test: Vec::new(),
-        });
-        let v: f64 = f[7].parse().unwrap_or(f64::NAN);
-        if f[6] == "train" {
-            entry.train.push(v);
-        } else {
-            entry.test.push(v);
-        }
-    }
-    by_id.into_values().collect()
-}
-
-fn series_for(s: &M3Series) -> Series {
-    let start = match s.subset.as_str() {
-        "MONTHLY" => Period::month(2000, 1),
-        "QUARTERLY" => Period::quarter(2000, 1),
-        "YEARLY" => Period::year(1900),
-        _ => Period::position(1),
-    };
-    Series::new(
-        s.id.clone(),
-        start,
-        s.train.iter().map(|v| Some(*v)).collect(),
-    )
-    .unwrap_or_else(|e| panic!("{e}"))
-}
+#[path = "common/m3_data.rs"]
+mod m3_data;
+use m3_data::{load, seasonal_scale, series_for, M3Series};
 
 /// Band scores of one subset at one level.
 #[derive(Default, Clone)]
@@ -119,20 +71,6 @@ impl BandTally {
         self.count += o.count;
         self.msis_sum += o.msis_sum;
         self.msis_count += o.msis_count;
-    }
-}
-
-/// The in-sample mean absolute seasonal difference (the MASE and MSIS scale).
-fn seasonal_scale(s: &M3Series) -> f64 {
-    let m = s.season.max(1);
-    if s.train.len() > m {
-        s.train
-            .windows(m + 1)
-            .map(|w| (w[m] - w[0]).abs())
-            .sum::<f64>()
-            / (s.train.len() - m) as f64
-    } else {
-        f64::NAN
     }
 }
 

@@ -1,0 +1,76 @@
+//! The M3 competition data as the benchmarks read it (tests/fixtures/m3/m3.csv: one row per
+//! value, with id, subset, season length, horizon and whether it is train or test), the
+//! calendar each subset is given, and the MASE/MSIS scale. Shared by benches/m3.rs and
+//! benches/band_lab.rs through `#[path]`; kept apart from any scoring.
+
+use std::collections::BTreeMap;
+
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::series::Series;
+
+/// One M3 series: its train part (what a method sees) and test part (held out).
+pub struct M3Series {
+    pub id: String,
+    pub subset: String,
+    pub season: usize,
+    pub horizon: usize,
+    pub train: Vec<f64>,
+    pub test: Vec<f64>,
+}
+
+/// Every series of the file at `path`, ordered by id.
+pub fn load(path: &str) -> Vec<M3Series> {
+    let text = std::fs::read_to_string(path).unwrap_or_else(|e| panic!("cannot read {path}: {e}"));
+    let mut by_id: BTreeMap<String, M3Series> = BTreeMap::new();
+    for line in text.lines().skip(1) {
+        let f: Vec<&str> = line.split(',').collect();
+        if f.len() < 8 {
+            continue;
+        }
+        let entry = by_id.entry(f[0].to_string()).or_insert_with(|| M3Series {
+            id: f[0].to_string(),
+            subset: f[1].to_string(),
+            season: f[3].parse().unwrap_or(1),
+            horizon: f[4].parse().unwrap_or(1),
+            train: Vec::new(),
+            test: Vec::new(),
+        });
+        let v: f64 = f[7].parse().unwrap_or(f64::NAN);
+        if f[6] == "train" {
+            entry.train.push(v);
+        } else {
+            entry.test.push(v);
+        }
+    }
+    by_id.into_values().collect()
+}
+
+/// The train part as a series: monthly and quarterly from 2000, yearly from 1900, others by
+/// position.
+pub fn series_for(s: &M3Series) -> Series {
+    let start = match s.subset.as_str() {
+        "MONTHLY" => Period::month(2000, 1),
+        "QUARTERLY" => Period::quarter(2000, 1),
+        "YEARLY" => Period::year(1900),
+        _ => Period::position(1),
+    };
+    Series::new(
+        s.id.clone(),
+        start,
+        s.train.iter().map(|v| Some(*v)).collect(),
+    )
+    .unwrap_or_else(|e| panic!("{e}"))
+}
+/// The in-sample mean absolute seasonal difference (the MASE and MSIS scale).
+pub fn seasonal_scale(s: &M3Series) -> f64 {
+    let m = s.season.max(1);
+    if s.train.len() > m {
+        s.train
+            .windows(m + 1)
+            .map(|w| (w[m] - w[0]).abs())
+            .sum::<f64>()
+            / (s.train.len() - m) as f64
+    } else {
+        f64::NAN
+    }
+}
