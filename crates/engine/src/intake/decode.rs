@@ -183,6 +183,17 @@ fn capped(
     errors
 }
 
+/// Every decoding error of `decoded`: its undecodable bytes, by line, and the U+FFFD marks
+/// written in the text itself on the other lines (a line with undecodable bytes is reported
+/// with those bytes, not again by its mark). The history and the stock table both use it.
+pub(crate) fn all_errors(decoded: &Decoded) -> Vec<RowError> {
+    let byte_rows: Vec<usize> = decoded.errors.iter().map(|e| e.row).collect();
+    let marks = replacement_marks(&decoded.text)
+        .into_iter()
+        .filter(|e| !byte_rows.contains(&e.row));
+    decoded.errors.iter().cloned().chain(marks).collect()
+}
+
 /// The lines of `text` that hold U+FFFD, the mark a program leaves where it could not read bytes
 /// as text (a browser or editor that decoded a file wrongly, or a paste from one): each such
 /// line is an error, so a name or number misread there is never planned without a word.

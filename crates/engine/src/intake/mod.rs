@@ -233,15 +233,7 @@ impl IntakeReport {
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     let decoded = decode::decode(bytes);
     let mut report = read_text(&decoded.text);
-    // A line with undecodable bytes is reported with those bytes; a U+FFFD written in the
-    // file itself (valid UTF-8) only by its mark.
-    let byte_rows: Vec<usize> = decoded.errors.iter().map(|e| e.row).collect();
-    let marks = decode::replacement_marks(&decoded.text)
-        .into_iter()
-        .filter(|e| !byte_rows.contains(&e.row));
-    report
-        .errors
-        .extend(decoded.errors.into_iter().chain(marks));
+    report.errors.extend(decode::all_errors(&decoded));
     report.errors.sort_by_key(|e| e.row);
     report
 }

@@ -131,7 +131,7 @@ fn field_of(header: &str) -> Option<Field> {
 pub fn read_stock_table(bytes: &[u8]) -> StockTable {
     let decoded = decode::decode(bytes);
     let mut table = read_text(&decoded.text);
-    table.errors.extend(decoded.errors);
+    table.errors.extend(decode::all_errors(&decoded));
     table.errors.sort_by_key(|e| e.row);
     table
 }
@@ -427,5 +427,9 @@ mod tests {
         assert!(t.warnings[0].contains("\"colour\""), "{:?}", t.warnings);
         let t = read_stock_table(b"");
         assert_eq!(t.errors[0].row, 1);
+        // A U+FFFD written in the file (another program could not read bytes there) is an
+        // error at its line, as in the history: the row is not read as it stands.
+        let t = read_stock_table("item,on hand\nSeed p\u{fffd}ckets,4\n".as_bytes());
+        assert!(t.errors.iter().any(|e| e.row == 2), "{:?}", t.errors);
     }
 }
