@@ -10,12 +10,14 @@ mod support;
 
 mod alerts;
 mod bands;
+mod board;
 mod cli;
 mod cli_stock;
 mod e2e;
 mod intake;
 mod intermittent_choice;
 mod methods;
+mod order;
 mod patterns;
 mod plan;
 mod properties;

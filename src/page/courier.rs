@@ -9,7 +9,7 @@
 use std::cell::RefCell;
 use std::rc::Rc;
 
-use crate::worker::{Arrival, AskQueue, PlanAnswer, PlanAsk, PlanWorker, WorkerNews};
+use crate::worker::{Arrival, AskQueue, PlanAnswer, PlanAsk, PlanWorker, WorkerAsk, WorkerNews};
 use gloo_worker::{Spawnable, WorkerBridge};
 
 use super::browser::{blob_url, now_ms};
@@ -33,7 +33,7 @@ struct Inner {
 impl Inner {
     fn send(&self, ask: PlanAsk) {
         if let Some(bridge) = &self.bridge {
-            bridge.send(ask);
+            bridge.send(WorkerAsk::Plan(ask));
         }
     }
 }
@@ -121,6 +121,29 @@ impl NoWorker {
     }
 }
 
+/// Whether the page can start its workers, and why not.
+pub fn can_start_workers() -> Result<(), NoWorker> {
+    if worker_module().is_none() {
+        return Err(NoWorker::NotBuilt);
+    }
+    if !module_workers_supported() {
+        return Err(NoWorker::Unsupported);
+    }
+    Ok(())
+}
+
+/// Starts one plan worker under the page's policy (see [`worker_blob`]); `news` hears what it
+/// sends. `None` when the page names no worker module.
+pub fn spawn_worker(news: impl Fn(WorkerNews) + 'static) -> Option<WorkerBridge<PlanWorker>> {
+    let path = worker_blob(&worker_module()?)?;
+    Some(
+        PlanWorker::spawner()
+            .callback(news)
+            .with_loader(true)
+            .spawn(&path),
+    )
+}
+
 impl Courier {
     /// Starts the worker; `deliver` gets each answer the page should show, `report` the
     /// progress (done, total) of the ask it waits for.
@@ -128,12 +151,7 @@ impl Courier {
         deliver: impl Fn(PlanAnswer) + 'static,
         report: impl Fn(usize, usize) + 'static,
     ) -> Result<Courier, NoWorker> {
-        if worker_module().is_none() {
-            return Err(NoWorker::NotBuilt);
-        }
-        if !module_workers_supported() {
-            return Err(NoWorker::Unsupported);
-        }
+        can_start_workers()?;
         let courier = Courier {
             inner: Rc::new(RefCell::new(Inner {
                 bridge: None,
@@ -147,23 +165,21 @@ impl Courier {
     }
 
     fn spawn(&self) -> Option<()> {
-        let path = worker_blob(&worker_module()?)?;
         let weak = Rc::downgrade(&self.inner);
-        let bridge = PlanWorker::spawner()
-            .callback(move |news| {
-                if let Some(inner) = weak.upgrade() {
-                    match news {
-                        WorkerNews::Answer(answer) => Courier { inner }.arrived(*answer),
-                        WorkerNews::Progress {
-                            ticket,
-                            done,
-                            total,
-                        } => Courier { inner }.progressed(ticket, done, total),
-                    }
+        let bridge = spawn_worker(move |news| {
+            if let Some(inner) = weak.upgrade() {
+                match news {
+                    WorkerNews::Answer(answer) => Courier { inner }.arrived(*answer),
+                    WorkerNews::Progress {
+                        ticket,
+                        done,
+                        total,
+                    } => Courier { inner }.progressed(ticket, done, total),
+                    // Board batches go to the pool's workers, never to this one.
+                    WorkerNews::Rows { .. } => {}
                 }
-            })
-            .with_loader(true)
-            .spawn(&path);
+            }
+        })?;
         self.inner.borrow_mut().bridge = Some(bridge);
         Some(())
     }

@@ -5,11 +5,14 @@
 //! in the worker, src/worker) and the charts (src/chart). The pure parts (settings checking, words, exports, chart data) build and
 //! are tested natively; the components and browser glue build for wasm32 only.
 
+pub mod board;
 pub mod export;
 pub mod model;
 pub mod settings;
 pub mod words;
 
+#[cfg(target_arch = "wasm32")]
+mod board_panel;
 #[cfg(target_arch = "wasm32")]
 mod browser;
 #[cfg(target_arch = "wasm32")]
@@ -18,6 +21,8 @@ mod courier;
 mod in_browser;
 #[cfg(target_arch = "wasm32")]
 mod panels;
+#[cfg(target_arch = "wasm32")]
+mod pool;
 #[cfg(target_arch = "wasm32")]
 mod results;
 #[cfg(target_arch = "wasm32")]

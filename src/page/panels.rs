@@ -34,10 +34,32 @@ fn read_file(state: IntakeState, file: File) {
     });
 }
 
+/// Texts longer than this are shown in the box only in part (our choice, measured: Chromium
+/// lays out a text box's whole text on the page's only thread, about 3 s for 1.4 MB here,
+/// which would freeze the page and starve the Item board's workers of their next batches).
+const WHOLE_TEXT_BYTES: usize = 200_000;
+
+/// Lines of a long text the box shows.
+const SHOWN_LINES: usize = 200;
+
+/// The first [`SHOWN_LINES`] lines of `text`, and how many lines it has in all.
+fn head_of(text: &str) -> (String, usize) {
+    let shown: Vec<&str> = text.lines().take(SHOWN_LINES).collect();
+    (shown.join("\n"), text.lines().count())
+}
+
 #[component]
 pub fn IntakePanel() -> impl IntoView {
     let state = expect_context::<IntakeState>();
     let dragging = RwSignal::new(false);
+    // Whether a long text is shown whole (the user asked to edit it here); new text resets it.
+    let whole = RwSignal::new(false);
+    let source = Memo::new(move |_| state.source.get());
+    Effect::new(move |_| {
+        source.track();
+        whole.set(false);
+    });
+    let partial = move || !whole.get() && state.text.with(|t| t.len() > WHOLE_TEXT_BYTES);
     let demo_missing = RwSignal::new(false);
     let load_demo = move |_| {
         let csv = demo::demo_csv();
@@ -84,8 +106,9 @@ pub fn IntakePanel() -> impl IntoView {
                     rows="9"
                     spellcheck="false"
                     autocomplete="off"
-                    aria-describedby="intake-report"
-                    prop:value=move || state.text.get()
+                    aria-describedby="intake-report intake-partial"
+                    prop:readOnly=partial
+                    prop:value=move || if partial() { state.text.with(|t| head_of(t).0) } else { state.text.get() }
                     on:input=move |ev| {
                         let t = event_target_value(&ev);
                         super::browser::keep_text(&t, "pasted text");
@@ -94,6 +117,20 @@ pub fn IntakePanel() -> impl IntoView {
                     }
                 ></textarea>
             </div>
+            <Show when=partial>
+                <div class="notice" id="intake-partial">
+                    <p>{move || state.text.with(|t| {
+                        let (_, lines) = head_of(t);
+                        format!(
+                            "This table is {:.1} MB ({lines} lines). The box shows its first {SHOWN_LINES} lines so the page stays quick; every line was read (see the report below).",
+                            t.len() as f64 / 1e6
+                        )
+                    })}</p>
+                    <button type="button" class="quiet" id="intake-edit-whole" on:click=move |_| whole.set(true)>"Edit the whole text here (slow)"</button>
+                    " "
+                    <button type="button" class="quiet" id="intake-empty" on:click=move |_| state.set_text(String::new(), "pasted text")>"Empty the box to paste anew"</button>
+                </div>
+            </Show>
             <div class="intake-actions">
                 <label class="file-button" for="intake-file">"Open a file…"</label>
                 <input

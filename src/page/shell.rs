@@ -7,10 +7,11 @@
 use leptos::prelude::*;
 use morrowcast_engine::demo;
 
+use super::board_panel::{ItemBoard, ItemStock, StockPanel};
 use super::browser;
 use super::panels::{IntakePanel, SettingsPanel};
 use super::results::{ErrorLedger, Headline, LookAheadPanel, PatternView, Ranking};
-use super::state::{IntakeState, PlanState, Resized, DEMO_SOURCE};
+use super::state::{BoardState, IntakeState, PlanState, Resized, DEMO_SOURCE};
 
 #[component]
 pub fn App() -> impl IntoView {
@@ -18,9 +19,11 @@ pub fn App() -> impl IntoView {
         browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
     let intake = IntakeState::new(text, source);
     let state = PlanState::new(intake);
+    let board = BoardState::new(intake, state);
     let resized = RwSignal::new(0u32);
     provide_context(intake);
     provide_context(state);
+    provide_context(board);
     provide_context(Resized(resized));
     // Charts redraw at their new size; the handle lives as long as the page.
     let _resize = window_event_listener(leptos::ev::resize, move |_| resized.update(|t| *t += 1));
@@ -35,21 +38,29 @@ pub fn App() -> impl IntoView {
                 </p>
             </div>
         </header>
-        <main class="layout">
+        <main>
+        // The desk's first view once a file holds several items.
+        <Show when=move || intake.report.with(|r| r.items.len() > 1)>
+            <div class="board-wrap"><ItemBoard/></div>
+        </Show>
+        <div class="layout">
             <div class="controls">
                 <IntakePanel/>
                 <SettingsPanel/>
+                <StockPanel/>
             </div>
             <div class="results" id="results" tabindex="-1">
                 <Headline/>
                 // Until there is a plan, a short guide instead of empty charts and bare tables.
                 <Show when=move || state.plan.with(|p| matches!(p, Some(Ok(_)))) fallback=WhatComes>
+                    <ItemStock/>
                     <LookAheadPanel/>
                     <Ranking/>
                     <ErrorLedger/>
                     <PatternView/>
                 </Show>
             </div>
+        </div>
         </main>
         <footer class="colophon">
             <p id="sign-convention">

@@ -5,8 +5,9 @@
 use gloo_worker::{HandlerId, Worker, WorkerScope};
 use wasm_bindgen::JsCast;
 
+use super::board::answer_board;
 use super::desk::PlanDesk;
-use super::protocol::{Drill, PlanAsk, WorkerNews};
+use super::protocol::{Drill, WorkerAsk, WorkerNews};
 
 /// The Web Worker that computes plans (registered by src/bin/morrowcast-worker.rs).
 pub struct PlanWorker {
@@ -34,7 +35,7 @@ fn now_ms() -> f64 {
 
 impl Worker for PlanWorker {
     type Message = ();
-    type Input = PlanAsk;
+    type Input = WorkerAsk;
     type Output = WorkerNews;
 
     fn create(_scope: &WorkerScope<Self>) -> Self {
@@ -45,7 +46,24 @@ impl Worker for PlanWorker {
 
     fn update(&mut self, _scope: &WorkerScope<Self>, _msg: ()) {}
 
-    fn received(&mut self, scope: &WorkerScope<Self>, ask: PlanAsk, id: HandlerId) {
+    fn received(&mut self, scope: &WorkerScope<Self>, ask: WorkerAsk, id: HandlerId) {
+        let ask = match ask {
+            WorkerAsk::Plan(ask) => ask,
+            WorkerAsk::Board(batch) => {
+                ANSWERING.with(|a| a.set(batch.ticket));
+                let t0 = now_ms();
+                let rows = answer_board(&batch);
+                scope.respond(
+                    id,
+                    WorkerNews::Rows {
+                        ticket: batch.ticket,
+                        rows,
+                        compute_ms: now_ms() - t0,
+                    },
+                );
+                return;
+            }
+        };
         if ask.drill == Some(Drill::Silence) {
             return;
         }

@@ -9,11 +9,16 @@
 //! ends are built from this source at once, so the encoding is not a contract and may change
 //! with any commit. Infinity and NaN cross unchanged (JSON could not carry them).
 //!
+//! The Item board sends [`BoardAsk`] batches to a pool of the same workers and gets
+//! [`WorkerNews::Rows`] back ([`board`]: each item planned with its Stock plan, boiled down to
+//! its row).
+//!
 //! Parts: [`protocol`] (the messages and the fault words), [`desk`] (the worker's whole logic,
 //! pure), [`queue`] (the page's side: tickets, one ask in flight, the newest waiting; pure), and
 //! the gloo-worker glue (wasm only), which only times the desk and passes messages. The pure
 //! parts are tested natively.
 
+pub mod board;
 pub mod desk;
 pub mod protocol;
 pub mod queue;
@@ -21,10 +26,12 @@ pub mod queue;
 #[cfg(target_arch = "wasm32")]
 mod glue;
 
+pub use board::{answer_board, BoardAsk, BoardFigures, BoardItem, BoardRow};
 pub use desk::PlanDesk;
 #[cfg(target_arch = "wasm32")]
 pub use glue::{answering, PlanWorker};
 pub use protocol::{
-    fault_message, parse_fault, Drill, PlanAnswer, PlanAsk, Shown, WorkerNews, FAULT_PREFIX,
+    fault_message, parse_fault, Drill, PlanAnswer, PlanAsk, Shown, WorkerAsk, WorkerNews,
+    FAULT_PREFIX,
 };
 pub use queue::{Arrival, AskQueue};

@@ -6,6 +6,8 @@
 use serde::{Deserialize, Serialize};
 
 use morrowcast_engine::backtest::Candidate;
+
+use super::board::{BoardAsk, BoardRow};
 use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
@@ -26,6 +28,14 @@ pub fn parse_fault(message: &str) -> Option<(u64, &str)> {
     let rest = &message[message.find(FAULT_PREFIX)? + FAULT_PREFIX.len()..];
     let (ticket, detail) = rest.split_once(": ")?;
     Some((ticket.parse().ok()?, detail))
+}
+
+/// What the page asks a worker for: one item's whole plan (the detail), or a batch of the
+/// Item board's rows.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub enum WorkerAsk {
+    Plan(PlanAsk),
+    Board(BoardAsk),
 }
 
 /// One request to the worker.
@@ -77,6 +87,12 @@ pub enum WorkerNews {
     },
     /// Boxed: an answer is large, progress news small.
     Answer(Box<PlanAnswer>),
+    /// The rows of one [`BoardAsk`] batch, and the worker's time on it (milliseconds).
+    Rows {
+        ticket: u64,
+        rows: Vec<BoardRow>,
+        compute_ms: f64,
+    },
 }
 
 /// The worker's answer to one [`PlanAsk`].

@@ -16,6 +16,8 @@ pub mod serve;
 pub mod webdriver;
 
 mod access;
+mod board;
+mod board_speed;
 mod demo;
 mod density;
 mod engine_match;

@@ -17,7 +17,7 @@ pub mod wire;
 use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
-use morrowcast_engine::{alerts, demo, intake, plan, series, stock};
+use morrowcast_engine::{demo, intake, order, plan, series};
 
 use args::{Command, ForecastArgs, StockArgs};
 use wire::{
@@ -205,37 +205,9 @@ fn stock(
         report,
         |s| {
             let row = table.and_then(|t| t.row(s.name()));
-            let settings = match row {
-                Some(row) => sa.stock.for_row(row).map_err(|e| e.to_string())?,
-                None => sa.stock.clone(),
-            };
-            // The plan must reach over the protection interval: an automatic horizon shorter
-            // than it is lengthened (a horizon the user gave was checked against it).
-            let periods = settings.protection_periods();
-            let plan_settings = match sa.settings.horizon() {
-                None if plan::default_horizon(s.frequency()) < periods => sa
-                    .settings
-                    .clone()
-                    .with_horizon(Some(periods as u64))
-                    .map_err(|e| e.to_string())?,
-                Some(h) if h < periods => {
-                    return Err(format!(
-                        "--horizon {h} is shorter than this item's protection interval of \
-                         {periods} periods (from the stock table)"
-                    ))
-                }
-                _ => sa.settings.clone(),
-            };
-            let plan = plan::plan_item(s, &plan_settings).map_err(|e| e.to_string())?;
-            let mut stock = stock::plan_stock(&plan, &settings).map_err(|e| e.to_string())?;
-            if table.is_some() && row.is_none() {
-                stock.notes.push(
-                    "no row in the stock table: on hand unknown, so no order is suggested"
-                        .to_string(),
-                );
-            }
-            let alerts = alerts::alerts(&plan, s.frequency());
-            Ok((plan, stock, alerts))
+            order::plan_order(s, &sa.settings, &sa.stock, row, table.is_some())
+                .map(|o| (o.plan, o.stock, o.alerts))
+                .map_err(|e| e.to_string())
         },
         |(plan, stock, alerts)| StockItemJson::new(plan, stock, alerts),
         |(plan, stock, alerts)| table::stock(plan, stock, alerts),

@@ -31,6 +31,32 @@ pub enum AlertKind {
 }
 
 impl AlertKind {
+    /// Every kind, in the order the front ends list them.
+    pub const ALL: [AlertKind; 8] = [
+        AlertKind::TrackingSignal,
+        AlertKind::Bias,
+        AlertKind::ShortHistory,
+        AlertKind::NewItem,
+        AlertKind::SparseDemand,
+        AlertKind::NoRecentDemand,
+        AlertKind::Outliers,
+        AlertKind::WideBand,
+    ];
+
+    /// A short title for lists and filters (the reason says the rest).
+    pub fn title(self) -> &'static str {
+        match self {
+            AlertKind::TrackingSignal => "Tracking signal",
+            AlertKind::Bias => "Bias",
+            AlertKind::ShortHistory => "Short history",
+            AlertKind::NewItem => "New item",
+            AlertKind::SparseDemand => "Sparse demand",
+            AlertKind::NoRecentDemand => "No recent demand",
+            AlertKind::Outliers => "Outliers",
+            AlertKind::WideBand => "Wide band",
+        }
+    }
+
     /// Stable machine name.
     pub fn key(self) -> &'static str {
         match self {

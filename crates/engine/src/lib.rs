@@ -45,6 +45,7 @@ pub mod calendar;
 pub mod demo;
 pub mod intake;
 pub mod methods;
+pub mod order;
 pub mod patterns;
 pub mod plan;
 pub mod series;

@@ -29,7 +29,9 @@ impl IntakeState {
     pub fn new(initial_text: String, initial_source: String) -> IntakeState {
         let text = RwSignal::new(initial_text);
         let source = RwSignal::new(initial_source);
-        let report = Memo::new(move |_| text.with(|t| intake::read(t)));
+        let report = Memo::new(move |_| {
+            browser::measured("morrowcast:intake", || text.with(|t| intake::read(t)))
+        });
         let item = RwSignal::new(0usize);
         let series = Memo::new(move |_| {
             report.with(|r| {

@@ -1,14 +1,17 @@
-//! The page's state, in two parts handed around by context: [`IntakeState`] (the Intake text
-//! and what the engine read from it) and [`PlanState`] (the settings form and the plans the
-//! worker computes), plus the page-wide [`Resized`] tick charts redraw on.
+//! The page's state, in three parts handed around by context: [`IntakeState`] (the Intake text
+//! and what the engine read from it), [`PlanState`] (the settings form and the plans the
+//! worker computes for the open item) and [`BoardState`] (the Stock plan's settings and every
+//! item's row, from the worker pool), plus the page-wide [`Resized`] tick charts redraw on.
 //!
 //! Kept apart from: how the state is shown (panels, results) and the worker's messages
 //! (courier.rs). The page reads Intake itself (it is quick and the report shows as you type);
 //! every plan is computed in the worker.
 
+mod board;
 mod intake;
 mod plan;
 
+pub use board::{BoardState, ItemChange};
 pub use intake::{IntakeState, DEMO_SOURCE};
 pub use plan::PlanState;
 

@@ -24,6 +24,7 @@ use crate::stock::{service_fraction_of, Target, MAX_PERIODS};
 
 /// One row: an item and what it gives; `None` where the cell is empty or the column absent.
 #[derive(Clone, Debug, Default, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct StockRow {
     /// The item's name, as in the history.
     pub item: String,

@@ -88,10 +88,15 @@ impl StockSettings {
     /// the item's own. The row's values were checked when the table was read; they are
     /// checked again here, so a row built by other code cannot slip past.
     pub fn for_row(&self, row: &StockRow) -> Result<StockSettings, StockError> {
+        let target = match row.target {
+            Some(Target::CycleService(v)) => Target::cycle_service(v)?,
+            Some(Target::FillRate(v)) => Target::fill_rate(v)?,
+            None => self.target,
+        };
         let mut s = StockSettings::new(
             row.lead_time.unwrap_or(self.lead_time),
             row.review_period.or(self.review_period),
-            row.target.unwrap_or(self.target),
+            target,
         )?;
         s = s.with_lead_time_sd(row.lead_time_sd.unwrap_or(self.lead_time_sd))?;
         if s.review_period.is_none() {

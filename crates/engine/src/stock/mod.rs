@@ -30,6 +30,7 @@
 mod empirical;
 mod item;
 mod normal;
+mod text;
 
 use std::fmt;
 
@@ -42,6 +43,7 @@ pub use normal::{
     figures, inverse_normal_loss, normal_loss, sd_independent, sd_per_horizon,
     sd_variable_lead_time,
 };
+pub use text::{StockField, StockFieldError, StockText, TargetKind};
 
 /// Why stock figures cannot be worked out. Each message names the input and what it needs.
 #[derive(Clone, Debug, PartialEq)]
@@ -152,6 +154,7 @@ pub(crate) fn check_quantity(
 
 /// What the level is set to protect.
 #[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Target {
     /// The chance of no stock-out in a replenishment cycle (CSL), a fraction in (0, 1).
     CycleService(f64),

@@ -1,0 +1,106 @@
+//! One item from its series to everything a planner's desk shows of it: the plan, its Stock
+//! plan and its alerts. The command line's `stock` and the page's Item board both call
+//! [`plan_order`], so their figures cannot drift apart.
+//!
+//! Kept apart from: how the plan, the figures and the alerts are made (plan.rs, stock/,
+//! alerts.rs) and how they are shown or serialised (the front ends).
+
+use std::fmt;
+
+use crate::alerts::{alerts, Alert};
+use crate::intake::StockRow;
+use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
+use crate::series::Series;
+use crate::settings::{PlanSettings, SettingError};
+use crate::stock::{plan_stock, StockError, StockPlan, StockSettings};
+
+/// An item's plan, Stock plan and alerts.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ItemOrder {
+    /// The ranked plan the figures come from.
+    pub plan: ItemPlan,
+    /// Safety stock, level, service and the order today.
+    pub stock: StockPlan,
+    /// Why the item needs attention, if it does.
+    pub alerts: Vec<Alert>,
+}
+
+/// Why an item has no Stock plan.
+#[derive(Clone, Debug, PartialEq)]
+pub enum OrderError {
+    /// The item could not be planned.
+    Plan(PlanError),
+    /// The item's stock settings or figures failed.
+    Stock(StockError),
+    /// A horizon the user set does not reach over the item's protection interval.
+    HorizonShort {
+        /// The horizon set.
+        horizon: usize,
+        /// The protection interval in periods.
+        periods: usize,
+    },
+    /// The horizon could not be lengthened (see the message).
+    Setting(SettingError),
+}
+
+impl fmt::Display for OrderError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            OrderError::Plan(e) => e.fmt(f),
+            OrderError::Stock(e) => e.fmt(f),
+            OrderError::HorizonShort { horizon, periods } => write!(
+                f,
+                "the horizon of {horizon} periods is shorter than this item's protection \
+                 interval of {periods} periods: lengthen the horizon or leave it automatic"
+            ),
+            OrderError::Setting(e) => e.fmt(f),
+        }
+    }
+}
+
+impl std::error::Error for OrderError {}
+
+/// The note on an item with no row in a stock table that was given.
+pub const NO_ROW_NOTE: &str =
+    "no row in the stock table: on hand unknown, so no order is suggested";
+
+/// Plans one item and works out its Stock plan and alerts.
+///
+/// `defaults` are the file's stock settings; `row` the item's row of the stock table, whose
+/// values replace them ([`StockSettings::for_row`]); `table_given` whether a stock table was
+/// given at all (an item missing from one gets a note). An automatic horizon shorter than the
+/// protection interval is lengthened to it; a horizon the user set must reach it.
+pub fn plan_order(
+    series: &Series,
+    settings: &PlanSettings,
+    defaults: &StockSettings,
+    row: Option<&StockRow>,
+    table_given: bool,
+) -> Result<ItemOrder, OrderError> {
+    let stock_settings = match row {
+        Some(row) => defaults.for_row(row).map_err(OrderError::Stock)?,
+        None => defaults.clone(),
+    };
+    let periods = stock_settings.protection_periods();
+    let plan_settings = match settings.horizon() {
+        None if default_horizon(series.frequency()) < periods => settings
+            .clone()
+            .with_horizon(Some(periods as u64))
+            .map_err(OrderError::Setting)?,
+        Some(horizon) if horizon < periods => {
+            return Err(OrderError::HorizonShort { horizon, periods })
+        }
+        _ => settings.clone(),
+    };
+    let plan = plan_item(series, &plan_settings).map_err(OrderError::Plan)?;
+    let mut stock = plan_stock(&plan, &stock_settings).map_err(OrderError::Stock)?;
+    if table_given && row.is_none() {
+        stock.notes.push(NO_ROW_NOTE.to_string());
+    }
+    let alerts = alerts(&plan, series.frequency());
+    Ok(ItemOrder {
+        plan,
+        stock,
+        alerts,
+    })
+}

@@ -1,0 +1,349 @@
+//! The Item board's rules, apart from the DOM: its columns, how rows sort and filter, the
+//! batches items are sent to the workers in, and the order plan as CSV.
+//!
+//! Kept apart from: showing (board_panel.rs) and computing (every figure comes from the
+//! worker's rows, src/worker/board.rs). Pure and tested natively.
+
+use std::cmp::Ordering;
+
+use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::stock::Target;
+
+use crate::worker::{BoardFigures, BoardRow};
+
+/// Items per batch sent to a worker (our choice: about 30 ms of work for 60-month items, so
+/// rows and progress arrive several times a second and a changed setting stops old work soon).
+pub const BATCH: usize = 8;
+
+/// Rows drawn at first, and added by each "show more" (our choice: drawing a few hundred
+/// rows stays under the 100 ms a page may take to answer; sorting and filtering cover all).
+pub const ROWS_SHOWN: usize = 200;
+
+/// What a column sorts by.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum SortKey {
+    /// The file's order.
+    File,
+    Name,
+    DemandClass,
+    Season,
+    Trend,
+    Method,
+    Mase,
+    Bias,
+    Tracking,
+    History,
+    Next,
+    DemandOver,
+    SafetyStock,
+    Level,
+    Order,
+    Alerts,
+}
+
+/// A column of the board: its heading, its sort key, whether it holds numbers.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Column {
+    pub key: SortKey,
+    pub title: &'static str,
+    pub numeric: bool,
+}
+
+const fn col(key: SortKey, title: &'static str, numeric: bool) -> Column {
+    Column {
+        key,
+        title,
+        numeric,
+    }
+}
+
+/// The board's columns, left to right (the item's name comes first, outside this list): what
+/// to order and why to look first, then the figures behind it, then the forecast's make-up.
+pub const COLUMNS: [Column; 14] = [
+    col(SortKey::Order, "Order today", true),
+    col(SortKey::Alerts, "Alerts", true),
+    col(SortKey::Next, "Next period (band)", true),
+    col(SortKey::DemandOver, "Demand over protection", true),
+    col(SortKey::SafetyStock, "Safety stock", true),
+    col(SortKey::Level, "Reorder point / order-up-to", true),
+    col(SortKey::DemandClass, "Demand", false),
+    col(SortKey::Season, "Season", true),
+    col(SortKey::Trend, "Trend", false),
+    col(SortKey::Method, "Method", false),
+    col(SortKey::Mase, "MASE", true),
+    col(SortKey::Bias, "Bias", true),
+    col(SortKey::Tracking, "Tracking signal", true),
+    col(SortKey::History, "History", true),
+];
+
+fn number(f: &BoardFigures, key: SortKey) -> Option<f64> {
+    match key {
+        SortKey::Season => Some(f.season.unwrap_or(1) as f64),
+        SortKey::Mase => f.mase,
+        SortKey::Bias => Some(f.bias),
+        // By how far beyond zero: the worst first when descending.
+        SortKey::Tracking => f.tracking_signal.map(f64::abs),
+        SortKey::History => Some(f.history as f64),
+        SortKey::Next => Some(f.next),
+        SortKey::DemandOver => Some(f.demand_over_protection),
+        SortKey::SafetyStock => Some(f.safety_stock),
+        SortKey::Level => Some(f.level_units),
+        SortKey::Order => f.suggested_order,
+        SortKey::Alerts => Some(f.alerts.len() as f64),
+        _ => None,
+    }
+    .filter(|v| v.is_finite())
+}
+
+fn text(row: &BoardRow, key: SortKey) -> String {
+    let Ok(f) = &row.figures else {
+        return String::new();
+    };
+    match key {
+        SortKey::DemandClass => f.demand_class.clone(),
+        SortKey::Trend => f.trend.clone(),
+        SortKey::Method => f.method.clone(),
+        _ => String::new(),
+    }
+}
+
+/// Sorts rows by `key`; rows with no value for it (and items without figures) go last in
+/// either direction, and ties keep the file's order.
+pub fn sort_rows(rows: &mut [&BoardRow], key: SortKey, descending: bool) {
+    let by_file = |a: &BoardRow, b: &BoardRow| a.index.cmp(&b.index);
+    rows.sort_by(|a, b| {
+        // Items without figures go last whatever the column (but by name they sort as names).
+        let failed_last = b.figures.is_ok().cmp(&a.figures.is_ok());
+        let primary = match key {
+            SortKey::File => Ordering::Equal,
+            SortKey::Name => {
+                let o = a.name.to_lowercase().cmp(&b.name.to_lowercase());
+                if descending {
+                    o.reverse()
+                } else {
+                    o
+                }
+            }
+            _ if failed_last != Ordering::Equal => failed_last,
+            SortKey::DemandClass | SortKey::Trend | SortKey::Method => {
+                let o = text(a, key).cmp(&text(b, key));
+                if descending {
+                    o.reverse()
+                } else {
+                    o
+                }
+            }
+            _ => {
+                let na = a.figures.as_ref().ok().and_then(|f| number(f, key));
+                let nb = b.figures.as_ref().ok().and_then(|f| number(f, key));
+                match (na, nb) {
+                    (Some(x), Some(y)) => {
+                        let o = x.total_cmp(&y);
+                        if descending {
+                            o.reverse()
+                        } else {
+                            o
+                        }
+                    }
+                    (Some(_), None) => Ordering::Less,
+                    (None, Some(_)) => Ordering::Greater,
+                    (None, None) => Ordering::Equal,
+                }
+            }
+        };
+        primary.then_with(|| by_file(a, b))
+    });
+}
+
+/// What the board is filtered by.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Filter {
+    /// Text found (case aside) in the item's name or method.
+    pub text: String,
+    /// Only items with this alert; "any alert" is [`AlertFilter::Any`].
+    pub alert: AlertFilter,
+}
+
+/// The alert part of a [`Filter`].
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum AlertFilter {
+    #[default]
+    All,
+    /// Items with at least one alert, or without figures.
+    Any,
+    /// Items without figures (their history could not be planned).
+    Failed,
+    Kind(AlertKind),
+}
+
+impl AlertFilter {
+    /// The select's value for it.
+    pub fn key(self) -> &'static str {
+        match self {
+            AlertFilter::All => "all",
+            AlertFilter::Any => "any",
+            AlertFilter::Failed => "failed",
+            AlertFilter::Kind(k) => k.key(),
+        }
+    }
+
+    /// The filter a select's value stands for.
+    pub fn from_key(key: &str) -> AlertFilter {
+        match key {
+            "any" => AlertFilter::Any,
+            "failed" => AlertFilter::Failed,
+            _ => AlertKind::ALL
+                .into_iter()
+                .find(|k| k.key() == key)
+                .map_or(AlertFilter::All, AlertFilter::Kind),
+        }
+    }
+}
+
+impl Filter {
+    /// Whether a row passes.
+    pub fn passes(&self, row: &BoardRow) -> bool {
+        let needle = self.text.trim().to_lowercase();
+        let text_ok = needle.is_empty()
+            || row.name.to_lowercase().contains(&needle)
+            || row
+                .figures
+                .as_ref()
+                .is_ok_and(|f| f.method.to_lowercase().contains(&needle));
+        let alert_ok = match (self.alert, &row.figures) {
+            (AlertFilter::All, _) => true,
+            (AlertFilter::Any, Ok(f)) => !f.alerts.is_empty(),
+            (AlertFilter::Any | AlertFilter::Failed, Err(_)) => true,
+            (AlertFilter::Failed, Ok(_)) => false,
+            (AlertFilter::Kind(k), Ok(f)) => f.alerts.iter().any(|a| a.kind == k),
+            (AlertFilter::Kind(_), Err(_)) => false,
+        };
+        text_ok && alert_ok
+    }
+}
+
+/// The order plan as CSV: one row per item in the file's order, with every figure of its row
+/// (column names as `morrowcast stock --json`'s; numbers in Rust's shortest round-trip form,
+/// fractions as fractions; empty where a figure does not apply), its alerts' reasons, and for
+/// an item without figures the reason in `problem`. `changed` says whether an item carries
+/// the board's own changes.
+pub fn order_plan_csv(rows: &[&BoardRow], changed: impl Fn(&str) -> bool) -> String {
+    let mut w = csv::Writer::from_writer(Vec::new());
+    let _ = w.write_record(ORDER_PLAN_COLUMNS);
+    let num = |v: f64| v.to_string();
+    let opt = |v: Option<f64>| v.map(|v| v.to_string()).unwrap_or_default();
+    for row in rows {
+        let changed = if changed(&row.name) { "yes" } else { "" };
+        let record: Vec<String> = match &row.figures {
+            Ok(f) => {
+                let (kind, value) = match f.target {
+                    Target::CycleService(v) => ("cycle_service_level", v),
+                    Target::FillRate(v) => ("fill_rate", v),
+                };
+                vec![
+                    row.name.clone(),
+                    if f.periodic { "periodic" } else { "continuous" }.into(),
+                    f.lead_time.to_string(),
+                    f.review_period.map(|r| r.to_string()).unwrap_or_default(),
+                    f.protection_periods.to_string(),
+                    f.distribution.clone(),
+                    num(f.demand_over_protection),
+                    num(f.sd_over_protection),
+                    kind.into(),
+                    num(value),
+                    num(f.safety_stock),
+                    if f.periodic {
+                        String::new()
+                    } else {
+                        num(f.level_units)
+                    },
+                    if f.periodic {
+                        num(f.level_units)
+                    } else {
+                        String::new()
+                    },
+                    opt(f.on_hand),
+                    opt(f.on_order),
+                    opt(f.suggested_order),
+                    num(f.cycle_service_level),
+                    num(f.fill_rate),
+                    num(f.next),
+                    num(f.next_lower),
+                    num(f.next_upper),
+                    num(f.level),
+                    f.method.clone(),
+                    f.demand_class.clone(),
+                    f.season.map(|s| s.to_string()).unwrap_or_default(),
+                    f.trend.clone(),
+                    opt(f.mase),
+                    num(f.bias),
+                    opt(f.tracking_signal),
+                    f.history.to_string(),
+                    f.alerts
+                        .iter()
+                        .map(|a| a.kind.key())
+                        .collect::<Vec<_>>()
+                        .join(" "),
+                    f.alerts
+                        .iter()
+                        .map(|a| a.reason.as_str())
+                        .collect::<Vec<_>>()
+                        .join(" | "),
+                    f.notes.join(" | "),
+                    changed.into(),
+                    String::new(),
+                ]
+            }
+            Err(problem) => {
+                let mut r = vec![String::new(); ORDER_PLAN_COLUMNS.len()];
+                r[0] = row.name.clone();
+                r[ORDER_PLAN_COLUMNS.len() - 2] = changed.into();
+                r[ORDER_PLAN_COLUMNS.len() - 1] = problem.clone();
+                r
+            }
+        };
+        let _ = w.write_record(record);
+    }
+    w.into_inner()
+        .map(|b| String::from_utf8_lossy(&b).into_owned())
+        .unwrap_or_default()
+}
+
+/// The order plan's columns.
+pub const ORDER_PLAN_COLUMNS: [&str; 35] = [
+    "name",
+    "policy",
+    "lead_time",
+    "review_period",
+    "protection_periods",
+    "distribution",
+    "demand_over_protection",
+    "sd_over_protection",
+    "target_kind",
+    "target",
+    "safety_stock",
+    "reorder_point",
+    "order_up_to",
+    "on_hand",
+    "on_order",
+    "suggested_order",
+    "cycle_service_level",
+    "fill_rate",
+    "next_forecast",
+    "next_low",
+    "next_high",
+    "band_level",
+    "method",
+    "demand_class",
+    "season_length",
+    "trend",
+    "holdout_mase",
+    "holdout_bias",
+    "tracking_signal",
+    "history_periods",
+    "alerts",
+    "alert_reasons",
+    "notes",
+    "changed_on_board",
+    "problem",
+];

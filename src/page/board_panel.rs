@@ -1,0 +1,490 @@
+//! The Item board on the page (every item of the file, one row each, sortable and filterable,
+//! a row opening the item's detail), the Stock plan's settings and stock table, and the open
+//! item's Stock plan with its own changes.
+//!
+//! Kept apart from: the board's rules (board.rs: columns, sorting, filtering, the order plan)
+//! and the state (state/board.rs). Every figure shown is a worker's row; nothing is computed
+//! here but its formatting.
+
+use leptos::prelude::*;
+use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::stock::{StockField, StockText, Target, TargetKind};
+
+use super::board::{order_plan_csv, sort_rows, AlertFilter, Filter, SortKey, COLUMNS, ROWS_SHOWN};
+use super::browser;
+use super::export::file_name;
+use super::state::{BoardState, IntakeState, ItemChange};
+use crate::worker::{BoardFigures, BoardRow};
+
+fn units(v: f64) -> String {
+    if !v.is_finite() {
+        "–".into()
+    } else if v.abs() >= 100.0 || v.fract() == 0.0 {
+        format!("{v:.0}")
+    } else {
+        format!("{v:.1}")
+    }
+}
+
+fn periods(n: usize) -> String {
+    if n == 1 {
+        "1 period".into()
+    } else {
+        format!("{n} periods")
+    }
+}
+
+fn percent(v: f64) -> String {
+    format!("{:.1}%", v * 100.0)
+}
+
+/// What the page says about every stock figure it shows.
+pub const ESTIMATES_WORDS: &str = "These stock figures are estimates worked out from past demand \
+    and the settings above. They leave out supplier minimums and prices, shelf life, storage \
+    room, promotions and anything the history does not show. Your own policies, your suppliers' \
+    terms and your judgement decide what to order.";
+
+/// A cell's text for a column.
+fn cell(f: &BoardFigures, key: SortKey) -> String {
+    match key {
+        SortKey::DemandClass => f.demand_class.clone(),
+        SortKey::Season => f.season.map_or("none".into(), |s| s.to_string()),
+        SortKey::Trend => f.trend.clone(),
+        SortKey::Method => f.method_short.clone(),
+        SortKey::Mase => f.mase.map_or("–".into(), |m| format!("{m:.2}")),
+        SortKey::Bias => units(f.bias),
+        SortKey::Tracking => match f.tracking_signal {
+            Some(t) if f.tracking_beyond => format!("{t:.1} beyond"),
+            Some(t) => format!("{t:.1}"),
+            None => "–".into(),
+        },
+        SortKey::History => f.history.to_string(),
+        SortKey::Next => format!(
+            "{} ({}–{})",
+            units(f.next),
+            units(f.next_lower),
+            units(f.next_upper)
+        ),
+        SortKey::DemandOver => format!(
+            "{} ± {} in {}",
+            units(f.demand_over_protection),
+            units(f.sd_over_protection),
+            periods(f.protection_periods)
+        ),
+        SortKey::SafetyStock => units(f.safety_stock),
+        SortKey::Level => format!(
+            "{} {}",
+            if f.periodic { "up to" } else { "at" },
+            units(f.level_units)
+        ),
+        SortKey::Order => f.suggested_order.map_or("needs on hand".into(), units),
+        SortKey::Alerts => f.alerts.len().to_string(),
+        SortKey::File | SortKey::Name => String::new(),
+    }
+}
+
+/// The Item board.
+#[component]
+pub fn ItemBoard() -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let intake = expect_context::<IntakeState>();
+    let sort = RwSignal::new((SortKey::File, false));
+    let filter = RwSignal::new(Filter::default());
+    let shown_count = RwSignal::new(ROWS_SHOWN);
+    // The rows in view, as (place in the file, run): filtered over the whole file, then
+    // sorted. Places, not rows: nothing is cloned when rows arrive.
+    let visible = Memo::new(move |_| {
+        board.rows.with(|rows| {
+            filter.with(|f| {
+                let (key, descending) = sort.get();
+                let mut kept: Vec<&BoardRow> =
+                    rows.iter().flatten().filter(|r| f.passes(r)).collect();
+                sort_rows(&mut kept, key, descending);
+                kept.into_iter()
+                    .map(|r| (r.index, r.run))
+                    .collect::<Vec<_>>()
+            })
+        })
+    });
+    let export = move |_| {
+        let csv = board.rows.with(|rows| {
+            board.changes.with(|c| {
+                let all: Vec<&BoardRow> = rows.iter().flatten().collect();
+                order_plan_csv(&all, |name| c.contains_key(name))
+            })
+        });
+        let name = file_name("all-items", "order-plan", &browser::today(), "csv");
+        browser::download_text(&name, "text/csv", &csv);
+    };
+    let print = move |_| {
+        if let Some(w) = web_sys::window() {
+            let _ = w.print();
+        }
+    };
+    let open = move |index: usize| {
+        intake.item.set(index);
+        // The detail comes in below the board: move there, and put the focus on it.
+        if let Some(el) = web_sys::window()
+            .and_then(|w| w.document())
+            .and_then(|d| d.get_element_by_id("results"))
+        {
+            el.scroll_into_view();
+            if let Ok(el) = wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlElement>(el) {
+                let _ = el.focus();
+            }
+        }
+    };
+    let header = move |key: SortKey, title: &'static str, numeric: bool| {
+        let aria = move || match sort.get() {
+            (k, false) if k == key => "ascending",
+            (k, true) if k == key => "descending",
+            _ => "none",
+        };
+        view! {
+            <th scope="col" class:num=numeric aria-sort=aria>
+                <button type="button" class="sort" on:click=move |_| sort.update(|s| {
+                    *s = if s.0 == key { (key, !s.1) } else { (key, numeric) };
+                })>
+                    {title}
+                    <span class="sort-mark" aria-hidden="true">{move || match aria() {
+                        "ascending" => "▲", "descending" => "▼", _ => "",
+                    }}</span>
+                </button>
+            </th>
+        }
+    };
+    view! {
+        <section class="panel board" id="item-board" aria-labelledby="board-title">
+            <h2 id="board-title">"Item board"</h2>
+            <p class="board-progress" id="board-progress" role="status" aria-live="polite"
+                data-worker-ms=move || format!("{:.0}", board.worker_ms.get())>{move || {
+                if let Some(why) = board.blocked.get() {
+                    return why;
+                }
+                let (done, total) = (board.planned.get(), board.total.get());
+                let took = board.took_ms.get().map(|ms| format!(" in {:.1} s", ms / 1000.0)).unwrap_or_default();
+                if done < total {
+                    format!("Planned {done} of {total} items…")
+                } else {
+                    format!("Planned all {total} items{took} on {} workers.", board.workers.get())
+                }
+            }}</p>
+            <progress class="board-bar" aria-label="Items planned"
+                max=move || board.total.get().max(1).to_string()
+                value=move || board.planned.get().to_string()
+                class:done=move || { board.planned.get() >= board.total.get() }></progress>
+            <p class="estimates" id="board-estimates">{ESTIMATES_WORDS}</p>
+            <div class="board-tools">
+                <div class="field inline">
+                    <label for="board-filter">"Find items"</label>
+                    <input id="board-filter" type="search" autocomplete="off"
+                        placeholder="name or method"
+                        prop:value=move || filter.with(|f| f.text.clone())
+                        on:input=move |ev| { let v = event_target_value(&ev); filter.update(|f| f.text = v); shown_count.set(ROWS_SHOWN); }/>
+                </div>
+                <div class="field inline">
+                    <label for="board-alert">"Show"</label>
+                    <select id="board-alert" on:change=move |ev| {
+                        let key = event_target_value(&ev);
+                        filter.update(|f| f.alert = AlertFilter::from_key(&key));
+                        shown_count.set(ROWS_SHOWN);
+                    }>
+                        <option value="all">"every item"</option>
+                        <option value="any">"items with an alert"</option>
+                        <option value="failed">"items without figures"</option>
+                        {AlertKind::ALL.into_iter().map(|k| view! {
+                            <option value=k.key()>{format!("alert: {}", k.title().to_lowercase())}</option>
+                        }).collect_view()}
+                    </select>
+                </div>
+                <button type="button" id="export-order-plan" on:click=export
+                    disabled=move || { board.planned.get() < board.total.get() || board.blocked.with(Option::is_some) }>
+                    "Save the order plan (CSV)"
+                </button>
+                <button type="button" id="print-board" on:click=print>"Print the board"</button>
+            </div>
+            <p class="board-count" id="board-count">{move || {
+                let n = visible.with(Vec::len);
+                let of = board.rows.with(|r| r.iter().flatten().count());
+                format!("Showing {} of {n} matching items ({of} planned).", n.min(shown_count.get()))
+            }}</p>
+            <div class="board-scroll" tabindex="0" role="region" aria-labelledby="board-title">
+                <table class="board-table" id="board-table">
+                    <thead>
+                        <tr>
+                            {header(SortKey::Name, "Item", false)}
+                            {COLUMNS.iter().map(|c| header(c.key, c.title, c.numeric)).collect_view()}
+                        </tr>
+                    </thead>
+                    <tbody>
+                        <For
+                            each=move || visible.with(|v| v.iter().take(shown_count.get()).copied().collect::<Vec<_>>())
+                            key=|place| *place
+                            children=move |(index, _run): (usize, u64)| {
+                                let Some(row) = board.rows.with_untracked(|rows| rows.get(index).cloned().flatten()) else {
+                                    return view! { <tr></tr> }.into_any();
+                                };
+                                let changed = board.changes.with_untracked(|c| c.contains_key(&row.name));
+                                let chosen = move || intake.item.get() == index;
+                                view! {
+                                    <tr class:chosen=chosen class:failed=row.figures.is_err() data-index=index.to_string()>
+                                        <th scope="row">
+                                            <button type="button" class="link open-item" on:click=move |_| open(index)
+                                                aria-current=move || if chosen() { "true" } else { "false" }>
+                                                {row.name.clone()}
+                                            </button>
+                                            {changed.then(|| view! { <span class="changed-mark" title="changed on the board">" (changed)"</span> })}
+                                        </th>
+                                        {match &row.figures {
+                                            Ok(f) => COLUMNS.iter().map(|c| {
+                                                let text = cell(f, c.key);
+                                                let beyond = c.key == SortKey::Tracking && f.tracking_beyond;
+                                                if c.key == SortKey::Alerts {
+                                                    let titles: Vec<String> = f.alerts.iter().map(|a| a.kind.title().to_string()).collect();
+                                                    let reasons: String = f.alerts.iter().map(|a| a.reason.clone()).collect::<Vec<_>>().join(" ");
+                                                    view! { <td class="alerts" title=reasons>{if titles.is_empty() { "none".to_string() } else { titles.join(", ") }}</td> }.into_any()
+                                                } else {
+                                                    let title = (c.key == SortKey::Method).then(|| f.method.clone());
+                                                    view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()
+                                                }
+                                            }).collect_view().into_any(),
+                                            Err(e) => view! { <td class="problem" colspan=COLUMNS.len().to_string()>{e.clone()}</td> }.into_any(),
+                                        }}
+                                    </tr>
+                                }.into_any()
+                            }
+                        />
+                    </tbody>
+                </table>
+            </div>
+            <Show when=move || { visible.with(Vec::len) > shown_count.get() }>
+                <button type="button" id="board-more" on:click=move |_| shown_count.update(|n| *n += ROWS_SHOWN)>
+                    {move || format!("Show {} more", (visible.with(Vec::len) - shown_count.get()).min(ROWS_SHOWN))}
+                </button>
+            </Show>
+        </section>
+    }
+}
+
+/// A text field of the stock settings, with its hint and error.
+#[component]
+fn StockSetting(
+    id: &'static str,
+    field: StockField,
+    label: &'static str,
+    hint: &'static str,
+    get: fn(&StockText) -> String,
+    set: fn(&mut StockText, String),
+) -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let hint_id = format!("{id}-hint");
+    let error = move || {
+        board.stock_errors.with(|e| {
+            e.iter()
+                .find(|e| e.field == field)
+                .map(|e| e.message.clone())
+        })
+    };
+    view! {
+        <div class="field" class:invalid=move || error().is_some()>
+            <label for=id>{label}</label>
+            <input id=id type="text" inputmode="decimal" autocomplete="off"
+                aria-describedby=hint_id.clone()
+                aria-invalid=move || if error().is_some() { "true" } else { "false" }
+                prop:value=move || board.stock_form.with(get)
+                on:input=move |ev| { let v = event_target_value(&ev); board.stock_form.update(|f| set(f, v)); }/>
+            <p class="hint" id=hint_id>{hint}</p>
+            {move || error().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
+        </div>
+    }
+}
+
+/// The file's stock settings and the stock table.
+#[component]
+pub fn StockPanel() -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let kind_is = move |k: TargetKind| board.stock_form.with(|f| f.target_kind == k);
+    view! {
+        <section class="panel stock" id="stock-settings" aria-labelledby="stock-title">
+            <h2 id="stock-title">"Stock plan"</h2>
+            <p class="hint">"For every item of the file; the stock table and the board's changes override them per item."</p>
+            <StockSetting id="lead-time" field=StockField::LeadTime label="Lead time (periods)"
+                hint="periods from ordering to receiving" get=|f| f.lead_time.clone() set=|f, v| f.lead_time = v/>
+            <StockSetting id="lead-time-sd" field=StockField::LeadTimeSd label="Lead-time spread (periods)"
+                hint="its standard deviation; empty if it never varies" get=|f| f.lead_time_sd.clone() set=|f, v| f.lead_time_sd = v/>
+            <StockSetting id="review-period" field=StockField::ReviewPeriod label="Review period (periods)"
+                hint="empty: continuous review (order at the reorder point); a number: order up to a level every so many periods"
+                get=|f| f.review_period.clone() set=|f, v| f.review_period = v/>
+            <fieldset class="field">
+                <legend>"Service target"</legend>
+                <span class="choice block">
+                    <input type="radio" name="target-kind" id="target-csl"
+                        prop:checked=move || kind_is(TargetKind::CycleService)
+                        on:change=move |_| board.stock_form.update(|f| f.target_kind = TargetKind::CycleService)/>
+                    <label for="target-csl">"Cycle service level: chance of no stock-out in a cycle"</label>
+                </span>
+                <span class="choice block">
+                    <input type="radio" name="target-kind" id="target-fill"
+                        prop:checked=move || kind_is(TargetKind::FillRate)
+                        on:change=move |_| board.stock_form.update(|f| f.target_kind = TargetKind::FillRate)/>
+                    <label for="target-fill">"Fill rate: share of demand served from stock"</label>
+                </span>
+            </fieldset>
+            <StockSetting id="service-target" field=StockField::Target label="Target (percent or fraction)"
+                hint="95 or 0.95" get=|f| f.target.clone() set=|f, v| f.target = v/>
+            <StockSetting id="order-quantity" field=StockField::OrderQuantity label="Order quantity (continuous review)"
+                hint="empty: the demand over the lead time" get=|f| f.order_quantity.clone() set=|f, v| f.order_quantity = v/>
+            <div class="field">
+                <label for="stock-table">"Stock table (optional)"</label>
+                <textarea id="stock-table" rows="5" spellcheck="false" autocomplete="off"
+                    aria-describedby="stock-table-hint stock-table-report"
+                    placeholder="item,on_hand,on_order,lead_time"
+                    prop:value=move || board.table_text.get()
+                    on:input=move |ev| board.table_text.set(event_target_value(&ev))></textarea>
+                <p class="hint" id="stock-table-hint">"One row per item: item, on hand, on order, and where they differ from the settings above lead time, lead-time spread, review period, service level or fill rate, order quantity, order multiple, minimum order. Without on hand no order is suggested."</p>
+                <div id="stock-table-report" aria-live="polite">
+                    {move || board.table.with(|t| t.as_ref().map(|t| view! {
+                        <p class="hint">{format!("Read {} rows.", t.rows.len())}</p>
+                        <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}</ul>
+                        <ol class="row-errors" id="stock-table-errors">{t.errors.iter().map(|e| view! { <li>{super::words::row_error_line(e)}</li> }).collect_view()}</ol>
+                    }))}
+                </div>
+            </div>
+        </section>
+    }
+}
+
+/// The open item's Stock plan, from its board row, with the board's changes for it alone.
+#[component]
+pub fn ItemStock() -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let intake = expect_context::<IntakeState>();
+    let name = Memo::new(move |_| {
+        intake
+            .report
+            .with(|r| r.items.get(intake.item.get()).map(|i| i.name.clone()))
+    });
+    let row = Memo::new(move |_| {
+        let i = intake.item.get();
+        board.rows.with(|rows| rows.get(i).cloned().flatten())
+    });
+    let change = Memo::new(move |_| {
+        name.get()
+            .and_then(|n| board.changes.with(|c| c.get(&n).cloned()))
+            .unwrap_or_default()
+    });
+    let lead_text = RwSignal::new(String::new());
+    let target_text = RwSignal::new(String::new());
+    let problem = RwSignal::new(None::<String>);
+    // The fields show the item's change, or are empty (the file's settings hold).
+    Effect::new(move |_| {
+        let c = change.get();
+        lead_text.set(c.lead_time.map(|l| l.to_string()).unwrap_or_default());
+        target_text.set(match c.target {
+            Some(Target::CycleService(v)) | Some(Target::FillRate(v)) => format!("{}", v * 100.0),
+            None => String::new(),
+        });
+        problem.set(None);
+    });
+    let apply = move |_| {
+        let Some(n) = name.get_untracked() else {
+            return;
+        };
+        let kind = board.stock_form.with_untracked(|f| f.target_kind);
+        let lead = lead_text.get_untracked();
+        let target = target_text.get_untracked();
+        let mut c = ItemChange::default();
+        if !lead.trim().is_empty() {
+            match lead.trim().parse::<usize>() {
+                Ok(l) if l <= morrowcast_engine::stock::MAX_PERIODS => c.lead_time = Some(l),
+                _ => {
+                    problem.set(Some(format!(
+                        "lead time takes a whole number of periods from 0 to 366; found \"{}\"",
+                        lead.trim()
+                    )));
+                    return;
+                }
+            }
+        }
+        if !target.trim().is_empty() {
+            let checked = match kind {
+                TargetKind::CycleService => {
+                    morrowcast_engine::stock::service_fraction("cycle service level", &target)
+                        .and_then(Target::cycle_service)
+                }
+                TargetKind::FillRate => {
+                    morrowcast_engine::stock::service_fraction("fill rate", &target)
+                        .and_then(Target::fill_rate)
+                }
+            };
+            match checked {
+                Ok(t) => c.target = Some(t),
+                Err(e) => {
+                    problem.set(Some(e.to_string()));
+                    return;
+                }
+            }
+        }
+        board.changes.update(|all| {
+            if c.is_empty() {
+                all.remove(&n);
+            } else {
+                all.insert(n, c);
+            }
+        });
+    };
+    let clear = move |_| {
+        if let Some(n) = name.get_untracked() {
+            board.changes.update(|all| {
+                all.remove(&n);
+            });
+        }
+    };
+    view! {
+        <section class="panel item-stock" id="item-stock" aria-labelledby="item-stock-title">
+            <h2 id="item-stock-title">{move || format!("Stock plan for {}", name.get().unwrap_or_default())}</h2>
+            {move || match row.get() {
+                None => view! { <p class="lead">"Its figures appear here once the board has planned it."</p> }.into_any(),
+                Some(BoardRow { figures: Err(e), .. }) => view! { <p class="lead problem">{format!("No stock figures: {e}.")}</p> }.into_any(),
+                Some(BoardRow { figures: Ok(f), .. }) => {
+                    let level = if f.periodic { "Order-up-to level" } else { "Reorder point" };
+                    let target = match f.target {
+                        Target::CycleService(v) => format!("cycle service level {}", percent(v)),
+                        Target::FillRate(v) => format!("fill rate {}", percent(v)),
+                    };
+                    view! {
+                        <dl class="figures" id="item-stock-figures">
+                            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {} periods, lead time {}", f.review_period.unwrap_or(0), f.lead_time) } else { format!("continuous review, lead time {}", f.lead_time) }}</dd>
+                            <dt>"Target"</dt><dd>{target}</dd>
+                            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods), units(f.sd_over_protection), f.distribution)}</dd>
+                            <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
+                            <dt>{level}</dt><dd>{units(f.level_units)}</dd>
+                            <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>
+                            <dt>"Order today"</dt><dd id="item-order-today">{f.suggested_order.map_or("none suggested: on hand unknown".into(), units)}</dd>
+                            <dt>"Expected service"</dt><dd>{format!("cycle service level {}, fill rate {}", percent(f.cycle_service_level), percent(f.fill_rate))}</dd>
+                        </dl>
+                        <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
+                        <ul class="plain alerts-list">{f.alerts.iter().map(|a| view! { <li><strong>{format!("{}: ", a.kind.title())}</strong>{a.reason.clone()}</li> }).collect_view()}</ul>
+                    }.into_any()
+                }
+            }}
+            <form class="item-change" on:submit=move |ev| { ev.prevent_default(); apply(()); }>
+                <h3>"For this item only"</h3>
+                <div class="field inline">
+                    <label for="item-lead-time">"Lead time (periods)"</label>
+                    <input id="item-lead-time" type="text" inputmode="numeric" autocomplete="off" placeholder="as for the file"
+                        prop:value=move || lead_text.get() on:input=move |ev| lead_text.set(event_target_value(&ev))/>
+                </div>
+                <div class="field inline">
+                    <label for="item-target">"Service target (percent)"</label>
+                    <input id="item-target" type="text" inputmode="decimal" autocomplete="off" placeholder="as for the file"
+                        prop:value=move || target_text.get() on:input=move |ev| target_text.set(event_target_value(&ev))/>
+                </div>
+                <button type="submit" id="item-change-apply">"Apply to this item"</button>
+                <button type="button" id="item-change-clear" on:click=clear disabled=move || change.with(ItemChange::is_empty)>"Use the file's settings"</button>
+                {move || problem.get().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
+            </form>
+            <p class="estimates">{ESTIMATES_WORDS}</p>
+        </section>
+    }
+}

@@ -1,0 +1,187 @@
+//! The Item board's work in the worker: a batch of items planned with their Stock plans
+//! ([`morrowcast_engine::order::plan_order`], as the command line's `stock`), each boiled down
+//! to the row the board shows and the order plan exports.
+//!
+//! Kept apart from: the page (it only shows rows) and the one-item detail (desk.rs keeps the
+//! whole plan; a board row holds only what a row shows, so a file of 10,000 items fits).
+
+use serde::{Deserialize, Serialize};
+
+use morrowcast_engine::alerts::Alert;
+use morrowcast_engine::backtest::Candidate;
+use morrowcast_engine::intake::StockRow;
+use morrowcast_engine::order::{plan_order, ItemOrder};
+use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::stock::{StockText, Target};
+
+/// One item to plan for the board.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BoardItem {
+    /// Its place in the file (the board's rows keep the file's order by it).
+    pub index: usize,
+    pub series: Series,
+    /// Its own plan settings (a season or method set for it alone); `None`: the file's.
+    pub settings: Option<PlanSettings>,
+    /// Its row of the stock table, with the board's per-item changes applied.
+    pub row: Option<StockRow>,
+}
+
+/// A batch of items, all with the file's settings unless they carry their own.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BoardAsk {
+    /// The board's run this batch belongs to: rows of an older run are dropped.
+    pub ticket: u64,
+    pub settings: PlanSettings,
+    /// The file's stock settings as typed (checked again here: a validated type is rebuilt
+    /// by its constructor, never trusted off the wire).
+    pub stock: StockText,
+    /// Whether a stock table was given (an item without a row then gets a note).
+    pub table_given: bool,
+    pub items: Vec<BoardItem>,
+}
+
+/// The figures of one row.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BoardFigures {
+    /// "smooth", "erratic", "intermittent" or "lumpy".
+    pub demand_class: String,
+    /// The season length the plan used (accepted, or set by the user).
+    pub season: Option<usize>,
+    /// "up", "down" or "none".
+    pub trend: String,
+    /// The chosen method's published name.
+    pub method: String,
+    /// The same, short enough for a narrow column (a combination by its number of members).
+    pub method_short: String,
+    /// Holdout MASE and bias of the chosen method.
+    pub mase: Option<f64>,
+    pub bias: f64,
+    /// The tracking signal at the end of the holdout, and whether it is beyond its limit.
+    pub tracking_signal: Option<f64>,
+    pub tracking_beyond: bool,
+    /// Periods of history.
+    pub history: usize,
+    /// The next period's forecast and its band.
+    pub next: f64,
+    pub next_lower: f64,
+    pub next_upper: f64,
+    /// The band's level in percent.
+    pub level: f64,
+    /// Continuous (reorder point) or periodic (order-up-to level) review.
+    pub periodic: bool,
+    pub lead_time: usize,
+    pub review_period: Option<usize>,
+    pub protection_periods: usize,
+    /// "normal" or "empirical".
+    pub distribution: String,
+    pub demand_over_protection: f64,
+    pub sd_over_protection: f64,
+    /// The target as set.
+    pub target: Target,
+    pub safety_stock: f64,
+    /// The reorder point or the order-up-to level.
+    pub level_units: f64,
+    pub on_hand: Option<f64>,
+    pub on_order: Option<f64>,
+    pub suggested_order: Option<f64>,
+    pub cycle_service_level: f64,
+    pub fill_rate: f64,
+    pub alerts: Vec<Alert>,
+    /// The Stock plan's notes.
+    pub notes: Vec<String>,
+}
+
+/// One row of the board: an item and its figures, or why it has none.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BoardRow {
+    pub index: usize,
+    /// The ticket of the board's run it was made in (a new run's row is a new row to show).
+    pub run: u64,
+    pub name: String,
+    pub figures: Result<BoardFigures, String>,
+}
+
+impl BoardFigures {
+    /// The row's figures from an item's plan, Stock plan and alerts.
+    pub fn new(order: &ItemOrder) -> BoardFigures {
+        let (plan, stock) = (&order.plan, &order.stock);
+        let scored = plan
+            .backtest
+            .ranking
+            .iter()
+            .find(|r| r.candidate == plan.chosen);
+        let last = plan.ledger.last().map(|e| &e.row);
+        let tracking_signal = last.and_then(|r| r.tracking_signal);
+        let next = plan.forecast.first().map(|f| f.band);
+        let f = &stock.figures;
+        BoardFigures {
+            demand_class: plan.demand.class.as_str().to_string(),
+            season: plan.season.length,
+            trend: plan.trend.direction.as_str().to_string(),
+            method: plan.chosen.label(),
+            method_short: match &plan.chosen {
+                Candidate::Combination(members) => format!("Combination of {}", members.len()),
+                Candidate::Method(_) => plan.chosen.label(),
+            },
+            mase: scored.and_then(|s| s.measures.mase),
+            bias: scored.map_or(0.0, |s| s.measures.bias),
+            tracking_signal,
+            tracking_beyond: tracking_signal.is_some_and(|t| t.abs() > plan.tracking_limit),
+            history: plan.history.len(),
+            next: next.map_or(f64::NAN, |b| b.value),
+            next_lower: next.map_or(f64::NAN, |b| b.low),
+            next_upper: next.map_or(f64::NAN, |b| b.high),
+            level: plan.level.percent(),
+            periodic: stock.settings.review_period().is_some(),
+            lead_time: stock.settings.lead_time(),
+            review_period: stock.settings.review_period(),
+            protection_periods: stock.protection_periods,
+            distribution: stock.distribution.key().to_string(),
+            demand_over_protection: stock.demand_over_protection,
+            sd_over_protection: stock.sd_over_protection,
+            target: stock.settings.target(),
+            safety_stock: f.safety_stock,
+            level_units: f.level,
+            on_hand: stock.position.map(|p| p.on_hand),
+            on_order: stock.position.map(|p| p.on_order),
+            suggested_order: stock.suggested_order,
+            cycle_service_level: f.cycle_service_level,
+            fill_rate: f.fill_rate,
+            alerts: order.alerts.clone(),
+            notes: stock.notes.clone(),
+        }
+    }
+}
+
+/// Plans every item of a batch, in order.
+pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
+    let defaults = ask.stock.check();
+    ask.items
+        .iter()
+        .map(|item| {
+            let figures = match &defaults {
+                Err(errors) => Err(errors
+                    .iter()
+                    .map(|e| e.message.as_str())
+                    .collect::<Vec<_>>()
+                    .join("; ")),
+                Ok(defaults) => plan_order(
+                    &item.series,
+                    item.settings.as_ref().unwrap_or(&ask.settings),
+                    defaults,
+                    item.row.as_ref(),
+                    ask.table_given,
+                )
+                .map(|order| BoardFigures::new(&order))
+                .map_err(|e| e.to_string()),
+            };
+            BoardRow {
+                index: item.index,
+                run: ask.ticket,
+                name: item.series.name().to_string(),
+                figures,
+            }
+        })
+        .collect()
+}

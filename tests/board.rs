@@ -1,0 +1,271 @@
+//! The Item board's work and rules: the rows the worker pool sends back and the order plan the
+//! page saves carry the same figures as `morrowcast stock --json` (one engine function,
+//! `order::plan_order`, behind both); sorting and filtering on constructed rows.
+
+use morrowcast_app::page::board::{
+    order_plan_csv, sort_rows, AlertFilter, Filter, SortKey, ORDER_PLAN_COLUMNS,
+};
+use morrowcast_app::worker::{answer_board, BoardAsk, BoardItem, BoardRow};
+use morrowcast_engine::alerts::{Alert, AlertKind};
+use morrowcast_engine::intake::{self, read_stock_table};
+use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::stock::StockText;
+use serde_json::Value;
+
+use crate::support::cli;
+
+const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
+
+/// The demo's every item through the board's batch, as the page sends it.
+fn board_rows(text: &str, stock: &StockText, table: Option<&str>) -> Vec<BoardRow> {
+    let report = intake::read(text);
+    let table = table.map(|t| read_stock_table(t.as_bytes()));
+    let items = report
+        .items
+        .iter()
+        .enumerate()
+        .map(|(index, item)| BoardItem {
+            index,
+            series: item.series().unwrap(),
+            settings: None,
+            row: table.as_ref().and_then(|t| t.row(&item.name)).cloned(),
+        })
+        .collect();
+    answer_board(&BoardAsk {
+        ticket: 1,
+        settings: PlanSettings::default(),
+        stock: stock.clone(),
+        table_given: table.is_some(),
+        items,
+    })
+}
+
+fn cell_number(text: &str) -> Option<f64> {
+    (!text.is_empty()).then(|| text.parse().unwrap())
+}
+
+/// Every figure of the order plan equals the command line's: the same engine function makes
+/// both. The tolerance allows only last-bit differences between wasm's and the native maths
+/// library (exp, ln, powf) when the page's export is compared (tests/e2e/board.rs).
+pub fn compare(csv_text: &str, json: &Value) {
+    let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+    let headers = reader.headers().unwrap().clone();
+    assert_eq!(headers.iter().collect::<Vec<_>>(), ORDER_PLAN_COLUMNS);
+    let items = json["items"].as_array().unwrap();
+    let records: Vec<csv::StringRecord> = reader.records().map(Result::unwrap).collect();
+    assert_eq!(records.len(), items.len());
+    for (record, item) in records.iter().zip(items) {
+        let get = |name: &str| &record[headers.iter().position(|h| h == name).unwrap()];
+        assert_eq!(get("name"), item["name"].as_str().unwrap());
+        for key in [
+            "lead_time",
+            "review_period",
+            "protection_periods",
+            "demand_over_protection",
+            "sd_over_protection",
+            "safety_stock",
+            "reorder_point",
+            "order_up_to",
+            "on_hand",
+            "on_order",
+            "suggested_order",
+            "cycle_service_level",
+            "fill_rate",
+        ] {
+            let (saved, wanted) = (cell_number(get(key)), item[key].as_f64());
+            let same = match (saved, wanted) {
+                (Some(a), Some(b)) => (a - b).abs() <= 1e-9 * b.abs().max(1.0),
+                (a, b) => a == b,
+            };
+            assert!(
+                same,
+                "{} {key}: saved {saved:?}, command line {wanted:?}",
+                get("name")
+            );
+        }
+        for key in ["policy", "distribution"] {
+            assert_eq!(get(key), item[key].as_str().unwrap(), "{key}");
+        }
+        assert_eq!(get("target_kind"), item["target"]["kind"].as_str().unwrap());
+        assert_eq!(cell_number(get("target")), item["target"]["value"].as_f64());
+        let kinds: Vec<&str> = item["alerts"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|a| a["kind"].as_str().unwrap())
+            .collect();
+        assert_eq!(get("alerts"), kinds.join(" "));
+        let notes: Vec<&str> = item["notes"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|n| n.as_str().unwrap())
+            .collect();
+        assert_eq!(get("notes"), notes.join(" | "));
+    }
+}
+
+#[test]
+fn the_order_plan_carries_the_command_lines_figures() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let rows = board_rows(&demo, &StockText::default(), None);
+    assert!(rows.iter().all(|r| r.figures.is_ok()), "{rows:?}");
+    let refs: Vec<&BoardRow> = rows.iter().collect();
+    let run = cli(&["stock", "-", "--json"], demo.as_bytes());
+    compare(&order_plan_csv(&refs, |_| false), &run.json());
+
+    // Periodic review at a fill-rate target with a stock table: the same again.
+    let stock = StockText {
+        review_period: "2".into(),
+        target_kind: morrowcast_engine::stock::TargetKind::FillRate,
+        target: "0.98".into(),
+        ..StockText::default()
+    };
+    let rows = board_rows(&demo, &stock, Some(STOCK_TABLE));
+    let refs: Vec<&BoardRow> = rows.iter().collect();
+    let dir = std::env::temp_dir().join(format!("morrowcast-board-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let table = dir.join("stock.csv");
+    std::fs::write(&table, STOCK_TABLE).unwrap();
+    let run = cli(
+        &[
+            "stock",
+            "-",
+            "--json",
+            "--review",
+            "2",
+            "--fill-rate",
+            "0.98",
+            "--stock",
+            table.to_str().unwrap(),
+        ],
+        demo.as_bytes(),
+    );
+    let csv_text = order_plan_csv(&refs, |name| name == "Potting mix 40 L");
+    compare(&csv_text, &run.json());
+    assert!(csv_text.contains(",yes,"), "the changed item is marked");
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn bad_stock_settings_give_every_item_the_message_and_no_figures() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let stock = StockText {
+        lead_time: "two".into(),
+        ..StockText::default()
+    };
+    let rows = board_rows(&demo, &stock, None);
+    for r in &rows {
+        assert!(r.figures.as_ref().unwrap_err().contains("\"two\""), "{r:?}");
+    }
+    let refs: Vec<&BoardRow> = rows.iter().collect();
+    let csv_text = order_plan_csv(&refs, |_| false);
+    let line = csv_text.lines().nth(1).unwrap();
+    assert!(line.contains("\"two\""), "{line}");
+    assert!(
+        !line.chars().any(|c| c.is_ascii_digit()),
+        "no figure: {line}"
+    );
+}
+
+/// A constructed row: its name, its MASE (`None` for an item without figures), its alerts.
+type Spec<'a> = (&'a str, Option<Option<f64>>, &'a [AlertKind]);
+
+/// Constructed rows, in file order.
+fn rows(spec: &[Spec<'_>]) -> Vec<BoardRow> {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let template = board_rows(&demo, &StockText::default(), None)
+        .remove(0)
+        .figures
+        .unwrap();
+    spec.iter()
+        .enumerate()
+        .map(|(index, (name, mase, alerts))| BoardRow {
+            index,
+            run: 1,
+            name: name.to_string(),
+            figures: match mase {
+                None => Err("too short".into()),
+                Some(m) => {
+                    let mut f = template.clone();
+                    f.mase = *m;
+                    f.alerts = alerts
+                        .iter()
+                        .map(|&kind| Alert {
+                            kind,
+                            reason: "reason".into(),
+                        })
+                        .collect();
+                    Ok(f)
+                }
+            },
+        })
+        .collect()
+}
+
+/// Sorts `rows` by `key` (descending or not) and compares the names in order.
+fn check(rows: &[BoardRow], key: SortKey, descending: bool, expected: &[&str]) {
+    let mut refs: Vec<&BoardRow> = rows.iter().collect();
+    sort_rows(&mut refs, key, descending);
+    let got: Vec<&str> = refs.iter().map(|r| r.name.as_str()).collect();
+    assert_eq!(got, expected, "{key:?} descending {descending}");
+}
+
+#[test]
+fn rows_sort_with_missing_values_last_and_ties_in_file_order() {
+    use AlertKind::*;
+    let r = rows(&[
+        ("b", Some(Some(0.9)), &[]),
+        ("A", None, &[]),
+        ("c", Some(None), &[Bias]),
+        ("d", Some(Some(0.5)), &[Bias, Outliers]),
+        ("e", Some(Some(0.9)), &[]),
+    ]);
+    check(&r, SortKey::File, false, &["b", "A", "c", "d", "e"]);
+    check(&r, SortKey::Name, false, &["A", "b", "c", "d", "e"]);
+    check(&r, SortKey::Name, true, &["e", "d", "c", "b", "A"]);
+    check(&r, SortKey::Mase, false, &["d", "b", "e", "c", "A"]);
+    check(&r, SortKey::Mase, true, &["b", "e", "d", "c", "A"]);
+    check(&r, SortKey::Alerts, true, &["d", "c", "b", "e", "A"]);
+}
+
+#[test]
+fn filters_by_text_and_by_alert() {
+    use AlertKind::*;
+    let r = rows(&[
+        ("Seed tray", Some(Some(0.9)), &[]),
+        ("Hose reel", None, &[]),
+        ("Seed drill", Some(None), &[Bias]),
+        ("Trowel", Some(Some(0.5)), &[Outliers]),
+    ]);
+    let names = |filter: Filter| -> Vec<&str> {
+        r.iter()
+            .filter(|row| filter.passes(row))
+            .map(|row| row.name.as_str())
+            .collect()
+    };
+    let by = |text: &str, alert: AlertFilter| Filter {
+        text: text.into(),
+        alert,
+    };
+    assert_eq!(names(by("", AlertFilter::All)).len(), 4);
+    assert_eq!(
+        names(by(" SEED ", AlertFilter::All)),
+        ["Seed tray", "Seed drill"]
+    );
+    assert_eq!(
+        names(by("", AlertFilter::Any)),
+        ["Hose reel", "Seed drill", "Trowel"]
+    );
+    assert_eq!(names(by("", AlertFilter::Failed)), ["Hose reel"]);
+    assert_eq!(names(by("", AlertFilter::Kind(Outliers))), ["Trowel"]);
+    assert_eq!(names(by("seed", AlertFilter::Kind(Bias))), ["Seed drill"]);
+    for f in [
+        AlertFilter::All,
+        AlertFilter::Any,
+        AlertFilter::Failed,
+        AlertFilter::Kind(WideBand),
+    ] {
+        assert_eq!(AlertFilter::from_key(f.key()), f);
+    }
+}

@@ -1,0 +1,275 @@
+//! The Item board end to end: a pasted file of many items planned by the worker pool, every
+//! row shown, sorted, filtered, an item opened, a lead time changed for the file and for one
+//! item, a stock table pasted, and the saved order plan compared with `morrowcast stock --json`
+//! on the same text and settings.
+//!
+//! Kept apart from: the one-item checks (engine_match.rs). The data is invented for this test
+//! (long layout, items of the demo's garden-supply scenario, figures from fixed formulas).
+
+use serde_json::{json, Value};
+
+use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
+use super::webdriver::Browser;
+use crate::board::compare;
+use crate::support::cli;
+
+/// Twelve items of four years of months in long layout: seasonal ones at several levels, a
+/// trending one, and a sparse one.
+fn many_items() -> String {
+    let names = [
+        "Seed trays",
+        "Garden twine",
+        "Bulb planter",
+        "Rain gauge",
+        "Cold frame",
+        "Watering can 10 L",
+        "Pruning saw",
+        "Mulch 50 L",
+        "Bird feeder",
+        "Slug traps",
+        "Grafting wax",
+        "Kneeling pad",
+    ];
+    let mut out = String::from("item,month,units\n");
+    for (k, name) in names.iter().enumerate() {
+        for t in 0..48usize {
+            let season = [0., 5., 9., 14., 11., 6., 2., -3., -7., -9., -6., -2.][t % 12];
+            let wobble = ((t * 7 + k * 3) % 5) as f64 - 2.0;
+            let value = match k {
+                // Sparse: a few units every third or fourth month.
+                10 => {
+                    if (t * 5 + 1) % 7 < 2 {
+                        (2 + t % 3) as f64
+                    } else {
+                        0.0
+                    }
+                }
+                // Trending up.
+                4 => 20.0 + 1.5 * t as f64 + season + wobble,
+                _ => (30 + 12 * k) as f64 + season * (1.0 + k as f64 / 6.0) + wobble,
+            };
+            out.push_str(&format!(
+                "{name},{}-{:02},{value}\n",
+                2022 + t / 12,
+                t % 12 + 1
+            ));
+        }
+    }
+    out
+}
+
+const STOCK_TABLE: &str = "item,on hand,on order\nSeed trays,40,10\nMulch 50 L,500,0\n";
+
+fn wait_until_planned(browser: &Browser, total: usize) {
+    browser.wait_for_args(
+        "every item planned",
+        "const p = document.getElementById('board-progress'); \
+         return !!p && p.textContent.startsWith('Planned all ' + arguments[0] + ' items')",
+        json!([total]),
+        WAIT,
+    );
+}
+
+/// The board's row names in the order shown.
+fn shown_names(browser: &Browser) -> Vec<String> {
+    let v = browser.js(
+        "return [...document.querySelectorAll('#board-table tbody tr th')].map(t => t.querySelector('button').textContent)",
+    );
+    v.as_array()
+        .unwrap()
+        .iter()
+        .map(|n| n.as_str().unwrap().to_string())
+        .collect()
+}
+
+/// A column's cells (by its heading's text) in the order shown.
+fn column(browser: &Browser, title: &str) -> Vec<String> {
+    let v = browser.js_args(
+        "const heads = [...document.querySelectorAll('#board-table thead th')]; \
+         const i = heads.findIndex(h => h.textContent.startsWith(arguments[0])); \
+         return [...document.querySelectorAll('#board-table tbody tr')].map(r => r.children[i] ? r.children[i].textContent : '');",
+        json!([title]),
+    );
+    v.as_array()
+        .unwrap()
+        .iter()
+        .map(|n| n.as_str().unwrap().to_string())
+        .collect()
+}
+
+fn set_field(browser: &Browser, id: &str, value: &str) {
+    browser.js_args(
+        "const t = document.getElementById(arguments[0]); t.value = arguments[1]; \
+         t.dispatchEvent(new Event('input', { bubbles: true }));",
+        json!([id, value]),
+    );
+}
+
+fn sort_by(browser: &Browser, title: &str) {
+    browser.js_args(
+        "[...document.querySelectorAll('#board-table thead th')].find(h => h.textContent.startsWith(arguments[0])).querySelector('button').click()",
+        json!([title]),
+    );
+}
+
+/// The order plan the page saves (the Blob its button makes, caught at URL.createObjectURL).
+fn saved_order_plan(browser: &Browser) -> (String, String) {
+    // The catch is installed once: a second wrapper would record each blob twice.
+    let caught = browser.js(
+        "window.__saved = []; \
+         if (!window.__catching) { \
+           window.__catching = true; \
+           const make = URL.createObjectURL; \
+           URL.createObjectURL = function (blob) { window.__saved.push({ blob, name: null }); return make.call(URL, blob); }; \
+           HTMLAnchorElement.prototype.click = function () { const s = window.__saved[window.__saved.length - 1]; if (s) s.name = this.download; }; \
+         } \
+         window.__savedText = null; \
+         document.getElementById('export-order-plan').click(); \
+         const s = window.__saved[0]; \
+         if (!s || window.__saved.length !== 1) return null; \
+         s.blob.text().then(t => { window.__savedText = t; }); \
+         return s.name;",
+    );
+    let name = caught
+        .as_str()
+        .unwrap_or_else(|| panic!("the button made no blob: {caught}"))
+        .to_string();
+    let text = browser.wait_for(
+        "the saved order plan",
+        "return window.__savedText || ''",
+        WAIT,
+    );
+    (name, text.as_str().unwrap().to_string())
+}
+
+#[test]
+fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    // The demo's six items are on the board first.
+    wait_until_planned(browser, 6);
+    let text = many_items();
+    paste(browser, &text);
+    wait_until_planned(browser, 12);
+    let names = shown_names(browser);
+    assert_eq!(names.len(), 12, "{names:?}");
+    assert_eq!(names[0], "Seed trays");
+    let estimates = browser.js("return document.getElementById('board-estimates').textContent");
+    assert!(
+        estimates.as_str().unwrap_or("").contains("estimates"),
+        "{estimates}"
+    );
+    save_screenshot(browser, "board-twelve-items.png");
+
+    // Sort by MASE, largest first: the numbers fall, "–" (not defined) last.
+    sort_by(browser, "MASE");
+    let mase = column(browser, "MASE");
+    let numbers: Vec<f64> = mase.iter().filter_map(|m| m.parse().ok()).collect();
+    assert!(numbers.windows(2).all(|w| w[0] >= w[1]), "{mase:?}");
+    let sorted = browser.js(
+        "return [...document.querySelectorAll('#board-table thead th')].find(h => h.textContent.startsWith('MASE')).getAttribute('aria-sort')",
+    );
+    assert_eq!(sorted, json!("descending"));
+    // Again: smallest first.
+    sort_by(browser, "MASE");
+    let numbers: Vec<f64> = column(browser, "MASE")
+        .iter()
+        .filter_map(|m| m.parse().ok())
+        .collect();
+    assert!(numbers.windows(2).all(|w| w[0] <= w[1]), "{numbers:?}");
+
+    // Filter by text, then by alert.
+    set_field(browser, "board-filter", "saw");
+    assert_eq!(shown_names(browser), ["Pruning saw"]);
+    set_field(browser, "board-filter", "");
+    browser.js(
+        "const s = document.getElementById('board-alert'); s.value = 'sparse_demand'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    assert_eq!(shown_names(browser), ["Grafting wax"]);
+    let alerts = column(browser, "Alerts");
+    assert!(alerts[0].contains("Sparse demand"), "{alerts:?}");
+    save_screenshot(browser, "board-filtered.png");
+    browser.js(
+        "const s = document.getElementById('board-alert'); s.value = 'all'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+
+    // A row opens its item: the detail below shows it, with its Stock plan.
+    browser.js_args(
+        "[...document.querySelectorAll('#board-table .open-item')].find(b => b.textContent === arguments[0]).click()",
+        json!(["Mulch 50 L"]),
+    );
+    wait_for_item(browser, "Mulch 50 L");
+    let focused = browser.js("return document.activeElement && document.activeElement.id");
+    assert_eq!(focused, json!("results"), "the focus moves to the detail");
+    let stock_title = browser.js("return document.getElementById('item-stock-title').textContent");
+    assert_eq!(stock_title, json!("Stock plan for Mulch 50 L"));
+    save_screenshot(browser, "board-item-open.png");
+
+    // The file's lead time and a stock table: the board plans again.
+    set_field(browser, "lead-time", "3");
+    set_field(browser, "stock-table", STOCK_TABLE);
+    browser.wait_for(
+        "the board planned with lead time 3",
+        "const p = document.getElementById('board-progress').textContent; \
+         const cells = [...document.querySelectorAll('#board-table tbody tr')].map(r => r.textContent); \
+         return p.startsWith('Planned all 12') && cells.length === 12 && cells.every(c => c.includes(' in 3 periods'));",
+        WAIT,
+    );
+    let names = shown_names(browser);
+    let orders = column(browser, "Order today");
+    let order = |name: &str| orders[names.iter().position(|n| n == name).unwrap()].clone();
+    assert_ne!(order("Seed trays"), "needs on hand", "{orders:?}");
+    assert_eq!(order("Garden twine"), "needs on hand", "{orders:?}");
+
+    let (name, saved) = saved_order_plan(browser);
+    assert!(
+        name.starts_with("morrowcast-all-items-order-plan-20") && name.ends_with(".csv"),
+        "{name}"
+    );
+    let dir = std::env::temp_dir().join(format!("morrowcast-e2e-board-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let table = dir.join("stock.csv");
+    std::fs::write(&table, STOCK_TABLE).unwrap();
+    let run = cli(
+        &[
+            "stock",
+            "-",
+            "--json",
+            "--lead-time",
+            "3",
+            "--stock",
+            table.to_str().unwrap(),
+        ],
+        text.as_bytes(),
+    );
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    compare(&saved, &run.json());
+
+    // One item's own lead time: marked on the board, and in the order plan.
+    set_field(browser, "item-lead-time", "5");
+    browser.js("document.getElementById('item-change-apply').click()");
+    browser.wait_for(
+        "the changed item marked and replanned",
+        "const r = [...document.querySelectorAll('#board-table tbody tr')].find(r => r.querySelector('th').textContent.startsWith('Mulch 50 L')); \
+         return !!r && r.textContent.includes('(changed)') && r.textContent.includes(' in 5 periods') \
+           && document.getElementById('board-progress').textContent.startsWith('Planned all 12');",
+        WAIT,
+    );
+    let (_, saved) = saved_order_plan(browser);
+    let line: Vec<Value> = saved
+        .lines()
+        .filter(|l| l.starts_with("Mulch 50 L,"))
+        .map(|l| json!(l))
+        .collect();
+    assert_eq!(line.len(), 1, "{saved}");
+    let cells: Vec<&str> = line[0].as_str().unwrap().split(',').collect();
+    assert_eq!(cells[2], "5", "lead time {cells:?}");
+    assert!(line[0].as_str().unwrap().contains(",yes,"), "{line:?}");
+    save_screenshot(browser, "board-changed-item.png");
+    let _ = std::fs::remove_dir_all(&dir);
+}
