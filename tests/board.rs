@@ -3,13 +3,14 @@
 //! `order::plan_order`, behind both); sorting and filtering on constructed rows.
 
 use morrowcast_app::page::board::{
-    order_plan_csv, sort_rows, AlertFilter, Filter, SortKey, ORDER_PLAN_COLUMNS,
+    order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange, SortKey, ORDER_PLAN_COLUMNS,
 };
 use morrowcast_app::worker::{answer_board, BoardAsk, BoardItem, BoardRow};
 use morrowcast_engine::alerts::{Alert, AlertKind};
+use morrowcast_engine::intake::StockRow;
 use morrowcast_engine::intake::{self, read_stock_table};
-use morrowcast_engine::settings::PlanSettings;
-use morrowcast_engine::stock::StockText;
+use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
+use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
 use crate::support::cli;
@@ -268,4 +269,82 @@ fn filters_by_text_and_by_alert() {
     ] {
         assert_eq!(AlertFilter::from_key(f.key()), f);
     }
+}
+
+#[test]
+fn an_items_own_changes_reach_its_row_and_its_settings() {
+    let file = PlanSettings::default();
+    assert_eq!(ItemChange::default().plan_settings(&file), None);
+    let change = ItemChange {
+        lead_time: Some(4),
+        target: Some(Target::FillRate(0.99)),
+        season: Some(SeasonChoice::Fixed(1)),
+        method: Choice::from_key("ses"),
+    };
+    let own = change.plan_settings(&file).unwrap();
+    assert_eq!(own.season(), SeasonChoice::Fixed(1));
+    assert_eq!(own.choice(), &Choice::Named("ses".into()));
+    // Over a stock-table row: its lead time and target replaced, its on hand kept.
+    let row = StockRow {
+        item: "Trowel".into(),
+        on_hand: Some(12.0),
+        lead_time: Some(2),
+        ..StockRow::default()
+    };
+    let applied = change.apply("Trowel", Some(&row)).unwrap();
+    assert_eq!(
+        (applied.lead_time, applied.target, applied.on_hand),
+        (Some(4), Some(Target::FillRate(0.99)), Some(12.0))
+    );
+    // Without a row: a bare one with the change alone (no on hand, so no order).
+    let bare = change.apply("Trowel", None).unwrap();
+    assert_eq!((bare.item.as_str(), bare.on_hand), ("Trowel", None));
+    // Season and method alone leave the row as it is.
+    let season_only = ItemChange {
+        season: Some(SeasonChoice::Fixed(4)),
+        ..ItemChange::default()
+    };
+    assert_eq!(season_only.apply("Trowel", Some(&row)), Some(row));
+    // A season as typed: checked with the file's limits.
+    assert_eq!(ItemChange::check_season(" "), Ok(None));
+    assert_eq!(
+        ItemChange::check_season("none"),
+        Ok(Some(SeasonChoice::Fixed(1)))
+    );
+    assert_eq!(
+        ItemChange::check_season("12"),
+        Ok(Some(SeasonChoice::Fixed(12)))
+    );
+    assert!(ItemChange::check_season("400").unwrap_err().contains("400"));
+    assert!(ItemChange::check_season("x").unwrap_err().contains("\"x\""));
+}
+
+#[test]
+fn an_items_own_settings_plan_it() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let report = intake::read(&demo);
+    let item = &report.items[0];
+    let own = ItemChange {
+        season: Some(SeasonChoice::Fixed(1)),
+        method: Choice::from_key("ses"),
+        ..ItemChange::default()
+    }
+    .plan_settings(&PlanSettings::default());
+    let rows = answer_board(&BoardAsk {
+        ticket: 1,
+        settings: PlanSettings::default(),
+        stock: StockText::default(),
+        table_given: false,
+        items: vec![BoardItem {
+            index: 0,
+            series: item.series().unwrap(),
+            settings: own,
+            row: None,
+        }],
+    });
+    let f = rows[0].figures.as_ref().unwrap();
+    assert_eq!(
+        (f.method.as_str(), f.season),
+        ("Simple exponential smoothing", None)
+    );
 }

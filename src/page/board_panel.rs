@@ -8,12 +8,15 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{StockField, StockText, Target, TargetKind};
 
-use super::board::{order_plan_csv, sort_rows, AlertFilter, Filter, SortKey, COLUMNS, ROWS_SHOWN};
+use super::board::{
+    order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange, SortKey, COLUMNS, ROWS_SHOWN,
+};
 use super::browser;
 use super::export::file_name;
-use super::state::{BoardState, IntakeState, ItemChange};
+use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
 
 fn units(v: f64) -> String {
@@ -373,8 +376,23 @@ pub fn ItemStock() -> impl IntoView {
             .and_then(|n| board.changes.with(|c| c.get(&n).cloned()))
             .unwrap_or_default()
     });
+    let plan = expect_context::<PlanState>();
     let lead_text = RwSignal::new(String::new());
     let target_text = RwSignal::new(String::new());
+    let season_text = RwSignal::new(String::new());
+    let method_key = RwSignal::new(String::new());
+    // The methods this item's ranking holds: (key, published name).
+    let methods = Memo::new(move |_| {
+        plan.plan.with(|p| match p {
+            Some(Ok(p)) => p
+                .backtest
+                .ranking
+                .iter()
+                .map(|r| (r.candidate.key().to_string(), r.candidate.label()))
+                .collect::<Vec<_>>(),
+            _ => Vec::new(),
+        })
+    });
     let problem = RwSignal::new(None::<String>);
     // The fields show the item's change, or are empty (the file's settings hold).
     Effect::new(move |_| {
@@ -383,6 +401,16 @@ pub fn ItemStock() -> impl IntoView {
         target_text.set(match c.target {
             Some(Target::CycleService(v)) | Some(Target::FillRate(v)) => format!("{}", v * 100.0),
             None => String::new(),
+        });
+        season_text.set(match c.season {
+            Some(SeasonChoice::Fixed(1)) => "none".into(),
+            Some(SeasonChoice::Fixed(m)) => m.to_string(),
+            Some(SeasonChoice::Auto) => "auto".into(),
+            None => String::new(),
+        });
+        method_key.set(match &c.method {
+            Some(Choice::Named(key)) => key.clone(),
+            _ => String::new(),
         });
         problem.set(None);
     });
@@ -424,6 +452,17 @@ pub fn ItemStock() -> impl IntoView {
                     return;
                 }
             }
+        }
+        match ItemChange::check_season(&season_text.get_untracked()) {
+            Ok(season) => c.season = season,
+            Err(e) => {
+                problem.set(Some(e));
+                return;
+            }
+        }
+        let key = method_key.get_untracked();
+        if !key.is_empty() {
+            c.method = Choice::from_key(&key);
         }
         board.changes.update(|all| {
             if c.is_empty() {
@@ -480,10 +519,26 @@ pub fn ItemStock() -> impl IntoView {
                     <input id="item-target" type="text" inputmode="decimal" autocomplete="off" placeholder="as for the file"
                         prop:value=move || target_text.get() on:input=move |ev| target_text.set(event_target_value(&ev))/>
                 </div>
+                <div class="field inline">
+                    <label for="item-season">"Season length"</label>
+                    <input id="item-season" type="text" autocomplete="off" placeholder="as for the file"
+                        prop:value=move || season_text.get() on:input=move |ev| season_text.set(event_target_value(&ev))/>
+                </div>
+                <div class="field inline">
+                    <label for="item-method">"Method"</label>
+                    <select id="item-method" on:change=move |ev| method_key.set(event_target_value(&ev))>
+                        <option value="" prop:selected=move || method_key.with(String::is_empty)>"as for the file"</option>
+                        {move || methods.get().into_iter().map(|(key, label)| {
+                            let k = key.clone();
+                            view! { <option value=key prop:selected=move || method_key.with(|m| *m == k)>{label}</option> }
+                        }).collect_view()}
+                    </select>
+                </div>
                 <button type="submit" id="item-change-apply">"Apply to this item"</button>
                 <button type="button" id="item-change-clear" on:click=clear disabled=move || change.with(ItemChange::is_empty)>"Use the file's settings"</button>
                 {move || problem.get().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
             </form>
+            <p class="hint">"Season length: auto, none, or a number of periods. The board marks the item \"changed\"; the Settings above stay the file's."</p>
             <p class="estimates">{ESTIMATES_WORDS}</p>
         </section>
     }

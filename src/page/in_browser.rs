@@ -59,7 +59,10 @@ fn mount_with<V: IntoView + 'static>(text: &str, view: fn() -> V) -> HtmlElement
     let handle = leptos::mount::mount_to(el.clone(), move || {
         let intake = IntakeState::new(text.clone(), "pasted text".into());
         provide_context(intake);
-        provide_context(PlanState::new(intake));
+        provide_context(PlanState::new(
+            intake,
+            RwSignal::new(std::collections::BTreeMap::new()),
+        ));
         provide_context(Resized(RwSignal::new(0)));
         view()
     });

@@ -18,8 +18,10 @@ pub fn App() -> impl IntoView {
     let (text, source) =
         browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
     let intake = IntakeState::new(text, source);
-    let state = PlanState::new(intake);
-    let board = BoardState::new(intake, state);
+    // The board's per-item changes: the detail plans an item as the board does.
+    let changes = RwSignal::new(std::collections::BTreeMap::new());
+    let state = PlanState::new(intake, changes);
+    let board = BoardState::new(intake, state, changes);
     let resized = RwSignal::new(0u32);
     provide_context(intake);
     provide_context(state);

@@ -271,5 +271,60 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
     assert_eq!(cells[2], "5", "lead time {cells:?}");
     assert!(line[0].as_str().unwrap().contains(",yes,"), "{line:?}");
     save_screenshot(browser, "board-changed-item.png");
+
+    // Its own season (none) and method (simple exponential smoothing) too: the row, the
+    // detail and the order plan follow, as the command line computes them with those options.
+    set_field(browser, "item-season", "none");
+    browser.js(
+        "const s = document.getElementById('item-method'); s.value = 'ses'; \
+         s.dispatchEvent(new Event('change', { bubbles: true })); \
+         document.getElementById('item-change-apply').click();",
+    );
+    browser.wait_for(
+        "the item planned with its own season and method",
+        "const r = [...document.querySelectorAll('#board-table tbody tr')].find(r => r.querySelector('th').textContent.startsWith('Mulch 50 L')); \
+         return !!r && r.textContent.includes('Simple exponential smoothing') \
+           && document.getElementById('board-progress').textContent.startsWith('Planned all 12');",
+        WAIT,
+    );
+    wait_for_item(browser, "Mulch 50 L");
+    let lead = browser.js("return document.querySelector('#headline .lead').textContent");
+    assert!(
+        lead.as_str()
+            .unwrap_or("")
+            .contains("by Simple exponential smoothing"),
+        "the detail plans the item as the board does: {lead}"
+    );
+    let (_, saved) = saved_order_plan(browser);
+    let mut lines = saved.lines();
+    let one = format!(
+        "{}\n{}\n",
+        lines.next().unwrap(),
+        saved
+            .lines()
+            .find(|l| l.starts_with("Mulch 50 L,"))
+            .unwrap()
+    );
+    let run = cli(
+        &[
+            "stock",
+            "-",
+            "--json",
+            "--item",
+            "Mulch 50 L",
+            "--lead-time",
+            "5",
+            "--season",
+            "none",
+            "--method",
+            "ses",
+            "--stock",
+            table.to_str().unwrap(),
+        ],
+        text.as_bytes(),
+    );
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    compare(&one, &run.json());
+    save_screenshot(browser, "board-own-method.png");
     let _ = std::fs::remove_dir_all(&dir);
 }

@@ -83,6 +83,14 @@ pub enum SeasonChoice {
     Fixed(usize),
 }
 
+impl SeasonChoice {
+    /// Reads "auto", "none" or a whole number as typed (its range is checked by
+    /// [`PlanSettings::with_season`]).
+    pub fn from_text(text: &str) -> Result<SeasonChoice, SettingError> {
+        season_choice(text)
+    }
+}
+
 /// A setting with limits.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Setting {

@@ -8,10 +8,10 @@
 use std::collections::BTreeMap;
 
 use leptos::prelude::*;
-use morrowcast_engine::intake::{read_stock_table, StockRow, StockTable};
-use morrowcast_engine::stock::{StockFieldError, StockText, Target};
+use morrowcast_engine::intake::{read_stock_table, StockTable};
+use morrowcast_engine::stock::{StockFieldError, StockText};
 
-use super::super::board::BATCH;
+use super::super::board::{ItemChange, BATCH};
 use super::super::browser;
 use super::super::pool::{Pool, BOARD_TICKETS};
 use super::{IntakeState, PlanState};
@@ -21,34 +21,6 @@ use crate::worker::{parse_fault, BoardAsk, BoardItem, BoardRow};
 /// the board fill, rarely enough that re-sorting a file of thousands stays a small share of
 /// the main thread).
 const FLUSH_MS: u64 = 200;
-
-/// What the board changes for one item (over its stock-table row and the file's settings).
-#[derive(Clone, Debug, Default, PartialEq)]
-pub struct ItemChange {
-    pub lead_time: Option<usize>,
-    pub target: Option<Target>,
-}
-
-impl ItemChange {
-    /// Whether it changes anything.
-    pub fn is_empty(&self) -> bool {
-        self.lead_time.is_none() && self.target.is_none()
-    }
-
-    /// The item's stock-table row (or a bare one) with this change applied.
-    pub fn apply(&self, name: &str, row: Option<&StockRow>) -> Option<StockRow> {
-        if self.is_empty() {
-            return row.cloned();
-        }
-        let mut r = row.cloned().unwrap_or_else(|| StockRow {
-            item: name.to_string(),
-            ..StockRow::default()
-        });
-        r.lead_time = self.lead_time.or(r.lead_time);
-        r.target = self.target.or(r.target);
-        Some(r)
-    }
-}
 
 /// The board's signals; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
@@ -77,7 +49,13 @@ pub struct BoardState {
 }
 
 impl BoardState {
-    pub fn new(intake: IntakeState, plan: PlanState) -> BoardState {
+    /// The board for `intake`'s file, with the file's plan settings from `plan` and the
+    /// per-item `changes` (shared with the detail's plan state, so both plan an item alike).
+    pub fn new(
+        intake: IntakeState,
+        plan: PlanState,
+        changes: RwSignal<BTreeMap<String, ItemChange>>,
+    ) -> BoardState {
         let stock_form = RwSignal::new(StockText::default());
         let stock_errors =
             Memo::new(move |_| stock_form.with(|f| f.check().err().unwrap_or_default()));
@@ -85,7 +63,6 @@ impl BoardState {
         let table = Memo::new(move |_| {
             table_text.with(|t| (!t.trim().is_empty()).then(|| read_stock_table(t.as_bytes())))
         });
-        let changes = RwSignal::new(BTreeMap::<String, ItemChange>::new());
         let rows = RwSignal::new(Vec::<Option<BoardRow>>::new());
         let planned = RwSignal::new(0usize);
         let total = RwSignal::new(0usize);
@@ -199,7 +176,8 @@ impl BoardState {
                         table.with(|t| {
                             for (index, item) in report.items.iter().enumerate() {
                                 let row = t.as_ref().and_then(|t| t.row(&item.name));
-                                let row = match changes.get(&item.name) {
+                                let change = changes.get(&item.name);
+                                let row = match change {
                                     Some(c) => c.apply(&item.name, row),
                                     None => row.cloned(),
                                 };
@@ -207,7 +185,7 @@ impl BoardState {
                                     Ok(series) => items.push(BoardItem {
                                         index,
                                         series,
-                                        settings: None,
+                                        settings: change.and_then(|c| c.plan_settings(&settings)),
                                         row,
                                     }),
                                     Err(e) => failed.push(BoardRow {

@@ -11,7 +11,7 @@ mod board;
 mod intake;
 mod plan;
 
-pub use board::{BoardState, ItemChange};
+pub use board::BoardState;
 pub use intake::{IntakeState, DEMO_SOURCE};
 pub use plan::PlanState;
 

@@ -12,6 +12,9 @@ use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::{PlanSettings, SettingsText};
 
+use std::collections::BTreeMap;
+
+use super::super::board::ItemChange;
 use super::super::browser;
 use super::super::courier::Courier;
 use super::super::settings::{to_settings, FieldError};
@@ -60,8 +63,9 @@ pub struct PlanState {
 }
 
 impl PlanState {
-    /// The plan state for the item `intake` has chosen; starts the worker.
-    pub fn new(intake: IntakeState) -> PlanState {
+    /// The plan state for the item `intake` has chosen, planned with the file's settings and
+    /// the item's own season or method from `changes` (the Item board's); starts the worker.
+    pub fn new(intake: IntakeState, changes: RwSignal<BTreeMap<String, ItemChange>>) -> PlanState {
         let series = intake.series;
         let form = RwSignal::new(SettingsText::default());
         let form_errors =
@@ -139,6 +143,13 @@ impl PlanState {
         Effect::new(move |_| {
             let settings = settings.get();
             let input = series.get();
+            // The item's own season or method, as the board plans it.
+            let settings = match &input {
+                Some(Ok(s)) => changes
+                    .with(|c| c.get(s.name()).and_then(|c| c.plan_settings(&settings)))
+                    .unwrap_or(settings),
+                _ => settings,
+            };
             let picked = picked.with(|p| match (p, &input) {
                 (Some(p), Some(Ok(s))) if &p.series == s => Some(p.candidate.clone()),
                 _ => None,
