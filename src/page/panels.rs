@@ -39,6 +39,10 @@ fn read_file(state: IntakeState, file: File) {
 /// which would freeze the page and starve the Item board's workers of their next batches).
 const WHOLE_TEXT_BYTES: usize = 200_000;
 
+/// Files of more items than this offer no drop-down of items (our choice: a list of thousands
+/// is slow to draw and no way to find one; the Item board sorts, filters and opens them).
+const MAX_ITEM_CHOICES: usize = 200;
+
 /// Lines of a long text the box shows.
 const SHOWN_LINES: usize = 200;
 
@@ -157,7 +161,10 @@ pub fn IntakePanel() -> impl IntoView {
                     </ol>
                 </Show>
             </div>
-            <Show when=move || state.report.with(|r| r.items.len() > 1)>
+            <Show when=move || state.report.with(|r| r.items.len() > MAX_ITEM_CHOICES)>
+                <p class="hint" id="item-choice-hint">"Open an item from the Item board above: its name opens its detail."</p>
+            </Show>
+            <Show when=move || state.report.with(|r| (2..=MAX_ITEM_CHOICES).contains(&r.items.len()))>
                 <div class="field">
                     <label for="item-choice">"Item to forecast"</label>
                     <select id="item-choice" on:change=move |ev| {

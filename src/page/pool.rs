@@ -42,6 +42,10 @@ struct Inner {
     slots: Vec<Slot>,
     waiting: VecDeque<BoardAsk>,
     deliver: Deliver,
+    /// No batch is sent while held (the open item's detail is being planned: it goes first).
+    held: bool,
+    /// Whether the workers were started.
+    started: bool,
 }
 
 /// The page's handle on the pool; cheap to clone.
@@ -69,14 +73,17 @@ impl Pool {
                 slots: Vec::new(),
                 waiting: VecDeque::new(),
                 deliver: Rc::new(deliver),
+                held: true,
+                started: false,
             })),
         };
-        for slot in 0..pool_size() {
+        // The workers start at the first release of the hold ([`Pool::hold`]), so they do not
+        // compete with the page's first plan.
+        for _ in 0..pool_size() {
             pool.inner.borrow_mut().slots.push(Slot {
                 bridge: None,
                 out: VecDeque::new(),
             });
-            pool.spawn(slot);
         }
         Ok(pool)
     }
@@ -113,6 +120,23 @@ impl Pool {
         }
     }
 
+    /// Holds back the batches not yet sent (while the open item's detail is planned, so the
+    /// item a person is looking at comes first, on a machine with as many workers as cores),
+    /// or lets them go again.
+    pub fn hold(&self, held: bool) {
+        self.inner.borrow_mut().held = held;
+        if !held && !std::mem::replace(&mut self.inner.borrow_mut().started, true) {
+            for slot in 0..self.size() {
+                self.spawn(slot);
+            }
+        }
+        if !held {
+            for slot in 0..self.size() {
+                self.feed(slot);
+            }
+        }
+    }
+
     /// Sends waiting batches to a worker until it has [`IN_FLIGHT`] out.
     fn feed(&self, slot: usize) {
         while self.feed_one(slot) {}
@@ -120,7 +144,7 @@ impl Pool {
 
     fn feed_one(&self, slot: usize) -> bool {
         let mut inner = self.inner.borrow_mut();
-        if inner.slots[slot].out.len() >= IN_FLIGHT {
+        if inner.held || inner.slots[slot].out.len() >= IN_FLIGHT {
             return false;
         }
         let Some(batch) = inner.waiting.pop_front() else {
