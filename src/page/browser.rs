@@ -56,12 +56,19 @@ pub fn kept_text() -> Option<(String, String)> {
     Some((text, source))
 }
 
-/// Keeps the Intake text for this tab (ignored when storage is full or off).
-pub fn keep_text(text: &str, source: &str) {
-    if let Some(s) = session() {
-        let _ = s.set_item(TEXT_KEY, text);
-        let _ = s.set_item(SOURCE_KEY, source);
+/// Keeps the Intake text for this tab; false when it could not be kept (storage full or off).
+/// Then nothing is kept: an older text left behind would come back on a reload as if it were
+/// the current one.
+pub fn keep_text(text: &str, source: &str) -> bool {
+    let Some(s) = session() else {
+        return false;
+    };
+    if s.set_item(TEXT_KEY, text).is_ok() && s.set_item(SOURCE_KEY, source).is_ok() {
+        return true;
     }
+    let _ = s.remove_item(TEXT_KEY);
+    let _ = s.remove_item(SOURCE_KEY);
+    false
 }
 
 /// Milliseconds from the page's clock.

@@ -113,12 +113,7 @@ pub fn IntakePanel() -> impl IntoView {
                     aria-describedby="intake-report intake-partial"
                     prop:readOnly=partial
                     prop:value=move || if partial() { state.text.with(|t| head_of(t).0) } else { state.text.get() }
-                    on:input=move |ev| {
-                        let t = event_target_value(&ev);
-                        super::browser::keep_text(&t, "pasted text");
-                        state.source.set("pasted text".into());
-                        state.text.set(t);
-                    }
+                    on:input=move |ev| state.set_typed(event_target_value(&ev))
                 ></textarea>
             </div>
             <Show when=partial>
@@ -147,6 +142,9 @@ pub fn IntakePanel() -> impl IntoView {
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>
             </div>
             <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.get()}</span></p>
+            <Show when=move || !state.kept.get()>
+                <p class="notice" id="intake-not-kept" role="status">"This table is too large for this browser to keep for a reload of the tab: it is read and planned, but a reload or a closed tab loses it. Keep the file to open it again."</p>
+            </Show>
             <Show when=move || demo_missing.get()>
                 <p class="notice">"The demo data is not part of this build yet."</p>
             </Show>

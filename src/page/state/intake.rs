@@ -23,6 +23,9 @@ pub struct IntakeState {
     pub item: RwSignal<usize>,
     /// The chosen item's series (what the next plan will be made from), or why there is none.
     pub series: Memo<Option<Result<Series, String>>>,
+    /// False when the text could not be kept for a reload of this tab (too large for the
+    /// browser's session storage, or storage off).
+    pub kept: RwSignal<bool>,
 }
 
 impl IntakeState {
@@ -46,12 +49,20 @@ impl IntakeState {
             report,
             item,
             series,
+            kept: RwSignal::new(true),
         }
+    }
+
+    /// Replaces the text as typed or pasted into the box (and keeps it for this tab).
+    pub fn set_typed(&self, text: String) {
+        self.kept.set(browser::keep_text(&text, "pasted text"));
+        self.source.set("pasted text".into());
+        self.text.set(text);
     }
 
     /// Replaces the Intake text (and keeps it for this tab); the first item is chosen.
     pub fn set_text(&self, text: String, source: &str) {
-        browser::keep_text(&text, source);
+        self.kept.set(browser::keep_text(&text, source));
         self.source.set(source.to_string());
         self.item.set(0);
         self.text.set(text);
