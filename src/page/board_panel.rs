@@ -245,7 +245,8 @@ pub fn ItemBoard() -> impl IntoView {
                                                 if c.key == SortKey::Alerts {
                                                     let titles: Vec<String> = f.alerts.iter().map(|a| a.kind.title().to_string()).collect();
                                                     let reasons: String = f.alerts.iter().map(|a| a.reason.clone()).collect::<Vec<_>>().join(" ");
-                                                    view! { <td class="alerts" title=reasons>{if titles.is_empty() { "none".to_string() } else { titles.join(", ") }}</td> }.into_any()
+                                                    let none = titles.is_empty();
+                                                    view! { <td class="alerts" class:none=none title=reasons>{if none { "none".to_string() } else { titles.join(", ") }}</td> }.into_any()
                                                 } else {
                                                     let title = (c.key == SortKey::Method).then(|| f.method.clone());
                                                     view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()

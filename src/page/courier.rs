@@ -175,8 +175,8 @@ impl Courier {
                         done,
                         total,
                     } => Courier { inner }.progressed(ticket, done, total),
-                    // Board batches go to the pool's workers, never to this one.
-                    WorkerNews::Rows { .. } => {}
+                    // Board batches and readings go to other workers, never to this one.
+                    WorkerNews::Rows { .. } | WorkerNews::Read { .. } => {}
                 }
             }
         })?;

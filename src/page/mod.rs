@@ -24,6 +24,8 @@ mod panels;
 #[cfg(target_arch = "wasm32")]
 mod pool;
 #[cfg(target_arch = "wasm32")]
+mod reader;
+#[cfg(target_arch = "wasm32")]
 mod results;
 #[cfg(target_arch = "wasm32")]
 mod shell;

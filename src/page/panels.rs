@@ -149,7 +149,13 @@ pub fn IntakePanel() -> impl IntoView {
                 <p class="notice">"The demo data is not part of this build yet."</p>
             </Show>
             <div id="intake-report" class="intake-report" aria-live="polite">
-                <ul class="plain">
+                <Show when=move || state.reading.get()>
+                    <p class="notice" id="intake-reading">{move || state.text.with(|t| format!(
+                        "Reading the table ({:.1} MB) beside the page, which stays usable meanwhile…",
+                        t.len() as f64 / 1e6
+                    ))}</p>
+                </Show>
+                <ul class="plain" class:hidden=move || state.reading.get()>
                     {move || state.report.with(|r| state.text.with(|t| words::intake_lines(t, r)).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
                 </ul>
                 <Show when=move || state.report.with(|r| r.has_errors())>

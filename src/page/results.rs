@@ -113,6 +113,7 @@ pub fn Headline() -> impl IntoView {
                 // No plan yet: either there is no item, or its first plan is on its way.
                 None => view! { <p class="lead">{move || intake.series.with(|s| match s {
                     Some(Ok(s)) => format!("Working out the forecast for {}: it appears here in a moment.", s.name()),
+                    _ if intake.reading.get() => "Reading the table: its forecasts appear here in a moment.".to_string(),
                     _ => "Load data in Intake to see its forecast here.".to_string(),
                 })}</p> }.into_any(),
                 Some(Err(e)) => view! { <p class="lead problem" role="alert">{format!("This item cannot be forecast yet: {e}.")}</p> }.into_any(),

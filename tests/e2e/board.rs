@@ -361,3 +361,47 @@ fn a_table_too_large_to_keep_is_said_so_and_a_reload_brings_back_nothing_stale()
     browser.goto(&format!("{}/index.html", server.origin));
     wait_for_item(browser, "Seed packets");
 }
+
+/// A table over 200 KB is read beside the page (its reading worker): the board fills with every
+/// item, the box shows the table's head with a note, and the report counts what the command
+/// line's `inspect` counts.
+#[test]
+fn a_large_table_is_read_beside_the_page_and_planned_whole() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let mut text = String::from("item,month,units\n");
+    for k in 0..250usize {
+        for t in 0..48usize {
+            let v =
+                40 + (k % 17) * 3 + [0, 4, 8, 12, 9, 5, 1, 0, 2, 3, 5, 2][t % 12] + (t * 7 + k) % 5;
+            text.push_str(&format!(
+                "Hedge shears {k:03},{}-{:02},{v}\n",
+                2022 + t / 12,
+                t % 12 + 1
+            ));
+        }
+    }
+    assert!(text.len() > 200_000, "{}", text.len());
+    paste(browser, &text);
+    wait_until_planned(browser, 250);
+    let partial = browser.js("return document.getElementById('intake-partial').textContent");
+    assert!(
+        partial.as_str().unwrap_or("").contains("first 200 lines"),
+        "{partial}"
+    );
+    let shown =
+        browser.js("return document.getElementById('intake-text').value.split('\\n').length");
+    assert_eq!(shown, json!(200));
+    let report = browser.js("return document.getElementById('intake-report').textContent");
+    assert!(
+        report.as_str().unwrap_or("").contains("250 items"),
+        "{report}"
+    );
+    let run = cli(&["inspect", "-", "--json"], text.as_bytes());
+    assert_eq!(run.json()["items"].as_array().map(Vec::len), Some(250));
+    wait_for_item(browser, "Hedge shears 000");
+    save_screenshot(browser, "board-large-table.png");
+}

@@ -99,6 +99,7 @@ use crate::series::{Series, SeriesError};
 
 /// The field separator found.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Delimiter {
     /// `,`
     Comma,
@@ -123,6 +124,7 @@ impl Delimiter {
 
 /// The decimal mark found.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum DecimalMark {
     /// `1.5`
     Dot,
@@ -141,6 +143,7 @@ impl DecimalMark {
 
 /// How items are laid out in the table.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Layout {
     /// One column of values (with or without a period column).
     Single,
@@ -162,6 +165,7 @@ impl Layout {
 
 /// One rejected cell or row.
 #[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct RowError {
     /// 1-based line number in the text (title line and header count).
     pub row: usize,
@@ -176,6 +180,7 @@ pub struct RowError {
 
 /// One item as read: a regular run of periods (gaps included as `None`).
 #[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct Item {
     /// The item's name (from the header, or "Series N").
     pub name: String,
@@ -195,6 +200,7 @@ impl Item {
 
 /// What intake understood.
 #[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct IntakeReport {
     /// The field separator; comma when the text has a single column.
     pub delimiter: Delimiter,
