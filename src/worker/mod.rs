@@ -13,6 +13,9 @@
 //! [`WorkerNews::Rows`] back ([`board`]: each item planned with its Stock plan, boiled down to
 //! its row).
 //!
+//! A text over 200 KB is read by a worker of its own ([`WorkerAsk::Read`], answered by
+//! [`WorkerNews::Read`] with the engine's intake report).
+//!
 //! Parts: [`protocol`] (the messages and the fault words), [`desk`] (the worker's whole logic,
 //! pure), [`queue`] (the page's side: tickets, one ask in flight, the newest waiting; pure), and
 //! the gloo-worker glue (wasm only), which only times the desk and passes messages. The pure

@@ -4,7 +4,8 @@
 //! item's row, from the worker pool), plus the page-wide [`Resized`] tick charts redraw on.
 //!
 //! Kept apart from: how the state is shown (panels, results) and the worker's messages
-//! (courier.rs). The page reads Intake itself (it is quick and the report shows as you type);
+//! (courier.rs). The page reads Intake itself up to 200 KB (the report shows as you type;
+//! larger texts go to the reading worker, src/page/reader.rs);
 //! every plan is computed in the worker.
 
 mod board;
