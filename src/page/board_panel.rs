@@ -16,6 +16,7 @@ use super::board::{
 };
 use super::browser;
 use super::export::file_name;
+use super::panels::read_local_file;
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
 
@@ -159,7 +160,7 @@ pub fn ItemBoard() -> impl IntoView {
     view! {
         <section class="panel board" id="item-board" aria-labelledby="board-title">
             <h2 id="board-title">"Item board"</h2>
-            <p class="board-progress" id="board-progress" role="status" aria-live="polite"
+            <p class="board-progress" id="board-progress" role="status" aria-live="polite" class:problem=move || board.blocked.with(Option::is_some)
                 data-worker-ms=move || format!("{:.0}", board.worker_ms.get())>{move || {
                 if let Some(why) = board.blocked.get() {
                     return why;
@@ -308,6 +309,38 @@ fn StockSetting(
 pub fn StockPanel() -> impl IntoView {
     let board = expect_context::<BoardState>();
     let kind_is = move |k: TargetKind| board.stock_form.with(|f| f.target_kind == k);
+    let dragging = RwSignal::new(false);
+    let table_source = RwSignal::new("none given".to_string());
+    let take = move |file: web_sys::File| {
+        read_local_file(file, move |text, name| match text {
+            Some(text) => {
+                board.table_text.set(text);
+                table_source.set(name);
+            }
+            None => {
+                board.table_text.set(String::new());
+                table_source.set(format!("{name} (could not be read)"));
+            }
+        })
+    };
+    let on_file = move |ev: leptos::ev::Event| {
+        let input: web_sys::HtmlInputElement = event_target(&ev);
+        if let Some(file) = input.files().and_then(|f| f.get(0)) {
+            take(file);
+        }
+        input.set_value("");
+    };
+    let on_drop = move |ev: leptos::ev::DragEvent| {
+        ev.prevent_default();
+        dragging.set(false);
+        if let Some(file) = ev
+            .data_transfer()
+            .and_then(|d| d.files())
+            .and_then(|f| f.get(0))
+        {
+            take(file);
+        }
+    };
     view! {
         <section class="panel stock" id="stock-settings" aria-labelledby="stock-title">
             <h2 id="stock-title">"Stock plan"</h2>
@@ -338,13 +371,27 @@ pub fn StockPanel() -> impl IntoView {
                 hint="95 or 0.95" get=|f| f.target.clone() set=|f, v| f.target = v/>
             <StockSetting id="order-quantity" field=StockField::OrderQuantity label="Order quantity (continuous review)"
                 hint="empty: the demand over the lead time" get=|f| f.order_quantity.clone() set=|f, v| f.order_quantity = v/>
-            <div class="field">
-                <label for="stock-table">"Stock table (optional)"</label>
+            <div class="field drop-zone" id="stock-drop" class:dragging=move || dragging.get()
+                on:dragover=move |ev: leptos::ev::DragEvent| { ev.prevent_default(); dragging.set(true); }
+                on:dragleave=move |_| dragging.set(false)
+                on:drop=on_drop>
+                <label for="stock-table">{move || if dragging.get() {
+                    "Let go to read the stock table (it stays on this machine)"
+                } else {
+                    "Stock table (optional): paste it, or drop a file here"
+                }}</label>
                 <textarea id="stock-table" rows="5" spellcheck="false" autocomplete="off"
                     aria-describedby="stock-table-hint stock-table-report"
                     placeholder="item,on_hand,on_order,lead_time"
                     prop:value=move || board.table_text.get()
-                    on:input=move |ev| board.table_text.set(event_target_value(&ev))></textarea>
+                    on:input=move |ev| { board.table_text.set(event_target_value(&ev)); table_source.set("pasted text".into()); }></textarea>
+                <div class="intake-actions">
+                    <label class="file-button" for="stock-file">"Open a stock table…"</label>
+                    <input id="stock-file" class="visually-hidden-file" type="file"
+                        accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values,text/plain"
+                        on:change=on_file/>
+                </div>
+                <p class="source-line">"Stock table from: " <span id="stock-source">{move || table_source.get()}</span></p>
                 <p class="hint" id="stock-table-hint">"One row per item: item, on hand, on order, and where they differ from the settings above lead time, lead-time spread, review period, service level or fill rate, order quantity, order multiple, minimum order. Without on hand no order is suggested."</p>
                 <div id="stock-table-report" aria-live="polite">
                     {move || board.table.with(|t| t.as_ref().map(|t| view! {
@@ -484,7 +531,10 @@ pub fn ItemStock() -> impl IntoView {
         <section class="panel item-stock" id="item-stock" aria-labelledby="item-stock-title">
             <h2 id="item-stock-title">{move || format!("Stock plan for {}", name.get().unwrap_or_default())}</h2>
             {move || match row.get() {
-                None => view! { <p class="lead">"Its figures appear here once the board has planned it."</p> }.into_any(),
+                None => match board.blocked.get() {
+                    Some(why) => view! { <p class="lead problem">{why}</p> }.into_any(),
+                    None => view! { <p class="lead">"Its figures appear here once the board has planned it."</p> }.into_any(),
+                },
                 Some(BoardRow { figures: Err(e), .. }) => view! { <p class="lead problem">{format!("No stock figures: {e}.")}</p> }.into_any(),
                 Some(BoardRow { figures: Ok(f), .. }) => {
                     let level = if f.periodic { "Order-up-to level" } else { "Reorder point" };

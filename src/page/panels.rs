@@ -17,20 +17,28 @@ use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
 use super::state::{IntakeState, PlanState, DEMO_SOURCE};
 use super::words;
 
-/// Reads a file locally and puts its text in the Intake box. The bytes are decoded by the
-/// engine (UTF-8, or UTF-16 with its byte-order mark), not by the browser's `text()`, which
-/// would replace what it cannot read without a word; the engine's marks for such bytes are
-/// reported by Intake, line by line.
-fn read_file(state: IntakeState, file: File) {
+/// Reads a file locally as text; `done` gets the text (`None` when the browser could not read
+/// the file) and the file's name. The bytes are decoded by the engine (UTF-8, or UTF-16 with its
+/// byte-order mark), not by the browser's `text()`, which would replace what it cannot read
+/// without a word; the engine's marks for such bytes are reported by the reader, line by line.
+pub(super) fn read_local_file(file: File, done: impl FnOnce(Option<String>, String) + 'static) {
     let name = file.name();
     spawn_local(async move {
         match JsFuture::from(file.array_buffer()).await {
             Ok(buffer) => {
                 let bytes = js_sys::Uint8Array::new(&buffer).to_vec();
-                state.set_text(intake::decode_bytes(&bytes), &name)
+                done(Some(intake::decode_bytes(&bytes)), name)
             }
-            Err(_) => state.set_text(String::new(), &format!("{name} (could not be read)")),
+            Err(_) => done(None, name),
         }
+    });
+}
+
+/// Reads a file locally and puts its text in the Intake box.
+fn read_file(state: IntakeState, file: File) {
+    read_local_file(file, move |text, name| match text {
+        Some(text) => state.set_text(text, &name),
+        None => state.set_text(String::new(), &format!("{name} (could not be read)")),
     });
 }
 

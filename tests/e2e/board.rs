@@ -405,3 +405,54 @@ fn a_large_table_is_read_beside_the_page_and_planned_whole() {
     wait_for_item(browser, "Hedge shears 000");
     save_screenshot(browser, "board-large-table.png");
 }
+
+/// Drops a file of `text` named `name` on the stock table's drop zone, as a drag from the
+/// desktop delivers it.
+fn drop_stock_table(browser: &Browser, text: &str, name: &str) {
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([arguments[0]], arguments[1], { type: 'text/csv' })); \
+         const z = document.getElementById('stock-drop'); \
+         const ev = t => z.dispatchEvent(new DragEvent(t, { dataTransfer: dt, bubbles: true, cancelable: true })); \
+         ev('dragenter'); ev('dragover'); ev('drop');",
+        json!([text, name]),
+    );
+}
+
+/// A stock table dropped as a file: a bad cell is named with its row, column and text and no
+/// figures are shown; the corrected file gives the order.
+#[test]
+fn a_dropped_stock_table_is_read_with_intakes_care() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    paste(browser, &many_items());
+    wait_until_planned(browser, 12);
+    drop_stock_table(browser, "item,on hand\nSeed trays,4O\n", "on-hand.csv");
+    let errors = browser.wait_for(
+        "the stock table's error",
+        "const e = document.getElementById('stock-table-errors'); return e && e.textContent",
+        WAIT,
+    );
+    let errors = errors.as_str().unwrap_or("");
+    assert!(
+        errors.contains("4O") && errors.contains('2') && errors.to_lowercase().contains("on hand"),
+        "{errors}"
+    );
+    browser.wait_for(
+        "the board to say why it shows no figures",
+        "return document.getElementById('board-progress').textContent.includes('stock table has cells that could not be read')",
+        WAIT,
+    );
+    let source = browser.js("return document.getElementById('stock-source').textContent");
+    assert_eq!(source, json!("on-hand.csv"));
+    save_screenshot(browser, "stock-table-error.png");
+    drop_stock_table(browser, "item,on hand\nSeed trays,40\n", "on-hand.csv");
+    wait_until_planned(browser, 12);
+    let names = shown_names(browser);
+    let orders = column(browser, "Order today");
+    let seed = &orders[names.iter().position(|n| n == "Seed trays").unwrap()];
+    assert_ne!(seed, "needs on hand", "{orders:?}");
+}
