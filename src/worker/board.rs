@@ -127,7 +127,7 @@ impl BoardFigures {
             mase: scored.and_then(|s| s.measures.mase),
             bias: scored.map_or(0.0, |s| s.measures.bias),
             tracking_signal,
-            tracking_beyond: tracking_signal.is_some_and(|t| t.abs() > plan.tracking_limit),
+            tracking_beyond: last.is_some_and(|r| r.out_of_limits),
             history: plan.history.len(),
             next: next.map_or(f64::NAN, |b| b.value),
             next_lower: next.map_or(f64::NAN, |b| b.low),

@@ -107,7 +107,8 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
     let mut say = |kind, reason: String| out.push(Alert { kind, reason });
     if let Some(last) = plan.ledger.last() {
         if let Some(ts) = last.row.tracking_signal {
-            if ts.abs() > plan.tracking_limit {
+            // The Error ledger's own mark: |tracking signal| beyond the plan's limit.
+            if last.row.out_of_limits {
                 say(
                     AlertKind::TrackingSignal,
                     format!(
