@@ -13,7 +13,7 @@ use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
-use crate::support::cli;
+use crate::support::{cli, table_file};
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
 
@@ -124,10 +124,7 @@ fn the_order_plan_carries_the_command_lines_figures() {
     };
     let rows = board_rows(&demo, &stock, Some(STOCK_TABLE));
     let refs: Vec<&BoardRow> = rows.iter().collect();
-    let dir = std::env::temp_dir().join(format!("morrowcast-board-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    let table = dir.join("stock.csv");
-    std::fs::write(&table, STOCK_TABLE).unwrap();
+    let table = table_file("board-order-plan-stock.csv", STOCK_TABLE);
     let run = cli(
         &[
             "stock",
@@ -138,14 +135,13 @@ fn the_order_plan_carries_the_command_lines_figures() {
             "--fill-rate",
             "0.98",
             "--stock",
-            table.to_str().unwrap(),
+            &table,
         ],
         demo.as_bytes(),
     );
     let csv_text = order_plan_csv(&refs, |name| name == "Potting mix 40 L");
     compare(&csv_text, &run.json());
     assert!(csv_text.contains(",yes,"), "the changed item is marked");
-    let _ = std::fs::remove_dir_all(&dir);
 }
 
 #[test]

@@ -3,7 +3,7 @@
 
 use morrowcast_engine::{intake, plan, stock};
 
-use crate::support::cli;
+use crate::support::{cli, table_file};
 
 fn demo() -> Vec<u8> {
     cli(&["demo"], b"").stdout
@@ -198,13 +198,6 @@ fn stock_settings_beyond_their_limits_are_refused() {
         &["stock", "-", "--lead-time", "1", "--lead-time", "2"],
         "given twice",
     );
-}
-
-/// A stock table written to a file of its own for one test.
-fn table_file(name: &str, text: &str) -> String {
-    let path = std::path::Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
-    std::fs::write(&path, text).unwrap();
-    path.to_string_lossy().into_owned()
 }
 
 #[test]

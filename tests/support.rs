@@ -68,6 +68,14 @@ pub fn monthly(values: Vec<Option<f64>>) -> Series {
     Series::new("Test item", Period::month(2021, 1), values).unwrap()
 }
 
+/// A stock table written to a file of its own (named `name`, unique per test) for one test;
+/// its path.
+pub fn table_file(name: &str, text: &str) -> String {
+    let path = std::path::Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
+    std::fs::write(&path, text).unwrap();
+    path.to_string_lossy().into_owned()
+}
+
 /// What one in-process run of the command line gave.
 pub struct CliRun {
     pub code: u8,

@@ -6,12 +6,14 @@
 //! Kept apart from: the one-item checks (engine_match.rs). The data is invented for this test
 //! (long layout, items of the demo's garden-supply scenario, figures from fixed formulas).
 
+use std::time::Duration;
+
 use serde_json::{json, Value};
 
 use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
 use super::webdriver::Browser;
 use crate::board::compare;
-use crate::support::cli;
+use crate::support::{cli, table_file};
 
 /// Twelve items of four years of months in long layout: seasonal ones at several levels, a
 /// trending one, and a sparse one.
@@ -61,12 +63,17 @@ fn many_items() -> String {
 const STOCK_TABLE: &str = "item,on hand,on order\nSeed trays,40,10\nMulch 50 L,500,0\n";
 
 fn wait_until_planned(browser: &Browser, total: usize) {
+    wait_until_planned_within(browser, total, WAIT);
+}
+
+/// Waits until the board says it has planned all `total` items (at most `wait`).
+pub(super) fn wait_until_planned_within(browser: &Browser, total: usize, wait: Duration) {
     browser.wait_for_args(
         "every item planned",
         "const p = document.getElementById('board-progress'); \
          return !!p && p.textContent.startsWith('Planned all ' + arguments[0] + ' items')",
         json!([total]),
-        WAIT,
+        wait,
     );
 }
 
@@ -231,10 +238,7 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
         name.starts_with("morrowcast-all-items-order-plan-20") && name.ends_with(".csv"),
         "{name}"
     );
-    let dir = std::env::temp_dir().join(format!("morrowcast-e2e-board-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    let table = dir.join("stock.csv");
-    std::fs::write(&table, STOCK_TABLE).unwrap();
+    let table = table_file("e2e-board-stock.csv", STOCK_TABLE);
     let run = cli(
         &[
             "stock",
@@ -243,7 +247,7 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
             "--lead-time",
             "3",
             "--stock",
-            table.to_str().unwrap(),
+            &table,
         ],
         text.as_bytes(),
     );
@@ -319,14 +323,13 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
             "--method",
             "ses",
             "--stock",
-            table.to_str().unwrap(),
+            &table,
         ],
         text.as_bytes(),
     );
     assert_eq!(run.code, 0, "{}", run.stderr);
     compare(&one, &run.json());
     save_screenshot(browser, "board-own-method.png");
-    let _ = std::fs::remove_dir_all(&dir);
 }
 
 /// A table the browser cannot keep for a reload (its session storage full) is said to be so,

@@ -19,6 +19,7 @@ use std::time::Duration;
 
 use serde_json::json;
 
+use super::board::wait_until_planned_within;
 use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
 use super::webdriver::Browser;
 
@@ -103,13 +104,7 @@ fn run(browser: &Browser, n: usize, wait: Duration) {
         browser.js("document.getElementById('intake-text').style.display = 'none'");
     }
     paste(browser, &text);
-    browser.wait_for_args(
-        "every item planned",
-        "const p = document.getElementById('board-progress'); \
-         return !!p && p.textContent.startsWith('Planned all ' + arguments[0] + ' items')",
-        json!([n]),
-        wait,
-    );
+    wait_until_planned_within(browser, n, wait);
     let t1 = browser.js("return performance.now()").as_f64().unwrap();
     if profiling {
         let profile = browser.devtools("Profiler.stop", json!({}));
