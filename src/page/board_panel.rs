@@ -9,14 +9,14 @@
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
-use morrowcast_engine::stock::{StockField, StockText, Target, TargetKind};
+use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
 use super::board::{
     order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange, SortKey, COLUMNS, ROWS_SHOWN,
 };
 use super::browser;
 use super::export::file_name;
-use super::panels::read_local_file;
+use super::panels::{read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
 
@@ -271,7 +271,7 @@ pub fn ItemBoard() -> impl IntoView {
     }
 }
 
-/// A text field of the stock settings, with its hint and error.
+/// A text field of the stock settings.
 #[component]
 fn StockSetting(
     id: &'static str,
@@ -282,25 +282,17 @@ fn StockSetting(
     set: fn(&mut StockText, String),
 ) -> impl IntoView {
     let board = expect_context::<BoardState>();
-    let hint_id = format!("{id}-hint");
-    let error = move || {
+    let error = Signal::derive(move || {
         board.stock_errors.with(|e| {
             e.iter()
                 .find(|e| e.field == field)
                 .map(|e| e.message.clone())
         })
-    };
+    });
     view! {
-        <div class="field" class:invalid=move || error().is_some()>
-            <label for=id>{label}</label>
-            <input id=id type="text" inputmode="decimal" autocomplete="off"
-                aria-describedby=hint_id.clone()
-                aria-invalid=move || if error().is_some() { "true" } else { "false" }
-                prop:value=move || board.stock_form.with(get)
-                on:input=move |ev| { let v = event_target_value(&ev); board.stock_form.update(|f| set(f, v)); }/>
-            <p class="hint" id=hint_id>{hint}</p>
-            {move || error().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
-        </div>
+        <TextField id label hint error
+            value=Signal::derive(move || board.stock_form.with(get))
+            on_input=Callback::new(move |v| board.stock_form.update(|f| set(f, v)))/>
     }
 }
 
@@ -471,29 +463,16 @@ pub fn ItemStock() -> impl IntoView {
         let target = target_text.get_untracked();
         let mut c = ItemChange::default();
         if !lead.trim().is_empty() {
-            match lead.trim().parse::<usize>() {
-                Ok(l) if l <= morrowcast_engine::stock::MAX_PERIODS => c.lead_time = Some(l),
-                _ => {
-                    problem.set(Some(format!(
-                        "lead time takes a whole number of periods from 0 to 366; found \"{}\"",
-                        lead.trim()
-                    )));
+            match read_lead_time(&lead) {
+                Ok(l) => c.lead_time = Some(l),
+                Err(e) => {
+                    problem.set(Some(e.message));
                     return;
                 }
             }
         }
         if !target.trim().is_empty() {
-            let checked = match kind {
-                TargetKind::CycleService => {
-                    morrowcast_engine::stock::service_fraction("cycle service level", &target)
-                        .and_then(Target::cycle_service)
-                }
-                TargetKind::FillRate => {
-                    morrowcast_engine::stock::service_fraction("fill rate", &target)
-                        .and_then(Target::fill_rate)
-                }
-            };
-            match checked {
+            match kind.read(&target) {
                 Ok(t) => c.target = Some(t),
                 Err(e) => {
                     problem.set(Some(e.to_string()));

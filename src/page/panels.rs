@@ -14,7 +14,7 @@ use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
 use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
-use super::state::{IntakeState, PlanState, DEMO_SOURCE};
+use super::state::{IntakeState, PlanState, DEMO_SOURCE, LARGE_TEXT};
 use super::words;
 
 /// Reads a file locally as text; `done` gets the text (`None` when the browser could not read
@@ -42,11 +42,6 @@ fn read_file(state: IntakeState, file: File) {
     });
 }
 
-/// Texts longer than this are shown in the box only in part (our choice, measured: Chromium
-/// lays out a text box's whole text on the page's only thread, about 3 s for 1.4 MB here,
-/// which would freeze the page and starve the Item board's workers of their next batches).
-const WHOLE_TEXT_BYTES: usize = 200_000;
-
 /// Files of more items than this offer no drop-down of items (our choice: a list of thousands
 /// is slow to draw and no way to find one; the Item board sorts, filters and opens them).
 const MAX_ITEM_CHOICES: usize = 200;
@@ -54,10 +49,10 @@ const MAX_ITEM_CHOICES: usize = 200;
 /// Lines of a long text the box shows.
 const SHOWN_LINES: usize = 200;
 
-/// The first [`SHOWN_LINES`] lines of `text`, and how many lines it has in all.
-fn head_of(text: &str) -> (String, usize) {
+/// The first [`SHOWN_LINES`] lines of `text`.
+fn head(text: &str) -> String {
     let shown: Vec<&str> = text.lines().take(SHOWN_LINES).collect();
-    (shown.join("\n"), text.lines().count())
+    shown.join("\n")
 }
 
 #[component]
@@ -71,7 +66,7 @@ pub fn IntakePanel() -> impl IntoView {
         source.track();
         whole.set(false);
     });
-    let partial = move || !whole.get() && state.text.with(|t| t.len() > WHOLE_TEXT_BYTES);
+    let partial = move || !whole.get() && state.text.with(|t| t.len() > LARGE_TEXT);
     let demo_missing = RwSignal::new(false);
     let load_demo = move |_| {
         let csv = demo::demo_csv();
@@ -120,14 +115,14 @@ pub fn IntakePanel() -> impl IntoView {
                     autocomplete="off"
                     aria-describedby="intake-report intake-partial"
                     prop:readOnly=partial
-                    prop:value=move || if partial() { state.text.with(|t| head_of(t).0) } else { state.text.get() }
+                    prop:value=move || if partial() { state.text.with(|t| head(t)) } else { state.text.get() }
                     on:input=move |ev| state.set_typed(event_target_value(&ev))
                 ></textarea>
             </div>
             <Show when=partial>
                 <div class="notice" id="intake-partial">
                     <p>{move || state.text.with(|t| {
-                        let (_, lines) = head_of(t);
+                        let lines = t.lines().count();
                         format!(
                             "This table is {:.1} MB ({lines} lines). The box shows its first {SHOWN_LINES} lines so the page stays quick; every line was read (see the report below).",
                             t.len() as f64 / 1e6
@@ -193,7 +188,38 @@ pub fn IntakePanel() -> impl IntoView {
     }
 }
 
-/// A text field of the settings form, with its hint and its error tied to it.
+/// A labelled text field with its hint and its error tied to it (`aria-describedby`,
+/// `aria-invalid`, the error announced): the one markup of every typed setting on the page.
+#[component]
+pub(super) fn TextField(
+    id: &'static str,
+    label: &'static str,
+    hint: &'static str,
+    #[prop(into)] value: Signal<String>,
+    #[prop(into)] error: Signal<Option<String>>,
+    on_input: Callback<String>,
+) -> impl IntoView {
+    let hint_id = format!("{id}-hint");
+    view! {
+        <div class="field" class:invalid=move || error.with(Option::is_some)>
+            <label for=id>{label}</label>
+            <input
+                id=id
+                type="text"
+                inputmode="decimal"
+                autocomplete="off"
+                aria-describedby=hint_id.clone()
+                aria-invalid=move || if error.with(Option::is_some) { "true" } else { "false" }
+                prop:value=move || value.get()
+                on:input=move |ev| on_input.run(event_target_value(&ev))
+            />
+            <p class="hint" id=hint_id>{hint}</p>
+            {move || error.get().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
+        </div>
+    }
+}
+
+/// A text field of the settings form.
 #[component]
 fn TextSetting(
     id: &'static str,
@@ -203,28 +229,15 @@ fn TextSetting(
     set: fn(&mut SettingsText, String),
 ) -> impl IntoView {
     let state = expect_context::<PlanState>();
-    let hint_id = format!("{id}-hint");
-    let error = move || {
+    let error = Signal::derive(move || {
         state
             .form_errors
             .with(|e| e.iter().find(|e| e.field == id).map(|e| e.message.clone()))
-    };
+    });
     view! {
-        <div class="field" class:invalid=move || error().is_some()>
-            <label for=id>{label}</label>
-            <input
-                id=id
-                type="text"
-                inputmode="decimal"
-                autocomplete="off"
-                aria-describedby=hint_id.clone()
-                aria-invalid=move || if error().is_some() { "true" } else { "false" }
-                prop:value=move || state.form.with(get)
-                on:input=move |ev| { let v = event_target_value(&ev); state.form.update(|f| set(f, v)); }
-            />
-            <p class="hint" id=hint_id>{hint}</p>
-            {move || error().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
-        </div>
+        <TextField id label hint error
+            value=Signal::derive(move || state.form.with(get))
+            on_input=Callback::new(move |v| state.form.update(|f| set(f, v)))/>
     }
 }
 

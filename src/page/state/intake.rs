@@ -33,9 +33,11 @@ pub struct IntakeState {
     pub reading: Memo<bool>,
 }
 
-/// Texts longer than this are read in a worker (our choice, measured: reading 1.4 MB on the
-/// page took 0.4-0.5 s, 14 MB 3.5 s, tasks during which the page cannot answer a key). Shorter
-/// ones are read on the page, so the report follows typing at once.
+/// Texts longer than this are read in a worker and shown in the Intake box only in part (our
+/// choice, measured: reading 1.4 MB on the page took 0.4-0.5 s, 14 MB 3.5 s, and Chromium laid
+/// out the box's whole 1.4 MB text on the page's only thread for about 3 s, starving the Item
+/// board's workers of their next batches). Shorter ones are read on the page, so the report
+/// follows typing at once.
 pub const LARGE_TEXT: usize = 200_000;
 
 impl IntakeState {

@@ -13,7 +13,7 @@ mod intake;
 mod plan;
 
 pub use board::BoardState;
-pub use intake::{IntakeState, DEMO_SOURCE};
+pub use intake::{IntakeState, DEMO_SOURCE, LARGE_TEXT};
 pub use plan::PlanState;
 
 use leptos::prelude::RwSignal;

@@ -42,7 +42,11 @@ pub struct Position {
     pub on_order: f64,
 }
 
-fn check_periods(what: &'static str, value: usize, least: usize) -> Result<usize, StockError> {
+pub(super) fn check_periods(
+    what: &'static str,
+    value: usize,
+    least: usize,
+) -> Result<usize, StockError> {
     if (least..=MAX_PERIODS).contains(&value) {
         Ok(value)
     } else {

@@ -43,7 +43,7 @@ pub use normal::{
     figures, inverse_normal_loss, normal_loss, sd_independent, sd_per_horizon,
     sd_variable_lead_time,
 };
-pub use text::{StockField, StockFieldError, StockText, TargetKind};
+pub use text::{read_lead_time, StockField, StockFieldError, StockText, TargetKind};
 
 /// Why stock figures cannot be worked out. Each message names the input and what it needs.
 #[derive(Clone, Debug, PartialEq)]

@@ -5,7 +5,7 @@
 //! [`Target`] hold them; this only reads numbers out of text) and any form (the page shows the
 //! fields and the messages).
 
-use super::item::{service_fraction, StockSettings};
+use super::item::{check_periods, service_fraction, StockSettings};
 use super::{StockError, Target};
 
 /// Which service target the file's Stock plan aims at.
@@ -112,21 +112,36 @@ fn given(text: &str) -> Option<&str> {
     Some(text.trim()).filter(|t| !t.is_empty())
 }
 
+impl TargetKind {
+    /// A target of this kind as typed: a fraction (0.95) or a percent (95), strictly between
+    /// 0 and 1 once read.
+    pub fn read(self, text: &str) -> Result<Target, StockError> {
+        match self {
+            TargetKind::CycleService => {
+                service_fraction("cycle service level", text).and_then(Target::cycle_service)
+            }
+            TargetKind::FillRate => service_fraction("fill rate", text).and_then(Target::fill_rate),
+        }
+    }
+}
+
+/// A lead time as typed: a whole number of periods within the limits of [`StockSettings`].
+pub fn read_lead_time(text: &str) -> Result<usize, StockFieldError> {
+    let lead = whole(StockField::LeadTime, "lead time", text)?;
+    check_periods("lead time", lead, 0).map_err(|e| error(StockField::LeadTime, e.to_string()))
+}
+
 impl StockText {
     /// The checked settings, or every field that did not pass.
     pub fn check(&self) -> Result<StockSettings, Vec<StockFieldError>> {
-        let lead_time = whole(StockField::LeadTime, "lead time", &self.lead_time);
+        let lead_time = read_lead_time(&self.lead_time);
         let review = given(&self.review_period)
             .map(|r| whole(StockField::ReviewPeriod, "review period", r))
             .transpose();
-        let target = match self.target_kind {
-            TargetKind::CycleService => service_fraction("cycle service level", &self.target)
-                .and_then(Target::cycle_service),
-            TargetKind::FillRate => {
-                service_fraction("fill rate", &self.target).and_then(Target::fill_rate)
-            }
-        }
-        .map_err(|e| error(StockField::Target, e.to_string()));
+        let target = self
+            .target_kind
+            .read(&self.target)
+            .map_err(|e| error(StockField::Target, e.to_string()));
         let sd = given(&self.lead_time_sd).map_or(Ok(0.0), |s| {
             number(StockField::LeadTimeSd, "lead-time spread", s)
         });
