@@ -23,3 +23,4 @@ mod plan;
 mod properties;
 mod smoothing;
 mod stock;
+mod work;

@@ -302,7 +302,7 @@ pub fn StockPanel() -> impl IntoView {
     let board = expect_context::<BoardState>();
     let kind_is = move |k: TargetKind| board.stock_form.with(|f| f.target_kind == k);
     let dragging = RwSignal::new(false);
-    let table_source = RwSignal::new("none given".to_string());
+    let table_source = board.table_source;
     let take = move |file: web_sys::File| {
         read_local_file(file, move |text, name| match text {
             Some(text) => {

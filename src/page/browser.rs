@@ -121,6 +121,53 @@ pub fn drill() -> Option<String> {
     hash.strip_prefix("#drill=").map(str::to_string)
 }
 
+/// The address's fragment when it carries a work (a share link's `#w1.`…).
+pub fn work_fragment() -> Option<String> {
+    let hash = web_sys::window()?.location().hash().ok()?;
+    morrowcast_work::Work::is_work(&hash).then_some(hash)
+}
+
+/// Takes the fragment out of the address without reloading: once a link's work is open, a
+/// reload shows the desk as it is then, not as the link had it. The page's address stays the
+/// same otherwise, so a link made later starts with it.
+pub fn clear_fragment() {
+    let Some(w) = web_sys::window() else {
+        return;
+    };
+    let location = w.location();
+    let address = format!(
+        "{}{}",
+        location.pathname().unwrap_or_default(),
+        location.search().unwrap_or_default()
+    );
+    if let Ok(history) = w.history() {
+        let _ = history.replace_state_with_url(&wasm_bindgen::JsValue::NULL, "", Some(&address));
+    }
+}
+
+/// The page's own address without its fragment (a share link starts with it).
+pub fn page_address() -> String {
+    let Some(w) = web_sys::window() else {
+        return String::new();
+    };
+    let href = w.location().href().unwrap_or_default();
+    match href.split_once('#') {
+        Some((address, _)) => address.to_string(),
+        None => href,
+    }
+}
+
+/// Puts `text` on the clipboard; `done` hears whether the browser allowed it.
+pub fn copy_text(text: &str, done: impl FnOnce(bool) + 'static) {
+    let Some(w) = web_sys::window() else {
+        return done(false);
+    };
+    let promise = w.navigator().clipboard().write_text(text);
+    wasm_bindgen_futures::spawn_local(async move {
+        done(wasm_bindgen_futures::JsFuture::from(promise).await.is_ok());
+    });
+}
+
 /// Today as YYYY-MM-DD (local time), for file names.
 pub fn today() -> String {
     let d = js_sys::Date::new_0();

@@ -28,6 +28,8 @@ mod reader;
 #[cfg(target_arch = "wasm32")]
 mod results;
 #[cfg(target_arch = "wasm32")]
+mod share;
+#[cfg(target_arch = "wasm32")]
 mod shell;
 #[cfg(target_arch = "wasm32")]
 mod state;

@@ -14,7 +14,7 @@ use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
 use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
-use super::state::{IntakeState, PlanState, DEMO_SOURCE, LARGE_TEXT};
+use super::state::{IntakeState, PlanState, WorkNotice, WorkState, DEMO_SOURCE, LARGE_TEXT};
 use super::words;
 
 /// Reads a file locally as text; `done` gets the text (`None` when the browser could not read
@@ -34,10 +34,15 @@ pub(super) fn read_local_file(file: File, done: impl FnOnce(Option<String>, Stri
     });
 }
 
-/// Reads a file locally and puts its text in the Intake box.
-fn read_file(state: IntakeState, file: File) {
+/// Reads a file locally: a work file (or a saved share link) opens its work; anything else
+/// is a history and goes in the Intake box.
+fn read_file(state: IntakeState, work: WorkState, file: File) {
     read_local_file(file, move |text, name| match text {
-        Some(text) => state.set_text(text, &name),
+        Some(text) => {
+            if !work.open_text(&text, &format!("the work file {name}")) {
+                state.set_text(text, &name);
+            }
+        }
         None => state.set_text(String::new(), &format!("{name} (could not be read)")),
     });
 }
@@ -58,6 +63,7 @@ fn head(text: &str) -> String {
 #[component]
 pub fn IntakePanel() -> impl IntoView {
     let state = expect_context::<IntakeState>();
+    let work = expect_context::<WorkState>();
     let dragging = RwSignal::new(false);
     // Whether a long text is shown whole (the user asked to edit it here); new text resets it.
     let whole = RwSignal::new(false);
@@ -76,7 +82,7 @@ pub fn IntakePanel() -> impl IntoView {
     let on_file = move |ev: leptos::ev::Event| {
         let input: HtmlInputElement = event_target(&ev);
         if let Some(file) = input.files().and_then(|f| f.get(0)) {
-            read_file(state, file);
+            read_file(state, work, file);
         }
         input.set_value("");
     };
@@ -88,13 +94,17 @@ pub fn IntakePanel() -> impl IntoView {
             .and_then(|d| d.files())
             .and_then(|f| f.get(0))
         {
-            read_file(state, file);
+            read_file(state, work, file);
         }
     };
     view! {
         <section class="panel intake" id="intake" aria-labelledby="intake-title">
             <h2 id="intake-title">"Intake"</h2>
-            <p class="hint">"Sales history as a table: a period column and one or more value columns, or one row per item and period. CSV, TSV or plain text."</p>
+            <p class="hint">"Sales history as a table: a period column and one or more value columns, or one row per item and period. CSV, TSV or plain text. A work file or a share link opens the whole desk."</p>
+            {move || work.notice.get().map(|n| match n {
+                WorkNotice::Opened(m) => view! { <p class="notice" id="work-notice" role="status">{m}</p> }.into_any(),
+                WorkNotice::Refused(m) => view! { <p class="notice refused" id="work-notice" role="alert">{m}</p> }.into_any(),
+            })}
             <div
                 class="drop-zone"
                 class:dragging=move || dragging.get()
@@ -116,7 +126,16 @@ pub fn IntakePanel() -> impl IntoView {
                     aria-describedby="intake-report intake-partial"
                     prop:readOnly=partial
                     prop:value=move || if partial() { state.text.with(|t| head(t)) } else { state.text.get() }
-                    on:input=move |ev| state.set_typed(event_target_value(&ev))
+                    on:input=move |ev| {
+                        let text = event_target_value(&ev);
+                        // A share link pasted here opens its work; one that cannot be read is
+                        // said so and the box shows its text again.
+                        if !work.open_text(&text, "the pasted share link") {
+                            state.set_typed(text);
+                        } else if matches!(work.notice.get_untracked(), Some(WorkNotice::Refused(_))) {
+                            state.text.update(|_| {});
+                        }
+                    }
                 ></textarea>
             </div>
             <Show when=partial>
@@ -139,7 +158,7 @@ pub fn IntakePanel() -> impl IntoView {
                     id="intake-file"
                     class="visually-hidden-file"
                     type="file"
-                    accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values,text/plain"
+                    accept=".csv,.tsv,.txt,.json,text/csv,text/tab-separated-values,text/plain,application/json"
                     on:change=on_file
                 />
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>

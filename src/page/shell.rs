@@ -1,5 +1,6 @@
 //! The page: masthead, the controls column (Intake, Settings) and the results column
 //! (Look-ahead, Backtest ranking, Error ledger, Pattern view), with the conventions stated.
+//! A share link in the address opens its work at the start.
 //!
 //! Kept apart from: the state's computation (state/) and each part's contents (panels.rs,
 //! results.rs). Loads the demo on a first visit; a reload keeps the tab's own Intake text.
@@ -11,7 +12,8 @@ use super::board_panel::{ItemBoard, ItemStock, StockPanel};
 use super::browser;
 use super::panels::{IntakePanel, SettingsPanel};
 use super::results::{ErrorLedger, Headline, LookAheadPanel, PatternView, Ranking};
-use super::state::{BoardState, IntakeState, PlanState, Resized, DEMO_SOURCE};
+use super::share::SharePanel;
+use super::state::{BoardState, IntakeState, PlanState, Resized, WorkState, DEMO_SOURCE};
 
 #[component]
 pub fn App() -> impl IntoView {
@@ -22,10 +24,25 @@ pub fn App() -> impl IntoView {
     let changes = RwSignal::new(std::collections::BTreeMap::new());
     let state = PlanState::new(intake, changes);
     let board = BoardState::new(intake, state, changes);
+    let work = WorkState::new(intake, state, board);
+    // Opened with a share link: its work replaces the start (before any plan is asked for,
+    // since effects run after this). The fragment then leaves the address, so a reload shows
+    // the desk as it is then; a link that cannot be read stays there, said so, and the page
+    // starts as it would without it.
+    if let Some(fragment) = browser::work_fragment() {
+        work.open_text(&fragment, "the share link");
+        if matches!(
+            work.notice.get_untracked(),
+            Some(super::state::WorkNotice::Opened(_))
+        ) {
+            browser::clear_fragment();
+        }
+    }
     let resized = RwSignal::new(0u32);
     provide_context(intake);
     provide_context(state);
     provide_context(board);
+    provide_context(work);
     provide_context(Resized(resized));
     // Charts redraw at their new size; the handle lives as long as the page.
     let _resize = window_event_listener(leptos::ev::resize, move |_| resized.update(|t| *t += 1));
@@ -50,6 +67,7 @@ pub fn App() -> impl IntoView {
                 <IntakePanel/>
                 <SettingsPanel/>
                 <StockPanel/>
+                <SharePanel/>
             </div>
             <div class="results" id="results" tabindex="-1">
                 <Headline/>

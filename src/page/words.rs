@@ -222,11 +222,69 @@ pub fn demand_words(v: &DemandVerdict) -> String {
     )
 }
 
+/// What the page says about a share link of `length` characters: whether mail programs or
+/// browsers may cut it (the limits are the work crate's), and whether a work file is the
+/// better way to hand the work over.
+pub fn link_length_advice(length: usize) -> (String, Option<&'static str>) {
+    use morrowcast_work::{LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
+    let size = format!("{} characters", group_thousands(length));
+    let advice = if length > LINK_KEPT_BY_BROWSERS {
+        Some(
+            "This link is too long to hand over safely: browsers and chat programs may cut it. \
+             Save a work file instead and hand over the file.",
+        )
+    } else if length > LINK_KEPT_BY_MAIL {
+        Some("Mail programs may cut links longer than about 2,000 characters: if it arrives cut, it will not open (nothing half-opened); send the work file then.")
+    } else {
+        None
+    };
+    (size, advice)
+}
+
+/// 12345 as "12,345".
+fn group_thousands(n: usize) -> String {
+    let digits = n.to_string();
+    let mut out = String::new();
+    for (i, c) in digits.chars().enumerate() {
+        if i > 0 && (digits.len() - i) % 3 == 0 {
+            out.push(',');
+        }
+        out.push(c);
+    }
+    out
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
     use morrowcast_engine::accuracy::ledger;
     use morrowcast_engine::calendar::Period;
+
+    #[test]
+    fn long_links_are_said_to_be_at_risk() {
+        let check = |length: usize, size: &str, advice: Option<&str>| {
+            let (s, a) = link_length_advice(length);
+            assert_eq!(s, size);
+            assert_eq!(a.map(|a| a.split(':').next().unwrap()), advice);
+        };
+        check(950, "950 characters", None);
+        check(2_000, "2,000 characters", None);
+        check(
+            2_001,
+            "2,001 characters",
+            Some("Mail programs may cut links longer than about 2,000 characters"),
+        );
+        check(
+            32_000,
+            "32,000 characters",
+            Some("Mail programs may cut links longer than about 2,000 characters"),
+        );
+        check(
+            1_234_567,
+            "1,234,567 characters",
+            Some("This link is too long to hand over safely"),
+        );
+    }
 
     fn entries(forecast: &[f64], demand: &[f64]) -> Vec<LedgerEntry> {
         ledger(forecast, demand, 4.0)

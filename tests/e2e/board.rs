@@ -62,7 +62,7 @@ fn many_items() -> String {
 
 const STOCK_TABLE: &str = "item,on hand,on order\nSeed trays,40,10\nMulch 50 L,500,0\n";
 
-fn wait_until_planned(browser: &Browser, total: usize) {
+pub(super) fn wait_until_planned(browser: &Browser, total: usize) {
     wait_until_planned_within(browser, total, WAIT);
 }
 
@@ -104,7 +104,7 @@ fn column(browser: &Browser, title: &str) -> Vec<String> {
         .collect()
 }
 
-fn set_field(browser: &Browser, id: &str, value: &str) {
+pub(super) fn set_field(browser: &Browser, id: &str, value: &str) {
     browser.js_args(
         "const t = document.getElementById(arguments[0]); t.value = arguments[1]; \
          t.dispatchEvent(new Event('input', { bubbles: true }));",
@@ -119,10 +119,15 @@ fn sort_by(browser: &Browser, title: &str) {
     );
 }
 
-/// The order plan the page saves (the Blob its button makes, caught at URL.createObjectURL).
-fn saved_order_plan(browser: &Browser) -> (String, String) {
+/// The order plan the page saves.
+pub(super) fn saved_order_plan(browser: &Browser) -> (String, String) {
+    saved_by(browser, "export-order-plan")
+}
+
+/// The file name and text a button saves (the Blob it makes, caught at URL.createObjectURL).
+pub(super) fn saved_by(browser: &Browser, button: &str) -> (String, String) {
     // The catch is installed once: a second wrapper would record each blob twice.
-    let caught = browser.js(
+    let caught = browser.js_args(
         "window.__saved = []; \
          if (!window.__catching) { \
            window.__catching = true; \
@@ -131,11 +136,12 @@ fn saved_order_plan(browser: &Browser) -> (String, String) {
            HTMLAnchorElement.prototype.click = function () { const s = window.__saved[window.__saved.length - 1]; if (s) s.name = this.download; }; \
          } \
          window.__savedText = null; \
-         document.getElementById('export-order-plan').click(); \
+         document.getElementById(arguments[0]).click(); \
          const s = window.__saved[0]; \
          if (!s || window.__saved.length !== 1) return null; \
          s.blob.text().then(t => { window.__savedText = t; }); \
          return s.name;",
+        json!([button]),
     );
     let name = caught
         .as_str()

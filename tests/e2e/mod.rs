@@ -25,3 +25,4 @@ mod faults;
 mod pick;
 mod progress;
 mod recompute;
+mod share;

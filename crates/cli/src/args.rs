@@ -8,7 +8,7 @@
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
 use morrowcast_engine::settings::{Choice, PlanSettings, Setting, SettingsText};
-use morrowcast_engine::stock;
+use morrowcast_engine::stock::{self, StockText, TargetKind};
 
 /// The help text; the limits come from the engine's settings, where they are decided.
 pub fn usage() -> String {
@@ -22,8 +22,14 @@ usage:
                       [--method auto|best|NAME] [--json]
   morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S] [--review R]
                    [--service P | --fill-rate P] [--order-quantity Q] [forecast options] [--json]
+  morrowcast link FILE [--item NAME] [--page ADDRESS] [stock options] [forecast options]
+  morrowcast work FILE [--item NAME] [stock options] [forecast options]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
-FILE may be - for standard input. --item may be repeated (each item named is planned; without
+FILE may be - for standard input, a work file, or a share link (or its fragment, #w1...): a
+work brings its data, settings, stock inputs and item changes; options given replace its own.
+link prints a share link (the page's ADDRESS, default http://127.0.0.1:8080/, then a fragment
+carrying the data: whoever has the link has the data); work prints a work file. --item NAME
+there names the item the page opens. --item may be repeated (each item named is planned; without
 it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
 origins {}. Errors are forecast minus demand (positive = over-forecast).
 stock: lead time L and review period R in whole periods (L default 1; without --review,
@@ -44,9 +50,91 @@ are estimates from past demand: your own policies, supplier terms and judgement 
 pub enum Command {
     Help,
     Demo,
-    Inspect { file: String, json: bool },
+    Inspect {
+        file: String,
+        json: bool,
+    },
     Forecast(ForecastArgs),
     Stock(StockArgs),
+    /// `link` (a share link) or `work` (a work file).
+    Link(LinkArgs),
+}
+
+/// What `link` and `work` write.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Written {
+    Link,
+    WorkFile,
+}
+
+pub struct LinkArgs {
+    pub written: Written,
+    /// The page's address the link starts with.
+    pub page: String,
+    /// FILE, the settings and stock inputs, and the item to open (at most one in `items`).
+    pub stock: StockArgs,
+}
+
+/// The address `link` writes when no --page is given: the one `scripts/start.sh` serves.
+pub const DEFAULT_PAGE: &str = "http://127.0.0.1:8080/";
+
+/// The plan settings as typed on the command line and which of them were given: over a work
+/// (FILE a share link or work file) only the given ones replace the work's own.
+pub struct TypedSettings {
+    pub text: SettingsText,
+    given: Vec<String>,
+}
+
+impl TypedSettings {
+    /// `work`'s settings with the ones given on the command line in their place.
+    pub fn over(&self, work: &SettingsText) -> SettingsText {
+        let mut out = work.clone();
+        for flag in &self.given {
+            let t = &self.text;
+            match flag.as_str() {
+                "--horizon" => out.horizon = t.horizon.clone(),
+                "--season" => out.season = t.season.clone(),
+                "--holdout" => out.holdout = t.holdout.clone(),
+                "--level" => out.level = t.level.clone(),
+                "--tracking-limit" => out.tracking_limit = t.tracking_limit.clone(),
+                "--origins" => out.origins = t.origins.clone(),
+                "--rank-by" => out.rank_by = t.rank_by,
+                "--band" => out.band = t.band,
+                "--method" => out.choice = t.choice.clone(),
+                _ => {}
+            }
+        }
+        out
+    }
+}
+
+/// The Stock plan's settings as typed on the command line and which were given (see
+/// [`TypedSettings`]).
+pub struct TypedStock {
+    pub text: StockText,
+    given: Vec<&'static str>,
+}
+
+impl TypedStock {
+    /// `work`'s stock settings with the ones given on the command line in their place.
+    pub fn over(&self, work: &StockText) -> StockText {
+        let mut out = work.clone();
+        for flag in &self.given {
+            let t = &self.text;
+            match *flag {
+                "--lead-time" => out.lead_time = t.lead_time.clone(),
+                "--lead-time-sd" => out.lead_time_sd = t.lead_time_sd.clone(),
+                "--review" => out.review_period = t.review_period.clone(),
+                "--service" | "--fill-rate" => {
+                    out.target_kind = t.target_kind;
+                    out.target = t.target.clone();
+                }
+                "--order-quantity" => out.order_quantity = t.order_quantity.clone(),
+                _ => {}
+            }
+        }
+        out
+    }
 }
 
 pub struct StockArgs {
@@ -58,6 +146,9 @@ pub struct StockArgs {
     pub stock: stock::StockSettings,
     /// The stock table's file (`-`: standard input), when given.
     pub table: Option<String>,
+    /// The settings as typed (for a work given as FILE).
+    pub typed: TypedSettings,
+    pub typed_stock: TypedStock,
 }
 
 pub struct ForecastArgs {
@@ -66,6 +157,8 @@ pub struct ForecastArgs {
     pub items: Vec<String>,
     pub json: bool,
     pub settings: PlanSettings,
+    /// The settings as typed (for a work given as FILE).
+    pub typed: TypedSettings,
 }
 
 pub fn parse(argv: &[String]) -> Result<Command, String> {
@@ -97,7 +190,8 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
             Ok(Command::Inspect { file, json })
         }
         "forecast" => parse_forecast(rest).map(Command::Forecast),
-        "stock" => parse_stock(rest).map(Command::Stock),
+        "stock" => parse_stock("stock", rest, &mut |_, _| Ok(false)).map(Command::Stock),
+        "link" | "work" => parse_link(sub, rest).map(Command::Link),
         other => Err(format!("unknown command \"{other}\"")),
     }
 }
@@ -109,10 +203,52 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
         items: parsed.items,
         json: parsed.json,
         settings: parsed.settings,
+        typed: parsed.typed,
     })
 }
 
-fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
+fn parse_link(command: &str, rest: &[String]) -> Result<LinkArgs, String> {
+    let written = if command == "link" {
+        Written::Link
+    } else {
+        Written::WorkFile
+    };
+    let mut page = None;
+    let stock = parse_stock(command, rest, &mut |flag, value| {
+        if flag == "--page" && written == Written::Link {
+            page = Some(value.to_string());
+            return Ok(true);
+        }
+        Ok(false)
+    })?;
+    if stock.json {
+        return Err(format!(
+            "{command} does not take --json: it writes JSON of its own"
+        ));
+    }
+    if stock.items.len() > 1 {
+        return Err(format!(
+            "{command} takes one --item: the item the page opens"
+        ));
+    }
+    let page = page.unwrap_or_else(|| DEFAULT_PAGE.to_string());
+    if page.contains('#') {
+        return Err(format!(
+            "--page takes the page's address without a fragment; found \"{page}\""
+        ));
+    }
+    Ok(LinkArgs {
+        written,
+        page,
+        stock,
+    })
+}
+
+fn parse_stock(
+    command: &str,
+    rest: &[String],
+    more: &mut dyn FnMut(&str, &str) -> Result<bool, String>,
+) -> Result<StockArgs, String> {
     let mut lead_time = "1".to_string();
     let mut lead_time_sd = None;
     let mut review = None;
@@ -120,7 +256,7 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
     let mut fill_rate = None;
     let mut order_quantity = None;
     let mut table = None;
-    let parsed = parse_item_command("stock", rest, &mut |flag, value| {
+    let parsed = parse_item_command(command, rest, &mut |flag, value| {
         let slot = match flag {
             "--lead-time" => {
                 lead_time = value.to_string();
@@ -132,11 +268,29 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
             "--fill-rate" => &mut fill_rate,
             "--order-quantity" => &mut order_quantity,
             "--stock" => &mut table,
-            _ => return Ok(false),
+            _ => return more(flag, value),
         };
         *slot = Some(value.to_string());
         Ok(true)
     })?;
+    let typed_stock = TypedStock {
+        text: StockText {
+            lead_time: lead_time.clone(),
+            lead_time_sd: lead_time_sd.clone().unwrap_or_default(),
+            review_period: review.clone().unwrap_or_default(),
+            target_kind: if fill_rate.is_some() {
+                TargetKind::FillRate
+            } else {
+                TargetKind::CycleService
+            },
+            target: fill_rate
+                .clone()
+                .or_else(|| service.clone())
+                .unwrap_or_else(|| "95".into()),
+            order_quantity: order_quantity.clone().unwrap_or_default(),
+        },
+        given: parsed.given_stock.clone(),
+    };
     let whole = |flag: &str, text: &str| -> Result<usize, String> {
         text.trim()
             .parse::<usize>()
@@ -176,15 +330,7 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
             .with_order_quantity(number("--order-quantity", &q)?)
             .map_err(|e| e.to_string())?;
     }
-    let periods = stock.protection_periods();
-    if let Some(h) = parsed.settings.horizon() {
-        if h < periods {
-            return Err(format!(
-                "--horizon {h} is shorter than the protection interval of {periods} periods \
-                 (lead time plus review period): give at least {periods}, or leave it automatic"
-            ));
-        }
-    }
+    check_horizon(&parsed.settings, &stock)?;
     Ok(StockArgs {
         file: parsed.file,
         items: parsed.items,
@@ -192,7 +338,21 @@ fn parse_stock(rest: &[String]) -> Result<StockArgs, String> {
         settings: parsed.settings,
         stock,
         table,
+        typed: parsed.typed,
+        typed_stock,
     })
+}
+
+/// A fixed horizon must cover the Stock plan's protection interval.
+pub fn check_horizon(settings: &PlanSettings, stock: &stock::StockSettings) -> Result<(), String> {
+    let periods = stock.protection_periods();
+    match settings.horizon() {
+        Some(h) if h < periods => Err(format!(
+            "--horizon {h} is shorter than the protection interval of {periods} periods \
+             (lead time plus review period): give at least {periods}, or leave it automatic"
+        )),
+        _ => Ok(()),
+    }
 }
 
 /// What the item commands share.
@@ -201,6 +361,9 @@ struct ItemCommand {
     items: Vec<String>,
     json: bool,
     settings: PlanSettings,
+    typed: TypedSettings,
+    /// The stock flags given (the rest of `seen`, for [`TypedStock`]).
+    given_stock: Vec<&'static str>,
 }
 
 /// Parses FILE, --item, --json and the plan's settings of `command`; `extra` is offered every
@@ -290,10 +453,26 @@ fn parse_item_command(
             .collect::<Vec<_>>()
             .join("; ")
     })?;
+    let given_stock = [
+        "--lead-time",
+        "--lead-time-sd",
+        "--review",
+        "--service",
+        "--fill-rate",
+        "--order-quantity",
+    ]
+    .into_iter()
+    .filter(|f| seen.contains(f))
+    .collect();
     Ok(ItemCommand {
         file,
         items,
         json,
         settings,
+        typed: TypedSettings {
+            text,
+            given: seen.iter().map(|f| f.to_string()).collect(),
+        },
+        given_stock,
     })
 }

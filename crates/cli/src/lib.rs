@@ -17,9 +17,12 @@ pub mod wire;
 use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
+use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::stock::StockSettings;
 use morrowcast_engine::{demo, intake, order, plan, series};
+use morrowcast_work::{SourcedText, Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
 
-use args::{Command, ForecastArgs, StockArgs};
+use args::{Command, ForecastArgs, LinkArgs, StockArgs, Written};
 use wire::{
     FailedJson, ForecastJson, InspectJson, PlanJson, StockItemJson, StockTableJson, Streamed,
 };
@@ -49,38 +52,215 @@ pub fn run(
             console.out(&demo::demo_csv());
             0
         }
-        Command::Inspect { file, json } => match read_input(&file, stdin) {
-            Ok(bytes) => inspect(&mut console, &intake::read_bytes(&bytes), json),
+        Command::Inspect { file, json } => match read_any(&file, stdin) {
+            Ok(input) => inspect(&mut console, input.report(), json),
             Err(message) => console.fail_input(&message),
         },
-        Command::Forecast(fa) => match read_input(&fa.file, stdin) {
-            Ok(bytes) => forecast(&mut console, &intake::read_bytes(&bytes), &fa),
-            Err(message) => console.fail_input(&message),
-        },
-        Command::Stock(sa) => {
-            if sa.file == "-" && sa.table.as_deref() == Some("-") {
-                return console.fail_input(
-                    "FILE and --stock TABLE cannot both be standard input: name one as a file",
-                );
-            }
-            let table = match &sa.table {
-                Some(path) => match read_input(path, stdin) {
-                    Ok(bytes) => Some(intake::read_stock_table(&bytes)),
+        Command::Forecast(fa) => match read_any(&fa.file, stdin) {
+            Ok(input) => {
+                let settings = match input.settings(&fa.typed, &fa.settings) {
+                    Ok(s) => s,
                     Err(message) => return console.fail_input(&message),
-                },
-                None => None,
+                };
+                forecast(&mut console, &input, &settings, &fa)
+            }
+            Err(message) => console.fail_input(&message),
+        },
+        Command::Stock(sa) => match stock_inputs(&sa, stdin) {
+            Ok((input, table, settings, stock_settings)) => stock(
+                &mut console,
+                &input,
+                table.as_ref(),
+                (&settings, &stock_settings),
+                &sa,
+            ),
+            Err(message) => console.fail_input(&message),
+        },
+        Command::Link(la) => link(&mut console, &la, stdin),
+    }
+}
+
+/// What FILE held: a sales history (its report and text), or a work (a work file or a share
+/// link, FILE itself or its content) with its data, settings, stock inputs and item changes.
+enum Input {
+    History(intake::IntakeReport, String),
+    Work(Box<Work>, intake::IntakeReport),
+}
+
+impl Input {
+    fn report(&self) -> &intake::IntakeReport {
+        match self {
+            Input::History(r, _) | Input::Work(_, r) => r,
+        }
+    }
+
+    fn work(&self) -> Option<&Work> {
+        match self {
+            Input::Work(w, _) => Some(w),
+            Input::History(..) => None,
+        }
+    }
+
+    /// The plan settings: the command line's, or the work's with the given options on top.
+    fn settings(
+        &self,
+        typed: &args::TypedSettings,
+        checked: &PlanSettings,
+    ) -> Result<PlanSettings, String> {
+        match self.work() {
+            None => Ok(checked.clone()),
+            Some(w) => PlanSettings::from_text(&typed.over(&w.settings)).map_err(|errors| {
+                let all: Vec<String> = errors.iter().map(|e| e.to_string()).collect();
+                format!("the work's settings: {}", all.join("; "))
+            }),
+        }
+    }
+
+    /// The item's own settings, over the file's, when the work changes them.
+    fn item_settings(&self, name: &str, file: &PlanSettings) -> Option<PlanSettings> {
+        self.work()?.changes.get(name)?.plan_settings(file)
+    }
+
+    /// The item's stock-table row with the work's change for it applied.
+    fn item_row(&self, name: &str, table: Option<&intake::StockTable>) -> Option<intake::StockRow> {
+        let row = table.and_then(|t| t.row(name));
+        match self.work().and_then(|w| w.changes.get(name)) {
+            Some(change) => change.apply(name, row),
+            None => row.cloned(),
+        }
+    }
+}
+
+/// Reads FILE: a share link given as the argument itself (when no file has that name), or a
+/// file or standard input holding a work file, a share link or a history.
+fn read_any(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
+    let text = if file != "-" && !std::path::Path::new(file).exists() && Work::is_work(file) {
+        file.to_string()
+    } else {
+        let bytes = read_input(file, stdin)?;
+        let text = intake::decode_bytes(&bytes);
+        if !Work::is_work(&text) {
+            return Ok(Input::History(intake::read_bytes(&bytes), text));
+        }
+        text
+    };
+    let work = Work::read(&text).map_err(|e| e.to_string())?;
+    let report = intake::read(&work.history.text);
+    Ok(Input::Work(Box::new(work), report))
+}
+
+/// A stock table as read, with its text (for a work).
+type Table = (intake::StockTable, SourcedText);
+
+/// FILE, the stock table and the settings of `stock` (and of `link`, `work`): a work's own
+/// stock table and settings unless the command line gives them.
+fn stock_inputs(
+    sa: &StockArgs,
+    stdin: &mut dyn Read,
+) -> Result<(Input, Option<Table>, PlanSettings, StockSettings), String> {
+    if sa.file == "-" && sa.table.as_deref() == Some("-") {
+        return Err(
+            "FILE and --stock TABLE cannot both be standard input: name one as a file".into(),
+        );
+    }
+    let table = match &sa.table {
+        Some(path) => {
+            let bytes = read_input(path, stdin)?;
+            let text = SourcedText {
+                text: intake::decode_bytes(&bytes),
+                source: source_name(path),
             };
-            match read_input(&sa.file, stdin) {
-                Ok(bytes) => stock(
-                    &mut console,
-                    &intake::read_bytes(&bytes),
-                    table.as_ref(),
-                    &sa,
-                ),
-                Err(message) => console.fail_input(&message),
+            Some((intake::read_stock_table(&bytes), text))
+        }
+        None => None,
+    };
+    let input = read_any(&sa.file, stdin)?;
+    let settings = input.settings(&sa.typed, &sa.settings)?;
+    let Some(work) = input.work() else {
+        return Ok((input, table, settings, sa.stock.clone()));
+    };
+    let stock_settings = sa.typed_stock.over(&work.stock).check().map_err(|errors| {
+        let all: Vec<String> = errors.into_iter().map(|e| e.message).collect();
+        format!("the work's stock settings: {}", all.join("; "))
+    })?;
+    args::check_horizon(&settings, &stock_settings)?;
+    let table = table.or_else(|| {
+        work.stock_table
+            .as_ref()
+            .map(|t| (intake::read_stock_table(t.text.as_bytes()), t.clone()))
+    });
+    Ok((input, table, settings, stock_settings))
+}
+
+/// A file's name as a work names its source (never the folders it sits in).
+fn source_name(path: &str) -> String {
+    if path == "-" {
+        return "standard input".into();
+    }
+    std::path::Path::new(path)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| path.to_string())
+}
+
+/// `link` and `work`: the work FILE gives, or a history with the options given, written as a
+/// share link or a work file. Refused while the history or the stock table has bad cells or
+/// a setting does not pass, so a link never carries a desk that shows no figures.
+fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
+    let sa = &la.stock;
+    let (input, table, _, _) = match stock_inputs(sa, stdin) {
+        Ok(found) => found,
+        Err(message) => return console.fail_input(&message),
+    };
+    let report = input.report();
+    if report.has_errors() {
+        console.err(&table::intake_report(report));
+        return 2;
+    }
+    if let Some((t, _)) = table.as_ref().filter(|(t, _)| !t.errors.is_empty()) {
+        console.err(&table::stock_table_errors(t));
+        return 2;
+    }
+    let open = sa.items.first().cloned();
+    if let Some(name) = &open {
+        if !report.items.iter().any(|i| &i.name == name) {
+            return console.fail_input(&format!(
+                "--item: no item named {} in the file",
+                table::quoted(name)
+            ));
+        }
+    }
+    let mut work = match input {
+        Input::Work(w, _) => *w,
+        Input::History(_, text) => Work::of_history(text, source_name(&sa.file)),
+    };
+    work.settings = sa.typed.over(&work.settings);
+    work.stock = sa.typed_stock.over(&work.stock);
+    work.stock_table = table.map(|(_, t)| t);
+    work.open_item = open.or(work.open_item);
+    match la.written {
+        Written::WorkFile => console.out(&format!("{}\n", work.to_file_text())),
+        Written::Link => {
+            let link = format!("{}{}", la.page, work.to_fragment());
+            console.out(&format!("{link}\n"));
+            console.err(
+                "note: the link carries the data itself: whoever has the link has the data.\n",
+            );
+            let length = link.len();
+            if length > LINK_KEPT_BY_BROWSERS {
+                console.err(&format!(
+                    "note: the link is {length} characters long; browsers and chat programs may \
+                     cut links this long: hand over a work file instead (morrowcast work)\n"
+                ));
+            } else if length > LINK_KEPT_BY_MAIL {
+                console.err(&format!(
+                    "note: the link is {length} characters long; mail programs may cut links \
+                     past about {LINK_KEPT_BY_MAIL} characters\n"
+                ));
             }
         }
     }
+    0
 }
 
 /// Standard output and error. A closed pipe (e.g. `| head`) is not an error: the rest of the
@@ -151,7 +331,12 @@ fn inspect(console: &mut Console<'_>, report: &intake::IntakeReport, json: bool)
     }
 }
 
-fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &ForecastArgs) -> u8 {
+fn forecast(
+    console: &mut Console<'_>,
+    input: &Input,
+    settings: &PlanSettings,
+    fa: &ForecastArgs,
+) -> u8 {
     let run = ItemRun {
         names: &fa.items,
         json: fa.json,
@@ -160,8 +345,11 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
     };
     run.go(
         console,
-        report,
-        |s| plan::plan_item(s, &fa.settings).map_err(|e| e.to_string()),
+        input.report(),
+        |s| {
+            let own = input.item_settings(s.name(), settings);
+            plan::plan_item(s, own.as_ref().unwrap_or(settings)).map_err(|e| e.to_string())
+        },
         |p| PlanJson::from(p),
         table::plan,
     )
@@ -169,10 +357,13 @@ fn forecast(console: &mut Console<'_>, report: &intake::IntakeReport, fa: &Forec
 
 fn stock(
     console: &mut Console<'_>,
-    report: &intake::IntakeReport,
-    table: Option<&intake::StockTable>,
+    input: &Input,
+    table: Option<&Table>,
+    (settings, stock_settings): (&PlanSettings, &StockSettings),
     sa: &StockArgs,
 ) -> u8 {
+    let report = input.report();
+    let table = table.map(|(t, _)| t);
     let mut warnings = Vec::new();
     if let Some(table) = table {
         if !table.errors.is_empty() {
@@ -197,17 +388,25 @@ fn stock(
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
-        header: Some(table::stock_header(&sa.stock, table.is_some())),
+        header: Some(table::stock_header(stock_settings, table.is_some())),
         warnings,
     };
     run.go(
         console,
         report,
         |s| {
-            let row = table.and_then(|t| t.row(s.name()));
-            order::plan_order(s, &sa.settings, &sa.stock, row, table.is_some())
-                .map(|o| (o.plan, o.stock, o.alerts))
-                .map_err(|e| e.to_string())
+            let row = input.item_row(s.name(), table);
+            let own = input.item_settings(s.name(), settings);
+            let plan_settings = own.as_ref().unwrap_or(settings);
+            order::plan_order(
+                s,
+                plan_settings,
+                stock_settings,
+                row.as_ref(),
+                table.is_some(),
+            )
+            .map(|o| (o.plan, o.stock, o.alerts))
+            .map_err(|e| e.to_string())
         },
         |(plan, stock, alerts)| StockItemJson::new(plan, stock, alerts),
         |(plan, stock, alerts)| table::stock(plan, stock, alerts),

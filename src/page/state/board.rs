@@ -31,6 +31,8 @@ pub struct BoardState {
     /// The stock table's text (empty: none given), and its reading.
     pub table_text: RwSignal<String>,
     pub table: Memo<Option<StockTable>>,
+    /// Where the stock table came from (a file name, "pasted text", "none given").
+    pub table_source: RwSignal<String>,
     /// The board's own changes per item name.
     pub changes: RwSignal<BTreeMap<String, ItemChange>>,
     /// One place per item of the file, filled as rows come.
@@ -63,6 +65,7 @@ impl BoardState {
         let table = Memo::new(move |_| {
             table_text.with(|t| (!t.trim().is_empty()).then(|| read_stock_table(t.as_bytes())))
         });
+        let table_source = RwSignal::new(super::NO_TABLE.to_string());
         let rows = RwSignal::new(Vec::<Option<BoardRow>>::new());
         let planned = RwSignal::new(0usize);
         let total = RwSignal::new(0usize);
@@ -246,6 +249,7 @@ impl BoardState {
             table_text,
             table,
             changes,
+            table_source,
             rows,
             planned,
             total,

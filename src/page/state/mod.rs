@@ -1,7 +1,8 @@
 //! The page's state, in three parts handed around by context: [`IntakeState`] (the Intake text
 //! and what the engine read from it), [`PlanState`] (the settings form and the plans the
 //! worker computes for the open item) and [`BoardState`] (the Stock plan's settings and every
-//! item's row, from the worker pool), plus the page-wide [`Resized`] tick charts redraw on.
+//! item's row, from the worker pool), with [`WorkState`] over all three (the whole desk as
+//! one work, for share links and work files), plus the page-wide [`Resized`] tick charts redraw on.
 //!
 //! Kept apart from: how the state is shown (panels, results) and the worker's messages
 //! (courier.rs). The page reads Intake itself up to 200 KB (the report shows as you type;
@@ -11,10 +12,12 @@
 mod board;
 mod intake;
 mod plan;
+mod work;
 
 pub use board::BoardState;
 pub use intake::{IntakeState, DEMO_SOURCE, LARGE_TEXT};
 pub use plan::PlanState;
+pub use work::{WorkNotice, WorkState, NO_TABLE};
 
 use leptos::prelude::RwSignal;
 

@@ -1,0 +1,86 @@
+//! Share and keep: the share link (made on request, shown selectable with its length, a copy
+//! button and what its length risks) and the work file (saved on request; opened through
+//! Intake like any file).
+//!
+//! Kept apart from: what a work holds and how it is written (state/work.rs, crates/work).
+//! A link is made only when asked for: it carries the data, so the page never puts one
+//! anywhere by itself.
+
+use leptos::prelude::*;
+
+use super::browser;
+use super::state::{BoardState, IntakeState, PlanState, WorkState};
+use super::words::link_length_advice;
+
+/// The work file's name: the data's source and the date.
+fn work_file_name(source: &str) -> String {
+    super::export::file_name(source, "work", &browser::today(), "json")
+}
+
+#[component]
+pub fn SharePanel() -> impl IntoView {
+    let work = expect_context::<WorkState>();
+    let intake = expect_context::<IntakeState>();
+    let plan = expect_context::<PlanState>();
+    let board = expect_context::<BoardState>();
+    let link = RwSignal::new(None::<String>);
+    let copied = RwSignal::new(None::<bool>);
+    // A link shown is the desk as it was when made: any change takes it away, so an outdated
+    // link is never copied by mistake.
+    Effect::new(move |first: Option<()>| {
+        intake.text.track();
+        intake.item.track();
+        plan.form.track();
+        board.stock_form.track();
+        board.table_text.track();
+        board.changes.track();
+        if first.is_some() {
+            link.set(None);
+            copied.set(None);
+        }
+    });
+    let make = move |_| {
+        let fragment = work.current().to_fragment();
+        link.set(Some(format!("{}{fragment}", browser::page_address())));
+        copied.set(None);
+    };
+    let copy = move |_| {
+        if let Some(l) = link.get_untracked() {
+            browser::copy_text(&l, move |ok| copied.set(Some(ok)));
+        }
+    };
+    let save = move |_| {
+        let w = work.current();
+        let name = work_file_name(&w.history.source);
+        browser::download_text(&name, "application/json", &w.to_file_text());
+    };
+    view! {
+        <section class="panel share" id="share" aria-labelledby="share-title">
+            <h2 id="share-title">"Share and keep"</h2>
+            <p class="hint">"A share link or a work file carries the whole desk: the data, the settings, the Stock plan's settings and stock table, and each item's own settings. Opened here, on this or any machine, it gives the same plan."</p>
+            <div class="intake-actions">
+                <button type="button" id="make-link" on:click=make>"Make a share link"</button>
+                <button type="button" id="save-work" on:click=save>"Save a work file"</button>
+            </div>
+            {move || link.get().map(|l| {
+                let (size, advice) = link_length_advice(l.len());
+                view! {
+                    <div class="share-link">
+                        <label for="share-link">"Share link " <span id="share-link-length">{format!("({size})")}</span></label>
+                        <textarea id="share-link" rows="3" readonly spellcheck="false" prop:value=l.clone()
+                            on:focus=move |ev| { let t: web_sys::HtmlTextAreaElement = event_target(&ev); t.select(); }></textarea>
+                        <p class="notice" id="share-link-carries">"The link carries your data itself, in the part after the #, which browsers never send to any server: whoever has the link has the data. Hand it only to people who may see it."</p>
+                        {advice.map(|a| view! { <p class="notice" id="share-link-advice" role="status">{a}</p> })}
+                        <button type="button" id="copy-link" on:click=copy>"Copy the link"</button>
+                        <span id="copy-status" role="status">{move || match copied.get() {
+                            Some(true) => "Copied.",
+                            Some(false) => "This browser did not allow copying: select the link above and copy it (Ctrl+C).",
+                            None => "",
+                        }}</span>
+                    </div>
+                }
+            })}
+            <p class="hint">"Open a work file with \u{201c}Open a file\u{2026}\u{201d} in Intake, or drop it there; paste a share link into the Intake box or open it in the browser."</p>
+        </section>
+    }
+}

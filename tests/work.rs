@@ -1,0 +1,430 @@
+//! The work's two written forms (crates/work): a share link and a work file carry the whole
+//! desk and open to the same work; a link cut short or changed is refused, never read as a
+//! different desk; the command line reads them wherever FILE goes and writes them with `link`
+//! and `work`.
+//!
+//! Outside reference: tests/fixtures/work/python-link.txt is work-v1.json packed by Python's
+//! own zlib and base64 (scripts/work_reference.py, Python 3.11.7, zlib 1.2.13; the same
+//! script checked that Python unpacks a link Morrowcast wrote to the file's JSON). work-v1.json
+//! is a version-1 work file kept as written: every later version must still open it.
+
+use std::collections::BTreeMap;
+
+use morrowcast_engine::settings::{Choice, SeasonChoice, SettingsText};
+use morrowcast_engine::stock::{StockText, Target, TargetKind};
+use morrowcast_work::{ItemChange, SourcedText, Work, WorkError};
+
+use crate::support::{cli, table_file};
+
+const FIXTURES: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/work/");
+
+fn fixture(name: &str) -> String {
+    std::fs::read_to_string(format!("{FIXTURES}{name}")).unwrap()
+}
+
+/// What reading a text gives: the work, or the error's kind and message.
+#[derive(Debug, PartialEq)]
+enum Read {
+    Opens(Box<Work>),
+    NotWork,
+    Damaged,
+    Newer(u64),
+    Unreadable(&'static str),
+    BadChange(&'static str, &'static str),
+    TooLarge,
+}
+
+fn check(text: &str, expected: Read) {
+    let got = match Work::read(text) {
+        Ok(w) => Read::Opens(Box::new(w)),
+        Err(WorkError::NotWork) => Read::NotWork,
+        Err(WorkError::Damaged { .. }) => Read::Damaged,
+        Err(WorkError::Newer { version }) => Read::Newer(version),
+        Err(WorkError::TooLarge) => Read::TooLarge,
+        Err(e @ WorkError::Unreadable { .. }) => {
+            // The message names what is wrong: the expected text must be in it.
+            let Read::Unreadable(part) = expected else {
+                panic!("{e}");
+            };
+            assert!(e.to_string().contains(part), "{e}");
+            Read::Unreadable(part)
+        }
+        Err(e @ WorkError::BadChange { .. }) => {
+            let Read::BadChange(item, field) = expected else {
+                panic!("{e}");
+            };
+            let message = e.to_string();
+            assert!(
+                message.contains(item) && message.contains(field),
+                "{message}"
+            );
+            Read::BadChange(item, field)
+        }
+    };
+    assert_eq!(got, expected, "reading {:.80}", text);
+}
+
+/// The desk work-v1.json describes, built by hand.
+fn fixture_work() -> Work {
+    let file: serde_json::Value = serde_json::from_str(&fixture("work-v1.json")).unwrap();
+    let history = file["history"]["text"].as_str().unwrap().to_string();
+    let mut changes = BTreeMap::new();
+    changes.insert(
+        "Frost cloth".to_string(),
+        ItemChange {
+            season: Some(SeasonChoice::Fixed(1)),
+            method: Choice::from_key("ses"),
+            ..ItemChange::default()
+        },
+    );
+    changes.insert(
+        "Trowel".to_string(),
+        ItemChange {
+            lead_time: Some(3),
+            target: Some(Target::FillRate(0.98)),
+            ..ItemChange::default()
+        },
+    );
+    Work {
+        history: SourcedText {
+            text: history,
+            source: "fernhollow-sales.csv".into(),
+        },
+        settings: SettingsText {
+            level: "90".into(),
+            origins: "auto".into(),
+            ..SettingsText::default()
+        },
+        stock: StockText {
+            lead_time: "2".into(),
+            ..StockText::default()
+        },
+        stock_table: Some(SourcedText {
+            text: "item,on_hand,on_order\nSeed packets,60,20\nFrost cloth,15,0\nTrowel,4,6\n"
+                .into(),
+            source: "pasted text".into(),
+        }),
+        changes,
+        open_item: Some("Frost cloth".into()),
+    }
+}
+
+#[test]
+fn a_version_one_file_and_a_link_packed_by_python_open_to_the_same_desk() {
+    let expected = fixture_work();
+    check(
+        &fixture("work-v1.json"),
+        Read::Opens(Box::new(expected.clone())),
+    );
+    let python = fixture("python-link.txt");
+    check(&python, Read::Opens(Box::new(expected.clone())));
+    // The fragment alone, with or without its '#', and broken over lines by a mail program.
+    let fragment = python.split_once('#').unwrap().1.trim();
+    check(fragment, Read::Opens(Box::new(expected.clone())));
+    check(
+        &format!("#{fragment}"),
+        Read::Opens(Box::new(expected.clone())),
+    );
+    let wrapped: String = fragment
+        .as_bytes()
+        .chunks(76)
+        .map(|c| format!("{}\n", std::str::from_utf8(c).unwrap()))
+        .collect();
+    check(&wrapped, Read::Opens(Box::new(expected)));
+}
+
+#[test]
+fn what_morrowcast_writes_opens_to_what_it_wrote() {
+    let work = fixture_work();
+    check(&work.to_file_text(), Read::Opens(Box::new(work.clone())));
+    check(
+        &format!("http://127.0.0.1:8080/{}", work.to_fragment()),
+        Read::Opens(Box::new(work.clone())),
+    );
+    // Every field away from its default: a fill-rate target, typed numbers, a fixed season.
+    let mut other = Work::of_history("a\n1\n2\n".into(), "the demo".into());
+    other.settings = SettingsText {
+        horizon: "7".into(),
+        holdout: "4".into(),
+        season: "none".into(),
+        level: "97,5".into(),
+        tracking_limit: "3.5".into(),
+        origins: "2".into(),
+        band: morrowcast_engine::bands::BandMethod::MadRule,
+        rank_by: morrowcast_engine::backtest::RankBy::Rmse,
+        choice: Choice::Best,
+    };
+    other.stock = StockText {
+        lead_time: "3".into(),
+        lead_time_sd: "0.5".into(),
+        review_period: "2".into(),
+        target_kind: TargetKind::FillRate,
+        target: "98%".into(),
+        order_quantity: String::new(),
+    };
+    other.changes.insert(
+        "a".into(),
+        ItemChange {
+            season: Some(SeasonChoice::Auto),
+            target: Some(Target::CycleService(0.9)),
+            ..ItemChange::default()
+        },
+    );
+    check(&other.to_file_text(), Read::Opens(Box::new(other.clone())));
+    check(&other.to_fragment(), Read::Opens(Box::new(other)));
+}
+
+#[test]
+fn a_link_cut_short_or_changed_is_refused_never_read_as_another_desk() {
+    let python = fixture("python-link.txt");
+    let link = python.trim();
+    let start = link.find("#w1.").unwrap() + 4;
+    // Cut at every place of its data.
+    for end in start..link.len() {
+        check(&link[..end], Read::Damaged);
+    }
+    // One character changed, at places through the data.
+    for at in (start..link.len()).step_by(37) {
+        let mut bytes = link.as_bytes().to_vec();
+        bytes[at] = if bytes[at] == b'A' { b'B' } else { b'A' };
+        let changed = String::from_utf8(bytes).unwrap();
+        let read = Work::read(&changed);
+        assert!(
+            matches!(
+                read,
+                Err(WorkError::Damaged { .. }) | Err(WorkError::Unreadable { .. })
+            ),
+            "a changed character at {at} gave {read:?}"
+        );
+    }
+    // A character no link holds.
+    check(
+        &format!("{}!{}", &link[..start + 10], &link[start + 10..]),
+        Read::NotWork,
+    );
+    check(&format!("{}~", &link[..start + 10]), Read::NotWork);
+}
+
+#[test]
+fn newer_formats_strange_fields_and_bad_changes_are_named() {
+    let file = fixture("work-v1.json");
+    check("#w2.eJwDAAAAAAE", Read::Newer(2));
+    check(
+        &file.replacen("\"morrowcast_work\": 1", "\"morrowcast_work\": 2", 1),
+        Read::Newer(2),
+    );
+    check(
+        &file.replacen("\"open_item\"", "\"opened_item\"", 1),
+        Read::Unreadable("opened_item"),
+    );
+    check(
+        &file.replacen("\"band\": \"horizon\"", "\"band\": \"wide\"", 1),
+        Read::Unreadable("settings.band"),
+    );
+    check(
+        &file.replacen("\"value\": 0.98", "\"value\": 1.5", 1),
+        Read::BadChange("Trowel", "service target"),
+    );
+    check(
+        &file.replacen("\"season\": \"none\"", "\"season\": \"0\"", 1),
+        Read::BadChange("Frost cloth", "season length"),
+    );
+    check(
+        &file.replacen("\"method\": \"ses\"", "\"method\": \"crystal\"", 1),
+        Read::BadChange("Frost cloth", "method"),
+    );
+    check(
+        "{\"morrowcast_work\": \"one\"}",
+        Read::Unreadable("version"),
+    );
+    check("{\"morrowcast_work\": 1,", Read::Unreadable("not JSON"));
+}
+
+#[test]
+fn a_link_that_unpacks_too_far_is_refused() {
+    let huge = vec![b' '; 70_000_000];
+    let packed = miniz_oxide::deflate::compress_to_vec_zlib(&huge, 6);
+    use base64::Engine;
+    let data = base64::engine::general_purpose::URL_SAFE_NO_PAD.encode(packed);
+    check(&format!("#w1.{data}"), Read::TooLarge);
+}
+
+#[test]
+fn histories_are_not_works() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    check(&demo, Read::NotWork);
+    check("item,month,units\nPot #w1.5,2024-01,3\n", Read::NotWork);
+    check(
+        "Pots#w1.abc,2024-01,3\nPots#w1.abc,2024-02,4\n",
+        Read::NotWork,
+    );
+    check("{\"item\": 1}", Read::NotWork);
+    check("", Read::NotWork);
+}
+
+/// The plan JSON of one item, without the time it took.
+fn planned(args: &[&str]) -> serde_json::Value {
+    let run = cli(args, b"");
+    assert_eq!(run.code, 0, "{args:?}: {}", run.stderr);
+    let mut json = run.json();
+    strip_times(&mut json);
+    json
+}
+
+fn strip_times(v: &mut serde_json::Value) {
+    match v {
+        serde_json::Value::Object(map) => {
+            map.remove("compute_ms");
+            map.values_mut().for_each(strip_times);
+        }
+        serde_json::Value::Array(items) => items.iter_mut().for_each(strip_times),
+        _ => {}
+    }
+}
+
+#[test]
+fn the_command_line_plans_a_link_as_the_options_it_carries() {
+    let work = fixture_work();
+    let history = table_file("work-history.csv", &work.history.text);
+    let table = table_file("work-stock.csv", &work.stock_table.as_ref().unwrap().text);
+    let link = fixture("python-link.txt");
+    let file = format!("{FIXTURES}work-v1.json");
+    // Frost cloth has its own season (none) and method (ses); the file's level is 90.
+    let by_options = planned(&[
+        "forecast",
+        &history,
+        "--item",
+        "Frost cloth",
+        "--level",
+        "90",
+        "--origins",
+        "auto",
+        "--season",
+        "none",
+        "--method",
+        "ses",
+        "--json",
+    ]);
+    let file_settings_only = planned(&[
+        "forecast",
+        &history,
+        "--item",
+        "Frost cloth",
+        "--level",
+        "90",
+        "--origins",
+        "auto",
+        "--json",
+    ]);
+    assert_ne!(
+        file_settings_only, by_options,
+        "the item's own settings change its plan"
+    );
+    for given in [link.trim(), file.as_str()] {
+        assert_eq!(
+            planned(&["forecast", given, "--item", "Frost cloth", "--json"]),
+            by_options
+        );
+    }
+    // Trowel has its own lead time (3) and fill rate (98 %) over the file's lead time 2.
+    let stock_by_options = planned(&[
+        "stock",
+        &history,
+        "--stock",
+        &table,
+        "--item",
+        "Trowel",
+        "--level",
+        "90",
+        "--origins",
+        "auto",
+        "--lead-time",
+        "3",
+        "--fill-rate",
+        "0.98",
+        "--json",
+    ]);
+    let stock_by_link = planned(&["stock", link.trim(), "--item", "Trowel", "--json"]);
+    assert_eq!(stock_by_link, stock_by_options);
+    assert_eq!(stock_by_link["items"][0]["lead_time"], 3);
+    // An option given replaces the work's own.
+    let seed = planned(&[
+        "stock",
+        link.trim(),
+        "--item",
+        "Seed packets",
+        "--lead-time",
+        "4",
+        "--json",
+    ]);
+    assert_eq!(seed["items"][0]["lead_time"], 4);
+    // A link written by `link` carries what it was given, and `work` writes the same desk.
+    let made = cli(
+        &[
+            "link",
+            &history,
+            "--stock",
+            &table,
+            "--level",
+            "90",
+            "--origins",
+            "auto",
+            "--lead-time",
+            "2",
+            "--item",
+            "Frost cloth",
+            "--page",
+            "file:///tmp/m.html",
+        ],
+        b"",
+    );
+    assert_eq!(made.code, 0, "{}", made.stderr);
+    assert!(made.text().starts_with("file:///tmp/m.html#w1."));
+    assert!(made.stderr.contains("whoever has the link has the data"));
+    let mut opened = Work::read(&made.text()).unwrap();
+    assert_eq!(opened.history.source, "work-history.csv");
+    assert_eq!(
+        opened.stock_table.as_ref().unwrap().source,
+        "work-stock.csv"
+    );
+    opened.history.source = work.history.source.clone();
+    opened.stock_table = work.stock_table.clone();
+    let mut without_changes = work.clone();
+    without_changes.changes.clear();
+    assert_eq!(opened, without_changes);
+    let written = cli(&["work", made.text().trim()], b"");
+    assert_eq!(written.code, 0, "{}", written.stderr);
+    assert_eq!(
+        Work::read(&written.text()).unwrap(),
+        Work::read(&made.text()).unwrap()
+    );
+}
+
+#[test]
+fn the_command_line_says_why_a_link_does_not_open() {
+    let link = fixture("python-link.txt");
+    let cut = &link.trim()[..link.len() / 2];
+    let run = cli(&["forecast", cut], b"");
+    assert_eq!(run.code, 2);
+    assert!(
+        run.stderr.contains("cut short or damaged"),
+        "{}",
+        run.stderr
+    );
+    let bad_item = cli(&["link", link.trim(), "--item", "Hammock"], b"");
+    assert_eq!(bad_item.code, 2);
+    assert!(
+        bad_item.stderr.contains("\"Hammock\""),
+        "{}",
+        bad_item.stderr
+    );
+    let json = cli(&["link", link.trim(), "--json"], b"");
+    assert_eq!(json.code, 2);
+    // A history with a bad cell makes no link.
+    let run = cli(
+        &["link", "-"],
+        b"month,units\n2024-01,3\n2024-02,x\n2024-03,4\n",
+    );
+    assert_eq!(run.code, 2, "{}", run.stderr);
+    assert!(run.stdout.is_empty());
+}
