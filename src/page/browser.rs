@@ -1,9 +1,9 @@
-//! Browser glue: the panic hook, the tab's own copy of the Intake text, downloads, the date and
+//! Browser glue: the panic hook, the address's fragment, the clipboard, downloads, the date and
 //! performance measures, fault drills, and drawing a chart into a canvas at the screen's pixel
 //! density.
 //!
 //! Kept apart from: the components. Nothing here reaches the network: downloads are local
-//! `blob:` and `data:` links, storage is the tab's sessionStorage.
+//! `blob:` and `data:` links (keeping the work in this browser is keep.rs).
 
 use plotters::prelude::IntoDrawingArea;
 use wasm_bindgen::JsCast;
@@ -11,11 +11,6 @@ use web_sys::{Blob, BlobPropertyBag, HtmlAnchorElement, HtmlCanvasElement, Url};
 
 use crate::chart::canvas::PageCanvas;
 use crate::chart::{Area, ChartError};
-
-/// Key of the Intake text in sessionStorage (kept so a reload after a fault keeps the data).
-const TEXT_KEY: &str = "morrowcast.intake-text";
-/// Key of the name of the Intake text's source ("the demo", a file name, "pasted text").
-const SOURCE_KEY: &str = "morrowcast.intake-source";
 
 /// Shows the page's fault notice (static in index.html, so it exists even when the app does
 /// not) with the panic message; the page itself stays as it was.
@@ -38,37 +33,6 @@ pub fn show_fault(detail: &str) {
     if let Some(el) = doc.get_element_by_id("fault-notice") {
         let _ = el.remove_attribute("hidden");
     }
-}
-
-fn session() -> Option<web_sys::Storage> {
-    web_sys::window().and_then(|w| w.session_storage().ok().flatten())
-}
-
-/// The Intake text and its source kept by this tab, if any.
-pub fn kept_text() -> Option<(String, String)> {
-    let s = session()?;
-    let text = s.get_item(TEXT_KEY).ok().flatten()?;
-    let source = s
-        .get_item(SOURCE_KEY)
-        .ok()
-        .flatten()
-        .unwrap_or_else(|| "pasted text".into());
-    Some((text, source))
-}
-
-/// Keeps the Intake text for this tab; false when it could not be kept (storage full or off).
-/// Then nothing is kept: an older text left behind would come back on a reload as if it were
-/// the current one.
-pub fn keep_text(text: &str, source: &str) -> bool {
-    let Some(s) = session() else {
-        return false;
-    };
-    if s.set_item(TEXT_KEY, text).is_ok() && s.set_item(SOURCE_KEY, source).is_ok() {
-        return true;
-    }
-    let _ = s.remove_item(TEXT_KEY);
-    let _ = s.remove_item(SOURCE_KEY);
-    false
 }
 
 /// Milliseconds from the page's clock.
@@ -166,6 +130,17 @@ pub fn copy_text(text: &str, done: impl FnOnce(bool) + 'static) {
     wasm_bindgen_futures::spawn_local(async move {
         done(wasm_bindgen_futures::JsFuture::from(promise).await.is_ok());
     });
+}
+
+/// The time of day as HH:MM:SS (local time).
+pub fn time_of_day() -> String {
+    let d = js_sys::Date::new_0();
+    format!(
+        "{:02}:{:02}:{:02}",
+        d.get_hours(),
+        d.get_minutes(),
+        d.get_seconds()
+    )
 }
 
 /// Today as YYYY-MM-DD (local time), for file names.

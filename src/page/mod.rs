@@ -20,6 +20,8 @@ mod courier;
 #[cfg(all(test, target_arch = "wasm32"))]
 mod in_browser;
 #[cfg(target_arch = "wasm32")]
+mod keep;
+#[cfg(target_arch = "wasm32")]
 mod panels;
 #[cfg(target_arch = "wasm32")]
 mod pool;

@@ -164,9 +164,6 @@ pub fn IntakePanel() -> impl IntoView {
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>
             </div>
             <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.get()}</span></p>
-            <Show when=move || !state.kept.get()>
-                <p class="notice" id="intake-not-kept" role="status">"This table is too large for this browser to keep for a reload of the tab: it is read and planned, but a reload or a closed tab loses it. Keep the file to open it again."</p>
-            </Show>
             <Show when=move || demo_missing.get()>
                 <p class="notice">"The demo data is not part of this build yet."</p>
             </Show>

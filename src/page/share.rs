@@ -1,6 +1,7 @@
 //! Share and keep: the share link (made on request, shown selectable with its length, a copy
-//! button and what its length risks) and the work file (saved on request; opened through
-//! Intake like any file).
+//! button and what its length risks), the work file (saved on request; opened through
+//! Intake like any file), and whether this browser keeps the work (where, since when, a
+//! control to forget it at once and one not to keep it).
 //!
 //! Kept apart from: what a work holds and how it is written (state/work.rs, crates/work).
 //! A link is made only when asked for: it carries the data, so the page never puts one
@@ -9,7 +10,7 @@
 use leptos::prelude::*;
 
 use super::browser;
-use super::state::{BoardState, IntakeState, PlanState, WorkState};
+use super::state::{BoardState, IntakeState, Keeping, PlanState, WorkState};
 use super::words::link_length_advice;
 
 /// The work file's name: the data's source and the date.
@@ -80,7 +81,42 @@ pub fn SharePanel() -> impl IntoView {
                     </div>
                 }
             })}
+            <KeptHere/>
             <p class="hint">"Open a work file with \u{201c}Open a file\u{2026}\u{201d} in Intake, or drop it there; paste a share link into the Intake box or open it in the browser."</p>
         </section>
+    }
+}
+
+/// Whether this browser keeps the work, with the controls to forget it and not to keep it.
+#[component]
+fn KeptHere() -> impl IntoView {
+    let work = expect_context::<WorkState>();
+    let keeping_on = move || !matches!(work.keeping.get(), Keeping::Off { .. });
+    view! {
+        <div class="kept-here" id="kept-here">
+            <h3>"Kept in this browser"</h3>
+            <p id="kept-status" role="status">{move || match work.keeping.get() {
+                Keeping::Starting => "Looking for the work this browser kept…".to_string(),
+                Keeping::Kept(at) if at.is_empty() => "Keeping this work in this browser…".to_string(),
+                Keeping::Kept(at) => format!("Kept at {at}, in this browser's storage for this page on this machine (it never leaves it): a reload, a closed tab or a restarted browser brings this work back."),
+                Keeping::Off { forgotten: true } => "Forgotten: nothing of this work is kept in this browser now. It stays on this page until you close it.".to_string(),
+                Keeping::Off { forgotten: false } => "Not kept: this work is gone when you close the page. Save a work file to keep it.".to_string(),
+                Keeping::Failed(_) => String::new(),
+            }}</p>
+            {move || match work.keeping.get() {
+                Keeping::Failed(why) => Some(view! {
+                    <p class="notice refused" id="kept-failed" role="alert">{format!(
+                        "This browser would not keep this work ({why}). It stays on this page until you close it; nothing older is kept in its place. Save a work file to keep it."
+                    )}</p>
+                }),
+                _ => None,
+            }}
+            <span class="choice block">
+                <input type="checkbox" id="keep-work" prop:checked=keeping_on
+                    on:change=move |ev| work.set_keeping(event_target_checked(&ev))/>
+                <label for="keep-work">"Keep my work in this browser"</label>
+            </span>
+            <button type="button" id="forget-work" on:click=move |_| work.forget()>"Forget it now"</button>
+        </div>
     }
 }

@@ -1,43 +1,29 @@
 //! The page: masthead, the controls column (Intake, Settings) and the results column
 //! (Look-ahead, Backtest ranking, Error ledger, Pattern view), with the conventions stated.
-//! A share link in the address opens its work at the start.
+//! The first desk is a share link in the address, the work this browser kept, or the demo
+//! (state/work.rs).
 //!
 //! Kept apart from: the state's computation (state/) and each part's contents (panels.rs,
-//! results.rs). Loads the demo on a first visit; a reload keeps the tab's own Intake text.
+//! results.rs).
 
 use leptos::prelude::*;
-use morrowcast_engine::demo;
 
 use super::board_panel::{ItemBoard, ItemStock, StockPanel};
-use super::browser;
 use super::panels::{IntakePanel, SettingsPanel};
 use super::results::{ErrorLedger, Headline, LookAheadPanel, PatternView, Ranking};
 use super::share::SharePanel;
-use super::state::{BoardState, IntakeState, PlanState, Resized, WorkState, DEMO_SOURCE};
+use super::state::{BoardState, IntakeState, PlanState, Resized, WorkState};
 
 #[component]
 pub fn App() -> impl IntoView {
-    let (text, source) =
-        browser::kept_text().unwrap_or_else(|| (demo::demo_csv(), DEMO_SOURCE.to_string()));
-    let intake = IntakeState::new(text, source);
+    // Empty until the start puts the first desk in place (WorkState::start).
+    let intake = IntakeState::new(String::new(), String::new());
     // The board's per-item changes: the detail plans an item as the board does.
     let changes = RwSignal::new(std::collections::BTreeMap::new());
     let state = PlanState::new(intake, changes);
     let board = BoardState::new(intake, state, changes);
     let work = WorkState::new(intake, state, board);
-    // Opened with a share link: its work replaces the start (before any plan is asked for,
-    // since effects run after this). The fragment then leaves the address, so a reload shows
-    // the desk as it is then; a link that cannot be read stays there, said so, and the page
-    // starts as it would without it.
-    if let Some(fragment) = browser::work_fragment() {
-        work.open_text(&fragment, "the share link");
-        if matches!(
-            work.notice.get_untracked(),
-            Some(super::state::WorkNotice::Opened(_))
-        ) {
-            browser::clear_fragment();
-        }
-    }
+    work.start();
     let resized = RwSignal::new(0u32);
     provide_context(intake);
     provide_context(state);
@@ -88,7 +74,7 @@ pub fn App() -> impl IntoView {
                 "error = forecast − demand. A positive error is an over-forecast, a negative one an under-forecast. "
                 "Bias is the running sum of errors; tracking signal = bias ÷ MAD."
             </p>
-            <p>"Morrowcast runs entirely in this browser tab. Closing the tab forgets your data."</p>
+            <p>"Morrowcast runs entirely in this browser. Your work is kept only in this browser on this machine (see Share and keep), never sent anywhere."</p>
         </footer>
     }
 }

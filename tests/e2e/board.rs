@@ -17,7 +17,7 @@ use crate::support::{cli, table_file};
 
 /// Twelve items of four years of months in long layout: seasonal ones at several levels, a
 /// trending one, and a sparse one.
-fn many_items() -> String {
+pub(super) fn many_items() -> String {
     let names = [
         "Seed trays",
         "Garden twine",
@@ -336,39 +336,6 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
     assert_eq!(run.code, 0, "{}", run.stderr);
     compare(&one, &run.json());
     save_screenshot(browser, "board-own-method.png");
-}
-
-/// A table the browser cannot keep for a reload (its session storage full) is said to be so,
-/// and nothing older is left behind to come back on a reload as if it were current.
-#[test]
-fn a_table_too_large_to_keep_is_said_so_and_a_reload_brings_back_nothing_stale() {
-    let Some(page) = open((1366, 900)) else {
-        return;
-    };
-    let (server, browser) = (&page.server, &page.browser);
-    wait_for_item(browser, "Seed packets");
-    let first = "month,Trowel\n2024-01,5\n2024-02,6\n2024-03,5\n2024-04,7\n2024-05,6\n2024-06,8\n";
-    paste(browser, first);
-    wait_for_item(browser, "Trowel");
-    let kept = browser.js("return document.getElementById('intake-not-kept') === null");
-    assert_eq!(kept, json!(true), "a small table is kept");
-    // Fill the tab's storage to its limit (as a very large table would).
-    browser.js(
-        "const block = 'x'.repeat(1 << 19); let i = 0; \
-         try { for (;;) { sessionStorage.setItem('filler' + i, block); i++; } } catch (e) {} \
-         try { for (;;) { sessionStorage.setItem('filler' + i, 'x'.repeat(1024)); i++; } } catch (e) {}",
-    );
-    paste(browser, &many_items());
-    browser.wait_for(
-        "the notice that the table is not kept",
-        "return !!document.getElementById('intake-not-kept')",
-        WAIT,
-    );
-    save_screenshot(browser, "intake-not-kept.png");
-    // A reload: not the older Trowel table, but the demo of a first visit.
-    browser.js("Object.keys(sessionStorage).filter(k => k.startsWith('filler')).forEach(k => sessionStorage.removeItem(k))");
-    browser.goto(&format!("{}/index.html", server.origin));
-    wait_for_item(browser, "Seed packets");
 }
 
 /// A table over 200 KB is read beside the page (its reading worker): the board fills with every

@@ -192,6 +192,25 @@ impl Browser {
         )
     }
 
+    /// Opens a new tab of the same browser and makes it the one commands go to; returns the
+    /// tab it left (for [`Browser::close_tab`]). The new tab has no console watcher.
+    pub fn new_tab(&self) -> String {
+        let left = self.command("GET", "/window", None);
+        let made = self.command("POST", "/window/new", Some(json!({ "type": "tab" })));
+        let handle = made["handle"]
+            .as_str()
+            .expect("a new tab's handle")
+            .to_string();
+        self.command("POST", "/window", Some(json!({ "handle": handle })));
+        left.as_str().expect("the tab's handle").to_string()
+    }
+
+    /// Closes the tab commands go to and goes back to `to`.
+    pub fn close_tab(&self, to: &str) {
+        self.command("DELETE", "/window", None);
+        self.command("POST", "/window", Some(json!({ "handle": to })));
+    }
+
     pub fn goto(&self, url: &str) {
         self.command("POST", "/url", Some(json!({ "url": url })));
     }

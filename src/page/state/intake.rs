@@ -24,9 +24,6 @@ pub struct IntakeState {
     pub item: RwSignal<usize>,
     /// The chosen item's series (what the next plan will be made from), or why there is none.
     pub series: Memo<Option<Result<Series, String>>>,
-    /// False when the text could not be kept for a reload of this tab (too large for the
-    /// browser's session storage, or storage off).
-    pub kept: RwSignal<bool>,
     /// Counts the changes of text (see [`IntakeState::set_text`]).
     version: RwSignal<u64>,
     /// True while a large text is being read in the worker (the report is then empty).
@@ -92,25 +89,22 @@ impl IntakeState {
             report,
             item,
             series,
-            kept: RwSignal::new(true),
             version,
             reading,
         }
     }
 
-    /// Replaces the text as typed or pasted into the box (and keeps it for this tab). This and
+    /// Replaces the text as typed or pasted into the box. This and
     /// [`IntakeState::set_text`] are the only ways the text changes.
     pub fn set_typed(&self, text: String) {
         self.version.update(|v| *v += 1);
-        self.kept.set(browser::keep_text(&text, "pasted text"));
         self.source.set("pasted text".into());
         self.text.set(text);
     }
 
-    /// Replaces the Intake text (and keeps it for this tab); the first item is chosen.
+    /// Replaces the Intake text; the first item is chosen.
     pub fn set_text(&self, text: String, source: &str) {
         self.version.update(|v| *v += 1);
-        self.kept.set(browser::keep_text(&text, source));
         self.source.set(source.to_string());
         self.item.set(0);
         self.text.set(text);

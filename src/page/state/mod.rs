@@ -17,7 +17,7 @@ mod work;
 pub use board::BoardState;
 pub use intake::{IntakeState, DEMO_SOURCE, LARGE_TEXT};
 pub use plan::PlanState;
-pub use work::{WorkNotice, WorkState, NO_TABLE};
+pub use work::{Keeping, WorkNotice, WorkState, NO_TABLE};
 
 use leptos::prelude::RwSignal;
 

@@ -2,13 +2,40 @@
 //! stock table, each item's own changes, the open item) as one value, for the share link and
 //! the work file; opening one puts every part in place at once.
 //!
+//! It also keeps the desk in this browser (keep.rs writes it): every change is written after
+//! a short pause, the history's text only when it changed; the start opens a share link in
+//! the address, else the kept work, else the demo.
+//!
 //! Kept apart from: the written forms and their checks (crates/work, shared with the command
-//! line) and how links and files are offered (share.rs).
+//! line), the browser's storage itself (keep.rs) and how links and files are offered
+//! (share.rs).
+
+use std::time::Duration;
 
 use leptos::prelude::*;
+use leptos::task::spawn_local;
+use morrowcast_engine::demo;
 use morrowcast_work::{SourcedText, Work};
 
-use super::{BoardState, IntakeState, PlanState};
+use super::super::{browser, keep};
+use super::{BoardState, IntakeState, PlanState, DEMO_SOURCE};
+
+/// The pause after the last change before the desk is written (our choice: typing a number
+/// writes once, and a closed tab loses at most this much).
+const WRITE_AFTER: Duration = Duration::from_millis(400);
+
+/// Where the desk stands in this browser's keeping.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Keeping {
+    /// Looking for a kept work at the start.
+    Starting,
+    /// Written at this time of day.
+    Kept(String),
+    /// The user asked not to keep work; `forgotten` when they just had it removed.
+    Off { forgotten: bool },
+    /// The browser refused to keep it (why); anything kept before was removed.
+    Failed(String),
+}
 
 /// What the stock table's source says when none is given.
 pub const NO_TABLE: &str = "none given";
@@ -32,6 +59,12 @@ pub struct WorkState {
     /// The item a work opened on, chosen once Intake's report holds it (a large text is read
     /// in a worker, so its items come later).
     pending_item: RwSignal<Option<String>>,
+    pub keeping: RwSignal<Keeping>,
+    /// Changes of the history's text, and the count when it was last written.
+    text_changes: StoredValue<u64>,
+    text_written: StoredValue<Option<u64>>,
+    /// Changes of the desk; a write waits [`WRITE_AFTER`] and goes only if none followed.
+    desk_changes: StoredValue<u64>,
 }
 
 impl WorkState {
@@ -53,13 +86,159 @@ impl WorkState {
             }
             pending_item.set(None);
         });
-        WorkState {
+        let work = WorkState {
             intake,
             plan,
             board,
             notice: RwSignal::new(None),
             pending_item,
+            keeping: RwSignal::new(Keeping::Starting),
+            text_changes: StoredValue::new(0),
+            text_written: StoredValue::new(None),
+            desk_changes: StoredValue::new(0),
+        };
+        // Syncs this browser's copy (outside the page) with the desk: each change is written
+        // after a pause, once the start has put the first desk in place.
+        Effect::new(move |_| {
+            intake.text.track();
+            work.text_changes.update_value(|n| *n += 1);
+        });
+        Effect::new(move |_| {
+            intake.text.track();
+            intake.source.track();
+            intake.item.track();
+            plan.form.track();
+            board.stock_form.track();
+            board.table_text.track();
+            board.table_source.track();
+            board.changes.track();
+            if matches!(
+                work.keeping.get_untracked(),
+                Keeping::Starting | Keeping::Off { .. }
+            ) {
+                return;
+            }
+            work.desk_changes.update_value(|n| *n += 1);
+            let stamp = work.desk_changes.get_value();
+            set_timeout(
+                move || {
+                    if work.desk_changes.get_value() == stamp {
+                        work.write_now();
+                    }
+                },
+                WRITE_AFTER,
+            );
+        });
+        work
+    }
+
+    /// Puts the first desk in place: a share link in the address, else the work this browser
+    /// kept (unless the user turned keeping off), else the demo. Then keeping starts.
+    pub fn start(&self) {
+        let this = *self;
+        if let Some(fragment) = browser::work_fragment() {
+            self.open_text(&fragment, "the share link");
+            if matches!(self.notice.get_untracked(), Some(WorkNotice::Opened(_))) {
+                browser::clear_fragment();
+                return self.keep_from_now();
+            }
         }
+        if !keep::keeping_allowed() {
+            self.load_demo();
+            self.keeping.set(Keeping::Off { forgotten: false });
+            return;
+        }
+        spawn_local(async move {
+            match keep::read().await {
+                Ok(Some((desk, history))) => match Work::read(&desk) {
+                    Ok(mut kept) => {
+                        kept.history.text = history;
+                        this.open(kept, "the work kept in this browser");
+                        // What was just read is what is kept.
+                        this.text_written
+                            .set_value(Some(this.text_changes.get_value() + 1));
+                    }
+                    Err(e) => {
+                        this.load_demo();
+                        this.notice.set(Some(WorkNotice::Refused(format!(
+                            "The work kept in this browser could not be opened ({e}); the demo is shown instead."
+                        ))));
+                    }
+                },
+                Ok(None) => this.load_demo(),
+                Err(e) => {
+                    this.load_demo();
+                    this.keeping.set(Keeping::Failed(e));
+                    return;
+                }
+            }
+            this.keep_from_now();
+        });
+    }
+
+    fn load_demo(&self) {
+        self.intake.set_text(demo::demo_csv(), DEMO_SOURCE);
+    }
+
+    /// Keeps the desk from now on (the start found its first desk, or the user allowed it).
+    fn keep_from_now(&self) {
+        self.keeping.set(Keeping::Kept(String::new()));
+        self.write_now();
+    }
+
+    /// Writes the desk now (the history's text only when it changed since it was last
+    /// written). A write the browser refuses removes what was kept before, so an older desk
+    /// never comes back on a reload as if it were the current one.
+    fn write_now(&self) {
+        if matches!(self.keeping.get_untracked(), Keeping::Off { .. }) {
+            return;
+        }
+        let this = *self;
+        let mut desk = self.current();
+        let changes = self.text_changes.get_value();
+        let history = (self.text_written.get_value() != Some(changes))
+            .then(|| std::mem::take(&mut desk.history.text));
+        desk.history.text.clear();
+        let desk = desk.to_file_text();
+        spawn_local(async move {
+            match keep::write(desk, history).await {
+                Ok(()) => {
+                    this.text_written.set_value(Some(changes));
+                    if !matches!(this.keeping.get_untracked(), Keeping::Off { .. }) {
+                        this.keeping.set(Keeping::Kept(browser::time_of_day()));
+                    }
+                }
+                Err(why) => {
+                    let _ = keep::forget().await;
+                    this.text_written.set_value(None);
+                    this.keeping.set(Keeping::Failed(why));
+                }
+            }
+        });
+    }
+
+    /// The user's choice: keep this desk in this browser, or not (and then nothing kept stays).
+    pub fn set_keeping(&self, allowed: bool) {
+        keep::allow_keeping(allowed);
+        if allowed {
+            self.text_written.set_value(None);
+            self.keep_from_now();
+        } else {
+            self.forget();
+        }
+    }
+
+    /// Removes what this browser keeps at once and keeps nothing more until allowed again.
+    pub fn forget(&self) {
+        keep::allow_keeping(false);
+        self.keeping.set(Keeping::Off { forgotten: false });
+        let this = *self;
+        spawn_local(async move {
+            match keep::forget().await {
+                Ok(()) => this.keeping.set(Keeping::Off { forgotten: true }),
+                Err(why) => this.keeping.set(Keeping::Failed(why)),
+            }
+        });
     }
 
     /// The desk as it is now.

@@ -1,0 +1,144 @@
+//! Nothing lost: the work kept in this browser (IndexedDB) comes back after a reload and in a
+//! new tab, "Forget it now" removes it at once and stops keeping, and a write the browser
+//! refuses is said so, with nothing older left to come back as if it were current.
+//!
+//! Kept apart from: share links and work files (share.rs).
+
+use serde_json::json;
+
+use super::board::{many_items, set_field, wait_until_planned};
+use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
+use super::webdriver::Browser;
+
+const TROWEL: &str =
+    "month,Trowel\n2024-01,5\n2024-02,6\n2024-03,5\n2024-04,7\n2024-05,6\n2024-06,8\n";
+
+/// Waits until this browser's kept history text is `text` (`None`: nothing kept), read from
+/// IndexedDB by the test.
+fn wait_until_kept(browser: &Browser, text: Option<&str>) {
+    browser.wait_for_args(
+        "the history kept in this browser",
+        "if (!window.__reading) { window.__reading = true; \
+           const r = indexedDB.open('morrowcast'); \
+           r.onsuccess = () => { const db = r.result; \
+             if (!db.objectStoreNames.contains('work')) { window.__reading = false; db.close(); return; } \
+             const g = db.transaction('work').objectStore('work').get('history'); \
+             g.onsuccess = () => { window.__kept = g.result; window.__reading = false; db.close(); }; \
+             g.onerror = () => { window.__reading = false; db.close(); }; }; \
+           r.onerror = () => { window.__reading = false; }; } \
+         return (window.__kept === undefined ? null : window.__kept) === arguments[0];",
+        json!([text]),
+        WAIT,
+    );
+}
+
+fn status(browser: &Browser) -> String {
+    browser
+        .js("return document.getElementById('kept-status').textContent")
+        .as_str()
+        .unwrap_or("")
+        .to_string()
+}
+
+#[test]
+fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let (server, browser) = (&page.server, &page.browser);
+    wait_for_item(browser, "Seed packets");
+    paste(browser, TROWEL);
+    set_field(browser, "level", "90");
+    wait_for_item(browser, "Trowel");
+    wait_until_kept(browser, Some(TROWEL));
+    browser.wait_for(
+        "the kept status",
+        "return document.getElementById('kept-status').textContent.startsWith('Kept at')",
+        WAIT,
+    );
+    // The level is written after a pause: wait for the desk record too.
+    std::thread::sleep(std::time::Duration::from_millis(800));
+    let address = format!("{}/index.html", server.origin);
+
+    // A reload: the same work, said so.
+    browser.goto(&address);
+    wait_for_item(browser, "Trowel");
+    let notice = browser.js("return document.getElementById('work-notice').textContent");
+    assert!(
+        notice
+            .as_str()
+            .unwrap_or("")
+            .starts_with("Opened the work kept in this browser:"),
+        "{notice}"
+    );
+    assert_eq!(
+        browser.js("return document.getElementById('level').value"),
+        json!("90")
+    );
+    browser.js("document.getElementById('kept-here').scrollIntoView()");
+    save_screenshot(browser, "kept-reloaded.png");
+
+    // A new tab of the same browser: the same work.
+    let first = browser.new_tab();
+    browser.goto(&address);
+    wait_for_item(browser, "Trowel");
+    browser.close_tab(&first);
+
+    // Forget it now: removed at once, and not kept again until allowed.
+    browser.js("document.getElementById('forget-work').click()");
+    browser.wait_for(
+        "the work forgotten",
+        "return document.getElementById('kept-status').textContent.startsWith('Forgotten')",
+        WAIT,
+    );
+    assert_eq!(
+        browser.js("return document.getElementById('keep-work').checked"),
+        json!(false)
+    );
+    wait_until_kept(browser, None);
+    browser.goto(&address);
+    wait_for_item(browser, "Seed packets");
+    assert!(
+        status(browser).starts_with("Not kept"),
+        "{}",
+        status(browser)
+    );
+    // Allowed again: the desk is kept from then on.
+    browser.js("document.getElementById('keep-work').click()");
+    let demo = morrowcast_engine::demo::demo_csv();
+    wait_until_kept(browser, Some(&demo));
+}
+
+#[test]
+fn a_write_the_browser_refuses_is_said_and_nothing_older_comes_back() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let (server, browser) = (&page.server, &page.browser);
+    wait_for_item(browser, "Seed packets");
+    paste(browser, TROWEL);
+    wait_for_item(browser, "Trowel");
+    wait_until_kept(browser, Some(TROWEL));
+    // The browser's storage refuses from now on, as when it is full.
+    browser.js("IDBObjectStore.prototype.put = function () { \
+           throw new DOMException('The quota has been exceeded.', 'QuotaExceededError'); };");
+    let text = many_items();
+    paste(browser, &text);
+    wait_until_planned(browser, 12);
+    browser.wait_for(
+        "the notice that the work is not kept",
+        "const n = document.getElementById('kept-failed'); return !!n && n.textContent.includes('QuotaExceededError')",
+        WAIT,
+    );
+    browser.js("document.getElementById('kept-here').scrollIntoView()");
+    save_screenshot(browser, "kept-refused.png");
+    // The data stays on the page; the older Trowel table was removed from the browser.
+    assert_eq!(
+        browser.js("return document.getElementById('intake-text').value.length"),
+        json!(text.len())
+    );
+    wait_until_kept(browser, None);
+    // A reload: not the older Trowel table, but the demo of a first visit.
+    browser.goto(&format!("{}/index.html", server.origin));
+    wait_for_item(browser, "Seed packets");
+}
