@@ -64,5 +64,7 @@ if grep -q 'import init' "$html"; then
   echo "inline-wasm: trunk's loader is still in index.html; update this script" >&2
   exit 1
 fi
+# The same app as one file that runs from disk (dist/morrowcast.html).
+bash "$(dirname "$0")/single-file.sh" "$dir" "$boot" "$app_glue" "$worker_boot" "$worker_glue_name"
 echo "inline-wasm: $(basename "$app_wasm") ($(stat -c %s "$app_wasm") bytes) into $boot ($(stat -c %s "$dir/$boot") bytes);" \
   "the worker's .wasm into $worker_boot ($(stat -c %s "$dir/$worker_boot") bytes)"

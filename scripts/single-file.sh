@@ -6,7 +6,7 @@
 # files (a file's origin is opaque), so everything is inside: the stylesheet, the icon (a
 # data: address), the page's module (its wasm-bindgen glue and boot code, with the .wasm
 # gzip + base64 inside, as scripts/inline-wasm.sh makes it) and the plan worker's module (the
-# same, carried in a data block the page turns into a blob: worker, src/page/courier.rs).
+# same, carried in a data block the page starts as a data: worker, src/page/courier.rs).
 # Its Content-Security-Policy still forbids every connection; the inline script and style are
 # allowed by their SHA-256 hashes only.
 #
@@ -71,6 +71,9 @@ $html =~ s{script-src 'self' 'wasm-unsafe-eval'}{script-src $script_src 'wasm-un
     or die "single-file: index.html's script-src is not as expected\n";
 $html =~ s{style-src 'self'}{style-src $style_src} or die "single-file: style-src not found\n";
 $html =~ s{img-src 'self' data: blob:}{img-src data: blob:} or die "single-file: img-src not found\n";
+# The worker starts from a data: address (a page from disk has an opaque origin, for which
+# Chromium refuses a blob: module worker); it inherits this policy all the same.
+$html =~ s{worker-src blob:}{worker-src data:} or die "single-file: worker-src not found\n";
 my $inside = "<style>$css</style>\n"
     . "<link rel=\"icon\" href=\"data:image/svg+xml;base64,$icon\">\n"
     . "<script type=\"text/x-morrowcast-worker\" id=\"morrowcast-worker-source\">$worker</script>\n"

@@ -44,6 +44,40 @@ pub struct Courier {
     inner: Rc<RefCell<Inner>>,
 }
 
+/// The id of the data block that carries the worker's whole module in the single file
+/// (scripts/single-file.sh): a page opened from disk may load no other file.
+const INLINE_WORKER_ID: &str = "morrowcast-worker-source";
+
+thread_local! {
+    /// The `data:` address of the inline worker's module, made once and kept (every worker of
+    /// the page starts from it).
+    static INLINE_WORKER: std::cell::OnceCell<Option<String>> = const { std::cell::OnceCell::new() };
+}
+
+/// The `data:` address of the worker module the page carries inside itself, when it does.
+///
+/// Why `data:` and not `blob:`: a page opened from disk has an opaque origin, and Chromium
+/// 156 refused a module worker from its `blob:` address ("Refused to cross-origin redirects
+/// of the top-level worker script"). A `data:` worker inherits the page's policy just as a
+/// `blob:` one does (CSP Level 3: local schemes), so `connect-src 'none'` still binds it.
+fn inline_worker() -> Option<String> {
+    INLINE_WORKER.with(|cell| {
+        cell.get_or_init(|| {
+            let doc = web_sys::window()?.document()?;
+            let code = doc.get_element_by_id(INLINE_WORKER_ID)?.text_content()?;
+            let encoded: String = js_sys::encode_uri_component(&code).into();
+            Some(format!("data:text/javascript,{encoded}"))
+        })
+        .clone()
+    })
+}
+
+/// The address a worker starts from: the page's own worker module (the single file), or a
+/// `blob:` module that imports the worker boot module index.html names (the served site).
+fn worker_address() -> Option<String> {
+    inline_worker().or_else(|| worker_blob(&worker_module()?))
+}
+
 /// The worker's boot module as index.html names it, as an absolute address.
 fn worker_module() -> Option<String> {
     let doc = web_sys::window()?.document()?;
@@ -88,8 +122,15 @@ fn module_workers_supported() -> bool {
     let descriptor = js_sys::Object::new();
     let _ = js_sys::Reflect::set(&descriptor, &"get".into(), getter.as_ref());
     let _ = js_sys::Reflect::define_property(&options, &"type".into(), &descriptor);
-    // An empty module: nothing runs, nothing is fetched.
-    if let Some(url) = blob_url("", "text/javascript") {
+    // An empty module: nothing runs, nothing is fetched. The single file starts its workers
+    // from data: addresses (see [`inline_worker`]), the served page from blob: ones.
+    if inline_worker().is_some() {
+        if let Ok(w) =
+            web_sys::Worker::new_with_options("data:text/javascript,", options.unchecked_ref())
+        {
+            w.terminate();
+        }
+    } else if let Some(url) = blob_url("", "text/javascript") {
         if let Ok(w) = web_sys::Worker::new_with_options(&url, options.unchecked_ref()) {
             w.terminate();
         }
@@ -123,7 +164,7 @@ impl NoWorker {
 
 /// Whether the page can start its workers, and why not.
 pub fn can_start_workers() -> Result<(), NoWorker> {
-    if worker_module().is_none() {
+    if worker_module().is_none() && inline_worker().is_none() {
         return Err(NoWorker::NotBuilt);
     }
     if !module_workers_supported() {
@@ -135,7 +176,7 @@ pub fn can_start_workers() -> Result<(), NoWorker> {
 /// Starts one plan worker under the page's policy (see [`worker_blob`]); `news` hears what it
 /// sends. `None` when the page names no worker module.
 pub fn spawn_worker(news: impl Fn(WorkerNews) + 'static) -> Option<WorkerBridge<PlanWorker>> {
-    let path = worker_blob(&worker_module()?)?;
+    let path = worker_address()?;
     Some(
         PlanWorker::spawner()
             .callback(news)

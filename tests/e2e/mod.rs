@@ -27,3 +27,4 @@ mod pick;
 mod progress;
 mod recompute;
 mod share;
+mod single_file;

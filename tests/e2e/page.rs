@@ -104,6 +104,29 @@ pub fn open_at(window: (u32, u32), fragment: &str) -> Option<Page> {
 
 /// Opens the app on a screen of `device_scale` device pixels per CSS pixel (2: HiDPI).
 pub fn open_with(window: (u32, u32), fragment: &str, device_scale: f64) -> Option<Page> {
+    open_address(window, device_scale, &|server, _| {
+        format!("{}/index.html{fragment}", server.origin)
+    })
+}
+
+/// Opens the single file `dist/morrowcast.html` from disk (`file://`), with `fragment`.
+pub fn open_file(window: (u32, u32), fragment: &str) -> Option<Page> {
+    open_address(window, 1.0, &|_, dist| {
+        let file = dist.join("morrowcast.html");
+        assert!(
+            file.exists(),
+            "{} is missing: the build makes it",
+            file.display()
+        );
+        format!("file://{}{fragment}", file.display())
+    })
+}
+
+fn open_address(
+    window: (u32, u32),
+    device_scale: f64,
+    address: &dyn Fn(&StaticServer, &Path) -> String,
+) -> Option<Page> {
     let dist = dist()?;
     // A test that failed while holding the turn leaves nothing behind (its browser is closed).
     let turn = TURN.lock().unwrap_or_else(|e| e.into_inner());
@@ -118,7 +141,7 @@ pub fn open_with(window: (u32, u32), fragment: &str, device_scale: f64) -> Optio
         "Page.addScriptToEvaluateOnNewDocument",
         serde_json::json!({ "source": WATCH_CONSOLE }),
     );
-    browser.goto(&format!("{}/index.html{fragment}", server.origin));
+    browser.goto(&address(&server, &dist));
     Some(Page {
         server,
         browser,

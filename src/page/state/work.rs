@@ -149,7 +149,12 @@ impl WorkState {
             return;
         }
         spawn_local(async move {
-            match keep::read().await {
+            let kept = keep::read().await;
+            // Something was pasted or opened while the kept work was looked for: it stays.
+            if !this.intake.source.get_untracked().is_empty() {
+                return this.keep_from_now();
+            }
+            match kept {
                 Ok(Some((desk, history))) => match Work::read(&desk) {
                     Ok(mut kept) => {
                         kept.history.text = history;

@@ -1,0 +1,106 @@
+//! The single file (dist/morrowcast.html, scripts/single-file.sh) opened from disk: the demo
+//! planned, the Item board filled by its workers, nothing loaded from any other file, the
+//! policy still forbidding every connection, the work kept for a reload; and opened with a
+//! share link's fragment.
+
+use serde_json::json;
+
+use super::board::wait_until_planned;
+use super::page::{forecast_table, open, open_file, save_screenshot, wait_for_item, WAIT};
+use crate::support::cli;
+
+#[test]
+fn the_single_file_runs_from_disk_like_the_served_page() {
+    // The served page's forecast of the demo's first item, to compare with.
+    let served = {
+        let Some(page) = open((1366, 900)) else {
+            return;
+        };
+        wait_for_item(&page.browser, "Seed packets");
+        forecast_table(&page.browser)
+    };
+    let Some(page) = open_file((1366, 900), "") else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    wait_until_planned(browser, 6);
+    assert_eq!(browser.js("return location.protocol"), json!("file:"));
+    assert_eq!(forecast_table(browser), served);
+    // Every resource the page used came from inside it (blob: workers, data: icon).
+    let outside = browser.js(
+        "return performance.getEntriesByType('resource').map(e => e.name).filter(n => !n.startsWith('blob:') && !n.startsWith('data:'))",
+    );
+    assert_eq!(outside, json!([]), "loaded from outside the file");
+    let policy = browser.js(
+        "return document.querySelector('meta[http-equiv=\"Content-Security-Policy\"]').content",
+    );
+    let policy = policy.as_str().unwrap();
+    assert!(
+        policy.contains("connect-src 'none'") && policy.contains("script-src 'sha256-"),
+        "{policy}"
+    );
+    assert!(!policy.contains("'unsafe-inline'"), "{policy}");
+    let kept = browser.wait_for(
+        "the keeping status",
+        "const s = document.getElementById('kept-status'); const f = document.getElementById('kept-failed'); \
+         return (f && f.textContent) || (s && !s.textContent.startsWith('Looking') && !s.textContent.startsWith('Keeping this') && s.textContent) || null",
+        WAIT,
+    );
+    assert!(kept.as_str().unwrap().starts_with("Kept at"), "{kept}");
+    save_screenshot(browser, "single-file.png");
+    // This browser keeps the work of a page from disk too: a reload brings it back.
+    let file = browser.js("return location.href");
+    browser.goto("about:blank");
+    browser.goto(file.as_str().unwrap());
+    wait_for_item(browser, "Seed packets");
+    let notice = browser.js("return document.getElementById('work-notice').textContent");
+    assert!(
+        notice
+            .as_str()
+            .unwrap()
+            .starts_with("Opened the work kept in this browser:"),
+        "{notice}"
+    );
+}
+
+#[test]
+fn the_single_file_opens_a_share_link() {
+    let Some(page) = open_file((1366, 900), "") else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let file = browser.js("return location.href.split('#')[0]");
+    let demo = morrowcast_engine::demo::demo_csv();
+    let made = cli(
+        &[
+            "link",
+            "-",
+            "--item",
+            "Gift card",
+            "--level",
+            "80",
+            "--page",
+            file.as_str().unwrap(),
+        ],
+        demo.as_bytes(),
+    );
+    assert_eq!(made.code, 0, "{}", made.stderr);
+    browser.goto("about:blank");
+    browser.goto(made.text().trim());
+    wait_for_item(browser, "Gift card");
+    let notice = browser.js("return document.getElementById('work-notice').textContent");
+    assert!(
+        notice
+            .as_str()
+            .unwrap()
+            .starts_with("Opened the share link:"),
+        "{notice}"
+    );
+    assert_eq!(
+        browser.js("return document.getElementById('level').value"),
+        json!("80")
+    );
+    wait_until_planned(browser, 6);
+}
