@@ -46,14 +46,30 @@ where
     let resized = expect_context::<Resized>().0;
     let canvas = NodeRef::<Canvas>::new();
     let failure = RwSignal::new(None::<String>);
+    // Counts the draws asked for; a draw runs only if no newer one was asked meanwhile.
+    let asked = StoredValue::new(0u64);
+    // Syncs the canvas (outside Leptos) with the data. Each chart draws in a task of its own
+    // (a timer of 0 ms), so a new plan's five charts do not hold the page for one long task
+    // (measured: 60-100 ms together with the layout they force, on the board's benchmark).
     Effect::new(move |_| {
         resized.track();
         let value = data.get();
+        asked.update_value(|n| *n += 1);
+        let this_draw = asked.get_value();
         if let (Some(el), Some(value)) = (canvas.get(), value) {
-            let result = browser::measured(&format!("morrowcast:draw:{id}"), || {
-                browser::draw_into(&el, |area| draw(area, &value))
-            });
-            failure.set(result.err().map(|e| e.to_string()));
+            set_timeout(
+                move || {
+                    if asked.try_get_value() != Some(this_draw) {
+                        return;
+                    }
+                    let result = browser::measured(&format!("morrowcast:draw:{id}"), || {
+                        browser::draw_into(&el, |area| draw(area, &value))
+                    });
+                    // The chart may have left the page meanwhile (another item, no plan).
+                    let _ = failure.try_set(result.err().map(|e| e.to_string()));
+                },
+                std::time::Duration::ZERO,
+            );
         }
     });
     let text = move || data.with(|d| d.as_ref().map(summary).unwrap_or_default());

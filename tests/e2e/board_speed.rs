@@ -20,7 +20,7 @@ use std::time::Duration;
 use serde_json::json;
 
 use super::board::wait_until_planned_within;
-use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
+use super::page::{open, paste_event, save_screenshot, wait_for_item, WAIT};
 use super::webdriver::Browser;
 
 /// `n` items of 60 months in long layout (invented: a level, a season and noise from a fixed
@@ -103,7 +103,7 @@ fn run(browser: &Browser, n: usize, wait: Duration) {
     if std::env::var("MORROWCAST_HIDE_TEXT").is_ok() {
         browser.js("document.getElementById('intake-text').style.display = 'none'");
     }
-    paste(browser, &text);
+    paste_event(browser, &text);
     wait_until_planned_within(browser, n, wait);
     let t1 = browser.js("return performance.now()").as_f64().unwrap();
     if profiling {

@@ -265,6 +265,22 @@ pub fn paste(browser: &Browser, text: &str) {
     );
 }
 
+/// Pastes `text` into the Intake box as the browser delivers a user's paste: a `paste` event
+/// carrying it (the page may take a large text without the browser putting it in the box).
+pub fn paste_event(browser: &Browser, text: &str) {
+    let taken = browser.js_args(
+        "const t = document.getElementById('intake-text'); t.focus(); t.select(); \
+         const dt = new DataTransfer(); dt.setData('text/plain', arguments[0]); \
+         const ev = new ClipboardEvent('paste', { clipboardData: dt, bubbles: true, cancelable: true }); \
+         return !t.dispatchEvent(ev);",
+        serde_json::json!([text]),
+    );
+    // A paste the page left to the browser: the browser's own insertion, as an input event.
+    if taken != serde_json::json!(true) {
+        paste(browser, text);
+    }
+}
+
 /// Waits until the page shows a plan for the named item and no work is pending.
 pub fn wait_for_item(browser: &Browser, name: &str) {
     browser.wait_for_args(
