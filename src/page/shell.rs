@@ -90,6 +90,7 @@ fn WhatComes() -> impl IntoView {
                 <li><strong>"Backtest ranking: "</strong>"every method that fits the item, scored on the holdout."</li>
                 <li><strong>"Error ledger: "</strong>"the errors period by period and the tracking signal against its limits."</li>
                 <li><strong>"Pattern view: "</strong>"season length, trend and demand class, each with its evidence."</li>
+                <li><strong>"Stock plan: "</strong>"safety stock, reorder point or order-up-to level, and the order today once on hand is given: estimates your own policies and judgement decide on."</li>
             </ul>
         </section>
     }
