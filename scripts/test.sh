@@ -2,7 +2,8 @@
 # Runs every check of the project: formatting, lints (warnings are errors) natively and for the
 # browser build, the release build of the app, and all tests, the browser ones in headless
 # Chromium against that build. Installs what is missing itself (rustup components and target,
-# trunk, wasm-bindgen-cli, binaryen from npm, Debian's chromium and chromium-driver); downloads
+# trunk, wasm-bindgen-cli, binaryen from npm, Debian's chromium, chromium-driver and
+# firefox-esr, geckodriver); downloads
 # only from the package registries. Used by .ci/run and by the README.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -15,6 +16,7 @@ done
 source scripts/tools.sh
 ensure_browser_build_tools
 ensure_chromium
+ensure_firefox
 
 say "cargo fmt --check"
 cargo fmt --all -- --check

@@ -71,6 +71,20 @@ ensure_chromium() {
   fi
 }
 
+# Firefox for the single file's test (tests/e2e/firefox.rs): Debian's firefox-esr, and
+# geckodriver from crates.io (about 2 minutes once).
+GECKODRIVER_VERSION=0.37.1
+ensure_firefox() {
+  if ! command -v firefox-esr >/dev/null 2>&1; then
+    say "installing firefox-esr (Debian)"
+    apt_install firefox-esr
+  fi
+  if ! geckodriver --version 2>/dev/null | grep -q "geckodriver $GECKODRIVER_VERSION"; then
+    say "installing geckodriver $GECKODRIVER_VERSION (about 2 minutes once)"
+    nice cargo install --locked geckodriver --version "$GECKODRIVER_VERSION"
+  fi
+}
+
 ensure_browser_build_tools() {
   ensure_wasm_target
   ensure_trunk

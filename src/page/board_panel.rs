@@ -44,7 +44,7 @@ fn percent(v: f64) -> String {
 
 /// What the page says about every stock figure it shows.
 pub const ESTIMATES_WORDS: &str = "These stock figures are estimates worked out from past demand \
-    and the settings above. They leave out supplier minimums and prices, shelf life, storage \
+    and the Stock plan's settings (lead time, service target, stock table). They leave out supplier minimums and prices, shelf life, storage \
     room, promotions and anything the history does not show. Your own policies, your suppliers' \
     terms and your judgement decide what to order.";
 

@@ -22,6 +22,9 @@ const DATABASE: &str = "morrowcast";
 const STORE: &str = "work";
 const DESK_KEY: &str = "desk";
 const HISTORY_KEY: &str = "history";
+/// The desk a share link replaced, set aside so it can be brought back.
+const ASIDE_DESK_KEY: &str = "desk-before-link";
+const ASIDE_HISTORY_KEY: &str = "history-before-link";
 /// localStorage key of the preference (present with "no": the user asked not to keep work).
 const KEEP_KEY: &str = "morrowcast.keep-work";
 
@@ -167,15 +170,45 @@ pub async fn write(desk: String, history: Option<String>) -> Result<(), String> 
 
 /// The kept desk and history text, if both are there.
 pub async fn read() -> Result<Option<(String, String)>, String> {
+    read_pair(DESK_KEY, HISTORY_KEY).await
+}
+
+async fn read_pair(desk_key: &str, history_key: &str) -> Result<Option<(String, String)>, String> {
     let db = open().await?;
     let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
     let store = tx.object_store(STORE).map_err(|e| message(&e))?;
     let get = |key: &str| store.get(&JsValue::from_str(key)).map_err(|e| message(&e));
-    let (desk, history) = (get(DESK_KEY)?, get(HISTORY_KEY)?);
+    let (desk, history) = (get(desk_key)?, get(history_key)?);
     let desk = settled(&desk).await?.as_string();
     let history = settled(&history).await?.as_string();
     db.close();
     Ok(desk.zip(history))
+}
+
+/// Sets the kept desk aside (before a share link's desk is kept in its place); true when
+/// there was one.
+pub async fn set_aside() -> Result<bool, String> {
+    let Some((desk, history)) = read().await? else {
+        return Ok(false);
+    };
+    let db = open().await?;
+    let tx = db
+        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
+        .map_err(|e| message(&e))?;
+    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+    for (value, key) in [(&desk, ASIDE_DESK_KEY), (&history, ASIDE_HISTORY_KEY)] {
+        store
+            .put_with_key(&JsValue::from_str(value), &JsValue::from_str(key))
+            .map_err(|e| message(&e))?;
+    }
+    let done = committed(&tx).await;
+    db.close();
+    done.map(|()| true)
+}
+
+/// The desk set aside by [`set_aside`], if any.
+pub async fn aside() -> Result<Option<(String, String)>, String> {
+    read_pair(ASIDE_DESK_KEY, ASIDE_HISTORY_KEY).await
 }
 
 /// Removes everything kept.

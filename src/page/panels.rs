@@ -129,6 +129,12 @@ pub fn IntakePanel() -> impl IntoView {
                 WorkNotice::Opened(m) => view! { <p class="notice" id="work-notice" role="status">{m}</p> }.into_any(),
                 WorkNotice::Refused(m) => view! { <p class="notice refused" id="work-notice" role="alert">{m}</p> }.into_any(),
             })}
+            <Show when=move || work.set_aside.get()>
+                <p class="notice" id="set-aside">
+                    "The desk you had in this browser before this link is set aside, not lost. "
+                    <button type="button" class="quiet" id="bring-back" on:click=move |_| work.bring_back()>"Bring back my desk"</button>
+                </p>
+            </Show>
             <div
                 class="drop-zone"
                 class:dragging=move || dragging.get()

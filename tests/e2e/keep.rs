@@ -1,5 +1,6 @@
 //! Nothing lost: the work kept in this browser (IndexedDB) comes back after a reload and in a
-//! new tab, "Forget it now" removes it at once and stops keeping, and a write the browser
+//! new tab, a share link opened sets it aside to be brought back, "Forget it now" removes it
+//! at once and stops keeping, and a write the browser
 //! refuses is said so, with nothing older left to come back as if it were current.
 //!
 //! Kept apart from: share links and work files (share.rs).
@@ -9,6 +10,7 @@ use serde_json::json;
 use super::board::{many_items, set_field, wait_until_planned};
 use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
 use super::webdriver::Browser;
+use crate::support::cli;
 
 const TROWEL: &str =
     "month,Trowel\n2024-01,5\n2024-02,6\n2024-03,5\n2024-04,7\n2024-05,6\n2024-06,8\n";
@@ -84,6 +86,33 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     wait_for_item(browser, "Trowel");
     browser.close_tab(&first);
 
+    // A colleague's share link opens, and the desk kept here is set aside, not lost.
+    let demo = morrowcast_engine::demo::demo_csv();
+    let made = cli(
+        &["link", "-", "--item", "Gift card", "--page", &address],
+        demo.as_bytes(),
+    );
+    assert_eq!(made.code, 0, "{}", made.stderr);
+    browser.goto("about:blank");
+    browser.goto(made.text().trim());
+    wait_for_item(browser, "Gift card");
+    browser.wait_for(
+        "the desk set aside",
+        "return !!document.getElementById('set-aside')",
+        WAIT,
+    );
+    browser.js("document.getElementById('bring-back').click()");
+    wait_for_item(browser, "Trowel");
+    let notice = browser.js("return document.getElementById('work-notice').textContent");
+    assert!(
+        notice
+            .as_str()
+            .unwrap_or("")
+            .starts_with("Opened your desk from before the link:"),
+        "{notice}"
+    );
+    wait_until_kept(browser, Some(TROWEL));
+
     // Forget it now: removed at once, and not kept again until allowed.
     browser.js("document.getElementById('forget-work').click()");
     browser.wait_for(
@@ -105,7 +134,6 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     );
     // Allowed again: the desk is kept from then on.
     browser.js("document.getElementById('keep-work').click()");
-    let demo = morrowcast_engine::demo::demo_csv();
     wait_until_kept(browser, Some(&demo));
 }
 

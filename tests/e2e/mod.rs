@@ -22,6 +22,7 @@ mod demo;
 mod density;
 mod engine_match;
 mod faults;
+mod firefox;
 mod keep;
 mod pick;
 mod progress;

@@ -28,6 +28,11 @@ pub const WAIT: Duration = Duration::from_secs(30);
 /// One browser test at a time.
 static TURN: Mutex<()> = Mutex::new(());
 
+/// This test's turn with the browsers (one browser test at a time).
+pub fn turn() -> MutexGuard<'static, ()> {
+    TURN.lock().unwrap_or_else(|e| e.into_inner())
+}
+
 /// The built app, or `None` (with a note) when it is missing and the run allows a skip.
 pub fn dist() -> Option<PathBuf> {
     let d = Path::new(env!("CARGO_MANIFEST_DIR")).join("dist");

@@ -1,5 +1,6 @@
 //! A minimal W3C WebDriver client for chromedriver: sessions, navigation, scripts, screenshots,
-//! the browser's console log and DevTools commands (chromedriver's own extensions).
+//! the browser's console log and DevTools commands (chromedriver's own extensions); and for
+//! geckodriver (Firefox), the W3C commands alone.
 //! The session and the driver are closed on drop, also when an assertion panics, so no Chromium
 //! is left running.
 
@@ -142,6 +143,43 @@ impl Browser {
             "browserName": "chrome",
             "goog:chromeOptions": {"binary": chromium, "args": args},
             "goog:loggingPrefs": {"browser": "ALL"}
+        }}});
+        let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
+        browser.session = reply["value"]["sessionId"]
+            .as_str()
+            .unwrap_or_else(|| panic!("no session: {reply}"))
+            .to_string();
+        browser
+    }
+
+    /// Starts geckodriver on a free port and opens a headless Firefox session (only the W3C
+    /// commands work there: no console log, no DevTools).
+    pub fn start_firefox(geckodriver: &str, firefox: &str, window: (u32, u32)) -> Browser {
+        let port = free_port();
+        let driver = Command::new(geckodriver)
+            .arg(format!("--port={port}"))
+            .stdout(Stdio::null())
+            .stderr(Stdio::null())
+            .spawn()
+            .expect("start geckodriver");
+        let profile = std::env::temp_dir().join(format!("morrowcast-e2e-firefox-{port}"));
+        let mut browser = Browser {
+            driver,
+            port,
+            session: String::new(),
+            profile,
+        };
+        let deadline = Instant::now() + Duration::from_secs(20);
+        while http(port, "GET", "/status", None).is_err() {
+            assert!(Instant::now() < deadline, "geckodriver did not start");
+            std::thread::sleep(Duration::from_millis(100));
+        }
+        let caps = json!({"capabilities": {"alwaysMatch": {
+            "browserName": "firefox",
+            "moz:firefoxOptions": {
+                "binary": firefox,
+                "args": ["-headless", "-width", window.0.to_string(), "-height", window.1.to_string()]
+            }
         }}});
         let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
         browser.session = reply["value"]["sessionId"]

@@ -60,6 +60,9 @@ pub struct WorkState {
     /// in a worker, so its items come later).
     pending_item: RwSignal<Option<String>>,
     pub keeping: RwSignal<Keeping>,
+    /// True when a share link opened at the start replaced a desk this browser kept, which
+    /// was set aside and can be brought back.
+    pub set_aside: RwSignal<bool>,
     /// Changes of the history's text, and the count when it was last written.
     text_changes: StoredValue<u64>,
     text_written: StoredValue<Option<u64>>,
@@ -93,6 +96,7 @@ impl WorkState {
             notice: RwSignal::new(None),
             pending_item,
             keeping: RwSignal::new(Keeping::Starting),
+            set_aside: RwSignal::new(false),
             text_changes: StoredValue::new(0),
             text_written: StoredValue::new(None),
             desk_changes: StoredValue::new(0),
@@ -140,7 +144,19 @@ impl WorkState {
             self.open_text(&fragment, "the share link");
             if matches!(self.notice.get_untracked(), Some(WorkNotice::Opened(_))) {
                 browser::clear_fragment();
-                return self.keep_from_now();
+                if !keep::keeping_allowed() {
+                    self.keeping.set(Keeping::Off { forgotten: false });
+                    return;
+                }
+                // The desk this browser kept is set aside before the link's is kept in its
+                // place, so opening a colleague's link never loses one's own work.
+                spawn_local(async move {
+                    if let Ok(true) = keep::set_aside().await {
+                        this.set_aside.set(true);
+                    }
+                    this.keep_from_now();
+                });
+                return;
             }
         }
         if !keep::keeping_allowed() {
@@ -178,6 +194,29 @@ impl WorkState {
                 }
             }
             this.keep_from_now();
+        });
+    }
+
+    /// Brings back the desk a share link replaced at the start.
+    pub fn bring_back(&self) {
+        let this = *self;
+        spawn_local(async move {
+            match keep::aside().await {
+                Ok(Some((desk, history))) => match Work::read(&desk) {
+                    Ok(mut before) => {
+                        before.history.text = history;
+                        this.open(before, "your desk from before the link");
+                        this.set_aside.set(false);
+                    }
+                    Err(e) => this.notice.set(Some(WorkNotice::Refused(format!(
+                        "Your desk from before the link could not be opened: {e}."
+                    )))),
+                },
+                Ok(None) => this.set_aside.set(false),
+                Err(why) => this.notice.set(Some(WorkNotice::Refused(format!(
+                    "Your desk from before the link could not be read from this browser: {why}."
+                )))),
+            }
         });
     }
 
