@@ -130,7 +130,7 @@ fn a_version_one_file_and_a_link_packed_by_python_open_to_the_same_desk() {
         .chunks(76)
         .map(|c| format!("{}\n", std::str::from_utf8(c).unwrap()))
         .collect();
-    check(&wrapped, Read::Opens(Box::new(expected)));
+    check(&format!("#{wrapped}"), Read::Opens(Box::new(expected)));
 }
 
 #[test]
@@ -259,6 +259,7 @@ fn histories_are_not_works() {
         Read::NotWork,
     );
     check("{\"item\": 1}", Read::NotWork);
+    check("w1.5\n3\n4\n6\n", Read::NotWork);
     check("", Read::NotWork);
 }
 

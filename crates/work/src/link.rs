@@ -49,14 +49,18 @@ pub fn encode(json: &[u8]) -> String {
 }
 
 /// The encoding number and the data of a link's fragment, when `text` is a share link (an
-/// address with a `#w<n>.` fragment) or a fragment alone (with or without its `#`). Anything
-/// else (a history that happens to hold a `#`, say) is not a link.
+/// address with a `#w<n>.` fragment, its data perhaps broken over lines) or a fragment alone
+/// (with or without its `#`; without it, in one piece). Anything else (a history that happens
+/// to hold a `#` or start with `w1.`, say) is not a link.
 pub fn payload(text: &str) -> Option<(u64, &str)> {
     let text = text.trim();
     let fragment = match text.split_once('#') {
         // An address has no spaces or line ends before its fragment.
         Some((address, fragment)) if !address.contains(char::is_whitespace) => fragment,
         Some(_) => return None,
+        // A fragment alone is one word: a text of several lines without a '#' is a history
+        // (one that starts "w1." say), never a link.
+        None if text.contains(char::is_whitespace) => return None,
         None => text,
     };
     let rest = fragment.strip_prefix(MARK)?;
