@@ -386,6 +386,21 @@ fn a_large_table_is_read_beside_the_page_and_planned_whole() {
     assert_eq!(run.json()["items"].as_array().map(Vec::len), Some(250));
     wait_for_item(browser, "Hedge shears 000");
     save_screenshot(browser, "board-large-table.png");
+    // Its share link would be far too long: the page offers the work file first.
+    browser.js("document.getElementById('make-link').click()");
+    let offer = browser.wait_for(
+        "the work file offered instead of a link",
+        "const n = document.getElementById('share-too-large'); return n ? n.textContent : null",
+        WAIT,
+    );
+    assert!(
+        offer.as_str().unwrap().contains("Save a work file"),
+        "{offer}"
+    );
+    assert_eq!(
+        browser.js("return document.getElementById('share-link')"),
+        json!(null)
+    );
 }
 
 /// Drops a file of `text` named `name` on the stock table's drop zone, as a drag from the
