@@ -17,7 +17,7 @@ use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement, HtmlElement, HtmlInpu
 use super::browser;
 use super::model;
 use super::panels::{IntakePanel, SettingsPanel};
-use super::state::{IntakeState, PlanState, Resized};
+use super::state::{BoardState, IntakeState, PlanState, Resized, WorkState};
 use crate::chart;
 
 wasm_bindgen_test_configure!(run_in_browser);
@@ -58,11 +58,14 @@ fn mount_with<V: IntoView + 'static>(text: &str, view: fn() -> V) -> HtmlElement
     let text = text.to_string();
     let handle = leptos::mount::mount_to(el.clone(), move || {
         let intake = IntakeState::new(text.clone(), "pasted text".into());
+        let changes = RwSignal::new(std::collections::BTreeMap::new());
+        let plan = PlanState::new(intake, changes);
+        let board = BoardState::new(intake, plan, changes);
         provide_context(intake);
-        provide_context(PlanState::new(
-            intake,
-            RwSignal::new(std::collections::BTreeMap::new()),
-        ));
+        provide_context(plan);
+        provide_context(board);
+        // Not started: these tests keep nothing in the browser and read nothing from it.
+        provide_context(WorkState::new(intake, plan, board));
         provide_context(Resized(RwSignal::new(0)));
         view()
     });
