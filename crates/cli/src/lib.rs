@@ -2,14 +2,17 @@
 //!
 //! Kept apart from: all computation (that is the engine, crates/engine) and the process itself
 //! (src/main.rs only hands over its arguments and streams). [`run`] parses the arguments
-//! ([`args`]), reads the input as bytes (the engine decodes and reports them), calls the engine,
-//! and prints a table ([`table`]) or the JSON of [`wire`], the only JSON the project writes.
+//! ([`args`]), reads FILE (input.rs: a history as bytes, which the engine decodes and
+//! reports, or a work file or share link), calls the engine, and prints a table ([`table`]) or
+//! the JSON of [`wire`] (the command line's contract); `link` and `work` write a work through
+//! the work crate, which owns that format.
 //!
 //! Exit codes: 0 success; 2 rejected input or bad arguments; 1 an item could not be planned.
 //! With `--json`, standard output holds JSON whenever the input was read at all, also when it
 //! was rejected (the intake report with its errors).
 
 pub mod args;
+mod input;
 pub mod parallel;
 pub mod table;
 pub mod wire;
@@ -20,7 +23,9 @@ use std::io::{Read, Write};
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::StockSettings;
 use morrowcast_engine::{demo, intake, order, plan, series};
-use morrowcast_work::{SourcedText, Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
+use morrowcast_work::{Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
+
+use input::{read_any, source_name, stock_inputs, Input, Table};
 
 use args::{Command, ForecastArgs, LinkArgs, StockArgs, Written};
 use wire::{
@@ -78,129 +83,6 @@ pub fn run(
         },
         Command::Link(la) => link(&mut console, &la, stdin),
     }
-}
-
-/// What FILE held: a sales history (its report and text), or a work (a work file or a share
-/// link, FILE itself or its content) with its data, settings, stock inputs and item changes.
-enum Input {
-    History(intake::IntakeReport, String),
-    Work(Box<Work>, intake::IntakeReport),
-}
-
-impl Input {
-    fn report(&self) -> &intake::IntakeReport {
-        match self {
-            Input::History(r, _) | Input::Work(_, r) => r,
-        }
-    }
-
-    fn work(&self) -> Option<&Work> {
-        match self {
-            Input::Work(w, _) => Some(w),
-            Input::History(..) => None,
-        }
-    }
-
-    /// The plan settings: the command line's, or the work's with the given options on top.
-    fn settings(
-        &self,
-        typed: &args::TypedSettings,
-        checked: &PlanSettings,
-    ) -> Result<PlanSettings, String> {
-        match self.work() {
-            None => Ok(checked.clone()),
-            Some(w) => PlanSettings::from_text(&typed.over(&w.settings)).map_err(|errors| {
-                let all: Vec<String> = errors.iter().map(|e| e.to_string()).collect();
-                format!("the work's settings: {}", all.join("; "))
-            }),
-        }
-    }
-
-    /// The item's own settings, over the file's, when the work changes them.
-    fn item_settings(&self, name: &str, file: &PlanSettings) -> Option<PlanSettings> {
-        self.work()?.changes.get(name)?.plan_settings(file)
-    }
-
-    /// The item's stock-table row with the work's change for it applied.
-    fn item_row(&self, name: &str, table: Option<&intake::StockTable>) -> Option<intake::StockRow> {
-        let row = table.and_then(|t| t.row(name));
-        match self.work().and_then(|w| w.changes.get(name)) {
-            Some(change) => change.apply(name, row),
-            None => row.cloned(),
-        }
-    }
-}
-
-/// Reads FILE: a share link given as the argument itself (when no file has that name), or a
-/// file or standard input holding a work file, a share link or a history.
-fn read_any(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
-    let text = if file != "-" && !std::path::Path::new(file).exists() && Work::is_work(file) {
-        file.to_string()
-    } else {
-        let bytes = read_input(file, stdin)?;
-        let text = intake::decode_bytes(&bytes);
-        if !Work::is_work(&text) {
-            return Ok(Input::History(intake::read_bytes(&bytes), text));
-        }
-        text
-    };
-    let work = Work::read(&text).map_err(|e| e.to_string())?;
-    let report = intake::read(&work.history.text);
-    Ok(Input::Work(Box::new(work), report))
-}
-
-/// A stock table as read, with its text (for a work).
-type Table = (intake::StockTable, SourcedText);
-
-/// FILE, the stock table and the settings of `stock` (and of `link`, `work`): a work's own
-/// stock table and settings unless the command line gives them.
-fn stock_inputs(
-    sa: &StockArgs,
-    stdin: &mut dyn Read,
-) -> Result<(Input, Option<Table>, PlanSettings, StockSettings), String> {
-    if sa.file == "-" && sa.table.as_deref() == Some("-") {
-        return Err(
-            "FILE and --stock TABLE cannot both be standard input: name one as a file".into(),
-        );
-    }
-    let table = match &sa.table {
-        Some(path) => {
-            let bytes = read_input(path, stdin)?;
-            let text = SourcedText {
-                text: intake::decode_bytes(&bytes),
-                source: source_name(path),
-            };
-            Some((intake::read_stock_table(&bytes), text))
-        }
-        None => None,
-    };
-    let input = read_any(&sa.file, stdin)?;
-    let settings = input.settings(&sa.typed, &sa.settings)?;
-    let Some(work) = input.work() else {
-        return Ok((input, table, settings, sa.stock.clone()));
-    };
-    let stock_settings = sa.typed_stock.over(&work.stock).check().map_err(|errors| {
-        let all: Vec<String> = errors.into_iter().map(|e| e.message).collect();
-        format!("the work's stock settings: {}", all.join("; "))
-    })?;
-    args::check_horizon(&settings, &stock_settings)?;
-    let table = table.or_else(|| {
-        work.stock_table
-            .as_ref()
-            .map(|t| (intake::read_stock_table(t.text.as_bytes()), t.clone()))
-    });
-    Ok((input, table, settings, stock_settings))
-}
-
-/// A file's name as a work names its source (never the folders it sits in).
-fn source_name(path: &str) -> String {
-    if path == "-" {
-        return "standard input".into();
-    }
-    std::path::Path::new(path)
-        .file_name()
-        .map(|n| n.to_string_lossy().into_owned())
-        .unwrap_or_else(|| path.to_string())
 }
 
 /// `link` and `work`: the work FILE gives, or a history with the options given, written as a
@@ -302,19 +184,6 @@ impl Console<'_> {
                 self.err(&format!("morrowcast: could not write JSON: {e}\n"));
             }
         }
-    }
-}
-
-/// Reads a file, or standard input for "-", as bytes (the engine decodes them).
-fn read_input(file: &str, stdin: &mut dyn Read) -> Result<Vec<u8>, String> {
-    if file == "-" {
-        let mut buf = Vec::new();
-        stdin
-            .read_to_end(&mut buf)
-            .map_err(|e| format!("cannot read standard input: {e}"))?;
-        Ok(buf)
-    } else {
-        std::fs::read(file).map_err(|e| format!("cannot read {file}: {e}"))
     }
 }
 

@@ -1,0 +1,156 @@
+//! What FILE holds: a sales history, or a work (a work file or a share link, given as the
+//! argument itself or held in a file or standard input) with its settings, stock inputs and
+//! item changes; and the settings a run uses once the command line's options are laid over a
+//! work's own.
+//!
+//! Kept apart from: what the commands do with it (lib.rs) and the work's format (the work
+//! crate reads it). Files are read as bytes; the engine decodes them.
+
+use std::io::Read;
+
+use morrowcast_engine::intake;
+use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::stock::StockSettings;
+use morrowcast_work::{SourcedText, Work};
+
+use crate::args::{self, StockArgs};
+
+/// What FILE held: a sales history (its report and text), or a work (a work file or a share
+/// link, FILE itself or its content) with its data, settings, stock inputs and item changes.
+pub enum Input {
+    History(intake::IntakeReport, String),
+    Work(Box<Work>, intake::IntakeReport),
+}
+
+impl Input {
+    pub fn report(&self) -> &intake::IntakeReport {
+        match self {
+            Input::History(r, _) | Input::Work(_, r) => r,
+        }
+    }
+
+    pub fn work(&self) -> Option<&Work> {
+        match self {
+            Input::Work(w, _) => Some(w),
+            Input::History(..) => None,
+        }
+    }
+
+    /// The plan settings: the command line's, or the work's with the given options on top.
+    pub fn settings(
+        &self,
+        typed: &args::TypedSettings,
+        checked: &PlanSettings,
+    ) -> Result<PlanSettings, String> {
+        match self.work() {
+            None => Ok(checked.clone()),
+            Some(w) => PlanSettings::from_text(&typed.over(&w.settings)).map_err(|errors| {
+                let all: Vec<String> = errors.iter().map(|e| e.to_string()).collect();
+                format!("the work's settings: {}", all.join("; "))
+            }),
+        }
+    }
+
+    /// The item's own settings, over the file's, when the work changes them.
+    pub fn item_settings(&self, name: &str, file: &PlanSettings) -> Option<PlanSettings> {
+        self.work()?.changes.get(name)?.plan_settings(file)
+    }
+
+    /// The item's stock-table row with the work's change for it applied.
+    pub fn item_row(
+        &self,
+        name: &str,
+        table: Option<&intake::StockTable>,
+    ) -> Option<intake::StockRow> {
+        let row = table.and_then(|t| t.row(name));
+        match self.work().and_then(|w| w.changes.get(name)) {
+            Some(change) => change.apply(name, row),
+            None => row.cloned(),
+        }
+    }
+}
+
+/// Reads FILE: a share link given as the argument itself (when no file has that name), or a
+/// file or standard input holding a work file, a share link or a history.
+pub fn read_any(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
+    let text = if file != "-" && !std::path::Path::new(file).exists() && Work::is_work(file) {
+        file.to_string()
+    } else {
+        let bytes = read_input(file, stdin)?;
+        let text = intake::decode_bytes(&bytes);
+        if !Work::is_work(&text) {
+            return Ok(Input::History(intake::read_bytes(&bytes), text));
+        }
+        text
+    };
+    let work = Work::read(&text).map_err(|e| e.to_string())?;
+    let report = intake::read(&work.history.text);
+    Ok(Input::Work(Box::new(work), report))
+}
+
+/// A stock table as read, with its text (for a work).
+pub type Table = (intake::StockTable, SourcedText);
+
+/// FILE, the stock table and the settings of `stock` (and of `link`, `work`): a work's own
+/// stock table and settings unless the command line gives them.
+pub fn stock_inputs(
+    sa: &StockArgs,
+    stdin: &mut dyn Read,
+) -> Result<(Input, Option<Table>, PlanSettings, StockSettings), String> {
+    if sa.file == "-" && sa.table.as_deref() == Some("-") {
+        return Err(
+            "FILE and --stock TABLE cannot both be standard input: name one as a file".into(),
+        );
+    }
+    let table = match &sa.table {
+        Some(path) => {
+            let bytes = read_input(path, stdin)?;
+            let text = SourcedText {
+                text: intake::decode_bytes(&bytes),
+                source: source_name(path),
+            };
+            Some((intake::read_stock_table(&bytes), text))
+        }
+        None => None,
+    };
+    let input = read_any(&sa.file, stdin)?;
+    let settings = input.settings(&sa.typed, &sa.settings)?;
+    let Some(work) = input.work() else {
+        return Ok((input, table, settings, sa.stock.clone()));
+    };
+    let stock_settings = sa.typed_stock.over(&work.stock).check().map_err(|errors| {
+        let all: Vec<String> = errors.into_iter().map(|e| e.message).collect();
+        format!("the work's stock settings: {}", all.join("; "))
+    })?;
+    args::check_horizon(&settings, &stock_settings)?;
+    let table = table.or_else(|| {
+        work.stock_table
+            .as_ref()
+            .map(|t| (intake::read_stock_table(t.text.as_bytes()), t.clone()))
+    });
+    Ok((input, table, settings, stock_settings))
+}
+
+/// A file's name as a work names its source (never the folders it sits in).
+pub fn source_name(path: &str) -> String {
+    if path == "-" {
+        return "standard input".into();
+    }
+    std::path::Path::new(path)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| path.to_string())
+}
+
+/// Reads a file, or standard input for "-", as bytes (the engine decodes them).
+fn read_input(file: &str, stdin: &mut dyn Read) -> Result<Vec<u8>, String> {
+    if file == "-" {
+        let mut buf = Vec::new();
+        stdin
+            .read_to_end(&mut buf)
+            .map_err(|e| format!("cannot read standard input: {e}"))?;
+        Ok(buf)
+    } else {
+        std::fs::read(file).map_err(|e| format!("cannot read {file}: {e}"))
+    }
+}
