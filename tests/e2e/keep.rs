@@ -17,7 +17,7 @@ const TROWEL: &str =
 
 /// Waits until this browser's kept history text is `text` (`None`: nothing kept), read from
 /// IndexedDB by the test.
-fn wait_until_kept(browser: &Browser, text: Option<&str>) {
+pub(super) fn wait_until_kept(browser: &Browser, text: Option<&str>) {
     browser.wait_for_args(
         "the history kept in this browser",
         "if (!window.__reading) { window.__reading = true; \

@@ -109,14 +109,20 @@ pub fn open_at(window: (u32, u32), fragment: &str) -> Option<Page> {
 
 /// Opens the app on a screen of `device_scale` device pixels per CSS pixel (2: HiDPI).
 pub fn open_with(window: (u32, u32), fragment: &str, device_scale: f64) -> Option<Page> {
-    open_address(window, device_scale, &|server, _| {
+    open_address(window, device_scale, None, &|server, _| {
         format!("{}/index.html{fragment}", server.origin)
     })
 }
 
 /// Opens the single file `dist/morrowcast.html` from disk (`file://`), with `fragment`.
 pub fn open_file(window: (u32, u32), fragment: &str) -> Option<Page> {
-    open_address(window, 1.0, &|_, dist| {
+    open_file_in(window, fragment, None)
+}
+
+/// [`open_file`] in a browser whose profile lives in `profile` and outlives it (`None`: a
+/// fresh one).
+pub fn open_file_in(window: (u32, u32), fragment: &str, profile: Option<&Path>) -> Option<Page> {
+    open_address(window, 1.0, profile, &|_, dist| {
         let file = dist.join("morrowcast.html");
         assert!(
             file.exists(),
@@ -130,17 +136,19 @@ pub fn open_file(window: (u32, u32), fragment: &str) -> Option<Page> {
 fn open_address(
     window: (u32, u32),
     device_scale: f64,
+    profile: Option<&Path>,
     address: &dyn Fn(&StaticServer, &Path) -> String,
 ) -> Option<Page> {
     let dist = dist()?;
     // A test that failed while holding the turn leaves nothing behind (its browser is closed).
     let turn = TURN.lock().unwrap_or_else(|e| e.into_inner());
     let server = StaticServer::start(&dist);
-    let browser = Browser::start(
+    let browser = Browser::start_in(
         &tool("CHROMEDRIVER", "/usr/bin/chromedriver"),
         &tool("CHROMIUM", "/usr/bin/chromium"),
         window,
         device_scale,
+        profile.map(Path::to_path_buf),
     );
     browser.devtools(
         "Page.addScriptToEvaluateOnNewDocument",

@@ -6,7 +6,10 @@
 use serde_json::json;
 
 use super::board::wait_until_planned;
-use super::page::{forecast_table, open, open_file, save_screenshot, wait_for_item, WAIT};
+use super::keep::wait_until_kept;
+use super::page::{
+    forecast_table, open, open_file, open_file_in, paste, save_screenshot, wait_for_item, WAIT,
+};
 use crate::support::cli;
 
 #[test]
@@ -103,4 +106,40 @@ fn the_single_file_opens_a_share_link() {
         json!("80")
     );
     wait_until_planned(browser, 6);
+}
+
+/// The work kept in this browser survives closing the browser and starting it again (the same
+/// profile; the single file, whose address stays the same between runs).
+#[test]
+fn the_work_comes_back_after_the_browser_is_restarted() {
+    let profile =
+        std::env::temp_dir().join(format!("morrowcast-e2e-restart-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&profile);
+    let table = "month,Trowel\n2024-01,5\n2024-02,6\n2024-03,5\n2024-04,7\n2024-05,6\n2024-06,8\n";
+    {
+        let Some(page) = open_file_in((1366, 900), "", Some(&profile)) else {
+            return;
+        };
+        wait_for_item(&page.browser, "Seed packets");
+        paste(&page.browser, table);
+        wait_for_item(&page.browser, "Trowel");
+        wait_until_kept(&page.browser, Some(table));
+    }
+    // The browser is closed (its page dropped); a new one starts on the same profile.
+    std::thread::sleep(std::time::Duration::from_millis(500));
+    let reopened = open_file_in((1366, 900), "", Some(&profile));
+    let page = reopened.expect("the second browser");
+    wait_for_item(&page.browser, "Trowel");
+    let notice = page
+        .browser
+        .js("return document.getElementById('work-notice').textContent");
+    assert!(
+        notice
+            .as_str()
+            .unwrap_or("")
+            .starts_with("Opened the work kept in this browser:"),
+        "{notice}"
+    );
+    drop(page);
+    let _ = std::fs::remove_dir_all(&profile);
 }

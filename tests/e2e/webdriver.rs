@@ -103,16 +103,21 @@ pub struct Browser {
     port: u16,
     session: String,
     profile: std::path::PathBuf,
+    /// Whether the profile outlives the browser (a restart test opens it again).
+    keep_profile: bool,
 }
 
 impl Browser {
     /// Starts chromedriver on a free port and opens a headless Chromium session with a window of
-    /// `window` CSS pixels at `device_scale` device pixels per CSS pixel (2 is a HiDPI screen).
-    pub fn start(
+    /// `window` CSS pixels at `device_scale` device pixels per CSS pixel (2 is a HiDPI screen),
+    /// its profile in `profile`, kept when the browser closes (so a later browser finds what
+    /// this one stored); `None`: a fresh profile, removed on close.
+    pub fn start_in(
         chromedriver: &str,
         chromium: &str,
         window: (u32, u32),
         device_scale: f64,
+        profile: Option<std::path::PathBuf>,
     ) -> Browser {
         let port = free_port();
         let driver = Command::new(chromedriver)
@@ -121,13 +126,16 @@ impl Browser {
             .stderr(Stdio::null())
             .spawn()
             .expect("start chromedriver");
-        let profile = std::env::temp_dir().join(format!("morrowcast-e2e-{port}"));
+        let keep_profile = profile.is_some();
+        let profile =
+            profile.unwrap_or_else(|| std::env::temp_dir().join(format!("morrowcast-e2e-{port}")));
         // Built before anything can fail, so its Drop stops the driver in every case.
         let mut browser = Browser {
             driver,
             port,
             session: String::new(),
             profile,
+            keep_profile,
         };
         let deadline = Instant::now() + Duration::from_secs(20);
         while http(port, "GET", "/status", None).is_err() {
@@ -168,6 +176,7 @@ impl Browser {
             port,
             session: String::new(),
             profile,
+            keep_profile: false,
         };
         let deadline = Instant::now() + Duration::from_secs(20);
         while http(port, "GET", "/status", None).is_err() {
@@ -330,7 +339,9 @@ impl Drop for Browser {
         }
         let _ = self.driver.kill();
         let _ = self.driver.wait();
-        let _ = std::fs::remove_dir_all(&self.profile);
+        if !self.keep_profile {
+            let _ = std::fs::remove_dir_all(&self.profile);
+        }
     }
 }
 
