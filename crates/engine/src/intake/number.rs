@@ -119,8 +119,12 @@ const NOT_FINITE: [&str; 4] = ["inf", "infinity", "nan", "\u{221e}"];
 
 /// Whether a cell stands for "no value": empty, `NA`, `N/A`, `#N/A` or `null` (any case).
 pub(crate) fn is_missing(cell: &str) -> bool {
-    let lower = cell.trim().to_lowercase();
-    matches!(lower.as_str(), "" | "na" | "n/a" | "#n/a" | "null")
+    // ASCII comparison, no lowered copy per cell: no other letter lowers to these words'
+    // letters (the Kelvin sign lowers to "k", which none of them holds).
+    let t = cell.trim();
+    ["", "na", "n/a", "#n/a", "null"]
+        .iter()
+        .any(|w| t.eq_ignore_ascii_case(w))
 }
 
 /// Reads `cell` as a number with decimal mark `mark`; the value is finite and at most
@@ -183,6 +187,11 @@ fn strip_sign(s: &str) -> (bool, &str) {
 }
 
 fn strip_prefix_symbol(s: &str) -> Option<(&'static str, &str)> {
+    // No symbol or code starts with a digit: most cells are plain numbers, and trying every
+    // prefix on each was a quarter of reading a 1,000-item file (measured with perf).
+    if s.starts_with(|c: char| c.is_ascii_digit()) {
+        return None;
+    }
     SYMBOLS
         .iter()
         .chain(CODES.iter())
