@@ -399,6 +399,10 @@ fn SeasonChoices() -> impl IntoView {
                         <span>"Or type another season length under Settings. "</span>
                         <button type="button" class="quiet" id="season-none" on:click=move |_| set("1".into())>"Forecast without a season"</button>
                     }.into_any(),
+                    // Too short to fit any seasonal method: said, and nothing offered.
+                    (None, Some(m)) if p.season.full_seasons < 2 => view! {
+                        <span>{words::rejected_season_hint(m, p.season.full_seasons)}</span>
+                    }.into_any(),
                     (None, Some(m)) => view! {
                         <span>{words::rejected_season_hint(m, p.season.full_seasons)}</span>
                         <button type="button" class="quiet" id="season-try" on:click=move |_| set(m.to_string())>{format!("Use a {m}-period season anyway")}</button>

@@ -93,6 +93,12 @@ pub fn unread_cells_note(count: usize) -> String {
 /// full seasons the test's threshold is high (it grows with the autocorrelation at the shorter
 /// lags, so a clear season can still fall short of it).
 pub fn rejected_season_hint(m: usize, full_seasons: usize) -> String {
+    if full_seasons < 2 {
+        return format!(
+            "A {m}-period season cannot be tried yet: a seasonal method needs at least two full \
+             seasons of history, and this item has {full_seasons}. "
+        );
+    }
     if full_seasons <= 4 {
         format!(
             "The {m}-period season was not accepted; with only {full_seasons} full seasons the test \
@@ -337,6 +343,8 @@ mod tests {
     fn a_rejected_season_on_a_short_history_invites_a_try() {
         assert!(rejected_season_hint(12, 3).contains("only 3 full seasons"));
         assert!(!rejected_season_hint(12, 6).contains("full seasons"));
+        assert!(rejected_season_hint(12, 0).contains("cannot be tried yet"));
+        assert!(rejected_season_hint(12, 1).contains("this item has 1"));
     }
 
     #[test]
