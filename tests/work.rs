@@ -130,7 +130,21 @@ fn a_version_one_file_and_a_link_packed_by_python_open_to_the_same_desk() {
         .chunks(76)
         .map(|c| format!("{}\n", std::str::from_utf8(c).unwrap()))
         .collect();
-    check(&format!("#{wrapped}"), Read::Opens(Box::new(expected)));
+    check(
+        &format!("#{wrapped}"),
+        Read::Opens(Box::new(expected.clone())),
+    );
+    // Quoted in a sentence or a mail: the punctuation around it is not the link's.
+    check(
+        &format!("<{}>.", python.trim()),
+        Read::Opens(Box::new(expected.clone())),
+    );
+    check(
+        &format!("({}),", python.trim()),
+        Read::Opens(Box::new(expected)),
+    );
+    // An encoding Morrowcast never wrote.
+    check(&format!("#w0.{}", &fragment[3..]), Read::Damaged);
 }
 
 #[test]
@@ -171,7 +185,19 @@ fn what_morrowcast_writes_opens_to_what_it_wrote() {
         },
     );
     check(&other.to_file_text(), Read::Opens(Box::new(other.clone())));
-    check(&other.to_fragment(), Read::Opens(Box::new(other)));
+    check(&other.to_fragment(), Read::Opens(Box::new(other.clone())));
+    // Every target typed as a one-decimal percent reads back exactly.
+    for tenth in 500..1000 {
+        let mut w = other.clone();
+        w.changes.insert(
+            "a".into(),
+            ItemChange {
+                target: Some(Target::FillRate(f64::from(tenth) / 1000.0)),
+                ..ItemChange::default()
+            },
+        );
+        check(&w.to_file_text(), Read::Opens(Box::new(w.clone())));
+    }
 }
 
 #[test]
@@ -179,8 +205,10 @@ fn a_link_cut_short_or_changed_is_refused_never_read_as_another_desk() {
     let python = fixture("python-link.txt");
     let link = python.trim();
     let start = link.find("#w1.").unwrap() + 4;
-    // Cut at every place of its data.
-    for end in start..link.len() {
+    // Cut at every place of its data. (Cut right after its mark, "…#w1." is no link at all:
+    // a final dot is taken for the sentence's.)
+    check(&link[..start], Read::NotWork);
+    for end in start + 1..link.len() {
         check(&link[..end], Read::Damaged);
     }
     // One character changed, at places through the data.

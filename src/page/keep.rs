@@ -211,6 +211,24 @@ pub async fn aside() -> Result<Option<(String, String)>, String> {
     read_pair(ASIDE_DESK_KEY, ASIDE_HISTORY_KEY).await
 }
 
+/// Removes the current desk only (a write the browser refused), leaving a desk set aside by
+/// a share link where it is.
+pub async fn forget_current() -> Result<(), String> {
+    let db = open().await?;
+    let tx = db
+        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
+        .map_err(|e| message(&e))?;
+    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+    for key in [DESK_KEY, HISTORY_KEY] {
+        store
+            .delete(&JsValue::from_str(key))
+            .map_err(|e| message(&e))?;
+    }
+    let done = committed(&tx).await;
+    db.close();
+    done
+}
+
 /// Removes everything kept.
 pub async fn forget() -> Result<(), String> {
     let db = open().await?;

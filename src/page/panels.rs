@@ -43,7 +43,10 @@ fn read_file(state: IntakeState, work: WorkState, file: File) {
                 state.set_text(text, &name);
             }
         }
-        None => state.set_text(String::new(), &format!("{name} (could not be read)")),
+        // The desk's text stays as it was: nothing of it is replaced by a failed read.
+        None => work.notice.set(Some(WorkNotice::Refused(format!(
+            "{name} could not be read, so nothing changed: choose it again, or paste its contents."
+        )))),
     });
 }
 
@@ -131,7 +134,7 @@ pub fn IntakePanel() -> impl IntoView {
             })}
             <Show when=move || work.set_aside.get()>
                 <p class="notice" id="set-aside">
-                    "The desk you had in this browser before this link is set aside, not lost. "
+                    "The desk this browser kept before is set aside, not lost. "
                     <button type="button" class="quiet" id="bring-back" on:click=move |_| work.bring_back()>"Bring back my desk"</button>
                 </p>
             </Show>

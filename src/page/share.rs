@@ -114,7 +114,9 @@ pub fn SharePanel() -> impl IntoView {
 #[component]
 fn KeptHere() -> impl IntoView {
     let work = expect_context::<WorkState>();
-    let keeping_on = move || !matches!(work.keeping.get(), Keeping::Off { .. });
+    let keeping_on = move || {
+        matches!(work.keeping.get(), Keeping::Starting) || work.keeping.with(Keeping::writes)
+    };
     view! {
         <div class="kept-here" id="kept-here">
             <h3>"Kept in this browser"</h3>
@@ -125,6 +127,7 @@ fn KeptHere() -> impl IntoView {
                 Keeping::Off { forgotten: true } => "Forgotten: nothing of this work is kept in this browser now. It stays on this page until you close it.".to_string(),
                 Keeping::Off { forgotten: false } => "Not kept: this work is gone when you close the page. Save a work file to keep it.".to_string(),
                 Keeping::Failed(_) => String::new(),
+                Keeping::Held(why) => format!("Not kept now: {why}. Tick the box below to keep this desk in its place."),
             }}</p>
             {move || match work.keeping.get() {
                 Keeping::Failed(why) => Some(view! {

@@ -108,7 +108,7 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
         notice
             .as_str()
             .unwrap_or("")
-            .starts_with("Opened your desk from before the link:"),
+            .starts_with("Opened the desk set aside:"),
         "{notice}"
     );
     wait_until_kept(browser, Some(TROWEL));

@@ -53,7 +53,12 @@ pub fn encode(json: &[u8]) -> String {
 /// (with or without its `#`; without it, in one piece). Anything else (a history that happens
 /// to hold a `#` or start with `w1.`, say) is not a link.
 pub fn payload(text: &str) -> Option<(u64, &str)> {
-    let text = text.trim();
+    // A link quoted in a sentence or a mail keeps the punctuation around it; none of these
+    // characters is in the base64url alphabet, so they are never the link's own.
+    let text = text
+        .trim()
+        .trim_end_matches(['.', ',', ';', ':', ')', ']', '>', '"', '\''])
+        .trim_start_matches(['<', '(', '[', '"', '\'']);
     let fragment = match text.split_once('#') {
         // An address has no spaces or line ends before its fragment.
         Some((address, fragment)) if !address.contains(char::is_whitespace) => fragment,
@@ -77,6 +82,11 @@ pub fn payload(text: &str) -> Option<(u64, &str)> {
 pub fn decode((encoding, data): (u64, &str)) -> Result<String, WorkError> {
     if encoding > ENCODING {
         return Err(WorkError::Newer { version: encoding });
+    }
+    if encoding != ENCODING {
+        return Err(WorkError::Damaged {
+            detail: format!("its mark w{encoding} is not one Morrowcast writes"),
+        });
     }
     // Mail programs break long links into lines: the alphabet has no white space, so any is
     // theirs.

@@ -94,6 +94,13 @@ impl IntakeState {
         }
     }
 
+    /// The text's version: bumped at once by every change of text (see
+    /// [`IntakeState::set_text`]), so a writer can tell whether the text it last wrote is the
+    /// current one.
+    pub fn version(&self) -> u64 {
+        self.version.get_untracked()
+    }
+
     /// Replaces the text as typed or pasted into the box. This and
     /// [`IntakeState::set_text`] are the only ways the text changes.
     pub fn set_typed(&self, text: String) {

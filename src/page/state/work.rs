@@ -35,6 +35,17 @@ pub enum Keeping {
     Off { forgotten: bool },
     /// The browser refused to keep it (why); anything kept before was removed.
     Failed(String),
+    /// Not kept, so that what is kept stays as it is (why): a kept work this Morrowcast cannot
+    /// open, a desk that could not be set aside, a failed "forget". Ticking the box keeps
+    /// this desk in its place.
+    Held(String),
+}
+
+impl Keeping {
+    /// Whether changes are written now (or will be, once the start is done).
+    pub fn writes(&self) -> bool {
+        matches!(self, Keeping::Kept(_) | Keeping::Failed(_))
+    }
 }
 
 /// What the stock table's source says when none is given.
@@ -63,8 +74,7 @@ pub struct WorkState {
     /// True when a share link opened at the start replaced a desk this browser kept, which
     /// was set aside and can be brought back.
     pub set_aside: RwSignal<bool>,
-    /// Changes of the history's text, and the count when it was last written.
-    text_changes: StoredValue<u64>,
+    /// The Intake text's version when the history was last written.
     text_written: StoredValue<Option<u64>>,
     /// Changes of the desk; a write waits [`WRITE_AFTER`] and goes only if none followed.
     desk_changes: StoredValue<u64>,
@@ -97,16 +107,11 @@ impl WorkState {
             pending_item,
             keeping: RwSignal::new(Keeping::Starting),
             set_aside: RwSignal::new(false),
-            text_changes: StoredValue::new(0),
             text_written: StoredValue::new(None),
             desk_changes: StoredValue::new(0),
         };
         // Syncs this browser's copy (outside the page) with the desk: each change is written
         // after a pause, once the start has put the first desk in place.
-        Effect::new(move |_| {
-            intake.text.track();
-            work.text_changes.update_value(|n| *n += 1);
-        });
         Effect::new(move |_| {
             intake.text.track();
             intake.source.track();
@@ -116,10 +121,7 @@ impl WorkState {
             board.table_text.track();
             board.table_source.track();
             board.changes.track();
-            if matches!(
-                work.keeping.get_untracked(),
-                Keeping::Starting | Keeping::Off { .. }
-            ) {
+            if !work.keeping.get_untracked().writes() {
                 return;
             }
             work.desk_changes.update_value(|n| *n += 1);
@@ -140,23 +142,23 @@ impl WorkState {
     /// kept (unless the user turned keeping off), else the demo. Then keeping starts.
     pub fn start(&self) {
         let this = *self;
+        let mut refused_link = None;
         if let Some(fragment) = browser::work_fragment() {
             self.open_text(&fragment, "the share link");
-            if matches!(self.notice.get_untracked(), Some(WorkNotice::Opened(_))) {
-                browser::clear_fragment();
-                if !keep::keeping_allowed() {
-                    self.keeping.set(Keeping::Off { forgotten: false });
+            match self.notice.get_untracked() {
+                Some(WorkNotice::Opened(_)) => {
+                    browser::clear_fragment();
+                    if !keep::keeping_allowed() {
+                        self.keeping.set(Keeping::Off { forgotten: false });
+                        return;
+                    }
+                    // The desk this browser kept is set aside before the link's is kept in
+                    // its place, so opening a colleague's link never loses one's own work.
+                    spawn_local(async move { this.set_aside_then_keep().await });
                     return;
                 }
-                // The desk this browser kept is set aside before the link's is kept in its
-                // place, so opening a colleague's link never loses one's own work.
-                spawn_local(async move {
-                    if let Ok(true) = keep::set_aside().await {
-                        this.set_aside.set(true);
-                    }
-                    this.keep_from_now();
-                });
-                return;
+                Some(WorkNotice::Refused(why)) => refused_link = Some(why),
+                None => {}
             }
         }
         if !keep::keeping_allowed() {
@@ -166,35 +168,61 @@ impl WorkState {
         }
         spawn_local(async move {
             let kept = keep::read().await;
-            // Something was pasted or opened while the kept work was looked for: it stays.
+            // Something was pasted or opened while the kept work was looked for: it stays,
+            // and the kept desk is set aside rather than written over.
             if !this.intake.source.get_untracked().is_empty() {
-                return this.keep_from_now();
+                return this.set_aside_then_keep().await;
             }
             match kept {
                 Ok(Some((desk, history))) => match Work::read(&desk) {
                     Ok(mut kept) => {
                         kept.history.text = history;
                         this.open(kept, "the work kept in this browser");
-                        // What was just read is what is kept.
-                        this.text_written
-                            .set_value(Some(this.text_changes.get_value() + 1));
+                        if let Some(why) = refused_link {
+                            this.notice.set(Some(WorkNotice::Refused(format!(
+                                "{why} The work kept in this browser was opened instead."
+                            ))));
+                        }
+                        // What was just read is what is kept: nothing to write until a change.
+                        this.text_written.set_value(Some(this.intake.version()));
+                        this.keeping.set(Keeping::Kept(browser::time_of_day()));
                     }
                     Err(e) => {
                         this.load_demo();
                         this.notice.set(Some(WorkNotice::Refused(format!(
-                            "The work kept in this browser could not be opened ({e}); the demo is shown instead."
+                            "The work kept in this browser could not be opened ({e}); the demo is shown instead, and the kept work is left as it was."
                         ))));
+                        this.keeping.set(Keeping::Held(
+                            "the work kept here could not be opened by this Morrowcast".into(),
+                        ));
                     }
                 },
-                Ok(None) => this.load_demo(),
+                Ok(None) => {
+                    this.load_demo();
+                    this.keep_from_now();
+                }
                 Err(e) => {
                     this.load_demo();
                     this.keeping.set(Keeping::Failed(e));
-                    return;
                 }
             }
-            this.keep_from_now();
         });
+    }
+
+    /// Sets the desk this browser kept aside, then keeps the one on the page. If it cannot be
+    /// set aside, nothing is written over it.
+    async fn set_aside_then_keep(self) {
+        match keep::set_aside().await {
+            Ok(had_one) => {
+                if had_one {
+                    self.set_aside.set(true);
+                }
+                self.keep_from_now();
+            }
+            Err(why) => self.keeping.set(Keeping::Held(format!(
+                "the desk kept here before could not be set aside ({why}), so this one is not kept over it"
+            ))),
+        }
     }
 
     /// Brings back the desk a share link replaced at the start.
@@ -205,16 +233,16 @@ impl WorkState {
                 Ok(Some((desk, history))) => match Work::read(&desk) {
                     Ok(mut before) => {
                         before.history.text = history;
-                        this.open(before, "your desk from before the link");
+                        this.open(before, "the desk set aside");
                         this.set_aside.set(false);
                     }
                     Err(e) => this.notice.set(Some(WorkNotice::Refused(format!(
-                        "Your desk from before the link could not be opened: {e}."
+                        "The desk set aside could not be opened: {e}."
                     )))),
                 },
                 Ok(None) => this.set_aside.set(false),
                 Err(why) => this.notice.set(Some(WorkNotice::Refused(format!(
-                    "Your desk from before the link could not be read from this browser: {why}."
+                    "The desk set aside could not be read from this browser: {why}."
                 )))),
             }
         });
@@ -234,12 +262,12 @@ impl WorkState {
     /// written). A write the browser refuses removes what was kept before, so an older desk
     /// never comes back on a reload as if it were the current one.
     fn write_now(&self) {
-        if matches!(self.keeping.get_untracked(), Keeping::Off { .. }) {
+        if !self.keeping.get_untracked().writes() || !keep::keeping_allowed() {
             return;
         }
         let this = *self;
         let mut desk = self.current();
-        let changes = self.text_changes.get_value();
+        let changes = self.intake.version();
         let history = (self.text_written.get_value() != Some(changes))
             .then(|| std::mem::take(&mut desk.history.text));
         desk.history.text.clear();
@@ -248,14 +276,18 @@ impl WorkState {
             match keep::write(desk, history).await {
                 Ok(()) => {
                     this.text_written.set_value(Some(changes));
-                    if !matches!(this.keeping.get_untracked(), Keeping::Off { .. }) {
+                    // A "forget" or a held state meanwhile wins over this write's news.
+                    if this.keeping.get_untracked().writes() {
                         this.keeping.set(Keeping::Kept(browser::time_of_day()));
                     }
                 }
                 Err(why) => {
-                    let _ = keep::forget().await;
+                    // The current desk only: a desk set aside by a link stays.
+                    let _ = keep::forget_current().await;
                     this.text_written.set_value(None);
-                    this.keeping.set(Keeping::Failed(why));
+                    if this.keeping.get_untracked().writes() {
+                        this.keeping.set(Keeping::Failed(why));
+                    }
                 }
             }
         });
@@ -280,7 +312,9 @@ impl WorkState {
         spawn_local(async move {
             match keep::forget().await {
                 Ok(()) => this.keeping.set(Keeping::Off { forgotten: true }),
-                Err(why) => this.keeping.set(Keeping::Failed(why)),
+                Err(why) => this.keeping.set(Keeping::Held(format!(
+                    "\u{201c}Forget it now\u{201d} did not work ({why}); nothing more is kept"
+                ))),
             }
         });
     }
@@ -300,10 +334,13 @@ impl WorkState {
                 source: self.board.table_source.get_untracked(),
             }),
             changes: self.board.changes.get_untracked(),
-            open_item: self.intake.report.with_untracked(|r| {
-                r.items
-                    .get(self.intake.item.get_untracked())
-                    .map(|i| i.name.clone())
+            // A work's open item waits for its report (a large text is read in a worker).
+            open_item: self.pending_item.get_untracked().or_else(|| {
+                self.intake.report.with_untracked(|r| {
+                    r.items
+                        .get(self.intake.item.get_untracked())
+                        .map(|i| i.name.clone())
+                })
             }),
         }
     }
