@@ -22,6 +22,9 @@ const DATABASE: &str = "morrowcast";
 const STORE: &str = "work";
 const DESK_KEY: &str = "desk";
 const HISTORY_KEY: &str = "history";
+/// Which writing of the history is kept: a tab writes its desk alone only while this is the
+/// stamp of its own last history, so two tabs never leave one's desk with the other's history.
+const HISTORY_STAMP_KEY: &str = "history-stamp";
 /// The desk a share link replaced, set aside so it can be brought back.
 const ASIDE_DESK_KEY: &str = "desk-before-link";
 const ASIDE_HISTORY_KEY: &str = "history-before-link";
@@ -140,9 +143,9 @@ async fn open() -> Result<IdbDatabase, String> {
     Ok(settled(&request).await?.unchecked_into())
 }
 
-/// Writes the desk (a work file's text) and, when given, the history's text, in one
-/// transaction: both or neither.
-pub async fn write(desk: String, history: Option<String>) -> Result<(), String> {
+/// Writes the desk (a work file's text) and, when given, the history's text with its stamp,
+/// in one transaction: all or nothing.
+pub async fn write(desk: String, history: Option<(String, String)>) -> Result<(), String> {
     let db = open().await?;
     let tx = db
         .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
@@ -155,8 +158,10 @@ pub async fn write(desk: String, history: Option<String>) -> Result<(), String> 
             .map_err(|e| message(&e))
     };
     let written = history
-        .as_deref()
-        .map_or(Ok(()), |h| put(h, HISTORY_KEY))
+        .as_ref()
+        .map_or(Ok(()), |(h, stamp)| {
+            put(h, HISTORY_KEY).and_then(|()| put(stamp, HISTORY_STAMP_KEY))
+        })
         .and_then(|()| put(&desk, DESK_KEY));
     if let Err(e) = written {
         let _ = tx.abort();
@@ -166,6 +171,29 @@ pub async fn write(desk: String, history: Option<String>) -> Result<(), String> 
     let done = committed(&tx).await;
     db.close();
     done
+}
+
+/// The stamp of the history kept now, if any.
+pub async fn history_stamp() -> Result<Option<String>, String> {
+    let db = open().await?;
+    let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
+    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+    let get = store
+        .get(&JsValue::from_str(HISTORY_STAMP_KEY))
+        .map_err(|e| message(&e))?;
+    let stamp = settled(&get).await?.as_string();
+    db.close();
+    Ok(stamp)
+}
+
+/// A new stamp for a history about to be written (the time and a random number: two tabs
+/// never draw the same).
+pub fn new_stamp() -> String {
+    format!(
+        "{:x}-{:x}",
+        js_sys::Date::now() as u64,
+        (js_sys::Math::random() * 4_503_599_627_370_496.0) as u64
+    )
 }
 
 /// The kept desk and history text, if both are there.
@@ -219,7 +247,7 @@ pub async fn forget_current() -> Result<(), String> {
         .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
         .map_err(|e| message(&e))?;
     let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    for key in [DESK_KEY, HISTORY_KEY] {
+    for key in [DESK_KEY, HISTORY_KEY, HISTORY_STAMP_KEY] {
         store
             .delete(&JsValue::from_str(key))
             .map_err(|e| message(&e))?;

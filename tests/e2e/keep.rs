@@ -170,3 +170,30 @@ fn a_write_the_browser_refuses_is_said_and_nothing_older_comes_back() {
     browser.goto(&format!("{}/index.html", server.origin));
     wait_for_item(browser, "Seed packets");
 }
+
+/// Two tabs on one desk: the tab that changes only a setting after the other tab kept another
+/// history writes its own history with its desk, never its desk alone over the other's.
+#[test]
+fn two_tabs_never_leave_one_tabs_desk_with_the_others_history() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let (server, browser) = (&page.server, &page.browser);
+    wait_for_item(browser, "Seed packets");
+    paste(browser, TROWEL);
+    wait_for_item(browser, "Trowel");
+    wait_until_kept(browser, Some(TROWEL));
+    // Another tab keeps another history.
+    let first = browser.new_tab();
+    browser.goto(&format!("{}/index.html", server.origin));
+    wait_for_item(browser, "Trowel");
+    let rake = "month,Rake\n2024-01,2\n2024-02,3\n2024-03,2\n2024-04,4\n2024-05,3\n2024-06,5\n";
+    paste(browser, rake);
+    wait_for_item(browser, "Rake");
+    wait_until_kept(browser, Some(rake));
+    browser.close_tab(&first);
+    // The first tab changes a setting only: its own history is kept again with it.
+    browser.js("window.__reading = false; window.__kept = undefined;");
+    set_field(browser, "level", "80");
+    wait_until_kept(browser, Some(TROWEL));
+}

@@ -143,7 +143,8 @@ impl fmt::Display for WorkError {
             WorkError::BadChange { item, field, detail } => write!(
                 f,
                 "the item \"{item}\" has its own {field} that cannot be used ({detail}), so nothing \
-                 of this work was opened"
+                 of this work was opened; save the work again from Morrowcast, or remove that \
+                 item's change from the file"
             ),
             WorkError::TooLarge => write!(
                 f,

@@ -76,6 +76,8 @@ pub struct WorkState {
     pub set_aside: RwSignal<bool>,
     /// The Intake text's version when the history was last written.
     text_written: StoredValue<Option<u64>>,
+    /// The stamp of this tab's last written history (see keep.rs).
+    stamp: StoredValue<Option<String>>,
     /// Changes of the desk; a write waits [`WRITE_AFTER`] and goes only if none followed.
     desk_changes: StoredValue<u64>,
 }
@@ -108,6 +110,7 @@ impl WorkState {
             keeping: RwSignal::new(Keeping::Starting),
             set_aside: RwSignal::new(false),
             text_written: StoredValue::new(None),
+            stamp: StoredValue::new(None),
             desk_changes: StoredValue::new(0),
         };
         // Syncs this browser's copy (outside the page) with the desk: each change is written
@@ -185,6 +188,8 @@ impl WorkState {
                         }
                         // What was just read is what is kept: nothing to write until a change.
                         this.text_written.set_value(Some(this.intake.version()));
+                        this.stamp
+                            .set_value(keep::history_stamp().await.ok().flatten());
                         this.keeping.set(Keeping::Kept(browser::time_of_day()));
                     }
                     Err(e) => {
@@ -268,14 +273,21 @@ impl WorkState {
         let this = *self;
         let mut desk = self.current();
         let changes = self.intake.version();
-        let history = (self.text_written.get_value() != Some(changes))
-            .then(|| std::mem::take(&mut desk.history.text));
-        desk.history.text.clear();
+        let changed = self.text_written.get_value() != Some(changes);
+        let text = std::mem::take(&mut desk.history.text);
         let desk = desk.to_file_text();
+        let mine = self.stamp.get_value();
         spawn_local(async move {
+            // Another tab may have kept its own history since this one wrote: then this
+            // tab's history goes with its desk, never its desk alone over the other's.
+            let stored = keep::history_stamp().await.ok().flatten();
+            let history =
+                (changed || mine.is_none() || stored != mine).then(|| (text, keep::new_stamp()));
+            let stamp = history.as_ref().map(|(_, s)| s.clone()).or(mine);
             match keep::write(desk, history).await {
                 Ok(()) => {
                     this.text_written.set_value(Some(changes));
+                    this.stamp.set_value(stamp);
                     // A "forget" or a held state meanwhile wins over this write's news.
                     if this.keeping.get_untracked().writes() {
                         this.keeping.set(Keeping::Kept(browser::time_of_day()));
