@@ -63,62 +63,68 @@ fn message(value: &JsValue) -> String {
         .unwrap_or_else(|| "the browser gave no reason".into())
 }
 
+/// A promise with its two settling functions, for handlers that outlive the promise's own
+/// callback.
+fn promise() -> (Promise, js_sys::Function, js_sys::Function) {
+    let mut settle = None;
+    let promise = Promise::new(&mut |resolve, reject| settle = Some((resolve, reject)));
+    // Promise::new calls back at once; the fallback is never used.
+    let (resolve, reject) =
+        settle.unwrap_or_else(|| (js_sys::Function::default(), js_sys::Function::default()));
+    (promise, resolve, reject)
+}
+
+/// A handler that settles with `settle(value)` (Rust keeps it; dropped after the await, so a
+/// handler that never fired does not keep the request, and a read's text, alive).
+fn handler(
+    settle: js_sys::Function,
+    value: impl Fn() -> JsValue + 'static,
+) -> Closure<dyn FnMut()> {
+    Closure::new(move || {
+        let _ = settle.call1(&JsValue::NULL, &value());
+    })
+}
+
 /// The request's result once it succeeds, or its error's words.
 async fn settled(request: &IdbRequest) -> Result<JsValue, String> {
-    let r = request.clone();
-    let promise = Promise::new(&mut |resolve, reject| {
-        let done = r.clone();
-        let ok = Closure::once_into_js(move || {
-            let _ = resolve.call1(&JsValue::NULL, &done.result().unwrap_or(JsValue::UNDEFINED));
-        });
-        let failed = r.clone();
-        let bad = Closure::once_into_js(move || {
-            let why = failed
-                .error()
-                .ok()
-                .flatten()
-                .map(JsValue::from)
-                .unwrap_or(JsValue::UNDEFINED);
-            let _ = reject.call1(&JsValue::NULL, &JsValue::from_str(&message(&why)));
-        });
-        r.set_onsuccess(Some(ok.unchecked_ref()));
-        r.set_onerror(Some(bad.unchecked_ref()));
+    let (promise, resolve, reject) = promise();
+    let (done, failed) = (request.clone(), request.clone());
+    let ok = handler(resolve, move || done.result().unwrap_or(JsValue::UNDEFINED));
+    let bad = handler(reject, move || {
+        let why = failed.error().ok().flatten().map(JsValue::from);
+        JsValue::from_str(&message(&why.unwrap_or(JsValue::UNDEFINED)))
     });
-    JsFuture::from(promise).await.map_err(|e| message(&e))
+    request.set_onsuccess(Some(ok.as_ref().unchecked_ref()));
+    request.set_onerror(Some(bad.as_ref().unchecked_ref()));
+    let out = JsFuture::from(promise).await;
+    request.set_onsuccess(None);
+    request.set_onerror(None);
+    drop((ok, bad));
+    out.map_err(|e| message(&e))
 }
 
 /// Waits until the transaction is written (its `complete`), or why it was not.
 async fn committed(tx: &IdbTransaction) -> Result<(), String> {
-    let t = tx.clone();
-    let promise = Promise::new(&mut |resolve, reject| {
-        let ok = Closure::once_into_js(move || {
-            let _ = resolve.call0(&JsValue::NULL);
-        });
-        let failed = t.clone();
-        let reject_too = reject.clone();
-        let bad = Closure::once_into_js(move || {
-            let why = failed
-                .error()
-                .map(JsValue::from)
-                .unwrap_or(JsValue::UNDEFINED);
-            let _ = reject_too.call1(&JsValue::NULL, &JsValue::from_str(&message(&why)));
-        });
-        t.set_oncomplete(Some(ok.unchecked_ref()));
-        t.set_onabort(Some(bad.unchecked_ref()));
-        let failed = t.clone();
-        let err = Closure::once_into_js(move || {
-            let why = failed
-                .error()
-                .map(JsValue::from)
-                .unwrap_or(JsValue::UNDEFINED);
-            let _ = reject.call1(&JsValue::NULL, &JsValue::from_str(&message(&why)));
-        });
-        t.set_onerror(Some(err.unchecked_ref()));
-    });
-    JsFuture::from(promise)
-        .await
-        .map(|_| ())
-        .map_err(|e| message(&e))
+    let (promise, resolve, reject) = promise();
+    let why = {
+        let t = tx.clone();
+        move || {
+            let why = t.error().map(JsValue::from).unwrap_or(JsValue::UNDEFINED);
+            JsValue::from_str(&message(&why))
+        }
+    };
+    let ok = handler(resolve, || JsValue::UNDEFINED);
+    let aborted = handler(reject.clone(), why.clone());
+    let failed = handler(reject, why);
+    tx.set_oncomplete(Some(ok.as_ref().unchecked_ref()));
+    tx.set_onabort(Some(aborted.as_ref().unchecked_ref()));
+    tx.set_onerror(Some(failed.as_ref().unchecked_ref()));
+    let out = JsFuture::from(promise).await;
+    tx.set_oncomplete(None);
+    tx.set_onabort(None);
+    tx.set_onerror(None);
+    drop((ok, aborted, failed));
+    out.map(|_| ()).map_err(|e| message(&e))
 }
 
 async fn open() -> Result<IdbDatabase, String> {
