@@ -220,8 +220,12 @@ async fn read_pair(desk_key: &str, history_key: &str) -> Result<Option<(String, 
 }
 
 /// Sets the kept desk aside (before a share link's desk is kept in its place); true when
-/// there was one.
+/// there was one. A desk already set aside stays (it is the user's own, from before the
+/// first link; a later link's desk is not put in its place).
 pub async fn set_aside() -> Result<bool, String> {
+    if has_aside().await? {
+        return Ok(true);
+    }
     let Some((desk, history)) = read().await? else {
         return Ok(false);
     };
@@ -238,6 +242,36 @@ pub async fn set_aside() -> Result<bool, String> {
     let done = committed(&tx).await;
     db.close();
     done.map(|()| true)
+}
+
+/// Whether a desk is set aside (counted, not read: it may be megabytes).
+pub async fn has_aside() -> Result<bool, String> {
+    let db = open().await?;
+    let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
+    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+    let count = store
+        .count_with_key(&JsValue::from_str(ASIDE_DESK_KEY))
+        .map_err(|e| message(&e))?;
+    let n = settled(&count).await?.as_f64().unwrap_or(0.0);
+    db.close();
+    Ok(n > 0.0)
+}
+
+/// Removes the desk set aside.
+pub async fn discard_aside() -> Result<(), String> {
+    let db = open().await?;
+    let tx = db
+        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
+        .map_err(|e| message(&e))?;
+    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+    for key in [ASIDE_DESK_KEY, ASIDE_HISTORY_KEY] {
+        store
+            .delete(&JsValue::from_str(key))
+            .map_err(|e| message(&e))?;
+    }
+    let done = committed(&tx).await;
+    db.close();
+    done
 }
 
 /// The desk set aside by [`set_aside`], if any.

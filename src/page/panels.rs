@@ -136,6 +136,8 @@ pub fn IntakePanel() -> impl IntoView {
                 <p class="notice" id="set-aside">
                     "The desk this browser kept before is set aside, not lost. "
                     <button type="button" class="quiet" id="bring-back" on:click=move |_| work.bring_back()>"Bring back my desk"</button>
+                    " "
+                    <button type="button" class="quiet" id="discard-aside" on:click=move |_| work.discard_aside()>"Discard it"</button>
                 </p>
             </Show>
             <div

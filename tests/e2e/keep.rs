@@ -101,6 +101,15 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
         "return !!document.getElementById('set-aside')",
         WAIT,
     );
+    // Still there to bring back after a reload (the link's desk is the kept one meanwhile).
+    std::thread::sleep(std::time::Duration::from_millis(800));
+    browser.goto(&address);
+    wait_for_item(browser, "Gift card");
+    browser.wait_for(
+        "the desk still set aside after a reload",
+        "return !!document.getElementById('set-aside')",
+        WAIT,
+    );
     browser.js("document.getElementById('bring-back').click()");
     wait_for_item(browser, "Trowel");
     let notice = browser.js("return document.getElementById('work-notice').textContent");

@@ -46,7 +46,10 @@ impl Input {
             None => Ok(checked.clone()),
             Some(w) => PlanSettings::from_text(&typed.over(&w.settings)).map_err(|errors| {
                 let all: Vec<String> = errors.iter().map(|e| e.to_string()).collect();
-                format!("the work's settings: {}", all.join("; "))
+                format!(
+                    "the settings (the work's, with the options given): {}",
+                    all.join("; ")
+                )
             }),
         }
     }
@@ -120,7 +123,10 @@ pub fn stock_inputs(
     };
     let stock_settings = sa.typed_stock.over(&work.stock).check().map_err(|errors| {
         let all: Vec<String> = errors.into_iter().map(|e| e.message).collect();
-        format!("the work's stock settings: {}", all.join("; "))
+        format!(
+            "the stock settings (the work's, with the options given): {}",
+            all.join("; ")
+        )
     })?;
     args::check_horizon(&settings, &stock_settings)?;
     let table = table.or_else(|| {

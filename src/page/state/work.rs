@@ -191,6 +191,10 @@ impl WorkState {
                         this.stamp
                             .set_value(keep::history_stamp().await.ok().flatten());
                         this.keeping.set(Keeping::Kept(browser::time_of_day()));
+                        // A desk set aside by a link earlier is still there to bring back.
+                        if let Ok(true) = keep::has_aside().await {
+                            this.set_aside.set(true);
+                        }
                     }
                     Err(e) => {
                         this.load_demo();
@@ -230,6 +234,19 @@ impl WorkState {
         }
     }
 
+    /// Removes the desk set aside, at the user's word.
+    pub fn discard_aside(&self) {
+        let this = *self;
+        spawn_local(async move {
+            match keep::discard_aside().await {
+                Ok(()) => this.set_aside.set(false),
+                Err(why) => this.notice.set(Some(WorkNotice::Refused(format!(
+                    "The desk set aside could not be removed from this browser: {why}."
+                )))),
+            }
+        });
+    }
+
     /// Brings back the desk a share link replaced at the start.
     pub fn bring_back(&self) {
         let this = *self;
@@ -240,6 +257,8 @@ impl WorkState {
                         before.history.text = history;
                         this.open(before, "the desk set aside");
                         this.set_aside.set(false);
+                        // Brought back: it is the kept desk again, no longer set aside.
+                        let _ = keep::discard_aside().await;
                     }
                     Err(e) => this.notice.set(Some(WorkNotice::Refused(format!(
                         "The desk set aside could not be opened: {e}."
