@@ -16,7 +16,7 @@ use super::board::{
 };
 use super::browser;
 use super::export::file_name;
-use super::panels::{read_local_file, TextField};
+use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
 
@@ -316,20 +316,13 @@ pub fn StockPanel() -> impl IntoView {
         })
     };
     let on_file = move |ev: leptos::ev::Event| {
-        let input: web_sys::HtmlInputElement = event_target(&ev);
-        if let Some(file) = input.files().and_then(|f| f.get(0)) {
+        if let Some(file) = chosen_file(&ev) {
             take(file);
         }
-        input.set_value("");
     };
     let on_drop = move |ev: leptos::ev::DragEvent| {
-        ev.prevent_default();
         dragging.set(false);
-        if let Some(file) = ev
-            .data_transfer()
-            .and_then(|d| d.files())
-            .and_then(|f| f.get(0))
-        {
+        if let Some(file) = dropped_file(&ev) {
             take(file);
         }
     };

@@ -15,7 +15,7 @@ use js_sys::Promise;
 use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 use wasm_bindgen_futures::JsFuture;
-use web_sys::{IdbDatabase, IdbRequest, IdbTransaction, IdbTransactionMode};
+use web_sys::{IdbDatabase, IdbObjectStore, IdbRequest, IdbTransaction, IdbTransactionMode};
 
 /// The database, its one store and the two records' keys.
 const DATABASE: &str = "morrowcast";
@@ -149,47 +149,79 @@ async fn open() -> Result<IdbDatabase, String> {
     Ok(settled(&request).await?.unchecked_into())
 }
 
-/// Writes the desk (a work file's text) and, when given, the history's text with its stamp,
-/// in one transaction: all or nothing.
-pub async fn write(desk: String, history: Option<(String, String)>) -> Result<(), String> {
+/// Runs `ops` on the store in one read-write transaction and waits until it is written: all
+/// of it, or on any error none of it (the transaction is aborted). The database is closed
+/// in every case.
+async fn change(ops: impl FnOnce(&IdbObjectStore) -> Result<(), JsValue>) -> Result<(), String> {
     let db = open().await?;
-    let tx = db
-        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
-        .map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    let put = |value: &str, key: &str| {
-        store
-            .put_with_key(&JsValue::from_str(value), &JsValue::from_str(key))
-            .map(|_| ())
-            .map_err(|e| message(&e))
-    };
-    let written = history
-        .as_ref()
-        .map_or(Ok(()), |(h, stamp)| {
-            put(h, HISTORY_KEY).and_then(|()| put(stamp, HISTORY_STAMP_KEY))
-        })
-        .and_then(|()| put(&desk, DESK_KEY));
-    if let Err(e) = written {
-        let _ = tx.abort();
-        db.close();
-        return Err(e);
+    let done = async {
+        let tx = db
+            .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
+            .map_err(|e| message(&e))?;
+        let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+        if let Err(e) = ops(&store) {
+            let _ = tx.abort();
+            return Err(message(&e));
+        }
+        committed(&tx).await
     }
-    let done = committed(&tx).await;
+    .await;
     db.close();
     done
 }
 
+/// The results of the requests `ask` makes in one read-only transaction, in order. The
+/// database is closed in every case.
+async fn look(
+    ask: impl FnOnce(&IdbObjectStore) -> Result<Vec<IdbRequest>, JsValue>,
+) -> Result<Vec<JsValue>, String> {
+    let db = open().await?;
+    let found = async {
+        let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
+        let store = tx.object_store(STORE).map_err(|e| message(&e))?;
+        let mut results = Vec::new();
+        for request in ask(&store).map_err(|e| message(&e))? {
+            results.push(settled(&request).await?);
+        }
+        Ok(results)
+    }
+    .await;
+    db.close();
+    found
+}
+
+fn put(store: &IdbObjectStore, key: &str, value: &str) -> Result<(), JsValue> {
+    store
+        .put_with_key(&JsValue::from_str(value), &JsValue::from_str(key))
+        .map(|_| ())
+}
+
+fn delete(store: &IdbObjectStore, keys: &[&str]) -> Result<(), JsValue> {
+    keys.iter()
+        .try_for_each(|key| store.delete(&JsValue::from_str(key)).map(|_| ()))
+}
+
+fn get(store: &IdbObjectStore, key: &str) -> Result<IdbRequest, JsValue> {
+    store.get(&JsValue::from_str(key))
+}
+
+/// Writes the desk (a work file's text) and, when given, the history's text with its stamp,
+/// in one transaction: all or nothing.
+pub async fn write(desk: String, history: Option<(String, String)>) -> Result<(), String> {
+    change(|store| {
+        if let Some((text, stamp)) = &history {
+            put(store, HISTORY_KEY, text)?;
+            put(store, HISTORY_STAMP_KEY, stamp)?;
+        }
+        put(store, DESK_KEY, &desk)
+    })
+    .await
+}
+
 /// The stamp of the history kept now, if any.
 pub async fn history_stamp() -> Result<Option<String>, String> {
-    let db = open().await?;
-    let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    let get = store
-        .get(&JsValue::from_str(HISTORY_STAMP_KEY))
-        .map_err(|e| message(&e))?;
-    let stamp = settled(&get).await?.as_string();
-    db.close();
-    Ok(stamp)
+    let found = look(|store| Ok(vec![get(store, HISTORY_STAMP_KEY)?])).await?;
+    Ok(found.first().and_then(JsValue::as_string))
 }
 
 /// A new stamp for a history about to be written (the time and a random number: two tabs
@@ -208,15 +240,9 @@ pub async fn read() -> Result<Option<(String, String)>, String> {
 }
 
 async fn read_pair(desk_key: &str, history_key: &str) -> Result<Option<(String, String)>, String> {
-    let db = open().await?;
-    let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    let get = |key: &str| store.get(&JsValue::from_str(key)).map_err(|e| message(&e));
-    let (desk, history) = (get(desk_key)?, get(history_key)?);
-    let desk = settled(&desk).await?.as_string();
-    let history = settled(&history).await?.as_string();
-    db.close();
-    Ok(desk.zip(history))
+    let found = look(|store| Ok(vec![get(store, desk_key)?, get(store, history_key)?])).await?;
+    let text = |i: usize| found.get(i).and_then(JsValue::as_string);
+    Ok(text(0).zip(text(1)))
 }
 
 /// Sets the kept desk aside (before a share link's desk is kept in its place); true when
@@ -229,49 +255,28 @@ pub async fn set_aside() -> Result<bool, String> {
     let Some((desk, history)) = read().await? else {
         return Ok(false);
     };
-    let db = open().await?;
-    let tx = db
-        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
-        .map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    for (value, key) in [(&desk, ASIDE_DESK_KEY), (&history, ASIDE_HISTORY_KEY)] {
-        store
-            .put_with_key(&JsValue::from_str(value), &JsValue::from_str(key))
-            .map_err(|e| message(&e))?;
-    }
-    let done = committed(&tx).await;
-    db.close();
-    done.map(|()| true)
+    change(|store| {
+        put(store, ASIDE_DESK_KEY, &desk)?;
+        put(store, ASIDE_HISTORY_KEY, &history)
+    })
+    .await
+    .map(|()| true)
 }
 
 /// Whether a desk is set aside (counted, not read: it may be megabytes).
 pub async fn has_aside() -> Result<bool, String> {
-    let db = open().await?;
-    let tx = db.transaction_with_str(STORE).map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    let count = store
-        .count_with_key(&JsValue::from_str(ASIDE_DESK_KEY))
-        .map_err(|e| message(&e))?;
-    let n = settled(&count).await?.as_f64().unwrap_or(0.0);
-    db.close();
-    Ok(n > 0.0)
+    let found = look(|store| {
+        Ok(vec![
+            store.count_with_key(&JsValue::from_str(ASIDE_DESK_KEY))?
+        ])
+    })
+    .await?;
+    Ok(found.first().and_then(JsValue::as_f64).unwrap_or(0.0) > 0.0)
 }
 
 /// Removes the desk set aside.
 pub async fn discard_aside() -> Result<(), String> {
-    let db = open().await?;
-    let tx = db
-        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
-        .map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    for key in [ASIDE_DESK_KEY, ASIDE_HISTORY_KEY] {
-        store
-            .delete(&JsValue::from_str(key))
-            .map_err(|e| message(&e))?;
-    }
-    let done = committed(&tx).await;
-    db.close();
-    done
+    change(|store| delete(store, &[ASIDE_DESK_KEY, ASIDE_HISTORY_KEY])).await
 }
 
 /// The desk set aside by [`set_aside`], if any.
@@ -282,30 +287,10 @@ pub async fn aside() -> Result<Option<(String, String)>, String> {
 /// Removes the current desk only (a write the browser refused), leaving a desk set aside by
 /// a share link where it is.
 pub async fn forget_current() -> Result<(), String> {
-    let db = open().await?;
-    let tx = db
-        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
-        .map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    for key in [DESK_KEY, HISTORY_KEY, HISTORY_STAMP_KEY] {
-        store
-            .delete(&JsValue::from_str(key))
-            .map_err(|e| message(&e))?;
-    }
-    let done = committed(&tx).await;
-    db.close();
-    done
+    change(|store| delete(store, &[DESK_KEY, HISTORY_KEY, HISTORY_STAMP_KEY])).await
 }
 
 /// Removes everything kept.
 pub async fn forget() -> Result<(), String> {
-    let db = open().await?;
-    let tx = db
-        .transaction_with_str_and_mode(STORE, IdbTransactionMode::Readwrite)
-        .map_err(|e| message(&e))?;
-    let store = tx.object_store(STORE).map_err(|e| message(&e))?;
-    store.clear().map_err(|e| message(&e))?;
-    let done = committed(&tx).await;
-    db.close();
-    done
+    change(|store| store.clear().map(|_| ())).await
 }

@@ -34,6 +34,24 @@ pub(super) fn read_local_file(file: File, done: impl FnOnce(Option<String>, Stri
     });
 }
 
+/// The file chosen in an `<input type=file>`; the input is emptied, so choosing the same
+/// file again reads it again.
+pub(super) fn chosen_file(ev: &leptos::ev::Event) -> Option<File> {
+    let input: HtmlInputElement = event_target(ev);
+    let file = input.files().and_then(|f| f.get(0));
+    input.set_value("");
+    file
+}
+
+/// The (first) file a drop carries; the drop is the page's, not the browser's (which would
+/// open the file in place of the page).
+pub(super) fn dropped_file(ev: &leptos::ev::DragEvent) -> Option<File> {
+    ev.prevent_default();
+    ev.data_transfer()
+        .and_then(|d| d.files())
+        .and_then(|f| f.get(0))
+}
+
 /// Reads a file locally: a work file (or a saved share link) opens its work; anything else
 /// is a history and goes in the Intake box.
 fn read_file(state: IntakeState, work: WorkState, file: File) {
@@ -107,20 +125,13 @@ pub fn IntakePanel() -> impl IntoView {
         state.set_text(csv, DEMO_SOURCE);
     };
     let on_file = move |ev: leptos::ev::Event| {
-        let input: HtmlInputElement = event_target(&ev);
-        if let Some(file) = input.files().and_then(|f| f.get(0)) {
+        if let Some(file) = chosen_file(&ev) {
             read_file(state, work, file);
         }
-        input.set_value("");
     };
     let on_drop = move |ev: leptos::ev::DragEvent| {
-        ev.prevent_default();
         dragging.set(false);
-        if let Some(file) = ev
-            .data_transfer()
-            .and_then(|d| d.files())
-            .and_then(|f| f.get(0))
-        {
+        if let Some(file) = dropped_file(&ev) {
             read_file(state, work, file);
         }
     };

@@ -12,9 +12,8 @@ use std::time::Duration;
 
 use serde_json::json;
 
-use super::page::{dist, turn};
+use super::page::{assert_work_notice, demo_link, dist, open_link, turn};
 use super::webdriver::Browser;
-use crate::support::cli;
 
 const WAIT: Duration = Duration::from_secs(60);
 
@@ -74,27 +73,15 @@ fn the_single_file_runs_from_disk_in_firefox() {
         WAIT,
     );
     assert_eq!(browser.js("return window.__seen"), json!([]));
-    browser.goto("about:blank");
-    browser.goto(&address);
+    open_link(&browser, &address);
     browser.js(WATCH);
     wait_for_planned(&browser, "Seed packets");
-    let notice = browser.js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap_or("")
-            .starts_with("Opened the work kept in this browser:"),
-        "{notice}"
-    );
+    assert_work_notice(&browser, "Opened the work kept in this browser:");
     // A share link's fragment on the file.
-    let demo = morrowcast_engine::demo::demo_csv();
-    let made = cli(
-        &["link", "-", "--item", "Gift card", "--page", &address],
-        demo.as_bytes(),
+    open_link(
+        &browser,
+        &demo_link(&["--item", "Gift card", "--page", &address]),
     );
-    assert_eq!(made.code, 0, "{}", made.stderr);
-    browser.goto("about:blank");
-    browser.goto(made.text().trim());
     browser.js(WATCH);
     wait_for_planned(&browser, "Gift card");
     assert_eq!(browser.js("return window.__seen"), json!([]));

@@ -8,9 +8,10 @@
 use serde_json::json;
 
 use super::board::{many_items, set_field, wait_until_planned};
-use super::page::{open, paste, save_screenshot, wait_for_item, WAIT};
+use super::page::{
+    assert_work_notice, demo_link, open, open_link, paste, save_screenshot, wait_for_item, WAIT,
+};
 use super::webdriver::Browser;
-use crate::support::cli;
 
 const TROWEL: &str =
     "month,Trowel\n2024-01,5\n2024-02,6\n2024-03,5\n2024-04,7\n2024-05,6\n2024-06,8\n";
@@ -32,6 +33,14 @@ pub(super) fn wait_until_kept(browser: &Browser, text: Option<&str>) {
         json!([text]),
         WAIT,
     );
+}
+
+/// From the demo, pastes the Trowel table and waits until this browser keeps it.
+fn paste_and_keep_trowel(browser: &Browser) {
+    wait_for_item(browser, "Seed packets");
+    paste(browser, TROWEL);
+    wait_for_item(browser, "Trowel");
+    wait_until_kept(browser, Some(TROWEL));
 }
 
 fn status(browser: &Browser) -> String {
@@ -65,14 +74,7 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     // A reload: the same work, said so.
     browser.goto(&address);
     wait_for_item(browser, "Trowel");
-    let notice = browser.js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap_or("")
-            .starts_with("Opened the work kept in this browser:"),
-        "{notice}"
-    );
+    assert_work_notice(browser, "Opened the work kept in this browser:");
     assert_eq!(
         browser.js("return document.getElementById('level').value"),
         json!("90")
@@ -87,14 +89,10 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     browser.close_tab(&first);
 
     // A colleague's share link opens, and the desk kept here is set aside, not lost.
-    let demo = morrowcast_engine::demo::demo_csv();
-    let made = cli(
-        &["link", "-", "--item", "Gift card", "--page", &address],
-        demo.as_bytes(),
+    open_link(
+        browser,
+        &demo_link(&["--item", "Gift card", "--page", &address]),
     );
-    assert_eq!(made.code, 0, "{}", made.stderr);
-    browser.goto("about:blank");
-    browser.goto(made.text().trim());
     wait_for_item(browser, "Gift card");
     browser.wait_for(
         "the desk set aside",
@@ -112,14 +110,7 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     );
     browser.js("document.getElementById('bring-back').click()");
     wait_for_item(browser, "Trowel");
-    let notice = browser.js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap_or("")
-            .starts_with("Opened the desk set aside:"),
-        "{notice}"
-    );
+    assert_work_notice(browser, "Opened the desk set aside:");
     wait_until_kept(browser, Some(TROWEL));
 
     // Forget it now: removed at once, and not kept again until allowed.
@@ -143,7 +134,7 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     );
     // Allowed again: the desk is kept from then on.
     browser.js("document.getElementById('keep-work').click()");
-    wait_until_kept(browser, Some(&demo));
+    wait_until_kept(browser, Some(&morrowcast_engine::demo::demo_csv()));
 }
 
 #[test]
@@ -152,10 +143,7 @@ fn a_write_the_browser_refuses_is_said_and_nothing_older_comes_back() {
         return;
     };
     let (server, browser) = (&page.server, &page.browser);
-    wait_for_item(browser, "Seed packets");
-    paste(browser, TROWEL);
-    wait_for_item(browser, "Trowel");
-    wait_until_kept(browser, Some(TROWEL));
+    paste_and_keep_trowel(browser);
     // The browser's storage refuses from now on, as when it is full.
     browser.js("IDBObjectStore.prototype.put = function () { \
            throw new DOMException('The quota has been exceeded.', 'QuotaExceededError'); };");
@@ -188,10 +176,7 @@ fn two_tabs_never_leave_one_tabs_desk_with_the_others_history() {
         return;
     };
     let (server, browser) = (&page.server, &page.browser);
-    wait_for_item(browser, "Seed packets");
-    paste(browser, TROWEL);
-    wait_for_item(browser, "Trowel");
-    wait_until_kept(browser, Some(TROWEL));
+    paste_and_keep_trowel(browser);
     // Another tab keeps another history.
     let first = browser.new_tab();
     browser.goto(&format!("{}/index.html", server.origin));

@@ -294,6 +294,38 @@ pub fn paste_event(browser: &Browser, text: &str) {
     }
 }
 
+/// The Intake panel's notice of the last work opened or refused (empty when there is none).
+pub fn work_notice(browser: &Browser) -> String {
+    browser
+        .js("const n = document.getElementById('work-notice'); return n ? n.textContent : ''")
+        .as_str()
+        .unwrap_or("")
+        .to_string()
+}
+
+/// Asserts that the work notice begins with `start`.
+pub fn assert_work_notice(browser: &Browser, start: &str) {
+    let notice = work_notice(browser);
+    assert!(notice.starts_with(start), "the work notice: {notice:?}");
+}
+
+/// A share link to the demo's desk, made by `morrowcast link - ARGS` (the command line's own
+/// link, so the page is checked against it).
+pub fn demo_link(args: &[&str]) -> String {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let argv: Vec<&str> = ["link", "-"].iter().chain(args).copied().collect();
+    let made = crate::support::cli(&argv, demo.as_bytes());
+    assert_eq!(made.code, 0, "{}", made.stderr);
+    made.text().trim().to_string()
+}
+
+/// Opens `link` in a fresh page load (by way of about:blank: an address that differs only in
+/// its fragment would not load the page again).
+pub fn open_link(browser: &Browser, link: &str) {
+    browser.goto("about:blank");
+    browser.goto(link);
+}
+
 /// Waits until the page shows a plan for the named item and no work is pending.
 pub fn wait_for_item(browser: &Browser, name: &str) {
     browser.wait_for_args(

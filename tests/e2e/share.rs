@@ -9,7 +9,10 @@
 use serde_json::json;
 
 use super::board::{saved_by, saved_order_plan, set_field, wait_until_planned};
-use super::page::{forecast_table, open, open_at, paste, save_screenshot, wait_for_item, WAIT};
+use super::page::{
+    assert_work_notice, demo_link, forecast_table, open, open_at, open_link, paste,
+    save_screenshot, wait_for_item, work_notice, WAIT,
+};
 use super::webdriver::Browser;
 use crate::board::compare;
 use crate::support::{cli, table_file};
@@ -81,16 +84,11 @@ fn a_share_link_and_a_work_file_carry_the_whole_desk() {
     compare(&plan_before, &run.json());
 
     // Opened in a fresh page load: the same desk, the same numbers.
-    browser.goto("about:blank");
-    browser.goto(&link);
+    open_link(browser, &link);
     wait_for_item(browser, "Frost cloth");
     wait_until_planned(browser, 6);
     wait_for_changed_row(browser, "Frost cloth", 5);
-    assert!(
-        text_of(browser, "work-notice").starts_with("Opened the share link:"),
-        "{}",
-        text_of(browser, "work-notice")
-    );
+    assert_work_notice(browser, "Opened the share link:");
     assert_eq!(forecast_table(browser), table_before);
     let (_, plan_after) = saved_order_plan(browser);
     assert_eq!(plan_after, plan_before);
@@ -137,7 +135,7 @@ fn a_share_link_and_a_work_file_carry_the_whole_desk() {
     wait_until_planned(browser, 6);
     wait_for_changed_row(browser, "Frost cloth", 5);
     assert_eq!(
-        text_of(browser, "work-notice"),
+        work_notice(browser),
         "Opened the work file desk.json: the data (the demo), the settings, the Stock plan's \
          settings, the stock table and own settings for 1 item."
     );
@@ -148,20 +146,17 @@ fn a_share_link_and_a_work_file_carry_the_whole_desk() {
 #[test]
 fn a_link_cut_short_is_refused_and_the_page_starts_as_usual() {
     let demo = morrowcast_engine::demo::demo_csv();
-    let made = cli(&["link", "-", "--item", "Gift card"], demo.as_bytes());
-    assert_eq!(made.code, 0, "{}", made.stderr);
-    let link = made.text();
-    let fragment = link.trim().split_once('#').unwrap().1;
+    let link = demo_link(&["--item", "Gift card"]);
+    let fragment = link.split_once('#').unwrap().1;
     let cut = format!("#{}", &fragment[..fragment.len() / 2]);
     let Some(page) = open_at((1366, 900), &cut) else {
         return;
     };
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
-    let notice = text_of(browser, "work-notice");
-    assert!(
-        notice.starts_with("The share link: this share link is cut short or damaged"),
-        "{notice}"
+    assert_work_notice(
+        browser,
+        "The share link: this share link is cut short or damaged",
     );
     assert_eq!(
         browser.js("return document.getElementById('work-notice').getAttribute('role')"),
@@ -177,10 +172,9 @@ fn a_link_cut_short_is_refused_and_the_page_starts_as_usual() {
         browser,
         &format!("http://127.0.0.1:8080/#{}", &fragment[..fragment.len() - 3]),
     );
-    let notice = text_of(browser, "work-notice");
-    assert!(
-        notice.starts_with("The pasted share link: this share link is cut short"),
-        "{notice}"
+    assert_work_notice(
+        browser,
+        "The pasted share link: this share link is cut short",
     );
     assert_eq!(
         browser.js("return document.getElementById('intake-text').value"),

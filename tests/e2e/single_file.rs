@@ -8,9 +8,9 @@ use serde_json::json;
 use super::board::wait_until_planned;
 use super::keep::wait_until_kept;
 use super::page::{
-    forecast_table, open, open_file, open_file_in, paste, save_screenshot, wait_for_item, WAIT,
+    assert_work_notice, demo_link, forecast_table, open, open_file, open_file_in, open_link, paste,
+    save_screenshot, wait_for_item, WAIT,
 };
-use crate::support::cli;
 
 #[test]
 fn the_single_file_runs_from_disk_like_the_served_page() {
@@ -54,17 +54,9 @@ fn the_single_file_runs_from_disk_like_the_served_page() {
     save_screenshot(browser, "single-file.png");
     // This browser keeps the work of a page from disk too: a reload brings it back.
     let file = browser.js("return location.href");
-    browser.goto("about:blank");
-    browser.goto(file.as_str().unwrap());
+    open_link(browser, file.as_str().unwrap());
     wait_for_item(browser, "Seed packets");
-    let notice = browser.js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap()
-            .starts_with("Opened the work kept in this browser:"),
-        "{notice}"
-    );
+    assert_work_notice(browser, "Opened the work kept in this browser:");
 }
 
 #[test]
@@ -75,32 +67,17 @@ fn the_single_file_opens_a_share_link() {
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
     let file = browser.js("return location.href.split('#')[0]");
-    let demo = morrowcast_engine::demo::demo_csv();
-    let made = cli(
-        &[
-            "link",
-            "-",
-            "--item",
-            "Gift card",
-            "--level",
-            "80",
-            "--page",
-            file.as_str().unwrap(),
-        ],
-        demo.as_bytes(),
-    );
-    assert_eq!(made.code, 0, "{}", made.stderr);
-    browser.goto("about:blank");
-    browser.goto(made.text().trim());
+    let link = demo_link(&[
+        "--item",
+        "Gift card",
+        "--level",
+        "80",
+        "--page",
+        file.as_str().unwrap(),
+    ]);
+    open_link(browser, &link);
     wait_for_item(browser, "Gift card");
-    let notice = browser.js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap()
-            .starts_with("Opened the share link:"),
-        "{notice}"
-    );
+    assert_work_notice(browser, "Opened the share link:");
     assert_eq!(
         browser.js("return document.getElementById('level').value"),
         json!("80")
@@ -130,16 +107,7 @@ fn the_work_comes_back_after_the_browser_is_restarted() {
     let reopened = open_file_in((1366, 900), "", Some(&profile));
     let page = reopened.expect("the second browser");
     wait_for_item(&page.browser, "Trowel");
-    let notice = page
-        .browser
-        .js("return document.getElementById('work-notice').textContent");
-    assert!(
-        notice
-            .as_str()
-            .unwrap_or("")
-            .starts_with("Opened the work kept in this browser:"),
-        "{notice}"
-    );
+    assert_work_notice(&page.browser, "Opened the work kept in this browser:");
     drop(page);
     let _ = std::fs::remove_dir_all(&profile);
 }

@@ -108,30 +108,23 @@ pub struct Browser {
 }
 
 impl Browser {
-    /// Starts chromedriver on a free port and opens a headless Chromium session with a window of
-    /// `window` CSS pixels at `device_scale` device pixels per CSS pixel (2 is a HiDPI screen),
-    /// its profile in `profile`, kept when the browser closes (so a later browser finds what
-    /// this one stored); `None`: a fresh profile, removed on close.
-    pub fn start_in(
-        chromedriver: &str,
-        chromium: &str,
-        window: (u32, u32),
-        device_scale: f64,
-        profile: Option<std::path::PathBuf>,
-    ) -> Browser {
+    /// Starts `driver` (chromedriver or geckodriver) on a free port and waits until it
+    /// answers. The browser's profile is `profile`, kept when the browser closes (so a later
+    /// browser finds what this one stored); `None`: a fresh one, removed on close.
+    fn launch(driver: &str, profile: Option<std::path::PathBuf>) -> Browser {
         let port = free_port();
-        let driver = Command::new(chromedriver)
+        let child = Command::new(driver)
             .arg(format!("--port={port}"))
             .stdout(Stdio::null())
             .stderr(Stdio::null())
             .spawn()
-            .expect("start chromedriver");
+            .unwrap_or_else(|e| panic!("start {driver}: {e}"));
         let keep_profile = profile.is_some();
         let profile =
             profile.unwrap_or_else(|| std::env::temp_dir().join(format!("morrowcast-e2e-{port}")));
         // Built before anything can fail, so its Drop stops the driver in every case.
-        let mut browser = Browser {
-            driver,
+        let browser = Browser {
+            driver: child,
             port,
             session: String::new(),
             profile,
@@ -139,62 +132,57 @@ impl Browser {
         };
         let deadline = Instant::now() + Duration::from_secs(20);
         while http(port, "GET", "/status", None).is_err() {
-            assert!(Instant::now() < deadline, "chromedriver did not start");
+            assert!(Instant::now() < deadline, "{driver} did not start");
             std::thread::sleep(Duration::from_millis(100));
         }
+        browser
+    }
+
+    /// Opens the session `capabilities` describe.
+    fn open_session(&mut self, capabilities: Value) {
+        let caps = json!({ "capabilities": { "alwaysMatch": capabilities } });
+        let reply = http(self.port, "POST", "/session", Some(&caps)).expect("new session");
+        self.session = reply["value"]["sessionId"]
+            .as_str()
+            .unwrap_or_else(|| panic!("no session: {reply}"))
+            .to_string();
+    }
+
+    /// Starts chromedriver on a free port and opens a headless Chromium session with a window of
+    /// `window` CSS pixels at `device_scale` device pixels per CSS pixel (2 is a HiDPI screen),
+    /// its profile in `profile` (see [`Browser::launch`]).
+    pub fn start_in(
+        chromedriver: &str,
+        chromium: &str,
+        window: (u32, u32),
+        device_scale: f64,
+        profile: Option<std::path::PathBuf>,
+    ) -> Browser {
+        let mut browser = Browser::launch(chromedriver, profile);
         let mut args: Vec<String> = CHROMIUM_ARGS.iter().map(|s| s.to_string()).collect();
         args.push(format!("--user-data-dir={}", browser.profile.display()));
         args.push(format!("--window-size={},{}", window.0, window.1));
         args.push(format!("--force-device-scale-factor={device_scale}"));
         // Every console message of the page is kept, so a test can fail on any error in it.
-        let caps = json!({"capabilities": {"alwaysMatch": {
+        browser.open_session(json!({
             "browserName": "chrome",
             "goog:chromeOptions": {"binary": chromium, "args": args},
             "goog:loggingPrefs": {"browser": "ALL"}
-        }}});
-        let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
-        browser.session = reply["value"]["sessionId"]
-            .as_str()
-            .unwrap_or_else(|| panic!("no session: {reply}"))
-            .to_string();
+        }));
         browser
     }
 
     /// Starts geckodriver on a free port and opens a headless Firefox session (only the W3C
-    /// commands work there: no console log, no DevTools).
+    /// commands work there: no console log, no DevTools; geckodriver makes its own profile).
     pub fn start_firefox(geckodriver: &str, firefox: &str, window: (u32, u32)) -> Browser {
-        let port = free_port();
-        let driver = Command::new(geckodriver)
-            .arg(format!("--port={port}"))
-            .stdout(Stdio::null())
-            .stderr(Stdio::null())
-            .spawn()
-            .expect("start geckodriver");
-        let profile = std::env::temp_dir().join(format!("morrowcast-e2e-firefox-{port}"));
-        let mut browser = Browser {
-            driver,
-            port,
-            session: String::new(),
-            profile,
-            keep_profile: false,
-        };
-        let deadline = Instant::now() + Duration::from_secs(20);
-        while http(port, "GET", "/status", None).is_err() {
-            assert!(Instant::now() < deadline, "geckodriver did not start");
-            std::thread::sleep(Duration::from_millis(100));
-        }
-        let caps = json!({"capabilities": {"alwaysMatch": {
+        let mut browser = Browser::launch(geckodriver, None);
+        browser.open_session(json!({
             "browserName": "firefox",
             "moz:firefoxOptions": {
                 "binary": firefox,
                 "args": ["-headless", "-width", window.0.to_string(), "-height", window.1.to_string()]
             }
-        }}});
-        let reply = http(port, "POST", "/session", Some(&caps)).expect("new session");
-        browser.session = reply["value"]["sessionId"]
-            .as_str()
-            .unwrap_or_else(|| panic!("no session: {reply}"))
-            .to_string();
+        }));
         browser
     }
 
