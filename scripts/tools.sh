@@ -85,7 +85,17 @@ ensure_firefox() {
   fi
 }
 
+# scripts/single-file.sh hashes and encodes with Perl's Digest::SHA and MIME::Base64, which
+# Debian ships in `perl` (not in the minimal perl-base).
+ensure_perl_modules() {
+  if ! perl -MDigest::SHA -MMIME::Base64 -e 1 2>/dev/null; then
+    say "installing perl (Debian) for Digest::SHA and MIME::Base64"
+    apt_install perl
+  fi
+}
+
 ensure_browser_build_tools() {
+  ensure_perl_modules
   ensure_wasm_target
   ensure_trunk
   ensure_wasm_bindgen

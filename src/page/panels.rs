@@ -210,7 +210,7 @@ pub fn IntakePanel() -> impl IntoView {
                 />
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>
             </div>
-            <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.get()}</span></p>
+            <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.with(|s| if s.is_empty() { "nothing yet".to_string() } else { s.clone() })}</span></p>
             <Show when=move || demo_missing.get()>
                 <p class="notice">"The demo data is not part of this build yet."</p>
             </Show>
@@ -224,7 +224,9 @@ pub fn IntakePanel() -> impl IntoView {
                 <ul class="plain" class:hidden=move || state.reading.get()>
                     {move || state.report.with(|r| state.text.with(|t| words::intake_lines(t, r)).into_iter().map(|l| view! { <li>{l}</li> }).collect_view())}
                 </ul>
-                <Show when=move || state.report.with(|r| r.has_errors())>
+                // An empty box is said above ("Nothing read yet"), not listed as a problem: it
+                // is also what shows for the moment the start looks for the kept work.
+                <Show when=move || state.report.with(|r| r.has_errors()) && state.text.with(|t| !t.trim().is_empty())>
                     <h3 class="errors-title">"What could not be read"</h3>
                     <ol class="row-errors" id="row-errors">
                         {move || state.report.with(|r| r.errors.iter().map(|e| view! { <li>{words::row_error_line(e)}</li> }).collect_view())}
