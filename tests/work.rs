@@ -266,6 +266,39 @@ fn newer_formats_strange_fields_and_bad_changes_are_named() {
         Read::Unreadable("version"),
     );
     check("{\"morrowcast_work\": 1,", Read::Unreadable("not JSON"));
+    check("[1, 2]", Read::NotWork);
+    check("{\"morrowcast_work\": [1]}", Read::Unreadable("version"));
+}
+
+/// A JSON object may repeat a key, and a reader that keeps the last would drop the first
+/// unsaid: each repeat is refused, naming it.
+#[test]
+fn a_field_or_item_given_twice_is_refused() {
+    let file = fixture("work-v1.json");
+    check(
+        &file.replacen(
+            "\"Trowel\": {",
+            "\"Frost cloth\": {\"lead_time\": 9},\n    \"Trowel\": {",
+            1,
+        ),
+        Read::Unreadable("item_changes names \"Frost cloth\" twice"),
+    );
+    check(
+        &file.replacen("\"open_item\"", "\"settings\": {}, \"open_item\"", 1),
+        Read::Unreadable("duplicate field `settings`"),
+    );
+    check(
+        &file.replacen("\"open_item\"", "\"morrowcast_work\": 1, \"open_item\"", 1),
+        Read::Unreadable("one \"morrowcast_work\" version"),
+    );
+    check(
+        &file.replacen(
+            "\"lead_time\": 3,",
+            "\"lead_time\": 3, \"lead_time\": 5,",
+            1,
+        ),
+        Read::Unreadable("duplicate field `lead_time`"),
+    );
 }
 
 #[test]
@@ -387,6 +420,25 @@ fn the_command_line_plans_a_link_as_the_options_it_carries() {
         "--json",
     ]);
     assert_eq!(seed["items"][0]["lead_time"], 4);
+    // `none` leaves out a figure the work has: a work with a review period, planned with
+    // `--review none`, is planned as continuous review.
+    let reviewed = cli(&["work", link.trim(), "--review", "2"], b"");
+    assert_eq!(reviewed.code, 0, "{}", reviewed.stderr);
+    let reviewed = table_file("work-reviewed.json", &reviewed.text());
+    let seed_args = ["--item", "Seed packets", "--json"];
+    let with_review = planned(&[&["stock", reviewed.as_str()][..], &seed_args].concat());
+    let without = planned(
+        &[
+            &["stock", reviewed.as_str(), "--review", "none"][..],
+            &seed_args,
+        ]
+        .concat(),
+    );
+    assert_ne!(with_review, without);
+    assert_eq!(
+        without,
+        planned(&[&["stock", link.trim()][..], &seed_args].concat())
+    );
     // A link written by `link` carries what it was given, and `work` writes the same desk.
     let made = cli(
         &[

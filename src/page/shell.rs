@@ -1,7 +1,7 @@
 //! The page: masthead, the controls column (Intake, Settings) and the results column
 //! (Look-ahead, Backtest ranking, Error ledger, Pattern view), with the conventions stated.
 //! The first desk is a share link in the address, the work this browser kept, or the demo
-//! (state/work.rs).
+//! (state/work.rs); a share link put into the address later opens without a reload.
 //!
 //! Kept apart from: the state's computation (state/) and each part's contents (panels.rs,
 //! results.rs).
@@ -32,6 +32,8 @@ pub fn App() -> impl IntoView {
     provide_context(Resized(resized));
     // Charts redraw at their new size; the handle lives as long as the page.
     let _resize = window_event_listener(leptos::ev::resize, move |_| resized.update(|t| *t += 1));
+    // A share link put into the address bar of this open tab opens without a reload.
+    let _address = window_event_listener(leptos::ev::hashchange, move |_| work.follow_address());
     view! {
         <a class="skip-link" href="#results">"Skip to the results"</a>
         <header class="masthead">

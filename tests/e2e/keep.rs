@@ -1,5 +1,6 @@
 //! Nothing lost: the work kept in this browser (IndexedDB) comes back after a reload and in a
-//! new tab, a share link opened sets it aside to be brought back, "Forget it now" removes it
+//! new tab, a share link opened (at the start or put into an open tab's address) sets it
+//! aside to be brought back, "Forget it now" removes it
 //! at once and stops keeping, and a write the browser
 //! refuses is said so, with nothing older left to come back as if it were current.
 //!
@@ -135,6 +136,36 @@ fn a_reload_and_a_new_tab_bring_the_work_back_and_forget_removes_it() {
     // Allowed again: the desk is kept from then on.
     browser.js("document.getElementById('keep-work').click()");
     wait_until_kept(browser, Some(&morrowcast_engine::demo::demo_csv()));
+}
+
+#[test]
+fn a_link_put_into_the_address_of_an_open_tab_opens_without_a_reload() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let (server, browser) = (&page.server, &page.browser);
+    let address = format!("{}/index.html", server.origin);
+    browser.goto(&address);
+    paste_and_keep_trowel(browser);
+    browser.js("window.__same_load = true");
+    // Same page address, a new fragment: the browser does not load the page again.
+    browser.goto(&demo_link(&["--item", "Gift card", "--page", &address]));
+    wait_for_item(browser, "Gift card");
+    assert_work_notice(browser, "Opened the share link:");
+    assert_eq!(
+        browser.js("return window.__same_load === true && location.hash === ''"),
+        json!(true),
+        "opened in the same load, the fragment taken out of the address"
+    );
+    browser.wait_for(
+        "the desk set aside",
+        "return !!document.getElementById('set-aside')",
+        WAIT,
+    );
+    wait_until_kept(browser, Some(&morrowcast_engine::demo::demo_csv()));
+    browser.js("document.getElementById('bring-back').click()");
+    wait_for_item(browser, "Trowel");
+    wait_until_kept(browser, Some(TROWEL));
 }
 
 #[test]

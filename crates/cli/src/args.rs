@@ -20,8 +20,9 @@ usage:
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
                       [--method auto|best|NAME] [--json]
-  morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S] [--review R]
-                   [--service P | --fill-rate P] [--order-quantity Q] [forecast options] [--json]
+  morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
+                   [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
+                   [forecast options] [--json]
   morrowcast link FILE [--item NAME] [--page ADDRESS] [stock options] [forecast options]
   morrowcast work FILE [--item NAME] [stock options] [forecast options]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
@@ -33,7 +34,7 @@ there names the item the page opens. --item may be repeated (each item named is 
 it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
 origins {}. Errors are forecast minus demand (positive = over-forecast).
 stock: lead time L and review period R in whole periods (L default 1; without --review,
-continuous review); --service (cycle service level, default 95) and --fill-rate take a fraction
+continuous review; none leaves it, --lead-time-sd or --order-quantity out, a work's own too); --service (cycle service level, default 95) and --fill-rate take a fraction
 (0.95) or a percent (95). --stock TABLE: a table with a header and a row per item: item, on
 hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
 quantity, order multiple, minimum order (each overrides the options for its item). Stock figures
@@ -273,6 +274,13 @@ fn parse_stock(
         *slot = Some(value.to_string());
         Ok(true)
     })?;
+    // `none` leaves an optional figure out, a work's own too (given, so it replaces it).
+    let left_out = |v: Option<String>| v.filter(|t| !t.trim().eq_ignore_ascii_case("none"));
+    let (lead_time_sd, review, order_quantity) = (
+        left_out(lead_time_sd),
+        left_out(review),
+        left_out(order_quantity),
+    );
     let typed_stock = TypedStock {
         text: StockText {
             lead_time: lead_time.clone(),

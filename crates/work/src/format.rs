@@ -29,6 +29,7 @@ struct WorkJson {
     settings: SettingsJson,
     stock: StockJson,
     stock_table: Option<TextJson>,
+    #[serde(deserialize_with = "names_once")]
     item_changes: BTreeMap<String, ChangeJson>,
     open_item: Option<String>,
 }
@@ -190,18 +191,68 @@ pub fn looks_like_work_file(text: &str) -> bool {
     t.starts_with('{') && t.contains(&format!("\"{VERSION_KEY}\""))
 }
 
+/// Where serde_json stopped, in words.
+fn where_in(e: &serde_json::Error) -> String {
+    format!("line {}, column {}", e.line(), e.column())
+}
+
 fn unreadable(detail: impl Into<String>) -> WorkError {
     WorkError::Unreadable {
         detail: detail.into(),
     }
 }
 
-/// The work a JSON text holds, checked.
+/// The version alone, read before the rest so that a newer work is named as such rather
+/// than refused for the fields this version does not know (the others are skipped here).
+#[derive(Deserialize)]
+struct VersionJson {
+    morrowcast_work: Option<serde_json::Value>,
+}
+
+/// The item changes by name, each name once: a map would keep the last of two unsaid.
+fn names_once<'de, D>(reader: D) -> Result<BTreeMap<String, ChangeJson>, D::Error>
+where
+    D: serde::Deserializer<'de>,
+{
+    struct Names;
+    impl<'de> serde::de::Visitor<'de> for Names {
+        type Value = BTreeMap<String, ChangeJson>;
+        fn expecting(&self, f: &mut std::fmt::Formatter) -> std::fmt::Result {
+            f.write_str("an object of item settings by item name")
+        }
+        fn visit_map<A: serde::de::MapAccess<'de>>(
+            self,
+            mut map: A,
+        ) -> Result<Self::Value, A::Error> {
+            let mut names = BTreeMap::new();
+            while let Some(name) = map.next_key::<String>()? {
+                if names.contains_key(&name) {
+                    return Err(serde::de::Error::custom(format!(
+                        "item_changes names \"{name}\" twice"
+                    )));
+                }
+                let change = map.next_value()?;
+                names.insert(name, change);
+            }
+            Ok(names)
+        }
+    }
+    reader.deserialize_map(Names)
+}
+
+/// The work a JSON text holds, checked. Read from the text itself (not through a JSON value,
+/// whose objects keep the last of two equal keys unsaid): a field or item given twice is
+/// refused.
 pub fn from_json(text: &str) -> Result<Work, WorkError> {
-    let value: serde_json::Value =
-        serde_json::from_str(text).map_err(|e| unreadable(format!("not JSON: {e}")))?;
-    let version = value
-        .get(VERSION_KEY)
+    let probe: VersionJson = serde_json::from_str(text).map_err(|e| match e.classify() {
+        serde_json::error::Category::Data => unreadable(format!(
+            "it is not an object with one \"{VERSION_KEY}\" version ({})",
+            where_in(&e)
+        )),
+        _ => unreadable(format!("not JSON: {e}")),
+    })?;
+    let version = probe
+        .morrowcast_work
         .ok_or_else(|| unreadable(format!("it has no \"{VERSION_KEY}\" version")))?
         .as_u64()
         .filter(|v| *v >= 1)
@@ -209,7 +260,7 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
     if version > WORK_VERSION {
         return Err(WorkError::Newer { version });
     }
-    let json: WorkJson = serde_json::from_value(value).map_err(|e| unreadable(e.to_string()))?;
+    let json: WorkJson = serde_json::from_str(text).map_err(|e| unreadable(e.to_string()))?;
     let s = json.settings;
     let keyed = |field: &str, found: &str, takes: &str| {
         unreadable(format!("settings.{field} takes {takes}; found \"{found}\""))

@@ -218,6 +218,34 @@ impl WorkState {
         });
     }
 
+    /// A share link put into the address bar of this open tab: the browser does not reload
+    /// for a new fragment, so the link is opened here as at the start, and the desk kept in
+    /// this browser is set aside before the link's is kept in its place. Writes pause while
+    /// it is set aside, so the link's desk is never written first. Any other fragment (the
+    /// skip link's `#results`) is left alone.
+    pub fn follow_address(&self) {
+        let Some(fragment) = browser::work_fragment() else {
+            return;
+        };
+        let before = self.keeping.get_untracked();
+        let keeps = before.writes();
+        if keeps {
+            self.keeping.set(Keeping::Starting);
+        }
+        self.open_text(&fragment, "the share link");
+        if !matches!(self.notice.get_untracked(), Some(WorkNotice::Opened(_))) {
+            if keeps {
+                self.keeping.set(before);
+            }
+            return;
+        }
+        browser::clear_fragment();
+        if keeps {
+            let this = *self;
+            spawn_local(async move { this.set_aside_then_keep().await });
+        }
+    }
+
     /// Sets the desk this browser kept aside, then keeps the one on the page. If it cannot be
     /// set aside, nothing is written over it.
     async fn set_aside_then_keep(self) {
