@@ -130,6 +130,174 @@ fn t_pure(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     out
 }
 
+/// Bartlett's (1946) count of effective errors among k overlapping h-step errors: were each a
+/// sum of h independent shocks, neighbours j apart correlate (h - j) / h, and the mean of k
+/// squared errors varies as that of k / (1 + 2 sum_j ((h - j) / h)^2) independent ones (about
+/// 3k / 2h for long h, where k / h takes no credit for the part not shared).
+fn bartlett_df(k: usize, h: usize) -> f64 {
+    let hf = h as f64;
+    let spread: f64 = 1.0 + 2.0 * (1..h).map(|j| ((hf - j as f64) / hf).powi(2)).sum::<f64>();
+    (k as f64 / spread).max(1.0)
+}
+
+/// Unit-variance Student-t quantile for shape nu (normal when nu is infinite).
+fn unit_t(p: f64, nu: f64) -> f64 {
+    if nu.is_finite() {
+        morrowcast_engine::bands::student_t_quantile(p, nu) * ((nu - 2.0) / nu).sqrt()
+    } else {
+        standard_normal_quantile(p)
+    }
+}
+
+/// The shape nu of a Student-t with the kurtosis of the pooled standardised errors (moments
+/// about zero, the forecast): excess kurtosis 6 / (nu - 4); normal when it is not positive or
+/// fewer than `least` errors are pooled.
+fn kurtosis_nu(errors: &[Vec<f64>], least: usize) -> f64 {
+    let mut n = 0usize;
+    let mut m4 = 0.0;
+    for e in errors {
+        let r = rms(e);
+        if e.len() < 2 || r <= 0.0 {
+            continue;
+        }
+        for x in e {
+            m4 += (x / r).powi(4);
+            n += 1;
+        }
+    }
+    if n < least {
+        return f64::INFINITY;
+    }
+    let excess = m4 / n as f64 - 3.0;
+    if excess <= 0.0 {
+        f64::INFINITY
+    } else {
+        (4.0 + 6.0 / excess).max(4.1)
+    }
+}
+
+/// Per-horizon RMS times a Student-t quantile for `df(k, h)` degrees of freedom and a shape
+/// nu: half = t_df(p) * unit_t_nu(p) / z(p) * r_h; widths never shrink with the horizon.
+fn scaled_band(
+    errors: &[Vec<f64>],
+    h: usize,
+    p: f64,
+    df: fn(usize, usize) -> f64,
+    nu: f64,
+) -> Vec<(f64, f64)> {
+    let upper = (1.0 + p) / 2.0;
+    let shape = unit_t(upper, nu) / standard_normal_quantile(upper);
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    for i in 0..h {
+        if let Some(e) = errors.get(i).filter(|e| e.len() >= 2) {
+            let t = morrowcast_engine::bands::student_t_quantile(upper, df(e.len(), i + 1));
+            widest = widest.max(t * shape * rms(e));
+        }
+        out.push((widest, widest));
+    }
+    out
+}
+
+/// Pool adjacent violators (Barlow, Bartholomew, Bremner & Brunk 1972): the non-decreasing
+/// sequence closest to `values` in weighted least squares.
+fn isotonic(values: &[f64], weights: &[f64]) -> Vec<f64> {
+    // Blocks of (mean, weight, count).
+    let mut blocks: Vec<(f64, f64, usize)> = Vec::new();
+    for (&v, &w) in values.iter().zip(weights) {
+        blocks.push((v, w, 1));
+        while blocks.len() >= 2 && blocks[blocks.len() - 2].0 > blocks[blocks.len() - 1].0 {
+            let (m2, w2, c2) = blocks.pop().unwrap();
+            let (m1, w1, c1) = blocks.pop().unwrap();
+            let w = w1 + w2;
+            blocks.push(((m1 * w1 + m2 * w2) / w.max(1e-300), w, c1 + c2));
+        }
+    }
+    blocks
+        .into_iter()
+        .flat_map(|(m, _, c)| std::iter::repeat_n(m, c))
+        .collect()
+}
+
+/// The mean squared error per horizon made non-decreasing by isotonic regression (weights
+/// k_h) instead of a running maximum of noisy per-horizon widths (which is biased upward),
+/// times t_df(p) for df(k_h, h).
+fn isotonic_band(
+    errors: &[Vec<f64>],
+    h: usize,
+    p: f64,
+    df: fn(usize, usize) -> f64,
+) -> Vec<(f64, f64)> {
+    let upper = (1.0 + p) / 2.0;
+    let usable: Vec<(usize, f64, usize)> = errors
+        .iter()
+        .take(h)
+        .enumerate()
+        .filter(|(_, e)| e.len() >= 2)
+        .map(|(i, e)| (i, rms(e).powi(2), e.len()))
+        .collect();
+    if usable.is_empty() {
+        return vec![(0.0, 0.0); h];
+    }
+    let mse: Vec<f64> = usable.iter().map(|u| u.1).collect();
+    let weights: Vec<f64> = usable.iter().map(|u| u.2 as f64).collect();
+    let fitted = isotonic(&mse, &weights);
+    let mut out = vec![(0.0, 0.0); h];
+    let mut last = (fitted[0], usable[0].2, usable[0].0);
+    let mut next = 0;
+    let mut widest = 0.0f64;
+    for (i, slot) in out.iter_mut().enumerate() {
+        if next < usable.len() && usable[next].0 == i {
+            last = (fitted[next], usable[next].2, i);
+            next += 1;
+        }
+        let t = morrowcast_engine::bands::student_t_quantile(upper, df(last.1, last.2 + 1));
+        widest = widest.max(t * last.0.sqrt());
+        *slot = (widest, widest);
+    }
+    out
+}
+
+fn iso_t(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    isotonic_band(errors, h, p, k_over_h)
+}
+
+fn iso_bartlett(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    isotonic_band(errors, h, p, bartlett_df)
+}
+
+/// Diagnostic only: t_df * r_h at each horizon with no rule that widths never shrink.
+fn no_max(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    let upper = (1.0 + p) / 2.0;
+    let mut last = 0.0;
+    (0..h)
+        .map(|i| {
+            if let Some(e) = errors.get(i).filter(|e| e.len() >= 2) {
+                last =
+                    morrowcast_engine::bands::student_t_quantile(upper, k_over_h(e.len(), i + 1))
+                        * rms(e);
+            }
+            (last, last)
+        })
+        .collect()
+}
+
+fn k_over_h(k: usize, h: usize) -> f64 {
+    (k as f64 / h as f64).max(1.0)
+}
+
+fn bartlett(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    scaled_band(errors, h, p, bartlett_df, f64::INFINITY)
+}
+
+fn kurt_t(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    scaled_band(errors, h, p, k_over_h, kurtosis_nu(errors, 30))
+}
+
+fn bartlett_kurt(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    scaled_band(errors, h, p, bartlett_df, kurtosis_nu(errors, 30))
+}
+
 /// The empirical shape of the pooled standardised errors where at least 10 of them lie beyond
 /// each tail quantile (so the quantile rests on data), else t_pure; the scale per horizon with
 /// its estimation noise as the ratio t_df / z for df = k_h / h.
@@ -282,6 +450,56 @@ fn conformal(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     out
 }
 
+/// Conformal's pooled scaled scores for the shape (their ceil((n+1)p)-th smallest, symmetric),
+/// the scale per horizon with its estimation noise as t_df(p) / z(p), df from `df`; the
+/// t rule (scaled_band) where fewer than `least` scores lie beyond the quantile.
+fn conformal_scaled(
+    errors: &[Vec<f64>],
+    h: usize,
+    p: f64,
+    df: fn(usize, usize) -> f64,
+    least: f64,
+) -> Vec<(f64, f64)> {
+    let scales: Vec<f64> = errors.iter().map(|e| rms(e)).collect();
+    let mut scores: Vec<f64> = errors
+        .iter()
+        .zip(&scales)
+        .filter(|(e, _)| e.len() >= 2)
+        .flat_map(|(e, r)| e.iter().filter(move |_| *r > 0.0).map(move |x| x.abs() / r))
+        .collect();
+    let n = scores.len();
+    let rank = (((n + 1) as f64) * p).ceil() as usize;
+    if (n as f64) * (1.0 - p) < least || rank > n || rank == 0 {
+        return scaled_band(errors, h, p, df, f64::INFINITY);
+    }
+    scores.sort_by(f64::total_cmp);
+    let q = scores[rank - 1];
+    let upper = (1.0 + p) / 2.0;
+    let z = standard_normal_quantile(upper);
+    let mut out = Vec::new();
+    let mut widest = 0.0f64;
+    for i in 0..h {
+        if let Some(e) = errors.get(i).filter(|e| e.len() >= 2) {
+            let t = morrowcast_engine::bands::student_t_quantile(upper, df(e.len(), i + 1));
+            widest = widest.max(q * t / z * rms(e));
+        }
+        out.push((widest, widest));
+    }
+    out
+}
+
+fn conformal_t(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    conformal_scaled(errors, h, p, k_over_h, 10.0)
+}
+
+fn conformal_bt(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    conformal_scaled(errors, h, p, bartlett_df, 10.0)
+}
+
+fn conformal_t5(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
+    conformal_scaled(errors, h, p, k_over_h, 5.0)
+}
+
 /// Like backtest::band_origins, with `stride` periods between origins: the latest ends whose
 /// whole horizon falls in the history, every `stride`-th going back, then later ends with the
 /// horizon cut at the end of the data.
@@ -329,8 +547,17 @@ fn main() {
         env!("CARGO_MANIFEST_DIR"),
         "/tests/fixtures/m3/m3.csv"
     ));
-    let rules: [(&str, Rule); 8] = [
+    let rules: [(&str, Rule); 17] = [
         ("engine", engine),
+        ("iso_t", iso_t),
+        ("iso_bartlett", iso_bartlett),
+        ("no_max", no_max),
+        ("conformal_t", conformal_t),
+        ("conformal_bt", conformal_bt),
+        ("conformal_t5", conformal_t5),
+        ("bartlett", bartlett),
+        ("kurt_t", kurt_t),
+        ("bartlett_kurt", bartlett_kurt),
         ("t_pure", t_pure),
         ("t_rms", t_rms),
         ("t_eff", t_eff),
@@ -351,6 +578,7 @@ fn main() {
     ];
     let mut scores: BTreeMap<(String, String), Score> = BTreeMap::new();
     let mut taken: BTreeMap<String, usize> = BTreeMap::new();
+    let mut by_third: BTreeMap<(String, String), [usize; 3]> = BTreeMap::new();
     for s in all
         .iter()
         .filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset))
@@ -424,6 +652,18 @@ fn main() {
                         if low <= *y && *y <= high {
                             score.inside[li] += 1;
                         }
+                        // How the 36-origin bands hold by thirds of the horizon.
+                        if count == 36 && stride == 1 && *kind == "abs" {
+                            let h = s.test.iter().position(|t| std::ptr::eq(t, y)).unwrap_or(0);
+                            let third = 3 * h / s.horizon;
+                            let part = by_third
+                                .entry((s.subset.clone(), format!("{name}@{}", third + 1)))
+                                .or_insert([0usize; 3]);
+                            part[li] += usize::from(low <= *y && *y <= high);
+                            if li == 0 {
+                                part[2] += 1;
+                            }
+                        }
                         let pen = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
                         score.msis[li] += ((high - low) + pen) / scale(s);
                     }
@@ -432,6 +672,15 @@ fn main() {
             }
         }
         let _ = &s.id;
+    }
+    println!("| subset | rule@third of the horizon (36 origins) | 95% holds | 80% holds |");
+    for ((subset, rule), [in95, in80, n]) in &by_third {
+        let n = (*n).max(1) as f64;
+        println!(
+            "| {subset} | {rule} | {:.1}% | {:.1}% |",
+            100.0 * *in95 as f64 / n,
+            100.0 * *in80 as f64 / n
+        );
     }
     println!("| subset | rule/origins | 95% holds | MSIS 95 | 80% holds | MSIS 80 |");
     for ((subset, rule), sc) in &scores {
