@@ -7,6 +7,7 @@
 
 use morrowcast_engine::backtest::{Candidate, COMBINATION_ANCHORS};
 use morrowcast_engine::intake::{IntakeReport, Layout, RowError};
+use morrowcast_engine::methods::MethodKind;
 use morrowcast_engine::patterns::{
     DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
 };
@@ -118,14 +119,21 @@ pub fn combination_choice(chosen: &Candidate) -> String {
                 .filter(|m| COMBINATION_ANCHORS.contains(m))
                 .map(|m| m.label())
                 .collect();
-            let which = if anchors.is_empty() {
+            let by_aicc = members.contains(&MethodKind::SmoothingByAicc);
+            let others = members.len() - anchors.len() - usize::from(by_aicc);
+            let which = if anchors.is_empty() && !by_aicc {
                 format!("the {} best methods", members.len())
             } else {
-                format!(
-                    "{} methods, {} with the best of the others",
-                    members.len(),
-                    anchors.join(" and ")
-                )
+                let mut named = anchors;
+                if by_aicc {
+                    named.push("the exponential smoothing model with the lowest AICc");
+                }
+                let last = if others > 0 {
+                    "the best of the others"
+                } else {
+                    named.pop().unwrap_or_default()
+                };
+                format!("{} methods: {} and {last}", members.len(), named.join(", "))
             };
             format!(
                 " The forecast uses the combination, the plain mean of {which}: on the M3 \
@@ -331,8 +339,18 @@ mod tests {
             MethodKind::Ses,
             MethodKind::Holt,
         ]);
-        assert!(combination_choice(&anchored)
-            .contains("plain mean of 4 methods, Dynamic optimised Theta and Theta with the best"));
+        assert!(combination_choice(&anchored).contains(
+            "plain mean of 4 methods: Dynamic optimised Theta, Theta and the best of the others"
+        ));
+        let with_aicc = Candidate::Combination(vec![
+            MethodKind::DynamicOptimisedTheta,
+            MethodKind::Theta,
+            MethodKind::SmoothingByAicc,
+        ]);
+        assert!(combination_choice(&with_aicc).contains(
+            "plain mean of 3 methods: Dynamic optimised Theta, Theta and the exponential \
+             smoothing model with the lowest AICc:"
+        ));
         assert_eq!(
             combination_choice(&Candidate::Method(MethodKind::Theta)),
             ""

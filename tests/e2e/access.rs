@@ -154,10 +154,20 @@ fn the_layout_fits_a_laptop_and_a_wide_screen() {
              return [document.documentElement.scrollWidth, window.innerWidth, \
                      c.getBoundingClientRect().width, p.width]");
         let n = |i: usize| fit[i].as_f64().unwrap_or(f64::NAN);
-        assert!(
-            n(0) <= n(1),
-            "{window:?}: the page scrolls sideways ({fit})"
-        );
+        if n(0) > n(1) {
+            // The elements that reach past the window, outermost first, to say which.
+            let wide = browser.js(
+                "const clipped = e => { for (let a = e.parentElement; a; a = a.parentElement) \
+                   if (['auto', 'scroll', 'hidden'].includes(getComputedStyle(a).overflowX)) \
+                     return true; return false; }; \
+                 return [...document.querySelectorAll('body *')]\
+                   .filter(e => e.getBoundingClientRect().right > window.innerWidth + 1 \
+                     && !clipped(e))\
+                   .slice(0, 6).map(e => e.tagName + '.' + e.className + ': ' \
+                     + e.textContent.slice(0, 80))",
+            );
+            panic!("{window:?}: the page scrolls sideways ({fit}): {wide:#}");
+        }
         // Every column of the Error ledger is in view, down to the tracking signal.
         let ledger = browser.js(
             "const w = document.querySelector('#error-ledger .table-wrap'); \

@@ -2,6 +2,7 @@
 //! SOURCES.md there): statsmodels 0.15.0 values here, NIST/SEMATECH e-Handbook and NAG examples
 //! and closed-form variances in smoothing_reference/handbook.rs.
 
+mod criterion;
 mod handbook;
 mod models;
 

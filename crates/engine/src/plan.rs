@@ -17,7 +17,7 @@ use crate::backtest::{
 };
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::{Frequency, Period};
-use crate::methods::{self, MethodKind};
+use crate::methods::{self, Fitted, MethodKind};
 use crate::patterns::{self, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict};
 use crate::series::Series;
 use crate::settings::{Choice, PlanSettings, SeasonChoice};
@@ -387,6 +387,7 @@ fn plan_inner(
             point,
             fitted,
             variance,
+            fitted_as,
         },
     ) = refit_first_that_fits(&bt, wanted, &mut notes, |c| {
         refit(c, &history, seasons, horizon)
@@ -397,6 +398,9 @@ fn plan_inner(
     })?;
     let best = &bt.ranking[row];
     let chosen = best.candidate.clone();
+    if let Some(note) = aicc_note(&chosen, &fitted_as) {
+        notes.push(note);
+    }
     if *settings.choice() == Choice::Auto && chosen == Candidate::Method(MethodKind::Sba) {
         notes.push(format!(
             "{}: SBA is the automatic choice for such demand (Syntetos, Boylan & Croston 2005); \
@@ -428,13 +432,14 @@ fn plan_inner(
     // The chosen candidate's errors from rolling origins: the horizon-aware band and the Stock
     // plan's spread over the lead time both rest on them, so they are worked out whatever band
     // is shown.
-    let min_train = (2 * seasons.for_candidate(&chosen).unwrap_or(1)).max(MIN_PERIODS);
+    let min_train = (2 * seasons.for_candidate(&fitted_as).unwrap_or(1)).max(MIN_PERIODS);
     let last_step = Progress {
         done: steps - 1,
         total: steps,
     };
+    // The model the criterion chose on the whole history is the one refitted at the origins.
     let origin_errors = backtest::rolling_errors(
-        &chosen,
+        &fitted_as,
         recent,
         seasons,
         horizon,
@@ -596,6 +601,26 @@ struct Refit {
     point: Vec<f64>,
     fitted: Vec<Option<f64>>,
     variance: Option<Vec<f64>>,
+    /// The candidate with each member as fitted: [`MethodKind::SmoothingByAicc`] replaced by
+    /// the model it chose.
+    fitted_as: Candidate,
+}
+
+/// Which model [`MethodKind::SmoothingByAicc`] chose on the whole history, when `chosen` has it.
+fn aicc_note(chosen: &Candidate, fitted_as: &Candidate) -> Option<String> {
+    let members = |c: &Candidate| match c {
+        Candidate::Method(k) => vec![*k],
+        Candidate::Combination(m) => m.clone(),
+    };
+    let at = members(chosen)
+        .iter()
+        .position(|k| *k == MethodKind::SmoothingByAicc)?;
+    let model = *members(fitted_as).get(at)?;
+    Some(format!(
+        "{}: {} has the lowest AICc on the whole history (Hyndman, Koehler, Snyder & Grose 2002)",
+        MethodKind::SmoothingByAicc.label(),
+        model.label()
+    ))
 }
 
 /// The refit of ranking row `wanted` or, when that candidate cannot be refitted on all the
@@ -651,6 +676,7 @@ fn refit(
                 point: f.forecast().to_vec(),
                 fitted: f.fitted().to_vec(),
                 variance: f.variance().map(<[f64]>::to_vec),
+                fitted_as: Candidate::Method(f.kind()),
             });
         }
         Candidate::Combination(members) => members,
@@ -665,6 +691,7 @@ fn refit(
         fitted,
         // A combination has no analytic variance: its band comes from rolling-origin errors.
         variance: None,
+        fitted_as: Candidate::Combination(fits.iter().map(Fitted::kind).collect()),
     })
 }
 

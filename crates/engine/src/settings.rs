@@ -46,9 +46,10 @@ pub const MAX_TRACKING_LIMIT: f64 = 20.0;
 #[derive(Clone, Debug, PartialEq, Eq, Default)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum Choice {
-    /// The equal-weight combination of [`crate::backtest::COMBINATION_SIZE`] single methods: the
-    /// two Theta models ([`crate::backtest::COMBINATION_ANCHORS`]) and the best-ranked others
-    /// (the best single method when fewer than two could be scored). On
+    /// The equal-weight combination of up to [`crate::backtest::COMBINATION_SIZE`] single
+    /// methods: the two Theta models ([`crate::backtest::COMBINATION_ANCHORS`]), the exponential
+    /// smoothing model with the lowest AICc and, with a season, the best-ranked others (the
+    /// best single method when fewer than two could be scored). On
     /// the M3 data always combining beat picking the top-ranked candidate (README, Benchmarks):
     /// a holdout of one season is too short to tell close methods apart, and averaging hedges
     /// the pick.

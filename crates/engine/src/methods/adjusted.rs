@@ -15,6 +15,9 @@
 use super::decompose::{self, Kind};
 use super::{Fitted, MethodError, Parameter};
 
+/// The parameter entry that marks an adjusted fit; its value is the season length.
+pub const ADJUSTED: &str = "season_adjusted";
+
 /// The season length to adjust by, when the adjustment applies to this history and season.
 pub fn applies(history: &[f64], season: Option<usize>) -> Option<usize> {
     let m = season.filter(|m| *m >= 2)?;
@@ -69,7 +72,7 @@ where
     });
     let mut parameters = inner.parameters().to_vec();
     parameters.push(Parameter {
-        name: "season_adjusted",
+        name: ADJUSTED,
         value: m as f64,
     });
     debug_assert_eq!(inner.forecast().len(), horizon);

@@ -22,6 +22,9 @@ crate::internal_modules!(
 
 use std::fmt;
 
+/// The AICc of the smoothing fits and the choice among them, for the backtest.
+pub(crate) use smoothing::criterion;
+
 /// The candidate methods. Published methods keep their usual names.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
@@ -50,6 +53,9 @@ pub enum MethodKind {
     Theta,
     /// Dynamic optimised Theta (Fiorucci, Pellegrini, Louzada, Petropoulos & Koehler 2016).
     DynamicOptimisedTheta,
+    /// The exponential smoothing model (simple, Holt, damped, Holt-Winters) with the lowest
+    /// AICc on the history (Hyndman, Koehler, Snyder & Grose 2002).
+    SmoothingByAicc,
     /// Least-squares line times classical seasonal indices.
     TrendSeasonal,
     /// Croston's method for intermittent demand (Croston 1972).
@@ -62,7 +68,7 @@ pub enum MethodKind {
 
 impl MethodKind {
     /// Every method, in a stable order.
-    pub const ALL: [MethodKind; 16] = [
+    pub const ALL: [MethodKind; 17] = [
         MethodKind::Naive,
         MethodKind::SeasonalNaive,
         MethodKind::MovingAverage,
@@ -75,6 +81,7 @@ impl MethodKind {
         MethodKind::DampedHoltWintersMultiplicative,
         MethodKind::Theta,
         MethodKind::DynamicOptimisedTheta,
+        MethodKind::SmoothingByAicc,
         MethodKind::TrendSeasonal,
         MethodKind::Croston,
         MethodKind::Sba,
@@ -96,6 +103,7 @@ impl MethodKind {
             MethodKind::DampedHoltWintersMultiplicative => "holt_winters_multiplicative_damped",
             MethodKind::Theta => "theta",
             MethodKind::DynamicOptimisedTheta => "dynamic_optimised_theta",
+            MethodKind::SmoothingByAicc => "smoothing_aicc",
             MethodKind::TrendSeasonal => "trend_seasonal",
             MethodKind::Croston => "croston",
             MethodKind::Sba => "sba",
@@ -118,6 +126,7 @@ impl MethodKind {
             MethodKind::DampedHoltWintersMultiplicative => "Holt-Winters multiplicative, damped",
             MethodKind::Theta => "Theta",
             MethodKind::DynamicOptimisedTheta => "Dynamic optimised Theta",
+            MethodKind::SmoothingByAicc => "Exponential smoothing chosen by AICc",
             MethodKind::TrendSeasonal => "Linear trend with seasonal indices",
             MethodKind::Croston => "Croston",
             MethodKind::Sba => "SBA",
@@ -357,6 +366,7 @@ pub fn fit(
         }
         MethodKind::Theta => theta::theta(history, season, horizon),
         MethodKind::DynamicOptimisedTheta => dotm::dotm(history, season, horizon),
+        MethodKind::SmoothingByAicc => smoothing::criterion::fit_by_aicc(history, season, horizon),
         MethodKind::TrendSeasonal => {
             trend_season::trend_seasonal(history, season.unwrap_or(1), horizon)
         }

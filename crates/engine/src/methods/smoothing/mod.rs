@@ -8,7 +8,8 @@
 //!   convention, formulas there);
 //! * [`init`]: heuristic and simple starting states;
 //! * [`estimate`] with [`state_solve`]: fitting by SSE minimisation;
-//! * [`variance`]: analytic h-step variances for the additive-error linear models.
+//! * [`variance`]: analytic h-step variances for the additive-error linear models;
+//! * [`criterion`]: the AICc under additive and multiplicative errors.
 //!
 //! Decisions documented here:
 //!
@@ -23,6 +24,7 @@
 //! * [`Fitted::parameters`] lists α, β, γ, φ (as used by the recursion), l0 and b0; the
 //!   seasonal initial states are in [`Fit::estimate`].
 
+pub mod criterion;
 pub mod estimate;
 pub mod init;
 pub mod model;

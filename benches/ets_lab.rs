@@ -1,0 +1,249 @@
+//! ETS laboratory: would choosing among the exponential smoothing models by AICc (Hyndman,
+//! Koehler, Snyder & Grose 2002, IJF 18; additive errors, the models Morrowcast fits) help the
+//! automatic choice on the M3 data? A research tool: each series is planned as the page plans
+//! it, then the AICc choice is fitted on the same train part and put beside, into or in place of
+//! members of the plan's combination; every rule is scored on the held-out actuals (sMAPE with
+//! |y| + |f| in the denominator, MASE). The README records what it showed.
+//!
+//! AICc = n ln(SSE / n) + 2k + 2k(k + 1) / (n - k - 1), k = the smoothing parameters, the free
+//! initial states (l0, b0, m - 1 seasonal) and the error variance (Hyndman et al. 2002, eq. for
+//! the Gaussian likelihood of additive errors, up to a constant).
+//!
+//! Run: `cargo bench --bench ets_lab [-- --subset YEARLY --limit 200]` (about 30 s).
+
+use std::collections::BTreeMap;
+
+use morrowcast_engine::backtest::{self, Candidate};
+use morrowcast_engine::methods::{self, MethodKind};
+use morrowcast_engine::plan;
+use morrowcast_engine::settings::PlanSettings;
+
+#[path = "common/m3_data.rs"]
+mod m3_data;
+use m3_data::{load, seasonal_scale, series_for, M3Series};
+
+const SMOOTHING: [MethodKind; 7] = [
+    MethodKind::Ses,
+    MethodKind::Holt,
+    MethodKind::DampedTrend,
+    MethodKind::HoltWintersAdditive,
+    MethodKind::HoltWintersMultiplicative,
+    MethodKind::DampedHoltWintersAdditive,
+    MethodKind::DampedHoltWintersMultiplicative,
+];
+
+/// The AICc-chosen smoothing model's forecast, and its kind; with `both_errors` each fit is
+/// also scored as a multiplicative-error model (its likelihood at the same fit: n ln(sum of
+/// (e / fitted)^2) + 2 sum ln |fitted|, Hyndman et al. 2002), when every fitted value is
+/// positive.
+fn by_aicc(
+    train: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+    both_errors: bool,
+) -> Option<(MethodKind, Vec<f64>)> {
+    let mut best: Option<(f64, MethodKind, Vec<f64>)> = None;
+    for kind in SMOOTHING {
+        let m = if kind.needs_season() { season } else { None };
+        if kind.needs_season() && m.is_none() {
+            continue;
+        }
+        let Ok(fit) = methods::fit(kind, train, m, horizon) else {
+            continue;
+        };
+        let (mut sse, mut n) = (0.0, 0usize);
+        let (mut relative, mut logs, mut positive) = (0.0, 0.0, true);
+        for (f, y) in fit.fitted().iter().zip(train) {
+            if let Some(f) = f {
+                sse += (y - f).powi(2);
+                n += 1;
+                positive &= *f > 0.0;
+                relative += ((y - f) / f).powi(2);
+                logs += f.abs().ln();
+            }
+        }
+        let seasonal_states = m.map_or(0, |m| m - 1);
+        let k = (fit.parameters().len() + seasonal_states + 1) as f64;
+        let nf = n as f64;
+        if nf - k - 1.0 <= 0.0 || sse <= 0.0 {
+            continue;
+        }
+        let penalty = 2.0 * k + 2.0 * k * (k + 1.0) / (nf - k - 1.0);
+        let mut aicc = nf * (sse / nf).ln() + penalty;
+        if both_errors && positive && relative > 0.0 {
+            aicc = aicc.min(nf * (relative / nf).ln() + 2.0 * logs + penalty);
+        }
+        if best.as_ref().is_none_or(|b| aicc < b.0) {
+            best = Some((aicc, kind, fit.forecast().to_vec()));
+        }
+    }
+    best.map(|(_, k, f)| (k, f))
+}
+
+#[derive(Default)]
+struct Tally {
+    smape: f64,
+    mase: f64,
+    count: usize,
+}
+
+impl Tally {
+    fn add(&mut self, s: &M3Series, f: &[f64]) {
+        let scale = seasonal_scale(s);
+        for (y, f) in s.test.iter().zip(f) {
+            let d = y.abs() + f.abs();
+            self.smape += if d > 0.0 {
+                200.0 * (y - f).abs() / d
+            } else {
+                0.0
+            };
+            self.mase += (y - f).abs() / scale;
+            self.count += 1;
+        }
+    }
+}
+
+fn mean(forecasts: &[&Vec<f64>], h: usize) -> Vec<f64> {
+    (0..h)
+        .map(|i| forecasts.iter().map(|f| f[i]).sum::<f64>() / forecasts.len() as f64)
+        .collect()
+}
+
+fn main() {
+    let args: Vec<String> = std::env::args().collect();
+    let arg = |name: &str| {
+        args.iter()
+            .position(|a| a == name)
+            .and_then(|i| args.get(i + 1))
+            .cloned()
+    };
+    let subset_filter = arg("--subset");
+    let limit: usize = arg("--limit")
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(usize::MAX);
+    let all = load(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/m3/m3.csv"
+    ));
+    let mut tallies: BTreeMap<(String, &str), Tally> = BTreeMap::new();
+    let mut picked: BTreeMap<(String, &str), usize> = BTreeMap::new();
+    let mut taken: BTreeMap<String, usize> = BTreeMap::new();
+    for s in all
+        .iter()
+        .filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset))
+    {
+        let n = taken.entry(s.subset.clone()).or_default();
+        if *n >= limit {
+            continue;
+        }
+        *n += 1;
+        let h = s.horizon;
+        let settings = PlanSettings::default()
+            .with_horizon(Some(h as u64))
+            .unwrap();
+        let Ok(p) = plan::plan_item(&series_for(s), &settings) else {
+            continue;
+        };
+        let auto: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
+        let season = p.seasons.for_method(MethodKind::HoltWintersAdditive);
+        let Some((kind, ets)) = by_aicc(&s.train, season, h, false) else {
+            continue;
+        };
+        let both = by_aicc(&s.train, season, h, true).map_or_else(|| ets.clone(), |b| b.1);
+        *picked.entry((s.subset.clone(), kind.key())).or_default() += 1;
+        let members: Vec<MethodKind> = match &p.chosen {
+            Candidate::Combination(m) => m.clone(),
+            Candidate::Method(k) => vec![*k],
+        };
+        let member_forecasts: Vec<Vec<f64>> = members
+            .iter()
+            .map(|k| {
+                backtest::forecast_with(&Candidate::Method(*k), &s.train, p.seasons, h)
+                    .unwrap_or_else(|_| auto.clone())
+            })
+            .collect();
+        let theta_pair: Vec<&Vec<f64>> = members
+            .iter()
+            .zip(&member_forecasts)
+            .filter(|(k, _)| matches!(k, MethodKind::Theta | MethodKind::DynamicOptimisedTheta))
+            .map(|(_, f)| f)
+            .collect();
+        let others: Vec<&Vec<f64>> = members
+            .iter()
+            .zip(&member_forecasts)
+            .filter(|(k, _)| !matches!(k, MethodKind::Theta | MethodKind::DynamicOptimisedTheta))
+            .map(|(_, f)| f)
+            .collect();
+        let mut rules: Vec<(&str, Vec<f64>)> = vec![("auto (today)", auto.clone())];
+        rules.push(("ETS by AICc alone", ets.clone()));
+        rules.push(("ETS, A and M errors, alone", both.clone()));
+        if members.len() > 1 {
+            let mut five: Vec<&Vec<f64>> = member_forecasts.iter().collect();
+            five.push(&ets);
+            rules.push(("the combination plus ETS by AICc", mean(&five, h)));
+            if let Some(best_other) = others.first() {
+                let mut four = theta_pair.clone();
+                four.push(best_other);
+                four.push(&ets);
+                rules.push(("Theta pair + best other + ETS by AICc", mean(&four, h)));
+            }
+            let mut three = theta_pair.clone();
+            three.push(&ets);
+            rules.push(("Theta pair + ETS by AICc", mean(&three, h)));
+            let mut three = theta_pair.clone();
+            three.push(&both);
+            rules.push(("Theta pair + ETS, A and M errors", mean(&three, h)));
+            let mut five: Vec<&Vec<f64>> = member_forecasts.iter().collect();
+            five.push(&both);
+            rules.push(("the combination plus ETS, A and M errors", mean(&five, h)));
+            let seasonless = p.seasons.accepted_length().is_none();
+            let mut pair_both = theta_pair.clone();
+            pair_both.push(&both);
+            let pair_both = mean(&pair_both, h);
+            let five_both = mean(&five, h);
+            rules.push((
+                "no season: pair + ETS A/M; else today's",
+                if seasonless {
+                    pair_both.clone()
+                } else {
+                    auto.clone()
+                },
+            ));
+            rules.push((
+                "no season: pair + ETS A/M; else today's + ETS A/M",
+                if seasonless { pair_both } else { five_both },
+            ));
+        } else {
+            rules.push(("the combination plus ETS by AICc", auto.clone()));
+            rules.push(("Theta pair + best other + ETS by AICc", auto.clone()));
+            rules.push(("Theta pair + ETS by AICc", auto.clone()));
+            rules.push(("Theta pair + ETS, A and M errors", auto.clone()));
+            rules.push(("the combination plus ETS, A and M errors", auto.clone()));
+            rules.push(("no season: pair + ETS A/M; else today's", auto.clone()));
+            rules.push((
+                "no season: pair + ETS A/M; else today's + ETS A/M",
+                auto.clone(),
+            ));
+        }
+        for (name, f) in rules {
+            tallies
+                .entry((s.subset.clone(), name))
+                .or_default()
+                .add(s, &f);
+            tallies.entry(("ALL".into(), name)).or_default().add(s, &f);
+        }
+    }
+    println!("| subset | rule | sMAPE | MASE |");
+    for ((subset, rule), t) in &tallies {
+        let c = t.count.max(1) as f64;
+        println!(
+            "| {subset} | {rule} | {:.2} | {:.3} |",
+            t.smape / c,
+            t.mase / c
+        );
+    }
+    println!("| subset | model picked by AICc | series |");
+    for ((subset, kind), n) in &picked {
+        println!("| {subset} | {kind} | {n} |");
+    }
+}
