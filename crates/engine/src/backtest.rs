@@ -655,7 +655,19 @@ pub fn rolling_errors(
         Candidate::Method(kind) => vec![*kind],
         Candidate::Combination(members) => members.clone(),
     };
-    let mut latest_fit: Vec<Option<Fitted>> = vec![None; members.len()];
+    // A method may stand twice (the model the AICc chose may also be a best other): each
+    // distinct one is fitted once and counted as often as it stands.
+    let mut distinct: Vec<MethodKind> = Vec::new();
+    for kind in &members {
+        if !distinct.contains(kind) {
+            distinct.push(*kind);
+        }
+    }
+    let slot: Vec<usize> = members
+        .iter()
+        .map(|k| distinct.iter().position(|d| d == k).unwrap_or(0))
+        .collect();
+    let mut latest_fit: Vec<Option<Fitted>> = vec![None; distinct.len()];
     let mut paths = Vec::new();
     for (i, end) in band_origins(n, horizon, min_train, max_origins)
         .into_iter()
@@ -665,7 +677,7 @@ pub fn rolling_errors(
         let steps = horizon.min(n - end);
         let train = &history[..end];
         let refit = i % REFIT_EVERY == 0;
-        let forecasts = members
+        let forecasts = distinct
             .iter()
             .zip(&mut latest_fit)
             .map(|(kind, latest)| -> Result<Vec<f64>, MethodError> {
@@ -690,7 +702,8 @@ pub fn rolling_errors(
         let Ok(forecasts) = forecasts else {
             continue;
         };
-        let f = combine_forecasts(&forecasts, steps);
+        let standing: Vec<Vec<f64>> = slot.iter().map(|&i| forecasts[i].clone()).collect();
+        let f = combine_forecasts(&standing, steps);
         paths.push(
             f.iter()
                 .zip(&history[end..end + steps])

@@ -17,7 +17,7 @@ use crate::backtest::{
 };
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::{Frequency, Period};
-use crate::methods::{self, Fitted, MethodKind};
+use crate::methods::{self, criterion, Fitted, MethodKind};
 use crate::patterns::{self, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict};
 use crate::series::Series;
 use crate::settings::{Choice, PlanSettings, SeasonChoice};
@@ -681,7 +681,28 @@ fn refit(
         }
         Candidate::Combination(members) => members,
     };
-    let fits = members.iter().map(fit).collect::<Result<Vec<_>, _>>()?;
+    // The AICc method fits the smoothing models anyway: a member that is one of them, with the
+    // same season, takes that fit rather than a second, identical one.
+    let each = if members.contains(&MethodKind::SmoothingByAicc) {
+        criterion::fit_each(history, seasons.accepted_length(), horizon)
+    } else {
+        Vec::new()
+    };
+    let fits = members
+        .iter()
+        .map(|kind| match kind {
+            MethodKind::SmoothingByAicc => {
+                criterion::choose(&each, history).map_err(|e| e.to_string())
+            }
+            _ => match each
+                .iter()
+                .find(|(k, _)| k == kind && seasons.for_method(*kind) == seasons.accepted_length())
+            {
+                Some((_, done)) => done.clone().map_err(|e| e.to_string()),
+                None => fit(kind),
+            },
+        })
+        .collect::<Result<Vec<_>, _>>()?;
     let forecasts: Vec<Vec<f64>> = fits.iter().map(|f| f.forecast().to_vec()).collect();
     let fitted = (0..history.len())
         .map(|t| backtest::combine_point(fits.iter().map(|f| f.fitted()[t])))

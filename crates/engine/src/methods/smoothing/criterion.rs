@@ -40,40 +40,55 @@ pub fn lower(better: f64, best: Option<f64>) -> bool {
 }
 
 /// Fits every model of [`CHOICES`] that applies to `history` (with `season`, the accepted
-/// season length) and returns the fit with the lowest [`aicc`]; its [`Fitted::kind`] names the
-/// model chosen. When no fit has an AICc (too few periods for the parameters), the simplest
-/// model that fits.
+/// season length), each with its outcome.
+pub fn fit_each(
+    history: &[f64],
+    season: Option<usize>,
+    horizon: usize,
+) -> Vec<(MethodKind, Result<Fitted, MethodError>)> {
+    CHOICES
+        .into_iter()
+        .filter(|k| !k.needs_season() || season.is_some())
+        .map(|kind| (kind, fit(kind, history, season, horizon)))
+        .collect()
+}
+
+/// Of [`fit_each`]'s fits, the one with the lowest [`aicc`] (its [`Fitted::kind`] names the
+/// model chosen); when no fit has an AICc (too few periods for the parameters), the simplest
+/// that fitted; else the first error.
+pub fn choose(
+    fits: &[(MethodKind, Result<Fitted, MethodError>)],
+    history: &[f64],
+) -> Result<Fitted, MethodError> {
+    let mut best: Option<(f64, &Fitted)> = None;
+    for f in fits.iter().filter_map(|(_, f)| f.as_ref().ok()) {
+        if let Some(a) = aicc(f, history) {
+            if lower(a, best.map(|b| b.0)) {
+                best = Some((a, f));
+            }
+        }
+    }
+    if let Some((_, f)) = best {
+        return Ok(f.clone());
+    }
+    let simplest = fits.iter().find_map(|(_, f)| f.as_ref().ok());
+    match (simplest, fits.iter().find_map(|(_, f)| f.as_ref().err())) {
+        (Some(f), _) => Ok(f.clone()),
+        (None, Some(e)) => Err(e.clone()),
+        (None, None) => Err(MethodError::Diverged {
+            method: MethodKind::SmoothingByAicc,
+        }),
+    }
+}
+
+/// [`choose`] over [`fit_each`]: the exponential smoothing model with the lowest AICc on
+/// `history`, fitted.
 pub fn fit_by_aicc(
     history: &[f64],
     season: Option<usize>,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
-    let mut best: Option<(f64, Fitted)> = None;
-    let mut simplest: Option<Fitted> = None;
-    let mut first_error = None;
-    for kind in CHOICES
-        .into_iter()
-        .filter(|k| !k.needs_season() || season.is_some())
-    {
-        match fit(kind, history, season, horizon) {
-            Ok(f) => {
-                if let Some(a) = aicc(&f, history) {
-                    if lower(a, best.as_ref().map(|b| b.0)) {
-                        best = Some((a, f.clone()));
-                    }
-                }
-                simplest.get_or_insert(f);
-            }
-            Err(e) => {
-                first_error.get_or_insert(e);
-            }
-        }
-    }
-    best.map(|(_, f)| f).or(simplest).ok_or(first_error.unwrap_or(
-        MethodError::Diverged {
-            method: MethodKind::SmoothingByAicc,
-        },
-    ))
+    choose(&fit_each(history, season, horizon), history)
 }
 
 /// −2 ln L of one-step fitted values, without the constant n (ln 2π + 1) both forms share.
