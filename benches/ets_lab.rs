@@ -175,6 +175,52 @@ fn main() {
             .map(|(_, f)| f)
             .collect();
         let mut rules: Vec<(&str, Vec<f64>)> = vec![("auto (today)", auto.clone())];
+        // With an accepted season: the anchors, the AICc method and the best `k` others of
+        // the ranking (today: k = 2), each forecast on the whole train part.
+        if p.seasons.accepted_length().is_some() {
+            let ranked: Vec<MethodKind> = p
+                .backtest
+                .ranking
+                .iter()
+                .filter_map(|r| match r.candidate {
+                    Candidate::Method(k) => Some(k),
+                    Candidate::Combination(_) => None,
+                })
+                .filter(|k| {
+                    !matches!(
+                        k,
+                        MethodKind::Theta
+                            | MethodKind::DynamicOptimisedTheta
+                            | MethodKind::SmoothingByAicc
+                    )
+                })
+                .collect();
+            let base = [
+                MethodKind::DynamicOptimisedTheta,
+                MethodKind::Theta,
+                MethodKind::SmoothingByAicc,
+            ];
+            for (name, k, with_aicc) in [
+                ("seasonal: anchors + AICc + best 1", 1usize, true),
+                ("seasonal: anchors + AICc + best 3", 3, true),
+                ("seasonal: anchors + best 2 (no AICc)", 2, false),
+            ] {
+                let kinds: Vec<MethodKind> = base
+                    .iter()
+                    .copied()
+                    .filter(|b| with_aicc || *b != MethodKind::SmoothingByAicc)
+                    .chain(ranked.iter().copied().take(k))
+                    .collect();
+                let f =
+                    backtest::forecast_with(&Candidate::Combination(kinds), &s.train, p.seasons, h)
+                        .unwrap_or_else(|_| auto.clone());
+                rules.push((name, f));
+            }
+        } else {
+            rules.push(("seasonal: anchors + AICc + best 1", auto.clone()));
+            rules.push(("seasonal: anchors + AICc + best 3", auto.clone()));
+            rules.push(("seasonal: anchors + best 2 (no AICc)", auto.clone()));
+        }
         rules.push(("ETS by AICc alone", ets.clone()));
         rules.push(("ETS, A and M errors, alone", both.clone()));
         if members.len() > 1 {
