@@ -216,7 +216,58 @@ fn main() {
                         .unwrap_or_else(|_| auto.clone());
                 rules.push((name, f));
             }
+            for name in [
+                "no season: others from 24 pooled errors",
+                "no season: others from 30 pooled errors",
+                "no season: others from 36 pooled errors",
+            ] {
+                rules.push((name, auto.clone()));
+            }
         } else {
+            // Without a season: the best two others too where the backtest pooled at least
+            // `least` holdout errors to rank them by.
+            let pooled = p.backtest.origins_used * p.backtest.holdout_demand.len();
+            let ranked: Vec<MethodKind> = p
+                .backtest
+                .ranking
+                .iter()
+                .filter_map(|r| match r.candidate {
+                    Candidate::Method(k) => Some(k),
+                    Candidate::Combination(_) => None,
+                })
+                .filter(|k| {
+                    !matches!(
+                        k,
+                        MethodKind::Theta
+                            | MethodKind::DynamicOptimisedTheta
+                            | MethodKind::SmoothingByAicc
+                    )
+                })
+                .take(2)
+                .collect();
+            let mut kinds = vec![
+                MethodKind::DynamicOptimisedTheta,
+                MethodKind::Theta,
+                MethodKind::SmoothingByAicc,
+            ];
+            kinds.extend(ranked);
+            let with_others =
+                backtest::forecast_with(&Candidate::Combination(kinds), &s.train, p.seasons, h)
+                    .unwrap_or_else(|_| auto.clone());
+            for (name, least) in [
+                ("no season: others from 24 pooled errors", 24usize),
+                ("no season: others from 30 pooled errors", 30),
+                ("no season: others from 36 pooled errors", 36),
+            ] {
+                rules.push((
+                    name,
+                    if pooled >= least {
+                        with_others.clone()
+                    } else {
+                        auto.clone()
+                    },
+                ));
+            }
             rules.push(("seasonal: anchors + AICc + best 1", auto.clone()));
             rules.push(("seasonal: anchors + AICc + best 3", auto.clone()));
             rules.push(("seasonal: anchors + best 2 (no AICc)", auto.clone()));
