@@ -390,7 +390,7 @@ fn plan_inner(
             fitted_as,
         },
     ) = refit_first_that_fits(&bt, wanted, &mut notes, |c| {
-        refit(c, &history, seasons, horizon)
+        refit(c, &history, recent.len(), seasons, horizon)
     })
     .map_err(|reasons| PlanError::NoRefit {
         name: name.clone(),
@@ -663,6 +663,7 @@ fn refit_first_that_fits(
 fn refit(
     candidate: &Candidate,
     history: &[f64],
+    recent: usize,
     seasons: Seasons,
     horizon: usize,
 ) -> Result<Refit, String> {
@@ -670,30 +671,32 @@ fn refit(
         methods::fit(*kind, history, seasons.for_method(*kind), horizon).map_err(|e| e.to_string())
     };
     let members = match candidate {
-        Candidate::Method(kind) => {
-            let f = fit(kind)?;
-            return Ok(Refit {
-                point: f.forecast().to_vec(),
-                fitted: f.fitted().to_vec(),
-                variance: f.variance().map(<[f64]>::to_vec),
-                fitted_as: Candidate::Method(f.kind()),
-            });
-        }
-        Candidate::Combination(members) => members,
+        Candidate::Method(kind) => vec![*kind],
+        Candidate::Combination(members) => members.clone(),
     };
-    // The AICc method fits the smoothing models anyway: a member that is one of them, with the
-    // same season, takes that fit rather than a second, identical one.
-    let each = if members.contains(&MethodKind::SmoothingByAicc) {
-        criterion::fit_each(history, seasons.accepted_length(), horizon)
+    // The AICc method chooses on the `recent` periods, as the ranking does, and the model it
+    // chose is fitted on all of them. When those are all, a member that is one of the models
+    // it fitted, with the same season, takes that fit rather than a second, identical one.
+    let (each, by_aicc) = if members.contains(&MethodKind::SmoothingByAicc) {
+        let window = &history[history.len() - recent.min(history.len())..];
+        let each = criterion::fit_each(window, seasons.accepted_length(), horizon);
+        let chosen = criterion::choose(&each, window).map_err(|e| e.to_string())?;
+        if window.len() == history.len() {
+            (each, Some(chosen))
+        } else {
+            let whole = methods::fit(chosen.kind(), history, seasons.accepted_length(), horizon)
+                .map_err(|e| e.to_string())?;
+            (Vec::new(), Some(whole))
+        }
     } else {
-        Vec::new()
+        (Vec::new(), None)
     };
     let fits = members
         .iter()
         .map(|kind| match kind {
-            MethodKind::SmoothingByAicc => {
-                criterion::choose(&each, history).map_err(|e| e.to_string())
-            }
+            MethodKind::SmoothingByAicc => by_aicc
+                .clone()
+                .ok_or_else(|| "no exponential smoothing model could be fitted".to_string()),
             _ => match each
                 .iter()
                 .find(|(k, _)| k == kind && seasons.for_method(*kind) == seasons.accepted_length())
@@ -703,6 +706,14 @@ fn refit(
             },
         })
         .collect::<Result<Vec<_>, _>>()?;
+    if let (Candidate::Method(_), Some(f)) = (candidate, fits.first()) {
+        return Ok(Refit {
+            point: f.forecast().to_vec(),
+            fitted: f.fitted().to_vec(),
+            variance: f.variance().map(<[f64]>::to_vec),
+            fitted_as: Candidate::Method(f.kind()),
+        });
+    }
     let forecasts: Vec<Vec<f64>> = fits.iter().map(|f| f.forecast().to_vec()).collect();
     let fitted = (0..history.len())
         .map(|t| backtest::combine_point(fits.iter().map(|f| f.fitted()[t])))
