@@ -217,6 +217,8 @@ fn main() {
                 rules.push((name, f));
             }
             for name in [
+                "no season: former rule from 30 pooled errors, else anchors + AICc",
+                "no season: anchors + best 2 (no AICc)",
                 "no season: others from 24 pooled errors",
                 "no season: others from 30 pooled errors",
                 "no season: others from 36 pooled errors",
@@ -245,6 +247,22 @@ fn main() {
                 })
                 .take(2)
                 .collect();
+            let former: Vec<MethodKind> = [MethodKind::DynamicOptimisedTheta, MethodKind::Theta]
+                .into_iter()
+                .chain(ranked.iter().copied())
+                .collect();
+            let former =
+                backtest::forecast_with(&Candidate::Combination(former), &s.train, p.seasons, h)
+                    .unwrap_or_else(|_| auto.clone());
+            rules.push((
+                "no season: former rule from 30 pooled errors, else anchors + AICc",
+                if pooled >= 30 {
+                    former.clone()
+                } else {
+                    auto.clone()
+                },
+            ));
+            rules.push(("no season: anchors + best 2 (no AICc)", former));
             let mut kinds = vec![
                 MethodKind::DynamicOptimisedTheta,
                 MethodKind::Theta,
