@@ -350,6 +350,21 @@ fn a_very_long_history_is_ranked_on_its_recent_periods_and_says_so() {
     );
     assert_eq!(p.history.len(), n);
     assert_eq!(p.fitted.len(), n);
+    // The AICc method chooses its model on those recent periods too, and says so.
+    let by_aicc = plan_item(
+        &s,
+        &PlanSettings::default().with_choice(Choice::Named("smoothing_aicc".into())),
+    )
+    .unwrap();
+    assert!(
+        by_aicc
+            .notes
+            .iter()
+            .any(|n| n.starts_with("Exponential smoothing chosen by AICc:")
+                && n.contains(&format!("lowest AICc on the last {RECENT_PERIODS} periods"))),
+        "{:?}",
+        by_aicc.notes
+    );
     let last = s.period(n - 1);
     assert_eq!(p.ledger.last().unwrap().period, last);
     assert_eq!(p.forecast[0].period, last.offset(1));

@@ -108,6 +108,13 @@ impl Candidate {
             Candidate::Combination(_) => "combination",
         }
     }
+    /// The methods it forecasts with: the one method, or the combination's members.
+    pub fn members(&self) -> &[MethodKind] {
+        match self {
+            Candidate::Method(kind) => std::slice::from_ref(kind),
+            Candidate::Combination(members) => members,
+        }
+    }
     /// Name for people, e.g. "Combination of Theta, Damped trend, SBA".
     pub fn label(&self) -> String {
         match self {
@@ -265,13 +272,11 @@ impl Seasons {
 
     /// The longest season a member of `candidate` is fitted with.
     pub fn for_candidate(self, candidate: &Candidate) -> Option<usize> {
-        match candidate {
-            Candidate::Method(kind) => self.for_method(*kind),
-            Candidate::Combination(members) => members
-                .iter()
-                .filter_map(|kind| self.for_method(*kind))
-                .max(),
-        }
+        candidate
+            .members()
+            .iter()
+            .filter_map(|kind| self.for_method(*kind))
+            .max()
     }
 }
 
@@ -668,14 +673,11 @@ pub fn rolling_errors(
     tick: &mut dyn FnMut(),
 ) -> OriginErrors {
     let n = history.len();
-    let members: Vec<MethodKind> = match candidate {
-        Candidate::Method(kind) => vec![*kind],
-        Candidate::Combination(members) => members.clone(),
-    };
+    let members = candidate.members();
     // A method may stand twice (the model the AICc chose may also be a best other): each
     // distinct one is fitted once and counted as often as it stands.
     let mut distinct: Vec<MethodKind> = Vec::new();
-    for kind in &members {
+    for kind in members {
         if !distinct.contains(kind) {
             distinct.push(*kind);
         }

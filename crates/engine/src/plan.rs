@@ -398,7 +398,12 @@ fn plan_inner(
     })?;
     let best = &bt.ranking[row];
     let chosen = best.candidate.clone();
-    if let Some(note) = aicc_note(&chosen, &fitted_as) {
+    let over = if recent.len() < n {
+        format!("the last {} periods", recent.len())
+    } else {
+        "the whole history".to_string()
+    };
+    if let Some(note) = aicc_note(&chosen, &fitted_as, &over) {
         notes.push(note);
     }
     if *settings.choice() == Choice::Auto && chosen == Candidate::Method(MethodKind::Sba) {
@@ -437,7 +442,7 @@ fn plan_inner(
         done: steps - 1,
         total: steps,
     };
-    // The model the criterion chose on the whole history is the one refitted at the origins.
+    // The model the criterion chose is the one refitted at the origins.
     let origin_errors = backtest::rolling_errors(
         &fitted_as,
         recent,
@@ -606,18 +611,16 @@ struct Refit {
     fitted_as: Candidate,
 }
 
-/// Which model [`MethodKind::SmoothingByAicc`] chose on the whole history, when `chosen` has it.
-fn aicc_note(chosen: &Candidate, fitted_as: &Candidate) -> Option<String> {
-    let members = |c: &Candidate| match c {
-        Candidate::Method(k) => vec![*k],
-        Candidate::Combination(m) => m.clone(),
-    };
-    let at = members(chosen)
+/// Which model [`MethodKind::SmoothingByAicc`] chose, when `chosen` has it; `over` says on
+/// which periods (the whole history, or its most recent [`RECENT_PERIODS`]).
+fn aicc_note(chosen: &Candidate, fitted_as: &Candidate, over: &str) -> Option<String> {
+    let at = chosen
+        .members()
         .iter()
         .position(|k| *k == MethodKind::SmoothingByAicc)?;
-    let model = *members(fitted_as).get(at)?;
+    let model = fitted_as.members().get(at)?;
     Some(format!(
-        "{}: {} has the lowest AICc on the whole history (Hyndman, Koehler, Snyder & Grose 2002)",
+        "{}: {} has the lowest AICc on {over} (Hyndman, Koehler, Snyder & Grose 2002)",
         MethodKind::SmoothingByAicc.label(),
         model.label()
     ))
@@ -670,10 +673,7 @@ fn refit(
     let fit = |kind: &MethodKind| {
         methods::fit(*kind, history, seasons.for_method(*kind), horizon).map_err(|e| e.to_string())
     };
-    let members = match candidate {
-        Candidate::Method(kind) => vec![*kind],
-        Candidate::Combination(members) => members.clone(),
-    };
+    let members = candidate.members();
     // The AICc method chooses on the `recent` periods, as the ranking does, and the model it
     // chose is fitted on all of them. When those are all, a member that is one of the models
     // it fitted, with the same season, takes that fit rather than a second, identical one.

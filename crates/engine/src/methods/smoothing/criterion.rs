@@ -4,7 +4,8 @@
 //! Ord & Snyder 2008, Forecasting with Exponential Smoothing, ch. 5 and 7).
 //!
 //! Kept apart from: fitting ([`super::estimate`]: the parameters are the least-squares ones,
-//! whichever error the criterion assumes) and from the choice itself ([`crate::backtest`]).
+//! whichever error the criterion assumes) and from the combination's use of the choice
+//! ([`crate::backtest`], which also builds the method's holdout forecasts from its own fits).
 //!
 //! With one-step fitted values ŷ_t over n periods, up to a constant both share:
 //! * additive errors: −2 ln L = n ln(Σ (y_t − ŷ_t)² / n);
@@ -21,18 +22,11 @@
 use super::super::adjusted::ADJUSTED;
 use super::super::{fit, Anchor, Fitted, MethodError, MethodKind};
 
-/// The models the criterion chooses among, simplest first (a tie keeps the simpler). The
-/// non-seasonal ones are fitted to the seasonally adjusted history when a season is accepted
-/// ([`crate::methods::fit`]); the Holt-Winters ones only with a season.
-pub const CHOICES: [MethodKind; 7] = [
-    MethodKind::Ses,
-    MethodKind::Holt,
-    MethodKind::DampedTrend,
-    MethodKind::HoltWintersAdditive,
-    MethodKind::HoltWintersMultiplicative,
-    MethodKind::DampedHoltWintersAdditive,
-    MethodKind::DampedHoltWintersMultiplicative,
-];
+/// The models the criterion chooses among: the smoothing module's own, simplest first (a tie
+/// keeps the simpler). The non-seasonal ones are fitted to the seasonally adjusted history
+/// when a season is accepted ([`crate::methods::fit`]); the Holt-Winters ones only with a
+/// season.
+pub const CHOICES: [MethodKind; 7] = super::KINDS;
 
 /// Whether `better` (an AICc) beats the best so far.
 pub fn lower(better: f64, best: Option<f64>) -> bool {

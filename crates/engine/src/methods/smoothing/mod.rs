@@ -46,8 +46,8 @@ pub use recursion::run;
 
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
-/// The methods this module fits (listed for the tests, here and in the reference tests).
-#[cfg(any(test, feature = "internals"))]
+/// The methods this module fits, simplest first: the models the AICc chooses among
+/// ([`criterion`]), and the list the tests here and the reference tests go through.
 pub const KINDS: [MethodKind; 7] = [
     MethodKind::Ses,
     MethodKind::Holt,
