@@ -147,10 +147,8 @@ impl WorkState {
         let this = *self;
         let mut refused_link = None;
         if let Some(fragment) = browser::work_fragment() {
-            self.open_text(&fragment, "the share link");
-            match self.notice.get_untracked() {
-                Some(WorkNotice::Opened(_)) => {
-                    browser::clear_fragment();
+            match self.open_address_link(&fragment) {
+                Ok(()) => {
                     if !keep::keeping_allowed() {
                         self.keeping.set(Keeping::Off { forgotten: false });
                         return;
@@ -160,8 +158,7 @@ impl WorkState {
                     spawn_local(async move { this.set_aside_then_keep().await });
                     return;
                 }
-                Some(WorkNotice::Refused(why)) => refused_link = Some(why),
-                None => {}
+                Err(why) => refused_link = why,
             }
         }
         if !keep::keeping_allowed() {
@@ -232,17 +229,29 @@ impl WorkState {
         if keeps {
             self.keeping.set(Keeping::Starting);
         }
-        self.open_text(&fragment, "the share link");
-        if !matches!(self.notice.get_untracked(), Some(WorkNotice::Opened(_))) {
-            if keeps {
+        let opened = self.open_address_link(&fragment).is_ok();
+        if keeps {
+            if opened {
+                let this = *self;
+                spawn_local(async move { this.set_aside_then_keep().await });
+            } else {
                 self.keeping.set(before);
             }
-            return;
         }
-        browser::clear_fragment();
-        if keeps {
-            let this = *self;
-            spawn_local(async move { this.set_aside_then_keep().await });
+    }
+
+    /// Opens `fragment`, a share link's from the address, and once it is open takes it out of
+    /// the address (a reload then shows the desk as it is, not as the link had it). `Err`
+    /// holds the refusal's words, which the notice shows too.
+    fn open_address_link(&self, fragment: &str) -> Result<(), Option<String>> {
+        self.open_text(fragment, "the share link");
+        match self.notice.get_untracked() {
+            Some(WorkNotice::Opened(_)) => {
+                browser::clear_fragment();
+                Ok(())
+            }
+            Some(WorkNotice::Refused(why)) => Err(Some(why)),
+            None => Err(None),
         }
     }
 
