@@ -24,7 +24,7 @@ use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{load, seasonal_scale as scale, series_for};
+use m3_data::{chosen_series, seasonal_scale as scale, series_for};
 
 /// Student-t quantile by the Cornish-Fisher expansion in 1/nu (Abramowitz & Stegun 26.7.5).
 fn t_quantile(p: f64, nu: f64) -> f64 {
@@ -532,21 +532,7 @@ fn strided_origins(
 }
 
 fn main() {
-    let args: Vec<String> = std::env::args().collect();
-    let arg = |name: &str| {
-        args.iter()
-            .position(|a| a == name)
-            .and_then(|i| args.get(i + 1))
-            .cloned()
-    };
-    let subset_filter = arg("--subset");
-    let limit: usize = arg("--limit")
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(usize::MAX);
-    let all = load(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/m3/m3.csv"
-    ));
+    let all = chosen_series();
     let rules: [(&str, Rule); 17] = [
         ("engine", engine),
         ("iso_t", iso_t),
@@ -577,17 +563,8 @@ fn main() {
         (1000, 1),
     ];
     let mut scores: BTreeMap<(String, String), Score> = BTreeMap::new();
-    let mut taken: BTreeMap<String, usize> = BTreeMap::new();
     let mut by_third: BTreeMap<(String, String), [usize; 3]> = BTreeMap::new();
-    for s in all
-        .iter()
-        .filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset))
-    {
-        let n = taken.entry(s.subset.clone()).or_default();
-        if *n >= limit {
-            continue;
-        }
-        *n += 1;
+    for s in &all {
         let settings = PlanSettings::default()
             .with_horizon(Some(s.horizon as u64))
             .unwrap();

@@ -14,28 +14,20 @@
 use std::collections::BTreeMap;
 
 use morrowcast_engine::backtest::{self, Candidate};
+use morrowcast_engine::methods::smoothing::criterion::{corrected_aic, likelihoods};
+use morrowcast_engine::methods::smoothing::KINDS;
 use morrowcast_engine::methods::{self, MethodKind};
-use morrowcast_engine::plan;
+use morrowcast_engine::plan::{self, ItemPlan};
 use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{load, seasonal_scale, series_for, M3Series};
-
-const SMOOTHING: [MethodKind; 7] = [
-    MethodKind::Ses,
-    MethodKind::Holt,
-    MethodKind::DampedTrend,
-    MethodKind::HoltWintersAdditive,
-    MethodKind::HoltWintersMultiplicative,
-    MethodKind::DampedHoltWintersAdditive,
-    MethodKind::DampedHoltWintersMultiplicative,
-];
+use m3_data::{chosen_series, seasonal_scale, series_for, M3Series};
 
 /// The AICc-chosen smoothing model's forecast, and its kind; with `both_errors` each fit is
-/// also scored as a multiplicative-error model (its likelihood at the same fit: n ln(sum of
-/// (e / fitted)^2) + 2 sum ln |fitted|, Hyndman et al. 2002), when every fitted value is
-/// positive.
+/// also scored as a multiplicative-error model (the engine's `criterion::likelihoods`), when
+/// every fitted value is positive. Unlike the engine's method, the non-seasonal models are
+/// fitted to the raw history and k counts no seasonal adjustment: the lab as first run.
 fn by_aicc(
     train: &[f64],
     season: Option<usize>,
@@ -43,7 +35,7 @@ fn by_aicc(
     both_errors: bool,
 ) -> Option<(MethodKind, Vec<f64>)> {
     let mut best: Option<(f64, MethodKind, Vec<f64>)> = None;
-    for kind in SMOOTHING {
+    for kind in KINDS {
         let m = if kind.needs_season() { season } else { None };
         if kind.needs_season() && m.is_none() {
             continue;
@@ -51,28 +43,18 @@ fn by_aicc(
         let Ok(fit) = methods::fit(kind, train, m, horizon) else {
             continue;
         };
-        let (mut sse, mut n) = (0.0, 0usize);
-        let (mut relative, mut logs, mut positive) = (0.0, 0.0, true);
-        for (f, y) in fit.fitted().iter().zip(train) {
-            if let Some(f) = f {
-                sse += (y - f).powi(2);
-                n += 1;
-                positive &= *f > 0.0;
-                relative += ((y - f) / f).powi(2);
-                logs += f.abs().ln();
-            }
-        }
-        let seasonal_states = m.map_or(0, |m| m - 1);
-        let k = (fit.parameters().len() + seasonal_states + 1) as f64;
-        let nf = n as f64;
-        if nf - k - 1.0 <= 0.0 || sse <= 0.0 {
+        let Some(l) = likelihoods(fit.fitted(), train) else {
             continue;
-        }
-        let penalty = 2.0 * k + 2.0 * k * (k + 1.0) / (nf - k - 1.0);
-        let mut aicc = nf * (sse / nf).ln() + penalty;
-        if both_errors && positive && relative > 0.0 {
-            aicc = aicc.min(nf * (relative / nf).ln() + 2.0 * logs + penalty);
-        }
+        };
+        let seasonal_states = m.map_or(0, |m| m - 1);
+        let k = fit.parameters().len() + seasonal_states + 1;
+        let minus_two_ll = match l.multiplicative.filter(|_| both_errors) {
+            Some(multiplicative) => l.additive.min(multiplicative),
+            None => l.additive,
+        };
+        let Some(aicc) = corrected_aic(minus_two_ll, l.periods, k) else {
+            continue;
+        };
         if best.as_ref().is_none_or(|b| aicc < b.0) {
             best = Some((aicc, kind, fit.forecast().to_vec()));
         }
@@ -103,6 +85,25 @@ impl Tally {
     }
 }
 
+/// The ranking's single methods best first, without the two Theta models and the AICc method
+/// (the places the rules fill from it).
+fn ranked_others(p: &ItemPlan) -> Vec<MethodKind> {
+    p.backtest
+        .ranking
+        .iter()
+        .filter_map(|r| match r.candidate {
+            Candidate::Method(k) => Some(k),
+            Candidate::Combination(_) => None,
+        })
+        .filter(|k| {
+            !matches!(
+                k,
+                MethodKind::Theta | MethodKind::DynamicOptimisedTheta | MethodKind::SmoothingByAicc
+            )
+        })
+        .collect()
+}
+
 fn mean(forecasts: &[&Vec<f64>], h: usize) -> Vec<f64> {
     (0..h)
         .map(|i| forecasts.iter().map(|f| f[i]).sum::<f64>() / forecasts.len() as f64)
@@ -110,33 +111,10 @@ fn mean(forecasts: &[&Vec<f64>], h: usize) -> Vec<f64> {
 }
 
 fn main() {
-    let args: Vec<String> = std::env::args().collect();
-    let arg = |name: &str| {
-        args.iter()
-            .position(|a| a == name)
-            .and_then(|i| args.get(i + 1))
-            .cloned()
-    };
-    let subset_filter = arg("--subset");
-    let limit: usize = arg("--limit")
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(usize::MAX);
-    let all = load(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/m3/m3.csv"
-    ));
+    let all = chosen_series();
     let mut tallies: BTreeMap<(String, &str), Tally> = BTreeMap::new();
     let mut picked: BTreeMap<(String, &str), usize> = BTreeMap::new();
-    let mut taken: BTreeMap<String, usize> = BTreeMap::new();
-    for s in all
-        .iter()
-        .filter(|s| subset_filter.as_deref().is_none_or(|f| f == s.subset))
-    {
-        let n = taken.entry(s.subset.clone()).or_default();
-        if *n >= limit {
-            continue;
-        }
-        *n += 1;
+    for s in &all {
         let h = s.horizon;
         let settings = PlanSettings::default()
             .with_horizon(Some(h as u64))
@@ -151,10 +129,7 @@ fn main() {
         };
         let both = by_aicc(&s.train, season, h, true).map_or_else(|| ets.clone(), |b| b.1);
         *picked.entry((s.subset.clone(), kind.key())).or_default() += 1;
-        let members: Vec<MethodKind> = match &p.chosen {
-            Candidate::Combination(m) => m.clone(),
-            Candidate::Method(k) => vec![*k],
-        };
+        let members = p.chosen.members();
         let member_forecasts: Vec<Vec<f64>> = members
             .iter()
             .map(|k| {
@@ -178,23 +153,7 @@ fn main() {
         // With an accepted season: the anchors, the AICc method and the best `k` others of
         // the ranking (today: k = 2), each forecast on the whole train part.
         if p.seasons.accepted_length().is_some() {
-            let ranked: Vec<MethodKind> = p
-                .backtest
-                .ranking
-                .iter()
-                .filter_map(|r| match r.candidate {
-                    Candidate::Method(k) => Some(k),
-                    Candidate::Combination(_) => None,
-                })
-                .filter(|k| {
-                    !matches!(
-                        k,
-                        MethodKind::Theta
-                            | MethodKind::DynamicOptimisedTheta
-                            | MethodKind::SmoothingByAicc
-                    )
-                })
-                .collect();
+            let ranked = ranked_others(&p);
             let base = [
                 MethodKind::DynamicOptimisedTheta,
                 MethodKind::Theta,
@@ -229,24 +188,7 @@ fn main() {
             // Without a season: the best two others too where the backtest pooled at least
             // `least` holdout errors to rank them by.
             let pooled = p.backtest.origins_used * p.backtest.holdout_demand.len();
-            let ranked: Vec<MethodKind> = p
-                .backtest
-                .ranking
-                .iter()
-                .filter_map(|r| match r.candidate {
-                    Candidate::Method(k) => Some(k),
-                    Candidate::Combination(_) => None,
-                })
-                .filter(|k| {
-                    !matches!(
-                        k,
-                        MethodKind::Theta
-                            | MethodKind::DynamicOptimisedTheta
-                            | MethodKind::SmoothingByAicc
-                    )
-                })
-                .take(2)
-                .collect();
+            let ranked: Vec<MethodKind> = ranked_others(&p).into_iter().take(2).collect();
             let former: Vec<MethodKind> = [MethodKind::DynamicOptimisedTheta, MethodKind::Theta]
                 .into_iter()
                 .chain(ranked.iter().copied())

@@ -27,9 +27,12 @@ use morrowcast_engine::plan;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock;
 
+// This benchmark walks the subsets itself (keyed by subset), so the labs' chosen_series is
+// not used here.
+#[allow(dead_code)]
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{load, seasonal_scale, series_for, M3Series};
+use m3_data::{argument, load, seasonal_scale, series_for, M3Series, M3_FILE};
 
 /// Band scores of one subset at one level.
 #[derive(Default, Clone)]
@@ -189,21 +192,11 @@ impl PolicyTally {
 }
 
 fn main() {
-    let args: Vec<String> = std::env::args().collect();
-    let arg = |name: &str| {
-        args.iter()
-            .position(|a| a == name)
-            .and_then(|i| args.get(i + 1))
-            .cloned()
-    };
-    let subset_filter = arg("--subset");
-    let limit: usize = arg("--limit")
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(usize::MAX);
+    let subset_filter = argument("--subset");
+    let limit = m3_data::limit();
     // `--keep N`: a short-history study, each series' train cut to its last N periods.
-    let keep: Option<usize> = arg("--keep").and_then(|v| v.parse().ok());
-    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/m3/m3.csv");
-    let mut all = load(path);
+    let keep: Option<usize> = argument("--keep").and_then(|v| v.parse().ok());
+    let mut all = load(M3_FILE);
     if let Some(keep) = keep {
         for s in &mut all {
             let cut = s.train.len().saturating_sub(keep);

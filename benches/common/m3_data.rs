@@ -1,7 +1,8 @@
 //! The M3 competition data as the benchmarks read it (tests/fixtures/m3/m3.csv: one row per
 //! value, with id, subset, season length, horizon and whether it is train or test), the
-//! calendar each subset is given, and the MASE/MSIS scale. Shared by benches/m3.rs and
-//! benches/band_lab.rs through `#[path]`; kept apart from any scoring.
+//! calendar each subset is given, the MASE/MSIS scale, and the series a benchmark's command
+//! line asks for. Shared by benches/m3.rs, benches/band_lab.rs and benches/ets_lab.rs through
+//! `#[path]`; kept apart from any scoring.
 
 use std::collections::BTreeMap;
 
@@ -16,6 +17,43 @@ pub struct M3Series {
     pub horizon: usize,
     pub train: Vec<f64>,
     pub test: Vec<f64>,
+}
+
+/// The value after `name` on the benchmark's command line (`-- --subset MONTHLY`).
+pub fn argument(name: &str) -> Option<String> {
+    let args: Vec<String> = std::env::args().collect();
+    args.iter()
+        .position(|a| a == name)
+        .and_then(|i| args.get(i + 1))
+        .cloned()
+}
+
+/// `--limit N` on the command line: the first N series of each subset (all without it).
+pub fn limit() -> usize {
+    argument("--limit")
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(usize::MAX)
+}
+
+/// The M3 file's path in the fixtures.
+pub const M3_FILE: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/m3/m3.csv");
+
+/// The series of the M3 file that the command line asks for, in id order (the subsets then
+/// come yearly, quarterly, monthly, other): `--subset NAME` keeps one subset, [`limit`] the
+/// first series of each.
+pub fn chosen_series() -> Vec<M3Series> {
+    let subset = argument("--subset");
+    let most = limit();
+    let mut taken: BTreeMap<String, usize> = BTreeMap::new();
+    load(M3_FILE)
+        .into_iter()
+        .filter(|s| subset.as_deref().is_none_or(|f| f == s.subset))
+        .filter(|s| {
+            let n = taken.entry(s.subset.clone()).or_default();
+            *n += 1;
+            *n <= most
+        })
+        .collect()
 }
 
 /// Every series of the file at `path`, ordered by id.
