@@ -473,7 +473,11 @@ pub fn run_observed(
             };
             match fitted {
                 Ok(f) => {
-                    if let Some(aicc) = criterion::aicc(&f, &history[..end]).filter(|_| chooses) {
+                    // Only where it counts: the criterion runs over the whole fitted history.
+                    if let Some(aicc) = chooses
+                        .then(|| criterion::aicc(&f, &history[..end]))
+                        .flatten()
+                    {
                         if criterion::lower(aicc, by_aicc[j].as_ref().map(|b| b.0)) {
                             by_aicc[j] = Some((aicc, f.forecast().to_vec()));
                         }
