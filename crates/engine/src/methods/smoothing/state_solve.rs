@@ -29,7 +29,10 @@ pub(crate) struct StateSolver {
     d_trend: Vec<f64>,
     /// Tangents of the seasonal ring, laid out [slot][coordinate].
     d_season: Vec<f64>,
-    row: Vec<f64>,
+    /// The last [`BLOCK`] Jacobian rows, laid out [step][coordinate], and their residuals,
+    /// awaiting [`StateSolver::accumulate`].
+    rows: Vec<f64>,
+    residuals: [f64; BLOCK],
     normal: Vec<f64>,
     rhs: Vec<f64>,
     ring: Vec<f64>,
@@ -38,6 +41,9 @@ pub(crate) struct StateSolver {
 
 /// Relative ridge added to the normal equations' diagonal.
 const RIDGE: f64 = 1e-10;
+/// Jacobian rows added to the normal equations together: each cell is then loaded and stored
+/// once per four steps, its sum still taken over the steps in order (the same numbers).
+const BLOCK: usize = 4;
 /// Step halvings tried for a multiplicative season before giving up on a step.
 const HALVINGS: usize = 6;
 
@@ -50,7 +56,8 @@ impl StateSolver {
             d_level: vec![0.0; size],
             d_trend: vec![0.0; size],
             d_season: vec![0.0; m * size],
-            row: vec![0.0; size],
+            rows: vec![0.0; BLOCK * size],
+            residuals: [0.0; BLOCK],
             normal: vec![0.0; size * size],
             rhs: vec![0.0; size],
             ring: vec![0.0; m],
@@ -129,6 +136,7 @@ impl StateSolver {
         let (mut level, mut trend) = (s0.level, if trend_at == 1 { s0.trend } else { 0.0 });
         let multiplicative = model.is_multiplicative();
         let mut slot = 0usize;
+        let mut filled = 0usize;
         for &obs in y {
             let base = level + p.phi * trend;
             let season = if m > 0 { self.ring[slot] } else { 0.0 };
@@ -146,27 +154,42 @@ impl StateSolver {
             } else {
                 (0.0, 0.0)
             };
-            // `c` indexes five parallel tangent arrays; an iterator chain would hide that.
-            #[allow(clippy::needless_range_loop)]
-            for c in 0..k {
-                let d_base = self.d_level[c] + p.phi * self.d_trend[c];
-                let d_old = if m > 0 { ds[c] } else { 0.0 };
-                let (d_fit, d_new_level) = if m == 0 {
-                    (d_base, (1.0 - p.alpha) * d_base)
-                } else if multiplicative {
-                    ds[c] = -base_factor * d_base + (1.0 - p.gamma) * d_old;
-                    (
-                        d_base * season + base * d_old,
-                        -season_factor * d_old + (1.0 - p.alpha) * d_base,
-                    )
-                } else {
-                    ds[c] = -p.gamma * d_base + (1.0 - p.gamma) * d_old;
-                    (d_base + d_old, -p.alpha * d_old + (1.0 - p.alpha) * d_base)
-                };
-                self.d_trend[c] = p.beta * (d_new_level - self.d_level[c])
-                    + (1.0 - p.beta) * p.phi * self.d_trend[c];
-                self.d_level[c] = d_new_level;
-                self.row[c] = d_fit;
+            // One loop per kind of model, so that none branches per coordinate; each writes
+            // the same expressions as the recursion's update equations (module doc).
+            let trend_keep = (1.0 - p.beta) * p.phi;
+            let tangents = self
+                .d_level
+                .iter_mut()
+                .zip(self.d_trend.iter_mut())
+                .zip(self.rows[filled * k..(filled + 1) * k].iter_mut());
+            if m == 0 {
+                for ((dl, dt), row) in tangents {
+                    let d_base = *dl + p.phi * *dt;
+                    let d_new_level = (1.0 - p.alpha) * d_base;
+                    *dt = p.beta * (d_new_level - *dl) + trend_keep * *dt;
+                    *dl = d_new_level;
+                    *row = d_base;
+                }
+            } else if multiplicative {
+                for (((dl, dt), row), d_season) in tangents.zip(ds.iter_mut()) {
+                    let d_base = *dl + p.phi * *dt;
+                    let d_old = *d_season;
+                    *d_season = -base_factor * d_base + (1.0 - p.gamma) * d_old;
+                    let d_new_level = -season_factor * d_old + (1.0 - p.alpha) * d_base;
+                    *dt = p.beta * (d_new_level - *dl) + trend_keep * *dt;
+                    *dl = d_new_level;
+                    *row = d_base * season + base * d_old;
+                }
+            } else {
+                for (((dl, dt), row), d_season) in tangents.zip(ds.iter_mut()) {
+                    let d_base = *dl + p.phi * *dt;
+                    let d_old = *d_season;
+                    *d_season = -p.gamma * d_base + (1.0 - p.gamma) * d_old;
+                    let d_new_level = -p.alpha * d_old + (1.0 - p.alpha) * d_base;
+                    *dt = p.beta * (d_new_level - *dl) + trend_keep * *dt;
+                    *dl = d_new_level;
+                    *row = d_base + d_old;
+                }
             }
             // Value update, same equations as the recursion.
             let (fit, new_level) = if m == 0 {
@@ -186,14 +209,11 @@ impl StateSolver {
             };
             trend = p.beta * (new_level - level) + (1.0 - p.beta) * p.phi * trend;
             level = new_level;
-            let residual = obs - fit;
-            for a in 0..k {
-                let ja = self.row[a];
-                self.rhs[a] += ja * residual;
-                let row = &mut self.normal[a * k..(a + 1) * k];
-                for (b, cell) in row.iter_mut().enumerate().skip(a) {
-                    *cell += ja * self.row[b];
-                }
+            self.residuals[filled] = obs - fit;
+            filled += 1;
+            if filled == BLOCK {
+                self.accumulate(filled);
+                filled = 0;
             }
             if m > 0 {
                 slot += 1;
@@ -202,7 +222,36 @@ impl StateSolver {
                 }
             }
         }
+        self.accumulate(filled);
         self.normal.iter().chain(&self.rhs).all(|v| v.is_finite())
+    }
+
+    /// Adds the first `count` buffered rows to J'J (upper triangle) and J'r, in step order.
+    fn accumulate(&mut self, count: usize) {
+        let k = self.size;
+        let rows = &self.rows;
+        for a in 0..k {
+            for (i, residual) in self.residuals[..count].iter().enumerate() {
+                self.rhs[a] += rows[i * k + a] * residual;
+            }
+            let cells = &mut self.normal[a * k + a..(a + 1) * k];
+            if count == BLOCK {
+                let row = |i: usize| &rows[i * k + a..(i + 1) * k];
+                let (a0, a1, a2, a3) = (rows[a], rows[k + a], rows[2 * k + a], rows[3 * k + a]);
+                for ((((cell, b0), b1), b2), b3) in
+                    cells.iter_mut().zip(row(0)).zip(row(1)).zip(row(2)).zip(row(3))
+                {
+                    *cell = *cell + a0 * b0 + a1 * b1 + a2 * b2 + a3 * b3;
+                }
+            } else {
+                for i in 0..count {
+                    let ja = rows[i * k + a];
+                    for (cell, jb) in cells.iter_mut().zip(&rows[i * k + a..(i + 1) * k]) {
+                        *cell += ja * jb;
+                    }
+                }
+            }
+        }
     }
 
     /// Solves the ridged normal equations in place by Cholesky; `rhs` becomes δ.
