@@ -6,7 +6,9 @@ engine): 2x4 centred moving average, ratio (or difference) to it, mean per quart
 mean 1 (or sum 0). Data: NIST/SEMATECH e-Handbook 6.4.3.6 (tests/fixtures/refs/
 nist_quarterly_sales_24.csv). Prints the indices aligned with the LAST four quarters (the
 engine's convention), the centred moving average, and the linear trend with seasonal indices
-(least-squares line on the deseasonalised series) forecasts for two years.
+(least-squares line on the deseasonalised series) forecasts for two years; then the indices
+shrunk by the James-Stein factor (Miller & Williams 2003) for AirPassengers, USAccDeaths (R
+datasets, tests/fixtures/refs) and the NIST sales, multiplicative and additive.
 """
 import csv
 import os
@@ -39,6 +41,36 @@ def indices(y, m, multiplicative):
     return [norm[(n - m + j) % m] for j in range(m)], norm
 
 
+def shrunk(y, m, multiplicative):
+    """Classical indices shrunk towards their mean by the positive-part James-Stein factor
+    (Miller & Williams 2003, IJF 19): c = max(0, 1 - (m - 3) v / sum (S_i - mean S)^2), v the
+    pooled variance of the detrended values about their position's raw index divided by the mean
+    count per position. Returned aligned with the LAST m observations, normalised like the rest."""
+    trend = centred_ma(y, m)
+    by_position = [[] for _ in range(m)]
+    for t, (v, level) in enumerate(zip(y, trend)):
+        if level is not None:
+            by_position[t % m].append(v / level if multiplicative else v - level)
+    raw = [sum(v) / len(v) for v in by_position]
+    within = sum((d - raw[i]) ** 2 for i, ds in enumerate(by_position) for d in ds)
+    spare = sum(len(ds) - 1 for ds in by_position)
+    per_position = sum(len(ds) for ds in by_position) / m
+    v = within / spare / per_position
+    centre = sum(raw) / m
+    spread = sum((r - centre) ** 2 for r in raw)
+    c = max(0.0, 1.0 - (m - 3) * v / spread)
+    raw = [centre + c * (r - centre) for r in raw]
+    mean = sum(raw) / m
+    norm = [r / mean if multiplicative else r - mean for r in raw]
+    n = len(y)
+    return [norm[(n - m + j) % m] for j in range(m)], c
+
+
+def series(name):
+    with open(os.path.join(HERE, "..", "tests", "fixtures", "refs", name)) as f:
+        return [float(r["value"]) for r in csv.DictReader(f)]
+
+
 def main():
     with open(DATA) as f:
         y = [float(r["sales"]) for r in csv.DictReader(f)]
@@ -58,6 +90,15 @@ def main():
     forecast = [(intercept + slope * (n + h - 1)) * mul[(h - 1) % M] for h in range(1, 2 * M + 1)]
     print("const OWN_SALES_LINE:", [intercept, slope])
     print("const OWN_SALES_TREND_SEASONAL_FORECAST:", forecast)
+    # Shrunk indices (12-month seasons: m - 3 = 9; quarters: 1).
+    for label, values, m in [
+        ("AIR", series("AirPassengers.csv"), 12),
+        ("USACC", series("USAccDeaths.csv"), 12),
+        ("SALES", y, M),
+    ]:
+        for kind, multiplicative in [("MUL", True), ("ADD", False)]:
+            shrunk_indices, factor = shrunk(values, m, multiplicative)
+            print(f"const OWN_{label}_SHRUNK_{kind}: [f64; {m}] =", shrunk_indices, f"; // factor {factor!r}")
 
 
 if __name__ == "__main__":

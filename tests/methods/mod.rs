@@ -12,7 +12,7 @@
 //!   Practice" 2nd ed. section 12.2 (product C, with its published demand sizes and intervals).
 
 use crate::support::{assert_all_close, csv_column};
-use morrowcast_engine::methods::decompose::{self, Kind};
+use morrowcast_engine::methods::decompose::{self, Indices, Kind};
 use morrowcast_engine::methods::{
     fit, intermittent, theta, trend_season, Fitted, MethodError, MethodKind,
 };
@@ -22,6 +22,9 @@ fn sales() -> Vec<f64> {
 }
 fn air_passengers() -> Vec<f64> {
     csv_column("AirPassengers.csv", "value")
+}
+fn us_accidental_deaths() -> Vec<f64> {
+    csv_column("USAccDeaths.csv", "value")
 }
 fn johnson_johnson() -> Vec<f64> {
     csv_column("JohnsonJohnson.csv", "value")
@@ -78,6 +81,122 @@ fn air_passengers_indices_match_statsmodels() {
     assert_all_close("AirPassengers mul", &mul, &SM_AIR_MUL_INDICES, 1e-12);
 }
 
+// Source: own script scripts/decompose_reference.py (standard library only, no code shared with
+// the engine), the positive-part James-Stein shrinkage of Miller & Williams (2003, IJF 19) on
+// the classical indices checked above; AirPassengers and USAccDeaths (R datasets) and the NIST
+// sales, multiplicative and additive; tolerance 1e-12. The script prints the factor: 0.98-0.998
+// here (long, strongly seasonal series keep their season).
+const OWN_AIR_SHRUNK_MUL: [f64; 12] = [
+    0.9107153951609547,
+    0.8842540962804869,
+    1.0073264873494605,
+    0.97603619279951,
+    0.9814786425236406,
+    1.1121664957926698,
+    1.2253314571150833,
+    1.2187227844424051,
+    1.0601650930745679,
+    0.9221799881878784,
+    0.8022523226907251,
+    0.8993710445826172,
+];
+const OWN_AIR_SHRUNK_ADD: [f64; 12] = [
+    -24.221300792262017,
+    -35.41690230126125,
+    -2.1933987503834014,
+    -7.865342561234001,
+    -4.410276135277953,
+    34.64828595042267,
+    62.470467846131,
+    61.484365196662864,
+    16.168129154938836,
+    -20.202747138038458,
+    -52.45126949790078,
+    -28.010010971797513,
+];
+const OWN_USACC_SHRUNK_MUL: [f64; 12] = [
+    0.9088821779959323,
+    0.8267978408053007,
+    0.9156197673454819,
+    0.941410066396828,
+    1.0394165970239033,
+    1.08586193918042,
+    1.1901421668631003,
+    1.1113107510780482,
+    0.9869512551192531,
+    1.0295577881974622,
+    0.9701459675743866,
+    0.9939036824198842,
+];
+const OWN_USACC_SHRUNK_ADD: [f64; 12] = [
+    -795.5977490576323,
+    -1503.8500078946352,
+    -731.3787093029385,
+    -508.2080852412423,
+    335.31056504422105,
+    735.3262414460283,
+    1657.987495169893,
+    973.7165969381854,
+    -107.89624109268019,
+    260.48707457932863,
+    -257.61726395915287,
+    -58.279916629374895,
+];
+const OWN_SALES_SHRUNK_MUL: [f64; 4] = [
+    0.9606237498709421,
+    1.022090973960735,
+    1.1396512731527992,
+    0.8776340030155235,
+];
+const OWN_SALES_SHRUNK_ADD: [f64; 4] = [
+    -23.076222078980813,
+    14.541436308719808,
+    72.90595384683655,
+    -64.37116807657556,
+];
+
+/// Shrunk indices of `y` equal `expected`, and each lies between its classical index and "no
+/// season".
+fn check_shrunk(label: &str, y: &[f64], m: usize, kind: Kind, expected: &[f64]) {
+    let shrunk = decompose::indices(y, m, kind, Indices::Shrunk).unwrap();
+    assert_all_close(label, &shrunk, expected, 1e-12);
+    let classical = decompose::seasonal_indices(y, m, kind).unwrap();
+    let none = if kind == Kind::Multiplicative {
+        1.0
+    } else {
+        0.0
+    };
+    for (s, c) in shrunk.iter().zip(&classical) {
+        assert!(
+            (s - none).abs() <= (c - none).abs() + 1e-12,
+            "{label}: {s} vs {c}"
+        );
+    }
+}
+
+#[test]
+fn shrunk_indices_match_own_script() {
+    let (mul, add) = (Kind::Multiplicative, Kind::Additive);
+    check_shrunk("air mul", &air_passengers(), 12, mul, &OWN_AIR_SHRUNK_MUL);
+    check_shrunk("air add", &air_passengers(), 12, add, &OWN_AIR_SHRUNK_ADD);
+    check_shrunk(
+        "usacc mul",
+        &us_accidental_deaths(),
+        12,
+        mul,
+        &OWN_USACC_SHRUNK_MUL,
+    );
+    check_shrunk(
+        "usacc add",
+        &us_accidental_deaths(),
+        12,
+        add,
+        &OWN_USACC_SHRUNK_ADD,
+    );
+    check_shrunk("sales mul", &sales(), 4, mul, &OWN_SALES_SHRUNK_MUL);
+    check_shrunk("sales add", &sales(), 4, add, &OWN_SALES_SHRUNK_ADD);
+}
+
 // ---------------------------------------------------------------- Theta
 
 // Source: statsmodels 0.15.0 ThetaModel(period=m, use_test=False, method="mul"), which fits its
@@ -102,7 +221,8 @@ fn theta_formula_matches_statsmodels_theta_model() {
             &SM_JJ_THETA_FORECAST[..],
         ),
     ] {
-        let f = theta::theta_with_smoothing(&y, Some(m), alpha, l0, 2 * m).unwrap();
+        let f =
+            theta::theta_with_smoothing(&y, Some(m), Indices::Classical, alpha, l0, 2 * m).unwrap();
         assert_all_close("theta forecast", f.forecast(), expected, 1e-10);
     }
 }
@@ -141,7 +261,7 @@ fn fitted_theta_agrees_with_statsmodels_estimated_ses() {
             &SM_JJ_THETA_EST_FORECAST[..],
         ),
     ] {
-        let f = theta::theta(&y, Some(m), 2 * m).unwrap();
+        let f = theta::theta(&y, Some(m), Indices::Classical, 2 * m).unwrap();
         let ours_alpha = parameter(&f, "alpha");
         assert!((ours_alpha - alpha).abs() < 1e-5, "{ours_alpha} vs {alpha}");
         let ours_l0 = parameter(&f, "l0");
@@ -178,13 +298,13 @@ fn trend_seasonal_matches_statsmodels_ols() {
             &SM_AIR_TREND_SEASONAL_VARIANCE[..],
         ),
     ] {
-        let f = trend_season::trend_seasonal(&y, m, 2 * m).unwrap();
+        let f = trend_season::trend_seasonal(&y, m, Indices::Classical, 2 * m).unwrap();
         let ours_line = [parameter(&f, "intercept"), parameter(&f, "slope")];
         assert_all_close("line", &ours_line, line, 1e-10);
         assert_all_close("forecast", f.forecast(), forecast, 1e-10);
         assert_all_close("variance", f.variance().unwrap(), variance, 1e-10);
     }
-    let f = trend_season::trend_seasonal(&sales(), 4, 8).unwrap();
+    let f = trend_season::trend_seasonal(&sales(), 4, Indices::Classical, 8).unwrap();
     assert_all_close(
         "own",
         f.forecast(),

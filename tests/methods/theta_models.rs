@@ -18,7 +18,7 @@
 use super::reference_values::*;
 use super::{air_passengers, johnson_johnson, parameter};
 use crate::support::{assert_all_close, csv_column, json, numbers};
-use morrowcast_engine::methods::decompose::{self, Kind};
+use morrowcast_engine::methods::decompose::{self, Indices, Kind};
 use morrowcast_engine::methods::dotm::{self, Dynamics};
 use morrowcast_engine::methods::{fit, Fitted, MethodKind};
 
@@ -56,6 +56,7 @@ fn static_model_matches_statsmodels_theta_model_at_theta_2_and_3() {
             let f = dotm::with_parameters(
                 &y,
                 season,
+                Indices::Classical,
                 Dynamics::Static,
                 alpha,
                 theta,
@@ -95,7 +96,17 @@ fn static_model_matches_statsmodels_theta_model_at_theta_2_and_3() {
 #[test]
 fn dynamic_recursion_matches_the_hand_computation() {
     let y = [10.0, 12.0, 11.0, 15.0];
-    let f = dotm::with_parameters(&y, None, Dynamics::Dynamic, 0.5, 2.0, 5.0, 2).unwrap();
+    let f = dotm::with_parameters(
+        &y,
+        None,
+        Indices::Classical,
+        Dynamics::Dynamic,
+        0.5,
+        2.0,
+        5.0,
+        2,
+    )
+    .unwrap();
     let fitted: Vec<f64> = f.fitted().iter().map(|v| v.unwrap()).collect();
     assert_all_close("fitted", &fitted, &[10.0, 10.0, 12.5, 11.46875], 1e-12);
     assert_all_close("forecast", f.forecast(), &[14.309375, 15.009375], 1e-12);
@@ -140,7 +151,9 @@ fn fitted_model_at_theta_1_is_statsmodels_estimated_ses() {
         let indices = decompose::seasonal_indices(&y, m, Kind::Multiplicative).unwrap();
         let x = decompose::deseasonalise(&y, &indices, Kind::Multiplicative);
         for dynamics in [Dynamics::Static, Dynamics::Dynamic] {
-            let f = dotm::fit_optimised(&y, Some(m), dynamics, Some(1.0), 2 * m).unwrap();
+            let f =
+                dotm::fit_optimised(&y, Some(m), Indices::Classical, dynamics, Some(1.0), 2 * m)
+                    .unwrap();
             let ours_alpha = parameter(&f, "alpha");
             assert!((ours_alpha - alpha).abs() < 1e-5, "{ours_alpha} vs {alpha}");
             let ours_l0 = parameter(&f, "l0");
@@ -175,7 +188,14 @@ fn fitted_dynamic_model_beats_its_special_cases() {
         let free = fit(MethodKind::DynamicOptimisedTheta, &y, Some(m), m).unwrap();
         let sse = one_step_sse(&free, &y);
         for theta in [1.0, 2.0] {
-            let fixed = dotm::fit_optimised(&y, Some(m), Dynamics::Dynamic, Some(theta), m);
+            let fixed = dotm::fit_optimised(
+                &y,
+                Some(m),
+                Indices::Classical,
+                Dynamics::Dynamic,
+                Some(theta),
+                m,
+            );
             let fixed_sse = one_step_sse(&fixed.unwrap(), &y);
             assert!(
                 sse <= fixed_sse * (1.0 + 1e-9),

@@ -1,5 +1,6 @@
 //! Seasonal adjustment around non-seasonal methods, as the M3/M4 benchmarks apply SES, Holt and
-//! damped trend: divide by classical multiplicative seasonal indices, fit and forecast the
+//! damped trend: divide by classical multiplicative seasonal indices (shrunk or not, as the caller
+//! asks: [`decompose::Indices`]), fit and forecast the
 //! adjusted series, multiply the season back. Series with zeros or returns use additive indices
 //! (subtract, then add back), since a ratio to a zero season is undefined.
 //!
@@ -12,7 +13,7 @@
 //! variance is v_h s_{n+h}^2 (the indices are treated as known, an approximation). With additive
 //! indices (sum 0): x_t = y_t - s_t, ŷ = x̂ + s, and the variance is unchanged.
 
-use super::decompose::{self, Kind};
+use super::decompose::{self, Indices, Kind};
 use super::{Fitted, MethodError, Parameter};
 
 /// The parameter entry that marks an adjusted fit; its value is the season length.
@@ -37,6 +38,7 @@ fn kind_for(history: &[f64]) -> Kind {
 pub fn fit_adjusted<F>(
     history: &[f64],
     m: usize,
+    how: Indices,
     horizon: usize,
     plain: F,
 ) -> Result<Fitted, MethodError>
@@ -44,7 +46,7 @@ where
     F: Fn(&[f64]) -> Result<Fitted, MethodError>,
 {
     let kind = kind_for(history);
-    let Ok(indices) = decompose::seasonal_indices(history, m, kind) else {
+    let Ok(indices) = decompose::indices(history, m, kind, how) else {
         return plain(history);
     };
     let n = history.len();
@@ -91,7 +93,7 @@ mod tests {
     fn naive_on_adjusted_pattern_returns_the_pattern() {
         let pattern = [0.8, 1.2, 1.1, 0.9];
         let y: Vec<f64> = (0..12).map(|t| 100.0 * pattern[t % 4]).collect();
-        let f = fit_adjusted(&y, 4, 6, |x| simple::naive(x, 6)).unwrap();
+        let f = fit_adjusted(&y, 4, Indices::Classical, 6, |x| simple::naive(x, 6)).unwrap();
         for (h, v) in f.forecast().iter().enumerate() {
             assert!(
                 (v - 100.0 * pattern[(12 + h) % 4]).abs() < 1e-9,
@@ -118,7 +120,7 @@ mod tests {
         let pattern = [-10.0, 5.0, 3.0, 2.0];
         let y: Vec<f64> = (0..12).map(|t| 10.0 + pattern[t % 4]).collect();
         assert_eq!(y[0], 0.0);
-        let f = fit_adjusted(&y, 4, 4, |x| simple::naive(x, 4)).unwrap();
+        let f = fit_adjusted(&y, 4, Indices::Classical, 4, |x| simple::naive(x, 4)).unwrap();
         for (h, v) in f.forecast().iter().enumerate() {
             assert!(
                 (v - (10.0 + pattern[(12 + h) % 4])).abs() < 1e-9,

@@ -17,10 +17,44 @@
 //! 4. Normalise: multiplicative indices divided by their mean (mean 1); additive indices minus
 //!    their mean (sum 0).
 //!
+//! Shrunk indices ([`Indices::Shrunk`], what the forecasting methods use: [`FOR_FORECASTS`]):
+//! the raw indices of step 3 pulled towards their mean by the James-Stein factor before step 4
+//! (D. G. Miller & D. C. Williams, "Shrinkage estimators of time series seasonal factors and
+//! their effect on forecasting accuracy", IJF 19 (2003) 669-684; the positive-part form below
+//! is the textbook James-Stein estimator, its constant m − 3 for shrinking towards an estimated
+//! mean from memory):
+//!
+//! ```text
+//!   S*_i = S̄ + c (S_i − S̄),   c = max(0, 1 − (m − 3) v / Σ_i (S_i − S̄)²),   v = σ² / k̄
+//! ```
+//!
+//! with S_i the raw index of position i, S̄ their mean, σ² the pooled variance of the detrended
+//! values about their position's raw index (Σ (d − S_i)² over Σ (k_i − 1)), and k̄ the mean count
+//! of detrended values per position, so v is the variance of one raw index. With few years the
+//! raw indices spread more than the true season does (noise counted as season); the factor
+//! takes that excess out and leaves a strong, well-measured season almost as it was (c near 1).
+//! Measured on the M3 data (README, Benchmarks): sMAPE monthly 13.50 -> 13.45, quarterly 9.03
+//! -> 9.01. No shrinkage when m <= 3 or no position has two detrended values.
+//!
 //! Indices are returned aligned with the LAST m observations: `indices[j]` belongs to observation
 //! `n - m + j` (0-based). Forecast step h (1-based) then uses `indices[(h - 1) % m]`.
 
 use std::fmt;
+
+/// How the seasonal indices are estimated (module doc).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Indices {
+    /// Classical decomposition as published: the mean detrended value per position. Only the
+    /// reference checks and the M3 benchmark's calibration row ask for it (feature `internals`).
+    #[cfg_attr(not(any(test, feature = "internals")), allow(dead_code))]
+    Classical,
+    /// Classical, then shrunk towards their mean by the James-Stein factor.
+    Shrunk,
+}
+
+/// The indices every forecasting method that takes a season out uses: shrunk, which measured
+/// better on the M3 data (module doc). The classical ones stay for the reference checks.
+pub const FOR_FORECASTS: Indices = Indices::Shrunk;
 
 /// How the season combines with the level.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -91,10 +125,22 @@ pub fn centred_moving_average(y: &[f64], m: usize) -> Vec<Option<f64>> {
     out
 }
 
-/// Seasonal indices of `y` for season length `m`, aligned with the last m observations (see the
-/// module doc). Needs `m >= 2`, at least `2m` finite values, and for [`Kind::Multiplicative`]
-/// every value above zero.
+/// Classical seasonal indices of `y` for season length `m` ([`indices`] with
+/// [`Indices::Classical`]).
+#[cfg(any(test, feature = "internals"))]
 pub fn seasonal_indices(y: &[f64], m: usize, kind: Kind) -> Result<Vec<f64>, DecomposeError> {
+    indices(y, m, kind, Indices::Classical)
+}
+
+/// Seasonal indices of `y` for season length `m`, estimated as `how` says, aligned with the last
+/// m observations (see the module doc). Needs `m >= 2`, at least `2m` finite values, and for
+/// [`Kind::Multiplicative`] every value above zero.
+pub fn indices(
+    y: &[f64],
+    m: usize,
+    kind: Kind,
+    how: Indices,
+) -> Result<Vec<f64>, DecomposeError> {
     if m < 2 {
         return Err(DecomposeError::SeasonTooShort { season: m });
     }
@@ -112,25 +158,35 @@ pub fn seasonal_indices(y: &[f64], m: usize, kind: Kind) -> Result<Vec<f64>, Dec
         return Err(DecomposeError::NotPositive);
     }
     let trend = centred_moving_average(y, m);
+    let detrended: Vec<Option<f64>> = y
+        .iter()
+        .zip(&trend)
+        .map(|(value, level)| {
+            level.map(|level| match kind {
+                Kind::Multiplicative => value / level,
+                Kind::Additive => value - level,
+            })
+        })
+        .collect();
     // Raw means per position counted from the first observation (position t % m).
     let mut sums = vec![0.0; m];
     let mut counts = vec![0usize; m];
-    for (t, (value, level)) in y.iter().zip(&trend).enumerate() {
-        if let Some(level) = level {
-            sums[t % m] += match kind {
-                Kind::Multiplicative => value / level,
-                Kind::Additive => value - level,
-            };
+    for (t, d) in detrended.iter().enumerate() {
+        if let Some(d) = d {
+            sums[t % m] += d;
             counts[t % m] += 1;
         }
     }
     // n >= 2m leaves n - m >= m (even m) or n - m + 1 >= m (odd m) defined trend values, so
     // every position has at least one.
-    let raw: Vec<f64> = sums
+    let mut raw: Vec<f64> = sums
         .iter()
         .zip(&counts)
         .map(|(s, c)| s / (*c).max(1) as f64)
         .collect();
+    if how == Indices::Shrunk {
+        shrink(&mut raw, &detrended, &counts);
+    }
     let mean = raw.iter().sum::<f64>() / m as f64;
     let normalised: Vec<f64> = raw
         .iter()
@@ -144,6 +200,33 @@ pub fn seasonal_indices(y: &[f64], m: usize, kind: Kind) -> Result<Vec<f64>, Dec
     }
     // Re-align so that entry j belongs to observation n - m + j, i.e. position (n - m + j) % m.
     Ok((0..m).map(|j| normalised[(n - m + j) % m]).collect())
+}
+
+/// Pulls the raw indices towards their mean by the James-Stein factor (module doc), given the
+/// detrended values they are the means of (position t % m) and the count per position.
+fn shrink(raw: &mut [f64], detrended: &[Option<f64>], counts: &[usize]) {
+    let m = raw.len();
+    let spare: usize = counts.iter().map(|c| c.saturating_sub(1)).sum();
+    if m <= 3 || spare == 0 {
+        return;
+    }
+    let within: f64 = detrended
+        .iter()
+        .enumerate()
+        .filter_map(|(t, d)| d.map(|d| (d - raw[t % m]).powi(2)))
+        .sum();
+    let per_position = counts.iter().sum::<usize>() as f64 / m as f64;
+    let variance = within / spare as f64 / per_position;
+    let centre = raw.iter().sum::<f64>() / m as f64;
+    let spread: f64 = raw.iter().map(|r| (r - centre).powi(2)).sum();
+    let factor = if spread > 0.0 {
+        (1.0 - (m as f64 - 3.0) * variance / spread).max(0.0)
+    } else {
+        0.0
+    };
+    for r in raw.iter_mut() {
+        *r = centre + factor * (*r - centre);
+    }
 }
 
 /// The index that applies to observation `t` (0-based; `t >= n` means the future) of a history of
@@ -205,6 +288,29 @@ mod tests {
         assert_eq!(even[4], None);
         assert!((even[2].unwrap() - 3.0).abs() < 1e-12);
         assert!((even[3].unwrap() - 4.0).abs() < 1e-12);
+    }
+
+    // Arithmetic checks of the shrinkage (module doc): an exact pattern has no spread within a
+    // position, so the factor is 1 and nothing moves; a "season" that flips sign from one year
+    // to the next has raw indices near 0 and a large spread within each position, so the factor
+    // clamps at 0 and no season is left.
+    #[test]
+    fn shrinkage_keeps_an_exact_pattern_and_removes_a_flipping_one() {
+        let pattern = [0.5, 1.0, 1.5, 1.0];
+        let y: Vec<f64> = (0..12).map(|t| 100.0 * pattern[t % 4]).collect();
+        let kept = indices(&y, 4, Kind::Multiplicative, Indices::Shrunk).unwrap();
+        let classical = seasonal_indices(&y, 4, Kind::Multiplicative).unwrap();
+        for (a, b) in kept.iter().zip(&classical) {
+            assert!((a - b).abs() < 1e-12, "{kept:?} vs {classical:?}");
+        }
+        let q = [1.0, -1.0, 2.0, -2.0, 1.0, -1.0];
+        let y: Vec<f64> = (0..24)
+            .map(|t| 10.0 + if (t / 6) % 2 == 0 { 1.0 } else { -1.0 } * q[t % 6])
+            .collect();
+        let classical = seasonal_indices(&y, 6, Kind::Additive).unwrap();
+        assert!(classical.iter().any(|s| s.abs() > 0.01), "{classical:?}");
+        let removed = indices(&y, 6, Kind::Additive, Indices::Shrunk).unwrap();
+        assert!(removed.iter().all(|s| s.abs() < 1e-12), "{removed:?}");
     }
 
     #[test]

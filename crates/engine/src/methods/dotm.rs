@@ -5,8 +5,8 @@
 //!
 //! Kept apart from: the benchmark Theta ([`super::theta`]), which keeps theta at 2 and the trend
 //! line fixed, and stays the calibration against the published M3 figures; the seasonal
-//! adjustment, borrowed from [`super::adjusted`] (classical multiplicative indices for positive
-//! demand, as the benchmark Theta; additive ones when the history holds zeros or returns; none
+//! adjustment, borrowed from [`super::adjusted`] (classical multiplicative indices, shrunk or not
+//! as the caller asks, for positive demand, as the benchmark Theta; additive ones when the history holds zeros or returns; none
 //! with fewer than two full seasons), so the model itself only sees a series without season.
 //!
 //! Method (J. A. Fiorucci, T. R. Pellegrini, F. Louzada, F. Petropoulos & A. B. Koehler,
@@ -61,6 +61,7 @@
 //! variance has no closed form we have checked, so bands come from the backtest's errors.
 
 use super::adjusted;
+use super::decompose::Indices;
 use super::optimize::minimise_scalar;
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
@@ -233,6 +234,7 @@ fn check(y: &[f64], dynamics: Dynamics) -> Result<(), MethodError> {
 fn with_season<F>(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     horizon: usize,
     plain: F,
 ) -> Result<Fitted, MethodError>
@@ -240,7 +242,7 @@ where
     F: Fn(&[f64]) -> Result<Fitted, MethodError>,
 {
     match adjusted::applies(history, season) {
-        Some(m) => adjusted::fit_adjusted(history, m, horizon, plain),
+        Some(m) => adjusted::fit_adjusted(history, m, how, horizon, plain),
         None => plain(history),
     }
 }
@@ -250,9 +252,10 @@ where
 pub fn dotm(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
-    fit_optimised(history, season, Dynamics::Dynamic, None, horizon)
+    fit_optimised(history, season, how, Dynamics::Dynamic, None, horizon)
 }
 
 /// The model with alpha and `l_0` estimated and theta estimated (`None`) or fixed in `[1, 100]`,
@@ -260,11 +263,12 @@ pub fn dotm(
 pub fn fit_optimised(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     dynamics: Dynamics,
     theta: Option<f64>,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
-    with_season(history, season, horizon, |y| {
+    with_season(history, season, how, horizon, |y| {
         fit_plain(y, dynamics, theta, horizon)
     })
 }
@@ -294,16 +298,18 @@ fn fit_plain(
 #[cfg(feature = "internals")]
 /// The model with given alpha in `(0, 1]`, theta in `[1, 100]` and `l_0` (on the adjusted
 /// scale), season taken out when one applies, e.g. to reproduce a computation made elsewhere.
+#[allow(clippy::too_many_arguments)] // the model's own numbers, each named
 pub fn with_parameters(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     dynamics: Dynamics,
     alpha: f64,
     theta: f64,
     level0: f64,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
-    with_season(history, season, horizon, |y| {
+    with_season(history, season, how, horizon, |y| {
         plain_with_parameters(y, dynamics, alpha, theta, level0, horizon)
     })
 }
@@ -415,16 +421,18 @@ fn assemble(
 
 /// The model of an earlier fit (alpha, trend weight and `l_0` kept) over a longer history, the
 /// trend lines and seasonal indices worked out again ([`super::update`]).
+#[allow(clippy::too_many_arguments)] // the model's own numbers, each named
 pub(crate) fn update(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     dynamics: Dynamics,
     alpha: f64,
     weight: f64,
     level0: f64,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
-    with_season(history, season, horizon, |y| {
+    with_season(history, season, how, horizon, |y| {
         check(y, dynamics)?;
         at_parameters(y, dynamics, alpha, weight, level0, horizon)
     })
@@ -512,8 +520,9 @@ mod tests {
             .enumerate()
             .map(|(t, v)| v + 9.0 * ((t * 7) % 5) as f64)
             .collect();
-        let benchmark = theta::theta(&y, None, 8).unwrap();
-        let ours = fit_optimised(&y, None, Dynamics::Static, Some(2.0), 8).unwrap();
+        let benchmark = theta::theta(&y, None, Indices::Classical, 8).unwrap();
+        let ours =
+            fit_optimised(&y, None, Indices::Classical, Dynamics::Static, Some(2.0), 8).unwrap();
         let fitted_alpha = parameter(&ours, "alpha");
         assert!((fitted_alpha - parameter(&benchmark, "alpha")).abs() > 1e-3);
         let lines = trend_lines(&y, Dynamics::Static);
@@ -543,7 +552,7 @@ mod tests {
     #[test]
     fn straight_line_is_followed() {
         let y: Vec<f64> = (0..20).map(|t| 5.0 + 2.0 * t as f64).collect();
-        let f = dotm(&y, None, 3).unwrap();
+        let f = dotm(&y, None, Indices::Classical, 3).unwrap();
         for (h, v) in f.forecast().iter().enumerate() {
             let exact = 5.0 + 2.0 * (20 + h) as f64;
             assert!((v - exact).abs() < 0.2, "{:?}", f.forecast());
@@ -553,14 +562,16 @@ mod tests {
     // A flat series: the trend is zero, theta cannot be told apart, the forecast is the level.
     #[test]
     fn flat_series_and_short_ones() {
-        let f = dotm(&[7.0; 10], None, 4).unwrap();
+        let f = dotm(&[7.0; 10], None, Indices::Classical, 4).unwrap();
         assert!(f.forecast().iter().all(|v| (v - 7.0).abs() < 1e-9));
         assert_eq!(parameter(&f, "theta"), 1.0);
         assert!(matches!(
-            dotm(&[1.0, 2.0, 3.0], None, 1),
+            dotm(&[1.0, 2.0, 3.0], None, Indices::Classical, 1),
             Err(MethodError::TooShort { needed: 4, .. })
         ));
-        assert!(fit_optimised(&wave(10), None, Dynamics::Static, Some(0.5), 1).is_err());
+        let static_half = Some(0.5);
+        let classical = Indices::Classical;
+        assert!(fit_optimised(&wave(10), None, classical, Dynamics::Static, static_half, 1).is_err());
     }
 
     // The fitted parameters never leave their bounds and extreme data stay finite or are refused.
@@ -572,7 +583,7 @@ mod tests {
             (0..25).map(|t| 1e-12 * (t % 4) as f64).collect(),
             vec![0.0, 0.0, 0.0, 5.0, 0.0, 0.0],
         ] {
-            if let Ok(f) = dotm(&y, None, 6) {
+            if let Ok(f) = dotm(&y, None, Indices::Classical, 6) {
                 let alpha = parameter(&f, "alpha");
                 let theta = parameter(&f, "theta");
                 assert!((ALPHA_LOW..=ALPHA_HIGH).contains(&alpha));

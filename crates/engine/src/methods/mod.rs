@@ -22,6 +22,8 @@ crate::internal_modules!(
 
 use std::fmt;
 
+use decompose::FOR_FORECASTS;
+
 /// The AICc of the smoothing fits and the choice among them, for the backtest.
 pub(crate) use smoothing::criterion;
 
@@ -56,7 +58,7 @@ pub enum MethodKind {
     /// The exponential smoothing model (simple, Holt, damped, Holt-Winters) with the lowest
     /// AICc on the history (Hyndman, Koehler, Snyder & Grose 2002).
     SmoothingByAicc,
-    /// Least-squares line times classical seasonal indices.
+    /// Least-squares line times seasonal indices (classical decomposition, shrunk).
     TrendSeasonal,
     /// Croston's method for intermittent demand (Croston 1972).
     Croston,
@@ -352,7 +354,7 @@ pub fn fit(
         MethodKind::MovingAverage => simple::moving_average(history, horizon),
         MethodKind::Ses | MethodKind::Holt | MethodKind::DampedTrend => {
             match adjusted::applies(history, season) {
-                Some(m) => adjusted::fit_adjusted(history, m, horizon, |y| {
+                Some(m) => adjusted::fit_adjusted(history, m, FOR_FORECASTS, horizon, |y| {
                     smoothing::fit(kind, y, None, horizon)
                 }),
                 None => smoothing::fit(kind, history, None, horizon),
@@ -364,11 +366,11 @@ pub fn fit(
         | MethodKind::DampedHoltWintersMultiplicative => {
             smoothing::fit(kind, history, season, horizon)
         }
-        MethodKind::Theta => theta::theta(history, season, horizon),
-        MethodKind::DynamicOptimisedTheta => dotm::dotm(history, season, horizon),
+        MethodKind::Theta => theta::theta(history, season, FOR_FORECASTS, horizon),
+        MethodKind::DynamicOptimisedTheta => dotm::dotm(history, season, FOR_FORECASTS, horizon),
         MethodKind::SmoothingByAicc => smoothing::criterion::fit_by_aicc(history, season, horizon),
         MethodKind::TrendSeasonal => {
-            trend_season::trend_seasonal(history, season.unwrap_or(1), horizon)
+            trend_season::trend_seasonal(history, season.unwrap_or(1), FOR_FORECASTS, horizon)
         }
         MethodKind::Croston | MethodKind::Sba | MethodKind::Tsb => {
             intermittent::fit(kind, history, horizon)
@@ -437,7 +439,7 @@ pub(crate) fn update(
         Some(Anchor::Smoothing(anchor)) => match kind {
             MethodKind::Ses | MethodKind::Holt | MethodKind::DampedTrend => {
                 match adjusted::applies(history, season) {
-                    Some(m) => adjusted::fit_adjusted(history, m, horizon, |y| {
+                    Some(m) => adjusted::fit_adjusted(history, m, FOR_FORECASTS, horizon, |y| {
                         smoothing::update(kind, anchor, y, horizon)
                     }),
                     None => smoothing::update(kind, anchor, history, horizon),
@@ -446,7 +448,7 @@ pub(crate) fn update(
             _ => smoothing::update(kind, anchor, history, horizon),
         },
         Some(Anchor::Theta { alpha, level0 }) => {
-            theta::theta_with_smoothing(history, season, *alpha, *level0, horizon)
+            theta::theta_with_smoothing(history, season, FOR_FORECASTS, *alpha, *level0, horizon)
         }
         Some(Anchor::OptimisedTheta {
             dynamics,
@@ -454,7 +456,14 @@ pub(crate) fn update(
             weight,
             level0,
         }) => dotm::update(
-            history, season, *dynamics, *alpha, *weight, *level0, horizon,
+            history,
+            season,
+            FOR_FORECASTS,
+            *dynamics,
+            *alpha,
+            *weight,
+            *level0,
+            horizon,
         ),
     }
 }

@@ -10,7 +10,8 @@
 //! "Unmasking the Theta method", IJF 19 (2003) 287-290):
 //!
 //! 1. With a season length m, if every value is above zero, divide by classical multiplicative
-//!    seasonal indices; otherwise skip the adjustment and report `season_skipped_not_positive`.
+//!    seasonal indices (as published; the plan asks for them shrunk, [`super::decompose`]);
+//!    otherwise skip the adjustment and report `season_skipped_not_positive`.
 //! 2. Theta line 0: least-squares line `a + b t`; only its slope b is used.
 //! 3. SES on the adjusted series `x`: `l_t = alpha x_t + (1 - alpha) l_{t-1}`, with alpha and the
 //!    initial level `l_0` chosen to minimise the one-step SSE (below).
@@ -33,7 +34,7 @@
 //! grid over `[1e-4, 1]` refined by golden-section search on the profiled SSE
 //! ([`super::optimize::minimise_scalar`]).
 
-use super::decompose::{self, Kind};
+use super::decompose::{self, Indices, Kind};
 use super::optimize::minimise_scalar;
 use super::trend_season::fit_line;
 use super::{Fitted, MethodError, MethodKind, Parameter};
@@ -107,7 +108,7 @@ struct Adjusted {
     skipped_not_positive: bool,
 }
 
-fn adjust(history: &[f64], season: Option<usize>) -> Result<Adjusted, MethodError> {
+fn adjust(history: &[f64], season: Option<usize>, how: Indices) -> Result<Adjusted, MethodError> {
     let kind = MethodKind::Theta;
     let n = history.len();
     let unadjusted = |skipped_not_positive| Adjusted {
@@ -128,7 +129,7 @@ fn adjust(history: &[f64], season: Option<usize>) -> Result<Adjusted, MethodErro
             found: n,
         });
     }
-    let indices = decompose::seasonal_indices(history, m, Kind::Multiplicative)
+    let indices = decompose::indices(history, m, Kind::Multiplicative, how)
         .map_err(|_| MethodError::Diverged { method: kind })?;
     Ok(Adjusted {
         values: decompose::deseasonalise(history, &indices, Kind::Multiplicative),
@@ -142,10 +143,11 @@ fn adjust(history: &[f64], season: Option<usize>) -> Result<Adjusted, MethodErro
 pub fn theta(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     horizon: usize,
 ) -> Result<Fitted, MethodError> {
     check_length(history)?;
-    let adjusted = adjust(history, season)?;
+    let adjusted = adjust(history, season, how)?;
     let ses = fit_ses(&adjusted.values);
     assemble(history, adjusted, ses.alpha, ses.level0, horizon)
 }
@@ -156,6 +158,7 @@ pub fn theta(
 pub fn theta_with_smoothing(
     history: &[f64],
     season: Option<usize>,
+    how: Indices,
     alpha: f64,
     level0: f64,
     horizon: usize,
@@ -166,7 +169,7 @@ pub fn theta_with_smoothing(
             method: MethodKind::Theta,
         });
     }
-    let adjusted = adjust(history, season)?;
+    let adjusted = adjust(history, season, how)?;
     assemble(history, adjusted, alpha, level0, horizon)
 }
 
@@ -292,7 +295,7 @@ mod tests {
         // On the exact line 5 + 2t, SES lags least with alpha = 1 (l_n = y_n), so by hand the
         // forecast is y_n + (2/2)(h - 1 + 1) = 43 + h: theta = 2 keeps half the trend.
         let y: Vec<f64> = (0..20).map(|t| 5.0 + 2.0 * t as f64).collect();
-        let f = theta(&y, None, 3).unwrap();
+        let f = theta(&y, None, Indices::Classical, 3).unwrap();
         assert!((f.parameters()[0].value - 1.0).abs() < 1e-9);
         for (h, v) in f.forecast().iter().enumerate() {
             assert!((v - (44.0 + h as f64)).abs() < 1e-6, "{:?}", f.forecast());
@@ -310,15 +313,15 @@ mod tests {
     #[test]
     fn short_and_non_positive() {
         assert!(matches!(
-            theta(&[1.0, 2.0], None, 1),
+            theta(&[1.0, 2.0], None, Indices::Classical, 1),
             Err(MethodError::TooShort { needed: 3, .. })
         ));
         assert!(matches!(
-            theta(&[1.0; 7], Some(4), 1),
+            theta(&[1.0; 7], Some(4), Indices::Classical, 1),
             Err(MethodError::TooShort { needed: 8, .. })
         ));
         let y = [0.0, 3.0, 1.0, 4.0, 0.0, 3.0, 1.0];
-        let f = theta(&y, Some(4), 2).unwrap();
+        let f = theta(&y, Some(4), Indices::Classical, 2).unwrap();
         assert!(f
             .parameters()
             .iter()

@@ -1,5 +1,6 @@
 //! Linear trend with seasonal indices: a least-squares line through the deseasonalised history,
-//! multiplied (or shifted) by classical seasonal indices.
+//! multiplied (or shifted) by classical seasonal indices (shrunk or not, as the caller asks:
+//! [`super::decompose::Indices`]).
 //!
 //! Kept apart from: the decomposition itself ([`super::decompose`]), which supplies the indices,
 //! and the smoothing methods; this is the textbook regression-on-time benchmark.
@@ -17,7 +18,7 @@
 //! `s^2 (1 + 1/n + (t - tbar)^2 / Sxx)` with `s^2 = sum (x_t - a - b t)^2 / (n - 2)`, times
 //! `S_t^2` for multiplicative indices (unchanged for additive ones).
 
-use super::decompose::{self, Kind};
+use super::decompose::{self, Indices, Kind};
 use super::{Fitted, MethodError, MethodKind, Parameter};
 
 /// A least-squares line on `t = 0, 1, ..., n-1` and what its prediction variance needs.
@@ -67,7 +68,12 @@ pub(super) fn fit_line(x: &[f64]) -> Line {
 
 /// Linear trend times seasonal indices for season length `m`. Needs `m >= 2` and two full
 /// seasons (`2m` observations).
-pub fn trend_seasonal(history: &[f64], m: usize, horizon: usize) -> Result<Fitted, MethodError> {
+pub fn trend_seasonal(
+    history: &[f64],
+    m: usize,
+    how: Indices,
+    horizon: usize,
+) -> Result<Fitted, MethodError> {
     let method = MethodKind::TrendSeasonal;
     if m < 2 {
         return Err(MethodError::NeedsSeason { method });
@@ -85,7 +91,7 @@ pub fn trend_seasonal(history: &[f64], m: usize, horizon: usize) -> Result<Fitte
     } else {
         Kind::Additive
     };
-    let indices = decompose::seasonal_indices(history, m, kind)
+    let indices = decompose::indices(history, m, kind, how)
         .map_err(|_| MethodError::Diverged { method })?;
     let adjusted = decompose::deseasonalise(history, &indices, kind);
     let line = fit_line(&adjusted);
@@ -163,7 +169,7 @@ mod tests {
         let y: Vec<f64> = (0..24)
             .map(|t| (100.0 + t as f64) * pattern[t % 4])
             .collect();
-        let f = trend_seasonal(&y, 4, 4).unwrap();
+        let f = trend_seasonal(&y, 4, Indices::Classical, 4).unwrap();
         for (h, v) in f.forecast().iter().enumerate() {
             let truth = (100.0 + (24 + h) as f64) * pattern[h % 4];
             assert!((v - truth).abs() / truth < 2e-3, "{v} vs {truth}");
@@ -176,14 +182,14 @@ mod tests {
     #[test]
     fn zeros_switch_to_additive_and_short_is_refused() {
         let y: Vec<f64> = (0..12).map(|t| [0.0, 4.0, 2.0][t % 3] + t as f64).collect();
-        let f = trend_seasonal(&y, 3, 3).unwrap();
+        let f = trend_seasonal(&y, 3, Indices::Classical, 3).unwrap();
         assert_eq!(f.parameters()[3].value, 0.0);
         assert!(matches!(
-            trend_seasonal(&y[..5], 3, 1),
+            trend_seasonal(&y[..5], 3, Indices::Classical, 1),
             Err(MethodError::TooShort { needed: 6, .. })
         ));
         assert!(matches!(
-            trend_seasonal(&y, 1, 1),
+            trend_seasonal(&y, 1, Indices::Classical, 1),
             Err(MethodError::NeedsSeason { .. })
         ));
     }
