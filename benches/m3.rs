@@ -116,11 +116,14 @@ impl Tally {
 
 /// One method alone on the train part, with the season the plan would accept (the last value
 /// repeated if the method cannot be fitted).
-/// Theta as published (classical seasonal indices): the row that checks the scoring against the
-/// published Theta figures.
+/// Theta as published (the autocorrelation test alone decides the season, classical seasonal
+/// indices): the row that checks the scoring against the published Theta figures.
 fn classical_theta(s: &M3Series) -> Vec<f64> {
     let series = series_for(s);
-    let season = patterns::detect_season(&s.train, series.frequency(), None).length;
+    let verdict = patterns::detect_season(&s.train, series.frequency(), None);
+    let test_alone =
+        verdict.test_passed == Some(true) && verdict.full_seasons >= patterns::MIN_FULL_SEASONS;
+    let season = verdict.candidate.filter(|_| test_alone);
     match theta::theta(&s.train, season, Indices::Classical, s.horizon) {
         Ok(f) => f.forecast().to_vec(),
         Err(_) => vec![*s.train.last().unwrap_or(&0.0); s.horizon],

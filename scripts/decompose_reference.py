@@ -8,7 +8,8 @@ nist_quarterly_sales_24.csv). Prints the indices aligned with the LAST four quar
 engine's convention), the centred moving average, and the linear trend with seasonal indices
 (least-squares line on the deseasonalised series) forecasts for two years; then the indices
 shrunk by the James-Stein factor (Miller & Williams 2003) for AirPassengers, USAccDeaths (R
-datasets, tests/fixtures/refs) and the NIST sales, multiplicative and additive.
+datasets, tests/fixtures/refs) and the NIST sales, multiplicative and additive, and the seasonal
+strength of each (Wang, Smith & Hyndman 2006, from the additive classical decomposition).
 """
 import csv
 import os
@@ -66,6 +67,25 @@ def shrunk(y, m, multiplicative):
     return [norm[(n - m + j) % m] for j in range(m)], c
 
 
+def strength(y, m):
+    """Seasonal strength F_S = max(0, 1 - Var(R) / Var(S + R)) (Wang, Smith & Hyndman 2006) from
+    an additive classical decomposition: S + R the detrended values y - CMA where the moving
+    average exists, S their position means less the mean of those, R the rest; population
+    variances."""
+    trend = centred_ma(y, m)
+    pairs = [(t % m, v - level) for t, (v, level) in enumerate(zip(y, trend)) if level is not None]
+    means = [sum(d for p, d in pairs if p == i) / sum(1 for p, _ in pairs if p == i) for i in range(m)]
+    centre = sum(means) / m
+    sr = [d for _, d in pairs]
+    r = [d - (means[p] - centre) for p, d in pairs]
+
+    def var(a):
+        mu = sum(a) / len(a)
+        return sum((v - mu) ** 2 for v in a) / len(a)
+
+    return max(0.0, 1.0 - var(r) / var(sr))
+
+
 def series(name):
     with open(os.path.join(HERE, "..", "tests", "fixtures", "refs", name)) as f:
         return [float(r["value"]) for r in csv.DictReader(f)]
@@ -99,6 +119,7 @@ def main():
         for kind, multiplicative in [("MUL", True), ("ADD", False)]:
             shrunk_indices, factor = shrunk(values, m, multiplicative)
             print(f"const OWN_{label}_SHRUNK_{kind}: [f64; {m}] =", shrunk_indices, f"; // factor {factor!r}")
+        print(f"const OWN_{label}_STRENGTH: f64 = {strength(values, m)!r};")
 
 
 if __name__ == "__main__":

@@ -1,11 +1,12 @@
 //! Pattern verdicts checked against outside references: statsmodels 0.15.0 and scipy 1.17.1
 //! values in tests/fixtures/refs/patterns_reference.json, written by
-//! scripts/patterns_reference.py (versions recorded in the file).
+//! scripts/patterns_reference.py (versions recorded in the file), and the seasonal strength
+//! against an own script.
 
 use morrowcast_engine::calendar::Frequency;
 use morrowcast_engine::patterns::{
-    autocorrelation, classify_demand, detect_season, mann_kendall, DemandClass, SeasonSource,
-    TrendDirection,
+    autocorrelation, classify_demand, detect_season, mann_kendall, seasonal_strength, DemandClass,
+    SeasonSource, TrendDirection,
 };
 use serde_json::Value;
 
@@ -42,6 +43,26 @@ fn autocorrelation_matches_statsmodels() {
                 k + 1
             );
         }
+    }
+}
+
+// Source: own script scripts/decompose_reference.py (standard library only, no code shared with
+// the engine): seasonal strength F_S (Wang, Smith & Hyndman 2006) from the additive classical
+// decomposition. Tolerance 1e-12.
+#[test]
+fn seasonal_strength_matches_own_script() {
+    for (file, column, m, expected) in [
+        ("AirPassengers.csv", "value", 12, 0.7787219427520644),
+        ("USAccDeaths.csv", "value", 12, 0.9362165525078306),
+        (
+            "nist_quarterly_sales_24.csv",
+            "sales",
+            4,
+            0.9105678990640536,
+        ),
+    ] {
+        let f = seasonal_strength(&csv_column(file, column), m).unwrap();
+        assert!((f - expected).abs() < 1e-12, "{file}: {f} vs {expected}");
     }
 }
 

@@ -6,6 +6,7 @@
 //! autocorrelations and the threshold; the app groups periods into years by their calendar.
 //! Lines are straight segments between markers: periods are discrete.
 
+use morrowcast_engine::patterns::STRONG_SEASON;
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
@@ -170,6 +171,8 @@ pub struct Autocorrelation {
     pub candidate: Option<usize>,
     /// The threshold |r_m| must exceed.
     pub threshold: f64,
+    /// The candidate's seasonal strength, where it may accept the season the test turned down.
+    pub strength: Option<f64>,
 }
 
 /// Draws autocorrelation bars per lag, the candidate lag highlighted, and the threshold as
@@ -228,6 +231,18 @@ where
 /// Summary of the autocorrelation evidence.
 pub fn autocorrelation_summary(data: &Autocorrelation) -> String {
     match data.candidate.and_then(|m| data.values.get(m.wrapping_sub(1)).map(|r| (m, *r))) {
+        Some((m, r)) if r.abs() <= data.threshold && data.strength.is_some() => {
+            let f = data.strength.unwrap_or(0.0);
+            format!(
+                "Autocorrelation at lag {m} is {r:.2}; the threshold is {:.2}, so lag {m} does not pass this test. Its seasonal strength is {f:.2}, {}.",
+                data.threshold,
+                if f >= STRONG_SEASON {
+                    format!("at least {STRONG_SEASON:.2}, which accepts it")
+                } else {
+                    format!("below {STRONG_SEASON:.2}")
+                }
+            )
+        }
         Some((m, r)) => format!(
             "Autocorrelation at lag {m} is {:.2}; the threshold is {:.2}, so lag {m} {} as the season length.",
             r,
@@ -320,6 +335,7 @@ mod tests {
             values: vec![0.5, 0.1, -0.3, 0.7],
             candidate: Some(4),
             threshold: 0.4,
+            strength: None,
         };
         let svg = svg_of(|a| draw_autocorrelation(a, &data));
         assert_eq!(svg.rects_with_fill(&hex(DEMAND)).len(), 3);
@@ -336,6 +352,16 @@ mod tests {
             autocorrelation_summary(&data),
             "Autocorrelation at lag 4 is 0.70; the threshold is 0.40, so lag 4 passes as the season length."
         );
+        // Turned down by the test, the season may still be accepted by its strength.
+        let strong = Autocorrelation {
+            values: vec![0.5, 0.1, -0.3, 0.3],
+            strength: Some(0.71),
+            ..data
+        };
+        assert_eq!(
+            autocorrelation_summary(&strong),
+            "Autocorrelation at lag 4 is 0.30; the threshold is 0.40, so lag 4 does not pass this test. Its seasonal strength is 0.71, at least 0.64, which accepts it."
+        );
     }
 
     #[test]
@@ -346,6 +372,7 @@ mod tests {
             values: vec![],
             candidate: None,
             threshold: 0.0,
+            strength: None,
         };
         assert_eq!(draw_autocorrelation(&area, &empty), Err(ChartError::NoData));
         let h = History {

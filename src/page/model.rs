@@ -65,6 +65,7 @@ pub fn autocorrelation(plan: &ItemPlan) -> Autocorrelation {
         values: plan.season.autocorrelation.clone(),
         candidate: plan.season.candidate,
         threshold: plan.season.threshold,
+        strength: plan.season.strength,
     }
 }
 

@@ -137,6 +137,8 @@ pub struct EvidenceJson {
     pub season_statistic: f64,
     pub season_threshold: f64,
     pub season_full_seasons: usize,
+    /// Seasonal strength of the candidate (null without one or two full seasons of it).
+    pub season_strength: Option<f64>,
     pub season_reason: String,
     pub trend_s: f64,
     pub trend_z: f64,
@@ -206,6 +208,7 @@ impl From<&ItemPlan> for PlanJson {
                 season_statistic: p.season.statistic,
                 season_threshold: p.season.threshold,
                 season_full_seasons: p.season.full_seasons,
+                season_strength: p.season.strength,
                 season_reason: p.season.reason.clone(),
                 trend_s: p.trend.s,
                 trend_z: p.trend.z,

@@ -22,7 +22,8 @@
 #![warn(missing_docs)]
 
 /// Declares modules that are public with the `internals` feature (the project's reference tests
-/// turn it on) and private to the engine without it: pieces a caller of the engine never needs.
+/// turn it on) and private to the engine without it (visible to its other parts, as the season
+/// test uses the decomposition's moving average): pieces a caller of the engine never needs.
 macro_rules! internal_modules {
     ($($name:ident),* $(,)?) => {
         $(
@@ -31,7 +32,7 @@ macro_rules! internal_modules {
             #[allow(missing_docs)]
             pub mod $name;
             #[cfg(not(feature = "internals"))]
-            mod $name;
+            pub(crate) mod $name;
         )*
     };
 }

@@ -5,7 +5,8 @@
 //! caller) and from I/O. Each verdict is computed from plain values so it can be checked
 //! against outside references on its own:
 //! - [`acf`]: sample autocorrelation (Box-Jenkins estimator);
-//! - [`season`]: season-length candidate and the M4 benchmark seasonality test;
+//! - [`season`]: season-length candidate, the M4 benchmark seasonality test and the seasonal
+//!   strength;
 //! - [`trend`]: the Mann-Kendall trend test;
 //! - [`demand_class`]: the Syntetos-Boylan-Croston demand classes.
 
@@ -14,8 +15,9 @@ crate::internal_modules!(acf, demand_class, season, trend);
 pub use acf::autocorrelation;
 pub use demand_class::{classify_demand, DemandClass, DemandVerdict, ADI_CUTOFF, CV2_CUTOFF};
 pub use season::{
-    autocorrelation_peak, detect_season, season_test, SeasonSource, SeasonTest, SeasonVerdict,
-    MIN_FULL_SEASONS, SEASON_TEST_CRITICAL_VALUE,
+    autocorrelation_peak, detect_season, season_test, seasonal_strength, SeasonSource, SeasonTest,
+    SeasonVerdict, MIN_FULL_SEASONS, SEASON_TEST_CRITICAL_VALUE, STRENGTH_NEEDS_SEASONS,
+    STRONG_SEASON,
 };
 pub use trend::{mann_kendall, TrendDirection, TrendVerdict, TREND_SIGNIFICANCE};
 

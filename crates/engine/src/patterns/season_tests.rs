@@ -148,3 +148,58 @@ fn degenerate_inputs_do_not_panic() {
         short.reason
     );
 }
+
+/// A steep trend plus a sine of period `period`: the trend fills r_1 .. r_{m-1}, which lifts the
+/// autocorrelation test's threshold above r_m.
+fn trending_seasonal(n: usize, period: usize, amplitude: f64) -> Vec<f64> {
+    seasonal(n, period, amplitude)
+        .iter()
+        .enumerate()
+        .map(|(t, v)| v + 10.0 * t as f64)
+        .collect()
+}
+
+#[test]
+fn a_strong_calendar_season_on_a_trend_is_accepted_by_its_strength() {
+    let values = trending_seasonal(24, 4, 30.0);
+    let v = detect_season(&values, Frequency::Quarterly, None);
+    assert_eq!(v.test_passed, Some(false), "{}", v.reason);
+    let strength = v.strength.unwrap();
+    assert!(strength >= STRONG_SEASON, "{strength}");
+    assert_eq!(v.length, Some(4));
+    let expected = format!(
+        "4-period season accepted: autocorrelation at lag 4 is {:.2}, not above the {:.2} \
+         threshold, but the seasonal strength is {strength:.2}, at least 0.64, with 6 full seasons",
+        v.autocorrelation[3], v.threshold
+    );
+    assert_eq!(v.reason, expected);
+}
+
+#[test]
+fn strength_needs_four_seasons_and_a_calendar() {
+    // Three years: noise alone can score high, so the test alone decides (the plan puts such
+    // a season on trial).
+    let short = detect_season(&trending_seasonal(12, 4, 30.0), Frequency::Quarterly, None);
+    assert_eq!(short.test_passed, Some(false));
+    assert_eq!(short.length, None, "{}", short.reason);
+    assert!(!short.reason.contains("strength"), "{}", short.reason);
+    // No calendar: the lag was found as the autocorrelation's peak, so only the test counts.
+    let undated = detect_season(&trending_seasonal(60, 5, 30.0), Frequency::Undated, None);
+    if undated.test_passed == Some(false) {
+        assert_eq!(undated.length, None, "{}", undated.reason);
+    }
+    assert!(!undated.reason.contains("strength"), "{}", undated.reason);
+}
+
+#[test]
+fn noise_has_no_strength_to_speak_of() {
+    let values: Vec<f64> = (0..60).map(|t| 100.0 + 10.0 * wobble(t)).collect();
+    let f = seasonal_strength(&values, 12).unwrap();
+    assert!(f < STRONG_SEASON, "{f}");
+    let v = detect_season(&values, Frequency::Monthly, None);
+    assert_eq!(v.length, None, "{}", v.reason);
+    assert!(v.reason.contains("below 0.64"), "{}", v.reason);
+    // Undefined cases give no number rather than a made-up one.
+    assert_eq!(seasonal_strength(&values[..23], 12), None);
+    assert_eq!(seasonal_strength(&[5.0; 24], 4), None);
+}
