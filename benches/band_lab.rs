@@ -4,8 +4,9 @@
 //! chosen candidate is refitted at the rolling origins (8, 36 or every one) and each rule turns
 //! the errors into bands, scored on the held-out actuals.
 //!
-//! Rules: engine (bands::rolling_band, the rule the plan uses); t_pure (the same, written
-//! here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
+//! Rules: engine (bands::rolling_band without the model's psi-weights, which the lab does not
+//! have: the h-block count; the plan counts by the weights from 30 errors); t_pure (the same,
+//! written here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
 //! pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
 //! conformal (split conformal on scaled errors). "rel" variants (36 origins) take each error
 //! relative to its own forecast and scale the band by today's forecast; "shape" variants
@@ -50,11 +51,11 @@ fn rms(e: &[f64]) -> f64 {
     morrowcast_engine::bands::root_mean_square(e)
 }
 
-/// The engine's rule, bands::rolling_band (equal to t_pure).
+/// The engine's rule, bands::rolling_band with the h-block count (equal to t_pure).
 fn engine(errors: &[Vec<f64>], h: usize, p: f64) -> Vec<(f64, f64)> {
     let level = morrowcast_engine::bands::Level::new(p * 100.0).unwrap();
     let f = vec![0.0; h];
-    match morrowcast_engine::bands::rolling_band(&f, errors, level, false) {
+    match morrowcast_engine::bands::rolling_band(&f, errors, None, level, false) {
         Some(pts) => pts.iter().map(|b| (-b.low, b.high)).collect(),
         None => vec![(0.0, 0.0); h],
     }

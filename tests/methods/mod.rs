@@ -14,7 +14,7 @@
 use crate::support::{assert_all_close, csv_column};
 use morrowcast_engine::methods::decompose::{self, Indices, Kind};
 use morrowcast_engine::methods::{
-    fit, intermittent, theta, trend_season, Fitted, MethodError, MethodKind,
+    self, fit, intermittent, theta, trend_season, Fitted, MethodError, MethodKind,
 };
 
 fn sales() -> Vec<f64> {
@@ -195,6 +195,62 @@ fn shrunk_indices_match_own_script() {
     );
     check_shrunk("sales mul", &sales(), 4, mul, &OWN_SALES_SHRUNK_MUL);
     check_shrunk("sales add", &sales(), 4, add, &OWN_SALES_SHRUNK_ADD);
+}
+
+// ---------------------------------------------------------------- psi-weights
+
+// The formula of methods::psi_weights applied by hand to each fit's own reported parameters
+// (arithmetic; the error-correction form is Hyndman, Koehler, Ord & Snyder 2005).
+#[test]
+fn psi_weights_follow_each_fits_parameters() {
+    let y = air_passengers();
+    let horizon = 14;
+    let check = |kind: MethodKind, season: Option<usize>, expected: &dyn Fn(usize) -> f64| {
+        let f = fit(kind, &y, season, horizon).unwrap();
+        let psi = methods::psi_weights(&f, season, horizon);
+        assert_eq!(psi.len(), horizon);
+        assert_eq!(psi[0], 1.0);
+        for (j, w) in psi.iter().enumerate().skip(1) {
+            assert!(
+                (w - expected(j)).abs() < 1e-12,
+                "{kind:?} j {j}: {w} vs {}",
+                expected(j)
+            );
+        }
+    };
+    let ses = fit(MethodKind::Ses, &y, None, horizon).unwrap();
+    let a = parameter(&ses, "alpha");
+    check(MethodKind::Ses, None, &|_| a);
+    let damped = fit(MethodKind::DampedTrend, &y, None, horizon).unwrap();
+    let (a, b, phi) = (
+        parameter(&damped, "alpha"),
+        parameter(&damped, "beta"),
+        parameter(&damped, "phi"),
+    );
+    check(MethodKind::DampedTrend, None, &|j| {
+        a * (1.0 + b * (1..=j).map(|i| phi.powi(i as i32)).sum::<f64>())
+    });
+    let hw = fit(MethodKind::HoltWintersAdditive, &y, Some(12), horizon).unwrap();
+    let (a, b, g) = (
+        parameter(&hw, "alpha"),
+        parameter(&hw, "beta"),
+        parameter(&hw, "gamma"),
+    );
+    check(MethodKind::HoltWintersAdditive, Some(12), &|j| {
+        a * (1.0 + b * j as f64) + if j == 12 { g * (1.0 - a) } else { 0.0 }
+    });
+    check(MethodKind::Naive, None, &|_| 1.0);
+    check(MethodKind::SeasonalNaive, Some(12), &|j| {
+        if j == 12 {
+            1.0
+        } else {
+            0.0
+        }
+    });
+    check(MethodKind::TrendSeasonal, Some(12), &|_| 0.0);
+    let theta = fit(MethodKind::Theta, &y, Some(12), horizon).unwrap();
+    let a = parameter(&theta, "alpha");
+    check(MethodKind::Theta, Some(12), &|_| a);
 }
 
 // ---------------------------------------------------------------- Theta

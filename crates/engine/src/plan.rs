@@ -388,6 +388,7 @@ fn plan_inner(
             fitted,
             variance,
             fitted_as,
+            psi,
         },
     ) = refit_first_that_fits(&bt, wanted, &mut notes, |c| {
         refit(c, &history, recent.len(), seasons, horizon)
@@ -456,6 +457,7 @@ fn plan_inner(
         bands::rolling_band(
             &point,
             &origin_errors.by_horizon(horizon),
+            Some(&psi),
             settings.level(),
             non_negative,
         )
@@ -609,6 +611,8 @@ struct Refit {
     /// The candidate with each member as fitted: [`MethodKind::SmoothingByAicc`] replaced by
     /// the model it chose.
     fitted_as: Candidate,
+    /// Its psi-weights for the horizon: the members' mean ([`methods::psi_weights`]).
+    psi: Vec<f64>,
 }
 
 /// Which model [`MethodKind::SmoothingByAicc`] chose, when `chosen` has it; `over` says on
@@ -706,12 +710,22 @@ fn refit(
             },
         })
         .collect::<Result<Vec<_>, _>>()?;
+    // A combination's error is the mean of its members' errors: so are its weights, each
+    // member's error taken as made of the same one-step errors (an approximation).
+    let mut psi = vec![0.0; horizon];
+    for f in &fits {
+        let weights = methods::psi_weights(f, seasons.for_method(f.kind()), horizon);
+        for (sum, w) in psi.iter_mut().zip(weights) {
+            *sum += w / fits.len() as f64;
+        }
+    }
     if let (Candidate::Method(_), Some(f)) = (candidate, fits.first()) {
         return Ok(Refit {
             point: f.forecast().to_vec(),
             fitted: f.fitted().to_vec(),
             variance: f.variance().map(<[f64]>::to_vec),
             fitted_as: Candidate::Method(f.kind()),
+            psi,
         });
     }
     let forecasts: Vec<Vec<f64>> = fits.iter().map(|f| f.forecast().to_vec()).collect();
@@ -724,6 +738,7 @@ fn refit(
         // A combination has no analytic variance: its band comes from rolling-origin errors.
         variance: None,
         fitted_as: Candidate::Combination(fits.iter().map(Fitted::kind).collect()),
+        psi,
     })
 }
 

@@ -402,6 +402,65 @@ pub(crate) fn fit_near(
     }
 }
 
+/// Psi-weights ψ_0 = 1, ψ_1, ..., ψ_{horizon-1} of a fit: the h-step error of its forecast is
+/// sum_j ψ_j ε_{t+h-j} in the one-step errors ε after the origin, under the model the method
+/// stands for (Hyndman, Koehler, Ord & Snyder 2005, IJF 21, error-correction form; from memory
+/// for the simpler methods):
+///
+/// ```text
+///   exponential smoothing   ψ_j = α (1 + β (φ + ... + φ^j)) + γ (1 − α) [j a multiple of m]
+///                           (β, γ in the component form the fits report: the state-space
+///                           trend weight is αβ, the seasonal one γ(1 − α); φ = 1 undamped)
+///   Theta models, Croston, SBA, TSB   ψ_j = α (simple smoothing with a drift or of sizes)
+///   naive                   ψ_j = 1;  seasonal naive  ψ_j = 1 at multiples of m, else 0
+///   moving average of w     ψ_j = 1 / w
+///   linear trend with seasonal indices   ψ_j = 0 (a fixed line: nothing carries over)
+/// ```
+///
+/// Used to count how much the band's overlapping errors share ([`crate::bands::effective_count`]).
+pub fn psi_weights(f: &Fitted, season: Option<usize>, horizon: usize) -> Vec<f64> {
+    let get = |name: &str| {
+        f.parameters
+            .iter()
+            .find(|p| p.name == name)
+            .map(|p| p.value)
+    };
+    let alpha = get("alpha").unwrap_or(1.0);
+    let m = season.filter(|m| *m >= 2).unwrap_or(0);
+    let at_season = |j: usize| m > 0 && j % m == 0;
+    let weight = |j: usize| match f.kind {
+        MethodKind::Naive => 1.0,
+        MethodKind::SeasonalNaive => f64::from(u8::from(at_season(j))),
+        MethodKind::MovingAverage => 1.0 / get("window").unwrap_or(1.0).max(1.0),
+        MethodKind::TrendSeasonal => 0.0,
+        MethodKind::Ses
+        | MethodKind::Holt
+        | MethodKind::DampedTrend
+        | MethodKind::HoltWintersAdditive
+        | MethodKind::HoltWintersMultiplicative
+        | MethodKind::DampedHoltWintersAdditive
+        | MethodKind::DampedHoltWintersMultiplicative
+        | MethodKind::SmoothingByAicc => {
+            let beta = get("beta").unwrap_or(0.0);
+            let phi = get("phi").unwrap_or(1.0);
+            let damped: f64 = (1..=j).map(|i| phi.powi(i as i32)).sum();
+            let seasonal = match get("gamma") {
+                Some(gamma) if at_season(j) => gamma * (1.0 - alpha),
+                _ => 0.0,
+            };
+            alpha * (1.0 + beta * damped) + seasonal
+        }
+        MethodKind::Theta
+        | MethodKind::DynamicOptimisedTheta
+        | MethodKind::Croston
+        | MethodKind::Sba
+        | MethodKind::Tsb => alpha,
+    };
+    (0..horizon.max(1))
+        .map(|j| if j == 0 { 1.0 } else { weight(j) })
+        .collect()
+}
+
 /// What [`update`] keeps of a fit: the fitted parameters and starting states, without the
 /// parts that are recomputed from the longer history (states run on, trend lines and seasonal
 /// indices worked out again).
