@@ -181,6 +181,44 @@ fn item_with_no_values_is_reported() {
     );
 }
 
+// Product numbers as item names (found reading a file of numbered items on 2026-12-03: the
+// number column was taken for a second quantity, the file refused for repeated periods). A
+// column of whole numbers that repeat, each with every period once, beside repeated periods,
+// names items; the report says it read them so. A real second quantity keeps its meaning.
+#[test]
+fn numbered_items_are_read_as_items_with_a_warning() {
+    check(
+        "sku,month,units\n10023,2024-01,5\n10023,2024-02,6\n10024,2024-01,3\n10024,2024-02,4\n",
+        Expect {
+            items: Some(vec![
+                ("10023", some(&[5.0, 6.0])),
+                ("10024", some(&[3.0, 4.0])),
+            ]),
+            warned: vec![vec!["\"sku\"", "item codes", "not as quantities"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // Two quantities a month (wide): periods do not repeat, nothing is reinterpreted.
+    let wide = check(
+        "month,shop,web\n2024-01,10,3\n2024-02,10,4\n2024-03,12,4\n",
+        Expect {
+            items: Some(vec![
+                ("shop", some(&[10.0, 10.0, 12.0])),
+                ("web", some(&[3.0, 4.0, 4.0])),
+            ]),
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    assert!(wide.warnings.iter().all(|w| !w.contains("item codes")));
+    // A number column that repeats a (number, period) pair is not a code column: the repeated
+    // periods stay errors at their rows.
+    let repeated = read("sku,month,units\n7,2024-01,5\n7,2024-01,6\n8,2024-01,3\n");
+    assert!(!repeated.errors.is_empty());
+    assert!(repeated.warnings.iter().all(|w| !w.contains("item codes")));
+}
+
 #[test]
 fn item_spellings_differing_in_white_space_are_one_item_with_a_warning() {
     for (spelling, shown) in [

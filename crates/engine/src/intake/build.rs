@@ -135,6 +135,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         slots,
         rows_read,
     };
+    if let Some(j) = plan.codes {
+        b.out.warnings.push(format!(
+            "column \"{}\" holds whole numbers that repeat, each with a period once: read as \
+             item codes, not as quantities",
+            table.column_name(j)
+        ));
+    }
     for &j in &plan.ignored {
         b.out.warnings.push(format!(
             "column \"{}\" was not used: a long table reads one item, one period and one \

@@ -247,6 +247,9 @@ pub(crate) struct Plan {
     pub ignored: Vec<usize>,
     /// Columns whose cells are all empty or "n/a".
     pub empty: Vec<usize>,
+    /// An item column of whole numbers (product numbers) that the first look took for
+    /// quantities ([`item_codes`]); the report says so.
+    pub codes: Option<usize>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -299,9 +302,27 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
+    let mut codes = None;
+    if item_columns.is_empty() {
+        if let Some((p, None)) = period {
+            let periods = table.column(p, &rows);
+            let numeric: Vec<usize> = (0..roles.len())
+                .filter(|j| roles[*j] == Role::Value)
+                .collect();
+            // One numeric column must stay for the quantities.
+            codes = numeric
+                .iter()
+                .copied()
+                .filter(|_| numeric.len() >= 2)
+                .find(|j| item_codes(&table.column(*j, &rows), &periods));
+            if let Some(j) = codes {
+                item_columns.push(j);
+            }
+        }
+    }
     let long = !item_columns.is_empty();
     let value_columns: Vec<usize> = (0..roles.len())
-        .filter(|j| roles[*j] == Role::Value)
+        .filter(|j| roles[*j] == Role::Value && codes != Some(*j))
         .collect();
     if period.is_none() && value_columns.len() >= 2 {
         let candidates: Vec<usize> = if long {
@@ -354,5 +375,24 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         values,
         ignored,
         empty,
+        codes,
     })
+}
+
+/// Whether a column of numbers names items rather than counting them: every cell a whole
+/// number written with digits only, some repeated, beside a period column whose periods
+/// repeat too, and each (number, period) pair on one row only. That is the shape of product
+/// numbers in item, period, quantity rows; a quantity column with a repeated period would
+/// repeat a pair (common practice: item codes are often numeric).
+fn item_codes(cells: &[&str], periods: &[&str]) -> bool {
+    let digits = |c: &&str| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit());
+    if cells.len() < 2 || !cells.iter().all(digits) || all_distinct(cells) || all_distinct(periods)
+    {
+        return false;
+    }
+    let mut pairs: Vec<(&str, &str)> = cells.iter().copied().zip(periods.iter().copied()).collect();
+    let count = pairs.len();
+    pairs.sort_unstable();
+    pairs.dedup();
+    pairs.len() == count
 }
