@@ -29,12 +29,18 @@ def centred_ma(y, m):
     return out
 
 
-def indices(y, m, multiplicative):
+def detrended_by_position(y, m, multiplicative):
+    """The ratios (or differences) to the centred moving average, grouped by position t % m."""
     trend = centred_ma(y, m)
     by_position = [[] for _ in range(m)]
     for t, (v, level) in enumerate(zip(y, trend)):
         if level is not None:
             by_position[t % m].append(v / level if multiplicative else v - level)
+    return by_position
+
+
+def indices(y, m, multiplicative):
+    by_position = detrended_by_position(y, m, multiplicative)
     raw = [sum(v) / len(v) for v in by_position]
     mean = sum(raw) / m
     norm = [r / mean if multiplicative else r - mean for r in raw]
@@ -47,11 +53,7 @@ def shrunk(y, m, multiplicative):
     (Miller & Williams 2003, IJF 19): c = max(0, 1 - (m - 3) v / sum (S_i - mean S)^2), v the
     pooled variance of the detrended values about their position's raw index divided by the mean
     count per position. Returned aligned with the LAST m observations, normalised like the rest."""
-    trend = centred_ma(y, m)
-    by_position = [[] for _ in range(m)]
-    for t, (v, level) in enumerate(zip(y, trend)):
-        if level is not None:
-            by_position[t % m].append(v / level if multiplicative else v - level)
+    by_position = detrended_by_position(y, m, multiplicative)
     raw = [sum(v) / len(v) for v in by_position]
     within = sum((d - raw[i]) ** 2 for i, ds in enumerate(by_position) for d in ds)
     spare = sum(len(ds) - 1 for ds in by_position)
