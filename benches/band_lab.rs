@@ -6,8 +6,8 @@
 //!
 //! Rules: engine (bands::rolling_band without the model's psi-weights, which the lab does not
 //! have: the h-block count; the plan counts by the weights from 30 errors); t_pure (the same,
-//! written here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and hybrid (the
-//! pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
+//! written here); t_rms (df = k); t_eff (df = k / h with sqrt(1 + 1/df)); shape_t_eff and
+//! hybrid (the pooled standardised errors' own quantiles); jack_block (an h-block leave-out scale);
 //! conformal (split conformal on scaled errors). "rel" variants (36 origins) take each error
 //! relative to its own forecast and scale the band by today's forecast; "shape" variants
 //! divide each error by its forecast's size against the mean of that origin's path, and scale

@@ -114,8 +114,6 @@ impl Tally {
     }
 }
 
-/// One method alone on the train part, with the season the plan would accept (the last value
-/// repeated if the method cannot be fitted).
 /// Theta as published (the autocorrelation test alone decides the season, classical seasonal
 /// indices): the row that checks the scoring against the published Theta figures.
 fn classical_theta(s: &M3Series) -> Vec<f64> {
@@ -124,17 +122,23 @@ fn classical_theta(s: &M3Series) -> Vec<f64> {
     let test_alone =
         verdict.test_passed == Some(true) && verdict.full_seasons >= patterns::MIN_FULL_SEASONS;
     let season = verdict.candidate.filter(|_| test_alone);
-    match theta::theta(&s.train, season, Indices::Classical, s.horizon) {
-        Ok(f) => f.forecast().to_vec(),
-        Err(_) => vec![*s.train.last().unwrap_or(&0.0); s.horizon],
-    }
+    forecast_or_last(
+        theta::theta(&s.train, season, Indices::Classical, s.horizon),
+        s,
+    )
 }
 
-/// A method as the plan fits it (seasonal indices shrunk where it takes a season out).
+/// One method alone on the train part as the plan fits it, with the season the plan would
+/// accept (seasonal indices shrunk where it takes a season out).
 fn method_forecast(kind: MethodKind, s: &M3Series) -> Vec<f64> {
     let series = series_for(s);
     let season = patterns::detect_season(&s.train, series.frequency(), None).length;
-    match methods::fit(kind, &s.train, season, s.horizon) {
+    forecast_or_last(methods::fit(kind, &s.train, season, s.horizon), s)
+}
+
+/// A fit's forecast, or the last value repeated if the method could not be fitted.
+fn forecast_or_last<E>(fit: Result<methods::Fitted, E>, s: &M3Series) -> Vec<f64> {
+    match fit {
         Ok(f) => f.forecast().to_vec(),
         Err(_) => vec![*s.train.last().unwrap_or(&0.0); s.horizon],
     }

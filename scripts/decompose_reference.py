@@ -76,7 +76,7 @@ def strength(y, m):
     variances."""
     trend = centred_ma(y, m)
     pairs = [(t % m, v - level) for t, (v, level) in enumerate(zip(y, trend)) if level is not None]
-    means = [sum(d for p, d in pairs if p == i) / sum(1 for p, _ in pairs if p == i) for i in range(m)]
+    means = [sum(ds) / len(ds) for ds in detrended_by_position(y, m, False)]
     centre = sum(means) / m
     sr = [d for _, d in pairs]
     r = [d - (means[p] - centre) for p, d in pairs]

@@ -230,9 +230,11 @@ where
 
 /// Summary of the autocorrelation evidence.
 pub fn autocorrelation_summary(data: &Autocorrelation) -> String {
-    match data.candidate.and_then(|m| data.values.get(m.wrapping_sub(1)).map(|r| (m, *r))) {
-        Some((m, r)) if r.abs() <= data.threshold && data.strength.is_some() => {
-            let f = data.strength.unwrap_or(0.0);
+    let tested = data
+        .candidate
+        .and_then(|m| data.values.get(m.wrapping_sub(1)).map(|r| (m, *r)));
+    match (tested, data.strength) {
+        (Some((m, r)), Some(f)) if r.abs() <= data.threshold => {
             format!(
                 "Autocorrelation at lag {m} is {r:.2}; the threshold is {:.2}, so lag {m} does not pass this test. Its seasonal strength is {f:.2}, {}.",
                 data.threshold,
@@ -243,14 +245,14 @@ pub fn autocorrelation_summary(data: &Autocorrelation) -> String {
                 }
             )
         }
-        Some((m, r)) => format!(
+        (Some((m, r)), _) => format!(
             "Autocorrelation at lag {m} is {:.2}; the threshold is {:.2}, so lag {m} {} as the season length.",
             r,
             data.threshold,
             if r.abs() > data.threshold { "passes" } else { "does not pass" }
         ),
-        None if data.values.is_empty() => "No autocorrelations: the history is too short.".to_string(),
-        None => format!(
+        (None, _) if data.values.is_empty() => "No autocorrelations: the history is too short.".to_string(),
+        (None, _) => format!(
             "No lag was tested as season length; the largest autocorrelation is {:.2}.",
             data.values.iter().copied().fold(f64::NEG_INFINITY, f64::max)
         ),

@@ -359,9 +359,9 @@ pub fn student_t_quantile(p: f64, df: f64) -> f64 {
 ///
 /// On the M3 data this rule, with up to [`crate::plan::BAND_ORIGINS`] origins, held 94.3-96.8 %
 /// at 95 % and 80.4-85.6 % at 80 % per subset (the h-block count and the t rule alone:
-/// 94.3-97.4 % and 80.9-87.7 %, MSIS 5 % higher), where the former per-horizon RMS with pooled standardised
-/// quantiles from 8 origins held 64-78 % and 52-64 % (README, Benchmarks; the rules compared
-/// are in benches/band_lab.rs). A horizon with fewer than two errors borrows
+/// 94.3-97.4 % and 80.9-87.7 %, MSIS 5 % higher), where the former per-horizon RMS with
+/// pooled standardised quantiles from 8 origins held 64-78 % and 52-64 % (README, Benchmarks;
+/// the rules compared are in benches/band_lab.rs). A horizon with fewer than two errors borrows
 /// the scale of the horizon before; `None` when no horizon has two.
 pub fn rolling_band(
     forecast: &[f64],

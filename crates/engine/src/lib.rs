@@ -23,7 +23,7 @@
 
 /// Declares modules that are public with the `internals` feature (the project's reference tests
 /// turn it on) and private to the engine without it (visible to its other parts, as the season
-/// test uses the decomposition's moving average): pieces a caller of the engine never needs.
+/// test uses the decomposition's detrending): pieces a caller of the engine never needs.
 macro_rules! internal_modules {
     ($($name:ident),* $(,)?) => {
         $(

@@ -302,28 +302,24 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
-    let mut codes = None;
-    if item_columns.is_empty() {
-        if let Some((p, None)) = period {
+    let numeric: Vec<usize> = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Value)
+        .collect();
+    // Without an item column, a number column may name the items ([`item_codes`]); one number
+    // column must stay for the quantities.
+    let codes = match period {
+        Some((p, None)) if item_columns.is_empty() && numeric.len() >= 2 => {
             let periods = table.column(p, &rows);
-            let numeric: Vec<usize> = (0..roles.len())
-                .filter(|j| roles[*j] == Role::Value)
-                .collect();
-            // One numeric column must stay for the quantities.
-            codes = numeric
+            numeric
                 .iter()
                 .copied()
-                .filter(|_| numeric.len() >= 2)
-                .find(|j| item_codes(&table.column(*j, &rows), &periods));
-            if let Some(j) = codes {
-                item_columns.push(j);
-            }
+                .find(|j| item_codes(&table.column(*j, &rows), &periods))
         }
-    }
+        _ => None,
+    };
+    item_columns.extend(codes);
     let long = !item_columns.is_empty();
-    let value_columns: Vec<usize> = (0..roles.len())
-        .filter(|j| roles[*j] == Role::Value && codes != Some(*j))
-        .collect();
+    let value_columns: Vec<usize> = numeric.into_iter().filter(|j| codes != Some(*j)).collect();
     if period.is_none() && value_columns.len() >= 2 {
         let candidates: Vec<usize> = if long {
             value_columns.clone()

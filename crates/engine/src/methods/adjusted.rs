@@ -1,7 +1,7 @@
 //! Seasonal adjustment around non-seasonal methods, as the M3/M4 benchmarks apply SES, Holt and
-//! damped trend: divide by classical multiplicative seasonal indices (shrunk or not, as the caller
-//! asks: [`decompose::Indices`]), fit and forecast the
-//! adjusted series, multiply the season back. Series with zeros or returns use additive indices
+//! damped trend: divide by classical multiplicative seasonal indices (shrunk or not, as the
+//! caller asks: [`decompose::Indices`]), fit and forecast the adjusted series, multiply the
+//! season back. Series with zeros or returns use additive indices
 //! (subtract, then add back), since a ratio to a zero season is undefined.
 //!
 //! Kept apart from: the methods themselves, which stay plain; [`super::fit`] decides when to wrap

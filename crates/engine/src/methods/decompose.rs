@@ -157,33 +157,8 @@ pub fn indices(
     if kind == Kind::Multiplicative && y.iter().any(|v| *v <= 0.0) {
         return Err(DecomposeError::NotPositive);
     }
-    let trend = centred_moving_average(y, m);
-    let detrended: Vec<Option<f64>> = y
-        .iter()
-        .zip(&trend)
-        .map(|(value, level)| {
-            level.map(|level| match kind {
-                Kind::Multiplicative => value / level,
-                Kind::Additive => value - level,
-            })
-        })
-        .collect();
-    // Raw means per position counted from the first observation (position t % m).
-    let mut sums = vec![0.0; m];
-    let mut counts = vec![0usize; m];
-    for (t, d) in detrended.iter().enumerate() {
-        if let Some(d) = d {
-            sums[t % m] += d;
-            counts[t % m] += 1;
-        }
-    }
-    // n >= 2m leaves n - m >= m (even m) or n - m + 1 >= m (odd m) defined trend values, so
-    // every position has at least one.
-    let mut raw: Vec<f64> = sums
-        .iter()
-        .zip(&counts)
-        .map(|(s, c)| s / (*c).max(1) as f64)
-        .collect();
+    let detrended = detrended(y, m, kind);
+    let (mut raw, counts) = position_means(&detrended, m);
     if how == Indices::Shrunk {
         shrink(&mut raw, &detrended, &counts);
     }
@@ -200,6 +175,40 @@ pub fn indices(
     }
     // Re-align so that entry j belongs to observation n - m + j, i.e. position (n - m + j) % m.
     Ok((0..m).map(|j| normalised[(n - m + j) % m]).collect())
+}
+
+/// The ratios (multiplicative) or differences (additive) of `y` to its centred moving average of
+/// order `m`, `None` where the average does not exist (steps 1 and 2 of the module doc).
+pub(crate) fn detrended(y: &[f64], m: usize, kind: Kind) -> Vec<Option<f64>> {
+    y.iter()
+        .zip(centred_moving_average(y, m))
+        .map(|(value, level)| {
+            level.map(|level| match kind {
+                Kind::Multiplicative => value / level,
+                Kind::Additive => value - level,
+            })
+        })
+        .collect()
+}
+
+/// The mean of the detrended values at each position t % m (counted from the first
+/// observation) and how many there are (step 3 of the module doc). With at least 2m values
+/// every position has one: n - m (even m) or n - m + 1 (odd m) moving averages exist.
+pub(crate) fn position_means(detrended: &[Option<f64>], m: usize) -> (Vec<f64>, Vec<usize>) {
+    let mut sums = vec![0.0; m];
+    let mut counts = vec![0usize; m];
+    for (t, d) in detrended.iter().enumerate() {
+        if let Some(d) = d {
+            sums[t % m] += d;
+            counts[t % m] += 1;
+        }
+    }
+    let means = sums
+        .iter()
+        .zip(&counts)
+        .map(|(s, c)| s / (*c).max(1) as f64)
+        .collect();
+    (means, counts)
 }
 
 /// Pulls the raw indices towards their mean by the James-Stein factor (module doc), given the

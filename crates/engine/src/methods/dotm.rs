@@ -6,8 +6,9 @@
 //! Kept apart from: the benchmark Theta ([`super::theta`]), which keeps theta at 2 and the trend
 //! line fixed, and stays the calibration against the published M3 figures; the seasonal
 //! adjustment, borrowed from [`super::adjusted`] (classical multiplicative indices, shrunk or not
-//! as the caller asks, for positive demand, as the benchmark Theta; additive ones when the history holds zeros or returns; none
-//! with fewer than two full seasons), so the model itself only sees a series without season.
+//! as the caller asks, for positive demand, as the benchmark Theta; additive ones when the
+//! history holds zeros or returns; none with fewer than two full seasons), so the model itself
+//! only sees a series without season.
 //!
 //! Method (J. A. Fiorucci, T. R. Pellegrini, F. Louzada, F. Petropoulos & A. B. Koehler,
 //! "Models for optimising the theta method and their relationship to state space models", IJF

@@ -1,8 +1,9 @@
 //! Season length: which candidate to test, the seasonality test, and a verdict that carries its
 //! evidence and a plain-words reason.
 //!
-//! Kept apart from: the autocorrelation arithmetic ([`super::acf`]) and from any method that
-//! uses a season (methods receive the accepted length from the caller).
+//! Kept apart from: the autocorrelation arithmetic ([`super::acf`]), the decomposition
+//! ([`crate::methods::decompose`], whose detrending and position means the strength reads) and
+//! from any method that uses a season (methods receive the accepted length from the caller).
 //!
 //! The test is the one of the M4 competition's benchmark code (Makridakis, Spiliotis &
 //! Assimakopoulos, "The M4 Competition: 100,000 time series and 61 forecasting methods",
@@ -42,6 +43,7 @@
 
 use super::acf::autocorrelation;
 use crate::calendar::Frequency;
+use crate::methods::decompose::{self, Kind};
 
 /// Critical value of the seasonality test (the standard normal 95 % quantile, as in M4).
 pub const SEASON_TEST_CRITICAL_VALUE: f64 = 1.645;
@@ -368,29 +370,14 @@ pub fn seasonal_strength(values: &[f64], m: usize) -> Option<f64> {
     if m < 2 || values.len() < 2 * m {
         return None;
     }
-    let trend = crate::methods::decompose::centred_moving_average(values, m);
-    let detrended: Vec<(usize, f64)> = values
-        .iter()
-        .zip(&trend)
-        .enumerate()
-        .filter_map(|(t, (v, level))| level.map(|level| (t % m, v - level)))
-        .collect();
-    let mut sums = vec![0.0; m];
-    let mut counts = vec![0usize; m];
-    for (position, d) in &detrended {
-        sums[*position] += d;
-        counts[*position] += 1;
-    }
-    if counts.contains(&0) {
-        return None;
-    }
-    let raw: Vec<f64> = sums.iter().zip(&counts).map(|(s, c)| s / *c as f64).collect();
+    let detrended = decompose::detrended(values, m, Kind::Additive);
+    let (raw, _) = decompose::position_means(&detrended, m);
     let mean = raw.iter().sum::<f64>() / m as f64;
-    let remainder: Vec<f64> = detrended
+    let (seasonal_and_remainder, remainder): (Vec<f64>, Vec<f64>) = detrended
         .iter()
-        .map(|(position, d)| d - (raw[*position] - mean))
-        .collect();
-    let seasonal_and_remainder: Vec<f64> = detrended.iter().map(|(_, d)| *d).collect();
+        .enumerate()
+        .filter_map(|(t, d)| d.map(|d| (d, d - (raw[t % m] - mean))))
+        .unzip();
     let variance = |a: &[f64]| {
         let mu = a.iter().sum::<f64>() / a.len() as f64;
         a.iter().map(|v| (v - mu).powi(2)).sum::<f64>() / a.len() as f64
