@@ -20,8 +20,8 @@
 //!    several starts, states held fixed;
 //! 3. initial states re-solved by least squares for the parameters found
 //!    ([`super::state_solve`]: exact for additive models, Gauss-Newton for multiplicative);
-//! 4. Nelder-Mead again from the previous best, then 3 again, until the SSE improves by less
-//!    than a relative 1e−7 or the round limit is reached.
+//! 4. Nelder-Mead again from the previous best, then 3 again, until a round improves the SSE
+//!    by less than [`FitSettings::round_tolerance`] of it or the round limit is reached.
 //!
 //! Every state — l0, b0 and the m − 1 free seasonal states (the last one implied by the
 //! normalisation, which loses nothing: shifting l0 against all s0 leaves every ŷ_t unchanged
@@ -59,6 +59,14 @@ impl Default for ParameterBounds {
 }
 
 /// How hard to search.
+///
+/// The defaults stop where more precision no longer moves a forecast: the multi-start stage
+/// only picks a basin (relative spread of the simplex's SSE 1e−3), the polishing simplex stops
+/// at 1e−6, and the rounds stop once one improves the SSE by less than 1e−3 of it. Measured
+/// (README, Speed): against 1e−4, 1e−8 and 1e−5 the command line's instructions on 100 monthly
+/// series fell by 25 %, the M3 sMAPE moved by at most 0.006 per subset (monthly 13.426 to
+/// 13.432, quarterly 8.951 to 8.951) and MSIS by at most 0.02; every fit of the statsmodels
+/// comparison (tests/smoothing) stayed within 0.06 % of its former SSE.
 #[derive(Clone, Copy, Debug)]
 pub struct FitSettings {
     pub bounds: ParameterBounds,
@@ -78,16 +86,16 @@ impl Default for FitSettings {
             bounds: ParameterBounds::default(),
             rounds: 6,
             search: Settings {
-                tolerance: 1e-4,
+                tolerance: 1e-3,
                 max_evaluations: 200,
                 initial_step: 0.1,
             },
             polish: Settings {
-                tolerance: 1e-8,
+                tolerance: 1e-6,
                 max_evaluations: 200,
                 initial_step: 0.02,
             },
-            round_tolerance: 1e-5,
+            round_tolerance: 1e-3,
         }
     }
 }
