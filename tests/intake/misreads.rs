@@ -219,6 +219,49 @@ fn numbered_items_are_read_as_items_with_a_warning() {
     assert!(repeated.warnings.iter().all(|w| !w.contains("item codes")));
 }
 
+// Numbered items with numbered periods and nothing else (found timing the command line on
+// 2026-12-03: `series,t,value` read as a wide table of three items, "series", "t" and
+// "value"). Only the header's words tell these from other tables of whole numbers, so they
+// decide, and the report says the codes were read as items. Without such words, or with a
+// year beside a month number, the table stays wide as before.
+#[test]
+fn numbered_items_with_numbered_periods_are_read_by_their_header() {
+    check(
+        "series,t,value\n0,1,56\n0,2,72\n0,3,61\n1,1,9\n1,2,11\n1,3,10\n",
+        Expect {
+            items: Some(vec![
+                ("0", some(&[56.0, 72.0, 61.0])),
+                ("1", some(&[9.0, 11.0, 10.0])),
+            ]),
+            warned: vec![vec!["\"series\"", "item codes", "not as quantities"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // Any case, words inside a longer name, the period column before the codes.
+    check(
+        "Week,Item ID,Units sold\n1,501,4\n2,501,6\n1,502,8\n2,502,9\n",
+        Expect {
+            items: Some(vec![("501", some(&[4.0, 6.0])), ("502", some(&[8.0, 9.0]))]),
+            warned: vec![vec!["\"Item ID\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    for text in [
+        // No word names an item: nothing is reinterpreted.
+        "a,b,c\n0,1,56\n0,2,72\n1,1,9\n1,2,11\n",
+        // A year and a month number side by side (the committed AirPassengers file's shape).
+        "t,year,period,time,value\n1,1949,1,1949.0,112\n2,1949,2,1949.083,118\n3,1950,1,1950.0,129\n4,1950,2,1950.083,121\n",
+        // An item word over a column whose (code, period) pairs repeat: not codes.
+        "series,t,value\n0,1,56\n0,1,72\n1,1,9\n1,2,11\n",
+    ] {
+        let report = read(text);
+        assert_eq!(report.layout, Layout::Wide, "{text}");
+        assert!(report.warnings.iter().all(|w| !w.contains("item codes")), "{text}");
+    }
+}
+
 #[test]
 fn item_spellings_differing_in_white_space_are_one_item_with_a_warning() {
     for (spelling, shown) in [

@@ -291,7 +291,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             if years {
                 (periods, Frequency::Yearly, "years")
             } else {
-                (periods, Frequency::Undated, "row numbers")
+                (periods, Frequency::Undated, "numbered periods")
             }
         }
     };

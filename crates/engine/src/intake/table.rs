@@ -33,7 +33,11 @@
 //! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
 //! is an item column.
 //! Any item column makes the layout long (item, period, quantity; several item columns are
-//! joined with " / "); otherwise one value column is single and several are wide.
+//! joined with " / "); otherwise one value column is single and several are wide. Item codes
+//! written as whole numbers make an item column too, with a warning: beside a period column,
+//! a number column whose (number, period) pairs never repeat ([`item_codes`]); in a table of
+//! numbers only, the same shape where the header names the item and the period
+//! (`series,t,value`; [`numbered_by_header`]).
 
 use super::label::Family;
 use super::number::{is_missing, looks_number};
@@ -315,6 +319,12 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 .copied()
                 .find(|j| item_codes(&table.column(*j, &rows), &periods))
         }
+        None if item_columns.is_empty() && numeric.len() >= 3 => {
+            numbered_by_header(table, &rows, &numeric).map(|(code, numbered)| {
+                period = Some(numbered);
+                code
+            })
+        }
         _ => None,
     };
     item_columns.extend(codes);
@@ -373,6 +383,50 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         empty,
         codes,
     })
+}
+
+/// Words of a header cell that name the item, and that name a period, in a table of numbers
+/// only (common practice in exported tables: `series,t,value`, `sku,week,units`).
+const ITEM_WORDS: [&str; 8] = [
+    "item", "sku", "product", "series", "code", "id", "article", "part",
+];
+const PERIOD_WORDS: [&str; 9] = [
+    "t", "period", "time", "step", "day", "week", "month", "quarter", "year",
+];
+
+/// Whether header cell `name` holds one of `words` as a word of its own (split at anything
+/// that is not a letter or digit, any case: "Item ID", "sku_code", "T").
+fn header_says(name: &str, words: &[&str]) -> bool {
+    name.split(|c: char| !c.is_alphanumeric())
+        .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
+}
+
+/// In a table of numbers only, with no period column found by its cells: a column whose header
+/// names the item and whose whole numbers are item codes ([`item_codes`]) beside a column whose
+/// header names a period and whose whole numbers count periods or years
+/// ([`integer_meaning`]). Without the header's words such a table reads as wide: numbered
+/// items and numbered periods have the shape of other tables of whole numbers (a year and
+/// a month column side by side). `(code column, (period column, its meaning))`.
+fn numbered_by_header(
+    table: &Table,
+    rows: &[&Record],
+    numeric: &[usize],
+) -> Option<(usize, (usize, Option<IntegerMeaning>))> {
+    table.header.as_ref()?;
+    let named = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
+    numeric
+        .iter()
+        .filter(|j| named(**j, &PERIOD_WORDS))
+        .find_map(|&p| {
+            let periods = table.column(p, rows);
+            let meaning = integer_meaning(&periods, false)?;
+            numeric
+                .iter()
+                .copied()
+                .filter(|j| *j != p && named(*j, &ITEM_WORDS))
+                .find(|j| item_codes(&table.column(*j, rows), &periods))
+                .map(|code| (code, (p, Some(meaning))))
+        })
 }
 
 /// Whether a column of numbers names items rather than counting them: every cell a whole
