@@ -262,6 +262,50 @@ fn numbered_items_with_numbered_periods_are_read_by_their_header() {
     }
 }
 
+// Numbered stores and numbered items beside a date (found on 2026-12-03: in
+// `date,store,item,sales` the shape rule took "sales" for the item codes, since small sales
+// repeat too, and planned the store numbers). Where the header names item columns, those
+// decide, together: one item per store and product. A column the header names a quantity is
+// never taken for codes by its shape.
+#[test]
+fn the_header_names_the_code_columns() {
+    check(
+        "date,store,item,sales\n2024-01-01,1,10,3\n2024-01-02,1,10,3\n2024-01-01,1,11,4\n\
+         2024-01-02,1,11,3\n2024-01-01,2,10,4\n2024-01-02,2,10,5\n",
+        Expect {
+            items: Some(vec![
+                ("1 / 10", some(&[3.0, 3.0])),
+                ("1 / 11", some(&[4.0, 3.0])),
+                ("2 / 10", some(&[4.0, 5.0])),
+            ]),
+            warned: vec![
+                vec!["\"store\"", "item codes", "not as quantities"],
+                vec!["\"item\"", "item codes", "not as quantities"],
+            ],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // The quantities come first and repeat: the named column is the code column.
+    check(
+        "month,units,sku\n2024-01,5,10023\n2024-02,5,10023\n2024-01,3,10024\n2024-02,5,10024\n",
+        Expect {
+            items: Some(vec![
+                ("10023", some(&[5.0, 5.0])),
+                ("10024", some(&[3.0, 5.0])),
+            ]),
+            warned: vec![vec!["\"sku\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // A named item column whose (item, period) pairs repeat is not read as codes, and no
+    // other column is taken for them: the repeated periods stay errors at their rows.
+    let repeated = read("month,item,units\n2024-01,7,5\n2024-01,7,6\n2024-02,8,5\n2024-01,8,5\n");
+    assert!(!repeated.errors.is_empty());
+    assert!(repeated.warnings.iter().all(|w| !w.contains("item codes")));
+}
+
 #[test]
 fn item_spellings_differing_in_white_space_are_one_item_with_a_warning() {
     for (spelling, shown) in [

@@ -135,10 +135,10 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         slots,
         rows_read,
     };
-    if let Some(j) = plan.codes {
+    for &j in &plan.codes {
         b.out.warnings.push(format!(
-            "column \"{}\" holds whole numbers that repeat, each with a period once: read as \
-             item codes, not as quantities",
+            "column \"{}\" holds whole numbers read as item codes, not as quantities: they \
+             repeat, and each item has each period on one row",
             table.column_name(j)
         ));
     }

@@ -34,10 +34,11 @@
 //! is an item column.
 //! Any item column makes the layout long (item, period, quantity; several item columns are
 //! joined with " / "); otherwise one value column is single and several are wide. Item codes
-//! written as whole numbers make an item column too, with a warning: beside a period column,
-//! a number column whose (number, period) pairs never repeat ([`item_codes`]); in a table of
-//! numbers only, the same shape where the header names the item and the period
-//! (`series,t,value`; [`numbered_by_header`]).
+//! written as whole numbers make item columns too, with a warning: beside a period column, the
+//! number columns the header names as items (item, sku, store, ...), together, or without such
+//! words the first number column not named a quantity, whose (item, period) pairs never repeat
+//! ([`codes_beside`], [`item_codes`]); in a table of numbers only, the same where the header
+//! names the items and the period (`series,t,value`; [`numbered_by_header`]).
 
 use super::label::Family;
 use super::number::{is_missing, looks_number};
@@ -237,12 +238,15 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     }
 }
 
+/// A period column's index and, when it holds whole numbers, how they are read.
+pub(crate) type PeriodColumn = (usize, Option<IntegerMeaning>);
+
 /// The role of each column, and the layout they make.
 #[derive(Clone, Debug, PartialEq)]
 pub(crate) struct Plan {
     pub layout: Layout,
     /// The period column and, when it holds whole numbers, how they are read.
-    pub period: Option<(usize, Option<IntegerMeaning>)>,
+    pub period: Option<PeriodColumn>,
     /// Item-name columns (long layout only).
     pub item_columns: Vec<usize>,
     /// Value columns: one for single and long, several for wide.
@@ -251,9 +255,9 @@ pub(crate) struct Plan {
     pub ignored: Vec<usize>,
     /// Columns whose cells are all empty or "n/a".
     pub empty: Vec<usize>,
-    /// An item column of whole numbers (product numbers) that the first look took for
+    /// Item columns of whole numbers (product or store numbers) that the first look took for
     /// quantities ([`item_codes`]); the report says so.
-    pub codes: Option<usize>,
+    pub codes: Vec<usize>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -309,27 +313,26 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let numeric: Vec<usize> = (0..roles.len())
         .filter(|j| roles[*j] == Role::Value)
         .collect();
-    // Without an item column, a number column may name the items ([`item_codes`]); one number
-    // column must stay for the quantities.
-    let codes = match period {
+    // Without an item column, number columns may name the items ([`codes_beside`],
+    // [`numbered_by_header`]); one number column must stay for the quantities.
+    let codes: Vec<usize> = match period {
         Some((p, None)) if item_columns.is_empty() && numeric.len() >= 2 => {
-            let periods = table.column(p, &rows);
-            numeric
-                .iter()
-                .copied()
-                .find(|j| item_codes(&table.column(*j, &rows), &periods))
+            codes_beside(table, &rows, &numeric, &table.column(p, &rows))
         }
         None if item_columns.is_empty() && numeric.len() >= 3 => {
-            numbered_by_header(table, &rows, &numeric).map(|(code, numbered)| {
-                period = Some(numbered);
-                code
-            })
+            match numbered_by_header(table, &rows, &numeric) {
+                Some((codes, numbered)) => {
+                    period = Some(numbered);
+                    codes
+                }
+                None => Vec::new(),
+            }
         }
-        _ => None,
+        _ => Vec::new(),
     };
-    item_columns.extend(codes);
+    item_columns.extend(codes.iter().copied());
     let long = !item_columns.is_empty();
-    let value_columns: Vec<usize> = numeric.into_iter().filter(|j| codes != Some(*j)).collect();
+    let value_columns: Vec<usize> = numeric.into_iter().filter(|j| !codes.contains(j)).collect();
     if period.is_none() && value_columns.len() >= 2 {
         let candidates: Vec<usize> = if long {
             value_columns.clone()
@@ -385,13 +388,31 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     })
 }
 
-/// Words of a header cell that name the item, and that name a period, in a table of numbers
-/// only (common practice in exported tables: `series,t,value`, `sku,week,units`).
-const ITEM_WORDS: [&str; 8] = [
-    "item", "sku", "product", "series", "code", "id", "article", "part",
+/// Words of a header cell that name the item (or the store it is sold at), that name a
+/// period, and that name a quantity, for tables whose item codes are numbers (common practice
+/// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`).
+const ITEM_WORDS: [&str; 15] = [
+    "item",
+    "sku",
+    "product",
+    "series",
+    "code",
+    "id",
+    "article",
+    "part",
+    "store",
+    "shop",
+    "location",
+    "site",
+    "branch",
+    "warehouse",
+    "customer",
 ];
 const PERIOD_WORDS: [&str; 9] = [
     "t", "period", "time", "step", "day", "week", "month", "quarter", "year",
+];
+const QUANTITY_WORDS: [&str; 10] = [
+    "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
 ];
 
 /// Whether header cell `name` holds one of `words` as a word of its own (split at anything
@@ -401,48 +422,104 @@ fn header_says(name: &str, words: &[&str]) -> bool {
         .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
 }
 
-/// In a table of numbers only, with no period column found by its cells: a column whose header
-/// names the item and whose whole numbers are item codes ([`item_codes`]) beside a column whose
-/// header names a period and whose whole numbers count periods or years
-/// ([`integer_meaning`]). Without the header's words such a table reads as wide: numbered
-/// items and numbered periods have the shape of other tables of whole numbers (a year and
-/// a month column side by side). `(code column, (period column, its meaning))`.
+/// The number columns among `numeric` whose header names an item ([`ITEM_WORDS`]).
+fn named_items(table: &Table, numeric: &[usize]) -> Vec<usize> {
+    if table.header.is_none() {
+        return Vec::new();
+    }
+    numeric
+        .iter()
+        .copied()
+        .filter(|j| header_says(&table.column_name(*j), &ITEM_WORDS))
+        .collect()
+}
+
+/// Beside a period column (`periods`, its cells), the number columns that name the items:
+/// where the header names some as items, those together if their numbers are item codes
+/// ([`item_codes`]) and none otherwise (the header has said which they are; the shape alone
+/// must not pick another); without such words, the first column of item codes whose header
+/// does not name a quantity ([`QUANTITY_WORDS`]). One number column always stays for the
+/// quantities.
+fn codes_beside(
+    table: &Table,
+    rows: &[&Record],
+    numeric: &[usize],
+    periods: &[&str],
+) -> Vec<usize> {
+    let named = named_items(table, numeric);
+    let columns =
+        |js: &[usize]| -> Vec<Vec<&str>> { js.iter().map(|j| table.column(*j, rows)).collect() };
+    if !named.is_empty() {
+        return if named.len() < numeric.len() && item_codes(&columns(&named), periods) {
+            named
+        } else {
+            Vec::new()
+        };
+    }
+    numeric
+        .iter()
+        .copied()
+        .filter(|j| !header_says(&table.column_name(*j), &QUANTITY_WORDS))
+        .find(|j| item_codes(&columns(&[*j]), periods))
+        .into_iter()
+        .collect()
+}
+
+/// In a table of numbers only, with no period column found by its cells: the columns whose
+/// header names the item ([`ITEM_WORDS`]), when their numbers are item codes ([`item_codes`])
+/// beside a column whose header names a period ([`PERIOD_WORDS`]) and whose whole numbers
+/// count periods or years ([`integer_meaning`]). Without the header's words such a table reads
+/// as wide: numbered items and numbered periods have the shape of other tables of whole
+/// numbers (a year and a month column side by side). `(code columns, (period column, its
+/// meaning))`.
 fn numbered_by_header(
     table: &Table,
     rows: &[&Record],
     numeric: &[usize],
-) -> Option<(usize, (usize, Option<IntegerMeaning>))> {
-    table.header.as_ref()?;
-    let named = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
+) -> Option<(Vec<usize>, PeriodColumn)> {
     numeric
         .iter()
-        .filter(|j| named(**j, &PERIOD_WORDS))
+        .filter(|j| table.header.is_some() && header_says(&table.column_name(**j), &PERIOD_WORDS))
         .find_map(|&p| {
             let periods = table.column(p, rows);
             let meaning = integer_meaning(&periods, false)?;
-            numeric
-                .iter()
-                .copied()
-                .filter(|j| *j != p && named(*j, &ITEM_WORDS))
-                .find(|j| item_codes(&table.column(*j, rows), &periods))
-                .map(|code| (code, (p, Some(meaning))))
+            let named: Vec<usize> = named_items(table, numeric)
+                .into_iter()
+                .filter(|j| *j != p)
+                .collect();
+            let columns: Vec<Vec<&str>> = named.iter().map(|j| table.column(*j, rows)).collect();
+            let codes = !named.is_empty()
+                && named.len() + 1 < numeric.len()
+                && item_codes(&columns, &periods);
+            codes.then_some((named, (p, Some(meaning))))
         })
 }
 
-/// Whether a column of numbers names items rather than counting them: every cell a whole
-/// number written with digits only, some repeated, beside a period column whose periods
-/// repeat too, and each (number, period) pair on one row only. That is the shape of product
-/// numbers in item, period, quantity rows; a quantity column with a repeated period would
-/// repeat a pair (common practice: item codes are often numeric).
-fn item_codes(cells: &[&str], periods: &[&str]) -> bool {
+/// Whether columns of numbers name items rather than count them: every cell a whole number
+/// written with digits only, the items (a row's numbers across `columns`) repeating, beside a
+/// period column whose periods repeat too, and each (item, period) pair on one row only. That
+/// is the shape of product (and store) numbers in item, period, quantity rows; a quantity
+/// column with a repeated period would repeat a pair (common practice: item codes are often
+/// numeric).
+fn item_codes(columns: &[Vec<&str>], periods: &[&str]) -> bool {
     let digits = |c: &&str| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit());
-    if cells.len() < 2 || !cells.iter().all(digits) || all_distinct(cells) || all_distinct(periods)
+    if columns.is_empty() || periods.len() < 2 || all_distinct(periods) {
+        return false;
+    }
+    if !columns
+        .iter()
+        .all(|c| c.len() == periods.len() && c.iter().all(digits))
     {
         return false;
     }
-    let mut pairs: Vec<(&str, &str)> = cells.iter().copied().zip(periods.iter().copied()).collect();
+    let item = |i: usize| -> Vec<&str> { columns.iter().map(|c| c[i]).collect() };
+    let mut items: Vec<Vec<&str>> = (0..periods.len()).map(item).collect();
+    let mut pairs: Vec<(Vec<&str>, &str)> =
+        items.iter().cloned().zip(periods.iter().copied()).collect();
     let count = pairs.len();
     pairs.sort_unstable();
     pairs.dedup();
-    pairs.len() == count
+    items.sort_unstable();
+    items.dedup();
+    pairs.len() == count && items.len() < count
 }
