@@ -299,6 +299,37 @@ fn the_header_names_the_code_columns() {
             ..Expect::default()
         },
     );
+    // A text item column sold at numbered stores: one item per product and store. The
+    // quantity is the column named as one, whatever its place ("price" is not used).
+    check(
+        "date,item,store,price,sales\n2024-01-01,Oak tray,1,2.5,3\n2024-01-02,Oak tray,1,2.5,4\n\
+         2024-01-01,Oak tray,2,2.5,5\n2024-01-02,Oak tray,2,2.5,6\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray / 1", some(&[3.0, 4.0])),
+                ("Oak tray / 2", some(&[5.0, 6.0])),
+            ]),
+            warned: vec![
+                vec!["\"store\"", "item codes"],
+                vec!["\"price\"", "not used"],
+            ],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // Names written together ("StoreID", "UnitsSold") are read word by word.
+    check(
+        "Date,StoreID,UnitsSold\n2024-01-01,1,3\n2024-01-02,1,3\n2024-01-01,2,4\n2024-01-02,2,5\n",
+        Expect {
+            items: Some(vec![("1", some(&[3.0, 3.0])), ("2", some(&[4.0, 5.0]))]),
+            warned: vec![vec!["\"StoreID\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    // A header naming an item and something else ("week id", "item sales") is not an item.
+    let other = read("date,week_id,item_sales,units\n2024-01-01,1,3,3\n2024-01-08,2,4,4\n");
+    assert!(other.warnings.iter().all(|w| !w.contains("item codes")));
     // A named item column whose (item, period) pairs repeat is not read as codes, and no
     // other column is taken for them: the repeated periods stay errors at their rows.
     let repeated = read("month,item,units\n2024-01,7,5\n2024-01,7,6\n2024-02,8,5\n2024-01,8,5\n");

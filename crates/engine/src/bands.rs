@@ -322,6 +322,10 @@ pub fn effective_count(k: f64, psi: &[f64], h: usize) -> f64 {
 /// Barlow, Bartholomew, Bremner & Brunk 1972). Each run of values that falls is replaced by
 /// its weighted mean, so no value is raised further than the data ask.
 pub fn nondecreasing(values: &[(f64, f64)]) -> Vec<f64> {
+    debug_assert!(
+        values.iter().all(|(v, w)| !v.is_nan() && *w > 0.0),
+        "values are numbers and weights positive"
+    );
     // Blocks of (weighted mean, weight, values in it), merged while a block's mean lies below
     // the one before it.
     let mut blocks: Vec<(f64, f64, usize)> = Vec::with_capacity(values.len());
@@ -393,7 +397,8 @@ pub fn student_t_quantile(p: f64, df: f64) -> f64 {
 /// 94.3-97.4 % and 80.9-87.7 %, MSIS 5 % higher), where the former per-horizon RMS with
 /// pooled standardised quantiles from 8 origins held 64-78 % and 52-64 % (README, Benchmarks;
 /// the rules compared are in benches/band_lab.rs). A horizon with fewer than two errors borrows
-/// the scale of the horizon before; `None` when no horizon has two.
+/// the width of the horizon before; `None` when the first horizon has fewer than two (it has
+/// the most errors of all).
 pub fn rolling_band(
     forecast: &[f64],
     errors_by_horizon: &[Vec<f64>],
@@ -417,7 +422,11 @@ pub fn rolling_band(
                 Some(q) => q,
                 None => student_t_quantile(upper, df) * root_mean_square(errors),
             };
-            measured.push((h, half, k));
+            // A width that is not a number is not a measurement (the running maximum before
+            // passed over it too); an infinite one stays and widens every later horizon.
+            if !half.is_nan() {
+                measured.push((h, half, k));
+            }
         }
     }
     let pairs: Vec<(f64, f64)> = measured.iter().map(|&(_, half, k)| (half, k)).collect();

@@ -37,8 +37,12 @@
 //! written as whole numbers make item columns too, with a warning: beside a period column, the
 //! number columns the header names as items (item, sku, store, ...), together, or without such
 //! words the first number column not named a quantity, whose (item, period) pairs never repeat
-//! ([`codes_beside`], [`item_codes`]); in a table of numbers only, the same where the header
-//! names the items and the period (`series,t,value`; [`numbered_by_header`]).
+//! ([`codes_beside`], [`item_codes`]); beside text item names, the number columns named as
+//! items or stores where the names alone repeat a period (`date,item,store,sales`;
+//! [`codes_beside_names`]); in a table of numbers only, the same where the header names the
+//! items and one period column (`series,t,value`; [`numbered_by_header`]). A long table's
+//! quantity is the number column whose header names a quantity, else the first that names no
+//! item, period or price ([`quantity_among`]); the others are reported as not used.
 
 use super::label::Family;
 use super::number::{is_missing, looks_number};
@@ -328,6 +332,13 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 None => Vec::new(),
             }
         }
+        Some((p, _)) if !item_columns.is_empty() && numeric.len() >= 2 => codes_beside_names(
+            table,
+            &rows,
+            &item_columns,
+            &numeric,
+            &table.column(p, &rows),
+        ),
         _ => Vec::new(),
     };
     item_columns.extend(codes.iter().copied());
@@ -366,6 +377,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         });
     }
     let layout = if long {
+        let quantity = quantity_among(table, &values);
+        values.swap(0, quantity);
         ignored.extend(values.drain(1..));
         Layout::Long
     } else if values.len() == 1 {
@@ -408,30 +421,112 @@ const ITEM_WORDS: [&str; 15] = [
     "warehouse",
     "customer",
 ];
-const PERIOD_WORDS: [&str; 9] = [
-    "t", "period", "time", "step", "day", "week", "month", "quarter", "year",
+const PERIOD_WORDS: [&str; 10] = [
+    "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year",
 ];
 const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
 ];
+/// Words that make a header with an item word name something else about it ("item price",
+/// "promo code", "customer count").
+const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", "discount"];
 
 /// Whether header cell `name` holds one of `words` as a word of its own (split at anything
-/// that is not a letter or digit, any case: "Item ID", "sku_code", "T").
+/// that is not a letter or digit and where a lower-case letter meets a capital, any case:
+/// "Item ID", "sku_code", "StoreID", "T").
 fn header_says(name: &str, words: &[&str]) -> bool {
-    name.split(|c: char| !c.is_alphanumeric())
+    let mut spaced = String::with_capacity(name.len() + 4);
+    let mut previous_lower = false;
+    for c in name.chars() {
+        if previous_lower && c.is_uppercase() {
+            spaced.push(' ');
+        }
+        previous_lower = c.is_lowercase();
+        spaced.push(c);
+    }
+    spaced
+        .split(|c: char| !c.is_alphanumeric())
         .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
 }
 
-/// The number columns among `numeric` whose header names an item ([`ITEM_WORDS`]).
+/// Whether the header of column `j` names an item and nothing else: an item word
+/// ([`ITEM_WORDS`]) without a period, quantity or other word ("week id", "item sales" and
+/// "item price" name something else).
+fn names_item(table: &Table, j: usize) -> bool {
+    let name = table.column_name(j);
+    table.header.is_some()
+        && header_says(&name, &ITEM_WORDS)
+        && !header_says(&name, &PERIOD_WORDS)
+        && !header_says(&name, &QUANTITY_WORDS)
+        && !header_says(&name, &OTHER_WORDS)
+}
+
+/// The number columns among `numeric` whose header names an item ([`names_item`]).
 fn named_items(table: &Table, numeric: &[usize]) -> Vec<usize> {
-    if table.header.is_none() {
-        return Vec::new();
-    }
     numeric
         .iter()
         .copied()
-        .filter(|j| header_says(&table.column_name(*j), &ITEM_WORDS))
+        .filter(|j| names_item(table, *j))
         .collect()
+}
+
+/// Of a long table's number columns left for quantities, the position of the one read: the
+/// first whose header names a quantity ([`QUANTITY_WORDS`]), else the first whose header names
+/// no item, period or other thing ([`OTHER_WORDS`]), else the first (`date,item,store,sales`
+/// reads "sales", not the store numbers; the rest are reported as not used).
+fn quantity_among(table: &Table, values: &[usize]) -> usize {
+    let says = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
+    if table.header.is_none() {
+        return 0;
+    }
+    values
+        .iter()
+        .position(|j| says(*j, &QUANTITY_WORDS))
+        .or_else(|| {
+            values.iter().position(|j| {
+                !says(*j, &ITEM_WORDS) && !says(*j, &PERIOD_WORDS) && !says(*j, &OTHER_WORDS)
+            })
+        })
+        .unwrap_or(0)
+}
+
+/// Beside text item columns `names` and a period column (`periods`, its cells), the number
+/// columns whose header names an item or store ([`named_items`]) that the items need: where the
+/// names alone repeat a period and, with those numbers, never do (`date,item,store,sales`: one
+/// item per product and store). None otherwise; one number column always stays.
+fn codes_beside_names(
+    table: &Table,
+    rows: &[&Record],
+    names: &[usize],
+    numeric: &[usize],
+    periods: &[&str],
+) -> Vec<usize> {
+    let named = named_items(table, numeric);
+    if named.is_empty() || named.len() >= numeric.len() {
+        return Vec::new();
+    }
+    let unique = |columns: &[usize]| {
+        let cells: Vec<Vec<&str>> = columns.iter().map(|j| table.column(*j, rows)).collect();
+        let mut pairs: Vec<(Vec<&str>, &str)> = (0..periods.len())
+            .map(|i| (cells.iter().map(|c| c[i]).collect(), periods[i]))
+            .collect();
+        let count = pairs.len();
+        pairs.sort_unstable();
+        pairs.dedup();
+        pairs.len() == count
+    };
+    let with: Vec<usize> = names.iter().chain(&named).copied().collect();
+    let digits = named.iter().all(|j| {
+        table
+            .column(*j, rows)
+            .iter()
+            .all(|c| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit()))
+    });
+    if digits && !unique(names) && unique(&with) {
+        named
+    } else {
+        Vec::new()
+    }
 }
 
 /// Beside a period column (`periods`, its cells), the number columns that name the items:
@@ -477,22 +572,28 @@ fn numbered_by_header(
     rows: &[&Record],
     numeric: &[usize],
 ) -> Option<(Vec<usize>, PeriodColumn)> {
-    numeric
+    let periods_named: Vec<usize> = numeric
         .iter()
-        .filter(|j| table.header.is_some() && header_says(&table.column_name(**j), &PERIOD_WORDS))
-        .find_map(|&p| {
-            let periods = table.column(p, rows);
-            let meaning = integer_meaning(&periods, false)?;
-            let named: Vec<usize> = named_items(table, numeric)
-                .into_iter()
-                .filter(|j| *j != p)
-                .collect();
-            let columns: Vec<Vec<&str>> = named.iter().map(|j| table.column(*j, rows)).collect();
-            let codes = !named.is_empty()
-                && named.len() + 1 < numeric.len()
-                && item_codes(&columns, &periods);
-            codes.then_some((named, (p, Some(meaning))))
-        })
+        .copied()
+        .filter(|j| table.header.is_some() && header_says(&table.column_name(*j), &PERIOD_WORDS))
+        .collect();
+    // Two columns named as periods (a year and a month) make one period between them, which
+    // this rule does not read: the table stays as it was.
+    if periods_named.len() != 1 {
+        return None;
+    }
+    periods_named.into_iter().find_map(|p| {
+        let periods = table.column(p, rows);
+        let meaning = integer_meaning(&periods, false)?;
+        let named: Vec<usize> = named_items(table, numeric)
+            .into_iter()
+            .filter(|j| *j != p)
+            .collect();
+        let columns: Vec<Vec<&str>> = named.iter().map(|j| table.column(*j, rows)).collect();
+        let codes =
+            !named.is_empty() && named.len() + 1 < numeric.len() && item_codes(&columns, &periods);
+        codes.then_some((named, (p, Some(meaning))))
+    })
 }
 
 /// Whether columns of numbers name items rather than count them: every cell a whole number

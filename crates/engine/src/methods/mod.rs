@@ -315,7 +315,8 @@ impl Fitted {
         &self.forecast
     }
     /// Analytic h-step forecast-error variances (Hyndman, Koehler, Ord & Snyder 2005) where the
-    /// method's model has them.
+    /// method's model has them; an exponential smoothing [`update`] has none (only its
+    /// forecast is read).
     pub fn variance(&self) -> Option<&[f64]> {
         self.variance.as_deref()
     }

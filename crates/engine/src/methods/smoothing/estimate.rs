@@ -111,7 +111,8 @@ pub struct Estimate {
 }
 
 /// Gauss-Newton steps per state solve: one. It is exact for additive models; for multiplicative
-/// ones the rounds alternate it with the simplex, so their steps go on across rounds. Two per
+/// ones the rounds alternate it with the simplex, so their steps go on across rounds (until a
+/// round gains less than [`FitSettings::round_tolerance`], as before). Two per
 /// solve (before 2026-12-03) cost 8.5 % more of the command line's instructions for the same M3
 /// tables to within 0.002 (README, Speed).
 const STATE_STEPS: usize = 1;
@@ -263,7 +264,8 @@ pub fn estimate_from(
             (states, best)
         }
     };
-    // Stage 2: alternate exact state solves and tight simplex polishing from the best point.
+    // Stage 2: alternate state solves (exact for additive models, a Gauss-Newton step for
+    // multiplicative ones) and simplex polishing from the best point.
     for _ in 0..settings.rounds {
         let p = to_parameters(model, &best.point);
         let solved = solver.refine(model, &p, &mut states, y, STATE_STEPS);
