@@ -327,6 +327,25 @@ fn the_header_names_the_code_columns() {
             ..Expect::default()
         },
     );
+    // Row numbers beside dates (`id,date,value`) are no quantity: left out, and said so; a
+    // lone number column keeps its meaning whatever its name.
+    check(
+        "id,date,value\n1,2024-01-01,5\n2,2024-01-02,6\n3,2024-01-03,7\n",
+        Expect {
+            items: Some(vec![("value", some(&[5.0, 6.0, 7.0]))]),
+            warned: vec![vec!["\"id\"", "row numbers", "not used"]],
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    check(
+        "date,id\n2024-01-01,5\n2024-01-02,6\n",
+        Expect {
+            items: Some(vec![("id", some(&[5.0, 6.0]))]),
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
     // A header naming an item and something else ("week id", "item sales") is not an item.
     let other = read("date,week_id,item_sales,units\n2024-01-01,1,3,3\n2024-01-08,2,4,4\n");
     assert!(other.warnings.iter().all(|w| !w.contains("item codes")));

@@ -142,6 +142,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             table.column_name(j)
         ));
     }
+    for &j in &plan.row_numbers {
+        b.out.warnings.push(format!(
+            "column \"{}\" holds a different number on every row: read as row numbers, not \
+             as quantities, and not used",
+            table.column_name(j)
+        ));
+    }
     for &j in &plan.ignored {
         b.out.warnings.push(format!(
             "column \"{}\" was not used: a long table reads one item, one period and one \

@@ -42,7 +42,9 @@
 //! [`codes_beside_names`]); in a table of numbers only, the same where the header names the
 //! items and one period column (`series,t,value`; [`numbered_by_header`]). A long table's
 //! quantity is the number column whose header names a quantity, else the first that names no
-//! item, period or price ([`quantity_among`]); the others are reported as not used.
+//! item, period or price ([`quantity_among`]); the others are reported as not used. Beside a
+//! period column, a number column named id, row or index with another number on every row
+//! numbers the rows (`id,date,value`; [`numbers_rows`]): left out, with a warning.
 
 use super::label::Family;
 use super::number::{is_missing, looks_number};
@@ -262,6 +264,9 @@ pub(crate) struct Plan {
     /// Item columns of whole numbers (product or store numbers) that the first look took for
     /// quantities ([`item_codes`]); the report says so.
     pub codes: Vec<usize>,
+    /// Number columns named as a row's number that hold another number on every row beside a
+    /// period column ([`numbers_rows`]): not read; the report says so.
+    pub row_numbers: Vec<usize>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -314,8 +319,26 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
-    let numeric: Vec<usize> = (0..roles.len())
+    let mut numeric: Vec<usize> = (0..roles.len())
         .filter(|j| roles[*j] == Role::Value)
+        .collect();
+    // Beside a period column, a number column named as a row's number ([`ROW_WORDS`]) whose
+    // every row holds another whole number numbers the rows: it is no quantity
+    // (`id,date,value`). Only those words: a "Shop" column of a wide table holds quantities.
+    let row_numbers: Vec<usize> = match period {
+        Some((p, None)) if rows.len() >= 2 => numeric
+            .iter()
+            .copied()
+            .filter(|j| *j != p && numbers_rows(table, *j, &rows))
+            .collect(),
+        _ => Vec::new(),
+    };
+    if row_numbers.len() < numeric.len() {
+        numeric.retain(|j| !row_numbers.contains(j));
+    }
+    let row_numbers: Vec<usize> = row_numbers
+        .into_iter()
+        .filter(|j| !numeric.contains(j))
         .collect();
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
@@ -398,6 +421,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         ignored,
         empty,
         codes,
+        row_numbers,
     })
 }
 
@@ -427,6 +451,24 @@ const PERIOD_WORDS: [&str; 10] = [
 const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
 ];
+/// Words of a header that names a row's number.
+const ROW_WORDS: [&str; 3] = ["id", "row", "index"];
+
+/// Whether column `j` numbers the rows: its header is a row word ([`ROW_WORDS`]) and nothing
+/// else of ours, and every row holds another whole number.
+fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
+    let name = table.column_name(j);
+    let cells = table.column(j, rows);
+    table.header.is_some()
+        && header_says(&name, &ROW_WORDS)
+        && !header_says(&name, &PERIOD_WORDS)
+        && !header_says(&name, &QUANTITY_WORDS)
+        && cells
+            .iter()
+            .all(|c| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit()))
+        && all_distinct(&cells)
+}
+
 /// Words that make a header with an item word name something else about it ("item price",
 /// "promo code", "customer count").
 const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", "discount"];
