@@ -356,6 +356,39 @@ fn the_header_names_the_code_columns() {
     assert!(repeated.warnings.iter().all(|w| !w.contains("item codes")));
 }
 
+// A year column and a month-number column (found on 2026-12-03: `year,month,sales` was read
+// as yearly, "month" planned as an item, every repeated year refused) make one monthly period;
+// a bad month is an error at its row that names both cells.
+#[test]
+fn a_year_and_a_month_column_make_one_period() {
+    check(
+        "year,month,sales\n2023,11,5\n2023,12,6\n2024,1,7\n2024,2,8\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    let report = read("year,month,sales\n2023,11,5\n2023,12,6\n2024,1,7\n");
+    assert_eq!(report.frequency, Frequency::Monthly);
+    check(
+        "store,year,month,sales\n1,2024,1,5\n1,2024,2,6\n2,2024,1,7\n2,2024,2,8\n",
+        Expect {
+            items: Some(vec![("1", some(&[5.0, 6.0])), ("2", some(&[7.0, 8.0]))]),
+            warned: vec![vec!["\"store\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    check(
+        "year,month,sales\n2023,11,5\n2023,13,6\n2024,1,7\n2024,2,8\n",
+        Expect {
+            errors: vec![(3, "year", "2023-13")],
+            ..Expect::default()
+        },
+    );
+}
+
 #[test]
 fn item_spellings_differing_in_white_space_are_one_item_with_a_warning() {
     for (spelling, shown) in [

@@ -27,7 +27,7 @@ use std::collections::{HashMap, HashSet};
 
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
-use super::table::{overflow, Plan, Table};
+use super::table::{joined_months, overflow, Plan, Table};
 use super::text::Record;
 
 mod long;
@@ -202,7 +202,11 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             .push(format!("blank lines {} {what}", listing(&blank_lines)));
     }
     let column = plan.period.map(|(p, meaning)| {
-        let cells = table.column(p, &kept);
+        let joined = plan.month_of.map(|m| joined_months(table, &kept, p, m));
+        let cells: Vec<&str> = match &joined {
+            Some(labels) => labels.iter().map(String::as_str).collect(),
+            None => table.column(p, &kept),
+        };
         let col = read_periods(&cells, meaning);
         for (i, message) in &col.errors {
             b.error(kept[*i].line, p, cells[*i], message.clone());
@@ -241,6 +245,17 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
 }
 
 impl<'a> Builder<'a> {
+    /// The period as written on `row`: its period cell, or "year-month" where a month column
+    /// completes a year column ([`super::table::Plan::month_of`]).
+    fn period_text(&self, row: &Record) -> String {
+        let cell = |j: usize| row.cells.get(j).cloned().unwrap_or_default();
+        match (self.plan.period, self.plan.month_of) {
+            (Some((p, _)), Some(m)) => format!("{}-{:0>2}", cell(p).trim(), cell(m).trim()),
+            (Some((p, _)), None) => cell(p),
+            (None, _) => cell(0),
+        }
+    }
+
     fn error(&mut self, row: usize, column: usize, text: &str, message: String) {
         self.out.errors.push(RowError {
             row,
@@ -301,7 +316,7 @@ impl<'a> Builder<'a> {
     fn run(&mut self, first: Period, last: Period, row: &Record, column: usize) -> Option<i64> {
         let steps = first.steps_to(last);
         if steps >= MAX_PERIODS {
-            let cell = row.cells.get(column).cloned().unwrap_or_default();
+            let cell = self.period_text(row);
             self.error(
                 row.line,
                 column,
@@ -373,12 +388,7 @@ impl<'a> Builder<'a> {
             match unique.last() {
                 Some(prev) if prev.period == entry.period => {
                     let first_line = prev.row.line;
-                    let cell = entry
-                        .row
-                        .cells
-                        .get(period_column)
-                        .cloned()
-                        .unwrap_or_default();
+                    let cell = self.period_text(entry.row);
                     self.error(
                         entry.row.line,
                         period_column,

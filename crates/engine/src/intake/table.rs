@@ -44,7 +44,9 @@
 //! quantity is the number column whose header names a quantity, else the first that names no
 //! item, period or price ([`quantity_among`]); the others are reported as not used. Beside a
 //! period column, a number column named id, row or index with another number on every row
-//! numbers the rows (`id,date,value`; [`numbers_rows`]): left out, with a warning.
+//! numbers the rows (`id,date,value`; [`numbers_rows`]): left out, with a warning. A column
+//! named year beside one named month, holding years and month numbers, make one monthly
+//! period between them (`year,month,sales`; [`year_and_month`]).
 
 use super::label::Family;
 use super::number::{is_missing, looks_number};
@@ -267,6 +269,9 @@ pub(crate) struct Plan {
     /// Number columns named as a row's number that hold another number on every row beside a
     /// period column ([`numbers_rows`]): not read; the report says so.
     pub row_numbers: Vec<usize>,
+    /// A month-number column that makes the period together with the period column, a year
+    /// ([`year_and_month`]); each period is then read from "year-month".
+    pub month_of: Option<usize>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -322,6 +327,26 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let mut numeric: Vec<usize> = (0..roles.len())
         .filter(|j| roles[*j] == Role::Value)
         .collect();
+    // A year column beside a month-number column make one period between them
+    // ([`year_and_month`]).
+    let numbers_or_periods: Vec<usize> = (0..roles.len())
+        .filter(|j| matches!(roles[*j], Role::Value | Role::Period(_)))
+        .collect();
+    let year_month = year_and_month(table, &rows, period.map(|(p, _)| p), &numbers_or_periods);
+    if let Some((year, month)) = year_month {
+        numeric.retain(|j| *j != year && *j != month);
+        period = Some((year, None));
+    }
+    let period_cells: Vec<String> = match (period, year_month) {
+        (Some(_), Some((year, month))) => joined_months(table, &rows, year, month),
+        (Some((p, _)), None) => table
+            .column(p, &rows)
+            .into_iter()
+            .map(str::to_string)
+            .collect(),
+        _ => Vec::new(),
+    };
+    let period_refs: Vec<&str> = period_cells.iter().map(String::as_str).collect();
     // Beside a period column, a number column named as a row's number ([`ROW_WORDS`]) whose
     // every row holds another whole number numbers the rows: it is no quantity
     // (`id,date,value`). Only those words: a "Shop" column of a wide table holds quantities.
@@ -343,8 +368,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
     let codes: Vec<usize> = match period {
-        Some((p, None)) if item_columns.is_empty() && numeric.len() >= 2 => {
-            codes_beside(table, &rows, &numeric, &table.column(p, &rows))
+        Some((_, None)) if item_columns.is_empty() && numeric.len() >= 2 => {
+            codes_beside(table, &rows, &numeric, &period_refs)
         }
         None if item_columns.is_empty() && numeric.len() >= 3 => {
             match numbered_by_header(table, &rows, &numeric) {
@@ -355,13 +380,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 None => Vec::new(),
             }
         }
-        Some((p, _)) if !item_columns.is_empty() && numeric.len() >= 2 => codes_beside_names(
-            table,
-            &rows,
-            &item_columns,
-            &numeric,
-            &table.column(p, &rows),
-        ),
+        Some(_) if !item_columns.is_empty() && numeric.len() >= 2 => {
+            codes_beside_names(table, &rows, &item_columns, &numeric, &period_refs)
+        }
         _ => Vec::new(),
     };
     item_columns.extend(codes.iter().copied());
@@ -387,8 +408,10 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         .into_iter()
         .filter(|j| period.is_none_or(|(p, _)| p != *j))
         .collect();
+    let month_of = year_month.map(|(_, month)| month);
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
+        .filter(|j| month_of != Some(*j))
         .collect();
     if values.is_empty() {
         let header_line = table.header.as_ref().map_or(1, |h| h.line);
@@ -422,6 +445,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         empty,
         codes,
         row_numbers,
+        month_of,
     })
 }
 
@@ -451,6 +475,59 @@ const PERIOD_WORDS: [&str; 10] = [
 const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
 ];
+/// A column whose header says year and whose cells are mostly years (four digits), beside a
+/// column whose header says month and whose cells are mostly month numbers 1 to 12: `(year column, month
+/// column)`. The year column is the period column found, or any of `candidates` where none
+/// was. `year,month,sales` is a common way to keep monthly sales (common practice).
+fn year_and_month(
+    table: &Table,
+    rows: &[&Record],
+    period: Option<usize>,
+    candidates: &[usize],
+) -> Option<(usize, usize)> {
+    table.header.as_ref()?;
+    let named = |j: usize, word: &str| {
+        let name = table.column_name(j);
+        header_says(&name, &[word])
+            && !header_says(&name, &QUANTITY_WORDS)
+            && !header_says(&name, &ITEM_WORDS)
+    };
+    // Most cells, not all: one bad cell is an error at its row, not another layout.
+    let cells_are = |j: usize, ok: &dyn Fn(&str) -> bool| {
+        let cells = table.column(j, rows);
+        let good = cells.iter().filter(|c| ok(c.trim())).count();
+        !cells.is_empty() && good * 2 > cells.len()
+    };
+    let year_cell = |c: &str| c.len() == 4 && c.bytes().all(|b| b.is_ascii_digit());
+    let month_cell = |c: &str| c.parse::<u8>().is_ok_and(|m| (1..=12).contains(&m));
+    let years: Vec<usize> = match period {
+        Some(p) => vec![p],
+        None => candidates.to_vec(),
+    };
+    let year = years
+        .into_iter()
+        .find(|j| named(*j, "year") && !named(*j, "month") && cells_are(*j, &year_cell))?;
+    let month = candidates.iter().copied().find(|j| {
+        *j != year && named(*j, "month") && !named(*j, "year") && cells_are(*j, &month_cell)
+    })?;
+    Some((year, month))
+}
+
+/// The periods of a year column and a month-number column as "year-month" labels, row by row.
+pub(crate) fn joined_months(
+    table: &Table,
+    rows: &[&Record],
+    year: usize,
+    month: usize,
+) -> Vec<String> {
+    table
+        .column(year, rows)
+        .into_iter()
+        .zip(table.column(month, rows))
+        .map(|(y, m)| format!("{}-{:0>2}", y.trim(), m.trim()))
+        .collect()
+}
+
 /// Words of a header that names a row's number.
 const ROW_WORDS: [&str; 3] = ["id", "row", "index"];
 
