@@ -27,7 +27,7 @@ use std::collections::{HashMap, HashSet};
 
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
-use super::table::{joined_months, overflow, Plan, Table};
+use super::table::{joined_months, overflow, year_month_label, Plan, Table};
 use super::text::Record;
 
 mod long;
@@ -250,7 +250,7 @@ impl<'a> Builder<'a> {
     fn period_text(&self, row: &Record) -> String {
         let cell = |j: usize| row.cells.get(j).cloned().unwrap_or_default();
         match (self.plan.period, self.plan.month_of) {
-            (Some((p, _)), Some(m)) => format!("{}-{:0>2}", cell(p).trim(), cell(m).trim()),
+            (Some((p, _)), Some(m)) => year_month_label(&cell(p), &cell(m)),
             (Some((p, _)), None) => cell(p),
             (None, _) => cell(0),
         }

@@ -350,7 +350,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Beside a period column, a number column named as a row's number ([`ROW_WORDS`]) whose
     // every row holds another whole number numbers the rows: it is no quantity
     // (`id,date,value`). Only those words: a "Shop" column of a wide table holds quantities.
-    let row_numbers: Vec<usize> = match period {
+    // One number column always stays for the quantities.
+    let found: Vec<usize> = match period {
         Some((p, None)) if rows.len() >= 2 => numeric
             .iter()
             .copied()
@@ -358,13 +359,12 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             .collect(),
         _ => Vec::new(),
     };
-    if row_numbers.len() < numeric.len() {
-        numeric.retain(|j| !row_numbers.contains(j));
-    }
-    let row_numbers: Vec<usize> = row_numbers
-        .into_iter()
-        .filter(|j| !numeric.contains(j))
-        .collect();
+    let row_numbers = if found.len() < numeric.len() {
+        numeric.retain(|j| !found.contains(j));
+        found
+    } else {
+        Vec::new()
+    };
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
     let codes: Vec<usize> = match period {
@@ -498,7 +498,7 @@ fn year_and_month(
         let good = cells.iter().filter(|c| ok(c.trim())).count();
         !cells.is_empty() && good * 2 > cells.len()
     };
-    let year_cell = |c: &str| c.len() == 4 && c.bytes().all(|b| b.is_ascii_digit());
+    let year_cell = |c: &str| c.len() == 4 && whole_number(c);
     let month_cell = |c: &str| c.parse::<u8>().is_ok_and(|m| (1..=12).contains(&m));
     let years: Vec<usize> = match period {
         Some(p) => vec![p],
@@ -524,8 +524,35 @@ pub(crate) fn joined_months(
         .column(year, rows)
         .into_iter()
         .zip(table.column(month, rows))
-        .map(|(y, m)| format!("{}-{:0>2}", y.trim(), m.trim()))
+        .map(|(y, m)| year_month_label(y, m))
         .collect()
+}
+
+/// One period's "year-month" label from its year and month cells ("2023", "7": "2023-07"),
+/// which the period reader takes as a month.
+pub(crate) fn year_month_label(year: &str, month: &str) -> String {
+    format!("{}-{:0>2}", year.trim(), month.trim())
+}
+
+/// Whether a cell is a whole number written with digits only.
+fn whole_number(cell: &str) -> bool {
+    !cell.is_empty() && cell.bytes().all(|b| b.is_ascii_digit())
+}
+
+/// The cells of each of `columns` over `rows`.
+fn columns_of<'a>(table: &'a Table, rows: &[&'a Record], columns: &[usize]) -> Vec<Vec<&'a str>> {
+    columns.iter().map(|j| table.column(*j, rows)).collect()
+}
+
+/// Whether each item (a row's cells across `columns`) has each of `periods` on one row only.
+fn once_per_period(columns: &[Vec<&str>], periods: &[&str]) -> bool {
+    let mut pairs: Vec<(Vec<&str>, &str)> = (0..periods.len())
+        .map(|i| (columns.iter().map(|c| c[i]).collect(), periods[i]))
+        .collect();
+    let count = pairs.len();
+    pairs.sort_unstable();
+    pairs.dedup();
+    pairs.len() == count
 }
 
 /// Words of a header that names a row's number.
@@ -540,9 +567,7 @@ fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
         && header_says(&name, &ROW_WORDS)
         && !header_says(&name, &PERIOD_WORDS)
         && !header_says(&name, &QUANTITY_WORDS)
-        && cells
-            .iter()
-            .all(|c| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit()))
+        && cells.iter().all(|c| whole_number(c))
         && all_distinct(&cells)
 }
 
@@ -624,23 +649,11 @@ fn codes_beside_names(
     if named.is_empty() || named.len() >= numeric.len() {
         return Vec::new();
     }
-    let unique = |columns: &[usize]| {
-        let cells: Vec<Vec<&str>> = columns.iter().map(|j| table.column(*j, rows)).collect();
-        let mut pairs: Vec<(Vec<&str>, &str)> = (0..periods.len())
-            .map(|i| (cells.iter().map(|c| c[i]).collect(), periods[i]))
-            .collect();
-        let count = pairs.len();
-        pairs.sort_unstable();
-        pairs.dedup();
-        pairs.len() == count
-    };
+    let unique = |columns: &[usize]| once_per_period(&columns_of(table, rows, columns), periods);
     let with: Vec<usize> = names.iter().chain(&named).copied().collect();
-    let digits = named.iter().all(|j| {
-        table
-            .column(*j, rows)
-            .iter()
-            .all(|c| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit()))
-    });
+    let digits = columns_of(table, rows, &named)
+        .iter()
+        .all(|cells| cells.iter().all(|c| whole_number(c)));
     if digits && !unique(names) && unique(&with) {
         named
     } else {
@@ -661,8 +674,7 @@ fn codes_beside(
     periods: &[&str],
 ) -> Vec<usize> {
     let named = named_items(table, numeric);
-    let columns =
-        |js: &[usize]| -> Vec<Vec<&str>> { js.iter().map(|j| table.column(*j, rows)).collect() };
+    let columns = |js: &[usize]| columns_of(table, rows, js);
     if !named.is_empty() {
         return if named.len() < numeric.len() && item_codes(&columns(&named), periods) {
             named
@@ -698,21 +710,19 @@ fn numbered_by_header(
         .collect();
     // Two columns named as periods (a year and a month) make one period between them, which
     // this rule does not read: the table stays as it was.
-    if periods_named.len() != 1 {
+    let &[p] = periods_named.as_slice() else {
         return None;
-    }
-    periods_named.into_iter().find_map(|p| {
-        let periods = table.column(p, rows);
-        let meaning = integer_meaning(&periods, false)?;
-        let named: Vec<usize> = named_items(table, numeric)
-            .into_iter()
-            .filter(|j| *j != p)
-            .collect();
-        let columns: Vec<Vec<&str>> = named.iter().map(|j| table.column(*j, rows)).collect();
-        let codes =
-            !named.is_empty() && named.len() + 1 < numeric.len() && item_codes(&columns, &periods);
-        codes.then_some((named, (p, Some(meaning))))
-    })
+    };
+    let periods = table.column(p, rows);
+    let meaning = integer_meaning(&periods, false)?;
+    let named: Vec<usize> = named_items(table, numeric)
+        .into_iter()
+        .filter(|j| *j != p)
+        .collect();
+    let codes = !named.is_empty()
+        && named.len() + 1 < numeric.len()
+        && item_codes(&columns_of(table, rows, &named), &periods);
+    codes.then_some((named, (p, Some(meaning))))
 }
 
 /// Whether columns of numbers name items rather than count them: every cell a whole number
@@ -722,24 +732,19 @@ fn numbered_by_header(
 /// column with a repeated period would repeat a pair (common practice: item codes are often
 /// numeric).
 fn item_codes(columns: &[Vec<&str>], periods: &[&str]) -> bool {
-    let digits = |c: &&str| !c.is_empty() && c.bytes().all(|b| b.is_ascii_digit());
     if columns.is_empty() || periods.len() < 2 || all_distinct(periods) {
         return false;
     }
     if !columns
         .iter()
-        .all(|c| c.len() == periods.len() && c.iter().all(digits))
+        .all(|c| c.len() == periods.len() && c.iter().all(|cell| whole_number(cell)))
     {
         return false;
     }
-    let item = |i: usize| -> Vec<&str> { columns.iter().map(|c| c[i]).collect() };
-    let mut items: Vec<Vec<&str>> = (0..periods.len()).map(item).collect();
-    let mut pairs: Vec<(Vec<&str>, &str)> =
-        items.iter().cloned().zip(periods.iter().copied()).collect();
-    let count = pairs.len();
-    pairs.sort_unstable();
-    pairs.dedup();
+    let mut items: Vec<Vec<&str>> = (0..periods.len())
+        .map(|i| columns.iter().map(|c| c[i]).collect())
+        .collect();
     items.sort_unstable();
     items.dedup();
-    pairs.len() == count && items.len() < count
+    items.len() < periods.len() && once_per_period(columns, periods)
 }
