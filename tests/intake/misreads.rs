@@ -12,70 +12,7 @@ use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::intake::{read, DecimalMark, IntakeReport, Layout};
 use morrowcast_engine::settings::MAX_HORIZON;
 
-/// An item as (name, values).
-type Named<'a> = (&'a str, Vec<Option<f64>>);
-
-/// What one read must give. `errors` are compared whole, as (row, column, text); the other
-/// fields only when set. `warned`: for each list, some warning holds all of its words.
-#[derive(Default)]
-struct Expect<'a> {
-    errors: Vec<(usize, &'a str, &'a str)>,
-    items: Option<Vec<Named<'a>>>,
-    periods: Option<Vec<&'a str>>,
-    warned: Vec<Vec<&'a str>>,
-    decimal: Option<DecimalMark>,
-    layout: Option<Layout>,
-    frequency: Option<Frequency>,
-}
-
-fn check(input: &str, expected: Expect<'_>) -> IntakeReport {
-    let r = read(input);
-    let errors: Vec<(usize, &str, &str)> = r
-        .errors
-        .iter()
-        .map(|e| (e.row, e.column.as_str(), e.text.as_str()))
-        .collect();
-    assert_eq!(
-        errors, expected.errors,
-        "errors of {input:?}: {:#?}",
-        r.errors
-    );
-    if let Some(items) = &expected.items {
-        let got: Vec<Named<'_>> = r
-            .items
-            .iter()
-            .map(|i| (i.name.as_str(), i.values.clone()))
-            .collect();
-        assert_eq!(&got, items, "items of {input:?}");
-    }
-    if let Some(periods) = &expected.periods {
-        let got: Vec<String> = r.items[0].periods.iter().map(|p| p.to_string()).collect();
-        assert_eq!(&got, periods, "periods of {input:?}");
-    }
-    for words in &expected.warned {
-        assert!(
-            r.warnings
-                .iter()
-                .any(|w| words.iter().all(|word| w.contains(word))),
-            "no warning with {words:?} for {input:?}: {:#?}",
-            r.warnings
-        );
-    }
-    if let Some(mark) = expected.decimal {
-        assert_eq!(r.decimal, mark, "decimal mark of {input:?}");
-    }
-    if let Some(layout) = expected.layout {
-        assert_eq!(r.layout, layout, "layout of {input:?}");
-    }
-    if let Some(frequency) = expected.frequency {
-        assert_eq!(r.frequency, frequency, "frequency of {input:?}");
-    }
-    r
-}
-
-fn some(values: &[f64]) -> Vec<Option<f64>> {
-    values.iter().map(|v| Some(*v)).collect()
-}
+use super::expect::{check, some, Expect};
 
 // 1. An unquoted comma in a comma-delimited file is a delimiter, so "1.250" there is one and a
 // quarter, never 1250.
@@ -354,39 +291,6 @@ fn the_header_names_the_code_columns() {
     let repeated = read("month,item,units\n2024-01,7,5\n2024-01,7,6\n2024-02,8,5\n2024-01,8,5\n");
     assert!(!repeated.errors.is_empty());
     assert!(repeated.warnings.iter().all(|w| !w.contains("item codes")));
-}
-
-// A year column and a month-number column (found on 2026-12-03: `year,month,sales` was read
-// as yearly, "month" planned as an item, every repeated year refused) make one monthly period;
-// a bad month is an error at its row that names both cells.
-#[test]
-fn a_year_and_a_month_column_make_one_period() {
-    check(
-        "year,month,sales\n2023,11,5\n2023,12,6\n2024,1,7\n2024,2,8\n",
-        Expect {
-            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
-            layout: Some(Layout::Single),
-            ..Expect::default()
-        },
-    );
-    let report = read("year,month,sales\n2023,11,5\n2023,12,6\n2024,1,7\n");
-    assert_eq!(report.frequency, Frequency::Monthly);
-    check(
-        "store,year,month,sales\n1,2024,1,5\n1,2024,2,6\n2,2024,1,7\n2,2024,2,8\n",
-        Expect {
-            items: Some(vec![("1", some(&[5.0, 6.0])), ("2", some(&[7.0, 8.0]))]),
-            warned: vec![vec!["\"store\"", "item codes"]],
-            layout: Some(Layout::Long),
-            ..Expect::default()
-        },
-    );
-    check(
-        "year,month,sales\n2023,11,5\n2023,13,6\n2024,1,7\n2024,2,8\n",
-        Expect {
-            errors: vec![(3, "year", "2023-13")],
-            ..Expect::default()
-        },
-    );
 }
 
 #[test]

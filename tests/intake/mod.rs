@@ -1,6 +1,8 @@
 //! Intake: the formats it reads, where it says a problem is, and what holds whatever the text.
 
 mod errors;
+mod expect;
+mod exports;
 mod formats;
 mod misreads;
 mod robustness;

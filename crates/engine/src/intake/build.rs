@@ -27,7 +27,7 @@ use std::collections::{HashMap, HashSet};
 
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
-use super::table::{joined_months, overflow, year_month_label, Plan, Table};
+use super::table::{overflow, Plan, Table};
 use super::text::Record;
 
 mod long;
@@ -202,7 +202,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             .push(format!("blank lines {} {what}", listing(&blank_lines)));
     }
     let column = plan.period.map(|(p, meaning)| {
-        let joined = plan.month_of.map(|m| joined_months(table, &kept, p, m));
+        let joined = plan.split.map(|split| split.labels(&kept));
         let cells: Vec<&str> = match &joined {
             Some(labels) => labels.iter().map(String::as_str).collect(),
             None => table.column(p, &kept),
@@ -213,7 +213,10 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         }
         b.out.warnings.extend(col.warnings.iter().cloned());
         b.out.frequency = Some(col.frequency);
-        b.out.date_format = Some(col.description.clone());
+        b.out.date_format = Some(match plan.split {
+            Some(split) => format!("{}, {}", col.description, split.describe(table)),
+            None => col.description.clone(),
+        });
         col
     });
     match (plan.layout, column) {
@@ -245,12 +248,12 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
 }
 
 impl<'a> Builder<'a> {
-    /// The period as written on `row`: its period cell, or "year-month" where a month column
-    /// completes a year column ([`super::table::Plan::month_of`]).
+    /// The period as written on `row`: its period cell, or the cells joined where a month,
+    /// quarter or week column (and a day) complete a year column ([`super::table::Plan::split`]).
     fn period_text(&self, row: &Record) -> String {
         let cell = |j: usize| row.cells.get(j).cloned().unwrap_or_default();
-        match (self.plan.period, self.plan.month_of) {
-            (Some((p, _)), Some(m)) => year_month_label(&cell(p), &cell(m)),
+        match (self.plan.period, self.plan.split) {
+            (Some(_), Some(split)) => split.label(|j| row.cells.get(j).map_or("", String::as_str)),
             (Some((p, _)), None) => cell(p),
             (None, _) => cell(0),
         }

@@ -14,7 +14,8 @@
 //!    LF, CRLF or lone CR line ends, and exact line numbers, in at most two passes whatever the
 //!    quotes.
 //! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
-//!    the header and layout rules are in that module's doc.
+//!    the header and layout rules are in that module's doc; `joined`: a period written across
+//!    a year column and a month, quarter or week column (and a day).
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
 //!    decide by majority; in a comma-delimited file the mark is otherwise a dot, since a decimal
 //!    comma there needs quotes; elsewhere a lone "1,234" or "1.234" is read as thousands with a
@@ -25,6 +26,7 @@
 //!    the periods refused as likely typos.
 //! 5. `build`: one item per value column (single, wide) or per item name (long), with a
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
+//! 6. `totals`: an item that is the sum of all the others in every period is left out.
 //!
 //! Decisions, in short (each module's doc has the full rule):
 //! - Header: the last record above the first row with at least half of its cells numbers,
@@ -32,7 +34,9 @@
 //!   columns (one in a one-column text; `n/a` names none) and none of its cells stands again
 //!   below in its column (an item name); rows between the two are data (a bad cell in the first
 //!   data row is an error, never a title); records above the header are title lines, skipped
-//!   with a warning. In a one-column text the header is the first such record. No header: a
+//!   with a warning. A blank first cell over a named rest is a header too (`,sales`: the
+//!   corner over an index a data tool wrote); a record further down that repeats the header
+//!   cell for cell (exports joined) is skipped with a warning. In a one-column text the header is the first such record. No header: a
 //!   warning, and the names below.
 //! - Date order: a field above 12 decides; otherwise "all on the 1st of a month" one way only,
 //!   then "a regular series with no missing period" one way only, each with a warning;
@@ -41,7 +45,8 @@
 //!   are 1969–2068; month names are English.
 //! - Layout: a column is item names only when most of its rows name something; a column mostly
 //!   empty or `n/a` holds quantities, and its few words are bad cells (errors).
-//! - Whole numbers in the first column are years (1800–2200), row positions (1, 2, 3, ...),
+//! - Whole numbers in the first column are years (1800–2200), row positions (1, 2, 3, ... or
+//!   0, 1, 2, ...),
 //!   8-digit dates (20240131) or 6-digit months (202401) when more than half of the cells read
 //!   so and, for years, months and positions, they mostly follow each other closely (every cell
 //!   for positions); the other cells are errors. Otherwise they are values. The report's period
@@ -60,6 +65,9 @@
 //!   is a gap in a table without periods and skipped (with a warning) in a dated one.
 //! - Currency symbols, codes and units listed in `number` are stripped, with one warning naming
 //!   them; anything else after a number ("12x") is an error.
+//! - A total among the items (a "total" column, "All items" rows: an item equal to the sum of
+//!   the others in every period, module `totals`) is left out with a warning naming it, so
+//!   its demand is not ordered twice.
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space are
 //!   one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
@@ -83,6 +91,7 @@
 mod build;
 mod dates;
 mod decode;
+mod joined;
 mod label;
 mod mark;
 mod number;
@@ -91,6 +100,7 @@ mod period;
 mod stock_table;
 mod table;
 mod text;
+mod totals;
 
 pub use stock_table::{read_stock_table, StockRow, StockTable};
 
@@ -301,6 +311,22 @@ fn read_text(text: &str) -> IntakeReport {
             words.join(" ")
         ));
     }
+    if !table.repeated_headers.is_empty() {
+        let lines: Vec<String> = table
+            .repeated_headers
+            .iter()
+            .map(usize::to_string)
+            .collect();
+        let (noun, verb) = match lines.len() {
+            1 => ("line", "repeats"),
+            _ => ("lines", "repeat"),
+        };
+        report.warnings.push(format!(
+            "{noun} {} {verb} the header and {} skipped",
+            lines.join(", "),
+            if lines.len() == 1 { "was" } else { "were" }
+        ));
+    }
     report.has_header = table.header.is_some();
     if table.rows.iter().all(text::Record::is_blank) {
         let (row, message) = match &table.header {
@@ -350,6 +376,14 @@ fn read_text(text: &str) -> IntakeReport {
     report.frequency = built.frequency.unwrap_or(Frequency::Undated);
     report.date_format = built.date_format;
     report.items = built.items;
+    if let Some(i) = totals::total_among(&report.items) {
+        let total = report.items.remove(i);
+        report.warnings.push(format!(
+            "\"{}\" equals the sum of the other items in every period: read as their total, \
+             not an item, and left out (planned, its demand would be ordered twice)",
+            total.name
+        ));
+    }
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);

@@ -11,7 +11,8 @@
 //! are valid dates with a year in [`PLAUSIBLE_YEARS`] (1800–2200);
 //! 6-digit months `YYYYMM` when more than half are months of such years and their median step
 //! is at most three months; years when more than half are in [`PLAUSIBLE_YEARS`] and their
-//! median step is at most two; row positions (1, 2, 3, ...) when they start at 1 with a median
+//! median step is at most two; row positions (1, 2, 3, ... or 0, 1, 2, ...: indexes written by
+//! data tools count from 0) when they start at 1 or 0 with a median
 //! step of at most two, every cell one (and increase, in a first column). "More than half" and
 //! the median step keep one bad cell or a typo far away from changing the reading (they are then
 //! errors at their cells, as below) while scattered quantities are not taken for periods. The
@@ -121,7 +122,7 @@ pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<Inte
     }
     let increasing = values.windows(2).all(|w| w[0] < w[1]);
     let positions = values.len() == filled.len()
-        && values.iter().min() == Some(&1)
+        && values.iter().min().is_some_and(|n| *n == 0 || *n == 1)
         && close(&values, 2)
         && (increasing || !in_row_order);
     positions.then_some(IntegerMeaning::Positions)

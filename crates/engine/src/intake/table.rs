@@ -10,7 +10,10 @@
 //! record, as a delimiter at the end of every line makes) that names something: not empty and
 //! not a "no value" marker such as `n/a` (a first data row of a bad period and an `n/a` is not
 //! a header); and none of its cells stands again further down the same column (that is an item
-//! name of a long table, so the record is a data row). A data-like record has at least half of
+//! name of a long table, so the record is a data row), except in a record that repeats it
+//! whole (a header repeated where exports were joined: those records are left out of the
+//! rows, with a warning). A blank first cell over a named rest is header-like too (`,sales`,
+//! the corner over an index a data tool wrote). A data-like record has at least half of
 //! its non-empty cells, and at least one, reading as numbers, periods or "no value" markers
 //! (which stand where a quantity would). Among the first six
 //! records, the header is the last header-like record above the first data-like record; the
@@ -43,11 +46,15 @@
 //! items and one period column (`series,t,value`; [`numbered_by_header`]). A long table's
 //! quantity is the number column whose header names a quantity, else the first that names no
 //! item, period or price ([`quantity_among`]); the others are reported as not used. Beside a
-//! period column, a number column named id, row or index with another number on every row
-//! numbers the rows (`id,date,value`; [`numbers_rows`]): left out, with a warning. A column
-//! named year beside one named month, holding years and month numbers, make one monthly
-//! period between them (`year,month,sales`; [`year_and_month`]).
+//! period column, a number column named id, row or index with another number on every row,
+//! or with a blank header counting the rows from 0 or 1, numbers the rows (`id,date,value`,
+//! `,date,value`; [`numbers_rows`]): left out, with a warning. A column
+//! named year beside one named month, quarter or week (and a day), holding years and month
+//! numbers or names, quarters or weeks, make one period between them (`year,month,sales`,
+//! `year,quarter,sales`; [`SplitPeriod`]), found before any other rule so that month names
+//! are not taken for items.
 
+use super::joined::SplitPeriod;
 use super::label::Family;
 use super::number::{is_missing, looks_number};
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
@@ -62,6 +69,9 @@ const HEADER_SEARCH: usize = 6;
 pub(crate) struct Table {
     pub titles: Vec<Record>,
     pub header: Option<Record>,
+    /// Lines further down that repeat the header cell for cell (files joined from several
+    /// exports): left out of the rows; the report says so.
+    pub repeated_headers: Vec<usize>,
     pub rows: Vec<Record>,
     pub width: usize,
 }
@@ -146,9 +156,20 @@ fn names(cell: &str) -> bool {
     !cell.is_empty() && !is_missing(cell)
 }
 
+/// A header-like record names at least two columns (one in a one-column table), or every
+/// column but a blank first one: the corner over a column of row numbers, as data tools
+/// write an unnamed index (`,sales`).
 fn header_like(record: &Record, width: usize) -> bool {
     let named = record.cells.iter().filter(|c| names(c)).count();
-    named >= width.clamp(1, 2)
+    let blank_corner = width >= 2
+        && record.cells.first().is_some_and(|c| c.is_empty())
+        && record
+            .cells
+            .iter()
+            .skip(1)
+            .take(width - 1)
+            .all(|c| names(c));
+    (named >= width.clamp(1, 2) || blank_corner)
         && record
             .cells
             .iter()
@@ -156,15 +177,29 @@ fn header_like(record: &Record, width: usize) -> bool {
 }
 
 /// Whether a cell of `records[at]` also stands in its column further down: an item name, so
-/// the record is a row of a long table rather than its header.
+/// the record is a row of a long table rather than its header. A record repeated whole further
+/// down does not count: that is a header repeated where exports were joined.
 fn repeats_below(records: &[Record], at: usize) -> bool {
     let cells = &records[at].cells;
     records[at + 1..].iter().any(|r| {
+        !same_cells(r, &records[at])
+            && r.cells
+                .iter()
+                .zip(cells)
+                .any(|(below, cell)| names(cell) && below == cell)
+    })
+}
+
+/// Whether two records hold the same cells, empty cells at the end aside.
+fn same_cells(a: &Record, b: &Record) -> bool {
+    let filled = |r: &Record| {
         r.cells
             .iter()
-            .zip(cells)
-            .any(|(below, cell)| names(cell) && below == cell)
-    })
+            .rposition(|c| !c.is_empty())
+            .map_or(0, |i| i + 1)
+    };
+    let (na, nb) = (filled(a), filled(b));
+    na == nb && na > 0 && a.cells[..na] == b.cells[..nb]
 }
 
 /// Splits records into titles, header and data rows; leading and trailing blank records go.
@@ -223,6 +258,16 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .position(|r| !r.is_blank())
         .unwrap_or(rest.len());
     rest.drain(..first_row);
+    let mut repeated_headers = Vec::new();
+    if let Some(h) = &header {
+        rest.retain(|r| {
+            let repeated = same_cells(r, h);
+            if repeated {
+                repeated_headers.push(r.line);
+            }
+            !repeated
+        });
+    }
     let data_widths: Vec<usize> = rest
         .iter()
         .filter(|r| !r.is_blank())
@@ -241,6 +286,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     Table {
         titles,
         header,
+        repeated_headers,
         rows: rest,
         width,
     }
@@ -269,9 +315,9 @@ pub(crate) struct Plan {
     /// Number columns named as a row's number that hold another number on every row beside a
     /// period column ([`numbers_rows`]): not read; the report says so.
     pub row_numbers: Vec<usize>,
-    /// A month-number column that makes the period together with the period column, a year
-    /// ([`year_and_month`]); each period is then read from "year-month".
-    pub month_of: Option<usize>,
+    /// Columns that make the period together with the period column, a year: a month,
+    /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
+    pub split: Option<SplitPeriod>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -310,10 +356,20 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let mut item_columns: Vec<usize> = (0..roles.len())
         .filter(|j| roles[*j] == Role::Item)
         .collect();
-    let mut period = roles
-        .iter()
-        .position(|r| matches!(r, Role::Period(_)))
-        .map(|j| (j, None));
+    let mut numeric: Vec<usize> = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Value)
+        .collect();
+    let first_period = roles.iter().position(|r| matches!(r, Role::Period(_)));
+    // A year column beside a column of months, quarters or weeks make one period between
+    // them ([`SplitPeriod`]), before a text column of month names can be taken for items
+    // or, never repeating in one year, for the periods.
+    let split = SplitPeriod::find(table, &rows, first_period, &numeric)?;
+    let mut period = first_period.map(|j| (j, None));
+    if let Some(split) = split {
+        numeric.retain(|j| !split.columns().contains(j));
+        item_columns.retain(|j| !split.columns().contains(j));
+        period = Some((split.year(), None));
+    }
     if period.is_none() {
         // A text column whose cells never repeat names periods, not items: reading it as the
         // period column turns each unreadable label into an error the user can act on.
@@ -324,21 +380,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
-    let mut numeric: Vec<usize> = (0..roles.len())
-        .filter(|j| roles[*j] == Role::Value)
-        .collect();
-    // A year column beside a month-number column make one period between them
-    // ([`year_and_month`]).
-    let numbers_or_periods: Vec<usize> = (0..roles.len())
-        .filter(|j| matches!(roles[*j], Role::Value | Role::Period(_)))
-        .collect();
-    let year_month = year_and_month(table, &rows, period.map(|(p, _)| p), &numbers_or_periods);
-    if let Some((year, month)) = year_month {
-        numeric.retain(|j| *j != year && *j != month);
-        period = Some((year, None));
-    }
-    let period_cells: Vec<String> = match (period, year_month) {
-        (Some(_), Some((year, month))) => joined_months(table, &rows, year, month),
+    let period_cells: Vec<String> = match (period, split) {
+        (Some(_), Some(split)) => split.labels(&rows),
         (Some((p, _)), None) => table
             .column(p, &rows)
             .into_iter()
@@ -408,10 +451,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         .into_iter()
         .filter(|j| period.is_none_or(|(p, _)| p != *j))
         .collect();
-    let month_of = year_month.map(|(_, month)| month);
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
-        .filter(|j| month_of != Some(*j))
+        .filter(|j| split.is_none_or(|s| !s.columns().contains(j)))
         .collect();
     if values.is_empty() {
         let header_line = table.header.as_ref().map_or(1, |h| h.line);
@@ -445,14 +487,14 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         empty,
         codes,
         row_numbers,
-        month_of,
+        split,
     })
 }
 
 /// Words of a header cell that name the item (or the store it is sold at), that name a
 /// period, and that name a quantity, for tables whose item codes are numbers (common practice
 /// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`).
-const ITEM_WORDS: [&str; 15] = [
+pub(super) const ITEM_WORDS: [&str; 15] = [
     "item",
     "sku",
     "product",
@@ -472,70 +514,11 @@ const ITEM_WORDS: [&str; 15] = [
 const PERIOD_WORDS: [&str; 10] = [
     "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year",
 ];
-const QUANTITY_WORDS: [&str; 10] = [
+pub(super) const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
 ];
-/// A column whose header says year and whose cells are mostly years (four digits), beside a
-/// column whose header says month and whose cells are mostly month numbers 1 to 12: `(year column, month
-/// column)`. The year column is the period column found, or any of `candidates` where none
-/// was. `year,month,sales` is a common way to keep monthly sales (common practice).
-fn year_and_month(
-    table: &Table,
-    rows: &[&Record],
-    period: Option<usize>,
-    candidates: &[usize],
-) -> Option<(usize, usize)> {
-    table.header.as_ref()?;
-    let named = |j: usize, word: &str| {
-        let name = table.column_name(j);
-        header_says(&name, &[word])
-            && !header_says(&name, &QUANTITY_WORDS)
-            && !header_says(&name, &ITEM_WORDS)
-    };
-    // Most cells, not all: one bad cell is an error at its row, not another layout.
-    let cells_are = |j: usize, ok: &dyn Fn(&str) -> bool| {
-        let cells = table.column(j, rows);
-        let good = cells.iter().filter(|c| ok(c.trim())).count();
-        !cells.is_empty() && good * 2 > cells.len()
-    };
-    let year_cell = |c: &str| c.len() == 4 && whole_number(c);
-    let month_cell = |c: &str| c.parse::<u8>().is_ok_and(|m| (1..=12).contains(&m));
-    let years: Vec<usize> = match period {
-        Some(p) => vec![p],
-        None => candidates.to_vec(),
-    };
-    let year = years
-        .into_iter()
-        .find(|j| named(*j, "year") && !named(*j, "month") && cells_are(*j, &year_cell))?;
-    let month = candidates.iter().copied().find(|j| {
-        *j != year && named(*j, "month") && !named(*j, "year") && cells_are(*j, &month_cell)
-    })?;
-    Some((year, month))
-}
-
-/// The periods of a year column and a month-number column as "year-month" labels, row by row.
-pub(crate) fn joined_months(
-    table: &Table,
-    rows: &[&Record],
-    year: usize,
-    month: usize,
-) -> Vec<String> {
-    table
-        .column(year, rows)
-        .into_iter()
-        .zip(table.column(month, rows))
-        .map(|(y, m)| year_month_label(y, m))
-        .collect()
-}
-
-/// One period's "year-month" label from its year and month cells ("2023", "7": "2023-07"),
-/// which the period reader takes as a month.
-pub(crate) fn year_month_label(year: &str, month: &str) -> String {
-    format!("{}-{:0>2}", year.trim(), month.trim())
-}
-
 /// Whether a cell is a whole number written with digits only.
-fn whole_number(cell: &str) -> bool {
+pub(super) fn whole_number(cell: &str) -> bool {
     !cell.is_empty() && cell.bytes().all(|b| b.is_ascii_digit())
 }
 
@@ -559,15 +542,31 @@ fn once_per_period(columns: &[Vec<&str>], periods: &[&str]) -> bool {
 const ROW_WORDS: [&str; 3] = ["id", "row", "index"];
 
 /// Whether column `j` numbers the rows: its header is a row word ([`ROW_WORDS`]) and nothing
-/// else of ours, and every row holds another whole number.
+/// else of ours, and every row holds another whole number; or its header is blank (or
+/// "Unnamed: 0", as data tools name a blank one when they read it back) and its numbers count
+/// the rows one by one from 0 or 1 (an index written beside the data).
 fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
+    let Some(header) = &table.header else {
+        return false;
+    };
     let name = table.column_name(j);
     let cells = table.column(j, rows);
-    table.header.is_some()
-        && header_says(&name, &ROW_WORDS)
+    let blank = header.cells.get(j).is_none_or(|c| c.trim().is_empty())
+        || name.trim().to_ascii_lowercase().starts_with("unnamed");
+    if !cells.iter().all(|c| whole_number(c)) {
+        return false;
+    }
+    if blank {
+        let numbers: Vec<u64> = cells.iter().filter_map(|c| c.parse().ok()).collect();
+        return numbers.len() == cells.len()
+            && numbers.first().is_some_and(|n| *n <= 1)
+            && numbers
+                .windows(2)
+                .all(|w| w[0].checked_add(1) == Some(w[1]));
+    }
+    header_says(&name, &ROW_WORDS)
         && !header_says(&name, &PERIOD_WORDS)
         && !header_says(&name, &QUANTITY_WORDS)
-        && cells.iter().all(|c| whole_number(c))
         && all_distinct(&cells)
 }
 
@@ -578,7 +577,7 @@ const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", 
 /// Whether header cell `name` holds one of `words` as a word of its own (split at anything
 /// that is not a letter or digit and where a lower-case letter meets a capital, any case:
 /// "Item ID", "sku_code", "StoreID", "T").
-fn header_says(name: &str, words: &[&str]) -> bool {
+pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
     let mut spaced = String::with_capacity(name.len() + 4);
     let mut previous_lower = false;
     for c in name.chars() {

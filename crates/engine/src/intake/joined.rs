@@ -1,0 +1,210 @@
+//! A period written across columns: a year column beside a column of months, quarters or
+//! weeks, and for months perhaps a day column (`year,month,sales`, `year,quarter,sales`,
+//! `year,week,sales`, `year,month,day,sales`: common ways to keep sales, common practice).
+//! Each row's period is read from its cells joined into one label the period reader takes
+//! ("2023-07", "2023 Jul", "2023-Q3", "2023-W07", "2023-07-14"), so the reader's rules and
+//! errors hold unchanged; an error shows the joined text at the year column.
+//!
+//! Kept apart from: the other column roles ([`super::table`] calls [`SplitPeriod::find`]
+//! first, so that month names are not taken for items) and reading labels
+//! ([`super::label`]). Found only by the header's words, and only where most rows read so:
+//! one bad cell is an error at its row, not another layout. A fiscal year beside months is
+//! refused: its months fall in two calendar years, and read as calendar months the rows
+//! would be put in the wrong order.
+
+use super::label::{parse_label, Family};
+use super::table::{header_says, whole_number, Table, ITEM_WORDS, QUANTITY_WORDS};
+use super::text::Record;
+use super::RowError;
+
+/// The part of a year a column beside a year column counts.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum YearPart {
+    /// Months: 1 to 12 or month names.
+    Month,
+    /// Quarters: 1 to 4 or Q1 to Q4.
+    Quarter,
+    /// ISO 8601 weeks: 1 to 53 or W1 to W53.
+    Week,
+}
+
+impl YearPart {
+    const ALL: [YearPart; 3] = [YearPart::Month, YearPart::Quarter, YearPart::Week];
+
+    /// Header words that name this part of a year.
+    fn words(self) -> &'static [&'static str] {
+        match self {
+            YearPart::Month => &["month", "mth"],
+            YearPart::Quarter => &["quarter", "qtr"],
+            YearPart::Week => &["week", "wk"],
+        }
+    }
+
+    /// The period family the joined labels must read as.
+    fn family(self) -> Family {
+        match self {
+            YearPart::Month => Family::Month,
+            YearPart::Quarter => Family::Quarter,
+            YearPart::Week => Family::Week,
+        }
+    }
+}
+
+/// Words that make a year a fiscal one.
+const FISCAL_WORDS: [&str; 3] = ["fiscal", "financial", "fy"];
+
+/// The columns one period is written across.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) struct SplitPeriod {
+    year: usize,
+    part: usize,
+    how: YearPart,
+    day: Option<usize>,
+}
+
+impl SplitPeriod {
+    /// Finds a year column (the period column found, or else any of `numbers`) whose header
+    /// says year and whose cells are mostly four-digit years, and another column whose header
+    /// names a part of a year and whose cells, joined to their row's year, mostly read as that
+    /// part's periods; then, beside months, a column named day whose joined cells mostly read
+    /// as dates. `Err` for a fiscal year beside such a column.
+    pub(crate) fn find(
+        table: &Table,
+        rows: &[&Record],
+        period: Option<usize>,
+        numbers: &[usize],
+    ) -> Result<Option<SplitPeriod>, RowError> {
+        let Some(header) = &table.header else {
+            return Ok(None);
+        };
+        let named = |j: usize, words: &[&str]| {
+            let name = table.column_name(j);
+            header_says(&name, words)
+                && !header_says(&name, &QUANTITY_WORDS)
+                && !header_says(&name, &ITEM_WORDS)
+        };
+        let is_part = |j: usize| YearPart::ALL.iter().any(|part| named(j, part.words()));
+        // Most cells, not all: one bad cell is an error at its row, not another layout.
+        let most = |good: usize| !rows.is_empty() && good * 2 > rows.len();
+        let years: Vec<usize> = match period {
+            Some(p) => vec![p],
+            None => numbers.to_vec(),
+        };
+        let Some(year) = years.into_iter().find(|j| {
+            named(*j, &["year"])
+                && !is_part(*j)
+                && most(
+                    table
+                        .column(*j, rows)
+                        .iter()
+                        .filter(|c| c.len() == 4 && whole_number(c))
+                        .count(),
+                )
+        }) else {
+            return Ok(None);
+        };
+        let reads_as = |split: &SplitPeriod, family: Family| {
+            most(
+                split
+                    .labels(rows)
+                    .iter()
+                    .filter(|label| parse_label(label).is_some_and(|l| l.family() == family))
+                    .count(),
+            )
+        };
+        let others = || (0..table.width).filter(move |j| *j != year);
+        let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
+            others()
+                .filter(|j| named(*j, how.words()) && !named(*j, &["year"]))
+                .map(|part| SplitPeriod {
+                    year,
+                    part,
+                    how,
+                    day: None,
+                })
+                .find(|split| reads_as(split, how.family()))
+        }) else {
+            return Ok(None);
+        };
+        let name = table.column_name(year);
+        if header_says(&name, &FISCAL_WORDS) {
+            return Err(RowError {
+                row: header.line,
+                column: name.clone(),
+                text: name,
+                message: format!(
+                    "expected calendar years beside the column \"{}\": a fiscal year's months \
+                     fall in two calendar years, so they cannot be placed; write each period as \
+                     a calendar month (e.g. 2024-07) or a date",
+                    table.column_name(split.part)
+                ),
+            });
+        }
+        if split.how == YearPart::Month {
+            split.day = others()
+                .filter(|j| *j != split.part && named(*j, &["day"]) && !is_part(*j))
+                .find(|j| {
+                    let with_day = SplitPeriod {
+                        day: Some(*j),
+                        ..split
+                    };
+                    reads_as(&with_day, Family::Date)
+                });
+        }
+        Ok(Some(split))
+    }
+
+    /// The year column: the period column of the plan.
+    pub(crate) fn year(&self) -> usize {
+        self.year
+    }
+
+    /// Every column the period is written across.
+    pub(crate) fn columns(&self) -> Vec<usize> {
+        [Some(self.year), Some(self.part), self.day]
+            .into_iter()
+            .flatten()
+            .collect()
+    }
+
+    /// One row's period label from its cells, `cell(j)` the cell of column `j`: a month,
+    /// quarter or week number becomes "2023-07", "2023-Q3" or "2023-W07"; a word is put after
+    /// the year ("2023 Jul", "2023 Q3"); with a day, "2023-07-14" or "14 Jul 2023". The
+    /// period reader takes these, or refuses them with the joined text.
+    pub(crate) fn label<'a>(&self, cell: impl Fn(usize) -> &'a str) -> String {
+        let year = cell(self.year).trim();
+        let part = cell(self.part).trim();
+        let number = whole_number(part)
+            .then(|| part.parse::<u32>().ok())
+            .flatten();
+        match (self.day.map(|d| cell(d).trim()), number, self.how) {
+            (Some(day), Some(n), _) => format!("{year}-{n:02}-{day:0>2}"),
+            (Some(day), None, _) => format!("{day} {part} {year}"),
+            (None, Some(n), YearPart::Month) => format!("{year}-{n:02}"),
+            (None, Some(n), YearPart::Quarter) => format!("{year}-Q{n}"),
+            (None, Some(n), YearPart::Week) => format!("{year}-W{n:02}"),
+            (None, None, _) => format!("{year} {part}"),
+        }
+    }
+
+    /// [`SplitPeriod::label`] of each of `rows`.
+    pub(crate) fn labels(&self, rows: &[&Record]) -> Vec<String> {
+        rows.iter()
+            .map(|row| self.label(|j| row.cells.get(j).map_or("", String::as_str)))
+            .collect()
+    }
+
+    /// For the report: `from the columns "year" and "month"` (or "year", "month" and "day").
+    pub(crate) fn describe(&self, table: &Table) -> String {
+        let names: Vec<String> = self
+            .columns()
+            .into_iter()
+            .map(|j| format!("\"{}\"", table.column_name(j)))
+            .collect();
+        match names.as_slice() {
+            [first, second] => format!("from the columns {first} and {second}"),
+            [first, second, third] => format!("from the columns {first}, {second} and {third}"),
+            _ => String::new(),
+        }
+    }
+}

@@ -1,0 +1,140 @@
+//! A total among the items: an item (a wide table's "total" column, a long table's "All
+//! items" rows) whose value in every period is the sum of the other items' values there.
+//! Planned as an item, its demand would be ordered a second time, so it is left out, with a
+//! warning naming it.
+//!
+//! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
+//! them once built). The rule: at least two other items and three periods compared; a period
+//! is compared where every item holding it has a value, and the total must hold every period
+//! any item holds; equal within 10^-9 of the period's sum (sums of decimals written in the
+//! file are not exact in binary), and not every sum zero. Equal by chance over three periods
+//! or more is not to be expected of real items.
+
+use std::collections::BTreeMap;
+
+use super::Item;
+use crate::calendar::Period;
+
+/// Fewest periods compared before an item is taken for the others' total.
+const PERIODS_COMPARED: usize = 3;
+
+/// The index of the item that is the sum of all the others, if exactly one is.
+pub(crate) fn total_among(items: &[Item]) -> Option<usize> {
+    if items.len() < 3 {
+        return None;
+    }
+    // Per period: the sum over the items holding it, whether every one has a value there,
+    // and how many items hold it.
+    let mut sums: BTreeMap<Period, (f64, bool, usize)> = BTreeMap::new();
+    for item in items {
+        for (period, value) in item.periods.iter().zip(&item.values) {
+            let entry = sums.entry(*period).or_insert((0.0, true, 0));
+            match value {
+                Some(v) => entry.0 += v,
+                None => entry.1 = false,
+            }
+            entry.2 += 1;
+        }
+    }
+    let compared: Vec<(&Period, f64)> = sums
+        .iter()
+        .filter(|(_, (_, complete, holders))| *complete && *holders >= 3)
+        .map(|(p, (sum, _, _))| (p, *sum))
+        .collect();
+    if compared.len() < PERIODS_COMPARED || compared.iter().all(|(_, sum)| *sum == 0.0) {
+        return None;
+    }
+    let is_total = |item: &Item| {
+        if item.periods.len() != sums.len() {
+            return false;
+        }
+        let at: BTreeMap<&Period, f64> = item
+            .periods
+            .iter()
+            .zip(&item.values)
+            .filter_map(|(p, v)| v.map(|v| (p, v)))
+            .collect();
+        compared.iter().all(|(p, sum)| {
+            at.get(p)
+                .is_some_and(|v| (2.0 * v - sum).abs() <= 1e-9 * sum.abs().max(1.0))
+        })
+    };
+    let mut found = items.iter().enumerate().filter(|(_, item)| is_total(item));
+    match (found.next(), found.next()) {
+        (Some((i, _)), None) => Some(i),
+        _ => None,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn item(name: &str, start: i32, values: &[Option<f64>]) -> Item {
+        Item {
+            name: name.to_string(),
+            periods: (0..values.len())
+                .map(|i| Period::year(start + i as i32))
+                .collect(),
+            values: values.to_vec(),
+        }
+    }
+
+    fn check(items: &[Item], expected: Option<&str>) {
+        let found = total_among(items).map(|i| items[i].name.as_str());
+        assert_eq!(found, expected);
+    }
+
+    // Arithmetic checks: 5 + 3 = 8, 6 + 4 = 10, 7 + 2 = 9.
+    #[test]
+    fn the_sum_of_the_others_is_found() {
+        let a = item("north", 2020, &[Some(5.0), Some(6.0), Some(7.0)]);
+        let b = item("south", 2020, &[Some(3.0), Some(4.0), Some(2.0)]);
+        let total = item("total", 2020, &[Some(8.0), Some(10.0), Some(9.0)]);
+        check(&[a.clone(), b.clone(), total.clone()], Some("total"));
+        // Decimals whose binary sums are not exact: 0.1 + 0.2.
+        let c = item("c", 2020, &[Some(0.1), Some(0.1), Some(0.1)]);
+        let d = item("d", 2020, &[Some(0.2), Some(0.2), Some(0.2)]);
+        let e = item("e", 2020, &[Some(0.3), Some(0.3), Some(0.3)]);
+        check(&[c, d, e], Some("e"));
+        // Two items only: one equal to the other is no total.
+        check(&[a.clone(), a.clone()], None);
+        // Off by one in one period: no total.
+        let near = item("total", 2020, &[Some(8.0), Some(10.0), Some(10.0)]);
+        check(&[a.clone(), b.clone(), near], None);
+        // Two periods compared are too few.
+        let short = |name: &str, v: &[f64]| {
+            item(name, 2020, &v.iter().map(|x| Some(*x)).collect::<Vec<_>>())
+        };
+        check(
+            &[
+                short("a", &[5.0, 6.0]),
+                short("b", &[3.0, 4.0]),
+                short("t", &[8.0, 10.0]),
+            ],
+            None,
+        );
+        // All zero: every item would be "the sum of the others".
+        check(
+            &[
+                short("a", &[0.0; 4]),
+                short("b", &[0.0; 4]),
+                short("c", &[0.0; 4]),
+            ],
+            None,
+        );
+        // A total that misses a period another item holds is no total.
+        let later = item("west", 2021, &[Some(1.0), Some(1.0), Some(1.0)]);
+        let partial = item("total", 2020, &[Some(8.0), Some(11.0), Some(10.0)]);
+        check(&[a, b, later, partial], None);
+    }
+
+    // A gap leaves its period out of the comparison; the other periods still decide.
+    #[test]
+    fn gaps_are_not_compared() {
+        let a = item("a", 2020, &[Some(5.0), None, Some(7.0), Some(1.0)]);
+        let b = item("b", 2020, &[Some(3.0), Some(4.0), Some(2.0), Some(1.0)]);
+        let t = item("t", 2020, &[Some(8.0), Some(99.0), Some(9.0), Some(2.0)]);
+        check(&[a, b, t], Some("t"));
+    }
+}

@@ -1,0 +1,363 @@
+//! Shapes that tables exported from other programs take, each once silently misread (found
+//! on 2026-12-03 and 2026-12-04 by writing such files and reading the report): a year column
+//! beside a month, quarter or week column; an index written beside the data; a header repeated
+//! where exports were joined; a total beside the items it adds up. Each test failed before its
+//! fix, but the first (year and month numbers, read since the day before) and the guard that
+//! nothing is joined without the header's words. The rule they hold intake to: a number that drives an order is right or absent, and
+//! every reinterpretation is said in a warning.
+//!
+//! Kept apart from: the misreads of mutated files (`misreads`) and the formats read on clean
+//! files (`formats`).
+
+use morrowcast_engine::calendar::Frequency;
+use morrowcast_engine::intake::{read, Layout};
+
+use super::expect::{check, some, Expect};
+
+const MONTHS: [&str; 12] = [
+    "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+];
+
+/// `header` and one row per (year, part, value).
+fn table(header: &str, rows: &[(u32, &str, f64)]) -> String {
+    let mut text = format!("{header}\n");
+    for (year, part, value) in rows {
+        text.push_str(&format!("{year},{part},{value}\n"));
+    }
+    text
+}
+
+// A year column and a month-number column (`year,month,sales` had been read as yearly,
+// "month" planned as an item, every repeated year refused) make one monthly period; a bad
+// month is an error at its row that names both cells.
+#[test]
+fn a_year_and_a_month_column_make_one_period() {
+    check(
+        "year,month,sales\n2023,11,5\n2023,12,6\n2024,1,7\n2024,2,8\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            periods: Some(vec!["2023-11", "2023-12", "2024-01", "2024-02"]),
+            layout: Some(Layout::Single),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    check(
+        "store,year,month,sales\n1,2024,1,5\n1,2024,2,6\n2,2024,1,7\n2,2024,2,8\n",
+        Expect {
+            items: Some(vec![("1", some(&[5.0, 6.0])), ("2", some(&[7.0, 8.0]))]),
+            warned: vec![vec!["\"store\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    check(
+        "year,month,sales\n2023,11,5\n2023,13,6\n2024,1,7\n2024,2,8\n",
+        Expect {
+            errors: vec![(3, "year", "2023-13")],
+            ..Expect::default()
+        },
+    );
+}
+
+// Month names beside a year (`year,month,sales` with Jan, Feb, ...) had been read as twelve
+// yearly items, "Jan" to "Dec", with no warning. Now one monthly item, with names short or
+// long; one year of names (never repeating, so taken for the periods before) too.
+#[test]
+fn month_names_beside_a_year_make_one_monthly_period() {
+    let rows: Vec<(u32, &str, f64)> = (0..15)
+        .map(|i| (2023 + i / 12, MONTHS[i as usize % 12], f64::from(10 + i)))
+        .collect();
+    let values: Vec<f64> = (0..15).map(|i| f64::from(10 + i)).collect();
+    let report = check(
+        &table("Year,Month,Units", &rows),
+        Expect {
+            items: Some(vec![("Units", some(&values))]),
+            layout: Some(Layout::Single),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items[0].periods[12].to_string(), "2024-01");
+    assert!(
+        report
+            .date_format
+            .as_deref()
+            .is_some_and(|d| d.contains("from the columns \"Year\" and \"Month\"")),
+        "{:?}",
+        report.date_format
+    );
+    check(
+        "year,month,sales\n2024,January,5\n2024,February,6\n2024,March,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            periods: Some(vec!["2024-01", "2024-02", "2024-03"]),
+            ..Expect::default()
+        },
+    );
+    // Stores by name beside them: a long table of monthly items.
+    check(
+        "store,year,month,sales\nNorth,2024,Jan,5\nNorth,2024,Feb,6\nSouth,2024,Jan,7\nSouth,2024,Feb,8\n",
+        Expect {
+            items: Some(vec![("North", some(&[5.0, 6.0])), ("South", some(&[7.0, 8.0]))]),
+            layout: Some(Layout::Long),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    // A misspelt month is an error at its row, showing the year and the month.
+    check(
+        "year,month,sales\n2024,Jan,5\n2024,Fbr,6\n2024,Mar,7\n2024,Apr,8\n",
+        Expect {
+            errors: vec![(3, "year", "2024 Fbr")],
+            ..Expect::default()
+        },
+    );
+}
+
+// A quarter column beside a year (`year,quarter,sales`: numbers had been refused as repeated
+// years; `Q1` had made four yearly items, silently) makes one quarterly period.
+#[test]
+fn quarters_beside_a_year_make_one_quarterly_period() {
+    for quarters in [["1", "2", "3", "4"], ["Q1", "Q2", "Q3", "Q4"]] {
+        let rows: Vec<(u32, &str, f64)> = (0..6)
+            .map(|i| (2023 + i / 4, quarters[i as usize % 4], f64::from(20 + i)))
+            .collect();
+        check(
+            &table("year,quarter,sales", &rows),
+            Expect {
+                items: Some(vec![("sales", some(&[20.0, 21.0, 22.0, 23.0, 24.0, 25.0]))]),
+                periods: Some(vec![
+                    "2023-Q1", "2023-Q2", "2023-Q3", "2023-Q4", "2024-Q1", "2024-Q2",
+                ]),
+                frequency: Some(Frequency::Quarterly),
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "year,qtr,sales\n2023,4,5\n2023,5,6\n2024,1,7\n2024,2,8\n",
+        Expect {
+            errors: vec![(3, "year", "2023-Q5")],
+            ..Expect::default()
+        },
+    );
+}
+
+// A week column beside a year (`year,week,sales`, refused before as repeated years) is read
+// as ISO 8601 weeks; a week the ISO year does not have is an error at its row (2025 has 52).
+#[test]
+fn weeks_beside_a_year_are_iso_weeks() {
+    let report = check(
+        "year,week,sales\n2024,51,5\n2024,52,6\n2025,1,7\n2025,2,8\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            periods: Some(vec!["2024-W51", "2024-W52", "2025-W01", "2025-W02"]),
+            frequency: Some(Frequency::Weekly),
+            ..Expect::default()
+        },
+    );
+    assert!(report
+        .date_format
+        .as_deref()
+        .is_some_and(|d| d.contains("ISO weeks")));
+    check(
+        "year,week,sales\n2025,51,5\n2025,52,6\n2025,53,7\n2026,1,8\n",
+        Expect {
+            errors: vec![(4, "year", "2025-W53")],
+            ..Expect::default()
+        },
+    );
+}
+
+// A day column beside a year and a month (`year,month,day,sales`) makes daily dates; it had
+// been planned as an item, with every month refused as repeated.
+#[test]
+fn a_day_beside_a_year_and_a_month_makes_a_date() {
+    let report = check(
+        "year,month,day,sales\n2024,1,30,5\n2024,1,31,6\n2024,2,1,7\n2024,2,2,8\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            periods: Some(vec!["2024-01-30", "2024-01-31", "2024-02-01", "2024-02-02"]),
+            frequency: Some(Frequency::Daily),
+            ..Expect::default()
+        },
+    );
+    assert!(report
+        .date_format
+        .as_deref()
+        .is_some_and(|d| d.contains("\"year\", \"month\" and \"day\"")));
+    check(
+        "year,month,day,sales\n2024,Feb,28,5\n2024,Feb,29,6\n2024,Feb,30,7\n2024,Mar,1,8\n",
+        Expect {
+            errors: vec![(4, "year", "30 Feb 2024")],
+            ..Expect::default()
+        },
+    );
+}
+
+// A fiscal year beside months is refused at the header: read as calendar years, the months of
+// one fiscal year, spanning two calendar years, would be put in the wrong order.
+#[test]
+fn a_fiscal_year_beside_months_is_refused() {
+    for header in [
+        "fiscal_year,month,sales",
+        "FY,month,sales",
+        "Financial year,month,sales",
+    ] {
+        let text = format!("{header}\n2024,Jul,5\n2024,Aug,6\n2024,Sep,7\n");
+        let report = read(&text);
+        if header.starts_with("FY") {
+            // "FY" alone does not say year: nothing is joined, and the months stay unread
+            // periods of their own, not a calendar misread.
+            assert!(report
+                .date_format
+                .is_none_or(|d| !d.contains("from the columns")));
+            continue;
+        }
+        assert_eq!(report.errors.len(), 1, "{header}: {:?}", report.errors);
+        let error = &report.errors[0];
+        assert_eq!(error.row, 1);
+        assert!(error.message.contains("fiscal year"), "{}", error.message);
+        assert!(report.items.is_empty());
+    }
+}
+
+// Without the header's words nothing is joined: a period named otherwise stays as before.
+#[test]
+fn a_year_beside_other_numbers_is_not_joined() {
+    let report = read("t,year,period,time,value\n1,1949,1,1949.0,112\n2,1949,2,1949.083,118\n");
+    assert_eq!(report.layout, Layout::Wide);
+    assert!(report
+        .date_format
+        .is_none_or(|d| !d.contains("from the columns")));
+}
+
+// An index written beside the data by a data tool (a blank header over 0, 1, 2, ...) had been
+// planned as an item ("column 1"), and with two columns the header was taken for a title. Now
+// the blank corner is a header; beside dated rows the index is left out as row numbers, with
+// a warning; without dates it numbers the periods, from 0.
+#[test]
+fn an_index_written_beside_the_data_is_not_an_item() {
+    check(
+        ",sales\n0,5\n1,6\n2,7\n3,9\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 9.0]))]),
+            periods: Some(vec!["0", "1", "2", "3"]),
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    for header in [",date,sales", "Unnamed: 0,date,sales"] {
+        check(
+            &format!("{header}\n0,2023-01,5\n1,2023-02,6\n2,2023-03,7\n3,2023-04,9\n"),
+            Expect {
+                items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 9.0]))]),
+                warned: vec![vec!["read as row numbers"]],
+                layout: Some(Layout::Single),
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        ",north,south\n0,5,3\n1,6,3\n2,7,3\n",
+        Expect {
+            items: Some(vec![
+                ("north", some(&[5.0, 6.0, 7.0])),
+                ("south", some(&[3.0; 3])),
+            ]),
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    // A blank header over quantities that do not count the rows one by one stays an item.
+    check(
+        "month,north,,south\n2023-01,5,12,3\n2023-02,6,9,3\n2023-03,7,15,3\n",
+        Expect {
+            items: Some(vec![
+                ("north", some(&[5.0, 6.0, 7.0])),
+                ("column 3", some(&[12.0, 9.0, 15.0])),
+                ("south", some(&[3.0; 3])),
+            ]),
+            ..Expect::default()
+        },
+    );
+}
+
+// Numbered periods counting from 0 (`series,t,value` with t = 0, 1, ...) had left the table
+// wide: "series", "t" and "value" planned as three items.
+#[test]
+fn numbered_periods_may_count_from_zero() {
+    check(
+        "series,t,value\n1,0,56\n1,1,72\n1,2,61\n2,0,9\n2,1,11\n2,2,10\n",
+        Expect {
+            items: Some(vec![
+                ("1", some(&[56.0, 72.0, 61.0])),
+                ("2", some(&[9.0, 11.0, 10.0])),
+            ]),
+            periods: Some(vec!["0", "1", "2"]),
+            warned: vec![vec!["\"series\"", "item codes"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+}
+
+// A header repeated further down (files joined from several exports) had made the first line
+// data: no header, "month" an error twice. Now the repeats are skipped, with a warning.
+#[test]
+fn a_repeated_header_is_skipped_with_a_warning() {
+    check(
+        "month,units\n2023-01,5\n2023-02,6\nmonth,units\n2023-03,7\n2023-04,8\nmonth,units\n2023-05,9\n",
+        Expect {
+            items: Some(vec![("units", some(&[5.0, 6.0, 7.0, 8.0, 9.0]))]),
+            warned: vec![vec!["lines 4, 7 repeat the header", "skipped"]],
+            ..Expect::default()
+        },
+    );
+}
+
+// A total beside the items it adds up (a "total" column; "All items" rows) had been planned as
+// one more item, its demand ordered a second time. Now it is left out with a warning naming it.
+#[test]
+fn a_total_of_the_other_items_is_left_out() {
+    check(
+        "month,north,south,total\n2023-01,5,3,8\n2023-02,6,4,10\n2023-03,7.5,2.25,9.75\n",
+        Expect {
+            items: Some(vec![
+                ("north", some(&[5.0, 6.0, 7.5])),
+                ("south", some(&[3.0, 4.0, 2.25])),
+            ]),
+            warned: vec![vec!["\"total\"", "sum of the other items", "left out"]],
+            ..Expect::default()
+        },
+    );
+    let mut long = String::from("item,month,units\n");
+    for (item, values) in [
+        ("Oak tray", [5, 6, 7]),
+        ("Seed tin", [3, 4, 2]),
+        ("All items", [8, 10, 9]),
+    ] {
+        for (m, v) in values.iter().enumerate() {
+            long.push_str(&format!("{item},2023-0{},{v}\n", m + 1));
+        }
+    }
+    check(
+        &long,
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Seed tin", some(&[3.0, 4.0, 2.0])),
+            ]),
+            warned: vec![vec!["\"All items\"", "left out"]],
+            ..Expect::default()
+        },
+    );
+    // Off in one period: an item like the others, planned.
+    let report = read("month,north,south,total\n2023-01,5,3,8\n2023-02,6,4,10\n2023-03,7,2,10\n");
+    assert_eq!(report.items.len(), 3);
+    assert!(report
+        .warnings
+        .iter()
+        .all(|w| !w.contains("sum of the other")));
+}
