@@ -361,3 +361,105 @@ fn a_total_of_the_other_items_is_left_out() {
         .iter()
         .all(|w| !w.contains("sum of the other")));
 }
+
+// Periods across the header, one row per item (`item,2023-01,2023-02,...`), the shape of many
+// sales reports, had been an error on every row ("item", each item name, read as periods).
+// Now each row is an item; a header column that names no period is left out with a warning,
+// a missing month is a gap, a bad value an error under its period's header, an item named on
+// two rows an error at the second, and a total row (the sum of the others) is left out.
+#[test]
+fn periods_across_the_header_make_one_item_per_row() {
+    check(
+        "Sales by month\nsku,name,2023-01,2023-02,2023-04,Total\nA1,Oak tray,5,6,8,19\nA2,Seed tin,3,,2,5\nA3,Rain gauge,x,4,2,6\nA1,Oak tray,1,1,1,3\n",
+        Expect {
+            errors: vec![(5, "2023-01", "x"), (6, "sku", "A1 / Oak tray")],
+            items: Some(vec![
+                ("A1 / Oak tray", vec![Some(5.0), Some(6.0), None, Some(8.0)]),
+                ("A2 / Seed tin", vec![Some(3.0), None, None, Some(2.0)]),
+                ("A3 / Rain gauge", vec![None, Some(4.0), None, Some(2.0)]),
+            ]),
+            periods: Some(vec!["2023-01", "2023-02", "2023-03", "2023-04"]),
+            warned: vec![
+                vec!["\"Total\"", "not used", "names no period"],
+                vec!["missing period", "2023-03"],
+                vec!["title"],
+            ],
+            layout: Some(Layout::Across),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    // A blank corner; a total row.
+    check(
+        ",Jan 2023,Feb 2023,Mar 2023\nOak tray,5,6,7\nSeed tin,3,4,2\nAll items,8,10,9\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Seed tin", some(&[3.0, 4.0, 2.0])),
+            ]),
+            warned: vec![vec!["\"All items\"", "sum of the other items", "left out"]],
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+    // Years across, month names across, columns out of time order.
+    check(
+        "item,2021,2022,2023\nOak tray,50,60,70\nSeed tin,30,40,20\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[50.0, 60.0, 70.0])),
+                ("Seed tin", some(&[30.0, 40.0, 20.0])),
+            ]),
+            layout: Some(Layout::Across),
+            frequency: Some(Frequency::Yearly),
+            ..Expect::default()
+        },
+    );
+    check(
+        "product;Mar 2023;Jan 2023;Feb 2023\nOak tray;7;5;6\n",
+        Expect {
+            items: Some(vec![("Oak tray", some(&[5.0, 6.0, 7.0]))]),
+            periods: Some(vec!["2023-01", "2023-02", "2023-03"]),
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+    // A mistyped period in the header is an error at the header, under its column.
+    check(
+        "item,2023-01,2023-02,2023-13\nOak tray,5,6,7\n",
+        Expect {
+            errors: vec![(1, "2023-13", "2023-13")],
+            items: Some(vec![("Oak tray", some(&[5.0, 6.0]))]),
+            ..Expect::default()
+        },
+    );
+    // Rows that each hold two dates are rows of a long table, not a header across.
+    let report = read("fair,2023-01-05,2023-01-09,5\nshow,2023-02-05,2023-02-09,6\n");
+    assert_ne!(report.layout, Layout::Across);
+}
+
+// A grid of years across and months down (`month,2022,2023` over Jan, Feb, ...) would make
+// each month an item of yearly values: refused at the header, saying how to write it.
+#[test]
+fn a_grid_of_years_and_months_is_refused() {
+    for text in [
+        "month,2022,2023\nJan,5,6\nFeb,7,8\nMar,9,9\n",
+        "week,2022,2023\n1,5,6\n2,7,8\n3,9,9\n",
+        ",2022,2023\nQ1,5,6\nQ2,7,8\nQ3,9,9\n",
+    ] {
+        let report = read(text);
+        assert_eq!(report.errors.len(), 1, "{text}: {:?}", report.errors);
+        assert_eq!(report.errors[0].row, 1);
+        assert!(report.errors[0].message.contains("one row per item"));
+        assert!(report.items.is_empty());
+    }
+    // Item numbers down and years across are items.
+    check(
+        "sku,2022,2023\n12,5,6\n13,7,8\n",
+        Expect {
+            items: Some(vec![("12", some(&[5.0, 6.0])), ("13", some(&[7.0, 8.0]))]),
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+}

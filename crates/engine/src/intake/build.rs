@@ -30,6 +30,7 @@ use super::period::read_periods;
 use super::table::{overflow, Plan, Table};
 use super::text::Record;
 
+mod across;
 mod long;
 use super::{DecimalMark, Item, Layout, RowError};
 use crate::calendar::{Frequency, Period};
@@ -150,9 +151,12 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         ));
     }
     for &j in &plan.ignored {
+        let why = match plan.layout {
+            Layout::Across => "its header names no period",
+            _ => "a long table reads one item, one period and one quantity column",
+        };
         b.out.warnings.push(format!(
-            "column \"{}\" was not used: a long table reads one item, one period and one \
-             quantity column",
+            "column \"{}\" was not used: {why}",
             table.column_name(j)
         ));
     }
@@ -221,6 +225,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     });
     match (plan.layout, column) {
         (Layout::Long, column) => b.long(&kept, column.as_ref()),
+        (Layout::Across, _) => b.across(&kept),
         (_, Some(col)) => {
             let entries = kept
                 .iter()

@@ -13,7 +13,8 @@
 //!    order; a one-column text is reported as comma), split into records with RFC 4180 quotes,
 //!    LF, CRLF or lone CR line ends, and exact line numbers, in at most two passes whatever the
 //!    quotes.
-//! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long);
+//! 2. `table`: title lines, header, and column roles, which fix the layout (single, wide, long;
+//!    `across`: one row per item, the periods across the header);
 //!    the header and layout rules are in that module's doc; `joined`: a period written across
 //!    a year column and a month, quarter or week column (and a day).
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
@@ -24,7 +25,8 @@
 //! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
 //!    from all rows (the ambiguity rule is in `order`'s doc), the frequency the dates imply, and
 //!    the periods refused as likely typos.
-//! 5. `build`: one item per value column (single, wide) or per item name (long), with a
+//! 5. `build`: one item per value column (single, wide), per item name (long) or per row
+//!    (across), with a
 //!    regular run of periods, gaps as `None`, sorted rows, summed or rejected duplicates.
 //! 6. `totals`: an item that is the sum of all the others in every period is left out.
 //!
@@ -88,6 +90,7 @@
 //! blank lines all count, a quoted cell spanning lines counts every line, and LF, CRLF and a
 //! lone CR each end a line (in errors of undecodable bytes too).
 
+mod across;
 mod build;
 mod dates;
 mod decode;
@@ -161,14 +164,17 @@ pub enum Layout {
     Wide,
     /// One row per item and period: item, period, quantity.
     Long,
+    /// One row per item, one column per period: the periods run across the header.
+    Across,
 }
 impl Layout {
-    /// "single", "wide" or "long".
+    /// "single", "wide", "long" or "across".
     pub fn as_str(self) -> &'static str {
         match self {
             Layout::Single => "single",
             Layout::Wide => "wide",
             Layout::Long => "long",
+            Layout::Across => "across",
         }
     }
 }

@@ -72,6 +72,9 @@ pub(crate) struct Table {
     /// Lines further down that repeat the header cell for cell (files joined from several
     /// exports): left out of the rows; the report says so.
     pub repeated_headers: Vec<usize>,
+    /// Whether the header runs across: its cells past the item columns are periods
+    /// ([`super::across`]).
+    pub across: bool,
     pub rows: Vec<Record>,
     pub width: usize,
 }
@@ -231,11 +234,17 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     let window: Vec<usize> = non_blank.iter().take(HEADER_SEARCH).copied().collect();
     let header_like_at =
         |i: &&usize| header_like(&records[**i], mode_width) && !repeats_below(&records, **i);
-    let data_at = window.iter().position(|i| data_like(&records[*i]));
+    // A header of periods reads as data here: it is looked for first.
+    let across_at = super::across::header_at(&records, &window, data_like);
+    let data_at = match across_at {
+        Some(k) => Some(k + 1),
+        None => window.iter().position(|i| data_like(&records[*i])),
+    };
     let above = &window[..data_at.unwrap_or(window.len())];
-    let header_at = match data_at {
-        Some(_) if mode_width >= 2 => above.iter().rfind(header_like_at),
-        _ => above.iter().find(header_like_at),
+    let header_at = match (across_at, data_at) {
+        (Some(k), _) => Some(&window[k]),
+        (None, Some(_)) if mode_width >= 2 => above.iter().rfind(header_like_at),
+        (None, _) => above.iter().find(header_like_at),
     }
     .copied();
     // Without a header the data starts at the first record that reads as data in part.
@@ -287,6 +296,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         titles,
         header,
         repeated_headers,
+        across: across_at.is_some(),
         rows: rest,
         width,
     }
@@ -330,6 +340,9 @@ enum Role {
 
 /// Decides the column roles. `Err` when no column holds values.
 pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
+    if table.across {
+        return super::across::plan(table);
+    }
     let rows = table.fitting_rows();
     let roles: Vec<Role> = (0..table.width)
         .map(|j| {
