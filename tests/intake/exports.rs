@@ -227,10 +227,89 @@ fn a_fiscal_year_beside_months_is_refused() {
 #[test]
 fn a_year_beside_other_numbers_is_not_joined() {
     let report = read("t,year,period,time,value\n1,1949,1,1949.0,112\n2,1949,2,1949.083,118\n");
-    assert_eq!(report.layout, Layout::Wide);
     assert!(report
         .date_format
         .is_none_or(|d| !d.contains("from the columns")));
+}
+
+// Two-digit years beside months join as the period reader takes two-digit years (1969 to
+// 2068); `year,month,sales` with 23, 24 had made three undated items.
+#[test]
+fn two_digit_years_join_too() {
+    check(
+        "year,month,sales\n23,11,5\n23,12,6\n24,1,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            periods: Some(vec!["2023-11", "2023-12", "2024-01"]),
+            ..Expect::default()
+        },
+    );
+}
+
+// Calendar details beside the period (found by a review on 2026-12-03): weekday names had
+// made items ("Mon", "Tue"), a year column beside full month labels had been planned as an
+// item "year", a month number beside a date as an item "month". Now they are left out with a
+// warning; names of months or weekdays with no period to place them are an error.
+#[test]
+fn calendar_details_are_neither_items_nor_quantities() {
+    check(
+        "date,day,item,sales\n2023-01-02,Mon,Oak tray,5\n2023-01-03,Tue,Oak tray,6\n2023-01-02,Mon,Seed tin,7\n2023-01-03,Tue,Seed tin,8\n",
+        Expect {
+            items: Some(vec![("Oak tray", some(&[5.0, 6.0])), ("Seed tin", some(&[7.0, 8.0]))]),
+            warned: vec![vec!["\"day\"", "calendar details", "not used"]],
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    check(
+        "year,month,sales\n2023,2023-01,5\n2023,2023-02,6\n2023,2023-03,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            warned: vec![vec!["\"year\"", "calendar details"]],
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    check(
+        "date,month,sales\n2023-01-31,1,5\n2023-02-28,2,6\n2023-03-31,3,7\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0]))]),
+            warned: vec![vec!["\"month\"", "calendar details"]],
+            ..Expect::default()
+        },
+    );
+    let report = read("month,sales\nJan,5\nFeb,6\nMar,7\nJan,8\nFeb,9\n");
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    assert!(report.errors[0].message.contains("with their years"));
+    assert!(report.items.is_empty());
+}
+
+// Numbers counting up under an item's name are that item's demand, not the periods (a review
+// found `Oak tray,Seed tin` over 0,5 / 1,6 / ... read as one item, Oak tray gone); a headerless
+// column counting from 0 is demand too; from 1 it still numbers the periods.
+#[test]
+fn numbers_counting_up_under_a_name_are_demand() {
+    check(
+        "Oak tray,Seed tin\n0,5\n1,6\n2,4\n3,7\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[0.0, 1.0, 2.0, 3.0])),
+                ("Seed tin", some(&[5.0, 6.0, 4.0, 7.0])),
+            ]),
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    let report = read("0,5\n1,6\n3,4\n4,7\n");
+    assert_eq!(report.items.len(), 2, "{:?}", report.items);
+    check(
+        "1,5\n2,6\n3,4\n",
+        Expect {
+            items: Some(vec![("Series 1", some(&[5.0, 6.0, 4.0]))]),
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
 }
 
 // An index written beside the data by a data tool (a blank header over 0, 1, 2, ...) had been
@@ -270,7 +349,16 @@ fn an_index_written_beside_the_data_is_not_an_item() {
             ..Expect::default()
         },
     );
-    // A blank header over quantities that do not count the rows one by one stays an item.
+    // An index of rows picked from a longer table still increases: row numbers.
+    check(
+        ",date,sales\n0,2023-01,5\n1,2023-02,6\n3,2023-03,7\n4,2023-04,8\n",
+        Expect {
+            items: Some(vec![("sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            warned: vec![vec!["read as row numbers"]],
+            ..Expect::default()
+        },
+    );
+    // A blank header over quantities that is not the first column stays an item.
     check(
         "month,north,,south\n2023-01,5,12,3\n2023-02,6,9,3\n2023-03,7,15,3\n",
         Expect {
@@ -353,13 +441,39 @@ fn a_total_of_the_other_items_is_left_out() {
             ..Expect::default()
         },
     );
-    // Off in one period: an item like the others, planned.
+    // Off in one period: an item like the others, planned, with a warning for its name.
     let report = read("month,north,south,total\n2023-01,5,3,8\n2023-02,6,4,10\n2023-03,7,2,10\n");
     assert_eq!(report.items.len(), 3);
     assert!(report
         .warnings
         .iter()
         .all(|w| !w.contains("sum of the other")));
+    assert!(report
+        .warnings
+        .iter()
+        .any(|w| w.contains("\"total\" is named like a total") && w.contains("planned")));
+    // An exact sum under an item's own name is kept, with a warning: sparse items can add up
+    // by chance, and a real item must not vanish on a coincidence.
+    check(
+        "month,Oak tray,Seed tin,Rain gauge\n2023-01,5,3,8\n2023-02,6,4,10\n2023-03,7,2,9\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Seed tin", some(&[3.0, 4.0, 2.0])),
+                ("Rain gauge", some(&[8.0, 10.0, 9.0])),
+            ]),
+            warned: vec![vec![
+                "\"Rain gauge\"",
+                "sum of the other items",
+                "planned as an item",
+            ]],
+            ..Expect::default()
+        },
+    );
+    // Periods without demand prove nothing: two with demand are too few.
+    let report =
+        read("month,a,b,total\n2023-01,0,0,0\n2023-02,1,0,1\n2023-03,0,2,2\n2023-04,0,0,0\n");
+    assert_eq!(report.items.len(), 3);
 }
 
 // Periods across the header, one row per item (`item,2023-01,2023-02,...`), the shape of many
@@ -424,12 +538,29 @@ fn periods_across_the_header_make_one_item_per_row() {
             ..Expect::default()
         },
     );
-    // A mistyped period in the header is an error at the header, under its column.
+    // A period of another kind in the header is an error at the header, under its column; a
+    // word with a year ("Total 2023") is left out with a warning.
     check(
-        "item,2023-01,2023-02,2023-13\nOak tray,5,6,7\n",
+        "item,Jan 2023,Feb 2023,Q1 2023,Total 2023\nOak tray,5,6,11,11\n",
         Expect {
-            errors: vec![(1, "2023-13", "2023-13")],
+            errors: vec![(1, "Q1 2023", "Q1 2023")],
             items: Some(vec![("Oak tray", some(&[5.0, 6.0]))]),
+            warned: vec![vec!["\"Total 2023\"", "names no period"]],
+            ..Expect::default()
+        },
+    );
+    // A cell of digits that is no period makes the record data: with a mistyped month the
+    // header is not read across, and errors say where reading stopped.
+    let report = read("item,2023-01,2023-02,2023-13\nOak tray,5,6,7\n");
+    assert!(!report.errors.is_empty());
+    assert!(report.items.iter().all(|i| i.name != "Oak tray"));
+    // Under a header of names, rows holding dates and a quantity are a long table (a review
+    // found the first such row taken for a header across when the next row lacked a date).
+    check(
+        "item,ordered,delivered,qty\nOak tray,2023-01-03,2023-01-10,5\nSeed tin,2023-01-05,,6\nOak tray,2023-01-04,2023-01-11,7\n",
+        Expect {
+            warned: vec![vec!["\"delivered\"", "not used"]],
+            layout: Some(Layout::Long),
             ..Expect::default()
         },
     );
@@ -444,8 +575,13 @@ fn periods_across_the_header_make_one_item_per_row() {
 fn a_grid_of_years_and_months_is_refused() {
     for text in [
         "month,2022,2023\nJan,5,6\nFeb,7,8\nMar,9,9\n",
+        "month,2022,2023,Total\nJan,5,6,11\nFeb,7,8,15\nMar,9,9,18\n",
         "week,2022,2023\n1,5,6\n2,7,8\n3,9,9\n",
+        "Period,2022,2023\n1,5,6\n2,7,8\n3,9,9\n",
         ",2022,2023\nQ1,5,6\nQ2,7,8\nQ3,9,9\n",
+        ",2022,2023\n1,5,6\n2,7,8\n3,9,9\n",
+        "week,2022,2023\nW01,5,6\nW02,7,8\nW03,9,9\n",
+        "item,month,2022,2023\nOak tray,Jan,5,6\nOak tray,Feb,7,8\nSeed tin,Jan,9,9\n",
     ] {
         let report = read(text);
         assert_eq!(report.errors.len(), 1, "{text}: {:?}", report.errors);

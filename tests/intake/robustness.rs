@@ -1355,12 +1355,24 @@ fn johnson_johnson_with_decimal_commas_reads_back() {
 }
 
 // The committed file itself (`t,year,period,time,value`): the index column t gives positions,
-// the four other numeric columns are a wide table; "value" is the series as published.
+// the columns named only as periods (year, period, time) are calendar details, left out with
+// a warning each; "value" is the series as published.
 #[test]
 fn air_passengers_file_as_committed() {
     let report = read(&fixture_text("AirPassengers.csv"));
     assert!(report.errors.is_empty(), "{:?}", report.errors);
-    assert_eq!(report.layout, Layout::Wide);
+    assert_eq!(report.layout, Layout::Single);
+    assert_eq!(report.items.len(), 1);
+    for column in ["year", "period", "time"] {
+        assert!(
+            report
+                .warnings
+                .iter()
+                .any(|w| w.contains(&format!("\"{column}\" holds calendar details"))),
+            "{column}: {:?}",
+            report.warnings
+        );
+    }
     assert_eq!(report.frequency, Frequency::Undated);
     let value = report.items.iter().find(|i| i.name == "value").unwrap();
     assert_eq!(value.values.len(), 144);

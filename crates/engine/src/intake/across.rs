@@ -1,9 +1,9 @@
 //! Periods across the header: one row per item, one column per period (`item,2023-01,
 //! 2023-02,...`), the shape of many sales reports. The header's first cells name the item
-//! columns; from the first cell that reads as a period on, each column whose header holds a
-//! digit is a period column (a header that does not read as a period is an error at the
-//! header line, in [`super::build`]), and one without a digit ("Total") is not used, with a
-//! warning.
+//! columns; from the first cell that reads as a period on, each column whose header reads as
+//! a period, or as a period of another kind (an error at the header line, in
+//! [`super::build`]), is a period column, and one whose header is a word ("Total", "Total
+//! 2023") is not used, with a warning.
 //!
 //! Kept apart from: the other layouts ([`super::table`] asks [`header_at`] before its own
 //! header rule, since such a header reads as data there) and building the items (the
@@ -11,15 +11,17 @@
 //! number, period, gap and error rules as the other layouts).
 //!
 //! Rule: a record is a header across when its first cell is not a number or a period (it
-//! names the item column, or is blank), at least two later cells read as periods (one family of labels other than plain
-//! numbers, or four-digit years following each other closely), those are more than half of its
-//! later non-empty cells and all differ, and the next record is data without being such a
+//! names the item column, or is blank), at least two later cells read as periods (one family
+//! of labels other than plain numbers, or four-digit years following each other closely),
+//! those are more than half of its later non-empty cells and all differ, no later cell is
+//! digits that read as no period (a quantity: the record is data), no normal header stands
+//! above it, and the next record is data that starts with no period, without being such a
 //! header itself (a table whose rows each hold two dates is not periods across).
 
-use super::label::{parse_label, Family};
+use super::label::{calendar_name, parse_label, Family};
 use super::number::looks_number;
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
-use super::table::{header_says, whole_number, Plan, Table};
+use super::table::{header_says, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
 use super::text::Record;
 use super::{Layout, RowError};
 
@@ -42,50 +44,95 @@ fn item_columns(record: &Record) -> Option<usize> {
         .copied()
         .filter(|c| !c.is_empty())
         .collect();
-    let labelled = strong_family(&rest).is_some()
-        || integer_meaning(&rest, true) == Some(IntegerMeaning::Years);
-    let mut distinct = rest.clone();
+    // The period cells: labels, or four-digit years. A cell of digits that is neither (a
+    // quantity, "2023-13") makes the record a data row; a word ("Total", "Total 2023") is a
+    // column to leave out.
+    if rest.iter().any(|c| numeric_junk(c)) {
+        return None;
+    }
+    let labels: Vec<&str> = rest.iter().copied().filter(|c| names_period(c)).collect();
+    let periods = strong_family(&labels).is_some()
+        || (labels.iter().all(|c| c.len() == 4 && whole_number(c))
+            && integer_meaning(&labels, true) == Some(IntegerMeaning::Years));
+    let mut distinct = labels.clone();
     distinct.sort_unstable();
     distinct.dedup();
-    (lead >= 1 && rest.len() >= 2 && labelled && distinct.len() == rest.len()).then_some(lead)
+    let mostly = labels.len() * 2 > rest.len();
+    (lead >= 1 && labels.len() >= 2 && periods && mostly && distinct.len() == labels.len())
+        .then_some(lead)
+}
+
+/// A header cell across that names a period: a period label, or a four-digit whole number.
+fn names_period(cell: &str) -> bool {
+    parse_label(cell).is_some_and(|l| l.family() != Family::Integer)
+        || (cell.len() == 4 && whole_number(cell))
+}
+
+/// A cell of digits without letters that names no period: a quantity, or a mistyped period.
+fn numeric_junk(cell: &str) -> bool {
+    cell.bytes().any(|b| b.is_ascii_digit())
+        && !cell.chars().any(char::is_alphabetic)
+        && !names_period(cell)
 }
 
 /// Of `candidates` (indexes into `records`, non-blank, in order), the position of a header
-/// across whose next record is data (see the module doc), given `data_like`, the table's
-/// test of a data record. Only records above any data count.
+/// across whose next record is data not starting with a period (see the module doc), given
+/// the table's tests of a data record and of a header. Only records above any data or header
+/// count: a header of names above rows of dates is no header across.
 pub(crate) fn header_at(
     records: &[Record],
     candidates: &[usize],
     data_like: impl Fn(&Record) -> bool,
+    header_like: impl Fn(&Record) -> bool,
 ) -> Option<usize> {
     for (k, &i) in candidates.iter().enumerate() {
         if item_columns(&records[i]).is_some() {
             let next = candidates.get(k + 1).map(|&n| &records[n]);
-            let data_below = next.is_some_and(|r| data_like(r) && item_columns(r).is_none());
+            let data_below = next.is_some_and(|r| {
+                let first = r.cells.first().map_or("", String::as_str);
+                data_like(r)
+                    && item_columns(r).is_none()
+                    && parse_label(first).is_none_or(|l| l.family() == Family::Integer)
+            });
             return data_below.then_some(k);
         }
-        if data_like(&records[i]) {
+        if data_like(&records[i]) || header_like(&records[i]) {
             return None;
         }
     }
     None
 }
 
-/// Whether a row label names a part of a year rather than an item: a month name, a quarter
-/// (Q1 to Q4), or, when `numbered` (the column's header says month, quarter or week), a whole
-/// number from 1 to 53.
-fn names_part_of_year(cell: &str, numbered: bool) -> bool {
-    let cell = cell.trim();
-    if whole_number(cell) {
-        return numbered && cell.parse::<u32>().is_ok_and(|n| (1..=53).contains(&n));
-    }
-    parse_label(&format!("2000 {cell}"))
-        .is_some_and(|l| matches!(l.family(), Family::Month | Family::Quarter))
+/// Whether the rows of item column `j` name periods rather than items: its header says a
+/// period (date, month, week, ...) and no item, or most of its labels read as periods or
+/// calendar names (Jan, Mon, Q1, W5), or, under a blank or period header, as numbers from 1
+/// to 53 (months, quarters or weeks counted).
+fn rows_are_periods(table: &Table, rows: &[&Record], j: usize) -> bool {
+    let header = table.header.as_ref().and_then(|h| h.cells.get(j));
+    let name = header.map_or("", String::as_str);
+    let period_named = header_says(name, &PERIOD_WORDS) && !header_says(name, &ITEM_WORDS);
+    let numbered = name.trim().is_empty() || period_named;
+    let labels: Vec<&str> = table
+        .column(j, rows)
+        .into_iter()
+        .filter(|c| !c.is_empty())
+        .collect();
+    let periodic = labels
+        .iter()
+        .filter(|c| {
+            calendar_name(c)
+                || parse_label(c).is_some_and(|l| l.family() != Family::Integer)
+                || (numbered
+                    && whole_number(c)
+                    && c.parse::<u32>().is_ok_and(|n| (1..=53).contains(&n)))
+        })
+        .count();
+    period_named || (!labels.is_empty() && periodic * 2 > labels.len())
 }
 
-/// The plan of a table whose header runs across (see the module doc). A grid of years across
-/// and months, quarters or weeks down (`month,2022,2023` over `Jan`, `Feb`, ...) is refused:
-/// read as items it would make twelve yearly items of one item's months.
+/// The plan of a table whose header runs across (see the module doc). Rows that name periods
+/// (`month,2022,2023` over `Jan`, `Feb`, ...: a grid of one item's values) are refused: read
+/// as items they would make each month an item of yearly values.
 pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let header = table
         .header
@@ -94,24 +141,15 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let lead = item_columns(header).unwrap_or(1);
     let header_cell = |j: usize| header.cells.get(j).map_or("", String::as_str);
     let rows = table.fitting_rows();
-    let years_across = header.cells[lead..]
-        .iter()
-        .filter(|c| !c.is_empty())
-        .all(|c| parse_label(c).is_some_and(|l| l.family() == Family::Integer));
-    let labels = table.column(0, &rows);
-    let numbered = header_says(header_cell(0), &["month", "quarter", "qtr", "week", "wk"]);
-    let parts = labels
-        .iter()
-        .filter(|c| names_part_of_year(c, numbered))
-        .count();
-    if years_across && lead == 1 && parts * 2 > labels.len() {
+    if let Some(j) = (0..lead).find(|j| rows_are_periods(table, &rows, *j)) {
         return Err(RowError {
             row: header.line,
-            column: table.column_name(0),
-            text: header_cell(0).to_string(),
-            message: "expected one row per item; here the columns are years and the rows parts \
-                      of a year (months, quarters or weeks) of one item: write one row per \
-                      period (e.g. 2023-01,5), or year, month and quantity columns"
+            column: table.column_name(j),
+            text: header_cell(j).to_string(),
+            message: "expected one row per item below periods across the header; these rows \
+                      name periods (months, weeks, dates, ...), so the table is a grid of one \
+                      item's values: write one row per period (e.g. 2023-01,5), or year, month \
+                      and quantity columns"
                 .to_string(),
         });
     }
@@ -121,7 +159,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let mut empty = Vec::new();
     for j in lead..table.width {
         let cell = header_cell(j);
-        if cell.chars().any(|c| c.is_ascii_digit()) {
+        if names_period(cell) || parse_label(cell).is_some() || numeric_junk(cell) {
             values.push(j);
         } else if holds_values(j) {
             ignored.push(j);
@@ -138,6 +176,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         empty,
         codes: Vec::new(),
         row_numbers: Vec::new(),
+        calendar: Vec::new(),
         split: None,
     })
 }

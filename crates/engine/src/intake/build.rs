@@ -150,6 +150,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             table.column_name(j)
         ));
     }
+    for &j in &plan.calendar {
+        b.out.warnings.push(format!(
+            "column \"{}\" holds calendar details (weekdays, months or other parts of a \
+             period), not items or quantities: not used",
+            table.column_name(j)
+        ));
+    }
     for &j in &plan.ignored {
         let why = match plan.layout {
             Layout::Across => "its header names no period",

@@ -12,7 +12,7 @@
 //! refused: its months fall in two calendar years, and read as calendar months the rows
 //! would be put in the wrong order.
 
-use super::label::{parse_label, Family};
+use super::label::{parse_label, year_of, Family};
 use super::table::{header_says, whole_number, Table, ITEM_WORDS, QUANTITY_WORDS};
 use super::text::Record;
 use super::RowError;
@@ -64,7 +64,7 @@ pub(crate) struct SplitPeriod {
 
 impl SplitPeriod {
     /// Finds a year column (the period column found, or else any of `numbers`) whose header
-    /// says year and whose cells are mostly four-digit years, and another column whose header
+    /// says year and whose cells are mostly years of four digits or two (1969 to 2068), and another column whose header
     /// names a part of a year and whose cells, joined to their row's year, mostly read as that
     /// part's periods; then, beside months, a column named day whose joined cells mostly read
     /// as dates. `Err` for a fiscal year beside such a column.
@@ -97,7 +97,7 @@ impl SplitPeriod {
                     table
                         .column(*j, rows)
                         .iter()
-                        .filter(|c| c.len() == 4 && whole_number(c))
+                        .filter(|c| whole_number(c) && year_of(c).is_some())
                         .count(),
                 )
         }) else {
@@ -172,7 +172,12 @@ impl SplitPeriod {
     /// the year ("2023 Jul", "2023 Q3"); with a day, "2023-07-14" or "14 Jul 2023". The
     /// period reader takes these, or refuses them with the joined text.
     pub(crate) fn label<'a>(&self, cell: impl Fn(usize) -> &'a str) -> String {
-        let year = cell(self.year).trim();
+        let written = cell(self.year).trim();
+        // Two-digit years as the period reader takes them (1969 to 2068).
+        let year = match year_of(written) {
+            Some(y) if written.len() == 2 && whole_number(written) => y.to_string(),
+            _ => written.to_string(),
+        };
         let part = cell(self.part).trim();
         let number = whole_number(part)
             .then(|| part.parse::<u32>().ok())

@@ -162,7 +162,37 @@ fn month_name(word: &str) -> Option<u32> {
         .map(|i| i as u32 + 1)
 }
 
-fn year_of(digits: &str) -> Option<i32> {
+/// Whether a cell names a part of a calendar without a year: a month or weekday name or
+/// abbreviation ("Jan", "March", "Mon", "Thurs"), a quarter (Q1 to Q4) or a week (W1 to W53).
+/// Such a column holds calendar details, not item names.
+pub(crate) fn calendar_name(cell: &str) -> bool {
+    const WEEKDAYS: [&str; 7] = [
+        "monday",
+        "tuesday",
+        "wednesday",
+        "thursday",
+        "friday",
+        "saturday",
+        "sunday",
+    ];
+    let lower = cell.trim().to_lowercase();
+    let numbered = |prefix: char, max: u32| {
+        lower
+            .strip_prefix(prefix)
+            .filter(|n| !n.is_empty() && n.len() <= 2 && n.bytes().all(|b| b.is_ascii_digit()))
+            .and_then(|n| n.parse::<u32>().ok())
+            .is_some_and(|n| (1..=max).contains(&n))
+    };
+    month_name(&lower).is_some()
+        || WEEKDAYS
+            .iter()
+            .any(|day| lower == *day || (lower.len() >= 3 && day.starts_with(lower.as_str())))
+        || numbered('q', 4)
+        || numbered('w', 53)
+}
+
+/// A year written with four digits, or two (1969 to 2068).
+pub(crate) fn year_of(digits: &str) -> Option<i32> {
     match digits.len() {
         4 if !digits.starts_with('0') => digits.parse().ok(),
         2 => {
@@ -274,6 +304,27 @@ fn week(year: i32, week: u32) -> Option<Label> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn calendar_names() {
+        for cell in [
+            "Jan", "january", "Sept", "Mon", "Thurs", "SUNDAY", "Q1", "q4", "W1", "W53",
+        ] {
+            assert!(calendar_name(cell), "{cell}");
+        }
+        for cell in [
+            "Oak tray",
+            "Sunflower seeds",
+            "Q5",
+            "W54",
+            "W",
+            "Mo",
+            "2024",
+            "Q1 2024",
+        ] {
+            assert!(!calendar_name(cell), "{cell}");
+        }
+    }
 
     fn date_of(y: i32, m: u32, d: u32) -> Option<Label> {
         Some(Label::Date {

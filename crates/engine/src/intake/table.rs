@@ -30,7 +30,11 @@
 //!
 //! Layout rule: a column is a period column when more than half of its non-empty cells read as
 //! one family of period labels; failing that, the first column counts when its whole numbers
-//! read as years, row positions or 8- or 6-digit dates ([`super::period::integer_meaning`]). A
+//! read as years, row positions (without a header from 1; under a blank header or one naming
+//! a period or a row's number from 0 or 1; under an item's name never: [`counts_rows`]) or 8-
+//! or 6-digit dates ([`super::period::integer_meaning`]). Calendar details beside the period,
+//! text columns of weekday or month names and number columns named only as periods, are
+//! neither items nor quantities ([`calendar_columns`]): left out with a warning. A
 //! column is a value column when at least half of its cells that hold something (not empty, not
 //! "n/a") read as numbers, or when fewer than half of its rows hold something (an item column
 //! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
@@ -55,7 +59,7 @@
 //! are not taken for items.
 
 use super::joined::SplitPeriod;
-use super::label::Family;
+use super::label::{calendar_name, Family};
 use super::number::{is_missing, looks_number};
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
 use super::text::{mode_of, Record};
@@ -193,7 +197,8 @@ fn repeats_below(records: &[Record], at: usize) -> bool {
     })
 }
 
-/// Whether two records hold the same cells, empty cells at the end aside.
+/// Whether two records hold the same cells, empty cells at the end aside, two or more of them
+/// filled (one word repeated in one column is a bad cell, not a repeated header).
 fn same_cells(a: &Record, b: &Record) -> bool {
     let filled = |r: &Record| {
         r.cells
@@ -202,7 +207,7 @@ fn same_cells(a: &Record, b: &Record) -> bool {
             .map_or(0, |i| i + 1)
     };
     let (na, nb) = (filled(a), filled(b));
-    na == nb && na > 0 && a.cells[..na] == b.cells[..nb]
+    na == nb && a.filled() >= 2 && a.cells[..na] == b.cells[..nb]
 }
 
 /// Splits records into titles, header and data rows; leading and trailing blank records go.
@@ -235,7 +240,8 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     let header_like_at =
         |i: &&usize| header_like(&records[**i], mode_width) && !repeats_below(&records, **i);
     // A header of periods reads as data here: it is looked for first.
-    let across_at = super::across::header_at(&records, &window, data_like);
+    let across_at =
+        super::across::header_at(&records, &window, data_like, |r| header_like(r, mode_width));
     let data_at = match across_at {
         Some(k) => Some(k + 1),
         None => window.iter().position(|i| data_like(&records[*i])),
@@ -325,6 +331,10 @@ pub(crate) struct Plan {
     /// Number columns named as a row's number that hold another number on every row beside a
     /// period column ([`numbers_rows`]): not read; the report says so.
     pub row_numbers: Vec<usize>,
+    /// Columns of calendar details beside the period ([`calendar_columns`]): weekday or month
+    /// names, a number column named only as a period ("year", "week"): not read; the report
+    /// says so.
+    pub calendar: Vec<usize>,
     /// Columns that make the period together with the period column, a year: a month,
     /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
     pub split: Option<SplitPeriod>,
@@ -393,6 +403,27 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
+    // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
+    // beside, they are the only time the table gives, and not enough to place a row.
+    let mut calendar: Vec<usize> = calendar_columns(table, &rows, &item_columns, false);
+    if let (Some(&j), None) = (calendar.first(), period) {
+        let header_line = table.header.as_ref().map_or(1, |h| h.line);
+        return Err(RowError {
+            row: header_line,
+            column: table.column_name(j),
+            text: table
+                .column(j, &rows)
+                .first()
+                .copied()
+                .unwrap_or("")
+                .to_string(),
+            message: "expected periods with their years (e.g. 2023-01, or a year column beside \
+                      this one); this column names weekdays, months, quarters or weeks alone, \
+                      which cannot place a row in time"
+                .to_string(),
+        });
+    }
+    item_columns.retain(|j| !calendar.contains(j));
     let period_cells: Vec<String> = match (period, split) {
         (Some(_), Some(split)) => split.labels(&rows),
         (Some((p, _)), None) => table
@@ -457,13 +488,24 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         };
         period = candidates.into_iter().find_map(|j| {
             let cells: Vec<&str> = table.column(j, &rows);
-            integer_meaning(&cells, !long).map(|m| (j, Some(m)))
+            integer_meaning(&cells, !long)
+                .filter(|m| *m != IntegerMeaning::Positions || counts_rows(table, j, &cells))
+                .map(|m| (j, Some(m)))
         });
     }
     let mut values: Vec<usize> = value_columns
         .into_iter()
         .filter(|j| period.is_none_or(|(p, _)| p != *j))
         .collect();
+    // Number columns named only as periods ("year" beside a month column, "t,year,period,
+    // value") count no quantity.
+    // One number column always stays for the quantities.
+    let named_periods = calendar_columns(table, &rows, &values, true);
+    if named_periods.len() < values.len() {
+        values.retain(|j| !named_periods.contains(j));
+        calendar.extend(named_periods);
+    }
+    calendar.sort_unstable();
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
         .filter(|j| split.is_none_or(|s| !s.columns().contains(j)))
@@ -500,6 +542,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         empty,
         codes,
         row_numbers,
+        calendar,
         split,
     })
 }
@@ -524,7 +567,7 @@ pub(super) const ITEM_WORDS: [&str; 15] = [
     "warehouse",
     "customer",
 ];
-const PERIOD_WORDS: [&str; 10] = [
+pub(super) const PERIOD_WORDS: [&str; 10] = [
     "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year",
 ];
 pub(super) const QUANTITY_WORDS: [&str; 10] = [
@@ -551,13 +594,65 @@ fn once_per_period(columns: &[Vec<&str>], periods: &[&str]) -> bool {
     pairs.len() == count
 }
 
+/// Of `columns`, those that hold calendar details rather than items or quantities: text
+/// columns whose cells are mostly weekday or month names, quarters or weeks without a year
+/// ([`super::label::calendar_name`]: "Mon", "Jan", "Q1", "W5"), or, when `numbers`, number
+/// columns whose header names a period and nothing else (no item, quantity or other word).
+fn calendar_columns(
+    table: &Table,
+    rows: &[&Record],
+    columns: &[usize],
+    numbers: bool,
+) -> Vec<usize> {
+    columns
+        .iter()
+        .copied()
+        .filter(|&j| {
+            if numbers {
+                let name = table.column_name(j);
+                return table.header.is_some()
+                    && header_says(&name, &PERIOD_WORDS)
+                    && !header_says(&name, &ITEM_WORDS)
+                    && !header_says(&name, &QUANTITY_WORDS)
+                    && !header_says(&name, &OTHER_WORDS);
+            }
+            let cells: Vec<&str> = table
+                .column(j, rows)
+                .into_iter()
+                .filter(|c| !c.is_empty())
+                .collect();
+            let named = cells.iter().filter(|c| calendar_name(c)).count();
+            !cells.is_empty() && named * 2 > cells.len()
+        })
+        .collect()
+}
+
 /// Words of a header that names a row's number.
 const ROW_WORDS: [&str; 3] = ["id", "row", "index"];
 
+/// Whether a column of numbers counting 0 or 1, 2, 3, ... (`cells`) may number the periods:
+/// it has a blank header, or one that names a period or a row's number ("t", "period",
+/// "index", "no", "#"), or no header and counts from 1 (from 0 only an index a data tool
+/// wrote, which has a header cell, if a blank one). Under any other name ("Oak tray") the
+/// numbers are quantities that happen to count up, and reading them as positions would drop
+/// that item.
+fn counts_rows(table: &Table, j: usize, cells: &[&str]) -> bool {
+    let Some(header) = &table.header else {
+        return !cells.iter().any(|c| c.trim() == "0");
+    };
+    let name = header.cells.get(j).map_or("", |c| c.trim());
+    name.is_empty()
+        || name == "#"
+        || header_says(name, &PERIOD_WORDS)
+        || header_says(name, &ROW_WORDS)
+        || header_says(name, &["periode", "no", "nr", "n", "idx", "num", "number"])
+}
+
 /// Whether column `j` numbers the rows: its header is a row word ([`ROW_WORDS`]) and nothing
-/// else of ours, and every row holds another whole number; or its header is blank (or
-/// "Unnamed: 0", as data tools name a blank one when they read it back) and its numbers count
-/// the rows one by one from 0 or 1 (an index written beside the data).
+/// else of ours, and every row holds another whole number; or it is the first column, its
+/// header is blank (or "Unnamed: 0", as data tools name a blank one when they read it back)
+/// and its numbers increase down the rows (an index written beside the data, perhaps of rows
+/// picked from a longer table).
 fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
     let Some(header) = &table.header else {
         return false;
@@ -571,11 +666,7 @@ fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
     }
     if blank {
         let numbers: Vec<u64> = cells.iter().filter_map(|c| c.parse().ok()).collect();
-        return numbers.len() == cells.len()
-            && numbers.first().is_some_and(|n| *n <= 1)
-            && numbers
-                .windows(2)
-                .all(|w| w[0].checked_add(1) == Some(w[1]));
+        return j == 0 && numbers.len() == cells.len() && numbers.windows(2).all(|w| w[0] < w[1]);
     }
     header_says(&name, &ROW_WORDS)
         && !header_says(&name, &PERIOD_WORDS)

@@ -1,14 +1,16 @@
 //! A total among the items: an item (a wide table's "total" column, a long table's "All
 //! items" rows) whose value in every period is the sum of the other items' values there.
-//! Planned as an item, its demand would be ordered a second time, so it is left out, with a
-//! warning naming it.
+//! Planned as an item, its demand would be ordered a second time. Named as a total ("Total",
+//! "All items", "Sum", "Overall", ...), it is left out with a warning; otherwise it is kept
+//! with a warning that says so (sparse items can add up by chance, and a real item must not
+//! vanish on a coincidence).
 //!
 //! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
 //! them once built). The rule: at least two other items and three periods compared; a period
-//! is compared where every item holding it has a value, and the total must hold every period
-//! any item holds; equal within 10^-9 of the period's sum (sums of decimals written in the
-//! file are not exact in binary), and not every sum zero. Equal by chance over three periods
-//! or more is not to be expected of real items.
+//! is compared where every item holding it has a value and the sum is not zero (periods
+//! without demand prove nothing), and the total must hold every period any item holds; equal
+//! within 10^-9 of the period's sum (sums of decimals written in the file are not exact in
+//! binary).
 
 use std::collections::BTreeMap;
 
@@ -18,8 +20,58 @@ use crate::calendar::Period;
 /// Fewest periods compared before an item is taken for the others' total.
 const PERIODS_COMPARED: usize = 3;
 
-/// The index of the item that is the sum of all the others, if exactly one is.
-pub(crate) fn total_among(items: &[Item]) -> Option<usize> {
+/// Words that name a total.
+const TOTAL_WORDS: [&str; 8] = [
+    "total", "totals", "sum", "all", "overall", "grand", "combined", "subtotal",
+];
+
+/// An item that adds up the others: where it stands, the periods compared, and whether its
+/// name says it is a total.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) struct Total {
+    pub index: usize,
+    pub compared: usize,
+    pub named: bool,
+}
+
+/// Whether an item's name says it is a total (a word of [`TOTAL_WORDS`], any case).
+fn named_total(name: &str) -> bool {
+    name.split(|c: char| !c.is_alphanumeric())
+        .any(|word| TOTAL_WORDS.iter().any(|w| word.eq_ignore_ascii_case(w)))
+}
+
+/// The items named as nothing but a total ("Total", "All items", "Grand total", "Total
+/// sales"), for the warning when such an item does not add up to the others: a total column
+/// whose figures differ (rounded, or from another filter) must not pass silently as an item.
+pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
+    const NAMES: [&str; 10] = [
+        "total",
+        "totals",
+        "sum",
+        "all",
+        "all items",
+        "grand total",
+        "overall",
+        "subtotal",
+        "sub-total",
+        "sum total",
+    ];
+    if items.len() < 3 {
+        return Vec::new();
+    }
+    items
+        .iter()
+        .enumerate()
+        .filter(|(_, item)| {
+            let name = item.name.trim().to_lowercase();
+            NAMES.contains(&name.as_str()) || name.starts_with("total ") || name.ends_with(" total")
+        })
+        .map(|(i, _)| i)
+        .collect()
+}
+
+/// The item that is the sum of all the others, if exactly one is.
+pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
     if items.len() < 3 {
         return None;
     }
@@ -38,10 +90,10 @@ pub(crate) fn total_among(items: &[Item]) -> Option<usize> {
     }
     let compared: Vec<(&Period, f64)> = sums
         .iter()
-        .filter(|(_, (_, complete, holders))| *complete && *holders >= 3)
+        .filter(|(_, (sum, complete, holders))| *complete && *holders >= 3 && *sum != 0.0)
         .map(|(p, (sum, _, _))| (p, *sum))
         .collect();
-    if compared.len() < PERIODS_COMPARED || compared.iter().all(|(_, sum)| *sum == 0.0) {
+    if compared.len() < PERIODS_COMPARED {
         return None;
     }
     let is_total = |item: &Item| {
@@ -61,7 +113,11 @@ pub(crate) fn total_among(items: &[Item]) -> Option<usize> {
     };
     let mut found = items.iter().enumerate().filter(|(_, item)| is_total(item));
     match (found.next(), found.next()) {
-        (Some((i, _)), None) => Some(i),
+        (Some((index, item)), None) => Some(Total {
+            index,
+            compared: compared.len(),
+            named: named_total(&item.name),
+        }),
         _ => None,
     }
 }
@@ -81,7 +137,7 @@ mod tests {
     }
 
     fn check(items: &[Item], expected: Option<&str>) {
-        let found = total_among(items).map(|i| items[i].name.as_str());
+        let found = total_among(items).map(|t| items[t.index].name.as_str());
         assert_eq!(found, expected);
     }
 
@@ -120,6 +176,15 @@ mod tests {
                 short("a", &[0.0; 4]),
                 short("b", &[0.0; 4]),
                 short("c", &[0.0; 4]),
+            ],
+            None,
+        );
+        // Sparse items: only periods with demand count, and here two are too few.
+        check(
+            &[
+                short("a", &[0.0, 1.0, 0.0, 0.0, 0.0]),
+                short("b", &[0.0, 0.0, 2.0, 0.0, 0.0]),
+                short("c", &[0.0, 1.0, 2.0, 0.0, 0.0]),
             ],
             None,
         );
