@@ -11,7 +11,8 @@
 //! - `any_bytes_keep_the_reports_promises`: 16,000 (6,000 strings of an alphabet and row
 //!   templates, 8,000 generated files with 1 to 4 mutations of their bytes, 2,000 strings of
 //!   random bytes), each through `read_bytes`;
-//! - `generated_files_read_back_exactly`: 3,000 files (every layout, delimiter, decimal
+//! - `generated_files_read_back_exactly`: 3,000 files (every layout, periods across the header
+//!   too, with the columns now and then in reverse time order; every delimiter, decimal
 //!   convention and period style, with thousands separators, scientific notation, quotes,
 //!   currency symbols or units, spaces after delimiters, trailing delimiters, titles, gaps and
 //!   empty cells some of the time);
@@ -726,11 +727,17 @@ const NAMES: &[&str] = &[
 
 /// A file from known values; see the module doc for what varies.
 fn generate(rng: &mut Rng) -> Case {
-    let layout = rng.pick(&[Layout::Single, Layout::Wide, Layout::Long]);
+    let layout = rng.pick(&[Layout::Single, Layout::Wide, Layout::Long, Layout::Across]);
     let style = if rng.one_in(8) {
         Style::Undated
     } else {
         rng.pick(STYLES)
+    };
+    // Periods across the header need labels a header can hold: not row positions, and not
+    // 8- or 6-digit numbers, which read as quantities there.
+    let layout = match (layout, style) {
+        (Layout::Across, Style::Undated | Style::CompactDay | Style::CompactMonth) => Layout::Wide,
+        (layout, _) => layout,
     };
     let one_column = layout == Layout::Single && style == Style::Undated;
     let delimiter = if one_column {
@@ -792,7 +799,7 @@ fn generate(rng: &mut Rng) -> Case {
             names.push(name);
         }
     }
-    let header = !rng.one_in(4);
+    let header = layout == Layout::Across || !rng.one_in(4);
     let empty_marks = ["", "NA", "n/a", "#N/A", "null"];
     // Values: rows present (a few may be missing where labels name their periods), empty
     // cells now and then, never at the ends of a one-column paste.
@@ -986,7 +993,37 @@ fn generate(rng: &mut Rng) -> Case {
                 expected.push((names[k].to_string(), item_periods, item_values));
             }
         }
-        Layout::Across => unreachable!("the generator writes periods down the rows"),
+        Layout::Across => {
+            // One row per item; the present periods across the header, now and then in
+            // reverse order (the columns are put in time order).
+            period_column = None;
+            let mut order: Vec<usize> = (0..n).filter(|i| present[0][*i]).collect();
+            if rng.one_in(5) {
+                order.reverse();
+            }
+            header_cells.push(rng.pick(&["item", "product", "SKU"]).to_string());
+            header_cells.extend(order.iter().map(|i| style.label(periods[*i])));
+            value_columns = (1..=order.len()).collect();
+            for (k, name) in names.iter().enumerate() {
+                let mut row = vec![name.to_string()];
+                for &i in &order {
+                    row.push(render_cell(rng, values[k][i], k == 0 && i == 0));
+                }
+                rows.push(row);
+                let item_values: Vec<Option<f64>> = (0..n)
+                    .map(|i| {
+                        if present[0][i] {
+                            values[k][i].map(Num::value)
+                        } else {
+                            None
+                        }
+                    })
+                    .collect();
+                expected.push((name.to_string(), periods.clone(), item_values));
+            }
+            let first = order.iter().position(|i| *i == 0).unwrap_or(0);
+            mark_cell = Some((0, 1 + first));
+        }
     }
     // An item with no value is not built (and says so): drop it from what is expected.
     expected.retain(|(_, _, v)| v.iter().any(Option::is_some));
@@ -1009,6 +1046,7 @@ fn generate(rng: &mut Rng) -> Case {
     let (text, _) = render(&header_cells, &rows, &r);
     let layout_read = match (layout, expected.len()) {
         (Layout::Long, _) => Layout::Long,
+        (Layout::Across, _) => Layout::Across,
         (_, 1) => Layout::Single,
         _ => Layout::Wide,
     };
@@ -1075,13 +1113,17 @@ const BAD_CELLS: usize = 3_000;
 fn generated_files_read_back_exactly() {
     let mut rng = Rng(0x5151_5eed_0000_0001);
     let mut failures = Vec::new();
+    let mut across = 0;
     for _ in 0..ROUND_TRIPS {
         let case = generate(&mut rng);
         check_promises(&case.text, &read(&case.text));
+        across += usize::from(case.layout == Layout::Across);
         if let Err(e) = read_back(&case) {
             failures.push(e);
         }
     }
+    // Every layout is written: a fifth or so of the files have their periods across.
+    assert!(across > ROUND_TRIPS / 8, "{across} of {ROUND_TRIPS} across");
     assert!(
         failures.is_empty(),
         "{} of {ROUND_TRIPS} failed; the first:\n{}",
