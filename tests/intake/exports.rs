@@ -599,3 +599,143 @@ fn a_grid_of_years_and_months_is_refused() {
         },
     );
 }
+
+// Items whose names hold a period word are items (a second review found "Day lily", "Date
+// palm", "Week planner" and others left out as calendar details, and "Year planner" joined
+// with a week column as the year); only a header that names nothing but a period counts.
+#[test]
+fn item_names_with_period_words_stay_items() {
+    let report = check(
+        "date,Day lily,Date palm,Step stool,T-bar trellis,Week planner,Oak tray\n2023-01,5,6,7,8,2,1\n2023-02,6,7,8,9,3,2\n2023-03,7,8,9,10,4,3\n",
+        Expect {
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items.len(), 6, "{:?}", report.warnings);
+    check(
+        "week,Year planner,Oak tray\n1,15,5\n2,15,6\n3,15,7\n",
+        Expect {
+            items: Some(vec![
+                ("Year planner", some(&[15.0, 15.0, 15.0])),
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+            ]),
+            periods: Some(vec!["1", "2", "3"]),
+            ..Expect::default()
+        },
+    );
+    // A period header with a filler word or a range still names only the period.
+    check(
+        "Year,Month no,units\n2024,1,5\n2024,2,6\n2024,3,7\n",
+        Expect {
+            periods: Some(vec!["2024-01", "2024-02", "2024-03"]),
+            ..Expect::default()
+        },
+    );
+}
+
+// Numbers named as periods that cannot be read as periods (weeks 10, 11, 13, 12 with no year;
+// a month column in a long table) are refused: read in file order they would misplace a
+// period. Counting ones under "Wk" or "Obs" number the periods.
+#[test]
+fn period_numbers_that_place_nothing_are_refused() {
+    for text in [
+        "week,Oak tray,Clay pot\n10,5,3\n11,7,4\n13,6,5\n12,8,6\n",
+        "item,month,units\nOak tray,3,7\nOak tray,5,5\nOak tray,4,6\n",
+    ] {
+        let report = read(text);
+        assert_eq!(report.errors.len(), 1, "{text}: {:?}", report.errors);
+        assert_eq!(report.errors[0].row, 2);
+        assert!(report.items.is_empty());
+    }
+    for header in ["Wk", "Obs"] {
+        check(
+            &format!("{header},Oak tray,Clay pot\n1,5,3\n2,7,4\n3,6,5\n"),
+            Expect {
+                items: Some(vec![
+                    ("Oak tray", some(&[5.0, 7.0, 6.0])),
+                    ("Clay pot", some(&[3.0, 4.0, 5.0])),
+                ]),
+                ..Expect::default()
+            },
+        );
+    }
+    // Months without years in the period column: the error says so, at the first month.
+    let report = read("month,Oak tray\nJan,5\nFeb,6\nMar,7\n");
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    assert_eq!(
+        (report.errors[0].row, report.errors[0].text.as_str()),
+        (2, "Jan")
+    );
+    assert!(report.errors[0].message.contains("with their years"));
+}
+
+// Totals by name: "All-purpose compost" adding up by chance is kept (with a warning), a store
+// subtotal ("All stores / Oak tray") is warned about.
+#[test]
+fn only_a_total_by_name_is_left_out() {
+    check(
+        "week,Oak tray,Clay pot,All-purpose compost\n2024-W01,0,1,1\n2024-W02,1,0,1\n2024-W03,0,0,0\n2024-W04,1,0,1\n2024-W05,0,2,2\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[0.0, 1.0, 0.0, 1.0, 0.0])),
+                ("Clay pot", some(&[1.0, 0.0, 0.0, 0.0, 2.0])),
+                ("All-purpose compost", some(&[1.0, 1.0, 0.0, 1.0, 2.0])),
+            ]),
+            warned: vec![vec!["\"All-purpose compost\"", "planned as an item"]],
+            ..Expect::default()
+        },
+    );
+    let mut long = String::from("store,item,month,units\n");
+    for (store, values) in [
+        ("North", [5, 6]),
+        ("South", [3, 4]),
+        ("All stores", [8, 10]),
+    ] {
+        for (m, v) in values.iter().enumerate() {
+            long.push_str(&format!("{store},Oak tray,2023-0{},{v}\n", m + 1));
+            long.push_str(&format!("{store},Clay pot,2023-0{},{}\n", m + 1, v + 1));
+        }
+    }
+    let report = read(&long);
+    assert_eq!(report.items.len(), 6);
+    assert!(report
+        .warnings
+        .iter()
+        .any(|w| w.contains("\"All stores / Oak tray\" is named like a total")));
+}
+
+// Across: a number column before the periods (a price, a row total) is left out, not joined
+// into the item's name (a price change would split its history); a title of two cells above
+// the header does not hide it.
+#[test]
+fn across_number_columns_before_the_periods_are_left_out() {
+    check(
+        "Garden Co,Sales report\nitem,unit price,2023-01,2023-02,2023-03\nOak tray,4.50,5,6,7\nClay pot,2.00,3,4,5\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Clay pot", some(&[3.0, 4.0, 5.0])),
+            ]),
+            warned: vec![vec!["\"unit price\"", "not used"], vec!["title"]],
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+}
+
+// An index of picked rows under a blank header, with no dates: row numbers, left out.
+#[test]
+fn a_skipping_index_without_dates_is_left_out() {
+    check(
+        ",Oak tray,Clay pot\n3,5,6\n7,6,7\n9,7,8\n12,8,9\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0, 8.0])),
+                ("Clay pot", some(&[6.0, 7.0, 8.0, 9.0])),
+            ]),
+            warned: vec![vec!["read as row numbers"]],
+            ..Expect::default()
+        },
+    );
+}

@@ -3,7 +3,9 @@
 //! columns; from the first cell that reads as a period on, each column whose header reads as
 //! a period, or as a period of another kind (an error at the header line, in
 //! [`super::build`]), is a period column, and one whose header is a word ("Total", "Total
-//! 2023") is not used, with a warning.
+//! 2023") is not used, with a warning. The first column names the items; a later one before
+//! the periods joins the name ("sku,name,...") unless it holds numbers under a header that
+//! names no item (a price, a row total): then it is left out with a warning.
 //!
 //! Kept apart from: the other layouts ([`super::table`] asks [`header_at`] before its own
 //! header rule, since such a header reads as data there) and building the items (the
@@ -14,14 +16,15 @@
 //! names the item column, or is blank), at least two later cells read as periods (one family
 //! of labels other than plain numbers, or four-digit years following each other closely),
 //! those are more than half of its later non-empty cells and all differ, no later cell is
-//! digits that read as no period (a quantity: the record is data), no normal header stands
-//! above it, and the next record is data that starts with no period, without being such a
-//! header itself (a table whose rows each hold two dates is not periods across).
+//! digits that read as no period (a quantity: the record is data), no record above reads as
+//! data or a header while filling half as many cells or more (a title line fills fewer), and
+//! the next record is data that starts with no period, without being such a header itself
+//! (a table whose rows each hold two dates is not periods across).
 
 use super::label::{calendar_name, parse_label, Family};
 use super::number::looks_number;
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
-use super::table::{header_says, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
+use super::table::{header_says, names_item, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
 use super::text::Record;
 use super::{Layout, RowError};
 
@@ -77,30 +80,32 @@ fn numeric_junk(cell: &str) -> bool {
 
 /// Of `candidates` (indexes into `records`, non-blank, in order), the position of a header
 /// across whose next record is data not starting with a period (see the module doc), given
-/// the table's tests of a data record and of a header. Only records above any data or header
-/// count: a header of names above rows of dates is no header across.
+/// the table's tests of a data record and of a header. Records above it may only be titles:
+/// a record above that reads as data or as a header and fills half as many cells or more
+/// belongs to a table of its own shape (a header of names above rows of dates is no header
+/// across), one that fills fewer is a title line ("Garden Co,Sales report").
 pub(crate) fn header_at(
     records: &[Record],
     candidates: &[usize],
     data_like: impl Fn(&Record) -> bool,
     header_like: impl Fn(&Record) -> bool,
 ) -> Option<usize> {
-    for (k, &i) in candidates.iter().enumerate() {
-        if item_columns(&records[i]).is_some() {
-            let next = candidates.get(k + 1).map(|&n| &records[n]);
-            let data_below = next.is_some_and(|r| {
-                let first = r.cells.first().map_or("", String::as_str);
-                data_like(r)
-                    && item_columns(r).is_none()
-                    && parse_label(first).is_none_or(|l| l.family() == Family::Integer)
-            });
-            return data_below.then_some(k);
-        }
-        if data_like(&records[i]) || header_like(&records[i]) {
-            return None;
-        }
-    }
-    None
+    let k = candidates
+        .iter()
+        .position(|&i| item_columns(&records[i]).is_some())?;
+    let filled = records[candidates[k]].filled();
+    let blocked = candidates[..k].iter().any(|&i| {
+        let r = &records[i];
+        (data_like(r) || header_like(r)) && r.filled() * 2 >= filled
+    });
+    let next = candidates.get(k + 1).map(|&n| &records[n]);
+    let data_below = next.is_some_and(|r| {
+        let first = r.cells.first().map_or("", String::as_str);
+        data_like(r)
+            && item_columns(r).is_none()
+            && parse_label(first).is_none_or(|l| l.family() == Family::Integer)
+    });
+    (!blocked && data_below).then_some(k)
 }
 
 /// Whether the rows of item column `j` name periods rather than items: its header says a
@@ -157,6 +162,23 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let mut values = Vec::new();
     let mut ignored = Vec::new();
     let mut empty = Vec::new();
+    // The first column names the items; a later one before the periods that holds numbers
+    // (a price, a total) and whose header names no item is left out, so a price change does
+    // not split an item's history.
+    let mut item_columns = vec![0];
+    for j in 1..lead {
+        let cells: Vec<&str> = table
+            .column(j, &rows)
+            .into_iter()
+            .filter(|c| !c.is_empty())
+            .collect();
+        let numbers = cells.iter().filter(|c| looks_number(c)).count();
+        if !cells.is_empty() && numbers * 2 >= cells.len() && !names_item(table, j) {
+            ignored.push(j);
+        } else {
+            item_columns.push(j);
+        }
+    }
     for j in lead..table.width {
         let cell = header_cell(j);
         if names_period(cell) || parse_label(cell).is_some() || numeric_junk(cell) {
@@ -170,7 +192,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     Ok(Plan {
         layout: Layout::Across,
         period: None,
-        item_columns: (0..lead).collect(),
+        item_columns,
         values,
         ignored,
         empty,

@@ -13,7 +13,7 @@
 //! would be put in the wrong order.
 
 use super::label::{parse_label, year_of, Family};
-use super::table::{header_says, whole_number, Table, ITEM_WORDS, QUANTITY_WORDS};
+use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::RowError;
 
@@ -77,11 +77,12 @@ impl SplitPeriod {
         let Some(header) = &table.header else {
             return Ok(None);
         };
-        let named = |j: usize, words: &[&str]| {
-            let name = table.column_name(j);
-            header_says(&name, words)
-                && !header_says(&name, &QUANTITY_WORDS)
-                && !header_says(&name, &ITEM_WORDS)
+        // Headers that name only the part ("Month", "Month no"), not an item that holds the
+        // word ("Year planner", "Month end").
+        let named = |j: usize, words: &[&str]| header_is_only(&table.column_name(j), words);
+        let year_named = |j: usize| {
+            named(j, &["year", "yr", "fiscal", "financial"])
+                && header_says(&table.column_name(j), &["year", "yr"])
         };
         let is_part = |j: usize| YearPart::ALL.iter().any(|part| named(j, part.words()));
         // Most cells, not all: one bad cell is an error at its row, not another layout.
@@ -91,7 +92,7 @@ impl SplitPeriod {
             None => numbers.to_vec(),
         };
         let Some(year) = years.into_iter().find(|j| {
-            named(*j, &["year"])
+            year_named(*j)
                 && !is_part(*j)
                 && most(
                     table
@@ -115,7 +116,7 @@ impl SplitPeriod {
         let others = || (0..table.width).filter(move |j| *j != year);
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
-                .filter(|j| named(*j, how.words()) && !named(*j, &["year"]))
+                .filter(|j| named(*j, how.words()))
                 .map(|part| SplitPeriod {
                     year,
                     part,

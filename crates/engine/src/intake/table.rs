@@ -33,8 +33,11 @@
 //! read as years, row positions (without a header from 1; under a blank header or one naming
 //! a period or a row's number from 0 or 1; under an item's name never: [`counts_rows`]) or 8-
 //! or 6-digit dates ([`super::period::integer_meaning`]). Calendar details beside the period,
-//! text columns of weekday or month names and number columns named only as periods, are
-//! neither items nor quantities ([`calendar_columns`]): left out with a warning. A
+//! text columns of weekday or month names and number columns whose header names nothing but
+//! a period ("week", "Month no"; not "Day lily" or "Year planner", items' names), are
+//! neither items nor quantities ([`calendar_columns`]): left out with a warning; with no
+//! period to place them they are an error at their first cell, since read in file order
+//! they could misplace a period. A
 //! column is a value column when at least half of its cells that hold something (not empty, not
 //! "n/a") read as numbers, or when fewer than half of its rows hold something (an item column
 //! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
@@ -393,6 +396,10 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         item_columns.retain(|j| !split.columns().contains(j));
         period = Some((split.year(), None));
     }
+    // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
+    // beside, they are the only time the table gives, and not enough to place a row.
+    let mut calendar: Vec<usize> = calendar_columns(table, &rows, &item_columns, false);
+    item_columns.retain(|j| !calendar.contains(j));
     if period.is_none() {
         // A text column whose cells never repeat names periods, not items: reading it as the
         // period column turns each unreadable label into an error the user can act on.
@@ -403,27 +410,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             period = Some((item_columns.remove(k), None));
         }
     }
-    // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
-    // beside, they are the only time the table gives, and not enough to place a row.
-    let mut calendar: Vec<usize> = calendar_columns(table, &rows, &item_columns, false);
     if let (Some(&j), None) = (calendar.first(), period) {
-        let header_line = table.header.as_ref().map_or(1, |h| h.line);
-        return Err(RowError {
-            row: header_line,
-            column: table.column_name(j),
-            text: table
-                .column(j, &rows)
-                .first()
-                .copied()
-                .unwrap_or("")
-                .to_string(),
-            message: "expected periods with their years (e.g. 2023-01, or a year column beside \
-                      this one); this column names weekdays, months, quarters or weeks alone, \
-                      which cannot place a row in time"
-                .to_string(),
-        });
+        return Err(without_years(table, &rows, j));
     }
-    item_columns.retain(|j| !calendar.contains(j));
     let period_cells: Vec<String> = match (period, split) {
         (Some(_), Some(split)) => split.labels(&rows),
         (Some((p, _)), None) => table
@@ -443,6 +432,17 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             .iter()
             .copied()
             .filter(|j| *j != p && numbers_rows(table, *j, &rows))
+            .collect(),
+        // Without a period, an index counting one by one numbers the periods (below); one
+        // that skips (rows picked from a longer table) only numbers the rows.
+        None if rows.len() >= 2 => numeric
+            .iter()
+            .copied()
+            .filter(|j| *j == 0 && blank_header(table, 0) && numbers_rows(table, 0, &rows))
+            .filter(|_| {
+                let cells = table.column(0, &rows);
+                integer_meaning(&cells, true) != Some(IntegerMeaning::Positions)
+            })
             .collect(),
         _ => Vec::new(),
     };
@@ -499,9 +499,13 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         .collect();
     // Number columns named only as periods ("year" beside a month column, "t,year,period,
     // value") count no quantity.
-    // One number column always stays for the quantities.
+    // One number column always stays for the quantities. Without a period they are the
+    // table's only time, unread (weeks 10, 11, 13, 12 in file order would be misplaced).
     let named_periods = calendar_columns(table, &rows, &values, true);
     if named_periods.len() < values.len() {
+        if let (Some(&j), None) = (named_periods.first(), period) {
+            return Err(unplaced_numbers(table, &rows, j));
+        }
         values.retain(|j| !named_periods.contains(j));
         calendar.extend(named_periods);
     }
@@ -567,8 +571,9 @@ pub(super) const ITEM_WORDS: [&str; 15] = [
     "warehouse",
     "customer",
 ];
-pub(super) const PERIOD_WORDS: [&str; 10] = [
-    "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year",
+pub(super) const PERIOD_WORDS: [&str; 14] = [
+    "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year", "wk", "mth",
+    "qtr", "yr",
 ];
 pub(super) const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
@@ -611,7 +616,7 @@ fn calendar_columns(
             if numbers {
                 let name = table.column_name(j);
                 return table.header.is_some()
-                    && header_says(&name, &PERIOD_WORDS)
+                    && header_is_only(&name, &PERIOD_WORDS)
                     && !header_says(&name, &ITEM_WORDS)
                     && !header_says(&name, &QUANTITY_WORDS)
                     && !header_says(&name, &OTHER_WORDS);
@@ -625,6 +630,48 @@ fn calendar_columns(
             !cells.is_empty() && named * 2 > cells.len()
         })
         .collect()
+}
+
+/// The error for calendar column `j` when the table has no period to place its rows: at the
+/// first row with a cell there.
+fn without_years(table: &Table, rows: &[&Record], j: usize) -> RowError {
+    let cells = table.column(j, rows);
+    let at = cells.iter().position(|c| !c.is_empty()).unwrap_or(0);
+    RowError {
+        row: rows.get(at).map_or(1, |r| r.line),
+        column: table.column_name(j),
+        text: cells.get(at).copied().unwrap_or("").to_string(),
+        message: "expected periods with their years (e.g. 2023-01, or a year column beside \
+                  this one); this column gives weekdays, months, quarters or weeks alone, \
+                  which cannot place a row in time"
+            .to_string(),
+    }
+}
+
+/// Whether column `j` has a header cell that is blank, or "Unnamed: 0" as data tools call a
+/// blank one when they read it back.
+fn blank_header(table: &Table, j: usize) -> bool {
+    table.header.as_ref().is_some_and(|header| {
+        header.cells.get(j).is_none_or(|c| c.trim().is_empty())
+            || table
+                .column_name(j)
+                .trim()
+                .to_ascii_lowercase()
+                .starts_with("unnamed")
+    })
+}
+
+/// The error for number column `j`, named only as a period, when no period could be read:
+/// at its first row.
+fn unplaced_numbers(table: &Table, rows: &[&Record], j: usize) -> RowError {
+    RowError {
+        message: "expected periods that place each row in time; this column is named as a \
+                  period but its numbers neither count the rows (1, 2, 3, ...) nor read as \
+                  years: write periods with their years (e.g. 2023-01), or number the rows in \
+                  order"
+            .to_string(),
+        ..without_years(table, rows, j)
+    }
 }
 
 /// Words of a header that names a row's number.
@@ -645,7 +692,12 @@ fn counts_rows(table: &Table, j: usize, cells: &[&str]) -> bool {
         || name == "#"
         || header_says(name, &PERIOD_WORDS)
         || header_says(name, &ROW_WORDS)
-        || header_says(name, &["periode", "no", "nr", "n", "idx", "num", "number"])
+        || header_says(
+            name,
+            &[
+                "periode", "no", "nr", "n", "idx", "num", "number", "obs", "seq",
+            ],
+        )
 }
 
 /// Whether column `j` numbers the rows: its header is a row word ([`ROW_WORDS`]) and nothing
@@ -654,13 +706,12 @@ fn counts_rows(table: &Table, j: usize, cells: &[&str]) -> bool {
 /// and its numbers increase down the rows (an index written beside the data, perhaps of rows
 /// picked from a longer table).
 fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
-    let Some(header) = &table.header else {
+    if table.header.is_none() {
         return false;
-    };
+    }
     let name = table.column_name(j);
     let cells = table.column(j, rows);
-    let blank = header.cells.get(j).is_none_or(|c| c.trim().is_empty())
-        || name.trim().to_ascii_lowercase().starts_with("unnamed");
+    let blank = blank_header(table, j);
     if !cells.iter().all(|c| whole_number(c)) {
         return false;
     }
@@ -682,6 +733,30 @@ const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", 
 /// that is not a letter or digit and where a lower-case letter meets a capital, any case:
 /// "Item ID", "sku_code", "StoreID", "T").
 pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
+    header_words(name)
+        .iter()
+        .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
+}
+
+/// Words that may stand beside a period word in a header that names nothing else ("Month
+/// no", "Week number", "Year of sale").
+const FILLER_WORDS: [&str; 6] = ["no", "nr", "num", "number", "of", "the"];
+
+/// Whether header cell `name` names only what `words` name: at least one of them, and every
+/// other word a number or a filler ("Month no", "Month (1-12)"), so "Year planner", "Day lily"
+/// or "Month end" (an item's name) do not count.
+pub(super) fn header_is_only(name: &str, words: &[&str]) -> bool {
+    let all = header_words(name);
+    let is = |word: &str, list: &[&str]| list.iter().any(|w| word.eq_ignore_ascii_case(w));
+    all.iter().any(|w| is(w, words))
+        && all
+            .iter()
+            .all(|w| is(w, words) || is(w, &FILLER_WORDS) || w.bytes().all(|b| b.is_ascii_digit()))
+}
+
+/// The words of a header cell: split at anything that is not a letter or digit and where a
+/// lower-case letter meets a capital.
+fn header_words(name: &str) -> Vec<String> {
     let mut spaced = String::with_capacity(name.len() + 4);
     let mut previous_lower = false;
     for c in name.chars() {
@@ -693,13 +768,15 @@ pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
     }
     spaced
         .split(|c: char| !c.is_alphanumeric())
-        .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
+        .filter(|w| !w.is_empty())
+        .map(str::to_string)
+        .collect()
 }
 
 /// Whether the header of column `j` names an item and nothing else: an item word
 /// ([`ITEM_WORDS`]) without a period, quantity or other word ("week id", "item sales" and
 /// "item price" name something else).
-fn names_item(table: &Table, j: usize) -> bool {
+pub(super) fn names_item(table: &Table, j: usize) -> bool {
     let name = table.column_name(j);
     table.header.is_some()
         && header_says(&name, &ITEM_WORDS)

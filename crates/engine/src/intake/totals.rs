@@ -20,11 +20,6 @@ use crate::calendar::Period;
 /// Fewest periods compared before an item is taken for the others' total.
 const PERIODS_COMPARED: usize = 3;
 
-/// Words that name a total.
-const TOTAL_WORDS: [&str; 8] = [
-    "total", "totals", "sum", "all", "overall", "grand", "combined", "subtotal",
-];
-
 /// An item that adds up the others: where it stands, the periods compared, and whether its
 /// name says it is a total.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -34,38 +29,39 @@ pub(crate) struct Total {
     pub named: bool,
 }
 
-/// Whether an item's name says it is a total (a word of [`TOTAL_WORDS`], any case).
-fn named_total(name: &str) -> bool {
-    name.split(|c: char| !c.is_alphanumeric())
-        .any(|word| TOTAL_WORDS.iter().any(|w| word.eq_ignore_ascii_case(w)))
-}
-
-/// The items named as nothing but a total ("Total", "All items", "Grand total", "Total
-/// sales"), for the warning when such an item does not add up to the others: a total column
-/// whose figures differ (rounded, or from another filter) must not pass silently as an item.
-pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
-    const NAMES: [&str; 10] = [
+/// Whether a name is nothing but a total's: "Total", "All items", "Grand total", "Total
+/// sales", "All stores" ("All-purpose compost" and "Total Garden feed" are items' names).
+fn total_name(name: &str) -> bool {
+    const NAMES: [&str; 9] = [
         "total",
         "totals",
         "sum",
         "all",
-        "all items",
         "grand total",
         "overall",
         "subtotal",
         "sub-total",
         "sum total",
     ];
+    let name = name.trim().to_lowercase();
+    let words: Vec<&str> = name.split_whitespace().collect();
+    NAMES.contains(&name.as_str())
+        || (words.len() == 2 && matches!(words[0], "total" | "all"))
+        || (words.len() >= 2 && words[words.len() - 1] == "total")
+}
+
+/// The items whose name, or a part of it joined with " / " (a store or an item column),
+/// is nothing but a total's ([`total_name`]), for the warning when such an item does not add
+/// up to the others: a total whose figures differ (rounded, another filter, a subtotal of
+/// one store's items) must not pass silently as an item.
+pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
     if items.len() < 3 {
         return Vec::new();
     }
     items
         .iter()
         .enumerate()
-        .filter(|(_, item)| {
-            let name = item.name.trim().to_lowercase();
-            NAMES.contains(&name.as_str()) || name.starts_with("total ") || name.ends_with(" total")
-        })
+        .filter(|(_, item)| item.name.split(" / ").any(total_name))
         .map(|(i, _)| i)
         .collect()
 }
@@ -116,7 +112,7 @@ pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
         (Some((index, item)), None) => Some(Total {
             index,
             compared: compared.len(),
-            named: named_total(&item.name),
+            named: total_name(&item.name),
         }),
         _ => None,
     }
