@@ -1,6 +1,7 @@
 //! Intake: the formats it reads, where it says a problem is, and what holds whatever the text.
 
 mod errors;
+mod everyday;
 mod expect;
 mod exports;
 mod formats;

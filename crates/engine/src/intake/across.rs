@@ -71,6 +71,16 @@ fn names_period(cell: &str) -> bool {
         || (cell.len() == 4 && whole_number(cell))
 }
 
+/// A header cell that holds a year among letters but reads as no period and names no total
+/// ("Mär 2024", a month in another language): an error at the header, not a column left out
+/// with its demand ("Total 2023" is left out).
+fn unread_period(cell: &str) -> bool {
+    let year = cell
+        .split(|c: char| !c.is_ascii_digit())
+        .any(|run| run.len() == 4 && (run.starts_with("19") || run.starts_with("20")));
+    year && !header_says(cell, &["total", "totals", "sum", "all", "grand", "ytd"])
+}
+
 /// A cell of digits without letters that names no period: a quantity, or a mistyped period.
 fn numeric_junk(cell: &str) -> bool {
     cell.bytes().any(|b| b.is_ascii_digit())
@@ -181,7 +191,11 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     }
     for j in lead..table.width {
         let cell = header_cell(j);
-        if names_period(cell) || parse_label(cell).is_some() || numeric_junk(cell) {
+        if names_period(cell)
+            || parse_label(cell).is_some()
+            || numeric_junk(cell)
+            || unread_period(cell)
+        {
             values.push(j);
         } else if holds_values(j) {
             ignored.push(j);

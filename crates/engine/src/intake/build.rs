@@ -152,8 +152,8 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     }
     for &j in &plan.calendar {
         b.out.warnings.push(format!(
-            "column \"{}\" holds calendar details (weekdays, months or other parts of a \
-             period), not items or quantities: not used",
+            "column \"{}\" holds calendar details (weekdays, months, times of day or other \
+             parts of a period), not items or quantities: not used",
             table.column_name(j)
         ));
     }

@@ -163,8 +163,9 @@ fn month_name(word: &str) -> Option<u32> {
 }
 
 /// Whether a cell names a part of a calendar without a year: a month or weekday name or
-/// abbreviation ("Jan", "March", "Mon", "Thurs"), a quarter (Q1 to Q4) or a week (W1 to W53).
-/// Such a column holds calendar details, not item names.
+/// abbreviation ("Jan", "March", "Mon", "Thurs"), a quarter (Q1 to Q4), a week (W1 to W53)
+/// or a time of day ("09:15", "13:00:00", "9:30 am"). Such a column holds calendar details,
+/// not item names.
 pub(crate) fn calendar_name(cell: &str) -> bool {
     const WEEKDAYS: [&str; 7] = [
         "monday",
@@ -184,11 +185,31 @@ pub(crate) fn calendar_name(cell: &str) -> bool {
             .is_some_and(|n| (1..=max).contains(&n))
     };
     month_name(&lower).is_some()
+        || time_of_day(&lower)
         || WEEKDAYS
             .iter()
             .any(|day| lower == *day || (lower.len() >= 3 && day.starts_with(lower.as_str())))
         || numbered('q', 4)
         || numbered('w', 53)
+}
+
+/// A time of day: hours and minutes, perhaps seconds, perhaps am or pm ("9:15", "13:00:00").
+fn time_of_day(lower: &str) -> bool {
+    let clock = lower
+        .strip_suffix("am")
+        .or_else(|| lower.strip_suffix("pm"))
+        .unwrap_or(lower)
+        .trim();
+    let parts: Vec<&str> = clock.split(':').collect();
+    let number = |p: &str, max: u32| {
+        !p.is_empty()
+            && p.len() <= 2
+            && p.bytes().all(|b| b.is_ascii_digit())
+            && p.parse::<u32>().is_ok_and(|n| n <= max)
+    };
+    matches!(parts.len(), 2 | 3)
+        && number(parts[0], 23)
+        && parts[1..].iter().all(|p| p.len() == 2 && number(p, 59))
 }
 
 /// A year written with four digits, or two (1969 to 2068).
@@ -308,7 +329,8 @@ mod tests {
     #[test]
     fn calendar_names() {
         for cell in [
-            "Jan", "january", "Sept", "Mon", "Thurs", "SUNDAY", "Q1", "q4", "W1", "W53",
+            "Jan", "january", "Sept", "Mon", "Thurs", "SUNDAY", "Q1", "q4", "W1", "W53", "09:15",
+            "9:30 am", "13:00:00",
         ] {
             assert!(calendar_name(cell), "{cell}");
         }
@@ -321,6 +343,9 @@ mod tests {
             "Mo",
             "2024",
             "Q1 2024",
+            "25:00",
+            "9:5",
+            "1:2:3:4",
         ] {
             assert!(!calendar_name(cell), "{cell}");
         }

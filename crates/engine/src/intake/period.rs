@@ -58,6 +58,10 @@ pub(crate) enum IntegerMeaning {
     CompactDates,
     /// `YYYYMM`.
     CompactMonths,
+    /// `YYYYWW`, ISO 8601 weeks: six digits under a header that names a week (the table
+    /// decides, [`super::table`]); read as months they would put week 1 to 12 in January to
+    /// December.
+    CompactWeeks,
 }
 
 /// The outcome for a period column: one entry per input cell.
@@ -169,6 +173,18 @@ fn compact_month(cell: &str) -> Option<Label> {
         .then_some(Label::Month { year, month })
 }
 
+/// A 6-digit ISO week `YYYYWW` of a plausible year, a week that year has.
+fn compact_week(cell: &str) -> Option<Label> {
+    if cell.len() != 6 || !cell.bytes().all(|b| b.is_ascii_digit()) {
+        return None;
+    }
+    let year: i32 = cell[..4].parse().ok()?;
+    if !PLAUSIBLE_YEARS.contains(&year) {
+        return None;
+    }
+    parse_label(&format!("{}-W{}", &cell[..4], &cell[4..]))
+}
+
 /// Reads every cell of a period column. Empty cells are errors (a row needs its period), and so
 /// are the periods the module doc refuses.
 pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> PeriodColumn {
@@ -182,6 +198,11 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             cells.iter().map(|c| compact_month(c)).collect(),
             Family::Month,
             Some("6-digit year-month months"),
+        ),
+        Some(IntegerMeaning::CompactWeeks) => (
+            cells.iter().map(|c| compact_week(c)).collect(),
+            Family::Week,
+            Some("6-digit year-week ISO weeks"),
         ),
         Some(_) => (
             cells.iter().map(|c| parse_label(c)).collect(),
@@ -277,7 +298,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                 _ => None,
             }),
             Frequency::Weekly,
-            "ISO weeks",
+            compact.unwrap_or("ISO weeks"),
         ),
         Family::Integer => {
             let years = integers != Some(IntegerMeaning::Positions);

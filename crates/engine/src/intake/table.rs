@@ -50,11 +50,15 @@
 //! ([`codes_beside`], [`item_codes`]); beside text item names, the number columns named as
 //! items or stores where the names alone repeat a period (`date,item,store,sales`;
 //! [`codes_beside_names`]); in a table of numbers only, the same where the header names the
-//! items and one period column (`series,t,value`; [`numbered_by_header`]). A long table's
-//! quantity is the number column whose header names a quantity, else the first that names no
-//! item, period or price ([`quantity_among`]); the others are reported as not used. Beside a
-//! period column, a number column named id, row or index with another number on every row,
-//! or with a blank header counting the rows from 0 or 1, numbers the rows (`id,date,value`,
+//! items and one period column (`series,t,value`; [`numbered_by_header`]); numbers that would
+//! make most rows an item of their own (order or customer numbers) are not codes. A long
+//! table's quantity is the number column whose header counts goods ("Qty", "Pcs", "Count"),
+//! else one named a quantity ("sales"), neither naming money or a size ("Net sales", "RRP",
+//! "Bag size", a currency sign), else the first that names no item, period, price or money
+//! ([`quantity_among`]); the others are reported as not used. Beside a period column, a
+//! number column whose header names nothing but a row's number (id, row, index) with another
+//! number on every row, or a first column under a blank header whose numbers increase,
+//! numbers the rows (`id,date,value`,
 //! `,date,value`; [`numbers_rows`]): left out, with a warning. A column
 //! named year beside one named month, quarter or week (and a day), holding years and month
 //! numbers or names, quarters or weeks, make one period between them (`year,month,sales`,
@@ -490,6 +494,15 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             let cells: Vec<&str> = table.column(j, &rows);
             integer_meaning(&cells, !long)
                 .filter(|m| *m != IntegerMeaning::Positions || counts_rows(table, j, &cells))
+                .map(|m| match m {
+                    // Six digits under a week's name are year and week, not year and month.
+                    IntegerMeaning::CompactMonths
+                        if header_says(&table.column_name(j), &["week", "wk"]) =>
+                    {
+                        IntegerMeaning::CompactWeeks
+                    }
+                    m => m,
+                })
                 .map(|m| (j, Some(m)))
         });
     }
@@ -700,8 +713,9 @@ fn counts_rows(table: &Table, j: usize, cells: &[&str]) -> bool {
         )
 }
 
-/// Whether column `j` numbers the rows: its header is a row word ([`ROW_WORDS`]) and nothing
-/// else of ours, and every row holds another whole number; or it is the first column, its
+/// Whether column `j` numbers the rows: its header names nothing but a row's number
+/// ([`ROW_WORDS`]: "id", "Row no"; not "Row cover fleece" or "Plant ID tags"), and every row
+/// holds another whole number; or it is the first column, its
 /// header is blank (or "Unnamed: 0", as data tools name a blank one when they read it back)
 /// and its numbers increase down the rows (an index written beside the data, perhaps of rows
 /// picked from a longer table).
@@ -719,10 +733,7 @@ fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
         let numbers: Vec<u64> = cells.iter().filter_map(|c| c.parse().ok()).collect();
         return j == 0 && numbers.len() == cells.len() && numbers.windows(2).all(|w| w[0] < w[1]);
     }
-    header_says(&name, &ROW_WORDS)
-        && !header_says(&name, &PERIOD_WORDS)
-        && !header_says(&name, &QUANTITY_WORDS)
-        && all_distinct(&cells)
+    header_is_only(&name, &ROW_WORDS) && all_distinct(&cells)
 }
 
 /// Words that make a header with an item word name something else about it ("item price",
@@ -740,7 +751,7 @@ pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
 
 /// Words that may stand beside a period word in a header that names nothing else ("Month
 /// no", "Week number", "Year of sale").
-const FILLER_WORDS: [&str; 6] = ["no", "nr", "num", "number", "of", "the"];
+const FILLER_WORDS: [&str; 7] = ["no", "nr", "num", "number", "of", "the", "calendar"];
 
 /// Whether header cell `name` names only what `words` name: at least one of them, and every
 /// other word a number or a filler ("Month no", "Month (1-12)"), so "Year planner", "Day lily"
@@ -794,21 +805,45 @@ fn named_items(table: &Table, numeric: &[usize]) -> Vec<usize> {
         .collect()
 }
 
+/// Header words that name a count of goods: the surest names of a quantity.
+const UNIT_WORDS: [&str; 11] = [
+    "qty", "quantity", "units", "pcs", "pieces", "count", "sold", "demand", "volume", "orders",
+    "stk",
+];
+/// Header words that name money or a size, never the quantity ordered ("Net sales", "RRP",
+/// "Bag size (L)", "Amount").
+const MONEY_WORDS: [&str; 16] = [
+    "price", "cost", "rrp", "net", "gross", "revenue", "turnover", "takings", "value", "amount",
+    "margin", "discount", "size", "weight", "eur", "usd",
+];
+
 /// Of a long table's number columns left for quantities, the position of the one read: the
-/// first whose header names a quantity ([`QUANTITY_WORDS`]), else the first whose header names
-/// no item, period or other thing ([`OTHER_WORDS`]), else the first (`date,item,store,sales`
-/// reads "sales", not the store numbers; the rest are reported as not used).
+/// first whose header names a count of goods ([`UNIT_WORDS`]: "Qty", "Pcs", "Count"), else
+/// one named a quantity ([`QUANTITY_WORDS`]: "sales"), neither naming money or a size
+/// ([`MONEY_WORDS`], a currency sign); else the first whose header names no item, period,
+/// other thing or money; else the first (`date,item,store,sales` reads "sales", not the store
+/// numbers; `Date,Item,Unit price,Count` reads "Count"; the rest are reported as not used).
 fn quantity_among(table: &Table, values: &[usize]) -> usize {
     let says = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
     if table.header.is_none() {
         return 0;
     }
+    let money =
+        |j: usize| says(j, &MONEY_WORDS) || table.column_name(j).contains(['£', '$', '€', '¥']);
     values
         .iter()
-        .position(|j| says(*j, &QUANTITY_WORDS))
+        .position(|j| says(*j, &UNIT_WORDS) && !money(*j))
+        .or_else(|| {
+            values
+                .iter()
+                .position(|j| says(*j, &QUANTITY_WORDS) && !money(*j))
+        })
         .or_else(|| {
             values.iter().position(|j| {
-                !says(*j, &ITEM_WORDS) && !says(*j, &PERIOD_WORDS) && !says(*j, &OTHER_WORDS)
+                !says(*j, &ITEM_WORDS)
+                    && !says(*j, &PERIOD_WORDS)
+                    && !says(*j, &OTHER_WORDS)
+                    && !money(*j)
             })
         })
         .unwrap_or(0)
@@ -834,7 +869,20 @@ fn codes_beside_names(
     let digits = columns_of(table, rows, &named)
         .iter()
         .all(|cells| cells.iter().all(|c| whole_number(c)));
-    if digits && !unique(names) && unique(&with) {
+    // Stores or products repeat down the rows; numbers that make most rows an item of their
+    // own (an order or customer number) split no item's history, they number transactions.
+    let mut keys: Vec<Vec<&str>> = (0..rows.len())
+        .map(|i| {
+            columns_of(table, rows, &with)
+                .iter()
+                .map(|c| c[i])
+                .collect()
+        })
+        .collect();
+    keys.sort_unstable();
+    keys.dedup();
+    let repeating = keys.len() * 2 <= rows.len();
+    if digits && repeating && !unique(names) && unique(&with) {
         named
     } else {
         Vec::new()

@@ -6,7 +6,8 @@
 //! vanish on a coincidence).
 //!
 //! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
-//! them once built). The rule: at least two other items and three periods compared; a period
+//! them once built). The rule: at least two other items (or one, beside an item named as a
+//! total, "Date,Compost,Total") and three periods compared; a period
 //! is compared where every item holding it has a value and the sum is not zero (periods
 //! without demand prove nothing), and the total must hold every period any item holds; equal
 //! within 10^-9 of the period's sum (sums of decimals written in the file are not exact in
@@ -55,7 +56,7 @@ fn total_name(name: &str) -> bool {
 /// up to the others: a total whose figures differ (rounded, another filter, a subtotal of
 /// one store's items) must not pass silently as an item.
 pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
-    if items.len() < 3 {
+    if items.len() < 2 {
         return Vec::new();
     }
     items
@@ -68,9 +69,12 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
 
 /// The item that is the sum of all the others, if exactly one is.
 pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
-    if items.len() < 3 {
+    // Beside one item only a total by name is looked for (the two are equal either way).
+    let pair = items.len() == 2;
+    if items.len() < 2 || (pair && !items.iter().any(|i| total_name(&i.name))) {
         return None;
     }
+    let holders_needed = items.len().min(3);
     // Per period: the sum over the items holding it, whether every one has a value there,
     // and how many items hold it.
     let mut sums: BTreeMap<Period, (f64, bool, usize)> = BTreeMap::new();
@@ -86,7 +90,9 @@ pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
     }
     let compared: Vec<(&Period, f64)> = sums
         .iter()
-        .filter(|(_, (sum, complete, holders))| *complete && *holders >= 3 && *sum != 0.0)
+        .filter(|(_, (sum, complete, holders))| {
+            *complete && *holders >= holders_needed && *sum != 0.0
+        })
         .map(|(p, (sum, _, _))| (p, *sum))
         .collect();
     if compared.len() < PERIODS_COMPARED {
@@ -107,7 +113,10 @@ pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
                 .is_some_and(|v| (2.0 * v - sum).abs() <= 1e-9 * sum.abs().max(1.0))
         })
     };
-    let mut found = items.iter().enumerate().filter(|(_, item)| is_total(item));
+    let mut found = items
+        .iter()
+        .enumerate()
+        .filter(|(_, item)| (!pair || total_name(&item.name)) && is_total(item));
     match (found.next(), found.next()) {
         (Some((index, item)), None) => Some(Total {
             index,
