@@ -2,7 +2,8 @@
 //! files a shop or a planner would export): the quantity among price, size and takings
 //! columns, times of day beside dates, order and customer numbers beside items, week numbers
 //! written as six digits, items whose names hold a row word, a month in another language
-//! across the header, a total beside one item. Each test failed before its fix.
+//! across the header, a total beside one item, store subtotals. Each test failed before its
+//! fix.
 //!
 //! Kept apart from: the export shapes of the first two reviews (`exports`) and the misreads
 //! of mutated files (`misreads`).
@@ -149,6 +150,39 @@ fn a_year_in_an_unread_header_is_an_error_and_a_lone_total_goes() {
         Expect {
             items: Some(vec![("Compost", some(&[12.0, 8.0, 9.0]))]),
             warned: vec![vec!["\"Total\"", "left out"]],
+            ..Expect::default()
+        },
+    );
+}
+
+// Store subtotals ("All stores" rows), each the sum of its item's rows at the stores, are
+// left out as subtotals; they had been planned as items, their demand ordered twice.
+#[test]
+fn store_subtotals_are_left_out() {
+    let mut text = String::from("Store,Month,Item,Units\n");
+    for (store, oak, clay) in [
+        ("Oakfield", [5, 6, 7], [1, 2, 3]),
+        ("Riverside", [3, 4, 2], [2, 2, 2]),
+        ("All stores", [8, 10, 9], [3, 4, 5]),
+    ] {
+        for m in 0..3 {
+            text.push_str(&format!("{store},2024-0{},Oak tray,{}\n", m + 1, oak[m]));
+            text.push_str(&format!("{store},2024-0{},Clay pot,{}\n", m + 1, clay[m]));
+        }
+    }
+    check(
+        &text,
+        Expect {
+            items: Some(vec![
+                ("Oakfield / Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Oakfield / Clay pot", some(&[1.0, 2.0, 3.0])),
+                ("Riverside / Oak tray", some(&[3.0, 4.0, 2.0])),
+                ("Riverside / Clay pot", some(&[2.0, 2.0, 2.0])),
+            ]),
+            warned: vec![
+                vec!["\"All stores / Oak tray\"", "subtotal", "left out"],
+                vec!["\"All stores / Clay pot\"", "subtotal", "left out"],
+            ],
             ..Expect::default()
         },
     );

@@ -382,36 +382,7 @@ fn read_text(text: &str) -> IntakeReport {
     report.frequency = built.frequency.unwrap_or(Frequency::Undated);
     report.date_format = built.date_format;
     report.items = built.items;
-    let total = totals::total_among(&report.items);
-    for i in totals::named_like_totals(&report.items) {
-        if total.is_none_or(|t| t.index != i) {
-            report.warnings.push(format!(
-                "\"{}\" is named like a total of the other items but does not add up to them \
-                 in every period: it is planned as an item; if it is a total, take it out of \
-                 the file, or its demand is ordered twice",
-                report.items[i].name
-            ));
-        }
-    }
-    if let Some(total) = total {
-        let name = report.items[total.index].name.clone();
-        let evidence = format!(
-            "\"{name}\" equals the sum of the other items in each of the {} periods with demand",
-            total.compared
-        );
-        report.warnings.push(if total.named {
-            report.items.remove(total.index);
-            format!(
-                "{evidence}: read as their total, not an item, and left out (planned, its \
-                 demand would be ordered twice)"
-            )
-        } else {
-            format!(
-                "{evidence}: if it is their total, take it out of the file, or its demand is \
-                 ordered twice; it is planned as an item"
-            )
-        });
-    }
+    totals::set_aside(&mut report.items, &mut report.warnings);
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);

@@ -5,6 +5,10 @@
 //! with a warning that says so (sparse items can add up by chance, and a real item must not
 //! vanish on a coincidence).
 //!
+//! Subtotals too: an item with a total's name in one part of its joined name ("All stores /
+//! Oak tray") that equals the sum of the items differing from it in that part only ("North /
+//! Oak tray", "South / Oak tray") is left out the same way.
+//!
 //! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
 //! them once built). The rule: at least two other items (or one, beside an item named as a
 //! total, "Date,Compost,Total") and three periods compared; a period
@@ -44,10 +48,30 @@ fn total_name(name: &str) -> bool {
         "sub-total",
         "sum total",
     ];
+    // What a total is taken over: "Total sales", "All stores"; not "All Rounder" or "Total
+    // Weedkiller", products' names.
+    const OVER: [&str; 16] = [
+        "items",
+        "products",
+        "articles",
+        "skus",
+        "lines",
+        "stores",
+        "shops",
+        "branches",
+        "sites",
+        "locations",
+        "regions",
+        "channels",
+        "customers",
+        "categories",
+        "sales",
+        "units",
+    ];
     let name = name.trim().to_lowercase();
     let words: Vec<&str> = name.split_whitespace().collect();
     NAMES.contains(&name.as_str())
-        || (words.len() == 2 && matches!(words[0], "total" | "all"))
+        || (words.len() == 2 && matches!(words[0], "total" | "all") && OVER.contains(&words[1]))
         || (words.len() >= 2 && words[words.len() - 1] == "total")
 }
 
@@ -65,6 +89,145 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
         .filter(|(_, item)| item.name.split(" / ").any(total_name))
         .map(|(i, _)| i)
         .collect()
+}
+
+/// Looks for totals among `items` (see the module doc): leaves out, with a warning each, the
+/// grand total and the subtotals named as totals that add up, and warns about an item that
+/// adds up under an item's name or is named as a total without adding up.
+pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
+    let total = total_among(items);
+    let subtotals = subtotals(items);
+    let mut out: Vec<usize> = Vec::new();
+    for i in named_like_totals(items) {
+        let adds_up = total.is_some_and(|t| t.index == i) || subtotals.iter().any(|s| s.index == i);
+        if !adds_up {
+            warnings.push(format!(
+                "\"{}\" is named like a total of other items but does not add up to them in \
+                 every period: it is planned as an item; if it is a total, take it out of the \
+                 file, or its demand is ordered twice",
+                items[i].name
+            ));
+        }
+    }
+    if let Some(total) = total {
+        let evidence = format!(
+            "\"{}\" equals the sum of the other items in each of the {} periods with demand",
+            items[total.index].name, total.compared
+        );
+        warnings.push(if total.named {
+            out.push(total.index);
+            format!(
+                "{evidence}: read as their total, not an item, and left out (planned, its \
+                 demand would be ordered twice)"
+            )
+        } else {
+            format!(
+                "{evidence}: if it is their total, take it out of the file, or its demand is \
+                 ordered twice; it is planned as an item"
+            )
+        });
+    }
+    for sub in &subtotals {
+        if out.contains(&sub.index) {
+            continue;
+        }
+        warnings.push(format!(
+            "\"{}\" equals the sum of the {} items that share the rest of its name in each of \
+             the {} periods with demand: read as their subtotal, not an item, and left out \
+             (planned, its demand would be ordered twice)",
+            items[sub.index].name, sub.group, sub.compared
+        ));
+        out.push(sub.index);
+    }
+    out.sort_unstable();
+    for i in out.into_iter().rev() {
+        items.remove(i);
+    }
+}
+
+/// An item named with a total's name in one part ("All stores / Oak tray") that adds up the
+/// items sharing every other part ("North / Oak tray", "South / Oak tray").
+struct Subtotal {
+    index: usize,
+    group: usize,
+    compared: usize,
+}
+
+/// The subtotals among `items`: for a name part that is a total's ([`total_name`]), the items
+/// whose names differ from it in that part only, not a total's there, two or more of them,
+/// whose sum it equals ([`adds_up`]).
+fn subtotals(items: &[Item]) -> Vec<Subtotal> {
+    let parts: Vec<Vec<&str>> = items
+        .iter()
+        .map(|i| i.name.split(" / ").collect())
+        .collect();
+    let mut found = Vec::new();
+    for (i, own) in parts.iter().enumerate() {
+        for k in (0..own.len()).filter(|k| own.len() >= 2 && total_name(own[*k])) {
+            let group: Vec<&Item> = parts
+                .iter()
+                .enumerate()
+                .filter(|(j, other)| {
+                    *j != i
+                        && other.len() == own.len()
+                        && !total_name(other[k])
+                        && (0..own.len()).all(|m| m == k || other[m] == own[m])
+                })
+                .map(|(j, _)| &items[j])
+                .collect();
+            if group.len() < 2 {
+                continue;
+            }
+            if let Some(compared) = adds_up(&items[i], &group) {
+                found.push(Subtotal {
+                    index: i,
+                    group: group.len(),
+                    compared,
+                });
+                break;
+            }
+        }
+    }
+    found
+}
+
+/// The periods compared when `total` equals the sum of `group` in every period where every
+/// member holding it has a value and the sum or the total is not zero (at least
+/// [`PERIODS_COMPARED`]), the total holding every period a member holds; `None` otherwise.
+fn adds_up(total: &Item, group: &[&Item]) -> Option<usize> {
+    let mut sums: BTreeMap<Period, (f64, bool)> = BTreeMap::new();
+    for item in group {
+        for (period, value) in item.periods.iter().zip(&item.values) {
+            let entry = sums.entry(*period).or_insert((0.0, true));
+            match value {
+                Some(v) => entry.0 += v,
+                None => entry.1 = false,
+            }
+        }
+    }
+    let at: BTreeMap<Period, Option<f64>> = total
+        .periods
+        .iter()
+        .copied()
+        .zip(total.values.iter().copied())
+        .collect();
+    if sums.keys().any(|p| !at.contains_key(p)) {
+        return None;
+    }
+    let mut compared = 0;
+    for (period, (sum, complete)) in &sums {
+        let Some(Some(value)) = at.get(period) else {
+            continue;
+        };
+        if !*complete || (*sum == 0.0 && *value == 0.0) {
+            continue;
+        }
+        if (value - sum).abs() > 1e-9 * sum.abs().max(1.0) {
+            return None;
+        }
+        compared += 1;
+    }
+    (compared >= PERIODS_COMPARED).then_some(compared)
 }
 
 /// The item that is the sum of all the others, if exactly one is.
