@@ -725,6 +725,16 @@ const NAMES: &[&str] = &[
     "Twine; jute",
 ];
 
+/// An item's values where the rows are shared by every item (single, wide, across): its value
+/// in each row present, nothing in a row left out.
+fn shared_values(values: &[Option<Num>], present: &[bool]) -> Vec<Option<f64>> {
+    values
+        .iter()
+        .zip(present)
+        .map(|(v, here)| if *here { v.map(Num::value) } else { None })
+        .collect()
+}
+
 /// A file from known values; see the module doc for what varies.
 fn generate(rng: &mut Rng) -> Case {
     let layout = rng.pick(&[Layout::Single, Layout::Wide, Layout::Long, Layout::Across]);
@@ -907,16 +917,11 @@ fn generate(rng: &mut Rng) -> Case {
                 } else {
                     format!("Series {}", k + 1)
                 };
-                let item_values: Vec<Option<f64>> = (0..n)
-                    .map(|i| {
-                        if present[0][i] {
-                            values[k][i].map(Num::value)
-                        } else {
-                            None
-                        }
-                    })
-                    .collect();
-                expected.push((name, periods.clone(), item_values));
+                expected.push((
+                    name,
+                    periods.clone(),
+                    shared_values(&values[k], &present[0]),
+                ));
             }
             // Rows out of order are sorted (with a warning).
             if dated && rng.one_in(5) {
@@ -1010,15 +1015,7 @@ fn generate(rng: &mut Rng) -> Case {
                     row.push(render_cell(rng, values[k][i], k == 0 && i == 0));
                 }
                 rows.push(row);
-                let item_values: Vec<Option<f64>> = (0..n)
-                    .map(|i| {
-                        if present[0][i] {
-                            values[k][i].map(Num::value)
-                        } else {
-                            None
-                        }
-                    })
-                    .collect();
+                let item_values = shared_values(&values[k], &present[0]);
                 expected.push((name.to_string(), periods.clone(), item_values));
             }
             let first = order.iter().position(|i| *i == 0).unwrap_or(0);

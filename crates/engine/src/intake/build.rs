@@ -439,36 +439,11 @@ impl<'a> Builder<'a> {
         let mut names = Names::default();
         for (k, &j) in value_columns.iter().enumerate() {
             let name = names.unique(self.base_name(k, j), j);
-            let mut values = vec![None; len as usize];
-            let mut empty = Vec::new();
-            let mut errors = 0;
-            for e in &unique {
-                let slot = start.steps_to(e.period) as usize;
-                match self.value(e.row, j) {
-                    Ok(None) => empty.push(e.period.to_string()),
-                    Ok(v) => {
-                        self.check_negative(&name, e.period, v);
-                        values[slot] = v;
-                    }
-                    Err(()) => errors += 1,
-                }
-            }
-            if values.iter().all(Option::is_none) {
-                if errors == 0 {
-                    self.out.warnings.push(format!(
-                        "\"{name}\" has no values (every cell is empty or n/a), so it was not \
-                         planned"
-                    ));
-                }
+            let cells: Vec<(Period, &Record, usize)> =
+                unique.iter().map(|e| (e.period, e.row, j)).collect();
+            let Some(values) = self.item_values(&name, start, len as usize, &cells) else {
                 continue;
-            }
-            if !empty.is_empty() {
-                self.out.warnings.push(format!(
-                    "\"{name}\": {} read as gaps ({})",
-                    count(empty.len(), "empty cell"),
-                    listing(&empty)
-                ));
-            }
+            };
             let header_line = self.table.header.as_ref().map_or(first_line, |h| h.line);
             if !self.take_slots(len as usize, &name, header_line, j) {
                 continue;
@@ -487,6 +462,59 @@ impl<'a> Builder<'a> {
             self.gap_warning(&names, &missing);
         }
         self.out.items = items;
+    }
+
+    /// One item's values over `len` periods from `start`: each (period, row, column) of
+    /// `cells` read into its period's slot. Empty cells are gaps, named in a warning; an item
+    /// with no value is named in a warning (unless its cells were errors) and gives `None`.
+    fn item_values(
+        &mut self,
+        name: &str,
+        start: Period,
+        len: usize,
+        cells: &[(Period, &Record, usize)],
+    ) -> Option<Vec<Option<f64>>> {
+        let mut values = vec![None; len];
+        let mut empty = Vec::new();
+        let mut errors = 0;
+        for &(period, row, column) in cells {
+            match self.value(row, column) {
+                Ok(None) => empty.push(period.to_string()),
+                Ok(v) => {
+                    self.check_negative(name, period, v);
+                    values[start.steps_to(period) as usize] = v;
+                }
+                Err(()) => errors += 1,
+            }
+        }
+        if values.iter().all(Option::is_none) {
+            if errors == 0 {
+                self.out.warnings.push(format!(
+                    "\"{name}\" has no values (every cell is empty or n/a), so it was not planned"
+                ));
+            }
+            return None;
+        }
+        if !empty.is_empty() {
+            self.out.warnings.push(format!(
+                "\"{name}\": {} read as gaps ({})",
+                count(empty.len(), "empty cell"),
+                listing(&empty)
+            ));
+        }
+        Some(values)
+    }
+
+    /// The error for a row whose item columns name nothing, at the first of them.
+    fn no_item_name(&mut self, row: &Record, item_columns: &[usize]) {
+        let j = item_columns[0];
+        let cell = row.cells.get(j).map_or("", String::as_str);
+        self.error(
+            row.line,
+            j,
+            cell,
+            "expected an item name; this row has none".into(),
+        );
     }
 
     fn finish(mut self) -> Built {

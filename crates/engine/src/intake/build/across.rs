@@ -9,7 +9,7 @@
 
 use std::collections::HashMap;
 
-use super::{listing, Builder};
+use super::Builder;
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::read_periods;
@@ -101,14 +101,7 @@ impl<'a> Builder<'a> {
                 .collect::<Vec<_>>()
                 .join(" / ");
             if name.is_empty() {
-                let j = item_columns[0];
-                let cell = row.cells.get(j).map_or("", String::as_str);
-                self.error(
-                    row.line,
-                    j,
-                    cell,
-                    "expected an item name; this row has none".into(),
-                );
+                self.no_item_name(row, &item_columns);
                 continue;
             }
             let key = name.split_whitespace().collect::<Vec<_>>().join(" ");
@@ -121,35 +114,11 @@ impl<'a> Builder<'a> {
                 continue;
             }
             seen.insert(key, row.line);
-            let mut values = vec![None; len];
-            let mut empty = Vec::new();
-            let mut errors = 0;
-            for &(period, j) in &unique {
-                match self.value(row, j) {
-                    Ok(None) => empty.push(period.to_string()),
-                    Ok(v) => {
-                        self.check_negative(&name, period, v);
-                        values[start.steps_to(period) as usize] = v;
-                    }
-                    Err(()) => errors += 1,
-                }
-            }
-            if values.iter().all(Option::is_none) {
-                if errors == 0 {
-                    self.out.warnings.push(format!(
-                        "\"{name}\" has no values (every cell is empty or n/a), so it was not \
-                         planned"
-                    ));
-                }
+            let cells: Vec<(Period, &Record, usize)> =
+                unique.iter().map(|(p, j)| (*p, *row, *j)).collect();
+            let Some(values) = self.item_values(&name, start, len, &cells) else {
                 continue;
-            }
-            if !empty.is_empty() {
-                self.out.warnings.push(format!(
-                    "\"{name}\": {} read as gaps ({})",
-                    super::count(empty.len(), "empty cell"),
-                    listing(&empty)
-                ));
-            }
+            };
             if !self.take_slots(len, &name, row.line, item_columns[0]) {
                 continue;
             }

@@ -55,14 +55,7 @@ impl<'a> Builder<'a> {
                 .filter(|j| row.cells.get(*j).is_some_and(|c| !is_missing(c)))
                 .collect();
             if filled.is_empty() {
-                let j = item_columns[0];
-                let cell = row.cells.get(j).map_or("", String::as_str);
-                self.error(
-                    row.line,
-                    j,
-                    cell,
-                    "expected an item name; this row has none".into(),
-                );
+                self.no_item_name(row, &item_columns);
                 continue;
             }
             let name = filled
