@@ -187,3 +187,121 @@ fn store_subtotals_are_left_out() {
         },
     );
 }
+
+// From a fourth review (interactions of the day's rules): a price or an order number beside
+// the quantities of a single or wide table had been planned as an item, silently.
+#[test]
+fn prices_and_order_numbers_are_not_items() {
+    for (header, expected) in [
+        ("Date,Unit price,Sales units", "\"Unit price\""),
+        ("Date,Order ID,Qty", "\"Order ID\""),
+        ("Date,Invoice no,Qty", "\"Invoice no\""),
+    ] {
+        let text = format!("{header}\n2024-01,4.99,12\n2024-02,5.49,7\n2024-03,4.99,9\n");
+        let report = check(
+            &text,
+            Expect {
+                warned: vec![vec![expected, "not a quantity", "not used"]],
+                layout: Some(Layout::Single),
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items[0].values, some(&[12.0, 7.0, 9.0]));
+    }
+    // An item whose name merely holds such a word stays an item.
+    let report = read("Date,Price tag gun,Oak tray\n2024-01,2,12\n2024-02,3,7\n2024-03,1,9\n");
+    assert_eq!(report.items.len(), 2);
+    // Of two counts, the one without a unit of measure is the quantity.
+    let report =
+        read("Date,Product,Qty (kg),Units\n2024-01,Bark mulch,250,10\n2024-02,Bark mulch,300,12\n");
+    assert_eq!(report.items[0].values, some(&[10.0, 12.0]));
+}
+
+// Totals as other programs and languages write them, subtotal rows with a grand total, and
+// the subtotal rows' "X Total" names.
+#[test]
+fn totals_in_other_words_and_subtotal_rows() {
+    for name in [
+        "Total:",
+        "TOTAL",
+        "Gesamt",
+        "Totaal",
+        "Summe",
+        "Grand Total",
+    ] {
+        let text = format!(
+            "Date,Oak tray,Pine tray,{name}\n2024-01,5,2,7\n2024-02,6,3,9\n2024-03,7,4,11\n"
+        );
+        let report = read(&text);
+        assert_eq!(report.items.len(), 2, "{name}: {:?}", report.warnings);
+    }
+    let report =
+        read("Date,Oak tray,Pine tray,Total (all)\n2024-01,5,2,7\n2024-02,6,3,9\n2024-03,7,4,12\n");
+    assert!(report
+        .warnings
+        .iter()
+        .any(|w| w.contains("named like a total")));
+    check(
+        "Store,Product,2024-01,2024-02,2024-03\nNorth,Oak tray,5,6,7\nNorth,Pine tray,1,2,3\nNorth Total,,6,8,10\nSouth,Oak tray,2,2,2\nSouth,Pine tray,3,3,3\nSouth Total,,5,5,5\nGrand Total,,11,13,15\n",
+        Expect {
+            items: Some(vec![
+                ("North / Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("North / Pine tray", some(&[1.0, 2.0, 3.0])),
+                ("South / Oak tray", some(&[2.0, 2.0, 2.0])),
+                ("South / Pine tray", some(&[3.0, 3.0, 3.0])),
+            ]),
+            warned: vec![
+                vec!["\"North Total\"", "subtotal", "left out"],
+                vec!["\"Grand Total\"", "total", "left out"],
+            ],
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+}
+
+// Calendar details among the day's rules: a week column beside a year and a month makes weeks;
+// a number or weekday column beside the item names of a table across is left out; products
+// named like months under a header that names items are items; a title repeated with the
+// header is skipped.
+#[test]
+fn calendar_details_in_company() {
+    check(
+        "Year,Month,Week,Qty\n2024,1,1,5\n2024,1,2,6\n2024,1,3,7\n",
+        Expect {
+            periods: Some(vec!["2024-W01", "2024-W02", "2024-W03"]),
+            warned: vec![vec!["\"Month\"", "calendar details"]],
+            ..Expect::default()
+        },
+    );
+    for text in [
+        "Product,Launch month,2024-01,2024-02,2024-03\nOak tray,3,5,6,7\nPine tray,5,2,3,4\n",
+        "Product,Weekday,2024-01,2024-02,2024-03\nOak tray,Mon,5,6,7\nPine tray,Tue,2,3,4\n",
+    ] {
+        let report = read(text);
+        assert_eq!(report.layout, Layout::Across, "{text}: {:?}", report.errors);
+        assert_eq!(report.items[0].values, some(&[5.0, 6.0, 7.0]), "{text}");
+        assert!(report.warnings.iter().any(|w| w.contains("not used")));
+    }
+    check(
+        "Date,Product,Qty\n2024-01,May,5\n2024-01,June,2\n2024-02,May,6\n2024-02,June,3\n",
+        Expect {
+            items: Some(vec![
+                ("May", some(&[5.0, 6.0])),
+                ("June", some(&[2.0, 3.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Sales report\nDate,Oak tray,Pine tray\n2024-01,5,2\n2024-02,6,3\nSales report\nDate,Oak tray,Pine tray\n2024-03,7,4\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", some(&[5.0, 6.0, 7.0])),
+                ("Pine tray", some(&[2.0, 3.0, 4.0])),
+            ]),
+            warned: vec![vec!["lines 5, 6 repeat the header"]],
+            ..Expect::default()
+        },
+    );
+}

@@ -156,18 +156,6 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let lead = item_columns(header).unwrap_or(1);
     let header_cell = |j: usize| header.cells.get(j).map_or("", String::as_str);
     let rows = table.fitting_rows();
-    if let Some(j) = (0..lead).find(|j| rows_are_periods(table, &rows, *j)) {
-        return Err(RowError {
-            row: header.line,
-            column: table.column_name(j),
-            text: header_cell(j).to_string(),
-            message: "expected one row per item below periods across the header; these rows \
-                      name periods (months, weeks, dates, ...), so the table is a grid of one \
-                      item's values: write one row per period (e.g. 2023-01,5), or year, month \
-                      and quantity columns"
-                .to_string(),
-        });
-    }
     let holds_values = |j: usize| table.column(j, &rows).iter().any(|c| !c.is_empty());
     let mut values = Vec::new();
     let mut ignored = Vec::new();
@@ -188,6 +176,37 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         } else {
             item_columns.push(j);
         }
+    }
+    // A later column of weekdays or months beside item names that never repeat is a detail
+    // of each item, left out; where the names repeat, it tells one item's rows apart by period,
+    // and the table is a grid of those items' values (refused below).
+    let names = table.column(0, &rows);
+    let mut distinct = names.clone();
+    distinct.sort_unstable();
+    distinct.dedup();
+    let unique_names = distinct.len() == names.len();
+    let details: Vec<usize> = item_columns
+        .iter()
+        .copied()
+        .filter(|j| *j > 0 && unique_names && rows_are_periods(table, &rows, *j))
+        .collect();
+    item_columns.retain(|j| !details.contains(j));
+    ignored.extend(details);
+    if let Some(j) = item_columns
+        .iter()
+        .copied()
+        .find(|j| rows_are_periods(table, &rows, *j))
+    {
+        return Err(RowError {
+            row: header.line,
+            column: table.column_name(j),
+            text: header_cell(j).to_string(),
+            message: "expected one row per item below periods across the header; these rows \
+                      name periods (months, weeks, dates, ...), so the table is a grid of one \
+                      item's values: write one row per period (e.g. 2023-01,5), or year, month \
+                      and quantity columns"
+                .to_string(),
+        });
     }
     for j in lead..table.width {
         let cell = header_cell(j);
@@ -213,6 +232,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         codes: Vec::new(),
         row_numbers: Vec::new(),
         calendar: Vec::new(),
+        not_quantities: Vec::new(),
         split: None,
     })
 }

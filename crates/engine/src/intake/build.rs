@@ -157,10 +157,23 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             table.column_name(j)
         ));
     }
+    for &j in &plan.not_quantities {
+        b.out.warnings.push(format!(
+            "column \"{}\" names a price, an amount of money or an order number, not a \
+             quantity: not used",
+            table.column_name(j)
+        ));
+    }
     for &j in &plan.ignored {
         let why = match plan.layout {
-            Layout::Across => "its header names no period",
-            _ => "a long table reads one item, one period and one quantity column",
+            Layout::Across => "its header names no period".to_string(),
+            _ => format!(
+                "a long table reads one item, one period and one quantity column, and the \
+                 quantities are read from \"{}\"",
+                plan.values
+                    .first()
+                    .map_or(String::new(), |q| table.column_name(*q))
+            ),
         };
         b.out.warnings.push(format!(
             "column \"{}\" was not used: {why}",

@@ -29,7 +29,9 @@ pub(crate) enum YearPart {
 }
 
 impl YearPart {
-    const ALL: [YearPart; 3] = [YearPart::Month, YearPart::Quarter, YearPart::Week];
+    /// The finest first: beside a year, a week column with a month column makes weeks (the
+    /// month then a calendar detail).
+    const ALL: [YearPart; 3] = [YearPart::Week, YearPart::Month, YearPart::Quarter];
 
     /// Header words that name this part of a year.
     fn words(self) -> &'static [&'static str] {

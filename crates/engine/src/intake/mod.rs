@@ -328,7 +328,7 @@ fn read_text(text: &str) -> IntakeReport {
             _ => ("lines", "repeat"),
         };
         report.warnings.push(format!(
-            "{noun} {} {verb} the header and {} skipped",
+            "{noun} {} {verb} the header (or a title line above it) and {} skipped",
             lines.join(", "),
             if lines.len() == 1 { "was" } else { "were" }
         ));

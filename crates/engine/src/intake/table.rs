@@ -37,7 +37,9 @@
 //! a period ("week", "Month no"; not "Day lily" or "Year planner", items' names), are
 //! neither items nor quantities ([`calendar_columns`]): left out with a warning; with no
 //! period to place them they are an error at their first cell, since read in file order
-//! they could misplace a period. A
+//! they could misplace a period. In a single or wide table, a number column whose header
+//! names a price, money or an order number and nothing else ([`names_money`],
+//! [`names_order_number`]) is no item: left out with a warning. A
 //! column is a value column when at least half of its cells that hold something (not empty, not
 //! "n/a") read as numbers, or when fewer than half of its rows hold something (an item column
 //! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
@@ -280,14 +282,37 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .position(|r| !r.is_blank())
         .unwrap_or(rest.len());
     rest.drain(..first_row);
+    // A header repeated below, and a title line repeated just above it (exports joined
+    // whole), are skipped.
     let mut repeated_headers = Vec::new();
     if let Some(h) = &header {
+        let filled = |r: &Record| -> Vec<String> {
+            let end = r
+                .cells
+                .iter()
+                .rposition(|c| !c.is_empty())
+                .map_or(0, |i| i + 1);
+            r.cells[..end].to_vec()
+        };
+        let title_texts: Vec<Vec<String>> = titles.iter().map(filled).collect();
+        let mut skip = vec![false; rest.len()];
+        for i in 0..rest.len() {
+            if same_cells(&rest[i], h) {
+                skip[i] = true;
+                let above = (0..i).rev().find(|k| !rest[*k].is_blank());
+                if let Some(k) = above.filter(|k| title_texts.contains(&filled(&rest[*k]))) {
+                    skip[k] = true;
+                }
+            }
+        }
+        let mut index = 0;
         rest.retain(|r| {
-            let repeated = same_cells(r, h);
-            if repeated {
+            let skipped = skip[index];
+            index += 1;
+            if skipped {
                 repeated_headers.push(r.line);
             }
-            !repeated
+            !skipped
         });
     }
     let data_widths: Vec<usize> = rest
@@ -342,6 +367,10 @@ pub(crate) struct Plan {
     /// names, a number column named only as a period ("year", "week"): not read; the report
     /// says so.
     pub calendar: Vec<usize>,
+    /// Number columns of a single or wide table whose header names a price, an amount of
+    /// money or an order number ([`names_money`], [`names_order_number`]): not items; not
+    /// read, and the report says so.
+    pub not_quantities: Vec<usize>,
     /// Columns that make the period together with the period column, a year: a month,
     /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
     pub split: Option<SplitPeriod>,
@@ -523,6 +552,23 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         calendar.extend(named_periods);
     }
     calendar.sort_unstable();
+    // Beside the quantities of a single or wide table, a price or an order number is no item
+    // (`Date,Unit price,Sales units`); a long table chooses its quantity by the same words.
+    let not_quantities: Vec<usize> = if long {
+        Vec::new()
+    } else {
+        values
+            .iter()
+            .copied()
+            .filter(|j| {
+                let name = table.column_name(*j);
+                table.header.is_some() && (names_money(&name) || names_order_number(&name))
+            })
+            .collect()
+    };
+    if not_quantities.len() < values.len() {
+        values.retain(|j| !not_quantities.contains(j));
+    }
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
         .filter(|j| split.is_none_or(|s| !s.columns().contains(j)))
@@ -560,6 +606,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         codes,
         row_numbers,
         calendar,
+        not_quantities,
         split,
     })
 }
@@ -567,8 +614,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
 /// Words of a header cell that name the item (or the store it is sold at), that name a
 /// period, and that name a quantity, for tables whose item codes are numbers (common practice
 /// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`).
-pub(super) const ITEM_WORDS: [&str; 15] = [
+pub(super) const ITEM_WORDS: [&str; 16] = [
     "item",
+    "variety",
     "sku",
     "product",
     "series",
@@ -633,6 +681,11 @@ fn calendar_columns(
                     && !header_says(&name, &ITEM_WORDS)
                     && !header_says(&name, &QUANTITY_WORDS)
                     && !header_says(&name, &OTHER_WORDS);
+            }
+            // Under a header that names items ("Product": May, June, as roses are called)
+            // the names are items.
+            if names_item(table, j) {
+                return false;
             }
             let cells: Vec<&str> = table
                 .column(j, rows)
@@ -817,6 +870,39 @@ const MONEY_WORDS: [&str; 16] = [
     "margin", "discount", "size", "weight", "eur", "usd",
 ];
 
+/// Words that stand beside a money word in a header that names money and nothing else ("Unit
+/// price", "Net sales", "Avg selling price", "Price ex VAT").
+const MONEY_COMPANIONS: [&str; 15] = [
+    "unit", "per", "avg", "average", "list", "sale", "selling", "retail", "purchase", "sales",
+    "ex", "inc", "incl", "vat", "tax",
+];
+
+/// Whether a header names money and nothing else: a money word ([`MONEY_WORDS`], price,
+/// cost) with only its companions beside it ("Unit price", "Net sales"; not "Price tag gun",
+/// an item), or a currency sign ("Sales (£)").
+pub(super) fn names_money(name: &str) -> bool {
+    let money: Vec<&str> = MONEY_WORDS
+        .iter()
+        .chain(&["price", "cost"])
+        .copied()
+        .collect();
+    let allowed: Vec<&str> = money.iter().chain(&MONEY_COMPANIONS).copied().collect();
+    name.contains(['£', '$', '€', '¥'])
+        || (header_is_only(name, &allowed) && header_says(name, &money))
+}
+
+/// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
+/// "Invoice no", "Receipt").
+pub(super) fn names_order_number(name: &str) -> bool {
+    const DOCUMENTS: [&str; 5] = ["order", "invoice", "receipt", "transaction", "ticket"];
+    let allowed: Vec<&str> = DOCUMENTS
+        .iter()
+        .chain(&["id", "ref", "reference", "code"])
+        .copied()
+        .collect();
+    header_is_only(name, &allowed) && header_says(name, &DOCUMENTS)
+}
+
 /// Of a long table's number columns left for quantities, the position of the one read: the
 /// first whose header names a count of goods ([`UNIT_WORDS`]: "Qty", "Pcs", "Count"), else
 /// one named a quantity ([`QUANTITY_WORDS`]: "sales"), neither naming money or a size
@@ -830,9 +916,16 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
     }
     let money =
         |j: usize| says(j, &MONEY_WORDS) || table.column_name(j).contains(['£', '$', '€', '¥']);
+    // A count without a unit of measure before one with it ("Units" before "Qty (kg)").
+    let measured = |j: usize| table.column_name(j).contains('(');
     values
         .iter()
-        .position(|j| says(*j, &UNIT_WORDS) && !money(*j))
+        .position(|j| says(*j, &UNIT_WORDS) && !money(*j) && !measured(*j))
+        .or_else(|| {
+            values
+                .iter()
+                .position(|j| says(*j, &UNIT_WORDS) && !money(*j))
+        })
         .or_else(|| {
             values
                 .iter()

@@ -37,7 +37,8 @@ pub(crate) struct Total {
 /// Whether a name is nothing but a total's: "Total", "All items", "Grand total", "Total
 /// sales", "All stores" ("All-purpose compost" and "Total Garden feed" are items' names).
 fn total_name(name: &str) -> bool {
-    const NAMES: [&str; 9] = [
+    // Grand totals as other programs and languages write them.
+    const NAMES: [&str; 22] = [
         "total",
         "totals",
         "sum",
@@ -45,8 +46,21 @@ fn total_name(name: &str) -> bool {
         "grand total",
         "overall",
         "subtotal",
-        "sub-total",
+        "sub total",
         "sum total",
+        "total all",
+        "gesamt",
+        "gesamtergebnis",
+        "summe",
+        "totaal",
+        "eindtotaal",
+        "totale",
+        "totale complessivo",
+        "totalt",
+        "suma",
+        "total general",
+        "total général",
+        "σ",
     ];
     // What a total is taken over: "Total sales", "All stores"; not "All Rounder" or "Total
     // Weedkiller", products' names.
@@ -68,8 +82,14 @@ fn total_name(name: &str) -> bool {
         "sales",
         "units",
     ];
-    let name = name.trim().to_lowercase();
+    // "Total:", "TOTAL", "Total (all)", "Sub-total" read alike.
+    let name: String = name
+        .to_lowercase()
+        .chars()
+        .map(|c| if c.is_alphanumeric() { c } else { ' ' })
+        .collect();
     let words: Vec<&str> = name.split_whitespace().collect();
+    let name = words.join(" ");
     NAMES.contains(&name.as_str())
         || (words.len() == 2 && matches!(words[0], "total" | "all") && OVER.contains(&words[1]))
         || (words.len() >= 2 && words[words.len() - 1] == "total")
@@ -92,15 +112,24 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
 }
 
 /// Looks for totals among `items` (see the module doc): leaves out, with a warning each, the
-/// grand total and the subtotals named as totals that add up, and warns about an item that
-/// adds up under an item's name or is named as a total without adding up.
+/// subtotals and then the grand total over what is left, where named as totals and adding
+/// up, and warns about an item that adds up under an item's name or is named as a total
+/// without adding up.
 pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
+    let mut subs = subtotals(items);
+    subs.sort_by_key(|s| std::cmp::Reverse(s.index));
+    for sub in subs {
+        warnings.push(format!(
+            "\"{}\" equals the sum of the {} items it heads in each of the {} periods with \
+             demand: read as their subtotal, not an item, and left out (planned, its demand \
+             would be ordered twice)",
+            items[sub.index].name, sub.group, sub.compared
+        ));
+        items.remove(sub.index);
+    }
     let total = total_among(items);
-    let subtotals = subtotals(items);
-    let mut out: Vec<usize> = Vec::new();
     for i in named_like_totals(items) {
-        let adds_up = total.is_some_and(|t| t.index == i) || subtotals.iter().any(|s| s.index == i);
-        if !adds_up {
+        if total.is_none_or(|t| t.index != i) {
             warnings.push(format!(
                 "\"{}\" is named like a total of other items but does not add up to them in \
                  every period: it is planned as an item; if it is a total, take it out of the \
@@ -114,34 +143,18 @@ pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
             "\"{}\" equals the sum of the other items in each of the {} periods with demand",
             items[total.index].name, total.compared
         );
-        warnings.push(if total.named {
-            out.push(total.index);
-            format!(
+        if total.named {
+            items.remove(total.index);
+            warnings.push(format!(
                 "{evidence}: read as their total, not an item, and left out (planned, its \
                  demand would be ordered twice)"
-            )
+            ));
         } else {
-            format!(
+            warnings.push(format!(
                 "{evidence}: if it is their total, take it out of the file, or its demand is \
                  ordered twice; it is planned as an item"
-            )
-        });
-    }
-    for sub in &subtotals {
-        if out.contains(&sub.index) {
-            continue;
+            ));
         }
-        warnings.push(format!(
-            "\"{}\" equals the sum of the {} items that share the rest of its name in each of \
-             the {} periods with demand: read as their subtotal, not an item, and left out \
-             (planned, its demand would be ordered twice)",
-            items[sub.index].name, sub.group, sub.compared
-        ));
-        out.push(sub.index);
-    }
-    out.sort_unstable();
-    for i in out.into_iter().rev() {
-        items.remove(i);
     }
 }
 
@@ -154,8 +167,10 @@ struct Subtotal {
 }
 
 /// The subtotals among `items`: for a name part that is a total's ([`total_name`]), the items
-/// whose names differ from it in that part only, not a total's there, two or more of them,
-/// whose sum it equals ([`adds_up`]).
+/// whose names differ from it in that part only, not a total's there ("All stores / Oak
+/// tray" over "North / Oak tray", "South / Oak tray"); for a name "X Total" ("North Total",
+/// as tables with subtotal rows write them), the items whose name starts with the part X
+/// ("North / Oak tray", ...); two or more of them, whose sum it equals ([`adds_up`]).
 fn subtotals(items: &[Item]) -> Vec<Subtotal> {
     let parts: Vec<Vec<&str>> = items
         .iter()
@@ -163,25 +178,39 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
         .collect();
     let mut found = Vec::new();
     for (i, own) in parts.iter().enumerate() {
+        let mut groups: Vec<Vec<usize>> = Vec::new();
         for k in (0..own.len()).filter(|k| own.len() >= 2 && total_name(own[*k])) {
-            let group: Vec<&Item> = parts
-                .iter()
-                .enumerate()
-                .filter(|(j, other)| {
-                    *j != i
-                        && other.len() == own.len()
-                        && !total_name(other[k])
-                        && (0..own.len()).all(|m| m == k || other[m] == own[m])
-                })
-                .map(|(j, _)| &items[j])
-                .collect();
-            if group.len() < 2 {
-                continue;
+            groups.push(
+                (0..parts.len())
+                    .filter(|j| {
+                        let other = &parts[*j];
+                        *j != i
+                            && other.len() == own.len()
+                            && !total_name(other[k])
+                            && (0..own.len()).all(|m| m == k || other[m] == own[m])
+                    })
+                    .collect(),
+            );
+        }
+        if let [single] = own.as_slice() {
+            let words: Vec<&str> = single.split_whitespace().collect();
+            if let [head @ .., last] = words.as_slice() {
+                let head = head.join(" ");
+                if last.eq_ignore_ascii_case("total") && !head.is_empty() && !total_name(&head) {
+                    groups.push(
+                        (0..parts.len())
+                            .filter(|j| parts[*j].len() >= 2 && parts[*j][0] == head)
+                            .collect(),
+                    );
+                }
             }
-            if let Some(compared) = adds_up(&items[i], &group) {
+        }
+        for group in groups.into_iter().filter(|g| g.len() >= 2) {
+            let members: Vec<&Item> = group.iter().map(|j| &items[*j]).collect();
+            if let Some(compared) = adds_up(&items[i], &members) {
                 found.push(Subtotal {
                     index: i,
-                    group: group.len(),
+                    group: members.len(),
                     compared,
                 });
                 break;
