@@ -205,6 +205,9 @@ fn wide_duplicate_headers_get_unique_names() {
     assert_eq!(names, ["shop", "shop (2)"]);
 }
 
+// A period with rows for other items but none for an item is no sales for it (tables of
+// rows leave out the zeros; interpolating there would invent demand); a period no row names
+// at all is a gap.
 #[test]
 fn long_layout_in_any_order_with_a_missing_period() {
     let text =
@@ -216,7 +219,16 @@ fn long_layout_in_any_order_with_a_missing_period() {
     assert_eq!(r.items[0].values, some(&[4.0, 3.0]));
     assert_eq!(r.items[1].name, "apples");
     assert_eq!(labels(&r.items[1]), ["2024-01", "2024-02", "2024-03"]);
-    assert_eq!(r.items[1].values, vec![Some(1.0), None, Some(2.0)]);
+    assert_eq!(r.items[1].values, some(&[1.0, 0.0, 2.0]));
+    assert_eq!(r.gaps_filled, 0);
+    assert!(
+        warned(&r, &["read as no sales (0)", "\"apples\" 1"]),
+        "{:?}",
+        r.warnings
+    );
+    let text = "item,period,qty\napples,2024-01,1\napples,2024-03,2\npears,2024-01,4\n";
+    let r = read(text);
+    assert_eq!(r.items[0].values, vec![Some(1.0), None, Some(2.0)]);
     assert_eq!(r.gaps_filled, 1);
     assert!(
         warned(&r, &["1 missing period filled", "\"apples\"", "2024-02"]),

@@ -982,11 +982,14 @@ fn generate(rng: &mut Rng) -> Case {
                 } else {
                     (1..=own.len() as i64).map(Period::position).collect()
                 };
+                // A period another item has a row for is no sales for this one.
                 let item_values: Vec<Option<f64>> = if dated {
                     (first..=last)
                         .map(|i| {
                             if present[k][i] {
                                 values[k][i].map(Num::value)
+                            } else if present.iter().any(|other| other[i]) {
+                                Some(0.0)
                             } else {
                                 None
                             }

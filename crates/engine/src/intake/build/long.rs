@@ -1,11 +1,13 @@
 //! Long tables (item, period, quantity): rows grouped by item in any order, repeated (item,
-//! period) rows summed with a warning, spellings of one name that differ only in white space
+//! period) rows summed with a warning, a period inside an item's run with rows for other
+//! items but none for it read as no sales (0) with a warning (such tables, a till's or an
+//! order system's export, leave out the zeros; interpolating there would invent demand), spellings of one name that differ only in white space
 //! read as one item with a warning, and each item's own run of periods with gaps. A row whose
 //! item cell is empty or a "no value" marker (`n/a`) is an error: it names no item.
 //!
 //! Kept apart from: single and wide tables (in [`super`]), where a repeated period is an error.
 
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 
 use super::{count, lines, listing, Builder, LongRow};
 use crate::calendar::Period;
@@ -100,7 +102,15 @@ impl<'a> Builder<'a> {
             }
         }
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
+        // The periods some row names: where an item has no row in one of them, it sold
+        // nothing then (tables of rows leave out the zeros); a period no row names is a gap.
+        let dated = column.is_some();
+        let with_rows: HashSet<Period> = items
+            .values()
+            .flat_map(|item| item.rows.iter().map(|r| r.0))
+            .collect();
         let mut summed = Vec::new();
+        let mut zeros = Vec::new();
         for key in order {
             let Some(LongItem {
                 name,
@@ -188,6 +198,17 @@ impl<'a> Builder<'a> {
                 values[slot] = *value;
                 self.check_negative(&name, *period, *value);
             }
+            let mut no_sales = 0;
+            for i in 0..len as usize {
+                if !present[i] && dated && with_rows.contains(&start.offset(i as i64)) {
+                    values[i] = Some(0.0);
+                    present[i] = true;
+                    no_sales += 1;
+                }
+            }
+            if no_sales > 0 {
+                zeros.push(format!("\"{name}\" {no_sales}"));
+            }
             let missing: Vec<String> = (0..len)
                 .filter(|i| !present[*i as usize])
                 .map(|i| start.offset(i).to_string())
@@ -200,6 +221,14 @@ impl<'a> Builder<'a> {
                 periods,
                 values,
             });
+        }
+        if !zeros.is_empty() {
+            self.out.warnings.push(format!(
+                "periods with rows for other items but none for an item were read as no sales \
+                 (0) for it, since tables of rows usually leave out the zeros: {} (periods no \
+                 row names at all are gaps)",
+                listing(&zeros)
+            ));
         }
         if !summed.is_empty() {
             self.out.warnings.push(format!(
