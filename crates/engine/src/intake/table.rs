@@ -964,17 +964,7 @@ fn codes_beside_names(
         .all(|cells| cells.iter().all(|c| whole_number(c)));
     // Stores or products repeat down the rows; numbers that make most rows an item of their
     // own (an order or customer number) split no item's history, they number transactions.
-    let mut keys: Vec<Vec<&str>> = (0..rows.len())
-        .map(|i| {
-            columns_of(table, rows, &with)
-                .iter()
-                .map(|c| c[i])
-                .collect()
-        })
-        .collect();
-    keys.sort_unstable();
-    keys.dedup();
-    let repeating = keys.len() * 2 <= rows.len();
+    let repeating = distinct_rows(&columns_of(table, rows, &with)) * 2 <= rows.len();
     if digits && repeating && !unique(names) && unique(&with) {
         named
     } else {
@@ -1062,10 +1052,16 @@ fn item_codes(columns: &[Vec<&str>], periods: &[&str]) -> bool {
     {
         return false;
     }
-    let mut items: Vec<Vec<&str>> = (0..periods.len())
+    distinct_rows(columns) < periods.len() && once_per_period(columns, periods)
+}
+
+/// How many different rows `columns` (each the cells of one column, all as long) make.
+fn distinct_rows(columns: &[Vec<&str>]) -> usize {
+    let rows = columns.first().map_or(0, Vec::len);
+    let mut keys: Vec<Vec<&str>> = (0..rows)
         .map(|i| columns.iter().map(|c| c[i]).collect())
         .collect();
-    items.sort_unstable();
-    items.dedup();
-    items.len() < periods.len() && once_per_period(columns, periods)
+    keys.sort_unstable();
+    keys.dedup();
+    keys.len()
 }
