@@ -739,3 +739,18 @@ fn a_skipping_index_without_dates_is_left_out() {
         },
     );
 }
+
+// A bad cell in the first row below a header of periods across kept that row from reading as
+// data, and the header from being found: every item name was reported as a bad period (found
+// by the robustness generator). Now the bad cell is the one error.
+#[test]
+fn a_bad_cell_in_the_first_row_across_is_reported_at_its_cell() {
+    check(
+        "SKU,July 2009,September 2009\nHinge,8,12 apples\nGloves,5,6\nJar,7,8\n",
+        Expect {
+            errors: vec![(2, "September 2009", "12 apples")],
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+}

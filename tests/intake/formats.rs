@@ -207,7 +207,7 @@ fn wide_duplicate_headers_get_unique_names() {
 
 // A period with rows for other items but none for an item is no sales for it (tables of
 // rows leave out the zeros; interpolating there would invent demand); a period no row names
-// at all is a gap.
+// at all is a gap in a table that writes zeros (tests/intake/unnamed.rs has the rest).
 #[test]
 fn long_layout_in_any_order_with_a_missing_period() {
     let text =
@@ -226,7 +226,7 @@ fn long_layout_in_any_order_with_a_missing_period() {
         "{:?}",
         r.warnings
     );
-    let text = "item,period,qty\napples,2024-01,1\napples,2024-03,2\npears,2024-01,4\n";
+    let text = "item,period,qty\napples,2024-01,1\napples,2024-03,2\npears,2024-01,0\n";
     let r = read(text);
     assert_eq!(r.items[0].values, vec![Some(1.0), None, Some(2.0)]);
     assert_eq!(r.gaps_filled, 1);

@@ -7,3 +7,4 @@ mod exports;
 mod formats;
 mod misreads;
 mod robustness;
+mod unnamed;

@@ -846,6 +846,16 @@ fn generate(rng: &mut Rng) -> Case {
         // Rows are shared: a row is present for every item or for none.
         let shared = present[0].clone();
         present.iter_mut().for_each(|p| *p = shared.clone());
+    } else if style != Style::Undated {
+        // A period no row names at all is read as no sales or as missing, as the items' own
+        // rates make likely (tests/intake/unnamed.rs); here a gap is written as the first
+        // item's "n/a" row, so the period is named and the rule for named periods holds.
+        for i in 0..n {
+            if !present.iter().any(|p| p[i]) {
+                present[0][i] = true;
+                values[0][i] = None;
+            }
+        }
     }
     // Every item has a value in a row present (a table without any is an error by design).
     for (item, item_present) in values.iter_mut().zip(&present) {

@@ -18,8 +18,9 @@
 //! those are more than half of its later non-empty cells and all differ, no later cell is
 //! digits that read as no period (a quantity: the record is data), no record above reads as
 //! data or a header while filling half as many cells or more (a title line fills fewer), and
-//! the next record is data that starts with no period, without being such a header itself
-//! (a table whose rows each hold two dates is not periods across).
+//! the next record starts with no period, without being such a header itself (a table whose
+//! rows each hold two dates is not periods across), and it or one of the two after it is data
+//! (a bad cell in the first row keeps it from reading as data: it is reported at its cell).
 
 use super::label::{calendar_name, parse_label, Family};
 use super::number::looks_number;
@@ -108,13 +109,18 @@ pub(crate) fn header_at(
         let r = &records[i];
         (data_like(r) || header_like(r)) && r.filled() * 2 >= filled
     });
+    // The next record is a row of the table (a bad cell may keep it from reading as data:
+    // then one of the two after it must).
     let next = candidates.get(k + 1).map(|&n| &records[n]);
     let data_below = next.is_some_and(|r| {
         let first = r.cells.first().map_or("", String::as_str);
-        data_like(r)
-            && item_columns(r).is_none()
+        item_columns(r).is_none()
             && parse_label(first).is_none_or(|l| l.family() == Family::Integer)
-    });
+    }) && candidates
+        .iter()
+        .skip(k + 1)
+        .take(3)
+        .any(|&n| data_like(&records[n]));
     (!blocked && data_below).then_some(k)
 }
 

@@ -32,6 +32,7 @@ use super::text::Record;
 
 mod across;
 mod long;
+mod unnamed;
 use super::{DecimalMark, Item, Layout, RowError};
 use crate::calendar::{Frequency, Period};
 

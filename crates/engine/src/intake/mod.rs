@@ -27,8 +27,9 @@
 //!    the periods refused as likely typos.
 //! 5. `build`: one item per value column (single, wide), per item name (long) or per row
 //!    (across), with a regular run of periods, gaps as `None` (in a long table a period with
-//!    rows for other items but none for this one is 0, no sales, with a warning), sorted
-//!    rows, summed or rejected duplicates.
+//!    rows for other items but none for this one is 0, no sales, with a warning, and a period
+//!    no row names at all is no sales when closed or quiet, `build/unnamed`), sorted rows,
+//!    summed or rejected duplicates.
 //! 6. `totals`: an item that is the sum of all the others in every period is left out.
 //!
 //! Decisions, in short (each module's doc has the full rule):

@@ -1,16 +1,19 @@
 //! Long tables (item, period, quantity): rows grouped by item in any order, repeated (item,
 //! period) rows summed with a warning, a period inside an item's run with rows for other
 //! items but none for it read as no sales (0) with a warning (such tables, a till's or an
-//! order system's export, leave out the zeros; interpolating there would invent demand), spellings of one name that differ only in white space
+//! order system's export, leave out the zeros; interpolating there would invent demand), a
+//! period no row names at all read as [`super::unnamed`] decides, spellings of one name that
+//! differ only in white space
 //! read as one item with a warning, and each item's own run of periods with gaps. A row whose
 //! item cell is empty or a "no value" marker (`n/a`) is an error: it names no item.
 //!
 //! Kept apart from: single and wide tables (in [`super`]), where a repeated period is an error.
 
-use std::collections::{HashMap, HashSet};
+use std::collections::{BTreeMap, BTreeSet, HashMap, HashSet};
 
-use super::{count, lines, listing, Builder, LongRow};
-use crate::calendar::Period;
+use super::unnamed::{classify, Run, Unnamed};
+use super::{count, lines, listing, Builder, LongRow, MAX_PERIODS};
+use crate::calendar::{Frequency, Period};
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
 use crate::intake::text::Record;
@@ -109,8 +112,15 @@ impl<'a> Builder<'a> {
             .values()
             .flat_map(|item| item.rows.iter().map(|r| r.0))
             .collect();
+        let (unnamed, writes_zeros) = if dated {
+            unnamed_periods(&items, &with_rows)
+        } else {
+            (HashMap::new(), false)
+        };
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
+        let mut read_as_none: Vec<(Period, Unnamed)> = Vec::new();
+        let mut missing_periods: BTreeSet<Period> = BTreeSet::new();
         for key in order {
             let Some(LongItem {
                 name,
@@ -200,10 +210,22 @@ impl<'a> Builder<'a> {
             }
             let mut no_sales = 0;
             for i in 0..len as usize {
-                if !present[i] && dated && with_rows.contains(&start.offset(i as i64)) {
+                let period = start.offset(i as i64);
+                if present[i] || !dated {
+                    continue;
+                }
+                if with_rows.contains(&period) {
                     values[i] = Some(0.0);
                     present[i] = true;
                     no_sales += 1;
+                } else if let Some(reading @ (Unnamed::Closed | Unnamed::Quiet)) =
+                    unnamed.get(&period).copied()
+                {
+                    values[i] = Some(0.0);
+                    present[i] = true;
+                    read_as_none.push((period, reading));
+                } else {
+                    missing_periods.insert(period);
                 }
             }
             if no_sales > 0 {
@@ -225,16 +247,175 @@ impl<'a> Builder<'a> {
         if !zeros.is_empty() {
             self.out.warnings.push(format!(
                 "periods with rows for other items but none for an item were read as no sales \
-                 (0) for it, since tables of rows usually leave out the zeros: {} (periods no \
-                 row names at all are gaps)",
+                 (0) for it, since tables of rows usually leave out the zeros: {}",
                 listing(&zeros)
             ));
         }
+        self.unnamed_warnings(read_as_none, missing_periods, writes_zeros);
         if !summed.is_empty() {
             self.out.warnings.push(format!(
                 "{} on several rows, summed: {}",
                 count(summed.len(), "(item, period) pair"),
                 listing(&summed)
+            ));
+        }
+    }
+}
+
+/// The name of a place in the calendar's season (`Period::season_position`), for the closed
+/// periods' warning: "Sundays", "January", "Q1", "week 52".
+fn season_place(frequency: Frequency, position: usize) -> String {
+    const WEEKDAYS: [&str; 7] = [
+        "Mondays",
+        "Tuesdays",
+        "Wednesdays",
+        "Thursdays",
+        "Fridays",
+        "Saturdays",
+        "Sundays",
+    ];
+    const MONTHS: [&str; 12] = [
+        "January",
+        "February",
+        "March",
+        "April",
+        "May",
+        "June",
+        "July",
+        "August",
+        "September",
+        "October",
+        "November",
+        "December",
+    ];
+    match frequency {
+        Frequency::Daily => WEEKDAYS[position % 7].to_string(),
+        Frequency::Monthly => MONTHS[position % 12].to_string(),
+        Frequency::Quarterly => format!("Q{}", position + 1),
+        _ => format!("week {}", position + 1),
+    }
+}
+
+/// The reading of each period inside the table's span that no row names (see `unnamed`), and
+/// whether the table writes zeros. A span past [`MAX_PERIODS`] (items far apart; each item's
+/// own run is checked by `run`) is left unread: its unnamed periods stay gaps.
+fn unnamed_periods(
+    items: &HashMap<String, LongItem<'_>>,
+    with_rows: &HashSet<Period>,
+) -> (HashMap<Period, Unnamed>, bool) {
+    let writes_zeros = items
+        .values()
+        .any(|item| item.rows.iter().any(|r| r.1 == Some(0.0)));
+    let (Some(&first), Some(&last)) = (with_rows.iter().min(), with_rows.iter().max()) else {
+        return (HashMap::new(), writes_zeros);
+    };
+    let span = first.steps_to(last);
+    if span >= MAX_PERIODS {
+        return (HashMap::new(), writes_zeros);
+    }
+    let n = span as usize + 1;
+    let index = |p: Period| first.steps_to(p) as usize;
+    let mut named = vec![false; n];
+    for p in with_rows {
+        named[index(*p)] = true;
+    }
+    let runs: Vec<Run> = items
+        .values()
+        .filter_map(|item| {
+            let mut periods: Vec<Period> = item.rows.iter().map(|r| r.0).collect();
+            periods.sort_unstable();
+            periods.dedup();
+            Some(Run {
+                first: index(*periods.first()?),
+                last: index(*periods.last()?),
+                with_rows: periods.len(),
+            })
+        })
+        .collect();
+    let position = |t: usize| first.offset(t as i64).season_position().unwrap_or(0);
+    let positions = first.frequency().natural_season();
+    let readings = classify(
+        &named,
+        positions.map(|m| (&position as &dyn Fn(usize) -> usize, m)),
+        &runs,
+        writes_zeros,
+    );
+    let unnamed = readings
+        .iter()
+        .enumerate()
+        .filter_map(|(t, r)| r.map(|r| (first.offset(t as i64), r)))
+        .collect();
+    (unnamed, writes_zeros)
+}
+
+impl Builder<'_> {
+    /// Says how the periods no row names were read: closed days and quiet periods as no
+    /// sales, the rest as gaps (each item's gaps are listed by `gap_warning` as well).
+    fn unnamed_warnings(
+        &mut self,
+        read_as_none: Vec<(Period, Unnamed)>,
+        missing: BTreeSet<Period>,
+        writes_zeros: bool,
+    ) {
+        let readings: BTreeMap<Period, Unnamed> = read_as_none.into_iter().collect();
+        let of = |kind: Unnamed| -> Vec<Period> {
+            readings
+                .iter()
+                .filter(|(_, r)| **r == kind)
+                .map(|(p, _)| *p)
+                .collect()
+        };
+        let shown = |periods: &[Period]| -> String {
+            listing(&periods.iter().map(Period::to_string).collect::<Vec<_>>())
+        };
+        let closed = of(Unnamed::Closed);
+        if let Some(first) = closed.first() {
+            let mut places: Vec<usize> =
+                closed.iter().filter_map(|p| p.season_position()).collect();
+            places.sort_unstable();
+            places.dedup();
+            let names: Vec<String> = places
+                .iter()
+                .map(|at| season_place(first.frequency(), *at))
+                .collect();
+            let (noun, on) = if first.frequency() == Frequency::Daily {
+                ("day", "on")
+            } else {
+                ("period", "in")
+            };
+            self.out.warnings.push(format!(
+                "{} no row names at all, {on} {} (with no row in most of them, while the rest of \
+                 the calendar has rows), were read as closed: no sales (0) for every item \
+                 selling before and after them: {}",
+                count(closed.len(), noun),
+                super::joined(&names),
+                shown(&closed)
+            ));
+        }
+        let quiet = of(Unnamed::Quiet);
+        if !quiet.is_empty() {
+            self.out.warnings.push(format!(
+                "{} no row names at all were read as no sales (0) for every item selling before \
+                 and after them: the table writes no zeros, and its items sell seldom enough for \
+                 periods without any sale: {} (if they are missing from the export instead, add \
+                 them)",
+                count(quiet.len(), "period"),
+                shown(&quiet)
+            ));
+        }
+        if !missing.is_empty() {
+            let why = if writes_zeros {
+                "the table writes zeros elsewhere, so a period without sales would have its rows"
+            } else {
+                "the items sell too often for so long a stretch without any sale to be chance"
+            };
+            let missing: Vec<Period> = missing.into_iter().collect();
+            self.out.warnings.push(format!(
+                "{} no row names at all {} taken as missing from the export and filled as gaps \
+                 ({why}): {}",
+                count(missing.len(), "period"),
+                if missing.len() == 1 { "was" } else { "were" },
+                shown(&missing)
             ));
         }
     }

@@ -1,0 +1,153 @@
+//! Periods a long table names nowhere. A till's export has a row per item and day sold, so a
+//! day nothing sold has no row at all; such days had been gaps, filled by interpolation from
+//! the days around them: a shop shut on Sundays got Sunday demand, a shop with a few slow
+//! items demand on every quiet day (the plan's orders ran high). Each test but the last two
+//! (a month missing from the export stays a gap, as before) failed before the rule.
+//!
+//! Kept apart from: periods with rows for other items but none for an item (`formats`), and
+//! the rule's own arithmetic (the engine's `intake::build::unnamed` tests).
+
+use morrowcast_engine::calendar::{civil_from_days, days_from_civil};
+
+use super::expect::{check, Expect};
+
+/// An item's sales on day t (`None`: no row).
+type Sells<'a> = &'a dyn Fn(usize) -> Option<u32>;
+
+/// A long daily table from 2024-03-04 (a Monday): for each item, its sales on the days
+/// `sells(day)` gives (none: no row).
+fn daily(items: &[(&str, Sells<'_>)], days: usize) -> String {
+    let monday = days_from_civil(2024, 3, 4);
+    let mut text = String::from("date,item,qty\n");
+    for t in 0..days {
+        let (y, m, d) = civil_from_days(monday + t as i64);
+        for (name, sells) in items {
+            if let Some(q) = sells(t) {
+                text.push_str(&format!("{y}-{m:02}-{d:02},{name},{q}\n"));
+            }
+        }
+    }
+    text
+}
+
+/// The values `sells` gives over `days`, a day without a row 0.
+fn with_zeros(sells: Sells<'_>, days: usize) -> Vec<Option<f64>> {
+    (0..days)
+        .map(|t| Some(f64::from(sells(t).unwrap_or(0))))
+        .collect()
+}
+
+// Two slow items, neither selling on most days: days no row names are no sales.
+#[test]
+fn quiet_days_of_slow_items_are_no_sales() {
+    let tray = |t: usize| (t % 3 == 0).then_some(2);
+    let tin = |t: usize| (t % 5 == 1).then_some(1);
+    let days = 31;
+    check(
+        &daily(&[("Oak tray", &tray), ("Seed tin", &tin)], days),
+        Expect {
+            items: Some(vec![
+                ("Oak tray", with_zeros(&tray, 31)),
+                ("Seed tin", with_zeros(&tin, 27)[1..].to_vec()),
+            ]),
+            warned: vec![vec![
+                "no row names at all were read as no sales (0)",
+                "writes no zeros",
+                "2024-03-06",
+            ]],
+            ..Expect::default()
+        },
+    );
+}
+
+// A busy shop shut on Sundays: every Sunday is a closed day, no sales.
+#[test]
+fn a_weekday_without_rows_is_a_closed_day() {
+    let open = |t: usize| (t % 7 != 6).then_some(3 + (t % 4) as u32);
+    let days = 27;
+    check(
+        &daily(&[("Oak tray", &open), ("Seed tin", &open)], days),
+        Expect {
+            items: Some(vec![
+                ("Oak tray", with_zeros(&open, days)),
+                ("Seed tin", with_zeros(&open, days)),
+            ]),
+            warned: vec![vec!["3 days", "on Sundays", "read as closed", "2024-03-10"]],
+            ..Expect::default()
+        },
+    );
+}
+
+// A nursery shut in January and February: three busy items, no row in those months of
+// three years (the export before had interpolated winter demand from the autumn and spring).
+#[test]
+fn months_without_rows_every_year_are_closed() {
+    let mut text = String::from("item,month,units\n");
+    for year in 2021..=2023 {
+        for m in 3..=12 {
+            for item in ["Oak tray", "Seed tin", "Rain gauge"] {
+                text.push_str(&format!("{item},{year}-{m:02},{}\n", 10 + m));
+            }
+        }
+    }
+    text.push_str("Oak tray,2024-03,9\nSeed tin,2024-03,9\nRain gauge,2024-03,9\n");
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "6 periods",
+                "in January and February",
+                "read as closed",
+                "2022-01",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let winter = &report.items[0].values[10..12];
+    assert_eq!(winter, [Some(0.0), Some(0.0)]);
+    assert_eq!(report.gaps_filled, 0);
+}
+
+// Items selling every month but one month no row names: missing from the export, a gap.
+#[test]
+fn a_month_of_busy_items_without_rows_is_missing() {
+    let mut text = String::from("item,month,units\n");
+    for item in ["Oak tray", "Seed tin", "Rain gauge"] {
+        for m in (1..=12).filter(|m| *m != 7) {
+            text.push_str(&format!("{item},2023-{m:02},{}\n", 10 + m));
+        }
+    }
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "1 period no row names at all was taken as missing",
+                "too often",
+                "2023-07",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert!(report.items.iter().all(|i| i.values[6].is_none()));
+    assert_eq!(report.gaps_filled, 3);
+}
+
+// The slow items' table with one zero written: it writes its quiet days, so a day no row
+// names is missing.
+#[test]
+fn a_table_writing_zeros_has_no_quiet_days() {
+    let tray = |t: usize| (t % 3 == 0).then_some(2).or((t == 1).then_some(0));
+    let tin = |t: usize| (t % 5 == 1).then_some(1);
+    let report = check(
+        &daily(&[("Oak tray", &tray), ("Seed tin", &tin)], 31),
+        Expect {
+            warned: vec![vec![
+                "taken as missing",
+                "writes zeros elsewhere",
+                "2024-03-06",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items[0].values[2], None);
+}
