@@ -231,7 +231,10 @@ fn long_layout_in_any_order_with_a_missing_period() {
     assert_eq!(r.items[0].values, vec![Some(1.0), None, Some(2.0)]);
     assert_eq!(r.gaps_filled, 1);
     assert!(
-        warned(&r, &["1 missing period filled", "\"apples\"", "2024-02"]),
+        warned(
+            &r,
+            &["1 period that no row names was taken as missing", "2024-02"]
+        ),
         "{:?}",
         r.warnings
     );

@@ -51,7 +51,7 @@ fn quiet_days_of_slow_items_are_no_sales() {
                 ("Seed tin", with_zeros(&tin, 27)[1..].to_vec()),
             ]),
             warned: vec![vec![
-                "no row names at all were read as no sales (0)",
+                "days that no row names were read as no sales (0)",
                 "writes no zeros",
                 "2024-03-06",
             ]],
@@ -60,22 +60,41 @@ fn quiet_days_of_slow_items_are_no_sales() {
     );
 }
 
-// A busy shop shut on Sundays: every Sunday is a closed day, no sales.
+// A busy shop shut on Sundays: every Sunday is a closed day, no sales; so too with a void
+// written as a row of 0 (a till writing one zero does not write its closed days), and for a
+// stall open only at weekends.
 #[test]
 fn a_weekday_without_rows_is_a_closed_day() {
     let open = |t: usize| (t % 7 != 6).then_some(3 + (t % 4) as u32);
     let days = 27;
-    check(
-        &daily(&[("Oak tray", &open), ("Seed tin", &open)], days),
+    let shop = daily(&[("Oak tray", &open), ("Seed tin", &open)], days);
+    let void = shop.replace("2024-03-05,Seed tin,4", "2024-03-05,Seed tin,0");
+    assert_ne!(void, shop);
+    for text in [shop, void] {
+        let report = check(
+            &text,
+            Expect {
+                warned: vec![vec!["3 days", "on Sundays", "read as closed", "2024-03-10"]],
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items[0].values, with_zeros(&open, days));
+    }
+    let weekends = |t: usize| (t % 7 >= 5).then_some(20);
+    let stall = daily(&[("Oak tray", &weekends), ("Seed tin", &weekends)], 34);
+    let report = check(
+        &stall,
         Expect {
-            items: Some(vec![
-                ("Oak tray", with_zeros(&open, days)),
-                ("Seed tin", with_zeros(&open, days)),
-            ]),
-            warned: vec![vec!["3 days", "on Sundays", "read as closed", "2024-03-10"]],
+            warned: vec![vec![
+                "20 days",
+                "on Mondays, Tuesdays, Wednesdays, Thursdays and Fridays",
+                "read as closed",
+                "2024-03-11 to 2024-03-15",
+            ]],
             ..Expect::default()
         },
     );
+    assert_eq!(report.items[0].values, with_zeros(&weekends, 34)[5..]);
 }
 
 // A nursery shut in January and February: three busy items, no row in those months of
@@ -121,8 +140,8 @@ fn a_month_of_busy_items_without_rows_is_missing() {
         &text,
         Expect {
             warned: vec![vec![
-                "1 period no row names at all was taken as missing",
-                "too often",
+                "1 period that no row names was taken as missing",
+                "sell in too many of the periods near them",
                 "2023-07",
             ]],
             ..Expect::default()
@@ -130,24 +149,39 @@ fn a_month_of_busy_items_without_rows_is_missing() {
     );
     assert!(report.items.iter().all(|i| i.values[6].is_none()));
     assert_eq!(report.gaps_filled, 3);
-}
-
-// The slow items' table with one zero written: it writes its quiet days, so a day no row
-// names is missing.
-#[test]
-fn a_table_writing_zeros_has_no_quiet_days() {
-    let tray = |t: usize| (t % 3 == 0).then_some(2).or((t == 1).then_some(0));
-    let tin = |t: usize| (t % 5 == 1).then_some(1);
+    // One item alone, selling every month but one: missing too, not quiet (its chance of a
+    // month without a sale is taken from the months near it, all with sales).
+    let one: String = text.lines().take(12).map(|l| format!("{l}\n")).collect();
     let report = check(
-        &daily(&[("Oak tray", &tray), ("Seed tin", &tin)], 31),
+        &one,
         Expect {
             warned: vec![vec![
-                "taken as missing",
-                "writes zeros elsewhere",
-                "2024-03-06",
+                "1 period that no row names was taken as missing",
+                "2023-07",
             ]],
             ..Expect::default()
         },
     );
-    assert_eq!(report.items[0].values[2], None);
+    assert_eq!(report.items[0].values[6], None);
+}
+
+// The slow items' table writing its zeros, but for three days no row names: it writes its
+// quiet days, so those days are missing.
+#[test]
+fn a_table_writing_zeros_has_no_quiet_days() {
+    let skipped = |t: usize| (10..13).contains(&t);
+    let tray = |t: usize| (!skipped(t)).then_some(if t % 3 == 0 { 2 } else { 0 });
+    let tin = |t: usize| (!skipped(t)).then_some(u32::from(t % 5 == 1));
+    let report = check(
+        &daily(&[("Oak tray", &tray), ("Seed tin", &tin)], 31),
+        Expect {
+            warned: vec![vec![
+                "3 days that no row names were taken as missing",
+                "writes its zeros (line 3 is one)",
+                "2024-03-14 to 2024-03-16",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items[0].values[10..13], [None, None, None]);
 }

@@ -11,7 +11,7 @@
 
 use std::collections::{BTreeMap, BTreeSet, HashMap, HashSet};
 
-use super::unnamed::{classify, Run, Unnamed};
+use super::unnamed::{classify, ItemRows, Unnamed};
 use super::{count, lines, listing, Builder, LongRow, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
@@ -112,10 +112,10 @@ impl<'a> Builder<'a> {
             .values()
             .flat_map(|item| item.rows.iter().map(|r| r.0))
             .collect();
-        let (unnamed, writes_zeros) = if dated {
+        let (unnamed, zero_line) = if dated {
             unnamed_periods(&items, &with_rows)
         } else {
-            (HashMap::new(), false)
+            (HashMap::new(), None)
         };
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
@@ -236,7 +236,9 @@ impl<'a> Builder<'a> {
                 .map(|i| start.offset(i).to_string())
                 .collect();
             self.out.gaps_filled += missing.len();
-            self.gap_warning(std::slice::from_ref(&name), &missing);
+            if !dated {
+                self.gap_warning(std::slice::from_ref(&name), &missing);
+            }
             let periods = (0..len).map(|i| start.offset(i)).collect();
             self.out.items.push(Item {
                 name,
@@ -251,7 +253,7 @@ impl<'a> Builder<'a> {
                 listing(&zeros)
             ));
         }
-        self.unnamed_warnings(read_as_none, missing_periods, writes_zeros);
+        self.unnamed_warnings(read_as_none, missing_periods, zero_line);
         if !summed.is_empty() {
             self.out.warnings.push(format!(
                 "{} on several rows, summed: {}",
@@ -297,21 +299,19 @@ fn season_place(frequency: Frequency, position: usize) -> String {
 }
 
 /// The reading of each period inside the table's span that no row names (see `unnamed`), and
-/// whether the table writes zeros. A span past [`MAX_PERIODS`] (items far apart; each item's
-/// own run is checked by `run`) is left unread: its unnamed periods stay gaps.
+/// when the table writes its zeros, the line of its first row of 0. A span past
+/// [`MAX_PERIODS`] (items far apart; each item's own run is checked by `run`) is left unread:
+/// its unnamed periods stay gaps.
 fn unnamed_periods(
     items: &HashMap<String, LongItem<'_>>,
     with_rows: &HashSet<Period>,
-) -> (HashMap<Period, Unnamed>, bool) {
-    let writes_zeros = items
-        .values()
-        .any(|item| item.rows.iter().any(|r| r.1 == Some(0.0)));
+) -> (HashMap<Period, Unnamed>, Option<usize>) {
     let (Some(&first), Some(&last)) = (with_rows.iter().min(), with_rows.iter().max()) else {
-        return (HashMap::new(), writes_zeros);
+        return (HashMap::new(), None);
     };
     let span = first.steps_to(last);
     if span >= MAX_PERIODS {
-        return (HashMap::new(), writes_zeros);
+        return (HashMap::new(), None);
     }
     let n = span as usize + 1;
     let index = |p: Period| first.steps_to(p) as usize;
@@ -319,43 +319,70 @@ fn unnamed_periods(
     for p in with_rows {
         named[index(*p)] = true;
     }
-    let runs: Vec<Run> = items
-        .values()
-        .filter_map(|item| {
-            let mut periods: Vec<Period> = item.rows.iter().map(|r| r.0).collect();
-            periods.sort_unstable();
-            periods.dedup();
-            Some(Run {
-                first: index(*periods.first()?),
-                last: index(*periods.last()?),
-                with_rows: periods.len(),
-            })
-        })
-        .collect();
-    let position = |t: usize| first.offset(t as i64).season_position().unwrap_or(0);
-    let positions = first.frequency().natural_season();
+    let mut named_before = vec![0usize; n + 1];
+    for t in 0..n {
+        named_before[t + 1] = named_before[t] + usize::from(named[t]);
+    }
+    let mut item_rows = Vec::with_capacity(items.len());
+    // Periods with rows for other items but none for the item, against rows of 0.
+    let (mut without_row, mut zero_rows, mut zero_line) = (0usize, 0usize, None);
+    for item in items.values() {
+        let mut periods: Vec<usize> = item.rows.iter().map(|r| index(r.0)).collect();
+        periods.sort_unstable();
+        periods.dedup();
+        let (Some(&a), Some(&b)) = (periods.first(), periods.last()) else {
+            continue;
+        };
+        without_row += named_before[b + 1] - named_before[a] - periods.len();
+        for row in item.rows.iter().filter(|r| r.1 == Some(0.0)) {
+            zero_rows += 1;
+            zero_line = Some(zero_line.map_or(row.2.line, |l: usize| l.min(row.2.line)));
+        }
+        item_rows.push(ItemRows(periods));
+    }
+    let zero_line = zero_line.filter(|_| zero_rows > without_row);
     let readings = classify(
         &named,
-        positions.map(|m| (&position as &dyn Fn(usize) -> usize, m)),
-        &runs,
-        writes_zeros,
+        first.frequency().natural_season(),
+        &item_rows,
+        zero_line.is_some(),
     );
     let unnamed = readings
         .iter()
         .enumerate()
         .filter_map(|(t, r)| r.map(|r| (first.offset(t as i64), r)))
         .collect();
-    (unnamed, writes_zeros)
+    (unnamed, zero_line)
+}
+
+/// Periods as ranges of consecutive ones: "2024-06-01 to 2024-06-30", "2024-12-25".
+fn ranges(periods: &[Period]) -> Vec<String> {
+    let mut out: Vec<String> = Vec::new();
+    let mut i = 0;
+    while i < periods.len() {
+        let mut j = i;
+        while j + 1 < periods.len() && periods[j + 1] == periods[j].next() {
+            j += 1;
+        }
+        out.push(if j == i {
+            periods[i].to_string()
+        } else {
+            format!("{} to {}", periods[i], periods[j])
+        });
+        i = j + 1;
+    }
+    out
 }
 
 impl Builder<'_> {
-    /// Says how the periods no row names were read: closed days and quiet periods as no
-    /// sales, the rest as gaps (each item's gaps are listed by `gap_warning` as well).
+    /// Says how the periods no row names were read: closed and quiet ones as no sales, the
+    /// rest as gaps (in a dated long table an item's gaps are exactly these, so this is the
+    /// one warning about them).
     fn unnamed_warnings(
         &mut self,
         read_as_none: Vec<(Period, Unnamed)>,
         missing: BTreeSet<Period>,
-        writes_zeros: bool,
+        zero_line: Option<usize>,
     ) {
         let readings: BTreeMap<Period, Unnamed> = read_as_none.into_iter().collect();
         let of = |kind: Unnamed| -> Vec<Period> {
@@ -365,8 +392,12 @@ impl Builder<'_> {
                 .map(|(p, _)| *p)
                 .collect()
         };
-        let shown = |periods: &[Period]| -> String {
-            listing(&periods.iter().map(Period::to_string).collect::<Vec<_>>())
+        let periods = |list: &[Period]| -> String {
+            let daily = list
+                .first()
+                .is_some_and(|p| p.frequency() == Frequency::Daily);
+            let noun = if daily { "day" } else { "period" };
+            format!("{} that no row names", count(list.len(), noun))
         };
         let closed = of(Unnamed::Closed);
         if let Some(first) = closed.first() {
@@ -378,44 +409,51 @@ impl Builder<'_> {
                 .iter()
                 .map(|at| season_place(first.frequency(), *at))
                 .collect();
-            let (noun, on) = if first.frequency() == Frequency::Daily {
-                ("day", "on")
+            let on = if first.frequency() == Frequency::Daily {
+                "on"
             } else {
-                ("period", "in")
+                "in"
             };
             self.out.warnings.push(format!(
-                "{} no row names at all, {on} {} (with no row in most of them, while the rest of \
-                 the calendar has rows), were read as closed: no sales (0) for every item \
-                 selling before and after them: {}",
-                count(closed.len(), noun),
+                "{}, {on} {} (no row there in most of their occurrences nearby, while the other \
+                 periods have rows), {} read as closed: no sales (0) for each item selling \
+                 before and after them: {}",
+                periods(&closed),
                 super::joined(&names),
-                shown(&closed)
+                if closed.len() == 1 { "was" } else { "were" },
+                listing(&ranges(&closed))
             ));
         }
         let quiet = of(Unnamed::Quiet);
         if !quiet.is_empty() {
             self.out.warnings.push(format!(
-                "{} no row names at all were read as no sales (0) for every item selling before \
-                 and after them: the table writes no zeros, and its items sell seldom enough for \
-                 periods without any sale: {} (if they are missing from the export instead, add \
-                 them)",
-                count(quiet.len(), "period"),
-                shown(&quiet)
+                "{} {} read as no sales (0) for each item selling before and after them: the \
+                 table writes no zeros, and its items go without sales often enough near them \
+                 for a period without any sale to be likely: {} (if they are missing from the \
+                 export instead, add them)",
+                periods(&quiet),
+                if quiet.len() == 1 { "was" } else { "were" },
+                listing(&ranges(&quiet))
             ));
         }
         if !missing.is_empty() {
-            let why = if writes_zeros {
-                "the table writes zeros elsewhere, so a period without sales would have its rows"
-            } else {
-                "the items sell too often for so long a stretch without any sale to be chance"
+            let why = match zero_line {
+                Some(line) => format!(
+                    "the table writes its zeros (line {line} is one), so a period without sales \
+                     would have rows"
+                ),
+                None => "its items sell in too many of the periods near them for none to sell \
+                         by chance"
+                    .to_string(),
             };
             let missing: Vec<Period> = missing.into_iter().collect();
             self.out.warnings.push(format!(
-                "{} no row names at all {} taken as missing from the export and filled as gaps \
-                 ({why}): {}",
-                count(missing.len(), "period"),
+                "{} {} taken as missing from the export and filled as gaps for each item selling \
+                 before and after them ({why}): {}; if nothing sold then (a holiday or a \
+                 closure), add rows of 0 for them",
+                periods(&missing),
                 if missing.len() == 1 { "was" } else { "were" },
-                shown(&missing)
+                listing(&ranges(&missing))
             ));
         }
     }

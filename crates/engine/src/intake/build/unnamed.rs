@@ -2,20 +2,25 @@
 //!
 //! A table of rows (a till's or an order system's export) that writes no zeros has no row for
 //! a period in which nothing sold. Inside the table's span, a period no row names at all is:
-//! - closed: its place in the calendar's season (weekday, month, quarter, ISO week) has no
-//!   row at all in at least 80 % of its occurrences and in at least 2 of them, while the other
-//!   places have rows in most of theirs (a shop shut on Sundays, a nursery shut in January;
-//!   our choice of cut-offs): no sales;
-//! - no sales: as often as the items sell, periods with no sale at all are to be expected.
-//!   With `r_i` the share of item i's run (closed days left out) that has rows, and the items
-//!   taken as independent, a stretch of L periods without any row has the chance
-//!   `P = prod_t prod_i (1 - r_i)` (over the items whose run covers t); the stretch is chance
-//!   when `N P >= 0.01`, N the span's periods (closed days left out; our choice of cut-off);
-//! - missing from the export: a stretch less likely than that (a month without a row in a
-//!   table whose items sell every month): a gap, filled as gaps are.
+//! - closed: its place in the calendar's season (weekday, month, quarter, ISO week) has no row
+//!   in at least 80 % of its occurrences within 6 seasons either side, and in at least 2 of
+//!   them, while the periods of the other places in that window have rows in at least 75 % of
+//!   theirs (a shop shut on Sundays, a stall open only at weekends, a kiosk open only in summer;
+//!   in a table of slow items a place empty by chance is left to the next rule; our choice of
+//!   cut-offs): no sales;
+//! - quiet: as often as the items go without a sale near it, a stretch without any is to be
+//!   expected. Each item's chance of a period without a row is taken from the 30 open periods
+//!   of its run on each side of the stretch, `p_i = q_i / (n_i + 1)` (q_i of those n_i periods
+//!   without its row; the `+ 1` keeps an item seen to sell in every one of them from ever
+//!   being quiet); with the items taken as independent the stretch has the chance
+//!   `P = prod_i p_i^(o_i)` (o_i: the stretch's periods in item i's run), and it is quiet when
+//!   `N P >= 0.01`, N the span's open periods (our choice of cut-off): no sales;
+//! - missing from the export: neither (a month without a row in a table whose items sell every
+//!   month, a busy shop's closed holiday): a gap, filled as gaps are.
 //!
-//! A table that writes a zero anywhere (a row with quantity 0) writes its quiet periods too,
-//! so there every period no row names is missing.
+//! A table that writes its zeros (more rows with quantity 0 than periods with rows for other
+//! items but none for an item) writes its quiet periods too: there no period is quiet, but a
+//! closed one still has no rows.
 //!
 //! Kept apart from: the periods some row names (`long`, where an item without a row in them
 //! sold nothing) and the warnings, which the builder words.
@@ -23,109 +28,151 @@
 /// What a period no row names is read as.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub(super) enum Unnamed {
-    /// A period of a season position (a weekday, a month) the business is closed in: no sales.
+    /// A period of a season place (a weekday, a month) the business is closed in: no sales.
     Closed,
-    /// A period without a sale, as the items' own rates make likely: no sales.
+    /// A period without a sale, as the items' own rates near it make likely: no sales.
     Quiet,
     /// Missing from the export: a gap.
     Missing,
 }
 
-/// A season position is closed when at least this share of its periods have no row...
+/// A season place is closed when at least this share of its periods nearby have no row...
 const CLOSED_SHARE: f64 = 0.8;
 /// ...and at least this many of them.
 const CLOSED_AT_LEAST: usize = 2;
+/// ...while the other places have rows in at least this share of theirs.
+const OPEN_SHARE: f64 = 0.75;
+/// Seasons either side looked at for a closed place.
+const CLOSED_SEASONS: usize = 6;
+/// Open periods either side of a stretch from which the items' chances are taken.
+const NEARBY: usize = 30;
 /// A stretch with no row is chance when its expected count in the span is at least this.
 const CHANCE: f64 = 0.01;
 
-/// One item's run in the span: first and last index, and how many periods in it have rows.
-#[derive(Clone, Copy, Debug)]
-pub(super) struct Run {
-    pub first: usize,
-    pub last: usize,
-    pub with_rows: usize,
+/// One item's periods in the span: the sorted, distinct indexes of its rows (at least one).
+pub(super) struct ItemRows(pub Vec<usize>);
+
+impl ItemRows {
+    fn first(&self) -> usize {
+        self.0[0]
+    }
+    fn last(&self) -> usize {
+        self.0[self.0.len() - 1]
+    }
+    /// Its rows in `from..to`.
+    fn rows_in(&self, from: usize, to: usize) -> usize {
+        self.0.partition_point(|&t| t < to) - self.0.partition_point(|&t| t < from)
+    }
 }
 
 /// The reading of each period of the span (`None` where some row names it). `named[t]`: a row
-/// names period t; `season`: each period's position in the calendar's season and the number
-/// of positions (`None` without a season: yearly, undated); `writes_zeros`: some row's
-/// quantity is 0.
+/// names period t; `season`: the calendar's season length (7 daily, 52 weekly, 12 monthly, 4
+/// quarterly; a place recurs that many periods later), `None` without one (yearly, undated);
+/// `writes_zeros`: see the module doc.
 pub(super) fn classify(
     named: &[bool],
-    season: Option<(&dyn Fn(usize) -> usize, usize)>,
-    runs: &[Run],
+    season: Option<usize>,
+    items: &[ItemRows],
     writes_zeros: bool,
 ) -> Vec<Option<Unnamed>> {
-    let n = named.len();
     let mut out: Vec<Option<Unnamed>> = named
         .iter()
         .map(|&is_named| (!is_named).then_some(Unnamed::Missing))
         .collect();
-    if writes_zeros {
-        return out;
+    if let Some(season) = season {
+        mark_closed(named, season, &mut out);
     }
-    if let Some((position, positions)) = season {
-        let mut periods = vec![0usize; positions];
-        let mut empty = vec![0usize; positions];
-        for (t, &is_named) in named.iter().enumerate() {
-            let w = position(t);
-            periods[w] += 1;
-            empty[w] += usize::from(!is_named);
-        }
-        let all_empty = empty.iter().sum::<usize>() as f64;
-        let closed: Vec<bool> = (0..positions)
-            .map(|w| {
-                let others_empty = all_empty - empty[w] as f64;
-                empty[w] >= CLOSED_AT_LEAST
-                    && empty[w] as f64 >= CLOSED_SHARE * periods[w] as f64
-                    && 2.0 * others_empty < (n - periods[w]) as f64
-            })
-            .collect();
-        for (t, reading) in out.iter_mut().enumerate() {
-            if reading.is_some() && closed[position(t)] {
-                *reading = Some(Unnamed::Closed);
-            }
-        }
+    if !writes_zeros {
+        mark_quiet(items, &mut out);
     }
-    // Closed days before t, to leave them out of each run's length.
-    let mut closed_before = vec![0usize; n + 1];
+    out
+}
+
+/// Prefix sums of `flag` over the span: `sums[b] - sums[a]` counts it in `a..b`.
+fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
+    let mut sums = vec![0; n + 1];
     for t in 0..n {
-        closed_before[t + 1] = closed_before[t] + usize::from(out[t] == Some(Unnamed::Closed));
+        sums[t + 1] = sums[t] + usize::from(flag(t));
     }
-    // ln prod_i (1 - r_i) at each t, summed over runs by a difference array.
-    let mut step = vec![0.0f64; n + 1];
-    for run in runs {
-        let open =
-            (run.last + 1 - run.first) - (closed_before[run.last + 1] - closed_before[run.first]);
-        if open == 0 || run.with_rows >= open {
+    sums
+}
+
+fn mark_closed(named: &[bool], places: usize, out: &mut [Option<Unnamed>]) {
+    let n = named.len();
+    let reach = CLOSED_SEASONS * places;
+    // A period whose place has no row in most of its occurrences nearby (itself included).
+    let candidate: Vec<bool> = (0..n)
+        .map(|t| {
+            let first = t - (t / places).min(CLOSED_SEASONS) * places;
+            let (mut seen, mut empty) = (0usize, 0usize);
+            for s in (first..n.min(t + reach + 1)).step_by(places) {
+                seen += 1;
+                empty += usize::from(!named[s]);
+            }
+            empty >= CLOSED_AT_LEAST && empty as f64 >= CLOSED_SHARE * seen as f64
+        })
+        .collect();
+    let open = prefix(n, |t| !candidate[t]);
+    let open_named = prefix(n, |t| !candidate[t] && named[t]);
+    for t in 0..n {
+        if out[t].is_none() || !candidate[t] {
             continue;
         }
-        let ln_quiet = (1.0 - run.with_rows as f64 / open as f64).ln();
-        step[run.first] += ln_quiet;
-        step[run.last + 1] -= ln_quiet;
+        let (a, b) = (t.saturating_sub(reach), n.min(t + reach + 1));
+        let others = open[b] - open[a];
+        if others > 0 && (open_named[b] - open_named[a]) as f64 >= OPEN_SHARE * others as f64 {
+            out[t] = Some(Unnamed::Closed);
+        }
     }
-    let mut ln_quiet = Vec::with_capacity(n);
-    let mut acc = 0.0;
-    for s in &step[..n] {
-        acc += s;
-        ln_quiet.push(acc);
-    }
-    let open_periods = n - closed_before[n];
+}
+
+fn mark_quiet(items: &[ItemRows], out: &mut [Option<Unnamed>]) {
+    let n = out.len();
+    let closed = prefix(n, |t| out[t] == Some(Unnamed::Closed));
+    let missing = prefix(n, |t| out[t] == Some(Unnamed::Missing));
+    let open_periods = n - closed[n];
     let ln_limit = CHANCE.ln() - (open_periods.max(1) as f64).ln();
+    // The periods `count` open ones before `at` (or after `from`), closed ones passed over.
+    let back = |at: usize, count: usize| -> usize {
+        let mut a = at;
+        while a > 0 && (at - a) - (closed[at] - closed[a]) < count {
+            a -= 1;
+        }
+        a
+    };
+    let ahead = |from: usize, count: usize| -> usize {
+        let mut b = from;
+        while b < n && (b - from) - (closed[b] - closed[from]) < count {
+            b += 1;
+        }
+        b
+    };
     let mut t = 0;
     while t < n {
         if out[t] != Some(Unnamed::Missing) {
             t += 1;
             continue;
         }
-        // A stretch of periods no row names, closed days inside it passed over.
+        // A stretch of periods no row names, closed ones inside it passed over.
         let start = t;
-        let mut ln_chance = 0.0;
         while t < n && matches!(out[t], Some(Unnamed::Missing | Unnamed::Closed)) {
-            if out[t] == Some(Unnamed::Missing) {
-                ln_chance += ln_quiet[t];
-            }
             t += 1;
+        }
+        let (left, right) = (back(start, NEARBY), ahead(t, NEARBY));
+        let mut ln_chance = 0.0;
+        for item in items {
+            let (first, end) = (item.first(), item.last() + 1);
+            let (lo, hi) = (start.max(first), t.min(end));
+            if lo >= hi || missing[hi] == missing[lo] {
+                continue;
+            }
+            let in_stretch = missing[hi] - missing[lo];
+            let (a, b) = (left.max(first), right.min(end));
+            let open = |x: usize, y: usize| (y - x) - (closed[y] - closed[x]);
+            let nearby = open(a, start) + open(t, b);
+            let rows = item.rows_in(a, start) + item.rows_in(t, b);
+            let q = nearby - rows;
+            ln_chance += in_stretch as f64 * (q as f64 / (nearby as f64 + 1.0)).ln();
         }
         if ln_chance >= ln_limit {
             for reading in &mut out[start..t] {
@@ -135,32 +182,24 @@ pub(super) fn classify(
             }
         }
     }
-    out
 }
 
 #[cfg(test)]
 mod tests {
-    use super::{classify, Run, Unnamed};
+    use super::{classify, ItemRows, Unnamed};
 
-    /// `rows`: one string per item over the span, `x` a row, `.` none; `daily_from`: the
-    /// weekday of period 0 for a daily table. Expected: `.` named, `c` closed, `q` quiet,
-    /// `m` missing.
-    fn check(rows: &[&str], daily_from: Option<usize>, writes_zeros: bool, expected: &str) {
+    /// `rows`: one string per item over the span, `x` a row, `.` none; `daily`: a season of
+    /// 7. Expected: `.` named, `c` closed, `q` quiet, `m` missing.
+    fn check(rows: &[&str], daily: bool, writes_zeros: bool, expected: &str) {
         let n = rows[0].len();
         let named: Vec<bool> = (0..n)
             .map(|t| rows.iter().any(|r| r.as_bytes()[t] == b'x'))
             .collect();
-        let runs: Vec<Run> = rows
+        let items: Vec<ItemRows> = rows
             .iter()
-            .map(|r| Run {
-                first: r.find('x').unwrap(),
-                last: r.rfind('x').unwrap(),
-                with_rows: r.matches('x').count(),
-            })
+            .map(|r| ItemRows(r.match_indices('x').map(|(t, _)| t).collect()))
             .collect();
-        let weekday = daily_from.map(|d| move |t: usize| (t + d) % 7);
-        let season = weekday.as_ref().map(|f| (f as &dyn Fn(usize) -> usize, 7));
-        let got: String = classify(&named, season, &runs, writes_zeros)
+        let got: String = classify(&named, daily.then_some(7), &items, writes_zeros)
             .iter()
             .map(|r| match r {
                 None => '.',
@@ -175,9 +214,11 @@ mod tests {
     #[test]
     fn readings_of_periods_no_row_names() {
         // One item selling about every other period: its quiet periods are chance.
-        check(&["x.xx.x..x.xx.x"], None, false, ".q..q.qq.q..q.");
+        check(&["x.xx.x..x.xx.x"], false, false, ".q..q.qq.q..q.");
         // The same in a table that writes zeros: missing.
-        check(&["x.xx.x..x.xx.x"], None, true, ".m..m.mm.m..m.");
+        check(&["x.xx.x..x.xx.x"], false, true, ".m..m.mm.m..m.");
+        // One item selling in every period but one: missing, however few the periods.
+        check(&["xxxxxx.xxxxx"], false, false, "......m.....");
         // Three items selling in every period but one that no row names: missing.
         check(
             &[
@@ -185,25 +226,27 @@ mod tests {
                 "xxxxxx.xxxxxxxxxxxxxxxx",
                 "xxxxxx.xxxxxxxxxxxxxxxx",
             ],
-            None,
+            false,
             false,
             "......m................",
         );
-        // A busy daily table shut on Sundays (period 0 a Monday): closed days.
+        // A busy daily table shut on Sundays (period 0 a Monday): closed days, also where
+        // the table writes zeros.
         let busy = "xxxxxx.xxxxxx.xxxxxx.xxxxxx.x";
-        check(
-            &[busy, busy],
-            Some(0),
-            false,
-            "......c......c......c......c.",
-        );
+        let shut = "......c......c......c......c.";
+        check(&[busy, busy], true, false, shut);
+        check(&[busy, busy], true, true, shut);
+        // Open only at weekends: the five weekdays are closed.
+        let weekends = "xx.....xx.....xx.....xx";
+        check(&[weekends], true, false, "..ccccc..ccccc..ccccc..");
         // A sparse daily table: no weekday stands out, the quiet days are chance.
         let sparse = "x..x.....x...x..x......x....x";
-        check(&[sparse], Some(0), false, ".qq.qqqqq.qqq.qq.qqqqqq.qqqq.");
-        // A long stretch without rows in a table of frequent sellers: missing even for one item.
+        check(&[sparse], true, false, ".qq.qqqqq.qqq.qq.qqqqqq.qqqq.");
+        // A stretch without rows in a table of frequent sellers: missing, while a lone quiet
+        // period of an item seen to go without sales is chance.
         check(
             &["xxxx.xxxxx........xxxxxxx.xxx"],
-            None,
+            false,
             false,
             "....q.....mmmmmmmm.......q...",
         );
