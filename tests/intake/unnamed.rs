@@ -185,3 +185,54 @@ fn a_table_writing_zeros_has_no_quiet_days() {
     );
     assert_eq!(report.items[0].values[10..13], [None, None, None]);
 }
+
+// Two stores in one table: a month of the South store's export missing had been read as no
+// sales for its items (the North store's rows name those days). Periods are read per store.
+#[test]
+fn a_store_missing_from_the_export_has_gaps_not_zeros() {
+    let mut text = String::from("store,item,date,qty\n");
+    let first = days_from_civil(2024, 3, 4);
+    for t in 0..70 {
+        let (y, m, d) = civil_from_days(first + t);
+        for store in ["North", "South"] {
+            if store == "South" && (20..40).contains(&t) {
+                continue;
+            }
+            for item in ["Oak tray", "Seed tin"] {
+                text.push_str(&format!("{store},{item},{y}-{m:02}-{d:02},{}\n", 3 + t % 5));
+            }
+        }
+    }
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "20 days that no row of \"South\" names were taken as missing",
+                "2024-03-24 to 2024-04-12",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let south = &report.items[2];
+    assert_eq!(south.name, "South / Oak tray");
+    assert!(south.values[20..40].iter().all(Option::is_none));
+    assert_eq!(report.gaps_filled, 40);
+}
+
+// A row shorter than the item columns (a store without its item) had made the store grouping
+// index past the row's cells and panic (found by comparing probe files' reports).
+#[test]
+fn a_short_row_among_grouped_items_is_read_as_before() {
+    check(
+        "store,item,qty\nNorth,Oak tray,5\nNorth,Seed tin,3\nSouth,Oak tray,2\nSouth\n",
+        Expect {
+            items: Some(vec![
+                ("North / Oak tray", vec![Some(5.0)]),
+                ("North / Seed tin", vec![Some(3.0)]),
+                ("South / Oak tray", vec![Some(2.0)]),
+            ]),
+            warned: vec![vec!["\"South\" has no values"]],
+            ..Expect::default()
+        },
+    );
+}

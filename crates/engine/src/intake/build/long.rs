@@ -105,23 +105,37 @@ impl<'a> Builder<'a> {
             }
         }
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
-        // The periods some row names: where an item has no row in one of them, it sold
-        // nothing then (tables of rows leave out the zeros); a period no row names is a gap.
+        // The periods some row of the item's group names: where an item has no row in one of
+        // them, it sold nothing then (tables of rows leave out the zeros); a period no row of
+        // the group names is read by `unnamed`.
         let dated = column.is_some();
-        let with_rows: HashSet<Period> = items
-            .values()
-            .flat_map(|item| item.rows.iter().map(|r| r.0))
+        let group_column = group_column(&item_columns, &items);
+        let group_of =
+            |item: &LongItem<'_>| group_column.map_or(String::new(), |j| group_name(item, j));
+        let mut group_order: Vec<String> = Vec::new();
+        let mut members: HashMap<String, Vec<&LongItem<'a>>> = HashMap::new();
+        for key in &order {
+            let item = &items[key];
+            let group = group_of(item);
+            if !members.contains_key(&group) {
+                group_order.push(group.clone());
+            }
+            members.entry(group).or_default().push(item);
+        }
+        let mut groups: HashMap<String, Group> = members
+            .into_iter()
+            .map(|(name, members)| (name, Group::read(&members, dated)))
             .collect();
-        let (unnamed, zero_line) = if dated {
-            unnamed_periods(&items, &with_rows)
-        } else {
-            (HashMap::new(), None)
-        };
+        let item_group: HashMap<String, String> = order
+            .iter()
+            .map(|key| (key.clone(), group_of(&items[key])))
+            .collect();
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
-        let mut read_as_none: Vec<(Period, Unnamed)> = Vec::new();
-        let mut missing_periods: BTreeSet<Period> = BTreeSet::new();
         for key in order {
+            let Some(group) = item_group.get(&key).and_then(|g| groups.get_mut(g)) else {
+                continue;
+            };
             let Some(LongItem {
                 name,
                 mut rows,
@@ -214,18 +228,18 @@ impl<'a> Builder<'a> {
                 if present[i] || !dated {
                     continue;
                 }
-                if with_rows.contains(&period) {
+                if group.with_rows.contains(&period) {
                     values[i] = Some(0.0);
                     present[i] = true;
                     no_sales += 1;
                 } else if let Some(reading @ (Unnamed::Closed | Unnamed::Quiet)) =
-                    unnamed.get(&period).copied()
+                    group.unnamed.get(&period).copied()
                 {
                     values[i] = Some(0.0);
                     present[i] = true;
-                    read_as_none.push((period, reading));
+                    group.read_as_none.insert(period, reading);
                 } else {
-                    missing_periods.insert(period);
+                    group.missing.insert(period);
                 }
             }
             if no_sales > 0 {
@@ -247,13 +261,21 @@ impl<'a> Builder<'a> {
             });
         }
         if !zeros.is_empty() {
+            let of_group = group_column.map_or(String::new(), |j| {
+                format!(" of its {}", self.table.column_name(j))
+            });
             self.out.warnings.push(format!(
-                "periods with rows for other items but none for an item were read as no sales \
-                 (0) for it, since tables of rows usually leave out the zeros: {}",
+                "periods with rows for other items{of_group} but none for an item were read as \
+                 no sales (0) for it, since tables of rows usually leave out the zeros: {}",
                 listing(&zeros)
             ));
         }
-        self.unnamed_warnings(read_as_none, missing_periods, zero_line);
+        for name in group_order {
+            if let Some(group) = groups.remove(&name) {
+                let whose = group_column.map(|_| name);
+                self.unnamed_warnings(whose.as_deref(), group);
+            }
+        }
         if !summed.is_empty() {
             self.out.warnings.push(format!(
                 "{} on several rows, summed: {}",
@@ -298,12 +320,68 @@ fn season_place(frequency: Frequency, position: usize) -> String {
     }
 }
 
+/// The column that groups a long table's items for the periods' readings: of two or more item
+/// columns, the one with the fewest distinct names, when it has at least two and fewer than
+/// there are items (a store beside the item, "North / Oak tray": a period no row of North
+/// names is read for North's items by `unnamed`, though South's rows name it); else none.
+fn group_column(item_columns: &[usize], items: &HashMap<String, LongItem<'_>>) -> Option<usize> {
+    if item_columns.len() < 2 {
+        return None;
+    }
+    let (count, j) = item_columns
+        .iter()
+        .map(|&j| {
+            let names: HashSet<String> = items.values().map(|item| group_name(item, j)).collect();
+            (names.len(), j)
+        })
+        .min_by_key(|(count, j)| (*count, *j))?;
+    (count >= 2 && count < items.len()).then_some(j)
+}
+
+/// An item's name in group column `j` (from its first row; white space as in item names).
+fn group_name(item: &LongItem<'_>, j: usize) -> String {
+    let cell = item.rows[0].2.cells.get(j).map_or("", String::as_str);
+    cell.split_whitespace().collect::<Vec<_>>().join(" ")
+}
+
+/// The periods of one group of items: those its rows name, the readings of those they do
+/// not, and what the items' loop found.
+struct Group {
+    with_rows: HashSet<Period>,
+    unnamed: HashMap<Period, Unnamed>,
+    /// The line of the group's first row of 0 when the group writes its zeros.
+    zero_line: Option<usize>,
+    read_as_none: BTreeMap<Period, Unnamed>,
+    missing: BTreeSet<Period>,
+}
+
+impl Group {
+    fn read(members: &[&LongItem<'_>], dated: bool) -> Group {
+        let with_rows: HashSet<Period> = members
+            .iter()
+            .flat_map(|item| item.rows.iter().map(|r| r.0))
+            .collect();
+        let (unnamed, zero_line) = if dated {
+            unnamed_periods(members, &with_rows)
+        } else {
+            (HashMap::new(), None)
+        };
+        Group {
+            with_rows,
+            unnamed,
+            zero_line,
+            read_as_none: BTreeMap::new(),
+            missing: BTreeSet::new(),
+        }
+    }
+}
+
 /// The reading of each period inside the table's span that no row names (see `unnamed`), and
 /// when the table writes its zeros, the line of its first row of 0. A span past
 /// [`MAX_PERIODS`] (items far apart; each item's own run is checked by `run`) is left unread:
 /// its unnamed periods stay gaps.
 fn unnamed_periods(
-    items: &HashMap<String, LongItem<'_>>,
+    items: &[&LongItem<'_>],
     with_rows: &HashSet<Period>,
 ) -> (HashMap<Period, Unnamed>, Option<usize>) {
     let (Some(&first), Some(&last)) = (with_rows.iter().min(), with_rows.iter().max()) else {
@@ -326,7 +404,7 @@ fn unnamed_periods(
     let mut item_rows = Vec::with_capacity(items.len());
     // Periods with rows for other items but none for the item, against rows of 0.
     let (mut without_row, mut zero_rows, mut zero_line) = (0usize, 0usize, None);
-    for item in items.values() {
+    for item in items {
         let mut periods: Vec<usize> = item.rows.iter().map(|r| index(r.0)).collect();
         periods.sort_unstable();
         periods.dedup();
@@ -378,13 +456,14 @@ impl Builder<'_> {
     /// Says how the periods no row names were read: closed and quiet ones as no sales, the
     /// rest as gaps (in a dated long table an item's gaps are exactly these, so this is the
     /// one warning about them).
-    fn unnamed_warnings(
-        &mut self,
-        read_as_none: Vec<(Period, Unnamed)>,
-        missing: BTreeSet<Period>,
-        zero_line: Option<usize>,
-    ) {
-        let readings: BTreeMap<Period, Unnamed> = read_as_none.into_iter().collect();
+    fn unnamed_warnings(&mut self, whose: Option<&str>, group: Group) {
+        let Group {
+            read_as_none: readings,
+            missing,
+            zero_line,
+            ..
+        } = group;
+        let no_row = whose.map_or("no row".to_string(), |g| format!("no row of \"{g}\""));
         let of = |kind: Unnamed| -> Vec<Period> {
             readings
                 .iter()
@@ -397,7 +476,7 @@ impl Builder<'_> {
                 .first()
                 .is_some_and(|p| p.frequency() == Frequency::Daily);
             let noun = if daily { "day" } else { "period" };
-            format!("{} that no row names", count(list.len(), noun))
+            format!("{} that {no_row} names", count(list.len(), noun))
         };
         let closed = of(Unnamed::Closed);
         if let Some(first) = closed.first() {
