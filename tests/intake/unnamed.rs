@@ -236,3 +236,111 @@ fn a_short_row_among_grouped_items_is_read_as_before() {
         },
     );
 }
+
+/// A monthly `header` table of rows from `rows`: (group, item, month of 2023, quantity).
+fn monthly(header: &str, rows: &[(&str, &str, u32, u32)]) -> String {
+    let mut text = format!("{header}\n");
+    for (group, item, m, q) in rows {
+        text.push_str(&format!("{group},{item},2023-{m:02},{q}\n"));
+    }
+    text
+}
+
+/// Rows for each of `groups` x `items` in months 1-12 but `skip(group, month)`.
+fn busy(
+    groups: &[&'static str],
+    items: &[&'static str],
+    skip: impl Fn(&str, u32) -> bool,
+) -> Vec<(&'static str, &'static str, u32, u32)> {
+    let mut rows = Vec::new();
+    for m in 1..=12 {
+        for g in groups {
+            for i in items {
+                if !skip(g, m) {
+                    rows.push((*g, *i, m, 10 + m));
+                }
+            }
+        }
+    }
+    rows
+}
+
+// Grouping, after a second review: a month no row of the whole table names is read over all
+// items (per store it had looked like chance and read as no sales); only a column naming a
+// place groups (a category's or a customer's month without sales is no sales, not a gap;
+// grouping by them had made gaps); the place column groups in either order; store names
+// differing only in case are one store and their items one item.
+#[test]
+fn items_are_grouped_only_by_a_place_and_the_table_reads_first() {
+    let items = ["Oak tray", "Seed tin", "Rain gauge"];
+    let all_stores_lost_june = busy(&["North", "South"], &items, |_, m| m == 6);
+    let report = check(
+        &monthly("store,item,month,qty", &all_stores_lost_june),
+        Expect {
+            warned: vec![vec![
+                "1 period that no row names was taken as missing",
+                "2023-06",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert!(report.items.iter().all(|i| i.values[5].is_none()));
+    let south_lost_june = busy(&["North", "South"], &items, |g, m| g == "South" && m == 6);
+    for header in ["store,item,month,qty", "item,Store ID,month,qty"] {
+        let rows: Vec<_> = if header.starts_with("item") {
+            south_lost_june
+                .iter()
+                .map(|(g, i, m, q)| (*i, *g, *m, *q))
+                .collect()
+        } else {
+            south_lost_june.clone()
+        };
+        let report = check(
+            &monthly(header, &rows),
+            Expect {
+                warned: vec![vec![
+                    "no row of \"South\" names was taken as missing",
+                    "2023-06",
+                ]],
+                ..Expect::default()
+            },
+        );
+        let gaps: Vec<&str> = report
+            .items
+            .iter()
+            .filter(|i| i.values[5].is_none())
+            .map(|i| i.name.as_str())
+            .collect();
+        assert_eq!(gaps.len(), 3, "{header}: {gaps:?}");
+        assert!(gaps.iter().all(|name| name.contains("South")), "{gaps:?}");
+    }
+    for header in ["category,item,month,qty", "customer,item,month,qty"] {
+        let report = check(
+            &monthly(header, &south_lost_june),
+            Expect {
+                warned: vec![vec![
+                    "rows for other items but none for an item",
+                    "\"South / Oak tray\" 1",
+                ]],
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.gaps_filled, 0, "{header}");
+    }
+    let mut text = monthly(
+        "store,item,month,qty",
+        &busy(&["North"], &items, |_, _| false),
+    );
+    text = text.replace("North,Oak tray,2023-04", "north,Oak tray,2023-04");
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "\"North / Oak tray\" is written in 2 ways that differ only in white space or case",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items.len(), 3);
+    assert_eq!(report.gaps_filled, 0);
+}

@@ -8,8 +8,8 @@
 //! naming both lines; rows out of order are sorted, with a warning). Long tables may list rows in
 //! any order, and repeated (item, period) rows are summed, with a warning naming item, period and
 //! lines; a total above the values' bound (10^15, see [`super::number`]) is an error. Item names
-//! that differ only in white space (leading, trailing, repeated, tabs, no-break spaces) are one
-//! item, with a warning naming each spelling and its lines. Tables with no period column number
+//! that differ only in white space (leading, trailing, repeated, tabs, no-break spaces) or case
+//! are one item, with a warning naming each spelling and its lines. Tables with no period column number
 //! their rows 1, 2, ...; a blank line inside such a table is a gap, while in dated tables blank
 //! lines are skipped with a warning.
 //!
@@ -32,6 +32,7 @@ use super::text::Record;
 
 mod across;
 mod long;
+mod readings;
 mod unnamed;
 use super::{DecimalMark, Item, Layout, RowError};
 use crate::calendar::{Frequency, Period};

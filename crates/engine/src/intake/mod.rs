@@ -73,8 +73,8 @@
 //!   the others in every period, module `totals`) is left out with a warning naming it, so
 //!   its demand is not ordered twice.
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
-//!   (it has no values, so it is not planned); item names that differ only in white space are
-//!   one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
+//!   (it has no values, so it is not planned); item names that differ only in white space or
+//!   case are one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
 //!   item (an error).
 //! - Bytes: `read_bytes` decodes UTF-8, or UTF-16 with its byte-order mark, and reports every
 //!   line with bytes that are not text, with the bytes; `read` reports every line holding
