@@ -305,3 +305,32 @@ fn calendar_details_in_company() {
         },
     );
 }
+
+// A store cell left empty on a few rows made those rows an item of their own ("Milk" beside
+// "North / Milk" and "South / Milk") without a word; now a warning names them, their lines and
+// the empty column. A product without a variant among variants of others is not warned about.
+#[test]
+fn rows_leaving_an_item_column_empty_are_named() {
+    check(
+        "store,item,month,qty\nNorth,Milk,2023-01,5\nSouth,Milk,2023-01,4\nNorth,Milk,2023-02,6\n,Milk,2023-02,3\nSouth,Milk,2023-03,2\nNorth,Milk,2023-03,1\n",
+        Expect {
+            warned: vec![vec![
+                "read as items of their own",
+                "\"Milk\" (line 5; \"store\" empty; as in \"North / Milk\" and \"South / Milk\")",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let report = read(
+        "product,variant,month,qty\nTee,Small,2023-01,5\nTee,Large,2023-01,4\nMug,,2023-01,3\nTee,Small,2023-02,6\nTee,Large,2023-02,2\nMug,,2023-02,1\n",
+    );
+    assert!(
+        report
+            .warnings
+            .iter()
+            .all(|w| !w.contains("items of their own")),
+        "{:#?}",
+        report.warnings
+    );
+    assert_eq!(report.items.len(), 3, "{:#?}", report.items);
+}

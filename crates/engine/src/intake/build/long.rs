@@ -26,6 +26,8 @@ struct LongItem<'a> {
     /// the order first seen; `spelled` finds a spelling's place.
     spellings: Vec<(String, Vec<usize>)>,
     spelled: HashMap<String, usize>,
+    /// The item columns its first row fills.
+    filled: Vec<usize>,
 }
 
 /// A spelling in quotes, with tabs and white space other than the plain space made visible.
@@ -92,6 +94,7 @@ impl<'a> Builder<'a> {
                     rows: Vec::new(),
                     spellings: Vec::new(),
                     spelled: HashMap::new(),
+                    filled: filled.clone(),
                 }
             });
             item.rows.push((period, value, row));
@@ -105,6 +108,7 @@ impl<'a> Builder<'a> {
         }
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
         let dated = column.is_some();
+        self.partly_named(&item_columns, &order, &items);
         let mut readings = self.readings(&item_columns, &order, &items, dated);
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
@@ -281,6 +285,72 @@ impl<'a> Builder<'a> {
             })
             .collect();
         Readings::new(&periods, place.map(|j| self.table.column_name(j)), dated)
+    }
+}
+
+impl Builder<'_> {
+    /// Warns about items named by some item columns only where items named in full share
+    /// those names (",Milk" among "North,Milk" and "South,Milk": a store cell left empty, so
+    /// the rows are read as an item of their own). A product without a variant beside
+    /// variants of others ("Mug," among "Tee,Small") shares no name and is not warned about.
+    fn partly_named(
+        &mut self,
+        item_columns: &[usize],
+        order: &[String],
+        items: &HashMap<String, LongItem<'_>>,
+    ) {
+        let in_full = |item: &LongItem<'_>| item.filled.len() == item_columns.len();
+        let mut named: HashMap<(usize, String), Vec<&str>> = HashMap::new();
+        for item in items.values().filter(|i| in_full(i)) {
+            for &j in item_columns {
+                let key = (j, name_key(&group_name(item, j)));
+                named.entry(key).or_default().push(&item.name);
+            }
+        }
+        let mut found = Vec::new();
+        for item in order.iter().map(|k| &items[k]).filter(|i| !in_full(i)) {
+            let Some(&first) = item.filled.first() else {
+                continue;
+            };
+            let key_at = |j: usize| (j, name_key(&group_name(item, j)));
+            let Some(candidates) = named.get(&key_at(first)) else {
+                continue;
+            };
+            let mut alike: Vec<String> = candidates
+                .iter()
+                .filter(|full| {
+                    item.filled
+                        .iter()
+                        .all(|&j| named.get(&key_at(j)).is_some_and(|l| l.contains(full)))
+                })
+                .map(|full| format!("\"{full}\""))
+                .collect();
+            if alike.is_empty() {
+                continue;
+            }
+            alike.sort();
+            alike.dedup();
+            let empty: Vec<String> = item_columns
+                .iter()
+                .filter(|j| !item.filled.contains(j))
+                .map(|j| format!("\"{}\"", self.table.column_name(*j)))
+                .collect();
+            let numbers: Vec<usize> = item.rows.iter().map(|r| r.2.line).collect();
+            found.push(format!(
+                "\"{}\" ({}; {} empty; as in {})",
+                item.name,
+                lines(&numbers),
+                super::joined(&empty),
+                super::joined(&alike)
+            ));
+        }
+        if !found.is_empty() {
+            self.out.warnings.push(format!(
+                "rows that leave an item column empty were read as items of their own, though \
+                 items named in full share their other names: {}; fill in the empty cells",
+                listing(&found)
+            ));
+        }
     }
 }
 
