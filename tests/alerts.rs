@@ -94,3 +94,74 @@ fn sparse_demand_gone_quiet() {
         .collect();
     check(y, &[AlertKind::SparseDemand, AlertKind::NoRecentDemand]);
 }
+
+/// `count` monthly histories of 60 months: normal noise of sd 10 around 100 (a seeded
+/// generator, Box-Muller on a 64-bit linear congruential one: made up for this check), plus
+/// `shift` in the last 12 months (the default holdout).
+fn noisy(count: usize, shift: f64) -> Vec<Vec<f64>> {
+    let mut state: u64 = 0x2545_f491_4f6c_dd1d;
+    let mut uniform = move || {
+        state = state
+            .wrapping_mul(6_364_136_223_846_793_005)
+            .wrapping_add(1_442_695_040_888_963_407);
+        ((state >> 11) as f64 + 0.5) / (1u64 << 53) as f64
+    };
+    (0..count)
+        .map(|_| {
+            (0..60)
+                .map(|t| {
+                    let z = (-2.0 * uniform().ln()).sqrt()
+                        * (2.0 * std::f64::consts::PI * uniform()).cos();
+                    (100.0 + 10.0 * z + if t >= 48 { shift } else { 0.0 }).round()
+                })
+                .collect()
+        })
+        .collect()
+}
+
+/// The share of `histories` raising each of `kinds`.
+fn rates(histories: &[Vec<f64>], kinds: &[AlertKind]) -> Vec<f64> {
+    let mut counts = vec![0usize; kinds.len()];
+    for values in histories {
+        let series = monthly(values.iter().map(|v| Some(*v)).collect());
+        let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+        let got = alerts(&plan, Frequency::Monthly);
+        for (count, kind) in counts.iter_mut().zip(kinds) {
+            *count += usize::from(got.iter().any(|a| a.kind == *kind));
+        }
+    }
+    counts
+        .iter()
+        .map(|c| *c as f64 / histories.len() as f64)
+        .collect()
+}
+
+// Alerts that hold a false-alarm rate: on stable histories (nothing to alert about) the
+// tracking signal over a 12-month holdout had passed ±4 for 39 % of items, and the bias test
+// fired for 11 % (errors from one origin share its level error); measured on 300 such items
+// through the command line on 2026-12-03. Each is now judged against the forecast's own past
+// origins too, so each fires for at most about 1 in 10 here, while a 30 % jump in the holdout
+// is still found for nearly every item.
+#[test]
+fn alerts_on_stable_histories_are_rare_and_a_jump_is_found() {
+    let kinds = [
+        AlertKind::TrackingSignal,
+        AlertKind::Bias,
+        AlertKind::Outliers,
+    ];
+    let stable = rates(&noisy(100, 0.0), &kinds);
+    for (kind, rate) in kinds.iter().zip(&stable) {
+        assert!(
+            *rate <= 0.12,
+            "{kind:?} on {:.0} % of stable items",
+            100.0 * rate
+        );
+    }
+    let jumped = rates(&noisy(50, 30.0), &kinds[..2]);
+    assert!(jumped[1] >= 0.9, "bias found on {:.0} %", 100.0 * jumped[1]);
+    assert!(
+        jumped[0] >= 0.6,
+        "tracking signal on {:.0} %",
+        100.0 * jumped[0]
+    );
+}
