@@ -334,3 +334,37 @@ fn rows_leaving_an_item_column_empty_are_named() {
     );
     assert_eq!(report.items.len(), 3, "{:#?}", report.items);
 }
+
+// A till's export with a date and time in one column ("2024-01-05 14:32", ISO 8601's
+// "2024-01-05T14:32:00Z", "05/01/2024 2:32 PM") had every row refused; each row is now read by
+// its date, rows of one item and day added up, with a warning that the times were left out.
+#[test]
+fn dates_with_times_of_day_are_read_by_their_date() {
+    for (text, first) in [
+        (
+            "Date/Time,Item,Qty\n2024-01-05 14:32,Oak tray,2\n2024-01-05 16:10,Oak tray,1\n2024-01-06 09:05,Oak tray,4\n2024-01-07 11:00,Oak tray,3\n",
+            "2024-01-05 14:32",
+        ),
+        (
+            "Sold at,Item,Qty\n2024-01-05T14:32:00Z,Oak tray,2\n2024-01-05T16:10:00.5+01:00,Oak tray,1\n2024-01-06T09:05:00Z,Oak tray,4\n2024-01-07T00:00:00Z,Oak tray,3\n",
+            "2024-01-05T14:32:00Z",
+        ),
+        (
+            "Date,Item,Qty\n05/01/2024 2:32 PM,Oak tray,2\n05/01/2024 4:10 PM,Oak tray,1\n06/01/2024 9:05 AM,Oak tray,4\n13/01/2024 11:00 AM,Oak tray,3\n",
+            "05/01/2024 2:32 PM",
+        ),
+    ] {
+        let report = check(
+            text,
+            Expect {
+                warned: vec![
+                    vec!["carry a time of day", first, "read by its date"],
+                    vec!["summed"],
+                ],
+                frequency: Some(Frequency::Daily),
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items[0].values[..2], [Some(3.0), Some(4.0)], "{text}");
+    }
+}

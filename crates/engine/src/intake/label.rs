@@ -5,8 +5,12 @@
 //! those are in [`super::period`]. This module reads one cell and never looks at its neighbours.
 //!
 //! Accepted forms (letters in any case; separators `-`, `/`, `.`, space where shown):
-//! - year-first dates `2024-03-31`, `2024/03/31`, `2024.03.31`, optionally followed by a
-//!   midnight time (`2024-03-31 00:00`, `2024-03-31T00:00:00Z`), which spreadsheets add;
+//! - year-first dates `2024-03-31`, `2024/03/31`, `2024.03.31`;
+//! - any of the dates below followed by a time of day (`2024-03-31 00:00`, which spreadsheets
+//!   add, `2024-03-31T14:32:05Z`, `31/03/2024 14:32`, `31/03/2024 2:32 PM`, with seconds,
+//!   fractions and a UTC offset as ISO 8601 writes them): read as the date as written (the
+//!   offset is not applied), the time left out; [`time_after_date`] tells the column so it
+//!   can say so;
 //! - two-way dates `31/03/2024`, `03/31/2024`, `31-03-24`, `31.03.2024` (order decided later);
 //! - dates with month names `31 Mar 2024`, `31-Mar-24`, `Mar 31, 2024`, `March 31 2024`;
 //! - months `2024-03`, `2024/03`, `03/2024`, `Mar 2024`, `March 2024`, `2024 Mar`, `Mar-24`
@@ -231,27 +235,67 @@ fn small(digits: &str, max_len: usize) -> Option<u32> {
     digits.parse().ok()
 }
 
-/// Removes a midnight time after a date: " 00:00", " 00:00:00", "T00:00:00", optional ".000"
-/// and "Z". Any other time of day is not a period label.
-fn strip_midnight(cell: &str) -> &str {
-    for sep in [' ', 'T'] {
-        if let Some(pos) = cell.rfind(sep) {
-            let time = &cell[pos + 1..];
-            let time = time.strip_suffix('Z').unwrap_or(time);
-            let midnight = !time.is_empty()
-                && time.contains(':')
-                && time.chars().all(|c| matches!(c, '0' | ':' | '.'));
-            if midnight && pos > 0 {
-                return cell[..pos].trim_end();
-            }
+/// A cell split into what stands before a time of day and the time (`None` without one):
+/// "2024-03-31T14:32:05.5+01:00" gives ("2024-03-31", "14:32:05.5"); "31/03/2024 2:32 PM"
+/// gives ("31/03/2024", "2:32").
+fn split_time(cell: &str) -> (&str, Option<&str>) {
+    let lower = cell.to_ascii_lowercase();
+    let clock_end = ["am", "pm"]
+        .iter()
+        .find_map(|m| lower.strip_suffix(m).map(|rest| rest.trim_end().len()))
+        .unwrap_or(cell.len());
+    let head = &cell[..clock_end];
+    let Some(pos) = head.rfind([' ', 'T', 't']) else {
+        return (cell, None);
+    };
+    let mut time = &head[pos + 1..];
+    // A UTC offset as ISO 8601 writes it: Z, +01:00, -0500.
+    if let Some(t) = time.strip_suffix(['Z', 'z']) {
+        time = t;
+    } else if let Some(at) = time.rfind(['+', '-']) {
+        let offset = &time[at + 1..];
+        let digits = offset.replace(':', "");
+        if at > 0 && digits.len() == 4 && digits.bytes().all(|b| b.is_ascii_digit()) {
+            time = &time[..at];
         }
     }
-    cell
+    let whole = time.split('.').next().unwrap_or(time);
+    let fraction_ok = time
+        .split_once('.')
+        .is_none_or(|(_, f)| !f.is_empty() && f.bytes().all(|b| b.is_ascii_digit()));
+    if pos == 0 || !fraction_ok || !time_of_day(whole) {
+        return (cell, None);
+    }
+    (cell[..pos].trim_end(), Some(whole))
 }
 
-/// Reads one cell as a period label; `None` when it is not one of the accepted forms.
+/// `cell` without a time of day after it ("2024-03-31T14:32" gives "2024-03-31").
+pub(crate) fn without_time(cell: &str) -> &str {
+    split_time(cell.trim()).0
+}
+
+/// Whether `cell` is a date followed by a time of day other than midnight ("2024-03-31
+/// 14:32"): the column reads it as its date and says the times were left out.
+pub(crate) fn time_after_date(cell: &str) -> bool {
+    let (date, time) = split_time(cell.trim());
+    let midnight = |t: &str| t.bytes().all(|b| matches!(b, b'0' | b':'));
+    time.is_some_and(|t| !midnight(t))
+        && parse_label(date).is_some_and(|l| matches!(l.family(), Family::Date | Family::TwoWay))
+}
+
+/// Reads one cell as a period label; `None` when it is not one of the accepted forms. A time
+/// of day is taken only after a date (a day), never after a month, quarter or week.
 pub(crate) fn parse_label(cell: &str) -> Option<Label> {
-    let cell = strip_midnight(cell.trim());
+    let (cell, time) = split_time(cell.trim());
+    let label = parse_day_or_coarser(cell)?;
+    match label.family() {
+        Family::Date | Family::TwoWay => Some(label),
+        _ if time.is_none() => Some(label),
+        _ => None,
+    }
+}
+
+fn parse_day_or_coarser(cell: &str) -> Option<Label> {
     let (toks, seps) = tokens(cell)?;
     use Token::{Digits as D, Word as W};
     let same_sep = |allowed: &[&str]| seps.iter().all(|s| allowed.contains(&s.as_str()));
@@ -374,8 +418,41 @@ mod tests {
             assert_eq!(parse_label(cell), date_of(2024, 3, 31), "{cell}");
         }
         assert_eq!(parse_label("2024-02-30"), None);
-        assert_eq!(parse_label("2024-03-31 14:30"), None);
         assert_eq!(parse_label("2024-03/31"), None);
+    }
+
+    #[test]
+    fn dates_with_times_of_day_are_their_dates() {
+        // (cell, a time other than midnight)
+        for (cell, timed) in [
+            ("2024-03-31 14:30", true),
+            ("2024-03-31T14:32:05Z", true),
+            ("2024-03-31T14:32:05.250+01:00", true),
+            ("2024-03-31T23:59:59-0500", true),
+            ("2024-03-31 2:32 PM", true),
+            ("2024-03-31 00:00:00.000", false),
+        ] {
+            assert_eq!(parse_label(cell), date_of(2024, 3, 31), "{cell}");
+            assert_eq!(time_after_date(cell), timed, "{cell}");
+        }
+        assert_eq!(
+            parse_label("31/03/2024 14:32"),
+            Some(Label::TwoWay {
+                a: 31,
+                b: 3,
+                year: 2024
+            })
+        );
+        // Not a time: a month with a time, hours past 23, a stray word.
+        for cell in [
+            "2024-03 14:30",
+            "2024-03-31 24:10",
+            "2024-03-31 14:3",
+            "2024-03-31 noon",
+        ] {
+            assert_eq!(parse_label(cell), None, "{cell}");
+            assert!(!time_after_date(cell), "{cell}");
+        }
     }
 
     #[test]

@@ -222,6 +222,18 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         .map_or("2024-03 or 2024-03-31".to_string(), |(c, _)| c.to_string());
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
+    let timed: Vec<&str> = cells
+        .iter()
+        .copied()
+        .filter(|c| super::label::time_after_date(c))
+        .collect();
+    if let Some(first) = timed.first() {
+        warnings.push(format!(
+            "{} carry a time of day (\"{first}\"): each is read by its date and the time left out \
+             (rows of one item and day add up; a UTC offset is not applied)",
+            super::build::count(timed.len(), "period cell")
+        ));
+    }
     for (i, (cell, label)) in cells.iter().zip(&labels).enumerate() {
         if label.is_some_and(|l| l.family() == family) {
             continue;
@@ -254,7 +266,10 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                     .map(|l| two_way_days(keep(l)?, order.day_first))
                     .collect()
             } else {
-                if example.chars().any(char::is_alphabetic) {
+                if super::label::without_time(&example)
+                    .chars()
+                    .any(char::is_alphabetic)
+                {
                     kind = "dates with month names";
                 }
                 labels
