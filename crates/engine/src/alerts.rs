@@ -135,6 +135,34 @@ fn own_past(
     })
 }
 
+/// The one-step errors of the rolling origins: their mean and its t statistic.
+struct Lasting {
+    mean: f64,
+    t: f64,
+    origins: usize,
+}
+
+/// A bias the forecast's past shares (a combination trailing a steady trend): the mean of the
+/// rolling origins' one-step errors more than 2 standard errors from zero (t-test, common
+/// practice; one-step errors of successive origins share no shock), with at least
+/// [`OWN_PAST_ORIGINS`] origins. The holdout against its own past cannot see it, since the
+/// past leans the same way.
+fn lasting_bias(paths: &[Vec<f64>]) -> Option<Lasting> {
+    let first: Vec<f64> = paths.iter().filter_map(|p| p.first().copied()).collect();
+    let k = first.len();
+    if k < OWN_PAST_ORIGINS {
+        return None;
+    }
+    let mean = first.iter().sum::<f64>() / k as f64;
+    let sd = (first.iter().map(|e| (e - mean).powi(2)).sum::<f64>() / (k - 1) as f64).sqrt();
+    let t = mean / (sd / (k as f64).sqrt());
+    (sd > 0.0 && t.abs() > 2.0).then_some(Lasting {
+        mean,
+        t,
+        origins: k,
+    })
+}
+
 /// The tracking signal of a run of errors: their sum over their mean absolute value (as the
 /// Error ledger's last row has it); `None` when every error is 0.
 fn tracking_signal(errors: &[f64]) -> Option<f64> {
@@ -217,6 +245,22 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
                 Some(past) => past.p() <= OWN_PAST_P,
                 None => sd > 0.0 && mean.abs() > 2.0 * sd / k.sqrt(),
             };
+            let lasting = lasting_bias(plan.origin_errors.paths()).filter(|b| b.mean * mean > 0.0);
+            if let (false, Some(lasting)) = (beyond, lasting) {
+                say(
+                    AlertKind::Bias,
+                    format!(
+                        "over the last {} periods the forecast one period ahead ran {} by {:.1} \
+                         on average ({:.1} standard errors from zero), and over the holdout by \
+                         {:.1}: a lasting bias",
+                        lasting.origins,
+                        if mean > 0.0 { "high" } else { "low" },
+                        lasting.mean.abs(),
+                        lasting.t.abs(),
+                        mean.abs()
+                    ),
+                );
+            }
             if beyond {
                 let why = match past {
                     Some(_) => format!("more than its own past explains{}", past_words(past)),
