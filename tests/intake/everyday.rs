@@ -368,3 +368,34 @@ fn dates_with_times_of_day_are_read_by_their_date() {
         assert_eq!(report.items[0].values[..2], [Some(3.0), Some(4.0)], "{text}");
     }
 }
+
+// Local midnights written in UTC from east of Greenwich (2022-12-31T23:00:00.000Z for January
+// in a shop an hour ahead) had every month read one early; a column whose every time is the
+// same zoned time from 10:00 on is now refused at its first cell. West of Greenwich (05:00Z)
+// the dates are right and read.
+#[test]
+fn local_midnights_written_in_utc_are_refused() {
+    let mut east = String::from("month,sales\n");
+    let mut west = String::from("month,sales\n");
+    for (m, v) in [(1, 5), (2, 6), (3, 7)] {
+        let (y, before) = if m == 1 { (2022, 12) } else { (2023, m - 1) };
+        let last = [31, 31, 28][(m - 1) as usize];
+        east.push_str(&format!("{y}-{before:02}-{last:02}T23:00:00.000Z,{v}\n"));
+        west.push_str(&format!("2023-{m:02}-01T05:00:00Z,{v}\n"));
+    }
+    check(
+        &east,
+        Expect {
+            errors: vec![(2, "month", "2022-12-31T23:00:00.000Z")],
+            ..Expect::default()
+        },
+    );
+    check(
+        &west,
+        Expect {
+            periods: Some(vec!["2023-01", "2023-02", "2023-03"]),
+            warned: vec![vec!["carry a time of day"]],
+            ..Expect::default()
+        },
+    );
+}

@@ -90,100 +90,11 @@ pub const OUTLIER_Z: f64 = 3.5;
 /// The modified z-score an error must pass among `n`: 3.5, or where higher the normal quantile
 /// that n normal errors all stay within with 95 % probability, z(1 - 0.025 / n) (Bonferroni's
 /// correction for looking at n errors at once; 3.5 per error alone flagged about a third of
-/// stable daily items with 540 days). From 3.5 at up to 107 errors to 3.9 at 540 and 4.3 at 3,650.
+/// stable daily items with 540 days). From 3.5 at up to 107 errors to 3.9 at 540 and 4.3 at
+/// 3,650.
 pub fn outlier_cut(n: usize) -> f64 {
     let per_error = 0.025 / n.max(1) as f64;
     OUTLIER_Z.max(crate::bands::standard_normal_quantile(1.0 - per_error))
-}
-
-/// Fewest rolling origins for judging a holdout statistic against the forecast's own past: with
-/// k origins the smallest p-value is 1 / (k + 1), so 19 reach 5 %.
-const OWN_PAST_ORIGINS: usize = 19;
-/// The p-value at or below which a holdout statistic is beyond the forecast's own past (our
-/// choice: 5 %).
-const OWN_PAST_P: f64 = 0.05;
-
-/// A holdout statistic against the same statistic over the forecast's own past origins.
-#[derive(Clone, Copy)]
-struct OwnPast {
-    /// Origins whose statistic is at least as far from zero.
-    as_far: usize,
-    /// Origins compared.
-    origins: usize,
-}
-
-impl OwnPast {
-    /// The conformal p-value (1 + as_far) / (1 + origins) (Vovk, Gammerman & Shafer 2005),
-    /// which holds whatever the errors' shape and their sharing of each origin's level error.
-    fn p(self) -> f64 {
-        (1 + self.as_far) as f64 / (1 + self.origins) as f64
-    }
-}
-
-/// `observed`, a statistic of the holdout's errors, against the same statistic over each of
-/// the past origins' `paths` (their errors over as many steps); `None` with fewer than
-/// [`OWN_PAST_ORIGINS`] of them.
-fn own_past(
-    paths: &[&[f64]],
-    statistic: impl Fn(&[f64]) -> Option<f64>,
-    observed: f64,
-) -> Option<OwnPast> {
-    let past: Vec<f64> = paths.iter().filter_map(|p| statistic(p)).collect();
-    (past.len() >= OWN_PAST_ORIGINS).then(|| OwnPast {
-        as_far: past.iter().filter(|s| s.abs() >= observed.abs()).count(),
-        origins: past.len(),
-    })
-}
-
-/// The one-step errors of the rolling origins: their mean and its t statistic.
-struct Lasting {
-    mean: f64,
-    t: f64,
-    origins: usize,
-}
-
-/// A bias the forecast's past shares (a combination trailing a steady trend): the mean of the
-/// rolling origins' one-step errors more than 2 standard errors from zero (t-test, common
-/// practice; one-step errors of successive origins share no shock), with at least
-/// [`OWN_PAST_ORIGINS`] origins. The holdout against its own past cannot see it, since the
-/// past leans the same way.
-fn lasting_bias(paths: &[Vec<f64>]) -> Option<Lasting> {
-    let first: Vec<f64> = paths.iter().filter_map(|p| p.first().copied()).collect();
-    let k = first.len();
-    if k < OWN_PAST_ORIGINS {
-        return None;
-    }
-    let mean = first.iter().sum::<f64>() / k as f64;
-    let sd = (first.iter().map(|e| (e - mean).powi(2)).sum::<f64>() / (k - 1) as f64).sqrt();
-    let t = mean / (sd / (k as f64).sqrt());
-    (sd > 0.0 && t.abs() > 2.0).then_some(Lasting {
-        mean,
-        t,
-        origins: k,
-    })
-}
-
-/// The tracking signal of a run of errors: their sum over their mean absolute value (as the
-/// Error ledger's last row has it); `None` when every error is 0.
-fn tracking_signal(errors: &[f64]) -> Option<f64> {
-    let mad = errors.iter().map(|e| e.abs()).sum::<f64>() / errors.len() as f64;
-    (mad > 0.0).then(|| errors.iter().sum::<f64>() / mad)
-}
-
-fn mean_error(errors: &[f64]) -> Option<f64> {
-    (!errors.is_empty()).then(|| errors.iter().sum::<f64>() / errors.len() as f64)
-}
-
-/// ", further out than 35 of the 36 forecasts made at past origins over as many periods" for
-/// a reason; empty without the comparison.
-fn past_words(past: Option<OwnPast>) -> String {
-    past.map_or(String::new(), |past| {
-        format!(
-            ", further out than {} of the {} forecasts made at past origins over as many periods",
-            past.origins - past.as_far,
-            past.origins
-        )
-    })
 }
 
 /// The periods without demand, at the end of a history that had demand before them, that make
@@ -206,76 +117,36 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
     let mut out = Vec::new();
     let mut say = |kind, reason: String| out.push(Alert { kind, reason });
     if let Some(last) = plan.ledger.last() {
-        let errors: Vec<f64> = plan.ledger.iter().map(|e| e.row.error).collect();
-        // The past: origins whose forecasts over as many periods ended before the holdout (a
-        // shift inside the holdout would otherwise stand in its own reference).
-        let holdout_start = plan.history.len().saturating_sub(errors.len());
-        let paths = plan
-            .origin_errors
-            .ending_before(errors.len(), holdout_start);
         if let Some(ts) = last.row.tracking_signal {
-            // The Error ledger's own mark, |tracking signal| beyond the plan's limit, where the
-            // forecast's own past origins rarely ended so far out (a sum of multi-step errors
-            // from one origin passes ±4 for about a third of well-forecast monthly items).
-            let past = own_past(&paths, tracking_signal, ts);
-            if last.row.out_of_limits && past.is_none_or(|past| past.p() <= OWN_PAST_P) {
+            // The Error ledger's own mark: |tracking signal| beyond the plan's limit.
+            if last.row.out_of_limits {
                 say(
                     AlertKind::TrackingSignal,
                     format!(
-                        "tracking signal {ts:.1} over the holdout, beyond ±{}{}: the forecast ran \
+                        "tracking signal {ts:.1} over the holdout, beyond ±{}: the forecast ran \
                          {} than demand",
                         plan.tracking_limit,
-                        past_words(past),
                         if ts > 0.0 { "higher" } else { "lower" }
                     ),
                 );
             }
         }
-        // Bias: the mean holdout error, with at least 4 errors, against the forecast's own
-        // past origins' mean errors over as many steps; with too few origins, against its
-        // standard error, beyond 2 (a mean error of zero rejected at about 95 %, t-test
-        // common practice; errors from one origin share its level error, so it errs towards
-        // alerting).
+        // Bias: the mean holdout error against its standard error, beyond 2 (a mean error of
+        // zero rejected at about 95 %, t-test common practice) with at least 4 errors.
+        let errors: Vec<f64> = plan.ledger.iter().map(|e| e.row.error).collect();
         let k = errors.len() as f64;
         if errors.len() >= 4 {
             let mean = errors.iter().sum::<f64>() / k;
             let sd = (errors.iter().map(|e| (e - mean).powi(2)).sum::<f64>() / (k - 1.0)).sqrt();
-            let past = own_past(&paths, mean_error, mean);
-            let beyond = match past {
-                Some(past) => past.p() <= OWN_PAST_P,
-                None => sd > 0.0 && mean.abs() > 2.0 * sd / k.sqrt(),
-            };
-            let lasting = lasting_bias(plan.origin_errors.paths()).filter(|b| b.mean * mean > 0.0);
-            if let (false, Some(lasting)) = (beyond, lasting) {
-                say(
-                    AlertKind::Bias,
-                    format!(
-                        "over the last {} periods the forecast one period ahead ran {} by {:.1} \
-                         on average ({:.1} standard errors from zero), and over the holdout by \
-                         {:.1}: a lasting bias",
-                        lasting.origins,
-                        if mean > 0.0 { "high" } else { "low" },
-                        lasting.mean.abs(),
-                        lasting.t.abs(),
-                        mean.abs()
-                    ),
-                );
-            }
-            if beyond {
-                let why = match past {
-                    Some(_) => format!("more than its own past explains{}", past_words(past)),
-                    None => format!(
-                        "more than chance explains (mean error {:.1} standard errors from zero)",
-                        mean.abs() / (sd / k.sqrt())
-                    ),
-                };
+            if sd > 0.0 && mean.abs() > 2.0 * sd / k.sqrt() {
                 say(
                     AlertKind::Bias,
                     format!(
                         "over the holdout the forecast was {} by {:.1} per period on average, \
-                         {why}",
+                         more than chance explains (mean error {:.1} standard errors from zero)",
                         if mean > 0.0 { "high" } else { "low" },
                         mean.abs(),
+                        mean.abs() / (sd / k.sqrt())
                     ),
                 );
             }

@@ -631,25 +631,12 @@ pub const REFIT_EVERY: usize = 6;
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct OriginErrors {
     paths: Vec<Vec<f64>>,
-    /// Each path's training end: its first error is of period `end` (0-based).
-    ends: Vec<usize>,
 }
 
 impl OriginErrors {
     /// The paths, oldest origin first.
     pub fn paths(&self) -> &[Vec<f64>] {
         &self.paths
-    }
-
-    /// The paths whose first `steps` errors all fall before period `before` (0-based): from
-    /// origins whose forecasts over as many steps never reached it.
-    pub fn ending_before(&self, steps: usize, before: usize) -> Vec<&[f64]> {
-        self.paths
-            .iter()
-            .zip(&self.ends)
-            .filter(|(p, end)| p.len() >= steps && **end + steps <= before)
-            .map(|(p, _)| &p[..steps])
-            .collect()
     }
 
     /// The h-step errors for h = 1..=horizon, one list per step (for the band).
@@ -705,7 +692,6 @@ pub fn rolling_errors(
         .collect();
     let mut latest_fit: Vec<Option<Fitted>> = vec![None; distinct.len()];
     let mut paths = Vec::new();
-    let mut ends = Vec::new();
     for (i, end) in band_origins(n, horizon, min_train, max_origins)
         .into_iter()
         .enumerate()
@@ -747,9 +733,8 @@ pub fn rolling_errors(
                 .map(|(fv, d)| fv - d)
                 .collect(),
         );
-        ends.push(end);
     }
-    OriginErrors { paths, ends }
+    OriginErrors { paths }
 }
 
 #[cfg(test)]

@@ -238,7 +238,7 @@ fn small(digits: &str, max_len: usize) -> Option<u32> {
 /// A cell split into what stands before a time of day and the time (`None` without one):
 /// "2024-03-31T14:32:05.5+01:00" gives ("2024-03-31", "14:32:05.5"); "31/03/2024 2:32 PM"
 /// gives ("31/03/2024", "2:32").
-fn split_time(cell: &str) -> (&str, Option<&str>) {
+fn split_time(cell: &str) -> (&str, Option<Clock<'_>>) {
     let lower = cell.to_ascii_lowercase();
     let clock_end = ["am", "pm"]
         .iter()
@@ -249,14 +249,17 @@ fn split_time(cell: &str) -> (&str, Option<&str>) {
         return (cell, None);
     };
     let mut time = &head[pos + 1..];
+    let mut zoned = false;
     // A UTC offset as ISO 8601 writes it: Z, +01:00, -0500.
     if let Some(t) = time.strip_suffix(['Z', 'z']) {
         time = t;
+        zoned = true;
     } else if let Some(at) = time.rfind(['+', '-']) {
         let offset = &time[at + 1..];
         let digits = offset.replace(':', "");
         if at > 0 && digits.len() == 4 && digits.bytes().all(|b| b.is_ascii_digit()) {
             time = &time[..at];
+            zoned = true;
         }
     }
     let whole = time.split('.').next().unwrap_or(time);
@@ -266,21 +269,29 @@ fn split_time(cell: &str) -> (&str, Option<&str>) {
     if pos == 0 || !fraction_ok || !time_of_day(whole) {
         return (cell, None);
     }
-    (cell[..pos].trim_end(), Some(whole))
+    (cell[..pos].trim_end(), Some(Clock { time: whole, zoned }))
+}
+
+/// A time of day after a date: hours, minutes and seconds as written, and whether a UTC
+/// offset (Z, +01:00) followed.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) struct Clock<'a> {
+    pub time: &'a str,
+    pub zoned: bool,
+}
+
+/// The time of day after a date in `cell`, when it is not midnight ("2024-03-31 14:32").
+pub(crate) fn time_after_date(cell: &str) -> Option<Clock<'_>> {
+    let (date, clock) = split_time(cell.trim());
+    let midnight = |t: &str| t.bytes().all(|b| matches!(b, b'0' | b':'));
+    clock.filter(|c| !midnight(c.time)).filter(|_| {
+        parse_label(date).is_some_and(|l| matches!(l.family(), Family::Date | Family::TwoWay))
+    })
 }
 
 /// `cell` without a time of day after it ("2024-03-31T14:32" gives "2024-03-31").
 pub(crate) fn without_time(cell: &str) -> &str {
     split_time(cell.trim()).0
-}
-
-/// Whether `cell` is a date followed by a time of day other than midnight ("2024-03-31
-/// 14:32"): the column reads it as its date and says the times were left out.
-pub(crate) fn time_after_date(cell: &str) -> bool {
-    let (date, time) = split_time(cell.trim());
-    let midnight = |t: &str| t.bytes().all(|b| matches!(b, b'0' | b':'));
-    time.is_some_and(|t| !midnight(t))
-        && parse_label(date).is_some_and(|l| matches!(l.family(), Family::Date | Family::TwoWay))
 }
 
 /// Reads one cell as a period label; `None` when it is not one of the accepted forms. A time
@@ -432,8 +443,14 @@ mod tests {
             ("2024-03-31 2:32 PM", true),
             ("2024-03-31 00:00:00.000", false),
         ] {
+            let zoned = cell.ends_with('Z') || cell.contains('+') || cell.ends_with("0500");
+            assert_eq!(
+                time_after_date(cell).map(|c| c.zoned),
+                timed.then_some(zoned),
+                "{cell}"
+            );
             assert_eq!(parse_label(cell), date_of(2024, 3, 31), "{cell}");
-            assert_eq!(time_after_date(cell), timed, "{cell}");
+            assert_eq!(time_after_date(cell).is_some(), timed, "{cell}");
         }
         assert_eq!(
             parse_label("31/03/2024 14:32"),
@@ -451,7 +468,7 @@ mod tests {
             "2024-03-31 noon",
         ] {
             assert_eq!(parse_label(cell), None, "{cell}");
-            assert!(!time_after_date(cell), "{cell}");
+            assert!(time_after_date(cell).is_none(), "{cell}");
         }
     }
 

@@ -215,18 +215,42 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             (labels, family, None)
         }
     };
-    let example = cells
+    let found = cells
         .iter()
         .zip(&labels)
         .find(|(_, l)| l.is_some_and(|l| l.family() == family))
-        .map_or("2024-03 or 2024-03-31".to_string(), |(c, _)| c.to_string());
+        .map(|(c, _)| *c);
+    let example = found.map_or("2024-03 or 2024-03-31".to_string(), str::to_string);
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
-    let timed: Vec<&str> = cells
+    let timed: Vec<(usize, super::label::Clock<'_>)> = cells
         .iter()
-        .copied()
-        .filter(|c| super::label::time_after_date(c))
+        .enumerate()
+        .filter_map(|(i, c)| Some((i, super::label::time_after_date(c)?)))
         .collect();
+    // Every time the same, from 10:00 on, and marked with a zone (2022-12-31T23:00:00Z):
+    // local midnights east of Greenwich written in UTC (offsets +1 to +14 give 23:00 back to
+    // 10:00 the day before), each date a day early; refused rather than shifted. West of
+    // Greenwich local midnight falls on the same date in UTC.
+    let hour = |time: &str| time.split(':').next().and_then(|h| h.parse::<u32>().ok());
+    let one_zoned_time = timed.len() >= 2
+        && hour(timed[0].1.time).is_some_and(|h| h >= 10)
+        && timed
+            .iter()
+            .all(|(_, c)| c.zoned && c.time == timed[0].1.time);
+    if one_zoned_time {
+        let (at, clock) = timed[0];
+        errors.push((
+            at,
+            format!(
+                "expected dates in local time; every period here is at {} with a time zone, \
+                 which is how local midnights look once turned into UTC: read as written, each \
+                 date would be a day early (or late); export the dates without times",
+                clock.time
+            ),
+        ));
+    }
+    let timed: Vec<&str> = timed.iter().map(|(i, _)| cells[*i]).collect();
     if let Some(first) = timed.first() {
         warnings.push(format!(
             "{} carry a time of day (\"{first}\"): each is read by its date and the time left out \
@@ -266,10 +290,11 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                     .map(|l| two_way_days(keep(l)?, order.day_first))
                     .collect()
             } else {
-                if super::label::without_time(&example)
-                    .chars()
-                    .any(char::is_alphabetic)
-                {
+                if found.is_some_and(|c| {
+                    super::label::without_time(c)
+                        .chars()
+                        .any(char::is_alphabetic)
+                }) {
                     kind = "dates with month names";
                 }
                 labels
