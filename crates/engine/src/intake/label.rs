@@ -239,11 +239,19 @@ fn small(digits: &str, max_len: usize) -> Option<u32> {
 /// "2024-03-31T14:32:05.5+01:00" gives ("2024-03-31", "14:32:05.5"); "31/03/2024 2:32 PM"
 /// gives ("31/03/2024", "2:32").
 fn split_time(cell: &str) -> (&str, Option<Clock<'_>>) {
-    let lower = cell.to_ascii_lowercase();
-    let clock_end = ["am", "pm"]
-        .iter()
-        .find_map(|m| lower.strip_suffix(m).map(|rest| rest.trim_end().len()))
-        .unwrap_or(cell.len());
+    // Every time of day has a colon; most cells have none (the reading's hot path).
+    if !cell.contains(':') {
+        return (cell, None);
+    }
+    let bytes = cell.as_bytes();
+    let twelve_hour = bytes.len() >= 2
+        && matches!(bytes[bytes.len() - 2].to_ascii_lowercase(), b'a' | b'p')
+        && bytes[bytes.len() - 1].eq_ignore_ascii_case(&b'm');
+    let clock_end = if twelve_hour {
+        cell[..cell.len() - 2].trim_end().len()
+    } else {
+        cell.len()
+    };
     let head = &cell[..clock_end];
     let Some(pos) = head.rfind([' ', 'T', 't']) else {
         return (cell, None);
