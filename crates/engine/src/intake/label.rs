@@ -7,7 +7,7 @@
 //! Accepted forms (letters in any case; separators `-`, `/`, `.`, space where shown):
 //! - year-first dates `2024-03-31`, `2024/03/31`, `2024.03.31`;
 //! - any of the dates below followed by a time of day (`2024-03-31 00:00`, which spreadsheets
-//!   add, `2024-03-31T14:32:05Z`, `31/03/2024 14:32`, `31/03/2024 2:32 PM`, with seconds,
+//!   add, `2024-03-31T14:32:05Z`, `31/03/2024 14:32`, `31/03/2024, 2:32 PM`, with seconds,
 //!   fractions and a UTC offset as ISO 8601 writes them): read as the date as written (the
 //!   offset is not applied), the time left out; [`time_after_date`] tells the column so it
 //!   can say so;
@@ -277,7 +277,10 @@ fn split_time(cell: &str) -> (&str, Option<Clock<'_>>) {
     if pos == 0 || !fraction_ok || !time_of_day(whole) {
         return (cell, None);
     }
-    (cell[..pos].trim_end(), Some(Clock { time: whole, zoned }))
+    // "1/5/2024, 2:32:00 PM": a comma between date and time, as some locales write it.
+    let date = cell[..pos].trim_end();
+    let date = date.strip_suffix(',').unwrap_or(date).trim_end();
+    (date, Some(Clock { time: whole, zoned }))
 }
 
 /// A time of day after a date: hours, minutes and seconds as written, and whether a UTC
@@ -449,6 +452,7 @@ mod tests {
             ("2024-03-31T14:32:05.250+01:00", true),
             ("2024-03-31T23:59:59-0500", true),
             ("2024-03-31 2:32 PM", true),
+            ("2024-03-31, 2:32:00 PM", true),
             ("2024-03-31 00:00:00.000", false),
         ] {
             let zoned = cell.ends_with('Z') || cell.contains('+') || cell.ends_with("0500");
