@@ -399,3 +399,18 @@ fn local_midnights_written_in_utc_are_refused() {
         },
     );
 }
+
+// Hourly rows of one series: each day's second row is refused, saying why (the time of day is
+// left out) and how to add the rows up; it had said only to keep one of the two rows.
+#[test]
+fn a_second_row_of_a_day_in_one_series_says_why() {
+    let report = read("timestamp,kwh\n2024-01-05 01:00,5\n2024-01-05 02:00,7\n");
+    assert_eq!(report.errors.len(), 1, "{:#?}", report.errors);
+    let error = &report.errors[0];
+    assert_eq!((error.row, error.text.as_str()), (3, "2024-01-05 02:00"));
+    assert!(
+        error.message.contains("the time of day is left out"),
+        "{}",
+        error.message
+    );
+}

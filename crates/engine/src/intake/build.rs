@@ -419,14 +419,21 @@ impl<'a> Builder<'a> {
                 Some(prev) if prev.period == entry.period => {
                     let first_line = prev.row.line;
                     let cell = self.period_text(entry.row);
+                    let timed = super::label::time_after_date(&cell).is_some();
+                    let why = if timed {
+                        "the time of day is left out, so this row falls on the same day; to add \
+                         up a day's rows, give them a column naming the item (item, period, \
+                         quantity rows)"
+                    } else {
+                        "keep one of the two rows (to add up several rows per period, use item, \
+                         period, quantity rows)"
+                    };
                     self.error(
                         entry.row.line,
                         period_column,
                         &cell,
                         format!(
-                            "expected each period once; {} is also on line {first_line}: keep \
-                             one of the two rows (to add up several rows per period, use item, \
-                             period, quantity rows)",
+                            "expected each period once; {} is also on line {first_line}: {why}",
                             entry.period
                         ),
                     );
