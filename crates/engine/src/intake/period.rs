@@ -185,6 +185,43 @@ fn compact_week(cell: &str) -> Option<Label> {
     parse_label(&format!("{}-W{}", &cell[..4], &cell[4..]))
 }
 
+/// Says that period cells carry times of day (they are read by their dates), and refuses a
+/// column whose every time is the same zoned time from 10:00 on: local midnights east of
+/// Greenwich written in UTC (offsets +1 to +14 give 23:00 back to 10:00 the day before), each
+/// date a day early; refused rather than shifted. West of Greenwich local midnight falls on the
+/// same date in UTC.
+fn times_of_day(cells: &[&str], errors: &mut Vec<(usize, String)>, warnings: &mut Vec<String>) {
+    let timed: Vec<(usize, super::label::Clock<'_>)> = cells
+        .iter()
+        .enumerate()
+        .filter_map(|(i, c)| Some((i, super::label::time_after_date(c)?)))
+        .collect();
+    let Some(&(at, clock)) = timed.first() else {
+        return;
+    };
+    let hour = |time: &str| time.split(':').next().and_then(|h| h.parse::<u32>().ok());
+    let one_zoned_time = timed.len() >= 2
+        && hour(clock.time).is_some_and(|h| h >= 10)
+        && timed.iter().all(|(_, c)| c.zoned && c.time == clock.time);
+    if one_zoned_time {
+        errors.push((
+            at,
+            format!(
+                "expected dates in local time; every period here is at {} with a time zone, \
+                 which is how local midnights look once turned into UTC: read as written, each \
+                 date would be a day early (or late); export the dates without times",
+                clock.time
+            ),
+        ));
+    }
+    warnings.push(format!(
+        "{} carry a time of day (\"{}\"): each is read by its date and the time left out \
+         (rows of one item and day add up; a UTC offset is not applied)",
+        super::build::count(timed.len(), "period cell"),
+        cells[at]
+    ));
+}
+
 /// Reads every cell of a period column. Empty cells are errors (a row needs its period), and so
 /// are the periods the module doc refuses.
 pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> PeriodColumn {
@@ -223,41 +260,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
     let example = found.map_or("2024-03 or 2024-03-31".to_string(), str::to_string);
     let mut errors = Vec::new();
     let mut warnings = Vec::new();
-    let timed: Vec<(usize, super::label::Clock<'_>)> = cells
-        .iter()
-        .enumerate()
-        .filter_map(|(i, c)| Some((i, super::label::time_after_date(c)?)))
-        .collect();
-    // Every time the same, from 10:00 on, and marked with a zone (2022-12-31T23:00:00Z):
-    // local midnights east of Greenwich written in UTC (offsets +1 to +14 give 23:00 back to
-    // 10:00 the day before), each date a day early; refused rather than shifted. West of
-    // Greenwich local midnight falls on the same date in UTC.
-    let hour = |time: &str| time.split(':').next().and_then(|h| h.parse::<u32>().ok());
-    let one_zoned_time = timed.len() >= 2
-        && hour(timed[0].1.time).is_some_and(|h| h >= 10)
-        && timed
-            .iter()
-            .all(|(_, c)| c.zoned && c.time == timed[0].1.time);
-    if one_zoned_time {
-        let (at, clock) = timed[0];
-        errors.push((
-            at,
-            format!(
-                "expected dates in local time; every period here is at {} with a time zone, \
-                 which is how local midnights look once turned into UTC: read as written, each \
-                 date would be a day early (or late); export the dates without times",
-                clock.time
-            ),
-        ));
-    }
-    let timed: Vec<&str> = timed.iter().map(|(i, _)| cells[*i]).collect();
-    if let Some(first) = timed.first() {
-        warnings.push(format!(
-            "{} carry a time of day (\"{first}\"): each is read by its date and the time left out \
-             (rows of one item and day add up; a UTC offset is not applied)",
-            super::build::count(timed.len(), "period cell")
-        ));
-    }
+    times_of_day(cells, &mut errors, &mut warnings);
     for (i, (cell, label)) in cells.iter().zip(&labels).enumerate() {
         if label.is_some_and(|l| l.family() == family) {
             continue;

@@ -887,8 +887,12 @@ pub(super) fn names_money(name: &str) -> bool {
         .copied()
         .collect();
     let allowed: Vec<&str> = money.iter().chain(&MONEY_COMPANIONS).copied().collect();
+    shows_currency(name) || (header_is_only(name, &allowed) && header_says(name, &money))
+}
+
+/// Whether a header holds a currency sign ("Sales (£)", "$ amount").
+fn shows_currency(name: &str) -> bool {
     name.contains(['£', '$', '€', '¥'])
-        || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
@@ -914,8 +918,7 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
     if table.header.is_none() {
         return 0;
     }
-    let money =
-        |j: usize| says(j, &MONEY_WORDS) || table.column_name(j).contains(['£', '$', '€', '¥']);
+    let money = |j: usize| says(j, &MONEY_WORDS) || shows_currency(&table.column_name(j));
     // A count without a unit of measure before one with it ("Units" before "Qty (kg)").
     let measured = |j: usize| table.column_name(j).contains('(');
     values

@@ -262,7 +262,7 @@ impl<'a> Builder<'a> {
             |j| {
                 let names: HashSet<String> = items
                     .values()
-                    .map(|item| group_name(item, j).to_lowercase())
+                    .map(|item| name_key(&group_name(item, j)))
                     .collect();
                 names.len()
             },
@@ -272,8 +272,10 @@ impl<'a> Builder<'a> {
             .iter()
             .map(|key| {
                 let item = &items[key];
+                let group = place.map_or(String::new(), |j| group_name(item, j));
                 ItemPeriods {
-                    group: place.map_or(String::new(), |j| group_name(item, j)),
+                    group_key: name_key(&group),
+                    group,
                     periods: item.rows.iter().map(|r| r.0).collect(),
                     zero_lines: item
                         .rows
@@ -286,9 +288,7 @@ impl<'a> Builder<'a> {
             .collect();
         Readings::new(&periods, place.map(|j| self.table.column_name(j)), dated)
     }
-}
 
-impl Builder<'_> {
     /// Warns about items named by some item columns only where items named in full share
     /// those names (",Milk" among "North,Milk" and "South,Milk": a store cell left empty, so
     /// the rows are read as an item of their own). A product without a variant beside
@@ -297,7 +297,7 @@ impl Builder<'_> {
         &mut self,
         item_columns: &[usize],
         order: &[String],
-        items: &HashMap<String, LongItem<'_>>,
+        items: &HashMap<String, LongItem<'a>>,
     ) {
         let in_full = |item: &LongItem<'_>| item.filled.len() == item_columns.len();
         let mut named: HashMap<(usize, String), Vec<&str>> = HashMap::new();

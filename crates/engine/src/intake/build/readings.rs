@@ -19,13 +19,13 @@
 
 use std::collections::{BTreeMap, HashMap, HashSet};
 
-use super::unnamed::{classify, ItemRows, Unnamed};
+use super::unnamed::{classify, prefix, ItemRows, Unnamed};
 use super::{count, joined, listing, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
 use crate::intake::table::header_says;
 
 /// Header words naming a place items are sold at (common practice in exported tables).
-pub(super) const PLACE_WORDS: [&str; 8] = [
+const PLACE_WORDS: [&str; 8] = [
     "store",
     "shop",
     "branch",
@@ -36,10 +36,12 @@ pub(super) const PLACE_WORDS: [&str; 8] = [
     "warehouse",
 ];
 
-/// What one item brings to the readings: its group's name (groups compared without case, as
-/// item names are), the periods of its rows and the lines of its rows of 0.
+/// What one item brings to the readings: its group's name as written and as compared (the
+/// builder's form for comparing names), the periods of its rows and the lines of its rows
+/// of 0.
 pub(super) struct ItemPeriods {
     pub group: String,
+    pub group_key: String,
     pub periods: Vec<Period>,
     pub zero_lines: Vec<usize>,
 }
@@ -122,7 +124,7 @@ impl Readings {
             let mut at: HashMap<String, usize> = HashMap::new();
             let mut members: Vec<Vec<&ItemPeriods>> = Vec::new();
             for (k, item) in items.iter().enumerate() {
-                let g = *at.entry(item.group.to_lowercase()).or_insert_with(|| {
+                let g = *at.entry(item.group_key.clone()).or_insert_with(|| {
                     members.push(Vec::new());
                     members.len() - 1
                 });
@@ -225,10 +227,7 @@ fn unnamed_periods<'a>(
     for p in with_rows {
         named[index(*p)] = true;
     }
-    let mut named_before = vec![0usize; n + 1];
-    for t in 0..n {
-        named_before[t + 1] = named_before[t] + usize::from(named[t]);
-    }
+    let named_before = prefix(n, |t| named[t]);
     let mut item_rows = Vec::new();
     // Periods with rows for other items but none for the item, against rows of 0.
     let (mut without_row, mut zero_rows, mut zero_line) = (0usize, 0usize, None::<usize>);

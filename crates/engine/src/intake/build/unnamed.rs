@@ -89,7 +89,7 @@ pub(super) fn classify(
 }
 
 /// Prefix sums of `flag` over the span: `sums[b] - sums[a]` counts it in `a..b`.
-fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
+pub(super) fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
     let mut sums = vec![0; n + 1];
     for t in 0..n {
         sums[t + 1] = sums[t] + usize::from(flag(t));
@@ -132,17 +132,19 @@ fn mark_quiet(items: &[ItemRows], out: &mut [Option<Unnamed>]) {
     let missing = prefix(n, |t| out[t] == Some(Unnamed::Missing));
     let open_periods = n - closed[n];
     let ln_limit = CHANCE.ln() - (open_periods.max(1) as f64).ln();
-    // The periods `count` open ones before `at` (or after `from`), closed ones passed over.
+    // Open periods in x..y, and the period `count` open ones before `at` (or after `from`),
+    // closed ones passed over.
+    let open = |x: usize, y: usize| (y - x) - (closed[y] - closed[x]);
     let back = |at: usize, count: usize| -> usize {
         let mut a = at;
-        while a > 0 && (at - a) - (closed[at] - closed[a]) < count {
+        while a > 0 && open(a, at) < count {
             a -= 1;
         }
         a
     };
     let ahead = |from: usize, count: usize| -> usize {
         let mut b = from;
-        while b < n && (b - from) - (closed[b] - closed[from]) < count {
+        while b < n && open(from, b) < count {
             b += 1;
         }
         b
@@ -163,12 +165,15 @@ fn mark_quiet(items: &[ItemRows], out: &mut [Option<Unnamed>]) {
         for item in items {
             let (first, end) = (item.first(), item.last() + 1);
             let (lo, hi) = (start.max(first), t.min(end));
-            if lo >= hi || missing[hi] == missing[lo] {
+            let in_stretch = if lo < hi {
+                missing[hi] - missing[lo]
+            } else {
+                0
+            };
+            if in_stretch == 0 {
                 continue;
             }
-            let in_stretch = missing[hi] - missing[lo];
             let (a, b) = (left.max(first), right.min(end));
-            let open = |x: usize, y: usize| (y - x) - (closed[y] - closed[x]);
             let nearby = open(a, start) + open(t, b);
             let rows = item.rows_in(a, start) + item.rows_in(t, b);
             let q = nearby - rows;
