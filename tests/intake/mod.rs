@@ -5,6 +5,7 @@ mod everyday;
 mod expect;
 mod exports;
 mod formats;
+mod last_period;
 mod misreads;
 mod robustness;
 mod unnamed;

@@ -31,6 +31,8 @@
 //!    no row names at all is no sales when closed or quiet, `build/unnamed`), sorted rows,
 //!    summed or rejected duplicates.
 //! 6. `totals`: an item that is the sum of all the others in every period is left out.
+//! 7. `unfinished`: a last period whose demand is far below the periods before it (and a
+//!    season before) is named in a warning: data taken before it ended.
 //!
 //! Decisions, in short (each module's doc has the full rule):
 //! - Header: the last record above the first row with at least half of its cells numbers,
@@ -106,6 +108,7 @@ mod stock_table;
 mod table;
 mod text;
 mod totals;
+mod unfinished;
 
 pub use stock_table::{read_stock_table, StockRow, StockTable};
 
@@ -385,6 +388,9 @@ fn read_text(text: &str) -> IntakeReport {
     report.date_format = built.date_format;
     report.items = built.items;
     totals::set_aside(&mut report.items, &mut report.warnings);
+    report
+        .warnings
+        .extend(unfinished::last_period_warning(&report.items));
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);
