@@ -33,6 +33,20 @@ fn inspect_json_has_the_contract_fields() {
 }
 
 #[test]
+fn inspect_names_an_unfinished_last_period() {
+    let out = cli(&["inspect", "-", "--json"], &demo());
+    assert_eq!(out.json()["unfinished_last"], serde_json::Value::Null);
+    let text = "month,sales\n2024-09,40\n2024-10,44\n2024-11,41\n2024-12,4\n";
+    let out = cli(&["inspect", "-", "--json"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let v = out.json();
+    assert_eq!(v["unfinished_last"], "2024-12");
+    assert!(v["warnings"]
+        .to_string()
+        .contains("the last period, 2024-12, looks unfinished"));
+}
+
+#[test]
 fn inspect_rejects_with_row_column_text_and_exit_2() {
     let text = "month,sales\n2024-01,10\n2024-02,ten\n2024-03,12\n";
     let out = cli(&["inspect", "-", "--json"], text.as_bytes());

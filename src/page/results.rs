@@ -142,6 +142,9 @@ pub fn Headline() -> impl IntoView {
                         {move || intake.report.with(|r| r.has_errors().then(|| view! {
                             <p class="notice" id="unread-cells">{words::unread_cells_note(r.errors.len())}</p>
                         }))}
+                        {move || intake.report.with(|r| r.unfinished_last.map(|last| view! {
+                            <p class="notice" id="unfinished-last">{words::unfinished_last_note(&last.to_string())}</p>
+                        }))}
                         <p class="timing" id="compute-time">{move || format!("Recomputed in {:.0} ms.", state.compute_ms.get())}</p>
                     }.into_any()
                 }

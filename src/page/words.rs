@@ -91,6 +91,16 @@ pub fn unread_cells_note(count: usize) -> String {
     )
 }
 
+/// Said above forecasts and stock figures when the file's last period looks unfinished
+/// (Intake's warning says why): they count it as a whole period.
+pub fn unfinished_last_note(last: &str) -> String {
+    format!(
+        "The last period, {last}, looks unfinished (Intake says why): the forecasts and stock \
+         figures count it as a whole period, so they may run low. Leave its rows out until it \
+         is over."
+    )
+}
+
 /// Said beside "use it anyway" when the season test turned down a candidate season. With few
 /// full seasons the test's threshold is high (it grows with the autocorrelation at the shorter
 /// lags, so a clear season can still fall short of it).

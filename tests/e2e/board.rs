@@ -453,3 +453,48 @@ fn a_dropped_stock_table_is_read_with_intakes_care() {
     let seed = &orders[names.iter().position(|n| n == "Seed trays").unwrap()];
     assert_ne!(seed, "needs on hand", "{orders:?}");
 }
+
+/// A file whose last month was taken on its third day: the board and the item's headline say
+/// so above their figures; a file of whole months says nothing.
+#[test]
+fn an_unfinished_last_period_is_said_above_the_figures() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    wait_until_planned(browser, 6);
+    let notice = |id: &str| {
+        browser
+            .js_args(
+                "const n = document.getElementById(arguments[0]); return n ? n.textContent : ''",
+                json!([id]),
+            )
+            .as_str()
+            .unwrap_or("")
+            .to_string()
+    };
+    assert_eq!(notice("board-unfinished-last"), "");
+    // Each item's December 2025 cut to a tenth, as three days of it.
+    let text: String = many_items()
+        .lines()
+        .map(|line| match line.split_once(",2025-12,") {
+            Some((name, units)) => {
+                let units: f64 = units.parse().unwrap();
+                format!("{name},2025-12,{:.1}\n", units / 10.0)
+            }
+            None => format!("{line}\n"),
+        })
+        .collect();
+    paste(browser, &text);
+    wait_until_planned(browser, 12);
+    wait_for_item(browser, "Seed trays");
+    for id in ["board-unfinished-last", "unfinished-last"] {
+        let said = notice(id);
+        assert!(
+            said.starts_with("The last period, 2025-12, looks unfinished"),
+            "#{id}: {said:?}"
+        );
+    }
+    save_screenshot(browser, "board-unfinished-last.png");
+}

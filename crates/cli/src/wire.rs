@@ -22,6 +22,8 @@ pub struct InspectJson {
     pub layout: &'static str,
     pub date_format: Option<String>,
     pub gaps_filled: usize,
+    /// The last period when it looks unfinished (a warning says why), else null.
+    pub unfinished_last: Option<String>,
     pub items: Vec<ItemJson>,
     pub warnings: Vec<String>,
     pub errors: Vec<ErrorJson>,
@@ -51,6 +53,7 @@ impl From<&IntakeReport> for InspectJson {
             layout: r.layout.as_str(),
             date_format: r.date_format.clone(),
             gaps_filled: r.gaps_filled,
+            unfinished_last: r.unfinished_last.map(|p| p.to_string()),
             items: r
                 .items
                 .iter()

@@ -245,6 +245,9 @@ pub struct IntakeReport {
     pub has_header: bool,
     /// Empty value cells (including `NA`, `N/A`, `#N/A`, `null`) read as gaps.
     pub empty_cells: usize,
+    /// The last period, when its demand is so far below the periods before that it looks
+    /// unfinished (data taken before it ended); a warning says why. Its figures are as read.
+    pub unfinished_last: Option<Period>,
 }
 
 impl IntakeReport {
@@ -297,6 +300,7 @@ fn read_text(text: &str) -> IntakeReport {
         errors: Vec::new(),
         has_header: false,
         empty_cells: 0,
+        unfinished_last: None,
     };
     for line in &tokens.unclosed_quotes {
         report.errors.push(RowError {
@@ -388,9 +392,10 @@ fn read_text(text: &str) -> IntakeReport {
     report.date_format = built.date_format;
     report.items = built.items;
     totals::set_aside(&mut report.items, &mut report.warnings);
-    report
-        .warnings
-        .extend(unfinished::last_period_warning(&report.items));
+    if let Some((last, warning)) = unfinished::last_period(&report.items) {
+        report.unfinished_last = Some(last);
+        report.warnings.push(warning);
+    }
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);

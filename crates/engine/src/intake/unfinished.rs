@@ -68,8 +68,8 @@ fn percent(part: f64, whole: f64) -> String {
     format!("{:.0} %", 100.0 * part / whole)
 }
 
-/// The warning for a last period that looks unfinished (module doc), if it does.
-pub(crate) fn last_period_warning(items: &[Item]) -> Option<String> {
+/// The last period and the warning naming it, when it looks unfinished (module doc).
+pub(crate) fn last_period(items: &[Item]) -> Option<(Period, String)> {
     let last: Period = items
         .iter()
         .filter_map(|i| i.periods.last())
@@ -112,11 +112,12 @@ pub(crate) fn last_period_warning(items: &[Item]) -> Option<String> {
             ));
         }
     }
-    Some(format!(
+    let warning = format!(
         "the last period, {last}, looks unfinished: {evidence}. If the data was taken before \
          {last} ended, its low figures pull every forecast and order down: leave its rows out \
          of the file, or add them once it is over. It is planned as it stands."
-    ))
+    );
+    Some((last, warning))
 }
 
 #[cfg(test)]
@@ -139,7 +140,7 @@ mod tests {
                 }
             })
             .collect();
-        let got = last_period_warning(&built);
+        let got = last_period(&built).map(|(_, warning)| warning);
         match (got.as_deref(), expected) {
             (None, None) => {}
             (Some(got), Some(part)) => assert!(got.contains(part), "{got}"),
@@ -210,6 +211,6 @@ mod tests {
                 values: some(&[900.0, 900.0, 0.0]),
             },
         ];
-        assert_eq!(last_period_warning(&built), None);
+        assert_eq!(last_period(&built), None);
     }
 }
