@@ -1,6 +1,6 @@
 //! Combination laboratory: would weighting the combination's members by their backtest errors,
-//! or forecasting bucket totals at coarser levels (temporal aggregation), help the automatic
-//! choice on the M3 data? A research tool: each series is planned as the page plans it, its
+//! one more member always, or forecasting bucket totals at coarser levels (temporal
+//! aggregation), help the automatic choice on the M3 data? A research tool: each series is planned as the page plans it, its
 //! members are forecast on the whole train part and mixed by each rule; every rule is scored on
 //! the held-out actuals (sMAPE with |y| + |f| in the denominator, MASE). The README records what
 //! it showed.
@@ -132,6 +132,30 @@ fn main() {
         let auto: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
         let members = p.chosen.members().to_vec();
         let mut rules: Vec<(String, Vec<f64>)> = vec![("auto (today)".into(), auto.clone())];
+        if members.len() > 1 {
+            for extra in [
+                MethodKind::DampedTrend,
+                MethodKind::Ses,
+                MethodKind::SeasonalNaive,
+            ] {
+                let mut kinds = members.clone();
+                if !kinds.contains(&extra) {
+                    kinds.push(extra);
+                }
+                let f =
+                    backtest::forecast_with(&Candidate::Combination(kinds), &s.train, p.seasons, h)
+                        .unwrap_or_else(|_| auto.clone());
+                rules.push((format!("members + {}", extra.key()), f));
+            }
+        } else {
+            for extra in [
+                MethodKind::DampedTrend,
+                MethodKind::Ses,
+                MethodKind::SeasonalNaive,
+            ] {
+                rules.push((format!("members + {}", extra.key()), auto.clone()));
+            }
+        }
         let longest = h.div_ceil(12).max(1) * 12;
         let base = backtest::forecast_with(&p.chosen, &s.train, p.seasons, longest)
             .unwrap_or_else(|_| auto.clone());
