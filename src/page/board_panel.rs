@@ -178,9 +178,7 @@ pub fn ItemBoard() -> impl IntoView {
                 value=move || board.planned.get().to_string()
                 class:done=move || { board.planned.get() >= board.total.get() }></progress>
             <p class="estimates" id="board-estimates">{ESTIMATES_WORDS}</p>
-            {move || intake.report.with(|r| r.unfinished_last.map(|last| view! {
-                <p class="notice" id="board-unfinished-last">{super::words::unfinished_last_note(&last.to_string())}</p>
-            }))}
+            <super::unfinished::UnfinishedNotice id="board-unfinished-last"/>
             <div class="board-tools">
                 <div class="field inline">
                     <label for="board-filter">"Find items"</label>

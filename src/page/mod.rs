@@ -35,6 +35,8 @@ mod share;
 mod shell;
 #[cfg(target_arch = "wasm32")]
 mod state;
+#[cfg(target_arch = "wasm32")]
+mod unfinished;
 
 /// Installs the panic hook and mounts the page.
 #[cfg(target_arch = "wasm32")]

@@ -12,6 +12,7 @@ use super::browser;
 use super::export;
 use super::model;
 use super::state::{IntakeState, PlanState, Resized};
+use super::unfinished::UnfinishedNotice;
 use super::words;
 use crate::chart::canvas::PageCanvas;
 use crate::chart::{self, Area, ChartError};
@@ -142,9 +143,7 @@ pub fn Headline() -> impl IntoView {
                         {move || intake.report.with(|r| r.has_errors().then(|| view! {
                             <p class="notice" id="unread-cells">{words::unread_cells_note(r.errors.len())}</p>
                         }))}
-                        {move || intake.report.with(|r| r.unfinished_last.map(|last| view! {
-                            <p class="notice" id="unfinished-last">{words::unfinished_last_note(&last.to_string())}</p>
-                        }))}
+                        <UnfinishedNotice id="unfinished-last"/>
                         <p class="timing" id="compute-time">{move || format!("Recomputed in {:.0} ms.", state.compute_ms.get())}</p>
                     }.into_any()
                 }

@@ -92,13 +92,28 @@ pub fn unread_cells_note(count: usize) -> String {
 }
 
 /// Said above forecasts and stock figures when the file's last period looks unfinished
-/// (Intake's warning says why): they count it as a whole period.
-pub fn unfinished_last_note(last: &str) -> String {
+/// (Intake's warning says why): they count it as a whole period. `can_leave_out`: the page
+/// offers a button that does it; otherwise the file must be edited.
+pub fn unfinished_last_note(last: &str, can_leave_out: bool) -> String {
+    let what_to_do = if can_leave_out {
+        "If it is not over yet, leave it out until it is."
+    } else {
+        "If it is not over yet, take it out of the file until it is."
+    };
     format!(
         "The last period, {last}, looks unfinished (Intake says why): the forecasts and stock \
-         figures count it as a whole period, so they may run low. Leave its rows out until it \
-         is over."
+         figures count it as a whole period, so they may run low. {what_to_do}"
     )
+}
+
+/// Where the Intake text came from once a period was left out of it: "sales.csv, without
+/// 2025-12".
+pub fn without_period_source(source: &str, period: &str) -> String {
+    if source.is_empty() {
+        format!("the text, without {period}")
+    } else {
+        format!("{source}, without {period}")
+    }
 }
 
 /// Said beside "use it anyway" when the season test turned down a candidate season. With few

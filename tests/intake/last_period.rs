@@ -105,3 +105,52 @@ fn whole_last_periods_of_the_m3_series_are_seldom_warned_about() {
     assert!(whole < 1.0, "whole periods warned about: {whole:.2} %");
     assert!(cut > 95.0, "cut periods found: {cut:.1} %");
 }
+
+/// `leave_out_rows(text, rows)` gives `expected`.
+fn check_left_out(text: &str, rows: &[usize], expected: &str) {
+    assert_eq!(
+        morrowcast_engine::intake::leave_out_rows(text, rows),
+        expected,
+        "rows {rows:?} of {text:?}"
+    );
+}
+
+#[test]
+fn rows_are_left_out_whole_and_nothing_else_changes() {
+    check_left_out("a,b\n1,2\n3,4\n", &[3], "a,b\n1,2\n");
+    check_left_out("a,b\r\n1,2\r\n3,4", &[2], "a,b\r\n3,4");
+    check_left_out("a,b\r1,2\r3,4\r", &[2, 3], "a,b\r");
+    // A blank line between rows stays; a quoted cell's line break goes with its row.
+    check_left_out(
+        "item,qty\n\"Oak\ntray\",2\n\nSlate,3\n",
+        &[2],
+        "item,qty\n\nSlate,3\n",
+    );
+    // A byte-order mark stays; lines count as the reader counts them.
+    check_left_out("\u{feff}a\n1\n2\n", &[3], "\u{feff}a\n1\n");
+    // Lines that start no row leave nothing out.
+    check_left_out("a\n1\n2\n", &[9, 0], "a\n1\n2\n");
+}
+
+#[test]
+fn leaving_the_unfinished_period_out_reads_as_the_file_without_it() {
+    let mut text = String::from("date,item,qty\n");
+    for day in 1..=9 {
+        for (item, qty) in [("Oak tray", 30), ("Slate planter", 20)] {
+            let qty = if day == 9 { qty / 10 } else { qty + day % 3 };
+            text.push_str(&format!("2024-03-{day:02},{item},{qty}\n"));
+        }
+    }
+    let read = morrowcast_engine::intake::read(&text);
+    let unfinished = read.unfinished_last.expect("the last day looks unfinished");
+    assert_eq!(unfinished.period.to_string(), "2024-03-09");
+    assert_eq!(unfinished.rows, [18, 19]);
+    let without = morrowcast_engine::intake::leave_out_rows(&text, &unfinished.rows);
+    let again = morrowcast_engine::intake::read(&without);
+    assert_eq!(again.unfinished_last, None, "{:?}", again.warnings);
+    assert!(again
+        .items
+        .iter()
+        .all(|i| i.periods.last().map(ToString::to_string).as_deref() == Some("2024-03-08")));
+    assert!(again.errors.is_empty());
+}

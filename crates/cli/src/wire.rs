@@ -53,7 +53,7 @@ impl From<&IntakeReport> for InspectJson {
             layout: r.layout.as_str(),
             date_format: r.date_format.clone(),
             gaps_filled: r.gaps_filled,
-            unfinished_last: r.unfinished_last.map(|p| p.to_string()),
+            unfinished_last: r.unfinished_last.as_ref().map(|u| u.period.to_string()),
             items: r
                 .items
                 .iter()

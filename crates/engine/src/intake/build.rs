@@ -57,6 +57,9 @@ pub(crate) struct Built {
     pub empty_cells: usize,
     pub warnings: Vec<String>,
     pub errors: Vec<RowError>,
+    /// The latest period on the rows of a table with a period column (single, wide, long)
+    /// and the lines of the rows holding it: what leaving that period out removes.
+    pub last_rows: Option<(Period, Vec<usize>)>,
 }
 
 /// "1 cell", "2 cells": a count with its noun.
@@ -98,6 +101,18 @@ pub(crate) fn lines(numbers: &[usize]) -> String {
     let numbers: Vec<String> = numbers.iter().map(usize::to_string).collect();
     let noun = if numbers.len() == 1 { "line" } else { "lines" };
     format!("{noun} {}", joined(&numbers))
+}
+
+/// The latest of `periods` (one per row of `rows`) and the lines of the rows holding it.
+fn last_rows(rows: &[&Record], periods: &[Option<Period>]) -> Option<(Period, Vec<usize>)> {
+    let last = periods.iter().flatten().max().copied()?;
+    let lines = rows
+        .iter()
+        .zip(periods)
+        .filter(|(_, p)| **p == Some(last))
+        .map(|(row, _)| row.line)
+        .collect();
+    Some((last, lines))
 }
 
 struct Builder<'a> {
@@ -245,6 +260,11 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         });
         col
     });
+    if plan.layout != Layout::Across {
+        b.out.last_rows = column
+            .as_ref()
+            .and_then(|col| last_rows(&kept, &col.periods));
+    }
     match (plan.layout, column) {
         (Layout::Long, column) => b.long(&kept, column.as_ref()),
         (Layout::Across, _) => b.across(&kept),

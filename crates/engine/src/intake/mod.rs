@@ -111,6 +111,7 @@ mod totals;
 mod unfinished;
 
 pub use stock_table::{read_stock_table, StockRow, StockTable};
+pub use unfinished::UnfinishedPeriod;
 
 use crate::calendar::{Frequency, Period};
 use crate::series::{Series, SeriesError};
@@ -247,7 +248,7 @@ pub struct IntakeReport {
     pub empty_cells: usize,
     /// The last period, when its demand is so far below the periods before that it looks
     /// unfinished (data taken before it ended); a warning says why. Its figures are as read.
-    pub unfinished_last: Option<Period>,
+    pub unfinished_last: Option<UnfinishedPeriod>,
 }
 
 impl IntakeReport {
@@ -273,6 +274,30 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
 /// shows the text itself, such as the page's Intake box.
 pub fn decode_bytes(bytes: &[u8]) -> String {
     decode::decode(bytes).text
+}
+
+/// `text` without the records that start on the 1-based lines `rows` (each record with all
+/// its lines, a quoted cell's line breaks included), every other character as it was: leaving
+/// a period out at the user's request ([`UnfinishedPeriod::rows`]). Lines are those [`read`]
+/// reports.
+pub fn leave_out_rows(text: &str, rows: &[usize]) -> String {
+    let body = text::strip_bom(text);
+    let delimiter = text::sniff_delimiter(body).unwrap_or(Delimiter::Comma);
+    let records = text::tokenize(body, text::delimiter_char(delimiter)).records;
+    let last_line = records.last().map_or(0, |r| r.line);
+    let mut dropped = vec![false; last_line + 1];
+    // At least the text's lines (a CRLF counts twice here): the last record's end.
+    let lines_of_text = body.split(['\n', '\r']).count() + 1;
+    let mut wanted = rows.to_vec();
+    wanted.sort_unstable();
+    for (i, record) in records.iter().enumerate() {
+        if wanted.binary_search(&record.line).is_ok() {
+            let end = records.get(i + 1).map_or(lines_of_text, |next| next.line);
+            dropped.resize(dropped.len().max(end + 1), false);
+            dropped[record.line..end].fill(true);
+        }
+    }
+    text::without_lines(text, &dropped)
 }
 
 /// Reads text into a report; every line holding U+FFFD (bytes another program could not read
@@ -392,8 +417,12 @@ fn read_text(text: &str) -> IntakeReport {
     report.date_format = built.date_format;
     report.items = built.items;
     totals::set_aside(&mut report.items, &mut report.warnings);
-    if let Some((last, warning)) = unfinished::last_period(&report.items) {
-        report.unfinished_last = Some(last);
+    if let Some((period, warning)) = unfinished::last_period(&report.items) {
+        let rows = match built.last_rows {
+            Some((last, rows)) if last == period => rows,
+            _ => Vec::new(),
+        };
+        report.unfinished_last = Some(UnfinishedPeriod { period, rows });
         report.warnings.push(warning);
     }
     report.gaps_filled = built.gaps_filled;

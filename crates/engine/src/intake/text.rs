@@ -65,6 +65,30 @@ pub(crate) struct Tokens {
     pub passes: usize,
 }
 
+/// `text` without the lines in `dropped` (1-based, counted as the tokeniser counts them: LF,
+/// CRLF and a lone CR each end a line); every other character is kept as it was, line ends
+/// included.
+pub(crate) fn without_lines(text: &str, dropped: &[bool]) -> String {
+    let mut out = String::with_capacity(text.len());
+    let mut line = 1usize;
+    let mut rest = text;
+    while !rest.is_empty() {
+        let end = rest.find(['\n', '\r']).map_or(rest.len(), |i| {
+            if rest[i..].starts_with("\r\n") {
+                i + 2
+            } else {
+                i + 1
+            }
+        });
+        if !dropped.get(line).copied().unwrap_or(false) {
+            out.push_str(&rest[..end]);
+        }
+        rest = &rest[end..];
+        line += 1;
+    }
+    out
+}
+
 /// Removes a leading UTF-8 byte-order mark (U+FEFF), which some spreadsheet exports write.
 pub(crate) fn strip_bom(text: &str) -> &str {
     text.strip_prefix('\u{feff}').unwrap_or(text)

@@ -27,6 +27,17 @@
 use super::Item;
 use crate::calendar::Period;
 
+/// A last period that looks unfinished, and where its rows stand.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct UnfinishedPeriod {
+    /// The period.
+    pub period: Period,
+    /// The 1-based lines of the rows holding it, for [`super::leave_out_rows`]; empty where
+    /// it cannot be left out row by row (periods across the header).
+    pub rows: Vec<usize>,
+}
+
 /// Periods before the last whose median it is compared with.
 const RECENT: usize = 3;
 
