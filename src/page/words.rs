@@ -96,13 +96,15 @@ pub fn unread_cells_note(count: usize) -> String {
 /// offers a button that does it; otherwise the file must be edited.
 pub fn unfinished_last_note(last: &str, can_leave_out: bool) -> String {
     let what_to_do = if can_leave_out {
-        "If it is not over yet, leave it out until it is."
+        "leave it out until it is over"
     } else {
-        "If it is not over yet, take it out of the file until it is."
+        "take it out of the file until it is over"
     };
     format!(
-        "The last period, {last}, looks unfinished (Intake says why): the forecasts and stock \
-         figures count it as a whole period, so they may run low. {what_to_do}"
+        "The last period, {last}, looks unfinished: it is far below the periods before it (the \
+         Intake report says more). If the data was taken before it ended, {what_to_do}: the \
+         forecasts and stock figures count it as a whole period, so they come out too low. If \
+         it really was this quiet, ignore this."
     )
 }
 

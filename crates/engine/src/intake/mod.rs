@@ -417,7 +417,8 @@ fn read_text(text: &str) -> IntakeReport {
     report.date_format = built.date_format;
     report.items = built.items;
     totals::set_aside(&mut report.items, &mut report.warnings);
-    if let Some((period, warning)) = unfinished::last_period(&report.items) {
+    let zeros_unwritten = report.layout == Layout::Long;
+    if let Some((period, warning)) = unfinished::last_period(&report.items, zeros_unwritten) {
         let rows = match built.last_rows {
             Some((last, rows)) if last == period => rows,
             _ => Vec::new(),
