@@ -53,7 +53,7 @@ fn the_quantity_is_the_count_of_goods_not_money_or_size() {
 
 // Times of day beside dates are calendar details: in a till export (date, time, item, qty)
 // each sale had become an item ("09:15 / Rose fertiliser"); now the day's sales are summed,
-// with warnings. Beside one column of values, several times a day are an error.
+// with warnings. Beside one column of values too (several times a day had been an error).
 #[test]
 fn times_of_day_are_not_items() {
     check(
@@ -71,10 +71,14 @@ fn times_of_day_are_not_items() {
             ..Expect::default()
         },
     );
-    let report =
-        read("Date,Time,Compost\n2024-03-01,09:00,2\n2024-03-01,13:00,3\n2024-03-02,09:00,4\n");
-    assert!(!report.errors.is_empty());
-    assert!(report.items.iter().all(|i| !i.name.contains(':')));
+    check(
+        "Date,Time,Compost\n2024-03-01,09:00,2\n2024-03-01,13:00,3\n2024-03-02,09:00,4\n",
+        Expect {
+            items: Some(vec![("Compost", some(&[5.0, 4.0]))]),
+            warned: vec![vec!["1 row shares its day with an earlier row"]],
+            ..Expect::default()
+        },
+    );
 }
 
 // Order and customer numbers number transactions: joined to the item they had split every
@@ -400,17 +404,60 @@ fn local_midnights_written_in_utc_are_refused() {
     );
 }
 
-// Hourly rows of one series: each day's second row is refused, saying why (the time of day is
-// left out) and how to add the rows up; it had said only to keep one of the two rows.
+// Timed rows of one series or a wide table (a till's log of one product, an hourly meter):
+// each day's second row had been refused, one error per row (1,380 for an hourly file); a
+// day's rows are now added up, as a long table's are, with a warning. Two rows of one day
+// without times stay an error: nothing tells them apart.
 #[test]
-fn a_second_row_of_a_day_in_one_series_says_why() {
-    let report = read("timestamp,kwh\n2024-01-05 01:00,5\n2024-01-05 02:00,7\n");
-    assert_eq!(report.errors.len(), 1, "{:#?}", report.errors);
-    let error = &report.errors[0];
-    assert_eq!((error.row, error.text.as_str()), (3, "2024-01-05 02:00"));
-    assert!(
-        error.message.contains("the time of day is left out"),
-        "{}",
-        error.message
+fn timed_rows_of_a_day_in_one_series_or_a_wide_table_are_added_up() {
+    check(
+        "timestamp,kwh\n2024-01-05 00:00,5\n2024-01-05 02:00,7\n2024-01-06 01:00,4\n",
+        Expect {
+            items: Some(vec![("kwh", some(&[12.0, 4.0]))]),
+            periods: Some(vec!["2024-01-05", "2024-01-06"]),
+            warned: vec![vec![
+                "1 row shares its day with an earlier row",
+                "each day's quantities are added up",
+            ]],
+            ..Expect::default()
+        },
     );
+    check(
+        "Sold at,Oak tray,Slate planter\n2024-01-05T09:30:00Z,1,\n2024-01-05T14:10:00Z,2,1\n\
+         2024-01-06T10:00:00Z,,\n2024-01-07T11:00:00Z,3,2\n",
+        Expect {
+            items: Some(vec![
+                ("Oak tray", vec![Some(3.0), None, Some(3.0)]),
+                ("Slate planter", vec![Some(1.0), None, Some(2.0)]),
+            ]),
+            warned: vec![
+                vec!["\"Slate planter\": 1 empty cell on days with other rows added nothing to them (2024-01-05)"],
+                vec!["\"Oak tray\": 1 empty cell read as gaps (2024-01-06)"],
+            ],
+            ..Expect::default()
+        },
+    );
+    // A time column beside the date tells the rows apart too.
+    check(
+        "date,time,qty\n2024-01-05,09:30,2\n2024-01-05,14:10,1\n2024-01-06,10:00,4\n",
+        Expect {
+            items: Some(vec![("qty", some(&[3.0, 4.0]))]),
+            warned: vec![vec!["1 row shares its day with an earlier row"]],
+            ..Expect::default()
+        },
+    );
+    // Without times, or with a time on one row only: an error at the second row.
+    for text in [
+        "date,kwh\n2024-01-05,5\n2024-01-05,7\n",
+        "date,kwh\n2024-01-05,5\n2024-01-05 02:00,7\n",
+        "date,kwh\n2024-01-05 02:00,5\n2024-01-05 02:00,7\n",
+        "date,weekday,kwh\n2024-01-05,Fri,5\n2024-01-05,Fri,7\n",
+    ] {
+        let report = read(text);
+        assert_eq!(report.errors.len(), 1, "{text}: {:#?}", report.errors);
+        assert_eq!(report.errors[0].row, 3);
+        assert!(report.errors[0]
+            .message
+            .contains("keep one of the two rows"));
+    }
 }

@@ -434,32 +434,43 @@ impl<'a> Builder<'a> {
         entries.sort_by_key(|e| e.period);
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
         let mut unique: Vec<Entry<'a>> = Vec::with_capacity(entries.len());
+        // Rows of a day already taken whose time of day tells them apart: added to it.
+        let mut same_day: Vec<Entry<'a>> = Vec::new();
         for entry in entries {
             match unique.last() {
                 Some(prev) if prev.period == entry.period => {
+                    if self.told_apart(prev.row, entry.row) {
+                        same_day.push(entry);
+                        continue;
+                    }
                     let first_line = prev.row.line;
                     let cell = self.period_text(entry.row);
-                    let timed = super::label::time_after_date(&cell).is_some();
-                    let why = if timed {
-                        "the time of day is left out, so this row falls on the same day; to add \
-                         up a day's rows, give them a column naming the item (item, period, \
-                         quantity rows)"
-                    } else {
-                        "keep one of the two rows (to add up several rows per period, use item, \
-                         period, quantity rows)"
-                    };
                     self.error(
                         entry.row.line,
                         period_column,
                         &cell,
                         format!(
-                            "expected each period once; {} is also on line {first_line}: {why}",
+                            "expected each period once; {} is also on line {first_line}: keep \
+                             one of the two rows (to add up several rows per period, use item, \
+                             period, quantity rows)",
                             entry.period
                         ),
                     );
                 }
                 _ => unique.push(entry),
             }
+        }
+        if !same_day.is_empty() {
+            let share = if same_day.len() == 1 {
+                "shares its"
+            } else {
+                "share their"
+            };
+            self.out.warnings.push(format!(
+                "{} {share} day with an earlier row, told apart only by the time of day: each \
+                 day's quantities are added up",
+                count(same_day.len(), "row")
+            ));
         }
         let (Some(first), Some(last)) = (unique.first(), unique.last()) else {
             return;
@@ -481,8 +492,11 @@ impl<'a> Builder<'a> {
         let mut names = Names::default();
         for (k, &j) in value_columns.iter().enumerate() {
             let name = names.unique(self.base_name(k, j), j);
-            let cells: Vec<(Period, &Record, usize)> =
-                unique.iter().map(|e| (e.period, e.row, j)).collect();
+            let cells: Vec<(Period, &Record, usize)> = unique
+                .iter()
+                .chain(&same_day)
+                .map(|e| (e.period, e.row, j))
+                .collect();
             let Some(values) = self.item_values(&name, start, len as usize, &cells) else {
                 continue;
             };
@@ -506,9 +520,29 @@ impl<'a> Builder<'a> {
         self.out.items = items;
     }
 
+    /// Whether two rows of one period are told apart by the time of day reading leaves out:
+    /// two different times written in their period cells (midnight too), or in a calendar
+    /// column left out beside the date (a till's time column). Such rows are a day's sales,
+    /// added up.
+    fn told_apart(&self, first: &Record, second: &Record) -> bool {
+        let first_cell = self.period_text(first);
+        let second_cell = self.period_text(second);
+        let (a, b) = (
+            super::label::written_time(&first_cell),
+            super::label::written_time(&second_cell),
+        );
+        matches!((a, b), (Some(a), Some(b)) if a != b)
+            || self.plan.calendar.iter().any(|&j| {
+                let a = first.cells.get(j).map_or("", String::as_str);
+                let b = second.cells.get(j).map_or("", String::as_str);
+                a != b && super::label::is_time_of_day(a) && super::label::is_time_of_day(b)
+            })
+    }
+
     /// One item's values over `len` periods from `start`: each (period, row, column) of
-    /// `cells` read into its period's slot. Empty cells are gaps, named in a warning; an item
-    /// with no value is named in a warning (unless its cells were errors) and gives `None`.
+    /// `cells` read into its period's slot, added to what is there (a day's timed rows). Empty
+    /// cells are gaps, named in a warning; an item with no value is named in a warning (unless
+    /// its cells were errors) and gives `None`.
     fn item_values(
         &mut self,
         name: &str,
@@ -521,10 +555,11 @@ impl<'a> Builder<'a> {
         let mut errors = 0;
         for &(period, row, column) in cells {
             match self.value(row, column) {
-                Ok(None) => empty.push(period.to_string()),
-                Ok(v) => {
-                    self.check_negative(name, period, v);
-                    values[start.steps_to(period) as usize] = v;
+                Ok(None) => empty.push(period),
+                Ok(Some(v)) => {
+                    self.check_negative(name, period, Some(v));
+                    let slot = &mut values[start.steps_to(period) as usize];
+                    *slot = Some(slot.unwrap_or(0.0) + v);
                 }
                 Err(()) => errors += 1,
             }
@@ -537,11 +572,27 @@ impl<'a> Builder<'a> {
             }
             return None;
         }
-        if !empty.is_empty() {
+        // An empty cell on a day whose other rows hold quantities adds nothing to it; a day of
+        // empty cells only is a gap.
+        let (beside, mut gaps): (Vec<Period>, Vec<Period>) = empty
+            .into_iter()
+            .partition(|p| values[start.steps_to(*p) as usize].is_some());
+        gaps.sort();
+        gaps.dedup();
+        if !gaps.is_empty() {
+            let gaps: Vec<String> = gaps.iter().map(Period::to_string).collect();
             self.out.warnings.push(format!(
                 "\"{name}\": {} read as gaps ({})",
-                count(empty.len(), "empty cell"),
-                listing(&empty)
+                count(gaps.len(), "empty cell"),
+                listing(&gaps)
+            ));
+        }
+        if !beside.is_empty() {
+            let days: Vec<String> = beside.iter().map(Period::to_string).collect();
+            self.out.warnings.push(format!(
+                "\"{name}\": {} on days with other rows added nothing to them ({})",
+                count(beside.len(), "empty cell"),
+                listing(&days)
             ));
         }
         Some(values)

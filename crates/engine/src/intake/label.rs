@@ -197,6 +197,11 @@ pub(crate) fn calendar_name(cell: &str) -> bool {
         || numbered('w', 53)
 }
 
+/// Whether a cell is a time of day alone ("09:15", "1:30 PM"): a till's time column.
+pub(crate) fn is_time_of_day(cell: &str) -> bool {
+    time_of_day(&cell.trim().to_lowercase())
+}
+
 /// A time of day: hours and minutes, perhaps seconds, perhaps am or pm ("9:15", "13:00:00").
 fn time_of_day(lower: &str) -> bool {
     let clock = lower
@@ -298,6 +303,12 @@ pub(crate) fn time_after_date(cell: &str) -> Option<Clock<'_>> {
     clock.filter(|c| !midnight(c.time)).filter(|_| {
         parse_label(date).is_some_and(|l| matches!(l.family(), Family::Date | Family::TwoWay))
     })
+}
+
+/// The time of day written after the date in `cell`, midnight included ("2024-03-31 00:00"
+/// gives "00:00"), as written.
+pub(crate) fn written_time(cell: &str) -> Option<&str> {
+    split_time(cell.trim()).1.map(|c| c.time)
 }
 
 /// `cell` without a time of day after it ("2024-03-31T14:32" gives "2024-03-31").
