@@ -357,6 +357,12 @@ fn dates_with_times_of_day_are_read_by_their_date() {
             "Date,Item,Qty\n05/01/2024 2:32 PM,Oak tray,2\n05/01/2024 4:10 PM,Oak tray,1\n06/01/2024 9:05 AM,Oak tray,4\n13/01/2024 11:00 AM,Oak tray,3\n",
             "05/01/2024 2:32 PM",
         ),
+        // A zone written apart, and a comma before the fraction of a second (ISO 8601 allows
+        // it): these had been refused.
+        (
+            "Sold at,Item,Qty\n2024-01-05 14:32:05 UTC,Oak tray,2\n2024-01-05 16:10:00 +01:00,Oak tray,1\n\"2024-01-06T09:05:00,250Z\",Oak tray,4\n2024-01-07 11:00:00 GMT,Oak tray,3\n",
+            "2024-01-05 14:32:05 UTC",
+        ),
     ] {
         let report = check(
             text,

@@ -257,28 +257,37 @@ fn split_time(cell: &str) -> (&str, Option<Clock<'_>>) {
     } else {
         cell.len()
     };
-    let head = &cell[..clock_end];
+    let mut head = &cell[..clock_end];
+    let mut zoned = false;
+    // A zone written apart after the time: " UTC", " GMT", " +01:00" (as some exports write).
+    if let Some((before, zone)) = head.rsplit_once(' ') {
+        let zone_name = matches!(zone.to_ascii_uppercase().as_str(), "UTC" | "GMT" | "Z");
+        if !twelve_hour && (zone_name || offset(zone)) {
+            head = before.trim_end();
+            zoned = true;
+        }
+    }
     let Some(pos) = head.rfind([' ', 'T', 't']) else {
         return (cell, None);
     };
     let mut time = &head[pos + 1..];
-    let mut zoned = false;
     // A UTC offset as ISO 8601 writes it: Z, +01:00, -0500.
     if let Some(t) = time.strip_suffix(['Z', 'z']) {
         time = t;
         zoned = true;
     } else if let Some(at) = time.rfind(['+', '-']) {
-        let offset = &time[at + 1..];
-        let digits = offset.replace(':', "");
-        if at > 0 && digits.len() == 4 && digits.bytes().all(|b| b.is_ascii_digit()) {
+        if at > 0 && offset(&time[at..]) {
             time = &time[..at];
             zoned = true;
         }
     }
-    let whole = time.split('.').next().unwrap_or(time);
-    let fraction_ok = time
-        .split_once('.')
-        .is_none_or(|(_, f)| !f.is_empty() && f.bytes().all(|b| b.is_ascii_digit()));
+    // Fractions of a second after a dot, or a comma (ISO 8601 allows both).
+    let (whole, fraction) = match time.split_once(['.', ',']) {
+        Some((whole, fraction)) => (whole, Some(fraction)),
+        None => (time, None),
+    };
+    let fraction_ok =
+        fraction.is_none_or(|f| !f.is_empty() && f.bytes().all(|b| b.is_ascii_digit()));
     if pos == 0 || !fraction_ok || !time_of_day(whole) {
         return (cell, None);
     }
@@ -286,6 +295,16 @@ fn split_time(cell: &str) -> (&str, Option<Clock<'_>>) {
     let date = cell[..pos].trim_end();
     let date = date.strip_suffix(',').unwrap_or(date).trim_end();
     (date, Some(Clock { time: whole, zoned }))
+}
+
+/// A UTC offset as ISO 8601 writes it: a sign and four digits, perhaps with a colon ("+01:00",
+/// "-0500").
+fn offset(text: &str) -> bool {
+    let Some(rest) = text.strip_prefix(['+', '-']) else {
+        return false;
+    };
+    let digits = rest.replacen(':', "", 1);
+    digits.len() == 4 && digits.bytes().all(|b| b.is_ascii_digit())
 }
 
 /// A time of day after a date: hours, minutes and seconds as written, and whether a UTC
