@@ -101,6 +101,15 @@ const SYMBOLS: [&str; 22] = [
     "₦", "₱", "฿", "¢", "%",
 ];
 
+/// Whether `text` holds a currency sign of [`SYMBOLS`] ("Sales (£)", "Takings ₹"): a header
+/// naming money.
+pub(crate) fn holds_currency_sign(text: &str) -> bool {
+    SYMBOLS
+        .iter()
+        .filter(|sym| **sym != "%")
+        .any(|sym| text.contains(sym))
+}
+
 /// Currency words written after the amount.
 const WORD_SUFFIXES: [&str; 4] = ["kr", "zł", "Kč", "Ft"];
 

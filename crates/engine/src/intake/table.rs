@@ -890,9 +890,10 @@ pub(super) fn names_money(name: &str) -> bool {
     shows_currency(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
-/// Whether a header holds a currency sign ("Sales (£)", "$ amount").
+/// Whether a header holds a currency sign ("Sales (£)", "$ amount", "Sales (₹)"): the signs
+/// number cells may carry ([`super::number::holds_currency_sign`]).
 fn shows_currency(name: &str) -> bool {
-    name.contains(['£', '$', '€', '¥'])
+    super::number::holds_currency_sign(name)
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
