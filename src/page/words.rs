@@ -108,6 +108,11 @@ pub fn unfinished_last_note(last: &str, can_leave_out: bool) -> String {
     )
 }
 
+/// Said where the unfinished-period notice stood once the period is left out.
+pub fn left_out_note(period: &str) -> String {
+    format!("{period} is left out of the Intake text; the figures go without it.")
+}
+
 /// Where the Intake text came from once a period was left out of it: "sales.csv, without
 /// 2025-12".
 pub fn without_period_source(source: &str, period: &str) -> String {

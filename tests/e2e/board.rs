@@ -497,17 +497,25 @@ fn an_unfinished_last_period_is_said_above_the_figures() {
         );
     }
     save_screenshot(browser, "board-unfinished-last.png");
-    // Left out at a click: the rows of 2025-12 go from the Intake text, and the plans with them.
+    // An item other than the first is open: it stays open through the leaving out.
+    browser.js(
+        "[...document.querySelectorAll('#board-table button.open-item')].find(b => b.textContent === 'Mulch 50 L').click()",
+    );
+    wait_for_item(browser, "Mulch 50 L");
+    // Left out at a click: the rows of 2025-12 go from the Intake text, and the plans with them;
+    // a line says so, its button to put them back holding the focus.
     browser.js(
         "[...document.querySelectorAll('#board-unfinished-last button')].find(b => b.textContent === 'Leave 2025-12 out').click()",
     );
     browser.wait_for(
-        "the notice gone",
-        "return !document.getElementById('board-unfinished-last') \
-           && document.getElementById('intake-source').textContent === 'pasted text, without 2025-12'",
+        "the period left out",
+        "return document.getElementById('intake-source').textContent === 'pasted text, without 2025-12' \
+           && document.activeElement && document.activeElement.id === 'board-unfinished-last-put-back'",
         WAIT,
     );
+    assert!(notice("board-unfinished-last").starts_with("2025-12 is left out of the Intake text"));
     wait_until_planned(browser, 12);
+    wait_for_item(browser, "Mulch 50 L");
     let text_now = browser.js("return document.getElementById('intake-text').value");
     let expected: String = text
         .lines()
@@ -515,4 +523,40 @@ fn an_unfinished_last_period_is_said_above_the_figures() {
         .map(|line| format!("{line}\n"))
         .collect();
     assert_eq!(text_now.as_str(), Some(expected.as_str()));
+    save_screenshot(browser, "board-left-out.png");
+    // Put back: the text as it was, and the notice again.
+    browser.js("document.getElementById('board-unfinished-last-put-back').click()");
+    browser.wait_for(
+        "the period put back",
+        "const n = document.getElementById('board-unfinished-last'); \
+         return !!n && n.textContent.startsWith('The last period, 2025-12, looks unfinished')",
+        WAIT,
+    );
+    let text_back = browser.js("return document.getElementById('intake-text').value");
+    assert_eq!(text_back.as_str(), Some(text.as_str()));
+
+    // Rows that decided the reading (the only date showing the date order) are not left out:
+    // the notice says why and the text stays.
+    let mut us = String::from("date,Oak tray,Slate planter\n");
+    for day in 1..=12 {
+        us.push_str(&format!(
+            "12/{day:02}/2025,{},{}\n",
+            40 + day % 3,
+            30 + day % 2
+        ));
+    }
+    us.push_str("12/13/2025,3,2\n");
+    paste(browser, &us);
+    wait_until_planned(browser, 2);
+    browser.js(
+        "[...document.querySelectorAll('#board-unfinished-last button')].find(b => b.textContent === 'Leave 2025-12-13 out').click()",
+    );
+    browser.wait_for(
+        "the refusal",
+        "const n = document.getElementById('board-unfinished-last'); \
+         return !!n && n.textContent.includes('2025-12-13 was not left out')",
+        WAIT,
+    );
+    let kept = browser.js("return document.getElementById('intake-text').value");
+    assert_eq!(kept.as_str(), Some(us.as_str()));
 }

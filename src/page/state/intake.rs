@@ -28,6 +28,21 @@ pub struct IntakeState {
     version: RwSignal<u64>,
     /// True while a large text is being read in the worker (the report is then empty).
     pub reading: Memo<bool>,
+    /// The text before a period was left out of it, for putting it back; shown only while
+    /// the text is still the one the leaving out wrote.
+    pub left_out: RwSignal<Option<LeftOut>>,
+}
+
+/// A period left out of the Intake text at the user's request, and what to put back.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LeftOut {
+    /// The period, as the page names it.
+    pub period: String,
+    /// The text and its source before.
+    pub text: String,
+    pub source: String,
+    /// The text's version the leaving out wrote (see [`IntakeState::version`]).
+    pub version: u64,
 }
 
 /// Texts longer than this are read in a worker and shown in the Intake box only in part (our
@@ -91,6 +106,31 @@ impl IntakeState {
             series,
             version,
             reading,
+            left_out: RwSignal::new(None),
+        }
+    }
+
+    /// The period left out, while the text is still the one that left it out.
+    pub fn current_left_out(&self) -> Option<LeftOut> {
+        let version = self.version.get();
+        self.left_out.get().filter(|left| left.version == version)
+    }
+
+    /// Replaces the text and keeps the chosen item where the new text still has it (by name).
+    pub fn set_text_keeping_item(&self, text: String, source: &str) {
+        let name = self.report.with_untracked(|r| {
+            r.items
+                .get(self.item.get_untracked())
+                .map(|i| i.name.clone())
+        });
+        self.set_text(text, source);
+        if let Some(name) = name {
+            let at = self
+                .report
+                .with_untracked(|r| r.items.iter().position(|i| i.name == name));
+            if let Some(at) = at {
+                self.item.set(at);
+            }
         }
     }
 

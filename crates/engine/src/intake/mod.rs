@@ -300,6 +300,62 @@ pub fn leave_out_rows(text: &str, rows: &[usize]) -> String {
     text::without_lines(text, &dropped)
 }
 
+/// `text` without the rows of the period `report` found unfinished ([`leave_out_rows`]),
+/// when what is left reads as the text did: the same delimiter, decimal mark, layout,
+/// frequency and period format. Otherwise an error in words: those rows decided part of the
+/// reading (the only cells showing the date order or the decimal mark), and leaving them out
+/// would read the rest differently, unsaid. `None` when there is nothing to leave out.
+pub fn leave_out_unfinished(text: &str, report: &IntakeReport) -> Option<Result<String, String>> {
+    let unfinished = report.unfinished_last.as_ref()?;
+    if unfinished.rows.is_empty() {
+        return None;
+    }
+    let without = leave_out_rows(text, &unfinished.rows);
+    let again = read(&without);
+    let changes: Vec<String> = [
+        (
+            "delimiter",
+            report.delimiter.as_str(),
+            again.delimiter.as_str(),
+        ),
+        (
+            "decimal mark",
+            report.decimal.as_str(),
+            again.decimal.as_str(),
+        ),
+        ("layout", report.layout.as_str(), again.layout.as_str()),
+        (
+            "frequency",
+            report.frequency.as_str(),
+            again.frequency.as_str(),
+        ),
+        (
+            "periods",
+            report.date_format.as_deref().unwrap_or("none"),
+            again.date_format.as_deref().unwrap_or("none"),
+        ),
+    ]
+    .into_iter()
+    .filter(|(_, before, after)| before != after)
+    .map(|(what, before, after)| format!("{what} {before} to {after}"))
+    .collect();
+    let new_errors = again.errors.len() > report.errors.len();
+    if changes.is_empty() && !new_errors {
+        return Some(Ok(without));
+    }
+    let what = if changes.is_empty() {
+        "rows that read now would be refused".to_string()
+    } else {
+        changes.join("; ")
+    };
+    Some(Err(format!(
+        "{} was not left out: without its rows the rest of the table would be read \
+         differently ({what}), since they decided part of the reading. Take them out of the \
+         file yourself and check Intake's reading.",
+        unfinished.period
+    )))
+}
+
 /// Reads text into a report; every line holding U+FFFD (bytes another program could not read
 /// as text) is an error. Never panics, whatever the text.
 pub fn read(text: &str) -> IntakeReport {

@@ -8,40 +8,47 @@
 //! of a season) looks the same, and only the user knows which it is. The warning names the
 //! period, the figures and what to do; the page offers to leave the rows out.
 //!
-//! The rule, on sums over the items running to the file's last period P with a value in every
-//! period compared (in a long table, whose rows leave out the zeros, an item whose last row is
-//! at most three periods before P sold nothing since: its till had no sale yet that day), so
-//! one quiet item proves nothing and a single item's file is judged on its own figures:
-//! - the sum at P is below half the median of the sums at P-1, P-2 and P-3 (a median, so one
-//!   spike among them does not make an ordinary period look low), and so far below it that
-//!   Poisson demand with that median as its mean falls as low in at most [`TAIL`] of periods
-//!   (from a median of 20 half is enough; at 10, 2 or fewer), on a median of at least
+//! The rule. P is the last period with a figure (a template's empty future rows are not
+//! demand). Sums over the items running to P with a value in every period compared (in a
+//! long table, whose rows leave out the zeros, an item whose last row is at most three periods
+//! before P sold nothing since: its till had no sale yet that day), so one quiet item proves
+//! nothing and a single item's file is judged on its own figures. The places of the season
+//! with no demand every time (a weekend, a winter month) are closed: P at one says nothing,
+//! and the periods compared skip them. P looks unfinished when:
+//! - its sum is below half the median of the three open periods before it (a median, so one
+//!   spike among them does not make an ordinary period look low), below half the open period
+//!   just before it (after a fall one period earlier the last is the new level), and so far
+//!   below the median that Poisson demand with that mean falls as low in at most [`TAIL`] of
+//!   periods (from a median of 20 half is enough; at 10, 2 or fewer), on a median of at least
 //!   [`LEAST_MEDIAN`] (below it the ups and downs of real demand, more spread than Poisson's,
 //!   reach such falls);
 //! - where the calendar suggests a season of m periods (7 days, 52 weeks, 12 months, 4
 //!   quarters) and items reach back to P-m: the sum at P over those is below half their sum
 //!   at P-m too (a quiet Sunday after a busy week, a January after December, is the season),
-//!   unless P-m itself fell below half of the three periods before it (the same fall a season
-//!   before: a season's end, not an unfinished period);
+//!   unless, for weeks, months and quarters, P-m itself fell below half of the three periods
+//!   before it (the same fall a season before: a season's end; for days a habitually short
+//!   Saturday falls so every week, and the day a week back alone decides);
 //! - the items but the one that fell most are not whole (at least half their median, a median
 //!   of at least [`OTHERS_SPEAK`]): data taken early cuts every item short, while one item
 //!   falling alone (discontinued and written as 0, out of stock) leaves the period whole;
-//! - the summed demand before P is not intermittent (demand in at least one period in
-//!   [`ADI_CUTOFF`], Syntetos, Boylan & Croston 2005): where empty periods are ordinary, an
-//!   empty last one is too;
-//! - without a period a season back to compare with, the sum at P is below [`STRICT`] of the
-//!   median (a season that ends, a summer item's October in a year's export, falls by half
-//!   in whole months; measured on simulated garden shops by a review: 40-51 % of 12-month
-//!   exports ending in September or October were warned at a half, 4.5 % of 12-month files
-//!   at 0.35, 96 % of months cut to a tenth still found), and not when two or more earlier
-//!   periods (after the first) were at most twice as busy: a shop shut in winter, a lumpy
-//!   item's empty months.
+//! - the summed demand before P, closed places left out, is not intermittent (demand in at
+//!   least one period in [`ADI_CUTOFF`], Syntetos, Boylan & Croston 2005): where empty
+//!   periods are ordinary, an empty last one is too;
+//! - without a period a season back to compare with: never for days (a till's first week: a
+//!   short Saturday is a third of a weekday); otherwise the sum at P is below [`STRICT`] of
+//!   the median (a season that ends, a summer item's October in a year's export, falls by
+//!   half in whole months; measured on simulated garden shops by a review: 40-51 % of
+//!   12-month exports ending in September or October were warned at a half, 4.5 % of
+//!   12-month files at 0.35, 96 % of months cut to a tenth still found), and not when two or
+//!   more earlier periods (after the first) were at most twice as busy (a shop shut in
+//!   winter).
 //!
 //! The cut-offs are our choice. Poisson tails: P(X <= 9) = 0.0050 for mean 20 (scipy 1.17.1,
 //! poisson.cdf(9, 20)); statrs's Poisson gives the same (checked in the tests). Measured: on
-//! the M3 series, whose last periods are whole, 0.33 % of 6,006 histories warned and 96.1 % of
+//! the M3 series, whose last periods are whole, 0.25 % of 6,006 histories warned and 96.1 % of
 //! the same cut to a tenth found (`tests/intake/last_period.rs`); on simulated shops (the
-//! README's figures) false warnings 0-1 % for steady demand, 1-3 % for volatile.
+//! README's figures) false warnings 0-1 % for steady demand, 1-3 % for volatile, 6 % for
+//! a few lumpy items.
 
 use statrs::distribution::{DiscreteCDF, Poisson};
 
@@ -85,16 +92,15 @@ const QUIET_SEEN: usize = 2;
 /// [`others_whole`]); below it their ups and downs say little.
 const OTHERS_SPEAK: f64 = 10.0;
 
-/// An item's value `back` periods before the file's last period `last`: in a table that
-/// leaves its zeros out (`zeros_unwritten`), 0 after the item's own last row.
+/// An item's value `back` periods before `last`: in a table that leaves its zeros out
+/// (`zeros_unwritten`), 0 after the item's own last row; `None` before its first period.
 fn value_back(item: &Item, last: Period, back: usize, zeros_unwritten: bool) -> Option<f64> {
-    let own_last = *item.periods.last()?;
-    let after = usize::try_from(own_last.steps_to(last)).ok()?;
-    if back < after {
-        return zeros_unwritten.then_some(0.0);
+    let first = *item.periods.first()?;
+    let index = usize::try_from(first.steps_to(last) - back as i64).ok()?;
+    match item.values.get(index) {
+        Some(value) => *value,
+        None => zeros_unwritten.then_some(0.0),
     }
-    let index = item.values.len().checked_sub(1 + back - after)?;
-    item.values[index]
 }
 
 /// For the items with a value `back` periods before `last` for every `back` in `periods`:
@@ -157,31 +163,119 @@ fn beyond_ordinary(last: f64, median: f64) -> bool {
     }
 }
 
+/// The history summed over `running` before `last` (index k: k + 1 periods back) where every
+/// one of them has a value, back to the longest one's first period.
+fn summed_before(running: &[&Item], last: Period, zeros_unwritten: bool) -> Vec<Option<f64>> {
+    let longest = running
+        .iter()
+        .filter_map(|i| i.periods.first().map(|first| first.steps_to(last)))
+        .max()
+        .unwrap_or(0);
+    (1..=usize::try_from(longest).unwrap_or(0))
+        .map(|back| {
+            running
+                .iter()
+                .map(|item| value_back(item, last, back, zeros_unwritten))
+                .sum()
+        })
+        .collect()
+}
+
+/// The places of the calendar's season (`back % m`) that had no demand every time, at least
+/// twice, in `before`: closed (a weekend, a winter month). Without a season, none.
+fn closed_places(before: &[Option<f64>], season: Option<usize>) -> Vec<bool> {
+    let Some(m) = season else {
+        return vec![false];
+    };
+    let mut seen = vec![(0usize, false); m];
+    for (k, v) in before.iter().enumerate() {
+        if let Some(v) = v {
+            let place = &mut seen[(k + 1) % m];
+            place.0 += 1;
+            place.1 |= *v > 0.0;
+        }
+    }
+    seen.iter()
+        .map(|(count, any)| *count >= 2 && !any)
+        .collect()
+}
+
+/// Whether the summed demand before the last period, its closed places left out, comes in
+/// fewer than one period in [`ADI_CUTOFF`] (Syntetos, Boylan & Croston 2005): intermittent,
+/// where an empty period is ordinary.
+fn intermittent(before: &[Option<f64>], closed: &[bool]) -> bool {
+    let open: Vec<f64> = before
+        .iter()
+        .enumerate()
+        .filter(|(k, _)| !closed[(k + 1) % closed.len()])
+        .filter_map(|(_, v)| *v)
+        .collect();
+    let with_demand = open.iter().filter(|v| **v > 0.0).count();
+    with_demand == 0 || open.len() as f64 / with_demand as f64 >= ADI_CUTOFF
+}
+
+/// Whether, before the recent periods (and after the first, which may be unfinished itself),
+/// at least [`QUIET_SEEN`] periods were at most twice `level`: a shop shut in winter; a period
+/// that low is then nothing new.
+fn quiet_before(before: &[Option<f64>], level: f64) -> bool {
+    let earlier = before
+        .get(RECENT..before.len().saturating_sub(1))
+        .unwrap_or(&[]);
+    earlier
+        .iter()
+        .flatten()
+        .filter(|sum| **sum <= 2.0 * level)
+        .count()
+        >= QUIET_SEEN
+}
+
 /// The last period and the warning naming it, when it looks unfinished (module doc).
 /// `zeros_unwritten`: the table leaves out rows of no sales (a long table).
 pub(crate) fn last_period(items: &[Item], zeros_unwritten: bool) -> Option<(Period, String)> {
+    // The last period with a figure: empty rows after it (a template's future months) are
+    // not demand.
     let last: Period = items
         .iter()
-        .filter_map(|i| i.periods.last())
+        .filter_map(|i| {
+            let at = i.values.iter().rposition(Option::is_some)?;
+            i.periods.get(at)
+        })
         .max()
         .copied()?;
     let reach = if zeros_unwritten { RECENT as i64 } else { 0 };
     let running: Vec<&Item> = items
         .iter()
+        .filter(|i| i.periods.first().is_some_and(|first| *first <= last))
         .filter(|i| i.periods.last().is_some_and(|p| p.steps_to(last) <= reach))
         .collect();
-    let recent: Vec<usize> = (0..=RECENT).collect();
-    let rows = rows_for(&running, last, &recent, zeros_unwritten);
-    if rows.is_empty() {
+    let season = last.frequency().natural_season();
+    let before = summed_before(&running, last, zeros_unwritten);
+    let closed = closed_places(&before, season);
+    if closed[0] {
+        return None;
+    }
+    // The periods compared: the last and the three open ones before it (a closed weekend
+    // before a Monday compares nothing).
+    let compared: Vec<usize> = std::iter::once(0)
+        .chain(
+            (1..=before.len())
+                .filter(|back| !closed[back % closed.len()])
+                .take(RECENT),
+        )
+        .collect();
+    let rows = rows_for(&running, last, &compared, zeros_unwritten);
+    if rows.is_empty() || compared.len() < RECENT + 1 {
         return None;
     }
     let totals = sums(&rows, RECENT + 1);
     let median = median_of_three(&totals[1..]);
-    if median < LEAST_MEDIAN || totals[0] >= HALF * median || !beyond_ordinary(totals[0], median) {
-        return None;
-    }
-    let before = summed_before(&running, &rows, last);
-    if others_whole(&rows) || intermittent(&before, last.frequency().natural_season()) {
+    let fell = median >= LEAST_MEDIAN
+        && totals[0] < HALF * median
+        // Below the period just before too: after a fall one period earlier, the last one
+        // is the new level, whole.
+        && totals[0] < HALF * totals[1]
+        && beyond_ordinary(totals[0], median);
+    if !fell || others_whole(&rows) || intermittent(&before, &closed) {
         return None;
     }
     let subject = match (rows.len(), items.len()) {
@@ -197,23 +291,26 @@ pub(crate) fn last_period(items: &[Item], zeros_unwritten: bool) -> Option<(Peri
             percent(totals[0], median)
         )
     };
+    let daily = last.frequency() == Frequency::Daily;
     match season_back(&running, last, zeros_unwritten) {
-        SeasonBack::Fell => return None,
         SeasonBack::Above => return None,
-        SeasonBack::Below { then, share } if totals[0] >= 0.0 => {
-            let span = if last.frequency() == Frequency::Daily {
-                "a week"
-            } else {
-                "a year"
-            };
+        // A habitually short day (a Saturday) falls below the days before it every week:
+        // the day a week back alone decides.
+        SeasonBack::Fell { .. } if !daily => return None,
+        SeasonBack::Below { then, share } | SeasonBack::Fell { then, share }
+            if totals[0] >= 0.0 =>
+        {
+            let span = if daily { "a week" } else { "a year" };
             evidence.push_str(&format!(
                 " and {share} of {}, {span} before",
                 period_name(then)
             ));
         }
-        SeasonBack::Below { .. } => {}
+        SeasonBack::Below { .. } | SeasonBack::Fell { .. } => {}
         SeasonBack::None => {
-            if totals[0] >= STRICT * median || quiet_before(&before, totals[0]) {
+            // Days without the same weekday a week back (a till's first week) say too little:
+            // a short Saturday is a third of a weekday.
+            if daily || totals[0] >= STRICT * median || quiet_before(&before, totals[0]) {
                 return None;
             }
         }
@@ -221,7 +318,7 @@ pub(crate) fn last_period(items: &[Item], zeros_unwritten: bool) -> Option<(Peri
     let name = period_name(last);
     let warning = format!(
         "the last period, {name}, looks unfinished: {evidence}. If the data was taken before \
-         it ended, leave its rows out until it is over: counted as a whole period, its low \
+         it ended, leave it out until it is over: counted as a whole period, its low \
          figures pull every forecast and order down. If it really was this quiet, ignore this; \
          the forecasts use it as written."
     );
@@ -234,8 +331,9 @@ enum SeasonBack {
     None,
     /// The last period is not below half of it: the season.
     Above,
-    /// It fell below half of its own three periods before: the same fall a season ago.
-    Fell,
+    /// The last period is below half of it, which itself fell below half of its own three
+    /// periods before: the same fall a season ago.
+    Fell { then: Period, share: String },
     /// The last period is below half of it, which did not fall itself.
     Below { then: Period, share: String },
 }
@@ -259,74 +357,11 @@ fn season_back(running: &[&Item], last: Period, zeros_unwritten: bool) -> Season
     if totals[0] >= HALF * totals[1] {
         return SeasonBack::Above;
     }
+    let share = percent(totals[0], totals[1]);
     if before && totals[1] < HALF * median_of_three(&totals[2..]) {
-        return SeasonBack::Fell;
+        return SeasonBack::Fell { then, share };
     }
-    SeasonBack::Below {
-        then,
-        share: percent(totals[0], totals[1]),
-    }
-}
-
-/// The sums over the items of `rows` at each period before `last` (index 0: one back) where
-/// every one of them has a value, back to the longest item's first period.
-fn summed_before(running: &[&Item], rows: &[(usize, Vec<f64>)], last: Period) -> Vec<Option<f64>> {
-    let longest = rows
-        .iter()
-        .map(|(i, _)| running[*i].values.len())
-        .max()
-        .unwrap_or(0);
-    (1..longest)
-        .map(|back| {
-            rows.iter()
-                .map(|(i, _)| value_back(running[*i], last, back, false))
-                .sum()
-        })
-        .collect()
-}
-
-/// Whether the summed demand before the last period comes in fewer than one period in
-/// [`ADI_CUTOFF`] (Syntetos, Boylan & Croston 2005): intermittent, where an empty period is
-/// ordinary. With a season of `season` periods, the places in it without demand every time
-/// (a weekend, a winter month: closed) are left out of the count.
-fn intermittent(before: &[Option<f64>], season: Option<usize>) -> bool {
-    // `before[k]` is k + 1 periods back: its place in the season is (k + 1) % m.
-    let m = season.unwrap_or(1).max(1);
-    let mut seen = vec![(0usize, false); m];
-    for (k, v) in before.iter().enumerate() {
-        if let Some(v) = v {
-            let place = &mut seen[(k + 1) % m];
-            place.0 += 1;
-            place.1 |= *v > 0.0;
-        }
-    }
-    let closed = |k: usize| {
-        let (count, any_demand) = seen[(k + 1) % m];
-        season.is_some() && count >= 2 && !any_demand
-    };
-    let open: Vec<f64> = before
-        .iter()
-        .enumerate()
-        .filter(|(k, _)| !closed(*k))
-        .filter_map(|(_, v)| *v)
-        .collect();
-    let with_demand = open.iter().filter(|v| **v > 0.0).count();
-    with_demand == 0 || open.len() as f64 / with_demand as f64 >= ADI_CUTOFF
-}
-
-/// Whether, before the recent periods (and after the first, which may be unfinished itself),
-/// at least [`QUIET_SEEN`] periods were at most twice `level`: a shop shut in winter; a period
-/// that low is then nothing new.
-fn quiet_before(before: &[Option<f64>], level: f64) -> bool {
-    let earlier = before
-        .get(RECENT..before.len().saturating_sub(1))
-        .unwrap_or(&[]);
-    earlier
-        .iter()
-        .flatten()
-        .filter(|sum| **sum <= 2.0 * level)
-        .count()
-        >= QUIET_SEEN
+    SeasonBack::Below { then, share }
 }
 
 /// Whether the items but the one that fell most are whole: their sum at the last period is
@@ -566,6 +601,60 @@ mod tests {
             .collect();
         let built = vec![item(&some(&days), last)];
         check_items(&built, false, Some("its demand is 10 % of the median"));
+    }
+
+    #[test]
+    fn a_monday_after_a_closed_weekend_is_compared_with_the_open_days() {
+        // A shop open Monday to Friday, eight weeks, the last day a Monday taken at ten.
+        let last = Period::day(2024, 3, 25); // a Monday
+        let days: Vec<f64> = (0..50i64)
+            .map(|k| match (k, k % 7) {
+                (49, _) => 3.0,
+                (_, 5 | 6) => 0.0,
+                _ => 30.0,
+            })
+            .collect();
+        let built = vec![item(&some(&days), last)];
+        check_items(&built, false, Some("its demand is 10 % of the median"));
+    }
+
+    #[test]
+    fn a_short_saturday_cut_short_is_still_said() {
+        // Six days a week, Saturday 40 % of a weekday; the last Saturday at a tenth of that.
+        let last = Period::day(2024, 3, 23); // a Saturday
+        let days: Vec<f64> = (0..48i64)
+            .map(|k| match (k, k % 7) {
+                (47, _) => 1.0,
+                (_, 5) => 12.0,
+                (_, 6) => 0.0,
+                _ => 30.0,
+            })
+            .collect();
+        let built = vec![item(&some(&days), last)];
+        check_items(&built, false, Some("and 8 % of 2024-03-16, a week before"));
+    }
+
+    #[test]
+    fn empty_rows_after_the_last_figures_are_not_the_last_period() {
+        // A template: October cut short, November and December still empty.
+        let mut values = some(&[40.0, 42.0, 38.0, 41.0, 4.0]);
+        values.extend([None, None]);
+        let built = vec![item(&values, Period::month(2024, 12))];
+        let (period, _) = last_period(&built, false).expect("October said");
+        assert_eq!(period, Period::month(2024, 10));
+    }
+
+    #[test]
+    fn after_a_fall_one_period_earlier_the_last_is_the_new_level() {
+        check(&[&some(&[100.0, 100.0, 100.0, 100.0, 30.0, 31.0])], None);
+    }
+
+    #[test]
+    fn a_first_week_of_days_says_nothing() {
+        // No day a week back: a short Saturday is a third of a weekday.
+        let last = Period::day(2024, 3, 9); // a Saturday
+        let built = vec![item(&some(&[30.0, 31.0, 29.0, 30.0, 8.0]), last)];
+        check_items(&built, false, None);
     }
 
     #[test]
