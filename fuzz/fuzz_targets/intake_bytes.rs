@@ -1,11 +1,12 @@
 //! Any bytes into Intake: no panic, no hang (libFuzzer's -timeout bounds each input), and the
 //! report's promises: every error points at a line of the text, every value read is finite
-//! and within the series bound, item names are unique, every item's periods run regularly.
+//! and within the series bound, item names are unique, every item's periods run regularly;
+//! leaving an unfinished last period out only takes text away.
 
 #![no_main]
 
 use libfuzzer_sys::fuzz_target;
-use morrowcast_engine::intake::read_bytes;
+use morrowcast_engine::intake::{leave_out_unfinished, read_bytes};
 use morrowcast_engine::series::MAX_ABS_VALUE;
 
 /// The text's lines as Intake counts them: LF, CRLF and a lone CR each end one; UTF-16 with
@@ -35,6 +36,12 @@ fn line_count(data: &[u8]) -> usize {
 
 fuzz_target!(|data: &[u8]| {
     let report = read_bytes(data);
+    // Leaving an unfinished last period out never panics and only ever takes text away.
+    if let Ok(text) = std::str::from_utf8(data) {
+        if let Some(Ok(without)) = leave_out_unfinished(text, &report) {
+            assert!(without.len() < text.len(), "nothing left out");
+        }
+    }
     let lines = line_count(data);
     for e in &report.errors {
         assert!(e.row >= 1 && e.row <= lines, "row {} of {lines}", e.row);
