@@ -16,30 +16,7 @@ use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, seasonal_scale, series_for, M3Series};
-
-#[derive(Default)]
-struct Tally {
-    smape: f64,
-    mase: f64,
-    count: usize,
-}
-
-impl Tally {
-    fn add(&mut self, s: &M3Series, f: &[f64]) {
-        let scale = seasonal_scale(s);
-        for (y, f) in s.test.iter().zip(f) {
-            let d = y.abs() + f.abs();
-            self.smape += if d > 0.0 {
-                200.0 * (y - f).abs() / d
-            } else {
-                0.0
-            };
-            self.mase += (y - f).abs() / scale;
-            self.count += 1;
-        }
-    }
-}
+use m3_data::{chosen_series, series_for, M3Series, PointTally as Tally};
 
 /// The members' forecasts mixed with weights proportional to `weights`.
 fn weighted(forecasts: &[Vec<f64>], weights: &[f64], h: usize) -> Vec<f64> {

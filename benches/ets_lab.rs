@@ -22,7 +22,7 @@ use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, seasonal_scale, series_for, M3Series};
+use m3_data::{chosen_series, series_for, PointTally as Tally};
 
 /// The AICc-chosen smoothing model's forecast, and its kind; with `both_errors` each fit is
 /// also scored as a multiplicative-error model (the engine's `criterion::likelihoods`), when
@@ -60,29 +60,6 @@ fn by_aicc(
         }
     }
     best.map(|(_, k, f)| (k, f))
-}
-
-#[derive(Default)]
-struct Tally {
-    smape: f64,
-    mase: f64,
-    count: usize,
-}
-
-impl Tally {
-    fn add(&mut self, s: &M3Series, f: &[f64]) {
-        let scale = seasonal_scale(s);
-        for (y, f) in s.test.iter().zip(f) {
-            let d = y.abs() + f.abs();
-            self.smape += if d > 0.0 {
-                200.0 * (y - f).abs() / d
-            } else {
-                0.0
-            };
-            self.mase += (y - f).abs() / scale;
-            self.count += 1;
-        }
-    }
 }
 
 /// The ranking's single methods best first, without the two Theta models and the AICc method

@@ -112,3 +112,31 @@ pub fn seasonal_scale(s: &M3Series) -> f64 {
         f64::NAN
     }
 }
+
+/// sMAPE (|y| + |f| in the denominator) and MASE summed over every series-horizon added: the
+/// research benches' score of a rule. (m3.rs and band_lab.rs score otherwise: not used there.)
+#[allow(dead_code)]
+#[derive(Default)]
+pub struct PointTally {
+    pub smape: f64,
+    pub mase: f64,
+    pub count: usize,
+}
+
+#[allow(dead_code)]
+impl PointTally {
+    /// Adds a series' forecast of its held-out part.
+    pub fn add(&mut self, s: &M3Series, f: &[f64]) {
+        let scale = seasonal_scale(s);
+        for (y, f) in s.test.iter().zip(f) {
+            let d = y.abs() + f.abs();
+            self.smape += if d > 0.0 {
+                200.0 * (y - f).abs() / d
+            } else {
+                0.0
+            };
+            self.mase += (y - f).abs() / scale;
+            self.count += 1;
+        }
+    }
+}
