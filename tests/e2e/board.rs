@@ -529,7 +529,8 @@ fn an_unfinished_last_period_is_said_above_the_figures() {
     browser.wait_for(
         "the period put back",
         "const n = document.getElementById('board-unfinished-last'); \
-         return !!n && n.textContent.startsWith('The last period, 2025-12, looks unfinished')",
+         return !!n && n.textContent.startsWith('The last period, 2025-12, looks unfinished') \
+           && document.activeElement && document.activeElement.id === 'board-unfinished-last-leave-out'",
         WAIT,
     );
     let text_back = browser.js("return document.getElementById('intake-text').value");

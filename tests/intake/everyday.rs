@@ -478,6 +478,26 @@ fn timed_rows_of_a_day_in_one_series_or_a_wide_table_are_added_up() {
             ..Expect::default()
         },
     );
+    // A time repeated on one day (an export pasted twice, "09:00" and "9:00:00" alike) is an
+    // error at the repeat, naming the line with that time; 9 AM and 9 PM are two times.
+    let report =
+        read("timestamp,kwh\n2024-01-05 09:00,5\n2024-01-05 10:00,7\n2024-01-05 9:00:00,5\n");
+    assert_eq!(report.errors.len(), 1, "{:#?}", report.errors);
+    assert_eq!(report.errors[0].row, 4);
+    assert!(
+        report.errors[0]
+            .message
+            .contains("2024-01-05 at that time of day is also on line 2"),
+        "{}",
+        report.errors[0].message
+    );
+    check(
+        "Date,Qty\n05/01/2024 9:00 AM,2\n05/01/2024 9:00 PM,1\n06/01/2024 9:00 AM,4\n",
+        Expect {
+            items: Some(vec![("Qty", some(&[3.0, 4.0]))]),
+            ..Expect::default()
+        },
+    );
     // Without times, or with a time on one row only: an error at the second row.
     for text in [
         "date,kwh\n2024-01-05,5\n2024-01-05,7\n",

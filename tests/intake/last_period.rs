@@ -163,7 +163,7 @@ fn check_leave_out(text: &str, expected: Result<&str, &str>) {
         .expect("a period to leave out");
     match (&got, expected) {
         (Ok(without), Ok(want)) => assert_eq!(without, want),
-        (Err(message), Err(part)) => assert!(message.contains(part), "{message}"),
+        (Err(error), Err(part)) => assert!(error.to_string().contains(part), "{error}"),
         _ => panic!("got {got:?}, expected {expected:?}"),
     }
 }
@@ -196,4 +196,26 @@ fn leaving_out_rows_that_decided_the_reading_is_refused() {
     let whole = eu.clone();
     eu.push_str("28/11/2025,3\n");
     check_leave_out(&eu, Ok(&whole));
+    // Newest first: the first row is the one left out (the period's example changes, its
+    // kind does not).
+    let mut newest_first = String::from("month,Oak tray\n2025-12,3\n");
+    for m in (1..=11).rev() {
+        newest_first.push_str(&format!("2025-{m:02},{}\n", 40 + m % 3));
+    }
+    let without: String = newest_first.replacen("2025-12,3\n", "", 1);
+    check_leave_out(&newest_first, Ok(&without));
+    // A template's empty future rows: the last month with figures is the one left out.
+    let template =
+        "month,Oak tray\n2025-07,41\n2025-08,40\n2025-09,42\n2025-10,4\n2025-11,\n2025-12,\n";
+    check_leave_out(
+        template,
+        Ok("month,Oak tray\n2025-07,41\n2025-08,40\n2025-09,42\n2025-11,\n2025-12,\n"),
+    );
+    // An item sold only in the period: it would go without a word.
+    let mut launch = String::from("month,item,qty\n");
+    for m in 7..=11 {
+        launch.push_str(&format!("2025-{m:02},Oak tray,{}\n", 40 + m % 3));
+    }
+    launch.push_str("2025-12,Oak tray,3\n2025-12,Slate planter,1\n");
+    check_leave_out(&launch, Err("items without figures: Slate planter"));
 }

@@ -116,6 +116,54 @@ impl IntakeState {
         self.left_out.get().filter(|left| left.version == version)
     }
 
+    /// Whether the unfinished last period can be left out here: rows to leave out, and a text
+    /// read on the page (a larger one would be read again on the page's only thread; the
+    /// notice then says to take it out of the file).
+    pub fn can_leave_out_last(&self) -> bool {
+        let rows = self.report.with(|r| {
+            r.unfinished_last
+                .as_ref()
+                .is_some_and(|u| !u.rows.is_empty())
+        });
+        rows && self.text.with(|t| t.len() <= LARGE_TEXT)
+    }
+
+    /// Leaves the unfinished last period out of the text, keeping what to put back; `Err`
+    /// says why not (its rows decided part of the reading).
+    pub fn leave_out_last(&self) -> Result<(), String> {
+        if !self.can_leave_out_last() {
+            return Ok(());
+        }
+        let (text, source) = (self.text.get_untracked(), self.source.get_untracked());
+        let outcome = self.report.with_untracked(|r| {
+            let period = r.unfinished_last.as_ref()?.period.to_string();
+            Some((period, intake::leave_out_unfinished(&text, r)?))
+        });
+        match outcome {
+            Some((period, Ok(without))) => {
+                let new_source = super::super::words::without_period_source(&source, &period);
+                self.set_text_keeping_item(without, &new_source);
+                self.left_out.set(Some(LeftOut {
+                    period,
+                    text,
+                    source,
+                    version: self.version(),
+                }));
+                Ok(())
+            }
+            Some((_, Err(why))) => Err(why.to_string()),
+            None => Ok(()),
+        }
+    }
+
+    /// Puts back the period left out: the text and source as they were.
+    pub fn put_back(&self) {
+        if let Some(left) = self.left_out.get_untracked() {
+            self.set_text_keeping_item(left.text, &left.source);
+            self.left_out.set(None);
+        }
+    }
+
     /// Replaces the text and keeps the chosen item where the new text still has it (by name).
     pub fn set_text_keeping_item(&self, text: String, source: &str) {
         let name = self.report.with_untracked(|r| {

@@ -25,6 +25,7 @@
 
 use std::collections::{HashMap, HashSet};
 
+use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
 use super::table::{overflow, Plan, Table};
@@ -57,9 +58,9 @@ pub(crate) struct Built {
     pub empty_cells: usize,
     pub warnings: Vec<String>,
     pub errors: Vec<RowError>,
-    /// The latest period on the rows of a table with a period column (single, wide, long)
-    /// and the lines of the rows holding it: what leaving that period out removes.
-    pub last_rows: Option<(Period, Vec<usize>)>,
+    /// Each row's period and line in a table with a period column (single, wide, long):
+    /// what leaving a period out removes. Empty for periods across the header.
+    pub row_periods: Vec<(Period, usize)>,
 }
 
 /// "1 cell", "2 cells": a count with its noun.
@@ -101,18 +102,6 @@ pub(crate) fn lines(numbers: &[usize]) -> String {
     let numbers: Vec<String> = numbers.iter().map(usize::to_string).collect();
     let noun = if numbers.len() == 1 { "line" } else { "lines" };
     format!("{noun} {}", joined(&numbers))
-}
-
-/// The latest of `periods` (one per row of `rows`) and the lines of the rows holding it.
-fn last_rows(rows: &[&Record], periods: &[Option<Period>]) -> Option<(Period, Vec<usize>)> {
-    let last = periods.iter().flatten().max().copied()?;
-    let lines = rows
-        .iter()
-        .zip(periods)
-        .filter(|(_, p)| **p == Some(last))
-        .map(|(row, _)| row.line)
-        .collect();
-    Some((last, lines))
 }
 
 struct Builder<'a> {
@@ -261,9 +250,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         col
     });
     if plan.layout != Layout::Across {
-        b.out.last_rows = column
-            .as_ref()
-            .and_then(|col| last_rows(&kept, &col.periods));
+        if let Some(col) = column.as_ref() {
+            b.out.row_periods = kept
+                .iter()
+                .zip(&col.periods)
+                .filter_map(|(row, p)| p.map(|p| (p, row.line)))
+                .collect();
+        }
     }
     match (plan.layout, column) {
         (Layout::Long, column) => b.long(&kept, column.as_ref()),
@@ -434,30 +427,52 @@ impl<'a> Builder<'a> {
         entries.sort_by_key(|e| e.period);
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
         let mut unique: Vec<Entry<'a>> = Vec::with_capacity(entries.len());
-        // Rows of a day already taken whose time of day tells them apart: added to it.
+        // Rows of a day already taken whose time of day tells them apart: added to it. The
+        // times taken on the current day, with their lines.
         let mut same_day: Vec<Entry<'a>> = Vec::new();
+        let mut day_times: Vec<(TimeKey, usize)> = Vec::new();
         for entry in entries {
             match unique.last() {
                 Some(prev) if prev.period == entry.period => {
-                    if self.told_apart(prev.row, entry.row) {
-                        same_day.push(entry);
-                        continue;
+                    let time = self.row_time(entry.row);
+                    if day_times.is_empty() {
+                        if let Some(first) = self.row_time(prev.row) {
+                            day_times.push((first, prev.row.line));
+                        }
                     }
-                    let first_line = prev.row.line;
+                    let repeated = time
+                        .and_then(|t| day_times.iter().find(|(seen, _)| *seen == t).map(|s| s.1));
+                    match (time, repeated) {
+                        (Some(t), None) if !day_times.is_empty() => {
+                            day_times.push((t, entry.row.line));
+                            same_day.push(entry);
+                            continue;
+                        }
+                        _ => {}
+                    }
+                    let first_line = repeated.unwrap_or(prev.row.line);
                     let cell = self.period_text(entry.row);
+                    let what = if repeated.is_some() {
+                        "at that time of day is also on line"
+                    } else {
+                        "is also on line"
+                    };
                     self.error(
                         entry.row.line,
                         period_column,
                         &cell,
                         format!(
-                            "expected each period once; {} is also on line {first_line}: keep \
-                             one of the two rows (to add up several rows per period, use item, \
+                            "expected each period once; {} {what} {first_line}: keep one of \
+                             the two rows (to add up several rows per period, use item, \
                              period, quantity rows)",
                             entry.period
                         ),
                     );
                 }
-                _ => unique.push(entry),
+                _ => {
+                    day_times.clear();
+                    unique.push(entry);
+                }
             }
         }
         if !same_day.is_empty() {
@@ -520,23 +535,16 @@ impl<'a> Builder<'a> {
         self.out.items = items;
     }
 
-    /// Whether two rows of one period are told apart by the time of day reading leaves out:
-    /// two different times written in their period cells (midnight too), or in a calendar
-    /// column left out beside the date (a till's time column). Such rows are a day's sales,
-    /// added up.
-    fn told_apart(&self, first: &Record, second: &Record) -> bool {
-        let first_cell = self.period_text(first);
-        let second_cell = self.period_text(second);
-        let (a, b) = (
-            super::label::written_time(&first_cell),
-            super::label::written_time(&second_cell),
-        );
-        matches!((a, b), (Some(a), Some(b)) if a != b)
-            || self.plan.calendar.iter().any(|&j| {
-                let a = first.cells.get(j).map_or("", String::as_str);
-                let b = second.cells.get(j).map_or("", String::as_str);
-                a != b && super::label::is_time_of_day(a) && super::label::is_time_of_day(b)
-            })
+    /// The time of day reading leaves out of a row: written after the date in its period cell
+    /// (midnight too), or alone in a calendar column beside the date (a till's time column).
+    /// Rows of one day at different times are a day's sales, added up.
+    fn row_time(&self, row: &Record) -> Option<TimeKey> {
+        super::label::written_time(&self.period_text(row)).or_else(|| {
+            self.plan
+                .calendar
+                .iter()
+                .find_map(|&j| row.cells.get(j).and_then(|c| super::label::time_alone(c)))
+        })
     }
 
     /// One item's values over `len` periods from `start`: each (period, row, column) of
@@ -577,13 +585,14 @@ impl<'a> Builder<'a> {
         let (beside, mut gaps): (Vec<Period>, Vec<Period>) = empty
             .into_iter()
             .partition(|p| values[start.steps_to(*p) as usize].is_some());
+        let empty_cells = gaps.len();
         gaps.sort();
         gaps.dedup();
         if !gaps.is_empty() {
             let gaps: Vec<String> = gaps.iter().map(Period::to_string).collect();
             self.out.warnings.push(format!(
                 "\"{name}\": {} read as gaps ({})",
-                count(gaps.len(), "empty cell"),
+                count(empty_cells, "empty cell"),
                 listing(&gaps)
             ));
         }

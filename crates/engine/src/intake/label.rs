@@ -324,10 +324,60 @@ pub(crate) fn time_after_date(cell: &str) -> Option<Clock<'_>> {
     })
 }
 
-/// The time of day written after the date in `cell`, midnight included ("2024-03-31 00:00"
-/// gives "00:00"), as written.
-pub(crate) fn written_time(cell: &str) -> Option<&str> {
-    split_time(cell.trim()).1.map(|c| c.time)
+/// A time of day as a point in the day, for telling rows of one day apart: hours (24-hour,
+/// am and pm applied), minutes, seconds, and the fraction of a second in nanoseconds, so
+/// "9:00" and "09:00:00" are one time and "9:00 AM" and "9:00 PM" two.
+pub(crate) type TimeKey = (u32, u32, u32, u32);
+
+/// The [`TimeKey`] of `clock` ("14:32:05"), written in `cell` (for am or pm and a fraction
+/// after it).
+fn time_key_of(clock: &str, cell: &str) -> Option<TimeKey> {
+    let parts: Vec<u32> = clock
+        .split(':')
+        .map(|p| p.parse().ok())
+        .collect::<Option<_>>()?;
+    let (mut hours, minutes) = (*parts.first()?, *parts.get(1)?);
+    let seconds = parts.get(2).copied().unwrap_or(0);
+    let lower = cell.trim().to_ascii_lowercase();
+    if lower.ends_with("pm") && hours < 12 {
+        hours += 12;
+    } else if lower.ends_with("am") && hours == 12 {
+        hours = 0;
+    }
+    // The fraction: digits after a dot or a comma right after the clock in the cell.
+    let after = cell.find(clock).map_or("", |at| &cell[at + clock.len()..]);
+    let digits: String = after
+        .strip_prefix(['.', ','])
+        .map(|rest| {
+            rest.chars()
+                .take_while(char::is_ascii_digit)
+                .take(9)
+                .collect()
+        })
+        .unwrap_or_default();
+    let nanos = format!("{digits:0<9}").parse().unwrap_or(0);
+    Some((hours, minutes, seconds, nanos))
+}
+
+/// The time of day written after the date in a period cell, midnight included
+/// ("2024-03-31 00:00"), as a [`TimeKey`].
+pub(crate) fn written_time(cell: &str) -> Option<TimeKey> {
+    let (_, clock) = split_time(cell.trim());
+    time_key_of(clock?.time, cell)
+}
+
+/// A cell holding a time of day alone (a till's time column) as a [`TimeKey`].
+pub(crate) fn time_alone(cell: &str) -> Option<TimeKey> {
+    if !is_time_of_day(cell) {
+        return None;
+    }
+    let lower = cell.trim().to_ascii_lowercase();
+    let clock = lower
+        .strip_suffix("am")
+        .or_else(|| lower.strip_suffix("pm"))
+        .unwrap_or(&lower)
+        .trim();
+    time_key_of(clock, cell)
 }
 
 /// `cell` without a time of day after it ("2024-03-31T14:32" gives "2024-03-31").

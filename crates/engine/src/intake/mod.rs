@@ -100,6 +100,7 @@ mod dates;
 mod decode;
 mod joined;
 mod label;
+mod leave_out;
 mod mark;
 mod number;
 mod order;
@@ -110,6 +111,7 @@ mod text;
 mod totals;
 mod unfinished;
 
+pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
 pub use stock_table::{read_stock_table, StockRow, StockTable};
 pub use unfinished::UnfinishedPeriod;
 
@@ -244,7 +246,8 @@ pub struct IntakeReport {
     pub errors: Vec<RowError>,
     /// Whether a header row was found (item names come from it).
     pub has_header: bool,
-    /// Empty value cells (including `NA`, `N/A`, `#N/A`, `null`) read as gaps.
+    /// Empty value cells (including `NA`, `N/A`, `#N/A`, `null`): gaps, or, beside other rows
+    /// of their day in a table with times of day, nothing added to it.
     pub empty_cells: usize,
     /// The last period, when its demand is so far below the periods before that it looks
     /// unfinished (data taken before it ended); a warning says why. Its figures are as read.
@@ -274,86 +277,6 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
 /// shows the text itself, such as the page's Intake box.
 pub fn decode_bytes(bytes: &[u8]) -> String {
     decode::decode(bytes).text
-}
-
-/// `text` without the records that start on the 1-based lines `rows` (each record with all
-/// its lines, a quoted cell's line breaks included), every other character as it was: leaving
-/// a period out at the user's request ([`UnfinishedPeriod::rows`]). Lines are those [`read`]
-/// reports.
-pub fn leave_out_rows(text: &str, rows: &[usize]) -> String {
-    let body = text::strip_bom(text);
-    let delimiter = text::sniff_delimiter(body).unwrap_or(Delimiter::Comma);
-    let records = text::tokenize(body, text::delimiter_char(delimiter)).records;
-    let last_line = records.last().map_or(0, |r| r.line);
-    let mut dropped = vec![false; last_line + 1];
-    // At least the text's lines (a CRLF counts twice here): the last record's end.
-    let lines_of_text = body.split(['\n', '\r']).count() + 1;
-    let mut wanted = rows.to_vec();
-    wanted.sort_unstable();
-    for (i, record) in records.iter().enumerate() {
-        if wanted.binary_search(&record.line).is_ok() {
-            let end = records.get(i + 1).map_or(lines_of_text, |next| next.line);
-            dropped.resize(dropped.len().max(end + 1), false);
-            dropped[record.line..end].fill(true);
-        }
-    }
-    text::without_lines(text, &dropped)
-}
-
-/// `text` without the rows of the period `report` found unfinished ([`leave_out_rows`]),
-/// when what is left reads as the text did: the same delimiter, decimal mark, layout,
-/// frequency and period format. Otherwise an error in words: those rows decided part of the
-/// reading (the only cells showing the date order or the decimal mark), and leaving them out
-/// would read the rest differently, unsaid. `None` when there is nothing to leave out.
-pub fn leave_out_unfinished(text: &str, report: &IntakeReport) -> Option<Result<String, String>> {
-    let unfinished = report.unfinished_last.as_ref()?;
-    if unfinished.rows.is_empty() {
-        return None;
-    }
-    let without = leave_out_rows(text, &unfinished.rows);
-    let again = read(&without);
-    let changes: Vec<String> = [
-        (
-            "delimiter",
-            report.delimiter.as_str(),
-            again.delimiter.as_str(),
-        ),
-        (
-            "decimal mark",
-            report.decimal.as_str(),
-            again.decimal.as_str(),
-        ),
-        ("layout", report.layout.as_str(), again.layout.as_str()),
-        (
-            "frequency",
-            report.frequency.as_str(),
-            again.frequency.as_str(),
-        ),
-        (
-            "periods",
-            report.date_format.as_deref().unwrap_or("none"),
-            again.date_format.as_deref().unwrap_or("none"),
-        ),
-    ]
-    .into_iter()
-    .filter(|(_, before, after)| before != after)
-    .map(|(what, before, after)| format!("{what} {before} to {after}"))
-    .collect();
-    let new_errors = again.errors.len() > report.errors.len();
-    if changes.is_empty() && !new_errors {
-        return Some(Ok(without));
-    }
-    let what = if changes.is_empty() {
-        "rows that read now would be refused".to_string()
-    } else {
-        changes.join("; ")
-    };
-    Some(Err(format!(
-        "{} was not left out: without its rows the rest of the table would be read \
-         differently ({what}), since they decided part of the reading. Take them out of the \
-         file yourself and check Intake's reading.",
-        unfinished.period
-    )))
 }
 
 /// Reads text into a report; every line holding U+FFFD (bytes another program could not read
@@ -474,17 +397,22 @@ fn read_text(text: &str) -> IntakeReport {
     report.items = built.items;
     totals::set_aside(&mut report.items, &mut report.warnings);
     let zeros_unwritten = report.layout == Layout::Long;
+    let mut unfinished_warning = None;
     if let Some((period, warning)) = unfinished::last_period(&report.items, zeros_unwritten) {
-        let rows = match built.last_rows {
-            Some((last, rows)) if last == period => rows,
-            _ => Vec::new(),
-        };
+        let rows = built
+            .row_periods
+            .iter()
+            .filter(|(p, _)| *p == period)
+            .map(|(_, line)| *line)
+            .collect();
         report.unfinished_last = Some(UnfinishedPeriod { period, rows });
-        report.warnings.push(warning);
+        unfinished_warning = Some(warning);
     }
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);
+    // After the reading's own notes: it speaks of the items they describe.
+    report.warnings.extend(unfinished_warning);
     report.errors.extend(built.errors);
     report.errors.sort_by_key(|e| e.row);
     report

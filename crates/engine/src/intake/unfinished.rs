@@ -13,8 +13,8 @@
 //! long table, whose rows leave out the zeros, an item whose last row is at most three periods
 //! before P sold nothing since: its till had no sale yet that day), so one quiet item proves
 //! nothing and a single item's file is judged on its own figures. The places of the season
-//! with no demand every time (a weekend, a winter month) are closed: P at one says nothing,
-//! and the periods compared skip them. P looks unfinished when:
+//! with no demand every time they were seen, at least twice (a weekend, a winter month), are
+//! closed: P at one says nothing, and the periods compared skip them. P looks unfinished when:
 //! - its sum is below half the median of the three open periods before it (a median, so one
 //!   spike among them does not make an ordinary period look low), below half the open period
 //!   just before it (after a fall one period earlier the last is the new level), and so far
@@ -25,9 +25,10 @@
 //! - where the calendar suggests a season of m periods (7 days, 52 weeks, 12 months, 4
 //!   quarters) and items reach back to P-m: the sum at P over those is below half their sum
 //!   at P-m too (a quiet Sunday after a busy week, a January after December, is the season),
-//!   unless, for weeks, months and quarters, P-m itself fell below half of the three periods
-//!   before it (the same fall a season before: a season's end; for days a habitually short
-//!   Saturday falls so every week, and the day a week back alone decides);
+//!   unless, for weeks, months and quarters, P-m itself fell below half the median of the
+//!   three periods before it, closed or not (the same fall a season before: a season's end;
+//!   for days a habitually short Saturday falls so every week, and the day a week back alone
+//!   decides);
 //! - the items but the one that fell most are not whole (at least half their median, a median
 //!   of at least [`OTHERS_SPEAK`]): data taken early cuts every item short, while one item
 //!   falling alone (discontinued and written as 0, out of stock) leaves the period whole;
@@ -37,9 +38,9 @@
 //! - without a period a season back to compare with: never for days (a till's first week: a
 //!   short Saturday is a third of a weekday); otherwise the sum at P is below [`STRICT`] of
 //!   the median (a season that ends, a summer item's October in a year's export, falls by
-//!   half in whole months; measured on simulated garden shops by a review: 40-51 % of
-//!   12-month exports ending in September or October were warned at a half, 4.5 % of
-//!   12-month files at 0.35, 96 % of months cut to a tenth still found), and not when two or
+//!   half in whole months; measured by a review on its simulated 12-month garden-shop
+//!   exports: 40-51 % of those ending in September or October were warned at a half, 4.5 %
+//!   of all at 0.35, 96 % of their last months cut to a tenth still found), and not when two or
 //!   more earlier periods (after the first) were at most twice as busy (a shop shut in
 //!   winter).
 //!
@@ -163,8 +164,9 @@ fn beyond_ordinary(last: f64, median: f64) -> bool {
     }
 }
 
-/// The history summed over `running` before `last` (index k: k + 1 periods back) where every
-/// one of them has a value, back to the longest one's first period.
+/// The history summed over `running` before `last` (index k: k + 1 periods back), over the
+/// items with a value there (an item first sold later, or a gap, leaves out that item only),
+/// back to the longest one's first period; `None` where none has one.
 fn summed_before(running: &[&Item], last: Period, zeros_unwritten: bool) -> Vec<Option<f64>> {
     let longest = running
         .iter()
@@ -175,8 +177,8 @@ fn summed_before(running: &[&Item], last: Period, zeros_unwritten: bool) -> Vec<
         .map(|back| {
             running
                 .iter()
-                .map(|item| value_back(item, last, back, zeros_unwritten))
-                .sum()
+                .filter_map(|item| value_back(item, last, back, zeros_unwritten))
+                .fold(None, |sum, v| Some(sum.unwrap_or(0.0) + v))
         })
         .collect()
 }
@@ -211,7 +213,8 @@ fn intermittent(before: &[Option<f64>], closed: &[bool]) -> bool {
         .filter_map(|(_, v)| *v)
         .collect();
     let with_demand = open.iter().filter(|v| **v > 0.0).count();
-    with_demand == 0 || open.len() as f64 / with_demand as f64 >= ADI_CUTOFF
+    // No history to judge by is no evidence of intermittent demand.
+    !open.is_empty() && (with_demand == 0 || open.len() as f64 / with_demand as f64 >= ADI_CUTOFF)
 }
 
 /// Whether, before the recent periods (and after the first, which may be unfinished itself),
@@ -655,6 +658,20 @@ mod tests {
         let last = Period::day(2024, 3, 9); // a Saturday
         let built = vec![item(&some(&[30.0, 31.0, 29.0, 30.0, 8.0]), last)];
         check_items(&built, false, None);
+    }
+
+    #[test]
+    fn an_item_first_sold_in_the_last_period_does_not_hide_it() {
+        let last = Period::month(2024, 12);
+        let built = vec![
+            item(&some(&[40.0, 42.0, 38.0, 41.0, 40.0, 4.0]), last),
+            item(&some(&[1.0]), last),
+        ];
+        check_items(
+            &built,
+            true,
+            Some("the one item with figures there is 10 %"),
+        );
     }
 
     #[test]
