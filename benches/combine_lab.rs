@@ -7,8 +7,6 @@
 //!
 //! Run: `cargo bench --bench combine_lab [-- --subset MONTHLY --limit 200]` (about 30 s).
 
-use std::collections::BTreeMap;
-
 use morrowcast_engine::backtest::{self, Candidate, Seasons};
 use morrowcast_engine::methods::MethodKind;
 use morrowcast_engine::plan;
@@ -16,7 +14,7 @@ use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, series_for, M3Series, PointTally as Tally};
+use m3_data::{chosen_series, series_for, M3Series, RuleScores};
 
 /// The members' forecasts mixed with weights proportional to `weights`.
 fn weighted(forecasts: &[Vec<f64>], weights: &[f64], h: usize) -> Vec<f64> {
@@ -97,7 +95,7 @@ fn temporal(
 
 fn main() {
     let all = chosen_series();
-    let mut tallies: BTreeMap<(String, String), Tally> = BTreeMap::new();
+    let mut scores = RuleScores::default();
     for s in &all {
         let h = s.horizon;
         let settings = PlanSettings::default()
@@ -226,20 +224,8 @@ fn main() {
             }
         }
         for (name, f) in rules {
-            tallies
-                .entry((s.subset.clone(), name.clone()))
-                .or_default()
-                .add(s, &f);
-            tallies.entry(("ALL".into(), name)).or_default().add(s, &f);
+            scores.add(s, &name, &f);
         }
     }
-    println!("| subset | rule | sMAPE | MASE |");
-    for ((subset, rule), t) in &tallies {
-        let c = t.count.max(1) as f64;
-        println!(
-            "| {subset} | {rule} | {:.3} | {:.4} |",
-            t.smape / c,
-            t.mase / c
-        );
-    }
+    scores.print(3);
 }

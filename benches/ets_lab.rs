@@ -22,7 +22,7 @@ use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, series_for, PointTally as Tally};
+use m3_data::{chosen_series, series_for, RuleScores};
 
 /// The AICc-chosen smoothing model's forecast, and its kind; with `both_errors` each fit is
 /// also scored as a multiplicative-error model (the engine's `criterion::likelihoods`), when
@@ -89,7 +89,7 @@ fn mean(forecasts: &[&Vec<f64>], h: usize) -> Vec<f64> {
 
 fn main() {
     let all = chosen_series();
-    let mut tallies: BTreeMap<(String, &str), Tally> = BTreeMap::new();
+    let mut scores = RuleScores::default();
     let mut picked: BTreeMap<(String, &str), usize> = BTreeMap::new();
     for s in &all {
         let h = s.horizon;
@@ -260,22 +260,10 @@ fn main() {
             ));
         }
         for (name, f) in rules {
-            tallies
-                .entry((s.subset.clone(), name))
-                .or_default()
-                .add(s, &f);
-            tallies.entry(("ALL".into(), name)).or_default().add(s, &f);
+            scores.add(s, name, &f);
         }
     }
-    println!("| subset | rule | sMAPE | MASE |");
-    for ((subset, rule), t) in &tallies {
-        let c = t.count.max(1) as f64;
-        println!(
-            "| {subset} | {rule} | {:.2} | {:.3} |",
-            t.smape / c,
-            t.mase / c
-        );
-    }
+    scores.print(2);
     println!("| subset | model picked by AICc | series |");
     for ((subset, kind), n) in &picked {
         println!("| {subset} | {kind} | {n} |");

@@ -140,3 +140,37 @@ impl PointTally {
         }
     }
 }
+
+/// Each rule's [`PointTally`] per subset and over all ("ALL"), printed as a table.
+#[allow(dead_code)]
+#[derive(Default)]
+pub struct RuleScores(BTreeMap<(String, String), PointTally>);
+
+#[allow(dead_code)]
+impl RuleScores {
+    /// Adds the rule's forecast `f` of series `s` to its subset and to "ALL".
+    pub fn add(&mut self, s: &M3Series, rule: &str, f: &[f64]) {
+        for subset in [s.subset.clone(), "ALL".to_string()] {
+            self.0
+                .entry((subset, rule.to_string()))
+                .or_default()
+                .add(s, f);
+        }
+    }
+
+    /// Prints "| subset | rule | sMAPE | MASE |" rows, sMAPE to `decimals` places, MASE to one
+    /// more.
+    pub fn print(&self, decimals: usize) {
+        println!("| subset | rule | sMAPE | MASE |");
+        for ((subset, rule), t) in &self.0 {
+            let c = t.count.max(1) as f64;
+            println!(
+                "| {subset} | {rule} | {:.*} | {:.*} |",
+                decimals,
+                t.smape / c,
+                decimals + 1,
+                t.mase / c
+            );
+        }
+    }
+}
