@@ -69,7 +69,7 @@
 
 use super::joined::SplitPeriod;
 use super::label::{calendar_name, Family};
-use super::number::{is_missing, looks_number};
+use super::number::{holds_currency_sign, is_missing, looks_number};
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
 use super::text::{mode_of, Record};
 use super::{Layout, RowError};
@@ -879,7 +879,7 @@ const MONEY_COMPANIONS: [&str; 15] = [
 
 /// Whether a header names money and nothing else: a money word ([`MONEY_WORDS`], price,
 /// cost) with only its companions beside it ("Unit price", "Net sales"; not "Price tag gun",
-/// an item), or a currency sign ("Sales (£)").
+/// an item), or a currency sign number cells may carry ("Sales (£)", "Sales (₹)").
 pub(super) fn names_money(name: &str) -> bool {
     let money: Vec<&str> = MONEY_WORDS
         .iter()
@@ -887,13 +887,7 @@ pub(super) fn names_money(name: &str) -> bool {
         .copied()
         .collect();
     let allowed: Vec<&str> = money.iter().chain(&MONEY_COMPANIONS).copied().collect();
-    shows_currency(name) || (header_is_only(name, &allowed) && header_says(name, &money))
-}
-
-/// Whether a header holds a currency sign ("Sales (£)", "$ amount", "Sales (₹)"): the signs
-/// number cells may carry ([`super::number::holds_currency_sign`]).
-fn shows_currency(name: &str) -> bool {
-    super::number::holds_currency_sign(name)
+    holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
@@ -919,7 +913,7 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
     if table.header.is_none() {
         return 0;
     }
-    let money = |j: usize| says(j, &MONEY_WORDS) || shows_currency(&table.column_name(j));
+    let money = |j: usize| says(j, &MONEY_WORDS) || holds_currency_sign(&table.column_name(j));
     // A count without a unit of measure before one with it ("Units" before "Qty (kg)").
     let measured = |j: usize| table.column_name(j).contains('(');
     values

@@ -55,7 +55,7 @@ use statrs::distribution::{DiscreteCDF, Poisson};
 
 use super::Item;
 use crate::calendar::{Frequency, Period};
-use crate::patterns::demand_class::ADI_CUTOFF;
+use crate::patterns::demand_class::{classify_demand, ADI_CUTOFF};
 
 /// A last period that looks unfinished, and where its rows stand.
 #[derive(Clone, Debug, PartialEq)]
@@ -212,9 +212,8 @@ fn intermittent(before: &[Option<f64>], closed: &[bool]) -> bool {
         .filter(|(k, _)| !closed[(k + 1) % closed.len()])
         .filter_map(|(_, v)| *v)
         .collect();
-    let with_demand = open.iter().filter(|v| **v > 0.0).count();
     // No history to judge by is no evidence of intermittent demand.
-    !open.is_empty() && (with_demand == 0 || open.len() as f64 / with_demand as f64 >= ADI_CUTOFF)
+    !open.is_empty() && classify_demand(&open).adi >= ADI_CUTOFF
 }
 
 /// Whether, before the recent periods (and after the first, which may be unfinished itself),
