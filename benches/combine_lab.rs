@@ -9,12 +9,10 @@
 
 use morrowcast_engine::backtest::{self, Candidate, Seasons};
 use morrowcast_engine::methods::MethodKind;
-use morrowcast_engine::plan;
-use morrowcast_engine::settings::PlanSettings;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, series_for, M3Series, RuleScores};
+use m3_data::{chosen_series, planned, M3Series, RuleScores};
 
 /// The members' forecasts mixed with weights proportional to `weights`.
 fn weighted(forecasts: &[Vec<f64>], weights: &[f64], h: usize) -> Vec<f64> {
@@ -98,13 +96,9 @@ fn main() {
     let mut scores = RuleScores::default();
     for s in &all {
         let h = s.horizon;
-        let settings = PlanSettings::default()
-            .with_horizon(Some(h as u64))
-            .unwrap();
-        let Ok(p) = plan::plan_item(&series_for(s), &settings) else {
+        let Some((p, auto)) = planned(s) else {
             continue;
         };
-        let auto: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
         let members = p.chosen.members().to_vec();
         let mut rules: Vec<(String, Vec<f64>)> = vec![("auto (today)".into(), auto.clone())];
         if members.len() > 1 {

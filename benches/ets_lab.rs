@@ -17,12 +17,11 @@ use morrowcast_engine::backtest::{self, Candidate};
 use morrowcast_engine::methods::smoothing::criterion::{corrected_aic, likelihoods};
 use morrowcast_engine::methods::smoothing::KINDS;
 use morrowcast_engine::methods::{self, MethodKind};
-use morrowcast_engine::plan::{self, ItemPlan};
-use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::plan::ItemPlan;
 
 #[path = "common/m3_data.rs"]
 mod m3_data;
-use m3_data::{chosen_series, series_for, RuleScores};
+use m3_data::{chosen_series, planned, RuleScores};
 
 /// The AICc-chosen smoothing model's forecast, and its kind; with `both_errors` each fit is
 /// also scored as a multiplicative-error model (the engine's `criterion::likelihoods`), when
@@ -93,13 +92,9 @@ fn main() {
     let mut picked: BTreeMap<(String, &str), usize> = BTreeMap::new();
     for s in &all {
         let h = s.horizon;
-        let settings = PlanSettings::default()
-            .with_horizon(Some(h as u64))
-            .unwrap();
-        let Ok(p) = plan::plan_item(&series_for(s), &settings) else {
+        let Some((p, auto)) = planned(s) else {
             continue;
         };
-        let auto: Vec<f64> = p.forecast.iter().map(|f| f.band.value).collect();
         let season = p.seasons.for_method(MethodKind::HoltWintersAdditive);
         let Some((kind, ets)) = by_aicc(&s.train, season, h, false) else {
             continue;

@@ -1,13 +1,15 @@
 //! The M3 competition data as the benchmarks read it (tests/fixtures/m3/m3.csv: one row per
 //! value, with id, subset, season length, horizon and whether it is train or test), the
 //! calendar each subset is given, the MASE/MSIS scale, and the series a benchmark's command
-//! line asks for. Shared by benches/m3.rs, benches/band_lab.rs and benches/ets_lab.rs through
-//! `#[path]`; kept apart from any scoring.
+//! line asks for, and the research labs' shared scoring of rules (sMAPE, MASE). Shared by
+//! benches/m3.rs, band_lab.rs, ets_lab.rs and combine_lab.rs through `#[path]`.
 
 use std::collections::BTreeMap;
 
 use morrowcast_engine::calendar::Period;
+use morrowcast_engine::plan::{self, ItemPlan};
 use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
 
 /// One M3 series: its train part (what a method sees) and test part (held out).
 pub struct M3Series {
@@ -173,4 +175,16 @@ impl RuleScores {
             );
         }
     }
+}
+
+/// The series' train part planned as the page plans it, over its horizon, and the plan's
+/// point forecast (the automatic choice); `None` when it cannot be planned.
+#[allow(dead_code)]
+pub fn planned(s: &M3Series) -> Option<(ItemPlan, Vec<f64>)> {
+    let settings = PlanSettings::default()
+        .with_horizon(Some(s.horizon as u64))
+        .ok()?;
+    let p = plan::plan_item(&series_for(s), &settings).ok()?;
+    let auto = p.forecast.iter().map(|f| f.band.value).collect();
+    Some((p, auto))
 }
