@@ -51,6 +51,19 @@ impl Frequency {
             Frequency::Yearly | Frequency::Undated => None,
         }
     }
+
+    /// What one period is called in words, singular and plural: ("month", "months"); for
+    /// undated data ("period", "periods").
+    pub fn period_words(self) -> (&'static str, &'static str) {
+        match self {
+            Frequency::Daily => ("day", "days"),
+            Frequency::Weekly => ("week", "weeks"),
+            Frequency::Monthly => ("month", "months"),
+            Frequency::Quarterly => ("quarter", "quarters"),
+            Frequency::Yearly => ("year", "years"),
+            Frequency::Undated => ("period", "periods"),
+        }
+    }
 }
 
 impl fmt::Display for Frequency {

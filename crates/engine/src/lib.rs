@@ -10,11 +10,11 @@
 //! Data flows one way: [`intake`] turns text into [`series::Series`]; [`patterns`] describes a
 //! series; [`methods`] fit and forecast; [`accuracy`] scores forecasts against demand;
 //! [`bands`] turns errors into prediction intervals; [`backtest`] ranks methods on a holdout;
-//! [`plan`] glues these into one forecast per item, under [`plan::PlanSettings`] (the one place
+//! [`plan`] glues these into one forecast per item, under [`settings::PlanSettings`] (the one place
 //! settings are checked).
 //!
 //! The API a caller needs is: [`intake::read`] (text to items and a report),
-//! [`intake::Item::series`] (an item to a validated series), [`plan::PlanSettings`] and
+//! [`intake::Item::series`] (an item to a validated series), [`settings::PlanSettings`] and
 //! [`plan::plan_item`] (a series to an [`plan::ItemPlan`]), and the result types those hold.
 //! The method internals are public only with the `internals` feature, which the project's
 //! reference tests turn on.

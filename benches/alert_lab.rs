@@ -1,0 +1,245 @@
+//! Alert laboratory: how often does the Bias alert fire on steady demand
+//! (false alarms), and how often on demand that changed (detections)? A research tool: every
+//! series is made up here, seeded (normal noise from a 64-bit linear congruential generator by
+//! Box-Muller), planned as the page plans it, and judged by the Bias alert and, for
+//! comparison, by the rules it replaced and by its own rule over single windows. The README records what it showed.
+//!
+//! Run: `cargo bench --bench alert_lab [-- --count 200]` (about a minute).
+
+use morrowcast_engine::alerts::{alerts, lean_over, AlertKind};
+use morrowcast_engine::calendar::{Frequency, Period};
+use morrowcast_engine::plan::{plan_item, ItemPlan};
+use morrowcast_engine::series::Series;
+use morrowcast_engine::settings::PlanSettings;
+
+/// A seeded source of standard normal draws.
+struct Noise(u64);
+
+impl Noise {
+    fn uniform(&mut self) -> f64 {
+        self.0 = self
+            .0
+            .wrapping_mul(6_364_136_223_846_793_005)
+            .wrapping_add(1_442_695_040_888_963_407);
+        ((self.0 >> 11) as f64 + 0.5) / (1u64 << 53) as f64
+    }
+
+    fn normal(&mut self) -> f64 {
+        (-2.0 * self.uniform().ln()).sqrt() * (2.0 * std::f64::consts::PI * self.uniform()).cos()
+    }
+}
+
+#[derive(Clone, Copy, Debug)]
+enum Base {
+    Level,
+    Rough,
+    Trend,
+    Season,
+    Wander,
+    Sparse,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq)]
+enum Change {
+    None,
+    /// Demand 30 % up over the last `k` periods.
+    Up(usize),
+    /// Demand 30 % down over the last `k` periods.
+    Down(usize),
+    /// Demand 45 % up for 6 periods ending 3 periods before the end.
+    PromotionEnded,
+    /// Demand rising by 2 % of the level each period over the last `k` periods.
+    Rise(usize),
+}
+
+struct Shape {
+    frequency: Frequency,
+    length: usize,
+    start: Period,
+    season: usize,
+}
+
+fn shapes() -> Vec<(&'static str, Shape)> {
+    vec![
+        (
+            "monthly 36",
+            Shape {
+                frequency: Frequency::Monthly,
+                length: 36,
+                start: Period::month(2022, 1),
+                season: 12,
+            },
+        ),
+        (
+            "quarterly 40",
+            Shape {
+                frequency: Frequency::Quarterly,
+                length: 40,
+                start: Period::quarter(2016, 1),
+                season: 4,
+            },
+        ),
+        (
+            "monthly 60",
+            Shape {
+                frequency: Frequency::Monthly,
+                length: 60,
+                start: Period::month(2020, 1),
+                season: 12,
+            },
+        ),
+        (
+            "weekly 156",
+            Shape {
+                frequency: Frequency::Weekly,
+                length: 156,
+                start: Period::week_containing(2022, 1, 3),
+                season: 52,
+            },
+        ),
+        (
+            "daily 540",
+            Shape {
+                frequency: Frequency::Daily,
+                length: 540,
+                start: Period::day(2023, 1, 2),
+                season: 7,
+            },
+        ),
+    ]
+}
+
+fn series(shape: &Shape, base: Base, change: Change, noise: &mut Noise) -> Series {
+    let n = shape.length;
+    let mut level = 100.0;
+    let values = (0..n)
+        .map(|t| {
+            let e = noise.normal();
+            let mut y = match base {
+                Base::Level => 100.0 + 10.0 * e,
+                Base::Rough => 100.0 + 30.0 * e,
+                Base::Trend => 100.0 + 0.5 * t as f64 * 12.0 / shape.season as f64 + 10.0 * e,
+                Base::Season => {
+                    let phase = 2.0 * std::f64::consts::PI * (t % shape.season) as f64
+                        / shape.season as f64;
+                    100.0 * (1.0 + 0.3 * phase.sin()) + 10.0 * e
+                }
+                Base::Sparse => {
+                    if noise.uniform() < 0.3 {
+                        (5.0 + 3.0 * e).max(1.0)
+                    } else {
+                        0.0
+                    }
+                }
+                Base::Wander => {
+                    level += 3.0 * noise.normal();
+                    level + 10.0 * e
+                }
+            };
+            let from_end = n - t; // 1 for the last period
+            y *= match change {
+                Change::None => 1.0,
+                Change::Up(k) if from_end <= k => 1.3,
+                Change::Down(k) if from_end <= k => 0.7,
+                Change::PromotionEnded if (4..=9).contains(&from_end) => 1.45,
+                Change::Rise(k) if from_end <= k => 1.0 + 0.02 * (k + 1 - from_end) as f64,
+                _ => 1.0,
+            };
+            Some(y.max(0.0).round())
+        })
+        .collect();
+    Series::new("made up", shape.start, values).unwrap()
+}
+
+/// The rules the Bias alert replaced, for comparison, read off the Error ledger: the holdout's
+/// tracking signal beyond ±4 at its end, and the holdout's mean error more than 2 standard
+/// errors from zero (at least 4 errors).
+fn former_rules(plan: &ItemPlan) -> (bool, bool) {
+    let signal = plan
+        .ledger
+        .last()
+        .and_then(|e| e.row.tracking_signal)
+        .is_some_and(|ts| ts.abs() > 4.0);
+    let errors: Vec<f64> = plan.ledger.iter().map(|e| e.row.error).collect();
+    let k = errors.len() as f64;
+    let mean = errors.iter().sum::<f64>() / k;
+    let sd = (errors.iter().map(|e| (e - mean).powi(2)).sum::<f64>() / (k - 1.0)).sqrt();
+    let t_test = errors.len() >= 4 && sd > 0.0 && mean.abs() > 2.0 * sd / k.sqrt();
+    (signal, t_test)
+}
+
+fn main() {
+    let args: Vec<String> = std::env::args().collect();
+    let count: usize = args
+        .iter()
+        .position(|a| a == "--count")
+        .and_then(|i| args.get(i + 1))
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(100);
+    let bases = [
+        Base::Level,
+        Base::Rough,
+        Base::Trend,
+        Base::Season,
+        Base::Wander,
+        Base::Sparse,
+    ];
+    println!(
+        "fired in % of {count} series: the Bias alert | the former rules: holdout tracking \
+         signal beyond ±4, holdout t-test | the Bias rule over one window at 1.96 (nominal): the holdout's \
+         length W, the last 3"
+    );
+    for (label, shape) in shapes() {
+        let changes = [
+            Change::None,
+            Change::Up(3),
+            Change::Up(6),
+            Change::Down(3),
+            Change::PromotionEnded,
+            Change::Rise(12),
+        ];
+        for base in bases {
+            for change in changes {
+                if change != Change::None && !matches!(base, Base::Level | Base::Season) {
+                    continue;
+                }
+                let mut noise = Noise(0x2545_f491_4f6c_dd1d ^ (base as u64) << 7);
+                let mut fired = [0usize; 5];
+                let mut window = 0;
+                for _ in 0..count {
+                    let s = series(&shape, base, change, &mut noise);
+                    let plan = plan_item(&s, &PlanSettings::default()).unwrap();
+                    let kinds: Vec<AlertKind> = alerts(&plan, shape.frequency)
+                        .into_iter()
+                        .map(|a| a.kind)
+                        .collect();
+                    window = plan.ledger.len();
+                    let (former_signal, former_t) = former_rules(&plan);
+                    let sparse = plan.demand.class.is_sparse();
+                    let single =
+                        |k: usize| !sparse && lean_over(&plan, &[k], |_| Some(1.96)).is_some();
+                    let hits = [
+                        kinds.contains(&AlertKind::Bias),
+                        former_signal,
+                        former_t,
+                        single(window),
+                        single(3),
+                    ];
+                    for (f, h) in fired.iter_mut().zip(hits) {
+                        *f += usize::from(h);
+                    }
+                }
+                let pct: Vec<String> = fired
+                    .iter()
+                    .map(|f| format!("{:5.1}", 100.0 * *f as f64 / count as f64))
+                    .collect();
+                println!(
+                    "{label:11} {:7} {:22} W={window:3}  {}",
+                    format!("{base:?}"),
+                    format!("{change:?}"),
+                    pct.join(" |")
+                );
+            }
+        }
+    }
+}
