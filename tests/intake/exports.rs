@@ -754,3 +754,59 @@ fn a_bad_cell_in_the_first_row_across_is_reported_at_its_cell() {
         },
     );
 }
+
+// Items named by number codes in the header of a wide table (`month,1001,1002`): the header
+// rule takes no record of numbers for a header, so the file was read headerless and refused
+// at "month", the items called "Series 1", "Series 2" (found by a review on 2026-12-03). Now
+// the codes name the items, with a warning. Years across the header (a grid, or a table
+// without a header) and a first cell naming no period are left as they were: refused.
+#[test]
+fn items_numbered_in_the_header_are_read_by_their_codes() {
+    let wide = "month,1001,1002,2040\n2024-01,12,5,7\n2024-02,14,6,8\n2024-03,11,4,9\n";
+    check(
+        wide,
+        Expect {
+            items: Some(vec![
+                ("1001", some(&[12.0, 14.0, 11.0])),
+                ("1002", some(&[5.0, 6.0, 4.0])),
+                ("2040", some(&[7.0, 8.0, 9.0])),
+            ]),
+            layout: Some(Layout::Wide),
+            frequency: Some(Frequency::Monthly),
+            warned: vec![vec![
+                "names the items by numbers (1001, 1002, 2040)",
+                "item codes",
+            ]],
+            ..Expect::default()
+        },
+    );
+    // Under a title line, with dates a week apart.
+    check(
+        "Sales by code\nWeek starting,7,12\n2024-01-01,3,4\n2024-01-08,5,6\n2024-01-15,7,8\n",
+        Expect {
+            items: Some(vec![
+                ("7", some(&[3.0, 5.0, 7.0])),
+                ("12", some(&[4.0, 6.0, 8.0])),
+            ]),
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec!["title"], vec!["item codes"]],
+            ..Expect::default()
+        },
+    );
+    // Every code a year: not taken for codes.
+    check(
+        "month,2023,2024\n2024-01,12,5\n2024-02,14,6\n",
+        Expect {
+            errors: vec![(1, "column 1", "month")],
+            ..Expect::default()
+        },
+    );
+    // A first cell that names no period ("item") is no such header either.
+    check(
+        "item,1001,1002\n2024-01,12,5\n2024-02,14,6\n",
+        Expect {
+            errors: vec![(1, "column 1", "item")],
+            ..Expect::default()
+        },
+    );
+}

@@ -96,6 +96,7 @@
 
 mod across;
 mod build;
+mod coded;
 mod dates;
 mod decode;
 mod joined;
@@ -344,6 +345,13 @@ fn read_text(text: &str) -> IntakeReport {
             "{noun} {} {verb} the header (or a title line above it) and {} skipped",
             lines.join(", "),
             if lines.len() == 1 { "was" } else { "were" }
+        ));
+    }
+    if let Some(header) = table.header.as_ref().filter(|_| table.coded) {
+        report.warnings.push(format!(
+            "the header names the items by numbers ({}): read as item codes, not as a row of \
+             data",
+            coded::codes(header).join(", ")
         ));
     }
     report.has_header = table.header.is_some();

@@ -88,6 +88,9 @@ pub(crate) struct Table {
     /// Whether the header runs across: its cells past the item columns are periods
     /// ([`super::across`]).
     pub across: bool,
+    /// Whether the header names the items by number codes over a period column
+    /// ([`super::coded`]).
+    pub coded: bool,
     pub rows: Vec<Record>,
     pub width: usize,
 }
@@ -251,12 +254,17 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     // A header of periods reads as data here: it is looked for first.
     let across_at =
         super::across::header_at(&records, &window, data_like, |r| header_like(r, mode_width));
-    let data_at = match across_at {
+    // So does a header of item codes over a period column.
+    let coded_at = match across_at {
+        Some(_) => None,
+        None => super::coded::header_at(&records, &window, data_like),
+    };
+    let data_at = match across_at.or(coded_at) {
         Some(k) => Some(k + 1),
         None => window.iter().position(|i| data_like(&records[*i])),
     };
     let above = &window[..data_at.unwrap_or(window.len())];
-    let header_at = match (across_at, data_at) {
+    let header_at = match (across_at.or(coded_at), data_at) {
         (Some(k), _) => Some(&window[k]),
         (None, Some(_)) if mode_width >= 2 => above.iter().rfind(header_like_at),
         (None, _) => above.iter().find(header_like_at),
@@ -335,6 +343,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         header,
         repeated_headers,
         across: across_at.is_some(),
+        coded: coded_at.is_some(),
         rows: rest,
         width,
     }
