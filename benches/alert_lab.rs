@@ -1,8 +1,9 @@
-//! Alert laboratory: how often does the Bias alert fire on steady demand
+//! Alert laboratory: how often do the Bias and Outliers alerts fire on steady demand
 //! (false alarms), and how often on demand that changed (detections)? A research tool: every
 //! series is made up here, seeded (normal noise from a 64-bit linear congruential generator by
 //! Box-Muller), planned as the page plans it, and judged by the Bias alert and, for
-//! comparison, by the rules it replaced and by its own rule over single windows. The README records what it showed.
+//! comparison, by the rules it replaced and by its own rule over single windows, and by the
+//! Outliers alert. The README records what it showed.
 //!
 //! Run: `cargo bench --bench alert_lab [-- --count 200]` (about a minute).
 
@@ -37,6 +38,10 @@ enum Base {
     Season,
     Wander,
     Sparse,
+    /// A level rising from 50 to 5.5 times that, with noise a tenth of the level.
+    Growing,
+    /// A level of 100 with noise of sd 5 in the first half and 15 in the second.
+    Louder,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -131,6 +136,8 @@ fn series(shape: &Shape, base: Base, change: Change, noise: &mut Noise) -> Serie
                         0.0
                     }
                 }
+                Base::Growing => (50.0 + 225.0 * t as f64 / n as f64) * (1.0 + 0.1 * e),
+                Base::Louder => 100.0 + if 2 * t < n { 5.0 } else { 15.0 } * e,
                 Base::Wander => {
                     level += 3.0 * noise.normal();
                     level + 10.0 * e
@@ -183,11 +190,13 @@ fn main() {
         Base::Season,
         Base::Wander,
         Base::Sparse,
+        Base::Growing,
+        Base::Louder,
     ];
     println!(
         "fired in % of {count} series: the Bias alert | the former rules: holdout tracking \
          signal beyond ±4, holdout t-test | the Bias rule over one window at 1.96 (nominal): the holdout's \
-         length W, the last 3"
+         length W, the last 3 | the Outliers alert"
     );
     for (label, shape) in shapes() {
         let changes = [
@@ -204,7 +213,7 @@ fn main() {
                     continue;
                 }
                 let mut noise = Noise(0x2545_f491_4f6c_dd1d ^ (base as u64) << 7);
-                let mut fired = [0usize; 5];
+                let mut fired = [0usize; 6];
                 let mut window = 0;
                 for _ in 0..count {
                     let s = series(&shape, base, change, &mut noise);
@@ -224,6 +233,7 @@ fn main() {
                         former_t,
                         single(window),
                         single(3),
+                        kinds.contains(&AlertKind::Outliers),
                     ];
                     for (f, h) in fired.iter_mut().zip(hits) {
                         *f += usize::from(h);

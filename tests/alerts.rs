@@ -93,10 +93,15 @@ fn sparse_demand_gone_quiet() {
     check(y, &[AlertKind::SparseDemand, AlertKind::NoRecentDemand]);
 }
 
-/// `count` histories of `length` periods from `start`: normal noise of sd 10 around 100, times
-/// `last_three` in the last three periods (a seeded generator, Box-Muller on a 64-bit linear
+/// `count` histories of `length` periods from `start`, period t of each `shape(t, z)` with z
+/// a standard normal draw, rounded (a seeded generator, Box-Muller on a 64-bit linear
 /// congruential one: made up for these checks).
-fn noisy(count: usize, start: Period, length: usize, last_three: f64) -> Vec<Series> {
+fn made_up(
+    count: usize,
+    start: Period,
+    length: usize,
+    shape: impl Fn(usize, f64) -> f64,
+) -> Vec<Series> {
     let mut state: u64 = 0x2545_f491_4f6c_dd1d;
     let mut uniform = move || {
         state = state
@@ -110,8 +115,7 @@ fn noisy(count: usize, start: Period, length: usize, last_three: f64) -> Vec<Ser
                 .map(|t| {
                     let z = (-2.0 * uniform().ln()).sqrt()
                         * (2.0 * std::f64::consts::PI * uniform()).cos();
-                    let factor = if t + 3 >= length { last_three } else { 1.0 };
-                    Some(((100.0 + 10.0 * z) * factor).round())
+                    Some(shape(t, z).round())
                 })
                 .collect();
             Series::new("made up", start, values).unwrap()
@@ -125,10 +129,15 @@ fn noisy(count: usize, start: Period, length: usize, last_three: f64) -> Vec<Ser
 #[test]
 fn outliers_on_long_stable_histories_are_rare() {
     let flagged = flagged(
-        &noisy(100, Period::day(2023, 1, 2), 540, 1.0),
+        &made_up(100, Period::day(2023, 1, 2), 540, steady),
         AlertKind::Outliers,
     );
     assert!(flagged <= 10, "outliers on {flagged} of 100 stable items");
+}
+
+/// Normal noise of sd 10 around 100.
+fn steady(_: usize, z: f64) -> f64 {
+    100.0 + 10.0 * z
 }
 
 /// How many of `items` raise an alert of `kind`.
@@ -151,9 +160,10 @@ fn flagged(items: &[Series], kind: AlertKind) -> usize {
 #[test]
 fn bias_holds_its_false_alarm_rate_and_finds_a_jump() {
     let start = Period::month(2021, 1);
-    let steady = flagged(&noisy(100, start, 60, 1.0), AlertKind::Bias);
-    assert!(steady <= 8, "bias on {steady} of 100 steady items");
-    let jumped = flagged(&noisy(100, start, 60, 1.3), AlertKind::Bias);
+    let calm = flagged(&made_up(100, start, 60, steady), AlertKind::Bias);
+    assert!(calm <= 8, "bias on {calm} of 100 steady items");
+    let jump = |t: usize, z: f64| steady(t, z) * if t >= 57 { 1.3 } else { 1.0 };
+    let jumped = flagged(&made_up(100, start, 60, jump), AlertKind::Bias);
     assert!(
         jumped >= 85,
         "bias on only {jumped} of 100 items that jumped 30 %"

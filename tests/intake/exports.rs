@@ -762,19 +762,19 @@ fn a_bad_cell_in_the_first_row_across_is_reported_at_its_cell() {
 // without a header) and a first cell naming no period are left as they were: refused.
 #[test]
 fn items_numbered_in_the_header_are_read_by_their_codes() {
-    let wide = "month,1001,1002,2040\n2024-01,12,5,7\n2024-02,14,6,8\n2024-03,11,4,9\n";
+    let wide = "month,1001,1002,3040\n2024-01,12,5,7\n2024-02,14,6,8\n2024-03,11,4,9\n";
     check(
         wide,
         Expect {
             items: Some(vec![
                 ("1001", some(&[12.0, 14.0, 11.0])),
                 ("1002", some(&[5.0, 6.0, 4.0])),
-                ("2040", some(&[7.0, 8.0, 9.0])),
+                ("3040", some(&[7.0, 8.0, 9.0])),
             ]),
             layout: Some(Layout::Wide),
             frequency: Some(Frequency::Monthly),
             warned: vec![vec![
-                "names the items by numbers (1001, 1002, 2040)",
+                "names the items by numbers (1001, 1002, 3040)",
                 "item codes",
             ]],
             ..Expect::default()
@@ -801,6 +801,22 @@ fn items_numbered_in_the_header_are_read_by_their_codes() {
             ..Expect::default()
         },
     );
+    // Calendar numbers across are no codes (a review found a grid of days read as 31 items):
+    // a run 1, 2, 3, ..., a year and month, and a single code stay refused at the first cell.
+    for header in [
+        "month,1,2,3",
+        "week,0,1,2",
+        "month,202401,202402",
+        "month,1001",
+    ] {
+        check(
+            &format!("{header}\n2024-01,12,5,7\n2024-02,14,6,8\n"),
+            Expect {
+                errors: vec![(1, "column 1", &header[..header.find(',').unwrap()])],
+                ..Expect::default()
+            },
+        );
+    }
     // A first cell that names no period ("item") is no such header either.
     check(
         "item,1001,1002\n2024-01,12,5\n2024-02,14,6\n",

@@ -9,14 +9,19 @@
 //! and reading the cells (the same number and period rules as every table).
 //!
 //! Rule: the first record that reads as data is such a header when its first cell names a
-//! period and no item or quantity ("month", "Date", "Week starting"), every other non-empty cell (at least
-//! one) is a whole number written with digits only, those all differ and are not all
-//! four-digit numbers from 1900 to 2100 (years across: a month-by-year grid, or a mistyped
-//! row of a table without a header), and the next record starts with a period other than a
-//! plain number and reads as data. A first data row with a mistyped period keeps its error:
-//! its first cell names no period.
+//! period and no item or quantity ("month", "Date", "Week starting"); its other non-empty
+//! cells, at least two, are whole numbers written with digits only that all differ; none of
+//! them reads as a calendar number (a year from 1900 to 2100, a year and month 202401, a date
+//! 20240131: periods across, as in a month-by-year grid) and they are not a run 0, 1, 2, ...
+//! or 1, 2, 3, ... up to at most 53 (days of the month, hours, weekdays, weeks across: a
+//! calendar grid); and the next record starts with a period other than a plain number and
+//! holds numbers or "no value" markers in every other filled cell. Anything else stays as
+//! before: a first data row with a mistyped period keeps its error (its first cell names no
+//! period), and a header of calendar numbers is refused at its first cell, not read as items
+//! (a review of 2026-12-03 found `month,1,2,...,31` over months read as 31 items "1".."31").
 
 use super::label::{parse_label, Family};
+use super::number::{is_missing, looks_number};
 use super::table::{header_says, whole_number, ITEM_WORDS, PERIOD_WORDS, QUANTITY_WORDS};
 use super::text::Record;
 
@@ -34,28 +39,53 @@ pub(crate) fn header_at(
         .map(String::as_str)
         .filter(|c| !c.is_empty())
         .collect();
-    let mut distinct = codes.clone();
-    distinct.sort_unstable();
-    distinct.dedup();
-    let year_like =
-        |c: &&str| c.len() == 4 && c.parse::<u32>().is_ok_and(|y| (1900..=2100).contains(&y));
+    let mut values: Vec<u64> = codes.iter().filter_map(|c| c.parse().ok()).collect();
+    values.sort_unstable();
+    values.dedup();
     let next = records.get(*candidates.get(k + 1)?)?;
-    let dated_below = next
-        .cells
-        .first()
-        .and_then(|c| parse_label(c))
-        .is_some_and(|l| l.family() != Family::Integer);
+    let (lead, cells) = next.cells.split_first()?;
+    let dated_below = parse_label(lead).is_some_and(|l| l.family() != Family::Integer);
+    let numbers_below = cells
+        .iter()
+        .all(|c| c.is_empty() || looks_number(c) || is_missing(c));
     let names_period = header_says(first, &PERIOD_WORDS)
         && !header_says(first, &ITEM_WORDS)
         && !header_says(first, &QUANTITY_WORDS);
     let coded = names_period
-        && !codes.is_empty()
+        && codes.len() >= 2
         && codes.iter().all(|c| whole_number(c))
-        && distinct.len() == codes.len()
-        && !codes.iter().all(year_like)
+        && values.len() == codes.len()
+        && !codes.iter().any(|c| calendar_number(c))
+        && !calendar_run(&values)
         && dated_below
+        && numbers_below
         && data_like(next);
     coded.then_some(k)
+}
+
+/// A year from 1900 to 2100, a year and month (202401) or a date (20240131) written as digits.
+fn calendar_number(cell: &str) -> bool {
+    let part = |range: std::ops::Range<usize>| cell.get(range).and_then(|p| p.parse::<u32>().ok());
+    let year = part(0..4).is_some_and(|y| (1900..=2100).contains(&y));
+    let month = || part(4..6).is_some_and(|m| (1..=12).contains(&m));
+    let day = || part(6..8).is_some_and(|d| (1..=31).contains(&d));
+    match cell.len() {
+        4 => year,
+        6 => year && month(),
+        8 => year && month() && day(),
+        _ => false,
+    }
+}
+
+/// Whether sorted distinct `values` run 0, 1, 2, ... or 1, 2, 3, ... without a gap, up to at
+/// most 53: the days, hours, weekdays or weeks of a calendar grid.
+fn calendar_run(values: &[u64]) -> bool {
+    let Some(&start) = values.first() else {
+        return false;
+    };
+    start <= 1
+        && values.last().is_some_and(|&last| last <= 53)
+        && values.iter().zip(start..).all(|(v, want)| *v == want)
 }
 
 /// The codes of a header found by [`header_at`], for the report.

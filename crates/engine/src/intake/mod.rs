@@ -347,13 +347,6 @@ fn read_text(text: &str) -> IntakeReport {
             if lines.len() == 1 { "was" } else { "were" }
         ));
     }
-    if let Some(header) = table.header.as_ref().filter(|_| table.coded) {
-        report.warnings.push(format!(
-            "the header names the items by numbers ({}): read as item codes, not as a row of \
-             data",
-            coded::codes(header).join(", ")
-        ));
-    }
     report.has_header = table.header.is_some();
     if table.rows.iter().all(text::Record::is_blank) {
         let (row, message) = match &table.header {
@@ -389,6 +382,13 @@ fn read_text(text: &str) -> IntakeReport {
         }
     };
     report.layout = plan.layout;
+    if let Some(header) = table.header.as_ref().filter(|_| table.coded) {
+        report.warnings.push(format!(
+            "the header names the items by numbers ({}): read as item codes, not as a row of \
+             data",
+            coded::codes(header).join(", ")
+        ));
+    }
     let rows = table.fitting_rows();
     let mut tally = mark::Tally::default();
     for &j in &plan.values {
