@@ -46,6 +46,65 @@ fn inspect_names_an_unfinished_last_period() {
         .contains("the last period, 2024-12, looks unfinished"));
 }
 
+// --leave-out-unfinished does what the page's button does: the rows go, the rest is read and
+// planned; a warning says so, or that nothing looked unfinished; refused (exit 2, with the
+// reason) where the rest would read otherwise.
+#[test]
+fn the_unfinished_last_period_is_left_out_when_asked() {
+    let mut text = String::from("month,sales\n");
+    for m in 1..=11 {
+        text.push_str(&format!("2024-{m:02},{}\n", 40 + m % 5));
+    }
+    text.push_str("2024-12,4\n");
+    let out = cli(
+        &["inspect", "-", "--json", "--leave-out-unfinished"],
+        text.as_bytes(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let v = out.json();
+    assert_eq!(v["unfinished_last"], serde_json::Value::Null);
+    assert_eq!(v["items"][0]["periods"].as_array().map(Vec::len), Some(11));
+    assert!(v["warnings"]
+        .to_string()
+        .contains("2024-12 looked unfinished (its demand is 9 % of the median"));
+    let out = cli(
+        &["forecast", "-", "--leave-out-unfinished"],
+        text.as_bytes(),
+    );
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    assert!(out.text().contains("left out as asked"), "{}", out.text());
+    // A link says so on standard error, and carries the history without the period.
+    let out = cli(&["link", "-", "--leave-out-unfinished"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    assert!(
+        out.stderr.contains("note: 2024-12 looked unfinished"),
+        "{}",
+        out.stderr
+    );
+    let link = out.text();
+    let back = cli(&["inspect", link.trim(), "--json"], b"");
+    assert_eq!(
+        back.json()["items"][0]["periods"].as_array().map(Vec::len),
+        Some(11)
+    );
+    let out = cli(
+        &["inspect", "-", "--json", "--leave-out-unfinished"],
+        &demo(),
+    );
+    assert!(out.json()["warnings"]
+        .to_string()
+        .contains("no last period looks unfinished"));
+    // Month-first dates shown only by the last day (12/13): without it they read day-first.
+    let mut us = String::from("date,Oak tray\n");
+    for day in 1..=12 {
+        us.push_str(&format!("12/{day:02}/2025,{}\n", 40 + day % 3));
+    }
+    us.push_str("12/13/2025,3\n");
+    let out = cli(&["inspect", "-", "--leave-out-unfinished"], us.as_bytes());
+    assert_eq!(out.code, 2, "{}", out.stderr);
+    assert!(out.stderr.contains("was not left out"), "{}", out.stderr);
+}
+
 #[test]
 fn inspect_rejects_with_row_column_text_and_exit_2() {
     let text = "month,sales\n2024-01,10\n2024-02,ten\n2024-03,12\n";

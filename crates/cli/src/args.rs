@@ -15,11 +15,11 @@ pub fn usage() -> String {
     format!(
         "\
 usage:
-  morrowcast inspect FILE [--json]
+  morrowcast inspect FILE [--json] [--leave-out-unfinished]
   morrowcast forecast FILE [--item NAME]... [--horizon auto|H] [--season auto|none|N]
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
-                      [--method auto|best|NAME] [--json]
+                      [--method auto|best|NAME] [--leave-out-unfinished] [--json]
   morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
                    [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
                    [forecast options] [--json]
@@ -31,7 +31,9 @@ work brings its data, settings, stock inputs and item changes; options given rep
 link prints a share link (the page's ADDRESS, default http://127.0.0.1:8080/, then a fragment
 carrying the data: whoever has the link has the data); work prints a work file. --item NAME
 there names the item the page opens. --item may be repeated (each item named is planned; without
-it, every item). Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
+it, every item). --leave-out-unfinished: when the last period looks unfinished (data taken before
+it ended), its rows are left out of the history first, as the page's button does; refused where
+the rest would read differently. Limits: horizon {}; holdout {}; season {}; level {}; tracking limit {};
 origins {}. Errors are forecast minus demand (positive = over-forecast).
 stock: lead time L and review period R in whole periods (L default 1; without --review,
 continuous review; none leaves it, --lead-time-sd or --order-quantity out, a work's own too); --service (cycle service level, default 95) and --fill-rate take a fraction
@@ -54,6 +56,8 @@ pub enum Command {
     Inspect {
         file: String,
         json: bool,
+        /// `--leave-out-unfinished`: the last period left out where it looks unfinished.
+        leave_out: bool,
     },
     Forecast(ForecastArgs),
     Stock(StockArgs),
@@ -75,6 +79,10 @@ pub struct LinkArgs {
     /// FILE, the settings and stock inputs, and the item to open (at most one in `items`).
     pub stock: StockArgs,
 }
+
+/// The flag that leaves out a last period that looks unfinished (every command reading a
+/// history takes it).
+pub const LEAVE_OUT: &str = "--leave-out-unfinished";
 
 /// The address `link` writes when no --page is given: the one `scripts/start.sh` serves.
 pub const DEFAULT_PAGE: &str = "http://127.0.0.1:8080/";
@@ -143,6 +151,8 @@ pub struct StockArgs {
     /// Items to plan, in the order given; empty: every item of the file.
     pub items: Vec<String>,
     pub json: bool,
+    /// `--leave-out-unfinished`.
+    pub leave_out: bool,
     pub settings: PlanSettings,
     pub stock: stock::StockSettings,
     /// The stock table's file (`-`: standard input), when given.
@@ -157,6 +167,8 @@ pub struct ForecastArgs {
     /// Items to plan, in the order given; empty: every item of the file.
     pub items: Vec<String>,
     pub json: bool,
+    /// `--leave-out-unfinished`.
+    pub leave_out: bool,
     pub settings: PlanSettings,
     /// The settings as typed (for a work given as FILE).
     pub typed: TypedSettings,
@@ -173,9 +185,11 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
         "inspect" => {
             let mut file = None;
             let mut json = false;
+            let mut leave_out = false;
             for a in rest {
                 match a.as_str() {
                     "--json" => json = true,
+                    LEAVE_OUT => leave_out = true,
                     s if s.starts_with("--") => return Err(format!("inspect does not know {s}")),
                     s => {
                         if let Some(earlier) = &file {
@@ -188,7 +202,11 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
                 }
             }
             let file = file.ok_or("inspect needs a FILE (or - for standard input)")?;
-            Ok(Command::Inspect { file, json })
+            Ok(Command::Inspect {
+                file,
+                json,
+                leave_out,
+            })
         }
         "forecast" => parse_forecast(rest).map(Command::Forecast),
         "stock" => parse_stock("stock", rest, &mut |_, _| Ok(false)).map(Command::Stock),
@@ -203,6 +221,7 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
         file: parsed.file,
         items: parsed.items,
         json: parsed.json,
+        leave_out: parsed.leave_out,
         settings: parsed.settings,
         typed: parsed.typed,
     })
@@ -343,6 +362,7 @@ fn parse_stock(
         file: parsed.file,
         items: parsed.items,
         json: parsed.json,
+        leave_out: parsed.leave_out,
         settings: parsed.settings,
         stock,
         table,
@@ -368,6 +388,7 @@ struct ItemCommand {
     file: String,
     items: Vec<String>,
     json: bool,
+    leave_out: bool,
     settings: PlanSettings,
     typed: TypedSettings,
     /// The stock flags given (the rest of `seen`, for [`TypedStock`]).
@@ -384,13 +405,15 @@ fn parse_item_command(
     let mut file = None;
     let mut items: Vec<String> = Vec::new();
     let mut json = false;
+    let mut leave_out = false;
     let mut text = SettingsText::default();
     let mut seen: Vec<&str> = Vec::new();
     let mut i = 0;
     while i < rest.len() {
         let flag = rest[i].as_str();
-        if flag == "--json" {
-            json = true;
+        if flag == "--json" || flag == LEAVE_OUT {
+            json |= flag == "--json";
+            leave_out |= flag == LEAVE_OUT;
             i += 1;
             continue;
         }
@@ -476,6 +499,7 @@ fn parse_item_command(
         file,
         items,
         json,
+        leave_out,
         settings,
         typed: TypedSettings {
             text,

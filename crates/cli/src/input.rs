@@ -74,8 +74,88 @@ impl Input {
 }
 
 /// Reads FILE: a share link given as the argument itself (when no file has that name), or a
-/// file or standard input holding a work file, a share link or a history.
-pub fn read_any(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
+/// file or standard input holding a work file, a share link or a history; with `leave_out`
+/// (`--leave-out-unfinished`), [`leave_out_unfinished`] then.
+pub fn read_any(file: &str, stdin: &mut dyn Read, leave_out: bool) -> Result<Input, String> {
+    let input = read_whole(file, stdin)?;
+    if leave_out {
+        leave_out_unfinished(input)
+    } else {
+        Ok(input)
+    }
+}
+
+/// The history with the rows of a last period that looks unfinished left out of its text and
+/// the text read again, as the page's button does (`intake::leave_out_unfinished`: refused
+/// where the rest would read differently); a warning says what was done, or that nothing
+/// looked unfinished. For a work, its history's text is the one changed.
+fn leave_out_unfinished(input: Input) -> Result<Input, String> {
+    let (report, text) = match &input {
+        Input::History(report, text) => (report, text.as_str()),
+        Input::Work(work, report) => (report, work.history.text.as_str()),
+    };
+    let Some(found) = &report.unfinished_last else {
+        let mut input = input;
+        let note = "--leave-out-unfinished: no last period looks unfinished, so nothing was \
+                    left out"
+            .to_string();
+        match &mut input {
+            Input::History(report, _) | Input::Work(_, report) => report.warnings.push(note),
+        }
+        return Ok(input);
+    };
+    // Named as the intake's warning names it.
+    let period = match report.frequency {
+        morrowcast_engine::calendar::Frequency::Undated => format!("period {}", found.period),
+        _ => found.period.to_string(),
+    };
+    let rows = found.rows.len();
+    let first_line = found.rows.iter().min().copied().unwrap_or(0);
+    // The intake's evidence, kept for the note: the re-read report no longer has it.
+    let evidence = report
+        .warnings
+        .iter()
+        .find_map(|w| w.split_once("looks unfinished: "))
+        .map(|(_, rest)| rest.split(". ").next().unwrap_or(rest).to_string());
+    let without = match intake::leave_out_unfinished(text, report) {
+        Some(Ok(without)) => without,
+        Some(Err(refused)) => return Err(format!("--leave-out-unfinished: {refused}")),
+        None if report.layout == intake::Layout::Across => {
+            return Err(format!(
+                "--leave-out-unfinished: {period} looks unfinished, but its figures are a \
+                 column (periods across the header), not rows: take its column out of the file"
+            ))
+        }
+        None => {
+            return Err(format!(
+                "--leave-out-unfinished: {period} looks unfinished, but its rows cannot be told \
+                 apart to leave them out: delete them from the file"
+            ))
+        }
+    };
+    let mut report = intake::read(&without);
+    report.warnings.insert(
+        0,
+        format!(
+            "{period} looked unfinished ({}) and was left out as asked \
+             (--leave-out-unfinished): its {rows} row(s) were skipped, from line {first_line} of \
+             the file on; row and line numbers in this report count the lines left",
+            evidence
+                .as_deref()
+                .unwrap_or("far below the periods before it")
+        ),
+    );
+    Ok(match input {
+        Input::History(..) => Input::History(report, without),
+        Input::Work(mut work, _) => {
+            work.history.text = without;
+            Input::Work(work, report)
+        }
+    })
+}
+
+/// FILE read as it is (see [`read_any`]).
+fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
     let text = if file != "-" && !std::path::Path::new(file).exists() && Work::is_work(file) {
         file.to_string()
     } else {
@@ -116,7 +196,7 @@ pub fn stock_inputs(
         }
         None => None,
     };
-    let input = read_any(&sa.file, stdin)?;
+    let input = read_any(&sa.file, stdin, sa.leave_out)?;
     let settings = input.settings(&sa.typed, &sa.settings)?;
     let Some(work) = input.work() else {
         return Ok((input, table, settings, sa.stock.clone()));

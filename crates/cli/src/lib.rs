@@ -57,11 +57,15 @@ pub fn run(
             console.out(&demo::demo_csv());
             0
         }
-        Command::Inspect { file, json } => match read_any(&file, stdin) {
+        Command::Inspect {
+            file,
+            json,
+            leave_out,
+        } => match read_any(&file, stdin, leave_out) {
             Ok(input) => inspect(&mut console, input.report(), json),
             Err(message) => console.fail_input(&message),
         },
-        Command::Forecast(fa) => match read_any(&fa.file, stdin) {
+        Command::Forecast(fa) => match read_any(&fa.file, stdin, fa.leave_out) {
             Ok(input) => {
                 let settings = match input.settings(&fa.typed, &fa.settings) {
                     Ok(s) => s,
@@ -98,6 +102,14 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     if report.has_errors() {
         console.err(&table::intake_report(report));
         return 2;
+    }
+    // What --leave-out-unfinished did, which the link or work file does not say.
+    for note in report
+        .warnings
+        .iter()
+        .filter(|w| w.contains(args::LEAVE_OUT))
+    {
+        console.err(&format!("note: {note}\n"));
     }
     if let Some((t, _)) = table.as_ref().filter(|(t, _)| !t.errors.is_empty()) {
         console.err(&table::stock_table_errors(t));
