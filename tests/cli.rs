@@ -82,6 +82,9 @@ fn the_unfinished_last_period_is_left_out_when_asked() {
         out.stderr
     );
     let link = out.text();
+    // A work file names its source as the page does once a period is left out.
+    let work = cli(&["work", "-", "--leave-out-unfinished"], text.as_bytes()).text();
+    assert!(work.contains(", without 2024-12\""), "{work}");
     let back = cli(&["inspect", link.trim(), "--json"], b"");
     assert_eq!(
         back.json()["items"][0]["periods"].as_array().map(Vec::len),

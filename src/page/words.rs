@@ -113,16 +113,6 @@ pub fn left_out_note(period: &str) -> String {
     format!("{period} is left out of the Intake text; the figures go without it.")
 }
 
-/// Where the Intake text came from once a period was left out of it: "sales.csv, without
-/// 2025-12".
-pub fn without_period_source(source: &str, period: &str) -> String {
-    if source.is_empty() {
-        format!("the text, without {period}")
-    } else {
-        format!("{source}, without {period}")
-    }
-}
-
 /// Said beside "use it anyway" when the season test turned down a candidate season. With few
 /// full seasons the test's threshold is high (it grows with the autocorrelation at the shorter
 /// lags, so a clear season can still fall short of it).

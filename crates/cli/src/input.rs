@@ -15,17 +15,18 @@ use morrowcast_work::{SourcedText, Work};
 
 use crate::args::{self, StockArgs};
 
-/// What FILE held: a sales history (its report and text), or a work (a work file or a share
-/// link, FILE itself or its content) with its data, settings, stock inputs and item changes.
+/// What FILE held: a sales history (its report, its text and the period `--leave-out-unfinished`
+/// left out of it), or a work (a work file or a share link, FILE itself or its content) with
+/// its data, settings, stock inputs and item changes.
 pub enum Input {
-    History(intake::IntakeReport, String),
+    History(intake::IntakeReport, String, Option<String>),
     Work(Box<Work>, intake::IntakeReport),
 }
 
 impl Input {
     pub fn report(&self) -> &intake::IntakeReport {
         match self {
-            Input::History(r, _) | Input::Work(_, r) => r,
+            Input::History(r, ..) | Input::Work(_, r) => r,
         }
     }
 
@@ -91,7 +92,7 @@ pub fn read_any(file: &str, stdin: &mut dyn Read, leave_out: bool) -> Result<Inp
 /// looked unfinished. For a work, its history's text is the one changed.
 fn leave_out_unfinished(input: Input) -> Result<Input, String> {
     let (report, text) = match &input {
-        Input::History(report, text) => (report, text.as_str()),
+        Input::History(report, text, _) => (report, text.as_str()),
         Input::Work(work, report) => (report, work.history.text.as_str()),
     };
     let Some(found) = &report.unfinished_last else {
@@ -100,7 +101,7 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
                     left out"
             .to_string();
         match &mut input {
-            Input::History(report, _) | Input::Work(_, report) => report.warnings.push(note),
+            Input::History(report, ..) | Input::Work(_, report) => report.warnings.push(note),
         }
         return Ok(input);
     };
@@ -146,9 +147,10 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         ),
     );
     Ok(match input {
-        Input::History(..) => Input::History(report, without),
+        Input::History(..) => Input::History(report, without, Some(period)),
         Input::Work(mut work, _) => {
             work.history.text = without;
+            work.history.source = SourcedText::named_without(&work.history.source, &period);
             Input::Work(work, report)
         }
     })
@@ -162,7 +164,7 @@ fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
         let bytes = read_input(file, stdin)?;
         let text = intake::decode_bytes(&bytes);
         if !Work::is_work(&text) {
-            return Ok(Input::History(intake::read_bytes(&bytes), text));
+            return Ok(Input::History(intake::read_bytes(&bytes), text, None));
         }
         text
     };

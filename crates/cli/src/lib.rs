@@ -23,7 +23,7 @@ use std::io::{Read, Write};
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::StockSettings;
 use morrowcast_engine::{demo, intake, order, plan, series};
-use morrowcast_work::{Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
+use morrowcast_work::{SourcedText, Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
 
 use input::{read_any, source_name, stock_inputs, Input, Table};
 
@@ -126,7 +126,14 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     }
     let mut work = match input {
         Input::Work(w, _) => *w,
-        Input::History(_, text) => Work::of_history(text, source_name(&sa.file)),
+        Input::History(_, text, left_out) => {
+            let source = source_name(&sa.file);
+            let source = match left_out {
+                Some(period) => SourcedText::named_without(&source, &period),
+                None => source,
+            };
+            Work::of_history(text, source)
+        }
     };
     work.settings = sa.typed.over(&work.settings);
     work.stock = sa.typed_stock.over(&work.stock);

@@ -37,6 +37,18 @@ pub struct SourcedText {
     pub source: String,
 }
 
+impl SourcedText {
+    /// Where a text came from once a period was left out of it: "sales.csv, without 2025-12"
+    /// (the page's Intake and the command line's `--leave-out-unfinished` name it alike).
+    pub fn named_without(source: &str, period: &str) -> String {
+        if source.is_empty() {
+            format!("the text, without {period}")
+        } else {
+            format!("{source}, without {period}")
+        }
+    }
+}
+
 /// The whole desk. Its texts are as typed: they are checked where they are used, by the same
 /// code that checks what a person types; only the item changes are checked when read, since
 /// they hold values (see [`ItemChange`]).

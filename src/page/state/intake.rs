@@ -141,7 +141,7 @@ impl IntakeState {
         });
         match outcome {
             Some((period, Ok(without))) => {
-                let new_source = super::super::words::without_period_source(&source, &period);
+                let new_source = morrowcast_work::SourcedText::named_without(&source, &period);
                 self.set_text_keeping_item(without, &new_source);
                 self.left_out.set(Some(LeftOut {
                     period,
