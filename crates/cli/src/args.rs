@@ -3,7 +3,8 @@
 //!
 //! Kept apart from: the settings' limits and their messages (the engine's
 //! [`morrowcast_engine::settings`] decides them for the page and the command line alike). A
-//! flag given twice is refused rather than one value silently kept; only `--item` repeats.
+//! flag with a value given twice is refused rather than one value silently kept; only `--item`
+//! repeats (the flags without a value, `--json` and `--leave-out-unfinished`, may stand twice).
 
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
