@@ -162,7 +162,10 @@ fn check_leave_out(text: &str, expected: Result<&str, &str>) {
     let got = morrowcast_engine::intake::leave_out_unfinished(text, &report)
         .expect("a period to leave out");
     match (&got, expected) {
-        (Ok(without), Ok(want)) => assert_eq!(without, want),
+        (Ok((without, again)), Ok(want)) => {
+            assert_eq!(without, want);
+            assert_eq!(*again, morrowcast_engine::intake::read(want));
+        }
         (Err(error), Err(part)) => assert!(error.to_string().contains(part), "{error}"),
         _ => panic!("got {got:?}, expected {expected:?}"),
     }

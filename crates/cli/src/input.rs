@@ -105,11 +105,7 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         }
         return Ok(input);
     };
-    // Named as the intake's warning names it.
-    let period = match report.frequency {
-        morrowcast_engine::calendar::Frequency::Undated => format!("period {}", found.period),
-        _ => found.period.to_string(),
-    };
+    let period = found.name();
     let rows = found.rows.len();
     let first_line = found.rows.iter().min().copied().unwrap_or(0);
     // The intake's evidence, kept for the note: the re-read report no longer has it.
@@ -118,8 +114,8 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         .iter()
         .find_map(|w| w.split_once("looks unfinished: "))
         .map(|(_, rest)| rest.split(". ").next().unwrap_or(rest).to_string());
-    let without = match intake::leave_out_unfinished(text, report) {
-        Some(Ok(without)) => without,
+    let (without, mut report) = match intake::leave_out_unfinished(text, report) {
+        Some(Ok(left)) => left,
         Some(Err(refused)) => return Err(format!("--leave-out-unfinished: {refused}")),
         None if report.layout == intake::Layout::Across => {
             return Err(format!(
@@ -134,7 +130,6 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
             ))
         }
     };
-    let mut report = intake::read(&without);
     report.warnings.insert(
         0,
         format!(

@@ -137,6 +137,12 @@ pub fn bias_limit(n: usize) -> Option<f64> {
     Some(BIAS_LIMITS[i])
 }
 
+/// The median of `values`; `None` when empty.
+fn median(mut values: Vec<f64>) -> Option<f64> {
+    values.sort_by(f64::total_cmp);
+    crate::bands::quantile_sorted(&values, 0.5)
+}
+
 /// sigma / median |e| for normal errors with mean 0: 1 / z(0.75) = 1.4826.
 const SIGMA_PER_MEDIAN_ABS: f64 = 1.482_602_218_505_602;
 
@@ -205,9 +211,7 @@ pub fn lean_over(
     for k in readable {
         let from = (n - k).saturating_sub(SCALE_ERRORS);
         let before = &errors[from..n - k];
-        let mut absolute: Vec<f64> = before.iter().map(|e| e.abs()).collect();
-        absolute.sort_by(f64::total_cmp);
-        let Some(median_abs) = crate::bands::quantile_sorted(&absolute, 0.5) else {
+        let Some(median_abs) = median(before.iter().map(|e| e.abs()).collect()) else {
             continue;
         };
         let mean = |v: &[f64]| v.iter().map(|x| x.abs()).sum::<f64>() / v.len() as f64;
@@ -369,16 +373,10 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
 /// How many values have a modified z-score above [`outlier_cut`] for their count; none when
 /// the MAD is 0.
 fn outliers(values: &[f64]) -> usize {
-    let median = |v: &mut Vec<f64>| {
-        v.sort_by(f64::total_cmp);
-        crate::bands::quantile_sorted(v, 0.5)
-    };
-    let mut sorted = values.to_vec();
-    let Some(centre) = median(&mut sorted) else {
+    let Some(centre) = median(values.to_vec()) else {
         return 0;
     };
-    let mut deviations: Vec<f64> = values.iter().map(|v| (v - centre).abs()).collect();
-    let Some(mad) = median(&mut deviations) else {
+    let Some(mad) = median(values.iter().map(|v| (v - centre).abs()).collect()) else {
         return 0;
     };
     if mad <= 0.0 {

@@ -140,7 +140,8 @@ impl IntakeState {
             Some((period, intake::leave_out_unfinished(&text, r)?))
         });
         match outcome {
-            Some((period, Ok(without))) => {
+            // The reading made to check it is read again as the Intake text is: on a worker.
+            Some((period, Ok((without, _)))) => {
                 let new_source = morrowcast_work::SourcedText::named_without(&source, &period);
                 self.set_text_keeping_item(without, &new_source);
                 self.left_out.set(Some(LeftOut {

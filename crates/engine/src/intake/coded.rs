@@ -33,12 +33,9 @@ pub(crate) fn header_at(
     data_like: impl Fn(&Record) -> bool,
 ) -> Option<usize> {
     let k = candidates.iter().position(|&i| data_like(&records[i]))?;
-    let (first, rest) = records[candidates[k]].cells.split_first()?;
-    let codes: Vec<&str> = rest
-        .iter()
-        .map(String::as_str)
-        .filter(|c| !c.is_empty())
-        .collect();
+    let record = &records[candidates[k]];
+    let first = record.cells.first()?;
+    let codes = codes(record);
     let mut values: Vec<u64> = codes.iter().filter_map(|c| c.parse().ok()).collect();
     values.sort_unstable();
     values.dedup();
@@ -88,7 +85,7 @@ fn calendar_run(values: &[u64]) -> bool {
         && values.iter().zip(start..).all(|(v, want)| *v == want)
 }
 
-/// The codes of a header found by [`header_at`], for the report.
+/// The codes of a header found by [`header_at`]: its non-empty cells after the first.
 pub(crate) fn codes(header: &Record) -> Vec<&str> {
     header
         .cells

@@ -69,12 +69,12 @@ fn period_kind(report: &IntakeReport) -> &str {
 }
 
 /// `text` without the rows of the period `report` found unfinished ([`leave_out_rows`]),
-/// when what is left reads as the text did (module doc). `None` when there is nothing to
-/// leave out row by row.
+/// with its reading (made to check it, so a caller need not read it again), when what is left
+/// reads as the text did (module doc). `None` when there is nothing to leave out row by row.
 pub fn leave_out_unfinished(
     text: &str,
     report: &IntakeReport,
-) -> Option<Result<String, LeaveOutError>> {
+) -> Option<Result<(String, IntakeReport), LeaveOutError>> {
     let unfinished = report.unfinished_last.as_ref()?;
     if unfinished.rows.is_empty() {
         return None;
@@ -117,7 +117,7 @@ pub fn leave_out_unfinished(
         changes.push("rows that read now would be refused".to_string());
     }
     Some(if changes.is_empty() {
-        Ok(without)
+        Ok((without, again))
     } else {
         Err(LeaveOutError::ReadsDifferently {
             period: unfinished.period.to_string(),

@@ -68,6 +68,13 @@ pub struct UnfinishedPeriod {
     pub rows: Vec<usize>,
 }
 
+impl UnfinishedPeriod {
+    /// The period as the warning names it ("2025-12"; plain positions "period 5").
+    pub fn name(&self) -> String {
+        period_name(self.period)
+    }
+}
+
 /// Periods before the last whose median it is compared with.
 const RECENT: usize = 3;
 
