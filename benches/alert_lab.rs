@@ -5,9 +5,15 @@
 //! comparison, by the rules it replaced and by its own rule over single windows, and by the
 //! Outliers alert. The README records what it showed.
 //!
-//! Run: `cargo bench --bench alert_lab [-- --count 200]` (about a minute).
+//! With `--outliers`, the Outliers study instead: steady items (even noise, noise that grows
+//! with the level or changes halfway, count-like noise) with and without an oddity put in
+//! (a typo, a spike, a dip, a promotion), judged by the alert, by the rule before it read the
+//! errors' power (errors as they are) and by fixed powers; the share of items where the alert
+//! fired, and where it named a period made odd.
+//!
+//! Run: `cargo bench --bench alert_lab [-- --count 200] [--outliers]` (about a minute each).
 
-use morrowcast_engine::alerts::{alerts, lean_over, AlertKind};
+use morrowcast_engine::alerts::{alerts, lean_over, outlier_cut, outliers, AlertKind};
 use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::plan::{plan_item, ItemPlan};
 use morrowcast_engine::series::Series;
@@ -183,6 +189,10 @@ fn main() {
         .and_then(|i| args.get(i + 1))
         .and_then(|v| v.parse().ok())
         .unwrap_or(100);
+    if args.iter().any(|a| a == "--outliers") {
+        outlier_study(count);
+        return;
+    }
     let bases = [
         Base::Level,
         Base::Rough,
@@ -247,6 +257,185 @@ fn main() {
                     "{label:11} {:7} {:22} W={window:3}  {}",
                     format!("{base:?}"),
                     format!("{change:?}"),
+                    pct.join(" |")
+                );
+            }
+        }
+    }
+}
+
+/// Something unusual put into an otherwise steady history, for the Outliers study.
+#[derive(Clone, Copy, Debug, PartialEq)]
+enum Oddity {
+    None,
+    /// The fourth period typed ten times too large.
+    EarlyTypo,
+    /// The middle period 60 % up.
+    Spike,
+    /// The middle period 60 % down (a stock-out, a missed entry).
+    Dip,
+    /// A promotion doubling demand from the middle for n / 50 periods (at least 2).
+    Promotion,
+}
+
+fn with_oddity(mut values: Vec<f64>, oddity: Oddity) -> Vec<f64> {
+    let n = values.len();
+    let middle = n / 2;
+    match oddity {
+        Oddity::None => {}
+        Oddity::EarlyTypo => values[3] *= 10.0,
+        Oddity::Spike => values[middle] *= 1.6,
+        Oddity::Dip => values[middle] *= 0.4,
+        Oddity::Promotion => {
+            for v in &mut values[middle..middle + (n / 50).max(2)] {
+                *v *= 2.0;
+            }
+        }
+    }
+    values.into_iter().map(|v| v.round()).collect()
+}
+
+/// Steady histories for the Outliers study: the alert lab's bases, and counts (noise the square
+/// root of the mean, as for Poisson demand) with a strong season or growing.
+fn steady_for_outliers(shape: &Shape, base: &str, noise: &mut Noise) -> Vec<f64> {
+    let n = shape.length;
+    (0..n)
+        .map(|t| {
+            let z = noise.normal();
+            let phase =
+                2.0 * std::f64::consts::PI * (t % shape.season) as f64 / shape.season as f64;
+            let y = match base {
+                "level" => 100.0 + 10.0 * z,
+                "season" => 100.0 * (1.0 + 0.3 * phase.sin()) + 10.0 * z,
+                "growing" => (50.0 + 225.0 * t as f64 / n as f64) * (1.0 + 0.1 * z),
+                "louder" => 100.0 + if 2 * t < n { 5.0 } else { 15.0 } * z,
+                "season counts" => {
+                    let mean = 20.0 * (1.0 + 0.6 * phase.sin());
+                    mean + mean.sqrt() * z
+                }
+                _ => {
+                    let mean = 5.0 + 55.0 * t as f64 / n as f64;
+                    mean + mean.sqrt() * z
+                }
+            };
+            y.max(0.0)
+        })
+        .collect()
+}
+
+/// The periods whose errors pass the Outliers cut after dividing each by its fitted value
+/// (floored at a tenth of the median fit, as the alert does) to a fixed `power` (0: the rule
+/// before the power was read from the errors).
+fn outliers_scaled(plan: &ItemPlan, power: f64) -> Vec<usize> {
+    let judged: Vec<(usize, f64, f64)> = plan
+        .fitted
+        .iter()
+        .zip(&plan.history)
+        .enumerate()
+        .filter_map(|(t, (f, d))| f.map(|f| (t, f, f - d)))
+        .collect();
+    if judged.is_empty() {
+        return Vec::new();
+    }
+    let floor = (0.1 * median(judged.iter().map(|p| p.1).collect())).max(1e-9);
+    let scaled: Vec<f64> = judged
+        .iter()
+        .map(|(_, f, e)| e / f.max(floor).powf(power))
+        .collect();
+    let centre = median(scaled.clone());
+    let mad = median(scaled.iter().map(|v| (v - centre).abs()).collect());
+    if mad <= 0.0 {
+        return Vec::new();
+    }
+    let cut = outlier_cut(scaled.len());
+    judged
+        .iter()
+        .zip(&scaled)
+        .filter(|(_, v)| 0.6745 * (*v - centre).abs() / mad > cut)
+        .map(|(p, _)| p.0)
+        .collect()
+}
+
+/// The median as the engine takes it (the mean of the middle two of an even count).
+fn median(mut values: Vec<f64>) -> f64 {
+    values.sort_by(f64::total_cmp);
+    (values[(values.len() - 1) / 2] + values[values.len() / 2]) / 2.0
+}
+
+/// The periods an oddity was put in.
+fn odd_periods(length: usize, oddity: Oddity) -> std::ops::Range<usize> {
+    let middle = length / 2;
+    match oddity {
+        Oddity::None => 0..0,
+        Oddity::EarlyTypo => 3..4,
+        Oddity::Spike | Oddity::Dip => middle..middle + 1,
+        Oddity::Promotion => middle..middle + (length / 50).max(2),
+    }
+}
+
+fn outlier_study(count: usize) {
+    println!(
+        "Outliers, in % of {count} series: the alert (errors over fitted^b) fired, named \
+         a period made odd | the former rule (errors as they are) fired, named | errors over \
+         sqrt(fitted) fired | over fitted fired"
+    );
+    for (label, shape) in shapes() {
+        for (index, base) in [
+            "level",
+            "season",
+            "growing",
+            "louder",
+            "season counts",
+            "growing counts",
+        ]
+        .into_iter()
+        .enumerate()
+        {
+            for oddity in [
+                Oddity::None,
+                Oddity::EarlyTypo,
+                Oddity::Spike,
+                Oddity::Dip,
+                Oddity::Promotion,
+            ] {
+                let mut noise = Noise(0x2545_f491_4f6c_dd1d ^ (index as u64) << 9);
+                let mut fired = [0usize; 6];
+                for _ in 0..count {
+                    let values = with_oddity(steady_for_outliers(&shape, base, &mut noise), oddity);
+                    let s = Series::new(
+                        "made up",
+                        shape.start,
+                        values.into_iter().map(Some).collect(),
+                    )
+                    .unwrap();
+                    let plan = plan_item(&s, &PlanSettings::default()).unwrap();
+                    if plan.demand.class.is_sparse() {
+                        continue;
+                    }
+                    let odd = odd_periods(shape.length, oddity);
+                    let alert: Vec<usize> = outliers(&plan)
+                        .map(|o| o.periods.iter().map(|p| p.index).collect())
+                        .unwrap_or_default();
+                    let former = outliers_scaled(&plan, 0.0);
+                    let hits = [
+                        !alert.is_empty(),
+                        alert.iter().any(|t| odd.contains(t)),
+                        !former.is_empty(),
+                        former.iter().any(|t| odd.contains(t)),
+                        !outliers_scaled(&plan, 0.5).is_empty(),
+                        !outliers_scaled(&plan, 1.0).is_empty(),
+                    ];
+                    for (f, h) in fired.iter_mut().zip(hits) {
+                        *f += usize::from(h);
+                    }
+                }
+                let pct: Vec<String> = fired
+                    .iter()
+                    .map(|f| format!("{:5.1}", 100.0 * *f as f64 / count as f64))
+                    .collect();
+                println!(
+                    "{label:12} {base:14} {:10} {}",
+                    format!("{oddity:?}"),
                     pct.join(" |")
                 );
             }

@@ -5,6 +5,13 @@
 //! Kept apart from: planning (the plan is taken as made) and showing (the front ends word
 //! nothing themselves). The cut-offs are here, each with its source or marked as our choice.
 
+mod outliers;
+
+pub use outliers::{
+    outlier_cut, outliers, spread_power, FarPeriod, Outliers, LEVEL_RATIO_FOR_POWER, OUTLIER_Z,
+    SIZE_FLOOR,
+};
+
 use crate::calendar::Frequency;
 use crate::plan::ItemPlan;
 
@@ -76,21 +83,6 @@ pub struct Alert {
     pub kind: AlertKind,
     /// Why, in words a planner can act on.
     pub reason: String,
-}
-
-/// Modified z-score beyond which a one-step error is an outlier: 3.5 (Iglewicz & Hoaglin 1993,
-/// "How to detect and handle outliers"), with z = 0.6745 (e - median) / MAD over the errors;
-/// the floor of [`outlier_cut`].
-pub const OUTLIER_Z: f64 = 3.5;
-
-/// The modified z-score an error must pass among `n`: 3.5, or where higher the normal quantile
-/// that n normal errors all stay within with 95 % probability, z(1 - 0.025 / n) (Bonferroni's
-/// correction for looking at n errors at once; 3.5 per error alone flagged about a third of
-/// stable daily items with 540 days). From 3.5 at up to 107 errors to 3.9 at 540 and 4.3 at
-/// 3,650.
-pub fn outlier_cut(n: usize) -> f64 {
-    let per_error = 0.025 / n.max(1) as f64;
-    OUTLIER_Z.max(crate::bands::standard_normal_quantile(1.0 - per_error))
 }
 
 /// The windows of latest periods the Bias alert reads the one-step errors over (our choice: a
@@ -336,21 +328,10 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
     }
     // Outliers among the fit's one-step errors; not for sparse demand, where every demand
     // period stands out against the zeros (its own alert says so).
-    let residuals: Vec<f64> = plan
-        .fitted
-        .iter()
-        .zip(&plan.history)
-        .filter_map(|(f, d)| f.map(|f| f - d))
-        .collect();
-    let far = if sparse { 0 } else { outliers(&residuals) };
-    if far > 0 {
+    if let Some(found) = outliers(plan).filter(|o| !sparse && !o.periods.is_empty()) {
         say(
             AlertKind::Outliers,
-            format!(
-                "{far} period(s) the fit misses by far more than the rest (modified z-score \
-                 above {:.1}): check them for one-off events or typing errors",
-                outlier_cut(residuals.len())
-            ),
+            outliers_reason(plan, &found, frequency),
         );
     }
     // A wide band, except for sparse demand, whose band is always wide against its small mean.
@@ -370,36 +351,86 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
     out
 }
 
-/// How many values have a modified z-score above [`outlier_cut`] for their count; none when
-/// the MAD is 0.
-fn outliers(values: &[f64]) -> usize {
-    let Some(centre) = median(values.to_vec()) else {
-        return 0;
-    };
-    let Some(mad) = median(values.iter().map(|v| (v - centre).abs()).collect()) else {
-        return 0;
-    };
-    if mad <= 0.0 {
-        return 0;
+/// Runs of far periods named at most in the Outliers reason (our choice); the rest counted.
+const RUNS_NAMED: usize = 4;
+
+/// The Outliers reason: the periods by name (runs of neighbouring ones as "from to"), the
+/// largest miss with its demand and fit, the cut, how the errors were weighed, and the
+/// periods before the fit starts, which are not judged themselves.
+fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> String {
+    let (one, many) = frequency.period_words();
+    let name = |index: usize| period_name(plan, index);
+    let mut runs: Vec<(usize, usize)> = Vec::new();
+    for far in &found.periods {
+        match runs.last_mut() {
+            Some((_, last)) if *last + 1 == far.index => *last = far.index,
+            _ => runs.push((far.index, far.index)),
+        }
     }
-    values
+    let mut named: Vec<String> = runs
         .iter()
-        .filter(|v| 0.6745 * (*v - centre).abs() / mad > outlier_cut(values.len()))
-        .count()
+        .take(RUNS_NAMED)
+        .map(|(first, last)| {
+            if first == last {
+                name(*first)
+            } else {
+                format!("{} to {}", name(*first), name(*last))
+            }
+        })
+        .collect();
+    if runs.len() > RUNS_NAMED {
+        named.push(format!("and {} more", runs.len() - RUNS_NAMED));
+    }
+    let count = found.periods.len();
+    let largest = found
+        .periods
+        .iter()
+        .max_by(|a, b| a.z.abs().total_cmp(&b.z.abs()))
+        .map(|far| {
+            let figures = format!("demand {} against a forecast of {:.1}", far.demand, far.fit);
+            if count == 1 {
+                format!(", {figures}")
+            } else {
+                format!("; the largest, {}: {figures}", name(far.index))
+            }
+        })
+        .unwrap_or_default();
+    let weighed = if found.power > 0.0 {
+        format!(
+            ", each error weighed against the forecast's size to the power {:.2}, as the \
+             errors grow with it",
+            found.power
+        )
+    } else {
+        String::new()
+    };
+    let unjudged = if found.first_judged > 1 {
+        format!(
+            "; the first {} {many} come before the fit starts and show only through the {many} \
+             after them",
+            found.first_judged
+        )
+    } else {
+        String::new()
+    };
+    format!(
+        "{count} {} the fit misses by far more than the rest: {}{largest} (modified z-score \
+         above {:.1}{weighed}); check {} for one-off events or typing errors{unjudged}",
+        if count == 1 { one } else { many },
+        named.join(", "),
+        found.cut,
+        if count == 1 { "it" } else { "them" },
+    )
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn modified_z_scores_by_hand() {
-        // Median 0, MAD 1: z = 0.6745 |x|; above 3.5 means |x| > 5.19.
-        let check = |values: &[f64], want: usize| assert_eq!(outliers(values), want, "{values:?}");
-        check(&[-1.0, 1.0, 0.0, -1.0, 1.0, 0.0, 5.0], 0);
-        check(&[-1.0, 1.0, 0.0, -1.0, 1.0, 0.0, 5.3], 1);
-        check(&[-1.0, 1.0, 0.0, -1.0, 1.0, 0.0, -9.0, 20.0, 0.0], 2);
-        check(&[2.0, 2.0, 2.0, 2.0, 9.0], 0);
-        check(&[], 0);
+/// The name of the history's period at `index` (counted back from the first forecast
+/// period); "period N" where the plan has no forecast to count from.
+fn period_name(plan: &ItemPlan, index: usize) -> String {
+    match plan.forecast.first() {
+        Some(first) => {
+            let back = plan.history.len() as i64 - index as i64;
+            first.period.offset(-back).to_string()
+        }
+        None => format!("period {}", index + 1),
     }
 }
