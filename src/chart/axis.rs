@@ -28,7 +28,13 @@ pub enum Swatch {
     Fill(RGBColor, f64),
     /// A hollow ring (the filled-gap marker).
     Ring(RGBColor),
+    /// A dot in a wide ring (a period the fit misses by far).
+    Ringed(RGBColor, RGBColor),
 }
+
+/// Radius of the ring around a period the fit misses by far, in pixels: wider than the
+/// filled-gap ring (4), so the two read apart.
+pub const FAR_RING_RADIUS: i32 = 7;
 
 /// One legend row: a swatch and its words.
 #[derive(Clone, Debug, PartialEq)]
@@ -157,6 +163,14 @@ where
                 4,
                 c.stroke_width(2),
             ))?,
+            Swatch::Ringed(dot, ring) => {
+                area.draw(&Circle::new((x0 + SWATCH_WIDTH / 2, y), 3, dot.filled()))?;
+                area.draw(&Circle::new(
+                    (x0 + SWATCH_WIDTH / 2, y),
+                    FAR_RING_RADIUS,
+                    ring.stroke_width(2),
+                ))?
+            }
         }
         area.draw(&Text::new(entry.label.as_str(), (x, y), style.clone()))?;
     }

@@ -7,7 +7,9 @@
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 
-use super::axis::{draw_legend, frame, value_range, Corner, LegendEntry, Swatch, FONT};
+use super::axis::{
+    draw_legend, frame, value_range, Corner, LegendEntry, Swatch, FAR_RING_RADIUS, FONT,
+};
 use super::palette::{ALERT, BAND_OPACITY, DEMAND, FITTED, FORECAST, HOLDOUT, MARKER};
 use super::{clear, filled_gap_marker, filled_gaps_words, round_for_people, Area, ChartError};
 
@@ -27,6 +29,8 @@ pub struct LookAhead {
     pub history: Vec<f64>,
     /// Positions in `history` that were gaps filled by interpolation (hollow markers).
     pub filled: Vec<usize>,
+    /// Positions in `history` the fit misses by far (the Outliers alert's periods; wide rings).
+    pub far: Vec<usize>,
     /// The fit aligned with `history` (`None` where the method has none).
     pub fitted: Vec<Option<f64>>,
     /// Position of the first holdout period, when there is a holdout.
@@ -169,6 +173,18 @@ where
         )?;
         legend.push(LegendEntry::new("filled gap", Swatch::Ring(ALERT)));
     }
+    if !data.far.is_empty() {
+        chart.draw_series(
+            data.far
+                .iter()
+                .filter_map(|i| history.get(*i))
+                .map(|p| Circle::new(*p, FAR_RING_RADIUS, ALERT.stroke_width(2))),
+        )?;
+        legend.push(LegendEntry::new(
+            "missed by far (Outliers)",
+            Swatch::Ringed(DEMAND, ALERT),
+        ));
+    }
 
     if let Some(start) = data
         .holdout_start
@@ -260,6 +276,15 @@ pub fn look_ahead_summary(data: &LookAhead) -> String {
         data.unit
     );
     s.push_str(&filled_gaps_words(data.filled.len()));
+    if !data.far.is_empty() {
+        let named: Vec<String> = data.far.iter().take(4).map(|i| label(*i)).collect();
+        s.push_str(&format!(
+            " {} period(s) the fit misses by far are ringed: {}{}.",
+            data.far.len(),
+            named.join(", "),
+            if data.far.len() > 4 { ", ..." } else { "" }
+        ));
+    }
     if let Some(start) = data.holdout_start.filter(|s| *s < n) {
         s.push_str(&format!(
             " The holdout runs from {} ({} periods).",
@@ -311,6 +336,7 @@ mod tests {
             labels,
             history,
             filled: vec![],
+            far: vec![],
             fitted,
             holdout_start: Some(18),
             holdout_forecast: vec![52.0; 6],
@@ -358,6 +384,21 @@ mod tests {
         // Without gaps, no legend entry.
         let svg = draw_svg(&sample());
         assert!(!svg.texts.iter().any(|t| t == "filled gap"));
+    }
+
+    #[test]
+    fn periods_missed_by_far_get_wide_rings_and_a_legend_entry() {
+        let mut data = sample();
+        data.far = vec![7];
+        let svg = draw_svg(&data);
+        // Every demand marker stays (24, plus the legend's dot); one ring in the alert colour
+        // around period 7, plus the legend's.
+        assert_eq!(svg.circles_with_fill(&hex(DEMAND)), 25);
+        assert_eq!(svg.circles_with_stroke(&hex(ALERT)), 2);
+        assert!(svg.texts.iter().any(|t| t == "missed by far (Outliers)"));
+        assert!(look_ahead_summary(&data).contains("1 period(s) the fit misses by far are ringed"));
+        let svg = draw_svg(&sample());
+        assert!(!svg.texts.iter().any(|t| t == "missed by far (Outliers)"));
     }
 
     #[test]

@@ -4,6 +4,7 @@
 //! Kept apart from: the engine's computation and the DOM. This only rearranges the engine's
 //! numbers (no fitting, no measures) and pairs them with period labels.
 
+use morrowcast_engine::alerts::outliers;
 use morrowcast_engine::backtest::Scored;
 use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::plan::{ItemPlan, LedgerEntry};
@@ -32,6 +33,9 @@ pub fn look_ahead(series: &Series, ranked: &ItemPlan, row: &Scored, shown: &Item
         labels,
         history: ranked.history.clone(),
         filled: series.gap_indices(),
+        far: outliers(shown)
+            .map(|o| o.periods.iter().map(|p| p.index).collect())
+            .unwrap_or_default(),
         fitted: shown.fitted.clone(),
         holdout_start: (k > 0 && k < n).then(|| n - k),
         holdout_forecast: row.holdout_forecast.clone(),

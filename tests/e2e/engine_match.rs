@@ -311,3 +311,57 @@ fn dropped_bytes_are_decoded_by_the_engine() {
     );
     save_screenshot(browser, "drop-latin1.png");
 }
+
+/// A typing error in a pasted item: the Look-ahead rings the period the command line's
+/// Outliers alert names, and says so in its summary; the clean item has no ring.
+#[test]
+fn a_typing_error_is_ringed_where_the_outliers_alert_names_it() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    // Garden twine's 2024-06 typed ten times too large (32 as 320).
+    let text = TWO_ITEMS.replace("2024-06,196,32", "2024-06,196,320");
+    let out = crate::support::cli(&["stock", "-", "--json"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let json = out.json();
+    let alert_of = |item: &str| {
+        json["items"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|p| p["name"] == item)
+            .unwrap()["alerts"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|a| a["kind"] == "outliers")
+            .map(|a| a["reason"].as_str().unwrap().to_string())
+    };
+    let reason = alert_of("Garden twine").expect("an outliers alert on Garden twine");
+    assert!(reason.contains(": 2024-06"), "{reason}");
+    assert_eq!(alert_of("Seed trays"), None);
+
+    paste(browser, &text);
+    wait_for_item(browser, "Seed trays");
+    let summary = || {
+        browser
+            .js("return document.getElementById('look-ahead-chart-summary').textContent")
+            .as_str()
+            .unwrap_or("")
+            .to_string()
+    };
+    assert!(!summary().contains("ringed"), "{}", summary());
+    browser.js(
+        "const s = document.getElementById('item-choice'); s.value = '1'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    wait_for_item(browser, "Garden twine");
+    browser.wait_for(
+        "the ring's words in the Look-ahead summary",
+        "return document.getElementById('look-ahead-chart-summary').textContent.includes('ringed: 2024-06')",
+        WAIT,
+    );
+    save_screenshot(browser, "outlier-ringed.png");
+}

@@ -326,9 +326,7 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
             );
         }
     }
-    // Outliers among the fit's one-step errors; not for sparse demand, where every demand
-    // period stands out against the zeros (its own alert says so).
-    if let Some(found) = outliers(plan).filter(|o| !sparse && !o.periods.is_empty()) {
+    if let Some(found) = outliers(plan).filter(|o| !o.periods.is_empty()) {
         say(
             AlertKind::Outliers,
             outliers_reason(plan, &found, frequency),

@@ -98,8 +98,12 @@ fn size_floor(pairs: &[(f64, f64)]) -> f64 {
 
 /// The Outliers rule on a plan's one-step fit (errors forecast minus demand): each error over
 /// max(f, floor)^b ([`spread_power`]), then a modified z-score above [`outlier_cut`] for the
-/// count. `None` where no period has a fit.
+/// count. `None` where no period has a fit, and for sparse demand, where every demand period
+/// stands out against the zeros (its own alert says so).
 pub fn outliers(plan: &ItemPlan) -> Option<Outliers> {
+    if plan.demand.class.is_sparse() {
+        return None;
+    }
     let judged: Vec<(usize, f64, f64)> = plan
         .fitted
         .iter()
