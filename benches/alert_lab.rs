@@ -14,7 +14,7 @@
 //! Run: `cargo bench --bench alert_lab [-- --count 200] [--outliers]` (about a minute each).
 
 use morrowcast_engine::alerts::{alerts, lean_over, outlier_cut, outliers, AlertKind};
-use morrowcast_engine::calendar::{Frequency, Period};
+use morrowcast_engine::calendar::Period;
 use morrowcast_engine::plan::{plan_item, ItemPlan};
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
@@ -64,7 +64,6 @@ enum Change {
 }
 
 struct Shape {
-    frequency: Frequency,
     length: usize,
     start: Period,
     season: usize,
@@ -75,7 +74,6 @@ fn shapes() -> Vec<(&'static str, Shape)> {
         (
             "monthly 36",
             Shape {
-                frequency: Frequency::Monthly,
                 length: 36,
                 start: Period::month(2022, 1),
                 season: 12,
@@ -84,7 +82,6 @@ fn shapes() -> Vec<(&'static str, Shape)> {
         (
             "quarterly 40",
             Shape {
-                frequency: Frequency::Quarterly,
                 length: 40,
                 start: Period::quarter(2016, 1),
                 season: 4,
@@ -93,7 +90,6 @@ fn shapes() -> Vec<(&'static str, Shape)> {
         (
             "monthly 60",
             Shape {
-                frequency: Frequency::Monthly,
                 length: 60,
                 start: Period::month(2020, 1),
                 season: 12,
@@ -102,7 +98,6 @@ fn shapes() -> Vec<(&'static str, Shape)> {
         (
             "weekly 156",
             Shape {
-                frequency: Frequency::Weekly,
                 length: 156,
                 start: Period::week_containing(2022, 1, 3),
                 season: 52,
@@ -111,7 +106,6 @@ fn shapes() -> Vec<(&'static str, Shape)> {
         (
             "daily 540",
             Shape {
-                frequency: Frequency::Daily,
                 length: 540,
                 start: Period::day(2023, 1, 2),
                 season: 7,
@@ -228,10 +222,8 @@ fn main() {
                 for _ in 0..count {
                     let s = series(&shape, base, change, &mut noise);
                     let plan = plan_item(&s, &PlanSettings::default()).unwrap();
-                    let kinds: Vec<AlertKind> = alerts(&plan, shape.frequency)
-                        .into_iter()
-                        .map(|a| a.kind)
-                        .collect();
+                    let kinds: Vec<AlertKind> =
+                        alerts(&plan, &s).into_iter().map(|a| a.kind).collect();
                     window = plan.ledger.len();
                     let (former_signal, former_t) = former_rules(&plan);
                     let sparse = plan.demand.class.is_sparse();
@@ -309,6 +301,7 @@ fn steady_for_outliers(shape: &Shape, base: &str, noise: &mut Noise) -> Vec<f64>
                 "season" => 100.0 * (1.0 + 0.3 * phase.sin()) + 10.0 * z,
                 "growing" => (50.0 + 225.0 * t as f64 / n as f64) * (1.0 + 0.1 * z),
                 "louder" => 100.0 + if 2 * t < n { 5.0 } else { 15.0 } * z,
+                "trend" => 40.0 + 240.0 * t as f64 / n as f64 + 10.0 * z,
                 "season counts" => {
                     let mean = 20.0 * (1.0 + 0.6 * phase.sin());
                     mean + mean.sqrt() * z
@@ -385,6 +378,7 @@ fn outlier_study(count: usize) {
             "season",
             "growing",
             "louder",
+            "trend",
             "season counts",
             "growing counts",
         ]
@@ -413,7 +407,7 @@ fn outlier_study(count: usize) {
                         continue;
                     }
                     let odd = odd_periods(shape.length, oddity);
-                    let alert: Vec<usize> = outliers(&plan)
+                    let alert: Vec<usize> = outliers(&plan, &s)
                         .map(|o| o.periods.iter().map(|p| p.index).collect())
                         .unwrap_or_default();
                     let former = outliers_scaled(&plan, 0.0);

@@ -33,7 +33,7 @@ pub fn look_ahead(series: &Series, ranked: &ItemPlan, row: &Scored, shown: &Item
         labels,
         history: ranked.history.clone(),
         filled: series.gap_indices(),
-        far: outliers(shown)
+        far: outliers(shown, series)
             .map(|o| o.periods.iter().map(|p| p.index).collect())
             .unwrap_or_default(),
         fitted: shown.fitted.clone(),

@@ -97,7 +97,7 @@ pub fn plan_order(
     if table_given && row.is_none() {
         stock.notes.push(NO_ROW_NOTE.to_string());
     }
-    let alerts = alerts(&plan, series.frequency());
+    let alerts = alerts(&plan, series);
     Ok(ItemOrder {
         plan,
         stock,

@@ -161,7 +161,9 @@ pub struct ItemPlan {
     /// History after gap filling.
     pub history: Vec<f64>,
     /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined; a
-    /// combination's is its members' mean where every member has one).
+    /// combination's is the mean of the members that have one, so that it starts with the
+    /// earliest member: a moving average's window, or a seasonal naive's first season, would
+    /// otherwise leave the first periods without a forecast to judge them by).
     pub fitted: Vec<Option<f64>>,
     /// The forecast periods with their bands.
     pub forecast: Vec<ForecastPoint>,
@@ -386,6 +388,7 @@ fn plan_inner(
         Refit {
             point,
             fitted,
+            fitted_by_all,
             variance,
             fitted_as,
             psi,
@@ -427,7 +430,7 @@ fn plan_inner(
         })
         .collect();
 
-    let residual_mad = mean_abs_residual(&fitted, &history)
+    let residual_mad = mean_abs_residual(&fitted_by_all, &history)
         .or_else(|| ledger.last().map(|e| e.row.mad))
         .unwrap_or(0.0);
     let mad_band = || {
@@ -606,7 +609,12 @@ fn choose(bt: &Backtest, choice: &Choice, demand: &DemandVerdict) -> Option<usiz
 /// undefined) and analytic variances where the method has them.
 struct Refit {
     point: Vec<f64>,
+    /// The one-step fit; a combination's is the mean of the members that have one (so it
+    /// starts where its earliest member does).
     fitted: Vec<Option<f64>>,
+    /// The same where every member has one: what the MAD rule's residuals were measured on
+    /// before the fit started with the earliest member (kept so its bands stay as measured).
+    fitted_by_all: Vec<Option<f64>>,
     variance: Option<Vec<f64>>,
     /// The candidate with each member as fitted: [`MethodKind::SmoothingByAicc`] replaced by
     /// the model it chose.
@@ -723,18 +731,26 @@ fn refit(
         return Ok(Refit {
             point: f.forecast().to_vec(),
             fitted: f.fitted().to_vec(),
+            fitted_by_all: f.fitted().to_vec(),
             variance: f.variance().map(<[f64]>::to_vec),
             fitted_as: Candidate::Method(f.kind()),
             psi,
         });
     }
     let forecasts: Vec<Vec<f64>> = fits.iter().map(|f| f.forecast().to_vec()).collect();
-    let fitted = (0..history.len())
+    let fitted_by_all = (0..history.len())
         .map(|t| backtest::combine_point(fits.iter().map(|f| f.fitted()[t])))
+        .collect();
+    let fitted = (0..history.len())
+        .map(|t| {
+            let present: Vec<f64> = fits.iter().filter_map(|f| f.fitted()[t]).collect();
+            (!present.is_empty()).then(|| present.iter().sum::<f64>() / present.len() as f64)
+        })
         .collect();
     Ok(Refit {
         point: backtest::combine_forecasts(&forecasts, horizon),
         fitted,
+        fitted_by_all,
         // A combination has no analytic variance: its band comes from rolling-origin errors.
         variance: None,
         fitted_as: Candidate::Combination(fits.iter().map(Fitted::kind).collect()),

@@ -14,6 +14,7 @@ pub use outliers::{
 
 use crate::calendar::Frequency;
 use crate::plan::ItemPlan;
+use crate::series::Series;
 
 /// What an alert is about (for filtering; the reason says the rest).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
@@ -261,8 +262,9 @@ fn season_for_length(plan: &ItemPlan, frequency: Frequency) -> usize {
         .unwrap_or(12)
 }
 
-/// Every alert of a plan, in the order of [`AlertKind`].
-pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
+/// Every alert of a plan made from `series`, in the order of [`AlertKind`].
+pub fn alerts(plan: &ItemPlan, series: &Series) -> Vec<Alert> {
+    let frequency = series.frequency();
     let mut out = Vec::new();
     let mut say = |kind, reason: String| out.push(Alert { kind, reason });
     let sparse = plan.demand.class.is_sparse();
@@ -326,7 +328,7 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
             );
         }
     }
-    if let Some(found) = outliers(plan).filter(|o| !o.periods.is_empty()) {
+    if let Some(found) = outliers(plan, series).filter(|o| !o.periods.is_empty()) {
         say(
             AlertKind::Outliers,
             outliers_reason(plan, &found, frequency),
@@ -352,23 +354,28 @@ pub fn alerts(plan: &ItemPlan, frequency: Frequency) -> Vec<Alert> {
 /// Runs of far periods named at most in the Outliers reason (our choice); the rest counted.
 const RUNS_NAMED: usize = 4;
 
-/// The Outliers reason: the periods by name (runs of neighbouring ones as "from to"), the
-/// largest miss with its demand and fit, the cut, how the errors were weighed, and the
-/// periods before the fit starts, which are not judged themselves.
+/// The Outliers reason: the periods by name (runs of neighbouring ones as "from to"; the
+/// first [`RUNS_NAMED`] runs, then how many periods more), the largest miss with its demand and
+/// forecast, the cut, how the misses were weighed, and the periods before the fit starts, which
+/// are not judged themselves.
 fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> String {
     let (one, many) = frequency.period_words();
-    let name = |index: usize| period_name(plan, index);
-    let mut runs: Vec<(usize, usize)> = Vec::new();
+    let words = |count: usize| if count == 1 { one } else { many };
+    let name = |index: usize| period_name(plan, index, frequency);
+    let mut runs: Vec<(usize, usize, usize)> = Vec::new(); // first, last, periods
     for far in &found.periods {
         match runs.last_mut() {
-            Some((_, last)) if *last + 1 == far.index => *last = far.index,
-            _ => runs.push((far.index, far.index)),
+            Some((_, last, count)) if *last + 1 == far.index => {
+                *last = far.index;
+                *count += 1;
+            }
+            _ => runs.push((far.index, far.index, 1)),
         }
     }
     let mut named: Vec<String> = runs
         .iter()
         .take(RUNS_NAMED)
-        .map(|(first, last)| {
+        .map(|(first, last, _)| {
             if first == last {
                 name(*first)
             } else {
@@ -376,8 +383,9 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
             }
         })
         .collect();
-    if runs.len() > RUNS_NAMED {
-        named.push(format!("and {} more", runs.len() - RUNS_NAMED));
+    let rest: usize = runs.iter().skip(RUNS_NAMED).map(|r| r.2).sum();
+    if rest > 0 {
+        named.push(format!("and {rest} more {}", words(rest)));
     }
     let count = found.periods.len();
     let largest = found
@@ -385,7 +393,11 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
         .iter()
         .max_by(|a, b| a.z.abs().total_cmp(&b.z.abs()))
         .map(|far| {
-            let figures = format!("demand {} against a forecast of {:.1}", far.demand, far.fit);
+            let figures = format!(
+                "demand {} against a forecast of {:.1}",
+                figure(far.demand),
+                far.fit
+            );
             if count == 1 {
                 format!(", {figures}")
             } else {
@@ -395,8 +407,8 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
         .unwrap_or_default();
     let weighed = if found.power > 0.0 {
         format!(
-            ", each error weighed against the forecast's size to the power {:.2}, as the \
-             errors grow with it",
+            "; larger forecasts are allowed larger misses, since this item's misses grow with \
+             its forecast (as its size to the power {:.2})",
             found.power
         )
     } else {
@@ -404,9 +416,10 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
     };
     let unjudged = if found.first_judged > 1 {
         format!(
-            "; the first {} {many} come before the fit starts and show only through the {many} \
-             after them",
-            found.first_judged
+            ". The first {} {} have no forecast to be judged by: a typing error there shows \
+             only as misses in the {many} after it",
+            found.first_judged,
+            words(found.first_judged)
         )
     } else {
         String::new()
@@ -414,21 +427,33 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
     format!(
         "{count} {} the fit misses by far more than the rest: {}{largest} (modified z-score \
          above {:.1}{weighed}); check {} for one-off events or typing errors{unjudged}",
-        if count == 1 { one } else { many },
+        words(count),
         named.join(", "),
         found.cut,
         if count == 1 { "it" } else { "them" },
     )
 }
 
+/// A demand as the file would have it: whole numbers bare, else to one decimal.
+fn figure(value: f64) -> String {
+    if value.fract() == 0.0 {
+        format!("{value:.0}")
+    } else {
+        format!("{value:.1}")
+    }
+}
+
 /// The name of the history's period at `index` (counted back from the first forecast
-/// period); "period N" where the plan has no forecast to count from.
-fn period_name(plan: &ItemPlan, index: usize) -> String {
-    match plan.forecast.first() {
-        Some(first) => {
-            let back = plan.history.len() as i64 - index as i64;
-            first.period.offset(-back).to_string()
-        }
+/// period); "period N" for undated data, or where the plan has no forecast to count from.
+fn period_name(plan: &ItemPlan, index: usize, frequency: Frequency) -> String {
+    let back = plan.history.len() as i64 - index as i64;
+    match plan
+        .forecast
+        .first()
+        .map(|first| first.period.offset(-back))
+    {
+        Some(period) if frequency != Frequency::Undated => period.to_string(),
+        Some(period) => format!("period {period}"),
         None => format!("period {}", index + 1),
     }
 }

@@ -5,6 +5,7 @@
 //! fit (the plan is taken as made).
 
 use crate::plan::ItemPlan;
+use crate::series::Series;
 
 /// Modified z-score beyond which a one-step error is an outlier: 3.5 (Iglewicz & Hoaglin 1993,
 /// "How to detect and handle outliers"), with z = 0.6745 (e - median) / MAD over the errors;
@@ -29,6 +30,16 @@ pub const SIZE_FLOOR: f64 = 0.1;
 /// lower third's (our choice): below it, the power hardly changes the divided errors and the
 /// thirds' spreads are mostly noise.
 pub const LEVEL_RATIO_FOR_POWER: f64 = 2.0;
+
+/// The power is read only where the upper third's spread passes the lower third's by more
+/// than chance explains: ln(s_high / s_low) above this one-sided 5 % normal quantile times its
+/// standard error under equal spreads ([`LOG_MEDIAN_SPREAD_SD`] sqrt(2 / k), k errors a third).
+pub const POWER_TEST_Z: f64 = 1.645;
+
+/// The standard deviation of the log of the median |e| of k normal errors, times sqrt(k), for
+/// large k: the sample median's variance 1 / (4 k f(m)^2) (Laplace; any statistics text), for
+/// |e| with median m = z(0.75) = 0.6745 and density f(m) = 2 phi(m) = 0.6355, divided by m.
+pub const LOG_MEDIAN_SPREAD_SD: f64 = 1.1664;
 
 /// A period the fit misses by far.
 #[derive(Clone, Debug, PartialEq)]
@@ -60,10 +71,13 @@ pub struct Outliers {
 /// sorted by their fit f and cut in thirds, b = ln(s_high / s_low) / ln(f_high / f_low), s the
 /// median |e| and f the median fit (floored at [`SIZE_FLOOR`] of the median fit) of the lower
 /// and upper third, kept within 0 (noise of one size: errors as they are) and 1 (noise a share
-/// of the level). 0 where a third holds fewer than 4 errors, either spread is 0, or f_high <
-/// [`LEVEL_RATIO_FOR_POWER`] f_low. Count-like (Poisson) noise gives about 1/2. Medians, so that
-/// the outliers themselves hardly move it. A robust form of reading the power of the variance
-/// against the mean (Taylor 1961, Nature 189, for counts); the thirds are our choice.
+/// of the level). 0 where a third holds fewer than 4 errors, either spread is 0, f_high <
+/// [`LEVEL_RATIO_FOR_POWER`] f_low, or s_high does not pass s_low by more than chance explains
+/// ([`POWER_TEST_Z`]). Count-like (Poisson) noise gives about 1/2. Medians; still, the errors a
+/// typing error causes (its own and the fit's after it) can fill a third, so [`outliers`] reads
+/// the power without the errors that stand out as they are. A robust form of reading the power
+/// of the variance against the mean (Taylor 1961, Nature 189, for counts); the thirds and the
+/// test are our choice.
 pub fn spread_power(pairs: &[(f64, f64)]) -> f64 {
     let third = pairs.len() / 3;
     if third < 4 {
@@ -87,6 +101,10 @@ pub fn spread_power(pairs: &[(f64, f64)]) -> f64 {
     if level_high < LEVEL_RATIO_FOR_POWER * level_low || spread_low <= 0.0 || spread_high <= 0.0 {
         return 0.0;
     }
+    let chance = POWER_TEST_Z * LOG_MEDIAN_SPREAD_SD * (2.0 / third as f64).sqrt();
+    if (spread_high / spread_low).ln() <= chance {
+        return 0.0;
+    }
     ((spread_high / spread_low).ln() / (level_high / level_low).ln()).clamp(0.0, 1.0)
 }
 
@@ -96,30 +114,54 @@ fn size_floor(pairs: &[(f64, f64)]) -> f64 {
     (SIZE_FLOOR * median_fit).max(f64::MIN_POSITIVE)
 }
 
-/// The Outliers rule on a plan's one-step fit (errors forecast minus demand): each error over
-/// max(f, floor)^b ([`spread_power`]), then a modified z-score above [`outlier_cut`] for the
-/// count. `None` where no period has a fit, and for sparse demand, where every demand period
-/// stands out against the zeros (its own alert says so).
-pub fn outliers(plan: &ItemPlan) -> Option<Outliers> {
+/// The Outliers rule on a plan's one-step fit (errors forecast minus demand) over the periods
+/// `series` (the plan's) did not have filled in: each error over max(f, floor)^b, b read by
+/// [`spread_power`] from the errors that do not stand out as they are and whose forecast lies
+/// within those periods' demands, then a modified z-score
+/// above [`outlier_cut`] for the count. `None` where no period is judged, and for sparse demand,
+/// where every demand period stands out against the zeros (its own alert says so).
+pub fn outliers(plan: &ItemPlan, series: &Series) -> Option<Outliers> {
     if plan.demand.class.is_sparse() {
         return None;
     }
+    let filled = series.gap_indices();
     let judged: Vec<(usize, f64, f64)> = plan
         .fitted
         .iter()
         .zip(&plan.history)
         .enumerate()
+        .filter(|(t, _)| !filled.contains(t))
         .filter_map(|(t, (f, d))| f.map(|f| (t, f, *d)))
         .collect();
     let first_judged = judged.first()?.0;
     let pairs: Vec<(f64, f64)> = judged.iter().map(|(_, f, d)| (*f, f - d)).collect();
-    let power = spread_power(&pairs);
+    let cut = outlier_cut(pairs.len());
+    let as_they_are = modified_z(&pairs.iter().map(|p| p.1).collect::<Vec<_>>());
+    // The power from the ordinary periods alone: those whose error does not stand out as it
+    // is, and whose forecast lies within the ordinary periods' demand (a forecast beyond every
+    // ordinary demand is the fit thrown off by an odd period, not the item's size).
+    let is_ordinary: Vec<bool> = as_they_are.iter().map(|z| z.abs() <= cut).collect();
+    let ordinary_demand = judged
+        .iter()
+        .zip(&is_ordinary)
+        .filter(|(_, ordinary)| **ordinary)
+        .map(|((_, _, d), _)| *d);
+    let (lowest, highest) = ordinary_demand
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), d| {
+            (lo.min(d), hi.max(d))
+        });
+    let ordinary: Vec<(f64, f64)> = pairs
+        .iter()
+        .zip(&is_ordinary)
+        .filter(|(p, ordinary)| **ordinary && (lowest..=highest).contains(&p.0))
+        .map(|(p, _)| *p)
+        .collect();
+    let power = spread_power(&ordinary);
     let floor = size_floor(&pairs);
     let scaled: Vec<f64> = pairs
         .iter()
         .map(|(f, e)| e / f.max(floor).powf(power))
         .collect();
-    let cut = outlier_cut(scaled.len());
     let periods = modified_z(&scaled)
         .into_iter()
         .zip(&judged)
@@ -191,10 +233,18 @@ mod tests {
         };
         check([1.0, 1.0, 1.0], 0.0); // one size
         check([1.0, 2.0, 4.0], 1.0); // a share of the level: ln 4 / ln 4
-        check([1.0, 1.5, 2.0], 0.5); // like counts: ln 2 / ln 4
         check([4.0, 2.0, 1.0], 0.0); // shrinking: kept at 0
         check([1.0, 4.0, 16.0], 1.0); // faster than the level: kept at 1
-                                      // Fits within 1.5 times each other: not read.
+                                      // Like counts, ln 2 / ln 4, but with thirds of 4 a spread twice the other's is within
+                                      // chance: 1.645 * 1.1664 * sqrt(2 / 4) = 1.357 > ln 2. With thirds of 40 (0.429) it is
+                                      // read.
+        check([1.0, 1.5, 2.0], 0.0);
+        let many: Vec<(f64, f64)> = [(10.0, 1.0), (20.0, 1.5), (40.0, 2.0)]
+            .iter()
+            .flat_map(|(f, s)| (0..40).map(move |i| (*f, if i % 2 == 0 { *s } else { -s })))
+            .collect();
+        assert!((spread_power(&many) - 0.5).abs() < 1e-12);
+        // Fits within twice each other: not read.
         let flat: Vec<(f64, f64)> = (0..12).map(|t| (10.0 + t as f64 / 4.0, t as f64)).collect();
         assert_eq!(spread_power(&flat), 0.0);
         // Too few for thirds of 4.
