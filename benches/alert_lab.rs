@@ -158,6 +158,15 @@ fn series(shape: &Shape, base: Base, change: Change, noise: &mut Noise) -> Serie
     Series::new("made up", shape.start, values).unwrap()
 }
 
+/// Each count of `fired` as a percent of `count`, the columns parted by bars.
+fn percents(fired: &[usize], count: usize) -> String {
+    let pct: Vec<String> = fired
+        .iter()
+        .map(|f| format!("{:5.1}", 100.0 * *f as f64 / count as f64))
+        .collect();
+    pct.join(" |")
+}
+
 /// The rules the Bias alert replaced, for comparison, read off the Error ledger: the holdout's
 /// tracking signal beyond ±4 at its end, and the holdout's mean error more than 2 standard
 /// errors from zero (at least 4 errors).
@@ -241,15 +250,11 @@ fn main() {
                         *f += usize::from(h);
                     }
                 }
-                let pct: Vec<String> = fired
-                    .iter()
-                    .map(|f| format!("{:5.1}", 100.0 * *f as f64 / count as f64))
-                    .collect();
                 println!(
                     "{label:11} {:7} {:22} W={window:3}  {}",
                     format!("{base:?}"),
                     format!("{change:?}"),
-                    pct.join(" |")
+                    percents(&fired, count)
                 );
             }
         }
@@ -423,14 +428,10 @@ fn outlier_study(count: usize) {
                         *f += usize::from(h);
                     }
                 }
-                let pct: Vec<String> = fired
-                    .iter()
-                    .map(|f| format!("{:5.1}", 100.0 * *f as f64 / count as f64))
-                    .collect();
                 println!(
                     "{label:12} {base:14} {:10} {}",
                     format!("{oddity:?}"),
-                    pct.join(" |")
+                    percents(&fired, count)
                 );
             }
         }
