@@ -396,7 +396,8 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
             let figures = format!(
                 "demand {} against a forecast of {:.1}",
                 figure(far.demand),
-                far.fit
+                // Rounded first, so that a forecast just below 0 reads 0.0, not -0.0.
+                (far.fit * 10.0).round() / 10.0 + 0.0
             );
             if count == 1 {
                 format!(", {figures}")
@@ -408,7 +409,7 @@ fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> S
     let weighed = if found.power > 0.0 {
         format!(
             "; larger forecasts are allowed larger misses, since this item's misses grow with \
-             its forecast (as its size to the power {:.2})",
+             its forecast, as its size to the power {:.2}",
             found.power
         )
     } else {

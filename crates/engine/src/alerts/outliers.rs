@@ -36,6 +36,10 @@ pub const LEVEL_RATIO_FOR_POWER: f64 = 2.0;
 /// standard error under equal spreads ([`LOG_MEDIAN_SPREAD_SD`] sqrt(2 / k), k errors a third).
 pub const POWER_TEST_Z: f64 = 1.645;
 
+/// Rounds of reading the power, each from the periods that do not stand out at the power
+/// before (our choice: the third round moved it for few items in the alert laboratory).
+pub const POWER_ROUNDS: usize = 3;
+
 /// The standard deviation of the log of the median |e| of k normal errors, times sqrt(k), for
 /// large k: the sample median's variance 1 / (4 k f(m)^2) (Laplace; any statistics text), for
 /// |e| with median m = z(0.75) = 0.6745 and density f(m) = 2 phi(m) = 0.6355, divided by m.
@@ -114,58 +118,80 @@ fn size_floor(pairs: &[(f64, f64)]) -> f64 {
     (SIZE_FLOOR * median_fit).max(f64::MIN_POSITIVE)
 }
 
-/// The Outliers rule on a plan's one-step fit (errors forecast minus demand) over the periods
-/// `series` (the plan's) did not have filled in: each error over max(f, floor)^b, b read by
-/// [`spread_power`] from the errors that do not stand out as they are and whose forecast lies
-/// within those periods' demands, then a modified z-score
-/// above [`outlier_cut`] for the count. `None` where no period is judged, and for sparse demand,
-/// where every demand period stands out against the zeros (its own alert says so).
+/// The Outliers rule on a plan's one-step fit (errors forecast minus demand) over the periods,
+/// from the second, that `series` (the plan's) did not have filled in: each error over
+/// max(f, floor)^b, b read by [`spread_power`] in up to [`POWER_ROUNDS`] rounds from the errors
+/// that do not stand out at the power before and whose forecast lies within those periods'
+/// demands; a period is far when its modified z-score passes [`outlier_cut`] for the count both
+/// so weighed and as it is. `None` where no period is judged, and for sparse demand, where
+/// every demand period stands out against the zeros (its own alert says so).
 pub fn outliers(plan: &ItemPlan, series: &Series) -> Option<Outliers> {
     if plan.demand.class.is_sparse() {
         return None;
     }
     let filled = series.gap_indices();
+    // Not the first period: its "forecast" comes from starting values fitted on the whole
+    // history (some methods' even from its own demand), which an odd period anywhere pulls.
     let judged: Vec<(usize, f64, f64)> = plan
         .fitted
         .iter()
         .zip(&plan.history)
         .enumerate()
-        .filter(|(t, _)| !filled.contains(t))
+        .filter(|(t, _)| *t > 0 && !filled.contains(t))
         .filter_map(|(t, (f, d))| f.map(|f| (t, f, *d)))
         .collect();
     let first_judged = judged.first()?.0;
     let pairs: Vec<(f64, f64)> = judged.iter().map(|(_, f, d)| (*f, f - d)).collect();
     let cut = outlier_cut(pairs.len());
-    let as_they_are = modified_z(&pairs.iter().map(|p| p.1).collect::<Vec<_>>());
-    // The power from the ordinary periods alone: those whose error does not stand out as it
-    // is, and whose forecast lies within the ordinary periods' demand (a forecast beyond every
-    // ordinary demand is the fit thrown off by an odd period, not the item's size).
-    let is_ordinary: Vec<bool> = as_they_are.iter().map(|z| z.abs() <= cut).collect();
-    let ordinary_demand = judged
-        .iter()
-        .zip(&is_ordinary)
-        .filter(|(_, ordinary)| **ordinary)
-        .map(|((_, _, d), _)| *d);
-    let (lowest, highest) = ordinary_demand
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), d| {
-            (lo.min(d), hi.max(d))
-        });
-    let ordinary: Vec<(f64, f64)> = pairs
-        .iter()
-        .zip(&is_ordinary)
-        .filter(|(p, ordinary)| **ordinary && (lowest..=highest).contains(&p.0))
-        .map(|(p, _)| *p)
-        .collect();
-    let power = spread_power(&ordinary);
     let floor = size_floor(&pairs);
-    let scaled: Vec<f64> = pairs
-        .iter()
-        .map(|(f, e)| e / f.max(floor).powf(power))
-        .collect();
-    let periods = modified_z(&scaled)
+    let scaled_at = |power: f64| -> Vec<f64> {
+        pairs
+            .iter()
+            .map(|(f, e)| e / f.max(floor).powf(power))
+            .collect()
+    };
+    // The power from the ordinary periods alone: those whose error does not stand out, and
+    // whose forecast lies within the ordinary periods' demand (a forecast beyond every
+    // ordinary demand is the fit thrown off by an odd period, not the item's size). Which
+    // errors stand out depends on the power, so it is read in rounds from 0: judged as they
+    // are, the loud errors of an item whose noise grows with its level stand out and would
+    // hide the very growth that explains them.
+    let mut power = 0.0;
+    for _ in 0..POWER_ROUNDS {
+        let is_ordinary: Vec<bool> = modified_z(&scaled_at(power))
+            .iter()
+            .map(|z| z.abs() <= cut)
+            .collect();
+        let (lowest, highest) = judged
+            .iter()
+            .zip(&is_ordinary)
+            .filter(|(_, ordinary)| **ordinary)
+            .fold(
+                (f64::INFINITY, f64::NEG_INFINITY),
+                |(lo, hi), ((_, _, d), _)| (lo.min(*d), hi.max(*d)),
+            );
+        let ordinary: Vec<(f64, f64)> = pairs
+            .iter()
+            .zip(&is_ordinary)
+            .filter(|(p, ordinary)| **ordinary && (lowest..=highest).contains(&p.0))
+            .map(|(p, _)| *p)
+            .collect();
+        let next = spread_power(&ordinary);
+        if next == power {
+            break;
+        }
+        power = next;
+    }
+    // A period must stand out both weighed and as it is: the weighing only takes away alarms
+    // (a loud stretch of a growing item), never adds them (a fit that a typo made rough
+    // everywhere can read a power that blows up the small early misses).
+    let as_they_are = modified_z(&scaled_at(0.0));
+    let periods = modified_z(&scaled_at(power))
         .into_iter()
+        .zip(&as_they_are)
         .zip(&judged)
-        .filter(|(z, _)| z.abs() > cut)
+        .filter(|((z, z_as_is), _)| z.abs() > cut && z_as_is.abs() > cut)
+        .map(|((z, _), t)| (z, t))
         .map(|(z, (t, f, d))| FarPeriod {
             index: *t,
             demand: *d,
