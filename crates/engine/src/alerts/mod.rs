@@ -8,8 +8,8 @@
 mod outliers;
 
 pub use outliers::{
-    outlier_cut, outliers, spread_power, FarPeriod, Outliers, LEVEL_RATIO_FOR_POWER, OUTLIER_Z,
-    SIZE_FLOOR,
+    outlier_cut, outliers, spread_power, FarPeriod, Outliers, LEVEL_RATIO_FOR_POWER,
+    LOG_MEDIAN_SPREAD_SD, OUTLIER_Z, POWER_ROUNDS, POWER_TEST_Z, SIZE_FLOOR,
 };
 
 use crate::calendar::Frequency;
@@ -329,10 +329,7 @@ pub fn alerts(plan: &ItemPlan, series: &Series) -> Vec<Alert> {
         }
     }
     if let Some(found) = outliers(plan, series).filter(|o| !o.periods.is_empty()) {
-        say(
-            AlertKind::Outliers,
-            outliers_reason(plan, &found, frequency),
-        );
+        say(AlertKind::Outliers, outliers_reason(series, &found));
     }
     // A wide band, except for sparse demand, whose band is always wide against its small mean.
     if let Some(first) = plan.forecast.first().filter(|_| !sparse) {
@@ -358,10 +355,15 @@ const RUNS_NAMED: usize = 4;
 /// first [`RUNS_NAMED`] runs, then how many periods more), the largest miss with its demand and
 /// forecast, the cut, how the misses were weighed, and the periods before the fit starts, which
 /// are not judged themselves.
-fn outliers_reason(plan: &ItemPlan, found: &Outliers, frequency: Frequency) -> String {
+fn outliers_reason(series: &Series, found: &Outliers) -> String {
+    let frequency = series.frequency();
     let (one, many) = frequency.period_words();
     let words = |count: usize| if count == 1 { one } else { many };
-    let name = |index: usize| period_name(plan, index, frequency);
+    // Undated positions read "period 48", so that a position is not taken for a quantity.
+    let name = |index: usize| match frequency {
+        Frequency::Undated => format!("period {}", series.period(index)),
+        _ => series.period(index).to_string(),
+    };
     let mut runs: Vec<(usize, usize, usize)> = Vec::new(); // first, last, periods
     for far in &found.periods {
         match runs.last_mut() {
@@ -441,20 +443,5 @@ fn figure(value: f64) -> String {
         format!("{value:.0}")
     } else {
         format!("{value:.1}")
-    }
-}
-
-/// The name of the history's period at `index` (counted back from the first forecast
-/// period); "period N" for undated data, or where the plan has no forecast to count from.
-fn period_name(plan: &ItemPlan, index: usize, frequency: Frequency) -> String {
-    let back = plan.history.len() as i64 - index as i64;
-    match plan
-        .forecast
-        .first()
-        .map(|first| first.period.offset(-back))
-    {
-        Some(period) if frequency != Frequency::Undated => period.to_string(),
-        Some(period) => format!("period {period}"),
-        None => format!("period {}", index + 1),
     }
 }

@@ -79,7 +79,7 @@ pub struct Outliers {
 /// [`LEVEL_RATIO_FOR_POWER`] f_low, or s_high does not pass s_low by more than chance explains
 /// ([`POWER_TEST_Z`]). Count-like (Poisson) noise gives about 1/2. Medians; still, the errors a
 /// typing error causes (its own and the fit's after it) can fill a third, so [`outliers`] reads
-/// the power without the errors that stand out as they are. A robust form of reading the power
+/// the power from its ordinary periods only. A robust form of reading the power
 /// of the variance against the mean (Taylor 1961, Nature 189, for counts); the thirds and the
 /// test are our choice.
 pub fn spread_power(pairs: &[(f64, f64)]) -> f64 {
@@ -261,9 +261,10 @@ mod tests {
         check([1.0, 2.0, 4.0], 1.0); // a share of the level: ln 4 / ln 4
         check([4.0, 2.0, 1.0], 0.0); // shrinking: kept at 0
         check([1.0, 4.0, 16.0], 1.0); // faster than the level: kept at 1
-                                      // Like counts, ln 2 / ln 4, but with thirds of 4 a spread twice the other's is within
-                                      // chance: 1.645 * 1.1664 * sqrt(2 / 4) = 1.357 > ln 2. With thirds of 40 (0.429) it is
-                                      // read.
+
+        // Like counts, ln 2 / ln 4, but with thirds of 4 a spread twice the other's is within
+        // chance: 1.645 * 1.1664 * sqrt(2 / 4) = 1.357 > ln 2. With thirds of 40 (0.429) it
+        // is read.
         check([1.0, 1.5, 2.0], 0.0);
         let many: Vec<(f64, f64)> = [(10.0, 1.0), (20.0, 1.5), (40.0, 2.0)]
             .iter()
