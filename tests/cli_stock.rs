@@ -3,7 +3,7 @@
 
 use morrowcast_engine::{intake, plan, stock};
 
-use crate::support::{cli, table_file};
+use crate::support::{cli, item_named, table_file};
 
 fn demo() -> Vec<u8> {
     cli(&["demo"], b"").stdout
@@ -215,15 +215,7 @@ fn a_stock_table_gives_on_hand_on_order_and_the_order_today() {
     );
     assert_eq!(out.code, 0, "{}", out.stderr);
     let json = out.json();
-    let item = |name: &str| {
-        json["items"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .find(|i| i["name"] == name)
-            .unwrap()
-            .clone()
-    };
+    let item = |name: &str| item_named(&json, name).clone();
     let seed = item("Seed packets");
     // The row's lead time (2) overrides the file's (1): protection over R + L = 3.
     assert_eq!(seed["protection_periods"], 3);

@@ -83,6 +83,15 @@ pub struct CliRun {
     pub stderr: String,
 }
 
+/// The item named `name` in the command line's JSON (`{"items": [...]}`), failing with the
+/// JSON shown when there is none.
+pub fn item_named<'a>(json: &'a Value, name: &str) -> &'a Value {
+    json["items"]
+        .as_array()
+        .and_then(|items| items.iter().find(|i| i["name"] == name))
+        .unwrap_or_else(|| panic!("no item {name} in {json}"))
+}
+
 impl CliRun {
     /// Standard output as JSON (failing with both streams shown when it is not).
     pub fn json(&self) -> Value {

@@ -327,12 +327,7 @@ fn a_typing_error_is_ringed_where_the_outliers_alert_names_it() {
     assert_eq!(out.code, 0, "{}", out.stderr);
     let json = out.json();
     let alert_of = |item: &str| {
-        json["items"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .find(|p| p["name"] == item)
-            .unwrap()["alerts"]
+        crate::support::item_named(&json, item)["alerts"]
             .as_array()
             .unwrap()
             .iter()

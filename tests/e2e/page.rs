@@ -366,11 +366,5 @@ pub fn engine_plan(text: &str, item: &str) -> Value {
         text.as_bytes(),
     );
     assert_eq!(out.code, 0, "morrowcast forecast failed: {}", out.stderr);
-    let json = out.json();
-    let plan = json["items"]
-        .as_array()
-        .and_then(|items| items.iter().find(|p| p["name"] == item))
-        .unwrap_or_else(|| panic!("no plan for {item} in {json}"))
-        .clone();
-    plan
+    crate::support::item_named(&out.json(), item).clone()
 }
