@@ -8,4 +8,5 @@ mod formats;
 mod last_period;
 mod misreads;
 mod robustness;
+mod sales_reports;
 mod unnamed;

@@ -28,7 +28,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
-use super::table::{overflow, Plan, Table};
+use super::table::{header_is_only, names_no_demand, wide_row_error, Plan, Table};
 use super::text::Record;
 
 mod across;
@@ -127,6 +127,31 @@ struct Entry<'a> {
     row: &'a Record,
 }
 
+/// The error for a period column whose header names weeks and nothing else ("Week", "Wk no")
+/// over labels read as months ("2024-01": January 2024, or week 1?): at its first row, and
+/// nothing is read. Read as months, weekly demand would be planned a month at a time, about a
+/// quarter of the real rate per period.
+fn weeks_read_as_months(
+    table: &Table,
+    column: usize,
+    frequency: Frequency,
+    rows: &[&Record],
+) -> Option<RowError> {
+    let name = table.column_name(column);
+    let weeks = table.header.is_some() && header_is_only(&name, &["week", "weeks", "wk"]);
+    let row = rows.first()?;
+    (weeks && frequency == Frequency::Monthly).then(|| RowError {
+        row: row.line,
+        column: name.clone(),
+        text: row.cells.get(column).cloned().unwrap_or_default(),
+        message: format!(
+            "expected weeks under \"{name}\"; its labels read as months (2024-01 is January \
+             2024), so nothing was read: write weeks with a W (2024-W01), or name the column \
+             Month if they are months"
+        ),
+    })
+}
+
 pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     let rows_read = table.rows.iter().filter(|r| !r.is_blank()).count();
     let slots = MAX_PERIODS as usize + SLOTS_PER_ROW * rows_read;
@@ -163,12 +188,45 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
             table.column_name(j)
         ));
     }
-    for &j in &plan.not_quantities {
+    for &j in &plan.notes {
+        let mut words: Vec<&str> = table
+            .column(j, &table.fitting_rows())
+            .into_iter()
+            .filter(|c| !c.trim().is_empty())
+            .collect();
+        words.sort_unstable();
+        words.dedup();
+        let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
+        let more = if words.len() > 3 { ", ..." } else { "" };
+        let why = match plan.item_columns.first() {
+            Some(&k) => format!(
+                "beside \"{}\", which names the items, it splits no item's period, so its words \
+                 ({}{more}) note the rows rather than name items",
+                table.column_name(k),
+                shown.join(", ")
+            ),
+            None => format!(
+                "each period has one row, so its words ({}{more}) note the periods rather than \
+                 name items, and the table is read as one history",
+                shown.join(", ")
+            ),
+        };
         b.out.warnings.push(format!(
-            "column \"{}\" names a price, an amount of money or an order number, not a \
-             quantity: not used",
+            "column \"{}\" was not used: {why}; to plan them as items, name the column \"item\"",
             table.column_name(j)
         ));
+    }
+    for &j in &plan.not_quantities {
+        let name = table.column_name(j);
+        let what = if names_no_demand(&name) {
+            "a stock level, goods received or returned, a running total or a share, not the \
+             demand"
+        } else {
+            "a price, an amount of money or an order number, not a quantity"
+        };
+        b.out
+            .warnings
+            .push(format!("column \"{name}\" names {what}: not used"));
     }
     for &j in &plan.ignored {
         let why = match plan.layout {
@@ -212,8 +270,8 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         if row.is_blank() {
             blank_lines.push(row.line.to_string());
             positions.push(None);
-        } else if let Some((j, text)) = overflow(row, table.width) {
-            b.reject_wide_row(row, j, text);
+        } else if let Some(error) = wide_row_error(table, row) {
+            b.out.errors.push(error);
             positions.push(None);
         } else {
             kept.push(row);
@@ -249,6 +307,12 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         });
         col
     });
+    if let (Some(col), Some((p, _)), None) = (column.as_ref(), plan.period, plan.split) {
+        if let Some(error) = weeks_read_as_months(table, p, col.frequency, &kept) {
+            b.out.errors.push(error);
+            return b.finish();
+        }
+    }
     if plan.layout != Layout::Across {
         if let Some(col) = column.as_ref() {
             b.out.row_periods = kept
@@ -306,22 +370,6 @@ impl<'a> Builder<'a> {
             text: text.to_string(),
             message,
         });
-    }
-
-    fn reject_wide_row(&mut self, row: &Record, column: usize, text: &str) {
-        let hint = if text.chars().all(|c| c.is_ascii_digit()) && text.len() == 3 {
-            "; a number whose thousands separator is also the delimiter must be quoted, like \
-             \"1,200\""
-        } else {
-            ""
-        };
-        let message = format!(
-            "expected at most {} cells in a row, as in the rest of the table; this row has {} \
-             and was not read{hint}",
-            self.table.width,
-            row.cells.len()
-        );
-        self.error(row.line, column, text, message);
     }
 
     /// Reads one value cell: `Ok(None)` for an empty cell, `Err(())` when reported as an error.
@@ -389,6 +437,36 @@ impl<'a> Builder<'a> {
         );
         self.error(row, column, name, message);
         false
+    }
+
+    /// The error for a table of one row per period whose rows leave more periods without a
+    /// row than they hold (`missing`), at the first row after a gap; nothing is read. The
+    /// labels most likely mean other periods ("Jan-01" to "Jan-20", days, read as January of
+    /// 2001 to 2020), or the export leaves out the periods without sales: filled as gaps and
+    /// interpolated, most of the history would be made up.
+    fn mostly_missing(&mut self, unique: &[Entry<'a>], missing: usize, column: usize) {
+        let Some(pair) = unique
+            .windows(2)
+            .find(|w| w[0].period.steps_to(w[1].period) > 1)
+        else {
+            return;
+        };
+        let (first, last) = (unique[0].period, unique[unique.len() - 1].period);
+        let frequency = self.out.frequency.map_or("", |f| f.as_str());
+        let cell = self.period_text(pair[1].row);
+        self.error(
+            pair[1].row.line,
+            column,
+            &cell,
+            format!(
+                "expected periods that follow each other: read as {frequency} periods from \
+                 {first} to {last}, the {} rows leave {missing} periods without a row, more than \
+                 they hold, so nothing was read; if the labels mean other periods (days written \
+                 like Jan-01), write whole dates such as 2024-01-01; if the periods without a \
+                 row had no sales, give them rows with 0",
+                unique.len()
+            ),
+        );
     }
 
     fn gap_warning(&mut self, names: &[String], missing: &[String]) {
@@ -502,6 +580,10 @@ impl<'a> Builder<'a> {
             .filter(|i| !present[*i as usize])
             .map(|i| start.offset(i).to_string())
             .collect();
+        if dated && missing.len() > unique.len() {
+            self.mostly_missing(&unique, missing.len(), period_column);
+            return;
+        }
         let mut items: Vec<Item> = Vec::new();
         let value_columns = self.plan.values.clone();
         let mut names = Names::default();

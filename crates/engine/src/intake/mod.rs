@@ -74,6 +74,20 @@
 //! - A total among the items (a "total" column, "All items" rows: an item equal to the sum of
 //!   the others in every period, module `totals`) is left out with a warning naming it, so
 //!   its demand is not ordered twice.
+//! - Shapes of hand-made sales reports, each refused or read as it means (module `table`
+//!   unless named): a row with more cells than the header names is an error at each such row
+//!   (a decimal comma unquoted in a comma file would move numbers into the next item);
+//!   months, quarters or weekdays across the header over a row per year or week are a grid,
+//!   refused at the header; a column naming a stock level, goods received or returned, a
+//!   running total or a share is no item and no quantity ("Qty on hand", "YTD Units"); text
+//!   beside one row per period (a comment, a supplier) notes the periods and is left out, as
+//!   is one beside an item column that splits no item's period; number columns are read as
+//!   item codes without a header word saying so only where every code stands on half the
+//!   periods or more (a wide table with one period repeated stays wide, the repeat an error);
+//!   labels read as months under a header naming weeks are an error (`build`); rows leaving
+//!   more periods without a row than they hold are an error, nothing read (`build`); a
+//!   subtotal with a total's word under the items it adds up ("Garden subtotal", "Total
+//!   Inventory") is left out (`totals`).
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space or
 //!   case are one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
@@ -373,6 +387,19 @@ fn read_text(text: &str) -> IntakeReport {
              \"Series 1\", \"Series 2\", ..."
                 .to_string(),
         );
+    }
+    // Rows that are all wider than the header: each is an error of its own (read as columns
+    // of their own, the numbers after a split decimal comma would move into other items).
+    if table.fitting_rows().is_empty() {
+        report.errors.extend(
+            table
+                .rows
+                .iter()
+                .filter_map(|row| table::wide_row_error(&table, row)),
+        );
+        if !report.errors.is_empty() {
+            return report;
+        }
     }
     let plan = match table::plan(&table) {
         Ok(plan) => plan,

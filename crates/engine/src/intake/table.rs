@@ -37,9 +37,14 @@
 //! a period ("week", "Month no"; not "Day lily" or "Year planner", items' names), are
 //! neither items nor quantities ([`calendar_columns`]): left out with a warning; with no
 //! period to place them they are an error at their first cell, since read in file order
-//! they could misplace a period. In a single or wide table, a number column whose header
-//! names a price, money or an order number and nothing else ([`names_money`],
-//! [`names_order_number`]) is no item: left out with a warning. A
+//! they could misplace a period. Number columns headed by months, quarters, weeks or
+//! weekdays are a grid of values with the calendar across the header: refused
+//! ([`calendar_grid`]). In a single or wide table, a number column whose header
+//! names a price, money, an order number, a stock level or a running total and nothing else
+//! ([`names_money`], [`names_order_number`], [`names_no_demand`]) is no item: left out with a
+//! warning. Text columns that note the periods rather than name items are left out with a
+//! warning ([`notes_columns`]). The header fixes the table's width: a row with a cell past
+//! it is an error ([`wide_row_error`]). A
 //! column is a value column when at least half of its cells that hold something (not empty, not
 //! "n/a") read as numbers, or when fewer than half of its rows hold something (an item column
 //! names the item on most rows, so one word in a column of gaps is a bad quantity); otherwise it
@@ -123,7 +128,7 @@ impl Table {
 }
 
 /// The first non-empty cell beyond `width`, as (column index, text).
-pub(crate) fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
+fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
     record
         .cells
         .iter()
@@ -131,6 +136,38 @@ pub(crate) fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
         .skip(width)
         .find(|(_, c)| !c.is_empty())
         .map(|(i, c)| (i, c.as_str()))
+}
+
+/// The error for a row with a cell beyond the table's width (the header's, when there is
+/// one), at that cell; `None` when the row fits.
+pub(crate) fn wide_row_error(table: &Table, row: &Record) -> Option<RowError> {
+    let (column, text) = overflow(row, table.width)?;
+    let hint = if text.chars().all(|c| c.is_ascii_digit()) && text.len() == 3 {
+        "; a number whose thousands separator is also the delimiter must be quoted, like \
+         \"1,200\""
+    } else if looks_number(text) {
+        "; a number whose decimal comma is also the delimiter must be quoted, like \"12,5\" (or \
+         the file saved with semicolons), and a column the header does not name needs a name \
+         there"
+    } else {
+        ""
+    };
+    let named_by = if table.header.is_some() {
+        "as the header names"
+    } else {
+        "as in the rest of the table"
+    };
+    Some(RowError {
+        row: row.line,
+        column: table.column_name(column),
+        text: text.to_string(),
+        message: format!(
+            "expected at most {} cells in a row, {named_by}; this row has {} and was not \
+             read{hint}",
+            table.width,
+            row.cells.len()
+        ),
+    })
 }
 
 /// The most common width; ties go to the narrower, so one over-long row among two does not
@@ -329,13 +366,17 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .map(|r| r.cells.len())
         .collect();
     let header_width = header.as_ref().map_or(0, |h| h.cells.len());
-    let (data_width, count) = mode_preferring_narrow(&data_widths);
-    // The header fixes the width unless most rows are wider (a header missing a name).
-    let width = if header_width > 0 && !(data_width > header_width && count * 2 > data_widths.len())
-    {
+    let (data_width, _) = mode_preferring_narrow(&data_widths);
+    // The header fixes the width: a row with more cells than it names is an error at each
+    // such row, never columns of its own. Rows wider than the header are mostly numbers
+    // with a decimal comma, unquoted in a comma-separated file ("12,5" read as 12 and 5
+    // would move every later number into the next item's column), or a header missing a
+    // name, and which column lacks it the text cannot say. Without a header, the most
+    // common width.
+    let width = if header_width > 0 {
         header_width
     } else {
-        header_width.max(data_width)
+        data_width
     };
     let width = width.max(1);
     Table {
@@ -380,6 +421,9 @@ pub(crate) struct Plan {
     /// money or an order number ([`names_money`], [`names_order_number`]): not items; not
     /// read, and the report says so.
     pub not_quantities: Vec<usize>,
+    /// Text columns beside one row per period that note the periods ("ok", "promo", a
+    /// supplier) rather than name items ([`notes_columns`]): not read; the report says so.
+    pub notes: Vec<usize>,
     /// Columns that make the period together with the period column, a year: a month,
     /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
     pub split: Option<SplitPeriod>,
@@ -438,6 +482,11 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         item_columns.retain(|j| !split.columns().contains(j));
         period = Some((split.year(), None));
     }
+    // Number columns headed by months, quarters or weekdays hold one item's values, the
+    // calendar across the header ([`calendar_grid`]).
+    if let Some(error) = calendar_grid(table, &numeric) {
+        return Err(error);
+    }
     // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
     // beside, they are the only time the table gives, and not enough to place a row.
     let mut calendar: Vec<usize> = calendar_columns(table, &rows, &item_columns, false);
@@ -494,6 +543,10 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     } else {
         Vec::new()
     };
+    // Words beside one row per period note the periods rather than name items, unless the
+    // header says they name items ([`notes_columns`]).
+    let notes = notes_columns(table, &rows, &item_columns, &period_refs);
+    item_columns.retain(|j| !notes.contains(j));
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
     let codes: Vec<usize> = match period {
@@ -571,7 +624,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             .copied()
             .filter(|j| {
                 let name = table.column_name(*j);
-                table.header.is_some() && (names_money(&name) || names_order_number(&name))
+                table.header.is_some()
+                    && (names_money(&name) || names_order_number(&name) || names_no_demand(&name))
             })
             .collect()
     };
@@ -616,8 +670,60 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         row_numbers,
         calendar,
         not_quantities,
+        notes,
         split,
     })
+}
+
+/// Of the text columns `item_columns`, those that note the periods rather than name items:
+/// all of them when each period stands on one row only (`periods`, the period cells, never
+/// repeating) and no header among them names items ([`ITEM_WORDS`], stores among them, or
+/// "name", "description"); beside columns whose header names items, the others, when those
+/// alone hold each item's period on one row. `Month,Qty,Comment` over "ok", "promo", "ok" is
+/// one item's history with a note beside it; read as items, "ok" and "promo" would split it,
+/// with the months of the other read as no sales. A table of several items has each period
+/// on several rows.
+fn notes_columns(
+    table: &Table,
+    rows: &[&Record],
+    item_columns: &[usize],
+    periods: &[&str],
+) -> Vec<usize> {
+    const NAME_WORDS: [&str; 4] = ["name", "names", "description", "desc"];
+    let names_items = |j: &usize| {
+        let name = table.column_name(*j);
+        table.header.is_some()
+            && (header_says(&name, &ITEM_WORDS) || header_says(&name, &NAME_WORDS))
+    };
+    if item_columns.is_empty() || periods.len() != rows.len() {
+        return Vec::new();
+    }
+    let (named, unnamed): (Vec<usize>, Vec<usize>) =
+        item_columns.iter().partition(|j| names_items(j));
+    // One name on every row names the one item; notes split it.
+    let splits = |j: &usize| {
+        let mut cells: Vec<&str> = table.column(*j, rows);
+        cells.retain(|c| !c.trim().is_empty());
+        cells.sort_unstable();
+        cells.dedup();
+        cells.len() >= 2
+    };
+    if named.is_empty() {
+        return if all_distinct(periods) && unnamed.iter().any(splits) {
+            unnamed
+        } else {
+            Vec::new()
+        };
+    }
+    // Beside a column naming the items, another text column that splits no item's period
+    // (`Month,Item,Supplier,Qty`: each item once a month whatever its supplier) notes the
+    // rows too. Where it does split them (a payment or sale type, rows to add up or not),
+    // the joined names show the split.
+    if !unnamed.is_empty() && once_per_period(&columns_of(table, rows, &named), periods) {
+        unnamed
+    } else {
+        Vec::new()
+    }
 }
 
 /// Words of a header cell that name the item (or the store it is sold at), that name a
@@ -705,6 +811,41 @@ fn calendar_columns(
             !cells.is_empty() && named * 2 > cells.len()
         })
         .collect()
+}
+
+/// The error for a grid of one item's values with part of the calendar across the header
+/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun`): at least two of the
+/// number columns `numeric`, and more than half of them, headed by month, quarter, week or
+/// weekday names or times of day ([`calendar_name`]). Read as a table of items, each month
+/// would be an item of its own with a value a year, forecast by the year; so the table is
+/// refused at its first such header cell, as [`super::across`] refuses the same grid turned
+/// round. `None` otherwise.
+fn calendar_grid(table: &Table, numeric: &[usize]) -> Option<RowError> {
+    let header = table.header.as_ref()?;
+    let named: Vec<usize> = numeric
+        .iter()
+        .copied()
+        .filter(|j| header.cells.get(*j).is_some_and(|c| calendar_name(c)))
+        .collect();
+    let &first = named.first()?;
+    (named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| RowError {
+        row: header.line,
+        column: table.column_name(first),
+        text: table.column_name(first),
+        message: format!(
+            "expected items or quantities under the header; {} name parts of the calendar \
+             (months, quarters, weeks, weekdays or times of day), so the table is a grid with \
+             the calendar across the header: write one row per period (e.g. 2023-01,5; with an \
+             item column where there are several items), or year, month and quantity columns",
+            named
+                .iter()
+                .take(3)
+                .map(|j| table.column_name(*j))
+                .chain((named.len() > 3).then(|| "...".to_string()))
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+    })
 }
 
 /// The error for calendar column `j` when the table has no period to place its rows: at the
@@ -899,6 +1040,53 @@ pub(super) fn names_money(name: &str) -> bool {
     holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
+/// Header words that name a stock level, goods coming in or going back, a running total or a
+/// share: figures beside the sales, never the demand itself ("Stock on hand", "Units in
+/// stock", "YTD Units", "Closing stock", "Received", "Returned", "Share %").
+const NO_DEMAND_WORDS: [&str; 20] = [
+    "stock",
+    "inventory",
+    "hand",
+    "onhand",
+    "soh",
+    "ytd",
+    "mtd",
+    "cumulative",
+    "cum",
+    "running",
+    "opening",
+    "closing",
+    "balance",
+    "received",
+    "receipts",
+    "returned",
+    "returns",
+    "refunds",
+    "share",
+    "percent",
+];
+
+/// Words that stand beside a [`NO_DEMAND_WORDS`] word in a header that names such a figure and
+/// nothing else ("Qty on hand", "Units in stock", "Year to date sales", "Stock level").
+const NO_DEMAND_COMPANIONS: [&str; 20] = [
+    "on", "in", "at", "of", "to", "date", "qty", "quantity", "units", "pcs", "sales", "sold",
+    "level", "total", "end", "start", "year", "month", "period", "pct",
+];
+
+/// Whether a header names a stock level, a running total or another figure beside the demand
+/// and nothing else ([`NO_DEMAND_WORDS`] with only their companions: "Qty on hand" and "YTD
+/// Units" do, "Stock pot" and "Sales" do not). Read as demand, such a column would be planned
+/// as an item (a wide table) or read as the quantity sold (a long table's "Units in stock"
+/// before "Units sold"). Common practice: sales reports carry these columns beside the sales.
+pub(super) fn names_no_demand(name: &str) -> bool {
+    let allowed: Vec<&str> = NO_DEMAND_WORDS
+        .iter()
+        .chain(&NO_DEMAND_COMPANIONS)
+        .copied()
+        .collect();
+    header_is_only(name, &allowed) && header_says(name, &NO_DEMAND_WORDS)
+}
+
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
 /// "Invoice no", "Receipt").
 pub(super) fn names_order_number(name: &str) -> bool {
@@ -914,36 +1102,41 @@ pub(super) fn names_order_number(name: &str) -> bool {
 /// Of a long table's number columns left for quantities, the position of the one read: the
 /// first whose header names a count of goods ([`UNIT_WORDS`]: "Qty", "Pcs", "Count"), else
 /// one named a quantity ([`QUANTITY_WORDS`]: "sales"), neither naming money or a size
-/// ([`MONEY_WORDS`], a currency sign); else the first whose header names no item, period,
-/// other thing or money; else the first (`date,item,store,sales` reads "sales", not the store
+/// ([`MONEY_WORDS`], a currency sign) nor a stock level or running total ([`names_no_demand`]:
+/// "Units in stock"); else the first whose header names no item, period, other thing, money or
+/// stock; else the first (`date,item,store,sales` reads "sales", not the store
 /// numbers; `Date,Item,Unit price,Count` reads "Count"; the rest are reported as not used).
 fn quantity_among(table: &Table, values: &[usize]) -> usize {
     let says = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
     if table.header.is_none() {
         return 0;
     }
-    let money = |j: usize| says(j, &MONEY_WORDS) || holds_currency_sign(&table.column_name(j));
+    let not_demand = |j: usize| {
+        says(j, &MONEY_WORDS)
+            || holds_currency_sign(&table.column_name(j))
+            || names_no_demand(&table.column_name(j))
+    };
     // A count without a unit of measure before one with it ("Units" before "Qty (kg)").
     let measured = |j: usize| table.column_name(j).contains('(');
     values
         .iter()
-        .position(|j| says(*j, &UNIT_WORDS) && !money(*j) && !measured(*j))
+        .position(|j| says(*j, &UNIT_WORDS) && !not_demand(*j) && !measured(*j))
         .or_else(|| {
             values
                 .iter()
-                .position(|j| says(*j, &UNIT_WORDS) && !money(*j))
+                .position(|j| says(*j, &UNIT_WORDS) && !not_demand(*j))
         })
         .or_else(|| {
             values
                 .iter()
-                .position(|j| says(*j, &QUANTITY_WORDS) && !money(*j))
+                .position(|j| says(*j, &QUANTITY_WORDS) && !not_demand(*j))
         })
         .or_else(|| {
             values.iter().position(|j| {
                 !says(*j, &ITEM_WORDS)
                     && !says(*j, &PERIOD_WORDS)
                     && !says(*j, &OTHER_WORDS)
-                    && !money(*j)
+                    && !not_demand(*j)
             })
         })
         .unwrap_or(0)
@@ -983,8 +1176,8 @@ fn codes_beside_names(
 /// where the header names some as items, those together if their numbers are item codes
 /// ([`item_codes`]) and none otherwise (the header has said which they are; the shape alone
 /// must not pick another); without such words, the first column of item codes whose header
-/// does not name a quantity ([`QUANTITY_WORDS`]). One number column always stays for the
-/// quantities.
+/// does not name a quantity ([`QUANTITY_WORDS`]) and whose every code recurs over at least half
+/// of the periods ([`codes_recur`]). One number column always stays for the quantities.
 fn codes_beside(
     table: &Table,
     rows: &[&Record],
@@ -1004,9 +1197,42 @@ fn codes_beside(
         .iter()
         .copied()
         .filter(|j| !header_says(&table.column_name(*j), &QUANTITY_WORDS))
-        .find(|j| item_codes(&columns(&[*j]), periods))
+        .find(|j| {
+            let column = columns(&[*j]);
+            item_codes(&column, periods) && codes_recur(&column[0], periods)
+        })
         .into_iter()
         .collect()
+}
+
+/// Whether every code in `codes` stands on at least half of the different periods in
+/// `periods` (the two as long). Codes unnamed by the header must show the shape of a product
+/// list: each product sells, or is written, through most of the history. Quantities in a
+/// table of one row per period with one period repeated (a correction row, two exports
+/// stacked) repeat and pair with each period once too, but most of their values stand on a
+/// few periods only; read as codes they would make items of quantities, so that table is
+/// read as it looks, with the repeated period an error. Our choice: half.
+fn codes_recur(codes: &[&str], periods: &[&str]) -> bool {
+    let mut pairs: Vec<(&str, &str)> = codes.iter().copied().zip(periods.iter().copied()).collect();
+    pairs.sort_unstable();
+    pairs.dedup();
+    let mut distinct_periods = periods.to_vec();
+    distinct_periods.sort_unstable();
+    distinct_periods.dedup();
+    let mut start = 0;
+    while start < pairs.len() {
+        let code = pairs[start].0;
+        let end = start
+            + pairs[start..]
+                .iter()
+                .take_while(|(c, _)| *c == code)
+                .count();
+        if 2 * (end - start) < distinct_periods.len() {
+            return false;
+        }
+        start = end;
+    }
+    true
 }
 
 /// In a table of numbers only, with no period column found by its cells: the columns whose

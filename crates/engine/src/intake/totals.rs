@@ -7,7 +7,9 @@
 //!
 //! Subtotals too: an item with a total's name in one part of its joined name ("All stores /
 //! Oak tray") that equals the sum of the items differing from it in that part only ("North /
-//! Oak tray", "South / Oak tray") is left out the same way.
+//! Oak tray", "South / Oak tray"), or with a total's word in its name ("Garden subtotal",
+//! "Total Inventory") that equals the sum of the items just before it, is left out the same
+//! way.
 //!
 //! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
 //! them once built). The rule: at least two other items (or one, beside an item named as a
@@ -96,7 +98,8 @@ fn total_name(name: &str) -> bool {
 }
 
 /// The items whose name, or a part of it joined with " / " (a store or an item column),
-/// is nothing but a total's ([`total_name`]), for the warning when such an item does not add
+/// is nothing but a total's ([`total_name`]) or holds a total's word ([`has_total_word`]),
+/// for the warning when such an item does not add
 /// up to the others: a total whose figures differ (rounded, another filter, a subtotal of
 /// one store's items) must not pass silently as an item.
 pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
@@ -106,7 +109,7 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
     items
         .iter()
         .enumerate()
-        .filter(|(_, item)| item.name.split(" / ").any(total_name))
+        .filter(|(_, item)| item.name.split(" / ").any(total_name) || has_total_word(&item.name))
         .map(|(i, _)| i)
         .collect()
 }
@@ -117,14 +120,16 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
 /// without adding up.
 pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
     let mut subs = subtotals(items);
-    subs.sort_by_key(|s| std::cmp::Reverse(s.index));
-    for sub in subs {
+    for sub in &subs {
         warnings.push(format!(
-            "\"{}\" equals the sum of the {} items it heads in each of the {} periods with \
-             demand: read as their subtotal, not an item, and left out (planned, its demand \
-             would be ordered twice)",
+            "\"{}\" equals the sum of the {} items it stands for in each of the {} periods \
+             with demand: read as their subtotal, not an item, and left out (planned, its \
+             demand would be ordered twice)",
             items[sub.index].name, sub.group, sub.compared
         ));
+    }
+    subs.sort_by_key(|s| std::cmp::Reverse(s.index));
+    for sub in subs {
         items.remove(sub.index);
     }
     let total = total_among(items);
@@ -170,7 +175,10 @@ struct Subtotal {
 /// whose names differ from it in that part only, not a total's there ("All stores / Oak
 /// tray" over "North / Oak tray", "South / Oak tray"); for a name "X Total" ("North Total",
 /// as tables with subtotal rows write them), the items whose name starts with the part X
-/// ("North / Oak tray", ...); two or more of them, whose sum it equals ([`adds_up`]).
+/// ("North / Oak tray", ...); for a name with a total's word anywhere ([`has_total_word`]),
+/// the items just before it in the file, back to the previous such name (a group's subtotal
+/// row or column, "Garden subtotal" under "Seeds" and "Bulbs"); two or more of them, whose
+/// sum it equals ([`adds_up`]).
 fn subtotals(items: &[Item]) -> Vec<Subtotal> {
     let parts: Vec<Vec<&str>> = items
         .iter()
@@ -205,6 +213,22 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
                 }
             }
         }
+        // A row or column named with a total's word under the items it adds up ("Garden
+        // subtotal", "Total Inventory", "Tools totals" below their group): the run of items
+        // just before it, back to the previous such name.
+        if has_total_word(&items[i].name) {
+            let start = (0..i)
+                .rev()
+                .find(|j| has_total_word(&items[*j].name))
+                .map_or(0, |j| j + 1);
+            // A run of every other item is the grand total's case, with its own warning.
+            groups.extend(
+                (start..i.saturating_sub(1))
+                    .rev()
+                    .map(|s| (s..i).collect::<Vec<usize>>())
+                    .filter(|run| run.len() + 1 < items.len()),
+            );
+        }
         for group in groups.into_iter().filter(|g| g.len() >= 2) {
             let members: Vec<&Item> = group.iter().map(|j| &items[*j]).collect();
             if let Some(compared) = adds_up(&items[i], &members) {
@@ -218,6 +242,15 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
         }
     }
     found
+}
+
+/// Whether a name holds a total's word anywhere ("Garden subtotal", "Total Inventory", "Tools
+/// totals", "Sum of bulbs"): enough, with the figures adding up the items just before it,
+/// to take it for their subtotal ([`subtotals`]).
+fn has_total_word(name: &str) -> bool {
+    name.to_lowercase()
+        .split(|c: char| !c.is_alphanumeric())
+        .any(|w| matches!(w, "total" | "totals" | "subtotal" | "subtotals" | "sum"))
 }
 
 /// The periods compared when `total` equals the sum of `group` in every period where every

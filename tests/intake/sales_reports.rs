@@ -1,0 +1,269 @@
+//! Hand-made sales reports a review of 2026-12-04 fed to the reader, as a shop's till or
+//! accounts would export them: each test failed before its fix (a silent misread: numbers read
+//! as item codes, as items of their own or as the demand).
+//!
+//! Kept apart from: generated inputs (`robustness`) and the misreads those found (`misreads`).
+
+use morrowcast_engine::intake::Layout;
+
+use super::expect::{check, some, Expect};
+
+/// One month written twice in a table of one column per item (a correction row, two exports
+/// stacked) is an error at the repeated row; the quantities are never read as item codes.
+#[test]
+fn a_repeated_period_in_a_wide_table_is_an_error_not_item_codes() {
+    check(
+        "Month,Seeds,Bulbs\n2024-01,10,5\n2024-02,12,6\n2024-03,11,7\n2024-03,2,1\n\
+         2024-04,14,6\n2024-05,13,5\n2024-06,15,4\n",
+        Expect {
+            errors: vec![(5, "Month", "2024-03")],
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    let stacked = "Month,Compost,Twine\n2024-01,120,8\n2024-02,131,6\n2024-03,145,9\n\
+                   2024-04,160,7\n2024-01,20,1\n2024-02,31,2\n2024-03,45,3\n2024-04,60,4\n";
+    let report = check(
+        stacked,
+        Expect {
+            errors: vec![
+                (6, "Month", "2024-01"),
+                (7, "Month", "2024-02"),
+                (8, "Month", "2024-03"),
+                (9, "Month", "2024-04"),
+            ],
+            ..Expect::default()
+        },
+    );
+    assert!(report
+        .items
+        .iter()
+        .all(|i| i.name == "Compost" || i.name == "Twine"));
+}
+
+/// Rows with more cells than the header names (decimal commas unquoted in a comma file) are
+/// errors at the first cell past the header, never items "column 4", "column 5".
+#[test]
+fn rows_wider_than_the_header_are_errors() {
+    let report = check(
+        "Month,Seeds,Bulbs\n2024-01,12,5,3,0\n2024-02,13,0,2,5\n2024-03,11,5,3,0\n",
+        Expect {
+            errors: vec![
+                (2, "column 4", "3"),
+                (3, "column 4", "2"),
+                (4, "column 4", "3"),
+            ],
+            ..Expect::default()
+        },
+    );
+    assert!(report.errors[0].message.contains("\"12,5\""));
+    // One row too wide among fitting ones: that row alone.
+    check(
+        "Month,Qty\n2024-01,12,5\n2024-02,13\n2024-03,14\n2024-04,15\n",
+        Expect {
+            errors: vec![(2, "column 3", "5")],
+            ..Expect::default()
+        },
+    );
+}
+
+/// Months, quarters or weekdays across the header over a row per year or week are one item's
+/// grid: refused at the header, never items "Jan" to "Dec" forecast by the year.
+#[test]
+fn a_calendar_across_the_header_is_refused() {
+    for (text, column) in [
+        (
+            "Year,Jan,Feb,Mar,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec\n\
+             2022,10,12,14,13,12,11,10,9,12,14,15,20\n\
+             2023,11,13,15,14,13,12,11,10,13,15,16,21\n",
+            "Jan",
+        ),
+        (
+            "Year,Q1,Q2,Q3,Q4\n2019,90,120,110,150\n2020,95,125,115,155\n",
+            "Q1",
+        ),
+        (
+            "Week,Mon,Tue,Wed,Thu,Fri,Sat,Sun\n2024-W01,10,12,11,13,20,25,5\n\
+             2024-W02,11,12,10,14,21,24,6\n",
+            "Mon",
+        ),
+        (
+            "Item,Year,Jan,Feb,Mar\nSeeds,2023,9,11,13\nSeeds,2024,10,12,14\n",
+            "Jan",
+        ),
+    ] {
+        let report = check(
+            text,
+            Expect {
+                errors: vec![(1, column, column)],
+                ..Expect::default()
+            },
+        );
+        assert!(report.items.is_empty());
+    }
+}
+
+/// A stock level or running total beside the sales is not the demand: a long table reads the
+/// units sold, a wide one leaves such columns out with a warning; "Stock pot" stays an item.
+#[test]
+fn stock_levels_and_running_totals_are_not_the_demand() {
+    check(
+        "Date,Item,Units in stock,Units sold\n2024-01,Seeds,40,10\n2024-01,Bulbs,25,5\n\
+         2024-02,Seeds,30,12\n2024-02,Bulbs,20,6\n2024-03,Seeds,50,11\n2024-03,Bulbs,14,7\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[10.0, 12.0, 11.0])),
+                ("Bulbs", some(&[5.0, 6.0, 7.0])),
+            ]),
+            warned: vec![vec!["\"Units in stock\"", "not used", "\"Units sold\""]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Opening stock,Received,Sold,Closing stock,YTD Units,Qty on hand\n\
+         2024-01,50,100,80,70,80,70\n2024-02,70,90,95,65,175,65\n2024-03,65,100,110,55,285,55\n",
+        Expect {
+            items: Some(vec![("Sold", some(&[80.0, 95.0, 110.0]))]),
+            warned: vec![
+                vec!["\"Opening stock\"", "not the demand"],
+                vec!["\"Received\"", "not the demand"],
+                vec!["\"YTD Units\"", "not the demand"],
+                vec!["\"Qty on hand\"", "not the demand"],
+            ],
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Stock pot,Trowel\n2024-01,4,7\n2024-02,5,8\n2024-03,6,9\n",
+        Expect {
+            items: Some(vec![
+                ("Stock pot", some(&[4.0, 5.0, 6.0])),
+                ("Trowel", some(&[7.0, 8.0, 9.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+}
+
+/// A group's subtotal under its items ("Garden subtotal", "Total Inventory", "Tools totals"),
+/// adding them up, is left out with a warning, as rows, columns or long-table items; one that
+/// does not add up is planned, with a warning.
+#[test]
+fn group_subtotals_are_left_out() {
+    let four = Some(vec![
+        ("Seeds", some(&[10.0, 12.0, 14.0])),
+        ("Bulbs", some(&[5.0, 6.0, 7.0])),
+        ("Hose", some(&[3.0, 4.0, 3.0])),
+        ("Trowel", some(&[2.0, 2.0, 2.0])),
+    ]);
+    for text in [
+        "Item,Jan 2024,Feb 2024,Mar 2024\nSeeds,10,12,14\nBulbs,5,6,7\nGarden subtotal,15,18,21\n\
+         Hose,3,4,3\nTrowel,2,2,2\nTools subtotal,5,6,5\n",
+        "Month,Seeds,Bulbs,Total Inventory,Hose,Trowel,Tools totals\n2024-01,10,5,15,3,2,5\n\
+         2024-02,12,6,18,4,2,6\n2024-03,14,7,21,3,2,5\n",
+    ] {
+        check(
+            text,
+            Expect {
+                items: four.clone(),
+                warned: vec![vec!["subtotal", "left out"]],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Item,Jan 2024,Feb 2024,Mar 2024\nSeeds,10,12,14\nBulbs,5,6,7\nGarden subtotal,15,18,20\n",
+        Expect {
+            warned: vec![vec!["\"Garden subtotal\"", "does not add up", "planned"]],
+            ..Expect::default()
+        },
+    );
+}
+
+/// Words beside one row per period note the periods (a comment, a supplier): the history is
+/// one item, with a warning naming the column; beside an item column, a supplier that splits
+/// no item's month is a note too. "Item" names items whatever the rows.
+#[test]
+fn notes_beside_the_periods_do_not_split_an_item() {
+    check(
+        "Month,Qty,Comment\n2024-01,10,ok\n2024-02,12,promo\n2024-03,11,ok\n2024-04,13,easter\n",
+        Expect {
+            items: Some(vec![("Qty", some(&[10.0, 12.0, 11.0, 13.0]))]),
+            warned: vec![vec!["\"Comment\"", "not used", "\"promo\"", "one history"]],
+            layout: Some(Layout::Single),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Item,Supplier,Qty\n2024-01,Seeds,Acme,10\n2024-01,Bulbs,Acme,5\n\
+         2024-02,Seeds,Bolt,12\n2024-02,Bulbs,Acme,6\n2024-03,Seeds,Bolt,11\n2024-03,Bulbs,Acme,7\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[10.0, 12.0, 11.0])),
+                ("Bulbs", some(&[5.0, 6.0, 7.0])),
+            ]),
+            warned: vec![vec!["\"Supplier\"", "not used"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Item,Qty\n2024-01,Seeds,10\n2024-02,Bulbs,12\n2024-03,Seeds,11\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[10.0, 0.0, 11.0])),
+                ("Bulbs", some(&[12.0])),
+            ]),
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+}
+
+/// Rows that leave more periods without a row than they hold are an error, nothing read:
+/// "Jan-01" to "Jan-20" (days) read as January of 2001 to 2020 would be mostly made up.
+#[test]
+fn mostly_missing_periods_are_an_error_not_a_fill() {
+    let days: String = (1..=20)
+        .map(|d| format!("Jan-{d:02},{}\n", 10 + d % 3))
+        .collect();
+    let report = check(
+        &format!("Date,Qty\n{days}"),
+        Expect {
+            errors: vec![(3, "Date", "Jan-02")],
+            ..Expect::default()
+        },
+    );
+    assert!(report.items.is_empty());
+    // A gap or two is filled, as before.
+    check(
+        "Month,Qty\n2024-01,5\n2024-02,6\n2024-04,7\n2024-05,8\n",
+        Expect {
+            items: Some(vec![(
+                "Qty",
+                vec![Some(5.0), Some(6.0), None, Some(7.0), Some(8.0)],
+            )]),
+            ..Expect::default()
+        },
+    );
+}
+
+/// Labels that read as months under a header naming weeks are an error, never monthly demand.
+#[test]
+fn months_under_a_week_header_are_an_error() {
+    let report = check(
+        "Week,Qty\n2024-01,58\n2024-02,58\n2024-03,55\n",
+        Expect {
+            errors: vec![(2, "Week", "2024-01")],
+            ..Expect::default()
+        },
+    );
+    assert!(report.items.is_empty());
+    check(
+        "Week,Qty\n2024-W01,58\n2024-W02,58\n2024-W03,55\n",
+        Expect {
+            items: Some(vec![("Qty", some(&[58.0, 58.0, 55.0]))]),
+            ..Expect::default()
+        },
+    );
+}
