@@ -267,3 +267,29 @@ fn months_under_a_week_header_are_an_error() {
         },
     );
 }
+
+/// Empty quantity cells of a long table are gaps named in a warning, as in the other layouts;
+/// a lone "1.250" in a comma file is read with a decimal dot, said in a warning.
+#[test]
+fn quiet_readings_are_said() {
+    check(
+        "Month,Item,Qty\n2024-01,Seeds,10\n2024-01,Bulbs,\n2024-02,Seeds,12\n2024-02,Bulbs,6\n\
+         2024-03,Seeds,14\n2024-03,Bulbs,7\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[10.0, 12.0, 14.0])),
+                ("Bulbs", vec![None, Some(6.0), Some(7.0)]),
+            ]),
+            warned: vec![vec!["\"Bulbs\"", "1 empty cell", "gaps", "2024-01"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Qty\n2024-01,1.250\n2024-02,2.500\n2024-03,1.125\n",
+        Expect {
+            items: Some(vec![("Qty", some(&[1.25, 2.5, 1.125]))]),
+            warned: vec![vec!["\"1.250\"", "decimal mark", "1.25"]],
+            ..Expect::default()
+        },
+    );
+}

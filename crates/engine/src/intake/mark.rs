@@ -97,7 +97,23 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
     }
     let (mark, separator, count) = match (tally.ambiguous_comma, tally.ambiguous_dot) {
         (0, 0) => return (fallback, None),
-        (0, _) if delimiter == Delimiter::Comma => return (DecimalMark::Dot, None),
+        (0, d) if delimiter == Delimiter::Comma => {
+            // A comma-delimited file has its decimal commas quoted, so the dot is the decimal
+            // mark there; said, since "1.250" reads as 1250 where the dot groups thousands.
+            return (
+                DecimalMark::Dot,
+                Some(format!(
+                    "{} such as \"1.250\" could be read either way; in a comma-separated file \
+                     the dot was read as the decimal mark (1.250 = 1.25); if it separates \
+                     thousands there, write the numbers without it",
+                    if d == 1 {
+                        "1 cell".to_string()
+                    } else {
+                        format!("{d} cells")
+                    }
+                )),
+            );
+        }
         (c, _) if delimiter == Delimiter::Comma => (DecimalMark::Dot, ',', c),
         (c, 0) => (DecimalMark::Dot, ',', c),
         (0, d) => (DecimalMark::Comma, '.', d),
@@ -169,8 +185,9 @@ mod tests {
         check(tally(0, 0, 0, 1), Tab, Dot, true);
         check(tally(0, 0, 1, 0), Tab, Comma, true);
         check(tally(0, 0, 2, 2), Semicolon, Comma, true);
-        // ...except a dot in a comma-delimited file, where a decimal comma needs quotes.
-        check(tally(0, 0, 3, 0), C, Dot, false);
+        // ...except a dot in a comma-delimited file, where a decimal comma needs quotes: a
+        // decimal dot, with a warning that says so.
+        check(tally(0, 0, 3, 0), C, Dot, true);
         check(tally(0, 0, 3, 1), C, Dot, true);
         check(tally(0, 0, 0, 1), C, Dot, true);
         // A quoted decimal comma still decides.

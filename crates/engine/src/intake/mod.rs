@@ -18,8 +18,8 @@
 //!    the header and layout rules are in that module's doc; `joined`: a period written across
 //!    a year column and a month, quarter or week column (and a day).
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
-//!    decide by majority; in a comma-delimited file the mark is otherwise a dot, since a decimal
-//!    comma there needs quotes; elsewhere a lone "1,234" or "1.234" is read as thousands with a
+//!    decide by majority; in a comma-delimited file the mark is otherwise a dot, with a
+//!    warning, since a decimal comma there needs quotes; elsewhere a lone "1,234" or "1.234" is read as thousands with a
 //!    warning; otherwise comma in semicolon files, dot elsewhere), and each value cell, with
 //!    currency symbols and units stripped (listed in that module's doc) and reported once.
 //! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided
