@@ -293,3 +293,39 @@ fn quiet_readings_are_said() {
         },
     );
 }
+
+/// A currency sign with an amount after it names a product ("£5 gift card"), not a column of
+/// money; where every number column is named as money none is left out, and none is said to
+/// be. A column of no numbers is named with the text found.
+#[test]
+fn amounts_in_names_and_unreadable_quantities() {
+    check(
+        "Month,Gift card £5,Seeds\n2024-01,10,5\n2024-02,12,6\n2024-03,11,7\n",
+        Expect {
+            items: Some(vec![
+                ("Gift card £5", some(&[10.0, 12.0, 11.0])),
+                ("Seeds", some(&[5.0, 6.0, 7.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    let report = check(
+        "Month,Sales (£),Net sales\n2024-01,10,5\n2024-02,12,6\n2024-03,11,7\n",
+        Expect {
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    assert!(
+        report.warnings.iter().all(|w| !w.contains("not used")),
+        "{:?}",
+        report.warnings
+    );
+    check(
+        "Month,Qty\n2024-01,1.5k\n2024-02,2k\n",
+        Expect {
+            errors: vec![(2, "Qty", "1.5k")],
+            ..Expect::default()
+        },
+    );
+}

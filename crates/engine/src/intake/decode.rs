@@ -7,7 +7,9 @@
 //! bytes it could not read: [`replacement_marks`] reports those lines too.
 //!
 //! Rules: a UTF-16 byte-order mark (FF FE little-endian, FE FF big-endian; spreadsheets write it
-//! for "Unicode text") decodes as UTF-16; anything else decodes as UTF-8 (a UTF-8 byte-order
+//! for "Unicode text") decodes as UTF-16, and so do bytes whose pairs are nearly all one zero
+//! byte beside one that is not (UTF-16 without its mark, [`utf16_without_mark`]); anything
+//! else decodes as UTF-8 (a UTF-8 byte-order
 //! mark is dropped later by the tokeniser). Bytes that do not decode become U+FFFD, and each
 //! line holding any is reported once, with the bytes found, so a front end never plans from a
 //! misread file without saying so. Lines are counted as the tokeniser counts them: LF, CRLF and
@@ -31,7 +33,27 @@ pub(crate) fn decode(bytes: &[u8]) -> Decoded {
     match bytes {
         [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
         [0xFE, 0xFF, rest @ ..] => decode_utf16(rest, false),
-        _ => decode_utf8(bytes),
+        _ => match utf16_without_mark(bytes) {
+            Some(little_endian) => decode_utf16(bytes, little_endian),
+            None => decode_utf8(bytes),
+        },
+    }
+}
+
+/// Whether bytes without a byte-order mark are UTF-16 text, and which byte order: nearly
+/// every pair of the first 512 bytes (at least 9 of 10, and two pairs or more) one zero byte
+/// and one that is not, the zero on the same side (latin text in UTF-16 is ASCII bytes
+/// beside zeros; UTF-8 text holds no zero bytes). `Some(true)` little-endian (the zero
+/// second). Our choice of 9 in 10: a few pairs of other scripts may have both bytes set.
+fn utf16_without_mark(bytes: &[u8]) -> Option<bool> {
+    let pairs: Vec<&[u8]> = bytes[..bytes.len().min(512)].chunks_exact(2).collect();
+    let little = pairs.iter().filter(|p| p[1] == 0 && p[0] != 0).count();
+    let big = pairs.iter().filter(|p| p[0] == 0 && p[1] != 0).count();
+    let most = |count: usize| pairs.len() >= 2 && count * 10 >= pairs.len() * 9;
+    match (most(little), most(big)) {
+        (true, _) => Some(true),
+        (_, true) => Some(false),
+        _ => None,
     }
 }
 
@@ -260,6 +282,19 @@ mod tests {
             .chain("é\n".encode_utf16().flat_map(u16::to_be_bytes))
             .collect();
         check(&be, "é\n", &[]);
+        // Without the mark, both orders, as some exports write them.
+        let bare_le: Vec<u8> = "Month,Qty\n2024-01,10\n"
+            .encode_utf16()
+            .flat_map(u16::to_le_bytes)
+            .collect();
+        check(&bare_le, "Month,Qty\n2024-01,10\n", &[]);
+        let bare_be: Vec<u8> = "Month,Qty\n"
+            .encode_utf16()
+            .flat_map(u16::to_be_bytes)
+            .collect();
+        check(&bare_be, "Month,Qty\n", &[]);
+        // A zero byte or two in UTF-8 text is no UTF-16.
+        check(b"a,b\n1\x00,2\n", "a,b\n1\x00,2\n", &[]);
         // An unpaired surrogate and an odd final byte.
         check(
             &[0xFF, 0xFE, 0x0A, 0x00, 0x00, 0xD8, 0x41],

@@ -102,12 +102,16 @@ const SYMBOLS: [&str; 22] = [
 ];
 
 /// Whether `text` holds a currency sign of [`SYMBOLS`] ("Sales (£)", "Takings ₹"): a header
-/// naming money.
+/// naming money. A sign with digits after it is an amount within a name ("£5 gift card",
+/// "Voucher $10": a product), not a column of money.
 pub(crate) fn holds_currency_sign(text: &str) -> bool {
-    SYMBOLS
-        .iter()
-        .filter(|sym| **sym != "%")
-        .any(|sym| text.contains(sym))
+    SYMBOLS.iter().filter(|sym| **sym != "%").any(|sym| {
+        text.match_indices(sym).any(|(at, _)| {
+            !text[at + sym.len()..]
+                .trim_start()
+                .starts_with(|c: char| c.is_ascii_digit())
+        })
+    })
 }
 
 /// Currency words written after the amount.

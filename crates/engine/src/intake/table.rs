@@ -629,20 +629,44 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             })
             .collect()
     };
-    if not_quantities.len() < values.len() {
+    // One number column always stays for the quantities, and then nothing is left out.
+    let not_quantities = if not_quantities.len() < values.len() {
         values.retain(|j| !not_quantities.contains(j));
-    }
+        not_quantities
+    } else {
+        Vec::new()
+    };
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
         .filter(|j| split.is_none_or(|s| !s.columns().contains(j)))
         .collect();
     if values.is_empty() {
         let header_line = table.header.as_ref().map_or(1, |h| h.line);
-        return Err(RowError {
-            row: rows.first().map_or(header_line, |r| r.line),
-            column: String::new(),
-            text: String::new(),
-            message: "expected a column of numbers (the quantities); none was found".to_string(),
+        // Named at the first cell of the last column that is not the period's (where the
+        // quantities usually stand), so the text found shows why it is no number.
+        let candidate = (0..table.width)
+            .rev()
+            .filter(|j| period.is_none_or(|(p, _)| p != *j))
+            .find_map(|j| {
+                let at = table.column(j, &rows).iter().position(|c| !is_missing(c))?;
+                Some((j, at))
+            });
+        return Err(match candidate {
+            Some((j, at)) => RowError {
+                row: rows[at].line,
+                column: table.column_name(j),
+                text: table.column(j, &rows)[at].to_string(),
+                message: "expected a column of numbers (the quantities); none was found: write \
+                          quantities as plain numbers (1500, not 1.5k; 12, not 12 dozen)"
+                    .to_string(),
+            },
+            None => RowError {
+                row: rows.first().map_or(header_line, |r| r.line),
+                column: String::new(),
+                text: String::new(),
+                message: "expected a column of numbers (the quantities); none was found"
+                    .to_string(),
+            },
         });
     }
     let layout = if long {
