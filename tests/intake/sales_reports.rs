@@ -329,3 +329,129 @@ fn amounts_in_names_and_unreadable_quantities() {
         },
     );
 }
+
+/// What a second review found the first fixes took too far, read as before: product numbers
+/// under a header without an item word where a product starts late; a "Model" column with
+/// one row a month; "W1", "W2" warehouses and items "April", "May" beside monthly rows;
+/// "Stock sales"; R's row names under a header one cell short.
+#[test]
+fn the_fixes_leave_ordinary_tables_alone() {
+    let mut plu = String::from("Month,PLU,Qty\n");
+    for m in 1..=12 {
+        plu.push_str(&format!(
+            "2022-{m:02},1001,{}\n2022-{m:02},1002,{}\n",
+            10 + m,
+            20 - m
+        ));
+        if m >= 10 {
+            plu.push_str(&format!("2022-{m:02},1003,{m}\n"));
+        }
+    }
+    let report = check(
+        &plu,
+        Expect {
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(names, ["1001", "1002", "1003"]);
+    check(
+        "Month,Model,Units\n2022-01,Tractor T5,1\n2022-02,Baler B2,2\n2022-03,Tractor T5,1\n\
+         2022-04,Baler B2,1\n",
+        Expect {
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    for header in ["Month,W1,W2,W3", "Month,April,May,June"] {
+        check(
+            &format!("{header}\n2022-01,5,6,7\n2022-02,6,7,8\n2022-03,7,8,9\n"),
+            Expect {
+                layout: Some(Layout::Wide),
+                ..Expect::default()
+            },
+        );
+    }
+    for header in ["Month,Stock sales", "Month,Receipts"] {
+        check(
+            &format!("{header}\n2022-01,5\n2022-02,6\n2022-03,7\n"),
+            Expect {
+                layout: Some(Layout::Single),
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "\"Month\",\"Units\"\n\"1\",\"2022-01\",20\n\"2\",\"2022-02\",11\n\"3\",\"2022-03\",20\n",
+        Expect {
+            items: Some(vec![("Units", some(&[20.0, 11.0, 20.0]))]),
+            warned: vec![vec!["row numbers"]],
+            ..Expect::default()
+        },
+    );
+}
+
+/// Spellings the second review found the first fixes missed: stock and running totals
+/// ("Closing bal.", "Qty available", "On order", "Year to date", "Mix %"), grids ("Qtr 1",
+/// "P1", "Jan."), week headers ("Year/Week", "Week ending"), decimal commas under empty
+/// header cells at the end, and a typed year named at its own row.
+#[test]
+fn more_spellings_of_the_same_shapes() {
+    for column in [
+        "Closing bal.",
+        "Qty available",
+        "On order",
+        "Year to date",
+        "Mix %",
+    ] {
+        check(
+            &format!("Month,Units,{column}\n2022-01,5,50\n2022-02,6,44\n2022-03,7,37\n"),
+            Expect {
+                items: Some(vec![("Units", some(&[5.0, 6.0, 7.0]))]),
+                warned: vec![vec![column, "not used"]],
+                ..Expect::default()
+            },
+        );
+    }
+    for (header, first) in [
+        ("Year,Qtr 1,Qtr 2,Qtr 3,Qtr 4", "Qtr 1"),
+        ("Year,P1,P2,P3,P4", "P1"),
+        ("Year,Jan.,Feb.,Mar.,Apr.", "Jan."),
+    ] {
+        check(
+            &format!("{header}\n2022,5,6,7,8\n2023,6,7,8,9\n"),
+            Expect {
+                errors: vec![(1, first, first)],
+                ..Expect::default()
+            },
+        );
+    }
+    for header in ["Year/Week", "Week ending"] {
+        check(
+            &format!("{header},Qty\n2024-01,5\n2024-02,6\n2024-03,7\n"),
+            Expect {
+                errors: vec![(2, header, "2024-01")],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Month,Flour kg,Salt kg,,\n2023-01,17,6,2,9\n2023-02,11,7,3,3\n",
+        Expect {
+            errors: vec![(2, "column 4", "2"), (3, "column 4", "3")],
+            ..Expect::default()
+        },
+    );
+    let typed: String = (1..=6)
+        .map(|m| format!("2024-{m:02},{}\n", 10 + m))
+        .chain(["2022-09,9\n".to_string()])
+        .collect();
+    check(
+        &format!("Month,Qty\n{typed}"),
+        Expect {
+            errors: vec![(8, "Month", "2022-09")],
+            ..Expect::default()
+        },
+    );
+}

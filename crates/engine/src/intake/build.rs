@@ -127,7 +127,8 @@ struct Entry<'a> {
     row: &'a Record,
 }
 
-/// The error for a period column whose header names weeks and nothing else ("Week", "Wk no")
+/// The error for a period column whose header names weeks and nothing else ("Week", "Wk no",
+/// "Year/Week", "Week ending")
 /// over labels read as months ("2024-01": January 2024, or week 1?): at its first row, and
 /// nothing is read. Read as months, weekly demand would be planned a month at a time, about a
 /// quarter of the real rate per period.
@@ -138,7 +139,21 @@ fn weeks_read_as_months(
     rows: &[&Record],
 ) -> Option<RowError> {
     let name = table.column_name(column);
-    let weeks = table.header.is_some() && header_is_only(&name, &["week", "weeks", "wk"]);
+    const WEEKS: [&str; 3] = ["week", "weeks", "wk"];
+    const BESIDE: [&str; 8] = [
+        "year",
+        "sales",
+        "ending",
+        "commencing",
+        "starting",
+        "beginning",
+        "calendar",
+        "iso",
+    ];
+    let allowed: Vec<&str> = WEEKS.iter().chain(&BESIDE).copied().collect();
+    let weeks = table.header.is_some()
+        && header_is_only(&name, &allowed)
+        && super::table::header_says(&name, &WEEKS);
     let row = rows.first()?;
     (weeks && frequency == Frequency::Monthly).then(|| RowError {
         row: row.line,
@@ -151,6 +166,11 @@ fn weeks_read_as_months(
         ),
     })
 }
+
+/// Fewest periods without a row that, with more than half as many as the rows, make a table
+/// refused (`Builder::mostly_missing`): a few gaps among few rows are filled as before. Our
+/// choice, as is the half.
+const MADE_UP_PERIODS: usize = 6;
 
 pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     let rows_read = table.rows.iter().filter(|r| !r.is_blank()).count();
@@ -440,30 +460,45 @@ impl<'a> Builder<'a> {
     }
 
     /// The error for a table of one row per period whose rows leave more periods without a
-    /// row than they hold (`missing`), at the first row after a gap; nothing is read. The
-    /// labels most likely mean other periods ("Jan-01" to "Jan-20", days, read as January of
-    /// 2001 to 2020), or the export leaves out the periods without sales: filled as gaps and
-    /// interpolated, most of the history would be made up.
+    /// row (`missing`) than they hold, or more than half as many (a third of the periods) and
+    /// at least [`MADE_UP_PERIODS`]: nothing is read. The labels most likely mean other periods ("Jan-01" to "Jan-20",
+    /// days, read as January of 2001 to 2020; every other week), a typed year puts one row far
+    /// from the rest, or the export leaves out the periods without sales: filled as gaps and
+    /// interpolated, much of the history would be made up. Named at the row
+    /// beside the widest gap that stands apart (the first or last row when the gap cuts it
+    /// off: a typed year), else the row after it.
     fn mostly_missing(&mut self, unique: &[Entry<'a>], missing: usize, column: usize) {
-        let Some(pair) = unique
+        let steps: Vec<i64> = unique
             .windows(2)
-            .find(|w| w[0].period.steps_to(w[1].period) > 1)
+            .map(|w| w[0].period.steps_to(w[1].period))
+            .collect();
+        let Some((at, &widest)) = steps
+            .iter()
+            .enumerate()
+            .filter(|(_, s)| **s > 1)
+            .max_by_key(|(i, s)| (**s, std::cmp::Reverse(*i)))
         else {
             return;
         };
+        // A gap wider than every other one that cuts off the first row stands it apart.
+        let alone = steps.iter().filter(|s| **s == widest).count() == 1;
+        let named = if at == 0 && alone { 0 } else { at + 1 };
         let (first, last) = (unique[0].period, unique[unique.len() - 1].period);
         let frequency = self.out.frequency.map_or("", |f| f.as_str());
-        let cell = self.period_text(pair[1].row);
+        let row = unique[named].row;
+        let cell = self.period_text(row);
         self.error(
-            pair[1].row.line,
+            row.line,
             column,
             &cell,
             format!(
                 "expected periods that follow each other: read as {frequency} periods from \
-                 {first} to {last}, the {} rows leave {missing} periods without a row, more than \
-                 they hold, so nothing was read; if the labels mean other periods (days written \
-                 like Jan-01), write whole dates such as 2024-01-01; if the periods without a \
-                 row had no sales, give them rows with 0",
+                 {first} to {last}, the {} rows leave {missing} periods without a row, so \
+                 nothing was read (gaps are filled by interpolation, and this many would make up \
+                 much of the history); check this row's year; if the labels mean other periods \
+                 (days written like Jan-01), write whole dates such as 2024-01-01; if each row \
+                 is a month's or a week's figure, write the month or week itself (2024-01, \
+                 2024-W01); if the periods without a row had no sales, give them rows with 0",
                 unique.len()
             ),
         );
@@ -540,9 +575,10 @@ impl<'a> Builder<'a> {
                         period_column,
                         &cell,
                         format!(
-                            "expected each period once; {} {what} {first_line}: keep one of \
-                             the two rows (to add up several rows per period, use item, \
-                             period, quantity rows)",
+                            "expected each period once; {} {what} {first_line}: where one of \
+                             the two rows is a correction or a copy, keep one of the two rows; \
+                             where a column names items by numbers, name its header \"item\"; \
+                             to add up several rows per period, use item, period, quantity rows",
                             entry.period
                         ),
                     );
@@ -580,7 +616,8 @@ impl<'a> Builder<'a> {
             .filter(|i| !present[*i as usize])
             .map(|i| start.offset(i).to_string())
             .collect();
-        if dated && missing.len() > unique.len() {
+        let (gaps, held) = (missing.len(), unique.len());
+        if dated && (gaps > held || (2 * gaps > held && gaps >= MADE_UP_PERIODS)) {
             self.mostly_missing(&unique, missing.len(), period_column);
             return;
         }

@@ -75,19 +75,21 @@
 //!   the others in every period, module `totals`) is left out with a warning naming it, so
 //!   its demand is not ordered twice.
 //! - Shapes of hand-made sales reports, each refused or read as it means (module `table`
-//!   unless named): a row with more cells than the header names is an error at each such row
-//!   (a decimal comma unquoted in a comma file would move numbers into the next item);
-//!   months, quarters or weekdays across the header over a row per year or week are a grid,
-//!   refused at the header; a column naming a stock level, goods received or returned, a
-//!   running total or a share is no item and no quantity ("Qty on hand", "YTD Units"); text
-//!   beside one row per period (a comment, a supplier) notes the periods and is left out, as
-//!   is one beside an item column that splits no item's period; number columns are read as
-//!   item codes without a header word saying so only where every code stands on half the
-//!   periods or more (a wide table with one period repeated stays wide, the repeat an error);
+//!   unless named): a row with more cells than the header names (empty header cells at its
+//!   end name nothing) is an error at each such row (a decimal comma unquoted in a comma file
+//!   would move numbers into the next item), except R's row names 1, 2, 3 under a header one
+//!   cell short; months, quarters, accounting periods or weekdays across the header over a row
+//!   per year or week are a grid, refused at the header; a column naming a stock level, goods
+//!   on order, received or returned, a running total or a share is no item and no quantity
+//!   ("Qty on hand", "YTD Units", "Mix %"); a text column named as a note ("Comment",
+//!   "Supplier") beside one row per period, or beside an item column whose items it splits in
+//!   no period, is left out; number columns are read as item codes without a header word
+//!   saying so only where most periods stand on several rows and the codes fill half of codes
+//!   times periods (a wide table with one period repeated stays wide, the repeat an error);
 //!   labels read as months under a header naming weeks are an error (`build`); rows leaving
-//!   more periods without a row than they hold are an error, nothing read (`build`); a
-//!   subtotal with a total's word under the items it adds up ("Garden subtotal", "Total
-//!   Inventory") is left out (`totals`).
+//!   more periods without a row than they hold, or more than half as many and at least six,
+//!   are an error, nothing read (`build`); a subtotal with a total's word under the items it
+//!   adds up ("Garden subtotal", "Total Inventory") is left out (`totals`).
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space or
 //!   case are one item, with a warning naming each spelling and its lines; an `n/a` item cell names no

@@ -318,7 +318,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     let body_start = header_at.unwrap_or(first_data);
     let mut rest = records.split_off(body_start);
     let titles: Vec<Record> = records.into_iter().filter(|r| !r.is_blank()).collect();
-    let header = match header_at {
+    let mut header = match header_at {
         Some(_) if !rest.is_empty() => Some(rest.remove(0)),
         _ => None,
     };
@@ -365,8 +365,37 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .filter(|r| !r.is_blank())
         .map(|r| r.cells.len())
         .collect();
-    let header_width = header.as_ref().map_or(0, |h| h.cells.len());
-    let (data_width, _) = mode_preferring_narrow(&data_widths);
+    let (data_width, count) = mode_preferring_narrow(&data_widths);
+    // A header one cell short over rows numbered 1, 2, 3, ... in their first cell: the row
+    // names R's write.table puts first without a header cell over them. The blank corner is
+    // put back, as other tools write it (`,date,value`), and the numbering column is then
+    // read as such (with its warning).
+    if let Some(h) = header.as_mut() {
+        let numbered = rest
+            .iter()
+            .filter(|r| !r.is_blank())
+            .enumerate()
+            .all(|(i, r)| r.cells.first().is_some_and(|c| *c == (i + 1).to_string()));
+        let filled_width = h
+            .cells
+            .iter()
+            .rposition(|c| !c.is_empty())
+            .map_or(0, |i| i + 1);
+        if numbered && data_width == filled_width + 1 && count == data_widths.len() {
+            h.cells.insert(0, String::new());
+            for (index, _) in h.untrimmed.iter_mut() {
+                *index += 1;
+            }
+        }
+    }
+    // Empty cells at the end of the header name no column (a spreadsheet's trailing
+    // delimiters): numbers beneath them are past the header, as in a shorter one.
+    let header_width = header.as_ref().map_or(0, |h| {
+        h.cells
+            .iter()
+            .rposition(|c| !c.is_empty())
+            .map_or(0, |i| i + 1)
+    });
     // The header fixes the width: a row with more cells than it names is an error at each
     // such row, never columns of its own. Rows wider than the header are mostly numbers
     // with a decimal comma, unquoted in a comma-separated file ("12,5" read as 12 and 5
@@ -484,7 +513,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     }
     // Number columns headed by months, quarters or weekdays hold one item's values, the
     // calendar across the header ([`calendar_grid`]).
-    if let Some(error) = calendar_grid(table, &numeric) {
+    if let Some(error) = calendar_grid(table, &rows, &roles, &numeric) {
         return Err(error);
     }
     // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
@@ -699,52 +728,66 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     })
 }
 
+/// Header words of a text column that notes rows rather than names items ("Comment",
+/// "Supplier", "Promo"): common practice in sales exports. Only these: a column under any
+/// other name ("Model", "Style") may name items even where each period has one row (a
+/// low-volume product line).
+const NOTE_WORDS: [&str; 22] = [
+    "comment",
+    "comments",
+    "note",
+    "notes",
+    "remark",
+    "remarks",
+    "memo",
+    "supplier",
+    "suppliers",
+    "vendor",
+    "status",
+    "reason",
+    "promo",
+    "promotion",
+    "event",
+    "events",
+    "weather",
+    "flag",
+    "info",
+    "campaign",
+    "explanation",
+    "annotation",
+];
+
 /// Of the text columns `item_columns`, those that note the periods rather than name items:
-/// all of them when each period stands on one row only (`periods`, the period cells, never
-/// repeating) and no header among them names items ([`ITEM_WORDS`], stores among them, or
-/// "name", "description"); beside columns whose header names items, the others, when those
-/// alone hold each item's period on one row. `Month,Qty,Comment` over "ok", "promo", "ok" is
-/// one item's history with a note beside it; read as items, "ok" and "promo" would split it,
-/// with the months of the other read as no sales. A table of several items has each period
-/// on several rows.
+/// the ones whose header names a note ([`NOTE_WORDS`]) and no item ([`ITEM_WORDS`]), where
+/// they split what would otherwise be read as one history (each period on one row), or,
+/// beside columns naming the items, where those alone hold each item's period on one row.
+/// `Month,Qty,Comment` over "ok", "promo", "ok" is one item's history with a note beside it;
+/// read as items, "ok" and "promo" would split it, with the months of the other read as no
+/// sales; `Month,Item,Supplier,Qty` with a supplier change would split an item in two.
 fn notes_columns(
     table: &Table,
     rows: &[&Record],
     item_columns: &[usize],
     periods: &[&str],
 ) -> Vec<usize> {
-    const NAME_WORDS: [&str; 4] = ["name", "names", "description", "desc"];
-    let names_items = |j: &usize| {
+    let notes_only = |j: &usize| {
         let name = table.column_name(*j);
         table.header.is_some()
-            && (header_says(&name, &ITEM_WORDS) || header_says(&name, &NAME_WORDS))
+            && header_says(&name, &NOTE_WORDS)
+            && !header_says(&name, &ITEM_WORDS)
     };
     if item_columns.is_empty() || periods.len() != rows.len() {
         return Vec::new();
     }
-    let (named, unnamed): (Vec<usize>, Vec<usize>) =
-        item_columns.iter().partition(|j| names_items(j));
-    // One name on every row names the one item; notes split it.
-    let splits = |j: &usize| {
-        let mut cells: Vec<&str> = table.column(*j, rows);
-        cells.retain(|c| !c.trim().is_empty());
-        cells.sort_unstable();
-        cells.dedup();
-        cells.len() >= 2
+    let (notes, others): (Vec<usize>, Vec<usize>) =
+        item_columns.iter().partition(|j| notes_only(j));
+    let unique = if others.is_empty() {
+        all_distinct(periods)
+    } else {
+        once_per_period(&columns_of(table, rows, &others), periods)
     };
-    if named.is_empty() {
-        return if all_distinct(periods) && unnamed.iter().any(splits) {
-            unnamed
-        } else {
-            Vec::new()
-        };
-    }
-    // Beside a column naming the items, another text column that splits no item's period
-    // (`Month,Item,Supplier,Qty`: each item once a month whatever its supplier) notes the
-    // rows too. Where it does split them (a payment or sale type, rows to add up or not),
-    // the joined names show the split.
-    if !unnamed.is_empty() && once_per_period(&columns_of(table, rows, &named), periods) {
-        unnamed
+    if unique {
+        notes
     } else {
         Vec::new()
     }
@@ -844,32 +887,78 @@ fn calendar_columns(
 /// would be an item of its own with a value a year, forecast by the year; so the table is
 /// refused at its first such header cell, as [`super::across`] refuses the same grid turned
 /// round. `None` otherwise.
-fn calendar_grid(table: &Table, numeric: &[usize]) -> Option<RowError> {
+fn calendar_grid(
+    table: &Table,
+    rows: &[&Record],
+    roles: &[Role],
+    numeric: &[usize],
+) -> Option<RowError> {
     let header = table.header.as_ref()?;
     let named: Vec<usize> = numeric
         .iter()
         .copied()
-        .filter(|j| header.cells.get(*j).is_some_and(|c| calendar_name(c)))
+        .filter(|j| header.cells.get(*j).is_some_and(|c| calendar_header(c)))
         .collect();
     let &first = named.first()?;
-    (named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| RowError {
-        row: header.line,
-        column: table.column_name(first),
-        text: table.column_name(first),
-        message: format!(
-            "expected items or quantities under the header; {} name parts of the calendar \
+    // The rows must be years or weeks for the columns to be their parts: beside months in
+    // the rows, "W1", "W2" are warehouses and "April", "May" items.
+    let rows_are_years_or_weeks = (0..roles.len()).filter(|j| !named.contains(j)).any(|j| {
+        matches!(roles[j], Role::Period(Family::Week))
+            || integer_meaning(&table.column(j, rows), true) == Some(IntegerMeaning::Years)
+    });
+    (rows_are_years_or_weeks && named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| {
+        RowError {
+            row: header.line,
+            column: table.column_name(first),
+            text: table.column_name(first),
+            message: format!(
+                "expected items or quantities under the header; {} name parts of the calendar \
              (months, quarters, weeks, weekdays or times of day), so the table is a grid with \
              the calendar across the header: write one row per period (e.g. 2023-01,5; with an \
              item column where there are several items), or year, month and quantity columns",
-            named
-                .iter()
-                .take(3)
-                .map(|j| table.column_name(*j))
-                .chain((named.len() > 3).then(|| "...".to_string()))
-                .collect::<Vec<_>>()
-                .join(", ")
-        ),
+                named
+                    .iter()
+                    .take(3)
+                    .map(|j| table.column_name(*j))
+                    .chain((named.len() > 3).then(|| "...".to_string()))
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            ),
+        }
     })
+}
+
+/// Whether a header cell names a part of a year or week as grids write them: what
+/// [`calendar_name`] reads, and also with a dot ("Jan.", "Sept."), "Qtr 1", "Quarter 1", "1st
+/// Qtr", "M01", "P1" to "P13" (accounting periods), "H1", "H2" and two-letter weekdays ("Mo").
+fn calendar_header(cell: &str) -> bool {
+    let lower = cell.trim().trim_end_matches('.').to_lowercase();
+    let words: Vec<&str> = lower
+        .split(|c: char| !c.is_alphanumeric())
+        .filter(|w| !w.is_empty())
+        .collect();
+    let numbered = |prefix: &str, max: u32| {
+        lower
+            .strip_prefix(prefix)
+            .map(str::trim)
+            .filter(|n| !n.is_empty() && n.len() <= 2 && n.bytes().all(|b| b.is_ascii_digit()))
+            .and_then(|n| n.parse::<u32>().ok())
+            .is_some_and(|n| (1..=max).contains(&n))
+    };
+    let ordinal_quarter = matches!(words.as_slice(), [n, "qtr" | "quarter"]
+        if matches!(*n, "1st" | "2nd" | "3rd" | "4th"));
+    calendar_name(&lower)
+        || lower == "sept"
+        || numbered("qtr", 4)
+        || numbered("quarter", 4)
+        || ordinal_quarter
+        || numbered("m", 12)
+        || numbered("p", 13)
+        || numbered("h", 2)
+        || matches!(
+            lower.as_str(),
+            "mo" | "tu" | "we" | "th" | "fr" | "sa" | "su"
+        )
 }
 
 /// The error for calendar column `j` when the table has no period to place its rows: at the
@@ -1064,51 +1153,94 @@ pub(super) fn names_money(name: &str) -> bool {
     holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
-/// Header words that name a stock level, goods coming in or going back, a running total or a
-/// share: figures beside the sales, never the demand itself ("Stock on hand", "Units in
-/// stock", "YTD Units", "Closing stock", "Received", "Returned", "Share %").
-const NO_DEMAND_WORDS: [&str; 20] = [
+/// Header words that name a stock level, goods coming in or going back, or a share: figures
+/// beside the sales, never the demand itself ("Stock on hand", "Units in stock", "Closing
+/// bal.", "Qty available", "Received", "Return qty", "Share").
+const STOCK_WORDS: [&str; 24] = [
     "stock",
     "inventory",
+    "inv",
     "hand",
     "onhand",
     "soh",
+    "oh",
+    "opening",
+    "closing",
+    "ending",
+    "beginning",
+    "balance",
+    "bal",
+    "available",
+    "avail",
+    "received",
+    "returned",
+    "returns",
+    "return",
+    "refund",
+    "refunds",
+    "share",
+    "percent",
+    "pct",
+];
+
+/// Words that stand beside a [`STOCK_WORDS`] word in a header that names such a figure and
+/// nothing else ("Qty on hand", "Units in stock", "Free stock", "Stock level EOM"); not
+/// "sales" or "sold": "Stock sales" are sales.
+const STOCK_COMPANIONS: [&str; 16] = [
+    "on", "in", "at", "of", "qty", "quantity", "units", "pcs", "level", "end", "start", "free",
+    "wh", "month", "period", "eom",
+];
+
+/// Header words that name a running total ("YTD Units", "Cumulative sales", "Running total").
+const RUNNING_WORDS: [&str; 7] = [
     "ytd",
     "mtd",
     "cumulative",
     "cum",
+    "cumul",
     "running",
-    "opening",
-    "closing",
-    "balance",
-    "received",
-    "receipts",
-    "returned",
-    "returns",
-    "refunds",
-    "share",
-    "percent",
+    "accumulated",
 ];
 
-/// Words that stand beside a [`NO_DEMAND_WORDS`] word in a header that names such a figure and
-/// nothing else ("Qty on hand", "Units in stock", "Year to date sales", "Stock level").
-const NO_DEMAND_COMPANIONS: [&str; 20] = [
-    "on", "in", "at", "of", "to", "date", "qty", "quantity", "units", "pcs", "sales", "sold",
-    "level", "total", "end", "start", "year", "month", "period", "pct",
+/// Words that stand beside a [`RUNNING_WORDS`] word, or make "to date" a running total ("Year
+/// to date", "Sales to date").
+const RUNNING_COMPANIONS: [&str; 12] = [
+    "qty", "quantity", "units", "pcs", "sales", "sold", "total", "year", "month", "period", "to",
+    "date",
 ];
 
-/// Whether a header names a stock level, a running total or another figure beside the demand
-/// and nothing else ([`NO_DEMAND_WORDS`] with only their companions: "Qty on hand" and "YTD
-/// Units" do, "Stock pot" and "Sales" do not). Read as demand, such a column would be planned
-/// as an item (a wide table) or read as the quantity sold (a long table's "Units in stock"
-/// before "Units sold"). Common practice: sales reports carry these columns beside the sales.
+/// Whether a header names a stock level, goods received or returned, a running total or a
+/// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to
+/// date", "On order", "Goods in", a percent sign): "Qty on hand", "YTD Units", "Year to date",
+/// "Mix %" do; "Stock pot",
+/// "Stock sales" and "Sales" do not. Read as demand, such a column would be planned as an
+/// item (a wide table) or read as the quantity sold (a long table's "Units in stock" before
+/// "Units sold"). Common practice: sales reports carry these columns beside the sales.
 pub(super) fn names_no_demand(name: &str) -> bool {
-    let allowed: Vec<&str> = NO_DEMAND_WORDS
+    let only = |core: &[&str], companions: &[&str]| {
+        let allowed: Vec<&str> = core.iter().chain(companions).copied().collect();
+        header_is_only(name, &allowed) && header_says(name, core)
+    };
+    let words: Vec<String> = header_words(name)
         .iter()
-        .chain(&NO_DEMAND_COMPANIONS)
-        .copied()
+        .map(|w| w.to_lowercase())
         .collect();
-    header_is_only(name, &allowed) && header_says(name, &NO_DEMAND_WORDS)
+    let to_date = words.windows(2).any(|w| w[0] == "to" && w[1] == "date")
+        && header_is_only(name, &RUNNING_COMPANIONS);
+    // Goods on their way in: "On order", "Goods in" (not "Order qty", a customer's order).
+    let inbound = matches!(
+        words
+            .iter()
+            .map(String::as_str)
+            .collect::<Vec<_>>()
+            .as_slice(),
+        ["on", "order"] | ["qty" | "units", "on", "order"] | ["goods", "in"]
+    );
+    name.contains('%')
+        || inbound
+        || only(&STOCK_WORDS, &STOCK_COMPANIONS)
+        || only(&RUNNING_WORDS, &RUNNING_COMPANIONS)
+        || to_date
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
@@ -1200,8 +1332,8 @@ fn codes_beside_names(
 /// where the header names some as items, those together if their numbers are item codes
 /// ([`item_codes`]) and none otherwise (the header has said which they are; the shape alone
 /// must not pick another); without such words, the first column of item codes whose header
-/// does not name a quantity ([`QUANTITY_WORDS`]) and whose every code recurs over at least half
-/// of the periods ([`codes_recur`]). One number column always stays for the quantities.
+/// does not name a quantity ([`QUANTITY_WORDS`]) and whose numbers have the shape of a product
+/// list ([`codes_recur`]). One number column always stays for the quantities.
 fn codes_beside(
     table: &Table,
     rows: &[&Record],
@@ -1229,34 +1361,32 @@ fn codes_beside(
         .collect()
 }
 
-/// Whether every code in `codes` stands on at least half of the different periods in
-/// `periods` (the two as long). Codes unnamed by the header must show the shape of a product
-/// list: each product sells, or is written, through most of the history. Quantities in a
-/// table of one row per period with one period repeated (a correction row, two exports
-/// stacked) repeat and pair with each period once too, but most of their values stand on a
-/// few periods only; read as codes they would make items of quantities, so that table is
-/// read as it looks, with the repeated period an error. Our choice: half.
+/// Whether a column of whole numbers that no header word names as items (`codes`, beside
+/// the period cells `periods`, the two as long) has the shape of a product list: most
+/// periods stand on two rows or more (several products each period), and the (code, period)
+/// pairs fill at least half of all codes times periods (products sell, or are written,
+/// through much of the history; one starting late or stopping early keeps the table a list).
+/// Quantities in a table of one row per period with a period repeated (a correction row, two
+/// exports stacked) repeat and pair with each period once too, but their values are many
+/// and scattered: a few periods repeat (a correction) or the values fill a small share of
+/// values times periods (stacked exports). Read as codes they would make items of
+/// quantities, so that table is read as it looks, with the repeats errors. Our choice: half,
+/// both times.
 fn codes_recur(codes: &[&str], periods: &[&str]) -> bool {
-    let mut pairs: Vec<(&str, &str)> = codes.iter().copied().zip(periods.iter().copied()).collect();
-    pairs.sort_unstable();
-    pairs.dedup();
-    let mut distinct_periods = periods.to_vec();
-    distinct_periods.sort_unstable();
-    distinct_periods.dedup();
-    let mut start = 0;
-    while start < pairs.len() {
-        let code = pairs[start].0;
-        let end = start
-            + pairs[start..]
-                .iter()
-                .take_while(|(c, _)| *c == code)
-                .count();
-        if 2 * (end - start) < distinct_periods.len() {
-            return false;
-        }
-        start = end;
-    }
-    true
+    let distinct = |cells: &[&str]| {
+        let mut cells = cells.to_vec();
+        cells.sort_unstable();
+        cells.dedup();
+        cells.len()
+    };
+    let (codes_count, periods_count) = (distinct(codes), distinct(periods));
+    let mut sorted = periods.to_vec();
+    sorted.sort_unstable();
+    let repeating = sorted
+        .chunk_by(|a, b| a == b)
+        .filter(|run| run.len() >= 2)
+        .count();
+    2 * repeating >= periods_count && 2 * codes.len() >= codes_count * periods_count
 }
 
 /// In a table of numbers only, with no period column found by its cells: the columns whose

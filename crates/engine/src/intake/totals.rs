@@ -245,12 +245,17 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
 }
 
 /// Whether a name holds a total's word anywhere ("Garden subtotal", "Total Inventory", "Tools
-/// totals", "Sum of bulbs"): enough, with the figures adding up the items just before it,
+/// totals", "Garden tot.", "Sum of bulbs"): enough, with the figures adding up the items just before it,
 /// to take it for their subtotal ([`subtotals`]).
 fn has_total_word(name: &str) -> bool {
     name.to_lowercase()
         .split(|c: char| !c.is_alphanumeric())
-        .any(|w| matches!(w, "total" | "totals" | "subtotal" | "subtotals" | "sum"))
+        .any(|w| {
+            matches!(
+                w,
+                "total" | "totals" | "tot" | "subtotal" | "subtotals" | "sum"
+            )
+        })
 }
 
 /// The periods compared when `total` equals the sum of `group` in every period where every
