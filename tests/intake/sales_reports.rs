@@ -455,3 +455,72 @@ fn more_spellings_of_the_same_shapes() {
         },
     );
 }
+
+/// What a third review found: a till's rows only for what sold under "PLU"; bolt sizes and
+/// warehouses across the header beside weekly rows or year and month columns; products with
+/// a percent or "Stock" in their names; money in thousands; one product's export with its
+/// code under "Item"; a status beside numbered products.
+#[test]
+fn ordinary_exports_the_third_review_tried() {
+    let mut till = String::from("Date,PLU,Qty\n");
+    for day in 1..=20 {
+        for (code, every) in [(4001, 1), (4002, 2), (4003, 3), (4004, 5)] {
+            if day % every == 0 {
+                till.push_str(&format!("2024-03-{day:02},{code},{}\n", 1 + day % 4));
+            }
+        }
+    }
+    let report = check(
+        &till,
+        Expect {
+            layout: Some(Layout::Long),
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items.len(), 4);
+    for text in [
+        "Week,M6,M8,M10\n2024-W01,5,6,7\n2024-W02,6,7,8\n2024-W03,7,8,9\n",
+        "Year,Month,W1,W2\n2024,1,5,6\n2024,2,6,7\n2024,3,7,8\n",
+        "Month,Gin 40%,Stock,£10 gift card\n2024-01,5,6,7\n2024-02,6,7,8\n2024-03,7,8,9\n",
+    ] {
+        let report = check(
+            text,
+            Expect {
+                layout: Some(Layout::Wide),
+                ..Expect::default()
+            },
+        );
+        assert!(
+            report.warnings.iter().all(|w| !w.contains("not used")),
+            "{text}"
+        );
+    }
+    check(
+        "Month,Units,Sales (£000)\n2024-01,5,6\n2024-02,6,7\n2024-03,7,8\n",
+        Expect {
+            items: Some(vec![("Units", some(&[5.0, 6.0, 7.0]))]),
+            warned: vec![vec!["\"Sales (£000)\"", "not used"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Item,Qty\n2024-01,4711,24\n2024-02,4711,20\n2024-03,4711,22\n",
+        Expect {
+            items: Some(vec![("4711", some(&[24.0, 20.0, 22.0]))]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,SKU,Status,Qty\n2024-01,10001,active,5\n2024-01,10002,active,6\n\
+         2024-02,10001,active,7\n2024-02,10002,discontinued,8\n2024-03,10001,active,9\n\
+         2024-03,10002,discontinued,1\n",
+        Expect {
+            items: Some(vec![
+                ("10001", some(&[5.0, 7.0, 9.0])),
+                ("10002", some(&[6.0, 8.0, 1.0])),
+            ]),
+            warned: vec![vec!["\"Status\"", "not used"]],
+            ..Expect::default()
+        },
+    );
+}

@@ -483,6 +483,9 @@ impl<'a> Builder<'a> {
         // A gap wider than every other one that cuts off the first row stands it apart.
         let alone = steps.iter().filter(|s| **s == widest).count() == 1;
         let named = if at == 0 && alone { 0 } else { at + 1 };
+        // Cut off at either end by a gap wider than any other: likely a typed year.
+        let apart = alone && (at == 0 || at + 2 == unique.len());
+        let year = if apart { "check this row's year; " } else { "" };
         let (first, last) = (unique[0].period, unique[unique.len() - 1].period);
         let frequency = self.out.frequency.map_or("", |f| f.as_str());
         let row = unique[named].row;
@@ -495,7 +498,7 @@ impl<'a> Builder<'a> {
                 "expected periods that follow each other: read as {frequency} periods from \
                  {first} to {last}, the {} rows leave {missing} periods without a row, so \
                  nothing was read (gaps are filled by interpolation, and this many would make up \
-                 much of the history); check this row's year; if the labels mean other periods \
+                 much of the history); {year}if the labels mean other periods \
                  (days written like Jan-01), write whole dates such as 2024-01-01; if each row \
                  is a month's or a week's figure, write the month or week itself (2024-01, \
                  2024-W01); if the periods without a row had no sales, give them rows with 0",

@@ -79,13 +79,15 @@
 //!   end name nothing) is an error at each such row (a decimal comma unquoted in a comma file
 //!   would move numbers into the next item), except R's row names 1, 2, 3 under a header one
 //!   cell short; months, quarters, accounting periods or weekdays across the header over a row
-//!   per year or week are a grid, refused at the header; a column naming a stock level, goods
+//!   per year or week (parts fitting the rows: months over plain years, weekdays over weeks,
+//!   times over days) are a grid, refused at the header; a column naming a stock level, goods
 //!   on order, received or returned, a running total or a share is no item and no quantity
 //!   ("Qty on hand", "YTD Units", "Mix %"); a text column named as a note ("Comment",
 //!   "Supplier") beside one row per period, or beside an item column whose items it splits in
 //!   no period, is left out; number columns are read as item codes without a header word
-//!   saying so only where most periods stand on several rows and the codes fill half of codes
-//!   times periods (a wide table with one period repeated stays wide, the repeat an error);
+//!   saying so only where most periods stand on several rows and the rows are not stacked
+//!   copies of one table (a wide table with a period repeated stays wide, the repeat an
+//!   error), and one number on every row under "Item" names that one item;
 //!   labels read as months under a header naming weeks are an error (`build`); rows leaving
 //!   more periods without a row than they hold, or more than half as many and at least six,
 //!   are an error, nothing read (`build`); a subtotal with a total's word under the items it

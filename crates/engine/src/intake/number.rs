@@ -103,13 +103,21 @@ const SYMBOLS: [&str; 22] = [
 
 /// Whether `text` holds a currency sign of [`SYMBOLS`] ("Sales (£)", "Takings ₹"): a header
 /// naming money. A sign with digits after it is an amount within a name ("£5 gift card",
-/// "Voucher $10": a product), not a column of money.
+/// "Voucher $10": a product), not a column of money, unless the digits are a scale ("Sales
+/// (£000)", "$1000s").
 pub(crate) fn holds_currency_sign(text: &str) -> bool {
     SYMBOLS.iter().filter(|sym| **sym != "%").any(|sym| {
         text.match_indices(sym).any(|(at, _)| {
-            !text[at + sym.len()..]
-                .trim_start()
-                .starts_with(|c: char| c.is_ascii_digit())
+            let after = text[at + sym.len()..].trim_start();
+            let digits: String = after
+                .chars()
+                .take_while(|c| c.is_ascii_digit() || *c == ',')
+                .filter(char::is_ascii_digit)
+                .collect();
+            // "£000", "$1000s", "€ 1,000": a scale, so money; "£5", "$10": an amount in a name.
+            let zeros = digits.strip_prefix('1').unwrap_or(&digits);
+            let scale = zeros.len() >= 3 && zeros.chars().all(|c| c == '0');
+            digits.is_empty() || scale
         })
     })
 }

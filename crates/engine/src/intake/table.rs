@@ -73,7 +73,7 @@
 //! are not taken for items.
 
 use super::joined::SplitPeriod;
-use super::label::{calendar_name, Family};
+use super::label::{calendar_name, is_time_of_day, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
 use super::period::{integer_meaning, strong_family, IntegerMeaning};
 use super::text::{mode_of, Record};
@@ -513,7 +513,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     }
     // Number columns headed by months, quarters or weekdays hold one item's values, the
     // calendar across the header ([`calendar_grid`]).
-    if let Some(error) = calendar_grid(table, &rows, &roles, &numeric) {
+    if let Some(error) = calendar_grid(table, &rows, &roles, &numeric, split.is_some()) {
         return Err(error);
     }
     // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
@@ -574,7 +574,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     };
     // Words beside one row per period note the periods rather than name items, unless the
     // header says they name items ([`notes_columns`]).
-    let notes = notes_columns(table, &rows, &item_columns, &period_refs);
+    let named_numbers = named_items(table, &numeric);
+    let notes = notes_columns(table, &rows, &item_columns, &named_numbers, &period_refs);
     item_columns.retain(|j| !notes.contains(j));
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
@@ -671,14 +672,26 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         .collect();
     if values.is_empty() {
         let header_line = table.header.as_ref().map_or(1, |h| h.line);
-        // Named at the first cell of the last column that is not the period's (where the
-        // quantities usually stand), so the text found shows why it is no number.
+        // Named at the first cell of a column named as a quantity, else of the last column
+        // that is not the period's (where the quantities usually stand), so the text found
+        // shows why it is no number.
+        let first_cell = |j: usize| {
+            let at = table.column(j, &rows).iter().position(|c| !is_missing(c))?;
+            Some((j, at))
+        };
+        let not_period = |j: &usize| period.is_none_or(|(p, _)| p != *j);
         let candidate = (0..table.width)
-            .rev()
-            .filter(|j| period.is_none_or(|(p, _)| p != *j))
-            .find_map(|j| {
-                let at = table.column(j, &rows).iter().position(|c| !is_missing(c))?;
-                Some((j, at))
+            .filter(not_period)
+            .filter(|j| {
+                let name = table.column_name(*j);
+                header_says(&name, &QUANTITY_WORDS) || header_says(&name, &UNIT_WORDS)
+            })
+            .find_map(first_cell)
+            .or_else(|| {
+                (0..table.width)
+                    .rev()
+                    .filter(not_period)
+                    .find_map(first_cell)
             });
         return Err(match candidate {
             Some((j, at)) => RowError {
@@ -760,7 +773,8 @@ const NOTE_WORDS: [&str; 22] = [
 /// Of the text columns `item_columns`, those that note the periods rather than name items:
 /// the ones whose header names a note ([`NOTE_WORDS`]) and no item ([`ITEM_WORDS`]), where
 /// they split what would otherwise be read as one history (each period on one row), or,
-/// beside columns naming the items, where those alone hold each item's period on one row.
+/// beside columns naming the items (text, or numbers under an item's header,
+/// `named_numbers`), where those alone hold each item's period on one row.
 /// `Month,Qty,Comment` over "ok", "promo", "ok" is one item's history with a note beside it;
 /// read as items, "ok" and "promo" would split it, with the months of the other read as no
 /// sales; `Month,Item,Supplier,Qty` with a supplier change would split an item in two.
@@ -768,6 +782,7 @@ fn notes_columns(
     table: &Table,
     rows: &[&Record],
     item_columns: &[usize],
+    named_numbers: &[usize],
     periods: &[&str],
 ) -> Vec<usize> {
     let notes_only = |j: &usize| {
@@ -779,8 +794,10 @@ fn notes_columns(
     if item_columns.is_empty() || periods.len() != rows.len() {
         return Vec::new();
     }
-    let (notes, others): (Vec<usize>, Vec<usize>) =
+    let (notes, mut others): (Vec<usize>, Vec<usize>) =
         item_columns.iter().partition(|j| notes_only(j));
+    // Product numbers under an item's header ("SKU") name items too.
+    others.extend(named_numbers.iter().copied());
     let unique = if others.is_empty() {
         all_distinct(periods)
     } else {
@@ -796,8 +813,14 @@ fn notes_columns(
 /// Words of a header cell that name the item (or the store it is sold at), that name a
 /// period, and that name a quantity, for tables whose item codes are numbers (common practice
 /// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`).
-pub(super) const ITEM_WORDS: [&str; 16] = [
+pub(super) const ITEM_WORDS: [&str; 22] = [
     "item",
+    "plu",
+    "ean",
+    "upc",
+    "gtin",
+    "barcode",
+    "material",
     "variety",
     "sku",
     "product",
@@ -882,56 +905,92 @@ fn calendar_columns(
 
 /// The error for a grid of one item's values with part of the calendar across the header
 /// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun`): at least two of the
-/// number columns `numeric`, and more than half of them, headed by month, quarter, week or
-/// weekday names or times of day ([`calendar_name`]). Read as a table of items, each month
+/// number columns `numeric`, and more than half of them, headed by parts of what a row is
+/// ([`grid_header`]): parts of a year over rows of plain years (no month column beside,
+/// `split`), weekdays over rows of weeks, times of day over rows of dates; numbered parts
+/// ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
 /// would be an item of its own with a value a year, forecast by the year; so the table is
 /// refused at its first such header cell, as [`super::across`] refuses the same grid turned
-/// round. `None` otherwise.
+/// round. `None` otherwise: beside monthly rows "W1", "W2" are warehouses and "April", "May"
+/// items; "M6", "M8" are bolt sizes.
 fn calendar_grid(
     table: &Table,
     rows: &[&Record],
     roles: &[Role],
     numeric: &[usize],
+    split: bool,
 ) -> Option<RowError> {
     let header = table.header.as_ref()?;
-    let named: Vec<usize> = numeric
+    let parts: Vec<(usize, GridPart)> = numeric
         .iter()
-        .copied()
-        .filter(|j| header.cells.get(*j).is_some_and(|c| calendar_header(c)))
+        .filter_map(|j| Some((*j, grid_header(header.cells.get(*j)?)?)))
         .collect();
+    let other = |j: usize| !parts.iter().any(|(k, _)| *k == j);
+    let years = !split
+        && (0..roles.len())
+            .filter(|j| other(*j))
+            .any(|j| integer_meaning(&table.column(j, rows), true) == Some(IntegerMeaning::Years));
+    let family = |f: Family| {
+        (0..roles.len())
+            .filter(|j| other(*j))
+            .any(|j| roles[j] == Role::Period(f))
+    };
+    let (weeks, days) = (family(Family::Week), family(Family::Date));
+    let fits = |part: &GridPart| match part {
+        GridPart::Year(_) => years,
+        GridPart::Week => weeks,
+        GridPart::Day => days,
+    };
+    let named: Vec<usize> = parts
+        .iter()
+        .filter(|(_, part)| fits(part))
+        .map(|(j, _)| *j)
+        .collect();
+    // Numbered parts must count from 1 across the header, as a calendar does.
+    let numbers: Vec<u32> = parts
+        .iter()
+        .filter_map(|(_, part)| match part {
+            GridPart::Year(Some(n)) => Some(*n),
+            _ => None,
+        })
+        .collect();
+    let counting = numbers.iter().enumerate().all(|(i, n)| *n == i as u32 + 1);
     let &first = named.first()?;
-    // The rows must be years or weeks for the columns to be their parts: beside months in
-    // the rows, "W1", "W2" are warehouses and "April", "May" items.
-    let rows_are_years_or_weeks = (0..roles.len()).filter(|j| !named.contains(j)).any(|j| {
-        matches!(roles[j], Role::Period(Family::Week))
-            || integer_meaning(&table.column(j, rows), true) == Some(IntegerMeaning::Years)
-    });
-    (rows_are_years_or_weeks && named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| {
-        RowError {
-            row: header.line,
-            column: table.column_name(first),
-            text: table.column_name(first),
-            message: format!(
-                "expected items or quantities under the header; {} name parts of the calendar \
+    (counting && named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| RowError {
+        row: header.line,
+        column: table.column_name(first),
+        text: table.column_name(first),
+        message: format!(
+            "expected items or quantities under the header; {} name parts of the calendar \
              (months, quarters, weeks, weekdays or times of day), so the table is a grid with \
              the calendar across the header: write one row per period (e.g. 2023-01,5; with an \
              item column where there are several items), or year, month and quantity columns",
-                named
-                    .iter()
-                    .take(3)
-                    .map(|j| table.column_name(*j))
-                    .chain((named.len() > 3).then(|| "...".to_string()))
-                    .collect::<Vec<_>>()
-                    .join(", ")
-            ),
-        }
+            named
+                .iter()
+                .take(3)
+                .map(|j| table.column_name(*j))
+                .chain((named.len() > 3).then(|| "...".to_string()))
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
     })
 }
 
-/// Whether a header cell names a part of a year or week as grids write them: what
-/// [`calendar_name`] reads, and also with a dot ("Jan.", "Sept."), "Qtr 1", "Quarter 1", "1st
-/// Qtr", "M01", "P1" to "P13" (accounting periods), "H1", "H2" and two-letter weekdays ("Mo").
-fn calendar_header(cell: &str) -> bool {
+/// What a grid's header cell names: a part of a year (a month, quarter, half, week or
+/// accounting period, with its number where it is written as one), of a week (a weekday) or
+/// of a day (a time).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum GridPart {
+    Year(Option<u32>),
+    Week,
+    Day,
+}
+
+/// The part of the calendar a header cell names as grids write them: month names (also with
+/// a dot, "Jan.", "Sept."), weekdays (also "Mo", "Tu"), times of day, and numbered parts
+/// "Q1", "W5", "Qtr 1", "Quarter 1", "1st Qtr", "M01", "P1" to "P13" (accounting periods),
+/// "H1", "H2". `None` for anything else.
+fn grid_header(cell: &str) -> Option<GridPart> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
     let words: Vec<&str> = lower
         .split(|c: char| !c.is_alphanumeric())
@@ -943,22 +1002,49 @@ fn calendar_header(cell: &str) -> bool {
             .map(str::trim)
             .filter(|n| !n.is_empty() && n.len() <= 2 && n.bytes().all(|b| b.is_ascii_digit()))
             .and_then(|n| n.parse::<u32>().ok())
-            .is_some_and(|n| (1..=max).contains(&n))
+            .filter(|n| (1..=max).contains(n))
     };
-    let ordinal_quarter = matches!(words.as_slice(), [n, "qtr" | "quarter"]
-        if matches!(*n, "1st" | "2nd" | "3rd" | "4th"));
-    calendar_name(&lower)
-        || lower == "sept"
-        || numbered("qtr", 4)
-        || numbered("quarter", 4)
-        || ordinal_quarter
-        || numbered("m", 12)
-        || numbered("p", 13)
-        || numbered("h", 2)
-        || matches!(
-            lower.as_str(),
-            "mo" | "tu" | "we" | "th" | "fr" | "sa" | "su"
-        )
+    let ordinal = match words.as_slice() {
+        [n, "qtr" | "quarter"] => ["1st", "2nd", "3rd", "4th"]
+            .iter()
+            .position(|o| o == n)
+            .map(|i| i as u32 + 1),
+        _ => None,
+    };
+    const WEEKDAYS: [&str; 14] = [
+        "mon", "tue", "tues", "wed", "thu", "thur", "thurs", "fri", "sat", "sun", "mo", "tu", "we",
+        "th",
+    ];
+    const FULL_DAYS: [&str; 10] = [
+        "monday",
+        "tuesday",
+        "wednesday",
+        "thursday",
+        "friday",
+        "saturday",
+        "sunday",
+        "fr",
+        "sa",
+        "su",
+    ];
+    if WEEKDAYS.contains(&lower.as_str()) || FULL_DAYS.contains(&lower.as_str()) {
+        return Some(GridPart::Week);
+    }
+    if is_time_of_day(&lower) {
+        return Some(GridPart::Day);
+    }
+    let number = numbered("qtr", 4)
+        .or_else(|| numbered("quarter", 4))
+        .or(ordinal)
+        .or_else(|| numbered("q", 4))
+        .or_else(|| numbered("w", 53))
+        .or_else(|| numbered("m", 12))
+        .or_else(|| numbered("p", 13))
+        .or_else(|| numbered("h", 2));
+    if number.is_some() {
+        return Some(GridPart::Year(number));
+    }
+    (calendar_name(&lower) || lower == "sept").then_some(GridPart::Year(None))
 }
 
 /// The error for calendar column `j` when the table has no period to place its rows: at the
@@ -1211,8 +1297,8 @@ const RUNNING_COMPANIONS: [&str; 12] = [
 
 /// Whether a header names a stock level, goods received or returned, a running total or a
 /// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to
-/// date", "On order", "Goods in", a percent sign): "Qty on hand", "YTD Units", "Year to date",
-/// "Mix %" do; "Stock pot",
+/// date", "On order", "Goods in", a percent sign not after a number): "Qty on hand", "YTD
+/// Units", "Year to date", "Mix %" do; "Stock" alone (a flower), "Stock 500", "Gin 40%", "Stock pot",
 /// "Stock sales" and "Sales" do not. Read as demand, such a column would be planned as an
 /// item (a wide table) or read as the quantity sold (a long table's "Units in stock" before
 /// "Units sold"). Common practice: sales reports carry these columns beside the sales.
@@ -1236,11 +1322,25 @@ pub(super) fn names_no_demand(name: &str) -> bool {
             .as_slice(),
         ["on", "order"] | ["qty" | "units", "on", "order"] | ["goods", "in"]
     );
-    name.contains('%')
+    // A percent sign after a number names a product ("Gin 40%"); alone, a share ("Mix %").
+    let share = name.match_indices('%').any(|(at, _)| {
+        !name[..at]
+            .trim_end()
+            .ends_with(|c: char| c.is_ascii_digit())
+    });
+    // One of these words alone may name a product ("Stock", a flower; "Balance", a board);
+    // with digits the header names a product ("Stock 500").
+    const ALONE_AMBIGUOUS: [&str; 9] = [
+        "stock", "balance", "returns", "return", "share", "opening", "closing", "hand", "running",
+    ];
+    let ambiguous = matches!(words.as_slice(), [w] if ALONE_AMBIGUOUS.contains(&w.as_str()))
+        || words.iter().any(|w| w.bytes().all(|b| b.is_ascii_digit()));
+    share
         || inbound
-        || only(&STOCK_WORDS, &STOCK_COMPANIONS)
-        || only(&RUNNING_WORDS, &RUNNING_COMPANIONS)
-        || to_date
+        || (!ambiguous
+            && (only(&STOCK_WORDS, &STOCK_COMPANIONS)
+                || only(&RUNNING_WORDS, &RUNNING_COMPANIONS)
+                || to_date))
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
@@ -1343,7 +1443,18 @@ fn codes_beside(
     let named = named_items(table, numeric);
     let columns = |js: &[usize]| columns_of(table, rows, js);
     if !named.is_empty() {
-        return if named.len() < numeric.len() && item_codes(&columns(&named), periods) {
+        let cells = columns(&named);
+        // One number on every row under an item's header: one item's code (an export of a
+        // single product), never a quantity.
+        // Only under a header naming an item and nothing more ("Item", "Item no", "SKU"; not
+        // "Shop A", a store whose sales may stand still).
+        let one_item = named.len() == 1
+            && header_is_only(&table.column_name(named[0]), &ITEM_WORDS)
+            && cells.iter().all(|c| {
+                c.iter().all(|cell| whole_number(cell)) && c.windows(2).all(|w| w[0] == w[1])
+            })
+            && periods.len() >= 2;
+        return if named.len() < numeric.len() && (one_item || item_codes(&cells, periods)) {
             named
         } else {
             Vec::new()
@@ -1362,31 +1473,41 @@ fn codes_beside(
 }
 
 /// Whether a column of whole numbers that no header word names as items (`codes`, beside
-/// the period cells `periods`, the two as long) has the shape of a product list: most
-/// periods stand on two rows or more (several products each period), and the (code, period)
-/// pairs fill at least half of all codes times periods (products sell, or are written,
-/// through much of the history; one starting late or stopping early keeps the table a list).
-/// Quantities in a table of one row per period with a period repeated (a correction row, two
-/// exports stacked) repeat and pair with each period once too, but their values are many
-/// and scattered: a few periods repeat (a correction) or the values fill a small share of
-/// values times periods (stacked exports). Read as codes they would make items of
-/// quantities, so that table is read as it looks, with the repeats errors. Our choice: half,
-/// both times.
+/// the period cells `periods`, the two as long, in file order) has the shape of a product
+/// list: most periods stand on two rows or more (several products each period), and the rows
+/// are not two or more copies of one table stacked. A table of one row per period with a
+/// period repeated holds quantities: a correction row repeats a few periods only; stacked
+/// exports run through the periods in long runs (each period later than the one above)
+/// within which the column changes from row to row, where a product list sorted by product
+/// keeps one code through each such run and one sorted by period runs over a period's few
+/// rows only. Read as codes, quantities would make items of quantities, so those tables are
+/// read as they look, with the repeats errors. Our choices: half the periods; runs of three
+/// rows on average; a code changing within most runs.
 fn codes_recur(codes: &[&str], periods: &[&str]) -> bool {
-    let distinct = |cells: &[&str]| {
-        let mut cells = cells.to_vec();
-        cells.sort_unstable();
-        cells.dedup();
-        cells.len()
-    };
-    let (codes_count, periods_count) = (distinct(codes), distinct(periods));
     let mut sorted = periods.to_vec();
     sorted.sort_unstable();
+    let distinct = sorted.chunk_by(|a, b| a == b).count();
     let repeating = sorted
         .chunk_by(|a, b| a == b)
         .filter(|run| run.len() >= 2)
         .count();
-    2 * repeating >= periods_count && 2 * codes.len() >= codes_count * periods_count
+    // Runs of rows whose period labels rise, compared as written: ISO labels (2024-01,
+    // 2024-01-31) rise as text; other forms break runs early, which only keeps the codes
+    // (the reading before this rule).
+    let mut runs: Vec<(usize, usize)> = Vec::new();
+    for i in 0..periods.len() {
+        match runs.last_mut() {
+            Some((_, end)) if periods[i] > periods[i - 1] => *end = i + 1,
+            _ => runs.push((i, i + 1)),
+        }
+    }
+    let long_runs = 3 * runs.len() <= periods.len();
+    let changing = runs
+        .iter()
+        .filter(|(start, end)| codes[*start..*end].iter().any(|c| *c != codes[*start]))
+        .count();
+    let stacked = long_runs && 2 * changing > runs.len();
+    2 * repeating >= distinct && !stacked
 }
 
 /// In a table of numbers only, with no period column found by its cells: the columns whose
