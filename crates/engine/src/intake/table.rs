@@ -925,6 +925,9 @@ fn calendar_grid(
         .iter()
         .filter_map(|j| Some((*j, grid_header(header.cells.get(*j)?)?)))
         .collect();
+    if parts.len() < 2 {
+        return None;
+    }
     let other = |j: usize| !parts.iter().any(|(k, _)| *k == j);
     let years = !split
         && (0..roles.len())
