@@ -28,7 +28,8 @@ use std::collections::{HashMap, HashSet};
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
-use super::table::{header_is_only, names_no_demand, wide_row_error, Plan, Table};
+use super::shapes::names_no_demand;
+use super::table::{header_is_only, wide_row_error, Plan, Table};
 use super::text::Record;
 
 mod across;

@@ -171,15 +171,6 @@ fn month_name(word: &str) -> Option<u32> {
 /// or a time of day ("09:15", "13:00:00", "9:30 am"). Such a column holds calendar details,
 /// not item names.
 pub(crate) fn calendar_name(cell: &str) -> bool {
-    const WEEKDAYS: [&str; 7] = [
-        "monday",
-        "tuesday",
-        "wednesday",
-        "thursday",
-        "friday",
-        "saturday",
-        "sunday",
-    ];
     let lower = cell.trim().to_lowercase();
     let numbered = |prefix: char, max: u32| {
         lower
@@ -190,11 +181,26 @@ pub(crate) fn calendar_name(cell: &str) -> bool {
     };
     month_name(&lower).is_some()
         || time_of_day(&lower)
-        || WEEKDAYS
-            .iter()
-            .any(|day| lower == *day || (lower.len() >= 3 && day.starts_with(lower.as_str())))
+        || weekday_name(&lower)
         || numbered('q', 4)
         || numbered('w', 53)
+}
+
+/// Whether a lower-case word names a weekday: in full or by its first three letters or more
+/// ("mon", "thurs").
+pub(crate) fn weekday_name(lower: &str) -> bool {
+    const WEEKDAYS: [&str; 7] = [
+        "monday",
+        "tuesday",
+        "wednesday",
+        "thursday",
+        "friday",
+        "saturday",
+        "sunday",
+    ];
+    WEEKDAYS
+        .iter()
+        .any(|day| lower == *day || (lower.len() >= 3 && day.starts_with(lower)))
 }
 
 /// Whether a cell is a time of day alone ("09:15", "1:30 PM"): a till's time column.

@@ -124,6 +124,7 @@ mod mark;
 mod number;
 mod order;
 mod period;
+mod shapes;
 mod stock_table;
 mod table;
 mod text;

@@ -1,0 +1,366 @@
+//! Shapes of hand-made sales reports that read as tables of items but mean something else:
+//! a calendar across the header (a grid of one item's values), columns of stock levels and
+//! running totals beside the sales, text columns that note the rows, and quantities that look
+//! like product numbers in stacked exports. Each rule answers one question for the layout
+//! rule in [`super::table`], which calls them and reports what they decided.
+//!
+//! Kept apart from: deciding the layout (that is [`super::table`]) and reading cells. Every
+//! word list here is common practice in sales exports, not a standard; each rule's doc says
+//! which ordinary tables it must leave alone, and `tests/intake/sales_reports.rs` holds both
+//! sides.
+
+use super::label::{calendar_name, is_time_of_day, weekday_name, Family};
+use super::period::{integer_meaning, IntegerMeaning};
+use super::table::{
+    all_distinct, columns_of, header_is_only, header_says, header_words, once_per_period, Role,
+    Table, ITEM_WORDS,
+};
+use super::text::Record;
+use super::RowError;
+
+/// Header words of a text column that notes rows rather than names items ("Comment",
+/// "Supplier", "Promo"): common practice in sales exports. Only these: a column under any
+/// other name ("Model", "Style") may name items even where each period has one row (a
+/// low-volume product line).
+const NOTE_WORDS: [&str; 22] = [
+    "comment",
+    "comments",
+    "note",
+    "notes",
+    "remark",
+    "remarks",
+    "memo",
+    "supplier",
+    "suppliers",
+    "vendor",
+    "status",
+    "reason",
+    "promo",
+    "promotion",
+    "event",
+    "events",
+    "weather",
+    "flag",
+    "info",
+    "campaign",
+    "explanation",
+    "annotation",
+];
+
+/// Of the text columns `item_columns`, those that note the periods rather than name items:
+/// the ones whose header names a note ([`NOTE_WORDS`]) and no item ([`ITEM_WORDS`]), where
+/// they split what would otherwise be read as one history (each period on one row), or,
+/// beside columns naming the items (text, or numbers under an item's header,
+/// `named_numbers`), where those alone hold each item's period on one row.
+/// `Month,Qty,Comment` over "ok", "promo", "ok" is one item's history with a note beside it;
+/// read as items, "ok" and "promo" would split it, with the months of the other read as no
+/// sales; `Month,Item,Supplier,Qty` with a supplier change would split an item in two.
+pub(super) fn notes_columns(
+    table: &Table,
+    rows: &[&Record],
+    item_columns: &[usize],
+    named_numbers: &[usize],
+    periods: &[&str],
+) -> Vec<usize> {
+    let notes_only = |j: &usize| {
+        let name = table.column_name(*j);
+        table.header.is_some()
+            && header_says(&name, &NOTE_WORDS)
+            && !header_says(&name, &ITEM_WORDS)
+    };
+    if item_columns.is_empty() || periods.len() != rows.len() {
+        return Vec::new();
+    }
+    let (notes, mut others): (Vec<usize>, Vec<usize>) =
+        item_columns.iter().partition(|j| notes_only(j));
+    // Product numbers under an item's header ("SKU") name items too.
+    others.extend(named_numbers.iter().copied());
+    let unique = if others.is_empty() {
+        all_distinct(periods)
+    } else {
+        once_per_period(&columns_of(table, rows, &others), periods)
+    };
+    if unique {
+        notes
+    } else {
+        Vec::new()
+    }
+}
+
+/// The error for a grid of one item's values with part of the calendar across the header
+/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun`): at least two of the
+/// number columns `numeric`, and more than half of them, headed by parts of what a row is
+/// ([`grid_header`]): parts of a year over rows of plain years (no month column beside,
+/// `split`), weekdays over rows of weeks, times of day over rows of dates; numbered parts
+/// ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
+/// would be an item of its own with a value a year, forecast by the year; so the table is
+/// refused at its first such header cell, as [`super::across`] refuses the same grid turned
+/// round. `None` otherwise: beside monthly rows "W1", "W2" are warehouses and "April", "May"
+/// items; "M6", "M8" are bolt sizes.
+pub(super) fn calendar_grid(
+    table: &Table,
+    rows: &[&Record],
+    roles: &[Role],
+    numeric: &[usize],
+    split: bool,
+) -> Option<RowError> {
+    let header = table.header.as_ref()?;
+    let parts: Vec<(usize, GridPart)> = numeric
+        .iter()
+        .filter_map(|j| Some((*j, grid_header(header.cells.get(*j)?)?)))
+        .collect();
+    if parts.len() < 2 {
+        return None;
+    }
+    let other = |j: usize| !parts.iter().any(|(k, _)| *k == j);
+    let years = !split
+        && (0..roles.len())
+            .filter(|j| other(*j))
+            .any(|j| integer_meaning(&table.column(j, rows), true) == Some(IntegerMeaning::Years));
+    let family = |f: Family| {
+        (0..roles.len())
+            .filter(|j| other(*j))
+            .any(|j| roles[j] == Role::Period(f))
+    };
+    let (weeks, days) = (family(Family::Week), family(Family::Date));
+    let fits = |part: &GridPart| match part {
+        GridPart::Year(_) => years,
+        GridPart::Week => weeks,
+        GridPart::Day => days,
+    };
+    let named: Vec<usize> = parts
+        .iter()
+        .filter(|(_, part)| fits(part))
+        .map(|(j, _)| *j)
+        .collect();
+    // Numbered parts must count from 1 across the header, as a calendar does.
+    let numbers: Vec<u32> = parts
+        .iter()
+        .filter_map(|(_, part)| match part {
+            GridPart::Year(Some(n)) => Some(*n),
+            _ => None,
+        })
+        .collect();
+    let counting = numbers.iter().enumerate().all(|(i, n)| *n == i as u32 + 1);
+    let &first = named.first()?;
+    (counting && named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| RowError {
+        row: header.line,
+        column: table.column_name(first),
+        text: table.column_name(first),
+        message: format!(
+            "expected items or quantities under the header; {} name parts of the calendar \
+             (months, quarters, weeks, weekdays or times of day), so the table is a grid with \
+             the calendar across the header: write one row per period (e.g. 2023-01,5; with an \
+             item column where there are several items), or year, month and quantity columns",
+            named
+                .iter()
+                .take(3)
+                .map(|j| table.column_name(*j))
+                .chain((named.len() > 3).then(|| "...".to_string()))
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+    })
+}
+
+/// What a grid's header cell names: a part of a year (a month, quarter, half, week or
+/// accounting period, with its number where it is written as one), of a week (a weekday) or
+/// of a day (a time).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum GridPart {
+    Year(Option<u32>),
+    Week,
+    Day,
+}
+
+/// The part of the calendar a header cell names as grids write them: month names (also with
+/// a dot, "Jan.", "Sept."), weekdays (also "Mo", "Tu"), times of day, and numbered parts
+/// "Q1", "W5", "Qtr 1", "Quarter 1", "1st Qtr", "M01", "P1" to "P13" (accounting periods),
+/// "H1", "H2". `None` for anything else.
+fn grid_header(cell: &str) -> Option<GridPart> {
+    let lower = cell.trim().trim_end_matches('.').to_lowercase();
+    let words: Vec<&str> = lower
+        .split(|c: char| !c.is_alphanumeric())
+        .filter(|w| !w.is_empty())
+        .collect();
+    let numbered = |prefix: &str, max: u32| {
+        lower
+            .strip_prefix(prefix)
+            .map(str::trim)
+            .filter(|n| !n.is_empty() && n.len() <= 2 && n.bytes().all(|b| b.is_ascii_digit()))
+            .and_then(|n| n.parse::<u32>().ok())
+            .filter(|n| (1..=max).contains(n))
+    };
+    let ordinal = match words.as_slice() {
+        [n, "qtr" | "quarter"] => ["1st", "2nd", "3rd", "4th"]
+            .iter()
+            .position(|o| o == n)
+            .map(|i| i as u32 + 1),
+        _ => None,
+    };
+    // Weekdays as grids shorten them too ("Mo", "Tu").
+    let two_letters = matches!(
+        lower.as_str(),
+        "mo" | "tu" | "we" | "th" | "fr" | "sa" | "su"
+    );
+    if weekday_name(&lower) || two_letters {
+        return Some(GridPart::Week);
+    }
+    if is_time_of_day(&lower) {
+        return Some(GridPart::Day);
+    }
+    let number = numbered("qtr", 4)
+        .or_else(|| numbered("quarter", 4))
+        .or(ordinal)
+        .or_else(|| numbered("q", 4))
+        .or_else(|| numbered("w", 53))
+        .or_else(|| numbered("m", 12))
+        .or_else(|| numbered("p", 13))
+        .or_else(|| numbered("h", 2));
+    if number.is_some() {
+        return Some(GridPart::Year(number));
+    }
+    (calendar_name(&lower) || lower == "sept").then_some(GridPart::Year(None))
+}
+
+/// Header words that name a stock level, goods coming in or going back, or a share: figures
+/// beside the sales, never the demand itself ("Stock on hand", "Units in stock", "Closing
+/// bal.", "Qty available", "Received", "Return qty", "Share").
+const STOCK_WORDS: [&str; 24] = [
+    "stock",
+    "inventory",
+    "inv",
+    "hand",
+    "onhand",
+    "soh",
+    "oh",
+    "opening",
+    "closing",
+    "ending",
+    "beginning",
+    "balance",
+    "bal",
+    "available",
+    "avail",
+    "received",
+    "returned",
+    "returns",
+    "return",
+    "refund",
+    "refunds",
+    "share",
+    "percent",
+    "pct",
+];
+
+/// Words that stand beside a [`STOCK_WORDS`] word in a header that names such a figure and
+/// nothing else ("Qty on hand", "Units in stock", "Free stock", "Stock level EOM"); not
+/// "sales" or "sold": "Stock sales" are sales.
+const STOCK_COMPANIONS: [&str; 16] = [
+    "on", "in", "at", "of", "qty", "quantity", "units", "pcs", "level", "end", "start", "free",
+    "wh", "month", "period", "eom",
+];
+
+/// Header words that name a running total ("YTD Units", "Cumulative sales", "Running total").
+const RUNNING_WORDS: [&str; 7] = [
+    "ytd",
+    "mtd",
+    "cumulative",
+    "cum",
+    "cumul",
+    "running",
+    "accumulated",
+];
+
+/// Words that stand beside a [`RUNNING_WORDS`] word, or make "to date" a running total ("Year
+/// to date", "Sales to date").
+const RUNNING_COMPANIONS: [&str; 12] = [
+    "qty", "quantity", "units", "pcs", "sales", "sold", "total", "year", "month", "period", "to",
+    "date",
+];
+
+/// Whether a header names a stock level, goods received or returned, a running total or a
+/// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to
+/// date", "On order", "Goods in", a percent sign not after a number): "Qty on hand", "YTD
+/// Units", "Year to date", "Mix %" do; "Stock" alone (a flower), "Stock 500", "Gin 40%", "Stock pot",
+/// "Stock sales" and "Sales" do not. Read as demand, such a column would be planned as an
+/// item (a wide table) or read as the quantity sold (a long table's "Units in stock" before
+/// "Units sold"). Common practice: sales reports carry these columns beside the sales.
+pub(super) fn names_no_demand(name: &str) -> bool {
+    let only = |core: &[&str], companions: &[&str]| {
+        let allowed: Vec<&str> = core.iter().chain(companions).copied().collect();
+        header_is_only(name, &allowed) && header_says(name, core)
+    };
+    let words: Vec<String> = header_words(name)
+        .iter()
+        .map(|w| w.to_lowercase())
+        .collect();
+    let to_date = words.windows(2).any(|w| w[0] == "to" && w[1] == "date")
+        && header_is_only(name, &RUNNING_COMPANIONS);
+    // Goods on their way in: "On order", "Goods in" (not "Order qty", a customer's order).
+    let inbound = matches!(
+        words
+            .iter()
+            .map(String::as_str)
+            .collect::<Vec<_>>()
+            .as_slice(),
+        ["on", "order"] | ["qty" | "units", "on", "order"] | ["goods", "in"]
+    );
+    // A percent sign after a number names a product ("Gin 40%"); alone, a share ("Mix %").
+    let share = name.match_indices('%').any(|(at, _)| {
+        !name[..at]
+            .trim_end()
+            .ends_with(|c: char| c.is_ascii_digit())
+    });
+    // One of these words alone may name a product ("Stock", a flower; "Balance", a board);
+    // with digits the header names a product ("Stock 500").
+    const ALONE_AMBIGUOUS: [&str; 9] = [
+        "stock", "balance", "returns", "return", "share", "opening", "closing", "hand", "running",
+    ];
+    let ambiguous = matches!(words.as_slice(), [w] if ALONE_AMBIGUOUS.contains(&w.as_str()))
+        || words.iter().any(|w| w.bytes().all(|b| b.is_ascii_digit()));
+    share
+        || inbound
+        || (!ambiguous
+            && (only(&STOCK_WORDS, &STOCK_COMPANIONS)
+                || only(&RUNNING_WORDS, &RUNNING_COMPANIONS)
+                || to_date))
+}
+
+/// Whether a column of whole numbers that no header word names as items (`codes`, beside
+/// the period cells `periods`, the two as long, in file order) has the shape of a product
+/// list: most periods stand on two rows or more (several products each period), and the rows
+/// are not two or more copies of one table stacked. A table of one row per period with a
+/// period repeated holds quantities: a correction row repeats a few periods only; stacked
+/// exports run through the periods in long runs (each period later than the one above)
+/// within which the column changes from row to row, where a product list sorted by product
+/// keeps one code through each such run and one sorted by period runs over a period's few
+/// rows only. Read as codes, quantities would make items of quantities, so those tables are
+/// read as they look, with the repeats errors. Our choices: half the periods; runs of three
+/// rows on average; a code changing within most runs.
+pub(super) fn codes_recur(codes: &[&str], periods: &[&str]) -> bool {
+    let mut sorted = periods.to_vec();
+    sorted.sort_unstable();
+    let distinct = sorted.chunk_by(|a, b| a == b).count();
+    let repeating = sorted
+        .chunk_by(|a, b| a == b)
+        .filter(|run| run.len() >= 2)
+        .count();
+    // Runs of rows whose period labels rise, compared as written: ISO labels (2024-01,
+    // 2024-01-31) rise as text; other forms break runs early, which only keeps the codes
+    // (the reading before this rule).
+    let mut runs: Vec<(usize, usize)> = Vec::new();
+    for i in 0..periods.len() {
+        match runs.last_mut() {
+            Some((_, end)) if periods[i] > periods[i - 1] => *end = i + 1,
+            _ => runs.push((i, i + 1)),
+        }
+    }
+    let long_runs = 3 * runs.len() <= periods.len();
+    let changing = runs
+        .iter()
+        .filter(|(start, end)| codes[*start..*end].iter().any(|c| *c != codes[*start]))
+        .count();
+    let stacked = long_runs && 2 * changing > runs.len();
+    2 * repeating >= distinct && !stacked
+}
