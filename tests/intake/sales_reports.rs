@@ -56,7 +56,28 @@ fn rows_wider_than_the_header_are_errors() {
             ..Expect::default()
         },
     );
-    assert!(report.errors[0].message.contains("\"12,5\""));
+    assert!(report.errors[0].message.contains("decimal comma"));
+    // In a tab file no comma splits a number: no such hint.
+    let tabbed = check(
+        "Month\tQty\n2024-01\t12\t5\n2024-02\t13\n2024-03\t14\n",
+        Expect {
+            errors: vec![(2, "column 3", "5")],
+            ..Expect::default()
+        },
+    );
+    assert!(!tabbed.errors[0].message.contains("decimal comma"));
+    // Row numbers 1, 2, 3 before numbers are a decimal comma split, not R's row names.
+    check(
+        "Period,Seeds\n1,12,5\n2,13,0\n3,11,5\n",
+        Expect {
+            errors: vec![
+                (2, "column 3", "5"),
+                (3, "column 3", "0"),
+                (4, "column 3", "5"),
+            ],
+            ..Expect::default()
+        },
+    );
     // One row too wide among fitting ones: that row alone.
     check(
         "Month,Qty\n2024-01,12,5\n2024-02,13\n2024-03,14\n2024-04,15\n",
@@ -288,7 +309,7 @@ fn quiet_readings_are_said() {
         "Month,Qty\n2024-01,1.250\n2024-02,2.500\n2024-03,1.125\n",
         Expect {
             items: Some(vec![("Qty", some(&[1.25, 2.5, 1.125]))]),
-            warned: vec![vec!["\"1.250\"", "decimal mark", "1.25"]],
+            warned: vec![vec!["3 cells", "decimal mark", "1.25"]],
             ..Expect::default()
         },
     );
@@ -373,14 +394,15 @@ fn the_fixes_leave_ordinary_tables_alone() {
             },
         );
     }
-    for header in ["Month,Stock sales", "Month,Receipts"] {
-        check(
-            &format!("{header}\n2022-01,5\n2022-02,6\n2022-03,7\n"),
+    for header in ["Month,Stock sales,Direct sales", "Month,Receipts,Seeds"] {
+        let report = check(
+            &format!("{header}\n2022-01,5,1\n2022-02,6,2\n2022-03,7,3\n"),
             Expect {
-                layout: Some(Layout::Single),
+                layout: Some(Layout::Wide),
                 ..Expect::default()
             },
         );
+        assert_eq!(report.items.len(), 2, "{header}");
     }
     check(
         "\"Month\",\"Units\"\n\"1\",\"2022-01\",20\n\"2\",\"2022-02\",11\n\"3\",\"2022-03\",20\n",
@@ -522,5 +544,41 @@ fn ordinary_exports_the_third_review_tried() {
             warned: vec![vec!["\"Status\"", "not used"]],
             ..Expect::default()
         },
+    );
+}
+
+/// What a review of the code found: "YTD 2024" is a running total whatever its year; products
+/// named with a total's word that add nothing up ("Total Weedkiller", "Dim sum") pass without
+/// a warning; UTF-16 without its mark is read and said.
+#[test]
+fn the_code_review_cases() {
+    check(
+        "Month,Units,YTD 2024\n2024-01,5,5\n2024-02,6,11\n2024-03,7,18\n",
+        Expect {
+            items: Some(vec![("Units", some(&[5.0, 6.0, 7.0]))]),
+            warned: vec![vec!["\"YTD 2024\"", "not used"]],
+            ..Expect::default()
+        },
+    );
+    let report = check(
+        "Month,Total Weedkiller,Dim sum,Seeds\n2024-01,5,6,7\n2024-02,6,7,8\n2024-03,7,8,9\n",
+        Expect {
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items.len(), 3);
+    assert!(report.warnings.is_empty(), "{:?}", report.warnings);
+    let bare: Vec<u8> = "Month,Qty\n2024-01,10\n2024-02,12\n2024-03,11\n"
+        .encode_utf16()
+        .flat_map(u16::to_le_bytes)
+        .collect();
+    let read = morrowcast_engine::intake::read_bytes(&bare);
+    assert!(read.errors.is_empty(), "{:?}", read.errors);
+    assert_eq!(read.items[0].values, some(&[10.0, 12.0, 11.0]));
+    assert!(
+        read.warnings.iter().any(|w| w.contains("UTF-16")),
+        "{:?}",
+        read.warnings
     );
 }

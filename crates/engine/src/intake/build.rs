@@ -156,15 +156,16 @@ fn weeks_read_as_months(
         && header_is_only(&name, &allowed)
         && super::table::header_says(&name, &WEEKS);
     let row = rows.first()?;
+    let text = row.cells.get(column).cloned().unwrap_or_default();
     (weeks && frequency == Frequency::Monthly).then(|| RowError {
         row: row.line,
         column: name.clone(),
-        text: row.cells.get(column).cloned().unwrap_or_default(),
         message: format!(
-            "expected weeks under \"{name}\"; its labels read as months (2024-01 is January \
-             2024), so nothing was read: write weeks with a W (2024-W01), or name the column \
+            "expected weeks under \"{name}\"; its labels read as months (\"{text}\" as a \
+             month), so nothing was read: write weeks with a W (2024-W01), or name the column \
              Month if they are months"
         ),
+        text,
     })
 }
 

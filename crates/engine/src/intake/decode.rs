@@ -26,6 +26,8 @@ const MAX_REPORTED_LINES: usize = 20;
 pub(crate) struct Decoded {
     pub text: String,
     pub errors: Vec<RowError>,
+    /// What was assumed about the encoding, when anything was (UTF-16 without its mark).
+    pub assumed: Option<String>,
 }
 
 /// Decodes `bytes` by the rules of this module's doc.
@@ -34,7 +36,18 @@ pub(crate) fn decode(bytes: &[u8]) -> Decoded {
         [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
         [0xFE, 0xFF, rest @ ..] => decode_utf16(rest, false),
         _ => match utf16_without_mark(bytes) {
-            Some(little_endian) => decode_utf16(bytes, little_endian),
+            Some(little_endian) => Decoded {
+                assumed: Some(format!(
+                    "the file has no byte-order mark but reads as UTF-16 ({}: a zero byte beside \
+                     each letter), so it was read as such",
+                    if little_endian {
+                        "little-endian"
+                    } else {
+                        "big-endian"
+                    }
+                )),
+                ..decode_utf16(bytes, little_endian)
+            },
             None => decode_utf8(bytes),
         },
     }
@@ -98,7 +111,11 @@ fn decode_utf8(bytes: &[u8]) -> Decoded {
         "UTF-8",
         "save the file as UTF-8 (in a spreadsheet: CSV UTF-8) and read it again",
     );
-    Decoded { text, errors }
+    Decoded {
+        text,
+        errors,
+        assumed: None,
+    }
 }
 
 fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
@@ -143,7 +160,11 @@ fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
         "UTF-16 (the file starts with a UTF-16 byte-order mark)",
         "save the file again as UTF-8 (in a spreadsheet: CSV UTF-8) and read it again",
     );
-    Decoded { text, errors }
+    Decoded {
+        text,
+        errors,
+        assumed: None,
+    }
 }
 
 /// Undecodable bytes gathered by line, in order.

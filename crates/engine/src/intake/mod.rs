@@ -78,25 +78,27 @@
 //!   unless named): a row with more cells than the header names (empty header cells at its
 //!   end name nothing) is an error at each such row (a decimal comma unquoted in a comma file
 //!   would move numbers into the next item), except R's row names 1, 2, 3 under a header one
-//!   cell short; months, quarters, accounting periods or weekdays across the header over a row
-//!   per year or week (parts fitting the rows: months over plain years, weekdays over weeks,
-//!   times over days) are a grid, refused at the header; a column naming a stock level, goods
+//!   cell short; parts of what a row is across the header (months, quarters or accounting
+//!   periods over rows of plain years, weekdays over rows of ISO weeks, times over rows of
+//!   dates) are a grid, refused at the header; a column naming a stock level, goods
 //!   on order, received or returned, a running total or a share is no item and no quantity
 //!   ("Qty on hand", "YTD Units", "Mix %"); a text column named as a note ("Comment",
 //!   "Supplier") beside one row per period, or beside an item column whose items it splits in
 //!   no period, is left out; number columns are read as item codes without a header word
-//!   saying so only where most periods stand on several rows and the rows are not stacked
+//!   saying so only where at least half the periods stand on several rows and the rows are not stacked
 //!   copies of one table (a wide table with a period repeated stays wide, the repeat an
 //!   error), and one number on every row under "Item" names that one item;
-//!   labels read as months under a header naming weeks are an error (`build`); rows leaving
-//!   more periods without a row than they hold, or more than half as many and at least six,
-//!   are an error, nothing read (`build`); a subtotal with a total's word under the items it
+//!   labels read as months under a header naming weeks are an error (`build`); in a single or
+//!   wide table, rows leaving more periods without a row than they hold, or more than half as
+//!   many and at least six, are an error, nothing read (`build`; a long table reads such
+//!   periods as no sales, with its warning); a subtotal with a total's word under the items it
 //!   adds up ("Garden subtotal", "Total Inventory") is left out (`totals`).
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space or
 //!   case are one item, with a warning naming each spelling and its lines; an `n/a` item cell names no
 //!   item (an error).
-//! - Bytes: `read_bytes` decodes UTF-8, or UTF-16 with its byte-order mark, and reports every
+//! - Bytes: `read_bytes` decodes UTF-8, or UTF-16 with its byte-order mark or without it (with
+//!   a warning), and reports every
 //!   line with bytes that are not text, with the bytes; `read` reports every line holding
 //!   U+FFFD, the mark another program leaves for bytes it could not read (module `decode`).
 //! - Work is proportional to the text: the tokeniser makes at most two passes, and all items
@@ -281,18 +283,21 @@ impl IntakeReport {
     }
 }
 
-/// Reads bytes (a file as stored) into a report: UTF-8, or UTF-16 with its byte-order mark;
+/// Reads bytes (a file as stored) into a report: UTF-8, or UTF-16 with its byte-order mark or
+/// without it (said in a warning);
 /// every line holding bytes that are not text is an error (see the `decode` module). Never
 /// panics, whatever the bytes.
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     let decoded = decode::decode(bytes);
     let mut report = read_text(&decoded.text);
+    report.warnings.extend(decoded.assumed.clone());
     report.errors.extend(decode::all_errors(&decoded));
     report.errors.sort_by_key(|e| e.row);
     report
 }
 
-/// The text of `bytes` as [`read_bytes`] reads it (UTF-8, or UTF-16 with its byte-order mark;
+/// The text of `bytes` as [`read_bytes`] reads it (UTF-8, or UTF-16 with or without its
+/// byte-order mark;
 /// undecodable bytes become U+FFFD, which [`read`] then reports by line). For a front end that
 /// shows the text itself, such as the page's Intake box.
 pub fn decode_bytes(bytes: &[u8]) -> String {
@@ -336,7 +341,8 @@ fn read_text(text: &str) -> IntakeReport {
                 .to_string(),
         });
     }
-    let table = table::shape(tokens.records);
+    let mut table = table::shape(tokens.records);
+    table.comma_delimited = delimiter == Delimiter::Comma;
     for title in &table.titles {
         let words: Vec<&str> = title
             .cells

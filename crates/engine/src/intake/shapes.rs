@@ -88,10 +88,13 @@ pub(super) fn notes_columns(
 }
 
 /// The error for a grid of one item's values with part of the calendar across the header
-/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun`): at least two of the
+/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels):
+/// at least two of the
 /// number columns `numeric`, and more than half of them, headed by parts of what a row is
 /// ([`grid_header`]): parts of a year over rows of plain years (no month column beside,
-/// `split`), weekdays over rows of weeks, times of day over rows of dates; numbered parts
+/// `split`), weekdays over rows of ISO weeks ("2024-W01"; weekly dates or week numbers are
+/// not told from other rows here, so those grids pass as items), times of day over rows of
+/// dates; numbered parts
 /// ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
 /// would be an item of its own with a value a year, forecast by the year; so the table is
 /// refused at its first such header cell, as [`super::across`] refuses the same grid turned
@@ -155,7 +158,7 @@ pub(super) fn calendar_grid(
             named
                 .iter()
                 .take(3)
-                .map(|j| table.column_name(*j))
+                .map(|j| format!("\"{}\"", table.column_name(*j)))
                 .chain((named.len() > 3).then(|| "...".to_string()))
                 .collect::<Vec<_>>()
                 .join(", ")
@@ -313,12 +316,16 @@ pub(super) fn names_no_demand(name: &str) -> bool {
             .ends_with(|c: char| c.is_ascii_digit())
     });
     // One of these words alone may name a product ("Stock", a flower; "Balance", a board);
-    // with digits the header names a product ("Stock 500").
+    // with a number after it, too ("Stock 500"); "YTD 2024" is still a running total.
     const ALONE_AMBIGUOUS: [&str; 9] = [
         "stock", "balance", "returns", "return", "share", "opening", "closing", "hand", "running",
     ];
-    let ambiguous = matches!(words.as_slice(), [w] if ALONE_AMBIGUOUS.contains(&w.as_str()))
-        || words.iter().any(|w| w.bytes().all(|b| b.is_ascii_digit()));
+    let digits = |w: &String| w.bytes().all(|b| b.is_ascii_digit());
+    let ambiguous = match words.as_slice() {
+        [w] => ALONE_AMBIGUOUS.contains(&w.as_str()),
+        [w, n] => ALONE_AMBIGUOUS.contains(&w.as_str()) && digits(n),
+        _ => false,
+    };
     share
         || inbound
         || (!ambiguous
@@ -329,7 +336,7 @@ pub(super) fn names_no_demand(name: &str) -> bool {
 
 /// Whether a column of whole numbers that no header word names as items (`codes`, beside
 /// the period cells `periods`, the two as long, in file order) has the shape of a product
-/// list: most periods stand on two rows or more (several products each period), and the rows
+/// list: at least half the periods stand on two rows or more (several products each period), and the rows
 /// are not two or more copies of one table stacked. A table of one row per period with a
 /// period repeated holds quantities: a correction row repeats a few periods only; stacked
 /// exports run through the periods in long runs (each period later than the one above)

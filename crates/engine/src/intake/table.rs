@@ -37,9 +37,9 @@
 //! a period ("week", "Month no"; not "Day lily" or "Year planner", items' names), are
 //! neither items nor quantities ([`calendar_columns`]): left out with a warning; with no
 //! period to place them they are an error at their first cell, since read in file order
-//! they could misplace a period. Number columns headed by months, quarters, weeks or
-//! weekdays are a grid of values with the calendar across the header: refused
-//! ([`calendar_grid`]). In a single or wide table, a number column whose header
+//! they could misplace a period. Number columns headed by parts of what a row is (months or
+//! quarters over rows of plain years, weekdays over rows of weeks) are a grid of values with
+//! the calendar across the header: refused ([`calendar_grid`]). In a single or wide table, a number column whose header
 //! names a price, money, an order number, a stock level or a running total and nothing else
 //! ([`names_money`], [`names_order_number`], [`names_no_demand`]) is no item: left out with a
 //! warning. Text columns that note the periods rather than name items are left out with a
@@ -54,7 +54,9 @@
 //! written as whole numbers make item columns too, with a warning: beside a period column, the
 //! number columns the header names as items (item, sku, store, ...), together, or without such
 //! words the first number column not named a quantity, whose (item, period) pairs never repeat
-//! ([`codes_beside`], [`item_codes`]); beside text item names, the number columns named as
+//! and whose rows have the shape of a product list ([`codes_beside`], [`item_codes`],
+//! [`codes_recur`]), and one number on every row under a header naming only an item ("Item":
+//! that one item's code); beside text item names, the number columns named as
 //! items or stores where the names alone repeat a period (`date,item,store,sales`;
 //! [`codes_beside_names`]); in a table of numbers only, the same where the header names the
 //! items and one period column (`series,t,value`; [`numbered_by_header`]); numbers that would
@@ -99,6 +101,10 @@ pub(crate) struct Table {
     pub coded: bool,
     pub rows: Vec<Record>,
     pub width: usize,
+    /// Whether the cells are split at commas, where a decimal comma or a thousands comma
+    /// splits a number in two unless quoted (the hints of [`wide_row_error`]); set by the
+    /// caller, which chose the delimiter.
+    pub comma_delimited: bool,
 }
 
 impl Table {
@@ -143,7 +149,9 @@ fn overflow(record: &Record, width: usize) -> Option<(usize, &str)> {
 /// one), at that cell; `None` when the row fits.
 pub(crate) fn wide_row_error(table: &Table, row: &Record) -> Option<RowError> {
     let (column, text) = overflow(row, table.width)?;
-    let hint = if text.chars().all(|c| c.is_ascii_digit()) && text.len() == 3 {
+    let hint = if !table.comma_delimited {
+        ""
+    } else if text.chars().all(|c| c.is_ascii_digit()) && text.len() == 3 {
         "; a number whose thousands separator is also the delimiter must be quoted, like \
          \"1,200\""
     } else if looks_number(text) {
@@ -372,11 +380,17 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     // put back, as other tools write it (`,date,value`), and the numbering column is then
     // read as such (with its warning).
     if let Some(h) = header.as_mut() {
+        // The first named column must hold something other than numbers (R's dates or
+        // names): under `Period,Seeds` rows `1,12,5` are a decimal comma, not row names.
         let numbered = rest
             .iter()
             .filter(|r| !r.is_blank())
             .enumerate()
-            .all(|(i, r)| r.cells.first().is_some_and(|c| *c == (i + 1).to_string()));
+            .all(|(i, r)| r.cells.first().is_some_and(|c| *c == (i + 1).to_string()))
+            && rest
+                .iter()
+                .filter(|r| !r.is_blank())
+                .any(|r| r.cells.get(1).is_some_and(|c| !looks_number(c)));
         let filled_width = h
             .cells
             .iter()
@@ -417,6 +431,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         coded: coded_at.is_some(),
         rows: rest,
         width,
+        comma_delimited: false,
     }
 }
 
@@ -448,8 +463,9 @@ pub(crate) struct Plan {
     /// says so.
     pub calendar: Vec<usize>,
     /// Number columns of a single or wide table whose header names a price, an amount of
-    /// money or an order number ([`names_money`], [`names_order_number`]): not items; not
-    /// read, and the report says so.
+    /// money, an order number, a stock level or a running total ([`names_money`],
+    /// [`names_order_number`], [`names_no_demand`]): not items; not read, and the report says
+    /// so.
     pub not_quantities: Vec<usize>,
     /// Text columns beside one row per period that note the periods ("ok", "promo", a
     /// supplier) rather than name items ([`notes_columns`]): not read; the report says so.
@@ -512,8 +528,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         item_columns.retain(|j| !split.columns().contains(j));
         period = Some((split.year(), None));
     }
-    // Number columns headed by months, quarters or weekdays hold one item's values, the
-    // calendar across the header ([`calendar_grid`]).
+    // Number columns headed by parts of what a row is (months over years, weekdays over
+    // weeks) hold one item's values, the calendar across the header ([`calendar_grid`]).
     if let Some(error) = calendar_grid(table, &rows, &roles, &numeric, split.is_some()) {
         return Err(error);
     }

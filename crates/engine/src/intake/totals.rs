@@ -98,8 +98,8 @@ fn total_name(name: &str) -> bool {
 }
 
 /// The items whose name, or a part of it joined with " / " (a store or an item column),
-/// is nothing but a total's ([`total_name`]) or holds a total's word ([`has_total_word`]),
-/// for the warning when such an item does not add
+/// is nothing but a total's ([`total_name`]) or reads as a group's subtotal
+/// ([`subtotal_name`]), for the warning when such an item does not add
 /// up to the others: a total whose figures differ (rounded, another filter, a subtotal of
 /// one store's items) must not pass silently as an item.
 pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
@@ -109,7 +109,7 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
     items
         .iter()
         .enumerate()
-        .filter(|(_, item)| item.name.split(" / ").any(total_name) || has_total_word(&item.name))
+        .filter(|(_, item)| item.name.split(" / ").any(total_name) || subtotal_name(&item.name))
         .map(|(i, _)| i)
         .collect()
 }
@@ -242,6 +242,20 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
         }
     }
     found
+}
+
+/// Whether a name reads as a group's subtotal: it holds "subtotal", or ends with "total",
+/// "totals" or "tot" ("Garden subtotal", "Tools totals", "Garden tot."). Not "Total
+/// Weedkiller" or "Dim sum", products, which [`has_total_word`] lets through only where
+/// their figures add up the items before them.
+fn subtotal_name(name: &str) -> bool {
+    let lower = name.to_lowercase();
+    let words: Vec<&str> = lower
+        .split(|c: char| !c.is_alphanumeric())
+        .filter(|w| !w.is_empty())
+        .collect();
+    words.iter().any(|w| matches!(*w, "subtotal" | "subtotals"))
+        || words.len() >= 2 && matches!(words[words.len() - 1], "total" | "totals" | "tot")
 }
 
 /// Whether a name holds a total's word anywhere ("Garden subtotal", "Total Inventory", "Tools
