@@ -582,3 +582,25 @@ fn the_code_review_cases() {
         read.warnings
     );
 }
+
+/// A thousands dot in a comma file ("1.050" among 850, 920) read with the file's decimal dot
+/// would be a thousand times too small: an error at the cell, never 1.05. Small decimals
+/// among small values are read as before.
+#[test]
+fn a_thousands_dot_among_larger_values_is_an_error() {
+    let report = check(
+        "Month,Qty\n2024-01,850\n2024-02,920\n2024-03,1.050\n2024-04,990\n2024-05,880\n",
+        Expect {
+            errors: vec![(4, "Qty", "1.050")],
+            ..Expect::default()
+        },
+    );
+    assert!(report.errors[0].message.contains("(1050)"));
+    check(
+        "Month,Qty\n2024-01,1.250\n2024-02,2.5\n2024-03,0.125\n2024-04,3\n2024-05,2\n",
+        Expect {
+            items: Some(vec![("Qty", some(&[1.25, 2.5, 0.125, 3.0, 2.0]))]),
+            ..Expect::default()
+        },
+    );
+}

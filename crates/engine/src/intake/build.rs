@@ -117,6 +117,9 @@ struct Builder<'a> {
     slots_left: usize,
     slots: usize,
     rows_read: usize,
+    /// Cells (line, column) whose decimal-dot reading is a thousandth of their column's size
+    /// ([`super::mark::thousands_dots`]): errors, with the value read and the column's size.
+    thousands_dots: HashMap<(usize, usize), (f64, f64)>,
 }
 
 /// One row of a long table: period, quantity (None when empty) and the record it came from.
@@ -188,7 +191,21 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
         slots_left: slots,
         slots,
         rows_read,
+        thousands_dots: HashMap::new(),
     };
+    // In a comma file a lone "1.050" is read with a decimal dot (module `mark`); where that
+    // makes it a thousandth of its column, it is refused, never read a thousand times small.
+    // A column is one item's only in single and wide tables (long and across ones mix
+    // items of any size in a column).
+    let one_item_columns = matches!(plan.layout, Layout::Single | Layout::Wide);
+    if table.comma_delimited && mark == DecimalMark::Dot && one_item_columns {
+        let rows = table.fitting_rows();
+        for &j in &plan.values {
+            for (i, value, size) in super::mark::thousands_dots(&table.column(j, &rows)) {
+                b.thousands_dots.insert((rows[i].line, j), (value, size));
+            }
+        }
+    }
     for &j in &plan.codes {
         b.out.warnings.push(format!(
             "column \"{}\" holds whole numbers read as item codes, not as quantities: they \
@@ -400,6 +417,17 @@ impl<'a> Builder<'a> {
         if is_missing(cell) {
             self.out.empty_cells += 1;
             return Ok(None);
+        }
+        if let Some(&(value, size)) = self.thousands_dots.get(&(row.line, column)) {
+            let message = format!(
+                "expected a number of the column's size: with the decimal dot of this \
+                 comma-separated file it reads as {value}, a thousandth of the column's other \
+                 values (about {size}); if the dot separates thousands, write the number without \
+                 it ({})",
+                cell.replace('.', "")
+            );
+            self.error(row.line, column, cell, message);
+            return Err(());
         }
         match parse_number(cell, self.mark) {
             Ok(number) => {

@@ -134,6 +134,49 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
     (mark, Some(warning))
 }
 
+/// Of one value column's `cells` in a comma-delimited file read with a decimal dot, those
+/// like "1.050" (not "0.050") whose dot reading is a hundredth or less of the column's other
+/// values, while their thousands reading (1050) is of the same size as those values, in a
+/// column that writes no other decimals: most likely a thousands dot, a thousand times too
+/// small as read. With their index, the value read and the median size of the other values
+/// (at least three non-zero whole numbers are needed). Our choice: a hundred times; "the
+/// same size", within ten times.
+pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {
+    // A column that writes decimals elsewhere may mean "504.273" as written.
+    if cells.iter().any(|c| evidence(c) == Evidence::Dot) {
+        return Vec::new();
+    }
+    let mut others: Vec<f64> = cells
+        .iter()
+        .filter(|c| evidence(c) == Evidence::Silent)
+        .filter_map(|c| parse_number(c, DecimalMark::Dot).ok())
+        .map(|n| n.value.abs())
+        .filter(|v| *v > 0.0)
+        .collect();
+    if others.len() < 3 {
+        return Vec::new();
+    }
+    others.sort_by(f64::total_cmp);
+    let median = others[others.len() / 2];
+    cells
+        .iter()
+        .enumerate()
+        // "0.050" is never a thousands group.
+        .filter(|(_, c)| {
+            evidence(c) == Evidence::AmbiguousDot
+                && c.chars().find(char::is_ascii_digit) != Some('0')
+        })
+        .filter_map(|(i, c)| Some((i, parse_number(c, DecimalMark::Dot).ok()?.value)))
+        .filter(|(_, v)| {
+            let size = v.abs();
+            size * 100.0 <= median
+                && size * 1000.0 >= median / 10.0
+                && size * 1000.0 <= median * 10.0
+        })
+        .map(|(i, v)| (i, v, median))
+        .collect()
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
