@@ -29,7 +29,7 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
 use super::shapes::names_no_demand;
-use super::table::{header_is_only, wide_row_error, Plan, Table};
+use super::table::{header_is_only, header_says, wide_row_error, Plan, Table};
 use super::text::Record;
 
 mod across;
@@ -132,9 +132,8 @@ struct Entry<'a> {
 }
 
 /// The error for a period column whose header names weeks and nothing else ("Week", "Wk no",
-/// "Year/Week", "Week ending")
-/// over labels read as months ("2024-01": January 2024, or week 1?): at its first row, and
-/// nothing is read. Read as months, weekly demand would be planned a month at a time, about a
+/// "Year/Week", "Week ending") over labels read as months ("2024-01": January 2024, or week
+/// 1?): at its first row, and nothing is read. Read as months, weekly demand would be planned a month at a time, about a
 /// quarter of the real rate per period.
 fn weeks_read_as_months(
     table: &Table,
@@ -155,9 +154,8 @@ fn weeks_read_as_months(
         "iso",
     ];
     let allowed: Vec<&str> = WEEKS.iter().chain(&BESIDE).copied().collect();
-    let weeks = table.header.is_some()
-        && header_is_only(&name, &allowed)
-        && super::table::header_says(&name, &WEEKS);
+    let weeks =
+        table.header.is_some() && header_is_only(&name, &allowed) && header_says(&name, &WEEKS);
     let row = rows.first()?;
     let text = row.cells.get(column).cloned().unwrap_or_default();
     (weeks && frequency == Frequency::Monthly).then(|| RowError {
@@ -177,7 +175,9 @@ fn weeks_read_as_months(
 /// choice, as is the half.
 const MADE_UP_PERIODS: usize = 6;
 
-pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
+/// Builds the items. `ambiguous_dots`: whether any value cell reads two ways with a lone dot
+/// ("1.050", the decimal mark's tally), the only cells the thousands-dot check looks for.
+pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dots: bool) -> Built {
     let rows_read = table.rows.iter().filter(|r| !r.is_blank()).count();
     let slots = MAX_PERIODS as usize + SLOTS_PER_ROW * rows_read;
     let mut b = Builder {
@@ -198,8 +198,8 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     // A column is one item's only in single and wide tables (long and across ones mix
     // items of any size in a column).
     let one_item_columns = matches!(plan.layout, Layout::Single | Layout::Wide);
-    if table.comma_delimited && mark == DecimalMark::Dot && one_item_columns {
-        let rows = table.fitting_rows();
+    let rows = table.fitting_rows();
+    if ambiguous_dots && table.comma_delimited && mark == DecimalMark::Dot && one_item_columns {
         for &j in &plan.values {
             for (i, value, size) in super::mark::thousands_dots(&table.column(j, &rows)) {
                 b.thousands_dots.insert((rows[i].line, j), (value, size));
@@ -229,7 +229,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark) -> Built {
     }
     for &j in &plan.notes {
         let mut words: Vec<&str> = table
-            .column(j, &table.fitting_rows())
+            .column(j, &rows)
             .into_iter()
             .filter(|c| !c.trim().is_empty())
             .collect();
@@ -491,12 +491,12 @@ impl<'a> Builder<'a> {
 
     /// The error for a table of one row per period whose rows leave more periods without a
     /// row (`missing`) than they hold, or more than half as many (a third of the periods) and
-    /// at least [`MADE_UP_PERIODS`]: nothing is read. The labels most likely mean other periods ("Jan-01" to "Jan-20",
-    /// days, read as January of 2001 to 2020; every other week), a typed year puts one row far
-    /// from the rest, or the export leaves out the periods without sales: filled as gaps and
-    /// interpolated, much of the history would be made up. Named at the row
-    /// beside the widest gap that stands apart (the first or last row when the gap cuts it
-    /// off: a typed year), else the row after it.
+    /// at least [`MADE_UP_PERIODS`]: nothing is read. The labels most likely mean other
+    /// periods ("Jan-01" to "Jan-20", days, read as January of 2001 to 2020; every other
+    /// week), a typed year puts one row far from the rest, or the export leaves out the
+    /// periods without sales: filled as gaps and interpolated, much of the history would be
+    /// made up. Named at the row beside the widest gap that stands apart (the first or last
+    /// row when the gap cuts it off: a typed year), else the row after it.
     fn mostly_missing(&mut self, unique: &[Entry<'a>], missing: usize, column: usize) {
         let steps: Vec<i64> = unique
             .windows(2)
@@ -535,6 +535,16 @@ impl<'a> Builder<'a> {
                 unique.len()
             ),
         );
+    }
+
+    /// The warning naming an item's empty quantity cells (`cells` of them) read as gaps in
+    /// `periods`, in every layout.
+    fn empty_cells_read_as_gaps(&mut self, name: &str, cells: usize, periods: &[String]) {
+        self.out.warnings.push(format!(
+            "\"{name}\": {} read as gaps ({})",
+            count(cells, "empty cell"),
+            listing(periods)
+        ));
     }
 
     fn gap_warning(&mut self, names: &[String], missing: &[String]) {
@@ -651,7 +661,7 @@ impl<'a> Builder<'a> {
             .collect();
         let (gaps, held) = (missing.len(), unique.len());
         if dated && (gaps > held || (2 * gaps > held && gaps >= MADE_UP_PERIODS)) {
-            self.mostly_missing(&unique, missing.len(), period_column);
+            self.mostly_missing(&unique, gaps, period_column);
             return;
         }
         let mut items: Vec<Item> = Vec::new();
@@ -742,11 +752,7 @@ impl<'a> Builder<'a> {
         gaps.dedup();
         if !gaps.is_empty() {
             let gaps: Vec<String> = gaps.iter().map(Period::to_string).collect();
-            self.out.warnings.push(format!(
-                "\"{name}\": {} read as gaps ({})",
-                count(empty_cells, "empty cell"),
-                listing(&gaps)
-            ));
+            self.empty_cells_read_as_gaps(name, empty_cells, &gaps);
         }
         if !beside.is_empty() {
             let days: Vec<String> = beside.iter().map(Period::to_string).collect();

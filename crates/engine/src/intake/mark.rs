@@ -106,11 +106,7 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
                     "{} such as \"1.250\" could be read either way; in a comma-separated file \
                      the dot was read as the decimal mark (1.250 = 1.25); if it separates \
                      thousands there, write the numbers without it",
-                    if d == 1 {
-                        "1 cell".to_string()
-                    } else {
-                        format!("{d} cells")
-                    }
+                    super::build::count(d, "cell")
                 )),
             );
         }
@@ -142,14 +138,16 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
 /// (at least three non-zero whole numbers are needed). Our choice: a hundred times; "the
 /// same size", within ten times.
 pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {
+    let kinds: Vec<Evidence> = cells.iter().map(|c| evidence(c)).collect();
     // A column that writes decimals elsewhere may mean "504.273" as written.
-    if cells.iter().any(|c| evidence(c) == Evidence::Dot) {
+    if !kinds.contains(&Evidence::AmbiguousDot) || kinds.contains(&Evidence::Dot) {
         return Vec::new();
     }
     let mut others: Vec<f64> = cells
         .iter()
-        .filter(|c| evidence(c) == Evidence::Silent)
-        .filter_map(|c| parse_number(c, DecimalMark::Dot).ok())
+        .zip(&kinds)
+        .filter(|(_, kind)| **kind == Evidence::Silent)
+        .filter_map(|(c, _)| parse_number(c, DecimalMark::Dot).ok())
         .map(|n| n.value.abs())
         .filter(|v| *v > 0.0)
         .collect();
@@ -162,9 +160,8 @@ pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {
         .iter()
         .enumerate()
         // "0.050" is never a thousands group.
-        .filter(|(_, c)| {
-            evidence(c) == Evidence::AmbiguousDot
-                && c.chars().find(char::is_ascii_digit) != Some('0')
+        .filter(|(i, c)| {
+            kinds[*i] == Evidence::AmbiguousDot && c.chars().find(char::is_ascii_digit) != Some('0')
         })
         .filter_map(|(i, c)| Some((i, parse_number(c, DecimalMark::Dot).ok()?.value)))
         .filter(|(_, v)| {

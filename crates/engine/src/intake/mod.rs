@@ -403,7 +403,8 @@ fn read_text(text: &str) -> IntakeReport {
     }
     // Rows that are all wider than the header: each is an error of its own (read as columns
     // of their own, the numbers after a split decimal comma would move into other items).
-    if table.fitting_rows().is_empty() {
+    let rows = table.fitting_rows();
+    if rows.is_empty() {
         report.errors.extend(
             table
                 .rows
@@ -429,17 +430,17 @@ fn read_text(text: &str) -> IntakeReport {
             coded::codes(header).join(", ")
         ));
     }
-    let rows = table.fitting_rows();
     let mut tally = mark::Tally::default();
     for &j in &plan.values {
         for cell in table.column(j, &rows) {
             tally.add(mark::evidence(cell));
         }
     }
+    let ambiguous_dots = tally.ambiguous_dot > 0;
     let (mark, warning) = mark::decide_mark(tally, delimiter);
     report.decimal = mark;
     report.warnings.extend(warning);
-    let built = build::build(&table, &plan, mark);
+    let built = build::build(&table, &plan, mark, ambiguous_dots);
     report.frequency = built.frequency.unwrap_or(Frequency::Undated);
     report.date_format = built.date_format;
     report.items = built.items;

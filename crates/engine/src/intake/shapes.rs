@@ -88,14 +88,12 @@ pub(super) fn notes_columns(
 }
 
 /// The error for a grid of one item's values with part of the calendar across the header
-/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels):
-/// at least two of the
-/// number columns `numeric`, and more than half of them, headed by parts of what a row is
-/// ([`grid_header`]): parts of a year over rows of plain years (no month column beside,
-/// `split`), weekdays over rows of ISO weeks ("2024-W01"; weekly dates or week numbers are
-/// not told from other rows here, so those grids pass as items), times of day over rows of
-/// dates; numbered parts
-/// ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
+/// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels): at
+/// least two of the number columns `numeric`, and more than half of them, headed by parts of
+/// what a row is ([`grid_header`]): parts of a year over rows of plain years (no month column
+/// beside, `split`), weekdays over rows of ISO weeks ("2024-W01"; weekly dates or week
+/// numbers are not told from other rows here, so those grids pass as items), times of day
+/// over rows of dates; numbered parts ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
 /// would be an item of its own with a value a year, forecast by the year; so the table is
 /// refused at its first such header cell, as [`super::across`] refuses the same grid turned
 /// round. `None` otherwise: beside monthly rows "W1", "W2" are warehouses and "April", "May"

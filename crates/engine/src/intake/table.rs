@@ -39,8 +39,9 @@
 //! period to place them they are an error at their first cell, since read in file order
 //! they could misplace a period. Number columns headed by parts of what a row is (months or
 //! quarters over rows of plain years, weekdays over rows of weeks) are a grid of values with
-//! the calendar across the header: refused ([`calendar_grid`]). In a single or wide table, a number column whose header
-//! names a price, money, an order number, a stock level or a running total and nothing else
+//! the calendar across the header: refused ([`calendar_grid`]). In a single or wide table, a
+//! number column whose header names a price, money, an order number, a stock level or a
+//! running total and nothing else
 //! ([`names_money`], [`names_order_number`], [`names_no_demand`]) is no item: left out with a
 //! warning. Text columns that note the periods rather than name items are left out with a
 //! warning ([`notes_columns`]). The header fixes the table's width: a row with a cell past
@@ -258,13 +259,7 @@ fn repeats_below(records: &[Record], at: usize) -> bool {
 /// Whether two records hold the same cells, empty cells at the end aside, two or more of them
 /// filled (one word repeated in one column is a bad cell, not a repeated header).
 fn same_cells(a: &Record, b: &Record) -> bool {
-    let filled = |r: &Record| {
-        r.cells
-            .iter()
-            .rposition(|c| !c.is_empty())
-            .map_or(0, |i| i + 1)
-    };
-    let (na, nb) = (filled(a), filled(b));
+    let (na, nb) = (a.filled_width(), b.filled_width());
     na == nb && a.filled() >= 2 && a.cells[..na] == b.cells[..nb]
 }
 
@@ -285,11 +280,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
         .map(|r| r.cells.len())
         .collect();
     // Columns empty in every record (a delimiter at the end of every line) do not count.
-    let used = records
-        .iter()
-        .filter_map(|r| r.cells.iter().rposition(|c| !c.is_empty()))
-        .max()
-        .map_or(0, |i| i + 1);
+    let used = records.iter().map(Record::filled_width).max().unwrap_or(0);
     let mode_width = mode_of(&widths).0.min(used);
     let non_blank: Vec<usize> = (0..records.len())
         .filter(|i| !records[*i].is_blank())
@@ -340,14 +331,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     // whole), are skipped.
     let mut repeated_headers = Vec::new();
     if let Some(h) = &header {
-        let filled = |r: &Record| -> Vec<String> {
-            let end = r
-                .cells
-                .iter()
-                .rposition(|c| !c.is_empty())
-                .map_or(0, |i| i + 1);
-            r.cells[..end].to_vec()
-        };
+        let filled = |r: &Record| -> Vec<String> { r.cells[..r.filled_width()].to_vec() };
         let title_texts: Vec<Vec<String>> = titles.iter().map(filled).collect();
         let mut skip = vec![false; rest.len()];
         for i in 0..rest.len() {
@@ -391,12 +375,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
                 .iter()
                 .filter(|r| !r.is_blank())
                 .any(|r| r.cells.get(1).is_some_and(|c| !looks_number(c)));
-        let filled_width = h
-            .cells
-            .iter()
-            .rposition(|c| !c.is_empty())
-            .map_or(0, |i| i + 1);
-        if numbered && data_width == filled_width + 1 && count == data_widths.len() {
+        if numbered && data_width == h.filled_width() + 1 && count == data_widths.len() {
             h.cells.insert(0, String::new());
             for (index, _) in h.untrimmed.iter_mut() {
                 *index += 1;
@@ -405,12 +384,7 @@ pub(crate) fn shape(records: Vec<Record>) -> Table {
     }
     // Empty cells at the end of the header name no column (a spreadsheet's trailing
     // delimiters): numbers beneath them are past the header, as in a shorter one.
-    let header_width = header.as_ref().map_or(0, |h| {
-        h.cells
-            .iter()
-            .rposition(|c| !c.is_empty())
-            .map_or(0, |i| i + 1)
-    });
+    let header_width = header.as_ref().map_or(0, Record::filled_width);
     // The header fixes the width: a row with more cells than it names is an error at each
     // such row, never columns of its own. Rows wider than the header are mostly numbers
     // with a decimal comma, unquoted in a comma-separated file ("12,5" read as 12 and 5
@@ -1148,10 +1122,9 @@ fn codes_beside(
     let columns = |js: &[usize]| columns_of(table, rows, js);
     if !named.is_empty() {
         let cells = columns(&named);
-        // One number on every row under an item's header: one item's code (an export of a
-        // single product), never a quantity.
-        // Only under a header naming an item and nothing more ("Item", "Item no", "SKU"; not
-        // "Shop A", a store whose sales may stand still).
+        // One number on every row under a header naming an item and nothing more ("Item",
+        // "Item no", "SKU"): one item's code (an export of a single product), never a
+        // quantity. Not under "Shop A", a store whose sales may stand still.
         let one_item = named.len() == 1
             && header_is_only(&table.column_name(named[0]), &ITEM_WORDS)
             && cells.iter().all(|c| {

@@ -46,6 +46,14 @@ impl Record {
     pub fn filled(&self) -> usize {
         self.cells.iter().filter(|c| !c.is_empty()).count()
     }
+    /// Cells up to the last non-empty one (0 for a blank record): the width the record names,
+    /// without the empty cells trailing delimiters make.
+    pub fn filled_width(&self) -> usize {
+        self.cells
+            .iter()
+            .rposition(|c| !c.is_empty())
+            .map_or(0, |i| i + 1)
+    }
     /// Cell `index` as written, before trimming ("" beyond the record's end).
     pub fn as_written(&self, index: usize) -> &str {
         // `untrimmed` is in cell order, so a lookup costs log of its length.

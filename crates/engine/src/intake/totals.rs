@@ -85,12 +85,8 @@ fn total_name(name: &str) -> bool {
         "units",
     ];
     // "Total:", "TOTAL", "Total (all)", "Sub-total" read alike.
-    let name: String = name
-        .to_lowercase()
-        .chars()
-        .map(|c| if c.is_alphanumeric() { c } else { ' ' })
-        .collect();
-    let words: Vec<&str> = name.split_whitespace().collect();
+    let words = name_words(name);
+    let words: Vec<&str> = words.iter().map(String::as_str).collect();
     let name = words.join(" ");
     NAMES.contains(&name.as_str())
         || (words.len() == 2 && matches!(words[0], "total" | "all") && OVER.contains(&words[1]))
@@ -249,27 +245,32 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
 /// Weedkiller" or "Dim sum", products, which [`has_total_word`] lets through only where
 /// their figures add up the items before them.
 fn subtotal_name(name: &str) -> bool {
-    let lower = name.to_lowercase();
-    let words: Vec<&str> = lower
+    let words = name_words(name);
+    words
+        .iter()
+        .any(|w| matches!(w.as_str(), "subtotal" | "subtotals"))
+        || words.len() >= 2 && matches!(words[words.len() - 1].as_str(), "total" | "totals" | "tot")
+}
+
+/// A name's words in lower case, split at anything that is not a letter or digit.
+fn name_words(name: &str) -> Vec<String> {
+    name.to_lowercase()
         .split(|c: char| !c.is_alphanumeric())
         .filter(|w| !w.is_empty())
-        .collect();
-    words.iter().any(|w| matches!(*w, "subtotal" | "subtotals"))
-        || words.len() >= 2 && matches!(words[words.len() - 1], "total" | "totals" | "tot")
+        .map(str::to_string)
+        .collect()
 }
 
 /// Whether a name holds a total's word anywhere ("Garden subtotal", "Total Inventory", "Tools
-/// totals", "Garden tot.", "Sum of bulbs"): enough, with the figures adding up the items just before it,
-/// to take it for their subtotal ([`subtotals`]).
+/// totals", "Garden tot.", "Sum of bulbs"): enough, with the figures adding up the items just
+/// before it, to take it for their subtotal ([`subtotals`]).
 fn has_total_word(name: &str) -> bool {
-    name.to_lowercase()
-        .split(|c: char| !c.is_alphanumeric())
-        .any(|w| {
-            matches!(
-                w,
-                "total" | "totals" | "tot" | "subtotal" | "subtotals" | "sum"
-            )
-        })
+    name_words(name).iter().any(|w| {
+        matches!(
+            w.as_str(),
+            "total" | "totals" | "tot" | "subtotal" | "subtotals" | "sum"
+        )
+    })
 }
 
 /// The periods compared when `total` equals the sum of `group` in every period where every

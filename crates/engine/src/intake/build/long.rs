@@ -150,16 +150,11 @@ impl<'a> Builder<'a> {
             }
             // Periods whose rows hold only empty quantity cells: gaps, named as the other
             // layouts name them.
-            let blank: Vec<String> = merged
-                .iter()
-                .filter(|m| m.1.is_none())
-                .map(|m| m.0.to_string())
-                .collect();
-            let blank_cells: usize = merged
-                .iter()
-                .filter(|m| m.1.is_none())
-                .map(|m| m.2.len())
-                .sum();
+            let (mut blank, mut blank_cells) = (Vec::new(), 0);
+            for (period, _, rows) in merged.iter().filter(|m| m.1.is_none()) {
+                blank.push(period.to_string());
+                blank_cells += rows.len();
+            }
             for (period, value, rows) in merged.iter_mut().filter(|m| m.2.len() > 1) {
                 let numbers: Vec<usize> = rows.iter().map(|r| r.line).collect();
                 let total = value.map_or("no value".to_string(), |v| v.to_string());
@@ -236,11 +231,7 @@ impl<'a> Builder<'a> {
                 self.gap_warning(std::slice::from_ref(&name), &missing);
             }
             if !blank.is_empty() {
-                self.out.warnings.push(format!(
-                    "\"{name}\": {} read as gaps ({})",
-                    count(blank_cells, "empty cell"),
-                    listing(&blank)
-                ));
+                self.empty_cells_read_as_gaps(&name, blank_cells, &blank);
             }
             let periods = (0..len).map(|i| start.offset(i)).collect();
             self.out.items.push(Item {
