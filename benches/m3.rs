@@ -6,7 +6,9 @@
 //! Data: tests/fixtures/m3/m3.csv, the M3 competition series (Makridakis & Hibon 2000, IJF
 //! 16:451-476) as distributed with the open data package Mcomp; see tests/fixtures/m3/README.md.
 //!
-//! Run: `cargo bench --bench m3` (add `-- --subset MONTHLY` or `-- --limit 200` to shorten).
+//! Run: `cargo bench --bench m3` (add `-- --subset MONTHLY` or `-- --limit 200` to shorten;
+//! `-- --keep 24` cuts each history to its last 24 periods, `-- --by-horizon` prints the bands'
+//! scores per horizon and per source of the spread).
 //!
 //! Scoring (the competition's): sMAPE = 200|y - f|/(y + f) averaged over every series and
 //! horizon of a subset; MASE = |y - f| divided by the in-sample mean absolute seasonal
@@ -46,19 +48,28 @@ struct BandTally {
 
 impl BandTally {
     fn add(&mut self, s: &M3Series, bands: &[(f64, f64)], level: f64) {
-        let alpha = 1.0 - level / 100.0;
         let scale = seasonal_scale(s);
-        for (y, &(low, high)) in s.test.iter().zip(bands) {
-            self.count += 1;
-            if low <= *y && *y <= high {
-                self.inside += 1;
-            }
-            let penalty = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
-            let scaled = ((high - low) + penalty) / scale;
-            if scaled.is_finite() {
-                self.msis_sum += scaled;
-                self.msis_count += 1;
-            }
+        for (y, &band) in s.test.iter().zip(bands) {
+            self.add_point(*y, band, scale, level);
+        }
+    }
+    /// Scores horizon `h` (from 0) alone.
+    fn add_one(&mut self, s: &M3Series, h: usize, band: (f64, f64), level: f64) {
+        if let Some(y) = s.test.get(h) {
+            self.add_point(*y, band, seasonal_scale(s), level);
+        }
+    }
+    fn add_point(&mut self, y: f64, (low, high): (f64, f64), scale: f64, level: f64) {
+        let alpha = 1.0 - level / 100.0;
+        self.count += 1;
+        if low <= y && y <= high {
+            self.inside += 1;
+        }
+        let penalty = (2.0 / alpha) * ((low - y).max(0.0) + (y - high).max(0.0));
+        let scaled = ((high - low) + penalty) / scale;
+        if scaled.is_finite() {
+            self.msis_sum += scaled;
+            self.msis_count += 1;
         }
     }
     fn cells(&self) -> (String, String) {
@@ -231,6 +242,10 @@ fn main() {
     let mut chosen: BTreeMap<String, usize> = BTreeMap::new();
     let levels = [95.0, 80.0];
     let mut bands: BTreeMap<(&str, usize), BandTally> = BTreeMap::new();
+    // `--by-horizon`: the bands' scores per horizon and per source of the spread, every
+    // subset run pooled (how short histories' long horizons fare).
+    let by_horizon = std::env::args().any(|a| a == "--by-horizon");
+    let mut horizons: BTreeMap<(usize, usize, String), BandTally> = BTreeMap::new();
     let mut policy = PolicyTally::default();
     let started = Instant::now();
     let mut count = 0;
@@ -247,6 +262,17 @@ fn main() {
                 let (forecast, band): (Vec<f64>, Vec<(f64, f64)>) =
                     match plan::plan_item(&series_for(s), &settings) {
                         Ok(p) => {
+                            if by_horizon {
+                                for (h, f) in p.forecast.iter().enumerate() {
+                                    let source = format!("{:?}", f.source);
+                                    horizons.entry((i, h + 1, source)).or_default().add_one(
+                                        s,
+                                        h,
+                                        (f.band.low, f.band.high),
+                                        *level,
+                                    );
+                                }
+                            }
                             if i == 0 {
                                 *chosen.entry(p.chosen.key().to_string()).or_default() += 1;
                                 if subset == "MONTHLY" {
@@ -371,5 +397,17 @@ fn main() {
     picks.sort_by_key(|p| std::cmp::Reverse(p.1));
     let picks: Vec<String> = picks.iter().map(|(k, v)| format!("{k} {v}")).collect();
     policy.print();
+    if by_horizon {
+        println!();
+        println!("| level | horizon | spread from | count | holds | MSIS |");
+        println!("| --- | --- | --- | --- | --- | --- |");
+        for ((i, h, source), t) in &horizons {
+            let (holds, msis) = t.cells();
+            println!(
+                "| {} | {h} | {source} | {} | {holds} | {msis} |",
+                levels[*i], t.count
+            );
+        }
+    }
     println!("chosen: {}", picks.join(", "));
 }

@@ -18,7 +18,9 @@ use crate::backtest::{
 use crate::bands::{self, BandMethod, BandPoint, BandSource, Level};
 use crate::calendar::{Frequency, Period};
 use crate::methods::{self, criterion, Fitted, MethodKind};
-use crate::patterns::{self, DemandVerdict, SeasonSource, SeasonVerdict, TrendVerdict};
+use crate::patterns::{
+    self, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
+};
 use crate::series::Series;
 use crate::settings::{Choice, PlanSettings, SeasonChoice};
 
@@ -460,7 +462,10 @@ fn plan_inner(
         bands::rolling_band(
             &point,
             &origin_errors.by_horizon(horizon),
-            Some(&psi),
+            Some(bands::Carryover::new(
+                &psi,
+                trend.direction != TrendDirection::None,
+            )),
             settings.level(),
             non_negative,
         )
