@@ -4,6 +4,9 @@
 //! items demand on every quiet day (the plan's orders ran high). Each test but the last two
 //! (a month missing from the export stays a gap, as before) failed before the rule.
 //!
+//! Tables of one row per period (single and wide) read closed places the same way, with more
+//! caution (the last two tests).
+//!
 //! Kept apart from: periods with rows for other items but none for an item (`formats`), and
 //! the rule's own arithmetic (the engine's `intake::build::unnamed` tests).
 
@@ -343,4 +346,110 @@ fn items_are_grouped_only_by_a_place_and_the_table_reads_first() {
     );
     assert_eq!(report.items.len(), 3);
     assert_eq!(report.gaps_filled, 0);
+}
+
+/// A table of one row per day from 2024-03-04 (a Monday), `sells(day)` each column's figure
+/// (none: no row), columns named `names`.
+fn one_row_per_day(names: &[&str], days: usize, sells: Sells<'_>) -> String {
+    let monday = days_from_civil(2024, 3, 4);
+    let mut text = format!("Date,{}\n", names.join(","));
+    for t in 0..days {
+        let (y, m, d) = civil_from_days(monday + t as i64);
+        if let Some(q) = sells(t) {
+            let cells = vec![q.to_string(); names.len()].join(",");
+            text.push_str(&format!("{y}-{m:02}-{d:02},{cells}\n"));
+        }
+    }
+    text
+}
+
+// One row per day, a shop shut on Sundays and Mondays and on one Wednesday: the closed
+// weekdays are no sales, the Wednesday a gap, in a single and a wide table. Before, every day
+// without a row was a gap filled with the demand of the days around it (and with a third of
+// the days without a row, nothing was read).
+#[test]
+fn closed_weekdays_in_a_table_of_one_row_per_day() {
+    let holiday = 16;
+    let open = |t: usize| (t % 7 != 0 && t % 7 != 6 && t != holiday).then_some(5 + (t % 3) as u32);
+    let days = 43;
+    let expected: Vec<Option<f64>> = (0..days)
+        .map(|t| {
+            if t == holiday {
+                None
+            } else {
+                Some(f64::from(open(t).unwrap_or(0)))
+            }
+        })
+        .collect();
+    for names in [&["Qty"][..], &["Oak tray", "Seed tin"]] {
+        let report = check(
+            &one_row_per_day(names, days, &open),
+            Expect {
+                warned: vec![
+                    vec![
+                        "10 days",
+                        "on Mondays and Sundays",
+                        "read as closed",
+                        "2024-03-10 to 2024-03-11",
+                    ],
+                    vec!["1 missing period filled as gaps", "2024-03-20"],
+                ],
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items.len(), names.len());
+        for item in &report.items {
+            // From the first Tuesday to the last Saturday.
+            assert_eq!(item.values, expected[1..41], "{}", item.name);
+        }
+    }
+}
+
+// The cautions of one row per period: a month without a row in two years is as likely missing
+// (a gap), in three years closed; rows in one place of the season only ("Jan-01" to "Jan-20"
+// read as twenty Januaries) are refused, not read as a business open one month a year.
+#[test]
+fn closed_places_of_one_row_per_period_need_more_evidence() {
+    let months = |years: std::ops::RangeInclusive<i32>| -> String {
+        let mut text = String::from("Month,Qty\n");
+        for year in years {
+            for m in (1..=12).filter(|m| *m != 8) {
+                text.push_str(&format!("{year}-{m:02},{}\n", 10 + m));
+            }
+        }
+        text
+    };
+    let two = check(
+        &months(2022..=2023),
+        Expect {
+            warned: vec![vec!["2 missing periods filled as gaps", "2022-08, 2023-08"]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(two.items[0].values[7], None);
+    let three = check(
+        &months(2021..=2023),
+        Expect {
+            warned: vec![vec![
+                "3 periods",
+                "in August",
+                "read as closed",
+                "2021-08, 2022-08, 2023-08",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(three.items[0].values[7], Some(0.0));
+    assert_eq!(three.gaps_filled, 0);
+    let januaries: String = (1..=20)
+        .map(|d| format!("Jan-{d:02},{}\n", 10 + d % 3))
+        .collect();
+    let refused = check(
+        &format!("Date,Qty\n{januaries}"),
+        Expect {
+            errors: vec![(3, "Date", "Jan-02")],
+            ..Expect::default()
+        },
+    );
+    assert!(refused.items.is_empty());
 }

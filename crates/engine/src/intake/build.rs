@@ -170,6 +170,56 @@ fn weeks_read_as_months(
     })
 }
 
+/// The periods (indexes from `start`, in order) of a table of one row per period that have
+/// no row and whose place in the calendar's season has none in most of its occurrences
+/// nearby, while the other places have rows (a shop shut on Sundays and Mondays, a kiosk shut
+/// in winter): closed, the long layout's rule (`unnamed`), with two cautions of our choice.
+/// At least [`CLOSED_AT_LEAST_ONE_ROW`] of a place's periods nearby have no row (two missing
+/// Julys in a year and a half are as likely missing from the file); and rows stand in at
+/// least two places of the season (rows only in January, "Jan-01" to "Jan-20" read as twenty
+/// years, mean other periods: refused, `Builder::mostly_missing`). Why: a till's daily export
+/// writes no row for a day the shop is shut; filled as gaps those days got the demand of the
+/// days around them, and a third of the days without a row was refused as made up.
+fn closed_places(present: &[bool], start: Period) -> Vec<usize> {
+    let Some(season) = start.frequency().natural_season() else {
+        return Vec::new();
+    };
+    let mut with_rows: Vec<usize> = (0..present.len())
+        .filter(|t| present[*t])
+        .map(|t| t % season)
+        .collect();
+    with_rows.sort_unstable();
+    with_rows.dedup();
+    if with_rows.len() < 2 {
+        return Vec::new();
+    }
+    // One row per period writes every item's figure, zeros too: no period is quiet.
+    unnamed::classify(present, Some(season), &[], true, CLOSED_AT_LEAST_ONE_ROW)
+        .iter()
+        .enumerate()
+        .filter(|(_, r)| **r == Some(unnamed::Unnamed::Closed))
+        .map(|(t, _)| t)
+        .collect()
+}
+
+/// Fewest periods of a place without a row nearby that make it closed in a table of one row
+/// per period ([`closed_places`]; a long table asks for 2). Our choice.
+const CLOSED_AT_LEAST_ONE_ROW: usize = 3;
+
+/// A closed period is no sales (0) for an item that has a figure before and after it; one
+/// before the item's first figure or after its last stays a gap, as the long layout reads it.
+fn no_sales_when_closed(values: &mut [Option<f64>], closed: &[usize]) {
+    let first = values.iter().position(Option::is_some);
+    let last = values.iter().rposition(Option::is_some);
+    if let (Some(first), Some(last)) = (first, last) {
+        for &t in closed {
+            if first < t && t < last {
+                values[t] = Some(0.0);
+            }
+        }
+    }
+}
+
 /// Fewest periods without a row that, with more than half as many as the rows, make a table
 /// refused (`Builder::mostly_missing`): a few gaps among few rows are filled as before. Our
 /// choice, as is the half.
@@ -655,9 +705,14 @@ impl<'a> Builder<'a> {
         for e in &unique {
             present[start.steps_to(e.period) as usize] = true;
         }
-        let missing: Vec<String> = (0..len)
-            .filter(|i| !present[*i as usize])
-            .map(|i| start.offset(i).to_string())
+        let closed = if dated {
+            closed_places(&present, start)
+        } else {
+            Vec::new()
+        };
+        let missing: Vec<String> = (0..len as usize)
+            .filter(|i| !present[*i] && closed.binary_search(i).is_err())
+            .map(|i| start.offset(i as i64).to_string())
             .collect();
         let (gaps, held) = (missing.len(), unique.len());
         if dated && (gaps > held || (2 * gaps > held && gaps >= MADE_UP_PERIODS)) {
@@ -674,9 +729,10 @@ impl<'a> Builder<'a> {
                 .chain(&same_day)
                 .map(|e| (e.period, e.row, j))
                 .collect();
-            let Some(values) = self.item_values(&name, start, len as usize, &cells) else {
+            let Some(mut values) = self.item_values(&name, start, len as usize, &cells) else {
                 continue;
             };
+            no_sales_when_closed(&mut values, &closed);
             let header_line = self.table.header.as_ref().map_or(first_line, |h| h.line);
             if !self.take_slots(len as usize, &name, header_line, j) {
                 continue;
@@ -689,6 +745,12 @@ impl<'a> Builder<'a> {
             });
         }
         self.out.warnings.extend(names.repeats());
+        if !items.is_empty() {
+            let closed: Vec<Period> = closed.iter().map(|&t| start.offset(t as i64)).collect();
+            self.out
+                .warnings
+                .extend(readings::closed_warning(&closed, "no row"));
+        }
         if dated {
             let names: Vec<String> = items.iter().map(|i| i.name.clone()).collect();
             self.out.gaps_filled += missing.len() * items.len();

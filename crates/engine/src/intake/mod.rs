@@ -30,7 +30,8 @@
 //! 5. `build`: one item per value column (single, wide), per item name (long) or per row
 //!    (across), with a regular run of periods, gaps as `None` (in a long table a period with
 //!    rows for other items but none for this one is 0, no sales, with a warning, and a period
-//!    no row names at all is no sales when closed or quiet, `build/unnamed`), sorted rows,
+//!    no row names at all is no sales when closed or quiet, `build/unnamed`; in a single or
+//!    wide table such a period is no sales when closed, with more caution), sorted rows,
 //!    summed or rejected duplicates.
 //! 6. `totals`: an item that is the sum of all the others in every period is left out.
 //! 7. `unfinished`: a last period whose demand is far below the periods before it (and a
@@ -91,8 +92,10 @@
 //!   copies of one table (a wide table with a period repeated stays wide, the repeat an
 //!   error), and one number on every row under "Item" names that one item;
 //!   labels read as months under a header naming weeks are an error (`build`); in a single or
-//!   wide table, rows leaving more periods without a row than they hold, or more than half as
-//!   many and at least six, are an error, nothing read (`build`; a long table reads such
+//!   wide table, periods without a row whose place in the season (a weekday, a month) has
+//!   none in most of its occurrences nearby, at least three, while rows stand in two places or
+//!   more, are closed: no sales, warned (`build::closed_places`); the rest, where they are
+//!   more than the rows, or more than half as many and at least six, are an error, nothing read (`build`; a long table reads such
 //!   periods as no sales, with its warning); a subtotal with a total's word under the items it
 //!   adds up ("Garden subtotal", "Total Inventory") is left out (`totals`).
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning

@@ -19,7 +19,7 @@
 
 use std::collections::{BTreeMap, HashMap, HashSet};
 
-use super::unnamed::{classify, prefix, ItemRows, Unnamed};
+use super::unnamed::{classify, prefix, ItemRows, Unnamed, CLOSED_AT_LEAST};
 use super::{count, joined, listing, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
 use crate::intake::table::header_says;
@@ -251,6 +251,7 @@ fn unnamed_periods<'a>(
         first.frequency().natural_season(),
         &item_rows,
         zero_line.is_some(),
+        CLOSED_AT_LEAST,
     );
     let unnamed = readings
         .iter()
@@ -313,6 +314,51 @@ fn ranges(periods: &[Period]) -> Vec<String> {
     out
 }
 
+/// "3 days that `no_row` names" ("periods" where not daily).
+fn unnamed_count(list: &[Period], no_row: &str) -> String {
+    let daily = list
+        .first()
+        .is_some_and(|p| p.frequency() == Frequency::Daily);
+    let noun = if daily { "day" } else { "period" };
+    format!("{} that {no_row} names", count(list.len(), noun))
+}
+
+fn were(list: &[Period]) -> &'static str {
+    if list.len() == 1 {
+        "was"
+    } else {
+        "were"
+    }
+}
+
+/// The warning naming the periods read as closed (`closed`, in order), their places in the
+/// season ("on Sundays") and what they were read as; `no_row`: "no row" or "no row of" a
+/// group. The one wording for every layout. `None` when there are none.
+pub(super) fn closed_warning(closed: &[Period], no_row: &str) -> Option<String> {
+    let first = closed.first()?;
+    let mut places: Vec<usize> = closed.iter().filter_map(|p| p.season_position()).collect();
+    places.sort_unstable();
+    places.dedup();
+    let names: Vec<String> = places
+        .iter()
+        .map(|at| season_place(first.frequency(), *at))
+        .collect();
+    let on = if first.frequency() == Frequency::Daily {
+        "on"
+    } else {
+        "in"
+    };
+    Some(format!(
+        "{}, {on} {} (no row there in most of their occurrences nearby, while the other \
+         periods have rows), {} read as closed: no sales (0) for each item selling before and \
+         after them: {}",
+        unnamed_count(closed, no_row),
+        joined(&names),
+        were(closed),
+        listing(&ranges(closed))
+    ))
+}
+
 /// Says how the periods no row of `set` names were read: closed and quiet ones as no sales,
 /// the rest as gaps (in a dated long table an item's gaps are exactly these, so this is the
 /// one warning about them). `whose`: the group's name, `None` for the table.
@@ -325,38 +371,8 @@ fn unnamed_warnings(out: &mut Vec<String>, whose: Option<&str>, set: &Periods) {
             .collect()
     };
     let no_row = whose.map_or("no row".to_string(), |g| format!("no row of \"{g}\""));
-    let periods = |list: &[Period]| -> String {
-        let daily = list
-            .first()
-            .is_some_and(|p| p.frequency() == Frequency::Daily);
-        let noun = if daily { "day" } else { "period" };
-        format!("{} that {no_row} names", count(list.len(), noun))
-    };
-    let were = |list: &[Period]| if list.len() == 1 { "was" } else { "were" };
-    let closed = of(Unnamed::Closed);
-    if let Some(first) = closed.first() {
-        let mut places: Vec<usize> = closed.iter().filter_map(|p| p.season_position()).collect();
-        places.sort_unstable();
-        places.dedup();
-        let names: Vec<String> = places
-            .iter()
-            .map(|at| season_place(first.frequency(), *at))
-            .collect();
-        let on = if first.frequency() == Frequency::Daily {
-            "on"
-        } else {
-            "in"
-        };
-        out.push(format!(
-            "{}, {on} {} (no row there in most of their occurrences nearby, while the other \
-             periods have rows), {} read as closed: no sales (0) for each item selling before \
-             and after them: {}",
-            periods(&closed),
-            joined(&names),
-            were(&closed),
-            listing(&ranges(&closed))
-        ));
-    }
+    let periods = |list: &[Period]| unnamed_count(list, &no_row);
+    out.extend(closed_warning(&of(Unnamed::Closed), &no_row));
     let quiet = of(Unnamed::Quiet);
     if !quiet.is_empty() {
         out.push(format!(

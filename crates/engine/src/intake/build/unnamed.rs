@@ -38,8 +38,9 @@ pub(super) enum Unnamed {
 
 /// A season place is closed when at least this share of its periods nearby have no row...
 const CLOSED_SHARE: f64 = 0.8;
-/// ...and at least this many of them.
-const CLOSED_AT_LEAST: usize = 2;
+/// ...and at least this many of them (in a long table; a table of one row per period asks for
+/// more, `build::closed_places`).
+pub(super) const CLOSED_AT_LEAST: usize = 2;
 /// ...while the other places have rows in at least this share of theirs.
 const OPEN_SHARE: f64 = 0.75;
 /// Seasons either side looked at for a closed place.
@@ -68,19 +69,21 @@ impl ItemRows {
 /// The reading of each period of the span (`None` where some row names it). `named[t]`: a row
 /// names period t; `season`: the calendar's season length (7 daily, 52 weekly, 12 monthly, 4
 /// quarterly; a place recurs that many periods later), `None` without one (yearly, undated);
-/// `writes_zeros`: see the module doc.
+/// `writes_zeros`: see the module doc; `closed_at_least`: the fewest periods of a place without
+/// a row nearby that can make it closed ([`CLOSED_AT_LEAST`] in a long table).
 pub(super) fn classify(
     named: &[bool],
     season: Option<usize>,
     items: &[ItemRows],
     writes_zeros: bool,
+    closed_at_least: usize,
 ) -> Vec<Option<Unnamed>> {
     let mut out: Vec<Option<Unnamed>> = named
         .iter()
         .map(|&is_named| (!is_named).then_some(Unnamed::Missing))
         .collect();
     if let Some(season) = season {
-        mark_closed(named, season, &mut out);
+        mark_closed(named, season, closed_at_least, &mut out);
     }
     if !writes_zeros {
         mark_quiet(items, &mut out);
@@ -97,7 +100,7 @@ pub(super) fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
     sums
 }
 
-fn mark_closed(named: &[bool], places: usize, out: &mut [Option<Unnamed>]) {
+fn mark_closed(named: &[bool], places: usize, at_least: usize, out: &mut [Option<Unnamed>]) {
     let n = named.len();
     let reach = CLOSED_SEASONS * places;
     // A period whose place has no row in most of its occurrences nearby (itself included).
@@ -109,7 +112,7 @@ fn mark_closed(named: &[bool], places: usize, out: &mut [Option<Unnamed>]) {
                 seen += 1;
                 empty += usize::from(!named[s]);
             }
-            empty >= CLOSED_AT_LEAST && empty as f64 >= CLOSED_SHARE * seen as f64
+            empty >= at_least && empty as f64 >= CLOSED_SHARE * seen as f64
         })
         .collect();
     let open = prefix(n, |t| !candidate[t]);
@@ -204,7 +207,7 @@ mod tests {
             .iter()
             .map(|r| ItemRows(r.match_indices('x').map(|(t, _)| t).collect()))
             .collect();
-        let got: String = classify(&named, daily.then_some(7), &items, writes_zeros)
+        let got: String = classify(&named, daily.then_some(7), &items, writes_zeros, 2)
             .iter()
             .map(|r| match r {
                 None => '.',
