@@ -480,7 +480,9 @@ fn plan_inner(
             (None, Some(v)) => {
                 notes.push(
                     "the history is too short for rolling-origin errors: the band uses the \
-                     method's analytic variances"
+                     method's analytic variances, which leave out the uncertainty of its fitted \
+                     parameters and are checked against no held-out errors, so it is likely \
+                     narrower than its level says"
                         .into(),
                 );
                 let pts = bands::analytic_band(&point, &v, settings.level(), non_negative);
@@ -489,7 +491,11 @@ fn plan_inner(
             }
             (None, None) => {
                 notes.push(
-                    "the history is too short for rolling-origin errors: the band uses the MAD rule"
+                    "the history is too short for rolling-origin errors: the band uses the MAD \
+                     rule, from the fit's one-step errors, which on so short a history understate \
+                     the errors further ahead, so it is likely narrower than its level says (on \
+                     the M3 monthly series cut to 24 months such bands held about half their \
+                     95 %)"
                         .into(),
                 );
                 mad_band()
