@@ -12,6 +12,8 @@
 
 use morrowcast_engine::calendar::{civil_from_days, days_from_civil};
 
+use morrowcast_engine::intake::read;
+
 use super::expect::{check, Expect};
 
 /// An item's sales on day t (`None`: no row).
@@ -441,6 +443,28 @@ fn closed_places_of_one_row_per_period_need_more_evidence() {
     );
     assert_eq!(three.items[0].values[7], Some(0.0));
     assert_eq!(three.gaps_filled, 0);
+    // Rows of another period written as days, mostly "closed" days: refused, nothing read
+    // (each was read as closed days once): weekly rows with one stray weekday, twice-weekly
+    // rows, "Mar-01" day labels read as months of thirty years. Weekly tables are not read
+    // for closed weeks at all (an ISO year has 52 or 53 weeks).
+    let weekly_with_a_stray = |t: usize| (t % 7 == 0 || t == 100).then_some(40u32);
+    let twice_weekly = |t: usize| (t % 7 == 0 || t % 7 == 3).then_some(40u32);
+    for sells in [&weekly_with_a_stray as Sells<'_>, &twice_weekly] {
+        let report = read(&one_row_per_day(&["Qty"], 140, sells));
+        assert!(
+            report.items.is_empty() && report.errors.len() == 1,
+            "{report:?}"
+        );
+    }
+    let spring: String = ["Mar", "Apr", "May", "Jun"]
+        .iter()
+        .flat_map(|m| (1..=30).map(move |d| format!("{m}-{d:02},{}\n", 10 + d % 3)))
+        .collect();
+    let report = read(&format!("Day,Qty\n{spring}"));
+    assert!(
+        report.items.is_empty() && report.errors.len() == 1,
+        "{report:?}"
+    );
     let januaries: String = (1..=20)
         .map(|d| format!("Jan-{d:02},{}\n", 10 + d % 3))
         .collect();

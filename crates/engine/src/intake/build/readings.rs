@@ -19,7 +19,7 @@
 
 use std::collections::{BTreeMap, HashMap, HashSet};
 
-use super::unnamed::{classify, prefix, ItemRows, Unnamed, CLOSED_AT_LEAST};
+use super::unnamed::{classify, prefix, ItemRows, Unnamed, LONG_TABLE};
 use super::{count, joined, listing, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
 use crate::intake::table::header_says;
@@ -251,7 +251,7 @@ fn unnamed_periods<'a>(
         first.frequency().natural_season(),
         &item_rows,
         zero_line.is_some(),
-        CLOSED_AT_LEAST,
+        LONG_TABLE,
     );
     let unnamed = readings
         .iter()

@@ -38,11 +38,21 @@ pub(super) enum Unnamed {
 
 /// A season place is closed when at least this share of its periods nearby have no row...
 const CLOSED_SHARE: f64 = 0.8;
-/// ...and at least this many of them (in a long table; a table of one row per period asks for
-/// more, `build::closed_places`).
-pub(super) const CLOSED_AT_LEAST: usize = 2;
-/// ...while the other places have rows in at least this share of theirs.
-const OPEN_SHARE: f64 = 0.75;
+
+/// ...and at least `at_least` of them, while the other places have rows in at least
+/// `open_share` of theirs ([`LONG_TABLE`]; a table of one row per period asks for more,
+/// `build::closed_places`).
+#[derive(Clone, Copy, Debug)]
+pub(super) struct ClosedRule {
+    pub(super) at_least: usize,
+    pub(super) open_share: f64,
+}
+
+/// The closed rule of a long table (our choice).
+pub(super) const LONG_TABLE: ClosedRule = ClosedRule {
+    at_least: 2,
+    open_share: 0.75,
+};
 /// Seasons either side looked at for a closed place.
 const CLOSED_SEASONS: usize = 6;
 /// Open periods either side of a stretch from which the items' chances are taken.
@@ -69,21 +79,20 @@ impl ItemRows {
 /// The reading of each period of the span (`None` where some row names it). `named[t]`: a row
 /// names period t; `season`: the calendar's season length (7 daily, 52 weekly, 12 monthly, 4
 /// quarterly; a place recurs that many periods later), `None` without one (yearly, undated);
-/// `writes_zeros`: see the module doc; `closed_at_least`: the fewest periods of a place without
-/// a row nearby that can make it closed ([`CLOSED_AT_LEAST`] in a long table).
+/// `writes_zeros`: see the module doc; `closed`: how much a closed place asks ([`ClosedRule`]).
 pub(super) fn classify(
     named: &[bool],
     season: Option<usize>,
     items: &[ItemRows],
     writes_zeros: bool,
-    closed_at_least: usize,
+    closed: ClosedRule,
 ) -> Vec<Option<Unnamed>> {
     let mut out: Vec<Option<Unnamed>> = named
         .iter()
         .map(|&is_named| (!is_named).then_some(Unnamed::Missing))
         .collect();
     if let Some(season) = season {
-        mark_closed(named, season, closed_at_least, &mut out);
+        mark_closed(named, season, closed, &mut out);
     }
     if !writes_zeros {
         mark_quiet(items, &mut out);
@@ -100,7 +109,7 @@ pub(super) fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
     sums
 }
 
-fn mark_closed(named: &[bool], places: usize, at_least: usize, out: &mut [Option<Unnamed>]) {
+fn mark_closed(named: &[bool], places: usize, rule: ClosedRule, out: &mut [Option<Unnamed>]) {
     let n = named.len();
     let reach = CLOSED_SEASONS * places;
     // A period whose place has no row in most of its occurrences nearby (itself included).
@@ -112,7 +121,7 @@ fn mark_closed(named: &[bool], places: usize, at_least: usize, out: &mut [Option
                 seen += 1;
                 empty += usize::from(!named[s]);
             }
-            empty >= at_least && empty as f64 >= CLOSED_SHARE * seen as f64
+            empty >= rule.at_least && empty as f64 >= CLOSED_SHARE * seen as f64
         })
         .collect();
     let open = prefix(n, |t| !candidate[t]);
@@ -123,7 +132,8 @@ fn mark_closed(named: &[bool], places: usize, at_least: usize, out: &mut [Option
         }
         let (a, b) = (t.saturating_sub(reach), n.min(t + reach + 1));
         let others = open[b] - open[a];
-        if others > 0 && (open_named[b] - open_named[a]) as f64 >= OPEN_SHARE * others as f64 {
+        let open_rows = (open_named[b] - open_named[a]) as f64;
+        if others > 0 && open_rows >= rule.open_share * others as f64 {
             out[t] = Some(Unnamed::Closed);
         }
     }
@@ -194,7 +204,7 @@ fn mark_quiet(items: &[ItemRows], out: &mut [Option<Unnamed>]) {
 
 #[cfg(test)]
 mod tests {
-    use super::{classify, ItemRows, Unnamed};
+    use super::{classify, ItemRows, Unnamed, LONG_TABLE};
 
     /// `rows`: one string per item over the span, `x` a row, `.` none; `daily`: a season of
     /// 7. Expected: `.` named, `c` closed, `q` quiet, `m` missing.
@@ -207,7 +217,7 @@ mod tests {
             .iter()
             .map(|r| ItemRows(r.match_indices('x').map(|(t, _)| t).collect()))
             .collect();
-        let got: String = classify(&named, daily.then_some(7), &items, writes_zeros, 2)
+        let got: String = classify(&named, daily.then_some(7), &items, writes_zeros, LONG_TABLE)
             .iter()
             .map(|r| match r {
                 None => '.',
