@@ -115,3 +115,49 @@ fn automatic_choice_is_not_worse_than_sba_on_made_up_series() {
 fn automatic_choice_is_not_worse_than_sba_on_product_c() {
     check("productC", &[csv_column("productC.csv", "demand")]);
 }
+
+// A shop shut on Saturdays and Sundays (read as 0 by Intake) sells every open day: its shut
+// days are left out of the demand class (ADI 1.4 with them: "intermittent", and SBA's flat
+// forecast on every day, open or shut, was the automatic choice), and they are forecast as 0,
+// with a note. Sizes 20-27, eight weeks from a Monday.
+#[test]
+fn a_shop_shut_two_days_a_week_is_not_intermittent() {
+    use morrowcast_engine::calendar::Period;
+    use morrowcast_engine::patterns::DemandClass;
+    use morrowcast_engine::series::Series;
+    let values: Vec<Option<f64>> = (0..56)
+        .map(|t| {
+            Some(if t % 7 >= 5 {
+                0.0
+            } else {
+                20.0 + ((t * 5) % 8) as f64
+            })
+        })
+        .collect();
+    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
+    let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+    assert_eq!(
+        plan.demand.class,
+        DemandClass::Smooth,
+        "{}",
+        plan.demand.reason
+    );
+    assert_eq!((plan.demand.periods, plan.demand.shut_periods), (40, 16));
+    assert!(!plan.chosen.key().contains("sba"), "{}", plan.chosen.key());
+    for (h, point) in plan.forecast.iter().enumerate() {
+        let shut = (56 + h) % 7 >= 5;
+        let b = point.band;
+        assert_eq!(
+            shut,
+            (b.value, b.low, b.high) == (0.0, 0.0, 0.0),
+            "step {h}: {b:?}"
+        );
+        if !shut {
+            assert!(b.value > 15.0, "step {h}: {b:?}");
+        }
+    }
+    assert!(plan
+        .notes
+        .iter()
+        .any(|n| n.contains("2 of every 7 periods had no demand in (almost) every season")));
+}

@@ -330,7 +330,12 @@ fn plan_inner(
     };
     let season = patterns::detect_season(&history, frequency, user_season);
     let trend = patterns::mann_kendall(&history);
-    let demand = patterns::classify_demand(&history);
+    // The calendar's places where a business may be shut (days of the week, months, quarters);
+    // weeks are left out: an ISO year has 52 or 53, so a week's place does not recur every 52.
+    let calendar_places = frequency
+        .natural_season()
+        .filter(|_| frequency != Frequency::Weekly);
+    let demand = patterns::classify_open_demand(&history, calendar_places);
     let m = season.length;
     let non_negative = history.iter().all(|v| *v >= 0.0);
     let has_zeros = history.contains(&0.0);
@@ -509,6 +514,7 @@ fn plan_inner(
         bands::recording_sd(&history),
         non_negative,
     );
+    shut_places_forecast_zero(&mut band_points, &history, calendar_places, &mut notes);
     let last = series.period(n - 1);
     let forecast = band_points
         .into_iter()
@@ -544,6 +550,42 @@ fn plan_inner(
     } else {
         Err(PlanError::NotFinite { name: plan.name })
     }
+}
+
+/// Forecasts and bands of 0 at the places of the calendar's season that had no demand in at
+/// least 80 % of their periods, the others selling (a shop shut on Sundays; [`patterns::shut_places`]), said in a note: the
+/// methods spread a little of the open days' demand over them (the combination's
+/// non-seasonal members forecast the same every day), which a business shut then would not
+/// sell. The forecast's step h (from 0) is period n + h of the history's count.
+fn shut_places_forecast_zero(
+    points: &mut [BandPoint],
+    history: &[f64],
+    places: Option<usize>,
+    notes: &mut Vec<String>,
+) {
+    let Some(m) = places else {
+        return;
+    };
+    let shut = patterns::shut_places(history, m);
+    if shut.is_empty() {
+        return;
+    }
+    let n = history.len();
+    for (h, point) in points.iter_mut().enumerate() {
+        if shut.contains(&((n + h) % m)) {
+            *point = BandPoint {
+                value: 0.0,
+                low: 0.0,
+                high: 0.0,
+            };
+        }
+    }
+    notes.push(format!(
+        "{} of every {m} periods had no demand in (almost) every season of the history while \
+         the others sold (a business shut then): they are forecast as 0 and left out of the \
+         demand class",
+        shut.len()
+    ));
 }
 
 /// Whether every number a front end shows or acts on is finite: forecasts and band ends,

@@ -170,7 +170,7 @@ fn weeks_read_as_months(
     })
 }
 
-/// The periods (indexes from `start`, in order) of a daily, monthly or quarterly table of one
+/// The periods (indexes from `start`, in order) of a daily or monthly table of one
 /// row per period that have no row and whose place in the calendar's season has none in most
 /// of its occurrences nearby, while the other places have rows (a shop shut on Sundays and
 /// Mondays, a kiosk shut in winter): closed, the long layout's rule (`unnamed`), asking more
@@ -183,11 +183,13 @@ fn weeks_read_as_months(
 /// or every-other-month rows): more than half the places closed is refused, as before; a
 /// place missing by chance (rows missing at random from a quarter of the periods) is not
 /// closed where the other places miss as many. Weekly tables are left out: the ISO year has 52
-/// or 53 weeks, so a week's place does not recur every 52 periods.
+/// or 53 weeks, so a week's place does not recur every 52 periods; quarterly ones too: a
+/// quarter missing every year is more often one the file leaves to the year's accounts than
+/// a quarter the business is shut (a review's judgement; its rows stay gaps).
 fn closed_places(present: &[bool], start: Period) -> Vec<usize> {
     let frequency = start.frequency();
     let season = match frequency.natural_season() {
-        Some(season) if frequency != Frequency::Weekly => season,
+        Some(season) if matches!(frequency, Frequency::Daily | Frequency::Monthly) => season,
         _ => return Vec::new(),
     };
     // One row per period writes every item's figure, zeros too: no period is quiet.

@@ -91,8 +91,8 @@
 //!   saying so only where at least half the periods stand on several rows and the rows are not stacked
 //!   copies of one table (a wide table with a period repeated stays wide, the repeat an
 //!   error), and one number on every row under "Item" names that one item;
-//!   labels read as months under a header naming weeks are an error (`build`); in a daily,
-//!   monthly or quarterly single or wide table, periods without a row whose place in the
+//!   labels read as months under a header naming weeks are an error (`build`); in a daily
+//!   or monthly single or wide table, periods without a row whose place in the
 //!   season (a weekday, a month) has none in most of its occurrences nearby, at least three,
 //!   while the other places have rows in 90 % of theirs and fewer than half the places are
 //!   closed, are closed: no sales, warned (`build::closed_places`); the rest, where they are

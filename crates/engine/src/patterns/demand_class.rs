@@ -18,6 +18,11 @@
 //!   mean size and blow up CV^2 for no reason a buyer would recognise.
 //! - No demand at all (every value zero or negative, or no values) gives ADI = infinity (n / 0),
 //!   CV^2 = 0 and hence "intermittent": the cut-off rule applied to the honest numbers.
+//! - Places of the calendar's season without demand in (almost) all their periods (a shop shut
+//!   on Sundays and Mondays: Intake reads its closed days as 0) are left out of n
+//!   ([`shut_places`], [`classify_open_demand`]): their zeros are the calendar, not how often
+//!   the item sells, and counted they made a shop selling every open day "intermittent" (ADI
+//!   7/5 = 1.4 for a shop shut two days a week), which put SBA's flat forecast on every day.
 
 /// ADI at or above which demand counts as infrequent (Syntetos, Boylan & Croston 2005).
 pub const ADI_CUTOFF: f64 = 1.32;
@@ -83,6 +88,9 @@ pub struct DemandVerdict {
     pub demand_periods: usize,
     /// Periods with a negative value (treated as no demand).
     pub negative_periods: usize,
+    /// Periods left out as places of the season that (almost) never have demand
+    /// ([`shut_places`]).
+    pub shut_periods: usize,
     /// One sentence that explains the verdict.
     pub reason: String,
 }
@@ -128,8 +136,79 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
         periods,
         demand_periods,
         negative_periods,
+        shut_periods: 0,
         reason,
     }
+}
+
+/// Fewest periods of a place of the season without demand for it to count as shut... Our
+/// choice, as Intake's closed periods of one row per period ask (`intake::build`).
+pub const SHUT_AT_LEAST: usize = 3;
+/// ...and the share of its periods they must be (a shop shut on Saturdays opening for one
+/// before Christmas is still shut then). Our choice, Intake's closed share.
+pub const SHUT_SHARE: f64 = 0.8;
+
+/// Share of the other places' periods with demand that makes places without any shut, not
+/// sparse: a shop's open days all sell (bar holidays), a slow item's do not, and three
+/// Januaries without a sale of an item that sells one month in three are chance. Our choice,
+/// as Intake's 90 % of rows on the open places (`intake::build`).
+pub const OPEN_DEMAND_SHARE: f64 = 0.9;
+
+/// The places `t % places` (t counted from the history's first period) whose periods have no
+/// demand (value 0 or less, or not a number) in at least [`SHUT_SHARE`] of them and at least
+/// [`SHUT_AT_LEAST`], when they are
+/// fewer than half the places and the other places' periods have demand in at least
+/// [`OPEN_DEMAND_SHARE`] of them: a business shut on those days or months. Empty otherwise
+/// (places without demand among places that often go without are how sparse demand looks,
+/// not a calendar).
+pub fn shut_places(values: &[f64], places: usize) -> Vec<usize> {
+    if places < 2 {
+        return Vec::new();
+    }
+    let shut: Vec<usize> = (0..places)
+        .filter(|&p| {
+            let at = values.iter().skip(p).step_by(places);
+            let count = at.clone().count();
+            let without = at.filter(|v| !(v.is_finite() && **v > 0.0)).count();
+            without >= SHUT_AT_LEAST && without as f64 >= SHUT_SHARE * count as f64
+        })
+        .collect();
+    let (mut open, mut selling) = (0usize, 0usize);
+    for (t, v) in values.iter().enumerate() {
+        if !shut.contains(&(t % places)) {
+            open += 1;
+            selling += usize::from(v.is_finite() && *v > 0.0);
+        }
+    }
+    let others_sell = open > 0 && selling as f64 >= OPEN_DEMAND_SHARE * open as f64;
+    if 2 * shut.len() >= places || !others_sell {
+        return Vec::new();
+    }
+    shut
+}
+
+/// [`classify_demand`] of the periods outside the [`shut_places`] of a season of `places`
+/// (`None`: no calendar season, every period counts), said in the reason.
+pub fn classify_open_demand(values: &[f64], places: Option<usize>) -> DemandVerdict {
+    let shut = places.map_or_else(Vec::new, |m| shut_places(values, m));
+    let Some(m) = places.filter(|_| !shut.is_empty()) else {
+        return classify_demand(values);
+    };
+    let open: Vec<f64> = values
+        .iter()
+        .enumerate()
+        .filter(|(t, _)| !shut.contains(&(t % m)))
+        .map(|(_, v)| *v)
+        .collect();
+    let mut verdict = classify_demand(&open);
+    verdict.shut_periods = values.len() - open.len();
+    verdict.reason.push_str(&format!(
+        "; {} periods left out: {} of every {m} (almost) never have demand (a business shut \
+         then)",
+        verdict.shut_periods,
+        shut.len()
+    ));
+    verdict
 }
 
 /// s^2 / mean^2 with the (k - 1) divisor; 0 for fewer than two sizes. Sizes are positive, so
@@ -188,6 +267,59 @@ mod tests {
         assert_eq!(single.class, DemandClass::Smooth);
         let odd = classify_demand(&[f64::NAN, f64::INFINITY, 2.0, 2.0]);
         assert_eq!((odd.demand_periods, odd.adi), (2, 2.0));
+    }
+
+    /// `shut_places(values, places)` is `expected`.
+    fn check_shut(values: &[f64], places: usize, expected: &[usize]) {
+        assert_eq!(shut_places(values, places), expected, "{values:?}");
+    }
+
+    #[test]
+    fn places_without_demand_in_every_season() {
+        // A week of 5 open days and 2 shut, three weeks: places 5 and 6.
+        let week = [4.0, 5.0, 6.0, 5.0, 4.0, 0.0, 0.0];
+        let weeks: Vec<f64> = week.iter().copied().cycle().take(21).collect();
+        check_shut(&weeks, 7, &[5, 6]);
+        // Two weeks only: too few periods of each place.
+        check_shut(&weeks[..14], 7, &[]);
+        // One sale on a place of three weeks: not shut (2 of 3 without demand), and its two
+        // days without demand leave the open places below 90 % with demand, so Sundays are
+        // not shut either. In ten weeks the place is shut still (9 of 10). A return (negative)
+        // is no demand.
+        let mut sold = weeks.clone();
+        sold[12] = 1.0;
+        check_shut(&sold, 7, &[]);
+        let mut ten: Vec<f64> = week.iter().copied().cycle().take(70).collect();
+        ten[12] = 1.0;
+        check_shut(&ten, 7, &[5, 6]);
+        ten[13] = -2.0;
+        check_shut(&ten, 7, &[5, 6]);
+        // A slow item: a place without a sale in three weeks among places that sell half the
+        // time is chance, not a shut day.
+        let slow: Vec<f64> = (0..21)
+            .map(|t| if t % 7 == 6 || t % 2 == 0 { 0.0 } else { 3.0 })
+            .collect();
+        check_shut(&slow, 7, &[]);
+        // Half the places or more without demand, or no demand at all: sparse, not shut.
+        let sparse: Vec<f64> = [3.0, 0.0].iter().copied().cycle().take(12).collect();
+        check_shut(&sparse, 2, &[]);
+        check_shut(&[0.0; 21], 7, &[]);
+        check_shut(&weeks, 1, &[]);
+    }
+
+    // The shop shut two days a week sells every open day: smooth once its shut days are left
+    // out (ADI 21/15 = 1.4, intermittent, with them).
+    #[test]
+    fn shut_places_are_left_out_of_the_class() {
+        let week = [4.0, 5.0, 6.0, 5.0, 4.0, 0.0, 0.0];
+        let weeks: Vec<f64> = week.iter().copied().cycle().take(21).collect();
+        let all = classify_demand(&weeks);
+        assert_eq!((all.adi, all.class), (1.4, DemandClass::Intermittent));
+        let open = classify_open_demand(&weeks, Some(7));
+        assert_eq!((open.periods, open.adi, open.shut_periods), (15, 1.0, 6));
+        assert_eq!(open.class, DemandClass::Smooth);
+        assert!(open.reason.ends_with("6 periods left out: 2 of every 7 (almost) never have demand (a business shut then)"), "{}", open.reason);
+        assert_eq!(classify_open_demand(&weeks, None), all);
     }
 
     #[test]

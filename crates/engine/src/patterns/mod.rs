@@ -13,7 +13,10 @@
 crate::internal_modules!(acf, demand_class, season, trend);
 
 pub use acf::autocorrelation;
-pub use demand_class::{classify_demand, DemandClass, DemandVerdict, ADI_CUTOFF, CV2_CUTOFF};
+pub use demand_class::{
+    classify_demand, classify_open_demand, shut_places, DemandClass, DemandVerdict, ADI_CUTOFF,
+    CV2_CUTOFF,
+};
 pub use season::{
     autocorrelation_peak, detect_season, season_test, seasonal_strength, SeasonSource, SeasonTest,
     SeasonVerdict, MIN_FULL_SEASONS, SEASON_TEST_CRITICAL_VALUE, STRENGTH_NEEDS_SEASONS,
