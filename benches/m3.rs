@@ -264,7 +264,12 @@ fn main() {
                         Ok(p) => {
                             if by_horizon {
                                 for (h, f) in p.forecast.iter().enumerate() {
-                                    let source = format!("{:?}", f.source);
+                                    let stand_in = p.notes.iter().any(|n| n.contains("a stand-in"));
+                                    let source = format!(
+                                        "{:?}{}",
+                                        f.source,
+                                        if stand_in { " (stand-in)" } else { "" }
+                                    );
                                     horizons.entry((i, h + 1, source)).or_default().add_one(
                                         s,
                                         h,

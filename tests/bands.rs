@@ -43,3 +43,52 @@ fn student_t_quantiles_match_scipy() {
         );
     }
 }
+
+// Two years of a monthly season, the automatic choice a combination with seasonal members:
+// their own rolling origins need two full seasons of training, so none fit in 24 months, and
+// the band rests on the seasonal naive method's errors at origins from month 12 on (a
+// stand-in, said in a note), growing with the horizon; before, the MAD rule's flat band of
+// the fit's one-step errors held about half its 95 % on such histories (README, Benchmarks).
+// With a third year the method's own errors return.
+#[test]
+fn a_seasonal_fit_on_two_seasons_borrows_the_seasonal_naive_errors() {
+    use morrowcast_engine::bands::BandSource;
+    use morrowcast_engine::calendar::Period;
+    use morrowcast_engine::plan::plan_item;
+    use morrowcast_engine::series::Series;
+    use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
+    let shape = [
+        20.0, 22.0, 30.0, 45.0, 60.0, 70.0, 66.0, 50.0, 38.0, 30.0, 26.0, 40.0,
+    ];
+    let months = |n: usize| -> Vec<Option<f64>> {
+        (0..n)
+            .map(|t| Some(shape[t % 12] * (1.0 + 0.1 * (t / 12) as f64) + ((t * 7) % 5) as f64))
+            .collect()
+    };
+    let settings = PlanSettings::default()
+        .with_season(SeasonChoice::Fixed(12))
+        .unwrap()
+        .with_choice(Choice::Auto);
+    let plan = |n: usize| {
+        let series = Series::new("Frost cloth", Period::month(2023, 1), months(n)).unwrap();
+        plan_item(&series, &settings).unwrap()
+    };
+    let two = plan(24);
+    assert!(
+        two.notes.iter().any(|n| n.contains("a stand-in")),
+        "{:?}",
+        two.notes
+    );
+    assert!(two
+        .forecast
+        .iter()
+        .all(|f| f.source == BandSource::RollingOrigins));
+    let width = |i: usize| two.forecast[i].band.high - two.forecast[i].band.low;
+    assert!(width(11) > width(0), "{} vs {}", width(11), width(0));
+    let three = plan(36);
+    assert!(
+        !three.notes.iter().any(|n| n.contains("a stand-in")),
+        "{:?}",
+        three.notes
+    );
+}
