@@ -223,3 +223,17 @@ fn text_with_replacement_marks_is_reported_by_line() {
         "a\n\u{fffd}\n"
     );
 }
+
+// A period column named in German: month.year labels ("03.2020", numbers to the reader) are
+// an error at the first, where they had been read as an item of numbers 3.202, 4.202, ...
+// beside numbered rows, silently. Dates under such a name read as before.
+#[test]
+fn numbers_under_a_period_named_in_another_language_are_an_error() {
+    let report = read("Monat;Absatz\n03.2020;122\n04.2020;112\n05.2020;130\n");
+    assert!(report.items.is_empty(), "{:?}", report.items);
+    assert_eq!(at(only_error(&report)), (2, "Monat", "03.2020"));
+    let dated = read("Datum,Menge\n2024-01-05,3\n2024-01-06,4\n2024-01-07,5\n");
+    assert!(dated.errors.is_empty(), "{:?}", dated.errors);
+    assert_eq!(dated.items.len(), 1);
+    assert_eq!(dated.items[0].name, "Menge");
+}

@@ -759,9 +759,43 @@ pub(super) const ITEM_WORDS: [&str; 22] = [
     "warehouse",
     "customer",
 ];
-pub(super) const PERIOD_WORDS: [&str; 14] = [
-    "t", "period", "time", "step", "date", "day", "week", "month", "quarter", "year", "wk", "mth",
-    "qtr", "yr",
+/// Words naming a period in a header, English and (from memory) the common German, French,
+/// Dutch, Spanish and Italian ones written in plain letters: under "Monat" the German
+/// month.year labels ("03.2020") had been read as the numbers 3.202 of an item, silently;
+/// named as a period they are an error that says how to write them. Words that name things in
+/// English too ("tag", "dag", "data") are left out.
+pub(super) const PERIOD_WORDS: [&str; 31] = [
+    "t",
+    "period",
+    "time",
+    "step",
+    "date",
+    "day",
+    "week",
+    "month",
+    "quarter",
+    "year",
+    "wk",
+    "mth",
+    "qtr",
+    "yr",
+    "periode",
+    "datum",
+    "woche",
+    "monat",
+    "quartal",
+    "jahr",
+    "semaine",
+    "mois",
+    "trimestre",
+    "maand",
+    "kwartaal",
+    "jaar",
+    "fecha",
+    "semana",
+    "mese",
+    "settimana",
+    "anno",
 ];
 pub(super) const QUANTITY_WORDS: [&str; 10] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
