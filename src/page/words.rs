@@ -245,7 +245,7 @@ pub fn trend_words(v: &TrendVerdict) -> String {
 }
 
 /// The demand class in words, with ADI and CV² and the cut-offs of Syntetos, Boylan & Croston
-/// (2005): ADI 1.32, CV² 0.49.
+/// (2005): ADI 1.32, CV² 0.49; the periods of shut places left out, when there are any.
 pub fn demand_words(v: &DemandVerdict) -> String {
     let what = match v.class {
         DemandClass::Smooth => "Smooth demand: regular, not very variable",
@@ -253,8 +253,15 @@ pub fn demand_words(v: &DemandVerdict) -> String {
         DemandClass::Intermittent => "Intermittent demand: many periods without sales",
         DemandClass::Lumpy => "Lumpy demand: many periods without sales, and variable sizes",
     };
+    let shut = match v.shut_periods {
+        0 => String::new(),
+        n => format!(
+            " {n} periods at places of the season that (almost) never sell while the others \
+             do, a business shut then, are left out and forecast as 0."
+        ),
+    };
     format!(
-        "{what} (average interval between demands {:.2}, cut-off 1.32; CV² of sizes {:.2}, cut-off 0.49).",
+        "{what} (average interval between demands {:.2}, cut-off 1.32; CV² of sizes {:.2}, cut-off 0.49).{shut}",
         v.adi, v.cv2
     )
 }
