@@ -112,19 +112,38 @@ pub(super) fn prefix(n: usize, flag: impl Fn(usize) -> bool) -> Vec<usize> {
 fn mark_closed(named: &[bool], places: usize, rule: ClosedRule, out: &mut [Option<Unnamed>]) {
     let n = named.len();
     let reach = CLOSED_SEASONS * places;
+    // Periods inside a run without any row as long as a season (a shop's holiday, a stretch
+    // missing from the export) say nothing of which places are open or shut: left out of the
+    // counts below, where they had made every place near a long outage look shut and pulled
+    // the open places' share under the rule's for six seasons either side (a two-week holiday
+    // left the Sundays around it interpolated; a helper review's probes).
+    let mut in_long_gap = vec![false; n];
+    let mut t = 0;
+    while t < n {
+        let start = t;
+        while t < n && !named[t] {
+            t += 1;
+        }
+        if t - start >= places {
+            in_long_gap[start..t].fill(true);
+        }
+        t = t.max(start + 1);
+    }
     // A period whose place has no row in most of its occurrences nearby (itself included).
     let candidate: Vec<bool> = (0..n)
         .map(|t| {
             let first = t - (t / places).min(CLOSED_SEASONS) * places;
             let (mut seen, mut empty) = (0usize, 0usize);
             for s in (first..n.min(t + reach + 1)).step_by(places) {
-                seen += 1;
-                empty += usize::from(!named[s]);
+                if !in_long_gap[s] {
+                    seen += 1;
+                    empty += usize::from(!named[s]);
+                }
             }
             empty >= rule.at_least && empty as f64 >= CLOSED_SHARE * seen as f64
         })
         .collect();
-    let open = prefix(n, |t| !candidate[t]);
+    let open = prefix(n, |t| !candidate[t] && !in_long_gap[t]);
     let open_named = prefix(n, |t| !candidate[t] && named[t]);
     for t in 0..n {
         if out[t].is_none() || !candidate[t] {
@@ -260,6 +279,16 @@ mod tests {
         // A sparse daily table: no weekday stands out, the quiet days are chance.
         let sparse = "x..x.....x...x..x......x....x";
         check(&[sparse], true, false, ".qq.qqqqq.qqq.qq.qqqqqq.qqqq.");
+        // A two-week holiday of a shop shut on Sundays: the Sundays around it stay closed (the
+        // holiday's own days, a run as long as a season, do not count against the open days).
+        let holiday = ["xxxxxx.".repeat(4), ".".repeat(14), "xxxxxx.".repeat(4)].concat();
+        let read = [
+            "......c".repeat(4),
+            "mmmmmmc".repeat(2),
+            "......c".repeat(4),
+        ]
+        .concat();
+        check(&[&holiday, &holiday], true, false, &read);
         // A stretch without rows in a table of frequent sellers: missing, while a lone quiet
         // period of an item seen to go without sales is chance.
         check(
