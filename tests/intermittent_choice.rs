@@ -156,6 +156,9 @@ fn a_shop_shut_two_days_a_week_is_not_intermittent() {
             assert!(b.value > 15.0, "step {h}: {b:?}");
         }
     }
+    // The week's total stays the open days' (sizes 20-27, five a week: about 117).
+    let week: f64 = plan.forecast.iter().take(7).map(|f| f.band.value).sum();
+    assert!((100.0..135.0).contains(&week), "{week}");
     assert!(plan
         .notes
         .iter()

@@ -467,9 +467,10 @@ fn plan_inner(
     let stand_in = seasonal_stand_in(&origin_errors, &fitted_as, seasons, recent, horizon);
     if stand_in.is_some() && settings.band() == BandMethod::HorizonAware {
         notes.push(
-            "the history is too short to measure the chosen method's own errors ahead (its \
-             seasonal members need two full seasons before the first origin): the band rests on \
-             the seasonal naive method's errors at rolling origins instead, a stand-in"
+            "the history is too short for rolling origins with two full seasons of training: \
+             the band rests on the seasonal naive method's errors at origins from one season \
+             on, a stand-in where the chosen method is another (widest at the far steps, \
+             which few origins reach)"
                 .into(),
         );
     }
@@ -607,10 +608,14 @@ fn seasonal_stand_in(
 }
 
 /// Forecasts and bands of 0 at the places of the calendar's season that had no demand in at
-/// least 80 % of their periods, the others selling (a shop shut on Sundays; [`patterns::shut_places`]), said in a note: the
-/// methods spread a little of the open days' demand over them (the combination's
-/// non-seasonal members forecast the same every day), which a business shut then would not
-/// sell. The forecast's step h (from 0) is period n + h of the history's count.
+/// least 80 % of their periods, the others selling (a shop shut on Sundays;
+/// [`patterns::shut_places`]), said in a note: the methods spread some of the open days'
+/// demand over them (a method that does not follow the season forecasts the same every day),
+/// which a business shut then would not sell. What they took is given back to the open steps
+/// in proportion (each forecast times sum of all / sum of the open, the band moved with it):
+/// a non-seasonal level is the mean over shut and open days, and zeros alone cut the week's
+/// total by the shut share (a review found a shop shut three days a week at 72 where it sells
+/// 120). The forecast's step h (from 0) is period n + h of the history's count.
 fn shut_places_forecast_zero(
     points: &mut [BandPoint],
     history: &[f64],
@@ -625,19 +630,42 @@ fn shut_places_forecast_zero(
         return;
     }
     let n = history.len();
+    let is_shut = |h: usize| shut.contains(&((n + h) % m));
+    let total: f64 = points.iter().map(|p| p.value).sum();
+    let open: f64 = (0..points.len())
+        .filter(|h| !is_shut(*h))
+        .map(|h| points[h].value)
+        .sum();
+    let factor = if open > 0.0 && total > 0.0 {
+        total / open
+    } else {
+        1.0
+    };
     for (h, point) in points.iter_mut().enumerate() {
-        if shut.contains(&((n + h) % m)) {
+        if is_shut(h) {
             *point = BandPoint {
                 value: 0.0,
                 low: 0.0,
                 high: 0.0,
             };
+        } else {
+            let moved = point.value * (factor - 1.0);
+            let floor = if point.low >= 0.0 {
+                0.0
+            } else {
+                f64::NEG_INFINITY
+            };
+            *point = BandPoint {
+                value: point.value + moved,
+                low: (point.low + moved).max(floor),
+                high: point.high + moved,
+            };
         }
     }
     notes.push(format!(
         "{} of every {m} periods had no demand in (almost) every season of the history while \
-         the others sold (a business shut then): they are forecast as 0 and left out of the \
-         demand class",
+         the others sold (a business shut then): they are forecast as 0, the other periods \
+         carrying the forecast's total, and left out of the demand class",
         shut.len()
     ));
 }
