@@ -19,16 +19,20 @@ use super::expect::{check, Expect};
 /// An item's sales on day t (`None`: no row).
 type Sells<'a> = &'a dyn Fn(usize) -> Option<u32>;
 
+/// Day t from 2024-03-04 (a Monday) as yyyy-mm-dd.
+fn day_label(t: usize) -> String {
+    let (y, m, d) = civil_from_days(days_from_civil(2024, 3, 4) + t as i64);
+    format!("{y}-{m:02}-{d:02}")
+}
+
 /// A long daily table from 2024-03-04 (a Monday): for each item, its sales on the days
 /// `sells(day)` gives (none: no row).
 fn daily(items: &[(&str, Sells<'_>)], days: usize) -> String {
-    let monday = days_from_civil(2024, 3, 4);
     let mut text = String::from("date,item,qty\n");
     for t in 0..days {
-        let (y, m, d) = civil_from_days(monday + t as i64);
         for (name, sells) in items {
             if let Some(q) = sells(t) {
-                text.push_str(&format!("{y}-{m:02}-{d:02},{name},{q}\n"));
+                text.push_str(&format!("{},{name},{q}\n", day_label(t)));
             }
         }
     }
@@ -196,15 +200,14 @@ fn a_table_writing_zeros_has_no_quiet_days() {
 #[test]
 fn a_store_missing_from_the_export_has_gaps_not_zeros() {
     let mut text = String::from("store,item,date,qty\n");
-    let first = days_from_civil(2024, 3, 4);
     for t in 0..70 {
-        let (y, m, d) = civil_from_days(first + t);
+        let day = day_label(t);
         for store in ["North", "South"] {
             if store == "South" && (20..40).contains(&t) {
                 continue;
             }
             for item in ["Oak tray", "Seed tin"] {
-                text.push_str(&format!("{store},{item},{y}-{m:02}-{d:02},{}\n", 3 + t % 5));
+                text.push_str(&format!("{store},{item},{day},{}\n", 3 + t % 5));
             }
         }
     }
@@ -353,13 +356,11 @@ fn items_are_grouped_only_by_a_place_and_the_table_reads_first() {
 /// A table of one row per day from 2024-03-04 (a Monday), `sells(day)` each column's figure
 /// (none: no row), columns named `names`.
 fn one_row_per_day(names: &[&str], days: usize, sells: Sells<'_>) -> String {
-    let monday = days_from_civil(2024, 3, 4);
     let mut text = format!("Date,{}\n", names.join(","));
     for t in 0..days {
-        let (y, m, d) = civil_from_days(monday + t as i64);
         if let Some(q) = sells(t) {
             let cells = vec![q.to_string(); names.len()].join(",");
-            text.push_str(&format!("{y}-{m:02}-{d:02},{cells}\n"));
+            text.push_str(&format!("{},{cells}\n", day_label(t)));
         }
     }
     text

@@ -640,13 +640,17 @@ mod tests {
         assert!(rolling_band(&[1.0], &[vec![2.0]], None, level, false).is_none());
     }
 
+    /// `got` equals `expected` to 1e-12 at every position; `input` named on failure.
+    fn assert_all_within(input: &dyn std::fmt::Debug, got: &[f64], expected: &[f64]) {
+        assert_eq!(got.len(), expected.len(), "{input:?}: {got:?}");
+        for (g, e) in got.iter().zip(expected) {
+            assert!((g - e).abs() < 1e-12, "{input:?}: {got:?} vs {expected:?}");
+        }
+    }
+
     /// `nondecreasing(values)` equals `expected` to 1e-12.
     fn check_nondecreasing(values: &[(f64, f64)], expected: &[f64]) {
-        let got = nondecreasing(values);
-        assert_eq!(got.len(), expected.len(), "{values:?}");
-        for (g, e) in got.iter().zip(expected) {
-            assert!((g - e).abs() < 1e-12, "{values:?}: {got:?} vs {expected:?}");
-        }
+        assert_all_within(&values, &nondecreasing(values), expected);
     }
 
     // Pooling adjacent violators by hand: a falling run takes its weighted mean, and a pooled
@@ -713,11 +717,7 @@ mod tests {
 
     /// `psi_from_growth(errors)` equals `expected` to 1e-12.
     fn check_growth(errors: &[Vec<f64>], expected: &[f64]) {
-        let got = psi_from_growth(errors);
-        assert_eq!(got.len(), expected.len(), "{errors:?}: {got:?}");
-        for (g, e) in got.iter().zip(expected) {
-            assert!((g - e).abs() < 1e-12, "{errors:?}: {got:?} vs {expected:?}");
-        }
+        assert_all_within(&errors, &psi_from_growth(errors), expected);
     }
 
     // Arithmetic of the weights implied by growth (doc of psi_from_growth).

@@ -464,7 +464,8 @@ fn plan_inner(
         &mut || progress(last_step),
     );
     let trending = trend.direction != TrendDirection::None;
-    let stand_in = seasonal_stand_in(&origin_errors, &fitted_as, seasons, recent, horizon);
+    let own_errors = origin_errors.by_horizon(horizon);
+    let stand_in = seasonal_stand_in(&own_errors, &fitted_as, seasons, recent, horizon);
     if stand_in.is_some() && settings.band() == BandMethod::HorizonAware {
         notes.push(
             "the history is too short for rolling origins with two full seasons of training: \
@@ -484,7 +485,7 @@ fn plan_inner(
         ),
         None => bands::rolling_band(
             &point,
-            &origin_errors.by_horizon(horizon),
+            &own_errors,
             Some(bands::Carryover::new(&psi, trending)),
             settings.level(),
             non_negative,
@@ -529,7 +530,9 @@ fn plan_inner(
         bands::recording_sd(&history),
         non_negative,
     );
-    shut_places_forecast_zero(&mut band_points, &history, calendar_places, &mut notes);
+    if let Some(m) = calendar_places {
+        shut_places_forecast_zero(&mut band_points, n, m, &demand.shut_places, &mut notes);
+    }
     let last = series.period(n - 1);
     let forecast = band_points
         .into_iter()
@@ -577,19 +580,14 @@ fn plan_inner(
 /// (README, Benchmarks). The seasonal naive method is a forecast the chosen one should beat, so
 /// its errors lean wide. `None` otherwise.
 fn seasonal_stand_in(
-    own: &OriginErrors,
+    own: &[Vec<f64>],
     fitted_as: &Candidate,
     seasons: Seasons,
     history: &[f64],
     horizon: usize,
 ) -> Option<(Vec<Vec<f64>>, Vec<f64>)> {
     let m = seasons.for_candidate(fitted_as)?;
-    let first = own
-        .by_horizon(horizon)
-        .into_iter()
-        .next()
-        .unwrap_or_default();
-    if first.len() >= 2 {
+    if own.first().is_some_and(|first| first.len() >= 2) {
         return None;
     }
     let errors = backtest::rolling_errors(
@@ -615,21 +613,18 @@ fn seasonal_stand_in(
 /// in proportion (each forecast times sum of all / sum of the open, the band moved with it):
 /// a non-seasonal level is the mean over shut and open days, and zeros alone cut the week's
 /// total by the shut share (a review found a shop shut three days a week at 72 where it sells
-/// 120). The forecast's step h (from 0) is period n + h of the history's count.
+/// 120). `shut`: the places of the season of `m` (the demand verdict's); the forecast's step
+/// h (from 0) is period n + h of the history's count.
 fn shut_places_forecast_zero(
     points: &mut [BandPoint],
-    history: &[f64],
-    places: Option<usize>,
+    n: usize,
+    m: usize,
+    shut: &[usize],
     notes: &mut Vec<String>,
 ) {
-    let Some(m) = places else {
-        return;
-    };
-    let shut = patterns::shut_places(history, m);
     if shut.is_empty() {
         return;
     }
-    let n = history.len();
     let is_shut = |h: usize| shut.contains(&((n + h) % m));
     let total: f64 = points.iter().map(|p| p.value).sum();
     let open: f64 = (0..points.len())

@@ -92,12 +92,12 @@
 //!   copies of one table (a wide table with a period repeated stays wide, the repeat an
 //!   error), and one number on every row under "Item" names that one item;
 //!   labels read as months under a header naming weeks are an error (`build`); in a daily
-//!   or monthly single or wide table, periods without a row whose place in the
-//!   season (a weekday, a month) has none in most of its occurrences nearby, at least three,
-//!   while the other places have rows in 90 % of theirs and fewer than half the places are
-//!   closed, are closed: no sales, warned (`build::closed_places`); the rest, where they are
-//!   more than the rows, or more than half as many and at least six, are an error, nothing read (`build`; a long table reads such
-//!   periods as no sales, with its warning); a subtotal with a total's word under the items it
+//!   or monthly single or wide table, periods without a row whose place in the season (a
+//!   weekday, a month) has none in most of its occurrences nearby, at least three, while the
+//!   other places have rows in 90 % of theirs and fewer than half the places are closed, are
+//!   closed: no sales, warned (`build::closed_places`); the rest, where they are more than the
+//!   rows, or more than half as many and at least six, are an error, nothing read (`build`; a
+//!   long table reads such periods as no sales, with its warning); a subtotal with a total's word under the items it
 //!   adds up ("Garden subtotal", "Total Inventory") is left out (`totals`).
 //! - Nothing vanishes silently: an item whose cells are all empty or n/a is named in a warning
 //!   (it has no values, so it is not planned); item names that differ only in white space or

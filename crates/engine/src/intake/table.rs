@@ -925,9 +925,7 @@ fn counts_rows(table: &Table, j: usize, cells: &[&str]) -> bool {
         || header_says(name, &ROW_WORDS)
         || header_says(
             name,
-            &[
-                "periode", "no", "nr", "n", "idx", "num", "number", "obs", "seq",
-            ],
+            &["no", "nr", "n", "idx", "num", "number", "obs", "seq"],
         )
 }
 

@@ -91,6 +91,9 @@ pub struct DemandVerdict {
     /// Periods left out as places of the season that (almost) never have demand
     /// ([`shut_places`]).
     pub shut_periods: usize,
+    /// Those places (`t % season`, t from the history's first period; empty when none), which
+    /// the plan forecasts as 0.
+    pub shut_places: Vec<usize>,
     /// One sentence that explains the verdict.
     pub reason: String,
 }
@@ -137,6 +140,7 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
         demand_periods,
         negative_periods,
         shut_periods: 0,
+        shut_places: Vec::new(),
         reason,
     }
 }
@@ -171,12 +175,11 @@ pub fn shut_places(values: &[f64], places: usize) -> Vec<usize> {
             let none = |v: &f64| !(v.is_finite() && *v > 0.0);
             let at: Vec<f64> = values.iter().skip(p).step_by(places).copied().collect();
             let without = at.iter().filter(|v| none(v)).count();
-            // The latest periods of the place too: a day reopened is not shut.
-            let latest = at.iter().rev().take(SHUT_AT_LEAST);
+            // The latest periods of the place too (there are at least SHUT_AT_LEAST once
+            // `without` is): a day reopened is not shut.
             without >= SHUT_AT_LEAST
                 && without as f64 >= SHUT_SHARE * at.len() as f64
-                && latest.clone().count() == SHUT_AT_LEAST
-                && latest.into_iter().all(none)
+                && at.iter().rev().take(SHUT_AT_LEAST).all(none)
         })
         .collect();
     let (mut open, mut selling) = (0usize, 0usize);
@@ -214,6 +217,7 @@ pub fn classify_open_demand(values: &[f64], places: Option<usize>) -> DemandVerd
         verdict.shut_periods,
         shut.len()
     ));
+    verdict.shut_places = shut;
     verdict
 }
 
