@@ -484,6 +484,84 @@ fn a_mistyped_year_in_a_column_of_years_is_an_error() {
     );
 }
 
+// A period typed with the wrong year but near the others ("Dec 2023" closing a 2024 row) is
+// read where it says, and said, in every layout: sorted silently, it moved that month's sales
+// to the start of the history (across and long tables said nothing until 2026-12-04). Tables
+// written newest first, and rows repeated per store or export, are read without the warning.
+#[test]
+fn a_period_out_of_its_run_is_named_in_every_layout() {
+    let months = |last: &str| {
+        let mut m: Vec<String> = (1..=11).map(|i| format!("2024-{i:02}")).collect();
+        m.push(last.to_string());
+        m
+    };
+    let single = |periods: &[String]| {
+        let rows: String = periods.iter().map(|p| format!("{p},5\n")).collect();
+        format!("Month,Seeds\n{rows}")
+    };
+    let long = |periods: &[String], stores: usize| {
+        let rows: String = (0..stores)
+            .flat_map(|_| periods.iter().map(|p| format!("{p},Seeds,5\n")))
+            .collect();
+        format!("Month,Item,Units\n{rows}")
+    };
+    let across =
+        |periods: &[String]| format!("Item,{}\nSeeds{}\n", periods.join(","), ",5".repeat(12));
+    let typo = months("2023-12");
+    let mut newest_first = months("2024-12");
+    newest_first.reverse();
+    // (input, the words of the warning, or none)
+    let cases: Vec<(String, Option<Vec<&str>>)> = vec![
+        (
+            single(&typo),
+            Some(vec![
+                "not in time order",
+                "line 13, 2023-12",
+                "line 12, 2024-11",
+            ]),
+        ),
+        (
+            long(&typo, 1),
+            Some(vec!["rows of 1 item", "\"Seeds\" (line 13, 2023-12"]),
+        ),
+        (
+            across(&typo),
+            Some(vec![
+                "header's periods",
+                "\"2023-12\", 2023-12, comes after",
+            ]),
+        ),
+        (single(&newest_first), None),
+        (long(&newest_first, 1), None),
+        (across(&newest_first), None),
+        (long(&months("2024-12"), 2), None),
+    ];
+    for (input, words) in cases {
+        let r = read(&input);
+        assert!(!r.has_errors(), "{input}: {:#?}", r.errors);
+        assert_eq!(
+            r.items[0].periods[0].to_string(),
+            if words.is_some() {
+                "2023-12"
+            } else {
+                "2024-01"
+            }
+        );
+        let about_order: Vec<&String> = r
+            .warnings
+            .iter()
+            .filter(|w| w.contains("time order"))
+            .collect();
+        match words {
+            Some(words) => assert!(
+                about_order.len() == 1 && words.iter().all(|w| about_order[0].contains(w)),
+                "{input}: {about_order:#?}"
+            ),
+            None => assert!(about_order.is_empty(), "{input}: {about_order:#?}"),
+        }
+    }
+}
+
 /// Labels of `first` and the `n - 1` periods after it, one per row, read back.
 fn read_labels(first: Period, n: i64) -> IntakeReport {
     let mut text = String::from("period,qty\n");

@@ -131,6 +131,32 @@ struct Entry<'a> {
     row: &'a Record,
 }
 
+/// Where periods in the file's order first break their run: the index of the first period that
+/// goes against the way most steps go (back in time, or forward in a table written newest
+/// first) and stands only once (a date typed with the wrong year, say), or `None` when every
+/// step goes one way (either way is read as written: nothing to check). A period that stands
+/// more than once is passed over: rows repeated per store, or an export stacked on another,
+/// start again at the first period, and are summed or refused where they repeat.
+fn first_break_in_time_order(periods: &[Period]) -> Option<usize> {
+    let forward = periods.windows(2).filter(|w| w[1] > w[0]).count();
+    let backward = periods.windows(2).filter(|w| w[1] < w[0]).count();
+    if forward == 0 || backward == 0 {
+        return None;
+    }
+    let mut times: HashMap<Period, usize> = HashMap::new();
+    for p in periods {
+        *times.entry(*p).or_default() += 1;
+    }
+    let against = |i: usize| {
+        if backward <= forward {
+            periods[i] < periods[i - 1]
+        } else {
+            periods[i] > periods[i - 1]
+        }
+    };
+    (1..periods.len()).find(|&i| against(i) && times[&periods[i]] == 1)
+}
+
 /// The error for a period column whose header names weeks and nothing else ("Week", "Wk no",
 /// "Year/Week", "Week ending") over labels read as months ("2024-01": January 2024, or week
 /// 1?): at its first row, and nothing is read. Read as months, weekly demand would be planned a month at a time, about a
@@ -635,11 +661,12 @@ impl<'a> Builder<'a> {
     }
 
     fn single_or_wide(&mut self, mut entries: Vec<Entry<'a>>, dated: bool) {
-        if let Some(w) = entries.windows(2).find(|w| w[1].period < w[0].period) {
+        let periods: Vec<Period> = entries.iter().map(|e| e.period).collect();
+        if let Some(w) = first_break_in_time_order(&periods).map(|i| &entries[i - 1..=i]) {
             self.out.warnings.push(format!(
-                "rows are not in time order (line {} comes before line {}); they were sorted by \
-                 period",
-                w[0].row.line, w[1].row.line
+                "rows are not in time order (line {}, {}, comes after line {}, {}); they were \
+                 sorted by period (check that row's date)",
+                w[1].row.line, w[1].period, w[0].row.line, w[0].period
             ));
         }
         entries.sort_by_key(|e| e.period);

@@ -2,14 +2,15 @@
 //! header's period cells are read as one period column would be (errors at the header line,
 //! under the cell's own text), the columns put in time order, and each row is one item whose values are
 //! read with the same number rules as any other layout (errors at the row, under the period's
-//! header). An item named on two rows is an error at the second (adding them up could count
+//! header). Columns out of time order are sorted, with a warning naming the first (a month typed
+//! with the wrong year moves its value elsewhere). An item named on two rows is an error at the second (adding them up could count
 //! one thing twice); missing periods between the columns are gaps, named in a warning.
 //!
 //! Kept apart from: finding such a table ([`crate::intake::across`]) and the other layouts.
 
 use std::collections::HashMap;
 
-use super::Builder;
+use super::{first_break_in_time_order, Builder};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::read_periods;
@@ -42,6 +43,19 @@ impl<'a> Builder<'a> {
             .zip(&value_columns)
             .filter_map(|(p, j)| p.map(|p| (p, *j)))
             .collect();
+        let periods: Vec<Period> = columns.iter().map(|c| c.0).collect();
+        if let Some(w) = first_break_in_time_order(&periods).map(|i| &columns[i - 1..=i]) {
+            let (before, after) = (
+                self.table.column_name(w[0].1),
+                self.table.column_name(w[1].1),
+            );
+            self.out.warnings.push(format!(
+                "the header's periods are not in time order (\"{after}\", {}, comes after \
+                 \"{before}\", {}); the columns were put in time order (check that column's \
+                 year)",
+                w[1].0, w[0].0
+            ));
+        }
         columns.sort_by_key(|(p, j)| (*p, *j));
         let mut unique: Vec<(Period, usize)> = Vec::with_capacity(columns.len());
         for (period, j) in columns {

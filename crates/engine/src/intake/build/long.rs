@@ -11,7 +11,7 @@
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
-use super::{count, lines, listing, Builder, LongRow};
+use super::{count, first_break_in_time_order, lines, listing, Builder, LongRow};
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
@@ -112,6 +112,7 @@ impl<'a> Builder<'a> {
         let mut readings = self.readings(&item_columns, &order, &items, dated);
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
+        let mut out_of_order: Vec<String> = Vec::new();
         for (k, key) in order.into_iter().enumerate() {
             let Some(LongItem {
                 name,
@@ -132,6 +133,15 @@ impl<'a> Builder<'a> {
                      read as one item: {}",
                     spellings.len(),
                     listing(&forms)
+                ));
+            }
+            let periods: Vec<Period> = rows.iter().map(|r| r.0).collect();
+            if let Some((before, after)) =
+                first_break_in_time_order(&periods).map(|i| (&rows[i - 1], &rows[i]))
+            {
+                out_of_order.push(format!(
+                    "\"{name}\" (line {}, {}, comes after line {}, {})",
+                    after.2.line, after.0, before.2.line, before.0
                 ));
             }
             rows.sort_by_key(|r| r.0);
@@ -239,6 +249,14 @@ impl<'a> Builder<'a> {
                 periods,
                 values,
             });
+        }
+        if !out_of_order.is_empty() {
+            self.out.warnings.push(format!(
+                "rows of {} are not in time order: {}; they were sorted by period (check \
+                 that row's date)",
+                count(out_of_order.len(), "item"),
+                listing(&out_of_order)
+            ));
         }
         let warnings = readings.warnings(&zeros);
         self.out.warnings.extend(warnings);
