@@ -145,3 +145,90 @@ fn a_stock_row_overrides_the_files_settings_and_a_missing_row_is_noted() {
         Err(OrderError::Stock(_))
     ));
 }
+
+/// A shop shut on Saturdays and Sundays (no sales then, from a Monday), its history `days`
+/// long, planned with lead time `lead` and review `review`.
+fn shut_days_order(
+    days: usize,
+    lead: usize,
+    review: Option<usize>,
+) -> morrowcast_engine::order::ItemOrder {
+    use morrowcast_engine::calendar::Period;
+    use morrowcast_engine::series::Series;
+    use morrowcast_engine::stock::StockSettings;
+    let values = (0..days)
+        .map(|t| {
+            Some(if t % 7 >= 5 {
+                0.0
+            } else {
+                20.0 + ((t * 5) % 8) as f64
+            })
+        })
+        .collect();
+    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
+    let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
+    plan_order(&series, &PlanSettings::default(), &settings, None, false).unwrap()
+}
+
+/// [`shut_days_order`]'s protection interval must be `periods`, and the demand over it the
+/// open days' forecasts; the note says so where shut days lengthened it.
+fn check_shut_days(days: usize, lead: usize, review: Option<usize>, periods: usize) {
+    use morrowcast_engine::calendar::Period;
+    use morrowcast_engine::series::Series;
+    use morrowcast_engine::stock::StockSettings;
+    let values = (0..days)
+        .map(|t| {
+            Some(if t % 7 >= 5 {
+                0.0
+            } else {
+                20.0 + ((t * 5) % 8) as f64
+            })
+        })
+        .collect();
+    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
+    let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
+    let order = plan_order(&series, &PlanSettings::default(), &settings, None, false).unwrap();
+    let what = format!("{days} days, lead {lead}, review {review:?}");
+    assert_eq!(order.stock.protection_periods, periods, "{what}");
+    assert!(order.plan.forecast.len() >= periods, "{what}");
+    let open_days = (days..days + periods).filter(|t| t % 7 < 5).count();
+    assert!(open_days > 0, "{what}: no open day to protect");
+    let demand = order.stock.demand_over_protection;
+    assert!(
+        demand > 15.0 * open_days as f64 && demand < 30.0 * open_days as f64,
+        "{what}: {demand} over {open_days} open days"
+    );
+    let noted = order
+        .stock
+        .notes
+        .iter()
+        .any(|n| n.contains("no order is placed while shut"));
+    assert_eq!(
+        noted,
+        periods > lead + review.unwrap_or(0),
+        "{what}: {:?}",
+        order.stock.notes
+    );
+}
+
+// The protection interval reaches over the shut days right after now (continuous review) or
+// where the next review falls (periodic): no one orders while shut, and an order placed on
+// reopening comes after that day's sales. Before 2026-12-04 a Friday with a lead time of one
+// day had the Saturday's demand (0) to cover: reorder point near 0, order quantity 1.
+#[test]
+fn shut_days_are_covered_until_an_order_placed_on_reopening_arrives() {
+    // Ends on a Sunday (the next day open), a Friday, a Saturday.
+    check_shut_days(56, 1, None, 1);
+    check_shut_days(54, 1, None, 3);
+    check_shut_days(55, 1, None, 2);
+    check_shut_days(54, 2, None, 4);
+    // Longer than the automatic horizon (7 days): planned further.
+    check_shut_days(54, 7, None, 9);
+    // Periodic review from a Friday: a review after 1 day falls on the weekend and moves to
+    // Monday's opening (the order must cover Monday); after 2 days it is Monday's opening.
+    check_shut_days(54, 1, Some(1), 3);
+    check_shut_days(54, 1, Some(2), 3);
+    check_shut_days(55, 1, Some(1), 2);
+    // No lead time, continuous review: nothing to protect, shut days or not.
+    assert_eq!(shut_days_order(54, 0, None).stock.protection_periods, 0);
+}

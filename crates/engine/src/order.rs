@@ -12,7 +12,7 @@ use crate::intake::StockRow;
 use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
 use crate::series::Series;
 use crate::settings::{PlanSettings, SettingError};
-use crate::stock::{plan_stock, StockError, StockPlan, StockSettings};
+use crate::stock::{plan_stock, protection_periods_of, StockError, StockPlan, StockSettings};
 
 /// An item's plan, Stock plan and alerts.
 #[derive(Clone, Debug, PartialEq)]
@@ -92,7 +92,26 @@ pub fn plan_order(
         }
         _ => settings.clone(),
     };
-    let plan = plan_item(series, &plan_settings).map_err(OrderError::Plan)?;
+    let mut plan = plan_item(series, &plan_settings).map_err(OrderError::Plan)?;
+    // Shut periods right after now lengthen the protection interval (known once planned).
+    let needed = protection_periods_of(&plan, &stock_settings);
+    if plan.forecast.len() < needed {
+        match settings.horizon() {
+            None => {
+                let longer = settings
+                    .clone()
+                    .with_horizon(Some(needed as u64))
+                    .map_err(OrderError::Setting)?;
+                plan = plan_item(series, &longer).map_err(OrderError::Plan)?;
+            }
+            Some(horizon) => {
+                return Err(OrderError::HorizonShort {
+                    horizon,
+                    periods: needed,
+                })
+            }
+        }
+    }
     let mut stock = plan_stock(&plan, &stock_settings).map_err(OrderError::Stock)?;
     if table_given && row.is_none() {
         stock.notes.push(NO_ROW_NOTE.to_string());

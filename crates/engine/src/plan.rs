@@ -530,9 +530,7 @@ fn plan_inner(
         bands::recording_sd(&history),
         non_negative,
     );
-    if let Some(m) = calendar_places {
-        shut_places_forecast_zero(&mut band_points, n, m, &demand.shut_places, &mut notes);
-    }
+    shut_places_forecast_zero(&mut band_points, n, &demand, &mut notes);
     let last = series.period(n - 1);
     let forecast = band_points
         .into_iter()
@@ -613,19 +611,18 @@ fn seasonal_stand_in(
 /// in proportion (each forecast times sum of all / sum of the open, the band moved with it):
 /// a non-seasonal level is the mean over shut and open days, and zeros alone cut the week's
 /// total by the shut share (a review found a shop shut three days a week at 72 where it sells
-/// 120). `shut`: the places of the season of `m` (the demand verdict's); the forecast's step
-/// h (from 0) is period n + h of the history's count.
+/// 120). The forecast's step h (from 0) is period n + h of the history's count.
 fn shut_places_forecast_zero(
     points: &mut [BandPoint],
     n: usize,
-    m: usize,
-    shut: &[usize],
+    demand: &DemandVerdict,
     notes: &mut Vec<String>,
 ) {
+    let (shut, m) = (&demand.shut_places, demand.shut_cycle);
     if shut.is_empty() {
         return;
     }
-    let is_shut = |h: usize| shut.contains(&((n + h) % m));
+    let is_shut = |h: usize| demand.is_shut(n + h);
     let total: f64 = points.iter().map(|p| p.value).sum();
     let open: f64 = (0..points.len())
         .filter(|h| !is_shut(*h))

@@ -91,9 +91,11 @@ pub struct DemandVerdict {
     /// Periods left out as places of the season that (almost) never have demand
     /// ([`shut_places`]).
     pub shut_periods: usize,
-    /// Those places (`t % season`, t from the history's first period; empty when none), which
-    /// the plan forecasts as 0.
+    /// Those places (`t % shut_cycle`, t from the history's first period; empty when none),
+    /// which the plan forecasts as 0.
     pub shut_places: Vec<usize>,
+    /// The season the shut places are places of (0 when there are none).
+    pub shut_cycle: usize,
     /// One sentence that explains the verdict.
     pub reason: String,
 }
@@ -141,7 +143,24 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
         negative_periods,
         shut_periods: 0,
         shut_places: Vec::new(),
+        shut_cycle: 0,
         reason,
+    }
+}
+
+impl DemandVerdict {
+    /// Whether period `t` (counted from the history's first, so `n + h` is the forecast's
+    /// step h from 0) falls on one of the [`shut_places`].
+    pub fn is_shut(&self, t: usize) -> bool {
+        self.shut_cycle > 0 && self.shut_places.contains(&(t % self.shut_cycle))
+    }
+
+    /// How many periods from `t` on in a row are shut (fewer than a season: shut places are
+    /// fewer than half the season's).
+    pub fn shut_run_from(&self, t: usize) -> usize {
+        (t..t + self.shut_cycle)
+            .take_while(|u| self.is_shut(*u))
+            .count()
     }
 }
 
@@ -218,6 +237,7 @@ pub fn classify_open_demand(values: &[f64], places: Option<usize>) -> DemandVerd
         shut.len()
     ));
     verdict.shut_places = shut;
+    verdict.shut_cycle = m;
     verdict
 }
 

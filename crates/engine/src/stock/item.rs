@@ -3,7 +3,8 @@
 //!
 //! Kept apart from: the arithmetic ([`super::normal`], [`super::empirical`]) and forecasting
 //! (the plan is taken as made; [`StockSettings::protection_periods`] tells a caller how far
-//! ahead it must forecast).
+//! ahead it must forecast at least, [`protection_periods_of`] how far once the plan knows its
+//! shut periods).
 
 use crate::bands::root_mean_square;
 use crate::intake::StockRow;
@@ -163,7 +164,8 @@ impl StockSettings {
     pub fn target(&self) -> Target {
         self.target
     }
-    /// P = L, or R + L under periodic review: how far ahead the plan must forecast.
+    /// P = L, or R + L under periodic review: how far ahead the plan must forecast at least
+    /// (shut periods can lengthen it: [`protection_periods_of`]).
     pub fn protection_periods(&self) -> usize {
         self.lead_time + self.review_period.unwrap_or(0)
     }
@@ -307,16 +309,58 @@ fn forecast_total(plan: &ItemPlan, from: usize, to: usize) -> f64 {
     plan.forecast[from..to].iter().map(|f| f.band.value).sum()
 }
 
+/// Shut periods the protection interval reaches over (days or months of the plan's shut
+/// places, without demand in almost every season and forecast as 0;
+/// [`crate::patterns::shut_places`]): no one orders while shut, and stock does not fall then
+/// either, so the next order is placed when the business opens again. Under continuous review
+/// with a lead time, the run right after now; under periodic review, the run the next review
+/// falls in (after R periods), which moves that review to the reopening. Left out, a shop shut
+/// on Sundays got, on a Saturday with a lead time of one day, the Sunday's demand (0) to cover,
+/// a reorder point near 0 and an order quantity of 1, while an order placed on reopening
+/// arrives after that day's sales. Our choice, said in a note.
+fn shut_ahead(plan: &ItemPlan, settings: &StockSettings) -> usize {
+    match settings.review_period {
+        None if settings.lead_time == 0 => 0,
+        review => plan
+            .demand
+            .shut_run_from(plan.history.len() + review.unwrap_or(0)),
+    }
+}
+
+/// P for this plan: [`StockSettings::protection_periods`] and the shut periods it reaches
+/// over ([`shut_ahead`]); the plan must forecast this far.
+pub fn protection_periods_of(plan: &ItemPlan, settings: &StockSettings) -> usize {
+    settings.protection_periods() + shut_ahead(plan, settings)
+}
+
 /// Works out an item's Stock plan from its plan, which must forecast at least
-/// [`StockSettings::protection_periods`] periods ahead.
+/// [`protection_periods_of`] periods ahead.
 pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan, StockError> {
     let lead = settings.lead_time;
-    let periods = settings.protection_periods();
+    let shut = shut_ahead(plan, settings);
+    let periods = settings.protection_periods() + shut;
     let horizon = plan.forecast.len();
     if horizon < periods {
         return Err(StockError::ShortPlan { periods, horizon });
     }
     let mut notes = Vec::new();
+    if shut > 0 {
+        let (when, what) = match settings.review_period {
+            None => ("right after now", "the reorder point"),
+            Some(_) => ("where the next review falls", "the order-up-to level"),
+        };
+        notes.push(format!(
+            "{} {when} had no demand in almost every season (a business shut then, forecast as \
+             0): no order is placed while shut, so {what} covers {} and the periods until an \
+             order placed on reopening arrives, {periods} periods in all",
+            if shut == 1 {
+                "the period"
+            } else {
+                "the periods"
+            },
+            if shut == 1 { "it" } else { "them" }
+        ));
+    }
     let sparse = plan.demand.class.is_sparse();
     let distribution = if sparse {
         Distribution::Empirical
@@ -344,14 +388,14 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
     let protection = with_lead_time_spread(protection)?;
     let (review, cycle_demand) = match settings.review_period {
         None => {
-            let q = settings
-                .order_quantity
-                .unwrap_or_else(|| forecast_total(plan, 0, lead.max(1).min(horizon)).max(1.0));
+            let q = settings.order_quantity.unwrap_or_else(|| {
+                forecast_total(plan, 0, (lead.max(1) + shut).min(horizon)).max(1.0)
+            });
             (Review::continuous(q)?, q)
         }
         Some(r) => (
             Review::periodic(r as f64)?,
-            forecast_total(plan, lead, lead + r).max(f64::MIN_POSITIVE),
+            forecast_total(plan, lead, lead + r + shut).max(f64::MIN_POSITIVE),
         ),
     };
     let figures = match distribution {
