@@ -224,14 +224,19 @@ fn text_with_replacement_marks_is_reported_by_line() {
     );
 }
 
-// A period column named in German: month.year labels ("03.2020", numbers to the reader) are
-// an error at the first, where they had been read as an item of numbers 3.202, 4.202, ...
-// beside numbered rows, silently. Dates under such a name read as before.
+// A period column named in German: numbers there that are no periods ("03.20") are an error
+// at the first, where month.year labels had been read as an item of numbers 3.202, 4.202, ...
+// beside numbered rows, silently. Month.year labels with a four-digit year are months since
+// 2026-12-04; dates under such a name read as before.
 #[test]
 fn numbers_under_a_period_named_in_another_language_are_an_error() {
-    let report = read("Monat;Absatz\n03.2020;122\n04.2020;112\n05.2020;130\n");
+    let report = read("Monat;Absatz\n03.20;122\n04.20;112\n05.20;130\n");
     assert!(report.items.is_empty(), "{:?}", report.items);
-    assert_eq!(at(only_error(&report)), (2, "Monat", "03.2020"));
+    assert_eq!(at(only_error(&report)), (2, "Monat", "03.20"));
+    let months = read("Monat;Absatz\n03.2020;122\n04.2020;112\n05.2020;130\n");
+    assert!(months.errors.is_empty(), "{:?}", months.errors);
+    assert_eq!(months.items[0].name, "Absatz");
+    assert_eq!(months.items[0].periods[0].to_string(), "2020-03");
     let dated = read("Datum,Menge\n2024-01-05,3\n2024-01-06,4\n2024-01-07,5\n");
     assert!(dated.errors.is_empty(), "{:?}", dated.errors);
     assert_eq!(dated.items.len(), 1);

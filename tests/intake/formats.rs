@@ -456,3 +456,72 @@ fn wide_missing_rows_are_gaps_for_every_item_in_one_warning() {
         r.warnings
     );
 }
+
+// Month.year, as German and other European exports write months (2026-12-04): in a period
+// column, a long table, an across header and a file without a header, beside decimal commas
+// and thousands dots, which it must not sway.
+#[test]
+fn month_dot_year_labels_are_months() {
+    let (r, item) = one("Monat;Absatz\n11.2023;1.250,5\n12.2023;980\n01.2024;1.100\n");
+    assert_eq!(
+        (r.frequency, r.decimal),
+        (Frequency::Monthly, DecimalMark::Comma)
+    );
+    assert_eq!(labels(&item), ["2023-11", "2023-12", "2024-01"]);
+    assert_eq!(item.values, some(&[1250.5, 980.0, 1100.0]));
+    let long = read("Periode;Artikel;Menge\n01.2024;Samen;5\n01.2024;Zwiebeln;7\n02.2024;Samen;6\n02.2024;Zwiebeln;8\n");
+    assert!(long.errors.is_empty(), "{:#?}", long.errors);
+    assert_eq!((long.layout, long.items.len()), (Layout::Long, 2));
+    assert_eq!(labels(&long.items[1]), ["2024-01", "2024-02"]);
+    let (r, item) = one("Artikel;01.2024;02.2024;03.2024\nSamen;5;6;7\n");
+    assert_eq!(r.layout, Layout::Across);
+    assert_eq!(labels(&item), ["2024-01", "2024-02", "2024-03"]);
+    let (r, item) = one("01.2024,5\n02.2024,6\n03.2024,7\n");
+    assert!(!r.has_header);
+    assert_eq!(
+        (labels(&item), item.values),
+        (
+            vec!["2024-01".to_string(), "2024-02".into(), "2024-03".into()],
+            some(&[5.0, 6.0, 7.0])
+        )
+    );
+    // Four decimals with a year outside 1900-2199 stay numbers.
+    let (_, item) = one("month,sales\n2024-01,10.2500\n2024-02,11.2500\n");
+    assert_eq!(item.values, some(&[10.25, 11.25]));
+}
+
+// Week.year under a header that names weeks, as some exports write calendar weeks (2026-12-04): ISO
+// weeks. Read as months, weeks 1 to 12 were January to December ("Calendar week") or the
+// column an item of numbers 1.2024, 2.2024, ... ("KW", silently).
+#[test]
+fn week_dot_year_under_a_week_header_is_iso_weeks() {
+    let table = |header: &str, weeks: std::ops::RangeInclusive<u32>, year: i32| {
+        let rows: String = weeks
+            .map(|w| format!("{w:02}.{year};{}\n", 50 + w % 5))
+            .collect();
+        format!("{header};Menge\n{rows}")
+    };
+    for header in ["Calendar week", "KW", "Woche", "Week"] {
+        for (weeks, first, last) in [
+            (1..=52, "2024-W01", "2024-W52"),
+            (1..=7, "2024-W01", "2024-W07"),
+        ] {
+            let (r, item) = one(&table(header, weeks, 2024));
+            assert_eq!(r.frequency, Frequency::Weekly, "{header}");
+            let got = labels(&item);
+            assert_eq!(
+                (got[0].as_str(), got[got.len() - 1].as_str()),
+                (first, last),
+                "{header}"
+            );
+        }
+    }
+    // 2020 has a week 53, 2021 none: an error at that cell.
+    let (_, item) = one(&table("KW", 50..=53, 2020));
+    assert_eq!(labels(&item).last().map(String::as_str), Some("2020-W53"));
+    let r = read(&table("KW", 50..=53, 2021));
+    let errors: Vec<(usize, &str)> = r.errors.iter().map(|e| (e.row, e.text.as_str())).collect();
+    assert_eq!(errors, [(5, "53.2021")], "{:#?}", r.errors);
+    // Under a header that does not say weeks, week.year beyond 12 is no period: an error.
+    assert!(read(&table("Period", 1..=52, 2024)).has_errors());
+}

@@ -322,7 +322,7 @@ enum Style {
     FirstDayFirst(char),
     /// Monthly: `03/01/2024`, the 1st of the month, month first.
     FirstMonthFirst(char),
-    /// Monthly: `2024-03`, `2024/03`, `03/2024`.
+    /// Monthly: `2024-03`, `2024/03`, `03/2024`, `03.2024`.
     Month(usize),
     /// Monthly: `Mar 2024`, `March 2024`, `2024 Mar`, `Mar-24`.
     MonthName(usize),
@@ -364,6 +364,7 @@ const STYLES: &[Style] = &[
     Style::Month(0),
     Style::Month(1),
     Style::Month(2),
+    Style::Month(3),
     Style::MonthName(0),
     Style::MonthName(1),
     Style::MonthName(2),
@@ -486,7 +487,8 @@ impl Style {
             Month(k) => match k {
                 0 => format!("{}-{:02}", month.0, month.1),
                 1 => format!("{}/{:02}", month.0, month.1),
-                _ => format!("{:02}/{}", month.1, month.0),
+                2 => format!("{:02}/{}", month.1, month.0),
+                _ => format!("{:02}.{}", month.1, month.0),
             },
             MonthName(k) => {
                 let name = MONTHS[month.1 as usize - 1];

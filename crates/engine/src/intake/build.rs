@@ -29,7 +29,7 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
 use super::shapes::names_no_demand;
-use super::table::{header_is_only, header_says, wide_row_error, Plan, Table};
+use super::table::{names_weeks, wide_row_error, Plan, Table};
 use super::text::Record;
 
 mod across;
@@ -168,20 +168,7 @@ fn weeks_read_as_months(
     rows: &[&Record],
 ) -> Option<RowError> {
     let name = table.column_name(column);
-    const WEEKS: [&str; 3] = ["week", "weeks", "wk"];
-    const BESIDE: [&str; 8] = [
-        "year",
-        "sales",
-        "ending",
-        "commencing",
-        "starting",
-        "beginning",
-        "calendar",
-        "iso",
-    ];
-    let allowed: Vec<&str> = WEEKS.iter().chain(&BESIDE).copied().collect();
-    let weeks =
-        table.header.is_some() && header_is_only(&name, &allowed) && header_says(&name, &WEEKS);
+    let weeks = names_weeks(table, column);
     let row = rows.first()?;
     let text = row.cells.get(column).cloned().unwrap_or_default();
     (weeks && frequency == Frequency::Monthly).then(|| RowError {

@@ -38,7 +38,7 @@ impl YearPart {
         match self {
             YearPart::Month => &["month", "mth"],
             YearPart::Quarter => &["quarter", "qtr"],
-            YearPart::Week => &["week", "wk"],
+            YearPart::Week => &super::table::WEEK_WORDS,
         }
     }
 

@@ -62,6 +62,9 @@ pub(crate) enum IntegerMeaning {
     /// decides, [`super::table`]); read as months they would put week 1 to 12 in January to
     /// December.
     CompactWeeks,
+    /// `WW.YYYY`, ISO 8601 weeks as some exports write calendar weeks, under a header that names
+    /// weeks (the table decides): read as months they would be January to December.
+    DottedWeeks,
 }
 
 /// The outcome for a period column: one entry per input cell.
@@ -185,6 +188,22 @@ fn compact_week(cell: &str) -> Option<Label> {
     parse_label(&format!("{}-W{}", &cell[..4], &cell[4..]))
 }
 
+/// An ISO week written `WW.YYYY` (one or two digits of week) of a plausible year, a week that
+/// year has.
+pub(crate) fn dotted_week(cell: &str) -> Option<Label> {
+    let (week, year) = cell.trim().split_once('.')?;
+    let digits = |t: &str, n: std::ops::RangeInclusive<usize>| {
+        n.contains(&t.len()) && t.bytes().all(|b| b.is_ascii_digit())
+    };
+    if !digits(week, 1..=2)
+        || !digits(year, 4..=4)
+        || !PLAUSIBLE_YEARS.contains(&year.parse().ok()?)
+    {
+        return None;
+    }
+    parse_label(&format!("{year}-W{week:0>2}"))
+}
+
 /// Says that period cells carry times of day (they are read by their dates), and refuses a
 /// column whose every time is the same zoned time from 10:00 on: local midnights east of
 /// Greenwich written in UTC (offsets +1 to +14 give 23:00 back to 10:00 the day before), each
@@ -240,6 +259,11 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             cells.iter().map(|c| compact_week(c)).collect(),
             Family::Week,
             Some("6-digit year-week ISO weeks"),
+        ),
+        Some(IntegerMeaning::DottedWeeks) => (
+            cells.iter().map(|c| dotted_week(c)).collect(),
+            Family::Week,
+            Some("week.year ISO weeks"),
         ),
         Some(_) => (
             cells.iter().map(|c| parse_label(c)).collect(),

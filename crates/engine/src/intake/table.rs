@@ -78,7 +78,7 @@
 use super::joined::SplitPeriod;
 use super::label::{calendar_name, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
-use super::period::{integer_meaning, strong_family, IntegerMeaning};
+use super::period::{dotted_week, integer_meaning, strong_family, IntegerMeaning};
 use super::shapes::{calendar_grid, codes_recur, names_no_demand, notes_columns};
 use super::text::{mode_of, Record};
 use super::{Layout, RowError};
@@ -463,6 +463,15 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         return super::across::plan(table);
     }
     let rows = table.fitting_rows();
+    // Week.year labels under a header that names weeks ("05.2024", as some exports write calendar
+    // weeks) are ISO weeks: read as months, weeks 1 to 12 became January to December, and
+    // the rest numbers of an item.
+    let dotted_weeks = (0..table.width).find(|&j| {
+        let cells: Vec<&str> = table.column(j, &rows);
+        let filled = cells.iter().filter(|c| !c.is_empty()).count();
+        let weeks = cells.iter().filter(|c| dotted_week(c).is_some()).count();
+        names_weeks(table, j) && weeks * 2 > filled
+    });
     let roles: Vec<Role> = (0..table.width)
         .map(|j| {
             let cells: Vec<&str> = table
@@ -472,6 +481,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 .collect();
             if cells.is_empty() {
                 Role::Empty
+            } else if Some(j) == dotted_weeks {
+                Role::Period(Family::Week)
             } else if let Some(family) = strong_family(&cells) {
                 Role::Period(family)
             } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len()
@@ -496,7 +507,12 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // them ([`SplitPeriod`]), before a text column of month names can be taken for items
     // or, never repeating in one year, for the periods.
     let split = SplitPeriod::find(table, &rows, first_period, &numeric)?;
-    let mut period = first_period.map(|j| (j, None));
+    let mut period = first_period.map(|j| {
+        (
+            j,
+            (Some(j) == dotted_weeks).then_some(IntegerMeaning::DottedWeeks),
+        )
+    });
     if let Some(split) = split {
         numeric.retain(|j| !split.columns().contains(j));
         item_columns.retain(|j| !split.columns().contains(j));
@@ -609,7 +625,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 .map(|m| match m {
                     // Six digits under a week's name are year and week, not year and month.
                     IntegerMeaning::CompactMonths
-                        if header_says(&table.column_name(j), &["week", "wk"]) =>
+                        if header_says(&table.column_name(j), &WEEK_WORDS) =>
                     {
                         IntegerMeaning::CompactWeeks
                     }
@@ -764,7 +780,7 @@ pub(super) const ITEM_WORDS: [&str; 22] = [
 /// month.year labels ("03.2020") had been read as the numbers 3.202 of an item, silently;
 /// named as a period they are an error that says how to write them. Words that name things in
 /// English too ("tag", "dag", "data") are left out.
-pub(super) const PERIOD_WORDS: [&str; 31] = [
+pub(super) const PERIOD_WORDS: [&str; 32] = [
     "t",
     "period",
     "time",
@@ -795,6 +811,7 @@ pub(super) const PERIOD_WORDS: [&str; 31] = [
     "semana",
     "mese",
     "settimana",
+    "kw",
     "anno",
 ];
 pub(super) const QUANTITY_WORDS: [&str; 10] = [
@@ -959,6 +976,37 @@ const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", 
 /// Whether header cell `name` holds one of `words` as a word of its own (split at anything
 /// that is not a letter or digit and where a lower-case letter meets a capital, any case:
 /// "Item ID", "sku_code", "StoreID", "T").
+/// Header words that name weeks, in the languages of [`PERIOD_WORDS`] ("KW": German
+/// Kalenderwoche).
+pub(super) const WEEK_WORDS: [&str; 8] = [
+    "week",
+    "weeks",
+    "wk",
+    "kw",
+    "woche",
+    "semaine",
+    "semana",
+    "settimana",
+];
+
+/// Whether column `j` is headed by weeks and nothing else ("Week", "Wk no", "Year/Week",
+/// "Week ending", "Calendar week", "KW").
+pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
+    const BESIDE: [&str; 8] = [
+        "year",
+        "sales",
+        "ending",
+        "commencing",
+        "starting",
+        "beginning",
+        "calendar",
+        "iso",
+    ];
+    let name = table.column_name(j);
+    let allowed: Vec<&str> = WEEK_WORDS.iter().chain(&BESIDE).copied().collect();
+    table.header.is_some() && header_is_only(&name, &allowed) && header_says(&name, &WEEK_WORDS)
+}
+
 pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
     header_words(name)
         .iter()
