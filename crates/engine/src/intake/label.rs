@@ -14,7 +14,7 @@
 //! - two-way dates `31/03/2024`, `03/31/2024`, `31-03-24`, `31.03.2024` (order decided later);
 //! - dates with month names `31 Mar 2024`, `31-Mar-24`, `Mar 31, 2024`, `March 31 2024`;
 //! - months `2024-03`, `2024/03`, `03/2024`, `Mar 2024`, `March 2024`, `2024 Mar`, `Mar-24`
-//!   (a month name and two digits is Excel's "mmm-yy": month and year, never a day), and
+//!   (a month name and two digits is a spreadsheet's month-year form: never a day), and
 //!   `03.2024` with a year from 1900 to 2199 (otherwise a number);
 //! - quarters `2024 Q1`, `2024-Q1`, `2024Q1`, `Q1 2024`, `Q1-24`;
 //! - ISO weeks `2024-W05`, `2024W05`, `2024 W5`, `W05 2024`;
