@@ -604,3 +604,60 @@ fn a_thousands_dot_among_larger_values_is_an_error() {
         },
     );
 }
+
+// The same in long and across tables (2026-12-04), measured against the item's own values: a
+// column there mixes items of any size, so "1.050" among 850, 920 had been read as 1.05 with
+// a warning only. A long row whose quantity is an error is a gap of its item, not a period
+// without sales (it had been read as 0, said as "no sales").
+#[test]
+fn a_thousands_dot_among_an_items_larger_values_is_an_error_in_long_and_across_tables() {
+    let long = "Month,Item,Units\n2024-01,Seeds,850\n2024-02,Seeds,920\n2024-03,Seeds,1.050\n2024-04,Seeds,990\n2024-01,Bulbs,3\n2024-02,Bulbs,4\n2024-03,Bulbs,2\n2024-04,Bulbs,5\n";
+    let report = check(
+        long,
+        Expect {
+            errors: vec![(4, "Units", "1.050")],
+            items: Some(vec![
+                ("Seeds", vec![Some(850.0), Some(920.0), None, Some(990.0)]),
+                ("Bulbs", some(&[3.0, 4.0, 2.0, 5.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    assert!(report.errors[0].message.contains("item's other values"));
+    assert!(
+        !report.warnings.iter().any(|w| w.contains("no sales")),
+        "{:#?}",
+        report.warnings
+    );
+    check(
+        "Item,Jan 2024,Feb 2024,Mar 2024,Apr 2024\nSeeds,850,920,1.050,990\nBulbs,3,4,2,5\n",
+        Expect {
+            errors: vec![(2, "Mar 2024", "1.050")],
+            ..Expect::default()
+        },
+    );
+    // Small items keep their decimals: 1.250 among 2.5, 3, 2.
+    check(
+        &long
+            .replace("Bulbs,3", "Bulbs,1.250")
+            .replace("1.050", "1050")
+            .replace("Bulbs,4", "Bulbs,2.5"),
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[850.0, 920.0, 1050.0, 990.0])),
+                ("Bulbs", some(&[1.25, 2.5, 2.0, 5.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    // Without a period column an unreadable row keeps its place: the rows after it are not
+    // moved a period earlier.
+    check(
+        "Item,Units\nSeeds,5\nSeeds,6x\nSeeds,7\nSeeds,8\n",
+        Expect {
+            errors: vec![(3, "Units", "6x")],
+            items: Some(vec![("Seeds", vec![Some(5.0), None, Some(7.0), Some(8.0)])]),
+            ..Expect::default()
+        },
+    );
+}

@@ -118,8 +118,9 @@ struct Builder<'a> {
     slots: usize,
     rows_read: usize,
     /// Cells (line, column) whose decimal-dot reading is a thousandth of their column's size
-    /// ([`super::mark::thousands_dots`]): errors, with the value read and the column's size.
-    thousands_dots: HashMap<(usize, usize), (f64, f64)>,
+    /// ([`super::mark::thousands_dots`]): errors, with the value read, the size of the item's
+    /// other values and whose values they are ("column's", "item's").
+    thousands_dots: HashMap<(usize, usize), (f64, f64, &'static str)>,
 }
 
 /// One row of a long table: period, quantity (None when empty) and the record it came from.
@@ -155,6 +156,53 @@ fn first_break_in_time_order(periods: &[Period]) -> Option<usize> {
         }
     };
     (1..periods.len()).find(|&i| against(i) && times[&periods[i]] == 1)
+}
+
+/// Each item's value cells as (index into `rows`, column), with whose values they are in a
+/// message: a value column in single and wide tables, the rows of one item name in the value
+/// column of a long table, a row in an across table.
+fn items_values(plan: &Plan, rows: &[&Record]) -> Vec<(Vec<(usize, usize)>, &'static str)> {
+    match plan.layout {
+        Layout::Single | Layout::Wide => plan
+            .values
+            .iter()
+            .map(|&j| ((0..rows.len()).map(|i| (i, j)).collect(), "column's"))
+            .collect(),
+        Layout::Across => (0..rows.len())
+            .map(|i| (plan.values.iter().map(|&j| (i, j)).collect(), "item's"))
+            .collect(),
+        Layout::Long => {
+            let Some(&j) = plan.values.first() else {
+                return Vec::new();
+            };
+            let mut order: Vec<String> = Vec::new();
+            let mut groups: HashMap<String, Vec<(usize, usize)>> = HashMap::new();
+            for (i, row) in rows.iter().enumerate() {
+                let name: Vec<String> = plan
+                    .item_columns
+                    .iter()
+                    .map(|&c| {
+                        row.cells
+                            .get(c)
+                            .map_or(String::new(), |t| t.trim().to_lowercase())
+                    })
+                    .collect();
+                let key = name.join("\u{1f}");
+                groups
+                    .entry(key.clone())
+                    .or_insert_with(|| {
+                        order.push(key);
+                        Vec::new()
+                    })
+                    .push((i, j));
+            }
+            order
+                .into_iter()
+                .filter_map(|k| groups.remove(&k))
+                .map(|cells| (cells, "item's"))
+                .collect()
+        }
+    }
 }
 
 /// The error for a period column whose header names weeks and nothing else ("Week", "Wk no",
@@ -269,15 +317,20 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         thousands_dots: HashMap::new(),
     };
     // In a comma file a lone "1.050" is read with a decimal dot (module `mark`); where that
-    // makes it a thousandth of its column, it is refused, never read a thousand times small.
-    // A column is one item's only in single and wide tables (long and across ones mix
-    // items of any size in a column).
-    let one_item_columns = matches!(plan.layout, Layout::Single | Layout::Wide);
+    // makes it a thousandth of its item's other values, it is refused, never read a thousand
+    // times small. An item's values: its column in single and wide tables, its rows in a long
+    // one (a column there mixes items of any size), its row in an across one.
     let rows = table.fitting_rows();
-    if ambiguous_dots && table.comma_delimited && mark == DecimalMark::Dot && one_item_columns {
-        for &j in &plan.values {
-            for (i, value, size) in super::mark::thousands_dots(&table.column(j, &rows)) {
-                b.thousands_dots.insert((rows[i].line, j), (value, size));
+    if ambiguous_dots && table.comma_delimited && mark == DecimalMark::Dot {
+        for (cells, whose) in items_values(plan, &rows) {
+            let texts: Vec<&str> = cells
+                .iter()
+                .map(|&(i, j)| rows[i].cells.get(j).map_or("", String::as_str))
+                .collect();
+            for (k, value, size) in super::mark::thousands_dots(&texts) {
+                let (i, j) = cells[k];
+                b.thousands_dots
+                    .insert((rows[i].line, j), (value, size, whose));
             }
         }
     }
@@ -493,10 +546,10 @@ impl<'a> Builder<'a> {
             self.out.empty_cells += 1;
             return Ok(None);
         }
-        if let Some(&(value, size)) = self.thousands_dots.get(&(row.line, column)) {
+        if let Some(&(value, size, whose)) = self.thousands_dots.get(&(row.line, column)) {
             let message = format!(
-                "expected a number of the column's size: with the decimal dot of this \
-                 comma-separated file it reads as {value}, a thousandth of the column's other \
+                "expected a number of the {whose} size: with the decimal dot of this \
+                 comma-separated file it reads as {value}, a thousandth of the {whose} other \
                  values (about {size}); if the dot separates thousands, write the number without \
                  it ({})",
                 cell.replace('.', "")

@@ -130,11 +130,11 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
     (mark, Some(warning))
 }
 
-/// Of one value column's `cells` in a comma-delimited file read with a decimal dot, those
-/// like "1.050" (not "0.050") whose dot reading is a hundredth or less of the column's other
-/// values, while their thousands reading (1050) is of the same size as those values, in a
-/// column that writes no other decimals: most likely a thousands dot, a thousand times too
-/// small as read. With their index, the value read and the median size of the other values
+/// Of one item's value `cells` (a column, or its rows in a long or across table) in a
+/// comma-delimited file read with a decimal dot, those like "1.050" (not "0.050") whose dot
+/// reading is a hundredth or less of the item's other values, while their thousands reading
+/// (1050) is of the same size as those values, among cells that write no other decimals:
+/// most likely a thousands dot, a thousand times too small as read. With their index, the value read and the median size of the other values
 /// (at least three non-zero whole numbers are needed). Our choice: a hundred times; "the
 /// same size", within ten times.
 pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {

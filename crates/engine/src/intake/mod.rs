@@ -19,9 +19,9 @@
 //!    a year column and a month, quarter or week column (and a day).
 //! 3. `mark` and `number`: the decimal mark for the whole file (cells only one mark can read
 //!    decide by majority; in a comma-delimited file the mark is otherwise a dot, with a
-//!    warning, since a decimal comma there needs quotes, and in a single or wide table a
-//!    "1.050" that reading makes a thousandth of its column's whole numbers is an error at
-//!    its cell (`mark::thousands_dots`); elsewhere a lone "1,234" or "1.234" is read as thousands with a
+//!    warning, since a decimal comma there needs quotes, and a "1.050" that reading makes
+//!    a thousandth of its item's whole numbers (its column, its long rows, its across row)
+//!    is an error at its cell (`mark::thousands_dots`); elsewhere a lone "1,234" or "1.234" is read as thousands with a
 //!    warning; otherwise comma in semicolon files, dot elsewhere), and each value cell, with
 //!    currency symbols and units stripped (listed in that module's doc) and reported once.
 //! 4. `label`, `order` and `period`: period labels, day-first or month-first order decided

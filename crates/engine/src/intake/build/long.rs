@@ -53,6 +53,7 @@ impl<'a> Builder<'a> {
         let item_columns = self.plan.item_columns.clone();
         let mut order: Vec<String> = Vec::new();
         let mut items: HashMap<String, LongItem<'a>> = HashMap::new();
+        let mut unread: HashSet<usize> = HashSet::new();
         for (k, row) in kept.iter().enumerate() {
             // A "no value" marker names no item.
             let filled: Vec<usize> = item_columns
@@ -84,8 +85,14 @@ impl<'a> Builder<'a> {
                 },
                 None => Period::position(next_position),
             };
-            let Ok(value) = self.value(row, value_column) else {
-                continue;
+            // A quantity that could not be read (an error at its cell) is unknown: a gap, not
+            // no sales, and the row keeps its place among the item's rows.
+            let value = match self.value(row, value_column) {
+                Ok(value) => value,
+                Err(()) => {
+                    unread.insert(row.line);
+                    None
+                }
             };
             let item = items.entry(key).or_insert_with_key(|key| {
                 order.push(key.clone());
@@ -158,14 +165,33 @@ impl<'a> Builder<'a> {
                     _ => merged.push((period, value, vec![row])),
                 }
             }
+            // A period with a row that could not be read has no known total.
+            for m in merged.iter_mut() {
+                if m.2.iter().any(|r| unread.contains(&r.line)) {
+                    m.1 = None;
+                }
+            }
+            // An item with no readable quantity but the errors: they say it.
+            let any_unread = merged
+                .iter()
+                .any(|m| m.2.iter().any(|r| unread.contains(&r.line)));
+            if any_unread && merged.iter().all(|m| m.1.is_none()) {
+                continue;
+            }
             // Periods whose rows hold only empty quantity cells: gaps, named as the other
             // layouts name them.
             let (mut blank, mut blank_cells) = (Vec::new(), 0);
-            for (period, _, rows) in merged.iter().filter(|m| m.1.is_none()) {
+            for (period, _, rows) in merged
+                .iter()
+                .filter(|m| m.1.is_none() && !m.2.iter().any(|r| unread.contains(&r.line)))
+            {
                 blank.push(period.to_string());
                 blank_cells += rows.len();
             }
-            for (period, value, rows) in merged.iter_mut().filter(|m| m.2.len() > 1) {
+            for (period, value, rows) in merged
+                .iter_mut()
+                .filter(|m| m.2.len() > 1 && !m.2.iter().any(|r| unread.contains(&r.line)))
+            {
                 let numbers: Vec<usize> = rows.iter().map(|r| r.line).collect();
                 let total = value.map_or("no value".to_string(), |v| v.to_string());
                 if value.is_some_and(|v| v.abs() > MAX_MAGNITUDE) {
