@@ -457,11 +457,12 @@ fn wide_missing_rows_are_gaps_for_every_item_in_one_warning() {
     );
 }
 
-// Month.year, as German and other European exports write months (2026-12-04): in a period
-// column, a long table, an across header and a file without a header, beside decimal commas
-// and thousands dots, which it must not sway.
+// Month.year, as European exports write months (2026-12-04): under a header that names a
+// period (long tables too) and across the header, beside decimal commas and thousands dots,
+// which it must not sway. A number to a cell: "10.2001" beside periods is an article
+// number, and a column of such numbers under an item's name stays quantities.
 #[test]
-fn month_dot_year_labels_are_months() {
+fn month_dot_year_labels_are_months_where_a_column_says_so() {
     let (r, item) = one("Monat;Absatz\n11.2023;1.250,5\n12.2023;980\n01.2024;1.100\n");
     assert_eq!(
         (r.frequency, r.decimal),
@@ -476,16 +477,18 @@ fn month_dot_year_labels_are_months() {
     let (r, item) = one("Artikel;01.2024;02.2024;03.2024\nSamen;5;6;7\n");
     assert_eq!(r.layout, Layout::Across);
     assert_eq!(labels(&item), ["2024-01", "2024-02", "2024-03"]);
+    let codes =
+        read("Article,2024-01,2024-02,2024-03\n10.2001,5,6,7\n10.2002,5,6,7\n11.2005,5,6,7\n");
+    assert!(codes.errors.is_empty(), "{:#?}", codes.errors);
+    let names: Vec<&str> = codes.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(names, ["10.2001", "10.2002", "11.2005"]);
+    // Without a header, months close in time.
     let (r, item) = one("01.2024,5\n02.2024,6\n03.2024,7\n");
     assert!(!r.has_header);
-    assert_eq!(
-        (labels(&item), item.values),
-        (
-            vec!["2024-01".to_string(), "2024-02".into(), "2024-03".into()],
-            some(&[5.0, 6.0, 7.0])
-        )
-    );
-    // Four decimals with a year outside 1900-2199 stay numbers.
+    assert_eq!(labels(&item), ["2024-01", "2024-02", "2024-03"]);
+    let (_, item) = one("Month,Seeds\n2024-01,1.2024\n2024-02,2.2024\n2024-03,3.2024\n");
+    assert_eq!(item.values, some(&[1.2024, 2.2024, 3.2024]));
+    // Four decimals with a year outside the plausible ones stay numbers under a period word.
     let (_, item) = one("month,sales\n2024-01,10.2500\n2024-02,11.2500\n");
     assert_eq!(item.values, some(&[10.25, 11.25]));
 }
@@ -501,7 +504,16 @@ fn week_dot_year_under_a_week_header_is_iso_weeks() {
             .collect();
         format!("{header};Menge\n{rows}")
     };
-    for header in ["Calendar week", "KW", "Woche", "Week"] {
+    for header in [
+        "Calendar week",
+        "KW",
+        "Woche",
+        "Week",
+        "Kalenderwoche",
+        "KW/Jahr",
+        "Weekly",
+        "Period (weeks)",
+    ] {
         for (weeks, first, last) in [
             (1..=52, "2024-W01", "2024-W52"),
             (1..=7, "2024-W01", "2024-W07"),
@@ -522,6 +534,14 @@ fn week_dot_year_under_a_week_header_is_iso_weeks() {
     let r = read(&table("KW", 50..=53, 2021));
     let errors: Vec<(usize, &str)> = r.errors.iter().map(|e| (e.row, e.text.as_str())).collect();
     assert_eq!(errors, [(5, "53.2021")], "{:#?}", r.errors);
-    // Under a header that does not say weeks, week.year beyond 12 is no period: an error.
-    assert!(read(&table("Period", 1..=52, 2024)).has_errors());
+    // Under a header that does not say weeks, week.year beyond 12 is no period: an error
+    // that says how to name them.
+    let r = read(&table("Period", 1..=52, 2024));
+    assert!(
+        r.errors
+            .iter()
+            .any(|e| e.message.contains("name the column Week")),
+        "{:#?}",
+        r.errors
+    );
 }

@@ -24,7 +24,7 @@
 
 use super::label::{calendar_name, parse_label, Family};
 use super::number::looks_number;
-use super::period::{integer_meaning, strong_family, IntegerMeaning};
+use super::period::{dotted_month, integer_meaning, mostly, strong_family, IntegerMeaning};
 use super::table::{header_says, names_item, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
 use super::text::Record;
 use super::{Layout, RowError};
@@ -36,7 +36,9 @@ fn item_columns(record: &Record) -> Option<usize> {
     if looks_number(first) || parse_label(first).is_some() {
         return None;
     }
-    let is_period = |c: &&str| parse_label(c).is_some_and(|l| l.family() != Family::Integer);
+    let is_period = |c: &&str| {
+        parse_label(c).is_some_and(|l| l.family() != Family::Integer) || dotted_month(c).is_some()
+    };
     let lead = cells.iter().position(is_period).or_else(|| {
         cells
             .iter()
@@ -56,6 +58,7 @@ fn item_columns(record: &Record) -> Option<usize> {
     }
     let labels: Vec<&str> = rest.iter().copied().filter(|c| names_period(c)).collect();
     let periods = strong_family(&labels).is_some()
+        || mostly(&labels, dotted_month)
         || (labels.iter().all(|c| c.len() == 4 && whole_number(c))
             && integer_meaning(&labels, true) == Some(IntegerMeaning::Years));
     let mut distinct = labels.clone();
@@ -66,9 +69,11 @@ fn item_columns(record: &Record) -> Option<usize> {
         .then_some(lead)
 }
 
-/// A header cell across that names a period: a period label, or a four-digit whole number.
+/// A header cell across that names a period: a period label, a month written `03.2024`, or a
+/// four-digit whole number.
 fn names_period(cell: &str) -> bool {
     parse_label(cell).is_some_and(|l| l.family() != Family::Integer)
+        || dotted_month(cell).is_some()
         || (cell.len() == 4 && whole_number(cell))
 }
 

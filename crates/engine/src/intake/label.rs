@@ -14,8 +14,8 @@
 //! - two-way dates `31/03/2024`, `03/31/2024`, `31-03-24`, `31.03.2024` (order decided later);
 //! - dates with month names `31 Mar 2024`, `31-Mar-24`, `Mar 31, 2024`, `March 31 2024`;
 //! - months `2024-03`, `2024/03`, `03/2024`, `Mar 2024`, `March 2024`, `2024 Mar`, `Mar-24`
-//!   (a month name and two digits is a spreadsheet's month-year form: never a day), and
-//!   `03.2024` with a year from 1900 to 2199 (otherwise a number);
+//!   (a month name and two digits is a spreadsheet's month-year form: never a day);
+//!   `03.2024` is a number here: a column decides it is a month ([`super::period`]);
 //! - quarters `2024 Q1`, `2024-Q1`, `2024Q1`, `Q1 2024`, `Q1-24`;
 //! - ISO weeks `2024-W05`, `2024W05`, `2024 W5`, `W05 2024`;
 //! - plain whole numbers (`2024`, `7`, `20240131`, `202401`): years, row positions, 8-digit dates
@@ -433,13 +433,6 @@ fn parse_day_or_coarser(cell: &str) -> Option<Label> {
         }
         [D(y), D(m)] if y.len() == 4 && same_sep(&["-", "/"]) => month(year_of(y)?, small(m, 2)?)?,
         [D(m), D(y)] if y.len() == 4 && same_sep(&["-", "/"]) => month(year_of(y)?, small(m, 2)?)?,
-        // Month.year, as German and other European exports write months ("03.2024"): a
-        // year of the last and next centuries only, so that a quantity with four decimals
-        // ("10.2500") stays a number.
-        [D(m), D(y)] if y.len() == 4 && same_sep(&["."]) => {
-            let year = year_of(y).filter(|y| DOTTED_MONTH_YEARS.contains(y))?;
-            month(year, small(m, 2)?)?
-        }
         [W(w), D(y)] if month_name(w).is_some() => month(year_of(y)?, month_name(w)?)?,
         [D(y), W(w)] if y.len() == 4 && month_name(w).is_some() => {
             month(year_of(y)?, month_name(w)?)?
@@ -464,10 +457,6 @@ fn parse_day_or_coarser(cell: &str) -> Option<Label> {
     };
     Some(label)
 }
-
-/// The years a month written `03.2024` may have (our choice): elsewhere such a cell is a
-/// number.
-const DOTTED_MONTH_YEARS: std::ops::RangeInclusive<i32> = 1900..=2199;
 
 fn date(year: i32, month: u32, day: u32) -> Option<Label> {
     is_valid_date(year, month, day).then_some(Label::Date { year, month, day })
@@ -602,15 +591,11 @@ mod tests {
             "2024 Mar",
             "Mar-24",
             "MAR. 2024",
-            "03.2024",
-            "3.2024",
         ] {
             assert_eq!(parse_label(cell), month_of(2024, 3), "{cell}");
         }
-        // A dotted month needs a year of 1900 to 2199; otherwise it is a number.
-        assert_eq!(parse_label("10.2500"), None);
-        assert_eq!(parse_label("12.1899"), None);
-        assert_eq!(parse_label("13.2024"), None);
+        // A number to a cell; only a column makes it a month (period.rs).
+        assert_eq!(parse_label("03.2024"), None);
         assert_eq!(parse_label("Sept 2024"), month_of(2024, 9));
         assert_eq!(parse_label("2024-13"), None);
         assert_eq!(parse_label("24-Mar"), None);

@@ -65,6 +65,9 @@ pub(crate) enum IntegerMeaning {
     /// `WW.YYYY`, ISO 8601 weeks as some exports write calendar weeks, under a header that names
     /// weeks (the table decides): read as months they would be January to December.
     DottedWeeks,
+    /// `MM.YYYY`, months as European exports write them, under a header that names a period
+    /// or across the header: numbers to a cell ("10.2001" may be an article number).
+    DottedMonths,
 }
 
 /// The outcome for a period column: one entry per input cell.
@@ -138,7 +141,7 @@ pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<Inte
 /// Whether the distinct values mostly follow each other closely: the median step between
 /// neighbours (the lower one of an even count) is at most `step`. Years, months and positions
 /// do, even with a typo far away; scattered quantities do not.
-fn close(values: &[i64], step: i64) -> bool {
+pub(crate) fn close(values: &[i64], step: i64) -> bool {
     let mut distinct = values.to_vec();
     distinct.sort_unstable();
     distinct.dedup();
@@ -188,20 +191,55 @@ fn compact_week(cell: &str) -> Option<Label> {
     parse_label(&format!("{}-W{}", &cell[..4], &cell[4..]))
 }
 
+/// A month written `MM.YYYY` (one or two digits of month) of a plausible year.
+pub(crate) fn dotted_month(cell: &str) -> Option<Label> {
+    let (month, year) = dotted(cell)?;
+    (1..=12)
+        .contains(&month)
+        .then_some(Label::Month { year, month })
+}
+
+/// `N.YYYY` with one or two digits of N and a plausible four-digit year.
+fn dotted(cell: &str) -> Option<(u32, i32)> {
+    let (n, year) = cell.trim().split_once('.')?;
+    let digits = |t: &str, len: std::ops::RangeInclusive<usize>| {
+        len.contains(&t.len()) && t.bytes().all(|b| b.is_ascii_digit())
+    };
+    if !digits(n, 1..=2) || !digits(year, 4..=4) {
+        return None;
+    }
+    let year: i32 = year.parse().ok()?;
+    PLAUSIBLE_YEARS
+        .contains(&year)
+        .then_some((n.parse().ok()?, year))
+}
+
+/// Whether the filled `cells` of a column without a header are mostly months written
+/// `MM.YYYY` close in time (the median step between distinct months at most 3, as for
+/// `YYYYMM`): article numbers such as 10.2001, 10.2002, 11.2005 are years apart.
+pub(crate) fn dotted_months_close(cells: &[&str]) -> bool {
+    let months: Vec<i64> = cells
+        .iter()
+        .filter_map(|c| match dotted_month(c)? {
+            Label::Month { year, month } => Some(Period::month(year, month).ordinal()),
+            _ => None,
+        })
+        .collect();
+    mostly(cells, dotted_month) && close(&months, 3)
+}
+
+/// Whether most of the filled `cells` read as `read` does.
+pub(crate) fn mostly(cells: &[&str], read: fn(&str) -> Option<Label>) -> bool {
+    let filled = cells.iter().filter(|c| !c.trim().is_empty()).count();
+    let read = cells.iter().filter(|c| read(c).is_some()).count();
+    read * 2 > filled
+}
+
 /// An ISO week written `WW.YYYY` (one or two digits of week) of a plausible year, a week that
 /// year has.
 pub(crate) fn dotted_week(cell: &str) -> Option<Label> {
-    let (week, year) = cell.trim().split_once('.')?;
-    let digits = |t: &str, n: std::ops::RangeInclusive<usize>| {
-        n.contains(&t.len()) && t.bytes().all(|b| b.is_ascii_digit())
-    };
-    if !digits(week, 1..=2)
-        || !digits(year, 4..=4)
-        || !PLAUSIBLE_YEARS.contains(&year.parse().ok()?)
-    {
-        return None;
-    }
-    parse_label(&format!("{year}-W{week:0>2}"))
+    let (week, year) = dotted(cell)?;
+    parse_label(&format!("{year}-W{week:02}"))
 }
 
 /// Says that period cells carry times of day (they are read by their dates), and refuses a
@@ -264,6 +302,11 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             cells.iter().map(|c| dotted_week(c)).collect(),
             Family::Week,
             Some("week.year ISO weeks"),
+        ),
+        Some(IntegerMeaning::DottedMonths) => (
+            cells.iter().map(|c| dotted_month(c)).collect(),
+            Family::Month,
+            Some("month.year months"),
         ),
         Some(_) => (
             cells.iter().map(|c| parse_label(c)).collect(),

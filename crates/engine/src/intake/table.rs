@@ -78,7 +78,10 @@
 use super::joined::SplitPeriod;
 use super::label::{calendar_name, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
-use super::period::{dotted_week, integer_meaning, strong_family, IntegerMeaning};
+use super::period::{
+    dotted_month, dotted_months_close, dotted_week, integer_meaning, mostly, strong_family,
+    IntegerMeaning,
+};
 use super::shapes::{calendar_grid, codes_recur, names_no_demand, notes_columns};
 use super::text::{mode_of, Record};
 use super::{Layout, RowError};
@@ -466,11 +469,22 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Week.year labels under a header that names weeks ("05.2024", as some exports write calendar
     // weeks) are ISO weeks: read as months, weeks 1 to 12 became January to December, and
     // the rest numbers of an item.
-    let dotted_weeks = (0..table.width).find(|&j| {
-        let cells: Vec<&str> = table.column(j, &rows);
-        let filled = cells.iter().filter(|c| !c.is_empty()).count();
-        let weeks = cells.iter().filter(|c| dotted_week(c).is_some()).count();
-        names_weeks(table, j) && weeks * 2 > filled
+    let dotted_weeks = (0..table.width)
+        .find(|&j| names_weeks(table, j) && mostly(&table.column(j, &rows), dotted_week));
+    // Month.year ("03.2024") under a header that names a period and not weeks, or in a
+    // table without a header when the months are close in time: months.
+    // A number to a cell ("10.2001" may be an article number), so only there.
+    let dotted_months = (0..table.width).find(|&j| {
+        let cells = table.column(j, &rows);
+        match table.header {
+            Some(_) => {
+                Some(j) != dotted_weeks
+                    && header_is_only(&table.column_name(j), &PERIOD_WORDS)
+                    && !header_says(&table.column_name(j), &WEEK_WORDS)
+                    && mostly(&cells, dotted_month)
+            }
+            None => dotted_months_close(&cells),
+        }
     });
     let roles: Vec<Role> = (0..table.width)
         .map(|j| {
@@ -483,6 +497,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 Role::Empty
             } else if Some(j) == dotted_weeks {
                 Role::Period(Family::Week)
+            } else if Some(j) == dotted_months {
+                Role::Period(Family::Month)
             } else if let Some(family) = strong_family(&cells) {
                 Role::Period(family)
             } else if cells.iter().filter(|c| looks_number(c)).count() * 2 >= cells.len()
@@ -510,7 +526,11 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let mut period = first_period.map(|j| {
         (
             j,
-            (Some(j) == dotted_weeks).then_some(IntegerMeaning::DottedWeeks),
+            if Some(j) == dotted_weeks {
+                Some(IntegerMeaning::DottedWeeks)
+            } else {
+                (Some(j) == dotted_months).then_some(IntegerMeaning::DottedMonths)
+            },
         )
     });
     if let Some(split) = split {
@@ -912,12 +932,18 @@ fn blank_header(table: &Table, j: usize) -> bool {
 /// The error for number column `j`, named only as a period, when no period could be read:
 /// at its first row.
 fn unplaced_numbers(table: &Table, rows: &[&Record], j: usize) -> RowError {
+    // Week.year under a header that does not name weeks (weeks past 12 are no months).
+    let weeks = if mostly(&table.column(j, rows), dotted_week) {
+        "; if they are weeks written week.year (05.2024), name the column Week"
+    } else {
+        ""
+    };
     RowError {
-        message: "expected periods that place each row in time; this column is named as a \
-                  period but its numbers neither count the rows (1, 2, 3, ...) nor read as \
-                  years: write periods with their years (e.g. 2023-01), or number the rows in \
-                  order"
-            .to_string(),
+        message: format!(
+            "expected periods that place each row in time; this column is named as a period \
+             but its numbers neither count the rows (1, 2, 3, ...) nor read as years: write \
+             periods with their years (e.g. 2023-01), or number the rows in order{weeks}"
+        ),
         ..without_years(table, rows, j)
     }
 }
@@ -978,22 +1004,34 @@ const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", 
 /// "Item ID", "sku_code", "StoreID", "T").
 /// Header words that name weeks, in the languages of [`PERIOD_WORDS`] ("KW": German
 /// Kalenderwoche).
-pub(super) const WEEK_WORDS: [&str; 8] = [
+pub(super) const WEEK_WORDS: [&str; 16] = [
     "week",
     "weeks",
+    "weekly",
     "wk",
+    "wks",
     "kw",
     "woche",
+    "wochen",
+    "kalenderwoche",
+    "kalenderwochen",
     "semaine",
+    "semaines",
     "semana",
+    "semanas",
     "settimana",
+    "settimane",
 ];
 
 /// Whether column `j` is headed by weeks and nothing else ("Week", "Wk no", "Year/Week",
 /// "Week ending", "Calendar week", "KW").
 pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
-    const BESIDE: [&str; 8] = [
+    const BESIDE: [&str; 12] = [
         "year",
+        "jahr",
+        "jaar",
+        "anno",
+        "period",
         "sales",
         "ending",
         "commencing",

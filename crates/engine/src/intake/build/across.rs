@@ -13,7 +13,7 @@ use std::collections::HashMap;
 use super::{first_break_in_time_order, Builder};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
-use crate::intake::period::read_periods;
+use crate::intake::period::{dotted_month, mostly, read_periods, strong_family, IntegerMeaning};
 use crate::intake::text::Record;
 use crate::intake::Item;
 
@@ -28,7 +28,9 @@ impl<'a> Builder<'a> {
             .iter()
             .map(|j| header.cells.get(*j).map_or("", String::as_str))
             .collect();
-        let read = read_periods(&cells, None);
+        // Months written 03.2024 are numbers to a cell; across the header they are months.
+        let dotted = strong_family(&cells).is_none() && mostly(&cells, dotted_month);
+        let read = read_periods(&cells, dotted.then_some(IntegerMeaning::DottedMonths));
         for (i, message) in &read.errors {
             let message = message.replace("this column", "this header");
             self.error(header_line, value_columns[*i], cells[*i], message);
