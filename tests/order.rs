@@ -224,11 +224,31 @@ fn shut_days_are_covered_until_an_order_placed_on_reopening_arrives() {
     check_shut_days(54, 2, None, 4);
     // Longer than the automatic horizon (7 days): planned further.
     check_shut_days(54, 7, None, 9);
-    // Periodic review from a Friday: a review after 1 day falls on the weekend and moves to
-    // Monday's opening (the order must cover Monday); after 2 days it is Monday's opening.
-    check_shut_days(54, 1, Some(1), 3);
-    check_shut_days(54, 1, Some(2), 3);
-    check_shut_days(55, 1, Some(1), 2);
-    // No lead time, continuous review: nothing to protect, shut days or not.
-    assert_eq!(shut_days_order(54, 0, None).stock.protection_periods, 0);
+    // Periodic review, held at the close of an open day as today's is: from a Friday a review
+    // after 1 or 2 days falls on the weekend and moves to Monday's close (the order must cover
+    // Monday and Tuesday); from a Saturday after 1 day, to Monday's close too; a weekly review
+    // falls on a Friday again and moves nothing.
+    check_shut_days(54, 1, Some(1), 4);
+    check_shut_days(54, 1, Some(2), 4);
+    check_shut_days(55, 1, Some(1), 3);
+    check_shut_days(54, 1, Some(7), 8);
+    check_shut_days(54, 0, Some(1), 3);
+    // No lead time, continuous review: nothing to protect, shut days or not; the order
+    // quantity is still an open day's demand (it had been 1: Saturday's 0, raised to 1).
+    let zero = shut_days_order(54, 0, None);
+    assert_eq!(zero.stock.protection_periods, 0);
+    assert!(
+        zero.stock.cycle_demand > 15.0,
+        "{}",
+        zero.stock.cycle_demand
+    );
+    // Over shut days the spread is that of as many open days: a Friday's review after one day
+    // with no lead time covers Monday alone, and its spread is a single open day's, below
+    // that of three days that sell.
+    let monday = shut_days_order(54, 0, Some(1)).stock.sd_over_protection;
+    let three_days = shut_days_order(51, 0, Some(3)).stock.sd_over_protection;
+    assert!(
+        monday > 0.0 && monday < three_days,
+        "{monday} against {three_days}"
+    );
 }

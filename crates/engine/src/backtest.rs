@@ -631,6 +631,11 @@ pub const REFIT_EVERY: usize = 6;
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct OriginErrors {
     paths: Vec<Vec<f64>>,
+    /// The history index of each path's first step.
+    starts: Vec<usize>,
+    /// Per path, the steps at shut places (empty: none), which have no error of their own:
+    /// forecast 0, sold nothing ([`Self::as_forecast_at_shut_places`]).
+    at_shut: Vec<Vec<bool>>,
 }
 
 impl OriginErrors {
@@ -639,13 +644,16 @@ impl OriginErrors {
         &self.paths
     }
 
-    /// The h-step errors for h = 1..=horizon, one list per step (for the band).
+    /// The h-step errors for h = 1..=horizon, one list per step (for the band), leaving out
+    /// steps at shut places: a band for a period that sells rests on periods that sold.
     pub fn by_horizon(&self, horizon: usize) -> Vec<Vec<f64>> {
         (0..horizon)
             .map(|h| {
                 self.paths
                     .iter()
-                    .filter_map(|p| p.get(h).copied())
+                    .enumerate()
+                    .filter(|(i, _)| self.at_shut.get(*i).is_none_or(|m| m.get(h) != Some(&true)))
+                    .filter_map(|(_, p)| p.get(h).copied())
                     .collect()
             })
             .collect()
@@ -659,6 +667,76 @@ impl OriginErrors {
             .iter()
             .filter(|p| periods > 0 && p.len() >= periods)
             .map(|p| p[..periods].iter().sum())
+            .collect()
+    }
+
+    /// The errors as the plan's forecast would have made them at shut places
+    /// ([`crate::patterns::shut_places`]): 0 there, and what the methods put there given back
+    /// to the open steps of the path in proportion ([`crate::patterns::open_share_factor`]),
+    /// with each path's start counted from the history's first period (`history` is the part
+    /// the errors were worked out on, `offset` periods in). `shut` is asked of that count.
+    pub fn as_forecast_at_shut_places(
+        self,
+        history: &[f64],
+        offset: usize,
+        shut: impl Fn(usize) -> bool,
+    ) -> OriginErrors {
+        let starts: Vec<usize> = self.starts.iter().map(|s| s + offset).collect();
+        let at_shut = self
+            .paths
+            .iter()
+            .zip(&starts)
+            .map(|(path, &at)| (0..path.len()).map(|k| shut(at + k)).collect())
+            .collect();
+        let paths = self
+            .paths
+            .iter()
+            .zip(&self.starts)
+            .zip(&starts)
+            .map(|((path, &start), &at)| {
+                if !(0..path.len()).any(|k| shut(at + k)) {
+                    return path.clone();
+                }
+                let demand = &history[start..start + path.len()];
+                let forecast: Vec<f64> = path.iter().zip(demand).map(|(e, d)| e + d).collect();
+                let factor = crate::patterns::open_share_factor(&forecast, |k| shut(at + k));
+                forecast
+                    .iter()
+                    .zip(demand)
+                    .enumerate()
+                    .map(|(k, (f, d))| if shut(at + k) { 0.0 } else { f * factor } - d)
+                    .collect()
+            })
+            .collect();
+        OriginErrors {
+            paths,
+            starts,
+            at_shut,
+        }
+    }
+
+    /// Errors of the total over each origin's first `steps` steps that `shut` leaves in (it
+    /// is asked of a step's history index), from each origin whose path reaches that many:
+    /// the errors of a total over as many open periods as a window holds, where a window's
+    /// shut periods are forecast as 0 and sell nothing ([`crate::patterns::shut_places`]).
+    /// With no shut periods, [`Self::totals`].
+    pub fn open_totals(&self, steps: usize, shut: impl Fn(usize) -> bool) -> Vec<f64> {
+        if steps == 0 {
+            return Vec::new();
+        }
+        self.paths
+            .iter()
+            .zip(&self.starts)
+            .filter_map(|(path, &start)| {
+                let open: Vec<f64> = path
+                    .iter()
+                    .enumerate()
+                    .filter(|(k, _)| !shut(start + k))
+                    .map(|(_, e)| *e)
+                    .take(steps)
+                    .collect();
+                (open.len() == steps).then(|| open.iter().sum())
+            })
             .collect()
     }
 }
@@ -692,6 +770,7 @@ pub fn rolling_errors(
         .collect();
     let mut latest_fit: Vec<Option<Fitted>> = vec![None; distinct.len()];
     let mut paths = Vec::new();
+    let mut starts = Vec::new();
     for (i, end) in band_origins(n, horizon, min_train, max_origins)
         .into_iter()
         .enumerate()
@@ -733,8 +812,13 @@ pub fn rolling_errors(
                 .map(|(fv, d)| fv - d)
                 .collect(),
         );
+        starts.push(end);
     }
-    OriginErrors { paths }
+    OriginErrors {
+        paths,
+        starts,
+        at_shut: Vec::new(),
+    }
 }
 
 #[cfg(test)]
@@ -952,6 +1036,36 @@ mod tests {
             ),
             Err(BacktestError::TooShort { .. })
         ));
+    }
+
+    // A business shut every other period (odd ones): a flat forecast of 5 against 10 sold on
+    // open periods and 0 on shut ones errs by -5 and +5. As the plan forecasts, 0 when shut
+    // and the path's total on the open periods (10), it errs by 0, and the shut steps are
+    // no errors of the band's.
+    #[test]
+    fn origin_errors_as_forecast_at_shut_places() {
+        let history: Vec<f64> = (0..12)
+            .map(|t| if t % 2 == 1 { 0.0 } else { 10.0 })
+            .collect();
+        let paths: Vec<Vec<f64>> = [4, 5, 6]
+            .iter()
+            .map(|&start| history[start..start + 4].iter().map(|d| 5.0 - d).collect())
+            .collect();
+        let raw = OriginErrors {
+            paths,
+            starts: vec![4, 5, 6],
+            at_shut: Vec::new(),
+        };
+        assert_eq!(raw.by_horizon(2)[0], [-5.0, 5.0, -5.0]);
+        // Worked out on history[2..]: its index 4 is period 6 of the whole history.
+        let shut = |t: usize| t % 2 == 1;
+        let plan = raw.as_forecast_at_shut_places(&history[2..], 2, shut);
+        assert_eq!(plan.starts, [6, 7, 8]);
+        let by_step = plan.by_horizon(4);
+        assert_eq!(by_step[0], [0.0, 0.0]);
+        assert_eq!(by_step[1], [0.0]);
+        assert_eq!(plan.open_totals(2, shut), [0.0, 0.0, 0.0]);
+        assert!(plan.open_totals(3, shut).is_empty());
     }
 
     #[test]

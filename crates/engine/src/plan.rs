@@ -463,6 +463,10 @@ fn plan_inner(
         BAND_ORIGINS,
         &mut || progress(last_step),
     );
+    // As the forecast will be: 0 at shut places, their share on the open steps; the steps
+    // counted from the history's first period.
+    let origin_errors =
+        origin_errors.as_forecast_at_shut_places(recent, n - recent.len(), |t| demand.is_shut(t));
     let trending = trend.direction != TrendDirection::None;
     let own_errors = origin_errors.by_horizon(horizon);
     let stand_in = seasonal_stand_in(&own_errors, &fitted_as, seasons, recent, horizon);
@@ -623,16 +627,8 @@ fn shut_places_forecast_zero(
         return;
     }
     let is_shut = |h: usize| demand.is_shut(n + h);
-    let total: f64 = points.iter().map(|p| p.value).sum();
-    let open: f64 = (0..points.len())
-        .filter(|h| !is_shut(*h))
-        .map(|h| points[h].value)
-        .sum();
-    let factor = if open > 0.0 && total > 0.0 {
-        total / open
-    } else {
-        1.0
-    };
+    let values: Vec<f64> = points.iter().map(|p| p.value).collect();
+    let factor = patterns::open_share_factor(&values, is_shut);
     for (h, point) in points.iter_mut().enumerate() {
         if is_shut(h) {
             *point = BandPoint {

@@ -148,6 +148,24 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
     }
 }
 
+/// The factor that gives the open steps of a forecast path the whole path's total, total /
+/// open (1 where either is not above 0): what the methods spread over shut places goes back to
+/// the open ones in proportion ([`shut_places`]). `shut` is asked of each step's index.
+pub fn open_share_factor(values: &[f64], shut: impl Fn(usize) -> bool) -> f64 {
+    let total: f64 = values.iter().sum();
+    let open: f64 = values
+        .iter()
+        .enumerate()
+        .filter(|(h, _)| !shut(*h))
+        .map(|(_, v)| *v)
+        .sum();
+    if open > 0.0 && total > 0.0 {
+        total / open
+    } else {
+        1.0
+    }
+}
+
 impl DemandVerdict {
     /// Whether period `t` (counted from the history's first, so `n + h` is the forecast's
     /// step h from 0) falls on one of the [`shut_places`].

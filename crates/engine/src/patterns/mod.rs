@@ -14,8 +14,8 @@ crate::internal_modules!(acf, demand_class, season, trend);
 
 pub use acf::autocorrelation;
 pub use demand_class::{
-    classify_demand, classify_open_demand, shut_places, DemandClass, DemandVerdict, ADI_CUTOFF,
-    CV2_CUTOFF,
+    classify_demand, classify_open_demand, open_share_factor, shut_places, DemandClass,
+    DemandVerdict, ADI_CUTOFF, CV2_CUTOFF,
 };
 pub use season::{
     autocorrelation_peak, detect_season, season_test, seasonal_strength, SeasonSource, SeasonTest,

@@ -295,13 +295,33 @@ pub fn demand_over(plan: &ItemPlan, periods: usize) -> Option<(IntervalDemand, u
     if periods == 0 || plan.forecast.len() < periods {
         return None;
     }
-    let totals = plan.origin_errors.totals(periods);
+    let Some(totals) = origin_totals(plan, periods) else {
+        // Every period of the window is shut: nothing is sold, nothing can go wrong.
+        return IntervalDemand::new(0.0, 0.0).ok().map(|d| (d, 0));
+    };
     if totals.len() < 2 {
         return None;
     }
     IntervalDemand::new(forecast_total(plan, 0, periods), root_mean_square(&totals))
         .ok()
         .map(|d| (d, totals.len()))
+}
+
+/// The errors of the total over the next `periods` periods at the plan's rolling origins:
+/// over as many open periods as the window holds where the plan has shut places (their
+/// forecasts are 0 and they sell nothing; [`crate::patterns::shut_places`]), so that a window
+/// of shut days does not take the spread of days that sell (a review found a kiosk shut in
+/// January and February given a spread of 24 over those two months). `None` when every
+/// period of the window is shut.
+fn origin_totals(plan: &ItemPlan, periods: usize) -> Option<Vec<f64>> {
+    let n = plan.history.len();
+    let open = (n..n + periods)
+        .filter(|t| !plan.demand.is_shut(*t))
+        .count();
+    (open > 0).then(|| {
+        plan.origin_errors
+            .open_totals(open, |t| plan.demand.is_shut(t))
+    })
 }
 
 /// The sum of the plan's forecasts for steps from + 1 ..= to.
@@ -314,16 +334,18 @@ fn forecast_total(plan: &ItemPlan, from: usize, to: usize) -> f64 {
 /// [`crate::patterns::shut_places`]): no one orders while shut, and stock does not fall then
 /// either, so the next order is placed when the business opens again. Under continuous review
 /// with a lead time, the run right after now; under periodic review, the run the next review
-/// falls in (after R periods), which moves that review to the reopening. Left out, a shop shut
+/// falls in (the close of period R; a review at the close of an open period is held, as
+/// today's is), which moves that review to the close of the first open period after it. Left out, a shop shut
 /// on Sundays got, on a Saturday with a lead time of one day, the Sunday's demand (0) to cover,
 /// a reorder point near 0 and an order quantity of 1, while an order placed on reopening
 /// arrives after that day's sales. Our choice, said in a note.
 fn shut_ahead(plan: &ItemPlan, settings: &StockSettings) -> usize {
+    let n = plan.history.len();
     match settings.review_period {
         None if settings.lead_time == 0 => 0,
-        review => plan
-            .demand
-            .shut_run_from(plan.history.len() + review.unwrap_or(0)),
+        None => plan.demand.shut_run_from(n),
+        // The next review, at the close of period R, moves when that period is shut.
+        Some(r) => plan.demand.shut_run_from(n + r - 1),
     }
 }
 
@@ -351,8 +373,9 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         };
         notes.push(format!(
             "{} {when} had no demand in almost every season (a business shut then, forecast as \
-             0): no order is placed while shut, so {what} covers {} and the periods until an \
-             order placed on reopening arrives, {periods} periods in all",
+             0): taking it that no order is placed while shut, {what} covers {} and the \
+             periods until an order placed on reopening arrives, {periods} periods in all; if \
+             orders go out on those days too, that is more than needed",
             if shut == 1 {
                 "the period"
             } else {
@@ -389,7 +412,9 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
     let (review, cycle_demand) = match settings.review_period {
         None => {
             let q = settings.order_quantity.unwrap_or_else(|| {
-                forecast_total(plan, 0, (lead.max(1) + shut).min(horizon)).max(1.0)
+                // At least one open period's demand, whatever the lead time.
+                let steps = lead.max(1) + plan.demand.shut_run_from(plan.history.len());
+                forecast_total(plan, 0, steps.min(horizon)).max(1.0)
             });
             (Review::continuous(q)?, q)
         }
@@ -421,9 +446,8 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         }
         Distribution::Empirical => {
             let non_negative = plan.history.iter().all(|v| *v >= 0.0);
-            let scenarios: Vec<f64> = plan
-                .origin_errors
-                .totals(periods)
+            let scenarios: Vec<f64> = origin_totals(plan, periods)
+                .unwrap_or_default()
                 .iter()
                 .map(|e| protection.mean() - e)
                 .map(|d| if non_negative { d.max(0.0) } else { d })
