@@ -509,6 +509,8 @@ fn a_period_out_of_its_run_is_named_in_every_layout() {
     let across =
         |periods: &[String]| format!("Item,{}\nSeeds{}\n", periods.join(","), ",5".repeat(12));
     let typo = months("2023-12");
+    let mut first_next_year = months("2024-12");
+    first_next_year[0] = "2025-01".to_string();
     let mut newest_first = months("2024-12");
     newest_first.reverse();
     // (input, the words of the warning, or none)
@@ -529,7 +531,15 @@ fn a_period_out_of_its_run_is_named_in_every_layout() {
             across(&typo),
             Some(vec![
                 "header's periods",
-                "\"2023-12\", 2023-12, comes after",
+                "\"2023-12\", 2023-12, is out of the run",
+            ]),
+        ),
+        // The first row out of the run is the one named, not the second.
+        (
+            single(&first_next_year),
+            Some(vec![
+                "line 2, 2025-01, is out of the run",
+                "line 3, 2024-02",
             ]),
         ),
         (single(&newest_first), None),
@@ -540,14 +550,24 @@ fn a_period_out_of_its_run_is_named_in_every_layout() {
     for (input, words) in cases {
         let r = read(&input);
         assert!(!r.has_errors(), "{input}: {:#?}", r.errors);
-        assert_eq!(
-            r.items[0].periods[0].to_string(),
-            if words.is_some() {
-                "2023-12"
-            } else {
-                "2024-01"
-            }
-        );
+        // Read where each label says: the typed year stands, sorted into place.
+        let first = input
+            .lines()
+            .skip(1)
+            .map(|l| l.split(',').next().unwrap_or(""));
+        let mut written: Vec<String> = first.map(str::to_string).collect();
+        if input.starts_with("Item,") {
+            written = input
+                .lines()
+                .next()
+                .unwrap()
+                .split(',')
+                .skip(1)
+                .map(str::to_string)
+                .collect();
+        }
+        written.sort();
+        assert_eq!(r.items[0].periods[0].to_string(), written[0], "{input}");
         let about_order: Vec<&String> = r
             .warnings
             .iter()

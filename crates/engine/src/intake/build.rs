@@ -132,13 +132,14 @@ struct Entry<'a> {
     row: &'a Record,
 }
 
-/// Where periods in the file's order first break their run: the index of the first period that
-/// goes against the way most steps go (back in time, or forward in a table written newest
-/// first) and stands only once (a date typed with the wrong year, say), or `None` when every
-/// step goes one way (either way is read as written: nothing to check). A period that stands
-/// more than once is passed over: rows repeated per store, or an export stacked on another,
-/// start again at the first period, and are summed or refused where they repeat.
-fn first_break_in_time_order(periods: &[Period]) -> Option<usize> {
+/// Where periods in the file's order first break their run: the index of the period out of
+/// it (a date typed with the wrong year, say) and of a neighbour it breaks the run with, or
+/// `None` when every step goes one way (forward, or newest first, both read as written:
+/// nothing to check). The run is the way most steps go. Of the two periods at a break, the
+/// one whose removal mends the run there is out of it (the later when both or neither do).
+/// Only a period that stands once counts: rows repeated per store, or an export stacked on
+/// another, start again at the first period, and are summed or refused where they repeat.
+fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
     let forward = periods.windows(2).filter(|w| w[1] > w[0]).count();
     let backward = periods.windows(2).filter(|w| w[1] < w[0]).count();
     if forward == 0 || backward == 0 {
@@ -148,14 +149,20 @@ fn first_break_in_time_order(periods: &[Period]) -> Option<usize> {
     for p in periods {
         *times.entry(*p).or_default() += 1;
     }
-    let against = |i: usize| {
-        if backward <= forward {
-            periods[i] < periods[i - 1]
-        } else {
-            periods[i] > periods[i - 1]
-        }
-    };
-    (1..periods.len()).find(|&i| against(i) && times[&periods[i]] == 1)
+    let in_run = |a: Period, b: Period| if backward <= forward { a <= b } else { a >= b };
+    let once = |i: usize| times[&periods[i]] == 1;
+    let n = periods.len();
+    (1..n)
+        .filter(|&i| !in_run(periods[i - 1], periods[i]))
+        .find_map(|i| {
+            let without_earlier = i < 2 || in_run(periods[i - 2], periods[i]);
+            let without_later = i + 1 >= n || in_run(periods[i - 1], periods[i + 1]);
+            if without_earlier && !without_later && once(i - 1) {
+                Some((i - 1, i))
+            } else {
+                once(i).then_some((i, i - 1))
+            }
+        })
 }
 
 /// Each item's value cells as (index into `rows`, column), with whose values they are in a
@@ -702,11 +709,12 @@ impl<'a> Builder<'a> {
 
     fn single_or_wide(&mut self, mut entries: Vec<Entry<'a>>, dated: bool) {
         let periods: Vec<Period> = entries.iter().map(|e| e.period).collect();
-        if let Some(w) = first_break_in_time_order(&periods).map(|i| &entries[i - 1..=i]) {
+        if let Some((odd, beside)) = period_out_of_run(&periods) {
+            let (odd, beside) = (&entries[odd], &entries[beside]);
             self.out.warnings.push(format!(
-                "rows are not in time order (line {}, {}, comes after line {}, {}); they were \
-                 sorted by period (check that row's date)",
-                w[1].row.line, w[1].period, w[0].row.line, w[0].period
+                "rows are not in time order (line {}, {}, is out of the run of the rows beside \
+                 it, such as line {}, {}); they were sorted by period (check that row's date)",
+                odd.row.line, odd.period, beside.row.line, beside.period
             ));
         }
         entries.sort_by_key(|e| e.period);

@@ -10,7 +10,7 @@
 
 use std::collections::HashMap;
 
-use super::{first_break_in_time_order, Builder};
+use super::{period_out_of_run, Builder};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::{dotted_month, mostly, read_periods, strong_family, IntegerMeaning};
@@ -46,16 +46,17 @@ impl<'a> Builder<'a> {
             .filter_map(|(p, j)| p.map(|p| (p, *j)))
             .collect();
         let periods: Vec<Period> = columns.iter().map(|c| c.0).collect();
-        if let Some(w) = first_break_in_time_order(&periods).map(|i| &columns[i - 1..=i]) {
-            let (before, after) = (
-                self.table.column_name(w[0].1),
-                self.table.column_name(w[1].1),
-            );
+        if let Some((odd, beside)) = period_out_of_run(&periods) {
+            let (odd, beside) = (columns[odd], columns[beside]);
+            let name = |j: usize| self.table.column_name(j);
             self.out.warnings.push(format!(
-                "the header's periods are not in time order (\"{after}\", {}, comes after \
-                 \"{before}\", {}); the columns were put in time order (check that column's \
-                 year)",
-                w[1].0, w[0].0
+                "the header's periods are not in time order (\"{}\", {}, is out of the run of \
+                 the columns beside it, such as \"{}\", {}); the columns were put in time order \
+                 (check that column's year)",
+                name(odd.1),
+                odd.0,
+                name(beside.1),
+                beside.0
             ));
         }
         columns.sort_by_key(|(p, j)| (*p, *j));

@@ -11,7 +11,7 @@
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
-use super::{count, first_break_in_time_order, lines, listing, Builder, LongRow};
+use super::{count, lines, listing, period_out_of_run, Builder, LongRow};
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
@@ -143,12 +143,12 @@ impl<'a> Builder<'a> {
                 ));
             }
             let periods: Vec<Period> = rows.iter().map(|r| r.0).collect();
-            if let Some((before, after)) =
-                first_break_in_time_order(&periods).map(|i| (&rows[i - 1], &rows[i]))
-            {
+            if let Some((odd, beside)) = period_out_of_run(&periods) {
+                let (odd, beside) = (&rows[odd], &rows[beside]);
                 out_of_order.push(format!(
-                    "\"{name}\" (line {}, {}, comes after line {}, {})",
-                    after.2.line, after.0, before.2.line, before.0
+                    "\"{name}\" (line {}, {}, out of the run of its rows beside it, such as \
+                     line {}, {})",
+                    odd.2.line, odd.0, beside.2.line, beside.0
                 ));
             }
             rows.sort_by_key(|r| r.0);
