@@ -153,6 +153,16 @@ fn shut_days_order(
     lead: usize,
     review: Option<usize>,
 ) -> morrowcast_engine::order::ItemOrder {
+    shut_days_order_over(days, lead, review, &PlanSettings::default())
+}
+
+/// [`shut_days_order`] with plan settings of its own.
+fn shut_days_order_over(
+    days: usize,
+    lead: usize,
+    review: Option<usize>,
+    plan: &PlanSettings,
+) -> morrowcast_engine::order::ItemOrder {
     use morrowcast_engine::calendar::Period;
     use morrowcast_engine::series::Series;
     use morrowcast_engine::stock::StockSettings;
@@ -167,7 +177,7 @@ fn shut_days_order(
         .collect();
     let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
     let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
-    plan_order(&series, &PlanSettings::default(), &settings, None, false).unwrap()
+    plan_order(&series, plan, &settings, None, false).unwrap()
 }
 
 /// [`shut_days_order`]'s protection interval must be `periods`, and the demand over it the
@@ -233,6 +243,17 @@ fn shut_days_are_covered_until_an_order_placed_on_reopening_arrives() {
     check_shut_days(55, 1, Some(1), 3);
     check_shut_days(54, 1, Some(7), 8);
     check_shut_days(54, 0, Some(1), 3);
+    // The open days' share of what the methods spread over shut days is taken over whole
+    // weeks: a horizon of 9 days (a week and a weekend) gives the reorder point a week gives.
+    // Over the path it had piled two shut days' share on the one open day after them.
+    let weekly = shut_days_order(54, 1, None).stock.demand_over_protection;
+    let nine_days = PlanSettings::default().with_horizon(Some(9)).unwrap();
+    let nine = shut_days_order_over(54, 1, None, &nine_days);
+    let nine = nine.stock.demand_over_protection;
+    assert!(
+        (nine - weekly).abs() <= 0.01 * weekly,
+        "{nine} against {weekly}"
+    );
     // No lead time, continuous review: nothing to protect, shut days or not; the order
     // quantity is still an open day's demand (it had been 1: Saturday's 0, raised to 1).
     let zero = shut_days_order(54, 0, None);

@@ -534,8 +534,27 @@ fn week_dot_year_under_a_week_header_is_iso_weeks() {
     let r = read(&table("KW", 50..=53, 2021));
     let errors: Vec<(usize, &str)> = r.errors.iter().map(|e| (e.row, e.text.as_str())).collect();
     assert_eq!(errors, [(5, "53.2021")], "{:#?}", r.errors);
+    // Under a header that names no period Intake knows, labels in time order are no
+    // quantities: an error (they had been planned as an item "Fiscal week").
+    let r = read(&table("Fiscal week", 1..=30, 2024));
+    assert!(r.items.is_empty(), "{:#?}", r.items);
+    assert!(
+        r.errors[0]
+            .message
+            .contains("name the column Month or Week"),
+        "{:#?}",
+        r.errors
+    );
+    // Twelve or fewer under a neutral header read as months, said.
+    let (r, _) = one(&table("Period", 1..=12, 2024));
+    assert_eq!(r.frequency, Frequency::Monthly);
+    assert!(
+        warned(&r, &["read as month.year", "name the column Week"]),
+        "{:#?}",
+        r.warnings
+    );
     // Under a header that does not say weeks, week.year beyond 12 is no period: an error
-    // that says how to name them.
+    // at the first that is no month, that says how to name them.
     let r = read(&table("Period", 1..=52, 2024));
     assert!(
         r.errors
@@ -543,5 +562,9 @@ fn week_dot_year_under_a_week_header_is_iso_weeks() {
             .any(|e| e.message.contains("name the column Week")),
         "{:#?}",
         r.errors
+    );
+    assert_eq!(
+        (r.errors[0].row, r.errors[0].text.as_str()),
+        (14, "13.2024")
     );
 }

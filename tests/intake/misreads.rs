@@ -509,6 +509,11 @@ fn a_period_out_of_its_run_is_named_in_every_layout() {
     let across =
         |periods: &[String]| format!("Item,{}\nSeeds{}\n", periods.join(","), ",5".repeat(12));
     let typo = months("2023-12");
+    let side_by_side = single(
+        &(1..=6)
+            .flat_map(|m| [format!("2023-{m:02}"), format!("2024-{m:02}")])
+            .collect::<Vec<_>>(),
+    );
     let mut first_next_year = months("2024-12");
     first_next_year[0] = "2025-01".to_string();
     let mut newest_first = months("2024-12");
@@ -546,6 +551,8 @@ fn a_period_out_of_its_run_is_named_in_every_layout() {
         (long(&newest_first, 1), None),
         (across(&newest_first), None),
         (long(&months("2024-12"), 2), None),
+        // Years side by side (Jan 2023, Jan 2024, Feb 2023, ...): a layout, not a slip.
+        (side_by_side, None),
     ];
     for (input, words) in cases {
         let r = read(&input);

@@ -679,6 +679,7 @@ impl OriginErrors {
         self,
         history: &[f64],
         offset: usize,
+        cycle: usize,
         shut: impl Fn(usize) -> bool,
     ) -> OriginErrors {
         let starts: Vec<usize> = self.starts.iter().map(|s| s + offset).collect();
@@ -699,7 +700,7 @@ impl OriginErrors {
                 }
                 let demand = &history[start..start + path.len()];
                 let forecast: Vec<f64> = path.iter().zip(demand).map(|(e, d)| e + d).collect();
-                let factor = crate::patterns::open_share_factor(&forecast, |k| shut(at + k));
+                let factor = crate::patterns::open_share_factor(&forecast, cycle, |k| shut(at + k));
                 forecast
                     .iter()
                     .zip(demand)
@@ -1059,7 +1060,7 @@ mod tests {
         assert_eq!(raw.by_horizon(2)[0], [-5.0, 5.0, -5.0]);
         // Worked out on history[2..]: its index 4 is period 6 of the whole history.
         let shut = |t: usize| t % 2 == 1;
-        let plan = raw.as_forecast_at_shut_places(&history[2..], 2, shut);
+        let plan = raw.as_forecast_at_shut_places(&history[2..], 2, 2, shut);
         assert_eq!(plan.starts, [6, 7, 8]);
         let by_step = plan.by_horizon(4);
         assert_eq!(by_step[0], [0.0, 0.0]);

@@ -465,8 +465,12 @@ fn plan_inner(
     );
     // As the forecast will be: 0 at shut places, their share on the open steps; the steps
     // counted from the history's first period.
-    let origin_errors =
-        origin_errors.as_forecast_at_shut_places(recent, n - recent.len(), |t| demand.is_shut(t));
+    let origin_errors = origin_errors.as_forecast_at_shut_places(
+        recent,
+        n - recent.len(),
+        demand.shut_cycle,
+        |t| demand.is_shut(t),
+    );
     let trending = trend.direction != TrendDirection::None;
     let own_errors = origin_errors.by_horizon(horizon);
     let stand_in = seasonal_stand_in(&own_errors, &fitted_as, seasons, recent, horizon);
@@ -628,7 +632,7 @@ fn shut_places_forecast_zero(
     }
     let is_shut = |h: usize| demand.is_shut(n + h);
     let values: Vec<f64> = points.iter().map(|p| p.value).collect();
-    let factor = patterns::open_share_factor(&values, is_shut);
+    let factor = patterns::open_share_factor(&values, m, is_shut);
     for (h, point) in points.iter_mut().enumerate() {
         if is_shut(h) {
             *point = BandPoint {

@@ -29,7 +29,7 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::read_periods;
 use super::shapes::names_no_demand;
-use super::table::{names_weeks, wide_row_error, Plan, Table};
+use super::table::{header_says, names_weeks, wide_row_error, Plan, Table};
 use super::text::Record;
 
 mod across;
@@ -138,7 +138,8 @@ struct Entry<'a> {
 /// nothing to check). The run is the way most steps go. Of the two periods at a break, the
 /// one whose removal mends the run there is out of it (the later when both or neither do).
 /// Only a period that stands once counts: rows repeated per store, or an export stacked on
-/// another, start again at the first period, and are summed or refused where they repeat.
+/// another, start again at the first period, and are summed or refused where they repeat; and
+/// only one step against the run, or a quarter of the periods or fewer: more are a layout.
 fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
     let forward = periods.windows(2).filter(|w| w[1] > w[0]).count();
     let backward = periods.windows(2).filter(|w| w[1] < w[0]).count();
@@ -148,6 +149,12 @@ fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
     let mut times: HashMap<Period, usize> = HashMap::new();
     for p in periods {
         *times.entry(*p).or_default() += 1;
+    }
+    // Many steps against the run are a layout, not a slip (years side by side: Jan 2023,
+    // Jan 2024, Feb 2023, ...): read as written, sorted, nothing to check.
+    let against = forward.min(backward);
+    if against >= 2 && 4 * against > periods.len() {
+        return None;
     }
     let in_run = |a: Period, b: Period| if backward <= forward { a <= b } else { a >= b };
     let once = |i: usize| times[&periods[i]] == 1;
@@ -470,6 +477,20 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             None => table.column(p, &kept),
         };
         let col = read_periods(&cells, meaning);
+        // Week.year is written the same way: said where no header names months.
+        let months = [
+            "month", "months", "monthly", "mth", "monat", "mois", "maand", "mes", "mese",
+        ];
+        if meaning == Some(super::period::IntegerMeaning::DottedMonths)
+            && (table.header.is_none() || !header_says(&table.column_name(p), &months))
+        {
+            b.out.warnings.push(format!(
+                "column \"{}\": labels such as \"{}\" were read as month.year; if they are \
+                 weeks (week.year), name the column Week",
+                table.column_name(p),
+                cells.iter().find(|c| !c.is_empty()).copied().unwrap_or("")
+            ));
+        }
         for (i, message) in &col.errors {
             b.error(kept[*i].line, p, cells[*i], message.clone());
         }
@@ -556,9 +577,9 @@ impl<'a> Builder<'a> {
         if let Some(&(value, size, whose)) = self.thousands_dots.get(&(row.line, column)) {
             let message = format!(
                 "expected a number of the {whose} size: with the decimal dot of this \
-                 comma-separated file it reads as {value}, a thousandth of the {whose} other \
-                 values (about {size}); if the dot separates thousands, write the number without \
-                 it ({})",
+                 comma-separated file it reads as {value}, a hundredth or less of the {whose} \
+                 other values (about {size}); if the dot separates thousands, write the number \
+                 without it ({}); if it is right as written, write it with fewer decimals",
                 cell.replace('.', "")
             );
             self.error(row.line, column, cell, message);

@@ -228,6 +228,34 @@ pub(crate) fn dotted_months_close(cells: &[&str]) -> bool {
     mostly(cells, dotted_month) && close(&months, 3)
 }
 
+/// Whether every filled cell (at least three) is `N.YYYY` with N from 1 to 53 and the
+/// distinct labels follow each other (the median step one month or week): periods written
+/// month.year or week.year, whatever a header says.
+pub(crate) fn dotted_labels(cells: &[&str]) -> bool {
+    let filled: Vec<&str> = cells
+        .iter()
+        .copied()
+        .filter(|c| !c.trim().is_empty())
+        .collect();
+    let keys: Option<Vec<i64>> = filled
+        .iter()
+        .map(|c| {
+            dotted(c)
+                .filter(|(n, _)| (1..=53).contains(n))
+                .map(|(n, year)| i64::from(year) * 53 + i64::from(n))
+        })
+        .collect();
+    match keys {
+        Some(keys) if keys.len() >= 3 => {
+            let mut distinct = keys;
+            distinct.sort_unstable();
+            distinct.dedup();
+            distinct.len() >= 3 && close(&distinct, 1)
+        }
+        _ => false,
+    }
+}
+
 /// Whether most of the filled `cells` read as `read` does.
 pub(crate) fn mostly(cells: &[&str], read: fn(&str) -> Option<Label>) -> bool {
     let filled = cells.iter().filter(|c| !c.trim().is_empty()).count();

@@ -79,8 +79,8 @@ use super::joined::SplitPeriod;
 use super::label::{calendar_name, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
 use super::period::{
-    dotted_month, dotted_months_close, dotted_week, integer_meaning, mostly, strong_family,
-    IntegerMeaning,
+    dotted_labels, dotted_month, dotted_months_close, dotted_week, integer_meaning, mostly,
+    strong_family, IntegerMeaning,
 };
 use super::shapes::{calendar_grid, codes_recur, names_no_demand, notes_columns};
 use super::text::{mode_of, Record};
@@ -560,6 +560,14 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     if let (Some(&j), None) = (calendar.first(), period) {
         return Err(without_years(table, &rows, j));
     }
+    if period.is_none() {
+        if let Some(&j) = numeric.iter().find(|&&j| {
+            !header_is_only(&table.column_name(j), &PERIOD_WORDS)
+                && dotted_labels(&table.column(j, &rows))
+        }) {
+            return Err(dotted_labels_unnamed(table, &rows, j));
+        }
+    }
     let period_cells: Vec<String> = match (period, split) {
         (Some(_), Some(split)) => split.labels(&rows),
         (Some((p, _)), None) => table
@@ -800,7 +808,7 @@ pub(super) const ITEM_WORDS: [&str; 22] = [
 /// month.year labels ("03.2020") had been read as the numbers 3.202 of an item, silently;
 /// named as a period they are an error that says how to write them. Words that name things in
 /// English too ("tag", "dag", "data") are left out.
-pub(super) const PERIOD_WORDS: [&str; 32] = [
+pub(super) const PERIOD_WORDS: [&str; 34] = [
     "t",
     "period",
     "time",
@@ -832,6 +840,8 @@ pub(super) const PERIOD_WORDS: [&str; 32] = [
     "mese",
     "settimana",
     "kw",
+    "monthly",
+    "weekly",
     "anno",
 ];
 pub(super) const QUANTITY_WORDS: [&str; 10] = [
@@ -932,19 +942,53 @@ fn blank_header(table: &Table, j: usize) -> bool {
 /// The error for number column `j`, named only as a period, when no period could be read:
 /// at its first row.
 fn unplaced_numbers(table: &Table, rows: &[&Record], j: usize) -> RowError {
-    // Week.year under a header that does not name weeks (weeks past 12 are no months).
-    let weeks = if mostly(&table.column(j, rows), dotted_week) {
+    // Week.year under a header that does not name weeks (weeks past 12 are no months): the
+    // error stands at the first that is no month.
+    let cells = table.column(j, rows);
+    let weeks = mostly(&cells, dotted_week);
+    let at = weeks
+        .then(|| {
+            cells
+                .iter()
+                .position(|c| !c.is_empty() && dotted_month(c).is_none())
+        })
+        .flatten();
+    let weeks = if weeks {
         "; if they are weeks written week.year (05.2024), name the column Week"
     } else {
         ""
     };
+    let first = without_years(table, rows, j);
+    let (row, text) = match at {
+        Some(at) => (rows[at].line, cells[at].to_string()),
+        None => (first.row, first.text.clone()),
+    };
     RowError {
+        row,
+        text,
         message: format!(
             "expected periods that place each row in time; this column is named as a period \
              but its numbers neither count the rows (1, 2, 3, ...) nor read as years: write \
              periods with their years (e.g. 2023-01), or number the rows in order{weeks}"
         ),
-        ..without_years(table, rows, j)
+        ..first
+    }
+}
+
+/// The error for number column `j` whose cells are month.year or week.year labels in time
+/// order ("01.2024", "02.2024", ...) under a header that names no period Intake knows
+/// ("Fiscal week", "Zeitraum"): read as numbers, they had been planned as an item, silently.
+fn dotted_labels_unnamed(table: &Table, rows: &[&Record], j: usize) -> RowError {
+    let cells = table.column(j, rows);
+    let at = cells.iter().position(|c| !c.is_empty()).unwrap_or(0);
+    RowError {
+        row: rows.get(at).map_or(1, |r| r.line),
+        column: table.column_name(j),
+        text: cells.get(at).copied().unwrap_or("").to_string(),
+        message: "expected quantities; this column's cells read as periods written month.year \
+                  or week.year (01.2024) in time order, not as quantities: name the column \
+                  Month or Week, or write the periods as 2024-01 or 2024-W01"
+            .to_string(),
     }
 }
 
