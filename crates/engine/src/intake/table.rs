@@ -472,7 +472,8 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let dotted_weeks = (0..table.width)
         .find(|&j| names_weeks(table, j) && mostly(&table.column(j, &rows), dotted_week));
     // Month.year ("03.2024") under a header that names a period and not weeks, or in a
-    // table without a header when the months are close in time: months.
+    // table without a header when the months are close in time and no other column holds
+    // periods: months.
     // A number to a cell ("10.2001" may be an article number), so only there.
     let dotted_months = (0..table.width).find(|&j| {
         let cells = table.column(j, &rows);
@@ -483,7 +484,12 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                     && !header_says(&table.column_name(j), &WEEK_WORDS)
                     && mostly(&cells, dotted_month)
             }
-            None => dotted_months_close(&cells),
+            // Beside a column of periods it names something else (article numbers).
+            None => {
+                dotted_months_close(&cells)
+                    && (0..table.width)
+                        .all(|k| k == j || strong_family(&table.column(k, &rows)).is_none())
+            }
         }
     });
     let roles: Vec<Role> = (0..table.width)
