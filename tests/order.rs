@@ -183,21 +183,7 @@ fn shut_days_order_over(
 /// [`shut_days_order`]'s protection interval must be `periods`, and the demand over it the
 /// open days' forecasts; the note says so where shut days lengthened it.
 fn check_shut_days(days: usize, lead: usize, review: Option<usize>, periods: usize) {
-    use morrowcast_engine::calendar::Period;
-    use morrowcast_engine::series::Series;
-    use morrowcast_engine::stock::StockSettings;
-    let values = (0..days)
-        .map(|t| {
-            Some(if t % 7 >= 5 {
-                0.0
-            } else {
-                20.0 + ((t * 5) % 8) as f64
-            })
-        })
-        .collect();
-    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
-    let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
-    let order = plan_order(&series, &PlanSettings::default(), &settings, None, false).unwrap();
+    let order = shut_days_order(days, lead, review);
     let what = format!("{days} days, lead {lead}, review {review:?}");
     assert_eq!(order.stock.protection_periods, periods, "{what}");
     assert!(order.plan.forecast.len() >= periods, "{what}");
