@@ -148,30 +148,30 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
     }
 }
 
-/// The factor that gives the open steps of a forecast path the path's total, total / open
-/// (1 where either is not above 0): what the methods spread over shut places goes back to
-/// the open ones in proportion ([`shut_places`]). Taken over the path's whole seasons of
-/// `cycle` steps where it has one (a path ending just after a weekend would otherwise pile
-/// two shut days' share on one open day: a review found a reorder point over three days 24 %
-/// above the one over a week); over the whole path where it is shorter. `shut` is asked of
-/// each step's index.
+/// The factor that gives a forecast path's open steps what the methods spread over its shut
+/// places ([`shut_places`]), in proportion: 1 + (s / (m - s)) (mean on shut steps / mean on
+/// open steps), for s shut places of every `cycle` m. Over whole seasons this is total /
+/// open; taken from the means it does not depend on how many shut steps a short path happens
+/// to hold (over the path's count, a horizon ending just after a weekend piled two shut
+/// days' share on one open day: a review found a reorder point 24 % high). 1 where the path
+/// has no shut or no open step, or nothing above 0 on its open steps. `shut` is asked of each
+/// step's index.
 pub fn open_share_factor(values: &[f64], cycle: usize, shut: impl Fn(usize) -> bool) -> f64 {
-    let whole = match values.len() / cycle.max(1) {
-        0 => values.len(),
-        seasons => seasons * cycle.max(1),
+    let mean = |at_shut: bool| {
+        let on: Vec<f64> = values
+            .iter()
+            .enumerate()
+            .filter(|(h, _)| shut(*h) == at_shut)
+            .map(|(_, v)| *v)
+            .collect();
+        (!on.is_empty()).then(|| on.iter().sum::<f64>() / on.len() as f64)
     };
-    let values = &values[..whole];
-    let total: f64 = values.iter().sum();
-    let open: f64 = values
-        .iter()
-        .enumerate()
-        .filter(|(h, _)| !shut(*h))
-        .map(|(_, v)| *v)
-        .sum();
-    if open > 0.0 && total > 0.0 {
-        total / open
-    } else {
-        1.0
+    let places = (0..cycle).filter(|h| shut(*h)).count();
+    match (mean(true), mean(false)) {
+        (Some(at_shut), Some(open)) if open > 0.0 && places < cycle => {
+            1.0 + places as f64 * at_shut.max(0.0) / ((cycle - places) as f64 * open)
+        }
+        _ => 1.0,
     }
 }
 
