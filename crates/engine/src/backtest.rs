@@ -659,17 +659,6 @@ impl OriginErrors {
             .collect()
     }
 
-    /// Errors of the total over the first `periods` steps, from each origin whose path reaches
-    /// that far: the forecast total minus the demand total, with every covariance between the
-    /// steps in it.
-    pub fn totals(&self, periods: usize) -> Vec<f64> {
-        self.paths
-            .iter()
-            .filter(|p| periods > 0 && p.len() >= periods)
-            .map(|p| p[..periods].iter().sum())
-            .collect()
-    }
-
     /// The errors as the plan's forecast would have made them at shut places
     /// ([`crate::patterns::shut_places`]): 0 there, and what the methods put there given back
     /// to the open steps of the path in proportion ([`crate::patterns::open_share_factor`]),
@@ -720,7 +709,8 @@ impl OriginErrors {
     /// is asked of a step's history index), from each origin whose path reaches that many:
     /// the errors of a total over as many open periods as a window holds, where a window's
     /// shut periods are forecast as 0 and sell nothing ([`crate::patterns::shut_places`]).
-    /// With no shut periods, [`Self::totals`].
+    /// With no shut periods, the totals over the first `steps` steps: every covariance
+    /// between the steps is in them.
     pub fn open_totals(&self, steps: usize, shut: impl Fn(usize) -> bool) -> Vec<f64> {
         if steps == 0 {
             return Vec::new();

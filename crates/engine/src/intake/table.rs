@@ -1049,9 +1049,6 @@ fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
 /// "promo code", "customer count").
 const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", "discount"];
 
-/// Whether header cell `name` holds one of `words` as a word of its own (split at anything
-/// that is not a letter or digit and where a lower-case letter meets a capital, any case:
-/// "Item ID", "sku_code", "StoreID", "T").
 /// Header words that name weeks, in the languages of [`PERIOD_WORDS`] ("KW": German
 /// Kalenderwoche).
 pub(super) const WEEK_WORDS: [&str; 16] = [
@@ -1095,6 +1092,9 @@ pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
     table.header.is_some() && header_is_only(&name, &allowed) && header_says(&name, &WEEK_WORDS)
 }
 
+/// Whether header cell `name` holds one of `words` as a word of its own (split at anything
+/// that is not a letter or digit and where a lower-case letter meets a capital, any case:
+/// "Item ID", "sku_code", "StoreID", "T").
 pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
     header_words(name)
         .iter()

@@ -335,10 +335,10 @@ fn forecast_total(plan: &ItemPlan, from: usize, to: usize) -> f64 {
 /// either, so the next order is placed when the business opens again. Under continuous review
 /// with a lead time, the run right after now; under periodic review, the run the next review
 /// falls in (the close of period R; a review at the close of an open period is held, as
-/// today's is), which moves that review to the close of the first open period after it. Left out, a shop shut
-/// on Sundays got, on a Saturday with a lead time of one day, the Sunday's demand (0) to cover,
-/// a reorder point near 0 and an order quantity of 1, while an order placed on reopening
-/// arrives after that day's sales. Our choice, said in a note.
+/// today's is), which moves that review to the close of the first open period after it.
+/// Left out, a shop shut on Sundays got, on a Saturday with a lead time of one day, the
+/// Sunday's demand (0) to cover, a reorder point near 0 and an order quantity of 1, while an
+/// order placed on reopening arrives after that day's sales. Our choice, said in a note.
 fn shut_ahead(plan: &ItemPlan, settings: &StockSettings) -> usize {
     let n = plan.history.len();
     match settings.review_period {
