@@ -407,6 +407,19 @@ pub struct Backtest {
     pub rank_by: RankBy,
 }
 
+/// A forecast path as the plan makes it at shut places ([`crate::patterns::shut_places`]): 0
+/// there, and what the method put there given to the open steps in proportion
+/// ([`crate::patterns::open_share_factor`]). `shut` is asked of each step's index from 0.
+pub(crate) fn as_forecast_at_shut(path: &mut [f64], cycle: usize, shut: impl Fn(usize) -> bool) {
+    if !(0..path.len()).any(&shut) {
+        return;
+    }
+    let factor = crate::patterns::open_share_factor(path, cycle, &shut);
+    for (k, f) in path.iter_mut().enumerate() {
+        *f = if shut(k) { 0.0 } else { *f * factor };
+    }
+}
+
 /// Runs the backtest of `settings.candidates` on `history`, each method fitted with its season
 /// from `seasons`.
 pub fn run(
@@ -414,15 +427,19 @@ pub fn run(
     seasons: Seasons,
     settings: &BacktestSettings,
 ) -> Result<Backtest, BacktestError> {
-    run_observed(history, seasons, settings, &mut |_, _| {})
+    run_observed(history, seasons, settings, (0, &|_| false), &mut |_, _| {})
 }
 
 /// [`run`], calling `progress(done, total)` after each candidate method has been fitted at
 /// every origin (`total` = the number of candidates), so a front end can show how far it is.
+/// `shut`: the season of the history's shut places and whether period t of `history` falls
+/// on one; every holdout forecast is taken there as the plan's is ([`as_forecast_at_shut`]),
+/// so the ranking scores what the Look-ahead would show.
 pub fn run_observed(
     history: &[f64],
     seasons: Seasons,
     settings: &BacktestSettings,
+    shut: (usize, &dyn Fn(usize) -> bool),
     progress: &mut dyn FnMut(usize, usize),
 ) -> Result<Backtest, BacktestError> {
     let n = history.len();
@@ -512,6 +529,13 @@ pub fn run_observed(
         }
     }
     progress(total, total);
+    let (cycle, is_shut) = shut;
+    for (_, forecasts_by_origin) in per_origin.iter_mut() {
+        for (j, f) in forecasts_by_origin.iter_mut().enumerate() {
+            let end = train_end - j;
+            as_forecast_at_shut(f, cycle, |k| is_shut(end + k));
+        }
+    }
 
     let score = |forecasts_by_origin: &[Vec<f64>]| -> Option<Measures> {
         let mut f_all = Vec::with_capacity(origins * k);
@@ -688,14 +712,9 @@ impl OriginErrors {
                     return path.clone();
                 }
                 let demand = &history[start..start + path.len()];
-                let forecast: Vec<f64> = path.iter().zip(demand).map(|(e, d)| e + d).collect();
-                let factor = crate::patterns::open_share_factor(&forecast, cycle, |k| shut(at + k));
-                forecast
-                    .iter()
-                    .zip(demand)
-                    .enumerate()
-                    .map(|(k, (f, d))| if shut(at + k) { 0.0 } else { f * factor } - d)
-                    .collect()
+                let mut forecast: Vec<f64> = path.iter().zip(demand).map(|(e, d)| e + d).collect();
+                as_forecast_at_shut(&mut forecast, cycle, |k| shut(at + k));
+                forecast.iter().zip(demand).map(|(f, d)| f - d).collect()
             })
             .collect();
         OriginErrors {

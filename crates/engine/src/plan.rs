@@ -366,9 +366,13 @@ fn plan_inner(
     let steps = bt_settings.candidates.len() + 1;
     let bt = match reuse {
         Some(bt) => bt.clone(),
-        None => backtest::run_observed(recent, seasons, &bt_settings, &mut |done, _| {
-            progress(Progress { done, total: steps })
-        })
+        None => backtest::run_observed(
+            recent,
+            seasons,
+            &bt_settings,
+            (demand.shut_cycle, &|t| demand.is_shut(t + n - recent.len())),
+            &mut |done, _| progress(Progress { done, total: steps }),
+        )
         .map_err(|source| PlanError::Backtest {
             name: name.clone(),
             source,
