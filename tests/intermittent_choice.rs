@@ -122,19 +122,8 @@ fn automatic_choice_is_not_worse_than_sba_on_product_c() {
 // with a note. Sizes 20-27, eight weeks from a Monday.
 #[test]
 fn a_shop_shut_two_days_a_week_is_not_intermittent() {
-    use morrowcast_engine::calendar::Period;
     use morrowcast_engine::patterns::DemandClass;
-    use morrowcast_engine::series::Series;
-    let values: Vec<Option<f64>> = (0..56)
-        .map(|t| {
-            Some(if t % 7 >= 5 {
-                0.0
-            } else {
-                20.0 + ((t * 5) % 8) as f64
-            })
-        })
-        .collect();
-    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
+    let series = crate::support::shop_shut_at_weekends(56);
     let plan = plan_item(&series, &PlanSettings::default()).unwrap();
     assert_eq!(
         plan.demand.class,

@@ -163,19 +163,8 @@ fn shut_days_order_over(
     review: Option<usize>,
     plan: &PlanSettings,
 ) -> morrowcast_engine::order::ItemOrder {
-    use morrowcast_engine::calendar::Period;
-    use morrowcast_engine::series::Series;
     use morrowcast_engine::stock::StockSettings;
-    let values = (0..days)
-        .map(|t| {
-            Some(if t % 7 >= 5 {
-                0.0
-            } else {
-                20.0 + ((t * 5) % 8) as f64
-            })
-        })
-        .collect();
-    let series = Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap();
+    let series = crate::support::shop_shut_at_weekends(days);
     let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
     plan_order(&series, plan, &settings, None, false).unwrap()
 }

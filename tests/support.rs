@@ -68,6 +68,21 @@ pub fn monthly(values: Vec<Option<f64>>) -> Series {
     Series::new("Test item", Period::month(2021, 1), values).unwrap()
 }
 
+/// A shop shut on Saturdays and Sundays: `days` daily sales from a Monday, 0 at weekends and
+/// 20 to 27 on the other days (invented: the shut-places tests share it).
+pub fn shop_shut_at_weekends(days: usize) -> Series {
+    let values = (0..days)
+        .map(|t| {
+            Some(if t % 7 >= 5 {
+                0.0
+            } else {
+                20.0 + ((t * 5) % 8) as f64
+            })
+        })
+        .collect();
+    Series::new("Oak tray", Period::day(2024, 3, 4), values).unwrap()
+}
+
 /// A stock table written to a file of its own (named `name`, unique per test) for one test;
 /// its path.
 pub fn table_file(name: &str, text: &str) -> String {

@@ -407,19 +407,6 @@ pub struct Backtest {
     pub rank_by: RankBy,
 }
 
-/// A forecast path as the plan makes it at shut places ([`crate::patterns::shut_places`]): 0
-/// there, and what the method put there given to the open steps in proportion
-/// ([`crate::patterns::open_share_factor`]). `shut` is asked of each step's index from 0.
-pub(crate) fn as_forecast_at_shut(path: &mut [f64], cycle: usize, shut: impl Fn(usize) -> bool) {
-    if !(0..path.len()).any(&shut) {
-        return;
-    }
-    let factor = crate::patterns::open_share_factor(path, cycle, &shut);
-    for (k, f) in path.iter_mut().enumerate() {
-        *f = if shut(k) { 0.0 } else { *f * factor };
-    }
-}
-
 /// Runs the backtest of `settings.candidates` on `history`, each method fitted with its season
 /// from `seasons`.
 pub fn run(
@@ -433,7 +420,8 @@ pub fn run(
 /// [`run`], calling `progress(done, total)` after each candidate method has been fitted at
 /// every origin (`total` = the number of candidates), so a front end can show how far it is.
 /// `shut`: the season of the history's shut places and whether period t of `history` falls
-/// on one; every holdout forecast is taken there as the plan's is ([`as_forecast_at_shut`]),
+/// on one; every holdout forecast is taken there as the plan's is
+/// ([`crate::patterns::forecast_at_shut_places`]),
 /// so the ranking scores what the Look-ahead would show.
 pub fn run_observed(
     history: &[f64],
@@ -533,7 +521,7 @@ pub fn run_observed(
     for (_, forecasts_by_origin) in per_origin.iter_mut() {
         for (j, f) in forecasts_by_origin.iter_mut().enumerate() {
             let end = train_end - j;
-            as_forecast_at_shut(f, cycle, |k| is_shut(end + k));
+            crate::patterns::forecast_at_shut_places(f, cycle, |k| is_shut(end + k));
         }
     }
 
@@ -684,8 +672,7 @@ impl OriginErrors {
     }
 
     /// The errors as the plan's forecast would have made them at shut places
-    /// ([`crate::patterns::shut_places`]): 0 there, and what the methods put there given back
-    /// to the open steps of the path in proportion ([`crate::patterns::open_share_factor`]),
+    /// ([`crate::patterns::forecast_at_shut_places`]),
     /// with each path's start counted from the history's first period (`history` is the part
     /// the errors were worked out on, `offset` periods in). `shut` is asked of that count.
     pub fn as_forecast_at_shut_places(
@@ -713,7 +700,7 @@ impl OriginErrors {
                 }
                 let demand = &history[start..start + path.len()];
                 let mut forecast: Vec<f64> = path.iter().zip(demand).map(|(e, d)| e + d).collect();
-                as_forecast_at_shut(&mut forecast, cycle, |k| shut(at + k));
+                crate::patterns::forecast_at_shut_places(&mut forecast, cycle, |k| shut(at + k));
                 forecast.iter().zip(demand).map(|(f, d)| f - d).collect()
             })
             .collect();

@@ -620,7 +620,7 @@ fn seasonal_stand_in(
 /// [`patterns::shut_places`]), said in a note: the methods spread some of the open days'
 /// demand over them (a method that does not follow the season forecasts the same every day),
 /// which a business shut then would not sell. What they took is given back to the open steps
-/// in proportion (each forecast times sum of all / sum of the open, the band moved with it):
+/// in proportion ([`patterns::forecast_at_shut_places`], the band moved with it):
 /// a non-seasonal level is the mean over shut and open days, and zeros alone cut the week's
 /// total by the shut share (a review found a shop shut three days a week at 72 where it sells
 /// 120). The forecast's step h (from 0) is period n + h of the history's count.
@@ -635,9 +635,9 @@ fn shut_places_forecast_zero(
         return;
     }
     let is_shut = |h: usize| demand.is_shut(n + h);
-    let values: Vec<f64> = points.iter().map(|p| p.value).collect();
-    let factor = patterns::open_share_factor(&values, m, is_shut);
-    for (h, point) in points.iter_mut().enumerate() {
+    let mut values: Vec<f64> = points.iter().map(|p| p.value).collect();
+    patterns::forecast_at_shut_places(&mut values, m, is_shut);
+    for ((h, point), value) in points.iter_mut().enumerate().zip(values) {
         if is_shut(h) {
             *point = BandPoint {
                 value: 0.0,
@@ -645,14 +645,14 @@ fn shut_places_forecast_zero(
                 high: 0.0,
             };
         } else {
-            let moved = point.value * (factor - 1.0);
+            let moved = value - point.value;
             let floor = if point.low >= 0.0 {
                 0.0
             } else {
                 f64::NEG_INFINITY
             };
             *point = BandPoint {
-                value: point.value + moved,
+                value,
                 low: (point.low + moved).max(floor),
                 high: point.high + moved,
             };

@@ -146,15 +146,15 @@ fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
     if forward == 0 || backward == 0 {
         return None;
     }
-    let mut times: HashMap<Period, usize> = HashMap::new();
-    for p in periods {
-        *times.entry(*p).or_default() += 1;
-    }
     // Many steps against the run are a layout, not a slip (years side by side: Jan 2023,
     // Jan 2024, Feb 2023, ...): read as written, sorted, nothing to check.
     let against = forward.min(backward);
     if against >= 2 && 4 * against > periods.len() {
         return None;
+    }
+    let mut times: HashMap<Period, usize> = HashMap::new();
+    for p in periods {
+        *times.entry(*p).or_default() += 1;
     }
     let in_run = |a: Period, b: Period| if backward <= forward { a <= b } else { a >= b };
     let once = |i: usize| times[&periods[i]] == 1;
@@ -173,8 +173,8 @@ fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
 }
 
 /// Each item's value cells as (index into `rows`, column), with whose values they are in a
-/// message: a value column in single and wide tables, the rows of one item name in the value
-/// column of a long table, a row in an across table.
+/// message: a value column in single and wide tables, the rows of one item in the value column
+/// of a long table (grouped as that layout groups them), a row in an across table.
 fn items_values(plan: &Plan, rows: &[&Record]) -> Vec<(Vec<(usize, usize)>, &'static str)> {
     match plan.layout {
         Layout::Single | Layout::Wide => plan
@@ -192,16 +192,9 @@ fn items_values(plan: &Plan, rows: &[&Record]) -> Vec<(Vec<(usize, usize)>, &'st
             let mut order: Vec<String> = Vec::new();
             let mut groups: HashMap<String, Vec<(usize, usize)>> = HashMap::new();
             for (i, row) in rows.iter().enumerate() {
-                let name: Vec<String> = plan
-                    .item_columns
-                    .iter()
-                    .map(|&c| {
-                        row.cells
-                            .get(c)
-                            .map_or(String::new(), |t| t.trim().to_lowercase())
-                    })
-                    .collect();
-                let key = name.join("\u{1f}");
+                let Some(key) = long::item_key(row, &plan.item_columns) else {
+                    continue;
+                };
                 groups
                     .entry(key.clone())
                     .or_insert_with(|| {

@@ -134,9 +134,9 @@ pub(crate) fn decide_mark(tally: Tally, delimiter: Delimiter) -> (DecimalMark, O
 /// comma-delimited file read with a decimal dot, those like "1.050" (not "0.050") whose dot
 /// reading is a hundredth or less of the item's other values, while their thousands reading
 /// (1050) is of the same size as those values, among cells that write no other decimals:
-/// most likely a thousands dot, a thousand times too small as read. With their index, the value read and the median size of the other values
-/// (at least three non-zero whole numbers are needed). Our choice: a hundred times; "the
-/// same size", within ten times.
+/// most likely a thousands dot, a thousand times too small as read. With their index, the
+/// value read and the median size of the other values (at least three non-zero whole numbers
+/// are needed). Our choice: a hundred times; "the same size", within ten times.
 pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {
     let kinds: Vec<Evidence> = cells.iter().map(|c| evidence(c)).collect();
     // A column that writes decimals elsewhere may mean "504.273" as written.

@@ -985,16 +985,12 @@ fn unplaced_numbers(table: &Table, rows: &[&Record], j: usize) -> RowError {
 /// order ("01.2024", "02.2024", ...) under a header that names no period Intake knows
 /// ("Fiscal week", "Zeitraum"): read as numbers, they had been planned as an item, silently.
 fn dotted_labels_unnamed(table: &Table, rows: &[&Record], j: usize) -> RowError {
-    let cells = table.column(j, rows);
-    let at = cells.iter().position(|c| !c.is_empty()).unwrap_or(0);
     RowError {
-        row: rows.get(at).map_or(1, |r| r.line),
-        column: table.column_name(j),
-        text: cells.get(at).copied().unwrap_or("").to_string(),
         message: "expected quantities; this column's cells read as periods written month.year \
                   or week.year (01.2024) in time order, not as quantities: name the column \
                   Month or Week, or write the periods as 2024-01 or 2024-W01"
             .to_string(),
+        ..without_years(table, rows, j)
     }
 }
 

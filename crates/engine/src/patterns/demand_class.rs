@@ -156,7 +156,7 @@ pub fn classify_demand(values: &[f64]) -> DemandVerdict {
 /// days' share on one open day: a review found a reorder point 24 % high). 1 where the path
 /// has no shut or no open step, or nothing above 0 on its open steps. `shut` is asked of each
 /// step's index.
-pub fn open_share_factor(values: &[f64], cycle: usize, shut: impl Fn(usize) -> bool) -> f64 {
+fn open_share_factor(values: &[f64], cycle: usize, shut: impl Fn(usize) -> bool) -> f64 {
     let mean = |at_shut: bool| {
         let on: Vec<f64> = values
             .iter()
@@ -172,6 +172,20 @@ pub fn open_share_factor(values: &[f64], cycle: usize, shut: impl Fn(usize) -> b
             1.0 + places as f64 * at_shut.max(0.0) / ((cycle - places) as f64 * open)
         }
         _ => 1.0,
+    }
+}
+
+/// A forecast path as the plan makes it at shut places ([`shut_places`]): 0 there, and what
+/// the method put there given to the open steps in proportion ([`open_share_factor`]). The
+/// one rule for the plan's forecast, the Backtest ranking's holdout forecasts and the rolling
+/// origins' errors. `shut` is asked of each step's index from 0.
+pub fn forecast_at_shut_places(path: &mut [f64], cycle: usize, shut: impl Fn(usize) -> bool) {
+    if !(0..path.len()).any(&shut) {
+        return;
+    }
+    let factor = open_share_factor(path, cycle, &shut);
+    for (k, f) in path.iter_mut().enumerate() {
+        *f = if shut(k) { 0.0 } else { *f * factor };
     }
 }
 

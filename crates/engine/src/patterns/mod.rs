@@ -14,7 +14,7 @@ crate::internal_modules!(acf, demand_class, season, trend);
 
 pub use acf::autocorrelation;
 pub use demand_class::{
-    classify_demand, classify_open_demand, open_share_factor, shut_places, DemandClass,
+    classify_demand, classify_open_demand, forecast_at_shut_places, shut_places, DemandClass,
     DemandVerdict, ADI_CUTOFF, CV2_CUTOFF,
 };
 pub use season::{

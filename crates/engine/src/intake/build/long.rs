@@ -55,21 +55,10 @@ impl<'a> Builder<'a> {
         let mut items: HashMap<String, LongItem<'a>> = HashMap::new();
         let mut unread: HashSet<usize> = HashSet::new();
         for (k, row) in kept.iter().enumerate() {
-            // A "no value" marker names no item.
-            let filled: Vec<usize> = item_columns
-                .iter()
-                .copied()
-                .filter(|j| row.cells.get(*j).is_some_and(|c| !is_missing(c)))
-                .collect();
-            if filled.is_empty() {
+            let Some((filled, name)) = item_name(row, &item_columns) else {
                 self.no_item_name(row, &item_columns);
                 continue;
-            }
-            let name = filled
-                .iter()
-                .map(|j| row.cells[*j].as_str())
-                .collect::<Vec<_>>()
-                .join(" / ");
+            };
             let written = filled
                 .iter()
                 .map(|j| row.as_written(*j))
@@ -166,31 +155,24 @@ impl<'a> Builder<'a> {
                 }
             }
             // A period with a row that could not be read has no known total.
-            for m in merged.iter_mut() {
-                if m.2.iter().any(|r| unread.contains(&r.line)) {
-                    m.1 = None;
-                }
+            let unreadable = |rows: &[&Record]| rows.iter().any(|r| unread.contains(&r.line));
+            for m in merged.iter_mut().filter(|m| unreadable(&m.2)) {
+                m.1 = None;
             }
             // An item with no readable quantity but the errors: they say it.
-            let any_unread = merged
-                .iter()
-                .any(|m| m.2.iter().any(|r| unread.contains(&r.line)));
-            if any_unread && merged.iter().all(|m| m.1.is_none()) {
+            if merged.iter().any(|m| unreadable(&m.2)) && merged.iter().all(|m| m.1.is_none()) {
                 continue;
             }
             // Periods whose rows hold only empty quantity cells: gaps, named as the other
             // layouts name them.
             let (mut blank, mut blank_cells) = (Vec::new(), 0);
-            for (period, _, rows) in merged
-                .iter()
-                .filter(|m| m.1.is_none() && !m.2.iter().any(|r| unread.contains(&r.line)))
-            {
+            for (period, _, rows) in merged.iter().filter(|m| m.1.is_none() && !unreadable(&m.2)) {
                 blank.push(period.to_string());
                 blank_cells += rows.len();
             }
             for (period, value, rows) in merged
                 .iter_mut()
-                .filter(|m| m.2.len() > 1 && !m.2.iter().any(|r| unread.contains(&r.line)))
+                .filter(|m| m.2.len() > 1 && !unreadable(&m.2))
             {
                 let numbers: Vec<usize> = rows.iter().map(|r| r.line).collect();
                 let total = value.map_or("no value".to_string(), |v| v.to_string());
@@ -409,6 +391,28 @@ impl<'a> Builder<'a> {
 }
 
 /// An item's name in column `j` (from its first row), its white space runs as one space.
+/// The item columns that name `row`'s item (a "no value" marker names nothing) and the name
+/// they make; `None` when none does.
+fn item_name(row: &Record, item_columns: &[usize]) -> Option<(Vec<usize>, String)> {
+    let filled: Vec<usize> = item_columns
+        .iter()
+        .copied()
+        .filter(|j| row.cells.get(*j).is_some_and(|c| !is_missing(c)))
+        .collect();
+    let name = filled
+        .iter()
+        .map(|j| row.cells[*j].as_str())
+        .collect::<Vec<_>>()
+        .join(" / ");
+    (!filled.is_empty()).then_some((filled, name))
+}
+
+/// The key that makes `row` one item with the rows of the same name, white space and case
+/// aside, as the long layout reads it; `None` for a row that names no item.
+pub(super) fn item_key(row: &Record, item_columns: &[usize]) -> Option<String> {
+    item_name(row, item_columns).map(|(_, name)| name_key(&name))
+}
+
 fn group_name(item: &LongItem<'_>, j: usize) -> String {
     let cell = item.rows[0].2.cells.get(j).map_or("", String::as_str);
     cell.split_whitespace().collect::<Vec<_>>().join(" ")
