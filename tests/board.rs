@@ -3,12 +3,14 @@
 //! `order::plan_order`, behind both); sorting and filtering on constructed rows.
 
 use morrowcast_app::page::board::{
-    order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange, SortKey, ORDER_PLAN_COLUMNS,
+    look_back_cell, look_back_misses, order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange,
+    SortKey, ORDER_PLAN_COLUMNS,
 };
 use morrowcast_app::worker::{answer_board, BoardAsk, BoardItem, BoardRow};
 use morrowcast_engine::alerts::{Alert, AlertKind};
 use morrowcast_engine::intake::StockRow;
 use morrowcast_engine::intake::{self, read_stock_table};
+use morrowcast_engine::lookback::{LookBack, LookBackStep, StockCheck};
 use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
@@ -37,6 +39,7 @@ fn board_rows(text: &str, stock: &StockText, table: Option<&str>) -> Vec<BoardRo
         settings: PlanSettings::default(),
         stock: stock.clone(),
         table_given: table.is_some(),
+        look_back: 0,
         items,
     })
 }
@@ -331,6 +334,7 @@ fn an_items_own_settings_plan_it() {
         settings: PlanSettings::default(),
         stock: StockText::default(),
         table_given: false,
+        look_back: 0,
         items: vec![BoardItem {
             index: 0,
             series: item.series().unwrap(),
@@ -342,5 +346,83 @@ fn an_items_own_settings_plan_it() {
     assert_eq!(
         (f.method.as_str(), f.season),
         ("Simple exponential smoothing", None)
+    );
+}
+
+/// The Look-back's cell for a made-up item: periods since as (forecast, low, high, sold), the
+/// stock check; the text the board shows and the misses it sorts by.
+fn check_look_back(since: &[(f64, f64, f64, Option<f64>)], stock: StockCheck, want: (&str, usize)) {
+    use morrowcast_engine::bands::{BandPoint, Level};
+    use morrowcast_engine::calendar::Period;
+    let l = LookBack {
+        name: "Oak tray".into(),
+        made_after: Period::month(2026, 9),
+        method: "Theta".into(),
+        level: Level::try_from(95.0).unwrap(),
+        steps: since
+            .iter()
+            .enumerate()
+            .map(|(i, &(value, low, high, actual))| LookBackStep {
+                period: Period::month(2026, 10 + i as u32),
+                band: BandPoint { value, low, high },
+                actual,
+            })
+            .collect(),
+        stock,
+    };
+    assert_eq!((look_back_cell(&l).as_str(), look_back_misses(&l)), want);
+}
+
+#[test]
+fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
+    let checked = |level: f64, demand: f64| StockCheck::Checked {
+        periods: 1,
+        periodic: false,
+        level,
+        expected: 70.5,
+        demand,
+        promised: 0.95,
+    };
+    check_look_back(
+        &[(70.54, 59.08, 82.0, Some(81.0))],
+        checked(79.83, 81.0),
+        (
+            "sold 81 against 70.5 (59.1–82): within; stock level short by 1.2",
+            1,
+        ),
+    );
+    check_look_back(
+        &[(70.54, 59.08, 82.0, Some(50.0))],
+        checked(79.83, 50.0),
+        (
+            "sold 50 against 70.5 (59.1–82): below the band; stock level held",
+            1,
+        ),
+    );
+    check_look_back(
+        &[(10.0, 5.0, 15.0, Some(16.0)), (10.0, 4.0, 16.0, Some(12.0))],
+        StockCheck::TooSoon {
+            periods: 3,
+            passed: 2,
+        },
+        (
+            "sold 28 against 20 over 2 periods; 1 of 2 within the band; stock level not judged \
+             before 3 periods",
+            1,
+        ),
+    );
+    check_look_back(
+        &[(10.0, 5.0, 15.0, None)],
+        StockCheck::Gap { periods: 1 },
+        ("no sales known since; stock level not judged (a gap)", 0),
+    );
+    check_look_back(
+        &[(10.0, 5.0, 15.0, Some(3.0)), (10.0, 5.0, 15.0, None)],
+        StockCheck::NoFigures("too few origins".into()),
+        (
+            "sold 3 against 10 over 1 period with sales known; 0 of 1 within the band; no Stock \
+             plan then",
+            1,
+        ),
     );
 }

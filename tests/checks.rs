@@ -16,6 +16,7 @@ mod cli_stock;
 mod e2e;
 mod intake;
 mod intermittent_choice;
+mod lookback;
 mod methods;
 mod order;
 mod patterns;

@@ -12,22 +12,9 @@
 use morrowcast_engine::plan::plan_item;
 use morrowcast_engine::settings::{Choice, PlanSettings};
 
-use crate::support::{csv_column, monthly};
+use crate::support::{csv_column, monthly, SplitMix};
 
 const HELD_OUT: usize = 12;
-
-/// SplitMix64 (Steele, Lea & Flood 2014), for seeded series.
-struct SplitMix(u64);
-
-impl SplitMix {
-    fn next_f64(&mut self) -> f64 {
-        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        ((z ^ (z >> 31)) >> 11) as f64 / (1u64 << 53) as f64
-    }
-}
 
 fn made_up(count: usize) -> Vec<Vec<f64>> {
     let mut rng = SplitMix(2026);

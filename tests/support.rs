@@ -63,6 +63,27 @@ pub fn assert_all_close(what: &str, got: &[f64], want: &[f64], tol: f64) {
     }
 }
 
+/// SplitMix64 (Steele, Lea & Flood 2014), for seeded series of our own making.
+pub struct SplitMix(pub u64);
+
+impl SplitMix {
+    /// Uniform on [0, 1).
+    pub fn next_f64(&mut self) -> f64 {
+        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        ((z ^ (z >> 31)) >> 11) as f64 / (1u64 << 53) as f64
+    }
+
+    /// Standard normal, by the Box-Muller transform (Box & Muller 1958).
+    pub fn normal(&mut self) -> f64 {
+        let u = 1.0 - self.next_f64();
+        let v = self.next_f64();
+        (-2.0 * u.ln()).sqrt() * (std::f64::consts::TAU * v).cos()
+    }
+}
+
 /// A monthly series from January 2021 named "Test item" (gaps as `None`).
 pub fn monthly(values: Vec<Option<f64>>) -> Series {
     Series::new("Test item", Period::month(2021, 1), values).unwrap()

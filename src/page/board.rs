@@ -7,6 +7,7 @@
 use std::cmp::Ordering;
 
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
 use morrowcast_engine::stock::Target;
 
 use crate::worker::{BoardFigures, BoardRow};
@@ -44,6 +45,9 @@ pub enum SortKey {
     Level,
     Order,
     Alerts,
+    /// The Look-back's column (shown only while one is asked for): periods outside the band,
+    /// and a stock level that fell short counted as one more.
+    LookBack,
 }
 
 /// A column of the board: its heading, its sort key, whether it holds numbers.
@@ -95,6 +99,10 @@ fn number(f: &BoardFigures, key: SortKey) -> Option<f64> {
         SortKey::Level => Some(f.level_units),
         SortKey::Order => f.suggested_order,
         SortKey::Alerts => Some(f.alerts.len() as f64),
+        SortKey::LookBack => match &f.look_back {
+            Some(Ok(l)) => Some(look_back_misses(l) as f64),
+            _ => None,
+        },
         _ => None,
     }
     .filter(|v| v.is_finite())
@@ -352,3 +360,92 @@ pub const ORDER_PLAN_COLUMNS: [&str; 35] = [
     "changed_on_board",
     "problem",
 ];
+
+/// The Look-back column's heading (numeric: it sorts by its misses, the most first; its
+/// words are left-aligned all the same).
+pub const LOOK_BACK_COLUMN: Column = col(SortKey::LookBack, "Look-back", true);
+
+/// How often an item's plan of then missed: periods outside the band, plus one when the stock
+/// level fell short (what the Look-back column sorts by).
+pub fn look_back_misses(l: &LookBack) -> usize {
+    let known = l.known().count();
+    known - l.within() + usize::from(l.stock.covered() == Some(false))
+}
+
+/// The Look-back column's cell: what sold against the forecast and band of then, and whether
+/// the stock level held.
+pub fn look_back_cell(l: &LookBack) -> String {
+    let (forecast, sold) = l.totals();
+    let known = l.known().count();
+    let sales = match (l.steps.as_slice(), known) {
+        ([step], 1) => format!(
+            "sold {} against {} ({}–{}): {}",
+            units(sold),
+            units(forecast),
+            units(step.band.low),
+            units(step.band.high),
+            match step.actual {
+                Some(d) if d < step.band.low => "below the band",
+                Some(d) if d > step.band.high => "above the band",
+                _ => "within",
+            }
+        ),
+        (_, 0) => "no sales known since".to_string(),
+        (_, _) => format!(
+            "sold {} against {} over {}{}; {} of {} within the band",
+            units(sold),
+            units(forecast),
+            if known == 1 {
+                "1 period".to_string()
+            } else {
+                format!("{known} periods")
+            },
+            if known < l.steps.len() {
+                " with sales known"
+            } else {
+                ""
+            },
+            l.within(),
+            known
+        ),
+    };
+    let stock = match &l.stock {
+        StockCheck::Checked { level, demand, .. } if demand <= level => "stock level held".into(),
+        StockCheck::Checked { level, demand, .. } => {
+            format!("stock level short by {}", units(demand - level))
+        }
+        StockCheck::TooSoon { periods, .. } => {
+            format!("stock level not judged before {periods} periods")
+        }
+        StockCheck::NoInterval => "no lead time to judge".into(),
+        StockCheck::Gap { .. } => "stock level not judged (a gap)".into(),
+        StockCheck::NoFigures(_) => "no Stock plan then".into(),
+    };
+    format!("{sales}; {stock}")
+}
+
+/// Units as the board shows them: whole from 100 up or when whole, else one decimal.
+pub fn units(v: f64) -> String {
+    if !v.is_finite() {
+        "–".into()
+    } else if v.abs() >= 100.0 || v.fract() == 0.0 {
+        format!("{v:.0}")
+    } else {
+        format!("{v:.1}")
+    }
+}
+
+/// The Look-back of every row that has one, counted.
+pub fn look_back_tally(rows: &[Option<BoardRow>]) -> LookBackTally {
+    let mut tally = LookBackTally::default();
+    for row in rows.iter().flatten() {
+        if let Ok(BoardFigures {
+            look_back: Some(Ok(l)),
+            ..
+        }) = &row.figures
+        {
+            tally.add(l);
+        }
+    }
+    tally
+}

@@ -12,23 +12,14 @@ use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
 use super::board::{
-    order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange, SortKey, COLUMNS, ROWS_SHOWN,
+    look_back_cell, look_back_tally, order_plan_csv, sort_rows, units, AlertFilter, Filter,
+    ItemChange, SortKey, COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
 };
 use super::browser;
 use super::export::file_name;
 use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
-
-fn units(v: f64) -> String {
-    if !v.is_finite() {
-        "–".into()
-    } else if v.abs() >= 100.0 || v.fract() == 0.0 {
-        format!("{v:.0}")
-    } else {
-        format!("{v:.1}")
-    }
-}
 
 fn periods(n: usize) -> String {
     if n == 1 {
@@ -83,6 +74,11 @@ fn cell(f: &BoardFigures, key: SortKey) -> String {
         ),
         SortKey::Order => f.suggested_order.map_or("needs on hand".into(), units),
         SortKey::Alerts => f.alerts.len().to_string(),
+        SortKey::LookBack => match &f.look_back {
+            Some(Ok(l)) => look_back_cell(l),
+            Some(Err(why)) => why.clone(),
+            None => String::new(),
+        },
         SortKey::File | SortKey::Name => String::new(),
     }
 }
@@ -145,7 +141,7 @@ pub fn ItemBoard() -> impl IntoView {
             _ => "none",
         };
         view! {
-            <th scope="col" class:num=numeric aria-sort=aria>
+            <th scope="col" class:num={numeric && key != SortKey::LookBack} aria-sort=aria>
                 <button type="button" class="sort" on:click=move |_| sort.update(|s| {
                     *s = if s.0 == key { (key, !s.1) } else { (key, numeric) };
                 })>
@@ -208,6 +204,7 @@ pub fn ItemBoard() -> impl IntoView {
                 </button>
                 <button type="button" id="print-board" on:click=print>"Print the board"</button>
             </div>
+            <LookBackTools/>
             <p class="board-count" id="board-count">{move || {
                 let n = visible.with(Vec::len);
                 let of = board.rows.with(|r| r.iter().flatten().count());
@@ -218,6 +215,8 @@ pub fn ItemBoard() -> impl IntoView {
                     <thead>
                         <tr>
                             {header(SortKey::Name, "Item", false)}
+                            // Asked for, the Look-back comes first: it is what the user came to see.
+                            {move || (board.look_back.get() > 0).then(|| header(LOOK_BACK_COLUMN.key, LOOK_BACK_COLUMN.title, LOOK_BACK_COLUMN.numeric))}
                             {COLUMNS.iter().map(|c| header(c.key, c.title, c.numeric)).collect_view()}
                         </tr>
                     </thead>
@@ -241,7 +240,10 @@ pub fn ItemBoard() -> impl IntoView {
                                             {changed.then(|| view! { <span class="changed-mark" title="changed on the board">" (changed)"</span> })}
                                         </th>
                                         {match &row.figures {
-                                            Ok(f) => COLUMNS.iter().map(|c| {
+                                            Ok(f) => f.look_back.as_ref().map(|l| {
+                                                let missed = l.as_ref().map_or(true, |l| super::board::look_back_misses(l) > 0);
+                                                view! { <td class="look-back" class:missed=missed>{cell(f, SortKey::LookBack)}</td> }.into_any()
+                                            }).into_iter().chain(COLUMNS.iter().map(|c| {
                                                 let text = cell(f, c.key);
                                                 let beyond = c.key == SortKey::Tracking && f.tracking_beyond;
                                                 if c.key == SortKey::Alerts {
@@ -253,8 +255,8 @@ pub fn ItemBoard() -> impl IntoView {
                                                     let title = (c.key == SortKey::Method).then(|| f.method.clone());
                                                     view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()
                                                 }
-                                            }).collect_view().into_any(),
-                                            Err(e) => view! { <td class="problem" colspan=COLUMNS.len().to_string()>{e.clone()}</td> }.into_any(),
+                                            })).collect_view().into_any(),
+                                            Err(e) => view! { <td class="problem" colspan=(COLUMNS.len() + usize::from(board.look_back.get_untracked() > 0)).to_string()>{e.clone()}</td> }.into_any(),
                                         }}
                                     </tr>
                                 }.into_any()
@@ -271,6 +273,76 @@ pub fn ItemBoard() -> impl IntoView {
         </section>
     }
 }
+
+/// The Look-back's control and, while one is asked for, its counts over every item: the plan
+/// of some periods ago against what sold since.
+#[component]
+fn LookBackTools() -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let typed = RwSignal::new(String::from("0"));
+    let problem = RwSignal::new(None::<String>);
+    let set = move |text: String| {
+        typed.set(text.clone());
+        match text.trim().parse::<usize>() {
+            Ok(n) if n <= MAX_LOOK_BACK => {
+                problem.set(None);
+                board.look_back.set(n);
+            }
+            _ => problem.set(Some(format!(
+                "Look back a whole number of periods from 0 (none) to {MAX_LOOK_BACK}; found \"{}\".",
+                text.trim()
+            ))),
+        }
+    };
+    let summary = move || {
+        let back = board.look_back.get();
+        if back == 0 {
+            return None;
+        }
+        let tally = board.rows.with(|rows| look_back_tally(rows));
+        let share = |x: Option<f64>| x.map_or("–".to_string(), percent);
+        let mut words = format!(
+            "The plan of {} ago, set against what sold since, for {} items: {} of {} periods \
+             within their band ({}).",
+            periods(back),
+            tally.items,
+            tally.within,
+            tally.periods,
+            share(tally.within_share())
+        );
+        if tally.stock_checked > 0 {
+            words.push_str(&format!(
+                " The stock level covered the demand over the protection interval for {} of {} \
+                 items ({}; set for {} on average).",
+                tally.covered,
+                tally.stock_checked,
+                share(tally.covered_share()),
+                share(tally.promised())
+            ));
+        } else if tally.items > 0 {
+            words.push_str(" No stock level can be judged yet: look back over at least the protection interval.");
+        }
+        Some(words)
+    };
+    view! {
+        <div class="look-back-tools">
+            <div class="field inline">
+                <label for="board-look-back">"How the plan did: look back"</label>
+                <input id="board-look-back" type="number" min="0" max=MAX_LOOK_BACK.to_string() step="1"
+                    inputmode="numeric" aria-describedby="board-look-back-help"
+                    prop:value=move || typed.get()
+                    on:change=move |ev| set(event_target_value(&ev))/>
+                <span id="board-look-back-help" class="hint">"periods (0: off; the board then plans every item twice)"</span>
+            </div>
+            {move || problem.get().map(|p| view! { <p class="problem" role="alert">{p}</p> })}
+            {move || summary().map(|s| view! { <p class="look-back-summary" id="board-look-back-summary" role="status">{s}</p> })}
+        </div>
+    }
+}
+
+/// The most periods the Look-back looks back over (our choice: two years of months; further
+/// back than that the plan of then is no longer the question).
+const MAX_LOOK_BACK: usize = 24;
 
 /// A text field of the stock settings.
 #[component]

@@ -1,6 +1,7 @@
 //! The Item board's work in the worker: a batch of items planned with their Stock plans
 //! ([`morrowcast_engine::order::plan_order`], as the command line's `stock`), each boiled down
-//! to the row the board shows and the order plan exports.
+//! to the row the board shows and the order plan exports; with the Look-back asked for, the
+//! plan of some periods ago against what sold since too (as the command line's `look-back`).
 //!
 //! Kept apart from: the page (it only shows rows) and the one-item detail (desk.rs keeps the
 //! whole plan; a board row holds only what a row shows, so a file of 10,000 items fits).
@@ -10,6 +11,7 @@ use serde::{Deserialize, Serialize};
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::backtest::Candidate;
 use morrowcast_engine::intake::StockRow;
+use morrowcast_engine::lookback::{look_back, LookBack};
 use morrowcast_engine::order::{plan_order, ItemOrder};
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
@@ -38,6 +40,9 @@ pub struct BoardAsk {
     pub stock: StockText,
     /// Whether a stock table was given (an item without a row then gets a note).
     pub table_given: bool,
+    /// Periods to look back over (the Look-back: the plan of then against what sold since);
+    /// 0: none.
+    pub look_back: usize,
     pub items: Vec<BoardItem>,
 }
 
@@ -90,6 +95,8 @@ pub struct BoardFigures {
     pub alerts: Vec<Alert>,
     /// The Stock plan's notes.
     pub notes: Vec<String>,
+    /// The Look-back, when asked for: the plan of then against what sold, or why there is none.
+    pub look_back: Option<Result<LookBack, String>>,
 }
 
 /// One row of the board: an item and its figures, or why it has none.
@@ -150,6 +157,7 @@ impl BoardFigures {
             fill_rate: f.fill_rate,
             alerts: order.alerts.clone(),
             notes: stock.notes.clone(),
+            look_back: None,
         }
     }
 }
@@ -166,15 +174,30 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                     .map(|e| e.message.as_str())
                     .collect::<Vec<_>>()
                     .join("; ")),
-                Ok(defaults) => plan_order(
-                    &item.series,
-                    item.settings.as_ref().unwrap_or(&ask.settings),
-                    defaults,
-                    item.row.as_ref(),
-                    ask.table_given,
-                )
-                .map(|order| BoardFigures::new(&order))
-                .map_err(|e| e.to_string()),
+                Ok(defaults) => {
+                    let settings = item.settings.as_ref().unwrap_or(&ask.settings);
+                    plan_order(
+                        &item.series,
+                        settings,
+                        defaults,
+                        item.row.as_ref(),
+                        ask.table_given,
+                    )
+                    .map(|order| BoardFigures {
+                        look_back: (ask.look_back > 0).then(|| {
+                            look_back(
+                                &item.series,
+                                settings,
+                                defaults,
+                                item.row.as_ref(),
+                                ask.look_back,
+                            )
+                            .map_err(|e| e.to_string())
+                        }),
+                        ..BoardFigures::new(&order)
+                    })
+                    .map_err(|e| e.to_string())
+                }
             };
             BoardRow {
                 index: item.index,

@@ -24,6 +24,7 @@ mod engine_match;
 mod faults;
 mod firefox;
 mod keep;
+mod look_back;
 mod pick;
 mod progress;
 mod recompute;

@@ -24,6 +24,7 @@ usage:
   morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
                    [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
                    [forecast options] [--json]
+  morrowcast look-back FILE [--periods N] [stock options] [forecast options] [--json]
   morrowcast link FILE [--item NAME] [--page ADDRESS] [stock options] [forecast options]
   morrowcast work FILE [--item NAME] [stock options] [forecast options]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
@@ -41,7 +42,10 @@ continuous review; none leaves it, --lead-time-sd or --order-quantity out, a wor
 (0.95) or a percent (95). --stock TABLE: a table with a header and a row per item: item, on
 hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
 quantity, order multiple, minimum order (each overrides the options for its item). Stock figures
-are estimates from past demand: your own policies, supplier terms and judgement decide the order.",
+are estimates from past demand: your own policies, supplier terms and judgement decide the order.
+look-back: the plan of N periods ago (default 1; the history without its last N periods, the same
+settings) against what sold since: each period's forecast and band, and whether the reorder point
+(or order-up-to level) covered the demand over its protection interval once that has passed.",
         Setting::Horizon.allowed(),
         Setting::Holdout.allowed(),
         Setting::Season.allowed(),
@@ -62,6 +66,7 @@ pub enum Command {
     },
     Forecast(ForecastArgs),
     Stock(StockArgs),
+    LookBack(LookBackArgs),
     /// `link` (a share link) or `work` (a work file).
     Link(LinkArgs),
 }
@@ -71,6 +76,13 @@ pub enum Command {
 pub enum Written {
     Link,
     WorkFile,
+}
+
+pub struct LookBackArgs {
+    /// Periods to look back over.
+    pub periods: usize,
+    /// FILE, the items, the settings and stock inputs.
+    pub stock: StockArgs,
 }
 
 pub struct LinkArgs {
@@ -212,6 +224,7 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
         "forecast" => parse_forecast(rest).map(Command::Forecast),
         "stock" => parse_stock("stock", rest, &mut |_, _| Ok(false)).map(Command::Stock),
         "link" | "work" => parse_link(sub, rest).map(Command::Link),
+        "look-back" => parse_look_back(rest).map(Command::LookBack),
         other => Err(format!("unknown command \"{other}\"")),
     }
 }
@@ -225,6 +238,30 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
         leave_out: parsed.leave_out,
         settings: parsed.settings,
         typed: parsed.typed,
+    })
+}
+
+fn parse_look_back(rest: &[String]) -> Result<LookBackArgs, String> {
+    let mut periods = None;
+    let stock = parse_stock("look-back", rest, &mut |flag, value| {
+        if flag != "--periods" {
+            return Ok(false);
+        }
+        periods = Some(
+            value
+                .trim()
+                .parse::<usize>()
+                .ok()
+                .filter(|n| *n > 0)
+                .ok_or(format!(
+                    "--periods takes a whole number of periods, at least 1; found \"{value}\""
+                ))?,
+        );
+        Ok(true)
+    })?;
+    Ok(LookBackArgs {
+        periods: periods.unwrap_or(1),
+        stock,
     })
 }
 

@@ -20,6 +20,7 @@ pub mod wire;
 use std::cell::{Cell, RefCell};
 use std::io::{Read, Write};
 
+use morrowcast_engine::lookback::{self, LookBackTally};
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::StockSettings;
 use morrowcast_engine::{demo, intake, order, plan, series};
@@ -27,9 +28,10 @@ use morrowcast_work::{SourcedText, Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAI
 
 use input::{read_any, source_name, stock_inputs, Input, Table};
 
-use args::{Command, ForecastArgs, LinkArgs, StockArgs, Written};
+use args::{Command, ForecastArgs, LinkArgs, LookBackArgs, StockArgs, Written};
 use wire::{
-    FailedJson, ForecastJson, InspectJson, PlanJson, StockItemJson, StockTableJson, Streamed,
+    FailedJson, ForecastJson, InspectJson, Later, LookBackJson, LookBackTallyJson, PlanJson,
+    StockItemJson, StockTableJson, Streamed,
 };
 
 /// Runs one command line. `argv` excludes the program name. Writes results to `stdout` and
@@ -82,6 +84,16 @@ pub fn run(
                 table.as_ref(),
                 (&settings, &stock_settings),
                 &sa,
+            ),
+            Err(message) => console.fail_input(&message),
+        },
+        Command::LookBack(la) => match stock_inputs(&la.stock, stdin) {
+            Ok((input, table, settings, stock_settings)) => look_back(
+                &mut console,
+                &input,
+                table.as_ref(),
+                (&settings, &stock_settings),
+                &la,
             ),
             Err(message) => console.fail_input(&message),
         },
@@ -230,6 +242,7 @@ fn forecast(
         json: fa.json,
         header: None,
         warnings: Vec::new(),
+        closing: None,
     };
     run.go(
         console,
@@ -252,32 +265,16 @@ fn stock(
 ) -> u8 {
     let report = input.report();
     let table = table.map(|(t, _)| t);
-    let mut warnings = Vec::new();
-    if let Some(table) = table {
-        if !table.errors.is_empty() {
-            if sa.json {
-                console.json(&StockTableJson::from(table));
-            } else {
-                console.err(&table::stock_table_errors(table));
-            }
-            return 2;
-        }
-        warnings.extend(table.warnings.iter().cloned());
-        for row in &table.rows {
-            if !report.items.iter().any(|i| i.name == row.item) {
-                warnings.push(format!(
-                    "the stock table has a row for {}, which the history does not hold; it is \
-                     left out",
-                    table::quoted(&row.item)
-                ));
-            }
-        }
-    }
+    let warnings = match stock_table_warnings(console, report, table, sa.json) {
+        Ok(w) => w,
+        Err(code) => return code,
+    };
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
         header: Some(table::stock_header(stock_settings, table.is_some())),
         warnings,
+        closing: None,
     };
     run.go(
         console,
@@ -301,6 +298,96 @@ fn stock(
     )
 }
 
+/// A stock table's errors (written, and the exit code) or its warnings and the rows of items
+/// the history does not hold (`stock` and `look-back`).
+fn stock_table_warnings(
+    console: &mut Console<'_>,
+    report: &intake::IntakeReport,
+    table: Option<&intake::StockTable>,
+    json: bool,
+) -> Result<Vec<String>, u8> {
+    let mut warnings = Vec::new();
+    if let Some(table) = table {
+        if !table.errors.is_empty() {
+            if json {
+                console.json(&StockTableJson::from(table));
+            } else {
+                console.err(&table::stock_table_errors(table));
+            }
+            return Err(2);
+        }
+        warnings.extend(table.warnings.iter().cloned());
+        for row in &table.rows {
+            if !report.items.iter().any(|i| i.name == row.item) {
+                warnings.push(format!(
+                    "the stock table has a row for {}, which the history does not hold; it is \
+                     left out",
+                    table::quoted(&row.item)
+                ));
+            }
+        }
+    }
+    Ok(warnings)
+}
+
+/// `look-back`: the plan of N periods ago against what sold since, item by item, then the
+/// file's counts.
+fn look_back(
+    console: &mut Console<'_>,
+    input: &Input,
+    table: Option<&Table>,
+    (settings, stock_settings): (&PlanSettings, &StockSettings),
+    la: &LookBackArgs,
+) -> u8 {
+    let sa = &la.stock;
+    let report = input.report();
+    let table = table.map(|(t, _)| t);
+    let warnings = match stock_table_warnings(console, report, table, sa.json) {
+        Ok(w) => w,
+        Err(code) => return code,
+    };
+    let tally = RefCell::new(LookBackTally::default());
+    let closing = Closing {
+        text: Box::new(|| table::look_back_tally(&tally.borrow())),
+        json: Box::new(|| {
+            serde_json::to_value(LookBackTallyJson::from(&*tally.borrow()))
+                .unwrap_or(serde_json::Value::Null)
+        }),
+    };
+    let run = ItemRun {
+        names: &sa.items,
+        json: sa.json,
+        header: Some(table::look_back_header(la.periods)),
+        warnings,
+        closing: Some(closing),
+    };
+    run.go(
+        console,
+        report,
+        |s| {
+            let row = input.item_row(s.name(), table);
+            let own = input.item_settings(s.name(), settings);
+            let plan_settings = own.as_ref().unwrap_or(settings);
+            lookback::look_back(s, plan_settings, stock_settings, row.as_ref(), la.periods)
+                .map_err(|e| e.to_string())
+        },
+        |l| {
+            tally.borrow_mut().add(l);
+            LookBackJson::from(l)
+        },
+        |l| {
+            tally.borrow_mut().add(l);
+            table::look_back(l)
+        },
+    )
+}
+
+/// What `look-back` writes after its items: text and JSON of one summary.
+struct Closing<'a> {
+    text: Box<dyn Fn() -> String + 'a>,
+    json: Box<dyn Fn() -> serde_json::Value + 'a>,
+}
+
 /// What `forecast` and `stock` share: the items asked for, every core working on them, and
 /// the output in the file's order as JSON or text.
 struct ItemRun<'a> {
@@ -310,6 +397,8 @@ struct ItemRun<'a> {
     header: Option<String>,
     /// Said besides the history's own warnings.
     warnings: Vec<String>,
+    /// Written after the items.
+    closing: Option<Closing<'a>>,
 }
 
 impl ItemRun<'_> {
@@ -388,6 +477,10 @@ impl ItemRun<'_> {
                         .chain(&self.warnings)
                         .cloned()
                         .collect(),
+                    tally: self
+                        .closing
+                        .as_ref()
+                        .map(|c| Later(Box::new(|| (c.json)()))),
                 });
             } else {
                 for w in report.warnings.iter().chain(&self.warnings) {
@@ -398,6 +491,9 @@ impl ItemRun<'_> {
                 }
                 while let Some(r) = next() {
                     console.out(&to_text(&r));
+                }
+                if let Some(closing) = &self.closing {
+                    console.out(&(closing.text)());
                 }
                 for f in failed.borrow().iter() {
                     console.err(&format!(

@@ -4,6 +4,7 @@ use std::fmt::Write;
 
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::intake::IntakeReport;
+use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
 use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::stock;
 
@@ -302,5 +303,130 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
     for n in &st.notes {
         let _ = writeln!(s, "note: {}", clean(n));
     }
+    s
+}
+
+/// What `look-back` says before its items.
+pub fn look_back_header(periods: usize) -> String {
+    format!(
+        "Look-back: the plan of {periods} period(s) ago (the history without its last {periods} \
+         period(s), the same settings) against what sold since. Errors are forecast minus sold.\n\
+         These are estimates from past demand. Your own policies, supplier terms and judgement \
+         decide the order.\n"
+    )
+}
+
+/// One item's Look-back: each period since, then its stock check.
+pub fn look_back(l: &LookBack) -> String {
+    let mut s = String::new();
+    let _ = writeln!(s, "\n== {} ==", clean(&l.name));
+    let _ = writeln!(
+        s,
+        "plan made after {} ({}), {}% band",
+        l.made_after,
+        clean(&l.method),
+        l.level.percent()
+    );
+    let _ = writeln!(
+        s,
+        "  {:<12} {:>10} {:>10} {:>10} {:>10} {:>10}  within",
+        "period", "forecast", "low", "high", "sold", "error"
+    );
+    let number = |v: Option<f64>| v.map_or("gap".to_string(), |x| format!("{x:.2}"));
+    for step in &l.steps {
+        let _ = writeln!(
+            s,
+            "  {:<12} {:>10.2} {:>10.2} {:>10.2} {:>10} {:>10}  {}",
+            step.period.to_string(),
+            step.band.value,
+            step.band.low,
+            step.band.high,
+            number(step.actual),
+            number(step.error()),
+            match step.within() {
+                Some(true) => "yes",
+                Some(false) if step.actual < Some(step.band.low) => "no, below",
+                Some(false) => "no, above",
+                None => "-",
+            }
+        );
+    }
+    let (forecast, sold) = l.totals();
+    let _ = writeln!(
+        s,
+        "total: forecast {forecast:.2}, sold {sold:.2} (error {:.2}); {} of {} period(s) within \
+         the band",
+        forecast - sold,
+        l.within(),
+        l.known().count()
+    );
+    let _ = writeln!(s, "stock: {}", stock_check(&l.stock));
+    s
+}
+
+/// The stock check in words.
+fn stock_check(check: &StockCheck) -> String {
+    match check {
+        StockCheck::Checked {
+            periods,
+            periodic,
+            level,
+            expected,
+            demand,
+            promised,
+        } => {
+            let name = if *periodic {
+                "order-up-to level"
+            } else {
+                "reorder point"
+            };
+            let outcome = if demand <= level {
+                "covered".to_string()
+            } else {
+                format!("short by {:.2}", demand - level)
+            };
+            format!(
+                "{name} {level:.2} against a demand of {demand:.2} over the {periods} period(s) \
+                 after the plan: {outcome} (expected {expected:.2}; set for a cycle service \
+                 level of {:.1} %)",
+                100.0 * promised
+            )
+        }
+        StockCheck::TooSoon { periods, passed } => format!(
+            "not judged yet: the protection interval is {periods} period(s), {passed} have \
+             passed"
+        ),
+        StockCheck::NoInterval => {
+            "nothing to judge: no lead time under continuous review".to_string()
+        }
+        StockCheck::Gap { periods } => {
+            format!("not judged: a gap in the sales within the {periods} period(s) after the plan")
+        }
+        StockCheck::NoFigures(why) => format!("no Stock plan then: {}", clean(why)),
+    }
+}
+
+/// The file's Look-back in counts, after its items.
+pub fn look_back_tally(t: &LookBackTally) -> String {
+    let share = |x: Option<f64>| x.map_or("n/a".to_string(), |p| format!("{:.1} %", 100.0 * p));
+    let mut s = format!(
+        "\nLook-back over {} item(s): {} of {} period(s) within their band ({})",
+        t.items,
+        t.within,
+        t.periods,
+        share(t.within_share())
+    );
+    if t.stock_checked > 0 {
+        let _ = write!(
+            s,
+            "; the stock level covered the demand over the protection interval for {} of {} \
+             item(s) ({}; set for {} on average)",
+            t.covered,
+            t.stock_checked,
+            share(t.covered_share()),
+            share(t.promised())
+        );
+    }
+    s.push_str(".\n");
     s
 }

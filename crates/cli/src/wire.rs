@@ -10,6 +10,7 @@ use serde::Serialize;
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::backtest::{Candidate, Scored};
 use morrowcast_engine::intake::IntakeReport;
+use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
 use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::stock;
 
@@ -84,11 +85,30 @@ impl From<&morrowcast_engine::intake::RowError> for ErrorJson {
 /// [`FailedJson`]. Generic so the command line can write the plans while it makes them (see
 /// [`Streamed`]) instead of holding every plan of a large file in memory; the JSON is the same.
 #[derive(Serialize, Debug)]
-pub struct ForecastJson<Items: Serialize, Failed: Serialize> {
+pub struct ForecastJson<'a, Items: Serialize, Failed: Serialize> {
     pub items: Items,
     /// Items that could not be planned, with the reason.
     pub failed: Failed,
     pub warnings: Vec<String>,
+    /// `look-back` only: the file's counts ([`LookBackTallyJson`]), made once the items are
+    /// written.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub tally: Option<Later<'a>>,
+}
+
+/// A JSON value made when it is written (after the fields before it).
+pub struct Later<'a>(pub Box<dyn Fn() -> serde_json::Value + 'a>);
+
+impl Serialize for Later<'_> {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        (self.0)().serialize(serializer)
+    }
+}
+
+impl std::fmt::Debug for Later<'_> {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str("Later")
+    }
 }
 
 /// A JSON sequence whose elements are made one at a time while it is written: `next` gives
@@ -374,6 +394,162 @@ impl From<&morrowcast_engine::intake::StockTable> for StockTableJson {
         StockTableJson {
             stock_table_errors: t.errors.iter().map(ErrorJson::from).collect(),
             warnings: t.warnings.clone(),
+        }
+    }
+}
+
+/// One item of `morrowcast look-back --json`: the plan of some periods ago against what sold.
+#[derive(Serialize, Debug)]
+pub struct LookBackJson {
+    pub name: String,
+    /// The last period the plan saw.
+    pub made_after: String,
+    /// The method the plan chose then.
+    pub method: String,
+    /// The band level, in percent.
+    pub level: f64,
+    pub periods: Vec<LookBackPeriodJson>,
+    /// The forecast and what sold, summed over the periods whose sales are known.
+    pub forecast_total: f64,
+    pub sold_total: f64,
+    pub stock: StockCheckJson,
+}
+
+#[derive(Serialize, Debug)]
+pub struct LookBackPeriodJson {
+    pub period: String,
+    pub forecast: f64,
+    pub low: f64,
+    pub high: f64,
+    /// null: a gap in the data.
+    pub sold: Option<f64>,
+    /// Forecast minus sold.
+    pub error: Option<f64>,
+    pub within: Option<bool>,
+}
+
+/// The Stock plan of then against the demand since. `check` is "checked" (the other fields
+/// filled), "too_soon" (fewer periods have passed than P), "no_interval" (no lead time under
+/// continuous review), "gap" (a gap within P) or "no_figures" (`why` says why).
+#[derive(Serialize, Debug)]
+pub struct StockCheckJson {
+    pub check: &'static str,
+    pub protection_periods: Option<usize>,
+    pub reorder_point: Option<f64>,
+    pub order_up_to: Option<f64>,
+    pub expected: Option<f64>,
+    pub demand: Option<f64>,
+    pub covered: Option<bool>,
+    pub promised_cycle_service: Option<f64>,
+    pub why: Option<String>,
+}
+
+impl From<&LookBack> for LookBackJson {
+    fn from(l: &LookBack) -> Self {
+        let (forecast_total, sold_total) = l.totals();
+        LookBackJson {
+            name: l.name.clone(),
+            made_after: l.made_after.to_string(),
+            method: l.method.clone(),
+            level: l.level.percent(),
+            periods: l
+                .steps
+                .iter()
+                .map(|s| LookBackPeriodJson {
+                    period: s.period.to_string(),
+                    forecast: s.band.value,
+                    low: s.band.low,
+                    high: s.band.high,
+                    sold: s.actual,
+                    error: s.error(),
+                    within: s.within(),
+                })
+                .collect(),
+            forecast_total,
+            sold_total,
+            stock: StockCheckJson::from(&l.stock),
+        }
+    }
+}
+
+impl From<&StockCheck> for StockCheckJson {
+    fn from(c: &StockCheck) -> Self {
+        let mut out = StockCheckJson {
+            check: "",
+            protection_periods: None,
+            reorder_point: None,
+            order_up_to: None,
+            expected: None,
+            demand: None,
+            covered: c.covered(),
+            promised_cycle_service: None,
+            why: None,
+        };
+        match c {
+            StockCheck::Checked {
+                periods,
+                periodic,
+                level,
+                expected,
+                demand,
+                promised,
+            } => {
+                out.check = "checked";
+                out.protection_periods = Some(*periods);
+                if *periodic {
+                    out.order_up_to = Some(*level);
+                } else {
+                    out.reorder_point = Some(*level);
+                }
+                out.expected = Some(*expected);
+                out.demand = Some(*demand);
+                out.promised_cycle_service = Some(*promised);
+            }
+            StockCheck::TooSoon { periods, .. } => {
+                out.check = "too_soon";
+                out.protection_periods = Some(*periods);
+            }
+            StockCheck::NoInterval => out.check = "no_interval",
+            StockCheck::Gap { periods } => {
+                out.check = "gap";
+                out.protection_periods = Some(*periods);
+            }
+            StockCheck::NoFigures(why) => {
+                out.check = "no_figures";
+                out.why = Some(why.clone());
+            }
+        }
+        out
+    }
+}
+
+/// The whole file's Look-back in counts (`tally` of `morrowcast look-back --json`).
+#[derive(Serialize, Debug)]
+pub struct LookBackTallyJson {
+    pub items: usize,
+    /// Periods with known sales over every item, and how many lay within their band.
+    pub periods: usize,
+    pub within: usize,
+    pub within_share: Option<f64>,
+    /// Items whose protection interval has passed, and how many their level covered.
+    pub stock_checked: usize,
+    pub covered: usize,
+    pub covered_share: Option<f64>,
+    /// The mean cycle service level those levels promised.
+    pub promised_cycle_service: Option<f64>,
+}
+
+impl From<&LookBackTally> for LookBackTallyJson {
+    fn from(t: &LookBackTally) -> Self {
+        LookBackTallyJson {
+            items: t.items,
+            periods: t.periods,
+            within: t.within,
+            within_share: t.within_share(),
+            stock_checked: t.stock_checked,
+            covered: t.covered,
+            covered_share: t.covered_share(),
+            promised_cycle_service: t.promised(),
         }
     }
 }

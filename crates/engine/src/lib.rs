@@ -45,6 +45,7 @@ pub mod bands;
 pub mod calendar;
 pub mod demo;
 pub mod intake;
+pub mod lookback;
 pub mod methods;
 pub mod order;
 pub mod patterns;

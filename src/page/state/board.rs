@@ -35,6 +35,8 @@ pub struct BoardState {
     pub table_source: RwSignal<String>,
     /// The board's own changes per item name.
     pub changes: RwSignal<BTreeMap<String, ItemChange>>,
+    /// Periods the Look-back looks back over (0: no Look-back; it plans every item twice).
+    pub look_back: RwSignal<usize>,
     /// One place per item of the file, filled as rows come.
     pub rows: RwSignal<Vec<Option<BoardRow>>>,
     /// Items with a row, of `total`.
@@ -73,6 +75,7 @@ impl BoardState {
         let took_ms = RwSignal::new(None::<f64>);
         let workers = RwSignal::new(0usize);
         let worker_ms = RwSignal::new(0.0f64);
+        let look_back = RwSignal::new(0usize);
         let ticket = StoredValue::new(BOARD_TICKETS);
         let started = StoredValue::new(0.0f64);
         let pending = StoredValue::new(Vec::<BoardRow>::new());
@@ -146,6 +149,7 @@ impl BoardState {
                 let settings = plan.settings.get();
                 let stock_ok = stock_errors.with(Vec::is_empty);
                 let stock = stock_form.get();
+                let look_back = look_back.get();
                 let Ok(pool) = &pool else {
                     return;
                 };
@@ -218,6 +222,7 @@ impl BoardState {
                             settings: settings.clone(),
                             stock: stock.clone(),
                             table_given,
+                            look_back,
                             items: items.by_ref().take(BATCH).collect(),
                         });
                     }
@@ -249,6 +254,7 @@ impl BoardState {
             table_text,
             table,
             changes,
+            look_back,
             table_source,
             rows,
             planned,

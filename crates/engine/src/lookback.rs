@@ -1,0 +1,347 @@
+//! The Look-back: how the plan made some periods ago did against what sold since.
+//!
+//! The engine is deterministic, so the plan a planner saw `k` periods ago is the plan of the
+//! history without its last `k` periods, under the same settings ([`look_back`] makes it with
+//! [`plan_order`], the one rule behind the Item board and `morrowcast stock`). Each period since
+//! is set against that plan's forecast and band; the Stock plan's reorder point (or order-up-to
+//! level) against the demand over its protection interval, once that interval has passed: the
+//! held-out check of the figures an order was based on. [`LookBackTally`] counts a whole file.
+//!
+//! Kept apart from: how a plan and its figures are made (plan.rs, stock/, order.rs) and how the
+//! result is shown (the front ends). What stock was on hand then is not known (the stock table
+//! is today's), so the order of that day is not judged, only whether its level would have held.
+
+use std::fmt;
+
+use crate::bands::{BandPoint, Level};
+use crate::calendar::Period;
+use crate::intake::StockRow;
+use crate::order::{plan_order, OrderError};
+use crate::plan::{default_horizon, plan_item};
+use crate::series::Series;
+use crate::settings::{PlanSettings, SettingError};
+use crate::stock::{StockPlan, StockSettings};
+
+/// Why an item has no Look-back.
+#[derive(Clone, Debug, PartialEq)]
+pub enum LookBackError {
+    /// Looking back no periods compares nothing.
+    NoPeriods,
+    /// The history is not longer than the periods to look back over.
+    TooFewPeriods {
+        /// Periods asked for.
+        asked: usize,
+        /// Periods the history holds.
+        held: usize,
+    },
+    /// A horizon the user set is shorter than the periods to look back over.
+    HorizonShort {
+        /// The horizon set.
+        horizon: usize,
+        /// Periods asked for.
+        asked: usize,
+    },
+    /// The horizon could not be lengthened to the periods asked for.
+    Setting(SettingError),
+    /// The earlier history could not be planned.
+    Order(OrderError),
+}
+
+impl fmt::Display for LookBackError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            LookBackError::NoPeriods => {
+                write!(f, "look back at least 1 period: 0 periods compare nothing")
+            }
+            LookBackError::TooFewPeriods { asked, held } => write!(
+                f,
+                "looking back {asked} periods needs a longer history: this item holds {held} \
+                 periods; look back fewer"
+            ),
+            LookBackError::HorizonShort { horizon, asked } => write!(
+                f,
+                "the horizon of {horizon} periods is shorter than the {asked} periods looked \
+                 back over: lengthen the horizon, leave it automatic or look back fewer periods"
+            ),
+            LookBackError::Setting(e) => e.fmt(f),
+            LookBackError::Order(e) => write!(f, "the plan of then: {e}"),
+        }
+    }
+}
+
+impl std::error::Error for LookBackError {}
+
+/// One period since the plan: its forecast and band then, and what sold.
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LookBackStep {
+    /// The period.
+    pub period: Period,
+    /// The forecast and band the plan gave it.
+    pub band: BandPoint,
+    /// What sold (`None`: a gap in the data).
+    pub actual: Option<f64>,
+}
+
+impl LookBackStep {
+    /// e = F - D (positive: the plan forecast more than sold); `None` for a gap.
+    pub fn error(&self) -> Option<f64> {
+        self.actual.map(|d| self.band.value - d)
+    }
+
+    /// Whether what sold lies within the band (ends included); `None` for a gap.
+    pub fn within(&self) -> Option<bool> {
+        self.actual
+            .map(|d| self.band.low <= d && d <= self.band.high)
+    }
+}
+
+/// The Stock plan's level then against the demand over its protection interval since.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum StockCheck {
+    /// The protection interval has passed.
+    Checked {
+        /// P, the protection interval in periods.
+        periods: usize,
+        /// Whether the level is an order-up-to level (periodic review), not a reorder point.
+        periodic: bool,
+        /// The reorder point (continuous review) or order-up-to level (periodic) of then.
+        level: f64,
+        /// The demand over P the plan expected.
+        expected: f64,
+        /// The demand over P that came.
+        demand: f64,
+        /// The cycle service level the level was set for, Phi(k) (for a fill-rate target,
+        /// the cycle service it implied).
+        promised: f64,
+    },
+    /// Fewer periods have passed than the protection interval.
+    TooSoon {
+        /// P, the protection interval in periods.
+        periods: usize,
+        /// Periods since the plan.
+        passed: usize,
+    },
+    /// No protection interval (continuous review with no lead time): nothing to cover.
+    NoInterval,
+    /// The plan of then had no Stock plan (why, as the Item board said it).
+    NoFigures(String),
+    /// A gap in the sales within the protection interval.
+    Gap {
+        /// P, the protection interval in periods.
+        periods: usize,
+    },
+}
+
+impl StockCheck {
+    /// Whether the level covered the demand over P (`None` when not checked).
+    pub fn covered(&self) -> Option<bool> {
+        match *self {
+            StockCheck::Checked { level, demand, .. } => Some(demand <= level),
+            _ => None,
+        }
+    }
+}
+
+/// How the plan made `k` periods ago did, for one item.
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LookBack {
+    /// The item's name.
+    pub name: String,
+    /// The last period the plan saw.
+    pub made_after: Period,
+    /// The label of the method the plan chose then.
+    pub method: String,
+    /// The band level.
+    pub level: Level,
+    /// The periods since, oldest first.
+    pub steps: Vec<LookBackStep>,
+    /// The Stock plan's level against the demand since.
+    pub stock: StockCheck,
+}
+
+impl LookBack {
+    /// The periods whose sales are known.
+    pub fn known(&self) -> impl Iterator<Item = &LookBackStep> {
+        self.steps.iter().filter(|s| s.actual.is_some())
+    }
+
+    /// How many known periods lay within the band.
+    pub fn within(&self) -> usize {
+        self.known().filter(|s| s.within() == Some(true)).count()
+    }
+
+    /// The forecast and the demand summed over the known periods.
+    pub fn totals(&self) -> (f64, f64) {
+        self.known().fold((0.0, 0.0), |(f, d), s| {
+            (f + s.band.value, d + s.actual.unwrap_or(0.0))
+        })
+    }
+
+    /// MAD over the known periods (`None` without one).
+    pub fn mad(&self) -> Option<f64> {
+        let errors: Vec<f64> = self.known().filter_map(LookBackStep::error).collect();
+        (!errors.is_empty())
+            .then(|| errors.iter().map(|e| e.abs()).sum::<f64>() / errors.len() as f64)
+    }
+}
+
+/// Makes the plan of the history without its last `periods` periods, as [`plan_order`] makes
+/// it now (same settings, stock settings and stock table row), and sets each period since
+/// against it. An automatic horizon is lengthened to `periods` where shorter; a set one must
+/// reach it. Trailing gaps left by the cut are trimmed as in any history, so the plan then
+/// ends at its last known period and the periods since start after it.
+pub fn look_back(
+    series: &Series,
+    settings: &PlanSettings,
+    defaults: &StockSettings,
+    row: Option<&StockRow>,
+    periods: usize,
+) -> Result<LookBack, LookBackError> {
+    if periods == 0 {
+        return Err(LookBackError::NoPeriods);
+    }
+    let held = series.len();
+    if periods >= held {
+        return Err(LookBackError::TooFewPeriods {
+            asked: periods,
+            held,
+        });
+    }
+    let values = series.values();
+    let earlier = Series::new(
+        series.name(),
+        series.start(),
+        values[..held - periods].to_vec(),
+    )
+    .map_err(|_| LookBackError::TooFewPeriods {
+        asked: periods,
+        held,
+    })?;
+    let since = held - earlier.len();
+    let plan_settings = match settings.horizon() {
+        None if default_horizon(series.frequency()) < since => settings
+            .clone()
+            .with_horizon(Some(since as u64))
+            .map_err(LookBackError::Setting)?,
+        Some(horizon) if horizon < since => {
+            return Err(LookBackError::HorizonShort {
+                horizon,
+                asked: since,
+            })
+        }
+        _ => settings.clone(),
+    };
+    // A plan without a Stock plan (too short a history for its spread) is still looked back on.
+    let (plan, stock_plan) = match plan_order(&earlier, &plan_settings, defaults, row, false) {
+        Ok(order) => (order.plan, Ok(order.stock)),
+        Err(OrderError::Stock(why)) => (
+            plan_item(&earlier, &plan_settings)
+                .map_err(|e| LookBackError::Order(OrderError::Plan(e)))?,
+            Err(why.to_string()),
+        ),
+        Err(e) => return Err(LookBackError::Order(e)),
+    };
+    let steps: Vec<LookBackStep> = plan
+        .forecast
+        .iter()
+        .zip(&values[earlier.len()..])
+        .map(|(point, actual)| LookBackStep {
+            period: point.period,
+            band: point.band,
+            actual: *actual,
+        })
+        .collect();
+    let stock = match stock_plan {
+        Ok(stock) => stock_check(&steps, &stock),
+        Err(why) => StockCheck::NoFigures(why),
+    };
+    Ok(LookBack {
+        name: series.name().to_string(),
+        made_after: earlier.period(earlier.len() - 1),
+        method: plan.chosen.label(),
+        level: plan.level,
+        steps,
+        stock,
+    })
+}
+
+/// The Stock plan's level against the demand over the first P periods since.
+fn stock_check(steps: &[LookBackStep], stock: &StockPlan) -> StockCheck {
+    let stock_periods = stock.protection_periods;
+    if stock_periods == 0 {
+        StockCheck::NoInterval
+    } else if steps.len() < stock_periods {
+        StockCheck::TooSoon {
+            periods: stock_periods,
+            passed: steps.len(),
+        }
+    } else {
+        let window = &steps[..stock_periods];
+        match window.iter().map(|s| s.actual).sum::<Option<f64>>() {
+            None => StockCheck::Gap {
+                periods: stock_periods,
+            },
+            Some(demand) => StockCheck::Checked {
+                periods: stock_periods,
+                periodic: stock.settings.review_period().is_some(),
+                level: stock.figures.level,
+                expected: stock.demand_over_protection,
+                demand,
+                promised: stock.figures.cycle_service_level,
+            },
+        }
+    }
+}
+
+/// A whole file's Look-back in a few counts: how often the bands held, how often the stock
+/// levels covered the demand, against what they promised.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LookBackTally {
+    /// Items counted.
+    pub items: usize,
+    /// Known periods over every item.
+    pub periods: usize,
+    /// Of those, within their band.
+    pub within: usize,
+    /// Items whose protection interval has passed.
+    pub stock_checked: usize,
+    /// Of those, covered by their level.
+    pub covered: usize,
+    /// The sum of their promised cycle service levels (their mean: this over `stock_checked`).
+    pub promised_sum: f64,
+}
+
+impl LookBackTally {
+    /// Counts one item in.
+    pub fn add(&mut self, item: &LookBack) {
+        self.items += 1;
+        self.periods += item.known().count();
+        self.within += item.within();
+        if let StockCheck::Checked { promised, .. } = item.stock {
+            self.stock_checked += 1;
+            self.promised_sum += promised;
+            if item.stock.covered() == Some(true) {
+                self.covered += 1;
+            }
+        }
+    }
+
+    /// The share of known periods within their band (`None` without one).
+    pub fn within_share(&self) -> Option<f64> {
+        (self.periods > 0).then(|| self.within as f64 / self.periods as f64)
+    }
+
+    /// The share of checked items whose level covered the demand.
+    pub fn covered_share(&self) -> Option<f64> {
+        (self.stock_checked > 0).then(|| self.covered as f64 / self.stock_checked as f64)
+    }
+
+    /// The mean cycle service level the checked items' levels promised.
+    pub fn promised(&self) -> Option<f64> {
+        (self.stock_checked > 0).then(|| self.promised_sum / self.stock_checked as f64)
+    }
+}

@@ -1,0 +1,126 @@
+//! The Item board's Look-back end to end: the demo planned, a look back of two periods asked
+//! for, and every row's outcome and the counts above the board set against `morrowcast
+//! look-back --json` on the same data and settings (the page's stock defaults: lead time 1,
+//! continuous review, cycle service 95 %). Then a look back that cannot be made is refused
+//! with a message, and 0 takes the column away again.
+
+use serde_json::{json, Value};
+
+use super::board::{set_field, wait_until_planned};
+use super::page::{open, save_screenshot, wait_for_item, WAIT};
+use crate::support::cli;
+
+/// Sets the Look-back's field and tells the page it changed (it acts on "change").
+fn look_back(browser: &super::webdriver::Browser, periods: &str) {
+    set_field(browser, "board-look-back", periods);
+    browser.js(
+        "document.getElementById('board-look-back').dispatchEvent(new Event('change', { bubbles: true }))",
+    );
+}
+
+/// Every row's (name, Look-back cell) in the file's order.
+fn look_back_cells(browser: &super::webdriver::Browser) -> Vec<(String, String)> {
+    let v = browser.js(
+        "return [...document.querySelectorAll('#board-table tbody tr')].map(r => \
+         [r.querySelector('th button').textContent, (r.querySelector('td.look-back') || {}).textContent || null])",
+    );
+    v.as_array()
+        .unwrap()
+        .iter()
+        .map(|pair| {
+            (
+                pair[0].as_str().unwrap().to_string(),
+                pair[1].as_str().unwrap_or("").to_string(),
+            )
+        })
+        .collect()
+}
+
+#[test]
+fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    wait_until_planned(browser, 6);
+    assert!(look_back_cells(browser).iter().all(|(_, c)| c.is_empty()));
+
+    look_back(browser, "2");
+    browser.wait_for(
+        "the Look-back's counts",
+        "const s = document.getElementById('board-look-back-summary'); \
+         return !!s && s.textContent.includes('for 6 items')",
+        WAIT,
+    );
+    wait_until_planned(browser, 6);
+    save_screenshot(browser, "board-look-back.png");
+
+    let demo = cli(&["demo"], b"").stdout;
+    let run = cli(&["look-back", "-", "--periods", "2", "--json"], &demo);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let want: Value = run.json();
+    let cells = look_back_cells(browser);
+    let items = want["items"].as_array().unwrap();
+    assert_eq!(cells.len(), items.len());
+    for ((name, cell), item) in cells.iter().zip(items) {
+        assert_eq!(name, item["name"].as_str().unwrap());
+        let within = item["periods"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .filter(|p| p["within"] == true)
+            .count();
+        assert!(
+            cell.contains(&format!("{within} of 2 within the band")),
+            "{name}: {cell} (command line: {within} of 2)"
+        );
+        let held = match item["stock"]["covered"] {
+            Value::Bool(true) => "stock level held",
+            Value::Bool(false) => "stock level short by",
+            _ => panic!("{name}: the command line judged no stock level: {item}"),
+        };
+        assert!(cell.contains(held), "{name}: {cell} (command line: {held})");
+    }
+    let tally = &want["tally"];
+    let summary = browser
+        .js("return document.getElementById('board-look-back-summary').textContent")
+        .as_str()
+        .unwrap()
+        .to_string();
+    for said in [
+        format!(
+            "{} of {} periods within their band",
+            tally["within"], tally["periods"]
+        ),
+        format!(
+            "for {} of {} items",
+            tally["covered"], tally["stock_checked"]
+        ),
+        "The plan of 2 periods ago".to_string(),
+    ] {
+        assert!(summary.contains(&said), "{said}: {summary}");
+    }
+
+    // A look back the field does not take is refused in words; the board keeps its counts.
+    look_back(browser, "2.5");
+    let refused = browser.wait_for(
+        "the refusal",
+        "const p = document.querySelector('.look-back-tools .problem'); return p ? p.textContent : ''",
+        WAIT,
+    );
+    assert!(
+        refused.as_str().unwrap().contains("found \"2.5\""),
+        "{refused}"
+    );
+    // 0 takes the Look-back away.
+    look_back(browser, "0");
+    browser.wait_for_args(
+        "the Look-back gone",
+        "return !document.getElementById('board-look-back-summary') && \
+         ![...document.querySelectorAll('#board-table thead th')].some(h => h.textContent.startsWith(arguments[0]))",
+        json!(["Look-back"]),
+        WAIT,
+    );
+    wait_until_planned(browser, 6);
+}
