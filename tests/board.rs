@@ -40,6 +40,7 @@ fn board_rows(text: &str, stock: &StockText, table: Option<&str>) -> Vec<BoardRo
         stock: stock.clone(),
         table_given: table.is_some(),
         look_back: 0,
+        file_end: None,
         items,
     })
 }
@@ -335,6 +336,7 @@ fn an_items_own_settings_plan_it() {
         stock: StockText::default(),
         table_given: false,
         look_back: 0,
+        file_end: None,
         items: vec![BoardItem {
             index: 0,
             series: item.series().unwrap(),
@@ -366,6 +368,8 @@ fn check_look_back(since: &[(f64, f64, f64, Option<f64>)], stock: StockCheck, wa
                 period: Period::month(2026, 10 + i as u32),
                 band: BandPoint { value, low, high },
                 actual,
+                shut: false,
+                extended: false,
             })
             .collect(),
         stock,
@@ -414,13 +418,16 @@ fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
     check_look_back(
         &[(10.0, 5.0, 15.0, None)],
         StockCheck::Gap { periods: 1 },
-        ("no sales known since; stock level not judged (a gap)", 0),
+        (
+            "no sales known since (1 gap left out); stock level not judged (a gap)",
+            0,
+        ),
     );
     check_look_back(
         &[(10.0, 5.0, 15.0, Some(3.0)), (10.0, 5.0, 15.0, None)],
         StockCheck::NoFigures("too few origins".into()),
         (
-            "sold 3 against 10 over 1 period with sales known; 0 of 1 within the band; no Stock \
+            "sold 3 against 10 over 1 period (1 gap left out); 0 of 1 within the band; no Stock \
              plan then",
             1,
         ),

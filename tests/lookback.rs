@@ -7,10 +7,12 @@
 
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::lookback::{look_back, LookBackError, LookBackTally, StockCheck};
+use morrowcast_engine::order::plan_order;
+use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{StockSettings, Target};
 
-use crate::support::{cli, item_named, monthly, SplitMix};
+use crate::support::{cli, item_named, monthly, shop_shut_at_weekends, SplitMix};
 
 /// What a Look-back should find: the last period the plan saw, each period since as (what
 /// sold, within the band), and the stock check.
@@ -24,8 +26,19 @@ fn stock(lead_time: usize) -> StockSettings {
     StockSettings::new(lead_time, None, Target::cycle_service(0.95).unwrap()).unwrap()
 }
 
-/// Looks back `periods` over a monthly history of `values` with the given lead time.
-fn check(values: Vec<Option<f64>>, periods: usize, lead_time: usize, expected: Expected) {
+/// The last period of a series: where a file of it alone ends.
+fn end_of(series: &Series) -> Period {
+    series.period(series.len() - 1)
+}
+
+/// Looks back `periods` over a monthly history of `values` with the given lead time, from the
+/// end of a file `blank_after` periods longer than the item's data.
+fn check(
+    values: Vec<Option<f64>>,
+    (periods, blank_after): (usize, i64),
+    lead_time: usize,
+    expected: Expected,
+) {
     let series = monthly(values);
     let got = look_back(
         &series,
@@ -33,6 +46,7 @@ fn check(values: Vec<Option<f64>>, periods: usize, lead_time: usize, expected: E
         &stock(lead_time),
         None,
         periods,
+        end_of(&series).offset(blank_after),
     )
     .unwrap();
     assert_eq!(got.made_after, expected.made_after, "made after");
@@ -82,7 +96,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
     // over a lead time of 2 its reorder point 20 met a demand of 40.
     check(
         with(flat(24), &[Some(10.0), Some(30.0)]),
-        2,
+        (2, 0),
         2,
         Expected {
             made_after: Period::month(2022, 12),
@@ -100,7 +114,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
     // Below the band, then within it; the level covers 16.
     check(
         with(flat(24), &[Some(3.0), Some(13.0), Some(10.0)]),
-        3,
+        (3, 0),
         2,
         Expected {
             made_after: Period::month(2022, 12),
@@ -122,7 +136,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
     // A lead time longer than the periods since: too soon to judge the reorder point.
     check(
         with(flat(24), &[Some(10.0), Some(17.0)]),
-        2,
+        (2, 0),
         3,
         Expected {
             made_after: Period::month(2022, 12),
@@ -136,7 +150,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
     // A gap since: not compared, and the demand over the lead time is not known.
     check(
         with(flat(24), &[Some(10.0), None, Some(10.0)]),
-        3,
+        (3, 0),
         2,
         Expected {
             made_after: Period::month(2022, 12),
@@ -152,7 +166,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
     // period (November 2022), so December is one of the periods since.
     check(
         with(flat(23), &[None, Some(10.0)]),
-        1,
+        (1, 0),
         1,
         Expected {
             made_after: Period::month(2022, 11),
@@ -163,10 +177,81 @@ fn each_period_since_is_set_against_the_plan_of_then() {
 }
 
 #[test]
+fn the_look_back_counts_from_the_files_end_and_leaves_shut_periods_out() {
+    // The item's data ends a month before the file's: looking back 3 from the file's end, the
+    // plan of then saw December 2022, and the file's last month is a gap of the item.
+    check(
+        with(flat(24), &[Some(10.0), Some(17.0)]),
+        (3, 1),
+        2,
+        Expected {
+            made_after: Period::month(2022, 12),
+            since: vec![
+                (Some(10.0), Some(true)),
+                (Some(17.0), Some(false)),
+                (None, None),
+            ],
+            stock: StockCheck::Checked {
+                periods: 2,
+                periodic: false,
+                level: 20.0,
+                expected: 20.0,
+                demand: 27.0,
+                promised: 1.0,
+            },
+        },
+    );
+    // A shop shut at weekends, looked back on over a week: Saturday and Sunday are forecast 0
+    // and sold 0, which says nothing of the band, so they are left out of the counts.
+    let shop = shop_shut_at_weekends(7 * 20);
+    let week = look_back(
+        &shop,
+        &PlanSettings::default(),
+        &stock(1),
+        None,
+        7,
+        end_of(&shop),
+    )
+    .unwrap();
+    let shut: Vec<bool> = week.steps.iter().map(|s| s.shut).collect();
+    assert_eq!(shut, [false, false, false, false, false, true, true]);
+    assert_eq!((week.known().count(), week.left_out()), (5, (0, 2)));
+    assert!(week.steps[5..].iter().all(|s| s.within().is_none()));
+}
+
+/// The plan looked back on is the plan of then, whatever the number of periods: an automatic
+/// horizon stays the monthly 12 (its bands and Stock plan as shown then), and the 13th period
+/// since is forecast by the same plan made with a longer horizon, marked as such.
+#[test]
+fn looking_back_beyond_the_horizon_leaves_the_plan_of_then_as_it_was() {
+    let mut rng = SplitMix(13);
+    let values: Vec<Option<f64>> = (0..60)
+        .map(|t| Some(50.0 + 10.0 * ((t % 12) as f64 / 2.0).sin() + 4.0 * rng.normal()))
+        .collect();
+    let series = monthly(values.clone());
+    let settings = PlanSettings::default();
+    let back = look_back(&series, &settings, &stock(2), None, 13, end_of(&series)).unwrap();
+    let then = monthly(values[..47].to_vec());
+    let order = plan_order(&then, &settings, &stock(2), None, false).unwrap();
+    assert_eq!(order.plan.forecast.len(), 12);
+    let bands: Vec<_> = back.steps[..12].iter().map(|s| s.band).collect();
+    let shown: Vec<_> = order.plan.forecast.iter().map(|p| p.band).collect();
+    assert_eq!(bands, shown);
+    let extended: Vec<bool> = back.steps.iter().map(|s| s.extended).collect();
+    assert_eq!(extended, [[false; 12].as_slice(), &[true]].concat());
+    assert_eq!(back.extended(), 1);
+    match back.stock {
+        StockCheck::Checked { level, .. } => assert_eq!(level, order.stock.figures.level),
+        other => panic!("{other:?}"),
+    }
+}
+
+#[test]
 fn look_backs_that_compare_nothing_are_refused_with_a_reason() {
     let series = monthly(flat(24));
+    let end = end_of(&series);
     let ask = |settings: &PlanSettings, periods| {
-        look_back(&series, settings, &stock(1), None, periods).map(|_| ())
+        look_back(&series, settings, &stock(1), None, periods, end).map(|_| ())
     };
     let default = PlanSettings::default();
     assert_eq!(ask(&default, 0), Err(LookBackError::NoPeriods));
@@ -177,18 +262,20 @@ fn look_backs_that_compare_nothing_are_refused_with_a_reason() {
             held: 24
         })
     );
-    let short = default.clone().with_horizon(Some(2)).unwrap();
     assert_eq!(
-        ask(&short, 3),
-        Err(LookBackError::HorizonShort {
-            horizon: 2,
-            asked: 3
+        ask(&default, 21),
+        Err(LookBackError::TooFewPeriods {
+            asked: 21,
+            held: 24
         })
     );
-    // An automatic horizon reaches as far back as asked (12 is a monthly plan's own); four
-    // months leave too few rolling origins for a Stock plan, and the bands are still set
+    // Data that ends three months before the file's end: nothing sold since is recorded.
+    let later =
+        |periods| look_back(&series, &default, &stock(1), None, periods, end.offset(3)).map(|_| ());
+    assert_eq!(later(3), Err(LookBackError::EndedBefore { last: end }));
+    // Four months leave too few rolling origins for a Stock plan; the bands are still set
     // against what sold.
-    let far = look_back(&series, &default, &stock(1), None, 20).unwrap();
+    let far = look_back(&series, &default, &stock(1), None, 20, end).unwrap();
     assert_eq!((far.steps.len(), far.within()), (20, 20));
     assert!(
         matches!(&far.stock, StockCheck::NoFigures(why) if why.contains("origins")),
@@ -198,10 +285,8 @@ fn look_backs_that_compare_nothing_are_refused_with_a_reason() {
     for error in [
         LookBackError::NoPeriods,
         LookBackError::TooFewPeriods { asked: 3, held: 2 },
-        LookBackError::HorizonShort {
-            horizon: 2,
-            asked: 3,
-        },
+        LookBackError::TooFewPeriods { asked: 3, held: 24 },
+        LookBackError::EndedBefore { last: end },
     ] {
         assert!(error.to_string().contains("look back"), "{error}");
     }
@@ -218,12 +303,14 @@ fn bands_and_reorder_points_hold_about_what_they_promise_on_demand_as_assumed() 
     let mut tally = LookBackTally::default();
     for _ in 0..400 {
         let values = (0..48).map(|_| Some(100.0 + 10.0 * rng.normal())).collect();
+        let series = monthly(values);
         let item = look_back(
-            &monthly(values),
+            &series,
             &PlanSettings::default(),
             &stock(2),
             None,
             3,
+            end_of(&series),
         )
         .unwrap();
         tally.add(&item);

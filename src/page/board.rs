@@ -377,6 +377,23 @@ pub fn look_back_misses(l: &LookBack) -> usize {
 pub fn look_back_cell(l: &LookBack) -> String {
     let (forecast, sold) = l.totals();
     let known = l.known().count();
+    let (gaps, shut) = l.left_out();
+    let mut left_out = Vec::new();
+    if gaps > 0 {
+        left_out.push(if gaps == 1 {
+            "1 gap".to_string()
+        } else {
+            format!("{gaps} gaps")
+        });
+    }
+    if shut > 0 {
+        left_out.push(format!("{shut} shut"));
+    }
+    let left_out = if left_out.is_empty() {
+        String::new()
+    } else {
+        format!(" ({} left out)", left_out.join(", "))
+    };
     let sales = match (l.steps.as_slice(), known) {
         ([step], 1) => format!(
             "sold {} against {} ({}–{}): {}",
@@ -390,9 +407,10 @@ pub fn look_back_cell(l: &LookBack) -> String {
                 _ => "within",
             }
         ),
-        (_, 0) => "no sales known since".to_string(),
+        (_, 0) if gaps == 0 => "shut since".to_string(),
+        (_, 0) => format!("no sales known since{left_out}"),
         (_, _) => format!(
-            "sold {} against {} over {}{}; {} of {} within the band",
+            "sold {} against {} over {}{left_out}; {} of {known} within the band",
             units(sold),
             units(forecast),
             if known == 1 {
@@ -400,14 +418,12 @@ pub fn look_back_cell(l: &LookBack) -> String {
             } else {
                 format!("{known} periods")
             },
-            if known < l.steps.len() {
-                " with sales known"
-            } else {
-                ""
-            },
             l.within(),
-            known
         ),
+    };
+    let sales = match l.extended() {
+        0 => sales,
+        n => format!("{sales} ({n} beyond the plan's horizon)"),
     };
     let stock = match &l.stock {
         StockCheck::Checked { level, demand, .. } if demand <= level => "stock level held".into(),

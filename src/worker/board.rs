@@ -10,6 +10,7 @@ use serde::{Deserialize, Serialize};
 
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::backtest::Candidate;
+use morrowcast_engine::calendar::Period;
 use morrowcast_engine::intake::StockRow;
 use morrowcast_engine::lookback::{look_back, LookBack};
 use morrowcast_engine::order::{plan_order, ItemOrder};
@@ -43,6 +44,8 @@ pub struct BoardAsk {
     /// Periods to look back over (the Look-back: the plan of then against what sold since);
     /// 0: none.
     pub look_back: usize,
+    /// The file's last period, which the Look-back counts back from (`None`: each item's own).
+    pub file_end: Option<Period>,
     pub items: Vec<BoardItem>,
 }
 
@@ -185,12 +188,15 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                     )
                     .map(|order| BoardFigures {
                         look_back: (ask.look_back > 0).then(|| {
+                            let series = &item.series;
                             look_back(
-                                &item.series,
+                                series,
                                 settings,
                                 defaults,
                                 item.row.as_ref(),
                                 ask.look_back,
+                                ask.file_end
+                                    .unwrap_or_else(|| series.period(series.len() - 1)),
                             )
                             .map_err(|e| e.to_string())
                         }),

@@ -347,8 +347,9 @@ fn look_back(
         Err(code) => return code,
     };
     let tally = RefCell::new(LookBackTally::default());
+    let file_end = report.last_period();
     let closing = Closing {
-        text: Box::new(|| table::look_back_tally(&tally.borrow())),
+        text: Box::new(|failed| table::look_back_tally(&tally.borrow(), failed)),
         json: Box::new(|| {
             serde_json::to_value(LookBackTallyJson::from(&*tally.borrow()))
                 .unwrap_or(serde_json::Value::Null)
@@ -368,8 +369,16 @@ fn look_back(
             let row = input.item_row(s.name(), table);
             let own = input.item_settings(s.name(), settings);
             let plan_settings = own.as_ref().unwrap_or(settings);
-            lookback::look_back(s, plan_settings, stock_settings, row.as_ref(), la.periods)
-                .map_err(|e| e.to_string())
+            let file_end = file_end.unwrap_or_else(|| s.period(s.len() - 1));
+            lookback::look_back(
+                s,
+                plan_settings,
+                stock_settings,
+                row.as_ref(),
+                la.periods,
+                file_end,
+            )
+            .map_err(|e| e.to_string())
         },
         |l| {
             tally.borrow_mut().add(l);
@@ -384,7 +393,8 @@ fn look_back(
 
 /// What `look-back` writes after its items: text and JSON of one summary.
 struct Closing<'a> {
-    text: Box<dyn Fn() -> String + 'a>,
+    /// Given how many items failed.
+    text: Box<dyn Fn(usize) -> String + 'a>,
     json: Box<dyn Fn() -> serde_json::Value + 'a>,
 }
 
@@ -493,7 +503,7 @@ impl ItemRun<'_> {
                     console.out(&to_text(&r));
                 }
                 if let Some(closing) = &self.closing {
-                    console.out(&(closing.text)());
+                    console.out(&(closing.text)(failed.borrow().len()));
                 }
                 for f in failed.borrow().iter() {
                     console.err(&format!(

@@ -329,37 +329,60 @@ pub fn look_back(l: &LookBack) -> String {
     );
     let _ = writeln!(
         s,
-        "  {:<12} {:>10} {:>10} {:>10} {:>10} {:>10}  within",
+        "  {:<12} {:>13} {:>13} {:>13} {:>13} {:>13}  within",
         "period", "forecast", "low", "high", "sold", "error"
     );
     let number = |v: Option<f64>| v.map_or("gap".to_string(), |x| format!("{x:.2}"));
     for step in &l.steps {
+        let within = match step.within() {
+            _ if step.shut => "shut",
+            Some(true) => "yes",
+            Some(false) if step.actual < Some(step.band.low) => "no, below",
+            Some(false) => "no, above",
+            None => "-",
+        };
         let _ = writeln!(
             s,
-            "  {:<12} {:>10.2} {:>10.2} {:>10.2} {:>10} {:>10}  {}",
+            "  {:<12} {:>13.2} {:>13.2} {:>13.2} {:>13} {:>13}  {within}{}",
             step.period.to_string(),
             step.band.value,
             step.band.low,
             step.band.high,
             number(step.actual),
             number(step.error()),
-            match step.within() {
-                Some(true) => "yes",
-                Some(false) if step.actual < Some(step.band.low) => "no, below",
-                Some(false) => "no, above",
-                None => "-",
-            }
+            if step.extended { " (extended)" } else { "" }
         );
     }
     let (forecast, sold) = l.totals();
+    let known = l.known().count();
+    let (gaps, shut) = l.left_out();
+    let mut left_out = Vec::new();
+    if gaps > 0 {
+        left_out.push(format!("{gaps} gap(s)"));
+    }
+    if shut > 0 {
+        left_out.push(format!("{shut} shut period(s)"));
+    }
     let _ = writeln!(
         s,
-        "total: forecast {forecast:.2}, sold {sold:.2} (error {:.2}); {} of {} period(s) within \
-         the band",
+        "total over the {known} period(s) with sales{}: forecast {forecast:.2}, sold {sold:.2} \
+         (error {:.2}); {} of {known} within the band",
+        if left_out.is_empty() {
+            String::new()
+        } else {
+            format!(" ({} left out)", left_out.join(", "))
+        },
         forecast - sold,
         l.within(),
-        l.known().count()
     );
+    if l.extended() > 0 {
+        let _ = writeln!(
+            s,
+            "(extended): beyond the plan's horizon of {} period(s), forecast by the same plan \
+             made with a longer one",
+            l.steps.len() - l.extended()
+        );
+    }
     let _ = writeln!(s, "stock: {}", stock_check(&l.stock));
     s
 }
@@ -393,8 +416,8 @@ fn stock_check(check: &StockCheck) -> String {
             )
         }
         StockCheck::TooSoon { periods, passed } => format!(
-            "not judged yet: the protection interval is {periods} period(s), {passed} have \
-             passed"
+            "not judged yet: the protection interval is {periods} period(s), {passed} passed \
+             since the plan"
         ),
         StockCheck::NoInterval => {
             "nothing to judge: no lead time under continuous review".to_string()
@@ -406,8 +429,9 @@ fn stock_check(check: &StockCheck) -> String {
     }
 }
 
-/// The file's Look-back in counts, after its items.
-pub fn look_back_tally(t: &LookBackTally) -> String {
+/// The file's Look-back in counts, after its items (`failed`: items without one, named on
+/// standard error).
+pub fn look_back_tally(t: &LookBackTally, failed: usize) -> String {
     let share = |x: Option<f64>| x.map_or("n/a".to_string(), |p| format!("{:.1} %", 100.0 * p));
     let mut s = format!(
         "\nLook-back over {} item(s): {} of {} period(s) within their band ({})",
@@ -428,5 +452,12 @@ pub fn look_back_tally(t: &LookBackTally) -> String {
         );
     }
     s.push_str(".\n");
+    if failed > 0 {
+        let _ = writeln!(
+            s,
+            "{failed} item(s) could not be looked back on and are not counted: see the messages \
+             that follow."
+        );
+    }
     s
 }

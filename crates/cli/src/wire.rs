@@ -409,7 +409,8 @@ pub struct LookBackJson {
     /// The band level, in percent.
     pub level: f64,
     pub periods: Vec<LookBackPeriodJson>,
-    /// The forecast and what sold, summed over the periods whose sales are known.
+    /// The forecast and what sold, summed over the periods whose sales are known (gaps and
+    /// shut periods left out).
     pub forecast_total: f64,
     pub sold_total: f64,
     pub stock: StockCheckJson,
@@ -425,7 +426,11 @@ pub struct LookBackPeriodJson {
     pub sold: Option<f64>,
     /// Forecast minus sold.
     pub error: Option<f64>,
+    /// null for a gap and for a shut period (a shut place of the season, forecast 0).
     pub within: Option<bool>,
+    pub shut: bool,
+    /// Beyond the plan's horizon: forecast by the same plan made with a longer one.
+    pub extended: bool,
 }
 
 /// The Stock plan of then against the demand since. `check` is "checked" (the other fields
@@ -463,6 +468,8 @@ impl From<&LookBack> for LookBackJson {
                     sold: s.actual,
                     error: s.error(),
                     within: s.within(),
+                    shut: s.shut,
+                    extended: s.extended,
                 })
                 .collect(),
             forecast_total,

@@ -17,7 +17,7 @@ use crate::bands::{BandPoint, Level};
 use crate::calendar::Period;
 use crate::intake::StockRow;
 use crate::order::{plan_order, OrderError};
-use crate::plan::{default_horizon, plan_item};
+use crate::plan::{plan_item, ForecastPoint, MIN_PERIODS};
 use crate::series::Series;
 use crate::settings::{PlanSettings, SettingError};
 use crate::stock::{StockPlan, StockSettings};
@@ -34,12 +34,10 @@ pub enum LookBackError {
         /// Periods the history holds.
         held: usize,
     },
-    /// A horizon the user set is shorter than the periods to look back over.
-    HorizonShort {
-        /// The horizon set.
-        horizon: usize,
-        /// Periods asked for.
-        asked: usize,
+    /// The item's data ends before the periods looked back over.
+    EndedBefore {
+        /// Its last period with data.
+        last: Period,
     },
     /// The horizon could not be lengthened to the periods asked for.
     Setting(SettingError),
@@ -53,15 +51,21 @@ impl fmt::Display for LookBackError {
             LookBackError::NoPeriods => {
                 write!(f, "look back at least 1 period: 0 periods compare nothing")
             }
+            LookBackError::TooFewPeriods { held, .. } if *held <= MIN_PERIODS => write!(
+                f,
+                "this item's {held} periods are too few to look back on: a plan needs at least \
+                 {MIN_PERIODS} before the periods looked back over"
+            ),
             LookBackError::TooFewPeriods { asked, held } => write!(
                 f,
-                "looking back {asked} periods needs a longer history: this item holds {held} \
-                 periods; look back fewer"
+                "looking back {asked} periods leaves too little history to plan: this item's \
+                 {held} periods allow a look back of at most {}",
+                held - MIN_PERIODS
             ),
-            LookBackError::HorizonShort { horizon, asked } => write!(
+            LookBackError::EndedBefore { last } => write!(
                 f,
-                "the horizon of {horizon} periods is shorter than the {asked} periods looked \
-                 back over: lengthen the horizon, leave it automatic or look back fewer periods"
+                "this item's data ends at {last}, before the periods looked back over: nothing \
+                 sold since is recorded to compare with (look back further to reach it)"
             ),
             LookBackError::Setting(e) => e.fmt(f),
             LookBackError::Order(e) => write!(f, "the plan of then: {e}"),
@@ -81,6 +85,10 @@ pub struct LookBackStep {
     pub band: BandPoint,
     /// What sold (`None`: a gap in the data).
     pub actual: Option<f64>,
+    /// A shut place of the item's season (forecast 0 then): not counted as a hit of the band.
+    pub shut: bool,
+    /// Beyond the plan's horizon: forecast by the same plan made with a longer one.
+    pub extended: bool,
 }
 
 impl LookBackStep {
@@ -89,9 +97,11 @@ impl LookBackStep {
         self.actual.map(|d| self.band.value - d)
     }
 
-    /// Whether what sold lies within the band (ends included); `None` for a gap.
+    /// Whether what sold lies within the band (ends included); `None` for a gap and for a
+    /// shut period.
     pub fn within(&self) -> Option<bool> {
         self.actual
+            .filter(|_| !self.shut)
             .map(|d| self.band.low <= d && d <= self.band.high)
     }
 }
@@ -163,9 +173,26 @@ pub struct LookBack {
 }
 
 impl LookBack {
-    /// The periods whose sales are known.
+    /// The periods whose sales are known, shut ones left out (a 0 forecast met by a 0 sold
+    /// says nothing of the band).
     pub fn known(&self) -> impl Iterator<Item = &LookBackStep> {
-        self.steps.iter().filter(|s| s.actual.is_some())
+        self.steps.iter().filter(|s| s.actual.is_some() && !s.shut)
+    }
+
+    /// The periods since left out of [`LookBack::known`]: (gaps, shut periods).
+    pub fn left_out(&self) -> (usize, usize) {
+        let gaps = self.steps.iter().filter(|s| s.actual.is_none()).count();
+        let shut = self
+            .steps
+            .iter()
+            .filter(|s| s.actual.is_some() && s.shut)
+            .count();
+        (gaps, shut)
+    }
+
+    /// How many periods since lie beyond the plan's horizon ([`LookBackStep::extended`]).
+    pub fn extended(&self) -> usize {
+        self.steps.iter().filter(|s| s.extended).count()
     }
 
     /// How many known periods lay within the band.
@@ -188,70 +215,84 @@ impl LookBack {
     }
 }
 
-/// Makes the plan of the history without its last `periods` periods, as [`plan_order`] makes
-/// it now (same settings, stock settings and stock table row), and sets each period since
-/// against it. An automatic horizon is lengthened to `periods` where shorter; a set one must
-/// reach it. Trailing gaps left by the cut are trimmed as in any history, so the plan then
-/// ends at its last known period and the periods since start after it.
+/// Makes the plan of the file as it stood `periods` periods ago, as [`plan_order`] makes it now
+/// (same settings, stock settings and stock table row), and sets each period since against it.
+///
+/// The periods are counted back from `file_end`, the file's last period
+/// ([`crate::intake::IntakeReport::last_period`]), so every item of a file is looked back on
+/// from the same period: an item whose data ends before the file's has gaps since. Trailing gaps the cut leaves are trimmed as in any
+/// history, so the plan of then ends at its last known period and the periods since start
+/// after it. The plan keeps the settings' horizon (an automatic one as it was then, so its
+/// bands and Stock plan are the ones shown then); periods since beyond it are forecast by the
+/// same plan made with a horizon reaching them, and marked [`LookBackStep::extended`].
 pub fn look_back(
     series: &Series,
     settings: &PlanSettings,
     defaults: &StockSettings,
     row: Option<&StockRow>,
     periods: usize,
+    file_end: Period,
 ) -> Result<LookBack, LookBackError> {
     if periods == 0 {
         return Err(LookBackError::NoPeriods);
     }
-    let held = series.len();
-    if periods >= held {
-        return Err(LookBackError::TooFewPeriods {
-            asked: periods,
-            held,
-        });
+    let last = series.period(series.len() - 1);
+    let blank_after = last.steps_to(file_end).max(0) as u64;
+    if blank_after >= periods as u64 {
+        return Err(LookBackError::EndedBefore { last });
     }
-    let values = series.values();
+    let blank_after = blank_after as usize;
+    let mut values = series.values().to_vec();
+    values.resize(series.len() + blank_after, None);
+    let held = values.len();
+    let too_few = LookBackError::TooFewPeriods {
+        asked: periods,
+        held,
+    };
+    if periods + MIN_PERIODS > held {
+        return Err(too_few);
+    }
     let earlier = Series::new(
         series.name(),
         series.start(),
         values[..held - periods].to_vec(),
     )
-    .map_err(|_| LookBackError::TooFewPeriods {
-        asked: periods,
-        held,
-    })?;
+    .map_err(|_| too_few.clone())?;
+    if earlier.len() < MIN_PERIODS {
+        return Err(too_few);
+    }
     let since = held - earlier.len();
-    let plan_settings = match settings.horizon() {
-        None if default_horizon(series.frequency()) < since => settings
-            .clone()
-            .with_horizon(Some(since as u64))
-            .map_err(LookBackError::Setting)?,
-        Some(horizon) if horizon < since => {
-            return Err(LookBackError::HorizonShort {
-                horizon,
-                asked: since,
-            })
-        }
-        _ => settings.clone(),
-    };
     // A plan without a Stock plan (too short a history for its spread) is still looked back on.
-    let (plan, stock_plan) = match plan_order(&earlier, &plan_settings, defaults, row, false) {
+    let (plan, stock_plan) = match plan_order(&earlier, settings, defaults, row, false) {
         Ok(order) => (order.plan, Ok(order.stock)),
         Err(OrderError::Stock(why)) => (
-            plan_item(&earlier, &plan_settings)
-                .map_err(|e| LookBackError::Order(OrderError::Plan(e)))?,
+            plan_item(&earlier, settings).map_err(|e| LookBackError::Order(OrderError::Plan(e)))?,
             Err(why.to_string()),
         ),
         Err(e) => return Err(LookBackError::Order(e)),
     };
-    let steps: Vec<LookBackStep> = plan
-        .forecast
+    let mut forecast: Vec<(ForecastPoint, bool)> =
+        plan.forecast.iter().map(|p| (*p, false)).collect();
+    if forecast.len() < since {
+        let longer = settings
+            .clone()
+            .with_horizon(Some(since as u64))
+            .map_err(LookBackError::Setting)?;
+        let extended =
+            plan_item(&earlier, &longer).map_err(|e| LookBackError::Order(OrderError::Plan(e)))?;
+        let shown = forecast.len();
+        forecast.extend(extended.forecast.iter().skip(shown).map(|p| (*p, true)));
+    }
+    let steps: Vec<LookBackStep> = forecast
         .iter()
         .zip(&values[earlier.len()..])
-        .map(|(point, actual)| LookBackStep {
+        .enumerate()
+        .map(|(i, ((point, extended), actual))| LookBackStep {
             period: point.period,
             band: point.band,
             actual: *actual,
+            shut: plan.demand.is_shut(earlier.len() + i),
+            extended: *extended,
         })
         .collect();
     let stock = match stock_plan {

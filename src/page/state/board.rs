@@ -213,6 +213,7 @@ impl BoardState {
                         })
                     });
                     let table_given = given.is_some();
+                    let file_end = report.last_period();
                     // Taken from the front in one pass (splitting the rest off each time
                     // copied it: quadratic, 4 s for 10,000 items).
                     let mut items = items.into_iter().peekable();
@@ -223,6 +224,7 @@ impl BoardState {
                             stock: stock.clone(),
                             table_given,
                             look_back,
+                            file_end,
                             items: items.by_ref().take(BATCH).collect(),
                         });
                     }

@@ -287,6 +287,15 @@ impl IntakeReport {
     pub fn has_errors(&self) -> bool {
         !self.errors.is_empty()
     }
+
+    /// The file's last period: the latest of every item's (an item's data may end before it).
+    pub fn last_period(&self) -> Option<Period> {
+        self.items
+            .iter()
+            .filter_map(|i| i.periods.last())
+            .max()
+            .copied()
+    }
 }
 
 /// Reads bytes (a file as stored) into a report: UTF-8, or UTF-16 with its byte-order mark or

@@ -385,7 +385,9 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         ));
     }
     let sparse = plan.demand.class.is_sparse();
-    let distribution = if sparse {
+    // With nothing to protect (P = 0) there are no totals to draw from: the normal model's
+    // figures with no spread (a level of 0) serve every class.
+    let distribution = if sparse && periods > 0 {
         Distribution::Empirical
     } else {
         Distribution::Normal

@@ -115,7 +115,7 @@ impl fmt::Display for StockError {
             StockError::ShortPlan { periods, .. } => write!(
                 f,
                 "fewer than 2 rolling origins in the history reach over the {periods}-period \
-                 protection interval: the history is too short for this lead time and review"
+                 protection interval: the history is too short for a protection interval this long"
             ),
         }
     }
