@@ -3,8 +3,8 @@
 //! `order::plan_order`, behind both); sorting and filtering on constructed rows.
 
 use morrowcast_app::page::board::{
-    look_back_cell, look_back_misses, order_plan_csv, sort_rows, AlertFilter, Filter, ItemChange,
-    SortKey, ORDER_PLAN_COLUMNS,
+    look_back_cell, look_back_csv, look_back_misses, order_plan_csv, sort_rows, AlertFilter,
+    Filter, ItemChange, SortKey, ORDER_PLAN_COLUMNS,
 };
 use morrowcast_app::worker::{answer_board, BoardAsk, BoardItem, BoardRow};
 use morrowcast_engine::alerts::{Alert, AlertKind};
@@ -21,6 +21,16 @@ const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120
 
 /// The demo's every item through the board's batch, as the page sends it.
 fn board_rows(text: &str, stock: &StockText, table: Option<&str>) -> Vec<BoardRow> {
+    board_rows_looking_back(text, stock, table, 0)
+}
+
+/// The same with a Look-back of `look_back` periods from the file's end.
+fn board_rows_looking_back(
+    text: &str,
+    stock: &StockText,
+    table: Option<&str>,
+    look_back: usize,
+) -> Vec<BoardRow> {
     let report = intake::read(text);
     let table = table.map(|t| read_stock_table(t.as_bytes()));
     let items = report
@@ -39,8 +49,8 @@ fn board_rows(text: &str, stock: &StockText, table: Option<&str>) -> Vec<BoardRo
         settings: PlanSettings::default(),
         stock: stock.clone(),
         table_given: table.is_some(),
-        look_back: 0,
-        file_end: None,
+        look_back,
+        file_end: report.last_period(),
         items,
     })
 }
@@ -379,27 +389,52 @@ fn check_look_back(since: &[(f64, f64, f64, Option<f64>)], stock: StockCheck, wa
 
 #[test]
 fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
-    let checked = |level: f64, demand: f64| StockCheck::Checked {
-        periods: 1,
-        periodic: false,
-        level,
-        expected: 70.5,
-        demand,
-        promised: 0.95,
-    };
+    let checked =
+        |periods: usize, level: f64, demand: f64, whole_units: bool| StockCheck::Checked {
+            periods,
+            periodic: false,
+            level,
+            whole_units,
+            expected: 70.5,
+            demand,
+            promised: 0.95,
+        };
     check_look_back(
         &[(70.54, 59.08, 82.0, Some(81.0))],
-        checked(79.83, 81.0),
+        checked(1, 79.83, 81.0, false),
         (
-            "sold 81 against 70.5 (59.1–82): within; stock level short by 1.2",
+            "sold 81, forecast 70.5 (13% low), band 59.1–82: within; stock level short by 1.2",
             1,
         ),
     );
     check_look_back(
         &[(70.54, 59.08, 82.0, Some(50.0))],
-        checked(79.83, 50.0),
+        checked(1, 79.83, 50.0, false),
         (
-            "sold 50 against 70.5 (59.1–82): below the band; stock level held",
+            "sold 50, forecast 70.5 (41% high), band 59.1–82: below the band; stock level held",
+            1,
+        ),
+    );
+    // Whole units: a level of 70.92 is stocked as 71, which covers 71 sold.
+    check_look_back(
+        &[(70.0, 60.0, 80.0, Some(71.0))],
+        checked(1, 70.92, 71.0, true),
+        (
+            "sold 71, forecast 70 (1% low), band 60–80: within; stock level held",
+            0,
+        ),
+    );
+    // The stock level is judged over its protection interval, the first 2 of 3 months.
+    check_look_back(
+        &[
+            (10.0, 5.0, 15.0, Some(12.0)),
+            (10.0, 5.0, 15.0, Some(13.0)),
+            (10.0, 5.0, 15.0, Some(10.0)),
+        ],
+        checked(2, 24.0, 25.0, true),
+        (
+            "sold 35, forecast 30 (14% low) over 3 months; 3 of 3 within the band; stock level \
+             short by 1 over the first 2 months",
             1,
         ),
     );
@@ -410,8 +445,8 @@ fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
             passed: 2,
         },
         (
-            "sold 28 against 20 over 2 periods; 1 of 2 within the band; stock level not judged \
-             before 3 periods",
+            "sold 28, forecast 20 (29% low) over 2 months; 1 of 2 within the band; stock level \
+             not judged yet: 2 of its 3 months have passed",
             1,
         ),
     );
@@ -427,9 +462,74 @@ fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
         &[(10.0, 5.0, 15.0, Some(3.0)), (10.0, 5.0, 15.0, None)],
         StockCheck::NoFigures("too few origins".into()),
         (
-            "sold 3 against 10 over 1 period (1 gap left out); 0 of 1 within the band; no Stock \
-             plan then",
+            "sold 3, forecast 10 (233% high) over 1 month (1 gap left out); 0 of 1 within the \
+             band; no Stock plan then",
             1,
         ),
     );
+}
+
+/// The Look-back the page saves carries the command line's figures: the board's batch and
+/// `morrowcast look-back --json` on the same file and settings (one engine function behind both).
+#[test]
+fn the_saved_look_back_carries_the_command_lines_figures() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let stock = StockText {
+        lead_time: "2".into(),
+        ..StockText::default()
+    };
+    let rows = board_rows_looking_back(&demo, &stock, None, 3);
+    let csv_text = look_back_csv(&rows.iter().collect::<Vec<_>>());
+    let run = cli(
+        &[
+            "look-back",
+            "-",
+            "--periods",
+            "3",
+            "--lead-time",
+            "2",
+            "--json",
+        ],
+        demo.as_bytes(),
+    );
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let want = run.json();
+    let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+    let header: Vec<String> = reader.headers().unwrap().iter().map(String::from).collect();
+    let records: Vec<csv::StringRecord> = reader.records().map(Result::unwrap).collect();
+    let items = want["items"].as_array().unwrap();
+    assert_eq!(records.len(), items.len());
+    let at = |r: &csv::StringRecord, name: &str| {
+        r[header.iter().position(|h| h == name).unwrap()].to_string()
+    };
+    for (r, item) in records.iter().zip(items) {
+        let name = item["name"].as_str().unwrap();
+        assert_eq!(at(r, "name"), name);
+        assert_eq!(at(r, "made_after"), item["made_after"].as_str().unwrap());
+        let within = item["periods"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .filter(|p| p["within"] == true)
+            .count();
+        assert_eq!(at(r, "within"), within.to_string(), "{name}");
+        for (column, value) in [
+            ("forecast_total", &item["forecast_total"]),
+            ("sold_total", &item["sold_total"]),
+            ("reorder_point", &item["stock"]["reorder_point"]),
+            ("demand", &item["stock"]["demand"]),
+            ("shortfall", &item["stock"]["shortfall"]),
+        ] {
+            let got: f64 = at(r, column).parse().unwrap();
+            let want = value.as_f64().unwrap();
+            assert!(
+                (got - want).abs() <= 1e-9 * want.abs().max(1.0),
+                "{name} {column}: {got} against {want}"
+            );
+        }
+        assert_eq!(
+            at(r, "stock_check"),
+            item["stock"]["check"].as_str().unwrap()
+        );
+    }
 }

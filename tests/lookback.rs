@@ -61,6 +61,7 @@ fn check(
                 expected: e,
                 demand,
                 promised,
+                whole_units,
             },
             StockCheck::Checked {
                 periods: p,
@@ -69,9 +70,10 @@ fn check(
                 expected: x,
                 demand: d,
                 promised: c,
+                whole_units: w,
             },
         ) => {
-            assert_eq!((periods, periodic, promised), (p, q, c));
+            assert_eq!((periods, periodic, promised, whole_units), (p, q, c, w));
             // A flat history's plan is exact up to rounding in the fits.
             assert!((level - l).abs() < 1e-6, "level {level}, want {l}");
             assert!((e - x).abs() < 1e-6, "expected {e}, want {x}");
@@ -105,6 +107,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
                 periods: 2,
                 periodic: false,
                 level: 20.0,
+                whole_units: true,
                 expected: 20.0,
                 demand: 40.0,
                 promised: 1.0,
@@ -127,6 +130,7 @@ fn each_period_since_is_set_against_the_plan_of_then() {
                 periods: 2,
                 periodic: false,
                 level: 20.0,
+                whole_units: true,
                 expected: 20.0,
                 demand: 16.0,
                 promised: 1.0,
@@ -195,6 +199,7 @@ fn the_look_back_counts_from_the_files_end_and_leaves_shut_periods_out() {
                 periods: 2,
                 periodic: false,
                 level: 20.0,
+                whole_units: true,
                 expected: 20.0,
                 demand: 27.0,
                 promised: 1.0,
@@ -424,5 +429,33 @@ fn the_command_line_refuses_a_look_back_of_no_periods_and_names_items_it_cannot_
         "Look-back over 6 item(s)",
     ] {
         assert!(out.contains(said), "{said}: {out}");
+    }
+}
+
+/// The shortfall against a level, in whole units and not: (level, demand, whole units) to
+/// the shortfall.
+#[test]
+fn a_level_in_whole_units_counts_as_the_stock_an_order_brings() {
+    for (level, demand, whole_units, short) in [
+        (70.92, 71.0, true, 0.0),
+        (70.92, 71.0, false, 0.08),
+        (70.92, 72.0, true, 1.0),
+        (70.0, 69.0, true, 0.0),
+    ] {
+        let check = StockCheck::Checked {
+            periods: 1,
+            periodic: true,
+            level,
+            whole_units,
+            expected: 60.0,
+            demand,
+            promised: 0.95,
+        };
+        let got = check.shortfall().unwrap();
+        assert!(
+            (got - short).abs() < 1e-9,
+            "{level} {demand} {whole_units}: {got}"
+        );
+        assert_eq!(check.covered(), Some(short == 0.0));
     }
 }

@@ -7,6 +7,7 @@
 use std::cmp::Ordering;
 
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::calendar::Period;
 use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
 use morrowcast_engine::stock::Target;
 
@@ -372,8 +373,18 @@ pub fn look_back_misses(l: &LookBack) -> usize {
     known - l.within() + usize::from(l.stock.covered() == Some(false))
 }
 
+/// `n` periods in the file's own words ("1 month", "3 days").
+fn count(l: &LookBack, n: usize) -> String {
+    let (one, many) = l.made_after.frequency().period_words();
+    if n == 1 {
+        format!("1 {one}")
+    } else {
+        format!("{n} {many}")
+    }
+}
+
 /// The Look-back column's cell: what sold against the forecast and band of then, and whether
-/// the stock level held.
+/// the stock level held over its protection interval.
 pub fn look_back_cell(l: &LookBack) -> String {
     let (forecast, sold) = l.totals();
     let known = l.known().count();
@@ -394,9 +405,20 @@ pub fn look_back_cell(l: &LookBack) -> String {
     } else {
         format!(" ({} left out)", left_out.join(", "))
     };
+    // How far the forecast was off, against what sold (none where nothing sold).
+    let off = if sold > 0.0 && (forecast - sold).abs() >= 0.005 * sold {
+        let pct = 100.0 * (forecast - sold) / sold;
+        format!(
+            " ({:.0}% {})",
+            pct.abs(),
+            if pct > 0.0 { "high" } else { "low" }
+        )
+    } else {
+        String::new()
+    };
     let sales = match (l.steps.as_slice(), known) {
         ([step], 1) => format!(
-            "sold {} against {} ({}–{}): {}",
+            "sold {}, forecast {}{off}, band {}–{}: {}",
             units(sold),
             units(forecast),
             units(step.band.low),
@@ -410,14 +432,10 @@ pub fn look_back_cell(l: &LookBack) -> String {
         (_, 0) if gaps == 0 => "shut since".to_string(),
         (_, 0) => format!("no sales known since{left_out}"),
         (_, _) => format!(
-            "sold {} against {} over {}{left_out}; {} of {known} within the band",
+            "sold {}, forecast {}{off} over {}{left_out}; {} of {known} within the band",
             units(sold),
             units(forecast),
-            if known == 1 {
-                "1 period".to_string()
-            } else {
-                format!("{known} periods")
-            },
+            count(l, known),
             l.within(),
         ),
     };
@@ -426,13 +444,27 @@ pub fn look_back_cell(l: &LookBack) -> String {
         n => format!("{sales} ({n} beyond the plan's horizon)"),
     };
     let stock = match &l.stock {
-        StockCheck::Checked { level, demand, .. } if demand <= level => "stock level held".into(),
-        StockCheck::Checked { level, demand, .. } => {
-            format!("stock level short by {}", units(demand - level))
+        StockCheck::Checked { periods, .. } => {
+            let over = if *periods == known && known == l.steps.len() {
+                String::new()
+            } else {
+                let (one, _) = l.made_after.frequency().period_words();
+                match periods {
+                    1 => format!(" over the first {one}"),
+                    _ => format!(" over the first {}", count(l, *periods)),
+                }
+            };
+            match l.stock.shortfall() {
+                Some(short) if short > 0.0 => {
+                    format!("stock level short by {}{over}", units(short))
+                }
+                _ => format!("stock level held{over}"),
+            }
         }
-        StockCheck::TooSoon { periods, .. } => {
-            format!("stock level not judged before {periods} periods")
-        }
+        StockCheck::TooSoon { periods, passed } => format!(
+            "stock level not judged yet: {passed} of its {} have passed",
+            count(l, *periods)
+        ),
         StockCheck::NoInterval => "no lead time to judge".into(),
         StockCheck::Gap { .. } => "stock level not judged (a gap)".into(),
         StockCheck::NoFigures(_) => "no Stock plan then".into(),
@@ -451,17 +483,170 @@ pub fn units(v: f64) -> String {
     }
 }
 
-/// The Look-back of every row that has one, counted.
-pub fn look_back_tally(rows: &[Option<BoardRow>]) -> LookBackTally {
-    let mut tally = LookBackTally::default();
+/// The Look-back of every row that has one, counted, with what the line above the board says
+/// besides: the latest period a plan of then saw, and the shortest protection interval still
+/// to pass where no stock level could be judged yet.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct LookBackCounts {
+    pub tally: LookBackTally,
+    pub made_after: Option<Period>,
+    pub shortest_pending: Option<usize>,
+}
+
+/// Counts every row's Look-back.
+pub fn look_back_counts(rows: &[Option<BoardRow>]) -> LookBackCounts {
+    let mut counts = LookBackCounts::default();
     for row in rows.iter().flatten() {
         if let Ok(BoardFigures {
             look_back: Some(Ok(l)),
             ..
         }) = &row.figures
         {
-            tally.add(l);
+            counts.tally.add(l);
+            counts.made_after = counts.made_after.max(Some(l.made_after));
+            if let StockCheck::TooSoon { periods, .. } = l.stock {
+                counts.shortest_pending =
+                    Some(counts.shortest_pending.map_or(periods, |p| p.min(periods)));
+            }
         }
     }
-    tally
+    counts
+}
+
+/// The line above the board while a Look-back of `back` periods is shown; `words` the file's
+/// names for one period and several ("month", "months").
+pub fn look_back_summary(c: &LookBackCounts, back: usize, (one, many): (&str, &str)) -> String {
+    let n = |k: usize| {
+        if k == 1 {
+            format!("1 {one}")
+        } else {
+            format!("{k} {many}")
+        }
+    };
+    let share = |x: Option<f64>| x.map_or("–".to_string(), |v| format!("{:.1}%", 100.0 * v));
+    let t = &c.tally;
+    let when = match c.made_after {
+        Some(p) => format!("The plan made after {p} ({} ago)", n(back)),
+        None => format!("The plan of {} ago", n(back)),
+    };
+    let mut words = format!(
+        "{when}, set against what sold since, for {} items: {} of {} {many} within their band \
+         ({}).",
+        t.items,
+        t.within,
+        t.periods,
+        share(t.within_share())
+    );
+    if t.stock_checked > 0 {
+        words.push_str(&format!(
+            " The stock level of then covered the demand over its protection interval for {} of \
+             {} items ({}; the levels were set for {} on average).",
+            t.covered,
+            t.stock_checked,
+            share(t.covered_share()),
+            share(t.promised())
+        ));
+        if t.covered < t.stock_checked {
+            words.push_str(
+                " Items whose stock level fell short are marked in the Look-back column.",
+            );
+        }
+    } else if let Some(p) = c.shortest_pending {
+        words.push_str(&format!(
+            " No stock level can be judged yet: look back over at least the protection interval \
+             ({} for the shortest).",
+            n(p)
+        ));
+    }
+    words
+}
+
+/// The Look-back's columns in its CSV (names as `morrowcast look-back --json`'s where it has
+/// them).
+pub const LOOK_BACK_COLUMNS: [&str; 20] = [
+    "name",
+    "made_after",
+    "method",
+    "level",
+    "periods",
+    "counted",
+    "within",
+    "forecast_total",
+    "sold_total",
+    "gaps",
+    "shut",
+    "extended",
+    "stock_check",
+    "protection_periods",
+    "reorder_point",
+    "order_up_to",
+    "demand",
+    "shortfall",
+    "promised_cycle_service",
+    "problem",
+];
+
+/// The Look-back as CSV: one row per item in the file's order (the rows given), its counts and
+/// totals over the periods since, and its stock check; an item without one has the reason in
+/// `problem`. Numbers in Rust's shortest round-trip form, empty where a figure does not apply.
+pub fn look_back_csv(rows: &[&BoardRow]) -> String {
+    let mut w = csv::Writer::from_writer(Vec::new());
+    let _ = w.write_record(LOOK_BACK_COLUMNS);
+    let opt = |v: Option<f64>| v.map(|v| v.to_string()).unwrap_or_default();
+    for row in rows {
+        let found = match &row.figures {
+            Ok(BoardFigures {
+                look_back: Some(l), ..
+            }) => l.as_ref().map_err(Clone::clone),
+            Ok(_) => continue,
+            Err(problem) => Err(problem.clone()),
+        };
+        let mut r = vec![String::new(); LOOK_BACK_COLUMNS.len()];
+        r[0] = row.name.clone();
+        match found {
+            Ok(l) => {
+                let (forecast, sold) = l.totals();
+                let (gaps, shut) = l.left_out();
+                r[1] = l.made_after.to_string();
+                r[2] = l.method.clone();
+                r[3] = l.level.percent().to_string();
+                r[4] = l.steps.len().to_string();
+                r[5] = l.known().count().to_string();
+                r[6] = l.within().to_string();
+                r[7] = forecast.to_string();
+                r[8] = sold.to_string();
+                r[9] = gaps.to_string();
+                r[10] = shut.to_string();
+                r[11] = l.extended().to_string();
+                let (check, periods) = match &l.stock {
+                    StockCheck::Checked {
+                        periods,
+                        periodic,
+                        level,
+                        demand,
+                        promised,
+                        ..
+                    } => {
+                        r[if *periodic { 15 } else { 14 }] = level.to_string();
+                        r[16] = demand.to_string();
+                        r[18] = promised.to_string();
+                        ("checked", Some(*periods))
+                    }
+                    StockCheck::TooSoon { periods, .. } => ("too_soon", Some(*periods)),
+                    StockCheck::NoInterval => ("no_interval", None),
+                    StockCheck::Gap { periods } => ("gap", Some(*periods)),
+                    StockCheck::NoFigures(why) => {
+                        r[19] = why.clone();
+                        ("no_figures", None)
+                    }
+                };
+                r[12] = check.into();
+                r[13] = periods.map(|p| p.to_string()).unwrap_or_default();
+                r[17] = opt(l.stock.shortfall());
+            }
+            Err(problem) => r[19] = problem,
+        }
+        let _ = w.write_record(&r);
+    }
+    String::from_utf8(w.into_inner().unwrap_or_default()).unwrap_or_default()
 }

@@ -6,7 +6,7 @@
 
 use serde_json::{json, Value};
 
-use super::board::{set_field, wait_until_planned};
+use super::board::{saved_by, set_field, wait_until_planned};
 use super::page::{open, save_screenshot, wait_for_item, WAIT};
 use crate::support::cli;
 
@@ -90,16 +90,40 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
         .to_string();
     for said in [
         format!(
-            "{} of {} periods within their band",
+            "{} of {} months within their band",
             tally["within"], tally["periods"]
         ),
         format!(
             "for {} of {} items",
             tally["covered"], tally["stock_checked"]
         ),
-        "The plan of 2 periods ago".to_string(),
+        "The plan made after 2026-09 (2 months ago)".to_string(),
     ] {
         assert!(summary.contains(&said), "{said}: {summary}");
+    }
+
+    // The saved Look-back: a row per item, its within count as the command line's.
+    let (file, csv) = saved_by(browser, "export-look-back");
+    assert!(
+        file.contains("look-back") && file.ends_with(".csv"),
+        "{file}"
+    );
+    let lines: Vec<&str> = csv.lines().collect();
+    assert_eq!(lines.len(), 1 + items.len(), "{csv}");
+    let within_at = lines[0].split(',').position(|c| c == "within").unwrap();
+    for (line, item) in lines[1..].iter().zip(items) {
+        let within = item["periods"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .filter(|p| p["within"] == true)
+            .count();
+        assert!(line.starts_with(item["name"].as_str().unwrap()), "{line}");
+        assert_eq!(
+            line.split(',').nth(within_at),
+            Some(within.to_string().as_str()),
+            "{line}"
+        );
     }
 
     // A look back the field does not take is refused in words; the board keeps its counts.
@@ -109,10 +133,14 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
         "const p = document.querySelector('.look-back-tools .problem'); return p ? p.textContent : ''",
         WAIT,
     );
+    let refused = refused.as_str().unwrap();
     assert!(
-        refused.as_str().unwrap().contains("found \"2.5\""),
+        refused.contains("found \"2.5\". The Look-back shown is still of 2 months."),
         "{refused}"
     );
+    let invalid = browser
+        .js("return document.getElementById('board-look-back').getAttribute('aria-invalid')");
+    assert_eq!(invalid, json!("true"));
     // 0 takes the Look-back away.
     look_back(browser, "0");
     browser.wait_for_args(

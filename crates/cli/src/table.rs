@@ -397,21 +397,26 @@ fn stock_check(check: &StockCheck) -> String {
             expected,
             demand,
             promised,
+            whole_units,
         } => {
             let name = if *periodic {
                 "order-up-to level"
             } else {
                 "reorder point"
             };
-            let outcome = if demand <= level {
-                "covered".to_string()
-            } else {
-                format!("short by {:.2}", demand - level)
+            let outcome = match check.shortfall() {
+                Some(short) if short > 0.0 => format!("short by {short:.2}"),
+                _ => "covered".to_string(),
             };
             format!(
-                "{name} {level:.2} against a demand of {demand:.2} over the {periods} period(s) \
-                 after the plan: {outcome} (expected {expected:.2}; set for a cycle service \
-                 level of {:.1} %)",
+                "{name} {level:.2}{} against a demand of {demand:.2} over the {periods} \
+                 period(s) after the plan: {outcome} (expected {expected:.2}; set for a cycle \
+                 service level of {:.1} %)",
+                if *whole_units && level.fract() != 0.0 {
+                    format!(" (stocked as {:.0}, whole units)", level.ceil())
+                } else {
+                    String::new()
+                },
                 100.0 * promised
             )
         }

@@ -444,7 +444,10 @@ pub struct StockCheckJson {
     pub order_up_to: Option<f64>,
     pub expected: Option<f64>,
     pub demand: Option<f64>,
+    /// Whether the level covered the demand (with whole units, the level rounded up, as the
+    /// stock an order brings), and by how much the demand went beyond it.
     pub covered: Option<bool>,
+    pub shortfall: Option<f64>,
     pub promised_cycle_service: Option<f64>,
     pub why: Option<String>,
 }
@@ -489,6 +492,7 @@ impl From<&StockCheck> for StockCheckJson {
             expected: None,
             demand: None,
             covered: c.covered(),
+            shortfall: c.shortfall(),
             promised_cycle_service: None,
             why: None,
         };
@@ -500,6 +504,7 @@ impl From<&StockCheck> for StockCheckJson {
                 expected,
                 demand,
                 promised,
+                ..
             } => {
                 out.check = "checked";
                 out.protection_periods = Some(*periods);

@@ -20,7 +20,7 @@ use crate::order::{plan_order, OrderError};
 use crate::plan::{plan_item, ForecastPoint, MIN_PERIODS};
 use crate::series::Series;
 use crate::settings::{PlanSettings, SettingError};
-use crate::stock::{StockPlan, StockSettings};
+use crate::stock::{counts_whole_units, StockPlan, StockSettings};
 
 /// Why an item has no Look-back.
 #[derive(Clone, Debug, PartialEq)]
@@ -118,6 +118,9 @@ pub enum StockCheck {
         periodic: bool,
         /// The reorder point (continuous review) or order-up-to level (periodic) of then.
         level: f64,
+        /// The history counts whole units ([`counts_whole_units`]): the stock an order brings
+        /// reaches the level rounded up, which is what the demand is set against.
+        whole_units: bool,
         /// The demand over P the plan expected.
         expected: f64,
         /// The demand over P that came.
@@ -145,12 +148,27 @@ pub enum StockCheck {
 }
 
 impl StockCheck {
-    /// Whether the level covered the demand over P (`None` when not checked).
-    pub fn covered(&self) -> Option<bool> {
+    /// How far the demand over P went beyond the level (0 when covered; `None` when not
+    /// checked). With whole units the level counts rounded up: 71 sold against a level of
+    /// 70.92 is covered, as the 71 units an order brings cover it.
+    pub fn shortfall(&self) -> Option<f64> {
         match *self {
-            StockCheck::Checked { level, demand, .. } => Some(demand <= level),
+            StockCheck::Checked {
+                level,
+                demand,
+                whole_units,
+                ..
+            } => {
+                let stocked = if whole_units { level.ceil() } else { level };
+                Some((demand - stocked).max(0.0))
+            }
             _ => None,
         }
+    }
+
+    /// Whether the level covered the demand over P (`None` when not checked).
+    pub fn covered(&self) -> Option<bool> {
+        self.shortfall().map(|short| short == 0.0)
     }
 }
 
@@ -296,7 +314,7 @@ pub fn look_back(
         })
         .collect();
     let stock = match stock_plan {
-        Ok(stock) => stock_check(&steps, &stock),
+        Ok(stock) => stock_check(&steps, &stock, counts_whole_units(&plan)),
         Err(why) => StockCheck::NoFigures(why),
     };
     Ok(LookBack {
@@ -310,7 +328,7 @@ pub fn look_back(
 }
 
 /// The Stock plan's level against the demand over the first P periods since.
-fn stock_check(steps: &[LookBackStep], stock: &StockPlan) -> StockCheck {
+fn stock_check(steps: &[LookBackStep], stock: &StockPlan, whole_units: bool) -> StockCheck {
     let stock_periods = stock.protection_periods;
     if stock_periods == 0 {
         StockCheck::NoInterval
@@ -329,6 +347,7 @@ fn stock_check(steps: &[LookBackStep], stock: &StockPlan) -> StockCheck {
                 periods: stock_periods,
                 periodic: stock.settings.review_period().is_some(),
                 level: stock.figures.level,
+                whole_units,
                 expected: stock.demand_over_protection,
                 demand,
                 promised: stock.figures.cycle_service_level,

@@ -349,6 +349,13 @@ fn shut_ahead(plan: &ItemPlan, settings: &StockSettings) -> usize {
     }
 }
 
+/// Whether the item's history counts whole units (every value whole): an order is then
+/// rounded up to a whole unit ([`suggested_order`]), so the stock it brings reaches the level
+/// rounded up.
+pub fn counts_whole_units(plan: &ItemPlan) -> bool {
+    plan.history.iter().all(|v| v.fract() == 0.0)
+}
+
 /// P for this plan: [`StockSettings::protection_periods`] and the shut periods it reaches
 /// over ([`shut_ahead`]); the plan must forecast this far.
 pub fn protection_periods_of(plan: &ItemPlan, settings: &StockSettings) -> usize {
@@ -481,7 +488,7 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                 .to_string(),
         );
     }
-    let whole_units = plan.history.iter().all(|v| v.fract() == 0.0);
+    let whole_units = counts_whole_units(plan);
     let suggested = settings.position.map(|position| {
         suggested_order(
             review,

@@ -36,8 +36,9 @@ use std::fmt;
 
 pub use empirical::empirical_figures;
 pub use item::{
-    demand_over, plan_stock, protection_periods_of, service_fraction, service_fraction_of,
-    suggested_order, Distribution, Position, StockPlan, StockSettings, MAX_PERIODS,
+    counts_whole_units, demand_over, plan_stock, protection_periods_of, service_fraction,
+    service_fraction_of, suggested_order, Distribution, Position, StockPlan, StockSettings,
+    MAX_PERIODS,
 };
 pub use normal::{
     figures, inverse_normal_loss, normal_loss, sd_independent, sd_per_horizon,
