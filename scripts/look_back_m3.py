@@ -1,7 +1,8 @@
 #!/usr/bin/env python3
 """The Look-back held out on the M3 monthly data: each of the 1,428 series cut to its training
 part plus the first 3 held-out months, then `morrowcast look-back --periods 3` (the plan made on
-the training part alone, set against those 3 months). Prints the file's counts: how often the
+the training part alone, set against those 3 months), on one file per end date (the Look-back
+counts back from a file's last period). Prints the file's counts: how often the
 bands held, and how often the reorder point covered the demand over the lead time.
 
 Usage: python3 scripts/look_back_m3.py BINARY [extra look-back options]
@@ -27,7 +28,9 @@ def main():
         sys.exit(__doc__)
     binary, extra = sys.argv[1], sys.argv[2:]
     held = collections.Counter()
-    lines = ["item,month,units"]
+    # Series by the period they end at: the Look-back counts back from a file's last period,
+    # and the M3 series end at different dates, so each end date gets a file of its own.
+    files = collections.defaultdict(list)
     with open(M3, newline="") as f:
         for r in csv.DictReader(f):
             if r["subset"] != "MONTHLY":
@@ -39,18 +42,33 @@ def main():
             year, month = r["period"].split("-")
             if int(year) < 1000:
                 year = str(2000 + int(year))
-            lines.append(f"{r['id']},{year}-{month},{r['value']}")
-    with tempfile.NamedTemporaryFile("w", suffix=".csv", delete=False) as t:
-        t.write("\n".join(lines) + "\n")
-    try:
-        args = [binary, "look-back", t.name, "--periods", str(HELD), "--json"] + extra
-        out = subprocess.run(args, capture_output=True, text=True, check=True)
-    finally:
-        os.unlink(t.name)
-    found = json.loads(out.stdout)
-    print(" ".join(args[1:2] + args[3:]))
-    print(json.dumps(found["tally"], indent=2))
-    print("failed:", len(found["failed"]))
+            files[r["id"]].append(f"{r['id']},{year}-{month},{r['value']}")
+    by_end = collections.defaultdict(list)
+    for rows in files.values():
+        by_end[rows[-1].split(",")[1]].extend(rows)
+    keys = ["items", "periods", "within", "stock_checked", "covered"]
+    tally = dict.fromkeys(keys, 0)
+    promised = 0.0
+    failed = 0
+    for rows in by_end.values():
+        with tempfile.NamedTemporaryFile("w", suffix=".csv", delete=False) as t:
+            t.write("item,month,units\n" + "\n".join(rows) + "\n")
+        try:
+            args = [binary, "look-back", t.name, "--periods", str(HELD), "--json"] + extra
+            out = subprocess.run(args, capture_output=True, text=True)
+        finally:
+            os.unlink(t.name)
+        found = json.loads(out.stdout)
+        for k in keys:
+            tally[k] += found["tally"][k]
+        promised += (found["tally"]["promised_cycle_service"] or 0) * found["tally"]["stock_checked"]
+        failed += len(found["failed"])
+    print(" ".join(["look-back", "--periods", str(HELD)] + extra), f"({len(by_end)} files by end date)")
+    tally["within_share"] = tally["within"] / tally["periods"]
+    tally["covered_share"] = tally["covered"] / tally["stock_checked"]
+    tally["promised_cycle_service"] = promised / tally["stock_checked"]
+    print(json.dumps(tally, indent=2))
+    print("failed:", failed)
 
 
 if __name__ == "__main__":

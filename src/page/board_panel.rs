@@ -12,8 +12,8 @@ use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
 use super::board::{
-    look_back_cell, look_back_counts, look_back_csv, look_back_summary, order_plan_csv, sort_rows,
-    units, AlertFilter, Filter, ItemChange, SortKey, COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
+    look_back_cell, order_plan_csv, sort_rows, units, AlertFilter, Filter, ItemChange, SortKey,
+    COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
 };
 use super::browser;
 use super::export::file_name;
@@ -204,7 +204,7 @@ pub fn ItemBoard() -> impl IntoView {
                 </button>
                 <button type="button" id="print-board" on:click=print>"Print the board"</button>
             </div>
-            <LookBackTools/>
+            <super::look_back::LookBackTools/>
             <p class="board-count" id="board-count">{move || {
                 let n = visible.with(Vec::len);
                 let of = board.rows.with(|r| r.iter().flatten().count());
@@ -274,83 +274,6 @@ pub fn ItemBoard() -> impl IntoView {
         </section>
     }
 }
-
-/// The Look-back's control and, while one is asked for, its counts over every item: the plan
-/// of some periods ago against what sold since.
-#[component]
-fn LookBackTools() -> impl IntoView {
-    let board = expect_context::<BoardState>();
-    let intake = expect_context::<IntakeState>();
-    let words = Memo::new(move |_| intake.report.with(|r| r.frequency.period_words()));
-    let typed = RwSignal::new(String::from("0"));
-    let problem = RwSignal::new(None::<String>);
-    let set = move |text: String| {
-        typed.set(text.clone());
-        // An emptied field turns the Look-back off, as 0 does.
-        let text = text.trim();
-        match if text.is_empty() {
-            Ok(0)
-        } else {
-            text.parse::<usize>()
-        } {
-            Ok(n) if n <= MAX_LOOK_BACK => {
-                problem.set(None);
-                board.look_back.set(n);
-            }
-            _ => {
-                let (_, many) = words.get_untracked();
-                let still = match board.look_back.get_untracked() {
-                    0 => String::new(),
-                    n => format!(" The Look-back shown is still of {n} {many}."),
-                };
-                problem.set(Some(format!(
-                    "Look back a whole number of {many} from 0 (off) to {MAX_LOOK_BACK}; found \"{text}\".{still}"
-                )));
-            }
-        }
-    };
-    let save = move |_| {
-        let csv = board.rows.with(|rows| {
-            let all: Vec<&BoardRow> = rows.iter().flatten().collect();
-            look_back_csv(&all)
-        });
-        let name = file_name("all-items", "look-back", &browser::today(), "csv");
-        browser::download_text(&name, "text/csv", &csv);
-    };
-    let summary = move || {
-        let back = board.look_back.get();
-        (back > 0).then(|| {
-            let counts = board.rows.with(|rows| look_back_counts(rows));
-            look_back_summary(&counts, back, words.get())
-        })
-    };
-    view! {
-        <div class="look-back-tools">
-            <div class="field inline">
-                <label for="board-look-back">"How the plan did: look back"</label>
-                <input id="board-look-back" type="number" min="0" max=MAX_LOOK_BACK.to_string() step="1"
-                    inputmode="numeric" aria-describedby="board-look-back-help"
-                    aria-invalid=move || if problem.with(Option::is_some) { "true" } else { "false" }
-                    prop:value=move || typed.get()
-                    on:change=move |ev| set(event_target_value(&ev))/>
-                <span class="unit">{move || words.get().1}</span>
-                <span id="board-look-back-help" class="hint">"0 = off. When on, each item's plan of then is set against what sold since (every item is planned twice, so the board takes longer)."</span>
-            </div>
-            {move || problem.get().map(|p| view! { <p class="problem" role="alert">{p}</p> })}
-            {move || summary().map(|s| view! { <p class="look-back-summary" id="board-look-back-summary" role="status">{s}</p> })}
-            <Show when=move || { board.look_back.get() > 0 }>
-                <button type="button" id="export-look-back" on:click=save
-                    disabled=move || { board.planned.get() < board.total.get() || board.blocked.with(Option::is_some) }>
-                    "Save the Look-back (CSV)"
-                </button>
-            </Show>
-        </div>
-    }
-}
-
-/// The most periods the Look-back looks back over (our choice: two years of months; further
-/// back than that the plan of then is no longer the question).
-const MAX_LOOK_BACK: usize = 24;
 
 /// A text field of the stock settings.
 #[component]

@@ -22,6 +22,8 @@ mod in_browser;
 #[cfg(target_arch = "wasm32")]
 mod keep;
 #[cfg(target_arch = "wasm32")]
+mod look_back;
+#[cfg(target_arch = "wasm32")]
 mod panels;
 #[cfg(target_arch = "wasm32")]
 mod pool;

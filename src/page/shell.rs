@@ -62,6 +62,7 @@ pub fn App() -> impl IntoView {
                 // Until there is a plan, a short guide instead of empty charts and bare tables.
                 <Show when=move || state.plan.with(|p| matches!(p, Some(Ok(_)))) fallback=WhatComes>
                     <ItemStock/>
+                    <super::look_back::ItemLookBack/>
                     <LookAheadPanel/>
                     <Ranking/>
                     <ErrorLedger/>

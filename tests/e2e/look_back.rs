@@ -102,6 +102,21 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
         assert!(summary.contains(&said), "{said}: {summary}");
     }
 
+    // The open item's periods since, one by one, as the command line's.
+    let shown = browser.js(
+        "return [...document.querySelectorAll('#item-look-back-table tbody tr')].map(r => r.children[3].textContent)",
+    );
+    let sold: Vec<String> = items[0]["periods"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| format!("{}", p["sold"].as_f64().unwrap()))
+        .collect();
+    assert_eq!(shown, json!(sold), "the open item's periods since");
+    browser.js("document.getElementById('item-look-back').scrollIntoView()");
+    save_screenshot(browser, "item-look-back.png");
+    browser.js("window.scrollTo(0, 0)");
+
     // The saved Look-back: a row per item, its within count as the command line's.
     let (file, csv) = saved_by(browser, "export-look-back");
     assert!(
