@@ -240,6 +240,51 @@ fn rows_sort_with_missing_values_last_and_ties_in_file_order() {
     check(&r, SortKey::Alerts, true, &["d", "c", "b", "e", "A"]);
 }
 
+/// Items whose stock level of then fell short in the Look-back: one made-up row short, one
+/// covered, one without a Look-back, one without figures; only the first passes.
+#[test]
+fn the_short_stock_filter_shows_the_items_whose_level_fell_short() {
+    use morrowcast_engine::bands::Level;
+    use morrowcast_engine::calendar::Period;
+    let mut r = rows(&[
+        ("Seed tray", Some(Some(0.9)), &[]),
+        ("Trowel", Some(Some(0.5)), &[]),
+        ("Hose reel", Some(Some(0.5)), &[]),
+        ("Seed drill", None, &[]),
+    ]);
+    for (row, demand) in r.iter_mut().zip([12.0, 9.0]) {
+        if let Ok(f) = &mut row.figures {
+            f.look_back = Some(Ok(LookBack {
+                name: row.name.clone(),
+                made_after: Period::month(2026, 10),
+                method: "Theta".into(),
+                level: Level::try_from(95.0).unwrap(),
+                steps: Vec::new(),
+                stock: StockCheck::Checked {
+                    periods: 1,
+                    periodic: false,
+                    level: 10.0,
+                    whole_units: true,
+                    expected: 8.0,
+                    demand,
+                    promised: 0.95,
+                },
+            }));
+        }
+    }
+    let filter = Filter {
+        text: String::new(),
+        alert: AlertFilter::from_key("short-stock"),
+    };
+    assert_eq!(filter.alert.key(), "short-stock");
+    let passed: Vec<&str> = r
+        .iter()
+        .filter(|row| filter.passes(row))
+        .map(|row| row.name.as_str())
+        .collect();
+    assert_eq!(passed, ["Seed tray"]);
+}
+
 #[test]
 fn filters_by_text_and_by_alert() {
     use AlertKind::*;

@@ -188,6 +188,8 @@ pub enum AlertFilter {
     /// Items without figures (their history could not be planned).
     Failed,
     Kind(AlertKind),
+    /// Items whose stock level of then fell short in the Look-back.
+    ShortStock,
 }
 
 impl AlertFilter {
@@ -198,6 +200,7 @@ impl AlertFilter {
             AlertFilter::Any => "any",
             AlertFilter::Failed => "failed",
             AlertFilter::Kind(k) => k.key(),
+            AlertFilter::ShortStock => "short-stock",
         }
     }
 
@@ -206,6 +209,7 @@ impl AlertFilter {
         match key {
             "any" => AlertFilter::Any,
             "failed" => AlertFilter::Failed,
+            "short-stock" => AlertFilter::ShortStock,
             _ => AlertKind::ALL
                 .into_iter()
                 .find(|k| k.key() == key)
@@ -231,6 +235,11 @@ impl Filter {
             (AlertFilter::Failed, Ok(_)) => false,
             (AlertFilter::Kind(k), Ok(f)) => f.alerts.iter().any(|a| a.kind == k),
             (AlertFilter::Kind(_), Err(_)) => false,
+            (AlertFilter::ShortStock, Ok(f)) => matches!(
+                &f.look_back,
+                Some(Ok(l)) if l.stock.covered() == Some(false)
+            ),
+            (AlertFilter::ShortStock, Err(_)) => false,
         };
         text_ok && alert_ok
     }

@@ -137,6 +137,7 @@ fn outcome(step: &morrowcast_engine::lookback::LookBackStep) -> &'static str {
 
 fn item_look_back(l: &LookBack) -> impl IntoView {
     let extended = l.extended() > 0;
+    let (one, many) = l.made_after.frequency().period_words();
     let stock = match &l.stock {
         StockCheck::Checked {
             periods,
@@ -154,9 +155,9 @@ fn item_look_back(l: &LookBack) -> impl IntoView {
             },
             units(*level),
             if *periods == 1 {
-                "period".to_string()
+                one.to_string()
             } else {
-                format!("{periods} periods")
+                format!("{periods} {many}")
             },
             units(*demand),
             units(*expected)

@@ -117,6 +117,32 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
     save_screenshot(browser, "item-look-back.png");
     browser.js("window.scrollTo(0, 0)");
 
+    // Show only the items whose stock level fell short: as many as the command line says.
+    let short = items
+        .iter()
+        .filter(|i| i["stock"]["covered"] == false)
+        .count();
+    let show = |value: &str| {
+        browser.js_args(
+            "const s = document.getElementById('board-alert'); s.value = arguments[0]; \
+             s.dispatchEvent(new Event('change', { bubbles: true }));",
+            json!([value]),
+        )
+    };
+    show("short-stock");
+    browser.wait_for_args(
+        "only the items whose stock level fell short",
+        "return document.getElementById('board-count').textContent.startsWith('Showing ' + arguments[0] + ' of ' + arguments[0] + ' matching')",
+        json!([short]),
+        WAIT,
+    );
+    show("all");
+    browser.wait_for(
+        "every item again",
+        "return document.querySelectorAll('#board-table tbody tr').length === 6",
+        WAIT,
+    );
+
     // The saved Look-back: a row per item, its within count as the command line's.
     let (file, csv) = saved_by(browser, "export-look-back");
     assert!(
