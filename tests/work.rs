@@ -106,6 +106,7 @@ fn fixture_work() -> Work {
         }),
         changes,
         open_item: Some("Frost cloth".into()),
+        look_back: 0,
     }
 }
 
@@ -150,6 +151,21 @@ fn a_version_one_file_and_a_link_packed_by_python_open_to_the_same_desk() {
 #[test]
 fn what_morrowcast_writes_opens_to_what_it_wrote() {
     let work = fixture_work();
+    // A work without a Look-back is written as version 1 (older builds open it), one with it
+    // as version 2.
+    assert!(work.to_file_text().contains("\"morrowcast_work\": 1,"));
+    assert!(!work.to_file_text().contains("look_back"));
+    let looking_back = Work {
+        look_back: 2,
+        ..work.clone()
+    };
+    let text = looking_back.to_file_text();
+    assert!(text.contains("\"morrowcast_work\": 2,") && text.contains("\"look_back\": 2"));
+    check(&text, Read::Opens(Box::new(looking_back.clone())));
+    check(
+        &looking_back.to_fragment(),
+        Read::Opens(Box::new(looking_back)),
+    );
     check(&work.to_file_text(), Read::Opens(Box::new(work.clone())));
     check(
         &format!("http://127.0.0.1:8080/{}", work.to_fragment()),
@@ -238,8 +254,36 @@ fn newer_formats_strange_fields_and_bad_changes_are_named() {
     let file = fixture("work-v1.json");
     check("#w2.eJwDAAAAAAE", Read::Newer(2));
     check(
-        &file.replacen("\"morrowcast_work\": 1", "\"morrowcast_work\": 2", 1),
-        Read::Newer(2),
+        &file.replacen("\"morrowcast_work\": 1", "\"morrowcast_work\": 3", 1),
+        Read::Newer(3),
+    );
+    // Version 2 is version 1 and the Look-back; version 1 does not carry one.
+    let looking_back = |version: u64, periods: usize| {
+        file.replacen(
+            "\"morrowcast_work\": 1",
+            &format!("\"morrowcast_work\": {version}"),
+            1,
+        )
+        .replacen(
+            "\"open_item\"",
+            &format!("\"look_back\": {periods},\n  \"open_item\""),
+            1,
+        )
+    };
+    check(
+        &looking_back(2, 3),
+        Read::Opens(Box::new(Work {
+            look_back: 3,
+            ..fixture_work()
+        })),
+    );
+    check(
+        &looking_back(1, 3),
+        Read::Unreadable("look_back is a field of version 2"),
+    );
+    check(
+        &looking_back(2, 30),
+        Read::Unreadable("look_back takes 0 to 24"),
     );
     check(
         &file.replacen("\"open_item\"", "\"opened_item\"", 1),
@@ -508,4 +552,38 @@ fn the_command_line_says_why_a_link_does_not_open() {
     );
     assert_eq!(run.code, 2, "{}", run.stderr);
     assert!(run.stdout.is_empty());
+}
+
+/// A work carries the board's Look-back: `work --look-back 2` writes it, `look-back` on that
+/// work looks back over 2 periods unless told otherwise, and a bad count is refused.
+#[test]
+fn a_work_carries_the_look_back_to_the_command_line() {
+    let demo = cli(&["demo"], b"").stdout;
+    let written = cli(&["work", "-", "--look-back", "2"], &demo);
+    assert_eq!(written.code, 0, "{}", written.stderr);
+    let file = table_file("look-back-work.json", &written.text());
+    assert!(written.text().contains("\"look_back\": 2"));
+    let back = cli(&["look-back", &file], b"");
+    assert_eq!(back.code, 0, "{}", back.stderr);
+    assert!(
+        back.text().contains("the plan of 2 period(s) ago"),
+        "{}",
+        back.text()
+    );
+    let told = cli(&["look-back", &file, "--periods", "1"], b"");
+    assert!(
+        told.text().contains("the plan of 1 period(s) ago"),
+        "{}",
+        told.text()
+    );
+    // Looking back 0 in the work leaves the command's own default, 1.
+    let off = cli(&["work", &file, "--look-back", "0"], b"");
+    assert!(!off.text().contains("look_back"), "{}", off.text());
+    let bad = cli(&["work", "-", "--look-back", "25"], &demo);
+    assert_eq!(bad.code, 2);
+    assert!(
+        bad.stderr.contains("--look-back takes a whole number"),
+        "{}",
+        bad.stderr
+    );
 }

@@ -7,7 +7,7 @@
 //! the line above the board, the CSV) and the board itself (board_panel.rs).
 
 use leptos::prelude::*;
-use morrowcast_engine::lookback::{LookBack, StockCheck};
+use morrowcast_engine::lookback::{LookBack, StockCheck, MOST_PERIODS_SHOWN};
 
 use super::board::{look_back_cell, look_back_counts, look_back_csv, look_back_summary, units};
 use super::browser;
@@ -22,19 +22,22 @@ pub fn LookBackTools() -> impl IntoView {
     let board = expect_context::<BoardState>();
     let intake = expect_context::<IntakeState>();
     let words = Memo::new(move |_| intake.report.with(|r| r.frequency.period_words()));
-    let typed = RwSignal::new(String::from("0"));
+    // The text of a refused entry, shown until the next one; otherwise the field shows the
+    // Look-back's periods (a work opened may set them).
+    let refused = RwSignal::new(None::<String>);
     let problem = RwSignal::new(None::<String>);
-    let set = move |text: String| {
-        typed.set(text.clone());
+    let set = move |typed: String| {
+        refused.set(Some(typed.clone()));
         // An emptied field turns the Look-back off, as 0 does.
-        let text = text.trim();
+        let text = typed.trim();
         match if text.is_empty() {
             Ok(0)
         } else {
             text.parse::<usize>()
         } {
-            Ok(n) if n <= MAX_LOOK_BACK => {
+            Ok(n) if n <= MOST_PERIODS_SHOWN => {
                 problem.set(None);
+                refused.set(None);
                 board.look_back.set(n);
             }
             _ => {
@@ -44,7 +47,7 @@ pub fn LookBackTools() -> impl IntoView {
                     n => format!(" The Look-back shown is still of {n} {many}."),
                 };
                 problem.set(Some(format!(
-                    "Look back a whole number of {many} from 0 (off) to {MAX_LOOK_BACK}; found \"{text}\".{still}"
+                    "Look back a whole number of {many} from 0 (off) to {MOST_PERIODS_SHOWN}; found \"{text}\".{still}"
                 )));
             }
         }
@@ -68,10 +71,10 @@ pub fn LookBackTools() -> impl IntoView {
         <div class="look-back-tools">
             <div class="field inline">
                 <label for="board-look-back">"How the plan did: look back"</label>
-                <input id="board-look-back" type="number" min="0" max=MAX_LOOK_BACK.to_string() step="1"
+                <input id="board-look-back" type="number" min="0" max=MOST_PERIODS_SHOWN.to_string() step="1"
                     inputmode="numeric" aria-describedby="board-look-back-help"
                     aria-invalid=move || if problem.with(Option::is_some) { "true" } else { "false" }
-                    prop:value=move || typed.get()
+                    prop:value=move || refused.get().unwrap_or_else(|| board.look_back.get().to_string())
                     on:change=move |ev| set(event_target_value(&ev))/>
                 <span class="unit">{move || words.get().1}</span>
                 <span id="board-look-back-help" class="hint">"0 = off. When on, each item's plan of then is set against what sold since (every item is planned twice, so the board takes longer)."</span>
@@ -87,10 +90,6 @@ pub fn LookBackTools() -> impl IntoView {
         </div>
     }
 }
-
-/// The most periods the Look-back looks back over (our choice: two years of months; further
-/// back than that the plan of then is no longer the question).
-const MAX_LOOK_BACK: usize = 24;
 
 /// The open item's Look-back, period by period (shown while the board has one for it).
 #[component]

@@ -7,7 +7,7 @@
 use serde_json::{json, Value};
 
 use super::board::{saved_by, set_field, wait_until_planned};
-use super::page::{open, save_screenshot, wait_for_item, WAIT};
+use super::page::{open, open_at, save_screenshot, wait_for_item, WAIT};
 use crate::support::cli;
 
 /// Sets the Look-back's field and tells the page it changed (it acts on "change").
@@ -192,4 +192,27 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
         WAIT,
     );
     wait_until_planned(browser, 6);
+}
+
+/// A share link made with `morrowcast link --look-back 2` opens the board with that Look-back:
+/// the field shows it, the counts are there, and the notice names it.
+#[test]
+fn a_share_link_opens_the_board_with_its_look_back() {
+    let demo = cli(&["demo"], b"").stdout;
+    let made = cli(&["link", "-", "--look-back", "2"], &demo);
+    assert_eq!(made.code, 0, "{}", made.stderr);
+    let link = made.text();
+    let fragment = link[link.find('#').unwrap()..].trim().to_string();
+    let Some(page) = open_at((1366, 900), &fragment) else {
+        return;
+    };
+    let browser = &page.browser;
+    browser.wait_for(
+        "the Look-back's counts",
+        "const s = document.getElementById('board-look-back-summary'); \
+         return !!s && s.textContent.includes('(2 months ago)') && s.textContent.includes('for 6 items')",
+        WAIT,
+    );
+    let field = browser.js("return document.getElementById('board-look-back').value");
+    assert_eq!(field, json!("2"));
 }

@@ -8,6 +8,7 @@
 
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
+use morrowcast_engine::lookback::MOST_PERIODS_SHOWN;
 use morrowcast_engine::settings::{Choice, PlanSettings, Setting, SettingsText};
 use morrowcast_engine::stock::{self, StockText, TargetKind};
 
@@ -25,8 +26,8 @@ usage:
                    [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
                    [forecast options] [--json]
   morrowcast look-back FILE [--periods N] [stock options] [forecast options] [--json]
-  morrowcast link FILE [--item NAME] [--page ADDRESS] [stock options] [forecast options]
-  morrowcast work FILE [--item NAME] [stock options] [forecast options]
+  morrowcast link FILE [--item NAME] [--page ADDRESS] [--look-back N] [stock options] [forecast options]
+  morrowcast work FILE [--item NAME] [--look-back N] [stock options] [forecast options]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
 FILE may be - for standard input, a work file, or a share link (or its fragment, #w1...): a
 work brings its data, settings, stock inputs and item changes; options given replace its own.
@@ -43,8 +44,8 @@ continuous review; none leaves it, --lead-time-sd or --order-quantity out, a wor
 hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
 quantity, order multiple, minimum order (each overrides the options for its item). Stock figures
 are estimates from past demand: your own policies, supplier terms and judgement decide the order.
-look-back: the plan of N periods ago (default 1; the history without its last N periods, the same
-settings) against what sold since: each period's forecast and band, and whether the reorder point
+look-back: the plan of N periods ago (default a work's own Look-back, else 1; the history without
+its last N periods, the same settings) against what sold since: each period's forecast and band, and whether the reorder point
 (or order-up-to level) covered the demand over its protection interval once that has passed.",
         Setting::Horizon.allowed(),
         Setting::Holdout.allowed(),
@@ -79,14 +80,16 @@ pub enum Written {
 }
 
 pub struct LookBackArgs {
-    /// Periods to look back over.
-    pub periods: usize,
+    /// Periods to look back over (`None`: a work's own Look-back, else 1).
+    pub periods: Option<usize>,
     /// FILE, the items, the settings and stock inputs.
     pub stock: StockArgs,
 }
 
 pub struct LinkArgs {
     pub written: Written,
+    /// `--look-back N`: the Look-back the page shows (0: none); `None` keeps a work's own.
+    pub look_back: Option<usize>,
     /// The page's address the link starts with.
     pub page: String,
     /// FILE, the settings and stock inputs, and the item to open (at most one in `items`).
@@ -259,10 +262,7 @@ fn parse_look_back(rest: &[String]) -> Result<LookBackArgs, String> {
         );
         Ok(true)
     })?;
-    Ok(LookBackArgs {
-        periods: periods.unwrap_or(1),
-        stock,
-    })
+    Ok(LookBackArgs { periods, stock })
 }
 
 fn parse_link(command: &str, rest: &[String]) -> Result<LinkArgs, String> {
@@ -272,9 +272,24 @@ fn parse_link(command: &str, rest: &[String]) -> Result<LinkArgs, String> {
         Written::WorkFile
     };
     let mut page = None;
+    let mut look_back = None;
     let stock = parse_stock(command, rest, &mut |flag, value| {
         if flag == "--page" && written == Written::Link {
             page = Some(value.to_string());
+            return Ok(true);
+        }
+        if flag == "--look-back" {
+            look_back = Some(
+                value
+                    .trim()
+                    .parse::<usize>()
+                    .ok()
+                    .filter(|n| *n <= MOST_PERIODS_SHOWN)
+                    .ok_or(format!(
+                        "--look-back takes a whole number of periods from 0 (none) to \
+                         {MOST_PERIODS_SHOWN}; found \"{value}\""
+                    ))?,
+            );
             return Ok(true);
         }
         Ok(false)
@@ -297,6 +312,7 @@ fn parse_link(command: &str, rest: &[String]) -> Result<LinkArgs, String> {
     }
     Ok(LinkArgs {
         written,
+        look_back,
         page,
         stock,
     })

@@ -151,6 +151,7 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     work.stock = sa.typed_stock.over(&work.stock);
     work.stock_table = table.map(|(_, t)| t);
     work.open_item = open.or(work.open_item);
+    work.look_back = la.look_back.unwrap_or(work.look_back);
     match la.written {
         Written::WorkFile => console.out(&format!("{}\n", work.to_file_text())),
         Written::Link => {
@@ -340,6 +341,10 @@ fn look_back(
     la: &LookBackArgs,
 ) -> u8 {
     let sa = &la.stock;
+    let periods = la.periods.unwrap_or(match input {
+        Input::Work(w, _) if w.look_back > 0 => w.look_back,
+        _ => 1,
+    });
     let report = input.report();
     let table = table.map(|(t, _)| t);
     let warnings = match stock_table_warnings(console, report, table, sa.json) {
@@ -358,7 +363,7 @@ fn look_back(
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
-        header: Some(table::look_back_header(la.periods)),
+        header: Some(table::look_back_header(periods)),
         warnings,
         closing: Some(closing),
     };
@@ -375,7 +380,7 @@ fn look_back(
                 plan_settings,
                 stock_settings,
                 row.as_ref(),
-                la.periods,
+                periods,
                 file_end,
             )
             .map_err(|e| e.to_string())

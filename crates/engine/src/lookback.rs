@@ -22,6 +22,11 @@ use crate::series::Series;
 use crate::settings::{PlanSettings, SettingError};
 use crate::stock::{counts_whole_units, StockPlan, StockSettings};
 
+/// The most periods the page's Look-back (and a work carrying one) looks back over: our
+/// choice, two years of months; further back the plan of then is no longer the question. The
+/// command line's `look-back` takes any number the history allows.
+pub const MOST_PERIODS_SHOWN: usize = 24;
+
 /// Why an item has no Look-back.
 #[derive(Clone, Debug, PartialEq)]
 pub enum LookBackError {

@@ -1,5 +1,6 @@
-//! The work file's JSON, version 1: every name of the format is in this file (README, "Work
-//! file format", documents it). The share link carries the same JSON.
+//! The work file's JSON, versions 1 and 2 (2 = 1 and `look_back`, written only when a work has
+//! one): every name of the format is in this file (README, "Work file format", documents it).
+//! The share link carries the same JSON.
 //!
 //! Kept apart from: the link's packing (link.rs) and the engine's own types, which are never
 //! written as JSON: each is converted here to and from the format's plain fields, so changing
@@ -12,6 +13,7 @@ use std::collections::BTreeMap;
 
 use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
+use morrowcast_engine::lookback::MOST_PERIODS_SHOWN;
 use morrowcast_engine::settings::{Choice, SeasonChoice, SettingsText};
 use morrowcast_engine::stock::{read_lead_time, StockText, Target, TargetKind};
 use serde::{Deserialize, Serialize};
@@ -32,6 +34,22 @@ struct WorkJson {
     #[serde(deserialize_with = "names_once")]
     item_changes: BTreeMap<String, ChangeJson>,
     open_item: Option<String>,
+    /// Version 2: the Look-back's periods; left out when 0.
+    #[serde(default, skip_serializing_if = "is_off")]
+    look_back: usize,
+}
+
+fn is_off(periods: &usize) -> bool {
+    *periods == 0
+}
+
+/// The version a work is written in: the first that holds all it carries.
+fn version_for(work: &Work) -> u64 {
+    if work.look_back > 0 {
+        2
+    } else {
+        1
+    }
 }
 
 #[derive(Serialize, Deserialize)]
@@ -134,7 +152,7 @@ pub fn to_json(work: &Work, pretty: bool) -> String {
     let s = &work.settings;
     let k = &work.stock;
     let json = WorkJson {
-        morrowcast_work: WORK_VERSION,
+        morrowcast_work: version_for(work),
         history: text_json(&work.history),
         settings: SettingsJson {
             horizon: s.horizon.clone(),
@@ -175,6 +193,7 @@ pub fn to_json(work: &Work, pretty: bool) -> String {
             })
             .collect(),
         open_item: work.open_item.clone(),
+        look_back: work.look_back,
     };
     let written = if pretty {
         serde_json::to_string_pretty(&json)
@@ -261,6 +280,17 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
         return Err(WorkError::Newer { version });
     }
     let json: WorkJson = serde_json::from_str(text).map_err(|e| unreadable(e.to_string()))?;
+    if json.look_back > 0 && version < 2 {
+        return Err(unreadable(format!(
+            "look_back is a field of version 2, and this work says version {version}"
+        )));
+    }
+    if json.look_back > MOST_PERIODS_SHOWN {
+        return Err(unreadable(format!(
+            "look_back takes 0 to {MOST_PERIODS_SHOWN} periods; found {}",
+            json.look_back
+        )));
+    }
     let s = json.settings;
     let keyed = |field: &str, found: &str, takes: &str| {
         unreadable(format!("settings.{field} takes {takes}; found \"{found}\""))
@@ -358,5 +388,6 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
         stock_table: json.stock_table.map(back),
         changes,
         open_item: json.open_item,
+        look_back: json.look_back,
     })
 }

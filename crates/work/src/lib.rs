@@ -27,8 +27,10 @@ use morrowcast_engine::stock::StockText;
 pub use change::ItemChange;
 pub use link::{LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
 
-/// The version of the work format this build writes (and the newest it reads).
-pub const WORK_VERSION: u64 = 1;
+/// The newest version of the work format this build reads and writes. Version 2 adds the
+/// Look-back (`look_back`) and is written only for a work that has one, so a work without it
+/// stays version 1 and opens in builds that read only that.
+pub const WORK_VERSION: u64 = 2;
 
 /// A text as given, with where it came from ("the demo", a file name, "pasted text").
 #[derive(Clone, Debug, PartialEq)]
@@ -66,6 +68,9 @@ pub struct Work {
     pub changes: BTreeMap<String, ItemChange>,
     /// The item open in the detail, by name.
     pub open_item: Option<String>,
+    /// The periods the Item board's Look-back looks back over (0: none), at most
+    /// [`morrowcast_engine::lookback::MOST_PERIODS_SHOWN`].
+    pub look_back: usize,
 }
 
 impl Work {
@@ -78,6 +83,7 @@ impl Work {
             stock_table: None,
             changes: BTreeMap::new(),
             open_item: None,
+            look_back: 0,
         }
     }
 

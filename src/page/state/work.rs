@@ -124,6 +124,7 @@ impl WorkState {
             board.table_text.track();
             board.table_source.track();
             board.changes.track();
+            board.look_back.track();
             if !work.keeping.get_untracked().writes() {
                 return;
             }
@@ -410,6 +411,7 @@ impl WorkState {
                         .map(|i| i.name.clone())
                 })
             }),
+            look_back: self.board.look_back.get_untracked(),
         }
     }
 
@@ -418,6 +420,7 @@ impl WorkState {
     pub fn open(&self, work: Work, from: &str) {
         let changed = work.changes.len();
         let table = work.stock_table.is_some();
+        let look_back = work.look_back;
         self.intake
             .set_text(work.history.text, &work.history.source);
         self.plan.picked.set(None);
@@ -434,6 +437,7 @@ impl WorkState {
             }
         }
         self.board.changes.set(work.changes);
+        self.board.look_back.set(work.look_back);
         self.pending_item.set(work.open_item);
         let mut parts = vec![format!("the data ({})", work.history.source)];
         parts.push("the settings".into());
@@ -446,6 +450,9 @@ impl WorkState {
                 "own settings for {changed} item{}",
                 if changed == 1 { "" } else { "s" }
             ));
+        }
+        if look_back > 0 {
+            parts.push(format!("a Look-back of {look_back} periods"));
         }
         let last = parts.pop().unwrap_or_default();
         self.notice.set(Some(WorkNotice::Opened(format!(
