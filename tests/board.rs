@@ -15,7 +15,7 @@ use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
-use crate::support::{cli, table_file};
+use crate::support::{cli, item_named, table_file};
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
 
@@ -195,6 +195,7 @@ fn rows(spec: &[Spec<'_>]) -> Vec<BoardRow> {
             index,
             run: 1,
             name: name.to_string(),
+            look_back: None,
             figures: match mase {
                 None => Err("too short".into()),
                 Some(m) => {
@@ -240,8 +241,9 @@ fn rows_sort_with_missing_values_last_and_ties_in_file_order() {
     check(&r, SortKey::Alerts, true, &["d", "c", "b", "e", "A"]);
 }
 
-/// Items whose stock level of then fell short in the Look-back: one made-up row short, one
-/// covered, one without a Look-back, one without figures; only the first passes.
+/// Items whose stock level of then fell short in the Look-back: a made-up row short, one
+/// covered, one without a Look-back, and one short whose figures of today failed (the
+/// Look-back stands without them): the two short ones pass.
 #[test]
 fn the_short_stock_filter_shows_the_items_whose_level_fell_short() {
     use morrowcast_engine::bands::Level;
@@ -252,9 +254,9 @@ fn the_short_stock_filter_shows_the_items_whose_level_fell_short() {
         ("Hose reel", Some(Some(0.5)), &[]),
         ("Seed drill", None, &[]),
     ]);
-    for (row, demand) in r.iter_mut().zip([12.0, 9.0]) {
-        if let Ok(f) = &mut row.figures {
-            f.look_back = Some(Ok(LookBack {
+    for (row, demand) in r.iter_mut().zip([Some(12.0), Some(9.0), None, Some(12.0)]) {
+        row.look_back = demand.map(|demand| {
+            Ok(LookBack {
                 name: row.name.clone(),
                 made_after: Period::month(2026, 10),
                 method: "Theta".into(),
@@ -269,8 +271,8 @@ fn the_short_stock_filter_shows_the_items_whose_level_fell_short() {
                     demand,
                     promised: 0.95,
                 },
-            }));
-        }
+            })
+        });
     }
     let filter = Filter {
         text: String::new(),
@@ -282,7 +284,7 @@ fn the_short_stock_filter_shows_the_items_whose_level_fell_short() {
         .filter(|row| filter.passes(row))
         .map(|row| row.name.as_str())
         .collect();
-    assert_eq!(passed, ["Seed tray"]);
+    assert_eq!(passed, ["Seed tray", "Seed drill"]);
 }
 
 #[test]
@@ -577,4 +579,39 @@ fn the_saved_look_back_carries_the_command_lines_figures() {
             item["stock"]["check"].as_str().unwrap()
         );
     }
+}
+
+/// A new item whose Stock plan of today cannot be made (too few rolling origins) still has its
+/// Look-back on the board, as the command line gives it: the plan of then set against what
+/// sold, its stock check "no figures".
+#[test]
+fn a_look_back_stands_where_todays_figures_cannot_be_made() {
+    let mut text = String::from("item,month,units\n");
+    for t in 0..36 {
+        text.push_str(&format!(
+            "Oak tray,{}-{:02},{}\n",
+            2022 + t / 12,
+            t % 12 + 1,
+            20 + t % 5
+        ));
+    }
+    for m in 8..=12 {
+        text.push_str(&format!("Solar lantern,2024-{m:02},{}\n", 30 + m));
+    }
+    let rows = board_rows_looking_back(&text, &StockText::default(), None, 1);
+    let lantern = rows.iter().find(|r| r.name == "Solar lantern").unwrap();
+    assert!(lantern.figures.is_err(), "{:?}", lantern.figures);
+    let Some(Ok(l)) = &lantern.look_back else {
+        panic!("{:?}", lantern.look_back);
+    };
+    assert_eq!(l.known().count(), 1);
+    assert!(matches!(l.stock, StockCheck::NoFigures(_)), "{:?}", l.stock);
+    let run = cli(&["look-back", "-", "--json"], text.as_bytes());
+    let json = run.json();
+    let want = item_named(&json, "Solar lantern");
+    assert_eq!(want["stock"]["check"], "no_figures");
+    assert_eq!(
+        want["periods"][0]["forecast"].as_f64().unwrap(),
+        l.steps[0].band.value
+    );
 }

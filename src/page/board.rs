@@ -100,10 +100,6 @@ fn number(f: &BoardFigures, key: SortKey) -> Option<f64> {
         SortKey::Level => Some(f.level_units),
         SortKey::Order => f.suggested_order,
         SortKey::Alerts => Some(f.alerts.len() as f64),
-        SortKey::LookBack => match &f.look_back {
-            Some(Ok(l)) => Some(look_back_misses(l) as f64),
-            _ => None,
-        },
         _ => None,
     }
     .filter(|v| v.is_finite())
@@ -126,8 +122,13 @@ fn text(row: &BoardRow, key: SortKey) -> String {
 pub fn sort_rows(rows: &mut [&BoardRow], key: SortKey, descending: bool) {
     let by_file = |a: &BoardRow, b: &BoardRow| a.index.cmp(&b.index);
     rows.sort_by(|a, b| {
-        // Items without figures go last whatever the column (but by name they sort as names).
+        // Items without figures go last whatever the column (but by name they sort as names,
+        // and by the Look-back as their Look-back: it stands without today's figures).
         let failed_last = b.figures.is_ok().cmp(&a.figures.is_ok());
+        let misses = |r: &BoardRow| match &r.look_back {
+            Some(Ok(l)) => Some(look_back_misses(l)),
+            _ => None,
+        };
         let primary = match key {
             SortKey::File => Ordering::Equal,
             SortKey::Name => {
@@ -138,6 +139,13 @@ pub fn sort_rows(rows: &mut [&BoardRow], key: SortKey, descending: bool) {
                     o
                 }
             }
+            SortKey::LookBack => match (misses(a), misses(b)) {
+                (Some(x), Some(y)) if descending => y.cmp(&x),
+                (Some(x), Some(y)) => x.cmp(&y),
+                (Some(_), None) => Ordering::Less,
+                (None, Some(_)) => Ordering::Greater,
+                (None, None) => Ordering::Equal,
+            },
             _ if failed_last != Ordering::Equal => failed_last,
             SortKey::DemandClass | SortKey::Trend | SortKey::Method => {
                 let o = text(a, key).cmp(&text(b, key));
@@ -235,11 +243,10 @@ impl Filter {
             (AlertFilter::Failed, Ok(_)) => false,
             (AlertFilter::Kind(k), Ok(f)) => f.alerts.iter().any(|a| a.kind == k),
             (AlertFilter::Kind(_), Err(_)) => false,
-            (AlertFilter::ShortStock, Ok(f)) => matches!(
-                &f.look_back,
+            (AlertFilter::ShortStock, _) => matches!(
+                &row.look_back,
                 Some(Ok(l)) if l.stock.covered() == Some(false)
             ),
-            (AlertFilter::ShortStock, Err(_)) => false,
         };
         text_ok && alert_ok
     }
@@ -500,17 +507,18 @@ pub struct LookBackCounts {
     pub tally: LookBackTally,
     pub made_after: Option<Period>,
     pub shortest_pending: Option<usize>,
+    /// Items that could not be looked back on (their cell says why).
+    pub without: usize,
 }
 
 /// Counts every row's Look-back.
 pub fn look_back_counts(rows: &[Option<BoardRow>]) -> LookBackCounts {
     let mut counts = LookBackCounts::default();
     for row in rows.iter().flatten() {
-        if let Ok(BoardFigures {
-            look_back: Some(Ok(l)),
-            ..
-        }) = &row.figures
-        {
+        if let Some(Err(_)) = &row.look_back {
+            counts.without += 1;
+        }
+        if let Some(Ok(l)) = &row.look_back {
             counts.tally.add(l);
             counts.made_after = counts.made_after.max(Some(l.made_after));
             if let StockCheck::TooSoon { periods, .. } = l.stock {
@@ -567,6 +575,17 @@ pub fn look_back_summary(c: &LookBackCounts, back: usize, (one, many): (&str, &s
             n(p)
         ));
     }
+    if c.without > 0 {
+        words.push_str(&format!(
+            " {} could not be looked back on and {} not counted (the Look-back column says why).",
+            if c.without == 1 {
+                "1 item".to_string()
+            } else {
+                format!("{} items", c.without)
+            },
+            if c.without == 1 { "is" } else { "are" }
+        ));
+    }
     words
 }
 
@@ -603,12 +622,9 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
     let _ = w.write_record(LOOK_BACK_COLUMNS);
     let opt = |v: Option<f64>| v.map(|v| v.to_string()).unwrap_or_default();
     for row in rows {
-        let found = match &row.figures {
-            Ok(BoardFigures {
-                look_back: Some(l), ..
-            }) => l.as_ref().map_err(Clone::clone),
-            Ok(_) => continue,
-            Err(problem) => Err(problem.clone()),
+        let found = match &row.look_back {
+            Some(l) => l.as_ref().map_err(Clone::clone),
+            None => continue,
         };
         let mut r = vec![String::new(); LOOK_BACK_COLUMNS.len()];
         r[0] = row.name.clone();

@@ -74,11 +74,8 @@ fn cell(f: &BoardFigures, key: SortKey) -> String {
         ),
         SortKey::Order => f.suggested_order.map_or("needs on hand".into(), units),
         SortKey::Alerts => f.alerts.len().to_string(),
-        SortKey::LookBack => match &f.look_back {
-            Some(Ok(l)) => look_back_cell(l),
-            Some(Err(why)) => why.clone(),
-            None => String::new(),
-        },
+        // The row's own, not the figures' (board rows draw it).
+        SortKey::LookBack => String::new(),
         SortKey::File | SortKey::Name => String::new(),
     }
 }
@@ -231,6 +228,12 @@ pub fn ItemBoard() -> impl IntoView {
                                 };
                                 let changed = board.changes.with_untracked(|c| c.contains_key(&row.name));
                                 let chosen = move || intake.item.get() == index;
+                                // Marked: a stock level that fell short (what an order rested on), or no Look-back.
+                                let look_back = row.look_back.as_ref().map(|l| {
+                                    let missed = l.as_ref().map_or(true, |l| l.stock.covered() == Some(false));
+                                    let words = match l { Ok(l) => look_back_cell(l), Err(why) => why.clone() };
+                                    view! { <td class="look-back" class:missed=missed>{words}</td> }.into_any()
+                                });
                                 view! {
                                     <tr class:chosen=chosen class:failed=row.figures.is_err() data-index=index.to_string()>
                                         <th scope="row">
@@ -241,11 +244,7 @@ pub fn ItemBoard() -> impl IntoView {
                                             {changed.then(|| view! { <span class="changed-mark" title="changed on the board">" (changed)"</span> })}
                                         </th>
                                         {match &row.figures {
-                                            Ok(f) => f.look_back.as_ref().map(|l| {
-                                                // Marked: a stock level that fell short (what an order rested on), or no Look-back.
-                                                let missed = l.as_ref().map_or(true, |l| l.stock.covered() == Some(false));
-                                                view! { <td class="look-back" class:missed=missed>{cell(f, SortKey::LookBack)}</td> }.into_any()
-                                            }).into_iter().chain(COLUMNS.iter().map(|c| {
+                                            Ok(f) => look_back.into_iter().chain(COLUMNS.iter().map(|c| {
                                                 let text = cell(f, c.key);
                                                 let beyond = c.key == SortKey::Tracking && f.tracking_beyond;
                                                 if c.key == SortKey::Alerts {
@@ -258,7 +257,7 @@ pub fn ItemBoard() -> impl IntoView {
                                                     view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()
                                                 }
                                             })).collect_view().into_any(),
-                                            Err(e) => view! { <td class="problem" colspan=(COLUMNS.len() + usize::from(board.look_back.get_untracked() > 0)).to_string()>{e.clone()}</td> }.into_any(),
+                                            Err(e) => view! { {look_back}<td class="problem" colspan=COLUMNS.len().to_string()>{e.clone()}</td> }.into_any(),
                                         }}
                                     </tr>
                                 }.into_any()

@@ -13,7 +13,7 @@ use super::board::{look_back_cell, look_back_counts, look_back_csv, look_back_su
 use super::browser;
 use super::export::file_name;
 use super::state::{BoardState, IntakeState};
-use crate::worker::{BoardFigures, BoardRow};
+use crate::worker::BoardRow;
 
 /// The Look-back's control and, while one is asked for, its counts over every item: the plan
 /// of some periods ago against what sold since.
@@ -100,11 +100,7 @@ pub fn ItemLookBack() -> impl IntoView {
         let i = intake.item.get();
         board.rows.with(|rows| match rows.get(i) {
             Some(Some(BoardRow {
-                figures:
-                    Ok(BoardFigures {
-                        look_back: Some(l), ..
-                    }),
-                ..
+                look_back: Some(l), ..
             })) => Some(l.clone()),
             _ => None,
         })
@@ -144,15 +140,21 @@ fn item_look_back(l: &LookBack) -> impl IntoView {
             level,
             demand,
             expected,
+            whole_units,
             ..
         } => Some(format!(
-            "{} of then {}: the demand over the {} after the plan was {} (expected {}).",
+            "{} of then {}{}: the demand over the {} after the plan was {} (expected {}).",
             if *periodic {
                 "Order-up-to level"
             } else {
                 "Reorder point"
             },
             units(*level),
+            if *whole_units && level.fract() != 0.0 {
+                format!(" (stocked as {:.0}, whole units)", level.ceil())
+            } else {
+                String::new()
+            },
             if *periods == 1 {
                 one.to_string()
             } else {

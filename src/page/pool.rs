@@ -201,6 +201,8 @@ impl Pool {
                     run: ticket,
                     name,
                     figures: Err(message.to_string()),
+                    // The batch asked for a Look-back or not: the message stands for both.
+                    look_back: Some(Err(message.to_string())),
                 })
                 .collect();
             deliver(ticket, rows, 0.0);

@@ -98,8 +98,6 @@ pub struct BoardFigures {
     pub alerts: Vec<Alert>,
     /// The Stock plan's notes.
     pub notes: Vec<String>,
-    /// The Look-back, when asked for: the plan of then against what sold, or why there is none.
-    pub look_back: Option<Result<LookBack, String>>,
 }
 
 /// One row of the board: an item and its figures, or why it has none.
@@ -110,6 +108,10 @@ pub struct BoardRow {
     pub run: u64,
     pub name: String,
     pub figures: Result<BoardFigures, String>,
+    /// The Look-back, when asked for: the plan of then against what sold, or why there is none
+    /// (made whether or not today's figures could be: a new item's plan of then may stand where
+    /// today's Stock plan cannot).
+    pub look_back: Option<Result<LookBack, String>>,
 }
 
 impl BoardFigures {
@@ -160,7 +162,6 @@ impl BoardFigures {
             fill_rate: f.fill_rate,
             alerts: order.alerts.clone(),
             notes: stock.notes.clone(),
-            look_back: None,
         }
     }
 }
@@ -171,45 +172,47 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
     ask.items
         .iter()
         .map(|item| {
-            let figures = match &defaults {
-                Err(errors) => Err(errors
-                    .iter()
-                    .map(|e| e.message.as_str())
-                    .collect::<Vec<_>>()
-                    .join("; ")),
-                Ok(defaults) => {
-                    let settings = item.settings.as_ref().unwrap_or(&ask.settings);
+            let settings = item.settings.as_ref().unwrap_or(&ask.settings);
+            let series = &item.series;
+            let (figures, look_back) = match &defaults {
+                Err(errors) => {
+                    let why = errors
+                        .iter()
+                        .map(|e| e.message.as_str())
+                        .collect::<Vec<_>>()
+                        .join("; ");
+                    (Err(why.clone()), (ask.look_back > 0).then_some(Err(why)))
+                }
+                Ok(defaults) => (
                     plan_order(
-                        &item.series,
+                        series,
                         settings,
                         defaults,
                         item.row.as_ref(),
                         ask.table_given,
                     )
-                    .map(|order| BoardFigures {
-                        look_back: (ask.look_back > 0).then(|| {
-                            let series = &item.series;
-                            look_back(
-                                series,
-                                settings,
-                                defaults,
-                                item.row.as_ref(),
-                                ask.look_back,
-                                ask.file_end
-                                    .unwrap_or_else(|| series.period(series.len() - 1)),
-                            )
-                            .map_err(|e| e.to_string())
-                        }),
-                        ..BoardFigures::new(&order)
-                    })
-                    .map_err(|e| e.to_string())
-                }
+                    .map(|order| BoardFigures::new(&order))
+                    .map_err(|e| e.to_string()),
+                    (ask.look_back > 0).then(|| {
+                        look_back(
+                            series,
+                            settings,
+                            defaults,
+                            item.row.as_ref(),
+                            ask.look_back,
+                            ask.file_end
+                                .unwrap_or_else(|| series.period(series.len() - 1)),
+                        )
+                        .map_err(|e| e.to_string())
+                    }),
+                ),
             };
             BoardRow {
                 index: item.index,
                 run: ask.ticket,
-                name: item.series.name().to_string(),
+                name: series.name().to_string(),
                 figures,
+                look_back,
             }
         })
         .collect()

@@ -195,6 +195,10 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
         return Ok(Command::Help);
     };
     let rest = &argv[1..];
+    // `morrowcast stock --help`: the help, not "--help needs a value".
+    if rest.iter().any(|a| a == "--help" || a == "-h") {
+        return Ok(Command::Help);
+    }
     match sub.as_str() {
         "help" | "--help" | "-h" => Ok(Command::Help),
         "demo" => Ok(Command::Demo),

@@ -207,6 +207,7 @@ impl BoardState {
                                         run: next,
                                         name: item.name.clone(),
                                         figures: Err(e.to_string()),
+                                        look_back: (look_back > 0).then(|| Err(e.to_string())),
                                     }),
                                 }
                             }

@@ -452,7 +452,11 @@ impl WorkState {
             ));
         }
         if look_back > 0 {
-            parts.push(format!("a Look-back of {look_back} periods"));
+            parts.push(if look_back == 1 {
+                "a Look-back of 1 period".to_string()
+            } else {
+                format!("a Look-back of {look_back} periods")
+            });
         }
         let last = parts.pop().unwrap_or_default();
         self.notice.set(Some(WorkNotice::Opened(format!(
