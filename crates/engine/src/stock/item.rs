@@ -482,11 +482,18 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         ));
     }
     if figures.safety_stock < 0.0 {
-        notes.push(
-            "the fill-rate target is met below the expected demand: the safety stock is \
-             negative, as the target allows"
+        notes.push(match settings.target {
+            Target::FillRate(_) => "the fill-rate target is met below the expected demand: the \
+                 safety stock is negative, as the target allows"
                 .to_string(),
-        );
+            // Only the empirical model gets here: most past totals over P fell short of their
+            // forecast, the demand coming in rare large lumps.
+            Target::CycleService(_) => "the cycle service target is met below the expected \
+                 demand: in most past periods like these the demand stayed below the forecast, \
+                 coming in rare large lumps, so the safety stock is negative; if a lump is due \
+                 (a season's peak the past totals did not reach), the level is too low"
+                .to_string(),
+        });
     }
     let whole_units = counts_whole_units(plan);
     let suggested = settings.position.map(|position| {
