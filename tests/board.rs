@@ -15,7 +15,7 @@ use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
-use crate::support::{cli, item_named, table_file};
+use crate::support::{cli, item_named, table_file, within_count};
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
 
@@ -553,12 +553,7 @@ fn the_saved_look_back_carries_the_command_lines_figures() {
         let name = item["name"].as_str().unwrap();
         assert_eq!(at(r, "name"), name);
         assert_eq!(at(r, "made_after"), item["made_after"].as_str().unwrap());
-        let within = item["periods"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .filter(|p| p["within"] == true)
-            .count();
+        let within = within_count(item);
         assert_eq!(at(r, "within"), within.to_string(), "{name}");
         for (column, value) in [
             ("forecast_total", &item["forecast_total"]),

@@ -12,7 +12,7 @@ use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{StockSettings, Target};
 
-use crate::support::{cli, item_named, monthly, shop_shut_at_weekends, SplitMix};
+use crate::support::{cli, item_named, monthly, shop_shut_at_weekends, within_count, SplitMix};
 
 /// What a Look-back should find: the last period the plan saw, each period since as (what
 /// sold, within the band), and the stock check.
@@ -388,7 +388,7 @@ fn the_command_lines_look_back_is_the_stock_plan_of_the_file_as_it_stood_then() 
             stock["demand"].as_f64().unwrap(),
             sold_since.iter().sum::<f64>()
         );
-        within += periods.iter().filter(|p| p["within"] == true).count();
+        within += within_count(item);
         covered += usize::from(stock["covered"] == true);
     }
     let tally = &back["tally"];

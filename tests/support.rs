@@ -84,6 +84,13 @@ impl SplitMix {
     }
 }
 
+/// How many of a `morrowcast look-back --json` item's periods lay within their band.
+pub fn within_count(item: &Value) -> usize {
+    item["periods"]
+        .as_array()
+        .map_or(0, |p| p.iter().filter(|p| p["within"] == true).count())
+}
+
 /// A monthly series from January 2021 named "Test item" (gaps as `None`).
 pub fn monthly(values: Vec<Option<f64>>) -> Series {
     Series::new("Test item", Period::month(2021, 1), values).unwrap()

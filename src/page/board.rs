@@ -8,7 +8,7 @@ use std::cmp::Ordering;
 
 use morrowcast_engine::alerts::AlertKind;
 use morrowcast_engine::calendar::Period;
-use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
+use morrowcast_engine::lookback::{LookBack, LookBackTally, Outcome, StockCheck};
 use morrowcast_engine::stock::Target;
 
 use crate::worker::{BoardFigures, BoardRow};
@@ -439,11 +439,7 @@ pub fn look_back_cell(l: &LookBack) -> String {
             units(forecast),
             units(step.band.low),
             units(step.band.high),
-            match step.actual {
-                Some(d) if d < step.band.low => "below the band",
-                Some(d) if d > step.band.high => "above the band",
-                _ => "within",
-            }
+            outcome_words(step.outcome())
         ),
         (_, 0) if gaps == 0 => "shut since".to_string(),
         (_, 0) => format!("no sales known since{left_out}"),
@@ -486,6 +482,17 @@ pub fn look_back_cell(l: &LookBack) -> String {
         StockCheck::NoFigures(_) => "no Stock plan then".into(),
     };
     format!("{sales}; {stock}")
+}
+
+/// What a period since came to, as the page words it.
+pub fn outcome_words(outcome: Outcome) -> &'static str {
+    match outcome {
+        Outcome::Within => "within",
+        Outcome::Below => "below the band",
+        Outcome::Above => "above the band",
+        Outcome::Shut => "shut",
+        Outcome::Gap => "gap",
+    }
 }
 
 /// Units as the board shows them: whole from 100 up or when whole, else one decimal.

@@ -7,9 +7,11 @@
 //! the line above the board, the CSV) and the board itself (board_panel.rs).
 
 use leptos::prelude::*;
-use morrowcast_engine::lookback::{LookBack, StockCheck, MOST_PERIODS_SHOWN};
+use morrowcast_engine::lookback::{LookBack, Outcome, StockCheck, MOST_PERIODS_SHOWN};
 
-use super::board::{look_back_cell, look_back_counts, look_back_csv, look_back_summary, units};
+use super::board::{
+    look_back_cell, look_back_counts, look_back_csv, look_back_summary, outcome_words, units,
+};
 use super::browser;
 use super::export::file_name;
 use super::state::{BoardState, IntakeState};
@@ -119,17 +121,6 @@ pub fn ItemLookBack() -> impl IntoView {
     }
 }
 
-/// What a period since came to, in a word.
-fn outcome(step: &morrowcast_engine::lookback::LookBackStep) -> &'static str {
-    match (step.actual, step.shut) {
-        (None, _) => "gap",
-        (Some(_), true) => "shut",
-        (Some(d), false) if d < step.band.low => "below the band",
-        (Some(d), false) if d > step.band.high => "above the band",
-        _ => "within",
-    }
-}
-
 fn item_look_back(l: &LookBack) -> impl IntoView {
     let extended = l.extended() > 0;
     let (one, many) = l.made_after.frequency().period_words();
@@ -184,8 +175,9 @@ fn item_look_back(l: &LookBack) -> impl IntoView {
                     </tr></thead>
                     <tbody>
                         {l.steps.iter().map(|s| {
-                            let word = outcome(s);
-                            let missed = matches!(word, "below the band" | "above the band");
+                            let outcome = s.outcome();
+                            let word = outcome_words(outcome);
+                            let missed = matches!(outcome, Outcome::Below | Outcome::Above);
                             view! { <tr>
                                 <th scope="row">{format!("{}{}", s.period, if s.extended { " *" } else { "" })}</th>
                                 <td class="num">{units(s.band.value)}</td>

@@ -8,7 +8,7 @@ use serde_json::{json, Value};
 
 use super::board::{saved_by, set_field, wait_until_planned};
 use super::page::{open, open_at, save_screenshot, wait_for_item, WAIT};
-use crate::support::cli;
+use crate::support::{cli, within_count};
 
 /// Sets the Look-back's field and tells the page it changed (it acts on "change").
 fn look_back(browser: &super::webdriver::Browser, periods: &str) {
@@ -65,12 +65,7 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
     assert_eq!(cells.len(), items.len());
     for ((name, cell), item) in cells.iter().zip(items) {
         assert_eq!(name, item["name"].as_str().unwrap());
-        let within = item["periods"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .filter(|p| p["within"] == true)
-            .count();
+        let within = within_count(item);
         assert!(
             cell.contains(&format!("{within} of 2 within the band")),
             "{name}: {cell} (command line: {within} of 2)"
@@ -153,12 +148,7 @@ fn the_boards_look_back_sets_each_items_plan_of_then_against_what_sold() {
     assert_eq!(lines.len(), 1 + items.len(), "{csv}");
     let within_at = lines[0].split(',').position(|c| c == "within").unwrap();
     for (line, item) in lines[1..].iter().zip(items) {
-        let within = item["periods"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .filter(|p| p["within"] == true)
-            .count();
+        let within = within_count(item);
         assert!(line.starts_with(item["name"].as_str().unwrap()), "{line}");
         assert_eq!(
             line.split(',').nth(within_at),

@@ -4,7 +4,7 @@ use std::fmt::Write;
 
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::intake::IntakeReport;
-use morrowcast_engine::lookback::{LookBack, LookBackTally, StockCheck};
+use morrowcast_engine::lookback::{LookBack, LookBackTally, Outcome, StockCheck};
 use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::stock;
 
@@ -334,12 +334,12 @@ pub fn look_back(l: &LookBack) -> String {
     );
     let number = |v: Option<f64>| v.map_or("gap".to_string(), |x| format!("{x:.2}"));
     for step in &l.steps {
-        let within = match step.within() {
-            _ if step.shut => "shut",
-            Some(true) => "yes",
-            Some(false) if step.actual < Some(step.band.low) => "no, below",
-            Some(false) => "no, above",
-            None => "-",
+        let within = match step.outcome() {
+            Outcome::Within => "yes",
+            Outcome::Below => "no, below",
+            Outcome::Above => "no, above",
+            Outcome::Shut => "shut",
+            Outcome::Gap => "-",
         };
         let _ = writeln!(
             s,

@@ -15,7 +15,9 @@
 //!
 //! The API a caller needs is: [`intake::read`] (text to items and a report),
 //! [`intake::Item::series`] (an item to a validated series), [`settings::PlanSettings`] and
-//! [`plan::plan_item`] (a series to an [`plan::ItemPlan`]), and the result types those hold.
+//! [`plan::plan_item`] (a series to an [`plan::ItemPlan`]), [`order::plan_order`] (with its Stock
+//! plan and alerts), [`lookback::look_back`] (the plan of some periods ago against what sold
+//! since), and the result types those hold.
 //! The method internals are public only with the `internals` feature, which the project's
 //! reference tests turn on.
 

@@ -96,18 +96,45 @@ pub struct LookBackStep {
     pub extended: bool,
 }
 
+/// What a period since came to against its band.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Outcome {
+    /// What sold lay within the band (ends included).
+    Within,
+    /// Below its low end.
+    Below,
+    /// Above its high end.
+    Above,
+    /// A shut place (forecast 0): not a test of the band.
+    Shut,
+    /// A gap in the data.
+    Gap,
+}
+
 impl LookBackStep {
     /// e = F - D (positive: the plan forecast more than sold); `None` for a gap.
     pub fn error(&self) -> Option<f64> {
         self.actual.map(|d| self.band.value - d)
     }
 
-    /// Whether what sold lies within the band (ends included); `None` for a gap and for a
-    /// shut period.
+    /// What the period came to: the one rule every front end words in its own way.
+    pub fn outcome(&self) -> Outcome {
+        match self.actual {
+            None => Outcome::Gap,
+            Some(_) if self.shut => Outcome::Shut,
+            Some(d) if d < self.band.low => Outcome::Below,
+            Some(d) if d > self.band.high => Outcome::Above,
+            Some(_) => Outcome::Within,
+        }
+    }
+
+    /// Whether what sold lies within the band; `None` for a gap and for a shut period.
     pub fn within(&self) -> Option<bool> {
-        self.actual
-            .filter(|_| !self.shut)
-            .map(|d| self.band.low <= d && d <= self.band.high)
+        match self.outcome() {
+            Outcome::Gap | Outcome::Shut => None,
+            Outcome::Within => Some(true),
+            Outcome::Below | Outcome::Above => Some(false),
+        }
     }
 }
 
