@@ -69,8 +69,9 @@ impl fmt::Display for LookBackError {
             ),
             LookBackError::EndedBefore { last } => write!(
                 f,
-                "this item's data ends at {last}, before the periods looked back over: nothing \
-                 sold since is recorded to compare with (look back further to reach it)"
+                "this item's data ends at {last}, before the periods looked back over, so \
+                 nothing sold since is recorded to compare with: look back further to reach its \
+                 data, or, if it no longer sells, write its periods since as 0 in the file"
             ),
             LookBackError::Setting(e) => e.fmt(f),
             LookBackError::Order(e) => write!(f, "the plan of then: {e}"),
