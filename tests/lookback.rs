@@ -46,7 +46,7 @@ fn check(
         &stock(lead_time),
         None,
         periods,
-        end_of(&series).offset(blank_after),
+        Some(end_of(&series).offset(blank_after)),
     )
     .unwrap();
     assert_eq!(got.made_after, expected.made_after, "made after");
@@ -209,15 +209,7 @@ fn the_look_back_counts_from_the_files_end_and_leaves_shut_periods_out() {
     // A shop shut at weekends, looked back on over a week: Saturday and Sunday are forecast 0
     // and sold 0, which says nothing of the band, so they are left out of the counts.
     let shop = shop_shut_at_weekends(7 * 20);
-    let week = look_back(
-        &shop,
-        &PlanSettings::default(),
-        &stock(1),
-        None,
-        7,
-        end_of(&shop),
-    )
-    .unwrap();
+    let week = look_back(&shop, &PlanSettings::default(), &stock(1), None, 7, None).unwrap();
     let shut: Vec<bool> = week.steps.iter().map(|s| s.shut).collect();
     assert_eq!(shut, [false, false, false, false, false, true, true]);
     assert_eq!((week.known().count(), week.left_out()), (5, (0, 2)));
@@ -235,7 +227,7 @@ fn looking_back_beyond_the_horizon_leaves_the_plan_of_then_as_it_was() {
         .collect();
     let series = monthly(values.clone());
     let settings = PlanSettings::default();
-    let back = look_back(&series, &settings, &stock(2), None, 13, end_of(&series)).unwrap();
+    let back = look_back(&series, &settings, &stock(2), None, 13, None).unwrap();
     let then = monthly(values[..47].to_vec());
     let order = plan_order(&then, &settings, &stock(2), None, false).unwrap();
     assert_eq!(order.plan.forecast.len(), 12);
@@ -256,7 +248,7 @@ fn look_backs_that_compare_nothing_are_refused_with_a_reason() {
     let series = monthly(flat(24));
     let end = end_of(&series);
     let ask = |settings: &PlanSettings, periods| {
-        look_back(&series, settings, &stock(1), None, periods, end).map(|_| ())
+        look_back(&series, settings, &stock(1), None, periods, Some(end)).map(|_| ())
     };
     let default = PlanSettings::default();
     assert_eq!(ask(&default, 0), Err(LookBackError::NoPeriods));
@@ -275,12 +267,21 @@ fn look_backs_that_compare_nothing_are_refused_with_a_reason() {
         })
     );
     // Data that ends three months before the file's end: nothing sold since is recorded.
-    let later =
-        |periods| look_back(&series, &default, &stock(1), None, periods, end.offset(3)).map(|_| ());
+    let later = |periods| {
+        look_back(
+            &series,
+            &default,
+            &stock(1),
+            None,
+            periods,
+            Some(end.offset(3)),
+        )
+        .map(|_| ())
+    };
     assert_eq!(later(3), Err(LookBackError::EndedBefore { last: end }));
     // Four months leave too few rolling origins for a Stock plan; the bands are still set
     // against what sold.
-    let far = look_back(&series, &default, &stock(1), None, 20, end).unwrap();
+    let far = look_back(&series, &default, &stock(1), None, 20, Some(end)).unwrap();
     assert_eq!((far.steps.len(), far.within()), (20, 20));
     assert!(
         matches!(&far.stock, StockCheck::NoFigures(why) if why.contains("origins")),
@@ -309,15 +310,7 @@ fn bands_and_reorder_points_hold_about_what_they_promise_on_demand_as_assumed() 
     for _ in 0..400 {
         let values = (0..48).map(|_| Some(100.0 + 10.0 * rng.normal())).collect();
         let series = monthly(values);
-        let item = look_back(
-            &series,
-            &PlanSettings::default(),
-            &stock(2),
-            None,
-            3,
-            end_of(&series),
-        )
-        .unwrap();
+        let item = look_back(&series, &PlanSettings::default(), &stock(2), None, 3, None).unwrap();
         tally.add(&item);
     }
     assert_eq!(

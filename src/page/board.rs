@@ -389,14 +389,18 @@ pub fn look_back_misses(l: &LookBack) -> usize {
     known - l.within() + usize::from(l.stock.covered() == Some(false))
 }
 
-/// `n` periods in the file's own words ("1 month", "3 days").
-fn count(l: &LookBack, n: usize) -> String {
-    let (one, many) = l.made_after.frequency().period_words();
+/// `n` things in words, singular for one: ("1 month", "3 days", "2 gaps").
+pub fn how_many(n: usize, (one, many): (&str, &str)) -> String {
     if n == 1 {
         format!("1 {one}")
     } else {
         format!("{n} {many}")
     }
+}
+
+/// `n` periods in the file's own words ("1 month", "3 days").
+fn count(l: &LookBack, n: usize) -> String {
+    how_many(n, l.made_after.frequency().period_words())
 }
 
 /// The Look-back column's cell: what sold against the forecast and band of then, and whether
@@ -407,11 +411,7 @@ pub fn look_back_cell(l: &LookBack) -> String {
     let (gaps, shut) = l.left_out();
     let mut left_out = Vec::new();
     if gaps > 0 {
-        left_out.push(if gaps == 1 {
-            "1 gap".to_string()
-        } else {
-            format!("{gaps} gaps")
-        });
+        left_out.push(how_many(gaps, ("gap", "gaps")));
     }
     if shut > 0 {
         left_out.push(format!("{shut} shut"));
@@ -539,14 +539,9 @@ pub fn look_back_counts(rows: &[Option<BoardRow>]) -> LookBackCounts {
 
 /// The line above the board while a Look-back of `back` periods is shown; `words` the file's
 /// names for one period and several ("month", "months").
-pub fn look_back_summary(c: &LookBackCounts, back: usize, (one, many): (&str, &str)) -> String {
-    let n = |k: usize| {
-        if k == 1 {
-            format!("1 {one}")
-        } else {
-            format!("{k} {many}")
-        }
-    };
+pub fn look_back_summary(c: &LookBackCounts, back: usize, words: (&str, &str)) -> String {
+    let n = |k: usize| how_many(k, words);
+    let many = words.1;
     let share = |x: Option<f64>| x.map_or("–".to_string(), |v| format!("{:.1}%", 100.0 * v));
     let t = &c.tally;
     let when = match c.made_after {
@@ -585,11 +580,7 @@ pub fn look_back_summary(c: &LookBackCounts, back: usize, (one, many): (&str, &s
     if c.without > 0 {
         words.push_str(&format!(
             " {} could not be looked back on and {} not counted (the Look-back column says why).",
-            if c.without == 1 {
-                "1 item".to_string()
-            } else {
-                format!("{} items", c.without)
-            },
+            how_many(c.without, ("item", "items")),
             if c.without == 1 { "is" } else { "are" }
         ));
     }
@@ -650,9 +641,8 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
                 r[9] = gaps.to_string();
                 r[10] = shut.to_string();
                 r[11] = l.extended().to_string();
-                let (check, periods) = match &l.stock {
+                match &l.stock {
                     StockCheck::Checked {
-                        periods,
                         periodic,
                         level,
                         demand,
@@ -662,18 +652,18 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
                         r[if *periodic { 15 } else { 14 }] = level.to_string();
                         r[16] = demand.to_string();
                         r[18] = promised.to_string();
-                        ("checked", Some(*periods))
                     }
-                    StockCheck::TooSoon { periods, .. } => ("too_soon", Some(*periods)),
-                    StockCheck::NoInterval => ("no_interval", None),
-                    StockCheck::Gap { periods } => ("gap", Some(*periods)),
-                    StockCheck::NoFigures(why) => {
-                        r[19] = why.clone();
-                        ("no_figures", None)
-                    }
-                };
-                r[12] = check.into();
-                r[13] = periods.map(|p| p.to_string()).unwrap_or_default();
+                    StockCheck::NoFigures(why) => r[19] = why.clone(),
+                    StockCheck::TooSoon { .. }
+                    | StockCheck::NoInterval
+                    | StockCheck::Gap { .. } => {}
+                }
+                r[12] = l.stock.key().into();
+                r[13] = l
+                    .stock
+                    .protection_periods()
+                    .map(|p| p.to_string())
+                    .unwrap_or_default();
                 r[17] = opt(l.stock.shortfall());
             }
             Err(problem) => r[19] = problem,

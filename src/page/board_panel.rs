@@ -12,8 +12,8 @@ use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
 use super::board::{
-    look_back_cell, order_plan_csv, sort_rows, units, AlertFilter, Filter, ItemChange, SortKey,
-    COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
+    how_many, look_back_cell, order_plan_csv, sort_rows, units, AlertFilter, Filter, ItemChange,
+    SortKey, COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
 };
 use super::browser;
 use super::export::file_name;
@@ -22,11 +22,7 @@ use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow};
 
 fn periods(n: usize) -> String {
-    if n == 1 {
-        "1 period".into()
-    } else {
-        format!("{n} periods")
-    }
+    how_many(n, ("period", "periods"))
 }
 
 fn percent(v: f64) -> String {

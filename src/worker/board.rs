@@ -200,8 +200,7 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                             defaults,
                             item.row.as_ref(),
                             ask.look_back,
-                            ask.file_end
-                                .unwrap_or_else(|| series.period(series.len() - 1)),
+                            ask.file_end,
                         )
                         .map_err(|e| e.to_string())
                     }),

@@ -374,7 +374,6 @@ fn look_back(
             let row = input.item_row(s.name(), table);
             let own = input.item_settings(s.name(), settings);
             let plan_settings = own.as_ref().unwrap_or(settings);
-            let file_end = file_end.unwrap_or_else(|| s.period(s.len() - 1));
             lookback::look_back(
                 s,
                 plan_settings,

@@ -485,8 +485,8 @@ impl From<&LookBack> for LookBackJson {
 impl From<&StockCheck> for StockCheckJson {
     fn from(c: &StockCheck) -> Self {
         let mut out = StockCheckJson {
-            check: "",
-            protection_periods: None,
+            check: c.key(),
+            protection_periods: c.protection_periods(),
             reorder_point: None,
             order_up_to: None,
             expected: None,
@@ -498,7 +498,6 @@ impl From<&StockCheck> for StockCheckJson {
         };
         match c {
             StockCheck::Checked {
-                periods,
                 periodic,
                 level,
                 expected,
@@ -506,8 +505,6 @@ impl From<&StockCheck> for StockCheckJson {
                 promised,
                 ..
             } => {
-                out.check = "checked";
-                out.protection_periods = Some(*periods);
                 if *periodic {
                     out.order_up_to = Some(*level);
                 } else {
@@ -517,19 +514,8 @@ impl From<&StockCheck> for StockCheckJson {
                 out.demand = Some(*demand);
                 out.promised_cycle_service = Some(*promised);
             }
-            StockCheck::TooSoon { periods, .. } => {
-                out.check = "too_soon";
-                out.protection_periods = Some(*periods);
-            }
-            StockCheck::NoInterval => out.check = "no_interval",
-            StockCheck::Gap { periods } => {
-                out.check = "gap";
-                out.protection_periods = Some(*periods);
-            }
-            StockCheck::NoFigures(why) => {
-                out.check = "no_figures";
-                out.why = Some(why.clone());
-            }
+            StockCheck::NoFigures(why) => out.why = Some(why.clone()),
+            StockCheck::TooSoon { .. } | StockCheck::NoInterval | StockCheck::Gap { .. } => {}
         }
         out
     }

@@ -181,6 +181,27 @@ pub enum StockCheck {
 }
 
 impl StockCheck {
+    /// Its name where the front ends write it (the command line's JSON, the page's CSV).
+    pub fn key(&self) -> &'static str {
+        match self {
+            StockCheck::Checked { .. } => "checked",
+            StockCheck::TooSoon { .. } => "too_soon",
+            StockCheck::NoInterval => "no_interval",
+            StockCheck::NoFigures(_) => "no_figures",
+            StockCheck::Gap { .. } => "gap",
+        }
+    }
+
+    /// P, where the plan of then had one to check over.
+    pub fn protection_periods(&self) -> Option<usize> {
+        match *self {
+            StockCheck::Checked { periods, .. }
+            | StockCheck::TooSoon { periods, .. }
+            | StockCheck::Gap { periods } => Some(periods),
+            StockCheck::NoInterval | StockCheck::NoFigures(_) => None,
+        }
+    }
+
     /// How far the demand over P went beyond the level (0 when covered; `None` when not
     /// checked). With whole units the level counts rounded up: 71 sold against a level of
     /// 70.92 is covered, as the 71 units an order brings cover it.
@@ -227,18 +248,13 @@ impl LookBack {
     /// The periods whose sales are known, shut ones left out (a 0 forecast met by a 0 sold
     /// says nothing of the band).
     pub fn known(&self) -> impl Iterator<Item = &LookBackStep> {
-        self.steps.iter().filter(|s| s.actual.is_some() && !s.shut)
+        self.steps.iter().filter(|s| s.within().is_some())
     }
 
     /// The periods since left out of [`LookBack::known`]: (gaps, shut periods).
     pub fn left_out(&self) -> (usize, usize) {
-        let gaps = self.steps.iter().filter(|s| s.actual.is_none()).count();
-        let shut = self
-            .steps
-            .iter()
-            .filter(|s| s.actual.is_some() && s.shut)
-            .count();
-        (gaps, shut)
+        let count = |o: Outcome| self.steps.iter().filter(|s| s.outcome() == o).count();
+        (count(Outcome::Gap), count(Outcome::Shut))
     }
 
     /// How many periods since lie beyond the plan's horizon ([`LookBackStep::extended`]).
@@ -257,23 +273,16 @@ impl LookBack {
             (f + s.band.value, d + s.actual.unwrap_or(0.0))
         })
     }
-
-    /// MAD over the known periods (`None` without one).
-    pub fn mad(&self) -> Option<f64> {
-        let errors: Vec<f64> = self.known().filter_map(LookBackStep::error).collect();
-        (!errors.is_empty())
-            .then(|| errors.iter().map(|e| e.abs()).sum::<f64>() / errors.len() as f64)
-    }
 }
 
 /// Makes the plan of the file as it stood `periods` periods ago, as [`plan_order`] makes it now
 /// (same settings, stock settings and stock table row), and sets each period since against it.
 ///
 /// The periods are counted back from `file_end`, the file's last period
-/// ([`crate::intake::IntakeReport::last_period`]), so every item of a file is looked back on
-/// from the same period: an item whose data ends before the file's has gaps since. Trailing gaps the cut leaves are trimmed as in any
-/// history, so the plan of then ends at its last known period and the periods since start
-/// after it. The plan keeps the settings' horizon (an automatic one as it was then, so its
+/// ([`crate::intake::IntakeReport::last_period`]; `None`: the series' own last period), so
+/// every item of a file is looked back on from the same period: an item whose data ends before
+/// the file's has gaps since. Trailing gaps the cut leaves are trimmed as in any history, so
+/// the plan of then ends at its last known period and the periods since start after it. The plan keeps the settings' horizon (an automatic one as it was then, so its
 /// bands and Stock plan are the ones shown then); periods since beyond it are forecast by the
 /// same plan made with a horizon reaching them, and marked [`LookBackStep::extended`].
 pub fn look_back(
@@ -282,13 +291,13 @@ pub fn look_back(
     defaults: &StockSettings,
     row: Option<&StockRow>,
     periods: usize,
-    file_end: Period,
+    file_end: Option<Period>,
 ) -> Result<LookBack, LookBackError> {
     if periods == 0 {
         return Err(LookBackError::NoPeriods);
     }
     let last = series.period(series.len() - 1);
-    let blank_after = last.steps_to(file_end).max(0) as u64;
+    let blank_after = last.steps_to(file_end.unwrap_or(last)).max(0) as u64;
     if blank_after >= periods as u64 {
         return Err(LookBackError::EndedBefore { last });
     }
@@ -313,11 +322,12 @@ pub fn look_back(
         return Err(too_few);
     }
     let since = held - earlier.len();
+    let plan_failed = |e| LookBackError::Order(OrderError::Plan(e));
     // A plan without a Stock plan (too short a history for its spread) is still looked back on.
     let (plan, stock_plan) = match plan_order(&earlier, settings, defaults, row, false) {
         Ok(order) => (order.plan, Ok(order.stock)),
         Err(OrderError::Stock(why)) => (
-            plan_item(&earlier, settings).map_err(|e| LookBackError::Order(OrderError::Plan(e)))?,
+            plan_item(&earlier, settings).map_err(plan_failed)?,
             Err(why.to_string()),
         ),
         Err(e) => return Err(LookBackError::Order(e)),
@@ -329,8 +339,7 @@ pub fn look_back(
             .clone()
             .with_horizon(Some(since as u64))
             .map_err(LookBackError::Setting)?;
-        let extended =
-            plan_item(&earlier, &longer).map_err(|e| LookBackError::Order(OrderError::Plan(e)))?;
+        let extended = plan_item(&earlier, &longer).map_err(plan_failed)?;
         let shown = forecast.len();
         forecast.extend(extended.forecast.iter().skip(shown).map(|p| (*p, true)));
     }

@@ -17,6 +17,7 @@ use leptos::task::spawn_local;
 use morrowcast_engine::demo;
 use morrowcast_work::{SourcedText, Work};
 
+use super::super::board::how_many;
 use super::super::{browser, keep};
 use super::{BoardState, IntakeState, PlanState, DEMO_SOURCE};
 
@@ -452,11 +453,10 @@ impl WorkState {
             ));
         }
         if look_back > 0 {
-            parts.push(if look_back == 1 {
-                "a Look-back of 1 period".to_string()
-            } else {
-                format!("a Look-back of {look_back} periods")
-            });
+            parts.push(format!(
+                "a Look-back of {}",
+                how_many(look_back, ("period", "periods"))
+            ));
         }
         let last = parts.pop().unwrap_or_default();
         self.notice.set(Some(WorkNotice::Opened(format!(
