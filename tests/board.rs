@@ -610,3 +610,29 @@ fn a_look_back_stands_where_todays_figures_cannot_be_made() {
         l.steps[0].band.value
     );
 }
+
+/// While no row has come back, the line above the board says the Look-back is on its way,
+/// not "0 of 0 months"; once rows are in, it counts them.
+#[test]
+fn the_look_back_line_waits_for_rows_before_counting() {
+    use morrowcast_app::page::board::{look_back_counts, look_back_summary};
+    let words = ("month", "months");
+    let waiting = look_back_summary(&look_back_counts(&[]), 2, words);
+    assert_eq!(
+        waiting,
+        "The plan of 2 months ago is set against what sold since as the board plans each item."
+    );
+    let demo = morrowcast_engine::demo::demo_csv();
+    let rows: Vec<Option<BoardRow>> =
+        board_rows_looking_back(&demo, &StockText::default(), None, 2)
+            .into_iter()
+            .map(Some)
+            .collect();
+    let counted = look_back_summary(&look_back_counts(&rows), 2, words);
+    assert!(
+        counted.starts_with(
+            "The plan made after 2026-09 (2 months ago), set against what sold since, for 6 items:"
+        ),
+        "{counted}"
+    );
+}

@@ -548,6 +548,10 @@ pub fn look_back_summary(c: &LookBackCounts, back: usize, words: (&str, &str)) -
         Some(p) => format!("The plan made after {p} ({} ago)", n(back)),
         None => format!("The plan of {} ago", n(back)),
     };
+    if t.items == 0 && c.without == 0 {
+        // Nothing counted yet: the board is still planning (no "0 of 0").
+        return format!("{when} is set against what sold since as the board plans each item.");
+    }
     let mut words = format!(
         "{when}, set against what sold since, for {} items: {} of {} {many} within their band \
          ({}).",
