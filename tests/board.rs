@@ -179,6 +179,47 @@ fn bad_stock_settings_give_every_item_the_message_and_no_figures() {
     );
 }
 
+// A wide table whose column for one item is empty over its last months: that item's row has
+// no figures and says why, as the command line does; the others are planned.
+#[test]
+fn an_item_whose_data_ends_early_gets_the_command_lines_message_and_no_figures() {
+    let mut text = String::from("month,Twine,Trowel\n");
+    for t in 0..40 {
+        let trowel = if t < 34 {
+            (20 + t % 7).to_string()
+        } else {
+            String::new()
+        };
+        text.push_str(&format!(
+            "{}-{:02},{},{trowel}\n",
+            2023 + t / 12,
+            t % 12 + 1,
+            50 + t % 9
+        ));
+    }
+    let rows = board_rows(&text, &StockText::default(), None);
+    assert!(rows[0].figures.is_ok(), "{:?}", rows[0]);
+    let why = rows[1].figures.as_ref().unwrap_err();
+    assert!(
+        why.contains("its data ends at 2025-10, 6 months before"),
+        "{why}"
+    );
+    let run = cli(&["stock", "-", "--json"], text.as_bytes());
+    let failed = &run.json()["failed"];
+    assert_eq!(failed[0]["name"], "Trowel");
+    assert_eq!(failed[0]["message"].as_str(), Some(why.as_str()));
+    let refs: Vec<&BoardRow> = rows.iter().collect();
+    let line = order_plan_csv(&refs, |_| false)
+        .lines()
+        .nth(2)
+        .unwrap()
+        .to_string();
+    assert!(
+        line.starts_with("Trowel,") && line.contains("its data ends"),
+        "{line}"
+    );
+}
+
 /// A constructed row: its name, its MASE (`None` for an item without figures), its alerts.
 type Spec<'a> = (&'a str, Option<Option<f64>>, &'a [AlertKind]);
 

@@ -32,6 +32,22 @@ fn inspect_json_has_the_contract_fields() {
     assert_eq!(items[0]["periods"][0], "2021-12");
 }
 
+// The item list gives each item's history, from its first value to its last: it had given a
+// wide table's every item the table's whole span, empty cells before and after included.
+#[test]
+fn inspect_lists_each_items_history_from_its_first_value_to_its_last() {
+    let text = "month,Twine,Trowel\n2024-01,5,\n2024-02,6,\n2024-03,7,3\n2024-04,,4\n";
+    let out = cli(&["inspect", "-"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let listed = out.text();
+    for line in [
+        "  Twine: 3 periods, 2024-01 to 2024-03\n",
+        "  Trowel: 2 periods, 2024-03 to 2024-04\n",
+    ] {
+        assert!(listed.contains(line), "{line:?} in {listed}");
+    }
+}
+
 #[test]
 fn inspect_names_an_unfinished_last_period() {
     let out = cli(&["inspect", "-", "--json"], &demo());

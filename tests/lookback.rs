@@ -229,7 +229,7 @@ fn looking_back_beyond_the_horizon_leaves_the_plan_of_then_as_it_was() {
     let settings = PlanSettings::default();
     let back = look_back(&series, &settings, &stock(2), None, 13, None).unwrap();
     let then = monthly(values[..47].to_vec());
-    let order = plan_order(&then, &settings, &stock(2), None, false).unwrap();
+    let order = plan_order(&then, &settings, &stock(2), None, false, None).unwrap();
     assert_eq!(order.plan.forecast.len(), 12);
     let bands: Vec<_> = back.steps[..12].iter().map(|s| s.band).collect();
     let shown: Vec<_> = order.plan.forecast.iter().map(|p| p.band).collect();

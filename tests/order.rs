@@ -103,11 +103,11 @@ fn a_stock_row_overrides_the_files_settings_and_a_missing_row_is_noted() {
     let series = seasonal(60);
     let defaults = StockText::default().check().unwrap();
     let settings = PlanSettings::default();
-    let plain = plan_order(&series, &settings, &defaults, None, false).unwrap();
+    let plain = plan_order(&series, &settings, &defaults, None, false, None).unwrap();
     assert_eq!(plain.stock.protection_periods, 1);
     assert_eq!(plain.stock.suggested_order, None);
     assert!(!plain.stock.notes.iter().any(|n| n == NO_ROW_NOTE));
-    let missing = plan_order(&series, &settings, &defaults, None, true).unwrap();
+    let missing = plan_order(&series, &settings, &defaults, None, true, None).unwrap();
     assert!(missing.stock.notes.iter().any(|n| n == NO_ROW_NOTE));
     let row = StockRow {
         item: series.name().to_string(),
@@ -116,7 +116,7 @@ fn a_stock_row_overrides_the_files_settings_and_a_missing_row_is_noted() {
         review_period: Some(2),
         ..StockRow::default()
     };
-    let rowed = plan_order(&series, &settings, &defaults, Some(&row), true).unwrap();
+    let rowed = plan_order(&series, &settings, &defaults, Some(&row), true, None).unwrap();
     assert_eq!(rowed.stock.protection_periods, 5);
     assert!(rowed.stock.suggested_order.is_some());
     // The plan reaches over the protection interval even past the automatic horizon.
@@ -124,12 +124,12 @@ fn a_stock_row_overrides_the_files_settings_and_a_missing_row_is_noted() {
         lead_time: Some(30),
         ..row.clone()
     };
-    let far = plan_order(&series, &settings, &defaults, Some(&long), true).unwrap();
+    let far = plan_order(&series, &settings, &defaults, Some(&long), true, None).unwrap();
     assert!(far.plan.forecast.len() >= 32);
     // A horizon the user set must reach it.
     let short = settings.clone().with_horizon(Some(3)).unwrap();
     assert_eq!(
-        plan_order(&series, &short, &defaults, Some(&row), true).unwrap_err(),
+        plan_order(&series, &short, &defaults, Some(&row), true, None).unwrap_err(),
         OrderError::HorizonShort {
             horizon: 3,
             periods: 5
@@ -141,9 +141,45 @@ fn a_stock_row_overrides_the_files_settings_and_a_missing_row_is_noted() {
         ..row
     };
     assert!(matches!(
-        plan_order(&series, &settings, &defaults, Some(&bad), true),
+        plan_order(&series, &settings, &defaults, Some(&bad), true, None),
         Err(OrderError::Stock(_))
     ));
+}
+
+// An item whose data ends before the file's last period (a wide table's column left empty
+// since): planned from its own end it had got a reorder point for a month already past, as
+// if that month were next. No figures, and the message says what to do.
+#[test]
+fn an_item_whose_data_ends_before_the_files_end_gets_no_figures() {
+    use morrowcast_engine::calendar::Period;
+    let series = seasonal(48); // 2021-01 to 2024-12
+    let defaults = StockText::default().check().unwrap();
+    let settings = PlanSettings::default();
+    let order = |end| plan_order(&series, &settings, &defaults, None, false, end);
+    let refused = order(Some(Period::month(2025, 10))).unwrap_err();
+    assert_eq!(
+        refused,
+        OrderError::EndsEarly {
+            last: Period::month(2024, 12),
+            file_end: Period::month(2025, 10)
+        }
+    );
+    let words = refused.to_string();
+    for said in [
+        "its data ends at 2024-12, 10 months before the file's last period (2025-10)",
+        "from 2025-01 on",
+        "write 0 for those periods",
+        "leave it out",
+    ] {
+        assert!(words.contains(said), "{said:?} in {words}");
+    }
+    assert!(order(Some(Period::month(2025, 1)))
+        .unwrap_err()
+        .to_string()
+        .contains("1 month before"));
+    // At the file's end, or with no file end given, it is planned.
+    assert!(order(Some(Period::month(2024, 12))).is_ok());
+    assert!(order(None).is_ok());
 }
 
 /// A shop shut on Saturdays and Sundays (no sales then, from a Monday), its history `days`
@@ -166,7 +202,7 @@ fn shut_days_order_over(
     use morrowcast_engine::stock::StockSettings;
     let series = crate::support::shop_shut_at_weekends(days);
     let settings = StockSettings::new(lead, review, Csl(0.95)).unwrap();
-    plan_order(&series, plan, &settings, None, false).unwrap()
+    plan_order(&series, plan, &settings, None, false, None).unwrap()
 }
 
 /// [`shut_days_order`]'s protection interval must be `periods`, and the demand over it the
@@ -282,6 +318,7 @@ fn a_negative_safety_stock_under_a_cycle_service_target_is_explained_as_such() {
         &stock,
         None,
         false,
+        None,
     )
     .unwrap();
     assert!(

@@ -16,6 +16,7 @@ use super::unfinished::UnfinishedNotice;
 use super::words;
 use crate::chart::canvas::PageCanvas;
 use crate::chart::{self, Area, ChartError};
+use morrowcast_engine::order::ends_early;
 
 fn fixed(v: f64, decimals: usize) -> String {
     if v.is_finite() {
@@ -144,6 +145,12 @@ pub fn Headline() -> impl IntoView {
                             <p class="notice" id="unread-cells">{words::unread_cells_note(r.errors.len())}</p>
                         }))}
                         <UnfinishedNotice id="unfinished-last"/>
+                        {move || intake.series.with(|s| match s {
+                            Some(Ok(s)) => intake.report.with(|r| ends_early(s, r.last_period())).map(|why| view! {
+                                <p class="notice" id="ends-early">{words::ends_early_note(&why.to_string())}</p>
+                            }),
+                            _ => None,
+                        })}
                         <p class="timing" id="compute-time">{move || format!("Recomputed in {:.0} ms.", state.compute_ms.get())}</p>
                     }.into_any()
                 }

@@ -91,6 +91,12 @@ pub fn unread_cells_note(count: usize) -> String {
     )
 }
 
+/// Said above the open item's forecast when its data ends before the file's last period
+/// (`why`: the engine's words, `order::ends_early`): the forecast starts at its own end.
+pub fn ends_early_note(why: &str) -> String {
+    format!("This forecast does not start after the file's end: {why}.")
+}
+
 /// Said above forecasts and stock figures when the file's last period looks unfinished
 /// (Intake's warning says why): they count it as a whole period. `can_leave_out`: the page
 /// offers a button that does it; otherwise the file must be edited.

@@ -44,7 +44,8 @@ pub struct BoardAsk {
     /// Periods to look back over (the Look-back: the plan of then against what sold since);
     /// 0: none.
     pub look_back: usize,
-    /// The file's last period, which the Look-back counts back from (`None`: each item's own).
+    /// The file's last period: the Look-back counts back from it, and an item whose data ends
+    /// before it gets no stock figures (`None`: each item's own end).
     pub file_end: Option<Period>,
     pub items: Vec<BoardItem>,
 }
@@ -190,6 +191,7 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                         defaults,
                         item.row.as_ref(),
                         ask.table_given,
+                        ask.file_end,
                     )
                     .map(|order| BoardFigures::new(&order))
                     .map_err(|e| e.to_string()),

@@ -561,3 +561,82 @@ fn an_unfinished_last_period_is_said_above_the_figures() {
     let kept = browser.js("return document.getElementById('intake-text').value");
     assert_eq!(kept.as_str(), Some(us.as_str()));
 }
+
+/// A wide table whose column for one item is empty over its last months: its row gives no
+/// figures and says why (the command line's words), the "could not be planned" filter finds
+/// it, and its own Stock plan says the same; the other items are planned.
+#[test]
+fn an_item_whose_data_ends_early_gets_no_stock_figures_and_says_why() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    wait_until_planned(browser, 6);
+    let mut text = String::from("month,Garden twine,Rain gauge\n");
+    for t in 0..40 {
+        let gauge = if t < 34 {
+            (20 + t % 7).to_string()
+        } else {
+            String::new()
+        };
+        text.push_str(&format!(
+            "{}-{:02},{},{gauge}\n",
+            2023 + t / 12,
+            t % 12 + 1,
+            50 + t % 9
+        ));
+    }
+    paste(browser, &text);
+    wait_until_planned(browser, 2);
+    let run = cli(&["stock", "-", "--json"], text.as_bytes());
+    let why = run.json()["failed"][0]["message"]
+        .as_str()
+        .unwrap()
+        .to_string();
+    assert!(
+        why.starts_with("its data ends at 2025-10, 6 months before"),
+        "{why}"
+    );
+    browser.wait_for_args(
+        "the row saying why",
+        "const rows = [...document.querySelectorAll('#board-table tbody tr')]; \
+         return rows.length === 2 && rows[1].querySelector('td.problem') \
+           && rows[1].querySelector('td.problem').textContent === arguments[0];",
+        json!([why]),
+        WAIT,
+    );
+    browser.js(
+        "const s = document.getElementById('board-alert'); s.value = 'failed'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    assert_eq!(shown_names(browser), ["Rain gauge"]);
+    browser.js("document.querySelector('#board-table .open-item').click()");
+    wait_for_item(browser, "Rain gauge");
+    browser.wait_for_args(
+        "the item's Stock plan saying why",
+        "const s = document.getElementById('item-stock'); \
+         return !!s && s.textContent.includes('No stock figures: ' + arguments[0]);",
+        json!([why]),
+        WAIT,
+    );
+    // Its forecast, above, says where it starts.
+    let said = browser
+        .js("const n = document.getElementById('ends-early'); return n ? n.textContent : ''");
+    assert_eq!(
+        said.as_str(),
+        Some(format!("This forecast does not start after the file's end: {why}.").as_str())
+    );
+    save_screenshot(browser, "board-ends-early.png");
+    // An item planned to the file's end has no such line.
+    browser.js(
+        "const s = document.getElementById('board-alert'); s.value = 'all'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    browser.js("document.querySelector('#board-table .open-item').click()");
+    wait_for_item(browser, "Garden twine");
+    assert_eq!(
+        browser.js("return document.getElementById('ends-early') === null"),
+        json!(true)
+    );
+}

@@ -513,3 +513,64 @@ fn timed_rows_of_a_day_in_one_series_or_a_wide_table_are_added_up() {
             .contains("keep one of the two rows"));
     }
 }
+
+// A wide table where one item starts late and another stops early: the empty cells before
+// the first value and after the last are not gaps (they had been said to be "read as gaps",
+// and the item list gave every item the table's whole span); the one inside is. Next months
+// written ahead with no figure do not move the file's end.
+#[test]
+fn empty_cells_outside_an_items_history_are_said_apart_from_its_gaps() {
+    let report = check(
+        "month,Twine,Trowel,Rake\n2024-01,5,,9\n2024-02,6,,8\n2024-03,7,3,\n2024-04,8,,7\n\
+         2024-05,9,4,\n2024-06,,,\n",
+        Expect {
+            items: Some(vec![
+                (
+                    "Twine",
+                    some(&[5.0, 6.0, 7.0, 8.0, 9.0])
+                        .into_iter()
+                        .chain([None])
+                        .collect(),
+                ),
+                ("Trowel", vec![None, None, Some(3.0), None, Some(4.0), None]),
+                (
+                    "Rake",
+                    vec![Some(9.0), Some(8.0), None, Some(7.0), None, None],
+                ),
+            ]),
+            warned: vec![
+                vec![
+                    "\"Trowel\": 2 empty cells before its first value (2024-03) left out \
+                     (2024-01 to 2024-02): its history starts there",
+                ],
+                vec!["\"Trowel\": 1 empty cell read as gaps (2024-04)"],
+                vec!["\"Rake\": 1 empty cell read as gaps (2024-03)"],
+                vec![
+                    "\"Rake\": 2 empty cells after its last value (2024-04) left out \
+                     (2024-05 to 2024-06): its history ends there",
+                    "write 0 in them",
+                ],
+            ],
+            ..Expect::default()
+        },
+    );
+    let spans: Vec<(String, String)> = report
+        .items
+        .iter()
+        .map(|i| {
+            (
+                i.first_value().unwrap().to_string(),
+                i.last_value().unwrap().to_string(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        spans,
+        [
+            ("2024-01".into(), "2024-05".into()),
+            ("2024-03".into(), "2024-05".into()),
+            ("2024-01".into(), "2024-04".into())
+        ]
+    );
+    assert_eq!(report.last_period().unwrap().to_string(), "2024-05");
+}

@@ -206,8 +206,9 @@ fn wide_duplicate_headers_get_unique_names() {
 }
 
 // A period with rows for other items but none for an item is no sales for it (tables of
-// rows leave out the zeros; interpolating there would invent demand); a period no row names
-// at all is a gap in a table that writes zeros (tests/intake/unnamed.rs has the rest).
+// rows leave out the zeros; interpolating there would invent demand), after its last row too
+// (its plan starts at the file's end); a period no row names at all is a gap in a table that
+// writes zeros (tests/intake/unnamed.rs has the rest).
 #[test]
 fn long_layout_in_any_order_with_a_missing_period() {
     let text =
@@ -216,7 +217,19 @@ fn long_layout_in_any_order_with_a_missing_period() {
     assert!(r.errors.is_empty(), "{:?}", r.errors);
     assert_eq!(r.layout, Layout::Long);
     assert_eq!(r.items[0].name, "pears");
-    assert_eq!(r.items[0].values, some(&[4.0, 3.0]));
+    assert_eq!(r.items[0].values, some(&[4.0, 3.0, 0.0]));
+    assert!(
+        warned(
+            &r,
+            &[
+                "the rows of 1 item stop before those of the other items",
+                "\"pears\" (last row 2024-02, line 2; 1 of 1 periods since read as 0)",
+                "add them"
+            ]
+        ),
+        "{:?}",
+        r.warnings
+    );
     assert_eq!(r.items[1].name, "apples");
     assert_eq!(labels(&r.items[1]), ["2024-01", "2024-02", "2024-03"]);
     assert_eq!(r.items[1].values, some(&[1.0, 0.0, 2.0]));
@@ -229,7 +242,13 @@ fn long_layout_in_any_order_with_a_missing_period() {
     let text = "item,period,qty\napples,2024-01,1\napples,2024-03,2\npears,2024-01,0\n";
     let r = read(text);
     assert_eq!(r.items[0].values, vec![Some(1.0), None, Some(2.0)]);
-    assert_eq!(r.gaps_filled, 1);
+    // The month missing from the whole export stays a gap after pears' last row too.
+    assert_eq!(r.items[1].values, vec![Some(0.0), None, Some(0.0)]);
+    assert!(warned(
+        &r,
+        &["\"pears\" (last row 2024-01, line 4; 1 of 2 periods since read as 0)"]
+    ));
+    assert_eq!(r.gaps_filled, 2);
     assert!(
         warned(
             &r,

@@ -233,7 +233,7 @@ fn notes_beside_the_periods_do_not_split_an_item() {
         Expect {
             items: Some(vec![
                 ("Seeds", some(&[10.0, 0.0, 11.0])),
-                ("Bulbs", some(&[12.0])),
+                ("Bulbs", some(&[12.0, 0.0])),
             ]),
             layout: Some(Layout::Long),
             ..Expect::default()

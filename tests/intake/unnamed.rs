@@ -57,13 +57,17 @@ fn quiet_days_of_slow_items_are_no_sales() {
         Expect {
             items: Some(vec![
                 ("Oak tray", with_zeros(&tray, 31)),
-                ("Seed tin", with_zeros(&tin, 27)[1..].to_vec()),
+                // After its last row (day 26) too: the table runs on to day 31.
+                ("Seed tin", with_zeros(&tin, 31)[1..].to_vec()),
             ]),
-            warned: vec![vec![
-                "days that no row names were read as no sales (0)",
-                "writes no zeros",
-                "2024-03-06",
-            ]],
+            warned: vec![
+                vec![
+                    "days that no row names were read as no sales (0)",
+                    "writes no zeros",
+                    "2024-03-06",
+                ],
+                vec!["\"Seed tin\" (last row 2024-03-30", "4 of 4 periods since"],
+            ],
             ..Expect::default()
         },
     );
@@ -225,6 +229,58 @@ fn a_store_missing_from_the_export_has_gaps_not_zeros() {
     assert_eq!(south.name, "South / Oak tray");
     assert!(south.values[20..40].iter().all(Option::is_none));
     assert_eq!(report.gaps_filled, 40);
+}
+
+// An item whose rows stop before its store's: the days after its last row are no sales, as
+// between its rows (its plan then starts at the file's end, not at its last row); but only up
+// to its store's last day: a store whose export ends earlier keeps its end (the plan refuses
+// figures for it, tests/order.rs), its days after not taken for no sales from the other
+// store's rows.
+#[test]
+fn an_item_whose_rows_stop_is_read_to_its_stores_last_day() {
+    let mut text = String::from("store,item,date,qty\n");
+    for t in 0..60 {
+        let day = day_label(t);
+        for store in ["North", "South"] {
+            if store == "South" && t >= 50 {
+                continue;
+            }
+            for item in ["Oak tray", "Seed tin"] {
+                if item == "Seed tin" && t >= 45 {
+                    continue;
+                }
+                text.push_str(&format!("{store},{item},{day},{}\n", 3 + t % 5));
+            }
+        }
+    }
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "the rows of 2 items stop before those of the other items of its store",
+                "\"North / Seed tin\" (last row 2024-04-17",
+                "15 of 15 periods since read as 0",
+                "\"South / Seed tin\" (last row 2024-04-17",
+                "5 of 5 periods since read as 0",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let ends: Vec<(&str, usize, Option<f64>)> = report
+        .items
+        .iter()
+        .map(|i| (i.name.as_str(), i.values.len(), *i.values.last().unwrap()))
+        .collect();
+    assert_eq!(
+        ends,
+        [
+            ("North / Oak tray", 60, Some(3.0 + 59.0 % 5.0)),
+            ("North / Seed tin", 60, Some(0.0)),
+            ("South / Oak tray", 50, Some(3.0 + 49.0 % 5.0)),
+            ("South / Seed tin", 50, Some(0.0)),
+        ]
+    );
+    assert!(report.items[1].values[45..].iter().all(|v| *v == Some(0.0)));
 }
 
 // A row shorter than the item columns (a store without its item) had made the store grouping

@@ -270,6 +270,7 @@ fn stock(
         Ok(w) => w,
         Err(code) => return code,
     };
+    let file_end = report.last_period();
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
@@ -290,6 +291,7 @@ fn stock(
                 stock_settings,
                 row.as_ref(),
                 table.is_some(),
+                file_end,
             )
             .map(|o| (o.plan, o.stock, o.alerts))
             .map_err(|e| e.to_string())

@@ -64,22 +64,17 @@ pub fn intake_report(r: &IntakeReport) -> String {
         r.items.len(),
         r.gaps_filled
     );
+    // Each item's history: from its first value to its last (empty cells outside it are
+    // left out, as a warning says).
     for item in &r.items {
-        let first = item
-            .periods
-            .first()
-            .map(ToString::to_string)
-            .unwrap_or_default();
-        let last = item
-            .periods
-            .last()
-            .map(ToString::to_string)
-            .unwrap_or_default();
+        let (Some(first), Some(last)) = (item.first_value(), item.last_value()) else {
+            continue;
+        };
         let _ = writeln!(
             s,
             "  {}: {} periods, {} to {}",
             clean(&item.name),
-            item.values.len(),
+            first.steps_to(last) + 1,
             first,
             last
         );

@@ -324,7 +324,7 @@ pub fn look_back(
     let since = held - earlier.len();
     let plan_failed = |e| LookBackError::Order(OrderError::Plan(e));
     // A plan without a Stock plan (too short a history for its spread) is still looked back on.
-    let (plan, stock_plan) = match plan_order(&earlier, settings, defaults, row, false) {
+    let (plan, stock_plan) = match plan_order(&earlier, settings, defaults, row, false, None) {
         Ok(order) => (order.plan, Ok(order.stock)),
         Err(OrderError::Stock(why)) => (
             plan_item(&earlier, settings).map_err(plan_failed)?,

@@ -8,6 +8,7 @@
 use std::fmt;
 
 use crate::alerts::{alerts, Alert};
+use crate::calendar::Period;
 use crate::intake::StockRow;
 use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
 use crate::series::Series;
@@ -41,6 +42,14 @@ pub enum OrderError {
     },
     /// The horizon could not be lengthened (see the message).
     Setting(SettingError),
+    /// The item's data ends before the file's last period: what it sold since is not known,
+    /// so a plan from its own end would forecast periods already past as if they were next.
+    EndsEarly {
+        /// Its last period with data.
+        last: Period,
+        /// The file's last period.
+        file_end: Period,
+    },
 }
 
 impl fmt::Display for OrderError {
@@ -54,6 +63,19 @@ impl fmt::Display for OrderError {
                  interval of {periods} periods: lengthen the horizon or leave it automatic"
             ),
             OrderError::Setting(e) => e.fmt(f),
+            OrderError::EndsEarly { last, file_end } => {
+                let behind = last.steps_to(*file_end);
+                let (one, many) = last.frequency().period_words();
+                write!(
+                    f,
+                    "its data ends at {last}, {behind} {} before the file's last period \
+                     ({file_end}), and what it sold since is not known: planned from its own \
+                     end, it is forecast from {} on as if that were next. If it sold nothing \
+                     since, write 0 for those periods; if it is no longer sold, leave it out",
+                    if behind == 1 { one } else { many },
+                    last.next()
+                )
+            }
         }
     }
 }
@@ -64,19 +86,35 @@ impl std::error::Error for OrderError {}
 pub const NO_ROW_NOTE: &str =
     "no row in the stock table: on hand unknown, so no order is suggested";
 
+/// [`OrderError::EndsEarly`] when `series` ends before `file_end` (the file's last period):
+/// the one rule behind the board's and the command line's refusal and the page's notice.
+pub fn ends_early(series: &Series, file_end: Option<Period>) -> Option<OrderError> {
+    let last = series.period(series.len() - 1);
+    file_end
+        .filter(|end| end.frequency() == last.frequency() && last < *end)
+        .map(|file_end| OrderError::EndsEarly { last, file_end })
+}
+
 /// Plans one item and works out its Stock plan and alerts.
 ///
 /// `defaults` are the file's stock settings; `row` the item's row of the stock table, whose
 /// values replace them ([`StockSettings::for_row`]); `table_given` whether a stock table was
-/// given at all (an item missing from one gets a note). An automatic horizon shorter than the
-/// protection interval is lengthened to it; a horizon the user set must reach it.
+/// given at all (an item missing from one gets a note); `file_end` the file's last period
+/// ([`crate::intake::IntakeReport::last_period`]): an item whose data ends before it is
+/// refused ([`OrderError::EndsEarly`]), `None` plans every item from its own end. An
+/// automatic horizon shorter than the protection interval is lengthened to it; a horizon the
+/// user set must reach it.
 pub fn plan_order(
     series: &Series,
     settings: &PlanSettings,
     defaults: &StockSettings,
     row: Option<&StockRow>,
     table_given: bool,
+    file_end: Option<Period>,
 ) -> Result<ItemOrder, OrderError> {
+    if let Some(early) = ends_early(series, file_end) {
+        return Err(early);
+    }
     let stock_settings = match row {
         Some(row) => defaults.for_row(row).map_err(OrderError::Stock)?,
         None => defaults.clone(),

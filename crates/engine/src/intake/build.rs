@@ -621,6 +621,15 @@ impl<'a> Builder<'a> {
         Some(steps + 1)
     }
 
+    /// Takes `len` slots more when the allowance has them (no error: the caller goes without).
+    fn spare_slots(&mut self, len: usize) -> bool {
+        let spare = len <= self.slots_left;
+        if spare {
+            self.slots_left -= len;
+        }
+        spare
+    }
+
     /// Takes `len` slots for item `name`; `false`, with an error at `row` and `column`, when
     /// all items together would pass the allowance of the module doc.
     fn take_slots(&mut self, len: usize, name: &str, row: usize, column: usize) -> bool {
@@ -693,6 +702,43 @@ impl<'a> Builder<'a> {
             "\"{name}\": {} read as gaps ({})",
             count(cells, "empty cell"),
             listing(periods)
+        ));
+    }
+
+    /// The warning naming an item's empty cells before its first value or after its last
+    /// (`end`: "first" or "last", at `value`): its history does not reach them. After the last,
+    /// what it sold since is unknown: where other items have figures then, the plan gives it
+    /// no stock figures ([`crate::order::OrderError::EndsEarly`]) and says why.
+    fn outside_the_history(
+        &mut self,
+        name: &str,
+        mut cells: Vec<Period>,
+        value: Period,
+        end: &str,
+    ) {
+        if cells.is_empty() {
+            return;
+        }
+        let n = cells.len();
+        cells.sort();
+        cells.dedup();
+        let (side, meaning) = if end == "first" {
+            (
+                "before",
+                "its history starts there (not sold yet)".to_string(),
+            )
+        } else {
+            (
+                "after",
+                "its history ends there (if those periods are past and it sold nothing in \
+                 them, write 0 in them)"
+                    .to_string(),
+            )
+        };
+        self.out.warnings.push(format!(
+            "\"{name}\": {} {side} its {end} value ({value}) left out ({}): {meaning}",
+            count(n, "empty cell"),
+            listing(&readings::ranges(&cells))
         ));
     }
 
@@ -910,9 +956,18 @@ impl<'a> Builder<'a> {
         }
         // An empty cell on a day whose other rows hold quantities adds nothing to it; a day of
         // empty cells only is a gap.
-        let (beside, mut gaps): (Vec<Period>, Vec<Period>) = empty
+        let (beside, gaps): (Vec<Period>, Vec<Period>) = empty
             .into_iter()
             .partition(|p| values[start.steps_to(*p) as usize].is_some());
+        // Before the first value and after the last the history does not reach: said apart
+        // from the gaps inside it, which are filled.
+        let at = |p: &Period| start.steps_to(*p) as usize;
+        let first = values.iter().position(Option::is_some).unwrap_or(0);
+        let last = values.iter().rposition(Option::is_some).unwrap_or(0);
+        let (before, rest): (Vec<Period>, Vec<Period>) =
+            gaps.into_iter().partition(|p| at(p) < first);
+        let (after, mut gaps): (Vec<Period>, Vec<Period>) =
+            rest.into_iter().partition(|p| at(p) > last);
         let empty_cells = gaps.len();
         gaps.sort();
         gaps.dedup();
@@ -920,6 +975,8 @@ impl<'a> Builder<'a> {
             let gaps: Vec<String> = gaps.iter().map(Period::to_string).collect();
             self.empty_cells_read_as_gaps(name, empty_cells, &gaps);
         }
+        self.outside_the_history(name, before, start.offset(first as i64), "first");
+        self.outside_the_history(name, after, start.offset(last as i64), "last");
         if !beside.is_empty() {
             let days: Vec<String> = beside.iter().map(Period::to_string).collect();
             self.out.warnings.push(format!(

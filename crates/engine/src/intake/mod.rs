@@ -243,6 +243,18 @@ pub struct Item {
 }
 
 impl Item {
+    /// The first period that holds a value.
+    pub fn first_value(&self) -> Option<Period> {
+        let at = self.values.iter().position(Option::is_some)?;
+        self.periods.get(at).copied()
+    }
+
+    /// The last period that holds a value.
+    pub fn last_value(&self) -> Option<Period> {
+        let at = self.values.iter().rposition(Option::is_some)?;
+        self.periods.get(at).copied()
+    }
+
     /// The validated series for modelling.
     pub fn series(&self) -> Result<Series, SeriesError> {
         let start = self.periods.first().copied().unwrap_or(Period::position(1));
@@ -288,13 +300,11 @@ impl IntakeReport {
         !self.errors.is_empty()
     }
 
-    /// The file's last period: the latest of every item's (an item's data may end before it).
+    /// The file's last period: the latest that holds a value of any item (an item's data may
+    /// end before it; rows of periods no item has a figure for yet, such as next months
+    /// written ahead with empty cells, do not count).
     pub fn last_period(&self) -> Option<Period> {
-        self.items
-            .iter()
-            .filter_map(|i| i.periods.last())
-            .max()
-            .copied()
+        self.items.iter().filter_map(Item::last_value).max()
     }
 }
 

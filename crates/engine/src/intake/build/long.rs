@@ -11,7 +11,7 @@
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
-use super::{count, lines, listing, period_out_of_run, Builder, LongRow};
+use super::{count, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS};
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
@@ -108,6 +108,7 @@ impl<'a> Builder<'a> {
         let mut readings = self.readings(&item_columns, &order, &items, dated);
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
+        let mut stopped = Vec::new();
         let mut out_of_order: Vec<String> = Vec::new();
         for (k, key) in order.into_iter().enumerate() {
             let Some(LongItem {
@@ -209,13 +210,25 @@ impl<'a> Builder<'a> {
             };
             let start = first.0;
             let (first_row, last_row) = (first.2[0], last.2[last.2.len() - 1]);
-            let Some(len) = self.run(start, last.0, last_row, period_column) else {
+            let Some(own) = self.run(start, last.0, last_row, period_column) else {
                 continue;
             };
             let item_column = item_columns[0];
-            if !self.take_slots(len as usize, &name, first_row.line, item_column) {
+            if !self.take_slots(own as usize, &name, first_row.line, item_column) {
                 continue;
             }
+            // Rows that stop before the group's last period: the periods after them are read
+            // as the periods between rows are, so the plan starts from the file's end, not
+            // from the item's last row as if the months since were still to come.
+            let after = match readings.last_named(k) {
+                Some(end) if dated && end > last.0 && start.steps_to(end) < MAX_PERIODS => {
+                    let extra = last.0.steps_to(end) as usize;
+                    self.spare_slots(extra).then_some(extra as i64)
+                }
+                _ => None,
+            }
+            .unwrap_or(0);
+            let len = own + after;
             let mut values = vec![None; len as usize];
             let mut present = vec![false; len as usize];
             for (period, value, _) in &merged {
@@ -224,7 +237,7 @@ impl<'a> Builder<'a> {
                 values[slot] = *value;
                 self.check_negative(&name, *period, *value);
             }
-            let mut no_sales = 0;
+            let (mut no_sales, mut since) = (0, 0);
             for i in 0..len as usize {
                 let period = start.offset(i as i64);
                 if present[i] || !dated {
@@ -235,10 +248,20 @@ impl<'a> Builder<'a> {
                     values[i] = Some(0.0);
                     present[i] = true;
                 }
-                no_sales += usize::from(reading == Reading::OtherRows);
+                if i as i64 >= own {
+                    since += usize::from(reading != Reading::Gap);
+                } else {
+                    no_sales += usize::from(reading == Reading::OtherRows);
+                }
             }
             if no_sales > 0 {
                 zeros.push(format!("\"{name}\" {no_sales}"));
+            }
+            if after > 0 {
+                stopped.push(format!(
+                    "\"{name}\" (last row {}, line {}; {since} of {after} periods since read as 0)",
+                    last.0, last_row.line
+                ));
             }
             let missing: Vec<String> = (0..len)
                 .filter(|i| !present[*i as usize])
@@ -266,7 +289,7 @@ impl<'a> Builder<'a> {
                 listing(&out_of_order)
             ));
         }
-        let warnings = readings.warnings(&zeros);
+        let warnings = readings.warnings(&zeros, &stopped);
         self.out.warnings.extend(warnings);
         if !summed.is_empty() {
             self.out.warnings.push(format!(

@@ -61,6 +61,8 @@ pub(super) enum Reading {
 /// readings of those they do not, and what was read for the items.
 struct Periods {
     with_rows: HashSet<Period>,
+    /// The latest period its rows name.
+    last: Option<Period>,
     unnamed: HashMap<Period, Unnamed>,
     /// The line of the first row of 0 when the set writes its zeros.
     zero_line: Option<usize>,
@@ -79,6 +81,7 @@ impl Periods {
             (HashMap::new(), None)
         };
         Periods {
+            last: with_rows.iter().max().copied(),
             with_rows,
             unnamed,
             zero_line,
@@ -144,6 +147,15 @@ impl Readings {
         }
     }
 
+    /// The latest period the rows of item `item`'s group name (the table's, without groups):
+    /// where its run of periods ends, when its own rows stop earlier (see `long`).
+    pub(super) fn last_named(&self, item: usize) -> Option<Period> {
+        match self.item_group.get(item).copied().flatten() {
+            Some(g) => self.groups[g].1.last,
+            None => self.table.last,
+        }
+    }
+
     /// Reads `period`, in which item `item` (its place in the items given) has no row.
     pub(super) fn read(&mut self, item: usize, period: Period) -> Reading {
         let group = self.item_group.get(item).copied().flatten();
@@ -162,14 +174,25 @@ impl Readings {
     }
 
     /// The warnings about the readings: "rows for other items" (`zeros`: each item's count of
-    /// them), then the table's periods no row names, then each group's.
-    pub(super) fn warnings(self, zeros: &[String]) -> Vec<String> {
+    /// them), the items whose rows stop before their group's (`stopped`: each in words), then
+    /// the table's periods no row names, then each group's.
+    pub(super) fn warnings(self, zeros: &[String], stopped: &[String]) -> Vec<String> {
         let mut out = Vec::new();
+        let of_group = self
+            .place
+            .as_ref()
+            .map_or(String::new(), |p| format!(" of its {p}"));
+        if !stopped.is_empty() {
+            out.push(format!(
+                "the rows of {} stop before those of the other items{of_group}: the periods \
+                 after each one's last row were read as no sales (0), as the periods between \
+                 an item's rows are, so its plan starts after them: {}; if an item's rows since \
+                 are missing rather than its sales, add them",
+                count(stopped.len(), "item"),
+                listing(stopped)
+            ));
+        }
         if !zeros.is_empty() {
-            let of_group = self
-                .place
-                .as_ref()
-                .map_or(String::new(), |p| format!(" of its {p}"));
             out.push(format!(
                 "periods with rows for other items{of_group} but none for an item were read as \
                  no sales (0) for it, since tables of rows usually leave out the zeros: {}",
@@ -296,7 +319,7 @@ fn season_place(frequency: Frequency, position: usize) -> String {
 }
 
 /// Periods as ranges of consecutive ones: "2024-06-01 to 2024-06-30", "2024-12-25".
-fn ranges(periods: &[Period]) -> Vec<String> {
+pub(super) fn ranges(periods: &[Period]) -> Vec<String> {
     let mut out: Vec<String> = Vec::new();
     let mut i = 0;
     while i < periods.len() {
