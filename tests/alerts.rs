@@ -108,7 +108,22 @@ fn sparse_demand_gone_quiet() {
             }
         })
         .collect();
-    check(y, &[AlertKind::SparseDemand, AlertKind::NoRecentDemand]);
+    check(
+        y.clone(),
+        &[AlertKind::SparseDemand, AlertKind::NoRecentDemand],
+    );
+    // The reason counts the whole quiet run (months 43 to 47: five), not the alert's three.
+    let series = monthly(y.iter().map(|v| Some(*v)).collect());
+    let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+    let said = alerts(&plan, &series);
+    let quiet = said
+        .iter()
+        .find(|a| a.kind == AlertKind::NoRecentDemand)
+        .unwrap();
+    assert_eq!(
+        quiet.reason,
+        "no demand in the last 5 months: possibly discontinued"
+    );
 }
 
 /// `count` histories of `length` periods from `start`, period t of each `shape(t, z)` with z

@@ -48,6 +48,39 @@ fn inspect_lists_each_items_history_from_its_first_value_to_its_last() {
     }
 }
 
+// `forecast` says, as the page does under the item's headline, that an item whose data ends
+// before the file's last period is forecast from its own end.
+#[test]
+fn forecast_says_when_an_items_forecast_starts_before_the_files_end() {
+    let mut text = String::from("month,Twine,Trowel\n");
+    for t in 0..30 {
+        let trowel = if t < 26 {
+            (20 + t % 7).to_string()
+        } else {
+            String::new()
+        };
+        text.push_str(&format!(
+            "{}-{:02},{},{trowel}\n",
+            2023 + t / 12,
+            t % 12 + 1,
+            50 + t % 9
+        ));
+    }
+    let out = cli(&["forecast", "-", "--json"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let items = out.json()["items"].clone();
+    let notes = |k: usize| items[k]["notes"].to_string();
+    assert!(!notes(0).contains("does not start after the file's end"));
+    assert!(
+        notes(1).contains(
+            "this forecast does not start after the file's end: its data ends at 2025-02, 4 \
+             months before the file's last period (2025-06)"
+        ),
+        "{}",
+        notes(1)
+    );
+}
+
 #[test]
 fn inspect_names_an_unfinished_last_period() {
     let out = cli(&["inspect", "-", "--json"], &demo());

@@ -180,6 +180,50 @@ fn an_item_whose_data_ends_before_the_files_end_gets_no_figures() {
     // At the file's end, or with no file end given, it is planned.
     assert!(order(Some(Period::month(2024, 12))).is_ok());
     assert!(order(None).is_ok());
+    // Undated items are numbered each from its own first row: their ends say nothing of
+    // each other (a long table of 24 rows for one item and 20 for another).
+    let undated = morrowcast_engine::series::Series::from_values(
+        "Undated",
+        &(0..20).map(|t| 10.0 + (t % 3) as f64).collect::<Vec<_>>(),
+    )
+    .unwrap();
+    assert!(plan_order(
+        &undated,
+        &settings,
+        &defaults,
+        None,
+        false,
+        Some(Period::position(24))
+    )
+    .is_ok());
+}
+
+// A history of whole units with a gap inside (filled between two whole values, 4.5): the
+// order had not been rounded up to a whole unit (4.5049... printed), as the history then
+// looked fractional.
+#[test]
+fn a_gap_inside_whole_units_leaves_the_order_in_whole_units() {
+    let mut values: Vec<Option<f64>> = (0..36).map(|t| Some((20 + t % 7) as f64)).collect();
+    values[20] = None;
+    let series = monthly(values);
+    let defaults = StockText::default().check().unwrap();
+    let row = StockRow {
+        item: series.name().to_string(),
+        on_hand: Some(3.0),
+        ..StockRow::default()
+    };
+    let order = plan_order(
+        &series,
+        &PlanSettings::default(),
+        &defaults,
+        Some(&row),
+        true,
+        None,
+    )
+    .unwrap();
+    assert!(order.plan.whole_units);
+    let suggested = order.stock.suggested_order.unwrap();
+    assert!(suggested > 0.0 && suggested.fract() == 0.0, "{suggested}");
 }
 
 /// A shop shut on Saturdays and Sundays (no sales then, from a Monday), its history `days`

@@ -546,9 +546,18 @@ fn empty_cells_outside_an_items_history_are_said_apart_from_its_gaps() {
                 vec!["\"Trowel\": 1 empty cell read as gaps (2024-04)"],
                 vec!["\"Rake\": 1 empty cell read as gaps (2024-03)"],
                 vec![
-                    "\"Rake\": 2 empty cells after its last value (2024-04) left out \
-                     (2024-05 to 2024-06): its history ends there",
+                    "\"Rake\": 1 empty cell after its last value (2024-04) left out \
+                     (2024-05): its history ends there",
                     "write 0 in them",
+                ],
+                // The month written ahead is said once, for every item.
+                vec![
+                    "1 period after the last with a figure (2024-05) has no figure for any \
+                     item: left out (2024-06), as periods still to come",
+                ],
+                vec![
+                    "the figures of 1 item end before the file's last period (2024-05): \
+                     \"Rake\" (2024-04)",
                 ],
             ],
             ..Expect::default()

@@ -289,8 +289,9 @@ fn months_under_a_week_header_are_an_error() {
     );
 }
 
-/// Empty quantity cells of a long table are gaps named in a warning, as in the other layouts;
-/// a lone "1.250" in a comma file is read with a decimal dot, said in a warning.
+/// Empty quantity cells of a long table are gaps named in a warning, as in the other layouts
+/// (before an item's first figure, left out: its history starts there); a lone "1.250" in a
+/// comma file is read with a decimal dot, said in a warning.
 #[test]
 fn quiet_readings_are_said() {
     check(
@@ -301,7 +302,21 @@ fn quiet_readings_are_said() {
                 ("Seeds", some(&[10.0, 12.0, 14.0])),
                 ("Bulbs", vec![None, Some(6.0), Some(7.0)]),
             ]),
-            warned: vec![vec!["\"Bulbs\"", "1 empty cell", "gaps", "2024-01"]],
+            warned: vec![vec![
+                "\"Bulbs\": 1 empty cell before its first value (2024-02) left out (2024-01)",
+            ]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Item,Qty\n2024-01,Seeds,10\n2024-01,Bulbs,4\n2024-02,Seeds,12\n2024-02,Bulbs,\n\
+         2024-03,Seeds,14\n2024-03,Bulbs,7\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[10.0, 12.0, 14.0])),
+                ("Bulbs", vec![Some(4.0), None, Some(7.0)]),
+            ]),
+            warned: vec![vec!["\"Bulbs\": 1 empty cell read as gaps (2024-02)"]],
             ..Expect::default()
         },
     );

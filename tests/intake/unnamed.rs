@@ -57,7 +57,8 @@ fn quiet_days_of_slow_items_are_no_sales() {
         Expect {
             items: Some(vec![
                 ("Oak tray", with_zeros(&tray, 31)),
-                // After its last row (day 26) too: the table runs on to day 31.
+                // After its last row (day 26) too: the table runs on to day 31. Four days
+                // without a row, as between its rows: not a stop, counted with them.
                 ("Seed tin", with_zeros(&tin, 31)[1..].to_vec()),
             ]),
             warned: vec![
@@ -66,7 +67,7 @@ fn quiet_days_of_slow_items_are_no_sales() {
                     "writes no zeros",
                     "2024-03-06",
                 ],
-                vec!["\"Seed tin\" (last row 2024-03-30", "4 of 4 periods since"],
+                vec!["read as no sales (0)", "\"Seed tin\" 10"],
             ],
             ..Expect::default()
         },
@@ -256,13 +257,19 @@ fn an_item_whose_rows_stop_is_read_to_its_stores_last_day() {
     let report = check(
         &text,
         Expect {
-            warned: vec![vec![
-                "the rows of 2 items stop before those of the other items of its store",
-                "\"North / Seed tin\" (last row 2024-04-17",
-                "15 of 15 periods since read as 0",
-                "\"South / Seed tin\" (last row 2024-04-17",
-                "5 of 5 periods since read as 0",
-            ]],
+            warned: vec![
+                vec![
+                    "items that stopped, with no row since their last for longer than any run \
+                     without one before it, while other items of the same store have rows since",
+                    "(2 items): \"North / Seed tin\" (last row 2024-04-17, line 179; 15 periods \
+                     since, 15 read as 0), \"South / Seed tin\" (last row 2024-04-17, line 181; 5 \
+                     periods since, 5 read as 0)",
+                ],
+                vec![
+                    "the figures of 2 items end before the file's last period (2024-05-02): \
+                     \"South / Oak tray\" (2024-04-22), \"South / Seed tin\" (2024-04-22)",
+                ],
+            ],
             ..Expect::default()
         },
     );
@@ -523,4 +530,80 @@ fn closed_places_of_one_row_per_period_need_more_evidence() {
         report.items.is_empty() && report.errors.len() == 1,
         "{report:?}"
     );
+}
+
+// Items that sold once, long ago, beside one that runs on: filling every one's days since
+// with zeros would pass the periods all items may take; those not filled are named, and their
+// figures end early (said), never cut off unsaid.
+#[test]
+fn items_whose_periods_since_cannot_all_be_read_are_named() {
+    let mut text = String::from("date,item,qty\n");
+    for k in 0..300 {
+        text.push_str(&format!("{},Seed tin {k},1\n", day_label(0)));
+    }
+    for t in (0..3000).step_by(50) {
+        text.push_str(&format!("{},Oak tray,2\n", day_label(t)));
+    }
+    let report = check(
+        &text,
+        Expect {
+            warned: vec![vec![
+                "the periods after the last row of",
+                "were not read as no sales: all items together would pass the periods allowed",
+                "(last row 2024-03-04)",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let (filled, unfilled): (Vec<_>, Vec<_>) = report
+        .items
+        .iter()
+        .filter(|i| i.name.starts_with("Seed tin"))
+        .partition(|i| i.values.len() > 1);
+    assert!(!filled.is_empty() && !unfilled.is_empty());
+    let named = report
+        .warnings
+        .iter()
+        .find(|w| w.starts_with("the periods after the last row of"))
+        .unwrap();
+    assert!(
+        named.contains(&format!("of {} items", unfilled.len())),
+        "{named}"
+    );
+    let early = report
+        .warnings
+        .iter()
+        .find(|w| w.starts_with("the figures of"))
+        .unwrap();
+    assert!(
+        early.contains(&format!("of {} items", unfilled.len())),
+        "{early}"
+    );
+}
+
+// A header naming a garden centre, a nursery or a region groups items as a store does: one
+// centre's export ending early is not read as its items selling nothing.
+#[test]
+fn more_place_words_group_items() {
+    for place in ["Garden centre", "Nursery", "Region"] {
+        let mut text = format!("{place},item,month,qty\n");
+        for t in 0..24 {
+            let month = format!("{}-{:02}", 2024 + t / 12, t % 12 + 1);
+            for (centre, last) in [("Hilltop", 21), ("Brookside", 23)] {
+                for item in ["Compost", "Twine"] {
+                    if t <= last {
+                        text.push_str(&format!("{centre},{item},{month},{}\n", 5 + t % 3));
+                    }
+                }
+            }
+        }
+        let report = check(&text, Expect::default());
+        let hilltop = &report.items[0];
+        assert_eq!(hilltop.name, "Hilltop / Compost", "{place}");
+        assert_eq!(
+            hilltop.values.len(),
+            22,
+            "{place}: filled to the other centre's end"
+        );
+    }
 }

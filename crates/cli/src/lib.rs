@@ -245,12 +245,21 @@ fn forecast(
         warnings: Vec::new(),
         closing: None,
     };
+    let file_end = input.report().last_period();
     run.go(
         console,
         input.report(),
         |s| {
             let own = input.item_settings(s.name(), settings);
-            plan::plan_item(s, own.as_ref().unwrap_or(settings)).map_err(|e| e.to_string())
+            let mut plan =
+                plan::plan_item(s, own.as_ref().unwrap_or(settings)).map_err(|e| e.to_string())?;
+            // Said as the page says it under the item's headline.
+            if let Some(why) = order::ends_early(s, file_end) {
+                plan.notes.push(format!(
+                    "this forecast does not start after the file's end: {why}"
+                ));
+            }
+            Ok(plan)
         },
         |p| PlanJson::from(p),
         table::plan,

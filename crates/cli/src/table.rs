@@ -289,7 +289,14 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
         let _ = writeln!(
             s,
             "on hand {}, on order {}: suggested order today {}",
-            p.on_hand, p.on_order, order
+            p.on_hand,
+            p.on_order,
+            // Whole units as they are; otherwise to a tenth (the JSON keeps every digit).
+            if order.fract() == 0.0 {
+                format!("{order:.0}")
+            } else {
+                format!("{order:.1}")
+            }
         );
     }
     for a in alerts {

@@ -8,7 +8,7 @@
 use std::fmt;
 
 use crate::alerts::{alerts, Alert};
-use crate::calendar::Period;
+use crate::calendar::{Frequency, Period};
 use crate::intake::StockRow;
 use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
 use crate::series::Series;
@@ -88,10 +88,16 @@ pub const NO_ROW_NOTE: &str =
 
 /// [`OrderError::EndsEarly`] when `series` ends before `file_end` (the file's last period):
 /// the one rule behind the board's and the command line's refusal and the page's notice.
+/// Undated items are numbered each from its own first row, so their ends say nothing of
+/// each other: never.
 pub fn ends_early(series: &Series, file_end: Option<Period>) -> Option<OrderError> {
     let last = series.period(series.len() - 1);
     file_end
-        .filter(|end| end.frequency() == last.frequency() && last < *end)
+        .filter(|end| {
+            end.frequency() == last.frequency()
+                && last.frequency() != Frequency::Undated
+                && last < *end
+        })
         .map(|file_end| OrderError::EndsEarly { last, file_end })
 }
 

@@ -162,6 +162,9 @@ pub struct ItemPlan {
     pub ledger: Vec<LedgerEntry>,
     /// History after gap filling.
     pub history: Vec<f64>,
+    /// Whether the history counts whole units: every value read (gaps aside, whose filled
+    /// values may fall between units) is whole.
+    pub whole_units: bool,
     /// The chosen candidate's one-step in-sample fit on all data (`None` where undefined; a
     /// combination's is the mean of the members that have one, so that it starts with the
     /// earliest member: a moving average's window, or a seasonal naive's first season, would
@@ -566,6 +569,7 @@ fn plan_inner(
         chosen,
         ledger,
         history,
+        whole_units: series.values().iter().flatten().all(|v| v.fract() == 0.0),
         fitted,
         forecast,
         level: settings.level(),

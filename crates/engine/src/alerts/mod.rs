@@ -318,15 +318,19 @@ pub fn alerts(plan: &ItemPlan, series: &Series) -> Vec<Alert> {
     if sparse {
         say(AlertKind::SparseDemand, plan.demand.reason.clone());
     }
+    // The whole run without demand at the end, not only the periods that make it an alert:
+    // "the last 3" of ten quiet months understated it.
     let quiet = quiet_periods(frequency);
-    if n > quiet {
-        let (before, latest) = plan.history.split_at(n - quiet);
-        if latest.iter().all(|v| *v == 0.0) && before.iter().any(|v| *v > 0.0) {
-            say(
-                AlertKind::NoRecentDemand,
-                format!("no demand in the last {quiet} periods: possibly discontinued"),
-            );
-        }
+    let run = plan.history.iter().rev().take_while(|v| **v == 0.0).count();
+    if run >= quiet && plan.history[..n - run].iter().any(|v| *v > 0.0) {
+        let (one, many) = frequency.period_words();
+        say(
+            AlertKind::NoRecentDemand,
+            format!(
+                "no demand in the last {run} {}: possibly discontinued",
+                if run == 1 { one } else { many }
+            ),
+        );
     }
     if let Some(found) = outliers(plan, series).filter(|o| !o.periods.is_empty()) {
         say(AlertKind::Outliers, outliers_reason(series, &found));

@@ -121,6 +121,9 @@ struct Builder<'a> {
     /// ([`super::mark::thousands_dots`]): errors, with the value read, the size of the item's
     /// other values and whose values they are ("column's", "item's").
     thousands_dots: HashMap<(usize, usize), (f64, f64, &'static str)>,
+    /// Single, wide and across tables: each item's empty cells after its last value, with
+    /// that value's period, said once every item's end is known ([`Builder::after_the_last`]).
+    after_last: Vec<(String, Vec<Period>, Period)>,
 }
 
 /// One row of a long table: period, quantity (None when empty) and the record it came from.
@@ -322,6 +325,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         slots,
         rows_read,
         thousands_dots: HashMap::new(),
+        after_last: Vec::new(),
     };
     // In a comma file a lone "1.050" is read with a decimal dot (module `mark`); where that
     // makes it a thousandth of its item's other values, it is refused, never read a thousand
@@ -621,9 +625,10 @@ impl<'a> Builder<'a> {
         Some(steps + 1)
     }
 
-    /// Takes `len` slots more when the allowance has them (no error: the caller goes without).
-    fn spare_slots(&mut self, len: usize) -> bool {
-        let spare = len <= self.slots_left;
+    /// Takes `len` slots more when the allowance has them beside the `reserved` ones (no
+    /// error: the caller goes without).
+    fn spare_slots(&mut self, len: usize, reserved: usize) -> bool {
+        let spare = len.saturating_add(reserved) <= self.slots_left;
         if spare {
             self.slots_left -= len;
         }
@@ -740,6 +745,34 @@ impl<'a> Builder<'a> {
             count(n, "empty cell"),
             listing(&readings::ranges(&cells))
         ));
+    }
+
+    /// Says the empty cells after each item's last value (kept by `item_values`): up to the
+    /// table's last period with a figure, item by item; the periods after it, where no item
+    /// has a figure (next months written ahead), once for the table.
+    fn after_the_last(&mut self, items: &[Item]) {
+        let Some(end) = items.iter().filter_map(Item::last_value).max() else {
+            self.after_last.clear();
+            return;
+        };
+        let mut ahead: Vec<Period> = Vec::new();
+        for (name, cells, last) in std::mem::take(&mut self.after_last) {
+            let (within, beyond): (Vec<Period>, Vec<Period>) =
+                cells.into_iter().partition(|p| *p <= end);
+            ahead.extend(beyond);
+            self.outside_the_history(&name, within, last, "last");
+        }
+        ahead.sort();
+        ahead.dedup();
+        if !ahead.is_empty() {
+            self.out.warnings.push(format!(
+                "{} after the last with a figure ({end}) {} no figure for any item: left out \
+                 ({}), as periods still to come",
+                count(ahead.len(), "period"),
+                if ahead.len() == 1 { "has" } else { "have" },
+                listing(&readings::ranges(&ahead))
+            ));
+        }
     }
 
     fn gap_warning(&mut self, names: &[String], missing: &[String]) {
@@ -906,6 +939,7 @@ impl<'a> Builder<'a> {
             self.out.gaps_filled += missing.len() * items.len();
             self.gap_warning(&names, &missing);
         }
+        self.after_the_last(&items);
         self.out.items = items;
     }
 
@@ -976,7 +1010,10 @@ impl<'a> Builder<'a> {
             self.empty_cells_read_as_gaps(name, empty_cells, &gaps);
         }
         self.outside_the_history(name, before, start.offset(first as i64), "first");
-        self.outside_the_history(name, after, start.offset(last as i64), "last");
+        if !after.is_empty() {
+            self.after_last
+                .push((name.to_string(), after, start.offset(last as i64)));
+        }
         if !beside.is_empty() {
             let days: Vec<String> = beside.iter().map(Period::to_string).collect();
             self.out.warnings.push(format!(

@@ -338,6 +338,33 @@ pub fn read(text: &str) -> IntakeReport {
     report
 }
 
+/// The warning naming the items of a dated table whose figures end before the file's last
+/// period (a column left empty since, a store whose export ends earlier): what they sold
+/// since is not known, so the plan gives them no stock figures (`order::ends_early`).
+fn ended_early(report: &IntakeReport) -> Option<String> {
+    if report.frequency == Frequency::Undated {
+        return None;
+    }
+    let end = report.last_period()?;
+    let early: Vec<String> = report
+        .items
+        .iter()
+        .filter_map(|item| {
+            let last = item.last_value().filter(|last| *last < end)?;
+            Some(format!("\"{}\" ({last})", item.name))
+        })
+        .collect();
+    (!early.is_empty()).then(|| {
+        format!(
+            "the figures of {} end before the file's last period ({end}): {}; what they sold \
+             since is not known, so they get no stock figures (where nothing sold since, write \
+             0 for those periods)",
+            build::count(early.len(), "item"),
+            build::listing(&early)
+        )
+    })
+}
+
 fn read_text(text: &str) -> IntakeReport {
     let text = text::strip_bom(text);
     let delimiter = text::sniff_delimiter(text).unwrap_or(Delimiter::Comma);
@@ -483,6 +510,7 @@ fn read_text(text: &str) -> IntakeReport {
     report.gaps_filled = built.gaps_filled;
     report.empty_cells = built.empty_cells;
     report.warnings.extend(built.warnings);
+    report.warnings.extend(ended_early(&report));
     // After the reading's own notes: it speaks of the items they describe.
     report.warnings.extend(unfinished_warning);
     report.errors.extend(built.errors);

@@ -349,11 +349,12 @@ fn shut_ahead(plan: &ItemPlan, settings: &StockSettings) -> usize {
     }
 }
 
-/// Whether the item's history counts whole units (every value whole): an order is then
+/// Whether the item's history counts whole units (every value read whole, gaps aside:
+/// [`ItemPlan::whole_units`]): an order is then
 /// rounded up to a whole unit ([`suggested_order`]), so the stock it brings reaches the level
 /// rounded up.
 pub fn counts_whole_units(plan: &ItemPlan) -> bool {
-    plan.history.iter().all(|v| v.fract() == 0.0)
+    plan.whole_units
 }
 
 /// P for this plan: [`StockSettings::protection_periods`] and the shut periods it reaches

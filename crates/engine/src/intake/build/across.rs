@@ -148,6 +148,7 @@ impl<'a> Builder<'a> {
         let names: Vec<String> = items.iter().map(|i| i.name.clone()).collect();
         self.out.gaps_filled += missing.len() * items.len();
         self.gap_warning(&names, &missing);
+        self.after_the_last(&items);
         self.out.items = items;
     }
 }

@@ -106,11 +106,26 @@ impl<'a> Builder<'a> {
         let dated = column.is_some();
         self.partly_named(&item_columns, &order, &items);
         let mut readings = self.readings(&item_columns, &order, &items, dated);
+        // Every item's own run is served before any run after its last row: the slots those
+        // take must not leave a later item unread (its own span, from its rows' periods).
+        let spans: Vec<usize> = order
+            .iter()
+            .map(|key| {
+                let periods = items[key].rows.iter().map(|r| r.0);
+                match (periods.clone().min(), periods.max()) {
+                    (Some(a), Some(b)) => (a.steps_to(b).clamp(0, MAX_PERIODS) + 1) as usize,
+                    _ => 0,
+                }
+            })
+            .collect();
+        let mut reserved: usize = spans.iter().sum();
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
         let mut stopped = Vec::new();
+        let mut unread_since = Vec::new();
         let mut out_of_order: Vec<String> = Vec::new();
         for (k, key) in order.into_iter().enumerate() {
+            reserved = reserved.saturating_sub(spans[k]);
             let Some(LongItem {
                 name,
                 mut rows,
@@ -165,12 +180,13 @@ impl<'a> Builder<'a> {
                 continue;
             }
             // Periods whose rows hold only empty quantity cells: gaps, named as the other
-            // layouts name them.
-            let (mut blank, mut blank_cells) = (Vec::new(), 0);
-            for (period, _, rows) in merged.iter().filter(|m| m.1.is_none() && !unreadable(&m.2)) {
-                blank.push(period.to_string());
-                blank_cells += rows.len();
-            }
+            // layouts name them (one entry per row; those before the first figure and after
+            // the last lie outside the history and are said apart).
+            let blank: Vec<Period> = merged
+                .iter()
+                .filter(|m| m.1.is_none() && !unreadable(&m.2))
+                .flat_map(|m| std::iter::repeat_n(m.0, m.2.len()))
+                .collect();
             for (period, value, rows) in merged
                 .iter_mut()
                 .filter(|m| m.2.len() > 1 && !unreadable(&m.2))
@@ -220,14 +236,18 @@ impl<'a> Builder<'a> {
             // Rows that stop before the group's last period: the periods after them are read
             // as the periods between rows are, so the plan starts from the file's end, not
             // from the item's last row as if the months since were still to come.
-            let after = match readings.last_named(k) {
+            let after = match readings.run_end(k) {
                 Some(end) if dated && end > last.0 && start.steps_to(end) < MAX_PERIODS => {
                     let extra = last.0.steps_to(end) as usize;
-                    self.spare_slots(extra).then_some(extra as i64)
+                    if self.spare_slots(extra, reserved) {
+                        extra as i64
+                    } else {
+                        unread_since.push(format!("\"{name}\" (last row {})", last.0));
+                        0
+                    }
                 }
-                _ => None,
-            }
-            .unwrap_or(0);
+                _ => 0,
+            };
             let len = own + after;
             let mut values = vec![None; len as usize];
             let mut present = vec![false; len as usize];
@@ -237,6 +257,14 @@ impl<'a> Builder<'a> {
                 values[slot] = *value;
                 self.check_negative(&name, *period, *value);
             }
+            // The longest run of periods without a row between its rows: a run since its last
+            // row longer than that (and of at least two) says it stopped, not that it sells
+            // slowly.
+            let longest_without = present[..own as usize]
+                .split(|p| *p)
+                .map(<[bool]>::len)
+                .max()
+                .unwrap_or(0);
             let (mut no_sales, mut since) = (0, 0);
             for i in 0..len as usize {
                 let period = start.offset(i as i64);
@@ -254,14 +282,24 @@ impl<'a> Builder<'a> {
                     no_sales += usize::from(reading == Reading::OtherRows);
                 }
             }
+            let stopped_here = after >= 2 && after as usize > longest_without;
+            if stopped_here {
+                let gaps = if since < after as usize {
+                    format!(", {} a gap", after as usize - since)
+                } else {
+                    String::new()
+                };
+                stopped.push(format!(
+                    "\"{name}\" (last row {}, line {}; {} since, {since} read as 0{gaps})",
+                    last.0,
+                    last_row.line,
+                    count(after as usize, "period")
+                ));
+            } else {
+                no_sales += since;
+            }
             if no_sales > 0 {
                 zeros.push(format!("\"{name}\" {no_sales}"));
-            }
-            if after > 0 {
-                stopped.push(format!(
-                    "\"{name}\" (last row {}, line {}; {since} of {after} periods since read as 0)",
-                    last.0, last_row.line
-                ));
             }
             let missing: Vec<String> = (0..len)
                 .filter(|i| !present[*i as usize])
@@ -271,9 +309,7 @@ impl<'a> Builder<'a> {
             if !dated {
                 self.gap_warning(std::slice::from_ref(&name), &missing);
             }
-            if !blank.is_empty() {
-                self.empty_cells_read_as_gaps(&name, blank_cells, &blank);
-            }
+            self.blank_rows(&name, blank, start, &values);
             let periods = (0..len).map(|i| start.offset(i)).collect();
             self.out.items.push(Item {
                 name,
@@ -289,7 +325,20 @@ impl<'a> Builder<'a> {
                 listing(&out_of_order)
             ));
         }
+        let built = std::mem::take(&mut self.out.items);
+        self.after_the_last(&built);
+        self.out.items = built;
         let warnings = readings.warnings(&zeros, &stopped);
+        if !unread_since.is_empty() {
+            self.out.warnings.push(format!(
+                "the periods after the last row of {} were not read as no sales: all items \
+                 together would pass the periods allowed in all ({}); their data end at their \
+                 last row, so they get no stock figures: {}",
+                count(unread_since.len(), "item"),
+                self.slots,
+                listing(&unread_since)
+            ));
+        }
         self.out.warnings.extend(warnings);
         if !summed.is_empty() {
             self.out.warnings.push(format!(
@@ -302,6 +351,37 @@ impl<'a> Builder<'a> {
 }
 
 impl<'a> Builder<'a> {
+    /// Says an item's rows of empty quantity cells (`blank`, one entry per row) against its
+    /// values from `start` (no sales read in already): inside its history they are gaps;
+    /// before its first figure or after its last, left out (those after, once every item's
+    /// end is known: [`Builder::after_the_last`]).
+    fn blank_rows(
+        &mut self,
+        name: &str,
+        blank: Vec<Period>,
+        start: Period,
+        values: &[Option<f64>],
+    ) {
+        let first = values.iter().position(Option::is_some);
+        let last = values.iter().rposition(Option::is_some);
+        let (Some(first), Some(last)) = (first, last) else {
+            return;
+        };
+        let (first, last) = (start.offset(first as i64), start.offset(last as i64));
+        let (before, rest): (Vec<Period>, Vec<Period>) =
+            blank.into_iter().partition(|p| *p < first);
+        let (after, inner): (Vec<Period>, Vec<Period>) = rest.into_iter().partition(|p| *p > last);
+        if !inner.is_empty() {
+            let mut periods: Vec<String> = inner.iter().map(Period::to_string).collect();
+            periods.dedup();
+            self.empty_cells_read_as_gaps(name, inner.len(), &periods);
+        }
+        self.outside_the_history(name, before, first, "first");
+        if !after.is_empty() {
+            self.after_last.push((name.to_string(), after, last));
+        }
+    }
+
     /// The readings of the periods the items have no row in, grouped by a place column.
     fn readings(
         &self,

@@ -8,9 +8,9 @@
 //!   (a month missing from the whole export, which each store alone might take for chance).
 //!
 //! Groups: one, the table, unless a header column names a place (store, shop, branch,
-//! location, site, outlet, depot, warehouse) among two or more item columns; then the items of
-//! each of its names (the place column with the most names, at least two and fewer than the
-//! items) are a group, so a month of one store's export missing is a gap for its items, not no
+//! location, site, outlet, depot, warehouse, centre, center, nursery, region) among two or
+//! more item columns; then the items of each of its names (the place column with the most
+//! names, at least two and fewer than the items) are a group, so a month of one store's export missing is a gap for its items, not no
 //! sales because another store's rows name it. A customer, category, colour or unit column
 //! groups nothing: a customer or a colour without sales in a month sold nothing then.
 //!
@@ -25,7 +25,7 @@ use crate::calendar::{Frequency, Period};
 use crate::intake::table::header_says;
 
 /// Header words naming a place items are sold at (common practice in exported tables).
-const PLACE_WORDS: [&str; 8] = [
+const PLACE_WORDS: [&str; 12] = [
     "store",
     "shop",
     "branch",
@@ -34,6 +34,10 @@ const PLACE_WORDS: [&str; 8] = [
     "outlet",
     "depot",
     "warehouse",
+    "centre",
+    "center",
+    "nursery",
+    "region",
 ];
 
 /// What one item brings to the readings: its group's name as written and as compared (the
@@ -147,13 +151,15 @@ impl Readings {
         }
     }
 
-    /// The latest period the rows of item `item`'s group name (the table's, without groups):
-    /// where its run of periods ends, when its own rows stop earlier (see `long`).
-    pub(super) fn last_named(&self, item: usize) -> Option<Period> {
-        match self.item_group.get(item).copied().flatten() {
-            Some(g) => self.groups[g].1.last,
-            None => self.table.last,
-        }
+    /// Where item `item`'s run of periods ends when its own rows stop earlier (see `long`):
+    /// the latest period its group's rows name (the table's, without groups); `None` when
+    /// the group writes its zeros, where a missing row is not a sale of 0 but missing.
+    pub(super) fn run_end(&self, item: usize) -> Option<Period> {
+        let set = match self.item_group.get(item).copied().flatten() {
+            Some(g) => &self.groups[g].1,
+            None => &self.table,
+        };
+        set.last.filter(|_| set.zero_line.is_none())
     }
 
     /// Reads `period`, in which item `item` (its place in the items given) has no row.
@@ -183,11 +189,16 @@ impl Readings {
             .as_ref()
             .map_or(String::new(), |p| format!(" of its {p}"));
         if !stopped.is_empty() {
+            let of_theirs = self
+                .place
+                .as_ref()
+                .map_or(String::new(), |p| format!(" of the same {p}"));
             out.push(format!(
-                "the rows of {} stop before those of the other items{of_group}: the periods \
-                 after each one's last row were read as no sales (0), as the periods between \
-                 an item's rows are, so its plan starts after them: {}; if an item's rows since \
-                 are missing rather than its sales, add them",
+                "items that stopped, with no row since their last for longer than any run \
+                 without one before it, while other items{of_theirs} have rows since: the \
+                 periods since were read as no sales (0), as the periods between an item's \
+                 rows are ({}): {}; if an item's rows since are missing rather than its sales, \
+                 add them; if it is no longer sold, leave it out",
                 count(stopped.len(), "item"),
                 listing(stopped)
             ));
