@@ -344,6 +344,15 @@ fn week_dates_forced_month_first_by_a_day_above_12() {
     assert_eq!(r.frequency, Frequency::Weekly);
     assert_eq!(labels(&item), ["2024-W01", "2024-W02", "2024-W03"]);
     assert!(r.warnings.iter().all(|w| !w.contains("month-first")));
+    // Friday dates shown as ISO weeks: the description says which dates the first holds.
+    assert!(
+        r.date_format.as_deref().unwrap_or("").ends_with(
+            ", a week apart, shown as ISO weeks, Monday to Sunday (2024-W01 is the week from \
+             2024-01-01)"
+        ),
+        "{:?}",
+        r.date_format
+    );
 }
 
 #[test]

@@ -256,6 +256,14 @@ impl Period {
             Frequency::Yearly | Frequency::Undated => None,
         }
     }
+    /// A week's Monday as "2024-01-01" (ISO weeks run Monday to Sunday); `None` for other
+    /// periods.
+    pub fn monday(self) -> Option<String> {
+        (self.frequency == Frequency::Weekly).then(|| {
+            let (y, m, d) = civil_from_days(self.ordinal * 7 + WEEK_ORIGIN_MONDAY);
+            format!("{y}-{m:02}-{d:02}")
+        })
+    }
     /// The calendar year the period lies in (ISO year for weeks); `None` when undated.
     pub fn calendar_year(self) -> Option<i32> {
         match self.frequency {

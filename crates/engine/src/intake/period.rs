@@ -482,8 +482,20 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
             }
         }
     }
+    // Weeks are shown as ISO weeks whatever weekday the file names them by: say which
+    // dates the first one holds, so "2024-W01" is not taken for something else.
+    let weeks_shown = periods
+        .iter()
+        .flatten()
+        .next()
+        .and_then(|first| Some((first, first.monday()?)))
+        .map(|(first, monday)| {
+            format!(", a week apart, shown as ISO weeks, Monday to Sunday ({first} is the week from {monday})")
+        });
     let apart = match (family, frequency) {
-        (Family::Date | Family::TwoWay, Frequency::Weekly) => ", a week apart",
+        (Family::Date | Family::TwoWay, Frequency::Weekly) => {
+            weeks_shown.as_deref().unwrap_or(", a week apart")
+        }
         (Family::Date | Family::TwoWay, Frequency::Monthly) => ", a month apart",
         (Family::Date | Family::TwoWay, Frequency::Quarterly) => ", a quarter apart",
         (Family::Date | Family::TwoWay, Frequency::Yearly) => ", a year apart",
