@@ -230,3 +230,25 @@ fn bias_holds_its_false_alarm_rate_and_finds_a_jump() {
         "bias on only {jumped} of 100 items that jumped 30 %"
     );
 }
+
+// An item selling every fourth month, with its usual three quiet months at the end, is not
+// called possibly discontinued; a fourth quiet month is longer than any run before and is.
+#[test]
+fn a_quiet_run_no_longer_than_the_items_usual_ones_is_not_an_alert() {
+    let every_fourth = |len: usize| -> Vec<f64> {
+        (0..len)
+            .map(|t| if t % 4 == 0 { (4 + t % 3) as f64 } else { 0.0 })
+            .collect()
+    };
+    let quiet_alert = |y: Vec<f64>| {
+        let series = monthly(y.iter().map(|v| Some(*v)).collect());
+        let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+        alerts(&plan, &series)
+            .into_iter()
+            .any(|a| a.kind == AlertKind::NoRecentDemand)
+    };
+    assert!(!quiet_alert(every_fourth(48))); // ends at t = 47: three quiet months
+    let mut longer = every_fourth(48);
+    longer.push(0.0);
+    assert!(quiet_alert(longer));
+}

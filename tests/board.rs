@@ -208,6 +208,15 @@ fn an_item_whose_data_ends_early_gets_the_command_lines_message_and_no_figures()
     let failed = &run.json()["failed"];
     assert_eq!(failed[0]["name"], "Trowel");
     assert_eq!(failed[0]["message"].as_str(), Some(why.as_str()));
+    // In text, what it goes without comes first.
+    let text_run = cli(&["stock", "-"], text.as_bytes());
+    assert!(
+        text_run
+            .stderr
+            .contains(&format!("morrowcast: Trowel: no stock figures: {why}")),
+        "{}",
+        text_run.stderr
+    );
     let refs: Vec<&BoardRow> = rows.iter().collect();
     let line = order_plan_csv(&refs, |_| false)
         .lines()

@@ -409,7 +409,8 @@ fn the_command_line_refuses_a_look_back_of_no_periods_and_names_items_it_cannot_
     let all = cli(&["look-back", "-", "--periods", "60"], &now);
     assert_eq!(all.code, 1);
     assert!(
-        all.stderr.contains("Seed packets: looking back 60 periods"),
+        all.stderr
+            .contains("Seed packets: no Look-back: looking back 60 periods"),
         "{}",
         all.stderr
     );

@@ -253,7 +253,7 @@ pub fn ItemBoard() -> impl IntoView {
                                                     view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()
                                                 }
                                             })).collect_view().into_any(),
-                                            Err(e) => view! { {look_back}<td class="problem" colspan=COLUMNS.len().to_string()><span class="why">{e.clone()}</span></td> }.into_any(),
+                                            Err(e) => view! { {look_back}<td class="problem" colspan=COLUMNS.len().to_string()><span class="why">{format!("No stock figures: {e}")}</span></td> }.into_any(),
                                         }}
                                     </tr>
                                 }.into_any()

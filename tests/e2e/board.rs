@@ -602,7 +602,7 @@ fn an_item_whose_data_ends_early_gets_no_stock_figures_and_says_why() {
         "the row saying why",
         "const rows = [...document.querySelectorAll('#board-table tbody tr')]; \
          return rows.length === 2 && rows[1].querySelector('td.problem') \
-           && rows[1].querySelector('td.problem').textContent === arguments[0];",
+           && rows[1].querySelector('td.problem').textContent === 'No stock figures: ' + arguments[0];",
         json!([why]),
         WAIT,
     );

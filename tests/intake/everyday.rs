@@ -464,7 +464,7 @@ fn timed_rows_of_a_day_in_one_series_or_a_wide_table_are_added_up() {
             ]),
             warned: vec![
                 vec!["\"Slate planter\": 1 empty cell on days with other rows added nothing to them (2024-01-05)"],
-                vec!["\"Oak tray\": 1 empty cell read as gaps (2024-01-06)"],
+                vec!["\"Oak tray\": 1 empty cell read as a gap (2024-01-06)"],
             ],
             ..Expect::default()
         },
@@ -543,8 +543,8 @@ fn empty_cells_outside_an_items_history_are_said_apart_from_its_gaps() {
                     "\"Trowel\": 2 empty cells before its first value (2024-03) left out \
                      (2024-01 to 2024-02): its history starts there",
                 ],
-                vec!["\"Trowel\": 1 empty cell read as gaps (2024-04)"],
-                vec!["\"Rake\": 1 empty cell read as gaps (2024-03)"],
+                vec!["\"Trowel\": 1 empty cell read as a gap (2024-04)"],
+                vec!["\"Rake\": 1 empty cell read as a gap (2024-03)"],
                 vec![
                     "\"Rake\": 1 empty cell after its last value (2024-04) left out \
                      (2024-05): its history ends there",

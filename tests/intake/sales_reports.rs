@@ -316,7 +316,7 @@ fn quiet_readings_are_said() {
                 ("Seeds", some(&[10.0, 12.0, 14.0])),
                 ("Bulbs", vec![Some(4.0), None, Some(7.0)]),
             ]),
-            warned: vec![vec!["\"Bulbs\": 1 empty cell read as gaps (2024-02)"]],
+            warned: vec![vec!["\"Bulbs\": 1 empty cell read as a gap (2024-02)"]],
             ..Expect::default()
         },
     );

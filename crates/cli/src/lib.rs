@@ -244,6 +244,7 @@ fn forecast(
         header: None,
         warnings: Vec::new(),
         closing: None,
+        failed_without: "",
     };
     let file_end = input.report().last_period();
     run.go(
@@ -286,6 +287,7 @@ fn stock(
         header: Some(table::stock_header(stock_settings, table.is_some())),
         warnings,
         closing: None,
+        failed_without: "no stock figures: ",
     };
     run.go(
         console,
@@ -377,6 +379,7 @@ fn look_back(
         header: Some(table::look_back_header(periods)),
         warnings,
         closing: Some(closing),
+        failed_without: "no Look-back: ",
     };
     run.go(
         console,
@@ -424,6 +427,9 @@ struct ItemRun<'a> {
     warnings: Vec<String>,
     /// Written after the items.
     closing: Option<Closing<'a>>,
+    /// What an item that failed goes without, said before why in text output ("no stock
+    /// figures: "); the JSON's `failed` keeps the message alone.
+    failed_without: &'static str,
 }
 
 impl ItemRun<'_> {
@@ -522,8 +528,9 @@ impl ItemRun<'_> {
                 }
                 for f in failed.borrow().iter() {
                     console.err(&format!(
-                        "morrowcast: {}: {}\n",
+                        "morrowcast: {}: {}{}\n",
                         table::clean(&f.name),
+                        self.failed_without,
                         table::clean(&f.message)
                     ));
                 }

@@ -70,11 +70,12 @@ pub fn intake_report(r: &IntakeReport) -> String {
         let (Some(first), Some(last)) = (item.first_value(), item.last_value()) else {
             continue;
         };
+        let periods = first.steps_to(last) + 1;
         let _ = writeln!(
             s,
-            "  {}: {} periods, {} to {}",
+            "  {}: {periods} period{}, {} to {}",
             clean(&item.name),
-            first.steps_to(last) + 1,
+            if periods == 1 { "" } else { "s" },
             first,
             last
         );

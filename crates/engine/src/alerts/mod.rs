@@ -319,10 +319,23 @@ pub fn alerts(plan: &ItemPlan, series: &Series) -> Vec<Alert> {
         say(AlertKind::SparseDemand, plan.demand.reason.clone());
     }
     // The whole run without demand at the end, not only the periods that make it an alert:
-    // "the last 3" of ten quiet months understated it.
+    // "the last 3" of ten quiet months understated it. An item whose demand comes every few
+    // periods is not quiet until the run outlasts every quiet run before it (one selling every
+    // fourth month was called possibly discontinued after its usual three quiet months).
     let quiet = quiet_periods(frequency);
     let run = plan.history.iter().rev().take_while(|v| **v == 0.0).count();
-    if run >= quiet && plan.history[..n - run].iter().any(|v| *v > 0.0) {
+    let before = &plan.history[..n - run];
+    // From its first demand on: the periods before it were not quiet, only not yet selling.
+    let selling = &before[before
+        .iter()
+        .position(|v| *v != 0.0)
+        .unwrap_or(before.len())..];
+    let longest_before = selling
+        .split(|v| *v != 0.0)
+        .map(<[f64]>::len)
+        .max()
+        .unwrap_or(0);
+    if run >= quiet && run > longest_before && selling.iter().any(|v| *v > 0.0) {
         let (one, many) = frequency.period_words();
         say(
             AlertKind::NoRecentDemand,

@@ -704,8 +704,9 @@ impl<'a> Builder<'a> {
     /// `periods`, in every layout.
     fn empty_cells_read_as_gaps(&mut self, name: &str, cells: usize, periods: &[String]) {
         self.out.warnings.push(format!(
-            "\"{name}\": {} read as gaps ({})",
+            "\"{name}\": {} read as {} ({})",
             count(cells, "empty cell"),
+            if cells == 1 { "a gap" } else { "gaps" },
             listing(periods)
         ));
     }

@@ -119,6 +119,8 @@ impl<'a> Builder<'a> {
             })
             .collect();
         let mut reserved: usize = spans.iter().sum();
+        let held_back = stops_held_back(&order, &items, &readings, dated);
+        let mut held = Vec::new();
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
         let mut stopped = Vec::new();
@@ -135,6 +137,7 @@ impl<'a> Builder<'a> {
             else {
                 continue;
             };
+            let zeros_written = rows.iter().any(|r| r.1 == Some(0.0));
             if spellings.len() > 1 {
                 let forms: Vec<String> = spellings
                     .iter()
@@ -236,7 +239,14 @@ impl<'a> Builder<'a> {
             // Rows that stop before the group's last period: the periods after them are read
             // as the periods between rows are, so the plan starts from the file's end, not
             // from the item's last row as if the months since were still to come.
-            let after = match readings.run_end(k) {
+            let after = match readings.run_end(k, zeros_written) {
+                Some(end) if held_back[k] => {
+                    held.push(format!(
+                        "\"{name}\" (last row {}, the rows run on to {end})",
+                        last.0
+                    ));
+                    0
+                }
                 Some(end) if dated && end > last.0 && start.steps_to(end) < MAX_PERIODS => {
                     let extra = last.0.steps_to(end) as usize;
                     if self.spare_slots(extra, reserved) {
@@ -329,6 +339,18 @@ impl<'a> Builder<'a> {
         self.after_the_last(&built);
         self.out.items = built;
         let warnings = readings.warnings(&zeros, &stopped);
+        if !held.is_empty() {
+            self.out.warnings.push(format!(
+                "{} {} no row for longer than any run without one before, while the rows of \
+                 fewer items run on: too many to have all stopped at once, so their periods \
+                 since were not read as no sales (check the dates of those later rows: one \
+                 typed a year or months ahead makes every other item look stopped): {}; their \
+                 figures end early",
+                count(held.len(), "item"),
+                if held.len() == 1 { "has" } else { "have" },
+                listing(&held)
+            ));
+        }
         if !unread_since.is_empty() {
             self.out.warnings.push(format!(
                 "the periods after the last row of {} were not read as no sales: all items \
@@ -491,6 +513,55 @@ impl<'a> Builder<'a> {
             ));
         }
     }
+}
+
+/// For each item (in `order`), whether its run since its last row is held back from being read
+/// as no sales: it stopped (a run since its last row up to its group's last period longer than
+/// any without a row between its rows, and of at least two) together with half or more of its
+/// group's items. So many stopping at once is rarer than a few rows dated ahead (a row typed
+/// 2027-06 for 2026-06 made every other item read as a year of no sales and forecast falling).
+fn stops_held_back(
+    order: &[String],
+    items: &HashMap<String, LongItem<'_>>,
+    readings: &Readings,
+    dated: bool,
+) -> Vec<bool> {
+    let stopped: Vec<bool> = order
+        .iter()
+        .enumerate()
+        .map(|(k, key)| {
+            let mut periods: Vec<Period> = items[key].rows.iter().map(|r| r.0).collect();
+            periods.sort_unstable();
+            periods.dedup();
+            let item = &items[key];
+            let writes_zeros = item.rows.iter().any(|r| r.1 == Some(0.0));
+            let (Some(&last), Some(end)) = (periods.last(), readings.run_end(k, writes_zeros))
+            else {
+                return false;
+            };
+            let longest = periods
+                .windows(2)
+                .map(|w| w[0].steps_to(w[1]) - 1)
+                .max()
+                .unwrap_or(0);
+            let run = last.steps_to(end);
+            dated && run >= 2 && run > longest
+        })
+        .collect();
+    let mut tally: HashMap<Option<usize>, (usize, usize)> = HashMap::new();
+    for (k, stop) in stopped.iter().enumerate() {
+        let entry = tally.entry(readings.group_of(k)).or_default();
+        entry.0 += usize::from(*stop);
+        entry.1 += 1;
+    }
+    stopped
+        .iter()
+        .enumerate()
+        .map(|(k, stop)| {
+            let (stops, all) = tally[&readings.group_of(k)];
+            *stop && 2 * stops >= all
+        })
+        .collect()
 }
 
 /// An item's name in column `j` (from its first row), its white space runs as one space.

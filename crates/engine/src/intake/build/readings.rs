@@ -153,13 +153,21 @@ impl Readings {
 
     /// Where item `item`'s run of periods ends when its own rows stop earlier (see `long`):
     /// the latest period its group's rows name (the table's, without groups); `None` when
-    /// the group writes its zeros, where a missing row is not a sale of 0 but missing.
-    pub(super) fn run_end(&self, item: usize) -> Option<Period> {
+    /// the group writes its zeros and so does the item (`writes_zeros`: it has rows of 0):
+    /// its rows stopping are then missing rows, not sales of 0. An item without rows of 0 in
+    /// such a table is read after its last row as between its rows.
+    pub(super) fn run_end(&self, item: usize, writes_zeros: bool) -> Option<Period> {
         let set = match self.item_group.get(item).copied().flatten() {
             Some(g) => &self.groups[g].1,
             None => &self.table,
         };
-        set.last.filter(|_| set.zero_line.is_none())
+        set.last
+            .filter(|_| !(writes_zeros && set.zero_line.is_some()))
+    }
+
+    /// Item `item`'s group (an index; `None` without groups).
+    pub(super) fn group_of(&self, item: usize) -> Option<usize> {
+        self.item_group.get(item).copied().flatten()
     }
 
     /// Reads `period`, in which item `item` (its place in the items given) has no row.
