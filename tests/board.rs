@@ -461,6 +461,16 @@ fn an_items_own_settings_plan_it() {
 /// The Look-back's cell for a made-up item: periods since as (forecast, low, high, sold), the
 /// stock check; the text the board shows and the misses it sorts by.
 fn check_look_back(since: &[(f64, f64, f64, Option<f64>)], stock: StockCheck, want: (&str, usize)) {
+    check_look_back_ending(since, usize::MAX, stock, want);
+}
+
+/// [`check_look_back`] for an item whose data ends before the period since at `ends_at`.
+fn check_look_back_ending(
+    since: &[(f64, f64, f64, Option<f64>)],
+    ends_at: usize,
+    stock: StockCheck,
+    want: (&str, usize),
+) {
     use morrowcast_engine::bands::{BandPoint, Level};
     use morrowcast_engine::calendar::Period;
     let l = LookBack {
@@ -477,11 +487,41 @@ fn check_look_back(since: &[(f64, f64, f64, Option<f64>)], stock: StockCheck, wa
                 actual,
                 shut: false,
                 extended: false,
+                ended: i >= ends_at,
             })
             .collect(),
         stock,
     };
     assert_eq!((look_back_cell(&l).as_str(), look_back_misses(&l)), want);
+}
+
+// Periods after an item's data ends are not gaps: the cell says so.
+#[test]
+fn the_look_back_cell_says_when_an_items_data_ended() {
+    check_look_back_ending(
+        &[
+            (10.0, 5.0, 15.0, Some(12.0)),
+            (10.0, 5.0, 15.0, None),
+            (10.0, 5.0, 15.0, None),
+        ],
+        1,
+        StockCheck::Gap { periods: 2 },
+        (
+            "sold 12, forecast 10 (17% low) over 1 month (2 months after its data ends left \
+             out); 1 of 1 within the band; stock level not judged (a gap)",
+            0,
+        ),
+    );
+    check_look_back_ending(
+        &[(10.0, 5.0, 15.0, None), (10.0, 5.0, 15.0, None)],
+        0,
+        StockCheck::Gap { periods: 1 },
+        (
+            "no sales known since (2 months after its data ends left out); stock level not \
+             judged (a gap)",
+            0,
+        ),
+    );
 }
 
 #[test]
@@ -624,6 +664,57 @@ fn the_saved_look_back_carries_the_command_lines_figures() {
             item["stock"]["check"].as_str().unwrap()
         );
     }
+}
+
+// An item whose column is empty over the file's last two months, looked back on over four:
+// its last two periods since are after its data ends, not gaps, in the saved Look-back, the
+// command line's JSON and its text alike.
+#[test]
+fn periods_after_an_items_data_ends_are_said_as_such() {
+    let mut text = String::from("month,Twine,Trowel\n");
+    for t in 0..40 {
+        let trowel = if t < 38 {
+            (20 + t % 7).to_string()
+        } else {
+            String::new()
+        };
+        text.push_str(&format!(
+            "{}-{:02},{},{trowel}\n",
+            2023 + t / 12,
+            t % 12 + 1,
+            50 + t % 9
+        ));
+    }
+    let rows = board_rows_looking_back(&text, &StockText::default(), None, 4);
+    let csv_text = look_back_csv(&rows.iter().collect::<Vec<_>>());
+    let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+    let header: Vec<String> = reader.headers().unwrap().iter().map(String::from).collect();
+    let records: Vec<csv::StringRecord> = reader.records().map(Result::unwrap).collect();
+    let at = |r: &csv::StringRecord, name: &str| {
+        r[header.iter().position(|h| h == name).unwrap()].to_string()
+    };
+    assert_eq!(
+        [at(&records[1], "after_data"), at(&records[1], "gaps")],
+        ["2", "0"]
+    );
+    assert_eq!(at(&records[0], "after_data"), "0");
+    let run = cli(
+        &["look-back", "-", "--periods", "4", "--json"],
+        text.as_bytes(),
+    );
+    let periods = run.json()["items"][1]["periods"].clone();
+    let after: Vec<bool> = periods
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["after_data"].as_bool().unwrap())
+        .collect();
+    assert_eq!(after, [false, false, true, true]);
+    let words = cli(&["look-back", "-", "--periods", "4"], text.as_bytes()).text();
+    assert!(
+        words.contains("(2 period(s) after its data ends left out)"),
+        "{words}"
+    );
 }
 
 /// A new item whose Stock plan of today cannot be made (too few rolling origins) still has its

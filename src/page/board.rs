@@ -416,6 +416,9 @@ pub fn look_back_cell(l: &LookBack) -> String {
     if shut > 0 {
         left_out.push(format!("{shut} shut"));
     }
+    if l.after_data() > 0 {
+        left_out.push(format!("{} after its data ends", count(l, l.after_data())));
+    }
     let left_out = if left_out.is_empty() {
         String::new()
     } else {
@@ -441,7 +444,7 @@ pub fn look_back_cell(l: &LookBack) -> String {
             units(step.band.high),
             outcome_words(step.outcome())
         ),
-        (_, 0) if gaps == 0 => "shut since".to_string(),
+        (_, 0) if gaps == 0 && l.after_data() == 0 => "shut since".to_string(),
         (_, 0) => format!("no sales known since{left_out}"),
         (_, _) => format!(
             "sold {}, forecast {}{off} over {}{left_out}; {} of {known} within the band",
@@ -492,6 +495,7 @@ pub fn outcome_words(outcome: Outcome) -> &'static str {
         Outcome::Above => "above the band",
         Outcome::Shut => "shut",
         Outcome::Gap => "gap",
+        Outcome::Ended => "after its data ends",
     }
 }
 
@@ -593,7 +597,7 @@ pub fn look_back_summary(c: &LookBackCounts, back: usize, words: (&str, &str)) -
 
 /// The Look-back's columns in its CSV (names as `morrowcast look-back --json`'s where it has
 /// them).
-pub const LOOK_BACK_COLUMNS: [&str; 20] = [
+pub const LOOK_BACK_COLUMNS: [&str; 21] = [
     "name",
     "made_after",
     "method",
@@ -605,6 +609,7 @@ pub const LOOK_BACK_COLUMNS: [&str; 20] = [
     "sold_total",
     "gaps",
     "shut",
+    "after_data",
     "extended",
     "stock_check",
     "protection_periods",
@@ -629,22 +634,29 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
             None => continue,
         };
         let mut r = vec![String::new(); LOOK_BACK_COLUMNS.len()];
-        r[0] = row.name.clone();
+        // Each cell by its column's name, so a column added cannot shift the others.
+        let mut set = |column: &str, value: String| {
+            if let Some(k) = LOOK_BACK_COLUMNS.iter().position(|c| *c == column) {
+                r[k] = value;
+            }
+        };
+        set("name", row.name.clone());
         match found {
             Ok(l) => {
                 let (forecast, sold) = l.totals();
                 let (gaps, shut) = l.left_out();
-                r[1] = l.made_after.to_string();
-                r[2] = l.method.clone();
-                r[3] = l.level.percent().to_string();
-                r[4] = l.steps.len().to_string();
-                r[5] = l.known().count().to_string();
-                r[6] = l.within().to_string();
-                r[7] = forecast.to_string();
-                r[8] = sold.to_string();
-                r[9] = gaps.to_string();
-                r[10] = shut.to_string();
-                r[11] = l.extended().to_string();
+                set("made_after", l.made_after.to_string());
+                set("method", l.method.clone());
+                set("level", l.level.percent().to_string());
+                set("periods", l.steps.len().to_string());
+                set("counted", l.known().count().to_string());
+                set("within", l.within().to_string());
+                set("forecast_total", forecast.to_string());
+                set("sold_total", sold.to_string());
+                set("gaps", gaps.to_string());
+                set("shut", shut.to_string());
+                set("after_data", l.after_data().to_string());
+                set("extended", l.extended().to_string());
                 match &l.stock {
                     StockCheck::Checked {
                         periodic,
@@ -653,24 +665,31 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
                         promised,
                         ..
                     } => {
-                        r[if *periodic { 15 } else { 14 }] = level.to_string();
-                        r[16] = demand.to_string();
-                        r[18] = promised.to_string();
+                        let kind = if *periodic {
+                            "order_up_to"
+                        } else {
+                            "reorder_point"
+                        };
+                        set(kind, level.to_string());
+                        set("demand", demand.to_string());
+                        set("promised_cycle_service", promised.to_string());
                     }
-                    StockCheck::NoFigures(why) => r[19] = why.clone(),
+                    StockCheck::NoFigures(why) => set("problem", why.clone()),
                     StockCheck::TooSoon { .. }
                     | StockCheck::NoInterval
                     | StockCheck::Gap { .. } => {}
                 }
-                r[12] = l.stock.key().into();
-                r[13] = l
-                    .stock
-                    .protection_periods()
-                    .map(|p| p.to_string())
-                    .unwrap_or_default();
-                r[17] = opt(l.stock.shortfall());
+                set("stock_check", l.stock.key().into());
+                set(
+                    "protection_periods",
+                    l.stock
+                        .protection_periods()
+                        .map(|p| p.to_string())
+                        .unwrap_or_default(),
+                );
+                set("shortfall", opt(l.stock.shortfall()));
             }
-            Err(problem) => r[19] = problem,
+            Err(problem) => set("problem", problem),
         }
         let _ = w.write_record(&r);
     }

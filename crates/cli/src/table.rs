@@ -335,7 +335,6 @@ pub fn look_back(l: &LookBack) -> String {
         "  {:<12} {:>13} {:>13} {:>13} {:>13} {:>13}  within",
         "period", "forecast", "low", "high", "sold", "error"
     );
-    let number = |v: Option<f64>| v.map_or("gap".to_string(), |x| format!("{x:.2}"));
     for step in &l.steps {
         let within = match step.outcome() {
             Outcome::Within => "yes",
@@ -343,7 +342,10 @@ pub fn look_back(l: &LookBack) -> String {
             Outcome::Above => "no, above",
             Outcome::Shut => "shut",
             Outcome::Gap => "-",
+            Outcome::Ended => "- (after its data ends)",
         };
+        let unknown = if step.ended { "none" } else { "gap" };
+        let number = |v: Option<f64>| v.map_or(unknown.to_string(), |x| format!("{x:.2}"));
         let _ = writeln!(
             s,
             "  {:<12} {:>13.2} {:>13.2} {:>13.2} {:>13} {:>13}  {within}{}",
@@ -365,6 +367,9 @@ pub fn look_back(l: &LookBack) -> String {
     }
     if shut > 0 {
         left_out.push(format!("{shut} shut period(s)"));
+    }
+    if l.after_data() > 0 {
+        left_out.push(format!("{} period(s) after its data ends", l.after_data()));
     }
     let _ = writeln!(
         s,

@@ -431,6 +431,9 @@ pub struct LookBackPeriodJson {
     pub shut: bool,
     /// Beyond the plan's horizon: forecast by the same plan made with a longer one.
     pub extended: bool,
+    /// After the item's data ends (the file runs on, its figures do not): `sold` is null
+    /// because nothing is recorded, not because of a gap inside its history.
+    pub after_data: bool,
 }
 
 /// The Stock plan of then against the demand since. `check` is "checked" (the other fields
@@ -473,6 +476,7 @@ impl From<&LookBack> for LookBackJson {
                     within: s.within(),
                     shut: s.shut,
                     extended: s.extended,
+                    after_data: s.ended,
                 })
                 .collect(),
             forecast_total,

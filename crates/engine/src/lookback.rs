@@ -95,6 +95,9 @@ pub struct LookBackStep {
     pub shut: bool,
     /// Beyond the plan's horizon: forecast by the same plan made with a longer one.
     pub extended: bool,
+    /// After the item's data ends (the file runs on, its figures do not): nothing recorded,
+    /// which is not a gap inside its history.
+    pub ended: bool,
 }
 
 /// What a period since came to against its band.
@@ -110,6 +113,8 @@ pub enum Outcome {
     Shut,
     /// A gap in the data.
     Gap,
+    /// After the item's data ends: nothing recorded since.
+    Ended,
 }
 
 impl LookBackStep {
@@ -121,6 +126,7 @@ impl LookBackStep {
     /// What the period came to: the one rule every front end words in its own way.
     pub fn outcome(&self) -> Outcome {
         match self.actual {
+            None if self.ended => Outcome::Ended,
             None => Outcome::Gap,
             Some(_) if self.shut => Outcome::Shut,
             Some(d) if d < self.band.low => Outcome::Below,
@@ -132,7 +138,7 @@ impl LookBackStep {
     /// Whether what sold lies within the band; `None` for a gap and for a shut period.
     pub fn within(&self) -> Option<bool> {
         match self.outcome() {
-            Outcome::Gap | Outcome::Shut => None,
+            Outcome::Gap | Outcome::Shut | Outcome::Ended => None,
             Outcome::Within => Some(true),
             Outcome::Below | Outcome::Above => Some(false),
         }
@@ -251,10 +257,19 @@ impl LookBack {
         self.steps.iter().filter(|s| s.within().is_some())
     }
 
-    /// The periods since left out of [`LookBack::known`]: (gaps, shut periods).
+    /// The periods since left out of [`LookBack::known`]: (gaps, shut periods); those after
+    /// the item's data ends are [`LookBack::after_data`].
     pub fn left_out(&self) -> (usize, usize) {
-        let count = |o: Outcome| self.steps.iter().filter(|s| s.outcome() == o).count();
-        (count(Outcome::Gap), count(Outcome::Shut))
+        (self.count(Outcome::Gap), self.count(Outcome::Shut))
+    }
+
+    /// How many periods since lie after the item's data ends ([`LookBackStep::ended`]).
+    pub fn after_data(&self) -> usize {
+        self.count(Outcome::Ended)
+    }
+
+    fn count(&self, outcome: Outcome) -> usize {
+        self.steps.iter().filter(|s| s.outcome() == outcome).count()
     }
 
     /// How many periods since lie beyond the plan's horizon ([`LookBackStep::extended`]).
@@ -353,6 +368,7 @@ pub fn look_back(
             actual: *actual,
             shut: plan.demand.is_shut(earlier.len() + i),
             extended: *extended,
+            ended: earlier.len() + i >= series.len(),
         })
         .collect();
     let stock = match stock_plan {
