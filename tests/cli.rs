@@ -116,6 +116,9 @@ fn the_unfinished_last_period_is_left_out_when_asked() {
     assert!(v["warnings"]
         .to_string()
         .contains("2024-12 looked unfinished (its demand is 9 % of the median"));
+    assert!(v["warnings"]
+        .to_string()
+        .contains("its 1 row(s) were skipped (line 13 of the file)"));
     let out = cli(
         &["forecast", "-", "--leave-out-unfinished"],
         text.as_bytes(),

@@ -107,7 +107,7 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
     };
     let period = found.name();
     let rows = found.rows.len();
-    let first_line = found.rows.iter().min().copied().unwrap_or(0);
+    let lines = skipped_lines(&found.rows);
     // The intake's evidence, kept for the note: the re-read report no longer has it.
     let evidence = report
         .warnings
@@ -134,8 +134,8 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         0,
         format!(
             "{period} looked unfinished ({}) and was left out as asked \
-             (--leave-out-unfinished): its {rows} row(s) were skipped, from line {first_line} of \
-             the file on; row and line numbers in this report count the lines left",
+             (--leave-out-unfinished): its {rows} row(s) were skipped ({lines} of the file); row \
+             and line numbers in this report count the lines left",
             evidence
                 .as_deref()
                 .unwrap_or("far below the periods before it")
@@ -235,5 +235,57 @@ fn read_input(file: &str, stdin: &mut dyn Read) -> Result<Vec<u8>, String> {
         Ok(buf)
     } else {
         std::fs::read(file).map_err(|e| format!("cannot read {file}: {e}"))
+    }
+}
+
+/// The lines of the rows left out, as runs: "line 32", "lines 32 to 40", "lines 32 and 63",
+/// "lines 2 to 4, 9, 12 and 3 more" (a long table's rows of one period lie apart).
+fn skipped_lines(rows: &[usize]) -> String {
+    let mut sorted = rows.to_vec();
+    sorted.sort_unstable();
+    sorted.dedup();
+    let mut runs: Vec<String> = Vec::new();
+    let mut i = 0;
+    while i < sorted.len() {
+        let mut j = i;
+        while j + 1 < sorted.len() && sorted[j + 1] == sorted[j] + 1 {
+            j += 1;
+        }
+        runs.push(if i == j {
+            sorted[i].to_string()
+        } else {
+            format!("{} to {}", sorted[i], sorted[j])
+        });
+        i = j + 1;
+    }
+    const SHOWN: usize = 8;
+    let noun = if sorted.len() == 1 { "line" } else { "lines" };
+    let listed = match runs.len() {
+        0 => return "no lines".to_string(),
+        1 => runs[0].clone(),
+        n if n > SHOWN => format!("{} and {} more", runs[..SHOWN].join(", "), n - SHOWN),
+        n => format!("{} and {}", runs[..n - 1].join(", "), runs[n - 1]),
+    };
+    format!("{noun} {listed}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::skipped_lines;
+
+    #[test]
+    fn skipped_lines_are_said_as_runs() {
+        for (rows, said) in [
+            (&[32][..], "line 32"),
+            (&[34, 32, 33], "lines 32 to 34"),
+            (&[32, 63], "lines 32 and 63"),
+            (&[2, 3, 4, 9, 12], "lines 2 to 4, 9 and 12"),
+            (
+                &[1, 3, 5, 7, 9, 11, 13, 15, 17, 19],
+                "lines 1, 3, 5, 7, 9, 11, 13, 15 and 2 more",
+            ),
+        ] {
+            assert_eq!(skipped_lines(rows), said, "{rows:?}");
+        }
     }
 }
