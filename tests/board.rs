@@ -505,20 +505,20 @@ fn the_look_back_cell_says_when_an_items_data_ended() {
             (10.0, 5.0, 15.0, None),
         ],
         1,
-        StockCheck::Gap { periods: 2 },
+        StockCheck::AfterData { periods: 2 },
         (
             "sold 12, forecast 10 (17% low) over 1 month (2 months after its data ends left \
-             out); 1 of 1 within the band; stock level not judged (a gap)",
+             out); 1 of 1 within the band; stock level not judged (its data ends)",
             0,
         ),
     );
     check_look_back_ending(
         &[(10.0, 5.0, 15.0, None), (10.0, 5.0, 15.0, None)],
         0,
-        StockCheck::Gap { periods: 1 },
+        StockCheck::AfterData { periods: 1 },
         (
             "no sales known since (2 months after its data ends left out); stock level not \
-             judged (a gap)",
+             judged (its data ends)",
             0,
         ),
     );
@@ -710,6 +710,21 @@ fn periods_after_an_items_data_ends_are_said_as_such() {
         .map(|p| p["after_data"].as_bool().unwrap())
         .collect();
     assert_eq!(after, [false, false, true, true]);
+    // A protection interval of three periods reaches past its data: not judged, and said so.
+    let longer = cli(
+        &[
+            "look-back",
+            "-",
+            "--periods",
+            "4",
+            "--lead-time",
+            "3",
+            "--json",
+        ],
+        text.as_bytes(),
+    );
+    assert_eq!(longer.json()["items"][1]["stock"]["check"], "after_data");
+    assert_eq!(longer.json()["items"][0]["stock"]["check"], "checked");
     let words = cli(&["look-back", "-", "--periods", "4"], text.as_bytes()).text();
     assert!(
         words.contains("(2 period(s) after its data ends left out)"),

@@ -482,6 +482,7 @@ pub fn look_back_cell(l: &LookBack) -> String {
         ),
         StockCheck::NoInterval => "no lead time to judge".into(),
         StockCheck::Gap { .. } => "stock level not judged (a gap)".into(),
+        StockCheck::AfterData { .. } => "stock level not judged (its data ends)".into(),
         StockCheck::NoFigures(_) => "no Stock plan then".into(),
     };
     format!("{sales}; {stock}")
@@ -677,7 +678,8 @@ pub fn look_back_csv(rows: &[&BoardRow]) -> String {
                     StockCheck::NoFigures(why) => set("problem", why.clone()),
                     StockCheck::TooSoon { .. }
                     | StockCheck::NoInterval
-                    | StockCheck::Gap { .. } => {}
+                    | StockCheck::Gap { .. }
+                    | StockCheck::AfterData { .. } => {}
                 }
                 set("stock_check", l.stock.key().into());
                 set(

@@ -438,6 +438,9 @@ fn stock_check(check: &StockCheck) -> String {
         StockCheck::Gap { periods } => {
             format!("not judged: a gap in the sales within the {periods} period(s) after the plan")
         }
+        StockCheck::AfterData { periods } => {
+            format!("not judged: the {periods} period(s) after the plan reach past the item's data")
+        }
         StockCheck::NoFigures(why) => format!("no Stock plan then: {}", clean(why)),
     }
 }

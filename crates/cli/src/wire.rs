@@ -438,7 +438,8 @@ pub struct LookBackPeriodJson {
 
 /// The Stock plan of then against the demand since. `check` is "checked" (the other fields
 /// filled), "too_soon" (fewer periods have passed than P), "no_interval" (no lead time under
-/// continuous review), "gap" (a gap within P) or "no_figures" (`why` says why).
+/// continuous review), "gap" (a gap within P), "after_data" (P reaches past the item's data) or
+/// "no_figures" (`why` says why).
 #[derive(Serialize, Debug)]
 pub struct StockCheckJson {
     pub check: &'static str,
@@ -519,7 +520,10 @@ impl From<&StockCheck> for StockCheckJson {
                 out.promised_cycle_service = Some(*promised);
             }
             StockCheck::NoFigures(why) => out.why = Some(why.clone()),
-            StockCheck::TooSoon { .. } | StockCheck::NoInterval | StockCheck::Gap { .. } => {}
+            StockCheck::TooSoon { .. }
+            | StockCheck::NoInterval
+            | StockCheck::Gap { .. }
+            | StockCheck::AfterData { .. } => {}
         }
         out
     }

@@ -184,6 +184,11 @@ pub enum StockCheck {
         /// P, the protection interval in periods.
         periods: usize,
     },
+    /// The protection interval reaches past the item's data (nothing recorded there).
+    AfterData {
+        /// P, the protection interval in periods.
+        periods: usize,
+    },
 }
 
 impl StockCheck {
@@ -195,6 +200,7 @@ impl StockCheck {
             StockCheck::NoInterval => "no_interval",
             StockCheck::NoFigures(_) => "no_figures",
             StockCheck::Gap { .. } => "gap",
+            StockCheck::AfterData { .. } => "after_data",
         }
     }
 
@@ -203,7 +209,8 @@ impl StockCheck {
         match *self {
             StockCheck::Checked { periods, .. }
             | StockCheck::TooSoon { periods, .. }
-            | StockCheck::Gap { periods } => Some(periods),
+            | StockCheck::Gap { periods }
+            | StockCheck::AfterData { periods } => Some(periods),
             StockCheck::NoInterval | StockCheck::NoFigures(_) => None,
         }
     }
@@ -398,6 +405,9 @@ fn stock_check(steps: &[LookBackStep], stock: &StockPlan, whole_units: bool) -> 
     } else {
         let window = &steps[..stock_periods];
         match window.iter().map(|s| s.actual).sum::<Option<f64>>() {
+            None if window.iter().any(|s| s.ended) => StockCheck::AfterData {
+                periods: stock_periods,
+            },
             None => StockCheck::Gap {
                 periods: stock_periods,
             },
