@@ -15,7 +15,7 @@ use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
-use crate::support::{cli, item_named, table_file, within_count};
+use crate::support::{cli, item_named, table_file, wide_ending_early, within_count};
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
 
@@ -183,20 +183,7 @@ fn bad_stock_settings_give_every_item_the_message_and_no_figures() {
 // no figures and says why, as the command line does; the others are planned.
 #[test]
 fn an_item_whose_data_ends_early_gets_the_command_lines_message_and_no_figures() {
-    let mut text = String::from("month,Twine,Trowel\n");
-    for t in 0..40 {
-        let trowel = if t < 34 {
-            (20 + t % 7).to_string()
-        } else {
-            String::new()
-        };
-        text.push_str(&format!(
-            "{}-{:02},{},{trowel}\n",
-            2023 + t / 12,
-            t % 12 + 1,
-            50 + t % 9
-        ));
-    }
+    let text = wide_ending_early(("Twine", "Trowel"), 40, 34);
     let rows = board_rows(&text, &StockText::default(), None);
     assert!(rows[0].figures.is_ok(), "{:?}", rows[0]);
     let why = rows[1].figures.as_ref().unwrap_err();
@@ -671,20 +658,7 @@ fn the_saved_look_back_carries_the_command_lines_figures() {
 // command line's JSON and its text alike.
 #[test]
 fn periods_after_an_items_data_ends_are_said_as_such() {
-    let mut text = String::from("month,Twine,Trowel\n");
-    for t in 0..40 {
-        let trowel = if t < 38 {
-            (20 + t % 7).to_string()
-        } else {
-            String::new()
-        };
-        text.push_str(&format!(
-            "{}-{:02},{},{trowel}\n",
-            2023 + t / 12,
-            t % 12 + 1,
-            50 + t % 9
-        ));
-    }
+    let text = wide_ending_early(("Twine", "Trowel"), 40, 38);
     let rows = board_rows_looking_back(&text, &StockText::default(), None, 4);
     let csv_text = look_back_csv(&rows.iter().collect::<Vec<_>>());
     let mut reader = csv::Reader::from_reader(csv_text.as_bytes());

@@ -52,20 +52,7 @@ fn inspect_lists_each_items_history_from_its_first_value_to_its_last() {
 // before the file's last period is forecast from its own end.
 #[test]
 fn forecast_says_when_an_items_forecast_starts_before_the_files_end() {
-    let mut text = String::from("month,Twine,Trowel\n");
-    for t in 0..30 {
-        let trowel = if t < 26 {
-            (20 + t % 7).to_string()
-        } else {
-            String::new()
-        };
-        text.push_str(&format!(
-            "{}-{:02},{},{trowel}\n",
-            2023 + t / 12,
-            t % 12 + 1,
-            50 + t % 9
-        ));
-    }
+    let text = crate::support::wide_ending_early(("Twine", "Trowel"), 30, 26);
     let out = cli(&["forecast", "-", "--json"], text.as_bytes());
     assert_eq!(out.code, 0, "{}", out.stderr);
     let items = out.json()["items"].clone();

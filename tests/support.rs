@@ -165,3 +165,24 @@ pub fn cli(args: &[&str], stdin: &[u8]) -> CliRun {
         stderr: String::from_utf8_lossy(&stderr).into_owned(),
     }
 }
+
+/// A wide monthly table from 2023-01 of `months` rows and two items, `names`: the first sells
+/// every month, the second's column is empty after its first `ends_after` months (invented
+/// figures; the tests of an item whose data ends before the file's last period share it).
+pub fn wide_ending_early(names: (&str, &str), months: usize, ends_after: usize) -> String {
+    let mut text = format!("month,{},{}\n", names.0, names.1);
+    for t in 0..months {
+        let second = if t < ends_after {
+            (20 + t % 7).to_string()
+        } else {
+            String::new()
+        };
+        text.push_str(&format!(
+            "{}-{:02},{},{second}\n",
+            2023 + t / 12,
+            t % 12 + 1,
+            50 + t % 9
+        ));
+    }
+    text
+}

@@ -573,20 +573,7 @@ fn an_item_whose_data_ends_early_gets_no_stock_figures_and_says_why() {
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
     wait_until_planned(browser, 6);
-    let mut text = String::from("month,Garden twine,Rain gauge\n");
-    for t in 0..40 {
-        let gauge = if t < 34 {
-            (20 + t % 7).to_string()
-        } else {
-            String::new()
-        };
-        text.push_str(&format!(
-            "{}-{:02},{},{gauge}\n",
-            2023 + t / 12,
-            t % 12 + 1,
-            50 + t % 9
-        ));
-    }
+    let text = crate::support::wide_ending_early(("Garden twine", "Rain gauge"), 40, 34);
     paste(browser, &text);
     wait_until_planned(browser, 2);
     let run = cli(&["stock", "-", "--json"], text.as_bytes());
