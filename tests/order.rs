@@ -3,7 +3,7 @@
 //! outside references in stock.rs; here, that the settings reach them as the user gave them.
 
 use morrowcast_engine::intake::StockRow;
-use morrowcast_engine::order::{plan_order, OrderError, NO_ROW_NOTE};
+use morrowcast_engine::order::{plan_order, OrderError, HELD_ORDER_NOTE, NO_ROW_NOTE};
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{StockField, StockText, Target, TargetKind};
 use Target::{CycleService as Csl, FillRate as Fill};
@@ -376,4 +376,38 @@ fn a_negative_safety_stock_under_a_cycle_service_target_is_explained_as_such() {
         "{notes}"
     );
     assert!(!notes.contains("fill-rate"), "{notes}");
+}
+
+// An item unsold for 8 months after selling every month (possibly discontinued) still
+// forecast from its past: 30 units had been suggested with nothing on hand. The order is held
+// back, said in a note; the same item still selling gets its order.
+#[test]
+fn an_item_without_demand_for_longer_than_ever_gets_no_suggested_order() {
+    let defaults = StockText::default().check().unwrap();
+    let order = |values: Vec<Option<f64>>| {
+        let series = monthly(values);
+        let row = StockRow {
+            item: series.name().to_string(),
+            on_hand: Some(0.0),
+            ..StockRow::default()
+        };
+        plan_order(
+            &series,
+            &PlanSettings::default(),
+            &defaults,
+            Some(&row),
+            true,
+            None,
+        )
+        .unwrap()
+    };
+    let selling: Vec<Option<f64>> = (0..36).map(|t| Some((25 + t % 5) as f64)).collect();
+    let mut stopped = selling.clone();
+    stopped.extend(std::iter::repeat_n(Some(0.0), 8));
+    let held = order(stopped);
+    assert_eq!(held.stock.suggested_order, None);
+    assert!(held.stock.notes.iter().any(|n| n == HELD_ORDER_NOTE));
+    let placed = order(selling);
+    assert!(placed.stock.suggested_order.is_some_and(|o| o > 0.0));
+    assert!(!placed.stock.notes.iter().any(|n| n == HELD_ORDER_NOTE));
 }

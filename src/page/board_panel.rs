@@ -68,7 +68,11 @@ fn cell(f: &BoardFigures, key: SortKey) -> String {
             if f.periodic { "up to" } else { "at" },
             units(f.level_units)
         ),
-        SortKey::Order => f.suggested_order.map_or("needs on hand".into(), units),
+        SortKey::Order => match (f.suggested_order, f.on_hand) {
+            (Some(order), _) => units(order),
+            (None, Some(_)) => "held back (notes)".into(),
+            (None, None) => "needs on hand".into(),
+        },
         SortKey::Alerts => f.alerts.len().to_string(),
         // The row's own, not the figures' (board rows draw it).
         SortKey::LookBack => String::new(),
@@ -522,7 +526,11 @@ pub fn ItemStock() -> impl IntoView {
                             <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
                             <dt>{level}</dt><dd>{units(f.level_units)}</dd>
                             <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>
-                            <dt>"Order today"</dt><dd id="item-order-today">{f.suggested_order.map_or("none suggested: on hand unknown".into(), units)}</dd>
+                            <dt>"Order today"</dt><dd id="item-order-today">{match (f.suggested_order, f.on_hand) {
+                                (Some(order), _) => units(order),
+                                (None, Some(_)) => "none suggested: see the notes".into(),
+                                (None, None) => "none suggested: on hand unknown".into(),
+                            }}</dd>
                             <dt>"Expected service"</dt><dd>{format!("cycle service level {}, fill rate {}", percent(f.cycle_service_level), percent(f.fill_rate))}</dd>
                         </dl>
                         <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>

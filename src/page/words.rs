@@ -48,10 +48,12 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
     let n = report.items.len();
     if n > 0 {
         let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+        // Each item's history, from its first figure to its last (empty cells outside it
+        // are left out, as the notes say).
         let longest = report
             .items
             .iter()
-            .map(|i| i.values.len())
+            .filter_map(|i| Some(i.first_value()?.steps_to(i.last_value()?) + 1))
             .max()
             .unwrap_or(0);
         lines.push(format!(

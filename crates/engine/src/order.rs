@@ -7,7 +7,7 @@
 
 use std::fmt;
 
-use crate::alerts::{alerts, Alert};
+use crate::alerts::{alerts, Alert, AlertKind};
 use crate::calendar::{Frequency, Period};
 use crate::intake::StockRow;
 use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
@@ -70,8 +70,9 @@ impl fmt::Display for OrderError {
                     f,
                     "its data ends at {last}, {behind} {} before the file's last period \
                      ({file_end}), and what it sold since is not known: planned from its own \
-                     end, it is forecast from {} on as if that were next. If it sold nothing \
-                     since, write 0 for those periods; if it is no longer sold, leave it out",
+                     end, it is forecast from {} on as if that were next. If its rows since \
+                     are missing from the file, add them; if it sold nothing since, write 0 \
+                     for those periods; if it is no longer sold, leave it out",
                     if behind == 1 { one } else { many },
                     last.next()
                 )
@@ -81,6 +82,12 @@ impl fmt::Display for OrderError {
 }
 
 impl std::error::Error for OrderError {}
+
+/// The note on an item whose order is held back: no demand for longer than ever before.
+pub const HELD_ORDER_NOTE: &str =
+    "no order is suggested: no demand for longer than any quiet run before (see its alert), \
+     so the forecast still leans on sales that have stopped; if it still sells, or its \
+     shelf was empty, decide the order yourself";
 
 /// The note on an item with no row in a stock table that was given.
 pub const NO_ROW_NOTE: &str =
@@ -161,6 +168,14 @@ pub fn plan_order(
         stock.notes.push(NO_ROW_NOTE.to_string());
     }
     let alerts = alerts(&plan, series);
+    // An item without demand for longer than any quiet run before (possibly discontinued)
+    // still forecasts from its past, slowly let down: an order from that is not one to
+    // place unread (a review found 30 suggested for an item unsold for 8 months).
+    if stock.suggested_order.is_some() && alerts.iter().any(|a| a.kind == AlertKind::NoRecentDemand)
+    {
+        stock.suggested_order = None;
+        stock.notes.push(HELD_ORDER_NOTE.to_string());
+    }
     Ok(ItemOrder {
         plan,
         stock,
