@@ -205,22 +205,7 @@ fn an_item_whose_data_ends_before_the_files_end_gets_no_figures() {
 fn a_gap_inside_whole_units_leaves_the_order_in_whole_units() {
     let mut values: Vec<Option<f64>> = (0..36).map(|t| Some((20 + t % 7) as f64)).collect();
     values[20] = None;
-    let series = monthly(values);
-    let defaults = StockText::default().check().unwrap();
-    let row = StockRow {
-        item: series.name().to_string(),
-        on_hand: Some(3.0),
-        ..StockRow::default()
-    };
-    let order = plan_order(
-        &series,
-        &PlanSettings::default(),
-        &defaults,
-        Some(&row),
-        true,
-        None,
-    )
-    .unwrap();
+    let order = order_with_on_hand(values, 3.0);
     assert!(order.plan.whole_units);
     let suggested = order.stock.suggested_order.unwrap();
     assert!(suggested > 0.0 && suggested.fract() == 0.0, "{suggested}");
@@ -383,24 +368,7 @@ fn a_negative_safety_stock_under_a_cycle_service_target_is_explained_as_such() {
 // back, said in a note; the same item still selling gets its order.
 #[test]
 fn an_item_without_demand_for_longer_than_ever_gets_no_suggested_order() {
-    let defaults = StockText::default().check().unwrap();
-    let order = |values: Vec<Option<f64>>| {
-        let series = monthly(values);
-        let row = StockRow {
-            item: series.name().to_string(),
-            on_hand: Some(0.0),
-            ..StockRow::default()
-        };
-        plan_order(
-            &series,
-            &PlanSettings::default(),
-            &defaults,
-            Some(&row),
-            true,
-            None,
-        )
-        .unwrap()
-    };
+    let order = |values: Vec<Option<f64>>| order_with_on_hand(values, 0.0);
     let selling: Vec<Option<f64>> = (0..36).map(|t| Some((25 + t % 5) as f64)).collect();
     let mut stopped = selling.clone();
     stopped.extend(std::iter::repeat_n(Some(0.0), 8));
@@ -410,4 +378,27 @@ fn an_item_without_demand_for_longer_than_ever_gets_no_suggested_order() {
     let placed = order(selling);
     assert!(placed.stock.suggested_order.is_some_and(|o| o > 0.0));
     assert!(!placed.stock.notes.iter().any(|n| n == HELD_ORDER_NOTE));
+}
+
+/// A monthly item's order with the default Stock plan settings and `on_hand` in its stock row.
+fn order_with_on_hand(
+    values: Vec<Option<f64>>,
+    on_hand: f64,
+) -> morrowcast_engine::order::ItemOrder {
+    let series = monthly(values);
+    let defaults = StockText::default().check().unwrap();
+    let row = StockRow {
+        item: series.name().to_string(),
+        on_hand: Some(on_hand),
+        ..StockRow::default()
+    };
+    plan_order(
+        &series,
+        &PlanSettings::default(),
+        &defaults,
+        Some(&row),
+        true,
+        None,
+    )
+    .unwrap()
 }
