@@ -535,7 +535,18 @@ fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
         &[(70.54, 59.08, 82.0, Some(50.0))],
         checked(1, 79.83, 50.0, false),
         (
-            "sold 50, forecast 70.5 (41% high), band 59.1–82: below the band; stock level held",
+            "sold 50, forecast 70.5 (41% high), band 59.1–82: below the band; stock level held, \
+             29.8 to spare",
+            1,
+        ),
+    );
+    // Far more on the shelf than sold: said, not only a shortfall.
+    check_look_back(
+        &[(29.4, 10.0, 50.0, Some(3.0))],
+        checked(1, 39.0, 3.0, true),
+        (
+            "sold 3, forecast 29.4 (880% high), band 10–50: below the band; stock level held, \
+             36 to spare",
             1,
         ),
     );
@@ -544,7 +555,7 @@ fn the_look_back_cell_says_what_sold_against_the_band_and_whether_stock_held() {
         &[(70.0, 60.0, 80.0, Some(71.0))],
         checked(1, 70.92, 71.0, true),
         (
-            "sold 71, forecast 70 (1% low), band 60–80: within; stock level held",
+            "sold 71, forecast 70 (1% low), band 60–80: within; stock level held, 0 to spare",
             0,
         ),
     );

@@ -473,7 +473,10 @@ pub fn look_back_cell(l: &LookBack) -> String {
                 Some(short) if short > 0.0 => {
                     format!("stock level short by {}{over}", units(short))
                 }
-                _ => format!("stock level held{over}"),
+                _ => format!(
+                    "stock level held{over}, {} to spare",
+                    units(l.stock.spare().unwrap_or(0.0))
+                ),
             }
         }
         StockCheck::TooSoon { periods, passed } => format!(

@@ -219,6 +219,18 @@ impl StockCheck {
     /// checked). With whole units the level counts rounded up: 71 sold against a level of
     /// 70.92 is covered, as the 71 units an order brings cover it.
     pub fn shortfall(&self) -> Option<f64> {
+        self.stocked_less_demand().map(|d| (-d).max(0.0))
+    }
+
+    /// How far the level went beyond the demand over P (0 when short; `None` when not
+    /// checked), the level counted as [`StockCheck::shortfall`] counts it: what was left on
+    /// the shelf then, so a level far above what sold is seen, not only one below it.
+    pub fn spare(&self) -> Option<f64> {
+        self.stocked_less_demand().map(|d| d.max(0.0))
+    }
+
+    /// The level as stocked (rounded up with whole units) less the demand over P.
+    fn stocked_less_demand(&self) -> Option<f64> {
         match *self {
             StockCheck::Checked {
                 level,
@@ -227,7 +239,7 @@ impl StockCheck {
                 ..
             } => {
                 let stocked = if whole_units { level.ceil() } else { level };
-                Some((demand - stocked).max(0.0))
+                Some(stocked - demand)
             }
             _ => None,
         }
