@@ -37,6 +37,21 @@ fn short_and_new_histories() {
     // none and runs below the season's rise for months: a bias.
     check(seasonal(18), &[AlertKind::Bias, AlertKind::ShortHistory]);
     check(seasonal(8), &[AlertKind::NewItem]);
+    // The reason's tracking signal is that of the one-step forecasts it speaks of, not the
+    // holdout's the board shows beside it (a review read the two as one measure).
+    let series = monthly(seasonal(18).into_iter().map(Some).collect());
+    let plan = plan_item(&series, &PlanSettings::default()).unwrap();
+    let bias = alerts(&plan, &series)
+        .into_iter()
+        .find(|a| a.kind == AlertKind::Bias)
+        .unwrap();
+    assert!(
+        bias.reason
+            .contains("the forecasts, each made one month ahead,")
+            && bias.reason.contains(": their tracking signal "),
+        "{}",
+        bias.reason
+    );
 }
 
 #[test]

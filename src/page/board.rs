@@ -81,8 +81,10 @@ pub const COLUMNS: [Column; 14] = [
     col(SortKey::Trend, "Trend", false),
     col(SortKey::Method, "Method", false),
     col(SortKey::Mase, "MASE", true),
-    col(SortKey::Bias, "Bias", true),
-    col(SortKey::Tracking, "Tracking signal", true),
+    // The holdout's, as the Error ledger's: the Bias alert reads the one-step forecasts of
+    // the latest periods instead, and says so.
+    col(SortKey::Bias, "Bias (holdout)", true),
+    col(SortKey::Tracking, "Tracking signal (holdout)", true),
     col(SortKey::History, "History", true),
 ];
 

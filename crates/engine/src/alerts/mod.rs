@@ -282,7 +282,7 @@ pub fn alerts(plan: &ItemPlan, series: &Series) -> Vec<Alert> {
         };
         let signal = match (lean.tracking_signal, lean.limit) {
             (Some(ts), Some(limit)) => format!(
-                ": tracking signal {ts:.1} against a limit of ±{limit:.1} for {} {many} (on \
+                ": their tracking signal {ts:.1} against a limit of ±{limit:.1} for {} {many} (on \
                  steady demand one of the limits read is passed about 1 time in 20)",
                 lean.periods
             ),
