@@ -8,8 +8,8 @@
 use std::fmt;
 
 use crate::alerts::{alerts, Alert, AlertKind};
-use crate::calendar::{Frequency, Period};
-use crate::intake::StockRow;
+use crate::calendar::Period;
+use crate::intake::{ends_before, StockRow};
 use crate::plan::{default_horizon, plan_item, ItemPlan, PlanError};
 use crate::series::Series;
 use crate::settings::{PlanSettings, SettingError};
@@ -93,18 +93,13 @@ pub const HELD_ORDER_NOTE: &str =
 pub const NO_ROW_NOTE: &str =
     "no row in the stock table: on hand unknown, so no order is suggested";
 
-/// [`OrderError::EndsEarly`] when `series` ends before `file_end` (the file's last period):
-/// the one rule behind the board's and the command line's refusal and the page's notice.
-/// Undated items are numbered each from its own first row, so their ends say nothing of
-/// each other: never.
+/// [`OrderError::EndsEarly`] when `series` ends before `file_end` (the file's last period,
+/// by [`crate::intake::ends_before`]): behind the board's and the command line's refusal and
+/// the page's notice.
 pub fn ends_early(series: &Series, file_end: Option<Period>) -> Option<OrderError> {
     let last = series.period(series.len() - 1);
     file_end
-        .filter(|end| {
-            end.frequency() == last.frequency()
-                && last.frequency() != Frequency::Undated
-                && last < *end
-        })
+        .filter(|end| ends_before(last, *end))
         .map(|file_end| OrderError::EndsEarly { last, file_end })
 }
 

@@ -711,6 +711,28 @@ impl<'a> Builder<'a> {
         ));
     }
 
+    /// Says an item's empty cells (`cells`, one entry per cell) against its history from
+    /// `first` to `last` (its first and last figures), in every layout: inside it they are
+    /// gaps, which are filled; before it, left out (not sold yet); after it, kept for
+    /// [`Builder::after_the_last`], which says them once every item's end is known.
+    fn empty_cells(&mut self, name: &str, cells: Vec<Period>, first: Period, last: Period) {
+        let (before, rest): (Vec<Period>, Vec<Period>) =
+            cells.into_iter().partition(|p| *p < first);
+        let (after, mut inner): (Vec<Period>, Vec<Period>) =
+            rest.into_iter().partition(|p| *p > last);
+        if !inner.is_empty() {
+            let cells = inner.len();
+            inner.sort();
+            inner.dedup();
+            let periods: Vec<String> = inner.iter().map(Period::to_string).collect();
+            self.empty_cells_read_as_gaps(name, cells, &periods);
+        }
+        self.outside_the_history(name, before, first, "first");
+        if !after.is_empty() {
+            self.after_last.push((name.to_string(), after, last));
+        }
+    }
+
     /// The warning naming an item's empty cells before its first value or after its last
     /// (`end`: "first" or "last", at `value`): its history does not reach them. After the last,
     /// what it sold since is unknown: where other items have figures then, the plan gives it
@@ -994,27 +1016,14 @@ impl<'a> Builder<'a> {
         let (beside, gaps): (Vec<Period>, Vec<Period>) = empty
             .into_iter()
             .partition(|p| values[start.steps_to(*p) as usize].is_some());
-        // Before the first value and after the last the history does not reach: said apart
-        // from the gaps inside it, which are filled.
-        let at = |p: &Period| start.steps_to(*p) as usize;
         let first = values.iter().position(Option::is_some).unwrap_or(0);
         let last = values.iter().rposition(Option::is_some).unwrap_or(0);
-        let (before, rest): (Vec<Period>, Vec<Period>) =
-            gaps.into_iter().partition(|p| at(p) < first);
-        let (after, mut gaps): (Vec<Period>, Vec<Period>) =
-            rest.into_iter().partition(|p| at(p) > last);
-        let empty_cells = gaps.len();
-        gaps.sort();
-        gaps.dedup();
-        if !gaps.is_empty() {
-            let gaps: Vec<String> = gaps.iter().map(Period::to_string).collect();
-            self.empty_cells_read_as_gaps(name, empty_cells, &gaps);
-        }
-        self.outside_the_history(name, before, start.offset(first as i64), "first");
-        if !after.is_empty() {
-            self.after_last
-                .push((name.to_string(), after, start.offset(last as i64)));
-        }
+        self.empty_cells(
+            name,
+            gaps,
+            start.offset(first as i64),
+            start.offset(last as i64),
+        );
         if !beside.is_empty() {
             let days: Vec<String> = beside.iter().map(Period::to_string).collect();
             self.out.warnings.push(format!(

@@ -338,19 +338,23 @@ pub fn read(text: &str) -> IntakeReport {
     report
 }
 
+/// Whether an item whose last figure is at `last` ends before the file's last period `end`:
+/// the one rule of an item ending early (Intake's warning, `order::ends_early`). Undated items
+/// are numbered each from its own first row, so their ends say nothing of each other: never.
+pub fn ends_before(last: Period, end: Period) -> bool {
+    last.frequency() == end.frequency() && last.frequency() != Frequency::Undated && last < end
+}
+
 /// The warning naming the items of a dated table whose figures end before the file's last
 /// period (a column left empty since, a store whose export ends earlier): what they sold
 /// since is not known, so the plan gives them no stock figures (`order::ends_early`).
 fn ended_early(report: &IntakeReport) -> Option<String> {
-    if report.frequency == Frequency::Undated {
-        return None;
-    }
     let end = report.last_period()?;
     let early: Vec<String> = report
         .items
         .iter()
         .filter_map(|item| {
-            let last = item.last_value().filter(|last| *last < end)?;
+            let last = item.last_value().filter(|last| ends_before(*last, end))?;
             Some(format!("\"{}\" ({last})", item.name))
         })
         .collect();

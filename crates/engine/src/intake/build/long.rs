@@ -106,20 +106,10 @@ impl<'a> Builder<'a> {
         let dated = column.is_some();
         self.partly_named(&item_columns, &order, &items);
         let mut readings = self.readings(&item_columns, &order, &items, dated);
+        let runs = item_runs(&order, &items, &readings, dated);
         // Every item's own run is served before any run after its last row: the slots those
-        // take must not leave a later item unread (its own span, from its rows' periods).
-        let spans: Vec<usize> = order
-            .iter()
-            .map(|key| {
-                let periods = items[key].rows.iter().map(|r| r.0);
-                match (periods.clone().min(), periods.max()) {
-                    (Some(a), Some(b)) => (a.steps_to(b).clamp(0, MAX_PERIODS) + 1) as usize,
-                    _ => 0,
-                }
-            })
-            .collect();
-        let mut reserved: usize = spans.iter().sum();
-        let held_back = stops_held_back(&order, &items, &readings, dated);
+        // take must not leave a later item unread.
+        let mut reserved: usize = runs.iter().map(|r| r.span).sum();
         let mut held = Vec::new();
         let mut summed = Vec::new();
         let mut zeros = Vec::new();
@@ -127,7 +117,7 @@ impl<'a> Builder<'a> {
         let mut unread_since = Vec::new();
         let mut out_of_order: Vec<String> = Vec::new();
         for (k, key) in order.into_iter().enumerate() {
-            reserved = reserved.saturating_sub(spans[k]);
+            reserved = reserved.saturating_sub(runs[k].span);
             let Some(LongItem {
                 name,
                 mut rows,
@@ -240,7 +230,7 @@ impl<'a> Builder<'a> {
             // as the periods between rows are, so the plan starts from the file's end, not
             // from the item's last row as if the months since were still to come.
             let after = match readings.run_end(k, zeros_written) {
-                Some(end) if held_back[k] => {
+                Some(end) if runs[k].held => {
                     held.push(format!(
                         "\"{name}\" (last row {}, the rows run on to {end})",
                         last.0
@@ -267,14 +257,6 @@ impl<'a> Builder<'a> {
                 values[slot] = *value;
                 self.check_negative(&name, *period, *value);
             }
-            // The longest run of periods without a row between its rows: a run since its last
-            // row longer than that (and of at least two) says it stopped, not that it sells
-            // slowly.
-            let longest_without = present[..own as usize]
-                .split(|p| *p)
-                .map(<[bool]>::len)
-                .max()
-                .unwrap_or(0);
             let (mut no_sales, mut since) = (0, 0);
             for i in 0..len as usize {
                 let period = start.offset(i as i64);
@@ -292,8 +274,7 @@ impl<'a> Builder<'a> {
                     no_sales += usize::from(reading == Reading::OtherRows);
                 }
             }
-            let stopped_here = after >= 2 && after as usize > longest_without;
-            if stopped_here {
+            if runs[k].stopped && after > 0 {
                 let gaps = if since < after as usize {
                     format!(", {} a gap", after as usize - since)
                 } else {
@@ -389,19 +370,12 @@ impl<'a> Builder<'a> {
         let (Some(first), Some(last)) = (first, last) else {
             return;
         };
-        let (first, last) = (start.offset(first as i64), start.offset(last as i64));
-        let (before, rest): (Vec<Period>, Vec<Period>) =
-            blank.into_iter().partition(|p| *p < first);
-        let (after, inner): (Vec<Period>, Vec<Period>) = rest.into_iter().partition(|p| *p > last);
-        if !inner.is_empty() {
-            let mut periods: Vec<String> = inner.iter().map(Period::to_string).collect();
-            periods.dedup();
-            self.empty_cells_read_as_gaps(name, inner.len(), &periods);
-        }
-        self.outside_the_history(name, before, first, "first");
-        if !after.is_empty() {
-            self.after_last.push((name.to_string(), after, last));
-        }
+        self.empty_cells(
+            name,
+            blank,
+            start.offset(first as i64),
+            start.offset(last as i64),
+        );
     }
 
     /// The readings of the periods the items have no row in, grouped by a place column.
@@ -515,53 +489,71 @@ impl<'a> Builder<'a> {
     }
 }
 
-/// For each item (in `order`), whether its run since its last row is held back from being read
-/// as no sales: it stopped (a run since its last row up to its group's last period longer than
-/// any without a row between its rows, and of at least two) together with half or more of its
-/// group's items. So many stopping at once is rarer than a few rows dated ahead (a row typed
-/// 2027-06 for 2026-06 made every other item read as a year of no sales and forecast falling).
-fn stops_held_back(
+/// What an item's rows say of its run of periods, before any is built.
+struct ItemRun {
+    /// Periods from its first row to its last (the slots its own run takes).
+    span: usize,
+    /// It stopped: the run since its last row up to its group's last period is longer than
+    /// any without a row between its rows, and of at least two (a slow seller's last quiet
+    /// spell is not a stop).
+    stopped: bool,
+    /// Its run since is held back from being read as no sales: it stopped together with half
+    /// or more of its group's items. So many stopping at once is rarer than a few rows dated
+    /// ahead (a row typed 2027-06 for 2026-06 made every other item read as a year of no sales
+    /// and forecast falling).
+    held: bool,
+}
+
+/// Each item's [`ItemRun`], in `order`.
+fn item_runs(
     order: &[String],
     items: &HashMap<String, LongItem<'_>>,
     readings: &Readings,
     dated: bool,
-) -> Vec<bool> {
-    let stopped: Vec<bool> = order
+) -> Vec<ItemRun> {
+    let mut runs: Vec<ItemRun> = order
         .iter()
         .enumerate()
         .map(|(k, key)| {
-            let mut periods: Vec<Period> = items[key].rows.iter().map(|r| r.0).collect();
+            let item = &items[key];
+            let mut periods: Vec<Period> = item.rows.iter().map(|r| r.0).collect();
             periods.sort_unstable();
             periods.dedup();
-            let item = &items[key];
-            let writes_zeros = item.rows.iter().any(|r| r.1 == Some(0.0));
-            let (Some(&last), Some(end)) = (periods.last(), readings.run_end(k, writes_zeros))
-            else {
-                return false;
+            let (Some(&first), Some(&last)) = (periods.first(), periods.last()) else {
+                return ItemRun {
+                    span: 0,
+                    stopped: false,
+                    held: false,
+                };
             };
+            let writes_zeros = item.rows.iter().any(|r| r.1 == Some(0.0));
             let longest = periods
                 .windows(2)
                 .map(|w| w[0].steps_to(w[1]) - 1)
                 .max()
                 .unwrap_or(0);
-            let run = last.steps_to(end);
-            dated && run >= 2 && run > longest
+            let stopped = readings.run_end(k, writes_zeros).is_some_and(|end| {
+                let run = last.steps_to(end);
+                dated && run >= 2 && run > longest
+            });
+            ItemRun {
+                span: (first.steps_to(last).clamp(0, MAX_PERIODS) + 1) as usize,
+                stopped,
+                held: false,
+            }
         })
         .collect();
     let mut tally: HashMap<Option<usize>, (usize, usize)> = HashMap::new();
-    for (k, stop) in stopped.iter().enumerate() {
+    for (k, run) in runs.iter().enumerate() {
         let entry = tally.entry(readings.group_of(k)).or_default();
-        entry.0 += usize::from(*stop);
+        entry.0 += usize::from(run.stopped);
         entry.1 += 1;
     }
-    stopped
-        .iter()
-        .enumerate()
-        .map(|(k, stop)| {
-            let (stops, all) = tally[&readings.group_of(k)];
-            *stop && 2 * stops >= all
-        })
-        .collect()
+    for (k, run) in runs.iter_mut().enumerate() {
+        let (stops, all) = tally[&readings.group_of(k)];
+        run.held = run.stopped && 2 * stops >= all;
+    }
+    runs
 }
 
 /// An item's name in column `j` (from its first row), its white space runs as one space.

@@ -157,7 +157,7 @@ impl Readings {
     /// its rows stopping are then missing rows, not sales of 0. An item without rows of 0 in
     /// such a table is read after its last row as between its rows.
     pub(super) fn run_end(&self, item: usize, writes_zeros: bool) -> Option<Period> {
-        let set = match self.item_group.get(item).copied().flatten() {
+        let set = match self.group_of(item) {
             Some(g) => &self.groups[g].1,
             None => &self.table,
         };
@@ -172,7 +172,7 @@ impl Readings {
 
     /// Reads `period`, in which item `item` (its place in the items given) has no row.
     pub(super) fn read(&mut self, item: usize, period: Period) -> Reading {
-        let group = self.item_group.get(item).copied().flatten();
+        let group = self.group_of(item);
         let table_named = self.table.with_rows.contains(&period);
         match group {
             None if table_named => Reading::OtherRows,
