@@ -12,7 +12,8 @@ use crate::plan::ItemPlan;
 
 use super::normal::figures;
 use super::{
-    check_quantity, empirical_figures, Figures, IntervalDemand, Review, StockError, Target,
+    check_quantity, empirical_figures, totals_needed, Figures, IntervalDemand, Review, Spread,
+    StockError, Target,
 };
 
 /// The longest lead time or review period accepted, in periods (the plan's horizon limit).
@@ -307,6 +308,20 @@ pub fn demand_over(plan: &ItemPlan, periods: usize) -> Option<(IntervalDemand, u
         .map(|d| (d, totals.len()))
 }
 
+/// The empirical model's demand scenarios over the next `periods` periods: today's expected
+/// total minus each rolling origin's error of its total, floored at zero where the history
+/// never goes below it (empty when every period of the window is shut).
+pub fn demand_scenarios(plan: &ItemPlan, periods: usize) -> Vec<f64> {
+    let mean = forecast_total(plan, 0, periods.min(plan.forecast.len()));
+    let non_negative = plan.history.iter().all(|v| *v >= 0.0);
+    origin_totals(plan, periods)
+        .unwrap_or_default()
+        .iter()
+        .map(|e| mean - e)
+        .map(|d| if non_negative { d.max(0.0) } else { d })
+        .collect()
+}
+
 /// The errors of the total over the next `periods` periods at the plan's rolling origins:
 /// over as many open periods as the window holds where the plan has shut places (their
 /// forecasts are 0 and they sell nothing; [`crate::patterns::shut_places`]), so that a window
@@ -418,6 +433,8 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
         let sd = (d.sd().powi(2) + (per_period * settings.lead_time_sd).powi(2)).sqrt();
         IntervalDemand::new(d.mean(), sd)
     };
+    // The origins' own spread, before the lead time's: the empirical model's tail uses it.
+    let origins_sd = protection.sd();
     let protection = with_lead_time_spread(protection)?;
     let (review, cycle_demand) = match settings.review_period {
         None => {
@@ -455,13 +472,7 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
             )?
         }
         Distribution::Empirical => {
-            let non_negative = plan.history.iter().all(|v| *v >= 0.0);
-            let scenarios: Vec<f64> = origin_totals(plan, periods)
-                .unwrap_or_default()
-                .iter()
-                .map(|e| protection.mean() - e)
-                .map(|d| if non_negative { d.max(0.0) } else { d })
-                .collect();
+            let scenarios = demand_scenarios(plan, periods);
             notes.push(format!(
                 "{} demand: the figures come from the {} rolling-origin totals themselves, not \
                  the normal model",
@@ -473,7 +484,34 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                     "the lead time's spread is not applied to the empirical model".to_string(),
                 );
             }
-            empirical_figures(protection.mean(), &scenarios, cycle_demand, settings.target)?
+            let spread = Spread {
+                mean: protection.mean(),
+                sd: origins_sd,
+                whole_units: counts_whole_units(plan),
+                periods,
+            };
+            let empirical = empirical_figures(spread, &scenarios, cycle_demand, settings.target)?;
+            if let (Some(beyond), Target::CycleService(p)) = (empirical.beyond, settings.target) {
+                let over = if periods > 1 {
+                    format!(
+                        " over {periods} periods, as neighbouring totals share all but one \
+                         period"
+                    )
+                } else {
+                    String::new()
+                };
+                // Targets are read to a tenth of a percent at most.
+                let target = (1000.0 * p).round() / 10.0;
+                notes.push(format!(
+                    "{} past totals are too few to show a {target} % cycle service level (that \
+                     needs {}{over}): the level comes from a {} distribution of the same mean \
+                     and spread, and is at least the largest past total",
+                    scenarios.len(),
+                    totals_needed(p, periods),
+                    beyond.name()
+                ));
+            }
+            empirical.figures
         }
     };
     if origins_used > 0 && origins_used < 10 {

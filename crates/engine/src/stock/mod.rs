@@ -34,11 +34,13 @@ mod text;
 
 use std::fmt;
 
-pub use empirical::empirical_figures;
+pub use empirical::{
+    empirical_figures, scenarios_needed, totals_needed, Beyond, EmpiricalFigures, Spread,
+};
 pub use item::{
-    counts_whole_units, demand_over, plan_stock, protection_periods_of, service_fraction,
-    service_fraction_of, suggested_order, Distribution, Position, StockPlan, StockSettings,
-    MAX_PERIODS,
+    counts_whole_units, demand_over, demand_scenarios, plan_stock, protection_periods_of,
+    service_fraction, service_fraction_of, suggested_order, Distribution, Position, StockPlan,
+    StockSettings, MAX_PERIODS,
 };
 pub use normal::{
     figures, inverse_normal_loss, normal_loss, sd_independent, sd_per_horizon,
