@@ -15,7 +15,9 @@ use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
-use crate::support::{cli, item_named, table_file, wide_ending_early, within_count};
+use crate::support::{
+    cli, item_named, table_file, wide_ending_early, with_a_new_item, within_count,
+};
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
 
@@ -720,23 +722,83 @@ fn periods_after_an_items_data_ends_are_said_as_such() {
 /// A new item whose Stock plan of today cannot be made (too few rolling origins) still has its
 /// Look-back on the board, as the command line gives it: the plan of then set against what
 /// sold, its stock check "no figures".
+// A new item of five months has too short a history for stock figures, but its plan and its
+// "New item" alert stand: its row had shown only why, hiding its forecast and its alert (the
+// "New item" filter counted none). Its row, the filters, the order plan and the command line
+// all carry the plan and the alert beside why there are no figures.
+#[test]
+fn a_new_items_row_shows_its_forecast_and_alert_without_stock_figures() {
+    let text = with_a_new_item();
+    let rows = board_rows(&text, &StockText::default(), None);
+    let lantern = rows.iter().find(|r| r.name == "Solar lantern").unwrap();
+    let f = lantern.figures.as_ref().unwrap();
+    let why = f.stock.as_ref().unwrap_err();
+    assert!(why.contains("too short"), "{why}");
+    assert!(f.next.is_finite() && f.history == 5, "{f:?}");
+    assert!(
+        f.alerts.iter().any(|a| a.kind == AlertKind::NewItem),
+        "{:?}",
+        f.alerts
+    );
+    let passing = |alert: AlertFilter| -> Vec<&str> {
+        let filter = Filter {
+            text: String::new(),
+            alert,
+        };
+        rows.iter()
+            .filter(|r| filter.passes(r))
+            .map(|r| r.name.as_str())
+            .collect()
+    };
+    assert_eq!(
+        passing(AlertFilter::Kind(AlertKind::NewItem)),
+        ["Solar lantern"]
+    );
+    assert_eq!(passing(AlertFilter::Failed), ["Solar lantern"]);
+    // Sorted by the order, the item without figures goes last either way.
+    for descending in [false, true] {
+        let mut refs: Vec<&BoardRow> = rows.iter().collect();
+        sort_rows(&mut refs, SortKey::Order, descending);
+        assert_eq!(refs[1].name, "Solar lantern");
+    }
+    let refs: Vec<&BoardRow> = rows.iter().collect();
+    let csv_text = order_plan_csv(&refs, |_| false);
+    let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+    let headers = reader.headers().unwrap().clone();
+    let record = reader
+        .records()
+        .map(Result::unwrap)
+        .find(|r| &r[0] == "Solar lantern")
+        .unwrap();
+    let get = |name: &str| record[headers.iter().position(|h| h == name).unwrap()].to_string();
+    assert_eq!(get("problem"), *why);
+    assert_eq!(get("alerts"), "new_item");
+    assert_eq!(cell_number(&get("next_forecast")), Some(f.next));
+    assert_eq!(get("history_periods"), "5");
+    for empty in ["reorder_point", "safety_stock", "suggested_order", "policy"] {
+        assert_eq!(get(empty), "", "{empty}");
+    }
+    let run = cli(&["stock", "-"], text.as_bytes());
+    assert!(
+        run.stderr.contains(&format!(
+            "morrowcast: Solar lantern: no stock figures: {why}; its alerts: New item (only 5 \
+             periods of history"
+        )),
+        "{}",
+        run.stderr
+    );
+}
+
 #[test]
 fn a_look_back_stands_where_todays_figures_cannot_be_made() {
-    let mut text = String::from("item,month,units\n");
-    for t in 0..36 {
-        text.push_str(&format!(
-            "Oak tray,{}-{:02},{}\n",
-            2022 + t / 12,
-            t % 12 + 1,
-            20 + t % 5
-        ));
-    }
-    for m in 8..=12 {
-        text.push_str(&format!("Solar lantern,2024-{m:02},{}\n", 30 + m));
-    }
+    let text = with_a_new_item();
     let rows = board_rows_looking_back(&text, &StockText::default(), None, 1);
     let lantern = rows.iter().find(|r| r.name == "Solar lantern").unwrap();
-    assert!(lantern.figures.is_err(), "{:?}", lantern.figures);
+    assert!(
+        lantern.figures.as_ref().is_ok_and(|f| f.stock.is_err()),
+        "{:?}",
+        lantern.figures
+    );
     let Some(Ok(l)) = &lantern.look_back else {
         panic!("{:?}", lantern.look_back);
     };

@@ -166,6 +166,24 @@ pub fn cli(args: &[&str], stdin: &[u8]) -> CliRun {
     }
 }
 
+/// A long table of three years of an oak tray and a solar lantern new five months ago
+/// (invented figures; the tests of a new item's board row share it).
+pub fn with_a_new_item() -> String {
+    let mut text = String::from("item,month,units\n");
+    for t in 0..36 {
+        text.push_str(&format!(
+            "Oak tray,{}-{:02},{}\n",
+            2022 + t / 12,
+            t % 12 + 1,
+            20 + t % 5
+        ));
+    }
+    for m in 8..=12 {
+        text.push_str(&format!("Solar lantern,2024-{m:02},{}\n", 30 + m));
+    }
+    text
+}
+
 /// A wide monthly table from 2023-01 of `months` rows and two items, `names`: the first sells
 /// every month, the second's column is empty after its first `ends_after` months (invented
 /// figures; the tests of an item whose data ends before the file's last period share it).

@@ -88,6 +88,10 @@ pub const COLUMNS: [Column; 14] = [
     col(SortKey::History, "History", true),
 ];
 
+/// The columns that show stock figures, in the order of [`COLUMNS`] (a row without stock
+/// figures says why in one cell across them).
+pub const STOCK_COLUMNS: [SortKey; 3] = [SortKey::DemandOver, SortKey::SafetyStock, SortKey::Level];
+
 fn number(f: &BoardFigures, key: SortKey) -> Option<f64> {
     match key {
         SortKey::Season => Some(f.season.unwrap_or(1) as f64),
@@ -97,10 +101,10 @@ fn number(f: &BoardFigures, key: SortKey) -> Option<f64> {
         SortKey::Tracking => f.tracking_signal.map(f64::abs),
         SortKey::History => Some(f.history as f64),
         SortKey::Next => Some(f.next),
-        SortKey::DemandOver => Some(f.demand_over_protection),
-        SortKey::SafetyStock => Some(f.safety_stock),
-        SortKey::Level => Some(f.level_units),
-        SortKey::Order => f.suggested_order,
+        SortKey::DemandOver => f.stock.as_ref().ok().map(|s| s.demand_over_protection),
+        SortKey::SafetyStock => f.stock.as_ref().ok().map(|s| s.safety_stock),
+        SortKey::Level => f.stock.as_ref().ok().map(|s| s.level_units),
+        SortKey::Order => f.stock.as_ref().ok().and_then(|s| s.suggested_order),
         SortKey::Alerts => Some(f.alerts.len() as f64),
         _ => None,
     }
@@ -193,9 +197,10 @@ pub struct Filter {
 pub enum AlertFilter {
     #[default]
     All,
-    /// Items with at least one alert, or without figures.
+    /// Items with at least one alert, or without stock figures.
     Any,
-    /// Items without figures (their history could not be planned).
+    /// Items without stock figures (their history could not be planned, or is too short
+    /// for the figures' spread).
     Failed,
     Kind(AlertKind),
     /// Items whose stock level of then fell short in the Look-back.
@@ -240,9 +245,9 @@ impl Filter {
                 .is_ok_and(|f| f.method.to_lowercase().contains(&needle));
         let alert_ok = match (self.alert, &row.figures) {
             (AlertFilter::All, _) => true,
-            (AlertFilter::Any, Ok(f)) => !f.alerts.is_empty(),
+            (AlertFilter::Any, Ok(f)) => !f.alerts.is_empty() || f.stock.is_err(),
             (AlertFilter::Any | AlertFilter::Failed, Err(_)) => true,
-            (AlertFilter::Failed, Ok(_)) => false,
+            (AlertFilter::Failed, Ok(f)) => f.stock.is_err(),
             (AlertFilter::Kind(k), Ok(f)) => f.alerts.iter().any(|a| a.kind == k),
             (AlertFilter::Kind(_), Err(_)) => false,
             (AlertFilter::ShortStock, _) => matches!(
@@ -266,74 +271,77 @@ pub fn order_plan_csv(rows: &[&BoardRow], changed: impl Fn(&str) -> bool) -> Str
     let opt = |v: Option<f64>| v.map(|v| v.to_string()).unwrap_or_default();
     for row in rows {
         let changed = if changed(&row.name) { "yes" } else { "" };
-        let record: Vec<String> = match &row.figures {
-            Ok(f) => {
-                let (kind, value) = match f.target {
-                    Target::CycleService(v) => ("cycle_service_level", v),
-                    Target::FillRate(v) => ("fill_rate", v),
-                };
-                vec![
-                    row.name.clone(),
-                    if f.periodic { "periodic" } else { "continuous" }.into(),
-                    f.lead_time.to_string(),
-                    f.review_period.map(|r| r.to_string()).unwrap_or_default(),
-                    f.protection_periods.to_string(),
-                    f.distribution.clone(),
-                    num(f.demand_over_protection),
-                    num(f.sd_over_protection),
-                    kind.into(),
-                    num(value),
-                    num(f.safety_stock),
-                    if f.periodic {
-                        String::new()
-                    } else {
-                        num(f.level_units)
-                    },
-                    if f.periodic {
-                        num(f.level_units)
-                    } else {
-                        String::new()
-                    },
-                    opt(f.on_hand),
-                    opt(f.on_order),
-                    opt(f.suggested_order),
-                    num(f.cycle_service_level),
-                    num(f.fill_rate),
-                    num(f.next),
-                    num(f.next_lower),
-                    num(f.next_upper),
-                    num(f.level),
-                    f.method.clone(),
-                    f.demand_class.clone(),
-                    f.season.map(|s| s.to_string()).unwrap_or_default(),
-                    f.trend.clone(),
-                    opt(f.mase),
-                    num(f.bias),
-                    opt(f.tracking_signal),
-                    f.history.to_string(),
-                    f.alerts
-                        .iter()
-                        .map(|a| a.kind.key())
-                        .collect::<Vec<_>>()
-                        .join(" "),
-                    f.alerts
-                        .iter()
-                        .map(|a| a.reason.as_str())
-                        .collect::<Vec<_>>()
-                        .join(" | "),
-                    f.notes.join(" | "),
-                    changed.into(),
-                    String::new(),
-                ]
-            }
-            Err(problem) => {
-                let mut r = vec![String::new(); ORDER_PLAN_COLUMNS.len()];
-                r[0] = row.name.clone();
-                r[ORDER_PLAN_COLUMNS.len() - 2] = changed.into();
-                r[ORDER_PLAN_COLUMNS.len() - 1] = problem.clone();
-                r
+        let mut record = vec![String::new(); ORDER_PLAN_COLUMNS.len()];
+        let mut set = |column: &str, value: String| {
+            let i = ORDER_PLAN_COLUMNS.iter().position(|c| *c == column);
+            debug_assert!(i.is_some(), "no order plan column {column}");
+            if let Some(i) = i {
+                record[i] = value;
             }
         };
+        set("name", row.name.clone());
+        set("changed_on_board", changed.into());
+        match &row.figures {
+            Ok(f) => {
+                set("next_forecast", num(f.next));
+                set("next_low", num(f.next_lower));
+                set("next_high", num(f.next_upper));
+                set("band_level", num(f.level));
+                set("method", f.method.clone());
+                set("demand_class", f.demand_class.clone());
+                set(
+                    "season_length",
+                    f.season.map(|s| s.to_string()).unwrap_or_default(),
+                );
+                set("trend", f.trend.clone());
+                set("holdout_mase", opt(f.mase));
+                set("holdout_bias", num(f.bias));
+                set("tracking_signal", opt(f.tracking_signal));
+                set("history_periods", f.history.to_string());
+                let kinds: Vec<&str> = f.alerts.iter().map(|a| a.kind.key()).collect();
+                set("alerts", kinds.join(" "));
+                let reasons: Vec<&str> = f.alerts.iter().map(|a| a.reason.as_str()).collect();
+                set("alert_reasons", reasons.join(" | "));
+                match &f.stock {
+                    Ok(s) => {
+                        let (kind, value) = match s.target {
+                            Target::CycleService(v) => ("cycle_service_level", v),
+                            Target::FillRate(v) => ("fill_rate", v),
+                        };
+                        set(
+                            "policy",
+                            if s.periodic { "periodic" } else { "continuous" }.into(),
+                        );
+                        set("lead_time", s.lead_time.to_string());
+                        set(
+                            "review_period",
+                            s.review_period.map(|r| r.to_string()).unwrap_or_default(),
+                        );
+                        set("protection_periods", s.protection_periods.to_string());
+                        set("distribution", s.distribution.clone());
+                        set("demand_over_protection", num(s.demand_over_protection));
+                        set("sd_over_protection", num(s.sd_over_protection));
+                        set("target_kind", kind.into());
+                        set("target", num(value));
+                        set("safety_stock", num(s.safety_stock));
+                        let level = if s.periodic {
+                            "order_up_to"
+                        } else {
+                            "reorder_point"
+                        };
+                        set(level, num(s.level_units));
+                        set("on_hand", opt(s.on_hand));
+                        set("on_order", opt(s.on_order));
+                        set("suggested_order", opt(s.suggested_order));
+                        set("cycle_service_level", num(s.cycle_service_level));
+                        set("fill_rate", num(s.fill_rate));
+                        set("notes", s.notes.join(" | "));
+                    }
+                    Err(problem) => set("problem", problem.clone()),
+                }
+            }
+            Err(problem) => set("problem", problem.clone()),
+        }
         let _ = w.write_record(record);
     }
     w.into_inner()

@@ -13,13 +13,13 @@ use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, Ta
 
 use super::board::{
     how_many, look_back_cell, order_plan_csv, sort_rows, units, AlertFilter, Filter, ItemChange,
-    SortKey, COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN,
+    SortKey, COLUMNS, LOOK_BACK_COLUMN, ROWS_SHOWN, STOCK_COLUMNS,
 };
 use super::browser;
 use super::export::file_name;
 use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
-use crate::worker::{BoardFigures, BoardRow};
+use crate::worker::{BoardFigures, BoardRow, BoardStock};
 
 fn periods(n: usize) -> String {
     how_many(n, ("period", "periods"))
@@ -56,27 +56,72 @@ fn cell(f: &BoardFigures, key: SortKey) -> String {
             units(f.next_lower),
             units(f.next_upper)
         ),
-        SortKey::DemandOver => format!(
-            "{} ± {} in {}",
-            units(f.demand_over_protection),
-            units(f.sd_over_protection),
-            periods(f.protection_periods)
-        ),
-        SortKey::SafetyStock => units(f.safety_stock),
-        SortKey::Level => format!(
-            "{} {}",
-            if f.periodic { "up to" } else { "at" },
-            units(f.level_units)
-        ),
-        SortKey::Order => match (f.suggested_order, f.on_hand) {
-            (Some(order), _) => units(order),
-            (None, Some(_)) => "held back (notes)".into(),
-            (None, None) => "needs on hand".into(),
-        },
+        SortKey::DemandOver | SortKey::SafetyStock | SortKey::Level | SortKey::Order => {
+            match &f.stock {
+                Ok(s) => stock_cell(s, key),
+                // The row draws why in one cell across the stock columns.
+                Err(_) if key == SortKey::Order => "no stock figures".into(),
+                Err(_) => String::new(),
+            }
+        }
         SortKey::Alerts => f.alerts.len().to_string(),
         // The row's own, not the figures' (board rows draw it).
         SortKey::LookBack => String::new(),
         SortKey::File | SortKey::Name => String::new(),
+    }
+}
+
+/// The cell of a stock column.
+fn stock_cell(s: &BoardStock, key: SortKey) -> String {
+    match key {
+        SortKey::DemandOver => format!(
+            "{} ± {} in {}",
+            units(s.demand_over_protection),
+            units(s.sd_over_protection),
+            periods(s.protection_periods)
+        ),
+        SortKey::SafetyStock => units(s.safety_stock),
+        SortKey::Level => format!(
+            "{} {}",
+            if s.periodic { "up to" } else { "at" },
+            units(s.level_units)
+        ),
+        SortKey::Order => match (s.suggested_order, s.on_hand) {
+            (Some(order), _) => units(order),
+            (None, Some(_)) => "held back (notes)".into(),
+            (None, None) => "needs on hand".into(),
+        },
+        _ => String::new(),
+    }
+}
+
+/// An item's stock figures and notes, in its Stock plan.
+fn stock_figures(f: &BoardStock) -> impl IntoView {
+    let level = if f.periodic {
+        "Order-up-to level"
+    } else {
+        "Reorder point"
+    };
+    let target = match f.target {
+        Target::CycleService(v) => format!("cycle service level {}", percent(v)),
+        Target::FillRate(v) => format!("fill rate {}", percent(v)),
+    };
+    view! {
+        <dl class="figures" id="item-stock-figures">
+            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {} periods, lead time {}", f.review_period.unwrap_or(0), f.lead_time) } else { format!("continuous review, lead time {}", f.lead_time) }}</dd>
+            <dt>"Target"</dt><dd>{target}</dd>
+            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods), units(f.sd_over_protection), f.distribution)}</dd>
+            <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
+            <dt>{level}</dt><dd>{units(f.level_units)}</dd>
+            <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>
+            <dt>"Order today"</dt><dd id="item-order-today">{match (f.suggested_order, f.on_hand) {
+                (Some(order), _) => units(order),
+                (None, Some(_)) => "none suggested: see the notes".into(),
+                (None, None) => "none suggested: on hand unknown".into(),
+            }}</dd>
+            <dt>"Expected service"</dt><dd>{format!("cycle service level {}, fill rate {}", percent(f.cycle_service_level), percent(f.fill_rate))}</dd>
+        </dl>
+        <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
     }
 }
 
@@ -189,7 +234,7 @@ pub fn ItemBoard() -> impl IntoView {
                     }>
                         <option value="all">"every item"</option>
                         <option value="any">"items with an alert"</option>
-                        <option value="failed">"items without figures"</option>
+                        <option value="failed">"items without stock figures"</option>
                         {AlertKind::ALL.into_iter().map(|k| view! {
                             <option value=k.key()>{format!("alert: {}", k.title().to_lowercase())}</option>
                         }).collect_view()}
@@ -244,17 +289,28 @@ pub fn ItemBoard() -> impl IntoView {
                                             {changed.then(|| view! { <span class="changed-mark" title="changed on the board">" (changed)"</span> })}
                                         </th>
                                         {match &row.figures {
-                                            Ok(f) => look_back.into_iter().chain(COLUMNS.iter().map(|c| {
+                                            Ok(f) => look_back.into_iter().chain(COLUMNS.iter().filter_map(|c| {
+                                                // Without stock figures, why stands in one cell across the stock columns.
+                                                if let Err(why) = &f.stock {
+                                                    match c.key {
+                                                        SortKey::DemandOver => {
+                                                            let span = STOCK_COLUMNS.len().to_string();
+                                                            return Some(view! { <td class="problem" colspan=span><span class="why">{format!("No stock figures: {why}")}</span></td> }.into_any());
+                                                        }
+                                                        k if STOCK_COLUMNS.contains(&k) => return None,
+                                                        _ => {}
+                                                    }
+                                                }
                                                 let text = cell(f, c.key);
                                                 let beyond = c.key == SortKey::Tracking && f.tracking_beyond;
                                                 if c.key == SortKey::Alerts {
                                                     let titles: Vec<String> = f.alerts.iter().map(|a| a.kind.title().to_string()).collect();
                                                     let reasons: String = f.alerts.iter().map(|a| a.reason.clone()).collect::<Vec<_>>().join(" ");
                                                     let none = titles.is_empty();
-                                                    view! { <td class="alerts" class:none=none title=reasons>{if none { "none".to_string() } else { titles.join(", ") }}</td> }.into_any()
+                                                    Some(view! { <td class="alerts" class:none=none title=reasons>{if none { "none".to_string() } else { titles.join(", ") }}</td> }.into_any())
                                                 } else {
                                                     let title = (c.key == SortKey::Method).then(|| f.method.clone());
-                                                    view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any()
+                                                    Some(view! { <td class:num=c.numeric class:beyond=beyond title=title>{text}</td> }.into_any())
                                                 }
                                             })).collect_view().into_any(),
                                             Err(e) => view! { {look_back}<td class="problem" colspan=COLUMNS.len().to_string()><span class="why">{format!("No stock figures: {e}")}</span></td> }.into_any(),
@@ -513,29 +569,13 @@ pub fn ItemStock() -> impl IntoView {
                 },
                 Some(BoardRow { figures: Err(e), .. }) => view! { <p class="lead problem">{format!("No stock figures: {e}.")}</p> }.into_any(),
                 Some(BoardRow { figures: Ok(f), .. }) => {
-                    let level = if f.periodic { "Order-up-to level" } else { "Reorder point" };
-                    let target = match f.target {
-                        Target::CycleService(v) => format!("cycle service level {}", percent(v)),
-                        Target::FillRate(v) => format!("fill rate {}", percent(v)),
-                    };
-                    view! {
-                        <dl class="figures" id="item-stock-figures">
-                            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {} periods, lead time {}", f.review_period.unwrap_or(0), f.lead_time) } else { format!("continuous review, lead time {}", f.lead_time) }}</dd>
-                            <dt>"Target"</dt><dd>{target}</dd>
-                            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods), units(f.sd_over_protection), f.distribution)}</dd>
-                            <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
-                            <dt>{level}</dt><dd>{units(f.level_units)}</dd>
-                            <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>
-                            <dt>"Order today"</dt><dd id="item-order-today">{match (f.suggested_order, f.on_hand) {
-                                (Some(order), _) => units(order),
-                                (None, Some(_)) => "none suggested: see the notes".into(),
-                                (None, None) => "none suggested: on hand unknown".into(),
-                            }}</dd>
-                            <dt>"Expected service"</dt><dd>{format!("cycle service level {}, fill rate {}", percent(f.cycle_service_level), percent(f.fill_rate))}</dd>
-                        </dl>
-                        <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
+                    let alerts = view! {
                         <ul class="plain alerts-list">{f.alerts.iter().map(|a| view! { <li><strong>{format!("{}: ", a.kind.title())}</strong>{a.reason.clone()}</li> }).collect_view()}</ul>
-                    }.into_any()
+                    };
+                    match &f.stock {
+                        Err(e) => view! { <p class="lead problem">{format!("No stock figures: {e}.")}</p>{alerts} }.into_any(),
+                        Ok(s) => view! { {stock_figures(s)}{alerts} }.into_any(),
+                    }
                 }
             }}
             <form class="item-change" on:submit=move |ev| { ev.prevent_default(); apply(()); }>

@@ -13,10 +13,11 @@ use morrowcast_engine::backtest::Candidate;
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::intake::StockRow;
 use morrowcast_engine::lookback::{look_back, LookBack};
-use morrowcast_engine::order::{plan_order, ItemOrder};
+use morrowcast_engine::order::{plan_order, ItemOrder, OrderError};
+use morrowcast_engine::plan::ItemPlan;
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
-use morrowcast_engine::stock::{StockText, Target};
+use morrowcast_engine::stock::{StockPlan, StockText, Target};
 
 /// One item to plan for the board.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -77,6 +78,16 @@ pub struct BoardFigures {
     pub next_upper: f64,
     /// The band's level in percent.
     pub level: f64,
+    /// Why the item needs attention, if it does (standing with or without stock figures).
+    pub alerts: Vec<Alert>,
+    /// The stock figures, or why there are none (a new item's history too short for their
+    /// spread): the plan and its alerts stand either way.
+    pub stock: Result<BoardStock, String>,
+}
+
+/// The stock figures of a row.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BoardStock {
     /// Continuous (reorder point) or periodic (order-up-to level) review.
     pub periodic: bool,
     pub lead_time: usize,
@@ -96,9 +107,32 @@ pub struct BoardFigures {
     pub suggested_order: Option<f64>,
     pub cycle_service_level: f64,
     pub fill_rate: f64,
-    pub alerts: Vec<Alert>,
     /// The Stock plan's notes.
     pub notes: Vec<String>,
+}
+
+impl BoardStock {
+    fn new(stock: &StockPlan) -> BoardStock {
+        let f = &stock.figures;
+        BoardStock {
+            periodic: stock.settings.review_period().is_some(),
+            lead_time: stock.settings.lead_time(),
+            review_period: stock.settings.review_period(),
+            protection_periods: stock.protection_periods,
+            distribution: stock.distribution.key().to_string(),
+            demand_over_protection: stock.demand_over_protection,
+            sd_over_protection: stock.sd_over_protection,
+            target: stock.settings.target(),
+            safety_stock: f.safety_stock,
+            level_units: f.level,
+            on_hand: stock.position.map(|p| p.on_hand),
+            on_order: stock.position.map(|p| p.on_order),
+            suggested_order: stock.suggested_order,
+            cycle_service_level: f.cycle_service_level,
+            fill_rate: f.fill_rate,
+            notes: stock.notes.clone(),
+        }
+    }
 }
 
 /// One row of the board: an item and its figures, or why it has none.
@@ -116,9 +150,12 @@ pub struct BoardRow {
 }
 
 impl BoardFigures {
-    /// The row's figures from an item's plan, Stock plan and alerts.
-    pub fn new(order: &ItemOrder) -> BoardFigures {
-        let (plan, stock) = (&order.plan, &order.stock);
+    /// The row's figures from an item's plan, its alerts and its Stock plan or why it has none.
+    pub fn new(
+        plan: &ItemPlan,
+        alerts: &[Alert],
+        stock: Result<&StockPlan, String>,
+    ) -> BoardFigures {
         let scored = plan
             .backtest
             .ranking
@@ -127,7 +164,6 @@ impl BoardFigures {
         let last = plan.ledger.last().map(|e| &e.row);
         let tracking_signal = last.and_then(|r| r.tracking_signal);
         let next = plan.forecast.first().map(|f| f.band);
-        let f = &stock.figures;
         BoardFigures {
             demand_class: plan.demand.class.as_str().to_string(),
             season: plan.season.length,
@@ -146,23 +182,24 @@ impl BoardFigures {
             next_lower: next.map_or(f64::NAN, |b| b.low),
             next_upper: next.map_or(f64::NAN, |b| b.high),
             level: plan.level.percent(),
-            periodic: stock.settings.review_period().is_some(),
-            lead_time: stock.settings.lead_time(),
-            review_period: stock.settings.review_period(),
-            protection_periods: stock.protection_periods,
-            distribution: stock.distribution.key().to_string(),
-            demand_over_protection: stock.demand_over_protection,
-            sd_over_protection: stock.sd_over_protection,
-            target: stock.settings.target(),
-            safety_stock: f.safety_stock,
-            level_units: f.level,
-            on_hand: stock.position.map(|p| p.on_hand),
-            on_order: stock.position.map(|p| p.on_order),
-            suggested_order: stock.suggested_order,
-            cycle_service_level: f.cycle_service_level,
-            fill_rate: f.fill_rate,
-            alerts: order.alerts.clone(),
-            notes: stock.notes.clone(),
+            alerts: alerts.to_vec(),
+            stock: stock.map(BoardStock::new),
+        }
+    }
+
+    /// The row's figures from an item's order, or from a plan without stock figures (the
+    /// plan and alerts stand); `Err` when the item has no plan at all.
+    pub fn of(order: Result<ItemOrder, OrderError>) -> Result<BoardFigures, String> {
+        match order {
+            Ok(order) => Ok(BoardFigures::new(
+                &order.plan,
+                &order.alerts,
+                Ok(&order.stock),
+            )),
+            Err(OrderError::NoStockFigures { why, plan, alerts }) => {
+                Ok(BoardFigures::new(&plan, &alerts, Err(why.to_string())))
+            }
+            Err(e) => Err(e.to_string()),
         }
     }
 }
@@ -185,16 +222,14 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                     (Err(why.clone()), (ask.look_back > 0).then_some(Err(why)))
                 }
                 Ok(defaults) => (
-                    plan_order(
+                    BoardFigures::of(plan_order(
                         series,
                         settings,
                         defaults,
                         item.row.as_ref(),
                         ask.table_given,
                         ask.file_end,
-                    )
-                    .map(|order| BoardFigures::new(&order))
-                    .map_err(|e| e.to_string()),
+                    )),
                     (ask.look_back > 0).then(|| {
                         look_back(
                             series,

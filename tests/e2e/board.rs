@@ -562,6 +562,47 @@ fn an_unfinished_last_period_is_said_above_the_figures() {
     assert_eq!(kept.as_str(), Some(us.as_str()));
 }
 
+/// A new item of five months: its row shows its forecast and its "New item" alert, with why
+/// it has no stock figures in one cell across the stock columns (the command line's words);
+/// the "New item" filter finds it and its own Stock plan lists the alert.
+#[test]
+fn a_new_items_row_shows_its_alert_and_forecast_without_stock_figures() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    wait_until_planned(browser, 6);
+    let text = crate::support::with_a_new_item();
+    paste(browser, &text);
+    wait_until_planned(browser, 2);
+    let run = cli(&["stock", "-", "--json"], text.as_bytes());
+    let message = run.json()["failed"][0]["message"]
+        .as_str()
+        .unwrap()
+        .to_string();
+    let why = message.split("; its alerts:").next().unwrap().to_string();
+    browser.wait_for_args(
+        "the row with its alert, forecast and why",
+        "const row = [...document.querySelectorAll('#board-table tbody tr')]            .find(r => r.querySelector('th').textContent.startsWith('Solar lantern'));          if (!row) return false;          const problem = row.querySelector('td.problem');          return row.querySelector('td.alerts').textContent === 'New item'            && !!problem && problem.colSpan === 3            && problem.textContent === 'No stock figures: ' + arguments[0]            && [...row.querySelectorAll('td')].some(td => /^\\d+(\\.\\d)? \\(/.test(td.textContent));",
+        json!([why]),
+        WAIT,
+    );
+    browser.js(
+        "const s = document.getElementById('board-alert'); s.value = 'new_item';          s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    assert_eq!(shown_names(browser), ["Solar lantern"]);
+    save_screenshot(browser, "board-new-item.png");
+    browser.js("document.querySelector('#board-table .open-item').click()");
+    wait_for_item(browser, "Solar lantern");
+    browser.wait_for_args(
+        "the item's Stock plan with why and its alert",
+        "const s = document.getElementById('item-stock');          return !!s && s.textContent.includes('No stock figures: ' + arguments[0])            && s.querySelector('.alerts-list').textContent.startsWith('New item: ');",
+        json!([why]),
+        WAIT,
+    );
+}
+
 /// A wide table whose column for one item is empty over its last months: its row gives no
 /// figures and says why (the command line's words), the "could not be planned" filter finds
 /// it, and its own Stock plan says the same; the other items are planned.

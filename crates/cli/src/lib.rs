@@ -305,11 +305,26 @@ fn stock(
                 file_end,
             )
             .map(|o| (o.plan, o.stock, o.alerts))
-            .map_err(|e| e.to_string())
+            .map_err(failure_with_alerts)
         },
         |(plan, stock, alerts)| StockItemJson::new(plan, stock, alerts),
         |(plan, stock, alerts)| table::stock(plan, stock, alerts),
     )
+}
+
+/// Why an item has no stock figures, and, where it was planned, its alerts (a new item's
+/// "New item" stands without figures, as on the page's board).
+fn failure_with_alerts(e: order::OrderError) -> String {
+    match &e {
+        order::OrderError::NoStockFigures { alerts, .. } if !alerts.is_empty() => {
+            let said: Vec<String> = alerts
+                .iter()
+                .map(|a| format!("{} ({})", a.kind.title(), a.reason))
+                .collect();
+            format!("{e}; its alerts: {}", said.join("; "))
+        }
+        _ => e.to_string(),
+    }
 }
 
 /// A stock table's errors (written, and the exit code) or its warnings and the rows of items

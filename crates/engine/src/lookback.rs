@@ -360,10 +360,7 @@ pub fn look_back(
     // A plan without a Stock plan (too short a history for its spread) is still looked back on.
     let (plan, stock_plan) = match plan_order(&earlier, settings, defaults, row, false, None) {
         Ok(order) => (order.plan, Ok(order.stock)),
-        Err(OrderError::Stock(why)) => (
-            plan_item(&earlier, settings).map_err(plan_failed)?,
-            Err(why.to_string()),
-        ),
+        Err(OrderError::NoStockFigures { why, plan, .. }) => (*plan, Err(why.to_string())),
         Err(e) => return Err(LookBackError::Order(e)),
     };
     let mut forecast: Vec<(ForecastPoint, bool)> =

@@ -31,8 +31,19 @@ pub struct ItemOrder {
 pub enum OrderError {
     /// The item could not be planned.
     Plan(PlanError),
-    /// The item's stock settings or figures failed.
+    /// The item's stock settings failed.
     Stock(StockError),
+    /// The item was planned, but its stock figures could not be worked out (too short a
+    /// history for their spread, say): the plan and its alerts stand (a new item's row still
+    /// shows its forecast and its "New item" alert).
+    NoStockFigures {
+        /// Why there are no figures.
+        why: StockError,
+        /// The plan, as [`ItemOrder::plan`].
+        plan: Box<ItemPlan>,
+        /// Its alerts, as [`ItemOrder::alerts`].
+        alerts: Vec<Alert>,
+    },
     /// A horizon the user set does not reach over the item's protection interval.
     HorizonShort {
         /// The horizon set.
@@ -56,7 +67,7 @@ impl fmt::Display for OrderError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             OrderError::Plan(e) => e.fmt(f),
-            OrderError::Stock(e) => e.fmt(f),
+            OrderError::Stock(e) | OrderError::NoStockFigures { why: e, .. } => e.fmt(f),
             OrderError::HorizonShort { horizon, periods } => write!(
                 f,
                 "the horizon of {horizon} periods is shorter than this item's protection \
@@ -158,11 +169,20 @@ pub fn plan_order(
             }
         }
     }
-    let mut stock = plan_stock(&plan, &stock_settings).map_err(OrderError::Stock)?;
+    let alerts = alerts(&plan, series);
+    let mut stock = match plan_stock(&plan, &stock_settings) {
+        Ok(stock) => stock,
+        Err(why) => {
+            return Err(OrderError::NoStockFigures {
+                why,
+                plan: Box::new(plan),
+                alerts,
+            })
+        }
+    };
     if table_given && row.is_none() {
         stock.notes.push(NO_ROW_NOTE.to_string());
     }
-    let alerts = alerts(&plan, series);
     // An item without demand for longer than any quiet run before (possibly discontinued)
     // still forecasts from its past, slowly let down: an order from that is not one to
     // place unread (a review found 30 suggested for an item unsold for 8 months).
