@@ -164,6 +164,32 @@ fn beyond_the_scenarios(spread: Spread, p: f64, floor: f64) -> (Beyond, f64, f64
     }
 }
 
+/// E[(D - level)+] under the distribution of `spread` ([`beyond_the_scenarios`]'s): for counts
+/// mean - s + sum_{k <= s} (s - k) P(k), for amounts the gamma's loss.
+fn distribution_loss(spread: Spread, level: f64) -> f64 {
+    let mean = spread.mean.max(0.0);
+    let variance = spread.sd * spread.sd;
+    if mean <= 0.0 {
+        return 0.0;
+    }
+    let count_walk = mean + 60.0 * variance.max(mean).sqrt() + 100.0;
+    if spread.whole_units && count_walk.max(level) <= 1e6 {
+        let (_, log_p) = count_log_probability(mean, variance);
+        let below: f64 = (0..=level.max(0.0).floor() as u64)
+            .map(|k| (level - k as f64) * log_p(k as f64).exp())
+            .sum();
+        return (mean - level + below).max(0.0);
+    }
+    if variance <= 0.0 {
+        return (mean - level).max(0.0);
+    }
+    let (shape, rate) = (mean * mean / variance, mean / variance);
+    match (Gamma::new(shape, rate), Gamma::new(shape + 1.0, rate)) {
+        (Ok(g), Ok(g1)) => (mean * g1.sf(level) - level * g.sf(level)).max(0.0),
+        _ => (mean - level).max(0.0),
+    }
+}
+
 /// Figures from demand scenarios D_i over the protection interval (at least two). For a cycle
 /// service target p the level is the ceil((n + 1) p)-th smallest D_i ([`conformal_rank`]); with
 /// fewer than [`totals_needed`] it comes from [`Beyond`] with the mean and spread of
@@ -172,11 +198,13 @@ fn beyond_the_scenarios(spread: Spread, p: f64, floor: f64) -> (Beyond, f64, f64
 /// shortage falls steadily from the mean minus the level, below every D_i, to 0 at the
 /// largest). The cycle service a level gives is the count of D_i at or below it over n + 1,
 /// the conformal estimate for a new demand (the model's P(D <= level) beyond the
-/// scenarios), and the fill rate 1 - shortage / C. The safety stock is the level minus
-/// `spread.mean`, today's expected total.
+/// scenarios), and the fill rate 1 - shortage / C, the shortage under a cycle-service target
+/// the larger of the scenarios' mean excess and the distribution's loss at the level. The
+/// safety stock is the level minus `spread.mean`, today's expected total.
 ///
 /// Held out on made-up sparse items (`cargo bench --bench stock_lab`), the type-7 quantile
-/// it replaced held 89.9 % at a 95 % target while stating 94.9 %.
+/// it replaced held 89.9 % at a 95 % target while stating 94.9 %; the shortage stated is
+/// still below the one held out (0.21 against 0.38 units per cycle at 95 %).
 pub fn empirical_figures(
     spread: Spread,
     scenarios: &[f64],
@@ -206,7 +234,10 @@ pub fn empirical_figures(
         }
         Target::CycleService(p) => {
             let level = sorted[conformal_rank(n, p) - 1];
-            (level, held_share(level), shortage(&sorted, level), None)
+            // The totals' mean excess is 0 at the largest of them, as if no demand could
+            // pass it: the distribution's loss at the same level stands in where larger.
+            let short = shortage(&sorted, level).max(distribution_loss(spread, level));
+            (level, held_share(level), short, None)
         }
         Target::FillRate(beta) => {
             let wanted = (1.0 - beta) * cycle_demand;
@@ -292,13 +323,23 @@ mod tests {
         // Scenarios 0..=9 (mean 4.5), n = 10: the ceil(11 p)-th smallest, service = count at or
         // below over 11.
         let d: Vec<f64> = (0..10).map(f64::from).rev().collect();
-        let s = spread(4.5, 3.0, true);
+        // Amounts without spread: the distribution's loss is (4.5 - level)+, never above the
+        // scenarios' mean excess here.
+        let s = spread(4.5, 0.0, false);
         // 90 %: rank ceil(9.9) = 10, the largest: no shortage, 10 of 11.
         check(
             s,
             &d,
             Target::CycleService(0.9),
             (9.0, 0.0, 10.0 / 11.0, None),
+        );
+        // The same level under the negative binomial of mean 2 and variance 4 (below): its
+        // loss at 9, sum_{j >= 9} P(D > j) = 26 / 2^11, stands for the totals' 0.
+        check(
+            spread(2.0, 2.0, true),
+            &d,
+            Target::CycleService(0.9),
+            (9.0, 26.0 / 2048.0, 10.0 / 11.0, None),
         );
         // 50 %: rank 6, the value 5; shortage (1 + 2 + 3 + 4) / 10 = 1.0; 6 of 11.
         check(
