@@ -94,12 +94,17 @@ pub fn totals_needed(p: f64, periods: usize) -> usize {
     scenarios_needed(p).saturating_mul(periods.max(1))
 }
 
+/// The largest count walked one by one ([`beyond_the_scenarios`]); above it, the gamma.
+const COUNT_WALK_LIMIT: f64 = 1e5;
+
 /// A count distribution's probabilities P(0), P(1), ... in logarithms: the negative binomial
 /// with this mean and variance, P(k) = Gamma(k + r) / (Gamma(r) k!) q^r (1 - q)^k with
 /// q = mean / variance and r = mean^2 / (variance - mean), or the Poisson where the variance is
 /// not above the mean.
 fn count_log_probability(mean: f64, variance: f64) -> (Beyond, impl Fn(f64) -> f64) {
-    let negative_binomial = variance > mean;
+    // Within a millionth of the mean the negative binomial's r runs to millions and its
+    // log-gamma differences lose digits; the Poisson is the same distribution there.
+    let negative_binomial = variance > mean * (1.0 + 1e-6);
     let (q, r) = if negative_binomial {
         (mean / variance, mean * mean / (variance - mean))
     } else {
@@ -124,10 +129,10 @@ fn count_log_probability(mean: f64, variance: f64) -> (Beyond, impl Fn(f64) -> f
 fn beyond_the_scenarios(spread: Spread, p: f64, floor: f64) -> (Beyond, f64, f64, f64) {
     let mean = spread.mean.max(0.0);
     let variance = spread.sd * spread.sd;
-    // Counts are walked one by one: past a million the walk would take too long, and
-    // there the gamma is as good as a count distribution.
+    // Counts are walked one by one: past a hundred thousand the walk would take too long
+    // (milliseconds per item), and there the gamma is as good as a count distribution.
     let count_walk = mean + 60.0 * variance.max(mean).sqrt() + 100.0;
-    if spread.whole_units && count_walk.max(floor) <= 1e6 {
+    if spread.whole_units && count_walk.max(floor) <= COUNT_WALK_LIMIT {
         let (kind, log_p) = count_log_probability(mean, variance);
         if mean <= 0.0 {
             return (kind, floor.max(0.0), 1.0, 0.0);
@@ -173,7 +178,7 @@ fn distribution_loss(spread: Spread, level: f64) -> f64 {
         return 0.0;
     }
     let count_walk = mean + 60.0 * variance.max(mean).sqrt() + 100.0;
-    if spread.whole_units && count_walk.max(level) <= 1e6 {
+    if spread.whole_units && count_walk.max(level) <= COUNT_WALK_LIMIT {
         let (_, log_p) = count_log_probability(mean, variance);
         let below: f64 = (0..=level.max(0.0).floor() as u64)
             .map(|k| (level - k as f64) * log_p(k as f64).exp())
@@ -420,6 +425,22 @@ mod tests {
             &[0.5, 1.0, 1.5],
             Target::CycleService(0.95),
             (-2.0 * 0.05f64.ln(), 0.1, 0.95, Some(Beyond::Gamma)),
+        );
+        // Counts past a hundred thousand take the gamma (a walk would take too long): mean
+        // 200,000 and sd 1,000 is near normal there, 200,000 + 1.645 * 1,000 give or take
+        // the gamma's slight skew.
+        let big = empirical_figures(
+            spread(200_000.0, 1_000.0, true),
+            &[199_000.0, 200_500.0],
+            10.0,
+            Target::CycleService(0.95),
+        )
+        .unwrap();
+        assert_eq!(big.beyond, Some(Beyond::Gamma));
+        assert!(
+            (big.figures.level - 201_650.0).abs() < 15.0,
+            "{}",
+            big.figures.level
         );
         // Nothing expected and nothing in the past: a level of 0, nothing short.
         check(
