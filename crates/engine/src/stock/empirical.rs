@@ -16,7 +16,7 @@
 use statrs::distribution::{ContinuousCDF, Gamma};
 use statrs::function::gamma::ln_gamma;
 
-use super::{check_quantity, Figures, StockError, Target};
+use super::{check_quantity, traditional_fill_rate, Figures, StockError, Target};
 
 /// What today's demand over the protection interval is known to be besides the scenarios:
 /// its expected total and spread (the root mean square of the origins' errors), and whether
@@ -232,43 +232,25 @@ pub fn empirical_figures(
     let (lowest, highest) = (sorted[0], sorted[n - 1]);
     let held_share =
         |level: f64| sorted.iter().filter(|d| **d <= level).count() as f64 / (n + 1) as f64;
-    let (level, service, expected_shortage, beyond) = match target {
+    // One shortage for every target: the totals' mean excess is 0 at the largest of them, as
+    // if no demand could pass it, so the distribution's loss stands in where larger.
+    let short = |level: f64| shortage(&sorted, level).max(distribution_loss(spread, level));
+    let (level, service, beyond) = match target {
         Target::CycleService(p) if n < totals_needed(p, spread.periods) => {
-            let (kind, level, service, loss) = beyond_the_scenarios(spread, p, highest);
-            (level, service, loss, Some(kind))
+            let (kind, level, service, _) = beyond_the_scenarios(spread, p, highest);
+            (level, service, Some(kind))
         }
         Target::CycleService(p) => {
             let level = sorted[conformal_rank(n, p) - 1];
-            // The totals' mean excess is 0 at the largest of them, as if no demand could
-            // pass it: the distribution's loss at the same level stands in where larger.
-            let short = shortage(&sorted, level).max(distribution_loss(spread, level));
-            (level, held_share(level), short, None)
+            (level, held_share(level), None)
         }
         Target::FillRate(beta) => {
-            let wanted = (1.0 - beta) * cycle_demand;
-            let average = sorted.iter().sum::<f64>() / n as f64;
-            let level = if average - lowest <= wanted {
-                // Below every scenario the shortage is the mean minus the level.
-                average - wanted
-            } else {
-                let (mut low, mut high) = (lowest, highest);
-                for _ in 0..200 {
-                    let mid = 0.5 * (low + high);
-                    if mid <= low || mid >= high {
-                        break;
-                    }
-                    if shortage(&sorted, mid) > wanted {
-                        low = mid;
-                    } else {
-                        high = mid;
-                    }
-                }
-                0.5 * (low + high)
-            };
-            (level, held_share(level), shortage(&sorted, level), None)
+            let level = level_for_shortage((1.0 - beta) * cycle_demand, lowest, highest, &short);
+            (level, held_share(level), None)
         }
     };
-    let fill_rate = 1.0 - expected_shortage / cycle_demand;
+    let expected_shortage = short(level);
+    let fill_rate = traditional_fill_rate(expected_shortage, cycle_demand);
     Ok(EmpiricalFigures {
         figures: Figures {
             safety_factor: None,
@@ -281,6 +263,40 @@ pub fn empirical_figures(
         },
         beyond,
     })
+}
+
+/// The level whose shortage per cycle is `wanted`, for a shortage that falls steadily as the
+/// level rises: below every scenario it is the mean minus the level (the distribution's
+/// loss, never more there, aside); above, found by bisection between the lowest scenario and
+/// a level where the shortage is below `wanted` (doubling past the largest scenario, where
+/// only the distribution's tail is left).
+fn level_for_shortage(wanted: f64, lowest: f64, highest: f64, short: &impl Fn(f64) -> f64) -> f64 {
+    if short(lowest) <= wanted {
+        // Below every scenario the shortage grows one for one as the level falls.
+        return lowest - (wanted - short(lowest));
+    }
+    let mut high = highest.max(lowest + 1.0);
+    let mut step = (highest - lowest).max(1.0);
+    for _ in 0..60 {
+        if short(high) <= wanted {
+            break;
+        }
+        high += step;
+        step *= 2.0;
+    }
+    let mut low = lowest;
+    for _ in 0..200 {
+        let mid = 0.5 * (low + high);
+        if mid <= low || mid >= high {
+            break;
+        }
+        if short(mid) > wanted {
+            low = mid;
+        } else {
+            high = mid;
+        }
+    }
+    0.5 * (low + high)
 }
 
 #[cfg(test)]

@@ -484,6 +484,16 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                     "the lead time's spread is not applied to the empirical model".to_string(),
                 );
             }
+            if let Some(season) = plan.season.length {
+                // A review found a Nov-Dec item planned in January given 59 to cover a month
+                // that sells nothing, and one planned in September 43 against a coming 115.
+                notes.push(format!(
+                    "its demand follows a season of {season} periods, which these totals do \
+                     not: they pool every time of year, so the level runs high in its quiet \
+                     periods and can fall short before its busy ones; weigh the order against \
+                     the season (the Look-ahead and the Pattern view show it)"
+                ));
+            }
             let spread = Spread {
                 mean: protection.mean(),
                 sd: origins_sd,
@@ -503,9 +513,10 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
                 // Targets are read to a tenth of a percent at most.
                 let target = (1000.0 * p).round() / 10.0;
                 notes.push(format!(
-                    "{} past totals are too few to show a {target} % cycle service level (that \
-                     needs {}{over}): the level comes from a {} distribution of the same mean \
-                     and spread, and is at least the largest past total",
+                    "{} past demand totals over the protection interval are too few to support \
+                     a {target} % cycle service level (that needs {}{over}): the level comes \
+                     from a {} distribution of the same mean and spread, and is at least the \
+                     largest past total",
                     scenarios.len(),
                     totals_needed(p, periods),
                     beyond.name()
@@ -514,6 +525,14 @@ pub fn plan_stock(plan: &ItemPlan, settings: &StockSettings) -> Result<StockPlan
             empirical.figures
         }
     };
+    if figures.expected_shortage > cycle_demand {
+        notes.push(format!(
+            "the shortage per cycle ({:.2}) is more than the demand per cycle ({:.2}): the \
+             traditional fill rate, 1 - shortage / demand per cycle, would go below 0 and is \
+             shown as 0 %; ordering more at a time raises it",
+            figures.expected_shortage, cycle_demand
+        ));
+    }
     if origins_used > 0 && origins_used < 10 {
         notes.push(format!(
             "the spread rests on only {origins_used} rolling-origin totals: treat the safety \

@@ -118,13 +118,22 @@ impl fmt::Display for StockError {
             StockError::ShortPlan { periods, .. } => write!(
                 f,
                 "fewer than 2 rolling origins in the history reach over the {periods}-period \
-                 protection interval: the history is too short for a protection interval this long"
+                 protection interval, so how far the forecast goes wrong over it cannot be \
+                 measured yet (a new item, or a history short for this lead time): judge the \
+                 order from the forecast and its band"
             ),
         }
     }
 }
 
 impl std::error::Error for StockError {}
+
+/// 1 - ESC / C, the traditional fill rate, floored at 0: where the shortage per cycle exceeds
+/// the demand per cycle (an order quantity small against the spread) the formula goes below
+/// 0, which no fill rate can; the Stock plan says so in a note.
+pub fn traditional_fill_rate(expected_shortage: f64, cycle_demand: f64) -> f64 {
+    (1.0 - expected_shortage / cycle_demand).max(0.0)
+}
 
 pub(crate) fn check_fraction(what: &'static str, value: f64) -> Result<f64, StockError> {
     if value > 0.0 && value < 1.0 {

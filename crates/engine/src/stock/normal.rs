@@ -8,7 +8,9 @@ use std::f64::consts::PI;
 
 use statrs::distribution::{ContinuousCDF, Normal};
 
-use super::{check_quantity, Figures, IntervalDemand, Review, StockError, Target};
+use super::{
+    check_quantity, traditional_fill_rate, Figures, IntervalDemand, Review, StockError, Target,
+};
 
 /// The standard normal density phi(k).
 fn density(k: f64) -> f64 {
@@ -181,7 +183,7 @@ pub fn figures(
         level,
         expected_shortage,
         cycle_service_level: normal_cdf(k),
-        fill_rate: 1.0 - expected_shortage / cycle_demand,
+        fill_rate: traditional_fill_rate(expected_shortage, cycle_demand),
         fill_rate_exact: 1.0 - exact_shortage / cycle_demand,
     })
 }
