@@ -144,6 +144,121 @@ fn quarters_beside_a_year_make_one_quarterly_period() {
     );
 }
 
+// Parts of a year written with their word or a full stop beside a year column ("Qtr 1",
+// "Quarter 2", "Jan.", "01-Jan", "Month 1", "M01", "Week 1", "Wk 1"): a review found each read
+// as yearly items, "Qtr 1" to "Qtr 4", with no warning, and a reorder point for "Qtr 1". Now
+// the periods they mean.
+#[test]
+fn parts_of_a_year_written_with_their_word_beside_a_year_are_read_as_those_parts() {
+    let cases: [(&str, [&str; 3], [&str; 3]); 9] = [
+        (
+            "Quarter",
+            ["Qtr 1", "Qtr 2", "Qtr 3"],
+            ["2023-Q1", "2023-Q2", "2023-Q3"],
+        ),
+        (
+            "Quarter",
+            ["Quarter 1", "Quarter 2", "Quarter 3"],
+            ["2023-Q1", "2023-Q2", "2023-Q3"],
+        ),
+        (
+            "Month",
+            ["Jan.", "Feb.", "Mar."],
+            ["2023-01", "2023-02", "2023-03"],
+        ),
+        (
+            "Month",
+            ["01-Jan", "02-Feb", "03-Mar"],
+            ["2023-01", "2023-02", "2023-03"],
+        ),
+        (
+            "Month",
+            ["Month 1", "Month 2", "Month 3"],
+            ["2023-01", "2023-02", "2023-03"],
+        ),
+        (
+            "Month",
+            ["M01", "M02", "M03"],
+            ["2023-01", "2023-02", "2023-03"],
+        ),
+        (
+            "Week",
+            ["Week 1", "Week 2", "Week 3"],
+            ["2023-W01", "2023-W02", "2023-W03"],
+        ),
+        (
+            "Week",
+            ["Wk 1", "Wk 2", "Wk 3"],
+            ["2023-W01", "2023-W02", "2023-W03"],
+        ),
+        (
+            "Week",
+            ["W 1", "W 2", "W 3"],
+            ["2023-W01", "2023-W02", "2023-W03"],
+        ),
+    ];
+    for (header, parts, periods) in cases {
+        let rows: Vec<(u32, &str, f64)> = parts
+            .iter()
+            .enumerate()
+            .map(|(i, p)| (2023, *p, 10.0 + i as f64))
+            .collect();
+        check(
+            &table(&format!("Year,{header},Bird seed"), &rows),
+            Expect {
+                items: Some(vec![("Bird seed", some(&[10.0, 11.0, 12.0]))]),
+                periods: Some(periods.to_vec()),
+                ..Expect::default()
+            },
+        );
+    }
+}
+
+// Halves and numbered (fiscal) periods beside a year have no place on the calendar: they had
+// been read as yearly items ("H1", "P01" to "P13"; in a long table "P1 / Bird seed"), without
+// a word. Refused at the first such row, naming the column and the text, with what to write;
+// a part written in no form read is refused the same way.
+#[test]
+fn a_part_of_a_year_that_no_calendar_places_is_refused_not_read_as_items() {
+    for (header, first) in [("Half", "H1"), ("Period", "P01"), ("Fiscal period", "P01")] {
+        let rows: Vec<(u32, &str, f64)> = [first, "X2", first]
+            .iter()
+            .enumerate()
+            .map(|(i, p)| (2023 + i as u32 / 2, *p, 10.0))
+            .collect();
+        check(
+            &table(&format!("Year,{header},Bird seed"), &rows),
+            Expect {
+                errors: vec![(2, header, first)],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Year,Period,Item,Qty\n2021,P1,Bird seed,70\n2021,P1,Suet ball,64\n2021,P2,Bird seed,65\n",
+        Expect {
+            errors: vec![(2, "Period", "P1")],
+            ..Expect::default()
+        },
+    );
+    let report = read(&table(
+        "Year,Quarter,Bird seed",
+        &[
+            (2023, "First", 1.0),
+            (2023, "Second", 2.0),
+            (2023, "Third", 3.0),
+        ],
+    ));
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    assert!(
+        report.errors[0]
+            .message
+            .starts_with("expected a quarter: 1 to 4 or Q1 to Q4 beside the year"),
+        "{:?}",
+        report.errors[0]
+    );
+}
+
 // A week column beside a year (`year,week,sales`, refused before as repeated years) is read
 // as ISO 8601 weeks; a week the ISO year does not have is an error at its row (2025 has 52).
 #[test]

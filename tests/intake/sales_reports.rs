@@ -676,3 +676,66 @@ fn a_thousands_dot_among_an_items_larger_values_is_an_error_in_long_and_across_t
         },
     );
 }
+
+// A wide table with each item's money or returns beside its quantity ("Seeds qty", "Seeds
+// value"; "Seeds", "Seeds (EUR)", "Seeds margin"; "Bulbs", "Bulbs refunds"): a review found
+// the money and returns columns planned as items, a reorder point of 212 for "Seeds value",
+// without a word. Now left out, each named with the item it belongs to; an item whose name
+// holds a money word stays an item where no other column shares its name.
+#[test]
+fn an_items_money_or_returns_beside_its_quantity_are_not_items() {
+    check(
+        "Month,Seeds qty,Seeds value,Bulbs qty,Bulbs value\n2023-01,68,170.00,21,84.00\n2023-02,60,150.00,25,100.00\n2023-03,64,160.00,23,92.00\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds qty", some(&[68.0, 60.0, 64.0])),
+                ("Bulbs qty", some(&[21.0, 25.0, 23.0])),
+            ]),
+            warned: vec![vec![
+                "\"Seeds value\" names the money of the item in column \"Seeds qty\"",
+            ]],
+            ..Expect::default()
+        },
+    );
+    for money in [
+        "Seeds (EUR)",
+        "Seeds margin",
+        "Seeds price",
+        "Seeds turnover",
+    ] {
+        check(
+            &format!(
+                "Month,Seeds,{money}\n2024-01,40,100.50\n2024-02,42,105.00\n2024-03,38,95.00\n"
+            ),
+            Expect {
+                items: Some(vec![("Seeds", some(&[40.0, 42.0, 38.0]))]),
+                warned: vec![vec![money, "the money of the item in column \"Seeds\""]],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Month,Seeds,Seeds (returns),Bulbs,Bulbs refunds\n2023-01,53,0,36,0\n2023-02,50,2,30,1\n2023-03,55,1,33,0\n",
+        Expect {
+            items: Some(vec![
+                ("Seeds", some(&[53.0, 50.0, 55.0])),
+                ("Bulbs", some(&[36.0, 30.0, 33.0])),
+            ]),
+            warned: vec![vec![
+                "\"Bulbs refunds\" names the goods returned of the item in column \"Bulbs\"",
+            ]],
+            ..Expect::default()
+        },
+    );
+    // No other column shares the name: "Value pack" and "Gift card" are items.
+    check(
+        "Month,Value pack,Gift card\n2024-01,4,5\n2024-02,6,7\n2024-03,8,9\n",
+        Expect {
+            items: Some(vec![
+                ("Value pack", some(&[4.0, 6.0, 8.0])),
+                ("Gift card", some(&[5.0, 7.0, 9.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+}

@@ -12,7 +12,7 @@
 //! refused: its months fall in two calendar years, and read as calendar months the rows
 //! would be put in the wrong order.
 
-use super::label::{parse_label, year_of, Family};
+use super::label::{calendar_name, parse_label, year_of, Family};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::RowError;
@@ -39,6 +39,24 @@ impl YearPart {
             YearPart::Month => &["month", "mth"],
             YearPart::Quarter => &["quarter", "qtr"],
             YearPart::Week => &super::table::WEEK_WORDS,
+        }
+    }
+
+    /// Words a part's number is written after in a cell ("Qtr 1", "Week 1", "M01").
+    fn prefixes(self) -> &'static [&'static str] {
+        match self {
+            YearPart::Month => &["month", "mth", "m"],
+            YearPart::Quarter => &["quarter", "qtr", "q"],
+            YearPart::Week => &["week", "wk", "w"],
+        }
+    }
+
+    /// What a cell of this part is written as, for a refusal.
+    fn forms(self) -> &'static str {
+        match self {
+            YearPart::Month => "a month: 1 to 12 or a month name such as Jan or January",
+            YearPart::Quarter => "a quarter: 1 to 4 or Q1 to Q4",
+            YearPart::Week => "an ISO week: 1 to 53 or W1 to W53",
         }
     }
 
@@ -127,7 +145,7 @@ impl SplitPeriod {
                 })
                 .find(|split| reads_as(split, how.family()))
         }) else {
-            return Ok(None);
+            return unread_part(table, rows, year).map_or(Ok(None), Err);
         };
         let name = table.column_name(year);
         if header_says(&name, &FISCAL_WORDS) {
@@ -181,7 +199,8 @@ impl SplitPeriod {
             Some(y) if written.len() == 2 && whole_number(written) => y.to_string(),
             _ => written.to_string(),
         };
-        let part = cell(self.part).trim();
+        let part = part_text(cell(self.part), self.how);
+        let part = part.as_str();
         let number = whole_number(part)
             .then(|| part.parse::<u32>().ok())
             .flatten();
@@ -215,4 +234,121 @@ impl SplitPeriod {
             _ => String::new(),
         }
     }
+}
+
+/// A part cell as the joined label takes it: a number written after its part's word ("Qtr 1",
+/// "Quarter 2", "Week 1", "Wk 1", "M01", "Month 1") becomes the number, and a month cell
+/// holding one month name beside a number or a full stop ("Jan.", "01-Jan") the name. A
+/// review found each of these beside a year read as yearly items, "Qtr 1" to "Qtr 4",
+/// without a word.
+fn part_text(cell: &str, how: YearPart) -> String {
+    let cell = cell.trim();
+    // Runs of letters and runs of digits: "M01" is "M", "01"; "01-Jan" is "01", "Jan".
+    let mut tokens: Vec<String> = Vec::new();
+    for c in cell.chars() {
+        let kind = |c: char| (c.is_ascii_digit(), c.is_alphabetic());
+        match tokens.last_mut() {
+            Some(t) if t.chars().last().is_some_and(|l| kind(l) == kind(c)) => t.push(c),
+            _ if c.is_alphanumeric() => tokens.push(c.to_string()),
+            _ => tokens.push(String::new()),
+        }
+    }
+    tokens.retain(|t| !t.is_empty());
+    let digits = |t: &str| t.bytes().all(|b| b.is_ascii_digit());
+    match tokens.as_slice() {
+        [word, number]
+            if digits(number) && how.prefixes().iter().any(|p| word.eq_ignore_ascii_case(p)) =>
+        {
+            number.clone()
+        }
+        _ if how == YearPart::Month => {
+            let names: Vec<&String> = tokens.iter().filter(|t| !digits(t)).collect();
+            match names.as_slice() {
+                [name] if tokens.len() <= 2 && calendar_name(name) && !digits(name) => {
+                    (*name).clone()
+                }
+                _ => cell.to_string(),
+            }
+        }
+        _ => cell.to_string(),
+    }
+}
+
+/// Header words of a column counting periods within a year that no calendar holds: halves
+/// and numbered (fiscal) periods.
+const UNPLACED_PART_WORDS: [&str; 5] = ["half", "semester", "period", "per", "fiscal"];
+
+/// Beside a year column, a column named as a part of the year ([`YearPart::words`], or halves
+/// and numbered periods) whose cells neither join the year into periods nor read as periods
+/// themselves: the error at its first such row. Left alone, its cells would be read as the
+/// names of yearly items ("Qtr 1" to "Qtr 4", "P01" to "P13"), a silent misread.
+fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError> {
+    table.header.as_ref()?;
+    (0..table.width).filter(|j| *j != year).find_map(|j| {
+        let name = table.column_name(j);
+        let part = YearPart::ALL
+            .into_iter()
+            .find(|part| header_is_only(&name, part.words()));
+        let unplaced = part.is_none()
+            && header_is_only(&name, &UNPLACED_PART_WORDS)
+            && header_says(&name, &["half", "semester", "period", "per"]);
+        if part.is_none() && !unplaced {
+            return None;
+        }
+        let cells = table.column(j, rows);
+        let filled: Vec<(usize, &str)> = cells
+            .iter()
+            .enumerate()
+            .filter(|(_, c)| !c.trim().is_empty())
+            .map(|(i, c)| (i, *c))
+            .collect();
+        // Only text that would be read as item names: a column of numbers is read (or
+        // refused) as numbers are ("Qtr 1" across the header, a period count beside a
+        // decimal time), and cells that read as periods by themselves make this column the
+        // period's.
+        let text = filled
+            .iter()
+            .filter(|(_, c)| c.chars().any(char::is_alphabetic) && parse_label(c).is_none())
+            .count();
+        if filled.is_empty() || text * 2 <= filled.len() {
+            return None;
+        }
+        let (at, text) = match part {
+            Some(how) => {
+                let split = SplitPeriod {
+                    year,
+                    part: j,
+                    how,
+                    day: None,
+                };
+                let labels = split.labels(rows);
+                let bad = filled.iter().find(|(i, _)| {
+                    parse_label(&labels[*i]).is_none_or(|l| l.family() != how.family())
+                })?;
+                *bad
+            }
+            None => filled[0],
+        };
+        let message = match part {
+            Some(how) => format!(
+                "expected {} beside the year in column \"{}\"",
+                how.forms(),
+                table.column_name(year)
+            ),
+            None => format!(
+                "expected a month, quarter or week beside the year in column \"{}\": \
+                 halves and periods numbered within a year (P01 to P13, as four-week periods) \
+                 cannot be placed on the calendar; write each row's period as a calendar month \
+                 or a date (the period's first day), or, if they are calendar months, name the \
+                 column \"month\"",
+                table.column_name(year)
+            ),
+        };
+        Some(RowError {
+            row: rows[at].line,
+            column: name,
+            text: text.trim().to_string(),
+            message,
+        })
+    })
 }

@@ -687,6 +687,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     calendar.sort_unstable();
     // Beside the quantities of a single or wide table, a price or an order number is no item
     // (`Date,Unit price,Sales units`); a long table chooses its quantity by the same words.
+    let value_names: Vec<String> = values.iter().map(|j| table.column_name(*j)).collect();
     let not_quantities: Vec<usize> = if long {
         Vec::new()
     } else {
@@ -696,7 +697,10 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             .filter(|j| {
                 let name = table.column_name(*j);
                 table.header.is_some()
-                    && (names_money(&name) || names_order_number(&name) || names_no_demand(&name))
+                    && (names_money(&name)
+                        || names_order_number(&name)
+                        || names_no_demand(&name)
+                        || of_another(&name, &value_names).is_some())
             })
             .collect()
     };
@@ -1183,6 +1187,64 @@ pub(super) fn names_money(name: &str) -> bool {
         .collect();
     let allowed: Vec<&str> = money.iter().chain(&MONEY_COMPANIONS).copied().collect();
     holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
+}
+
+/// Header words that name goods returned or refunded, not sold.
+const RETURN_WORDS: [&str; 5] = ["returns", "return", "returned", "refunds", "refund"];
+
+/// What a header names about another column's item.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(super) enum OfAnother {
+    /// Its money: a price, a value, a margin, an amount in a currency.
+    Money,
+    /// Its goods returned or refunded.
+    Returns,
+}
+
+/// Whether a header names the money or the returns of the item another header names (and
+/// which): its
+/// words, less money, return, quantity and unit words and their companions, are another
+/// header's words so reduced, that one naming neither money nor returns ("Seeds value" beside
+/// "Seeds qty", "Seeds (EUR)" or "Seeds margin" beside "Seeds", "Bulbs refunds" beside
+/// "Bulbs"). A review found such columns of a wide table planned as items, a reorder point
+/// of 212 for "Seeds value", without a word. A header reduced to nothing ("Revenue") is
+/// [`names_money`]'s.
+pub(super) fn of_another(name: &str, others: &[String]) -> Option<(OfAnother, String)> {
+    let says_money = |n: &str| holds_currency_sign(n) || header_says(n, &MONEY_WORDS);
+    let says_unit = |n: &str| header_says(n, &UNIT_WORDS);
+    let kind = if header_says(name, &RETURN_WORDS) {
+        OfAnother::Returns
+    } else if says_money(name) && !says_unit(name) {
+        OfAnother::Money
+    } else {
+        return None;
+    };
+    let dropped: Vec<&str> = MONEY_WORDS
+        .iter()
+        .chain(&MONEY_COMPANIONS)
+        .chain(&RETURN_WORDS)
+        .chain(&UNIT_WORDS)
+        .chain(&QUANTITY_WORDS)
+        .copied()
+        .collect();
+    let stem = |n: &str| -> Vec<String> {
+        header_words(n)
+            .iter()
+            .map(|w| w.to_lowercase())
+            .filter(|w| !dropped.contains(&w.as_str()))
+            .collect()
+    };
+    let own = stem(name);
+    let beside = |other: &String| {
+        other != name
+            && !header_says(other, &RETURN_WORDS)
+            && (!says_money(other) || says_unit(other))
+            && stem(other) == own
+    };
+    if own.is_empty() {
+        return None;
+    }
+    others.iter().find(|o| beside(o)).map(|o| (kind, o.clone()))
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
