@@ -941,3 +941,57 @@ fn items_numbered_in_the_header_are_read_by_their_codes() {
         },
     );
 }
+
+// Weekly dates are named by a week's first or last day as the header says: "Week starting"
+// 2023-12-31, a Sunday, names the week to 2024-01-06, six of whose days are in 2024-W01; it
+// had been shown as 2023-W52, every week a week early, whatever the header said. "Week
+// ending" on the same Sunday is 2023-W52, and so is a date under no such word (its own ISO
+// week); a Monday start is its own week either way.
+#[test]
+fn a_headers_week_starting_or_ending_names_the_week_its_dates_mean() {
+    for (header, dates, first) in [
+        (
+            "Week starting",
+            ["2023-12-31", "2024-01-07", "2024-01-14"],
+            "2024-W01",
+        ),
+        (
+            "Week commencing",
+            ["2024-01-01", "2024-01-08", "2024-01-15"],
+            "2024-W01",
+        ),
+        (
+            "Week ending",
+            ["2023-12-31", "2024-01-07", "2024-01-14"],
+            "2023-W52",
+        ),
+        (
+            "Week ending",
+            ["2023-12-30", "2024-01-06", "2024-01-13"],
+            "2023-W52",
+        ),
+        (
+            "Week",
+            ["2023-12-31", "2024-01-07", "2024-01-14"],
+            "2023-W52",
+        ),
+    ] {
+        let text = format!(
+            "{header},Rope coil\n{},10\n{},12\n{},11\n",
+            dates[0], dates[1], dates[2]
+        );
+        let report = check(
+            &text,
+            Expect {
+                items: Some(vec![("Rope coil", some(&[10.0, 12.0, 11.0]))]),
+                frequency: Some(Frequency::Weekly),
+                ..Expect::default()
+            },
+        );
+        assert_eq!(
+            report.items[0].periods[0].to_string(),
+            first,
+            "{header} {dates:?}"
+        );
+    }
+}

@@ -739,3 +739,44 @@ fn an_items_money_or_returns_beside_its_quantity_are_not_items() {
         },
     );
 }
+
+// A rate or a share beside the items ("Sell-through rate" 0.55 to 0.90, "Share of sales" in
+// percent) had been planned as items, with reorder points; "Units per case" had been read as
+// the demand beside "Cases" (a reorder point of 6 with no spread). A review's probes; now
+// left out, warned, and "Cases" read.
+#[test]
+fn rates_shares_and_units_per_case_are_not_the_demand() {
+    check(
+        "Month,Slug pellets,Fleece,Sell-through rate\n2023-01,53,140,0.60\n2023-02,50,130,0.55\n2023-03,58,150,0.90\n",
+        Expect {
+            items: Some(vec![
+                ("Slug pellets", some(&[53.0, 50.0, 58.0])),
+                ("Fleece", some(&[140.0, 130.0, 150.0])),
+            ]),
+            warned: vec![vec!["\"Sell-through rate\"", "a rate or a share", "not used"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Slug pellets,Share of sales,Fleece\n2024-01,40,25%,120\n2024-02,42,26%,118\n2024-03,41,25%,119\n",
+        Expect {
+            items: Some(vec![
+                ("Slug pellets", some(&[40.0, 42.0, 41.0])),
+                ("Fleece", some(&[120.0, 118.0, 119.0])),
+            ]),
+            warned: vec![vec!["\"Share of sales\"", "not used"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Item,Cases,Units per case\n2023-01,Seed compost,24,6\n2023-01,Peat-free mix,29,4\n2023-02,Seed compost,20,6\n2023-02,Peat-free mix,31,4\n",
+        Expect {
+            items: Some(vec![
+                ("Seed compost", some(&[24.0, 20.0])),
+                ("Peat-free mix", some(&[29.0, 31.0])),
+            ]),
+            warned: vec![vec!["\"Units per case\" was not used", "read from \"Cases\""]],
+            ..Expect::default()
+        },
+    );
+}

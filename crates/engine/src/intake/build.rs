@@ -27,7 +27,7 @@ use std::collections::{HashMap, HashSet};
 
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
-use super::period::read_periods;
+use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::names_no_demand;
 use super::table::{header_says, names_weeks, of_another, wide_row_error, OfAnother, Plan, Table};
 use super::text::Record;
@@ -411,7 +411,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
                 format!("the money of the item in column \"{other}\", not a quantity")
             }
             None if names_no_demand(&name) => "a stock level, goods received or returned, a \
-                 running total or a share, not the demand"
+                 running total, a rate or a share, not the demand"
                 .to_string(),
             None => "a price, an amount of money or an order number, not a quantity".to_string(),
         };
@@ -486,7 +486,11 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             Some(labels) => labels.iter().map(String::as_str).collect(),
             None => table.column(p, &kept),
         };
-        let col = read_periods(&cells, meaning);
+        let anchor = match (&table.header, &plan.split) {
+            (Some(_), None) => WeekAnchor::of_header(&table.column_name(p)),
+            _ => WeekAnchor::Unsaid,
+        };
+        let col = read_periods_anchored(&cells, meaning, anchor);
         // Week.year is written the same way: said where no header names months.
         let months = [
             "month", "months", "monthly", "mth", "monat", "mois", "maand", "mes", "mese",

@@ -309,7 +309,66 @@ fn times_of_day(cells: &[&str], errors: &mut Vec<(usize, String)>, warnings: &mu
 
 /// Reads every cell of a period column. Empty cells are errors (a row needs its period), and so
 /// are the periods the module doc refuses.
+/// Which day of its week a weekly date names, as the column's header says ("Week starting",
+/// "Week ending"); unsaid, the date's own ISO week is taken.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum WeekAnchor {
+    Unsaid,
+    /// The week's first day: the week runs from the date for 7 days.
+    Start,
+    /// The week's last day: the week runs for 7 days up to the date.
+    End,
+}
+
+impl WeekAnchor {
+    /// Header words naming a week's first day.
+    const START_WORDS: [&'static str; 7] = [
+        "starting",
+        "start",
+        "starts",
+        "beginning",
+        "begins",
+        "commencing",
+        "from",
+    ];
+    /// Header words naming a week's last day.
+    const END_WORDS: [&'static str; 5] = ["ending", "end", "ends", "to", "until"];
+
+    /// The anchor a period column's header names.
+    pub(crate) fn of_header(name: &str) -> WeekAnchor {
+        if super::table::header_says(name, &Self::START_WORDS) {
+            WeekAnchor::Start
+        } else if super::table::header_says(name, &Self::END_WORDS) {
+            WeekAnchor::End
+        } else {
+            WeekAnchor::Unsaid
+        }
+    }
+
+    /// The day whose ISO week holds most of the week the date names: the week's middle day,
+    /// 3 days after its start or before its end (a week of 7 days has 4 or more in that ISO
+    /// week). "Week starting" 2023-12-31, a Sunday, is 2024-W01 (6 of its 7 days), not
+    /// 2023-W52 as the date's own ISO week would have it (a review's probe).
+    fn middle(self, days: i64) -> i64 {
+        match self {
+            WeekAnchor::Unsaid => days,
+            WeekAnchor::Start => days + 3,
+            WeekAnchor::End => days - 3,
+        }
+    }
+}
+
 pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> PeriodColumn {
+    read_periods_anchored(cells, integers, WeekAnchor::Unsaid)
+}
+
+/// [`read_periods`] of a column whose header may name which day of its week a weekly date
+/// is ([`WeekAnchor`]).
+pub(crate) fn read_periods_anchored(
+    cells: &[&str],
+    integers: Option<IntegerMeaning>,
+    anchor: WeekAnchor,
+) -> PeriodColumn {
     let (labels, family, compact): (Vec<Option<Label>>, Family, Option<&str>) = match integers {
         Some(IntegerMeaning::CompactDates) => (
             cells.iter().map(|c| compact_date(c)).collect(),
@@ -410,7 +469,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
                     *d = None;
                 }
             }
-            let (periods, frequency) = dated(&column_days);
+            let (periods, frequency) = dated(&column_days, anchor);
             days = Some(column_days);
             (periods, frequency, compact.unwrap_or(kind))
         }
@@ -475,7 +534,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         // A stray date can hide the frequency of the others (monthly dates and one typo on
         // the 15th read as daily): infer it again from the dates kept, and check once more.
         if let Some(days) = &days {
-            (periods, frequency) = dated(days);
+            (periods, frequency) = dated(days, anchor);
             for (i, message) in stray_periods(&periods) {
                 periods[i] = None;
                 errors.push((i, message));
@@ -490,7 +549,21 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
         .next()
         .and_then(|first| Some((first, first.monday()?)))
         .map(|(first, monday)| {
-            format!(", a week apart, shown as ISO weeks, Monday to Sunday ({first} is the week from {monday})")
+            let named = match anchor {
+                WeekAnchor::Unsaid => "",
+                WeekAnchor::Start => {
+                    "; the header names each week by its first day, and each is shown as the \
+                     ISO week holding most of its days"
+                }
+                WeekAnchor::End => {
+                    "; the header names each week by its last day, and each is shown as the \
+                     ISO week holding most of its days"
+                }
+            };
+            format!(
+                ", a week apart, shown as ISO weeks, Monday to Sunday ({first} is the week from \
+                 {monday}){named}"
+            )
         });
     let apart = match (family, frequency) {
         (Family::Date | Family::TwoWay, Frequency::Weekly) => {
@@ -511,11 +584,16 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
 }
 
 /// The periods of dates (day numbers) at the frequency they imply.
-fn dated(days: &[Option<i64>]) -> (Vec<Option<Period>>, Frequency) {
+fn dated(days: &[Option<i64>], anchor: WeekAnchor) -> (Vec<Option<Period>>, Frequency) {
     let frequency = infer_frequency(&days.iter().flatten().copied().collect::<Vec<_>>());
     let periods = days
         .iter()
-        .map(|d| d.map(|d| date_period(d, frequency)))
+        .map(|d| {
+            d.map(|d| match frequency {
+                Frequency::Weekly => date_period(anchor.middle(d), frequency),
+                _ => date_period(d, frequency),
+            })
+        })
         .collect();
     (periods, frequency)
 }

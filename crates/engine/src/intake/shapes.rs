@@ -280,10 +280,14 @@ const RUNNING_COMPANIONS: [&str; 12] = [
     "date",
 ];
 
+/// Header words that name a rate or a ratio, never a quantity sold.
+const RATIO_WORDS: [&str; 5] = ["rate", "ratio", "percent", "percentage", "pct"];
+
 /// Whether a header names a stock level, goods received or returned, a running total or a
 /// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to
-/// date", "On order", "Goods in", a percent sign not after a number): "Qty on hand", "YTD
-/// Units", "Year to date", "Mix %" do; "Stock" alone (a flower), "Stock 500", "Gin 40%", "Stock pot",
+/// date", "On order", "Goods in", a percent sign not after a number), or a rate or share
+/// ([`RATIO_WORDS`], "Share of ..."): "Qty on hand", "YTD Units", "Year to date", "Mix %",
+/// "Sell-through rate", "Share of sales" do; "Stock" alone (a flower), "Stock 500", "Gin 40%", "Stock pot",
 /// "Stock sales" and "Sales" do not. Read as demand, such a column would be planned as an
 /// item (a wide table) or read as the quantity sold (a long table's "Units in stock" before
 /// "Units sold"). Common practice: sales reports carry these columns beside the sales.
@@ -324,7 +328,11 @@ pub(super) fn names_no_demand(name: &str) -> bool {
         [w, n] => ALONE_AMBIGUOUS.contains(&w.as_str()) && digits(n),
         _ => false,
     };
+    // A rate or a share of something ("Sell-through rate", "Share of sales", "Margin %").
+    let ratio =
+        header_says(name, &RATIO_WORDS) || words.starts_with(&["share".into(), "of".into()]);
     share
+        || ratio
         || inbound
         || (!ambiguous
             && (only(&STOCK_WORDS, &STOCK_COMPANIONS)

@@ -1271,8 +1271,11 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
     if table.header.is_none() {
         return 0;
     }
+    // "Units per case" is a conversion, not a count sold (a review found it read as the
+    // demand beside "Cases").
     let not_demand = |j: usize| {
         says(j, &MONEY_WORDS)
+            || says(j, &["per"])
             || holds_currency_sign(&table.column_name(j))
             || names_no_demand(&table.column_name(j))
     };
