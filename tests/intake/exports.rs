@@ -995,3 +995,50 @@ fn a_headers_week_starting_or_ending_names_the_week_its_dates_mean() {
         );
     }
 }
+
+// A weekly table with one week dated a day off (a Saturday among Sundays) had been read as
+// daily, six days of every week "closed", with a reorder point over one day for a weekly
+// demand of about 15. Now the odd date is an error at its rows, naming both weekdays; a
+// market open on Saturdays and Sundays stays a table of days.
+#[test]
+fn a_weekly_column_with_a_date_a_day_off_refuses_that_date() {
+    let mut text = String::from("Week ending,Item,Qty\n");
+    let start = morrowcast_engine::calendar::days_from_civil(2024, 1, 7);
+    for w in 0..12i64 {
+        let day = start + 7 * w - i64::from(w == 5);
+        let (y, m, d) = morrowcast_engine::calendar::civil_from_days(day);
+        for (item, qty) in [("Rope coil", 15 + w), ("Tarp", 9 + w)] {
+            text.push_str(&format!("{y}-{m:02}-{d:02},{item},{qty}\n"));
+        }
+    }
+    check(
+        &text,
+        Expect {
+            errors: vec![
+                (12, "Week ending", "2024-02-10"),
+                (13, "Week ending", "2024-02-10"),
+            ],
+            ..Expect::default()
+        },
+    );
+    let report = read(&text);
+    assert!(
+        report.errors[0]
+            .message
+            .starts_with("expected a Sunday like the other dates of this column, a week apart; this date is a Saturday"),
+        "{:?}",
+        report.errors[0]
+    );
+    let mut market = String::from("Date,Item,Qty\n");
+    for w in 0..10i64 {
+        for (offset, qty) in [(0, 4), (1, 6)] {
+            let (y, m, d) = morrowcast_engine::calendar::civil_from_days(
+                morrowcast_engine::calendar::days_from_civil(2024, 1, 6) + 7 * w + offset,
+            );
+            market.push_str(&format!("{y}-{m:02}-{d:02},Honey jar,{qty}\n"));
+        }
+    }
+    let report = read(&market);
+    assert!(report.errors.is_empty(), "{:?}", report.errors);
+    assert_eq!(report.frequency, Frequency::Daily);
+}

@@ -36,7 +36,9 @@ use std::ops::RangeInclusive;
 
 use super::dates::{date_period, infer_frequency, two_way_days};
 use super::label::{parse_label, Family, Label};
-use crate::calendar::{civil_from_days, days_from_civil, is_valid_date, Frequency, Period};
+use crate::calendar::{
+    civil_from_days, days_from_civil, is_valid_date, weekday, Frequency, Period,
+};
 use crate::settings::MAX_HORIZON;
 
 /// Years that plain whole numbers and 8- or 6-digit dates may name: plausible years of sales
@@ -541,6 +543,32 @@ pub(crate) fn read_periods_anchored(
             }
         }
     }
+    // A weekly column with a date or two a day off (a week dated on its Saturday among
+    // Sundays) reads as daily, its other days "closed": those dates are errors at their rows,
+    // and the rest read as weeks. A review found a reorder point over one day for a weekly
+    // demand of about 15 so.
+    if frequency == Frequency::Daily {
+        if let Some(column_days) = days.as_mut() {
+            let off = off_weekday(column_days);
+            if !off.is_empty() {
+                for (i, usual) in off {
+                    let found = column_days[i].map_or(0, weekday);
+                    errors.push((
+                        i,
+                        format!(
+                            "expected a {} like the other dates of this column, a week apart; \
+                             this date is a {}: check it (one date a day off makes the whole \
+                             column read as days)",
+                            WEEKDAY_NAMES[usual as usize], WEEKDAY_NAMES[found as usize]
+                        ),
+                    ));
+                    column_days[i] = None;
+                    periods[i] = None;
+                }
+                (periods, frequency) = dated(column_days, anchor);
+            }
+        }
+    }
     // Weeks are shown as ISO weeks whatever weekday the file names them by: say which
     // dates the first one holds, so "2024-W01" is not taken for something else.
     let weeks_shown = periods
@@ -596,6 +624,69 @@ fn dated(days: &[Option<i64>], anchor: WeekAnchor) -> (Vec<Option<Period>>, Freq
         })
         .collect();
     (periods, frequency)
+}
+
+/// Weekday names, Monday first, as [`weekday`] numbers them.
+const WEEKDAY_NAMES: [&str; 7] = [
+    "Monday",
+    "Tuesday",
+    "Wednesday",
+    "Thursday",
+    "Friday",
+    "Saturday",
+    "Sunday",
+];
+
+/// The dates of a column that is weekly but for a few: at least 8 distinct dates, at least
+/// nine in ten of them on one weekday, whose steps between them are whole weeks, and the
+/// others within 3 days of that weekday. Each such date's index with the usual weekday; empty
+/// when the column is not so (daily data, a market open two days a week).
+fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, u32)> {
+    let mut distinct: Vec<i64> = days.iter().flatten().copied().collect();
+    distinct.sort_unstable();
+    distinct.dedup();
+    if distinct.len() < 8 {
+        return Vec::new();
+    }
+    let mut count = [0usize; 7];
+    for d in &distinct {
+        count[weekday(*d) as usize] += 1;
+    }
+    let usual = (0..7).max_by_key(|w| count[*w]).unwrap_or(0) as u32;
+    let on_usual: Vec<i64> = distinct
+        .iter()
+        .copied()
+        .filter(|d| weekday(*d) == usual)
+        .collect();
+    let off = distinct.len() - on_usual.len();
+    let weekly = on_usual.windows(2).all(|w| (w[1] - w[0]) % 7 == 0);
+    let near = |d: i64| {
+        let apart = (i64::from(weekday(d)) - i64::from(usual)).rem_euclid(7);
+        apart.min(7 - apart) <= 3
+    };
+    if off == 0 || off * 10 > distinct.len() || !weekly {
+        return Vec::new();
+    }
+    let indices: Vec<(usize, u32)> = days
+        .iter()
+        .enumerate()
+        .filter_map(|(i, d)| {
+            let d = (*d)?;
+            (weekday(d) != usual)
+                .then_some((i, usual))
+                .filter(|_| near(d))
+        })
+        .collect();
+    // Every off date must be near the usual weekday, or this is no weekly column.
+    let off_rows = days
+        .iter()
+        .flatten()
+        .filter(|d| weekday(**d) != usual)
+        .count();
+    if indices.len() < off_rows {
+        return Vec::new();
+    }
+    indices
 }
 
 fn year_out_of_range() -> String {
