@@ -88,14 +88,13 @@ const RULES: [&str; 8] = [
     "the engine",
 ];
 
-/// The smallest whole s with P(D <= s) >= p under the negative binomial of this mean and
-/// variance (Poisson where the variance is not above the mean), by the recursion
-/// P(k + 1) = P(k) (k + r) / (k + 1) (1 - q).
-fn count_level(mean: f64, variance: f64, p: f64) -> f64 {
-    if mean <= 0.0 {
-        return 0.0;
-    }
-    let (mut prob, step): (f64, Box<dyn Fn(f64) -> f64>) = if variance > mean * 1.000_001 {
+/// P(0) and the step P(k + 1) / P(k) of the negative binomial of this mean and variance
+/// (Poisson where the variance is not above the mean): P(k + 1) = P(k) (k + r) / (k + 1)
+/// (1 - q), q = mean / variance, r = mean^2 / (variance - mean).
+type CountSteps = (f64, Box<dyn Fn(f64) -> f64>);
+
+fn count_steps(mean: f64, variance: f64) -> CountSteps {
+    if variance > mean * 1.000_001 {
         let q = mean / variance;
         let r = mean * mean / (variance - mean);
         (
@@ -104,7 +103,15 @@ fn count_level(mean: f64, variance: f64, p: f64) -> f64 {
         )
     } else {
         ((-mean).exp(), Box::new(move |k: f64| mean / (k + 1.0)))
-    };
+    }
+}
+
+/// The smallest whole s with P(D <= s) >= p under [`count_steps`]'s distribution.
+fn count_level(mean: f64, variance: f64, p: f64) -> f64 {
+    if mean <= 0.0 {
+        return 0.0;
+    }
+    let (mut prob, step) = count_steps(mean, variance);
     let mut total = prob;
     let mut k = 0.0;
     while total < p && k < 1e6 {
@@ -115,22 +122,12 @@ fn count_level(mean: f64, variance: f64, p: f64) -> f64 {
     k
 }
 
-/// E[(D - s)+] under the count distribution of [`count_level`].
+/// E[(D - s)+] under [`count_steps`]'s distribution: mean - s + sum_{k <= s} (s - k) P(k).
 fn count_loss(mean: f64, variance: f64, s: f64) -> f64 {
     if mean <= 0.0 {
         return 0.0;
     }
-    let (mut prob, step): (f64, Box<dyn Fn(f64) -> f64>) = if variance > mean * 1.000_001 {
-        let q = mean / variance;
-        let r = mean * mean / (variance - mean);
-        (
-            q.powf(r),
-            Box::new(move |k: f64| (k + r) / (k + 1.0) * (1.0 - q)),
-        )
-    } else {
-        ((-mean).exp(), Box::new(move |k: f64| mean / (k + 1.0)))
-    };
-    // E[(D - s)+] = mean - s + sum_{k <= s} (s - k) P(k).
+    let (mut prob, step) = count_steps(mean, variance);
     let mut below = 0.0;
     let mut k = 0.0;
     while k <= s {

@@ -328,16 +328,28 @@ fn shut_days_are_covered_until_an_order_placed_on_reopening_arrives() {
 /// A lumpy item sold only around December (invented: 21 and 149 wreaths in November and
 /// December, nothing else), planned in September.
 fn wreaths_in_september(lead_time: usize, target: f64) -> morrowcast_engine::order::ItemOrder {
-    let wreaths: Vec<Option<f64>> = [
+    let wreaths = [
         0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 21, 149, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 26, 157, 0, 0, 0, 0,
         0, 0, 0, 0, 0,
-    ]
-    .iter()
-    .map(|v| Some(f64::from(*v)))
-    .collect();
-    let stock = morrowcast_engine::stock::StockSettings::new(lead_time, None, Csl(target)).unwrap();
+    ];
+    order_of(&wreaths, lead_time, Csl(target), None)
+}
+
+/// The order of a monthly item of whole `units` over a lead time, at a target, with an order
+/// quantity or without.
+fn order_of(
+    units: &[u32],
+    lead_time: usize,
+    target: Target,
+    order_quantity: Option<f64>,
+) -> morrowcast_engine::order::ItemOrder {
+    let values: Vec<Option<f64>> = units.iter().map(|v| Some(f64::from(*v))).collect();
+    let mut stock = morrowcast_engine::stock::StockSettings::new(lead_time, None, target).unwrap();
+    if let Some(q) = order_quantity {
+        stock = stock.with_order_quantity(q).unwrap();
+    }
     plan_order(
-        &monthly(wreaths),
+        &monthly(values),
         &PlanSettings::default(),
         &stock,
         None,
@@ -433,26 +445,11 @@ fn order_with_on_hand(
 /// A holly wreath sold only in November and December (invented: 51 and 53, 31 and 44, 58
 /// and 57 over three years), planned in December for a lead time of 1.
 fn holly(target: Target, order_quantity: Option<f64>) -> morrowcast_engine::order::ItemOrder {
-    let values: Vec<Option<f64>> = [
+    let holly = [
         0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 51, 53, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 31, 44, 0, 0, 0, 0, 0,
         0, 0, 0, 0, 0, 58, 57,
-    ]
-    .iter()
-    .map(|v| Some(f64::from(*v)))
-    .collect();
-    let mut stock = morrowcast_engine::stock::StockSettings::new(1, None, target).unwrap();
-    if let Some(q) = order_quantity {
-        stock = stock.with_order_quantity(q).unwrap();
-    }
-    plan_order(
-        &monthly(values),
-        &PlanSettings::default(),
-        &stock,
-        None,
-        false,
-        None,
-    )
-    .unwrap()
+    ];
+    order_of(&holly, 1, target, order_quantity)
 }
 
 // A review found the empirical model's stated fill rate falling as the target rose (98.5 %
