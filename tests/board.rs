@@ -787,6 +787,14 @@ fn a_new_items_row_shows_its_forecast_and_alert_without_stock_figures() {
         "{}",
         run.stderr
     );
+    // In JSON, the message is why alone and the alerts stand beside it, as an item's do.
+    let json = cli(&["stock", "-", "--json"], text.as_bytes()).json();
+    let failed = &json["failed"][0];
+    assert_eq!(failed["message"].as_str(), Some(why.as_str()));
+    assert_eq!(failed["alerts"][0]["kind"], "new_item");
+    assert!(failed["alerts"][0]["reason"]
+        .as_str()
+        .is_some_and(|r| r.starts_with("only 5 periods of history")));
 }
 
 #[test]

@@ -30,8 +30,8 @@ use input::{read_any, source_name, stock_inputs, Input, Table};
 
 use args::{Command, ForecastArgs, LinkArgs, LookBackArgs, StockArgs, Written};
 use wire::{
-    FailedJson, ForecastJson, InspectJson, Later, LookBackJson, LookBackTallyJson, PlanJson,
-    StockItemJson, StockTableJson, Streamed,
+    AlertJson, FailedJson, ForecastJson, InspectJson, Later, LookBackJson, LookBackTallyJson,
+    PlanJson, StockItemJson, StockTableJson, Streamed,
 };
 
 /// Runs one command line. `argv` excludes the program name. Writes results to `stdout` and
@@ -252,8 +252,8 @@ fn forecast(
         input.report(),
         |s| {
             let own = input.item_settings(s.name(), settings);
-            let mut plan =
-                plan::plan_item(s, own.as_ref().unwrap_or(settings)).map_err(|e| e.to_string())?;
+            let mut plan = plan::plan_item(s, own.as_ref().unwrap_or(settings))
+                .map_err(|e| Failure::from(e.to_string()))?;
             // Said as the page says it under the item's headline.
             if let Some(why) = order::ends_early(s, file_end) {
                 plan.notes.push(format!(
@@ -305,25 +305,39 @@ fn stock(
                 file_end,
             )
             .map(|o| (o.plan, o.stock, o.alerts))
-            .map_err(failure_with_alerts)
+            .map_err(Failure::of_order)
         },
         |(plan, stock, alerts)| StockItemJson::new(plan, stock, alerts),
         |(plan, stock, alerts)| table::stock(plan, stock, alerts),
     )
 }
 
-/// Why an item has no stock figures, and, where it was planned, its alerts (a new item's
-/// "New item" stands without figures, as on the page's board).
-fn failure_with_alerts(e: order::OrderError) -> String {
-    match &e {
-        order::OrderError::NoStockFigures { alerts, .. } if !alerts.is_empty() => {
-            let said: Vec<String> = alerts
-                .iter()
-                .map(|a| format!("{} ({})", a.kind.title(), a.reason))
-                .collect();
-            format!("{e}; its alerts: {}", said.join("; "))
+/// Why an item could not be worked on, and, where it was planned without stock figures, its
+/// alerts (a new item's "New item" stands without figures, as on the page's board).
+struct Failure {
+    message: String,
+    alerts: Vec<morrowcast_engine::alerts::Alert>,
+}
+
+impl From<String> for Failure {
+    fn from(message: String) -> Failure {
+        Failure {
+            message,
+            alerts: Vec::new(),
         }
-        _ => e.to_string(),
+    }
+}
+
+impl Failure {
+    fn of_order(e: order::OrderError) -> Failure {
+        let alerts = match &e {
+            order::OrderError::NoStockFigures { alerts, .. } => alerts.clone(),
+            _ => Vec::new(),
+        };
+        Failure {
+            message: e.to_string(),
+            alerts,
+        }
     }
 }
 
@@ -411,7 +425,7 @@ fn look_back(
                 periods,
                 file_end,
             )
-            .map_err(|e| e.to_string())
+            .map_err(|e| Failure::from(e.to_string()))
         },
         |l| {
             tally.borrow_mut().add(l);
@@ -452,7 +466,7 @@ impl ItemRun<'_> {
         &self,
         console: &mut Console<'_>,
         report: &intake::IntakeReport,
-        work: impl Fn(&series::Series) -> Result<R, String> + Sync,
+        work: impl Fn(&series::Series) -> Result<R, Failure> + Sync,
         to_json: impl Fn(&R) -> J,
         to_text: impl Fn(&R) -> String,
     ) -> u8 {
@@ -492,11 +506,17 @@ impl ItemRun<'_> {
         let failed: RefCell<Vec<FailedJson>> = RefCell::new(Vec::new());
         let plan_one = |item: &&intake::Item| {
             item.series()
-                .map_err(|e| e.to_string())
+                .map_err(|e| Failure::from(e.to_string()))
                 .and_then(|s| work(&s))
-                .map_err(|message| FailedJson {
+                .map_err(|f| FailedJson {
                     name: item.name.clone(),
-                    message,
+                    message: f.message,
+                    alerts: AlertJson::of(&f.alerts),
+                    alerts_said: f
+                        .alerts
+                        .iter()
+                        .map(|a| format!("{} ({})", a.kind.title(), a.reason))
+                        .collect(),
                 })
         };
         parallel::in_order(&items, parallel::available_threads(), plan_one, |results| {
@@ -542,11 +562,17 @@ impl ItemRun<'_> {
                     console.out(&(closing.text)(failed.borrow().len()));
                 }
                 for f in failed.borrow().iter() {
+                    let alerts = if f.alerts_said.is_empty() {
+                        String::new()
+                    } else {
+                        format!("; its alerts: {}", f.alerts_said.join("; "))
+                    };
                     console.err(&format!(
-                        "morrowcast: {}: {}{}\n",
+                        "morrowcast: {}: {}{}{}\n",
                         table::clean(&f.name),
                         self.failed_without,
-                        table::clean(&f.message)
+                        table::clean(&f.message),
+                        table::clean(&alerts)
                     ));
                 }
             }

@@ -131,6 +131,12 @@ impl<T: Serialize, F: FnMut() -> Option<T>> Serialize for Streamed<F> {
 pub struct FailedJson {
     pub name: String,
     pub message: String,
+    /// The alerts of an item planned without stock figures (a new item's "new_item").
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub alerts: Vec<AlertJson>,
+    /// The same alerts as the text output says them ("New item (only 5 periods ...)").
+    #[serde(skip)]
+    pub alerts_said: Vec<String>,
 }
 
 #[derive(Serialize, Debug)]
@@ -326,6 +332,19 @@ pub struct AlertJson {
     pub reason: String,
 }
 
+impl AlertJson {
+    /// Each alert's kind and reason.
+    pub fn of(alerts: &[Alert]) -> Vec<AlertJson> {
+        alerts
+            .iter()
+            .map(|a| AlertJson {
+                kind: a.kind.key(),
+                reason: a.reason.clone(),
+            })
+            .collect()
+    }
+}
+
 #[derive(Serialize, Debug)]
 pub struct TargetJson {
     pub kind: &'static str,
@@ -370,13 +389,7 @@ impl StockItemJson {
             cycle_service_level: f.cycle_service_level,
             fill_rate: f.fill_rate,
             fill_rate_exact: f.fill_rate_exact,
-            alerts: alerts
-                .iter()
-                .map(|a| AlertJson {
-                    kind: a.kind.key(),
-                    reason: a.reason.clone(),
-                })
-                .collect(),
+            alerts: AlertJson::of(alerts),
             notes: st.notes.clone(),
         }
     }
