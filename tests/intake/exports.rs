@@ -996,12 +996,15 @@ fn a_headers_week_starting_or_ending_names_the_week_its_dates_mean() {
     }
 }
 
-// A weekly table with one week dated a day off (a Saturday among Sundays) had been read as
-// daily, six days of every week "closed", with a reorder point over one day for a weekly
-// demand of about 15. Now the odd date is an error at its rows, naming both weekdays; a
-// market open on Saturdays and Sundays stays a table of days.
+// A weekly table with one week dated a day off (a Saturday among Sundays, that week's Sunday
+// absent) had been read as daily, six days of every week "closed", with a reorder point over
+// one day for a weekly demand of about 15. Now the odd date is read as the week of the
+// Sunday it stands for, warned with the date. A review found a first rule (every odd date an
+// error) refusing correct daily files: a market open on Saturdays and Sundays, a Saturday
+// market with a bank holiday beside a Saturday, a slow item sold on some Saturdays and one
+// Wednesday stay daily, unwarned.
 #[test]
-fn a_weekly_column_with_a_date_a_day_off_refuses_that_date() {
+fn a_weekly_column_with_a_week_dated_a_day_off_reads_it_as_that_week() {
     let mut text = String::from("Week ending,Item,Qty\n");
     let start = morrowcast_engine::calendar::days_from_civil(2024, 1, 7);
     for w in 0..12i64 {
@@ -1011,34 +1014,92 @@ fn a_weekly_column_with_a_date_a_day_off_refuses_that_date() {
             text.push_str(&format!("{y}-{m:02}-{d:02},{item},{qty}\n"));
         }
     }
-    check(
+    let report = check(
         &text,
         Expect {
-            errors: vec![
-                (12, "Week ending", "2024-02-10"),
-                (13, "Week ending", "2024-02-10"),
-            ],
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec![
+                "a week apart on Sundays but for 2024-02-10 (a Saturday)",
+                "read as the week of the Sunday nearest it",
+            ]],
             ..Expect::default()
         },
     );
-    let report = read(&text);
-    assert!(
-        report.errors[0]
-            .message
-            .starts_with("expected a Sunday like the other dates of this column, a week apart; this date is a Saturday"),
-        "{:?}",
-        report.errors[0]
-    );
-    let mut market = String::from("Date,Item,Qty\n");
-    for w in 0..10i64 {
-        for (offset, qty) in [(0, 4), (1, 6)] {
-            let (y, m, d) = morrowcast_engine::calendar::civil_from_days(
-                morrowcast_engine::calendar::days_from_civil(2024, 1, 6) + 7 * w + offset,
-            );
-            market.push_str(&format!("{y}-{m:02}-{d:02},Honey jar,{qty}\n"));
+    assert_eq!(report.items[0].values.len(), 12);
+    assert_eq!(report.items[0].values[5], Some(20.0));
+    let dates = |days: &[(i64, u32)], from: (i32, u32, u32)| {
+        let mut text = String::from("Date,Item,Qty\n");
+        let first = morrowcast_engine::calendar::days_from_civil(from.0, from.1, from.2);
+        for (offset, qty) in days {
+            let (y, m, d) = morrowcast_engine::calendar::civil_from_days(first + offset);
+            text.push_str(&format!("{y}-{m:02}-{d:02},Honey jar,{qty}\n"));
         }
+        text
+    };
+    // Saturdays and Sundays for ten weeks.
+    let weekend: Vec<(i64, u32)> = (0..10).flat_map(|w| [(7 * w, 4), (7 * w + 1, 6)]).collect();
+    // Saturdays for twelve weeks and the Friday before the fourth (a bank holiday).
+    let mut holiday: Vec<(i64, u32)> = (0..12).map(|w| (7 * w, 5)).collect();
+    holiday.push((20, 3));
+    // A slow item sold on 9 of 30 Saturdays and one Wednesday.
+    let mut slow: Vec<(i64, u32)> = (0..30).filter(|w| w % 3 == 0).map(|w| (7 * w, 1)).collect();
+    slow.push((7 * 10 + 4, 1));
+    for days in [weekend, holiday, slow] {
+        let report = read(&dates(&days, (2024, 1, 6)));
+        assert_eq!(report.frequency, Frequency::Daily, "{days:?}");
+        assert!(
+            !report
+                .warnings
+                .iter()
+                .any(|w| w.contains("a week apart on")),
+            "{:?}",
+            report.warnings
+        );
     }
-    let report = read(&market);
-    assert!(report.errors.is_empty(), "{:?}", report.errors);
-    assert_eq!(report.frequency, Frequency::Daily);
+}
+
+// A second review's probes: a "Period" column of month names or quarters beside a year is
+// read as those parts (it had been refused); a column of units ("bag", "kg") under "Per" and
+// one text on every row ("Full year") beside a year are not refused; a header spelling the
+// week's span ("Week (Mon to Sun)") or saying something else ("Sales date (from till)") names
+// no anchor (the first had put every week a week early).
+#[test]
+fn period_columns_and_week_headers_the_new_rules_must_leave_alone() {
+    check(
+        "Year,Period,Units\n2023,Jan,5\n2023,Feb,6\n2023,Mar,7\n",
+        Expect {
+            periods: Some(vec!["2023-01", "2023-02", "2023-03"]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Year,Period,Units\n2023,Q1,5\n2023,Q2,6\n2023,Q3,7\n",
+        Expect {
+            periods: Some(vec!["2023-Q1", "2023-Q2", "2023-Q3"]),
+            ..Expect::default()
+        },
+    );
+    for text in [
+        "Year,Item,Per,Qty\n2021,Compost,bag,5\n2021,Sand,kg,6\n2022,Compost,bag,7\n2022,Sand,kg,8\n",
+        "Year,Period,Item,Qty\n2021,Full year,Compost,5\n2022,Full year,Compost,6\n2023,Full year,Compost,7\n",
+    ] {
+        assert!(read(text).errors.is_empty(), "{text}");
+    }
+    for header in ["Week (Mon to Sun)", "Sales date (from till)"] {
+        let report = read(&format!(
+            "{header},Units\n2023-01-02,5\n2023-01-09,6\n2023-01-16,7\n"
+        ));
+        assert_eq!(
+            report.items[0].periods[0].to_string(),
+            "2023-W01",
+            "{header}"
+        );
+        assert!(
+            !report
+                .date_format
+                .as_deref()
+                .is_some_and(|d| d.contains("the header names each week")),
+            "{header}"
+        );
+    }
 }

@@ -780,3 +780,39 @@ fn rates_shares_and_units_per_case_are_not_the_demand() {
         },
     );
 }
+
+// A second review's probes of the rules above: products whose names hold a money, returns or
+// rate word beside another product's name ("Value compost" by "Compost", "Football goal net"
+// by "Football goal", "Return spring", "Apple turnover", "Heart rate monitor", "Share of
+// harvest box") had been dropped as money or rates; a long table's "Units sold per week" had
+// lost to "Unit price" as the quantity (a reorder point of 3.5 for about 40 a week). Each is
+// read as meant: money only after the name and written as money, rates only as the last word.
+#[test]
+fn products_named_with_money_returns_or_rate_words_stay_items() {
+    for (a, b) in [
+        ("Compost", "Value compost"),
+        ("Football goal", "Football goal net"),
+        ("Spring", "Return spring"),
+        ("Apple", "Apple turnover"),
+        ("Heart rate monitor", "Golden ratio ruler"),
+        ("Veg box", "Share of harvest box"),
+    ] {
+        check(
+            &format!("Month,{a},{b}\n2024-01,40,12\n2024-02,42,14\n2024-03,38,11\n"),
+            Expect {
+                items: Some(vec![
+                    (a, some(&[40.0, 42.0, 38.0])),
+                    (b, some(&[12.0, 14.0, 11.0])),
+                ]),
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Date,Item,Unit price,Units sold per week\n2024-01-07,Twine,3.50,40\n2024-01-14,Twine,3.50,42\n2024-01-21,Twine,3.50,38\n",
+        Expect {
+            items: Some(vec![("Twine", some(&[40.0, 42.0, 38.0]))]),
+            ..Expect::default()
+        },
+    );
+}

@@ -517,19 +517,13 @@ fn closed_places_of_one_row_per_period_need_more_evidence() {
     // for closed weeks at all (an ISO year has 52 or 53 weeks).
     let weekly_with_a_stray = |t: usize| (t % 7 == 0 || t == 100).then_some(40u32);
     let twice_weekly = |t: usize| (t % 7 == 0 || t % 7 == 3).then_some(40u32);
-    let report = read(&one_row_per_day(&["Qty"], 140, &twice_weekly));
-    assert!(
-        report.items.is_empty() && report.errors.len() == 1,
-        "{report:?}"
-    );
-    // The stray weekday among weekly rows is the error, at its row (the rest read as weeks).
-    let report = read(&one_row_per_day(&["Qty"], 140, &weekly_with_a_stray));
-    assert_eq!(report.errors.len(), 1, "{report:?}");
-    assert_eq!(report.errors[0].row, 17, "{report:?}");
-    assert!(
-        report.errors[0].message.starts_with("expected a "),
-        "{report:?}"
-    );
+    for sells in [&weekly_with_a_stray as Sells<'_>, &twice_weekly] {
+        let report = read(&one_row_per_day(&["Qty"], 140, sells));
+        assert!(
+            report.items.is_empty() && report.errors.len() == 1,
+            "{report:?}"
+        );
+    }
     let spring: String = ["Mar", "Apr", "May", "Jun"]
         .iter()
         .flat_map(|m| (1..=30).map(move |d| format!("{m}-{d:02},{}\n", 10 + d % 3)))

@@ -29,7 +29,9 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::names_no_demand;
-use super::table::{header_says, names_weeks, of_another, wide_row_error, OfAnother, Plan, Table};
+use super::table::{
+    header_says, names_weeks, of_another, wide_row_error, written_as_money, OfAnother, Plan, Table,
+};
 use super::text::Record;
 
 mod across;
@@ -402,7 +404,8 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         .collect();
     for &j in &plan.not_quantities {
         let name = table.column_name(j);
-        let what = match of_another(&name, &value_names) {
+        let money = written_as_money(&table.column(j, &rows));
+        let what = match of_another(&name, &value_names, money) {
             Some((OfAnother::Returns, other)) => format!(
                 "the goods returned of the item in column \"{other}\", not its sales (to plan \
                  on sales less returns, subtract them in the file)"

@@ -134,9 +134,22 @@ impl SplitPeriod {
             )
         };
         let others = || (0..table.width).filter(move |j| *j != year);
+        // A column named "Period" beside a year may hold months, quarters or weeks ("Jan",
+        // "Q1"): tried as each, after the columns named as the part.
+        // Only text ("Jan", "Q1"): numbers under "Period" (1 to 13) could be any of them.
+        let period_named = |j: usize| {
+            named(j, &["period"])
+                && most(
+                    table
+                        .column(j, rows)
+                        .iter()
+                        .filter(|c| c.chars().any(char::is_alphabetic))
+                        .count(),
+                )
+        };
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
-                .filter(|j| named(*j, how.words()))
+                .filter(|j| named(*j, how.words()) || period_named(*j))
                 .map(|part| SplitPeriod {
                     year,
                     part,
@@ -276,7 +289,7 @@ fn part_text(cell: &str, how: YearPart) -> String {
 
 /// Header words of a column counting periods within a year that no calendar holds: halves
 /// and numbered (fiscal) periods.
-const UNPLACED_PART_WORDS: [&str; 5] = ["half", "semester", "period", "per", "fiscal"];
+const UNPLACED_PART_WORDS: [&str; 4] = ["half", "semester", "period", "fiscal"];
 
 /// Beside a year column, a column named as a part of the year ([`YearPart::words`], or halves
 /// and numbered periods) whose cells neither join the year into periods nor read as periods
@@ -291,7 +304,7 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .find(|part| header_is_only(&name, part.words()));
         let unplaced = part.is_none()
             && header_is_only(&name, &UNPLACED_PART_WORDS)
-            && header_says(&name, &["half", "semester", "period", "per"]);
+            && header_says(&name, &["half", "semester", "period"]);
         if part.is_none() && !unplaced {
             return None;
         }
@@ -310,7 +323,9 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .iter()
             .filter(|(_, c)| c.chars().any(char::is_alphabetic) && parse_label(c).is_none())
             .count();
-        if filled.is_empty() || text * 2 <= filled.len() {
+        // One text on every row ("Full year") labels the table, not parts of years.
+        let one_text = filled.iter().all(|(_, c)| c.trim() == filled[0].1.trim());
+        if filled.is_empty() || text * 2 <= filled.len() || one_text {
             return None;
         }
         let (at, text) = match part {

@@ -336,11 +336,24 @@ impl WeekAnchor {
     /// Header words naming a week's last day.
     const END_WORDS: [&'static str; 5] = ["ending", "end", "ends", "to", "until"];
 
-    /// The anchor a period column's header names.
+    /// The anchor a period column's header names: only a header of week and date words with
+    /// a start or an end word ("Week starting", "Week to", "From"), not one that spells the
+    /// span ("Week (Mon to Sun)") or says something else ("Sales date (from till)"), which a
+    /// review found moved every week.
     pub(crate) fn of_header(name: &str) -> WeekAnchor {
-        if super::table::header_says(name, &Self::START_WORDS) {
+        use super::table::{header_is_only, header_says, WEEK_WORDS};
+        let allowed: Vec<&str> = WEEK_WORDS
+            .iter()
+            .chain(&Self::START_WORDS)
+            .chain(&Self::END_WORDS)
+            .chain(&["date", "dates", "day", "up", "of", "the", "w", "c", "e"])
+            .copied()
+            .collect();
+        if !header_is_only(name, &allowed) {
+            WeekAnchor::Unsaid
+        } else if header_says(name, &Self::START_WORDS) && !header_says(name, &Self::END_WORDS) {
             WeekAnchor::Start
-        } else if super::table::header_says(name, &Self::END_WORDS) {
+        } else if header_says(name, &Self::END_WORDS) && !header_says(name, &Self::START_WORDS) {
             WeekAnchor::End
         } else {
             WeekAnchor::Unsaid
@@ -543,28 +556,36 @@ pub(crate) fn read_periods_anchored(
             }
         }
     }
-    // A weekly column with a date or two a day off (a week dated on its Saturday among
-    // Sundays) reads as daily, its other days "closed": those dates are errors at their rows,
-    // and the rest read as weeks. A review found a reorder point over one day for a weekly
-    // demand of about 15 so.
+    // A weekly column with a week or two dated a day or so off (a Saturday among Sundays,
+    // that week's Sunday absent) reads as daily, its other days "closed": those dates are
+    // read as the week of the usual weekday nearest them, warned. A review found a reorder
+    // point over one day for a weekly demand of about 15 so; a second found correct daily
+    // files refused by a first rule that made every odd date an error.
     if frequency == Frequency::Daily {
         if let Some(column_days) = days.as_mut() {
-            let off = off_weekday(column_days);
-            if !off.is_empty() {
-                for (i, usual) in off {
-                    let found = column_days[i].map_or(0, weekday);
-                    errors.push((
-                        i,
-                        format!(
-                            "expected a {} like the other dates of this column, a week apart; \
-                             this date is a {}: check it (one date a day off makes the whole \
-                             column read as days)",
-                            WEEKDAY_NAMES[usual as usize], WEEKDAY_NAMES[found as usize]
-                        ),
-                    ));
-                    column_days[i] = None;
-                    periods[i] = None;
+            let moved = off_weekday(column_days);
+            if !moved.is_empty() {
+                let mut said: Vec<String> = Vec::new();
+                for &(i, usual_day) in &moved {
+                    if let Some(d) = column_days[i] {
+                        let (y, m, day) = civil_from_days(d);
+                        let text = format!(
+                            "{y:04}-{m:02}-{day:02} (a {})",
+                            WEEKDAY_NAMES[weekday(d) as usize]
+                        );
+                        if !said.contains(&text) {
+                            said.push(text);
+                        }
+                    }
+                    column_days[i] = Some(usual_day);
                 }
+                let usual = WEEKDAY_NAMES[weekday(moved[0].1) as usize];
+                warnings.push(format!(
+                    "the dates of this column are a week apart on {usual}s but for {}: each was \
+                     read as the week of the {usual} nearest it, whose own row is absent; check \
+                     them",
+                    said.join(", ")
+                ));
                 (periods, frequency) = dated(column_days, anchor);
             }
         }
@@ -637,11 +658,13 @@ const WEEKDAY_NAMES: [&str; 7] = [
     "Sunday",
 ];
 
-/// The dates of a column that is weekly but for a few: at least 8 distinct dates, at least
-/// nine in ten of them on one weekday, whose steps between them are whole weeks, and the
-/// others within 3 days of that weekday. Each such date's index with the usual weekday; empty
-/// when the column is not so (daily data, a market open two days a week).
-fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, u32)> {
+/// The dates of a column that is weekly but for a few, each with the day it stands in for: at
+/// least 8 distinct dates, nine in ten of them or more on one weekday a whole number of weeks
+/// apart and covering at least eight in ten of the weeks from the first to the last, and each
+/// other date within 3 days of a day of that weekday which the column lacks (one per such
+/// day). Empty when the column is not so: daily sales (a market's Saturdays and a bank
+/// holiday beside one), a slow item sold on some Saturdays.
+fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, i64)> {
     let mut distinct: Vec<i64> = days.iter().flatten().copied().collect();
     distinct.sort_unstable();
     distinct.dedup();
@@ -659,34 +682,42 @@ fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, u32)> {
         .filter(|d| weekday(*d) == usual)
         .collect();
     let off = distinct.len() - on_usual.len();
-    let weekly = on_usual.windows(2).all(|w| (w[1] - w[0]) % 7 == 0);
-    let near = |d: i64| {
-        let apart = (i64::from(weekday(d)) - i64::from(usual)).rem_euclid(7);
-        apart.min(7 - apart) <= 3
+    let (Some(first), Some(last)) = (on_usual.first(), on_usual.last()) else {
+        return Vec::new();
     };
-    if off == 0 || off * 10 > distinct.len() || !weekly {
+    let weeks = (last - first) / 7 + 1;
+    let weekly = on_usual.windows(2).all(|w| (w[1] - w[0]) % 7 == 0);
+    if off == 0 || off * 10 > distinct.len() || !weekly || (on_usual.len() as i64) * 10 < 8 * weeks
+    {
         return Vec::new();
     }
-    let indices: Vec<(usize, u32)> = days
-        .iter()
+    // The day of the usual weekday within 3 days of d.
+    let nearest = |d: i64| {
+        let ahead = (i64::from(usual) - i64::from(weekday(d))).rem_euclid(7);
+        if ahead <= 3 {
+            d + ahead
+        } else {
+            d + ahead - 7
+        }
+    };
+    let mut stands_for: Vec<(i64, i64)> = Vec::new();
+    for d in distinct.iter().copied().filter(|d| weekday(*d) != usual) {
+        let u = nearest(d);
+        if on_usual.binary_search(&u).is_ok() || stands_for.iter().any(|(_, v)| *v == u) {
+            return Vec::new();
+        }
+        stands_for.push((d, u));
+    }
+    days.iter()
         .enumerate()
         .filter_map(|(i, d)| {
             let d = (*d)?;
-            (weekday(d) != usual)
-                .then_some((i, usual))
-                .filter(|_| near(d))
+            stands_for
+                .iter()
+                .find(|(from, _)| *from == d)
+                .map(|(_, u)| (i, *u))
         })
-        .collect();
-    // Every off date must be near the usual weekday, or this is no weekly column.
-    let off_rows = days
-        .iter()
-        .flatten()
-        .filter(|d| weekday(**d) != usual)
-        .count();
-    if indices.len() < off_rows {
-        return Vec::new();
-    }
-    indices
+        .collect()
 }
 
 fn year_out_of_range() -> String {

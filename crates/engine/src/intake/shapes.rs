@@ -280,8 +280,14 @@ const RUNNING_COMPANIONS: [&str; 12] = [
     "date",
 ];
 
-/// Header words that name a rate or a ratio, never a quantity sold.
+/// Header words that name a rate or a ratio, never a quantity sold, when they end a header.
 const RATIO_WORDS: [&str; 5] = ["rate", "ratio", "percent", "percentage", "pct"];
+
+/// What a "Share of ..." header is a share of, when it names a share rather than a product.
+const SHARE_OF: [&str; 10] = [
+    "sales", "units", "qty", "quantity", "revenue", "turnover", "total", "volume", "value",
+    "category",
+];
 
 /// Whether a header names a stock level, goods received or returned, a running total or a
 /// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to
@@ -328,9 +334,15 @@ pub(super) fn names_no_demand(name: &str) -> bool {
         [w, n] => ALONE_AMBIGUOUS.contains(&w.as_str()) && digits(n),
         _ => false,
     };
-    // A rate or a share of something ("Sell-through rate", "Share of sales", "Margin %").
-    let ratio =
-        header_says(name, &RATIO_WORDS) || words.starts_with(&["share".into(), "of".into()]);
+    // A rate or a share of something ("Sell-through rate", "Share of sales"): the rate word
+    // last, or "share of" a measure; not "Heart rate monitor" or "Share of harvest box",
+    // products a review found dropped when the word stood anywhere.
+    let ratio = words
+        .last()
+        .is_some_and(|w| RATIO_WORDS.contains(&w.as_str()))
+        || (words.starts_with(&["share".into(), "of".into()])
+            && words.len() > 2
+            && words[2..].iter().all(|w| SHARE_OF.contains(&w.as_str())));
     share
         || ratio
         || inbound

@@ -700,7 +700,12 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                     && (names_money(&name)
                         || names_order_number(&name)
                         || names_no_demand(&name)
-                        || of_another(&name, &value_names).is_some())
+                        || of_another(
+                            &name,
+                            &value_names,
+                            written_as_money(&table.column(*j, &rows)),
+                        )
+                        .is_some())
             })
             .collect()
     };
@@ -1189,6 +1194,21 @@ pub(super) fn names_money(name: &str) -> bool {
     holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
 
+/// Words for what goods are packed in ("Units per case"): a header saying "per" one of them
+/// is a conversion, never the quantity sold.
+const PACK_WORDS: [&str; 14] = [
+    "case", "cases", "pack", "packs", "box", "boxes", "carton", "cartons", "pallet", "crate",
+    "bag", "tray", "bundle", "dozen",
+];
+
+/// Money words a header of an item's money ends with ("Seeds value", "Seeds (EUR)"); some end
+/// products' names too ("Football goal net", "Pencils (gross)", "Apple turnover"), so
+/// [`of_another`] asks the cells to be written as money as well. Not "weight" or "size".
+const MONEY_SUFFIXES: [&str; 14] = [
+    "value", "price", "revenue", "margin", "cost", "amount", "takings", "turnover", "net", "gross",
+    "rrp", "eur", "usd", "gbp",
+];
+
 /// Header words that name goods returned or refunded, not sold.
 const RETURN_WORDS: [&str; 5] = ["returns", "return", "returned", "refunds", "refund"];
 
@@ -1202,49 +1222,78 @@ pub(super) enum OfAnother {
 }
 
 /// Whether a header names the money or the returns of the item another header names (and
-/// which): its
-/// words, less money, return, quantity and unit words and their companions, are another
-/// header's words so reduced, that one naming neither money nor returns ("Seeds value" beside
-/// "Seeds qty", "Seeds (EUR)" or "Seeds margin" beside "Seeds", "Bulbs refunds" beside
-/// "Bulbs"). A review found such columns of a wide table planned as items, a reorder point
-/// of 212 for "Seeds value", without a word. A header reduced to nothing ("Revenue") is
-/// [`names_money`]'s.
-pub(super) fn of_another(name: &str, others: &[String]) -> Option<(OfAnother, String)> {
-    let says_money = |n: &str| holds_currency_sign(n) || header_says(n, &MONEY_WORDS);
-    let says_unit = |n: &str| header_says(n, &UNIT_WORDS);
-    let kind = if header_says(name, &RETURN_WORDS) {
+/// which): it is another header (less its quantity and unit words) with a money or returns
+/// word after it ("Seeds value" beside "Seeds qty", "Seeds (EUR)" or "Seeds margin" beside
+/// "Seeds", "Bulbs refunds" beside "Bulbs"), and for money its cells are written as money
+/// (`money_cells`: most with two decimals, or a currency sign). A review found such columns
+/// of a wide table planned as items, a reorder point of 212 for "Seeds value", without a
+/// word; a second review found products dropped when the word stood first or was also a
+/// product's ("Value compost", "Return spring", "Football goal net", "Apple turnover"), so
+/// only words after the name, money only in money's form. A header reduced to nothing
+/// ("Revenue") is [`names_money`]'s.
+pub(super) fn of_another(
+    name: &str,
+    others: &[String],
+    money_cells: bool,
+) -> Option<(OfAnother, String)> {
+    let words: Vec<String> = header_words(name)
+        .iter()
+        .map(|w| w.to_lowercase())
+        .collect();
+    let is = |w: &str, list: &[&str]| list.contains(&w);
+    // The words after the name: money or returns words and their companions, at the end.
+    let tail = words
+        .iter()
+        .rev()
+        .take_while(|w| is(w, &MONEY_SUFFIXES) || is(w, &RETURN_WORDS) || is(w, &MONEY_COMPANIONS))
+        .count();
+    let (own, after) = words.split_at(words.len() - tail);
+    let kind = if after.iter().any(|w| is(w, &RETURN_WORDS)) {
         OfAnother::Returns
-    } else if says_money(name) && !says_unit(name) {
+    } else if (after.iter().any(|w| is(w, &MONEY_SUFFIXES)) || holds_currency_sign(name))
+        && money_cells
+    {
         OfAnother::Money
     } else {
         return None;
     };
-    let dropped: Vec<&str> = MONEY_WORDS
-        .iter()
-        .chain(&MONEY_COMPANIONS)
-        .chain(&RETURN_WORDS)
-        .chain(&UNIT_WORDS)
-        .chain(&QUANTITY_WORDS)
-        .copied()
-        .collect();
+    if own.is_empty() {
+        return None;
+    }
+    let quantity: Vec<&str> = UNIT_WORDS.iter().chain(&QUANTITY_WORDS).copied().collect();
     let stem = |n: &str| -> Vec<String> {
         header_words(n)
             .iter()
             .map(|w| w.to_lowercase())
-            .filter(|w| !dropped.contains(&w.as_str()))
+            .filter(|w| !quantity.contains(&w.as_str()))
             .collect()
     };
-    let own = stem(name);
-    let beside = |other: &String| {
-        other != name
-            && !header_says(other, &RETURN_WORDS)
-            && (!says_money(other) || says_unit(other))
-            && stem(other) == own
-    };
-    if own.is_empty() {
-        return None;
-    }
-    others.iter().find(|o| beside(o)).map(|o| (kind, o.clone()))
+    others
+        .iter()
+        .find(|o| o.as_str() != name && stem(o) == own)
+        .map(|o| (kind, o.clone()))
+}
+
+/// Whether most of a column's filled cells are written as money: two decimals ("170.00",
+/// "2,50") or a currency sign.
+pub(super) fn written_as_money(cells: &[&str]) -> bool {
+    let filled: Vec<&str> = cells
+        .iter()
+        .map(|c| c.trim())
+        .filter(|c| !c.is_empty())
+        .collect();
+    let money = filled
+        .iter()
+        .filter(|c| {
+            holds_currency_sign(c) || {
+                let digits: Vec<&str> = c.rsplitn(2, ['.', ',']).collect();
+                digits.len() == 2
+                    && digits[0].len() == 2
+                    && digits[0].bytes().all(|b| b.is_ascii_digit())
+            }
+        })
+        .count();
+    !filled.is_empty() && money * 2 > filled.len()
 }
 
 /// Whether a header names an order, invoice or receipt number and nothing else ("Order ID",
@@ -1272,10 +1321,19 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
         return 0;
     }
     // "Units per case" is a conversion, not a count sold (a review found it read as the
-    // demand beside "Cases").
+    // demand beside "Cases"); "Units sold per week" is a count.
+    let per_pack = |j: usize| {
+        let words: Vec<String> = header_words(&table.column_name(j))
+            .iter()
+            .map(|w| w.to_lowercase())
+            .collect();
+        words
+            .windows(2)
+            .any(|w| w[0] == "per" && PACK_WORDS.contains(&w[1].as_str()))
+    };
     let not_demand = |j: usize| {
         says(j, &MONEY_WORDS)
-            || says(j, &["per"])
+            || per_pack(j)
             || holds_currency_sign(&table.column_name(j))
             || names_no_demand(&table.column_name(j))
     };
