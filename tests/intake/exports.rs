@@ -1103,3 +1103,28 @@ fn period_columns_and_week_headers_the_new_rules_must_leave_alone() {
         );
     }
 }
+
+// Beside a year and its month, a column naming another part of the year ("Half" with H1 and
+// H2, "Quarter", "Semester" with Spring and Fall) had made items of its cells, "H1" and
+// "H2", each history split in two with zeros filled in (a review's probe). It is a calendar
+// detail, said and not used.
+#[test]
+fn other_parts_of_the_year_beside_a_year_and_month_are_calendar_details() {
+    for (header, cells) in [
+        ("Half", ["H1", "H2", "H2"]),
+        ("Semester", ["Spring", "Fall", "Fall"]),
+    ] {
+        let text = format!(
+            "Year,{header},Quarter,Month,Units\n2022,{},Q2,Jun,5\n2022,{},Q3,Jul,6\n2022,{},Q3,Aug,7\n",
+            cells[0], cells[1], cells[2]
+        );
+        check(
+            &text,
+            Expect {
+                items: Some(vec![("Units", some(&[5.0, 6.0, 7.0]))]),
+                warned: vec![vec![header, "holds calendar details"]],
+                ..Expect::default()
+            },
+        );
+    }
+}

@@ -552,6 +552,19 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Weekday or month names name no item ([`calendar_columns`]); without a period to stand
     // beside, they are the only time the table gives, and not enough to place a row.
     let mut calendar: Vec<usize> = calendar_columns(table, &rows, &item_columns, false);
+    // Beside a period written across a year and its part, another column naming a part of
+    // the year ("Half" with H1 and H2, "Quarter" beside "Month", "Semester") repeats the
+    // calendar: a review found "H1" and "H2" made items, each history split in two.
+    if split.is_some() && table.header.is_some() {
+        let details: Vec<usize> = item_columns
+            .iter()
+            .copied()
+            .filter(|j| {
+                !calendar.contains(j) && header_is_only(&table.column_name(*j), &YEAR_PART_DETAILS)
+            })
+            .collect();
+        calendar.extend(details);
+    }
     item_columns.retain(|j| !calendar.contains(j));
     if period.is_none() {
         // A text column whose cells never repeat names periods, not items: reading it as the
@@ -1193,6 +1206,12 @@ pub(super) fn names_money(name: &str) -> bool {
     let allowed: Vec<&str> = money.iter().chain(&MONEY_COMPANIONS).copied().collect();
     holds_currency_sign(name) || (header_is_only(name, &allowed) && header_says(name, &money))
 }
+
+/// Header words of a column that names a part of the year beside one the period is already
+/// read from ([`SplitPeriod`]).
+const YEAR_PART_DETAILS: [&str; 9] = [
+    "half", "semester", "quarter", "qtr", "month", "mth", "week", "wk", "season",
+];
 
 /// Words for what goods are packed in ("Units per case"): a header saying "per" one of them
 /// is a conversion, never the quantity sold.
