@@ -3,7 +3,9 @@
 //! outside references in stock.rs; here, that the settings reach them as the user gave them.
 
 use morrowcast_engine::intake::StockRow;
-use morrowcast_engine::order::{plan_order, OrderError, HELD_ORDER_NOTE, NO_ROW_NOTE};
+use morrowcast_engine::order::{
+    plan_order, OrderError, HELD_ORDER_NOTE, NO_ROW_NOTE, QUIET_SEASON_NOTE,
+};
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{StockField, StockText, Target, TargetKind};
 use Target::{CycleService as Csl, FillRate as Fill};
@@ -535,4 +537,33 @@ fn a_sparse_seasonal_item_is_told_its_totals_pool_every_time_of_year() {
         "{:?}",
         order.stock.notes
     );
+}
+
+// The wreaths planned in December with 4 on hand: the level pools every month (59), and 56
+// had been suggested for a January that sold nothing in any of three years. No order is
+// suggested there, a note says why; planned in October, with November's sales ahead, the
+// order stands.
+#[test]
+fn a_sparse_seasonal_item_gets_no_order_for_periods_that_never_sold() {
+    let holly: Vec<Option<f64>> = [
+        0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 51, 53, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 31, 44, 0, 0, 0, 0, 0,
+        0, 0, 0, 0, 0, 58, 57,
+    ]
+    .iter()
+    .map(|v| Some(f64::from(*v)))
+    .collect();
+    let january = order_with_on_hand(holly.clone(), 4.0);
+    assert_eq!(january.stock.suggested_order, None);
+    assert!(
+        january.stock.notes.iter().any(|n| n == QUIET_SEASON_NOTE),
+        "{:?}",
+        january.stock.notes
+    );
+    let november = order_with_on_hand(holly[..34].to_vec(), 4.0);
+    assert!(
+        november.stock.suggested_order.is_some_and(|o| o > 0.0),
+        "{:?}",
+        november.stock
+    );
+    assert!(!november.stock.notes.iter().any(|n| n == QUIET_SEASON_NOTE));
 }

@@ -100,6 +100,34 @@ pub const HELD_ORDER_NOTE: &str =
      so the forecast still leans on sales that have stopped; if it still sells, or its \
      shelf was empty, decide the order yourself";
 
+/// The note on a sparse seasonal item whose protected periods sold nothing in any past season.
+pub const QUIET_SEASON_NOTE: &str =
+    "no order is suggested: the periods this level protects sold nothing at this time of year \
+     in any past season, and the level comes from totals over every time of year; order ahead \
+     of its busy periods by its season (the Look-ahead and the Pattern view show it)";
+
+/// Whether a sparse item with an accepted season of m sold nothing, in every past season of
+/// at least two, at each of the next `periods` places of its season: the positions t - m,
+/// t - 2m, ... of each coming period t.
+fn quiet_in_every_season(plan: &ItemPlan, periods: usize) -> bool {
+    let (Some(m), true) = (plan.season.length, plan.demand.class.is_sparse()) else {
+        return false;
+    };
+    let n = plan.history.len();
+    if periods == 0 || m < 2 || n < 2 * m {
+        return false;
+    }
+    (n..n + periods).all(|t| {
+        let past: Vec<f64> = (1..)
+            .map(|k| t.checked_sub(k * m))
+            .take_while(Option::is_some)
+            .flatten()
+            .map(|i| plan.history[i])
+            .collect();
+        past.len() >= 2 && past.iter().all(|v| *v == 0.0)
+    })
+}
+
 /// The note on an item with no row in a stock table that was given.
 pub const NO_ROW_NOTE: &str =
     "no row in the stock table: on hand unknown, so no order is suggested";
@@ -190,6 +218,13 @@ pub fn plan_order(
     {
         stock.suggested_order = None;
         stock.notes.push(HELD_ORDER_NOTE.to_string());
+    }
+    // A sparse seasonal item's level pools every time of year (its Stock plan's note): where
+    // the periods it protects sold nothing in any past season, an order from that level is
+    // not one to place unread (a review found 56 holly wreaths suggested for a January).
+    if stock.suggested_order.is_some() && quiet_in_every_season(&plan, stock.protection_periods) {
+        stock.suggested_order = None;
+        stock.notes.push(QUIET_SEASON_NOTE.to_string());
     }
     Ok(ItemOrder {
         plan,
