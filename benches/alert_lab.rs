@@ -19,22 +19,9 @@ use morrowcast_engine::plan::{plan_item, ItemPlan};
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 
-/// A seeded source of standard normal draws.
-struct Noise(u64);
-
-impl Noise {
-    fn uniform(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6_364_136_223_846_793_005)
-            .wrapping_add(1_442_695_040_888_963_407);
-        ((self.0 >> 11) as f64 + 0.5) / (1u64 << 53) as f64
-    }
-
-    fn normal(&mut self) -> f64 {
-        (-2.0 * self.uniform().ln()).sqrt() * (2.0 * std::f64::consts::PI * self.uniform()).cos()
-    }
-}
+#[path = "common/draws.rs"]
+mod draws;
+use draws::Draws as Noise;
 
 #[derive(Clone, Copy, Debug)]
 enum Base {

@@ -30,34 +30,9 @@ use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{demand_over, demand_scenarios, plan_stock, StockSettings, Target};
 
-/// A seeded uniform source (64-bit linear congruential generator, Knuth's MMIX constants).
-struct Draws(u64);
-
-impl Draws {
-    fn uniform(&mut self) -> f64 {
-        self.0 = self
-            .0
-            .wrapping_mul(6_364_136_223_846_793_005)
-            .wrapping_add(1_442_695_040_888_963_407);
-        ((self.0 >> 11) as f64 + 0.5) / (1u64 << 53) as f64
-    }
-
-    fn normal(&mut self) -> f64 {
-        (-2.0 * self.uniform().ln()).sqrt() * (2.0 * std::f64::consts::PI * self.uniform()).cos()
-    }
-
-    /// Poisson by inversion (small means only).
-    fn poisson(&mut self, mean: f64) -> f64 {
-        let (mut k, mut p, mut total) = (0.0, (-mean).exp(), (-mean).exp());
-        let u = self.uniform();
-        while u > total && k < 1000.0 {
-            k += 1.0;
-            p *= mean / k;
-            total += p;
-        }
-        k
-    }
-}
+#[path = "common/draws.rs"]
+mod draws;
+use draws::Draws;
 
 /// How a nonzero demand's size is drawn.
 #[derive(Clone, Copy)]
