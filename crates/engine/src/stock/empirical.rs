@@ -94,7 +94,7 @@ pub fn totals_needed(p: f64, periods: usize) -> usize {
     scenarios_needed(p).saturating_mul(periods.max(1))
 }
 
-/// The largest count walked one by one ([`beyond_the_scenarios`]); above it, the gamma.
+/// The largest count walked one by one ([`count_walk`]); above it, the gamma.
 const COUNT_WALK_LIMIT: f64 = 1e5;
 
 /// A count distribution's probabilities P(0), P(1), ... in logarithms: the negative binomial
@@ -124,74 +124,79 @@ fn count_log_probability(mean: f64, variance: f64) -> (Beyond, impl Fn(f64) -> f
     })
 }
 
-/// Level, its chance of covering a cycle and the expected shortage under the distribution of
-/// `spread`, at least `floor`.
-fn beyond_the_scenarios(spread: Spread, p: f64, floor: f64) -> (Beyond, f64, f64, f64) {
+/// Where `spread`'s demand is read as a count distribution, walked one by one up to `reach`:
+/// the count the walk may go to. Counts are walked only up to [`COUNT_WALK_LIMIT`]: past it
+/// the walk would take too long (milliseconds per item), and there the gamma is as good as a
+/// count distribution. `None`: read as the gamma.
+fn count_walk(spread: Spread, reach: f64) -> Option<f64> {
+    let mean = spread.mean.max(0.0);
+    let limit = (mean + 60.0 * (spread.sd * spread.sd).max(mean).sqrt() + 100.0).max(reach);
+    (spread.whole_units && limit <= COUNT_WALK_LIMIT).then_some(limit)
+}
+
+/// The gamma of this mean and variance (shape mean^2 / variance, rate mean / variance) and
+/// the one of shape one more, whose survival function the loss takes; `None` where there is
+/// no spread or no demand.
+fn gamma_pair(mean: f64, variance: f64) -> Option<(Gamma, Gamma)> {
+    if variance <= 0.0 || mean <= 0.0 {
+        return None;
+    }
+    let (shape, rate) = (mean * mean / variance, mean / variance);
+    Some((
+        Gamma::new(shape, rate).ok()?,
+        Gamma::new(shape + 1.0, rate).ok()?,
+    ))
+}
+
+/// The level under the distribution of `spread` at target p, at least `floor`, with its
+/// chance of covering a cycle.
+fn beyond_the_scenarios(spread: Spread, p: f64, floor: f64) -> (Beyond, f64, f64) {
     let mean = spread.mean.max(0.0);
     let variance = spread.sd * spread.sd;
-    // Counts are walked one by one: past a hundred thousand the walk would take too long
-    // (milliseconds per item), and there the gamma is as good as a count distribution.
-    let count_walk = mean + 60.0 * variance.max(mean).sqrt() + 100.0;
-    if spread.whole_units && count_walk.max(floor) <= COUNT_WALK_LIMIT {
+    if let Some(limit) = count_walk(spread, floor) {
         let (kind, log_p) = count_log_probability(mean, variance);
         if mean <= 0.0 {
-            return (kind, floor.max(0.0), 1.0, 0.0);
+            return (kind, floor.max(0.0), 1.0);
         }
-        // Walk up the counts: P(D <= s) and sum_{k <= s} (s - k) P(k), for the loss
-        // E[(D - s)+] = mean - s + sum_{k <= s} (s - k) P(k).
-        let limit = count_walk.max(floor);
-        let (mut cdf, mut below, mut below_k) = (0.0, 0.0, 0.0);
-        let mut k = 0.0;
+        // Walk up the counts to the first at or above the floor with P(D <= s) >= p.
+        let (mut cdf, mut k) = (0.0, 0.0);
         loop {
-            let pk = log_p(k).exp();
-            cdf += pk;
-            below += pk;
-            below_k += k * pk;
+            cdf += log_p(k).exp();
             if (cdf >= p && k >= floor) || k >= limit {
                 break;
             }
             k += 1.0;
         }
-        let loss = (mean - k + k * below - below_k).max(0.0);
-        (kind, k, cdf.min(1.0), loss)
-    } else {
-        if variance <= 0.0 || mean <= 0.0 {
-            return (Beyond::Gamma, floor.max(mean), 1.0, 0.0);
+        return (kind, k, cdf.min(1.0));
+    }
+    match gamma_pair(mean, variance) {
+        Some((g, _)) => {
+            let level = g.inverse_cdf(p).max(floor);
+            (Beyond::Gamma, level, g.cdf(level))
         }
-        let (shape, rate) = (mean * mean / variance, mean / variance);
-        let (Ok(g), Ok(g1)) = (Gamma::new(shape, rate), Gamma::new(shape + 1.0, rate)) else {
-            return (Beyond::Gamma, floor.max(mean), 1.0, 0.0);
-        };
-        let level = g.inverse_cdf(p).max(floor);
-        // E[(D - s)+] = mean (1 - F_{shape+1}(s)) - s (1 - F_shape(s)).
-        let loss = (mean * g1.sf(level) - level * g.sf(level)).max(0.0);
-        (Beyond::Gamma, level, g.cdf(level), loss)
+        None => (Beyond::Gamma, floor.max(mean), 1.0),
     }
 }
 
 /// E[(D - level)+] under the distribution of `spread` ([`beyond_the_scenarios`]'s): for counts
-/// mean - s + sum_{k <= s} (s - k) P(k), for amounts the gamma's loss.
+/// mean - s + sum_{k <= s} (s - k) P(k), for amounts the gamma's loss
+/// mean (1 - F_{shape+1}(s)) - s (1 - F_shape(s)).
 fn distribution_loss(spread: Spread, level: f64) -> f64 {
     let mean = spread.mean.max(0.0);
     let variance = spread.sd * spread.sd;
     if mean <= 0.0 {
         return 0.0;
     }
-    let count_walk = mean + 60.0 * variance.max(mean).sqrt() + 100.0;
-    if spread.whole_units && count_walk.max(level) <= COUNT_WALK_LIMIT {
+    if count_walk(spread, level).is_some() {
         let (_, log_p) = count_log_probability(mean, variance);
         let below: f64 = (0..=level.max(0.0).floor() as u64)
             .map(|k| (level - k as f64) * log_p(k as f64).exp())
             .sum();
         return (mean - level + below).max(0.0);
     }
-    if variance <= 0.0 {
-        return (mean - level).max(0.0);
-    }
-    let (shape, rate) = (mean * mean / variance, mean / variance);
-    match (Gamma::new(shape, rate), Gamma::new(shape + 1.0, rate)) {
-        (Ok(g), Ok(g1)) => (mean * g1.sf(level) - level * g.sf(level)).max(0.0),
-        _ => (mean - level).max(0.0),
+    match gamma_pair(mean, variance) {
+        Some((g, g1)) => (mean * g1.sf(level) - level * g.sf(level)).max(0.0),
+        None => (mean - level).max(0.0),
     }
 }
 
@@ -237,7 +242,7 @@ pub fn empirical_figures(
     let short = |level: f64| shortage(&sorted, level).max(distribution_loss(spread, level));
     let (level, service, beyond) = match target {
         Target::CycleService(p) if n < totals_needed(p, spread.periods) => {
-            let (kind, level, service, _) = beyond_the_scenarios(spread, p, highest);
+            let (kind, level, service) = beyond_the_scenarios(spread, p, highest);
             (level, service, Some(kind))
         }
         Target::CycleService(p) => {
