@@ -244,6 +244,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         row_numbers: Vec::new(),
         calendar: Vec::new(),
         not_quantities: Vec::new(),
+        of_items: Vec::new(),
         notes: Vec::new(),
         split: None,
     })

@@ -29,9 +29,7 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::names_no_demand;
-use super::table::{
-    header_says, names_weeks, of_another, wide_row_error, written_as_money, OfAnother, Plan, Table,
-};
+use super::table::{header_says, names_weeks, wide_row_error, OfAnother, Plan, Table};
 use super::text::Record;
 
 mod across;
@@ -396,21 +394,15 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             table.column_name(j)
         ));
     }
-    let value_names: Vec<String> = plan
-        .values
-        .iter()
-        .chain(&plan.not_quantities)
-        .map(|j| table.column_name(*j))
-        .collect();
     for &j in &plan.not_quantities {
         let name = table.column_name(j);
-        let money = written_as_money(&table.column(j, &rows));
-        let what = match of_another(&name, &value_names, money) {
-            Some((OfAnother::Returns, other)) => format!(
+        let of_item = plan.of_items.iter().find(|(k, ..)| *k == j);
+        let what = match of_item {
+            Some((_, OfAnother::Returns, other)) => format!(
                 "the goods returned of the item in column \"{other}\", not its sales (to plan \
                  on sales less returns, subtract them in the file)"
             ),
-            Some((OfAnother::Money, other)) => {
+            Some((_, OfAnother::Money, other)) => {
                 format!("the money of the item in column \"{other}\", not a quantity")
             }
             None if names_no_demand(&name) => "a stock level, goods received or returned, a \

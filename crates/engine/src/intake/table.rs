@@ -444,6 +444,9 @@ pub(crate) struct Plan {
     /// [`names_order_number`], [`names_no_demand`]): not items; not read, and the report says
     /// so.
     pub not_quantities: Vec<usize>,
+    /// Of those, the ones naming the money or returns of the item in another column
+    /// ([`of_another`]), with that column's name: what the report says of them.
+    pub of_items: Vec<(usize, OfAnother, String)>,
     /// Text columns beside one row per period that note the periods ("ok", "promo", a
     /// supplier) rather than name items ([`notes_columns`]): not read; the report says so.
     pub notes: Vec<usize>,
@@ -701,6 +704,18 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Beside the quantities of a single or wide table, a price or an order number is no item
     // (`Date,Unit price,Sales units`); a long table chooses its quantity by the same words.
     let value_names: Vec<String> = values.iter().map(|j| table.column_name(*j)).collect();
+    let of_items: Vec<(usize, OfAnother, String)> = if long || table.header.is_none() {
+        Vec::new()
+    } else {
+        values
+            .iter()
+            .filter_map(|&j| {
+                let money = written_as_money(&table.column(j, &rows));
+                of_another(&table.column_name(j), &value_names, money)
+                    .map(|(kind, other)| (j, kind, other))
+            })
+            .collect()
+    };
     let not_quantities: Vec<usize> = if long {
         Vec::new()
     } else {
@@ -713,12 +728,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                     && (names_money(&name)
                         || names_order_number(&name)
                         || names_no_demand(&name)
-                        || of_another(
-                            &name,
-                            &value_names,
-                            written_as_money(&table.column(*j, &rows)),
-                        )
-                        .is_some())
+                        || of_items.iter().any(|(k, ..)| k == j))
             })
             .collect()
     };
@@ -729,6 +739,10 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     } else {
         Vec::new()
     };
+    let of_items: Vec<(usize, OfAnother, String)> = of_items
+        .into_iter()
+        .filter(|(j, ..)| not_quantities.contains(j))
+        .collect();
     let mut ignored: Vec<usize> = (0..roles.len())
         .filter(|j| matches!(roles[*j], Role::Period(_)) && period.is_some_and(|(p, _)| p != *j))
         .filter(|j| split.is_none_or(|s| !s.columns().contains(j)))
@@ -799,6 +813,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         row_numbers,
         calendar,
         not_quantities,
+        of_items,
         notes,
         split,
     })
@@ -1250,11 +1265,7 @@ pub(super) enum OfAnother {
 /// product's ("Value compost", "Return spring", "Football goal net", "Apple turnover"), so
 /// only words after the name, money only in money's form. A header reduced to nothing
 /// ("Revenue") is [`names_money`]'s.
-pub(super) fn of_another(
-    name: &str,
-    others: &[String],
-    money_cells: bool,
-) -> Option<(OfAnother, String)> {
+fn of_another(name: &str, others: &[String], money_cells: bool) -> Option<(OfAnother, String)> {
     let words: Vec<String> = header_words(name)
         .iter()
         .map(|w| w.to_lowercase())
@@ -1295,7 +1306,7 @@ pub(super) fn of_another(
 
 /// Whether most of a column's filled cells are written as money: two decimals ("170.00",
 /// "2,50") or a currency sign.
-pub(super) fn written_as_money(cells: &[&str]) -> bool {
+fn written_as_money(cells: &[&str]) -> bool {
     let filled: Vec<&str> = cells
         .iter()
         .map(|c| c.trim())
