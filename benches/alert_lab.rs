@@ -19,9 +19,9 @@ use morrowcast_engine::plan::{plan_item, ItemPlan};
 use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 
-#[path = "common/draws.rs"]
-mod draws;
-use draws::Draws as Noise;
+#[path = "common/lab.rs"]
+mod lab;
+use lab::{count_option, Draws as Noise};
 
 #[derive(Clone, Copy, Debug)]
 enum Base {
@@ -172,14 +172,8 @@ fn former_rules(plan: &ItemPlan) -> (bool, bool) {
 }
 
 fn main() {
-    let args: Vec<String> = std::env::args().collect();
-    let count: usize = args
-        .iter()
-        .position(|a| a == "--count")
-        .and_then(|i| args.get(i + 1))
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(100);
-    if args.iter().any(|a| a == "--outliers") {
+    let count = count_option(100);
+    if std::env::args().any(|a| a == "--outliers") {
         outlier_study(count);
         return;
     }

@@ -30,9 +30,9 @@ use morrowcast_engine::series::Series;
 use morrowcast_engine::settings::PlanSettings;
 use morrowcast_engine::stock::{demand_over, demand_scenarios, plan_stock, StockSettings, Target};
 
-#[path = "common/draws.rs"]
-mod draws;
-use draws::Draws;
+#[path = "common/lab.rs"]
+mod lab;
+use lab::{count_option, Draws};
 
 /// How a nonzero demand's size is drawn.
 #[derive(Clone, Copy)]
@@ -143,13 +143,7 @@ fn level(sorted: &[f64], p: f64, rule: usize, mean: f64, sd: f64) -> f64 {
 }
 
 fn main() {
-    let args: Vec<String> = std::env::args().collect();
-    let count: usize = args
-        .iter()
-        .position(|a| a == "--count")
-        .and_then(|i| args.get(i + 1))
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(300);
+    let count = count_option(300);
     let processes: [(&str, f64, Size); 4] = [
         ("q 0.3, 1 + Poisson(1)", 0.3, Size::OnePlusPoisson(1.0)),
         ("q 0.15, 1 + Poisson(0.5)", 0.15, Size::OnePlusPoisson(0.5)),

@@ -1,5 +1,5 @@
-//! A seeded source of draws for the laboratories that make up their own series (alert_lab,
-//! stock_lab): the same draws every run.
+//! What the laboratories that make up their own series share (alert_lab, stock_lab): a
+//! seeded source of draws, the same every run, and their `--count` option.
 
 /// A 64-bit linear congruential generator (Knuth's MMIX constants), seeded.
 pub struct Draws(pub u64);
@@ -31,4 +31,14 @@ impl Draws {
         }
         k
     }
+}
+
+/// The number after `--count` on the command line, else `default`: series per case.
+pub fn count_option(default: usize) -> usize {
+    let args: Vec<String> = std::env::args().collect();
+    args.iter()
+        .position(|a| a == "--count")
+        .and_then(|i| args.get(i + 1))
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(default)
 }
