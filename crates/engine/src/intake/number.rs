@@ -54,7 +54,21 @@ pub(crate) enum NumberError {
     TooLarge,
     /// An infinity or not-a-number word ("inf", "NaN").
     NotFinite,
+    /// Only dashes ("-", "--", "–", "—"): a mark for nothing, or for unknown.
+    Dash,
+    /// A word for nothing ([`NONE_WORDS`]: "nil", "none").
+    NoneWord(String),
+    /// A number with its minus after it ("7-", as some accounting exports write a negative),
+    /// with the number as it would be written with the minus first.
+    TrailingMinus(String),
 }
+
+/// Words written for "nothing" in place of a quantity, compared without case.
+const NONE_WORDS: [&str; 5] = ["nil", "none", "nothing", "zero", "no sales"];
+
+/// Zero or unknown: what the user decides for a cell that marks no quantity.
+const ZERO_OR_GAP: &str = "write 0 if nothing sold in this period, or leave the cell empty if \
+     the quantity is not known (a gap)";
 
 /// The largest size of a value intake reads: the series' bound (see the module doc for why
 /// 10^15).
@@ -85,6 +99,17 @@ impl NumberError {
             NumberError::NotFinite => "expected a quantity; an infinity or \"not a number\" is \
                  none (a formula's error?): write the quantity, or leave the cell empty for a gap"
                 .to_string(),
+            NumberError::Dash => {
+                format!("expected a number; a dash alone is none: {ZERO_OR_GAP}")
+            }
+            NumberError::NoneWord(word) => {
+                format!("expected a number; \"{word}\" is a word, not a quantity: {ZERO_OR_GAP}")
+            }
+            NumberError::TrailingMinus(negative) => format!(
+                "expected a number with its minus sign first: write {negative} if this is a \
+                 return or correction (a minus after the number, as some accounting exports \
+                 write it, is not read)"
+            ),
         }
     }
 }
@@ -155,8 +180,8 @@ pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, Numb
     if NOT_FINITE.iter().any(|w| w.eq_ignore_ascii_case(word)) {
         return Err(NumberError::NotFinite);
     }
-    let parts = split_affixes(cell)?;
-    let magnitude = parse_core(parts.core, parts.exponent, mark)?;
+    let parts = split_affixes(cell).map_err(|e| refine(cell, e))?;
+    let magnitude = parse_core(parts.core, parts.exponent, mark).map_err(|e| refine(cell, e))?;
     if !magnitude.is_finite() || magnitude > MAX_MAGNITUDE {
         return Err(NumberError::TooLarge);
     }
@@ -169,6 +194,39 @@ pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, Numb
         value,
         affix: parts.affix,
     })
+}
+
+/// A cell that is no number, said more exactly where it is a dash, a word for nothing or a
+/// number with its minus after it; `error` otherwise.
+fn refine(cell: &str, error: NumberError) -> NumberError {
+    if !matches!(error, NumberError::NotANumber | NumberError::UnknownUnit(_)) {
+        return error;
+    }
+    let t = cell.trim();
+    if !t.is_empty()
+        && t.chars()
+            .all(|c| matches!(c, '-' | '\u{2212}' | '\u{2013}' | '\u{2014}' | '\u{2012}'))
+    {
+        return NumberError::Dash;
+    }
+    if let Some(word) = NONE_WORDS.iter().find(|w| t.eq_ignore_ascii_case(w)) {
+        return NumberError::NoneWord((*word).to_string());
+    }
+    let unsigned = t
+        .strip_suffix('-')
+        .or_else(|| t.strip_suffix('\u{2212}'))
+        .map(str::trim_end);
+    match unsigned {
+        Some(number)
+            if !number.is_empty()
+                && number.chars().any(|c| c.is_ascii_digit())
+                && !number.starts_with(['-', '\u{2212}'])
+                && looks_number(number) =>
+        {
+            NumberError::TrailingMinus(format!("-{number}"))
+        }
+        _ => error,
+    }
 }
 
 /// Whether the cell reads as a number under either decimal mark, or is one that intake refuses
@@ -374,6 +432,37 @@ mod tests {
 
     fn value(cell: &str, mark: DecimalMark) -> Option<f64> {
         parse_number(cell, mark).ok().map(|n| n.value)
+    }
+
+    // Cells that mark nothing or put the minus last: refused, each with what to write.
+    #[test]
+    fn dashes_words_for_nothing_and_trailing_minus_say_what_to_write() {
+        let check = |cell: &str, mark: DecimalMark, expected: NumberError| {
+            assert_eq!(parse_number(cell, mark), Err(expected), "{cell:?}");
+        };
+        for dash in ["-", "--", " \u{2014} ", "\u{2013}"] {
+            check(dash, Dot, NumberError::Dash);
+        }
+        check("Nil", Dot, NumberError::NoneWord("nil".to_string()));
+        check("NONE", Dot, NumberError::NoneWord("none".to_string()));
+        check("7-", Dot, NumberError::TrailingMinus("-7".to_string()));
+        check(
+            "1,200.50 -",
+            Dot,
+            NumberError::TrailingMinus("-1,200.50".to_string()),
+        );
+        check(
+            "12,5-",
+            Comma,
+            NumberError::TrailingMinus("-12,5".to_string()),
+        );
+        check("-7-", Dot, NumberError::NotANumber);
+        check("7x", Dot, NumberError::UnknownUnit("x".to_string()));
+        let said = NumberError::TrailingMinus("-7".to_string()).message(Dot);
+        assert!(said.contains("write -7 if this is a return"), "{said}");
+        assert!(NumberError::Dash
+            .message(Dot)
+            .contains("write 0 if nothing sold"));
     }
 
     #[test]
