@@ -10,3 +10,4 @@ mod misreads;
 mod robustness;
 mod sales_reports;
 mod unnamed;
+mod working_days;

@@ -485,7 +485,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             (Some(_), None) => WeekAnchor::of_header(&table.column_name(p)),
             _ => WeekAnchor::Unsaid,
         };
-        let col = read_periods_anchored(&cells, meaning, anchor);
+        let series: Option<Vec<Option<String>>> =
+            (plan.layout == Layout::Long && plan.split.is_none()).then(|| {
+                kept.iter()
+                    .map(|row| long::item_key(row, &plan.item_columns))
+                    .collect()
+            });
+        let col = read_periods_anchored(&cells, meaning, anchor, series.as_deref());
         // Week.year is written the same way: said where no header names months.
         let months = [
             "month", "months", "monthly", "mth", "monat", "mois", "maand", "mes", "mese",

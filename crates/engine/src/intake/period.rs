@@ -374,15 +374,17 @@ impl WeekAnchor {
 }
 
 pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> PeriodColumn {
-    read_periods_anchored(cells, integers, WeekAnchor::Unsaid)
+    read_periods_anchored(cells, integers, WeekAnchor::Unsaid, None)
 }
 
 /// [`read_periods`] of a column whose header may name which day of its week a weekly date
-/// is ([`WeekAnchor`]).
+/// is ([`WeekAnchor`]), and, in a long table, with each row's item key (`series`; see
+/// [`weekly_by_series`]).
 pub(crate) fn read_periods_anchored(
     cells: &[&str],
     integers: Option<IntegerMeaning>,
     anchor: WeekAnchor,
+    series: Option<&[Option<String>]>,
 ) -> PeriodColumn {
     let (labels, family, compact): (Vec<Option<Label>>, Family, Option<&str>) = match integers {
         Some(IntegerMeaning::CompactDates) => (
@@ -590,6 +592,56 @@ pub(crate) fn read_periods_anchored(
             }
         }
     }
+    // Two stores closing their weeks on different weekdays (Sunday and Saturday) make a
+    // long table daily, each store's other days "closed": where each item is dated on its
+    // own weekday a week apart, the dates are read as weeks, said. A review found two stores'
+    // weekly sales read so, with reorder points over one day.
+    if let (Frequency::Daily, Some(column_days), Some(series)) = (frequency, days.as_ref(), series)
+    {
+        if let Some(weekdays) = weekly_by_series(column_days, series) {
+            periods = dated_as(column_days, Frequency::Weekly, anchor);
+            frequency = Frequency::Weekly;
+            let each: Vec<String> = weekdays
+                .iter()
+                .map(|(w, n)| {
+                    let s = if *n == 1 { "" } else { "s" };
+                    format!("{}s for {n} item{s}", WEEKDAY_NAMES[*w as usize])
+                })
+                .collect();
+            warnings.push(format!(
+                "each item's dates fall on one weekday a week apart, but not the same weekday \
+                     for all ({}): each row was read as the week that holds its date (weekly sales, \
+                     each dated by its own store's or item's day of the week)",
+                each.join(", ")
+            ));
+        }
+    }
+    // Monthly totals dated on a working day (the last business day: 28 March, 30 April, 31
+    // May) are daily by their steps, each month's other days then "closed": read as the
+    // months holding them, said. A review found a long table of such totals read as daily.
+    if frequency == Frequency::Daily {
+        if let Some(column_days) = days.as_ref() {
+            let dates: Vec<i64> = column_days.iter().flatten().copied().collect();
+            if let Some((by, side)) = super::dates::one_a_month(&dates) {
+                periods = column_days
+                    .iter()
+                    .map(|d| d.map(|d| date_period(d, by)))
+                    .collect();
+                frequency = by;
+                let what = match by {
+                    Frequency::Yearly => "year",
+                    Frequency::Quarterly => "quarter",
+                    _ => "month",
+                };
+                warnings.push(format!(
+                    "the dates of this column fall one a {what}, {} (a working day, not one \
+                     day of the month), so each row was read as the {what} that holds its date; \
+                     if they are single days' sales, the other days are missing",
+                    side.describe()
+                ));
+            }
+        }
+    }
     // Weeks are shown as ISO weeks whatever weekday the file names them by: say which
     // dates the first one holds, so "2024-W01" is not taken for something else.
     let weeks_shown = periods
@@ -635,16 +687,61 @@ pub(crate) fn read_periods_anchored(
 /// The periods of dates (day numbers) at the frequency they imply.
 fn dated(days: &[Option<i64>], anchor: WeekAnchor) -> (Vec<Option<Period>>, Frequency) {
     let frequency = infer_frequency(&days.iter().flatten().copied().collect::<Vec<_>>());
-    let periods = days
-        .iter()
+    (dated_as(days, frequency, anchor), frequency)
+}
+
+/// The periods of `frequency` that hold the dates (day numbers).
+fn dated_as(days: &[Option<i64>], frequency: Frequency, anchor: WeekAnchor) -> Vec<Option<Period>> {
+    days.iter()
         .map(|d| {
             d.map(|d| match frequency {
                 Frequency::Weekly => date_period(anchor.middle(d), frequency),
                 _ => date_period(d, frequency),
             })
         })
+        .collect()
+}
+
+/// The weekdays of a long table's dates where each of its items (a store's own, where a store
+/// column names them) is dated on one weekday, a week apart, but not all on the same one:
+/// two stores closing their weeks on Sunday and on Saturday. Asked: at least two items with
+/// 4 dates or more, every item with two dates or more on a single weekday, and each of them
+/// dated in at least half the weeks from its first date to its last (a daily item sold on a
+/// few Saturdays is not so); `series` holds each row's item key (`None` for a row naming
+/// none). The weekdays come with how many items close their weeks on each, most first.
+fn weekly_by_series(days: &[Option<i64>], series: &[Option<String>]) -> Option<Vec<(u32, usize)>> {
+    let mut by_item: std::collections::BTreeMap<&str, Vec<i64>> = Default::default();
+    for (d, key) in days.iter().zip(series) {
+        if let (Some(d), Some(key)) = (d, key) {
+            by_item.entry(key.as_str()).or_default().push(*d);
+        }
+    }
+    let mut per_weekday = [0usize; 7];
+    let mut long_enough = 0;
+    for dates in by_item.values_mut() {
+        dates.sort_unstable();
+        dates.dedup();
+        let (Some(first), Some(last)) = (dates.first(), dates.last()) else {
+            continue;
+        };
+        if dates.len() < 2 {
+            continue;
+        }
+        let day = weekday(*first);
+        if dates.iter().any(|d| weekday(*d) != day)
+            || (dates.len() as i64) * 2 < (last - first) / 7 + 1
+        {
+            return None;
+        }
+        per_weekday[day as usize] += 1;
+        long_enough += usize::from(dates.len() >= 4);
+    }
+    let mut weekdays: Vec<(u32, usize)> = (0..7u32)
+        .map(|w| (w, per_weekday[w as usize]))
+        .filter(|(_, n)| *n > 0)
         .collect();
-    (periods, frequency)
+    weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
+    (long_enough >= 2 && weekdays.len() >= 2).then_some(weekdays)
 }
 
 /// Weekday names, Monday first, as [`weekday`] numbers them.

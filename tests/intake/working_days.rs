@@ -1,0 +1,218 @@
+//! Period dates written on a working day or on each store's own weekday rather than on one
+//! day of the period (found on 2026-12-04 by a review writing exports: each had been read as
+//! daily, its other days "closed", with reorder points over one day). Each test failed before
+//! its fix; each keeps a file that must stay as it was read.
+//!
+//! Kept apart from: the other shapes of exported tables (`exports`) and mutated files
+//! (`misreads`).
+
+use morrowcast_engine::calendar::{civil_from_days, days_from_civil, Frequency};
+use morrowcast_engine::intake::read;
+
+use super::expect::{check, some, Expect};
+
+/// A long table with a header and one row per (date, item, quantity).
+fn long(header: &str, rows: &[((i32, u32, u32), &str, f64)]) -> String {
+    let mut text = format!("{header}\n");
+    for ((y, m, d), item, qty) in rows {
+        text.push_str(&format!("{y}-{m:02}-{d:02},{item},{qty}\n"));
+    }
+    text
+}
+
+/// The last Monday-to-Friday day of each month of 2024 (no holidays but Easter's Friday).
+const LAST_WORKING_DAYS_2024: [(i32, u32, u32); 12] = [
+    (2024, 1, 31),
+    (2024, 2, 29),
+    (2024, 3, 28),
+    (2024, 4, 30),
+    (2024, 5, 31),
+    (2024, 6, 28),
+    (2024, 7, 31),
+    (2024, 8, 30),
+    (2024, 9, 30),
+    (2024, 10, 31),
+    (2024, 11, 29),
+    (2024, 12, 31),
+];
+
+// Monthly totals of two items dated on each month's last working day.
+#[test]
+fn totals_dated_on_a_months_last_working_day_are_that_month() {
+    let rows: Vec<_> = LAST_WORKING_DAYS_2024
+        .iter()
+        .enumerate()
+        .flat_map(|(i, date)| {
+            [
+                (*date, "Rope coil", 40.0 + i as f64),
+                (*date, "Tarp", 12.0 + i as f64),
+            ]
+        })
+        .collect();
+    let report = check(
+        &long("Posting date,Item,Units", &rows),
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            periods: Some(vec![
+                "2024-01", "2024-02", "2024-03", "2024-04", "2024-05", "2024-06", "2024-07",
+                "2024-08", "2024-09", "2024-10", "2024-11", "2024-12",
+            ]),
+            warned: vec![vec![
+                "fall one a month",
+                "up to 3 days before it",
+                "read as the month that holds its date",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(
+        report.items[1].values,
+        some(&(12..24).map(f64::from).collect::<Vec<_>>())
+    );
+    // Quarter ends on working days.
+    check(
+        &long(
+            "Date,Item,Units",
+            &[
+                ((2023, 9, 29), "Tarp", 30.0),
+                ((2023, 12, 29), "Tarp", 31.0),
+                ((2024, 3, 28), "Tarp", 33.0),
+                ((2024, 6, 28), "Tarp", 35.0),
+                ((2024, 9, 30), "Tarp", 36.0),
+            ],
+        ),
+        Expect {
+            frequency: Some(Frequency::Quarterly),
+            periods: Some(vec!["2023-Q3", "2023-Q4", "2024-Q1", "2024-Q2", "2024-Q3"]),
+            warned: vec![vec!["fall one a quarter"]],
+            ..Expect::default()
+        },
+    );
+}
+
+// Daily sales that happen to fall on few days stay daily, unwarned.
+#[test]
+fn daily_sales_on_scattered_days_stay_daily() {
+    let daily = [
+        // Two sales in one month.
+        vec![
+            (2024, 1, 30),
+            (2024, 1, 31),
+            (2024, 2, 29),
+            (2024, 3, 28),
+            (2024, 4, 30),
+        ],
+        // Days of the month far apart.
+        vec![(2024, 1, 31), (2024, 2, 12), (2024, 3, 28), (2024, 4, 30)],
+        // One a month, but in fewer than half the months between.
+        vec![
+            (2024, 1, 31),
+            (2024, 4, 30),
+            (2024, 6, 28),
+            (2024, 9, 30),
+            (2024, 12, 31),
+        ],
+    ];
+    for dates in daily {
+        let rows: Vec<_> = dates.iter().map(|d| (*d, "Honey jar", 2.0)).collect();
+        let report = read(&long("Date,Item,Units", &rows));
+        assert_eq!(report.frequency, Frequency::Daily, "{dates:?}");
+        assert!(
+            !report.warnings.iter().any(|w| w.contains("one a month")),
+            "{:?}",
+            report.warnings
+        );
+    }
+    // Every day of a month stays daily.
+    let first = days_from_civil(2024, 3, 1);
+    let rows: Vec<_> = (0..31)
+        .map(|i| (civil_from_days(first + i), "Honey jar", 2.0))
+        .collect();
+    assert_eq!(
+        read(&long("Date,Item,Units", &rows)).frequency,
+        Frequency::Daily
+    );
+}
+
+/// A long table of `Store,<header>,Item,Units` rows: for each store, its weekly dates (day
+/// numbers) from `first`, `weeks` of them, its items' quantities growing by the week.
+fn stores(header: &str, stores: &[(&str, (i32, u32, u32))], weeks: i64) -> String {
+    let mut text = format!("Store,{header},Item,Units\n");
+    for (store, first) in stores {
+        let first = days_from_civil(first.0, first.1, first.2);
+        for w in 0..weeks {
+            let (y, m, d) = civil_from_days(first + 7 * w);
+            for (item, base) in [("Rope coil", 15), ("Tarp", 8)] {
+                text.push_str(&format!("{store},{y}-{m:02}-{d:02},{item},{}\n", base + w));
+            }
+        }
+    }
+    text
+}
+
+// Two stores closing their weeks on Sunday (7 January 2024 on) and on Saturday (6 January).
+#[test]
+fn stores_closing_their_weeks_on_different_days_are_weekly() {
+    let text = stores(
+        "Week ending",
+        &[("North", (2024, 1, 7)), ("Harbour", (2024, 1, 6))],
+        20,
+    );
+    let report = check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec![
+                "one weekday a week apart",
+                "Saturdays for 2 items, Sundays for 2 items",
+                "read as the week that holds its date",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items.len(), 4);
+    for item in &report.items {
+        assert_eq!(item.periods.len(), 20, "{}", item.name);
+        assert_eq!(item.periods[0].to_string(), "2024-W01", "{}", item.name);
+    }
+    // Unnamed by the header, the same.
+    assert_eq!(
+        read(&stores(
+            "Date",
+            &[("North", (2024, 1, 7)), ("Harbour", (2024, 1, 6))],
+            20
+        ))
+        .frequency,
+        Frequency::Weekly
+    );
+}
+
+// Daily: a stall selling on Saturdays and Sundays; stores on their own weekdays in too few
+// of their weeks (a few market days); one store alone (already weekly by its steps).
+#[test]
+fn daily_sales_on_each_items_own_weekday_stay_daily_where_they_are_not_weeks() {
+    let mut weekend = String::from("Date,Item,Units\n");
+    let saturday = days_from_civil(2024, 1, 6);
+    for w in 0..10 {
+        for day in [saturday + 7 * w, saturday + 7 * w + 1] {
+            let (y, m, d) = civil_from_days(day);
+            weekend.push_str(&format!("{y}-{m:02}-{d:02},Honey jar,3\n"));
+            weekend.push_str(&format!("{y}-{m:02}-{d:02},Beeswax,2\n"));
+        }
+    }
+    assert_eq!(read(&weekend).frequency, Frequency::Daily);
+    let mut sparse = String::from("Store,Date,Item,Units\n");
+    for (store, first) in [("North", saturday + 1), ("Harbour", saturday)] {
+        for w in [0, 1, 5, 9, 14] {
+            let (y, m, d) = civil_from_days(first + 7 * w);
+            sparse.push_str(&format!("{store},{y}-{m:02}-{d:02},Honey jar,3\n"));
+        }
+    }
+    let report = read(&sparse);
+    assert_eq!(report.frequency, Frequency::Daily);
+    assert!(!report.warnings.iter().any(|w| w.contains("one weekday")));
+    let one = stores("Week ending", &[("North", (2024, 1, 7))], 12);
+    let report = read(&one);
+    assert_eq!(report.frequency, Frequency::Weekly);
+    assert!(!report.warnings.iter().any(|w| w.contains("one weekday")));
+}
