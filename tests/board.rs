@@ -729,11 +729,14 @@ fn periods_after_an_items_data_ends_are_said_as_such() {
 #[test]
 fn a_new_items_row_shows_its_forecast_and_alert_without_stock_figures() {
     let text = with_a_new_item();
-    let rows = board_rows(&text, &StockText::default(), None);
+    let table = "item,on_hand,on_order\nSolar lantern,7,3\n";
+    let rows = board_rows(&text, &StockText::default(), Some(table));
     let lantern = rows.iter().find(|r| r.name == "Solar lantern").unwrap();
     let f = lantern.figures.as_ref().unwrap();
-    let why = f.stock.as_ref().unwrap_err();
+    let none = f.stock.as_ref().unwrap_err();
+    let why = &none.why;
     assert!(why.contains("cannot be measured yet"), "{why}");
+    assert_eq!((none.on_hand, none.on_order), (Some(7.0), Some(3.0)));
     assert!(f.next.is_finite() && f.history == 5, "{f:?}");
     assert!(
         f.alerts.iter().any(|a| a.kind == AlertKind::NewItem),
@@ -772,6 +775,11 @@ fn a_new_items_row_shows_its_forecast_and_alert_without_stock_figures() {
         .unwrap();
     let get = |name: &str| record[headers.iter().position(|h| h == name).unwrap()].to_string();
     assert_eq!(get("problem"), *why);
+    // On hand and on order as the stock table gave them (they had been left empty).
+    assert_eq!(
+        (get("on_hand").as_str(), get("on_order").as_str()),
+        ("7", "3")
+    );
     assert_eq!(get("alerts"), "new_item");
     assert_eq!(cell_number(&get("next_forecast")), Some(f.next));
     assert_eq!(get("history_periods"), "5");

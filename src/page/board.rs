@@ -337,7 +337,11 @@ pub fn order_plan_csv(rows: &[&BoardRow], changed: impl Fn(&str) -> bool) -> Str
                         set("fill_rate", num(s.fill_rate));
                         set("notes", s.notes.join(" | "));
                     }
-                    Err(problem) => set("problem", problem.clone()),
+                    Err(none) => {
+                        set("on_hand", opt(none.on_hand));
+                        set("on_order", opt(none.on_order));
+                        set("problem", none.why.clone());
+                    }
                 }
             }
             Err(problem) => set("problem", problem.clone()),

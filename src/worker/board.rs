@@ -82,7 +82,22 @@ pub struct BoardFigures {
     pub alerts: Vec<Alert>,
     /// The stock figures, or why there are none (a new item's history too short for their
     /// spread): the plan and its alerts stand either way.
-    pub stock: Result<BoardStock, String>,
+    pub stock: Result<BoardStock, NoStock>,
+}
+
+/// Why a row has no stock figures, with the stock the user gave for the item: the order plan
+/// keeps on hand and on order beside why, as the user will still count them. Shown as why.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct NoStock {
+    pub why: String,
+    pub on_hand: Option<f64>,
+    pub on_order: Option<f64>,
+}
+
+impl std::fmt::Display for NoStock {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.why)
+    }
 }
 
 /// The stock figures of a row.
@@ -154,7 +169,7 @@ impl BoardFigures {
     pub fn new(
         plan: &ItemPlan,
         alerts: &[Alert],
-        stock: Result<&StockPlan, String>,
+        stock: Result<&StockPlan, NoStock>,
     ) -> BoardFigures {
         let scored = plan
             .backtest
@@ -188,8 +203,12 @@ impl BoardFigures {
     }
 
     /// The row's figures from an item's order, or from a plan without stock figures (the
-    /// plan and alerts stand); `Err` when the item has no plan at all.
-    pub fn of(order: Result<ItemOrder, OrderError>) -> Result<BoardFigures, String> {
+    /// plan and alerts stand, with the stock table's `row` for the item); `Err` when the item
+    /// has no plan at all.
+    pub fn of(
+        order: Result<ItemOrder, OrderError>,
+        row: Option<&StockRow>,
+    ) -> Result<BoardFigures, String> {
         match order {
             Ok(order) => Ok(BoardFigures::new(
                 &order.plan,
@@ -197,7 +216,12 @@ impl BoardFigures {
                 Ok(&order.stock),
             )),
             Err(OrderError::NoStockFigures { why, plan, alerts }) => {
-                Ok(BoardFigures::new(&plan, &alerts, Err(why.to_string())))
+                let none = NoStock {
+                    why: why.to_string(),
+                    on_hand: row.and_then(|r| r.on_hand),
+                    on_order: row.and_then(|r| r.on_order),
+                };
+                Ok(BoardFigures::new(&plan, &alerts, Err(none)))
             }
             Err(e) => Err(e.to_string()),
         }
@@ -222,14 +246,17 @@ pub fn answer_board(ask: &BoardAsk) -> Vec<BoardRow> {
                     (Err(why.clone()), (ask.look_back > 0).then_some(Err(why)))
                 }
                 Ok(defaults) => (
-                    BoardFigures::of(plan_order(
-                        series,
-                        settings,
-                        defaults,
+                    BoardFigures::of(
+                        plan_order(
+                            series,
+                            settings,
+                            defaults,
+                            item.row.as_ref(),
+                            ask.table_given,
+                            ask.file_end,
+                        ),
                         item.row.as_ref(),
-                        ask.table_given,
-                        ask.file_end,
-                    )),
+                    ),
                     (ask.look_back > 0).then(|| {
                         look_back(
                             series,

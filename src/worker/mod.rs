@@ -29,7 +29,7 @@ pub mod queue;
 #[cfg(target_arch = "wasm32")]
 mod glue;
 
-pub use board::{answer_board, BoardAsk, BoardFigures, BoardItem, BoardRow, BoardStock};
+pub use board::{answer_board, BoardAsk, BoardFigures, BoardItem, BoardRow, BoardStock, NoStock};
 pub use desk::PlanDesk;
 #[cfg(target_arch = "wasm32")]
 pub use glue::{answering, PlanWorker};
