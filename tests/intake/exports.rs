@@ -241,6 +241,40 @@ fn a_part_of_a_year_that_no_calendar_places_is_refused_not_read_as_items() {
             ..Expect::default()
         },
     );
+    // Numbered: 1 to 13 under "Period" had been left out as calendar details and each year's
+    // rows summed into one yearly period (in a single table, an error per row about repeated
+    // years); "Half" 1 and 2 the same.
+    let mut thirteen = String::from("Year,Period,Item,Qty\n");
+    for year in [2023, 2024] {
+        for p in 1..=13 {
+            thirteen.push_str(&format!(
+                "{year},{p},Bird seed,{}\n{year},{p},Suet ball,4\n",
+                60 + p
+            ));
+        }
+    }
+    check(
+        &thirteen,
+        Expect {
+            errors: vec![(2, "Period", "1")],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Year,Half,Qty\n2023,1,70\n2023,2,64\n2024,1,65\n2024,2,61\n",
+        Expect {
+            errors: vec![(2, "Half", "1")],
+            ..Expect::default()
+        },
+    );
+    // Beside a year and its month, such a column stays a calendar detail.
+    check(
+        "Year,Month,Period,Qty\n2023,1,4,70\n2023,2,5,64\n2023,3,6,65\n2023,4,7,61\n",
+        Expect {
+            periods: Some(vec!["2023-01", "2023-02", "2023-03", "2023-04"]),
+            ..Expect::default()
+        },
+    );
     let report = read(&table(
         "Year,Quarter,Bird seed",
         &[

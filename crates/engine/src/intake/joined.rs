@@ -291,6 +291,13 @@ fn part_text(cell: &str, how: YearPart) -> String {
 /// and numbered (fiscal) periods.
 const UNPLACED_PART_WORDS: [&str; 4] = ["half", "semester", "period", "fiscal"];
 
+/// Whether every cell is a whole number from 1 to 53: periods or weeks counted within a year.
+fn numbered_within_a_year(filled: &[(usize, &str)]) -> bool {
+    filled
+        .iter()
+        .all(|(_, c)| c.trim().parse::<u32>().is_ok_and(|n| (1..=53).contains(&n)))
+}
+
 /// Beside a year column, a column named as a part of the year ([`YearPart::words`], or halves
 /// and numbered periods) whose cells neither join the year into periods nor read as periods
 /// themselves: the error at its first such row. Left alone, its cells would be read as the
@@ -325,7 +332,11 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .count();
         // One text on every row ("Full year") labels the table, not parts of years.
         let one_text = filled.iter().all(|(_, c)| c.trim() == filled[0].1.trim());
-        if filled.is_empty() || text * 2 <= filled.len() || one_text {
+        // Numbered periods 1 to 13 (or weeks to 53) under "Period" or "Half" count within a
+        // year as no calendar does: they had been left out as calendar details and the rows
+        // of a year summed into one yearly period (a review, 2026-12-04).
+        let numbered = unplaced && !one_text && numbered_within_a_year(&filled);
+        if filled.is_empty() || (text * 2 <= filled.len() && !numbered) || one_text {
             return None;
         }
         let (at, text) = match part {
@@ -355,7 +366,7 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
                  halves and periods numbered within a year (P01 to P13, as four-week periods) \
                  cannot be placed on the calendar; write each row's period as a calendar month \
                  or a date (the period's first day), or, if they are calendar months, name the \
-                 column \"month\"",
+                 column \"month\" (ISO weeks: \"week\")",
                 table.column_name(year)
             ),
         };
