@@ -267,6 +267,15 @@ fn a_part_of_a_year_that_no_calendar_places_is_refused_not_read_as_items() {
             ..Expect::default()
         },
     );
+    // Beside a column counting the rows, the rows are placed by it (as a published file's
+    // t, year, period, value).
+    check(
+        "t,Year,Period,Qty\n1,2023,12,70\n2,2023,13,64\n3,2024,1,65\n4,2024,2,61\n",
+        Expect {
+            frequency: Some(Frequency::Undated),
+            ..Expect::default()
+        },
+    );
     // Beside a year and its month, such a column stays a calendar detail.
     check(
         "Year,Month,Period,Qty\n2023,1,4,70\n2023,2,5,64\n2023,3,6,65\n2023,4,7,61\n",

@@ -13,6 +13,7 @@
 //! would be put in the wrong order.
 
 use super::label::{calendar_name, parse_label, year_of, Family};
+use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::RowError;
@@ -335,7 +336,14 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
         // Numbered periods 1 to 13 (or weeks to 53) under "Period" or "Half" count within a
         // year as no calendar does: they had been left out as calendar details and the rows
         // of a year summed into one yearly period (a review, 2026-12-04).
-        let numbered = unplaced && !one_text && numbered_within_a_year(&filled);
+        // A column counting the rows (1, 2, 3, ...) places them instead, the year and this
+        // column then calendar details (a published file: t, year, period, time, value).
+        let counted = || {
+            (0..table.width).filter(|k| *k != year && *k != j).any(|k| {
+                integer_meaning(&table.column(k, rows), true) == Some(IntegerMeaning::Positions)
+            })
+        };
+        let numbered = unplaced && !one_text && numbered_within_a_year(&filled) && !counted();
         if filled.is_empty() || (text * 2 <= filled.len() && !numbered) || one_text {
             return None;
         }
