@@ -163,8 +163,16 @@ fn main() {
     let mut pooled_cases = 0usize;
     let mut pooled_stated = vec![0.0; targets.len()];
     // Per target: the held-out shortage per cycle, the engine's stated one, the count
-    // distribution's at the same level, and the larger of the two stated.
+    // distribution's at the same level, and the rule before (the larger of the totals' plain
+    // mean excess and that).
     let mut shortfall = vec![[0.0f64; 4]; targets.len()];
+    // The same per lead time, and under fill-rate targets: the held-out shortage and the
+    // cycle demand it is measured against, with the fill rate stated.
+    let mut by_lead = vec![vec![[0.0f64; 4]; targets.len()]; 3];
+    let mut lead_cases = [0usize; 3];
+    let mut fill = vec![[0.0f64; 3]; targets.len()];
+    let mut fill_by_lead = vec![vec![[0.0f64; 3]; targets.len()]; 3];
+    let mut fill_mean = vec![0.0f64; targets.len()];
     for (name, q, size) in processes {
         for months in [24usize, 36, 60] {
             for lead in [1usize, 2, 3] {
@@ -207,6 +215,7 @@ fn main() {
                         continue;
                     };
                     cases += 1;
+                    lead_cases[lead - 1] += 1;
                     scenario_count += sorted.len();
                     for (ti, p) in targets.iter().enumerate() {
                         for (rule, h) in held[ti].iter_mut().enumerate().take(7) {
@@ -225,7 +234,25 @@ fn main() {
                         shortfall[ti][1] += stock.figures.expected_shortage;
                         let model = count_loss(demand.mean(), demand.sd().powi(2), level);
                         shortfall[ti][2] += model;
-                        shortfall[ti][3] += model.max(stock.figures.expected_shortage);
+                        let plain = sorted.iter().map(|x| (x - level).max(0.0)).sum::<f64>()
+                            / sorted.len() as f64;
+                        shortfall[ti][3] += model.max(plain);
+                        let row = &mut by_lead[lead - 1][ti];
+                        row[0] += (actual - level).max(0.0);
+                        row[1] += stock.figures.expected_shortage;
+                        row[3] += model.max(plain);
+                        let settings =
+                            StockSettings::new(lead, None, Target::fill_rate(*p).unwrap()).unwrap();
+                        let for_fill = plan_stock(&plan, &settings).unwrap();
+                        fill[ti][0] += (actual - for_fill.figures.level).max(0.0);
+                        fill[ti][1] += for_fill.cycle_demand;
+                        fill[ti][2] += for_fill.figures.fill_rate;
+                        fill_mean[ti] += (1.0
+                            - (actual - for_fill.figures.level).max(0.0) / for_fill.cycle_demand)
+                            .max(0.0);
+                        let f = &mut fill_by_lead[lead - 1][ti];
+                        f[0] += (actual - for_fill.figures.level).max(0.0);
+                        f[1] += for_fill.cycle_demand;
                         if actual <= stock.figures.level + 1e-9 {
                             held[ti][7] += 1;
                         }
@@ -277,11 +304,45 @@ fn main() {
         let per = |v: f64| v / pooled_cases.max(1) as f64;
         println!(
             "  shortage per cycle, held out {:.4}; stated by the engine {:.4}; the count \
-             distribution's at the same level {:.4}; the larger of the engine's and that {:.4}",
+             distribution's at the same level {:.4}; the rule before (the larger of the \
+             totals' plain mean excess and that) {:.4}",
             per(shortfall[ti][0]),
             per(shortfall[ti][1]),
             per(shortfall[ti][2]),
             per(shortfall[ti][3])
+        );
+        for (l, rows) in by_lead.iter().enumerate() {
+            let per = |v: f64| v / lead_cases[l].max(1) as f64;
+            let r = rows[ti];
+            println!(
+                "    lead time {}: held out {:.4}; stated {:.4}; the rule before {:.4}",
+                l + 1,
+                per(r[0]),
+                per(r[1]),
+                per(r[3])
+            );
+        }
+        println!(
+            "  fill-rate target {:.0} %: held out {:.1} % (1 - shortage / cycle demand, pooled); \
+             stated {:.1} %",
+            100.0 * p,
+            100.0 * (1.0 - fill[ti][0] / fill[ti][1].max(f64::MIN_POSITIVE)),
+            100.0 * per(fill[ti][2])
+        );
+        let held: Vec<String> = fill_by_lead
+            .iter()
+            .map(|rows| {
+                let f = rows[ti];
+                format!(
+                    "{:.1} %",
+                    100.0 * (1.0 - f[0] / f[1].max(f64::MIN_POSITIVE))
+                )
+            })
+            .collect();
+        println!(
+            "    held out at lead times 1 / 2 / 3: {}; the items' own fill rates, averaged: {:.1} %",
+            held.join(" / "),
+            100.0 * per(fill_mean[ti])
         );
     }
 }
