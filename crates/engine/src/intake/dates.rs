@@ -81,22 +81,30 @@ fn gcd(a: i64, b: i64) -> i64 {
 
 /// How far apart, in days, the dates of [`one_a_month`] may fall within their months: a
 /// month's last business day is up to 3 days before its end (a weekend, or Easter's Friday
-/// and Monday), its first up to 3 days after its start; 4 leaves a day for a holiday more.
-pub(crate) const MONTH_DAY_SPREAD: u32 = 4;
+/// and Monday), its first up to 3 days after its start, and the month's last (or first)
+/// Friday up to 6.
+pub(crate) const MONTH_DAY_SPREAD: u32 = 6;
 
 /// Dates one a month on nearby days, each standing for its month (or quarter, or year): the
 /// frequency their months imply, as for dates on one day of the month, with the days they
 /// fall on (`Some` only where [`infer_frequency`] would read them as daily). Monthly totals
 /// dated on a working day (the last business day, the 28th to the 31st) are so. Asked of
 /// the distinct dates: at least 4, no two in one month, all within [`MONTH_DAY_SPREAD`] days
-/// of each other counted from the month's start or from its end, not all a whole number of
-/// weeks apart (those are weekly), and covering at least half the months (or quarters, or
-/// years) from the first to the last: a daily item sold now and then is not so.
+/// of each other counted from the month's start or from its end, read as daily by their
+/// steps, or as weekly but in fewer than half the weeks from the first to the last (monthly
+/// totals dated on the month's last Friday), and covering at least a third of the months (or
+/// quarters, or years) from the first to the last (a kiosk open four months a year): a daily
+/// item sold now and then is not so.
 pub(crate) fn one_a_month(days: &[i64]) -> Option<(Frequency, OneAMonth)> {
     let mut distinct = days.to_vec();
     distinct.sort_unstable();
     distinct.dedup();
-    if distinct.len() < 4 || infer_frequency(&distinct) != Frequency::Daily {
+    let (&first_day, &last_day) = (distinct.first()?, distinct.last()?);
+    let sparse_weeks = (distinct.len() as i64) * 2 < (last_day - first_day) / 7 + 1;
+    let by_steps = infer_frequency(&distinct);
+    if distinct.len() < 4
+        || !(by_steps == Frequency::Daily || (by_steps == Frequency::Weekly && sparse_weeks))
+    {
         return None;
     }
     let civil: Vec<(i32, u32, u32)> = distinct.iter().map(|d| civil_from_days(*d)).collect();
@@ -116,12 +124,10 @@ pub(crate) fn one_a_month(days: &[i64]) -> Option<(Frequency, OneAMonth)> {
     };
     let from_start = spread(&|&(_, _, d)| d);
     let from_end = spread(&|&(y, m, d)| days_in_month(y, m) - d);
-    // The closer count names the days (first business days are also 28 to 30 days before
-    // the month's end); a tie is counted from the end.
+    // The edge nearer the dates names the days (first business days are also 28 to 30 days
+    // before the month's end); a tie is counted from the end.
     let side = match (from_start, from_end) {
-        (Some((lo, hi)), Some((e_lo, e_hi))) if hi - lo < e_hi - e_lo => {
-            OneAMonth::FromStart { lo, hi }
-        }
+        (Some((lo, hi)), Some((e_lo, _))) if lo - 1 < e_lo => OneAMonth::FromStart { lo, hi },
         (_, Some((lo, hi))) => OneAMonth::FromEnd { lo, hi },
         (Some((lo, hi)), None) => OneAMonth::FromStart { lo, hi },
         (None, None) => return None,
@@ -131,7 +137,7 @@ pub(crate) fn one_a_month(days: &[i64]) -> Option<(Frequency, OneAMonth)> {
         return None;
     };
     let spanned = (last - first) / step + 1;
-    if (months.len() as i64) * 2 < spanned {
+    if (months.len() as i64) * 3 < spanned {
         return None;
     }
     let frequency = if step % 12 == 0 {
@@ -155,14 +161,27 @@ pub(crate) enum OneAMonth {
 impl OneAMonth {
     /// The days in words, for the warning that reads them as months.
     pub(crate) fn describe(self) -> String {
+        let days = |n: u32| {
+            if n == 1 {
+                "1 day".to_string()
+            } else {
+                format!("{n} days")
+            }
+        };
         match self {
             OneAMonth::FromEnd { lo: 0, hi } => {
-                format!("on the month's last day or up to {hi} days before it")
+                format!("on the month's last day or up to {} before it", days(hi))
             }
             OneAMonth::FromEnd { lo, hi } => {
-                format!("{lo} to {hi} days before the month's last day")
+                format!("{lo} to {} before the month's last day", days(hi))
             }
-            OneAMonth::FromStart { lo, hi } => format!("between day {lo} and day {hi}"),
+            OneAMonth::FromStart { lo: 1, hi } => {
+                format!(
+                    "on the month's first day or up to {} after it",
+                    days(hi - 1)
+                )
+            }
+            OneAMonth::FromStart { lo, hi } => format!("on days {lo} to {hi} of the month"),
         }
     }
 }
@@ -248,13 +267,15 @@ mod tests {
         );
         check(
             &[(2023, 9, 29), (2023, 12, 29), (2024, 3, 28), (2024, 6, 28)],
-            Some((
-                Frequency::Quarterly,
-                OneAMonth::FromStart { lo: 28, hi: 29 },
-            )),
+            Some((Frequency::Quarterly, OneAMonth::FromEnd { lo: 1, hi: 3 })),
         );
-        // Not so: two dates in a month; days too far apart; too few; half the months or
-        // fewer; a whole number of weeks apart (weekly, not daily).
+        // The month's first Friday: weekly by its steps, but in 4 of 14 weeks.
+        check(
+            &[(2024, 1, 5), (2024, 2, 2), (2024, 3, 1), (2024, 4, 5)],
+            Some((Frequency::Monthly, OneAMonth::FromStart { lo: 1, hi: 5 })),
+        );
+        // Not so: two dates in a month; days too far apart; too few; fewer than a third of
+        // the months; weekly in most weeks (every other Friday, eight times: 8 of 15 weeks).
         check(
             &[(2024, 1, 30), (2024, 1, 31), (2024, 2, 29), (2024, 3, 28)],
             None,
@@ -265,12 +286,16 @@ mod tests {
         );
         check(&[(2024, 1, 31), (2024, 2, 29), (2024, 3, 28)], None);
         check(
-            &[(2024, 1, 31), (2024, 2, 29), (2024, 3, 28), (2024, 12, 30)],
+            &[(2024, 1, 31), (2024, 2, 29), (2024, 10, 31), (2025, 3, 31)],
             None,
         );
-        check(
-            &[(2024, 1, 5), (2024, 2, 2), (2024, 3, 1), (2024, 4, 5)],
-            None,
+        let fortnights: Vec<(i32, u32, u32)> = (0..8)
+            .map(|i| civil_from_days(days_from_civil(2024, 1, 5) + 14 * i))
+            .collect();
+        check(&fortnights, None);
+        assert_eq!(
+            OneAMonth::FromEnd { lo: 0, hi: 1 }.describe(),
+            "on the month's last day or up to 1 day before it"
         );
     }
 }

@@ -132,6 +132,7 @@ mod mark;
 mod number;
 mod order;
 mod period;
+mod regroup;
 mod shapes;
 mod stock_table;
 mod table;

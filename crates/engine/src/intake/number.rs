@@ -100,10 +100,13 @@ impl NumberError {
                  none (a formula's error?): write the quantity, or leave the cell empty for a gap"
                 .to_string(),
             NumberError::Dash => {
-                format!("expected a number; a dash alone is none: {ZERO_OR_GAP}")
+                format!("expected a number, not a dash: {ZERO_OR_GAP}")
             }
             NumberError::NoneWord(word) => {
-                format!("expected a number; \"{word}\" is a word, not a quantity: {ZERO_OR_GAP}")
+                format!("expected a number; \"{word}\" is not one: {ZERO_OR_GAP}")
+            }
+            NumberError::TrailingMinus(negative) if negative == "0" => {
+                "expected a number without a minus after it: write 0".to_string()
             }
             NumberError::TrailingMinus(negative) => format!(
                 "expected a number with its minus sign first: write {negative} if this is a \
@@ -180,8 +183,9 @@ pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, Numb
     if NOT_FINITE.iter().any(|w| w.eq_ignore_ascii_case(word)) {
         return Err(NumberError::NotFinite);
     }
-    let parts = split_affixes(cell).map_err(|e| refine(cell, e))?;
-    let magnitude = parse_core(parts.core, parts.exponent, mark).map_err(|e| refine(cell, e))?;
+    let parts = split_affixes(cell).map_err(|e| refine(cell, mark, e))?;
+    let magnitude =
+        parse_core(parts.core, parts.exponent, mark).map_err(|e| refine(cell, mark, e))?;
     if !magnitude.is_finite() || magnitude > MAX_MAGNITUDE {
         return Err(NumberError::TooLarge);
     }
@@ -198,7 +202,7 @@ pub(crate) fn parse_number(cell: &str, mark: DecimalMark) -> Result<Number, Numb
 
 /// A cell that is no number, said more exactly where it is a dash, a word for nothing or a
 /// number with its minus after it; `error` otherwise.
-fn refine(cell: &str, error: NumberError) -> NumberError {
+fn refine(cell: &str, mark: DecimalMark, error: NumberError) -> NumberError {
     if !matches!(error, NumberError::NotANumber | NumberError::UnknownUnit(_)) {
         return error;
     }
@@ -220,10 +224,21 @@ fn refine(cell: &str, error: NumberError) -> NumberError {
         Some(number)
             if !number.is_empty()
                 && number.chars().any(|c| c.is_ascii_digit())
-                && !number.starts_with(['-', '\u{2212}'])
-                && looks_number(number) =>
+                && !number.starts_with(['-', '\u{2212}']) =>
         {
-            NumberError::TrailingMinus(format!("-{number}"))
+            // Written plainly, without grouping, in the file's decimal mark: "1,200-" in a
+            // comma-separated file is "-1200", not a cell that splits in two.
+            match parse_number(number, mark) {
+                Ok(n) if n.value == 0.0 => NumberError::TrailingMinus("0".to_string()),
+                Ok(n) => {
+                    let plain = (-n.value).to_string();
+                    NumberError::TrailingMinus(match mark {
+                        DecimalMark::Dot => plain,
+                        DecimalMark::Comma => plain.replace('.', ","),
+                    })
+                }
+                Err(_) => error,
+            }
         }
         _ => error,
     }
@@ -449,12 +464,17 @@ mod tests {
         check(
             "1,200.50 -",
             Dot,
-            NumberError::TrailingMinus("-1,200.50".to_string()),
+            NumberError::TrailingMinus("-1200.5".to_string()),
         );
         check(
             "12,5-",
             Comma,
             NumberError::TrailingMinus("-12,5".to_string()),
+        );
+        check("0-", Dot, NumberError::TrailingMinus("0".to_string()));
+        assert_eq!(
+            NumberError::TrailingMinus("0".to_string()).message(Dot),
+            "expected a number without a minus after it: write 0"
         );
         check("-7-", Dot, NumberError::NotANumber);
         check("7x", Dot, NumberError::UnknownUnit("x".to_string()));

@@ -36,6 +36,7 @@ use std::ops::RangeInclusive;
 
 use super::dates::{date_period, infer_frequency, two_way_days};
 use super::label::{parse_label, Family, Label};
+use super::regroup::regroup;
 use crate::calendar::{
     civil_from_days, days_from_civil, is_valid_date, weekday, Frequency, Period,
 };
@@ -539,6 +540,18 @@ pub(crate) fn read_periods_anchored(
             *p = None;
         }
     }
+    // Dates standing for longer periods than their steps say (monthly totals on a working
+    // day, stores' own weekdays): read so before strays are looked for, whose gaps are
+    // counted in the periods read (a review found closed months refused as typos, counted
+    // in days).
+    let mut regrouped = false;
+    if let Some(column_days) = days.as_ref() {
+        if let Some(read) = regroup(column_days, series, anchor, frequency) {
+            (periods, frequency) = (read.periods, read.frequency);
+            warnings.extend(read.warnings);
+            regrouped = true;
+        }
+    }
     let strays = stray_periods(&periods);
     if !strays.is_empty() {
         for (i, message) in strays {
@@ -550,8 +563,12 @@ pub(crate) fn read_periods_anchored(
         }
         // A stray date can hide the frequency of the others (monthly dates and one typo on
         // the 15th read as daily): infer it again from the dates kept, and check once more.
-        if let Some(days) = &days {
+        if let (Some(days), false) = (&days, regrouped) {
             (periods, frequency) = dated(days, anchor);
+            if let Some(read) = regroup(days, series, anchor, frequency) {
+                (periods, frequency) = (read.periods, read.frequency);
+                warnings.extend(read.warnings);
+            }
             for (i, message) in stray_periods(&periods) {
                 periods[i] = None;
                 errors.push((i, message));
@@ -589,56 +606,6 @@ pub(crate) fn read_periods_anchored(
                     said.join(", ")
                 ));
                 (periods, frequency) = dated(column_days, anchor);
-            }
-        }
-    }
-    // Two stores closing their weeks on different weekdays (Sunday and Saturday) make a
-    // long table daily, each store's other days "closed": where each item is dated on its
-    // own weekday a week apart, the dates are read as weeks, said. A review found two stores'
-    // weekly sales read so, with reorder points over one day.
-    if let (Frequency::Daily, Some(column_days), Some(series)) = (frequency, days.as_ref(), series)
-    {
-        if let Some(weekdays) = weekly_by_series(column_days, series) {
-            periods = dated_as(column_days, Frequency::Weekly, anchor);
-            frequency = Frequency::Weekly;
-            let each: Vec<String> = weekdays
-                .iter()
-                .map(|(w, n)| {
-                    let s = if *n == 1 { "" } else { "s" };
-                    format!("{}s for {n} item{s}", WEEKDAY_NAMES[*w as usize])
-                })
-                .collect();
-            warnings.push(format!(
-                "each item's dates fall on one weekday a week apart, but not the same weekday \
-                     for all ({}): each row was read as the week that holds its date (weekly sales, \
-                     each dated by its own store's or item's day of the week)",
-                each.join(", ")
-            ));
-        }
-    }
-    // Monthly totals dated on a working day (the last business day: 28 March, 30 April, 31
-    // May) are daily by their steps, each month's other days then "closed": read as the
-    // months holding them, said. A review found a long table of such totals read as daily.
-    if frequency == Frequency::Daily {
-        if let Some(column_days) = days.as_ref() {
-            let dates: Vec<i64> = column_days.iter().flatten().copied().collect();
-            if let Some((by, side)) = super::dates::one_a_month(&dates) {
-                periods = column_days
-                    .iter()
-                    .map(|d| d.map(|d| date_period(d, by)))
-                    .collect();
-                frequency = by;
-                let what = match by {
-                    Frequency::Yearly => "year",
-                    Frequency::Quarterly => "quarter",
-                    _ => "month",
-                };
-                warnings.push(format!(
-                    "the dates of this column fall one a {what}, {} (a working day, not one \
-                     day of the month), so each row was read as the {what} that holds its date; \
-                     if they are single days' sales, the other days are missing",
-                    side.describe()
-                ));
             }
         }
     }
@@ -691,7 +658,11 @@ fn dated(days: &[Option<i64>], anchor: WeekAnchor) -> (Vec<Option<Period>>, Freq
 }
 
 /// The periods of `frequency` that hold the dates (day numbers).
-fn dated_as(days: &[Option<i64>], frequency: Frequency, anchor: WeekAnchor) -> Vec<Option<Period>> {
+pub(super) fn dated_as(
+    days: &[Option<i64>],
+    frequency: Frequency,
+    anchor: WeekAnchor,
+) -> Vec<Option<Period>> {
     days.iter()
         .map(|d| {
             d.map(|d| match frequency {
@@ -702,50 +673,8 @@ fn dated_as(days: &[Option<i64>], frequency: Frequency, anchor: WeekAnchor) -> V
         .collect()
 }
 
-/// The weekdays of a long table's dates where each of its items (a store's own, where a store
-/// column names them) is dated on one weekday, a week apart, but not all on the same one:
-/// two stores closing their weeks on Sunday and on Saturday. Asked: at least two items with
-/// 4 dates or more, every item with two dates or more on a single weekday, and each of them
-/// dated in at least half the weeks from its first date to its last (a daily item sold on a
-/// few Saturdays is not so); `series` holds each row's item key (`None` for a row naming
-/// none). The weekdays come with how many items close their weeks on each, most first.
-fn weekly_by_series(days: &[Option<i64>], series: &[Option<String>]) -> Option<Vec<(u32, usize)>> {
-    let mut by_item: std::collections::BTreeMap<&str, Vec<i64>> = Default::default();
-    for (d, key) in days.iter().zip(series) {
-        if let (Some(d), Some(key)) = (d, key) {
-            by_item.entry(key.as_str()).or_default().push(*d);
-        }
-    }
-    let mut per_weekday = [0usize; 7];
-    let mut long_enough = 0;
-    for dates in by_item.values_mut() {
-        dates.sort_unstable();
-        dates.dedup();
-        let (Some(first), Some(last)) = (dates.first(), dates.last()) else {
-            continue;
-        };
-        if dates.len() < 2 {
-            continue;
-        }
-        let day = weekday(*first);
-        if dates.iter().any(|d| weekday(*d) != day)
-            || (dates.len() as i64) * 2 < (last - first) / 7 + 1
-        {
-            return None;
-        }
-        per_weekday[day as usize] += 1;
-        long_enough += usize::from(dates.len() >= 4);
-    }
-    let mut weekdays: Vec<(u32, usize)> = (0..7u32)
-        .map(|w| (w, per_weekday[w as usize]))
-        .filter(|(_, n)| *n > 0)
-        .collect();
-    weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
-    (long_enough >= 2 && weekdays.len() >= 2).then_some(weekdays)
-}
-
 /// Weekday names, Monday first, as [`weekday`] numbers them.
-const WEEKDAY_NAMES: [&str; 7] = [
+pub(super) const WEEKDAY_NAMES: [&str; 7] = [
     "Monday",
     "Tuesday",
     "Wednesday",

@@ -1,0 +1,237 @@
+//! Dates that stand for longer periods than their steps say: monthly totals dated on a
+//! working day (the last business day: 28 March, 30 April, 31 May), and a long table's stores
+//! or items each closing their weeks on their own weekday (Sunday and Saturday). By their
+//! steps such dates are daily (or weekly, for monthly totals that all fall on a Friday), each
+//! period's other days then "closed" with zeros; a review (2026-12-04) found both read so,
+//! with reorder points over one day. Here they are read as the months (quarters, years) or
+//! ISO weeks that hold them, said in a warning.
+//!
+//! Kept apart from: the frequency dates imply by their steps ([`super::dates`], which also
+//! finds dates one a month, [`super::dates::one_a_month`]) and the reading of the column as a
+//! whole ([`super::period`]), which asks [`regroup`] before it looks for stray periods, so
+//! that a closed season's gap is counted in months, not days.
+
+use std::collections::BTreeMap;
+
+use super::dates::{date_period, one_a_month};
+use super::period::{dated_as, WeekAnchor, WEEKDAY_NAMES};
+use crate::calendar::{civil_from_days, weekday, Frequency, Period};
+
+/// Dates read as longer periods, with what to say of them.
+pub(crate) struct Regrouped {
+    /// One period per row; `None` for a row without a date, or left out (see [`weeks_of_items`]).
+    pub periods: Vec<Option<Period>>,
+    pub frequency: Frequency,
+    pub warnings: Vec<String>,
+}
+
+/// The dates of a column (day numbers, one per row) read as longer periods where they stand
+/// for them, `inferred` the frequency their steps imply; `series` holds each row's item key
+/// in a long table. `None`: the dates mean what their steps say.
+pub(crate) fn regroup(
+    days: &[Option<i64>],
+    series: Option<&[Option<String>]>,
+    anchor: WeekAnchor,
+    inferred: Frequency,
+) -> Option<Regrouped> {
+    if inferred == Frequency::Daily {
+        if let Some(found) = series.and_then(|s| weeks_of_items(days, s, anchor)) {
+            return Some(found);
+        }
+    }
+    if !matches!(inferred, Frequency::Daily | Frequency::Weekly) {
+        return None;
+    }
+    let dates: Vec<i64> = days.iter().flatten().copied().collect();
+    let (by, side) = one_a_month(&dates)?;
+    let what = match by {
+        Frequency::Yearly => "year",
+        Frequency::Quarterly => "quarter",
+        _ => "month",
+    };
+    Some(Regrouped {
+        periods: days.iter().map(|d| d.map(|d| date_period(d, by))).collect(),
+        frequency: by,
+        warnings: vec![format!(
+            "the dates of this column fall one a {what}, {} (not on one fixed day of the \
+             month, as totals dated on a working day do), so each row was read as the {what} \
+             that holds its date; if these are single days' sales, write every day, with 0 \
+             where nothing sold",
+            side.describe()
+        )],
+    })
+}
+
+/// A long table where each item (a store's own, where a store column names them) is dated
+/// on one weekday a week apart, but not all on the same one, read as ISO weeks. Asked: two
+/// items or more with 2 dates or more, one of them with 4 or more; every such item on a
+/// single weekday but for one date in ten at most (one, from 4 dates: a delivery moved for a
+/// holiday) in a week it has no other date in, dated in at least a third of the weeks from
+/// its first date to its last (a seasonal item), and, with 3 dates or more, not only every
+/// other week or less often (fortnightly, which no period here holds). Where the file ends
+/// before some items' weekday came round in the last week, that week holds only the others'
+/// figures and would give those items a 0 they never sold: its rows are left out, said.
+fn weeks_of_items(
+    days: &[Option<i64>],
+    series: &[Option<String>],
+    anchor: WeekAnchor,
+) -> Option<Regrouped> {
+    let mut by_item: BTreeMap<&str, Vec<i64>> = BTreeMap::new();
+    for (d, key) in days.iter().zip(series) {
+        if let (Some(d), Some(key)) = (d, key) {
+            by_item.entry(key.as_str()).or_default().push(*d);
+        }
+    }
+    let mut per_weekday = [0usize; 7];
+    let (mut dated, mut long_enough) = (0, 0);
+    let mut moved: Vec<i64> = Vec::new();
+    for dates in by_item.values_mut() {
+        dates.sort_unstable();
+        dates.dedup();
+        if dates.len() < 2 {
+            continue;
+        }
+        let (day, off) = own_weekday(dates)?;
+        // ISO weeks (Monday first: day numbers count from a Thursday, 1970-01-01).
+        let week = |d: i64| (d + 3).div_euclid(7);
+        let mut weeks: Vec<i64> = dates.iter().map(|d| week(*d)).collect();
+        weeks.dedup();
+        let (first, last) = (weeks[0], weeks[weeks.len() - 1]);
+        let steps = weeks.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
+        if weeks.len() < dates.len()
+            || (weeks.len() as i64) * 3 < last - first + 1
+            || (weeks.len() >= 3 && steps > 1)
+        {
+            return None;
+        }
+        moved.extend(off);
+        per_weekday[day as usize] += 1;
+        dated += 1;
+        long_enough += usize::from(dates.len() >= 4);
+    }
+    let mut weekdays: Vec<(u32, usize)> = (0..7u32)
+        .map(|w| (w, per_weekday[w as usize]))
+        .filter(|(_, n)| *n > 0)
+        .collect();
+    if dated < 2 || long_enough < 1 || weekdays.len() < 2 {
+        return None;
+    }
+    weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
+    let mut periods = dated_as(days, Frequency::Weekly, anchor);
+    let each: Vec<String> = weekdays
+        .iter()
+        .map(|(w, n)| {
+            let s = if *n == 1 { "" } else { "s" };
+            format!("{}s for {n} item{s}", WEEKDAY_NAMES[*w as usize])
+        })
+        .collect();
+    let mut warnings = vec![format!(
+        "each item's dates fall on one weekday a week apart, but not the same weekday for all \
+         ({}): each row was read as the ISO week (Monday to Sunday) that holds its date, \
+         weekly sales dated by each store's or item's own day",
+        each.join(", ")
+    )];
+    if !moved.is_empty() {
+        moved.sort_unstable();
+        moved.dedup();
+        let said: Vec<String> = moved
+            .iter()
+            .map(|d| {
+                let (y, m, day) = civil_from_days(*d);
+                format!(
+                    "{y:04}-{m:02}-{day:02} (a {})",
+                    WEEKDAY_NAMES[weekday(*d) as usize]
+                )
+            })
+            .collect();
+        warnings.push(format!(
+            "dated off their item's usual weekday, each read as the week that holds it: {}; \
+             check them",
+            said.join(", ")
+        ));
+    }
+    if let Some(warning) = leave_out_unfinished_week(days, series, &mut periods) {
+        warnings.push(warning);
+    }
+    Some(Regrouped {
+        periods,
+        frequency: Frequency::Weekly,
+        warnings,
+    })
+}
+
+/// An item's usual weekday and its dates off it: all on one weekday, or all but one in ten
+/// (one from 4 dates); `None` otherwise.
+fn own_weekday(dates: &[i64]) -> Option<(u32, Vec<i64>)> {
+    let mut count = [0usize; 7];
+    for d in dates {
+        count[weekday(*d) as usize] += 1;
+    }
+    let usual = (0..7u32).max_by_key(|w| count[*w as usize])?;
+    let off: Vec<i64> = dates
+        .iter()
+        .copied()
+        .filter(|d| weekday(*d) != usual)
+        .collect();
+    let allowed = if dates.len() >= 4 {
+        (dates.len() / 10).max(1)
+    } else {
+        0
+    };
+    (off.len() <= allowed).then_some((usual, off))
+}
+
+/// Where some item's weekday had not come round in the last week when the file ends (its
+/// last date a week or less before the file's last date, in an earlier week), the rows of
+/// that last week are left out (their periods set to `None`); the warning says so.
+fn leave_out_unfinished_week(
+    days: &[Option<i64>],
+    series: &[Option<String>],
+    periods: &mut [Option<Period>],
+) -> Option<String> {
+    let end = days.iter().flatten().copied().max()?;
+    let last_week = periods.iter().flatten().copied().max()?;
+    let mut latest: BTreeMap<&str, (i64, Period)> = BTreeMap::new();
+    for ((d, key), p) in days.iter().zip(series).zip(periods.iter()) {
+        if let (Some(d), Some(key), Some(p)) = (d, key, p) {
+            let entry = latest.entry(key.as_str()).or_insert((*d, *p));
+            if *d > entry.0 {
+                *entry = (*d, *p);
+            }
+        }
+    }
+    let waiting: Vec<u32> = latest
+        .values()
+        .filter(|(d, p)| *p < last_week && d + 7 > end)
+        .map(|(d, _)| weekday(*d))
+        .collect();
+    if waiting.is_empty() {
+        return None;
+    }
+    let mut rows = 0;
+    for p in periods.iter_mut() {
+        if *p == Some(last_week) {
+            *p = None;
+            rows += 1;
+        }
+    }
+    let mut names: Vec<&str> = waiting.iter().map(|w| WEEKDAY_NAMES[*w as usize]).collect();
+    names.sort_unstable();
+    names.dedup();
+    let (y, m, d) = civil_from_days(end);
+    Some(format!(
+        "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} \
+         {y:04}-{m:02}-{d:02}, before the {} that other items' weeks are dated by, so that week \
+         holds only some items' figures and would give the others a 0 they did not sell",
+        WEEKDAY_NAMES[weekday(end) as usize],
+        names.join(" or ")
+    ))
+}
+
+fn gcd(a: i64, b: i64) -> i64 {
+    if b == 0 {
+        a.abs()
+    } else {
+        gcd(b, a % b)
+    }
+}
