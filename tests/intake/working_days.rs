@@ -338,3 +338,94 @@ fn working_day_dates_are_read_as_their_periods_whatever_their_gaps() {
         },
     );
 }
+
+// A third review (2026-12-05): one date off the pattern made each of these daily again, with
+// hundreds of days of 0: a correction dated the 27th among month ends; two stores (or items)
+// closing their months on different days; a Sunday series with two weeks dated Saturday; a
+// Monday delivery moved to the Saturday before Christmas; and June and July totals of three
+// years were refused as typos.
+#[test]
+fn one_date_off_the_pattern_leaves_months_and_weeks_as_they_are() {
+    let mut text = String::from("Date,Item,Units\n");
+    for m in 1..=12u32 {
+        let last = morrowcast_engine::calendar::days_in_month(2023, m);
+        text.push_str(&format!("2023-{m:02}-{last},Tarp,{}\n", 10 + m));
+    }
+    text.push_str("2023-12-27,Tarp,-3\n");
+    let report = check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            warned: vec![vec![
+                "a date falls off that pattern, read into the month that holds it",
+                "check 2023-12-27",
+            ]],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items[0].values.len(), 12);
+    assert_eq!(report.items[0].values[11], Some(22.0 - 3.0));
+    // Two stores: the month's last working day and its last calendar day.
+    let mut text = String::from("Store,Date,Item,Units\n");
+    for (m, d) in LAST_WORKING_DAYS_2024.iter().map(|(_, m, d)| (*m, *d)) {
+        let last = morrowcast_engine::calendar::days_in_month(2024, m);
+        text.push_str(&format!("North,2024-{m:02}-{d:02},Tarp,5\n"));
+        text.push_str(&format!("Harbour,2024-{m:02}-{last:02},Tarp,7\n"));
+    }
+    let report = check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    assert!(report
+        .items
+        .iter()
+        .all(|i| i.values == some(&[i.values[0].unwrap(); 12])));
+    // Sundays, two of twelve weeks dated on the Saturday before.
+    let mut text = String::from("Week,Units\n");
+    let first = days_from_civil(2024, 1, 7);
+    for w in 0..12 {
+        let day = first + 7 * w - i64::from(w == 3 || w == 8);
+        let (y, m, d) = civil_from_days(day);
+        text.push_str(&format!("{y}-{m:02}-{d:02},{}\n", 20 + w));
+    }
+    check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec!["a week apart on Sundays but for"]],
+            ..Expect::default()
+        },
+    );
+    // Mondays and Thursdays; the Monday of 30 December delivered on Saturday the 28th.
+    let mut text = rows(&[
+        ("Rope coil", (2024, 11, 4), 7, 12, 10.0),
+        ("Tarp", (2024, 11, 7), 7, 12, 5.0),
+    ]);
+    text = text.replace("2024-12-30,Rope coil", "2024-12-28,Rope coil");
+    let report = check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec![
+                "2024-12-28 (a Saturday) as the week of 2024-12-30",
+                "check them",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let rope = report.items.iter().find(|i| i.name == "Rope coil").unwrap();
+    assert_eq!(rope.values, some(&[10.0; 12]));
+    // June and July of three years.
+    check(
+        "Date,Item,Units\n2021-06-30,Fern pot,5\n2021-07-30,Fern pot,6\n2022-06-30,Fern pot,5\n\
+         2022-07-29,Fern pot,7\n2023-06-30,Fern pot,6\n2023-07-31,Fern pot,8\n",
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            warned: vec![vec!["fall one a month"]],
+            ..Expect::default()
+        },
+    );
+}

@@ -13,7 +13,7 @@
 //! - otherwise daily. A single date is monthly when it is a first or last of the month.
 //!
 //! Dates one a month on nearby days (a month's last business day) are daily by that rule;
-//! [`one_a_month`] finds them, for the period reader to read them as months and say so.
+//! [`super::month_days`] finds them, for the period reader to read them as months and say so.
 
 use super::label::Label;
 use crate::calendar::{
@@ -79,113 +79,6 @@ fn gcd(a: i64, b: i64) -> i64 {
     }
 }
 
-/// How far apart, in days, the dates of [`one_a_month`] may fall within their months: a
-/// month's last business day is up to 3 days before its end (a weekend, or Easter's Friday
-/// and Monday), its first up to 3 days after its start, and the month's last (or first)
-/// Friday up to 6.
-pub(crate) const MONTH_DAY_SPREAD: u32 = 6;
-
-/// Dates one a month on nearby days, each standing for its month (or quarter, or year): the
-/// frequency their months imply, as for dates on one day of the month, with the days they
-/// fall on (`Some` only where [`infer_frequency`] would read them as daily). Monthly totals
-/// dated on a working day (the last business day, the 28th to the 31st) are so. Asked of
-/// the distinct dates: at least 4, no two in one month, all within [`MONTH_DAY_SPREAD`] days
-/// of each other counted from the month's start or from its end, read as daily by their
-/// steps, or as weekly but in fewer than half the weeks from the first to the last (monthly
-/// totals dated on the month's last Friday), and covering at least a third of the months (or
-/// quarters, or years) from the first to the last (a kiosk open four months a year): a daily
-/// item sold now and then is not so.
-pub(crate) fn one_a_month(days: &[i64]) -> Option<(Frequency, OneAMonth)> {
-    let mut distinct = days.to_vec();
-    distinct.sort_unstable();
-    distinct.dedup();
-    let (&first_day, &last_day) = (distinct.first()?, distinct.last()?);
-    let sparse_weeks = (distinct.len() as i64) * 2 < (last_day - first_day) / 7 + 1;
-    let by_steps = infer_frequency(&distinct);
-    if distinct.len() < 4
-        || !(by_steps == Frequency::Daily || (by_steps == Frequency::Weekly && sparse_weeks))
-    {
-        return None;
-    }
-    let civil: Vec<(i32, u32, u32)> = distinct.iter().map(|d| civil_from_days(*d)).collect();
-    let months: Vec<i64> = civil
-        .iter()
-        .map(|&(y, m, _)| i64::from(y) * 12 + i64::from(m))
-        .collect();
-    if months.windows(2).any(|w| w[0] == w[1]) {
-        return None;
-    }
-    let spread = |of: &dyn Fn(&(i32, u32, u32)) -> u32| {
-        let (lo, hi) = civil
-            .iter()
-            .map(of)
-            .fold((u32::MAX, 0), |(lo, hi), v| (lo.min(v), hi.max(v)));
-        (hi - lo <= MONTH_DAY_SPREAD).then_some((lo, hi))
-    };
-    let from_start = spread(&|&(_, _, d)| d);
-    let from_end = spread(&|&(y, m, d)| days_in_month(y, m) - d);
-    // The edge nearer the dates names the days (first business days are also 28 to 30 days
-    // before the month's end); a tie is counted from the end.
-    let side = match (from_start, from_end) {
-        (Some((lo, hi)), Some((e_lo, _))) if lo - 1 < e_lo => OneAMonth::FromStart { lo, hi },
-        (_, Some((lo, hi))) => OneAMonth::FromEnd { lo, hi },
-        (Some((lo, hi)), None) => OneAMonth::FromStart { lo, hi },
-        (None, None) => return None,
-    };
-    let step = months.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
-    let (Some(first), Some(last)) = (months.first(), months.last()) else {
-        return None;
-    };
-    let spanned = (last - first) / step + 1;
-    if (months.len() as i64) * 3 < spanned {
-        return None;
-    }
-    let frequency = if step % 12 == 0 {
-        Frequency::Yearly
-    } else if step % 3 == 0 {
-        Frequency::Quarterly
-    } else {
-        Frequency::Monthly
-    };
-    Some((frequency, side))
-}
-
-/// Where in their months the dates of [`one_a_month`] fall: days `lo` to `hi` counted from the
-/// month's first day (1 = the first) or from its last (0 = the last day).
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub(crate) enum OneAMonth {
-    FromStart { lo: u32, hi: u32 },
-    FromEnd { lo: u32, hi: u32 },
-}
-
-impl OneAMonth {
-    /// The days in words, for the warning that reads them as months.
-    pub(crate) fn describe(self) -> String {
-        let days = |n: u32| {
-            if n == 1 {
-                "1 day".to_string()
-            } else {
-                format!("{n} days")
-            }
-        };
-        match self {
-            OneAMonth::FromEnd { lo: 0, hi } => {
-                format!("on the month's last day or up to {} before it", days(hi))
-            }
-            OneAMonth::FromEnd { lo, hi } => {
-                format!("{lo} to {} before the month's last day", days(hi))
-            }
-            OneAMonth::FromStart { lo: 1, hi } => {
-                format!(
-                    "on the month's first day or up to {} after it",
-                    days(hi - 1)
-                )
-            }
-            OneAMonth::FromStart { lo, hi } => format!("on days {lo} to {hi} of the month"),
-        }
-    }
-}
-
 /// The period of `frequency` that holds the date.
 pub(crate) fn date_period(days: i64, frequency: Frequency) -> Period {
     let (y, m, d) = civil_from_days(days);
@@ -235,67 +128,5 @@ mod tests {
         );
         assert_eq!(f(&[(2024, 1, 1)]), Frequency::Monthly);
         assert_eq!(f(&[(2024, 1, 9)]), Frequency::Daily);
-    }
-
-    #[test]
-    fn dates_one_a_month_on_nearby_days() {
-        let check = |dates: &[(i32, u32, u32)], expected: Option<(Frequency, OneAMonth)>| {
-            assert_eq!(one_a_month(&days(dates)), expected, "{dates:?}");
-        };
-        // Last business days of 2024 (Easter: Friday 29 March and Monday 1 April).
-        check(
-            &[
-                (2024, 1, 31),
-                (2024, 2, 29),
-                (2024, 3, 28),
-                (2024, 4, 30),
-                (2024, 5, 31),
-                (2024, 6, 28),
-            ],
-            Some((Frequency::Monthly, OneAMonth::FromEnd { lo: 0, hi: 3 })),
-        );
-        // First business days; quarter ends on working days.
-        check(
-            &[
-                (2024, 1, 2),
-                (2024, 2, 1),
-                (2024, 3, 1),
-                (2024, 4, 2),
-                (2024, 5, 1),
-            ],
-            Some((Frequency::Monthly, OneAMonth::FromStart { lo: 1, hi: 2 })),
-        );
-        check(
-            &[(2023, 9, 29), (2023, 12, 29), (2024, 3, 28), (2024, 6, 28)],
-            Some((Frequency::Quarterly, OneAMonth::FromEnd { lo: 1, hi: 3 })),
-        );
-        // The month's first Friday: weekly by its steps, but in 4 of 14 weeks.
-        check(
-            &[(2024, 1, 5), (2024, 2, 2), (2024, 3, 1), (2024, 4, 5)],
-            Some((Frequency::Monthly, OneAMonth::FromStart { lo: 1, hi: 5 })),
-        );
-        // Not so: two dates in a month; days too far apart; too few; fewer than a third of
-        // the months; weekly in most weeks (every other Friday, eight times: 8 of 15 weeks).
-        check(
-            &[(2024, 1, 30), (2024, 1, 31), (2024, 2, 29), (2024, 3, 28)],
-            None,
-        );
-        check(
-            &[(2024, 1, 31), (2024, 2, 20), (2024, 3, 28), (2024, 4, 30)],
-            None,
-        );
-        check(&[(2024, 1, 31), (2024, 2, 29), (2024, 3, 28)], None);
-        check(
-            &[(2024, 1, 31), (2024, 2, 29), (2024, 10, 31), (2025, 3, 31)],
-            None,
-        );
-        let fortnights: Vec<(i32, u32, u32)> = (0..8)
-            .map(|i| civil_from_days(days_from_civil(2024, 1, 5) + 14 * i))
-            .collect();
-        check(&fortnights, None);
-        assert_eq!(
-            OneAMonth::FromEnd { lo: 0, hi: 1 }.describe(),
-            "on the month's last day or up to 1 day before it"
-        );
     }
 }

@@ -129,6 +129,7 @@ mod joined;
 mod label;
 mod leave_out;
 mod mark;
+mod month_days;
 mod number;
 mod order;
 mod period;

@@ -685,7 +685,7 @@ pub(super) const WEEKDAY_NAMES: [&str; 7] = [
 ];
 
 /// The dates of a column that is weekly but for a few, each with the day it stands in for: at
-/// least 8 distinct dates, nine in ten of them or more on one weekday a whole number of weeks
+/// least 8 distinct dates, four in five of them or more on one weekday a whole number of weeks
 /// apart and covering at least eight in ten of the weeks from the first to the last, and each
 /// other date within 3 days of a day of that weekday which the column lacks (one per such
 /// day). Empty when the column is not so: daily sales (a market's Saturdays and a bank
@@ -713,8 +713,7 @@ fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, i64)> {
     };
     let weeks = (last - first) / 7 + 1;
     let weekly = on_usual.windows(2).all(|w| (w[1] - w[0]) % 7 == 0);
-    if off == 0 || off * 10 > distinct.len() || !weekly || (on_usual.len() as i64) * 10 < 8 * weeks
-    {
+    if off == 0 || off * 5 > distinct.len() || !weekly || (on_usual.len() as i64) * 10 < 8 * weeks {
         return Vec::new();
     }
     // The day of the usual weekday within 3 days of d.

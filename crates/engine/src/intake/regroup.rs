@@ -6,14 +6,15 @@
 //! with reorder points over one day. Here they are read as the months (quarters, years) or
 //! ISO weeks that hold them, said in a warning.
 //!
-//! Kept apart from: the frequency dates imply by their steps ([`super::dates`], which also
-//! finds dates one a month, [`super::dates::one_a_month`]) and the reading of the column as a
-//! whole ([`super::period`]), which asks [`regroup`] before it looks for stray periods, so
-//! that a closed season's gap is counted in months, not days.
+//! Kept apart from: the frequency dates imply by their steps ([`super::dates`]), finding
+//! dates one a month ([`super::month_days`]) and the reading of the column as a whole
+//! ([`super::period`]), which asks [`regroup`] before it looks for stray periods, so that a
+//! closed season's gap is counted in months, not days.
 
 use std::collections::BTreeMap;
 
-use super::dates::{date_period, one_a_month};
+use super::dates::date_period;
+use super::month_days::one_a_month;
 use super::period::{dated_as, WeekAnchor, WEEKDAY_NAMES};
 use crate::calendar::{civil_from_days, weekday, Frequency, Period};
 
@@ -42,31 +43,45 @@ pub(crate) fn regroup(
     if !matches!(inferred, Frequency::Daily | Frequency::Weekly) {
         return None;
     }
-    let dates: Vec<i64> = days.iter().flatten().copied().collect();
-    let (by, side) = one_a_month(&dates)?;
+    let found = one_a_month(days, series)?;
+    let by = found.frequency;
     let what = match by {
         Frequency::Yearly => "year",
         Frequency::Quarterly => "quarter",
         _ => "month",
     };
+    let mut warnings = vec![format!(
+        "the dates of this column fall one a {what}, {} (not on one fixed day of the month, \
+         as totals dated on a working day do), so each row was read as the {what} that holds \
+         its date; if these are single days' sales, write every day, with 0 where nothing sold",
+        found.side.describe()
+    )];
+    if !found.off.is_empty() {
+        let (these, each) = if found.off.len() == 1 {
+            ("a date falls", "read")
+        } else {
+            ("dates fall", "each read")
+        };
+        let dates: Vec<String> = found.off.iter().map(|d| day_text(*d)).collect();
+        warnings.push(format!(
+            "{these} off that pattern, {each} into the {what} that holds it (added to that \
+             {what}'s row where the item has one): check {}",
+            dates.join(", ")
+        ));
+    }
     Some(Regrouped {
         periods: days.iter().map(|d| d.map(|d| date_period(d, by))).collect(),
         frequency: by,
-        warnings: vec![format!(
-            "the dates of this column fall one a {what}, {} (not on one fixed day of the \
-             month, as totals dated on a working day do), so each row was read as the {what} \
-             that holds its date; if these are single days' sales, write every day, with 0 \
-             where nothing sold",
-            side.describe()
-        )],
+        warnings,
     })
 }
 
 /// A long table where each item (a store's own, where a store column names them) is dated
 /// on one weekday a week apart, but not all on the same one, read as ISO weeks. Asked: two
 /// items or more with 2 dates or more, one of them with 4 or more; every such item on a
-/// single weekday but for one date in ten at most (one, from 4 dates: a delivery moved for a
-/// holiday) in a week it has no other date in, dated in at least a third of the weeks from
+/// single weekday but for one date in five at most (one, from 4 dates: a delivery moved for
+/// a holiday), each standing in for a day of that weekday within 3 days whose week has no
+/// other date of the item (read as that week, said), dated in at least a third of the weeks from
 /// its first date to its last (a seasonal item), and, with 3 dates or more, not only every
 /// other week or less often (fortnightly, which no period here holds). Where the file ends
 /// before some items' weekday came round in the last week, that week holds only the others'
@@ -84,7 +99,7 @@ fn weeks_of_items(
     }
     let mut per_weekday = [0usize; 7];
     let (mut dated, mut long_enough) = (0, 0);
-    let mut moved: Vec<i64> = Vec::new();
+    let mut moved: Vec<(i64, i64)> = Vec::new();
     for dates in by_item.values_mut() {
         dates.sort_unstable();
         dates.dedup();
@@ -92,9 +107,11 @@ fn weeks_of_items(
             continue;
         }
         let (day, off) = own_weekday(dates)?;
-        // ISO weeks (Monday first: day numbers count from a Thursday, 1970-01-01).
-        let week = |d: i64| (d + 3).div_euclid(7);
+        // ISO weeks (Monday first: day numbers count from a Thursday, 1970-01-01), a date
+        // off the item's weekday in the week of the usual day it stands in for.
+        let week = |d: i64| (stands_for(d, day) + 3).div_euclid(7);
         let mut weeks: Vec<i64> = dates.iter().map(|d| week(*d)).collect();
+        weeks.sort_unstable();
         weeks.dedup();
         let (first, last) = (weeks[0], weeks[weeks.len() - 1]);
         let steps = weeks.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
@@ -104,7 +121,7 @@ fn weeks_of_items(
         {
             return None;
         }
-        moved.extend(off);
+        moved.extend(off.iter().map(|d| (*d, stands_for(*d, day))));
         per_weekday[day as usize] += 1;
         dated += 1;
         long_enough += usize::from(dates.len() >= 4);
@@ -117,7 +134,19 @@ fn weeks_of_items(
         return None;
     }
     weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
-    let mut periods = dated_as(days, Frequency::Weekly, anchor);
+    // Each moved date is read as the day it stands in for.
+    let placed: Vec<Option<i64>> = days
+        .iter()
+        .map(|d| {
+            d.map(|d| {
+                moved
+                    .iter()
+                    .find(|(from, _)| *from == d)
+                    .map_or(d, |(_, to)| *to)
+            })
+        })
+        .collect();
+    let mut periods = dated_as(&placed, Frequency::Weekly, anchor);
     let each: Vec<String> = weekdays
         .iter()
         .map(|(w, n)| {
@@ -127,8 +156,8 @@ fn weeks_of_items(
         .collect();
     let mut warnings = vec![format!(
         "each item's dates fall on one weekday a week apart, but not the same weekday for all \
-         ({}): each row was read as the ISO week (Monday to Sunday) that holds its date, \
-         weekly sales dated by each store's or item's own day",
+         ({}): each row was read as the ISO week (Monday to Sunday) that holds its date, as \
+         weekly sales each store or item dates by its own day",
         each.join(", ")
     )];
     if !moved.is_empty() {
@@ -136,17 +165,18 @@ fn weeks_of_items(
         moved.dedup();
         let said: Vec<String> = moved
             .iter()
-            .map(|d| {
-                let (y, m, day) = civil_from_days(*d);
+            .map(|(from, to)| {
                 format!(
-                    "{y:04}-{m:02}-{day:02} (a {})",
-                    WEEKDAY_NAMES[weekday(*d) as usize]
+                    "{} (a {}) as the week of {}",
+                    day_text(*from),
+                    WEEKDAY_NAMES[weekday(*from) as usize],
+                    day_text(*to)
                 )
             })
             .collect();
         warnings.push(format!(
-            "dated off their item's usual weekday, each read as the week that holds it: {}; \
-             check them",
+            "dated off their item's usual weekday, each read as the week of the usual day \
+             nearest it: {}; check them",
             said.join(", ")
         ));
     }
@@ -160,7 +190,23 @@ fn weeks_of_items(
     })
 }
 
-/// An item's usual weekday and its dates off it: all on one weekday, or all but one in ten
+/// The day of weekday `usual` within 3 days of `d` (`d` itself on that weekday).
+fn stands_for(d: i64, usual: u32) -> i64 {
+    let ahead = (i64::from(usual) - i64::from(weekday(d))).rem_euclid(7);
+    if ahead <= 3 {
+        d + ahead
+    } else {
+        d + ahead - 7
+    }
+}
+
+/// A date as written in messages.
+fn day_text(d: i64) -> String {
+    let (y, m, day) = civil_from_days(d);
+    format!("{y:04}-{m:02}-{day:02}")
+}
+
+/// An item's usual weekday and its dates off it: all on one weekday, or all but one in five
 /// (one from 4 dates); `None` otherwise.
 fn own_weekday(dates: &[i64]) -> Option<(u32, Vec<i64>)> {
     let mut count = [0usize; 7];
@@ -174,7 +220,7 @@ fn own_weekday(dates: &[i64]) -> Option<(u32, Vec<i64>)> {
         .filter(|d| weekday(*d) != usual)
         .collect();
     let allowed = if dates.len() >= 4 {
-        (dates.len() / 10).max(1)
+        (dates.len() / 5).max(1)
     } else {
         0
     };
