@@ -186,16 +186,19 @@ pub(crate) fn one_a_month(
 /// from its start, holding the most dates (the nearer edge where equal; a tie counted from
 /// the end), with its first day so counted.
 fn best_window(distinct: &BTreeSet<i64>) -> Option<(bool, u32)> {
-    // For each edge, the start of the fullest window (the lowest start among equals).
+    // For each edge, the start of the fullest window (the lowest start among equals), from
+    // a tally of the days (a month has at most 31: linear in the dates, which a daily file
+    // of a century has 36,500 of).
     let fullest = |place: &dyn Fn(i64) -> u32| {
-        let values: Vec<u32> = distinct.iter().map(|d| place(*d)).collect();
-        values
-            .iter()
-            .map(|&lo| {
-                let held = values
-                    .iter()
-                    .filter(|v| **v >= lo && **v <= lo + MONTH_DAY_SPREAD)
-                    .count();
+        let mut tally = [0usize; 32];
+        for d in distinct {
+            tally[place(*d).min(31) as usize] += 1;
+        }
+        (0..32u32)
+            .filter(|lo| tally[*lo as usize] > 0)
+            .map(|lo| {
+                let top = (lo + MONTH_DAY_SPREAD).min(31);
+                let held: usize = tally[lo as usize..=top as usize].iter().sum();
                 (held, std::cmp::Reverse(lo))
             })
             .max()
