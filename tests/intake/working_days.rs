@@ -429,3 +429,27 @@ fn one_date_off_the_pattern_leaves_months_and_weeks_as_they_are() {
         },
     );
 }
+
+// The same review: quarter ends with one quarter's total filed a month late (29 April) had
+// been read as monthly, 18 of 28 months made up; now that row is refused, named, and its
+// quarter is a gap.
+#[test]
+fn a_quarters_total_filed_a_month_late_is_refused_at_its_row() {
+    let text = "date,item,qty\n2021-03-31,Oak tray,208\n2021-06-30,Oak tray,141\n\
+                2021-09-30,Oak tray,142\n2021-12-31,Oak tray,151\n2022-04-29,Oak tray,251\n\
+                2022-06-30,Oak tray,123\n2022-09-30,Oak tray,277\n2022-12-30,Oak tray,124\n\
+                2023-03-31,Oak tray,212\n2023-06-30,Oak tray,244\n";
+    let report = read(text);
+    assert_eq!(report.frequency, Frequency::Quarterly);
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    let error = &report.errors[0];
+    assert_eq!((error.row, error.text.as_str()), (6, "2022-04-29"));
+    assert!(
+        error
+            .message
+            .contains("another month of 2022-Q2 than theirs"),
+        "{}",
+        error.message
+    );
+    assert_eq!(report.items[0].periods.len(), 10);
+}

@@ -13,6 +13,9 @@
 //! - the anchors not weekly by their steps, or weekly but in fewer than half the weeks from
 //!   the first to the last (all on Fridays); month ends with a stray date among them are
 //!   read here too, since the stray makes the column daily;
+//! - quarter or year ends but for one anchor in ten (one from 5) in a month their step
+//!   skips: those are "misplaced" (a quarter's total filed a month late), for the reader to
+//!   refuse at their rows rather than add to the next quarter;
 //! - the anchors' months covering at least a third of the months (or quarters, or years) from
 //!   the first to the last, or 6 anchors or more (a kiosk open two months a year): a daily
 //!   item sold now and then is not so.
@@ -37,6 +40,9 @@ pub(crate) struct OneAMonth {
     pub frequency: Frequency,
     pub side: Side,
     pub off: Vec<i64>,
+    /// Dates like the others in their month but in a month the others' step skips (a
+    /// quarter's total filed a month late): not read, each an error at its rows.
+    pub misplaced: Vec<i64>,
 }
 
 /// Where in their months the anchors fall: days `lo` to `hi` counted from the month's first
@@ -154,13 +160,38 @@ pub(crate) fn one_a_month(
     if infer_frequency(&anchors) == Frequency::Weekly && !sparse_weeks {
         return None;
     }
-    let months: Vec<i64> = anchors
+    let mut months: Vec<i64> = anchors
         .iter()
         .map(|d| month(*d))
         .collect::<BTreeSet<_>>()
         .into_iter()
         .collect();
-    let step = months.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
+    let mut step = months.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
+    // Quarter or year ends but for a date or so a month or two off (a quarter's total filed
+    // late): those are set apart, the step taken from the rest.
+    let mut misplaced = Vec::new();
+    if step % 3 != 0 && anchors.len() >= 5 {
+        for modulus in [12, 3] {
+            let mut residues: BTreeMap<i64, usize> = BTreeMap::new();
+            for m in &months {
+                *residues.entry(m.rem_euclid(modulus)).or_default() += 1;
+            }
+            let Some((&usual, &count)) = residues.iter().max_by_key(|(_, n)| **n) else {
+                continue;
+            };
+            let stray = months.len() - count;
+            if count >= 4 && stray >= 1 && stray <= (months.len() / 10).max(1) {
+                misplaced = anchors
+                    .iter()
+                    .copied()
+                    .filter(|d| month(*d).rem_euclid(modulus) != usual)
+                    .collect();
+                months.retain(|m| m.rem_euclid(modulus) == usual);
+                step = months.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
+                break;
+            }
+        }
+    }
     if step == 0 {
         return None;
     }
@@ -179,6 +210,7 @@ pub(crate) fn one_a_month(
         frequency,
         side,
         off,
+        misplaced,
     })
 }
 
@@ -311,6 +343,28 @@ mod tests {
             Side::FromEnd { lo: 0, hi: 1 }.describe(),
             "on the month's last day or up to 1 day before it"
         );
+    }
+
+    // Quarter ends with the first quarter of 2022 filed on 29 April: quarterly, that date set
+    // apart.
+    #[test]
+    fn a_quarter_filed_a_month_late_is_set_apart() {
+        let dates = [
+            (2021, 3, 31),
+            (2021, 6, 30),
+            (2021, 9, 30),
+            (2021, 12, 31),
+            (2022, 4, 29),
+            (2022, 6, 30),
+            (2022, 9, 30),
+            (2022, 12, 30),
+            (2023, 3, 31),
+            (2023, 6, 30),
+        ];
+        let found = one_a_month(&days(&dates), None).unwrap();
+        assert_eq!(found.frequency, Frequency::Quarterly);
+        assert_eq!(found.misplaced, vec![days_from_civil(2022, 4, 29)]);
+        assert!(found.off.is_empty());
     }
 
     // A correction dated the 27th among twelve month ends is read into December, said; two

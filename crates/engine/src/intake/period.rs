@@ -549,6 +549,7 @@ pub(crate) fn read_periods_anchored(
         if let Some(read) = regroup(column_days, series, anchor, frequency) {
             (periods, frequency) = (read.periods, read.frequency);
             warnings.extend(read.warnings);
+            errors.extend(read.errors);
             regrouped = true;
         }
     }
@@ -568,6 +569,7 @@ pub(crate) fn read_periods_anchored(
             if let Some(read) = regroup(days, series, anchor, frequency) {
                 (periods, frequency) = (read.periods, read.frequency);
                 warnings.extend(read.warnings);
+                errors.extend(read.errors);
             }
             for (i, message) in stray_periods(&periods) {
                 periods[i] = None;

@@ -24,6 +24,8 @@ pub(crate) struct Regrouped {
     pub periods: Vec<Option<Period>>,
     pub frequency: Frequency,
     pub warnings: Vec<String>,
+    /// Rows whose date cannot stand for a period of the others (index, message).
+    pub errors: Vec<(usize, String)>,
 }
 
 /// The dates of a column (day numbers, one per row) read as longer periods where they stand
@@ -69,10 +71,33 @@ pub(crate) fn regroup(
             dates.join(", ")
         ));
     }
+    let mut errors = Vec::new();
+    let periods = days
+        .iter()
+        .enumerate()
+        .map(|(i, d)| {
+            let d = (*d)?;
+            if found.misplaced.contains(&d) {
+                errors.push((
+                    i,
+                    format!(
+                        "expected a date one a {what} like the others ({}); this one is in another \
+                         month of {} than theirs: if it is the total of the {what} before, \
+                         filed late, date it within that {what}",
+                        found.side.describe(),
+                        date_period(d, by)
+                    ),
+                ));
+                return None;
+            }
+            Some(date_period(d, by))
+        })
+        .collect();
     Some(Regrouped {
-        periods: days.iter().map(|d| d.map(|d| date_period(d, by))).collect(),
+        periods,
         frequency: by,
         warnings,
+        errors,
     })
 }
 
@@ -187,6 +212,7 @@ fn weeks_of_items(
         periods,
         frequency: Frequency::Weekly,
         warnings,
+        errors: Vec::new(),
     })
 }
 
