@@ -216,10 +216,13 @@ impl BoardFigures {
                 Ok(&order.stock),
             )),
             Err(OrderError::NoStockFigures { why, plan, alerts }) => {
+                // As a Stock plan takes them: on order counts (0 when blank) only beside
+                // an on hand.
+                let on_hand = row.and_then(|r| r.on_hand);
                 let none = NoStock {
                     why: why.to_string(),
-                    on_hand: row.and_then(|r| r.on_hand),
-                    on_order: row.and_then(|r| r.on_order),
+                    on_hand,
+                    on_order: on_hand.map(|_| row.and_then(|r| r.on_order).unwrap_or(0.0)),
                 };
                 Ok(BoardFigures::new(&plan, &alerts, Err(none)))
             }

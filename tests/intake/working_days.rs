@@ -157,7 +157,8 @@ fn stores_closing_their_weeks_on_different_days_are_weekly() {
             warned: vec![vec![
                 "one weekday a week apart",
                 "Saturdays for 2 items, Sundays for 2 items",
-                "read as the ISO week (Monday to Sunday) that holds its date",
+                "read as the ISO week (Monday to Sunday) holding most of the week its date \
+                 names, as the header says",
             ]],
             ..Expect::default()
         },
@@ -452,4 +453,79 @@ fn a_quarters_total_filed_a_month_late_is_refused_at_its_row() {
         error.message
     );
     assert_eq!(report.items[0].periods.len(), 10);
+}
+
+// A code review (2026-12-05) of the rules above: a date moved onto another item's usual day
+// moved that item's own row too (a week early, its week a 0); one item sold in a few weeks
+// made two stores' weekly table daily again; a new item whose only row was in the last
+// week vanished unnamed; a correction in a table of one row per month was said to be added
+// and then refused as a repeated period; "up to 0 days".
+#[test]
+fn moved_days_stay_with_their_item_and_a_sparse_item_keeps_the_weeks() {
+    // Rope coil on Mondays, its 30 December delivery on Saturday the 28th; Tarp on Saturdays.
+    let mut text = rows(&[
+        ("Rope coil", (2024, 11, 4), 7, 12, 10.0),
+        ("Tarp", (2024, 11, 2), 7, 12, 5.0),
+    ]);
+    text = text.replace("2024-12-30,Rope coil", "2024-12-28,Rope coil");
+    let report = check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            ..Expect::default()
+        },
+    );
+    for item in &report.items {
+        let first = item.values[0].unwrap();
+        assert_eq!(
+            item.values,
+            some(&vec![first; item.values.len()]),
+            "{}",
+            item.name
+        );
+    }
+    // Two stores on Sundays and Saturdays, and a hook sold in 4 of 20 weeks.
+    let mut text = stores(
+        "Date",
+        &[("North", (2024, 1, 7)), ("Harbour", (2024, 1, 6))],
+        20,
+    );
+    for w in [2, 7, 13, 18] {
+        let (y, m, d) = civil_from_days(days_from_civil(2024, 1, 7) + 7 * w);
+        text.push_str(&format!("North,{y}-{m:02}-{d:02},Brass hook,1\n"));
+    }
+    assert_eq!(read(&text).frequency, Frequency::Weekly);
+    // A new item whose only row is in the last week, left out with it: named.
+    let mut text = rows(&[
+        ("Honey jar", (2024, 3, 2), 7, 7, 12.0),
+        ("Fern pot", (2024, 3, 3), 7, 6, 8.0),
+    ]);
+    text.push_str("2024-04-13,Clay bowl,3\n");
+    check(
+        &text,
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec!["the last week", "the only rows of \"clay bowl\""]],
+            ..Expect::default()
+        },
+    );
+    // One row per month: the 27th's correction refused at its row, said so once.
+    let mut text = String::from("Month,Tarp\n");
+    for m in 1..=12u32 {
+        let last = morrowcast_engine::calendar::days_in_month(2023, m);
+        text.push_str(&format!("2023-{m:02}-{last},{}\n", 10 + m));
+    }
+    text.push_str("2023-12-27,-3\n");
+    let report = read(&text);
+    assert_eq!(report.frequency, Frequency::Monthly);
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    assert!(report.errors[0].message.contains("which has its own row"));
+    assert!(
+        report
+            .warnings
+            .iter()
+            .all(|w| !w.contains("up to 0 days") && !w.contains("added to")),
+        "{:?}",
+        report.warnings
+    );
 }

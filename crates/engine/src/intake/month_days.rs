@@ -54,6 +54,13 @@ pub(crate) enum Side {
 }
 
 impl Side {
+    /// Whether the dates all fall on one day so counted (month ends with a stray among them).
+    pub(crate) fn one_day(self) -> bool {
+        match self {
+            Side::FromStart { lo, hi } | Side::FromEnd { lo, hi } => lo == hi,
+        }
+    }
+
     /// The days in words, for the warning that reads the dates as months.
     pub(crate) fn describe(self) -> String {
         let days = |n: u32| {
@@ -64,6 +71,12 @@ impl Side {
             }
         };
         match self {
+            Side::FromEnd { lo: 0, hi: 0 } => "on the month's last day".to_string(),
+            Side::FromEnd { lo, hi } if lo == hi => {
+                format!("{} before the month's last day", days(lo))
+            }
+            Side::FromStart { lo: 1, hi: 1 } => "on the month's first day".to_string(),
+            Side::FromStart { lo, hi } if lo == hi => format!("on day {lo} of the month"),
             Side::FromEnd { lo: 0, hi } => {
                 format!("on the month's last day or up to {} before it", days(hi))
             }
@@ -320,10 +333,16 @@ mod tests {
             ],
             Some((Frequency::Monthly, Side::FromEnd { lo: 0, hi: 2 })),
         );
-        // Not so: two dates in a month with 4 anchors; days too far apart; too few; fewer
-        // than a third of the months from 4; weekly in most weeks.
+        // Not so: two dates in a month, one of them off beside 4 anchors; days too far apart;
+        // too few; fewer than a third of the months from 4; weekly in most weeks.
         check(
-            &[(2024, 1, 30), (2024, 1, 31), (2024, 2, 29), (2024, 3, 28)],
+            &[
+                (2024, 1, 30),
+                (2024, 1, 31),
+                (2024, 2, 29),
+                (2024, 3, 28),
+                (2024, 4, 30),
+            ],
             None,
         );
         check(
@@ -342,6 +361,14 @@ mod tests {
         assert_eq!(
             Side::FromEnd { lo: 0, hi: 1 }.describe(),
             "on the month's last day or up to 1 day before it"
+        );
+        assert_eq!(
+            Side::FromEnd { lo: 0, hi: 0 }.describe(),
+            "on the month's last day"
+        );
+        assert_eq!(
+            Side::FromStart { lo: 1, hi: 1 }.describe(),
+            "on the month's first day"
         );
     }
 

@@ -224,7 +224,10 @@ fn refine(cell: &str, mark: DecimalMark, error: NumberError) -> NumberError {
         Some(number)
             if !number.is_empty()
                 && number.chars().any(|c| c.is_ascii_digit())
-                && !number.starts_with(['-', '\u{2212}']) =>
+                && !number.starts_with(['-', '\u{2212}'])
+                // One minus after the number: more ("7--", or thousands of them) are no
+                // number, and reading the rest again would recurse once per minus.
+                && !number.ends_with(['-', '\u{2212}']) =>
         {
             // Written plainly, without grouping, in the file's decimal mark: "1,200-" in a
             // comma-separated file is "-1200", not a cell that splits in two.
@@ -477,6 +480,13 @@ mod tests {
             "expected a number without a minus after it: write 0"
         );
         check("-7-", Dot, NumberError::NotANumber);
+        check("7--", Dot, NumberError::NotANumber);
+        // Thousands of them (a review overflowed the stack with 15,000).
+        check(
+            &format!("7{}", "-".repeat(100_000)),
+            Dot,
+            NumberError::NotANumber,
+        );
         check("7x", Dot, NumberError::UnknownUnit("x".to_string()));
         let said = NumberError::TrailingMinus("-7".to_string()).message(Dot);
         assert!(said.contains("write -7 if this is a return"), "{said}");

@@ -380,7 +380,7 @@ pub(crate) fn read_periods(cells: &[&str], integers: Option<IntegerMeaning>) -> 
 
 /// [`read_periods`] of a column whose header may name which day of its week a weekly date
 /// is ([`WeekAnchor`]), and, in a long table, with each row's item key (`series`; see
-/// [`weekly_by_series`]).
+/// [`super::regroup`]).
 pub(crate) fn read_periods_anchored(
     cells: &[&str],
     integers: Option<IntegerMeaning>,

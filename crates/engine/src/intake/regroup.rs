@@ -11,7 +11,7 @@
 //! ([`super::period`]), which asks [`regroup`] before it looks for stray periods, so that a
 //! closed season's gap is counted in months, not days.
 
-use std::collections::BTreeMap;
+use std::collections::{BTreeMap, BTreeSet};
 
 use super::dates::date_period;
 use super::month_days::one_a_month;
@@ -52,19 +52,35 @@ pub(crate) fn regroup(
         Frequency::Quarterly => "quarter",
         _ => "month",
     };
+    let working = if found.side.one_day() {
+        ""
+    } else {
+        " (not on one fixed day of the month, as totals dated on a working day do)"
+    };
     let mut warnings = vec![format!(
-        "the dates of this column fall one a {what}, {} (not on one fixed day of the month, \
-         as totals dated on a working day do), so each row was read as the {what} that holds \
-         its date; if these are single days' sales, write every day, with 0 where nothing sold",
+        "the dates of this column fall one a {what}, {}{working}, so each row was read as the \
+         {what} that holds its date; if these are single days' sales, write every day, with 0 \
+         where nothing sold",
         found.side.describe()
     )];
-    if !found.off.is_empty() {
-        let (these, each) = if found.off.len() == 1 {
+    // Without an item column (one row per period), a date off the pattern in a period that
+    // has its row cannot be added to it: refused at its row, below.
+    let taken: BTreeSet<Period> = days
+        .iter()
+        .flatten()
+        .filter(|d| !found.off.contains(d) && !found.misplaced.contains(d))
+        .map(|d| date_period(*d, by))
+        .collect();
+    let refused =
+        |d: i64| series.is_none() && found.off.contains(&d) && taken.contains(&date_period(d, by));
+    let off: Vec<i64> = found.off.iter().copied().filter(|d| !refused(*d)).collect();
+    if !off.is_empty() {
+        let (these, each) = if off.len() == 1 {
             ("a date falls", "read")
         } else {
             ("dates fall", "each read")
         };
-        let dates: Vec<String> = found.off.iter().map(|d| day_text(*d)).collect();
+        let dates: Vec<String> = off.iter().map(|d| day_text(*d)).collect();
         warnings.push(format!(
             "{these} off that pattern, {each} into the {what} that holds it (added to that \
              {what}'s row where the item has one): check {}",
@@ -77,6 +93,19 @@ pub(crate) fn regroup(
         .enumerate()
         .map(|(i, d)| {
             let d = (*d)?;
+            if refused(d) {
+                errors.push((
+                    i,
+                    format!(
+                        "expected one date a {what} like the others ({}); this one falls in {}, \
+                         which has its own row: a correction or return belongs in that row's \
+                         figures",
+                        found.side.describe(),
+                        date_period(d, by)
+                    ),
+                ));
+                return None;
+            }
             if found.misplaced.contains(&d) {
                 errors.push((
                     i,
@@ -102,15 +131,16 @@ pub(crate) fn regroup(
 }
 
 /// A long table where each item (a store's own, where a store column names them) is dated
-/// on one weekday a week apart, but not all on the same one, read as ISO weeks. Asked: two
-/// items or more with 2 dates or more, one of them with 4 or more; every such item on a
-/// single weekday but for one date in five at most (one, from 4 dates: a delivery moved for
-/// a holiday), each standing in for a day of that weekday within 3 days whose week has no
-/// other date of the item (read as that week, said), dated in at least a third of the weeks from
-/// its first date to its last (a seasonal item), and, with 3 dates or more, not only every
-/// other week or less often (fortnightly, which no period here holds). Where the file ends
-/// before some items' weekday came round in the last week, that week holds only the others'
-/// figures and would give those items a 0 they never sold: its rows are left out, said.
+/// on one weekday a week apart, but not all on the same one, read as ISO weeks. Asked: every
+/// item with 2 dates or more on a single weekday but for one date in five at most (one, from
+/// 4 dates: a delivery moved for a holiday), each standing in for a day of that weekday
+/// within 3 days whose week has no other date of the item (read as that week, said); two
+/// items or more, one of them with 4 dates or more, "regular": dated in at least a third of
+/// the weeks from its first date to its last (a seasonal item) and, from 3 dates, not only
+/// every other week or less often; items that are not (an item sold in a few weeks, one
+/// delivered fortnightly) no more than the regular ones. Where the file ends before some
+/// items' weekday came round in the last week, that week holds only the others' figures and
+/// would give those items a 0 they never sold: its rows are left out, said.
 fn weeks_of_items(
     days: &[Option<i64>],
     series: &[Option<String>],
@@ -123,9 +153,10 @@ fn weeks_of_items(
         }
     }
     let mut per_weekday = [0usize; 7];
-    let (mut dated, mut long_enough) = (0, 0);
+    let (mut regular, mut irregular, mut long_enough) = (0, 0, 0);
+    let mut usual: BTreeMap<&str, u32> = BTreeMap::new();
     let mut moved: Vec<(i64, i64)> = Vec::new();
-    for dates in by_item.values_mut() {
+    for (key, dates) in by_item.iter_mut() {
         dates.sort_unstable();
         dates.dedup();
         if dates.len() < 2 {
@@ -138,37 +169,40 @@ fn weeks_of_items(
         let mut weeks: Vec<i64> = dates.iter().map(|d| week(*d)).collect();
         weeks.sort_unstable();
         weeks.dedup();
-        let (first, last) = (weeks[0], weeks[weeks.len() - 1]);
-        let steps = weeks.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
-        if weeks.len() < dates.len()
-            || (weeks.len() as i64) * 3 < last - first + 1
-            || (weeks.len() >= 3 && steps > 1)
-        {
+        if weeks.len() < dates.len() {
             return None;
         }
+        let (first, last) = (weeks[0], weeks[weeks.len() - 1]);
+        let steps = weeks.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));
+        if (weeks.len() as i64) * 3 < last - first + 1 || (weeks.len() >= 3 && steps > 1) {
+            irregular += 1;
+        } else {
+            regular += 1;
+            long_enough += usize::from(dates.len() >= 4);
+        }
+        usual.insert(key, day);
         moved.extend(off.iter().map(|d| (*d, stands_for(*d, day))));
         per_weekday[day as usize] += 1;
-        dated += 1;
-        long_enough += usize::from(dates.len() >= 4);
     }
     let mut weekdays: Vec<(u32, usize)> = (0..7u32)
         .map(|w| (w, per_weekday[w as usize]))
         .filter(|(_, n)| *n > 0)
         .collect();
-    if dated < 2 || long_enough < 1 || weekdays.len() < 2 {
+    if regular < 2 || long_enough < 1 || irregular > regular || weekdays.len() < 2 {
         return None;
     }
     weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
-    // Each moved date is read as the day it stands in for.
+    // Each row's date as the day of its own item's weekday it stands for.
     let placed: Vec<Option<i64>> = days
         .iter()
-        .map(|d| {
-            d.map(|d| {
-                moved
-                    .iter()
-                    .find(|(from, _)| *from == d)
-                    .map_or(d, |(_, to)| *to)
-            })
+        .zip(series)
+        .map(|(d, key)| {
+            let d = (*d)?;
+            Some(
+                key.as_deref()
+                    .and_then(|k| usual.get(k))
+                    .map_or(d, |day| stands_for(d, *day)),
+            )
         })
         .collect();
     let mut periods = dated_as(&placed, Frequency::Weekly, anchor);
@@ -179,10 +213,17 @@ fn weeks_of_items(
             format!("{}s for {n} item{s}", WEEKDAY_NAMES[*w as usize])
         })
         .collect();
+    let which = match anchor {
+        WeekAnchor::Unsaid => "the ISO week (Monday to Sunday) that holds its date",
+        WeekAnchor::Start | WeekAnchor::End => {
+            "the ISO week (Monday to Sunday) holding most of the week its date names, as the \
+             header says"
+        }
+    };
     let mut warnings = vec![format!(
         "each item's dates fall on one weekday a week apart, but not the same weekday for all \
-         ({}): each row was read as the ISO week (Monday to Sunday) that holds its date, as \
-         weekly sales each store or item dates by its own day",
+         ({}): each row was read as {which}, as weekly sales each store or item dates by its \
+         own day",
         each.join(", ")
     )];
     if !moved.is_empty() {
@@ -205,7 +246,7 @@ fn weeks_of_items(
             said.join(", ")
         ));
     }
-    if let Some(warning) = leave_out_unfinished_week(days, series, &mut periods) {
+    if let Some(warning) = leave_out_unfinished_week(&placed, series, &mut periods) {
         warnings.push(warning);
     }
     Some(Regrouped {
@@ -254,8 +295,10 @@ fn own_weekday(dates: &[i64]) -> Option<(u32, Vec<i64>)> {
 }
 
 /// Where some item's weekday had not come round in the last week when the file ends (its
-/// last date a week or less before the file's last date, in an earlier week), the rows of
-/// that last week are left out (their periods set to `None`); the warning says so.
+/// last date a week or less before the file's last date, in an earlier week; dates as
+/// placed, a moved delivery at the day it stands for), the rows of that last week are left
+/// out (their periods set to `None`); the warning says so, naming any item left without a
+/// row (a new item whose first week it was).
 fn leave_out_unfinished_week(
     days: &[Option<i64>],
     series: &[Option<String>],
@@ -281,12 +324,30 @@ fn leave_out_unfinished_week(
         return None;
     }
     let mut rows = 0;
-    for p in periods.iter_mut() {
+    let mut kept: BTreeSet<&str> = BTreeSet::new();
+    let mut dropped: BTreeSet<&str> = BTreeSet::new();
+    for (p, key) in periods.iter_mut().zip(series) {
+        let key = key.as_deref();
         if *p == Some(last_week) {
             *p = None;
             rows += 1;
+            dropped.extend(key);
+        } else if p.is_some() {
+            kept.extend(key);
         }
     }
+    let gone: Vec<&str> = dropped.difference(&kept).copied().collect();
+    let gone = if gone.is_empty() {
+        String::new()
+    } else {
+        format!(
+            "; with it the only rows of {}, which will show once a week of theirs is over",
+            gone.iter()
+                .map(|k| format!("\"{k}\""))
+                .collect::<Vec<_>>()
+                .join(", ")
+        )
+    };
     let mut names: Vec<&str> = waiting.iter().map(|w| WEEKDAY_NAMES[*w as usize]).collect();
     names.sort_unstable();
     names.dedup();
@@ -294,7 +355,7 @@ fn leave_out_unfinished_week(
     Some(format!(
         "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} \
          {y:04}-{m:02}-{d:02}, before the {} that other items' weeks are dated by, so that week \
-         holds only some items' figures and would give the others a 0 they did not sell",
+         holds only some items' figures and would give the others a 0 they did not sell{gone}",
         WEEKDAY_NAMES[weekday(end) as usize],
         names.join(" or ")
     ))
