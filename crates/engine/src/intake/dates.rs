@@ -71,7 +71,8 @@ pub(crate) fn infer_frequency(days: &[i64]) -> Frequency {
     }
 }
 
-fn gcd(a: i64, b: i64) -> i64 {
+/// The greatest common divisor (of steps between dates or months).
+pub(crate) fn gcd(a: i64, b: i64) -> i64 {
     if b == 0 {
         a.abs()
     } else {

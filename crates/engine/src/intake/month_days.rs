@@ -25,7 +25,7 @@
 
 use std::collections::{BTreeMap, BTreeSet};
 
-use super::dates::infer_frequency;
+use super::dates::{gcd, infer_frequency};
 use crate::calendar::{civil_from_days, days_in_month, Frequency};
 
 /// How far apart, in days, the anchors may fall within their months: a month's last business
@@ -258,14 +258,6 @@ fn best_window(distinct: &BTreeSet<i64>) -> Option<(bool, u32)> {
         Some((false, start_lo))
     } else {
         Some((true, end_lo))
-    }
-}
-
-fn gcd(a: i64, b: i64) -> i64 {
-    if b == 0 {
-        a.abs()
-    } else {
-        gcd(b, a % b)
     }
 }
 

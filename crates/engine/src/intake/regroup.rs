@@ -13,7 +13,7 @@
 
 use std::collections::{BTreeMap, BTreeSet};
 
-use super::dates::date_period;
+use super::dates::{date_period, gcd};
 use super::month_days::one_a_month;
 use super::period::{dated_as, WeekAnchor, WEEKDAY_NAMES};
 use crate::calendar::{civil_from_days, weekday, Frequency, Period};
@@ -359,12 +359,4 @@ fn leave_out_unfinished_week(
         WEEKDAY_NAMES[weekday(end) as usize],
         names.join(" or ")
     ))
-}
-
-fn gcd(a: i64, b: i64) -> i64 {
-    if b == 0 {
-        a.abs()
-    } else {
-        gcd(b, a % b)
-    }
 }
