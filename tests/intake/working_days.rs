@@ -529,3 +529,53 @@ fn moved_days_stay_with_their_item_and_a_sparse_item_keeps_the_weeks() {
         report.warnings
     );
 }
+
+// A last probe (2026-12-05): a store's April total dated 2 May, or a quarter's dated 2
+// January, was added to May's (the next quarter's) row and its own period left a gap; now
+// refused at its row as a total filed late. A typo in a period with no row of its own (06-03
+// for 06-30) is still read into it. One item fortnightly beside a weekly one kept the file
+// daily.
+#[test]
+fn a_total_filed_late_is_refused_and_a_typo_read_into_its_month() {
+    let mut text = String::from("Store,Date,Item,Units\n");
+    for (m, d) in LAST_WORKING_DAYS_2024.iter().map(|(_, m, d)| (*m, *d)) {
+        text.push_str(&format!("North,2024-{m:02}-{d:02},Tarp,5\n"));
+        let harbour = if m == 4 {
+            "2024-05-02".to_string()
+        } else {
+            format!("2024-{m:02}-{d:02}")
+        };
+        text.push_str(&format!("Harbour,{harbour},Tarp,7\n"));
+    }
+    let report = read(&text);
+    assert_eq!(report.frequency, Frequency::Monthly);
+    assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+    assert_eq!(report.errors[0].text, "2024-05-02");
+    assert!(
+        report.errors[0].message.contains("filed late"),
+        "{}",
+        report.errors[0].message
+    );
+    // 06-03 for 06-30: June has no other row, so it is June's.
+    let text = "Date,Item,Units\n2023-01-31,Tarp,5\n2023-02-28,Tarp,6\n2023-03-31,Tarp,7\n\
+                2023-04-28,Tarp,5\n2023-05-31,Tarp,6\n2023-06-03,Tarp,7\n2023-07-31,Tarp,5\n\
+                2023-08-31,Tarp,6\n";
+    let report = check(
+        text,
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            warned: vec![
+                vec!["each item's dates fall one a month"],
+                vec!["check 2023-06-03"],
+            ],
+            ..Expect::default()
+        },
+    );
+    assert_eq!(report.items[0].values[5], Some(7.0));
+    // Mondays weekly, Thursdays every other week.
+    let text = rows(&[
+        ("Rope coil", (2024, 1, 1), 7, 12, 10.0),
+        ("Tarp", (2024, 1, 4), 14, 6, 5.0),
+    ]);
+    assert_eq!(read(&text).frequency, Frequency::Weekly);
+}

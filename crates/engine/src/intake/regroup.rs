@@ -14,7 +14,7 @@
 use std::collections::{BTreeMap, BTreeSet};
 
 use super::dates::{date_period, gcd};
-use super::month_days::one_a_month;
+use super::month_days::{one_a_month, Side};
 use super::period::{dated_as, WeekAnchor, WEEKDAY_NAMES};
 use crate::calendar::{civil_from_days, weekday, Frequency, Period};
 
@@ -57,8 +57,13 @@ pub(crate) fn regroup(
     } else {
         " (not on one fixed day of the month, as totals dated on a working day do)"
     };
+    let whose = if series.is_some() {
+        "each item's dates"
+    } else {
+        "the dates of this column"
+    };
     let mut warnings = vec![format!(
-        "the dates of this column fall one a {what}, {}{working}, so each row was read as the \
+        "{whose} fall one a {what}, {}{working}, so each row was read as the \
          {what} that holds its date; if these are single days' sales, write every day, with 0 \
          where nothing sold",
         found.side.describe()
@@ -73,7 +78,48 @@ pub(crate) fn regroup(
         .collect();
     let refused =
         |d: i64| series.is_none() && found.off.contains(&d) && taken.contains(&date_period(d, by));
-    let off: Vec<i64> = found.off.iter().copied().filter(|d| !refused(*d)).collect();
+    // A date off the pattern in the first days of a period whose dates fall at its end (or
+    // the last days, where they fall at its start) is the period before's total filed late
+    // (or the next one's early), not a correction: added to its own period it would double
+    // that one and leave the other a gap (a review: April's total dated 2 May).
+    // Each item's periods held by its dates on the pattern: a date off it in a period
+    // without one (a typo, 06-03 for 06-30) is read into that period as before.
+    let key_of = |i: usize| series.and_then(|s| s.get(i)).and_then(|k| k.as_deref());
+    let held: BTreeSet<(Option<&str>, Period)> = days
+        .iter()
+        .enumerate()
+        .filter_map(|(i, d)| {
+            let d = (*d)?;
+            (!found.off.contains(&d)).then(|| (key_of(i), date_period(d, by)))
+        })
+        .collect();
+    let filed_off = |i: usize, d: i64| {
+        let (y, m, day) = civil_from_days(d);
+        let within = crate::intake::month_days::MONTH_DAY_SPREAD + 1;
+        found.off.contains(&d)
+            && held.contains(&(key_of(i), date_period(d, by)))
+            && match found.side {
+                Side::FromEnd { .. } => {
+                    day <= within && date_period(d - i64::from(day), by) != date_period(d, by)
+                }
+                Side::FromStart { .. } => {
+                    let left = crate::calendar::days_in_month(y, m) - day;
+                    left < within && date_period(d + i64::from(left) + 1, by) != date_period(d, by)
+                }
+            }
+    };
+    let off: Vec<i64> = found
+        .off
+        .iter()
+        .copied()
+        .filter(|d| {
+            !days
+                .iter()
+                .enumerate()
+                .any(|(i, other)| *other == Some(*d) && filed_off(i, *d))
+        })
+        .collect();
+    let off: Vec<i64> = off.into_iter().filter(|d| !refused(*d)).collect();
     if !off.is_empty() {
         let (these, each) = if off.len() == 1 {
             ("a date falls", "read")
@@ -93,6 +139,25 @@ pub(crate) fn regroup(
         .enumerate()
         .map(|(i, d)| {
             let d = (*d)?;
+            if filed_off(i, d) {
+                let (before, after) = match found.side {
+                    Side::FromEnd { .. } => ("before", "late"),
+                    Side::FromStart { .. } => ("after", "early"),
+                };
+                errors.push((
+                    i,
+                    format!(
+                        "expected one date a {what} like the others ({}); this one, at the \
+                         edge of {}, looks like the total of the {what} {before} it, filed \
+                         {after}: date it within that {what} (or, if it corrects {}'s figures, \
+                         add it to that row)",
+                        found.side.describe(),
+                        date_period(d, by),
+                        date_period(d, by)
+                    ),
+                ));
+                return None;
+            }
             if refused(d) {
                 errors.push((
                     i,
@@ -135,10 +200,10 @@ pub(crate) fn regroup(
 /// item with 2 dates or more on a single weekday but for one date in five at most (one, from
 /// 4 dates: a delivery moved for a holiday), each standing in for a day of that weekday
 /// within 3 days whose week has no other date of the item (read as that week, said); two
-/// items or more, one of them with 4 dates or more, "regular": dated in at least a third of
-/// the weeks from its first date to its last (a seasonal item) and, from 3 dates, not only
-/// every other week or less often; items that are not (an item sold in a few weeks, one
-/// delivered fortnightly) no more than the regular ones. Where the file ends before some
+/// such items or more; "regular" ones (dated in at least a third of the weeks from the
+/// item's first date to its last, a seasonal item, and, from 3 dates, not only every other
+/// week or less often), one of them with 4 dates or more, at least as many as the others (an
+/// item sold in a few weeks, one delivered fortnightly). Where the file ends before some
 /// items' weekday came round in the last week, that week holds only the others' figures and
 /// would give those items a 0 they never sold: its rows are left out, said.
 fn weeks_of_items(
@@ -188,7 +253,7 @@ fn weeks_of_items(
         .map(|w| (w, per_weekday[w as usize]))
         .filter(|(_, n)| *n > 0)
         .collect();
-    if regular < 2 || long_enough < 1 || irregular > regular || weekdays.len() < 2 {
+    if regular + irregular < 2 || long_enough < 1 || irregular > regular || weekdays.len() < 2 {
         return None;
     }
     weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
@@ -246,7 +311,7 @@ fn weeks_of_items(
             said.join(", ")
         ));
     }
-    if let Some(warning) = leave_out_unfinished_week(&placed, series, &mut periods) {
+    if let Some(warning) = leave_out_unfinished_week(&placed, days, series, &mut periods) {
         warnings.push(warning);
     }
     Some(Regrouped {
@@ -301,10 +366,13 @@ fn own_weekday(dates: &[i64]) -> Option<(u32, Vec<i64>)> {
 /// row (a new item whose first week it was).
 fn leave_out_unfinished_week(
     days: &[Option<i64>],
+    written: &[Option<i64>],
     series: &[Option<String>],
     periods: &mut [Option<Period>],
 ) -> Option<String> {
     let end = days.iter().flatten().copied().max()?;
+    // The message names the last date as written (a moved delivery's own day).
+    let last_written = written.iter().flatten().copied().max()?;
     let last_week = periods.iter().flatten().copied().max()?;
     let mut latest: BTreeMap<&str, (i64, Period)> = BTreeMap::new();
     for ((d, key), p) in days.iter().zip(series).zip(periods.iter()) {
@@ -351,12 +419,12 @@ fn leave_out_unfinished_week(
     let mut names: Vec<&str> = waiting.iter().map(|w| WEEKDAY_NAMES[*w as usize]).collect();
     names.sort_unstable();
     names.dedup();
-    let (y, m, d) = civil_from_days(end);
+    let (y, m, d) = civil_from_days(last_written);
     Some(format!(
         "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} \
          {y:04}-{m:02}-{d:02}, before the {} that other items' weeks are dated by, so that week \
          holds only some items' figures and would give the others a 0 they did not sell{gone}",
-        WEEKDAY_NAMES[weekday(end) as usize],
+        WEEKDAY_NAMES[weekday(last_written) as usize],
         names.join(" or ")
     ))
 }
