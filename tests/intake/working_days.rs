@@ -579,3 +579,40 @@ fn a_total_filed_late_is_refused_and_a_typo_read_into_its_month() {
     ]);
     assert_eq!(read(&text).frequency, Frequency::Weekly);
 }
+
+// First working days written 02/01/2024 (month-first) or 01/02/2024 (day-first) had been
+// refused as ambiguous ("both readings give a plausible series"): the reading that puts one
+// date in each month now counts as regular, so it is chosen and said.
+#[test]
+fn first_working_days_in_either_order_are_read_as_months() {
+    let days = [
+        (1, 2),
+        (2, 1),
+        (3, 1),
+        (4, 1),
+        (5, 1),
+        (6, 3),
+        (7, 1),
+        (8, 1),
+        (9, 2),
+        (10, 1),
+        (11, 1),
+        (12, 2),
+    ];
+    for day_first in [false, true] {
+        let mut text = String::from("Date,Item,Units\n");
+        for (m, d) in days {
+            let (a, b) = if day_first { (d, m) } else { (m, d) };
+            text.push_str(&format!("{a:02}/{b:02}/2024,Tarp,{}\n", 10 + m));
+        }
+        let report = check(
+            &text,
+            Expect {
+                frequency: Some(Frequency::Monthly),
+                warned: vec![vec!["only it gives a regular series"]],
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items[0].values.len(), 12, "day first {day_first}");
+    }
+}

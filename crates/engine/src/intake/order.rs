@@ -7,13 +7,15 @@
 //! day-first, a second field above 12 means month-first; if both happen, the order more rows fit
 //! wins and the others are errors. With no field above 12 and readings that differ: if one
 //! reading puts every date on day 1 of a month, it is chosen; else if exactly one reading gives a
-//! regular series with no missing period, it is chosen; either choice is reported as a warning.
+//! regular series with no missing period (dates one a month on nearby days, such as first
+//! working days, counted as months), it is chosen; either choice is reported as a warning.
 //! Otherwise the column is truly ambiguous: an error names the first row whose readings differ,
 //! and the rest of the report is built day-first so the user still sees what was read.
 
 use super::dates::{date_period, infer_frequency, two_way_days};
 use super::label::Label;
-use crate::calendar::civil_from_days;
+use super::month_days::one_a_month;
+use crate::calendar::{civil_from_days, Frequency};
 
 /// The decided order of two-way dates.
 pub(crate) struct Order {
@@ -135,9 +137,16 @@ fn human(day: u32, month: u32, year: i32) -> String {
     format!("{year:04}-{month:02}-{day:02}")
 }
 
-/// True when the dates, at their inferred frequency, cover every period from first to last.
+/// True when the dates, at their inferred frequency, cover every period from first to last;
+/// dates one a month on nearby days ([`one_a_month`]: first working days) count as months.
 fn is_regular(days: &[i64]) -> bool {
-    let frequency = infer_frequency(days);
+    let frequency = match infer_frequency(days) {
+        inferred @ (Frequency::Daily | Frequency::Weekly) => {
+            let dates: Vec<Option<i64>> = days.iter().map(|d| Some(*d)).collect();
+            one_a_month(&dates, None).map_or(inferred, |found| found.frequency)
+        }
+        inferred => inferred,
+    };
     let mut ordinals: Vec<i64> = days
         .iter()
         .map(|d| date_period(*d, frequency).ordinal())
