@@ -4,7 +4,13 @@
 //! steps such dates are daily (or weekly, for monthly totals that all fall on a Friday), each
 //! period's other days then "closed" with zeros; a review (2026-12-04) found both read so,
 //! with reorder points over one day. Here they are read as the months (quarters, years) or
-//! ISO weeks that hold them, said in a warning.
+//! ISO weeks that hold them, said in a warning. Of the dates one a month, one off the
+//! pattern is read into its period (added to the item's row there) and named; in a table of
+//! one row per period, or where it sits in the first days of a period that has its row (a
+//! total filed late: April's on 2 May), it is refused at its row instead, as is a quarter's
+//! total a month off the quarters' months. Of the weekly dates, a moved delivery is placed
+//! at its own item's weekday, and a last week the file ends in before some items' day is
+//! left out.
 //!
 //! Kept apart from: the frequency dates imply by their steps ([`super::dates`]), finding
 //! dates one a month ([`super::month_days`]) and the reading of the column as a whole
