@@ -186,11 +186,22 @@ pub fn outliers(plan: &ItemPlan, series: &Series) -> Option<Outliers> {
     // (a loud stretch of a growing item), never adds them (a fit that a typo made rough
     // everywhere can read a power that blows up the small early misses).
     let as_they_are = modified_z(&scaled_at(0.0));
+    // Nor is a miss smaller than the demand's own resolution an outlier: where the fit
+    // misses nowhere else (a series on a straight line), a miss of 0.4 units had a modified
+    // z-score in the hundreds and was flagged. Our choice: one unit where demand comes in
+    // whole units, else a hundredth of the median fit.
+    let resolution = if plan.whole_units {
+        1.0
+    } else {
+        0.01 * floor / SIZE_FLOOR
+    };
     let periods = modified_z(&scaled_at(power))
         .into_iter()
         .zip(&as_they_are)
         .zip(&judged)
-        .filter(|((z, z_as_is), _)| z.abs() > cut && z_as_is.abs() > cut)
+        .filter(|((z, z_as_is), (_, f, d))| {
+            z.abs() > cut && z_as_is.abs() > cut && (f - d).abs() >= resolution
+        })
         .map(|((z, _), t)| (z, t))
         .map(|(z, (t, f, d))| FarPeriod {
             index: *t,
