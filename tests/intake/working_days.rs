@@ -616,3 +616,20 @@ fn first_working_days_in_either_order_are_read_as_months() {
         assert_eq!(report.items[0].values.len(), 12, "day first {day_first}");
     }
 }
+
+// A wide table with the week's first and last days in two columns: the second is not used,
+// said as such (the warning had spoken of a long table's columns).
+#[test]
+fn a_second_date_column_of_a_wide_table_is_named_as_such() {
+    check(
+        "week start,week end,Oak tray,Fern pot\n2024-01-01,2024-01-07,50,38\n\
+         2024-01-08,2024-01-14,30,20\n2024-01-15,2024-01-21,41,49\n",
+        Expect {
+            frequency: Some(Frequency::Weekly),
+            warned: vec![vec![
+                "column \"week end\" was not used: the periods are read from \"week start\" alone",
+            ]],
+            ..Expect::default()
+        },
+    );
+}

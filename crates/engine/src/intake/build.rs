@@ -415,15 +415,22 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             .push(format!("column \"{name}\" names {what}: not used"));
     }
     for &j in &plan.ignored {
-        let why = match plan.layout {
-            Layout::Across => "its header names no period".to_string(),
-            _ => format!(
+        let why = match (plan.layout, plan.period) {
+            (Layout::Across, _) => "its header names no period".to_string(),
+            (Layout::Long, _) => format!(
                 "a long table reads one item, one period and one quantity column, and the \
                  quantities are read from \"{}\"",
                 plan.values
                     .first()
                     .map_or(String::new(), |q| table.column_name(*q))
             ),
+            // A wide or single table (a second date column, "week end" beside "week start"):
+            // the long table's words had been said of it (a review).
+            (_, Some((p, _))) => format!(
+                "the periods are read from \"{}\" alone, the quantities from the item columns",
+                table.column_name(p)
+            ),
+            (_, None) => "it is neither a period nor an item's quantities".to_string(),
         };
         b.out.warnings.push(format!(
             "column \"{}\" was not used: {why}",
