@@ -589,11 +589,7 @@ pub(crate) fn read_periods_anchored(
                 let mut said: Vec<String> = Vec::new();
                 for &(i, usual_day) in &moved {
                     if let Some(d) = column_days[i] {
-                        let (y, m, day) = civil_from_days(d);
-                        let text = format!(
-                            "{y:04}-{m:02}-{day:02} (a {})",
-                            WEEKDAY_NAMES[weekday(d) as usize]
-                        );
+                        let text = with_weekday(d);
                         if !said.contains(&text) {
                             said.push(text);
                         }
@@ -675,6 +671,26 @@ pub(super) fn dated_as(
         .collect()
 }
 
+/// The day of weekday `usual` within 3 days of `d` (`d` itself on that weekday): the day a
+/// date off its column's (or item's) usual weekday stands in for.
+pub(super) fn stands_for(d: i64, usual: u32) -> i64 {
+    let ahead = (i64::from(usual) - i64::from(weekday(d))).rem_euclid(7);
+    if ahead <= 3 {
+        d + ahead
+    } else {
+        d + ahead - 7
+    }
+}
+
+/// A date (day number) as messages write it, with its weekday: "2024-02-10 (a Saturday)".
+pub(super) fn with_weekday(d: i64) -> String {
+    format!(
+        "{} (a {})",
+        date_period(d, Frequency::Daily),
+        WEEKDAY_NAMES[weekday(d) as usize]
+    )
+}
+
 /// Weekday names, Monday first, as [`weekday`] numbers them.
 pub(super) const WEEKDAY_NAMES: [&str; 7] = [
     "Monday",
@@ -718,28 +734,19 @@ fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, i64)> {
     if off == 0 || off * 5 > distinct.len() || !weekly || (on_usual.len() as i64) * 10 < 8 * weeks {
         return Vec::new();
     }
-    // The day of the usual weekday within 3 days of d.
-    let nearest = |d: i64| {
-        let ahead = (i64::from(usual) - i64::from(weekday(d))).rem_euclid(7);
-        if ahead <= 3 {
-            d + ahead
-        } else {
-            d + ahead - 7
-        }
-    };
-    let mut stands_for: Vec<(i64, i64)> = Vec::new();
+    let mut moved: Vec<(i64, i64)> = Vec::new();
     for d in distinct.iter().copied().filter(|d| weekday(*d) != usual) {
-        let u = nearest(d);
-        if on_usual.binary_search(&u).is_ok() || stands_for.iter().any(|(_, v)| *v == u) {
+        let u = stands_for(d, usual);
+        if on_usual.binary_search(&u).is_ok() || moved.iter().any(|(_, v)| *v == u) {
             return Vec::new();
         }
-        stands_for.push((d, u));
+        moved.push((d, u));
     }
     days.iter()
         .enumerate()
         .filter_map(|(i, d)| {
             let d = (*d)?;
-            stands_for
+            moved
                 .iter()
                 .find(|(from, _)| *from == d)
                 .map(|(_, u)| (i, *u))

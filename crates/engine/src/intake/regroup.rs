@@ -21,7 +21,7 @@ use std::collections::{BTreeMap, BTreeSet};
 
 use super::dates::{date_period, gcd};
 use super::month_days::{one_a_month, Side};
-use super::period::{dated_as, WeekAnchor, WEEKDAY_NAMES};
+use super::period::{dated_as, stands_for, with_weekday, WeekAnchor, WEEKDAY_NAMES};
 use crate::calendar::{civil_from_days, weekday, Frequency, Period};
 
 /// Dates read as longer periods, with what to say of them.
@@ -132,7 +132,10 @@ pub(crate) fn regroup(
         } else {
             ("dates fall", "each read")
         };
-        let dates: Vec<String> = off.iter().map(|d| day_text(*d)).collect();
+        let dates: Vec<String> = off
+            .iter()
+            .map(|d| date_period(*d, Frequency::Daily).to_string())
+            .collect();
         warnings.push(format!(
             "{these} off that pattern, {each} into the {what} that holds it (added to that \
              {what}'s row where the item has one): check {}",
@@ -304,10 +307,9 @@ fn weeks_of_items(
             .iter()
             .map(|(from, to)| {
                 format!(
-                    "{} (a {}) as the week of {}",
-                    day_text(*from),
-                    WEEKDAY_NAMES[weekday(*from) as usize],
-                    day_text(*to)
+                    "{} as the week of {}",
+                    with_weekday(*from),
+                    date_period(*to, Frequency::Daily)
                 )
             })
             .collect();
@@ -326,22 +328,6 @@ fn weeks_of_items(
         warnings,
         errors: Vec::new(),
     })
-}
-
-/// The day of weekday `usual` within 3 days of `d` (`d` itself on that weekday).
-fn stands_for(d: i64, usual: u32) -> i64 {
-    let ahead = (i64::from(usual) - i64::from(weekday(d))).rem_euclid(7);
-    if ahead <= 3 {
-        d + ahead
-    } else {
-        d + ahead - 7
-    }
-}
-
-/// A date as written in messages.
-fn day_text(d: i64) -> String {
-    let (y, m, day) = civil_from_days(d);
-    format!("{y:04}-{m:02}-{day:02}")
 }
 
 /// An item's usual weekday and its dates off it: all on one weekday, or all but one in five
@@ -425,12 +411,12 @@ fn leave_out_unfinished_week(
     let mut names: Vec<&str> = waiting.iter().map(|w| WEEKDAY_NAMES[*w as usize]).collect();
     names.sort_unstable();
     names.dedup();
-    let (y, m, d) = civil_from_days(last_written);
     Some(format!(
-        "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} \
-         {y:04}-{m:02}-{d:02}, before the {} that other items' weeks are dated by, so that week \
-         holds only some items' figures and would give the others a 0 they did not sell{gone}",
+        "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} {}, \
+         before the {} that other items' weeks are dated by, so that week holds only some \
+         items' figures and would give the others a 0 they did not sell{gone}",
         WEEKDAY_NAMES[weekday(last_written) as usize],
+        date_period(last_written, Frequency::Daily),
         names.join(" or ")
     ))
 }
