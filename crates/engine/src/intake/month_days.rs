@@ -25,7 +25,7 @@
 
 use std::collections::{BTreeMap, BTreeSet};
 
-use super::dates::{gcd, infer_frequency};
+use super::dates::{date_period, gcd, infer_frequency};
 use crate::calendar::{civil_from_days, days_in_month, Frequency};
 
 /// How far apart, in days, the anchors may fall within their months: a month's last business
@@ -100,14 +100,7 @@ pub(crate) fn one_a_month(
 ) -> Option<OneAMonth> {
     let distinct: BTreeSet<i64> = days.iter().flatten().copied().collect();
     let (from_end, lo) = best_window(&distinct)?;
-    let place = |d: i64| {
-        let (y, m, day) = civil_from_days(d);
-        if from_end {
-            days_in_month(y, m) - day
-        } else {
-            day
-        }
-    };
+    let place = |d: i64| place_in_month(d, from_end);
     let in_window = |d: i64| (lo..=lo + MONTH_DAY_SPREAD).contains(&place(d));
     // The day the window's dates fall on most (the nearer the edge among equals).
     let mut tally: BTreeMap<u32, usize> = BTreeMap::new();
@@ -120,10 +113,7 @@ pub(crate) fn one_a_month(
         .map(|(at, _)| *at)?;
     // One anchor per item and month: the date nearest the usual day (the later of equals);
     // another in the same month (a correction dated the 27th) is off the pattern.
-    let month = |d: i64| {
-        let (y, m, _) = civil_from_days(d);
-        i64::from(y) * 12 + i64::from(m)
-    };
+    let month = |d: i64| date_period(d, Frequency::Monthly).ordinal();
     let mut chosen: BTreeMap<(Option<&str>, i64), i64> = BTreeMap::new();
     for (i, d) in days.iter().enumerate() {
         let Some(d) = d.filter(|d| in_window(*d)) else {
@@ -227,6 +217,17 @@ pub(crate) fn one_a_month(
     })
 }
 
+/// A date's place in its month: days before its last day (0 = the last), or its day (1 = the
+/// first).
+fn place_in_month(d: i64, from_end: bool) -> u32 {
+    let (y, m, day) = civil_from_days(d);
+    if from_end {
+        days_in_month(y, m) - day
+    } else {
+        day
+    }
+}
+
 /// The window of [`MONTH_DAY_SPREAD`] + 1 days, counted from the month's end (`true`) or
 /// from its start, holding the most dates (the nearer edge where equal; a tie counted from
 /// the end), with its first day so counted.
@@ -249,11 +250,8 @@ fn best_window(distinct: &BTreeSet<i64>) -> Option<(bool, u32)> {
             .max()
             .map(|(held, lo)| (held, lo.0))
     };
-    let (start_held, start_lo) = fullest(&|d| civil_from_days(d).2)?;
-    let (end_held, end_lo) = fullest(&|d| {
-        let (y, m, day) = civil_from_days(d);
-        days_in_month(y, m) - day
-    })?;
+    let (start_held, start_lo) = fullest(&|d| place_in_month(d, false))?;
+    let (end_held, end_lo) = fullest(&|d| place_in_month(d, true))?;
     if start_held > end_held || (start_held == end_held && start_lo - 1 < end_lo) {
         Some((false, start_lo))
     } else {
