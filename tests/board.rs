@@ -34,7 +34,7 @@ fn board_rows_looking_back(
     look_back: usize,
 ) -> Vec<BoardRow> {
     let report = intake::read(text);
-    let table = table.map(|t| read_stock_table(t.as_bytes()));
+    let table = table.map(|t| read_stock_table(t.as_bytes(), &report));
     let items = report
         .items
         .iter()

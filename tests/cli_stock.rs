@@ -172,7 +172,7 @@ fn stock_settings_beyond_their_limits_are_refused() {
     );
     check_refused(
         &["stock", "-", "--service", "150"],
-        "cycle service level target 150 is outside 0 to 1",
+        "cycle service level target 150 is outside 50 % to 100 %",
     );
     check_refused(
         &["stock", "-", "--fill-rate", "lots"],
@@ -268,5 +268,61 @@ fn a_rejected_stock_table_names_row_column_and_text() {
     check_refused(
         &["stock", "-", "--stock", "-"],
         "FILE and --stock TABLE cannot both be standard input",
+    );
+}
+
+/// A stock table as a planner's system writes it, read against the demo's monthly history:
+/// names matched without case, lead times in days turned into months, the items' own lead
+/// times and the history's period named in the text, a row without on hand said.
+#[test]
+fn a_stock_table_in_a_planners_words() {
+    let path = table_file(
+        "stock_table_planner.csv",
+        "Stock count\nSKU,Description,Qty on hand,Incoming,Lead time (days)\n\
+         1001,seed packets,120,30,60\n1002,Frost cloth,,0,30\n",
+    );
+    let out = cli(&["stock", "-", "--stock", &path], &demo());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let stdout = String::from_utf8(out.stdout).unwrap();
+    for said in [
+        "1 line above the stock table's header is left out: \"Stock count\" (row 1)",
+        "read from \"Description\"",
+        "\"seed packets\" (row 3) as \"Seed packets\"",
+        "\"60\" (row 3) as 2 months",
+        "lead time 1 month;",
+    ] {
+        assert!(
+            out.stderr.contains(said) || stdout.contains(said),
+            "{said}: {stdout}{}",
+            out.stderr
+        );
+    }
+    assert!(
+        stdout.contains("demand over 2 months (lead time 2)"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("on hand 120, on order 30"), "{stdout}");
+    assert!(
+        stdout.contains(morrowcast_engine::order::NO_ON_HAND_NOTE),
+        "{stdout}"
+    );
+    // Money where units belong, and an unclear separator, are refused at their cells.
+    let path = table_file(
+        "stock_table_money.csv",
+        "item,on hand,minimum order\nSeed packets,1.500,2\nFrost cloth,4,$50\n",
+    );
+    let out = cli(&["stock", "-", "--stock", &path], &demo());
+    assert_eq!(out.code, 2);
+    assert!(
+        out.stderr
+            .contains("row 2, column \"on hand\", found \"1.500\""),
+        "{}",
+        out.stderr
+    );
+    assert!(
+        out.stderr
+            .contains("row 3, column \"minimum order\", found \"$50\""),
+        "{}",
+        out.stderr
     );
 }

@@ -5,11 +5,16 @@
 #![no_main]
 
 use libfuzzer_sys::fuzz_target;
-use morrowcast_engine::intake::read_stock_table;
+use morrowcast_engine::intake::{self, read_stock_table};
 use morrowcast_engine::stock::{StockSettings, Target};
 
 fuzz_target!(|data: &[u8]| {
-    let table = read_stock_table(data);
+    // A weekly history (lead times in days and months both convert, or are refused) of
+    // items named like the table's likely rows.
+    let history = intake::read(
+        "week,A,a-1,A1,00123,Seed packets\n2024-W01,1,2,3,4,5\n2024-W02,1,2,3,4,5\n",
+    );
+    let table = read_stock_table(data, &history);
     // An upper bound on the lines (CR LF counts twice; lone CR ends a line too).
     let lines = data.iter().filter(|b| **b == b'\n' || **b == b'\r').count() + 1;
     for e in &table.errors {

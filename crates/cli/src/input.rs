@@ -182,6 +182,7 @@ pub fn stock_inputs(
             "FILE and --stock TABLE cannot both be standard input: name one as a file".into(),
         );
     }
+    let input = read_any(&sa.file, stdin, sa.leave_out)?;
     let table = match &sa.table {
         Some(path) => {
             let bytes = read_input(path, stdin)?;
@@ -189,11 +190,10 @@ pub fn stock_inputs(
                 text: intake::decode_bytes(&bytes),
                 source: source_name(path),
             };
-            Some((intake::read_stock_table(&bytes), text))
+            Some((intake::read_stock_table(&bytes, input.report()), text))
         }
         None => None,
     };
-    let input = read_any(&sa.file, stdin, sa.leave_out)?;
     let settings = input.settings(&sa.typed, &sa.settings)?;
     let Some(work) = input.work() else {
         return Ok((input, table, settings, sa.stock.clone()));
@@ -207,9 +207,10 @@ pub fn stock_inputs(
     })?;
     args::check_horizon(&settings, &stock_settings)?;
     let table = table.or_else(|| {
-        work.stock_table
-            .as_ref()
-            .map(|t| (intake::read_stock_table(t.text.as_bytes()), t.clone()))
+        work.stock_table.as_ref().map(|t| {
+            let read = intake::read_stock_table(t.text.as_bytes(), input.report());
+            (read, t.clone())
+        })
     });
     Ok((input, table, settings, stock_settings))
 }

@@ -276,7 +276,7 @@ fn stock(
 ) -> u8 {
     let report = input.report();
     let table = table.map(|(t, _)| t);
-    let warnings = match stock_table_warnings(console, report, table, sa.json) {
+    let warnings = match stock_table_warnings(console, table, sa.json) {
         Ok(w) => w,
         Err(code) => return code,
     };
@@ -284,7 +284,11 @@ fn stock(
     let run = ItemRun {
         names: &sa.items,
         json: sa.json,
-        header: Some(table::stock_header(stock_settings, table.is_some())),
+        header: Some(table::stock_header(
+            stock_settings,
+            table.is_some(),
+            report.frequency,
+        )),
         warnings,
         closing: None,
         failed_without: "no stock figures: ",
@@ -341,11 +345,10 @@ impl Failure {
     }
 }
 
-/// A stock table's errors (written, and the exit code) or its warnings and the rows of items
-/// the history does not hold (`stock` and `look-back`).
+/// A stock table's errors (written, and the exit code) or its warnings, the rows of items the
+/// history does not hold among them (`stock` and `look-back`).
 fn stock_table_warnings(
     console: &mut Console<'_>,
-    report: &intake::IntakeReport,
     table: Option<&intake::StockTable>,
     json: bool,
 ) -> Result<Vec<String>, u8> {
@@ -360,15 +363,6 @@ fn stock_table_warnings(
             return Err(2);
         }
         warnings.extend(table.warnings.iter().cloned());
-        for row in &table.rows {
-            if !report.items.iter().any(|i| i.name == row.item) {
-                warnings.push(format!(
-                    "the stock table has a row for {}, which the history does not hold; it is \
-                     left out",
-                    table::quoted(&row.item)
-                ));
-            }
-        }
     }
     Ok(warnings)
 }
@@ -389,7 +383,7 @@ fn look_back(
     });
     let report = input.report();
     let table = table.map(|(t, _)| t);
-    let warnings = match stock_table_warnings(console, report, table, sa.json) {
+    let warnings = match stock_table_warnings(console, table, sa.json) {
         Ok(w) => w,
         Err(code) => return code,
     };

@@ -3,6 +3,7 @@
 use std::fmt::Write;
 
 use morrowcast_engine::alerts::Alert;
+use morrowcast_engine::calendar::Frequency;
 use morrowcast_engine::intake::IntakeReport;
 use morrowcast_engine::lookback::{LookBack, LookBackTally, Outcome, StockCheck};
 use morrowcast_engine::plan::ItemPlan;
@@ -196,10 +197,17 @@ pub fn plan(p: &ItemPlan) -> String {
 
 /// What `stock` prints before its items: the policy and target, and that the figures are
 /// estimates.
-pub fn stock_header(settings: &stock::StockSettings, with_table: bool) -> String {
+pub fn stock_header(
+    settings: &stock::StockSettings,
+    with_table: bool,
+    frequency: Frequency,
+) -> String {
     let policy = match settings.review_period() {
         None => "continuous review (reorder point)".to_string(),
-        Some(r) => format!("periodic review every {r} period(s) (order-up-to level)"),
+        Some(r) => format!(
+            "periodic review every {} (order-up-to level)",
+            periods(r, frequency)
+        ),
     };
     let target = match settings.target() {
         stock::Target::CycleService(p) => format!("cycle service level {:.1} %", 100.0 * p),
@@ -208,8 +216,8 @@ pub fn stock_header(settings: &stock::StockSettings, with_table: bool) -> String
     let mut s = String::new();
     let _ = writeln!(
         s,
-        "Stock plan: {policy}; lead time {} period(s){}; target {target}.",
-        settings.lead_time(),
+        "Stock plan: {policy}; lead time {}{}; target {target}.",
+        periods(settings.lead_time(), frequency),
         if settings.lead_time_sd() > 0.0 {
             format!(" (standard deviation {})", settings.lead_time_sd())
         } else {
@@ -227,6 +235,12 @@ pub fn stock_header(settings: &stock::StockSettings, with_table: bool) -> String
         }
     );
     s
+}
+
+/// "1 month", "3 weeks": a count of the history's periods in words.
+fn periods(n: usize, frequency: Frequency) -> String {
+    let (one, many) = frequency.period_words();
+    format!("{n} {}", if n == 1 { one } else { many })
 }
 
 /// A rejected stock table: every error with its row, column and text.
@@ -260,12 +274,20 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
         None => "reorder point",
         Some(_) => "order-up-to level",
     };
+    let frequency = p
+        .forecast
+        .first()
+        .map_or(Frequency::Undated, |f| f.period.frequency());
     let mut s = String::new();
     let _ = writeln!(s, "\n== {} ==", clean(&p.name));
     let _ = writeln!(
         s,
-        "demand over {} period(s): {:.1} (spread {:.1}, {} model, from {} rolling origins)",
-        st.protection_periods,
+        "demand over {}{}: {:.1} (spread {:.1}, {} model, from {} rolling origins)",
+        periods(st.protection_periods, frequency),
+        match st.settings.review_period() {
+            Some(r) => format!(" (lead time {} and review {r})", st.settings.lead_time()),
+            None => format!(" (lead time {})", st.settings.lead_time()),
+        },
         st.demand_over_protection,
         st.sd_over_protection,
         st.distribution.key(),

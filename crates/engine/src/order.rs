@@ -132,6 +132,10 @@ fn quiet_in_every_season(plan: &ItemPlan, periods: usize) -> bool {
 pub const NO_ROW_NOTE: &str =
     "no row in the stock table: on hand unknown, so no order is suggested";
 
+/// The note on an item whose stock-table row gives no on hand.
+pub const NO_ON_HAND_NOTE: &str =
+    "its row in the stock table gives no on hand, so no order is suggested";
+
 /// [`OrderError::EndsEarly`] when `series` ends before `file_end` (the file's last period,
 /// by [`crate::intake::ends_before`]): behind the board's and the command line's refusal and
 /// the page's notice.
@@ -210,6 +214,9 @@ pub fn plan_order(
     };
     if table_given && row.is_none() {
         stock.notes.push(NO_ROW_NOTE.to_string());
+    }
+    if row.is_some_and(|r| r.on_hand.is_none()) {
+        stock.notes.push(NO_ON_HAND_NOTE.to_string());
     }
     // An item without demand for longer than any quiet run before (possibly discontinued)
     // still forecasts from its past, slowly let down: an order from that is not one to

@@ -65,7 +65,10 @@ impl BoardState {
             Memo::new(move |_| stock_form.with(|f| f.check().err().unwrap_or_default()));
         let table_text = RwSignal::new(String::new());
         let table = Memo::new(move |_| {
-            table_text.with(|t| (!t.trim().is_empty()).then(|| read_stock_table(t.as_bytes())))
+            table_text.with(|t| {
+                (!t.trim().is_empty())
+                    .then(|| intake.report.with(|r| read_stock_table(t.as_bytes(), r)))
+            })
         });
         let table_source = RwSignal::new(super::NO_TABLE.to_string());
         let rows = RwSignal::new(Vec::<Option<BoardRow>>::new());

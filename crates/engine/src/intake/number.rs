@@ -160,6 +160,11 @@ pub(crate) const UNITS: [&str; 33] = [
     "bag", "bags", "bottle", "bottles", "ltr", "pairs",
 ];
 
+/// Whether an affix [`parse_number`] removed is a unit of quantity (not a currency or "%").
+pub(crate) fn is_unit(affix: &str) -> bool {
+    LETTER_UNITS.contains(&affix) || UNITS.iter().any(|u| u.eq_ignore_ascii_case(affix))
+}
+
 /// One-letter units, matched exactly as written.
 const LETTER_UNITS: [&str; 6] = ["g", "t", "l", "L", "m", "u"];
 

@@ -8,19 +8,32 @@
 //! Stock plan's arithmetic (crate::stock applies a row).
 //!
 //! Rules (our choices): the first non-blank record is the header; a column is known by its
-//! header, compared without case, spaces, hyphens or underscores ([`COLUMNS`]); a column with
-//! another header is left out with a warning; the item column is required; an empty cell (or
-//! `NA`, `n/a`, `null`) means "not given", so the file's default applies; an item named twice
-//! is an error at its second row; lead time and review period are whole periods; service
-//! targets are fractions (0.95) or percents (95); a row may give a service level or a fill
-//! rate, not both.
+//! header, compared without case, spaces or punctuation ([`COLUMNS`]; "Qty on hand", "Lead
+//! time (days)"); a column with another header is left out with a warning, and a table
+//! without an on-hand column is warned of (no order can be suggested); the item column is
+//! required, and where several headers could name items ("SKU", "Description") the one whose
+//! names match the history's is read, the others left out, said; an empty cell (or `NA`,
+//! `n/a`, `null`) means "not given", so the file's default applies; an item named twice is an
+//! error at its second row; rows are matched to the history's items by name
+//! ([`super::stock_names`]); lead time, its spread and review period are periods of the
+//! history, or days, weeks, months, quarters or years named in the header or the cell,
+//! converted ([`super::period_units`]); quantities are units: a unit after a number is
+//! removed and said, a currency or percent is an error; a "1.234" or "1,234" is an error
+//! when no cell of the table shows the decimal mark (an on-hand figure a thousand times off
+//! orders that much); service targets are fractions (0.95) or percents (95, 95%); a row may
+//! give a service level or a fill rate, not both.
 
+use super::build::{count, listing};
 use super::decode;
-use super::mark::{decide_mark, evidence, Tally};
-use super::number::{is_missing, parse_number};
+use super::mark::{decide_mark, evidence, Evidence, Tally};
+use super::number::{is_missing, is_unit, parse_number, NumberError};
+use super::period_units::{split_unit, to_periods, TimeUnit};
+use super::stock_names::{match_rows, name_key, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
-use super::{DecimalMark, Delimiter, RowError};
+use super::{DecimalMark, Delimiter, IntakeReport, RowError};
+use crate::calendar::Frequency;
 use crate::stock::{service_fraction_of, Target, MAX_PERIODS};
+use std::collections::HashSet;
 
 /// One row: an item and what it gives; `None` where the cell is empty or the column absent.
 #[derive(Clone, Debug, Default, PartialEq)]
@@ -66,23 +79,120 @@ impl StockTable {
     }
 }
 
-/// The known columns: (field, header spellings after [`normalise`]).
+/// The known columns: (field, header spellings after [`normalise`]). A period column's header
+/// may end in a unit of time ("Lead time (days)", "lead time in weeks"), a quantity column's
+/// in a word for units ("On hand qty", "On order (units)").
 pub const COLUMNS: [(Field, &[&str]); 11] = [
-    (Field::Item, &["item", "name", "product"]),
-    (Field::OnHand, &["onhand"]),
-    (Field::OnOrder, &["onorder"]),
-    (Field::LeadTime, &["leadtime"]),
-    (Field::LeadTimeSd, &["leadtimesd"]),
-    (Field::Review, &["review", "reviewperiod"]),
+    (
+        Field::Item,
+        &[
+            "item",
+            "items",
+            "name",
+            "product",
+            "itemname",
+            "productname",
+            "sku",
+            "code",
+            "itemcode",
+            "productcode",
+            "itemno",
+            "itemnumber",
+            "article",
+            "description",
+        ],
+    ),
+    (
+        Field::OnHand,
+        &[
+            "onhand",
+            "stockonhand",
+            "soh",
+            "instock",
+            "stock",
+            "inventory",
+            "currentstock",
+            "stocklevel",
+        ],
+    ),
+    (
+        Field::OnOrder,
+        &[
+            "onorder",
+            "ordered",
+            "openorders",
+            "openorder",
+            "incoming",
+            "intransit",
+            "inbound",
+            "onpo",
+            "openpo",
+            "onpurchaseorder",
+            "purchaseorders",
+            "openpurchaseorders",
+        ],
+    ),
+    (Field::LeadTime, &["leadtime", "lt", "supplierleadtime"]),
+    (
+        Field::LeadTimeSd,
+        &[
+            "leadtimesd",
+            "leadtimestdev",
+            "leadtimestddev",
+            "leadtimestandarddeviation",
+            "leadtimespread",
+            "ltsd",
+        ],
+    ),
+    (
+        Field::Review,
+        &["review", "reviewperiod", "reviewinterval", "reviewcycle"],
+    ),
     (
         Field::Service,
-        &["service", "servicelevel", "cycleservicelevel"],
+        &[
+            "service",
+            "servicelevel",
+            "cycleservicelevel",
+            "csl",
+            "servicetarget",
+            "serviceleveltarget",
+        ],
     ),
-    (Field::FillRate, &["fillrate"]),
-    (Field::OrderQuantity, &["orderquantity"]),
-    (Field::OrderMultiple, &["ordermultiple"]),
-    (Field::MinimumOrder, &["minimumorder", "minorder"]),
+    (Field::FillRate, &["fillrate", "fillratetarget"]),
+    (
+        Field::OrderQuantity,
+        &[
+            "orderquantity",
+            "orderqty",
+            "reorderquantity",
+            "reorderqty",
+            "lotsize",
+        ],
+    ),
+    (
+        Field::OrderMultiple,
+        &[
+            "ordermultiple",
+            "packsize",
+            "casesize",
+            "casepack",
+            "multiple",
+            "orderincrement",
+        ],
+    ),
+    (
+        Field::MinimumOrder,
+        &["minimumorder", "minorder", "moq", "minimumorderquantity"],
+    ),
 ];
+
+/// How many lines above the header a stock table may have (a title, a date, a blank
+/// line's worth of notes); our choice.
+const TITLE_LINES: usize = 5;
+
+/// Words before or after a quantity column's name that say only that it counts units.
+const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
 
 /// A column's meaning.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -111,33 +221,106 @@ pub enum Field {
     MinimumOrder,
 }
 
-/// A header cell without case, spaces, hyphens or underscores.
+impl Field {
+    /// Whether the column counts periods (and may be written in days, weeks, ...).
+    fn counts_periods(self) -> bool {
+        matches!(self, Field::LeadTime | Field::LeadTimeSd | Field::Review)
+    }
+
+    /// Whether the column counts units of the item.
+    fn counts_units(self) -> bool {
+        matches!(
+            self,
+            Field::OnHand
+                | Field::OnOrder
+                | Field::OrderQuantity
+                | Field::OrderMultiple
+                | Field::MinimumOrder
+        )
+    }
+}
+
+/// A header cell without case, spaces, hyphens, underscores, dots, brackets, slashes, colons,
+/// number signs or percent signs.
 fn normalise(header: &str) -> String {
     header
         .chars()
-        .filter(|c| !c.is_whitespace() && *c != '-' && *c != '_')
+        .filter(|c| !c.is_whitespace() && !"-_.()[]/:#%".contains(*c))
         .flat_map(char::to_lowercase)
         .collect()
 }
 
-fn field_of(header: &str) -> Option<Field> {
-    let key = normalise(header);
+fn field_named(key: &str) -> Option<Field> {
     COLUMNS
         .iter()
-        .find(|(_, names)| names.contains(&key.as_str()))
+        .find(|(_, names)| names.contains(&key))
         .map(|(f, _)| *f)
 }
 
-/// Reads a stock table from bytes (UTF-8, or UTF-16 with its byte-order mark). Never panics.
-pub fn read_stock_table(bytes: &[u8]) -> StockTable {
+/// A column: its field, and the unit of time its header names, if any.
+fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
+    let key = normalise(header);
+    if let Some(f) = field_named(&key) {
+        return Some((f, None));
+    }
+    for (at, _) in key.char_indices().skip(1) {
+        let (base, tail) = key.split_at(at);
+        let Some(field) = field_named(base) else {
+            continue;
+        };
+        let tail = tail
+            .strip_prefix("in")
+            .filter(|t| !t.is_empty())
+            .unwrap_or(tail);
+        if field.counts_periods() {
+            if matches!(tail, "period" | "periods") {
+                return Some((field, None));
+            }
+            if let Some(unit) = TimeUnit::from_word(tail) {
+                return Some((field, Some(unit)));
+            }
+        }
+        if field.counts_units() && QUANTITY_WORDS.contains(&tail) {
+            return Some((field, None));
+        }
+    }
+    // "Qty on hand", "Quantity on order".
+    QUANTITY_WORDS
+        .iter()
+        .find_map(|w| key.strip_prefix(w))
+        .and_then(field_named)
+        .filter(|f| f.counts_units())
+        .map(|f| (f, None))
+}
+
+/// What the rows' cells needed saying: lead times turned from a unit into periods, units
+/// removed from quantities.
+#[derive(Default)]
+struct Notes {
+    /// (column, "\"14 days\" (row 2) as 2 weeks") per converted cell.
+    converted: Vec<(String, String)>,
+    /// Whether a conversion went across days and months.
+    approximate: bool,
+    /// Units removed from quantity cells, and how many cells had one.
+    units: Vec<String>,
+    unit_cells: usize,
+    /// Lead times or review periods written without a unit that come to a year or more:
+    /// "\"21\" (row 2)".
+    long: Vec<String>,
+}
+
+/// Reads a stock table from bytes (UTF-8, or UTF-16 with its byte-order mark) against the
+/// history it goes with (its period, for lead times written in days or weeks, and its items'
+/// names). Never panics.
+pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
     let decoded = decode::decode(bytes);
-    let mut table = read_text(&decoded.text);
+    let mut table = read_text(&decoded.text, history);
     table.errors.extend(decode::all_errors(&decoded));
     table.errors.sort_by_key(|e| e.row);
     table
 }
 
-fn read_text(text: &str) -> StockTable {
+fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let mut out = StockTable::default();
     let text = strip_bom(text);
     let delimiter = sniff_delimiter(text).unwrap_or(Delimiter::Comma);
@@ -150,7 +333,35 @@ fn read_text(text: &str) -> StockTable {
             message: "a quote mark opened here is never closed".into(),
         });
     }
-    let mut records = tokens.records.into_iter().filter(|r| !r.is_blank());
+    let mut records: Vec<_> = tokens
+        .records
+        .into_iter()
+        .filter(|r| !r.is_blank())
+        .collect();
+    // Title lines above the header ("Stock count, 30 June"): the header is the first of the
+    // first few records with a column that names items.
+    let titles = records
+        .iter()
+        .take(TITLE_LINES + 1)
+        .position(|r| {
+            r.cells
+                .iter()
+                .any(|c| matches!(column_of(c), Some((Field::Item, _))))
+        })
+        .unwrap_or(0);
+    if titles > 0 {
+        let lines: Vec<String> = records[..titles]
+            .iter()
+            .map(|r| format!("\"{}\" (row {})", r.cells.join(" "), r.line))
+            .collect();
+        out.warnings.push(format!(
+            "{} above the stock table's header {} left out: {}",
+            count(titles, "line"),
+            if titles == 1 { "is" } else { "are" },
+            listing(&lines)
+        ));
+    }
+    let mut records = records.drain(titles..);
     let Some(header) = records.next() else {
         out.errors.push(RowError {
             row: 1,
@@ -162,25 +373,17 @@ fn read_text(text: &str) -> StockTable {
         });
         return out;
     };
-    let fields: Vec<Option<Field>> = header.cells.iter().map(|h| field_of(h)).collect();
-    for (i, h) in header.cells.iter().enumerate() {
-        if fields[i].is_none() && !h.is_empty() {
-            out.warnings.push(format!(
-                "column \"{h}\" of the stock table is not one Morrowcast uses; it is left out"
-            ));
-        }
-        if let Some(f) = fields[i] {
-            if fields[..i].contains(&Some(f)) {
-                out.errors.push(RowError {
-                    row: header.line,
-                    column: h.clone(),
-                    text: h.clone(),
-                    message: "this column is named twice in the header: keep one".into(),
-                });
-            }
-        }
-    }
-    let Some(item_column) = fields.iter().position(|f| *f == Some(Field::Item)) else {
+    let rows: Vec<_> = records.collect();
+    let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
+    let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> =
+        header.cells.iter().map(|h| column_of(h)).collect();
+    let Some(item_column) = choose_item_column(
+        &mut columns,
+        &header.cells,
+        &rows,
+        &item_names,
+        &mut out.warnings,
+    ) else {
         out.errors.push(RowError {
             row: header.line,
             column: String::new(),
@@ -191,23 +394,65 @@ fn read_text(text: &str) -> StockTable {
         });
         return out;
     };
-    let rows: Vec<_> = records.collect();
-    // The decimal mark, from every cell of the number columns.
-    let mut tally = Tally::default();
-    for r in &rows {
-        for (i, cell) in r.cells.iter().enumerate() {
-            if fields
-                .get(i)
-                .copied()
-                .flatten()
-                .is_some_and(|f| f != Field::Item)
-            {
-                tally.add(evidence(cell));
+    let fields: Vec<Option<Field>> = columns.iter().map(|c| c.map(|(f, _)| f)).collect();
+    for (i, h) in header.cells.iter().enumerate() {
+        let set_aside = matches!(column_of(h), Some((Field::Item, _)));
+        if fields[i].is_none() && !h.is_empty() && !set_aside {
+            out.warnings.push(format!(
+                "column \"{h}\" of the stock table is not one Morrowcast uses; it is left out"
+            ));
+        }
+        if let Some(f) = fields[i] {
+            if f != Field::Item && fields[..i].contains(&Some(f)) {
+                out.errors.push(RowError {
+                    row: header.line,
+                    column: h.clone(),
+                    text: h.clone(),
+                    message: "this column is named twice in the header: keep one".into(),
+                });
             }
         }
     }
+    if !fields.contains(&Some(Field::OnHand)) {
+        out.warnings.push(
+            "the stock table has no on-hand column (\"on hand\", \"stock on hand\", \"qty on \
+             hand\"): without it no order is suggested, only the safety stock and reorder point"
+                .into(),
+        );
+    }
+    if fields.contains(&Some(Field::OnHand)) && !fields.contains(&Some(Field::OnOrder)) {
+        out.warnings.push(
+            "the stock table has no on-order column (\"on order\", \"incoming\", \"qty on \
+             order\"): goods on order are taken as 0 for every item"
+                .into(),
+        );
+    }
+    // The decimal mark, from every cell of the number columns; and from the quantities alone,
+    // which alone may settle a "1.234" among them (a service level written "0.95" says little
+    // of how the stock counts were written).
+    let (mut tally, mut quantities) = (Tally::default(), Tally::default());
+    for r in &rows {
+        for (i, cell) in r.cells.iter().enumerate() {
+            let Some(field) = fields.get(i).copied().flatten() else {
+                continue;
+            };
+            if field != Field::Item {
+                let number = split_unit(cell).map_or(cell.as_str(), |(n, _)| n);
+                tally.add(evidence(number));
+                if field.counts_units() {
+                    quantities.add(evidence(number));
+                }
+            }
+        }
+    }
+    // No quantity shows the mark: a "1.234" among them is refused below rather than guessed
+    // (a stock table is short, and an on-hand figure a thousand times off orders that much).
+    let undecided = |t: Tally| t.dot == 0 && t.comma == 0;
+    let (quantities_undecided, all_undecided) = (undecided(quantities), undecided(tally));
     let (mark, mark_warning) = decide_mark(tally, delimiter);
-    out.warnings.extend(mark_warning);
+    if !all_undecided {
+        out.warnings.extend(mark_warning);
+    }
     let column_name = |i: usize| {
         header
             .cells
@@ -216,7 +461,15 @@ fn read_text(text: &str) -> StockTable {
             .cloned()
             .unwrap_or(format!("column {}", i + 1))
     };
-    let mut seen: Vec<String> = Vec::new();
+    let reading = Reading {
+        mark,
+        quantities_undecided,
+        all_undecided,
+        frequency: history.frequency,
+    };
+    let mut notes = Notes::default();
+    let mut seen: HashSet<String> = HashSet::new();
+    let mut read = Vec::new();
     for r in rows {
         let mut row = StockRow::default();
         let mut bad = Vec::new();
@@ -252,19 +505,30 @@ fn read_text(text: &str) -> StockTable {
                 message: "this item has a row above already: give one row per item".into(),
             });
         }
-        if !item.is_empty() && !seen.contains(&item) {
-            seen.push(item.clone());
+        if !item.is_empty() {
+            seen.insert(item.clone());
         }
         row.item = item;
         let (mut service, mut fill) = (None, None);
         for (i, cell) in r.cells.iter().enumerate() {
-            let Some(field) = fields.get(i).copied().flatten() else {
+            let Some((field, unit)) = columns.get(i).copied().flatten() else {
                 continue;
             };
             if field == Field::Item || is_missing(cell) {
                 continue;
             }
-            if let Err(message) = read_cell(field, cell, mark, &mut row, &mut service, &mut fill) {
+            let cell_at = CellAt {
+                field,
+                header_unit: unit,
+                text: cell,
+                line: r.line,
+                column: column_name(i),
+            };
+            let target = Targets {
+                service: &mut service,
+                fill: &mut fill,
+            };
+            if let Err(message) = reading.cell(&cell_at, &mut row, target, &mut notes) {
                 bad.push(RowError {
                     row: r.line,
                     column: column_name(i),
@@ -288,67 +552,328 @@ fn read_text(text: &str) -> StockTable {
             (None, None) => None,
         };
         if bad.is_empty() {
-            out.rows.push(row);
+            read.push(ReadRow {
+                line: r.line,
+                column: column_name(item_column),
+                row,
+            });
         } else {
             out.errors.extend(bad);
         }
     }
+    out.warnings.extend(notes.warnings(history.frequency));
+    let matched = match_rows(read, &item_names);
+    out.rows = matched.rows;
+    out.warnings.extend(matched.warnings);
+    out.errors.extend(matched.errors);
     out
 }
 
-/// Reads one cell of `field` into `row` (a service or fill-rate target into `service` or
-/// `fill`, which the caller checks against each other), or says what was expected instead.
-fn read_cell(
-    field: Field,
-    cell: &str,
-    mark: DecimalMark,
-    row: &mut StockRow,
-    service: &mut Option<f64>,
-    fill: &mut Option<f64>,
-) -> Result<(), String> {
-    let number = parse_number(cell, mark).map_err(|e| e.message(mark))?.value;
-    let periods = |least: f64| {
-        if number.fract() == 0.0 && number >= least && number <= MAX_PERIODS as f64 {
-            Ok(number as usize)
-        } else {
-            Err(format!(
-                "expected a whole number of periods from {least} to {MAX_PERIODS}"
-            ))
-        }
-    };
-    let at_least_zero = || {
-        (number >= 0.0)
-            .then_some(number)
-            .ok_or_else(|| "expected a quantity of 0 or more".to_string())
-    };
-    let above_zero = || {
-        (number > 0.0)
-            .then_some(number)
-            .ok_or_else(|| "expected a quantity above 0".to_string())
-    };
-    let fraction = |what| service_fraction_of(what, number).map_err(|e| e.to_string());
-    match field {
-        Field::Item => {}
-        Field::OnHand => row.on_hand = Some(number),
-        Field::OnOrder => row.on_order = Some(at_least_zero()?),
-        Field::LeadTime => row.lead_time = Some(periods(0.0)?),
-        Field::LeadTimeSd => row.lead_time_sd = Some(at_least_zero()?),
-        Field::Review => row.review_period = Some(periods(1.0)?),
-        Field::Service => *service = Some(fraction("cycle service level")?),
-        Field::FillRate => *fill = Some(fraction("fill rate")?),
-        Field::OrderQuantity => row.order_quantity = Some(above_zero()?),
-        Field::OrderMultiple => row.order_multiple = Some(above_zero()?),
-        Field::MinimumOrder => row.minimum_order = Some(at_least_zero()?),
+/// The item column: the only one, or, where several headers could name items ("SKU" and
+/// "Description"), the one whose names match the most of the history's; the others are left
+/// out with a warning. `None` when no header names items.
+fn choose_item_column(
+    columns: &mut [Option<(Field, Option<TimeUnit>)>],
+    header: &[String],
+    rows: &[super::text::Record],
+    items: &[&str],
+    warnings: &mut Vec<String>,
+) -> Option<usize> {
+    let candidates: Vec<usize> = (0..columns.len())
+        .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
+        .collect();
+    if candidates.len() <= 1 {
+        return candidates.first().copied();
     }
-    Ok(())
+    let keys: HashSet<String> = items.iter().map(|n| name_key(n)).collect();
+    let matches = |i: usize| {
+        rows.iter()
+            .filter(|r| r.cells.get(i).is_some_and(|c| keys.contains(&name_key(c))))
+            .count()
+    };
+    let scores: Vec<usize> = candidates.iter().map(|&i| matches(i)).collect();
+    let best = (0..candidates.len())
+        .rev()
+        .max_by_key(|&k| scores[k])
+        .map(|k| candidates[k])?;
+    for &i in candidates.iter().filter(|&&i| i != best) {
+        columns[i] = None;
+        warnings.push(format!(
+            "column \"{}\" of the stock table could name the items too; they are read from \
+             \"{}\", whose names match the history's ({} of {} rows against {}), and \"{}\" is \
+             left out",
+            header[i],
+            header[best],
+            matches(best),
+            rows.len(),
+            matches(i),
+            header[i]
+        ));
+    }
+    Some(best)
+}
+
+/// One cell being read, with where it stands.
+struct CellAt<'a> {
+    field: Field,
+    header_unit: Option<TimeUnit>,
+    text: &'a str,
+    line: usize,
+    column: String,
+}
+
+/// Where a row's targets go, checked against each other by the caller.
+struct Targets<'a> {
+    service: &'a mut Option<f64>,
+    fill: &'a mut Option<f64>,
+}
+
+/// How the table's cells are read: its decimal mark (undecided where no quantity, or no
+/// cell at all, showed it) and the history's period.
+struct Reading {
+    mark: DecimalMark,
+    quantities_undecided: bool,
+    all_undecided: bool,
+    frequency: Frequency,
+}
+
+impl Reading {
+    /// Reads one cell into `row` (a target into `targets`), or says what was expected.
+    fn cell(
+        &self,
+        at: &CellAt<'_>,
+        row: &mut StockRow,
+        targets: Targets<'_>,
+        notes: &mut Notes,
+    ) -> Result<(), String> {
+        let field = at.field;
+        let (text, unit) = match split_unit(at.text) {
+            Some((number, unit)) if field.counts_periods() => (number, Some(unit)),
+            _ => (at.text, at.header_unit),
+        };
+        if (self.all_undecided || self.quantities_undecided && field.counts_units())
+            && matches!(
+                evidence(text),
+                Evidence::AmbiguousDot | Evidence::AmbiguousComma
+            )
+        {
+            return Err(format!(
+                "this could be a thousands separator or a decimal mark, and no other cell of \
+                 the table shows which: write {} if it groups thousands, or {}0 if it marks \
+                 decimals",
+                text.replace([',', '.'], ""),
+                text.trim()
+            ));
+        }
+        let parsed = parse_number(text, self.mark).map_err(|e| number_message(&e, self.mark))?;
+        let mut number = parsed.value;
+        match parsed.affix {
+            None => {}
+            Some(a) if field.counts_units() && is_unit(&a) => {
+                notes.unit_cells += 1;
+                if !notes.units.contains(&a) {
+                    notes.units.push(a);
+                }
+            }
+            Some(a) if a == "%" && matches!(field, Field::Service | Field::FillRate) => {
+                number /= 100.0;
+                if !(number > 0.0 && number < 1.0) {
+                    return Err("expected a percent above 0 and below 100".into());
+                }
+            }
+            Some(a) if field.counts_units() => {
+                return Err(format!(
+                    "\"{a}\" is a currency or a share, and this column counts units of the item, \
+                     not their value: write the number of units"
+                ))
+            }
+            Some(a) if field.counts_periods() => {
+                return Err(format!(
+                    "\"{a}\" is not a unit of time: write a number of periods, or of days, \
+                     weeks, months, quarters or years (\"14 days\")"
+                ))
+            }
+            Some(a) => {
+                return Err(format!(
+                    "\"{a}\" does not belong in this column: write the number alone"
+                ))
+            }
+        }
+        if let Some(unit) = unit.filter(|u| Some(*u) != TimeUnit::of_period(self.frequency)) {
+            let whole = field != Field::LeadTimeSd;
+            let converted = to_periods(number, unit, self.frequency, whole)?;
+            let period = TimeUnit::of_period(self.frequency).expect("converted into a unit");
+            notes.converted.push((
+                at.column.clone(),
+                format!(
+                    "\"{}\" (row {}) as {} {}",
+                    at.text.trim(),
+                    at.line,
+                    trimmed(converted.periods),
+                    period.name(converted.periods)
+                ),
+            ));
+            notes.approximate |= converted.approximate;
+            number = converted.periods;
+        }
+        let year = self
+            .frequency
+            .natural_season()
+            .filter(|_| self.frequency != Frequency::Daily);
+        if unit.is_none()
+            && matches!(field, Field::LeadTime | Field::Review)
+            && year.is_some_and(|y| number >= y as f64)
+        {
+            notes
+                .long
+                .push(format!("\"{}\" (row {})", at.text.trim(), at.line));
+        }
+        let periods = |least: f64| {
+            if number.fract() == 0.0 && number >= least && number <= MAX_PERIODS as f64 {
+                Ok(number as usize)
+            } else {
+                Err(format!(
+                    "expected a whole number of periods from {least} to {MAX_PERIODS}"
+                ))
+            }
+        };
+        let at_least_zero = || {
+            (number >= 0.0)
+                .then_some(number)
+                .ok_or_else(|| "expected a quantity of 0 or more".to_string())
+        };
+        let above_zero = || {
+            (number > 0.0)
+                .then_some(number)
+                .ok_or_else(|| "expected a quantity above 0".to_string())
+        };
+        let fraction = |what| service_fraction_of(what, number).map_err(|e| e.to_string());
+        match field {
+            Field::Item => {}
+            Field::OnHand => row.on_hand = Some(number),
+            Field::OnOrder => row.on_order = Some(at_least_zero()?),
+            Field::LeadTime => row.lead_time = Some(periods(0.0)?),
+            Field::LeadTimeSd => row.lead_time_sd = Some(at_least_zero()?),
+            Field::Review => row.review_period = Some(periods(1.0)?),
+            Field::Service => *targets.service = Some(fraction("cycle service level")?),
+            Field::FillRate => *targets.fill = Some(fraction("fill rate")?),
+            Field::OrderQuantity => row.order_quantity = Some(above_zero()?),
+            Field::OrderMultiple => row.order_multiple = Some(above_zero()?),
+            Field::MinimumOrder => row.minimum_order = Some(at_least_zero()?),
+        }
+        Ok(())
+    }
+}
+
+/// What to write instead of a cell that is no number: the history's words, except where
+/// they speak of sales in a period.
+fn number_message(e: &NumberError, mark: DecimalMark) -> String {
+    match e {
+        NumberError::Dash | NumberError::NoneWord(_) => "expected a number: write 0, or leave \
+             the cell empty where the figure is not known (the settings then apply; without on \
+             hand no order is suggested)"
+            .into(),
+        NumberError::TooLarge => "expected a figure of at most 10^15 (1,000,000,000,000,000) \
+             in size: check the cell for extra digits"
+            .into(),
+        NumberError::NotFinite => "expected a number; an infinity or \"not a number\" is none \
+             (a formula's error?): write the figure, or leave the cell empty"
+            .into(),
+        NumberError::TrailingMinus(negative) => {
+            format!("expected a number with its minus sign first: write {negative}")
+        }
+        _ => e.message(mark),
+    }
+}
+
+/// A count with at most two decimals, without trailing zeros.
+fn trimmed(x: f64) -> String {
+    let s = format!("{x:.2}");
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
+impl Notes {
+    fn warnings(self, frequency: Frequency) -> Vec<String> {
+        let mut out = Vec::new();
+        let mut columns: Vec<&String> = Vec::new();
+        for (c, _) in &self.converted {
+            if !columns.contains(&c) {
+                columns.push(c);
+            }
+        }
+        let period = TimeUnit::of_period(frequency).map_or("periods", |u| u.name(2.0));
+        for c in columns {
+            let cells: Vec<String> = self
+                .converted
+                .iter()
+                .filter(|(k, _)| k == c)
+                .map(|(_, t)| t.clone())
+                .collect();
+            out.push(format!(
+                "\"{c}\" of the stock table was read in {period}, the history's periods{}: {}",
+                if self.approximate {
+                    " (a month taken as 30.44 days, the calendar's mean)"
+                } else {
+                    ""
+                },
+                listing(&cells)
+            ));
+        }
+        if !self.long.is_empty() {
+            let (_, name) = frequency.period_words();
+            out.push(format!(
+                "{} of the stock table, without a unit, {} a year or more in {name}, the \
+                 history's periods: {}; if {} days or weeks, write the unit in the cell (\"21 \
+                 days\") or the header (\"Lead time (days)\")",
+                count(self.long.len(), "lead time or review period"),
+                if self.long.len() == 1 {
+                    "comes to"
+                } else {
+                    "come to"
+                },
+                listing(&self.long),
+                if self.long.len() == 1 {
+                    "it counts"
+                } else {
+                    "they count"
+                },
+            ));
+        }
+        if !self.units.is_empty() {
+            let forms: Vec<String> = self.units.iter().map(|a| format!("\"{a}\"")).collect();
+            out.push(format!(
+                "removed units from {} of the stock table ({}); the numbers were used as \
+                 written, without any conversion: they must count the same units as the history",
+                count(self.unit_cells, "cell"),
+                forms.join(", ")
+            ));
+        }
+        out
+    }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
 
-    fn check(text: &str, rows: &[StockRow], errors: &[(usize, &str, &str)]) {
-        let t = read_stock_table(text.as_bytes());
+    /// A monthly history of the items the tests name.
+    fn history() -> IntakeReport {
+        super::super::read(
+            "month,Seed packets,Frost cloth,Gift card,A,B\n2024-01,1,2,3,4,5\n2024-02,1,2,3,4,5\n",
+        )
+    }
+
+    fn check(text: &str, rows: &[StockRow], errors: &[(usize, &str, &str)]) -> StockTable {
+        check_against(&history(), text, rows, errors)
+    }
+
+    fn check_against(
+        history: &IntakeReport,
+        text: &str,
+        rows: &[StockRow],
+        errors: &[(usize, &str, &str)],
+    ) -> StockTable {
+        let t = read_stock_table(text.as_bytes(), history);
         let got: Vec<(usize, &str, &str)> = t
             .errors
             .iter()
@@ -356,6 +881,174 @@ mod tests {
             .collect();
         assert_eq!(got, errors, "{text}: {:?}", t.errors);
         assert_eq!(t.rows, rows, "{text}");
+        t
+    }
+
+    /// Whether one of `t`'s warnings holds every one of `parts`.
+    fn warns(t: &StockTable, parts: &[&str]) -> bool {
+        t.warnings
+            .iter()
+            .any(|w| parts.iter().all(|p| w.contains(p)))
+    }
+
+    #[test]
+    fn lead_times_in_days_weeks_or_months_become_the_history_periods() {
+        let weekly = super::super::read("week,A,B,C\n2024-W01,1,2,3\n2024-W02,1,2,3\n");
+        let t = check_against(
+            &weekly,
+            "item,on hand,lead time (days),review\nA,5,21,2 weeks\nB,5,14 days,1\nC,5,,14d\n",
+            &[
+                StockRow {
+                    on_hand: Some(5.0),
+                    lead_time: Some(3),
+                    review_period: Some(2),
+                    ..row("A")
+                },
+                StockRow {
+                    on_hand: Some(5.0),
+                    lead_time: Some(2),
+                    review_period: Some(1),
+                    ..row("B")
+                },
+                StockRow {
+                    on_hand: Some(5.0),
+                    review_period: Some(2),
+                    ..row("C")
+                },
+            ],
+            &[],
+        );
+        assert!(warns(
+            &t,
+            &[
+                "\"lead time (days)\"",
+                "in weeks",
+                "\"21\" (row 2) as 3 weeks"
+            ]
+        ));
+        assert!(warns(&t, &["\"review\"", "\"14d\" (row 4) as 2 weeks"]));
+        // Not whole: refused with the periods it makes.
+        check_against(
+            &weekly,
+            "item,lead time days\nA,10\n",
+            &[],
+            &[(2, "lead time days", "10")],
+        );
+        // Across days and months: within 2 % of whole months, said with the mean month.
+        let t = check(
+            "item,LT (days),lead time sd (days)\nA,60,10\nB,45,\n",
+            &[StockRow {
+                lead_time: Some(2),
+                lead_time_sd: Some(10.0 / (365.25 / 12.0)),
+                ..row("A")
+            }],
+            &[(3, "LT (days)", "45")],
+        );
+        assert!(warns(
+            &t,
+            &["\"LT (days)\"", "30.44 days", "\"60\" (row 2) as 2 months"]
+        ));
+        assert!(warns(&t, &["\"lead time sd (days)\"", "as 0.33 months"]));
+        let err = read_stock_table(b"item,lead time\nA,45 days\n", &history()).errors;
+        assert!(err[0].message.contains("45 days is 1.48 months"), "{err:?}");
+        assert!(err[0].message.contains("write 1 or 2 (months)"), "{err:?}");
+        // A lead time in kilograms is no lead time.
+        check("item,lead time\nA,2 kg\n", &[], &[(2, "lead time", "2 kg")]);
+    }
+
+    #[test]
+    fn quantities_are_units_not_money_and_unclear_separators_are_refused() {
+        let t = check(
+            "Item,Qty on hand,On order (units)\nA,12 cases,\"1,200\"\nB,3.5,0\n",
+            &[
+                StockRow {
+                    on_hand: Some(12.0),
+                    on_order: Some(1200.0),
+                    ..row("A")
+                },
+                StockRow {
+                    on_hand: Some(3.5),
+                    on_order: Some(0.0),
+                    ..row("B")
+                },
+            ],
+            &[],
+        );
+        assert!(warns(&t, &["removed units from 1 cell", "\"cases\""]));
+        check(
+            "item,on hand,on order\nA,$40,0\nB,5,12 EUR\n",
+            &[],
+            &[(2, "on hand", "$40"), (3, "on order", "12 EUR")],
+        );
+        // No cell shows the decimal mark: "1.234" on hand is refused, not guessed.
+        let t = check(
+            "item,on hand\nA,1.234\nB,7\n",
+            &[row_with_on_hand("B", 7.0)],
+            &[(2, "on hand", "1.234")],
+        );
+        assert!(!warns(&t, &["decimal"]), "{:?}", t.warnings);
+        // Another cell shows it: read by it.
+        check(
+            "item,on hand\nA,1.234\nB,7.5\n",
+            &[row_with_on_hand("A", 1.234), row_with_on_hand("B", 7.5)],
+            &[],
+        );
+        // Percent targets.
+        check(
+            "item,service %\nA,95%\nB,0.9\n",
+            &[
+                StockRow {
+                    target: Some(Target::CycleService(0.95)),
+                    ..row("A")
+                },
+                StockRow {
+                    target: Some(Target::CycleService(0.9)),
+                    ..row("B")
+                },
+            ],
+            &[],
+        );
+    }
+
+    fn row_with_on_hand(item: &str, on_hand: f64) -> StockRow {
+        StockRow {
+            on_hand: Some(on_hand),
+            ..row(item)
+        }
+    }
+
+    #[test]
+    fn items_by_the_column_whose_names_match_the_history() {
+        let t = check(
+            "SKU,Description,Stock on hand\n1001,seed packets,4\n1002,Frost cloth,6\n",
+            &[
+                row_with_on_hand("Seed packets", 4.0),
+                row_with_on_hand("Frost cloth", 6.0),
+            ],
+            &[],
+        );
+        assert!(warns(&t, &["\"SKU\"", "read from \"Description\""]));
+        assert!(warns(&t, &["\"seed packets\" (row 2) as \"Seed packets\""]));
+        let t = check("item,reorder point\nA,4\n", &[row("A")], &[]);
+        assert!(warns(&t, &["no on-hand column"]));
+        assert!(warns(&t, &["\"reorder point\"", "left out"]));
+        let t = check("item,on hand\nA,4\n", &[row_with_on_hand("A", 4.0)], &[]);
+        assert!(warns(&t, &["no on-order column", "taken as 0"]));
+        // Spellings of other systems.
+        let t = check(
+            "Item code,Item name,Qty on hand,Qty on order,Reorder qty,MOQ,Pack size\n\
+             X1,A,4,2,30,10,5\n",
+            &[StockRow {
+                on_hand: Some(4.0),
+                on_order: Some(2.0),
+                order_quantity: Some(30.0),
+                minimum_order: Some(10.0),
+                order_multiple: Some(5.0),
+                ..row("A")
+            }],
+            &[],
+        );
+        assert!(!warns(&t, &["not one Morrowcast uses"]), "{:?}", t.warnings);
     }
 
     fn row(item: &str) -> StockRow {
@@ -418,19 +1111,22 @@ mod tests {
             ],
         );
         // Row 4's "A" is a second row of A even though row 2's was refused.
-        let t = read_stock_table(b"name,on hand\n");
+        let t = read_stock_table(b"name,on hand\n", &history());
         assert!(t.errors.is_empty() && t.rows.is_empty());
-        let t = read_stock_table(b"on hand,on order\n5,6\n");
+        let t = read_stock_table(b"on hand,on order\n5,6\n", &history());
         assert_eq!(t.errors.len(), 1);
         assert!(t.errors[0].message.contains("\"item\" column"));
-        let t = read_stock_table(b"item,colour,on hand\nA,red,4\n");
+        let t = read_stock_table(b"item,colour,on hand\nA,red,4\n", &history());
         assert_eq!(t.rows[0].on_hand, Some(4.0));
         assert!(t.warnings[0].contains("\"colour\""), "{:?}", t.warnings);
-        let t = read_stock_table(b"");
+        let t = read_stock_table(b"", &history());
         assert_eq!(t.errors[0].row, 1);
         // A U+FFFD written in the file (another program could not read bytes there) is an
         // error at its line, as in the history: the row is not read as it stands.
-        let t = read_stock_table("item,on hand\nSeed p\u{fffd}ckets,4\n".as_bytes());
+        let t = read_stock_table(
+            "item,on hand\nSeed p\u{fffd}ckets,4\n".as_bytes(),
+            &history(),
+        );
         assert!(t.errors.iter().any(|e| e.row == 2), "{:?}", t.errors);
     }
 }

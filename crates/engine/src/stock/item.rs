@@ -173,7 +173,7 @@ impl StockSettings {
 }
 
 /// Reads a service target written as a fraction (0.95) or a percent (95): a value below 1 is a
-/// fraction, from 1 up a percent; the result must lie strictly between 0 and 1.
+/// fraction, above 1 a percent; the result must lie from 0.5 to below 1.
 pub fn service_fraction(what: &'static str, text: &str) -> Result<f64, StockError> {
     let value: f64 = text
         .trim()
@@ -188,9 +188,12 @@ pub fn service_fraction(what: &'static str, text: &str) -> Result<f64, StockErro
 }
 
 /// [`service_fraction`] for a number already read (by the stock table, with its decimal mark).
+/// A target below 50 % is refused: it asks for less stock than the demand expected over the
+/// protection interval, never what a typed target means (common practice puts service
+/// targets from about 80 % up); and 1 is refused, which could be 1 % or 100 %.
 pub fn service_fraction_of(what: &'static str, value: f64) -> Result<f64, StockError> {
     let fraction = if value >= 1.0 { value / 100.0 } else { value };
-    if fraction > 0.0 && fraction < 1.0 {
+    if value != 1.0 && (0.5..1.0).contains(&fraction) {
         Ok(fraction)
     } else {
         Err(StockError::TargetOutOfRange { what, value })
@@ -593,7 +596,11 @@ mod tests {
         check("95", Ok(0.95));
         check("95%", Ok(0.95));
         check(" 97.5 ", Ok(0.975));
-        check("1", Ok(0.01));
+        check("1", Err(()));
+        check("50", Ok(0.5));
+        check("0.5", Ok(0.5));
+        check("49", Err(()));
+        check("0.3", Err(()));
         check("100", Err(()));
         check("0", Err(()));
         check("-5", Err(()));

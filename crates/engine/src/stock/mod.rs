@@ -51,7 +51,7 @@ pub use text::{read_lead_time, StockField, StockFieldError, StockText, TargetKin
 /// Why stock figures cannot be worked out. Each message names the input and what it needs.
 #[derive(Clone, Debug, PartialEq)]
 pub enum StockError {
-    /// A service target outside (0, 1).
+    /// A service target outside (0, 1) as a fraction, or as typed below 50 % or exactly 1.
     TargetOutOfRange {
         /// "cycle service level" or "fill rate".
         what: &'static str,
@@ -93,9 +93,15 @@ pub enum StockError {
 impl fmt::Display for StockError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
+            StockError::TargetOutOfRange { what, value } if *value == 1.0 => write!(
+                f,
+                "{what} target 1 could be 1 % or 100 % (which no stock reaches): give a percent \
+                 such as 95 or a fraction such as 0.95"
+            ),
             StockError::TargetOutOfRange { what, value } => write!(
                 f,
-                "{what} target {value} is outside 0 to 1 (exclusive): give a fraction such as 0.95"
+                "{what} target {value} is outside 50 % to 100 % (100 excluded): give a percent \
+                 such as 95 or a fraction such as 0.95"
             ),
             StockError::BadQuantity { what, value, needs } => {
                 write!(f, "{what} {value} is not usable: it must be {needs}")
