@@ -8,6 +8,7 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::calendar::Frequency;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
@@ -21,8 +22,9 @@ use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow, BoardStock};
 
-fn periods(n: usize) -> String {
-    how_many(n, ("period", "periods"))
+/// `n` of the item's periods in words ("2 months").
+fn periods(n: usize, frequency: Frequency) -> String {
+    how_many(n, frequency.period_words())
 }
 
 fn percent(v: f64) -> String {
@@ -78,7 +80,7 @@ fn stock_cell(s: &BoardStock, key: SortKey) -> String {
             "{} ± {} in {}",
             units(s.demand_over_protection),
             units(s.sd_over_protection),
-            periods(s.protection_periods)
+            periods(s.protection_periods, s.frequency)
         ),
         SortKey::SafetyStock => units(s.safety_stock),
         SortKey::Level => format!(
@@ -108,9 +110,9 @@ fn stock_figures(f: &BoardStock) -> impl IntoView {
     };
     view! {
         <dl class="figures" id="item-stock-figures">
-            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {} periods, lead time {}", f.review_period.unwrap_or(0), f.lead_time) } else { format!("continuous review, lead time {}", f.lead_time) }}</dd>
+            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {}, lead time {}", periods(f.review_period.unwrap_or(0), f.frequency), periods(f.lead_time, f.frequency)) } else { format!("continuous review, lead time {}", periods(f.lead_time, f.frequency)) }}</dd>
             <dt>"Target"</dt><dd>{target}</dd>
-            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods), units(f.sd_over_protection), f.distribution)}</dd>
+            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods, f.frequency), units(f.sd_over_protection), f.distribution)}</dd>
             <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
             <dt>{level}</dt><dd>{units(f.level_units)}</dd>
             <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>
@@ -440,7 +442,7 @@ pub fn StockPanel() -> impl IntoView {
                 <p class="hint" id="stock-table-hint">"One row per item: item, on hand, on order, and where they differ from the settings above lead time, lead-time spread, review period, service level or fill rate, order quantity, order multiple, minimum order. Without on hand no order is suggested."</p>
                 <div id="stock-table-report" aria-live="polite">
                     {move || board.table.with(|t| t.as_ref().map(|t| view! {
-                        <p class="hint">{format!("Read {} rows.", t.rows.len())}</p>
+                        <p class="hint">{format!("Read {} for items of the history.", how_many(t.rows.len(), ("row", "rows")))}</p>
                         <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}</ul>
                         <ol class="row-errors" id="stock-table-errors">{t.errors.iter().map(|e| view! { <li>{super::words::row_error_line(e)}</li> }).collect_view()}</ol>
                     }))}

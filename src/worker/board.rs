@@ -10,7 +10,7 @@ use serde::{Deserialize, Serialize};
 
 use morrowcast_engine::alerts::Alert;
 use morrowcast_engine::backtest::Candidate;
-use morrowcast_engine::calendar::Period;
+use morrowcast_engine::calendar::{Frequency, Period};
 use morrowcast_engine::intake::StockRow;
 use morrowcast_engine::lookback::{look_back, LookBack};
 use morrowcast_engine::order::{plan_order, ItemOrder, OrderError};
@@ -124,10 +124,12 @@ pub struct BoardStock {
     pub fill_rate: f64,
     /// The Stock plan's notes.
     pub notes: Vec<String>,
+    /// How often the item's periods come (the protection interval is said in them).
+    pub frequency: Frequency,
 }
 
 impl BoardStock {
-    fn new(stock: &StockPlan) -> BoardStock {
+    fn new(stock: &StockPlan, frequency: Frequency) -> BoardStock {
         let f = &stock.figures;
         BoardStock {
             periodic: stock.settings.review_period().is_some(),
@@ -146,6 +148,7 @@ impl BoardStock {
             cycle_service_level: f.cycle_service_level,
             fill_rate: f.fill_rate,
             notes: stock.notes.clone(),
+            frequency,
         }
     }
 }
@@ -198,7 +201,7 @@ impl BoardFigures {
             next_upper: next.map_or(f64::NAN, |b| b.high),
             level: plan.level.percent(),
             alerts: alerts.to_vec(),
-            stock: stock.map(BoardStock::new),
+            stock: stock.map(|s| BoardStock::new(s, plan.frequency())),
         }
     }
 

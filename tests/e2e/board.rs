@@ -230,7 +230,7 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
         "the board planned with lead time 3",
         "const p = document.getElementById('board-progress').textContent; \
          const cells = [...document.querySelectorAll('#board-table tbody tr')].map(r => r.textContent); \
-         return p.startsWith('Planned all 12') && cells.length === 12 && cells.every(c => c.includes(' in 3 periods'));",
+         return p.startsWith('Planned all 12') && cells.length === 12 && cells.every(c => c.includes(' in 3 months'));",
         WAIT,
     );
     let names = shown_names(browser);
@@ -266,7 +266,7 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
     browser.wait_for(
         "the changed item marked and replanned",
         "const r = [...document.querySelectorAll('#board-table tbody tr')].find(r => r.querySelector('th').textContent.startsWith('Mulch 50 L')); \
-         return !!r && r.textContent.includes('(changed)') && r.textContent.includes(' in 5 periods') \
+         return !!r && r.textContent.includes('(changed)') && r.textContent.includes(' in 5 months') \
            && document.getElementById('board-progress').textContent.startsWith('Planned all 12');",
         WAIT,
     );
@@ -446,12 +446,27 @@ fn a_dropped_stock_table_is_read_with_intakes_care() {
     let source = browser.js("return document.getElementById('stock-source').textContent");
     assert_eq!(source, json!("on-hand.csv"));
     save_screenshot(browser, "stock-table-error.png");
-    drop_stock_table(browser, "item,on hand\nSeed trays,40\n", "on-hand.csv");
+    // Corrected as another system writes it: the name in lower case, the lead time in days.
+    drop_stock_table(
+        browser,
+        "item,on hand,lead time (days)\nseed trays,40,60\n",
+        "on-hand.csv",
+    );
     wait_until_planned(browser, 12);
     let names = shown_names(browser);
     let orders = column(browser, "Order today");
-    let seed = &orders[names.iter().position(|n| n == "Seed trays").unwrap()];
-    assert_ne!(seed, "needs on hand", "{orders:?}");
+    let seed = names.iter().position(|n| n == "Seed trays").unwrap();
+    assert_ne!(orders[seed], "needs on hand", "{orders:?}");
+    let over = column(browser, "Demand over protection");
+    assert!(over[seed].ends_with("in 2 months"), "{over:?}");
+    let report = browser.js("return document.getElementById('stock-table-report').textContent");
+    let report = report.as_str().unwrap_or("");
+    assert!(
+        report.contains("\"seed trays\" (row 2) as \"Seed trays\"")
+            && report.contains("\"60\" (row 2) as 2 months")
+            && report.contains("Read 1 row for items of the history."),
+        "{report}"
+    );
 }
 
 /// A file whose last month was taken on its third day: the board and the item's headline say

@@ -28,14 +28,15 @@ fn text_of(browser: &Browser, id: &str) -> String {
     v.as_str().unwrap_or_else(|| panic!("no #{id}")).to_string()
 }
 
-/// Waits for the board's row of `name` to be marked changed and planned with `periods`.
-fn wait_for_changed_row(browser: &Browser, name: &str, periods: usize) {
+/// Waits for the board's row of `name` to be marked changed and planned with `months` (the
+/// demo's periods).
+fn wait_for_changed_row(browser: &Browser, name: &str, months: usize) {
     browser.wait_for_args(
         "the changed item replanned",
         "const r = [...document.querySelectorAll('#board-table tbody tr')].find(r => r.querySelector('th').textContent.startsWith(arguments[0])); \
-         return !!r && r.textContent.includes('(changed)') && r.textContent.includes(' in ' + arguments[1] + ' periods') \
+         return !!r && r.textContent.includes('(changed)') && r.textContent.includes(' in ' + arguments[1] + ' months') \
            && document.getElementById('board-progress').textContent.startsWith('Planned all');",
-        json!([name, periods]),
+        json!([name, months]),
         WAIT,
     );
 }

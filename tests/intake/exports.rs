@@ -975,6 +975,30 @@ fn items_numbered_in_the_header_are_read_by_their_codes() {
             },
         );
     }
+    // Codes beside names (a probe of 2026-12-05 found "month,SKU-00123,00124,Frost cloth"
+    // refused at "month", its items "Series 1", ...): the names and the codes name the items.
+    check(
+        "month,SKU-00123,00124,Frost cloth\n2024-01,12,5,7\n2024-02,14,6,8\n",
+        Expect {
+            items: Some(vec![
+                ("SKU-00123", some(&[12.0, 14.0])),
+                ("00124", some(&[5.0, 6.0])),
+                ("Frost cloth", some(&[7.0, 8.0])),
+            ]),
+            warned: vec![vec!["names the items by numbers (00124)"]],
+            ..Expect::default()
+        },
+    );
+    // A decimal or a period beside names is no code: refused as before.
+    for header in ["month,1.50,Frost cloth", "month,2024-03,Frost cloth"] {
+        check(
+            &format!("{header}\n2024-01,12,5\n2024-02,14,6\n"),
+            Expect {
+                errors: vec![(1, "column 1", "month")],
+                ..Expect::default()
+            },
+        );
+    }
     // A first cell that names no period ("item") is no such header either.
     check(
         "item,1001,1002\n2024-01,12,5\n2024-02,14,6\n",

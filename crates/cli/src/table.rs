@@ -274,10 +274,7 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
         None => "reorder point",
         Some(_) => "order-up-to level",
     };
-    let frequency = p
-        .forecast
-        .first()
-        .map_or(Frequency::Undated, |f| f.period.frequency());
+    let frequency = p.frequency();
     let mut s = String::new();
     let _ = writeln!(s, "\n== {} ==", clean(&p.name));
     let _ = writeln!(

@@ -182,6 +182,15 @@ pub struct ItemPlan {
     pub notes: Vec<String>,
 }
 
+impl ItemPlan {
+    /// How often the item's periods come (from its forecast's periods; a plan always has one).
+    pub fn frequency(&self) -> Frequency {
+        self.forecast
+            .first()
+            .map_or(Frequency::Undated, |f| f.period.frequency())
+    }
+}
+
 /// Histories with fewer whole calendar seasons than this put a rejected calendar season on
 /// trial ([`seasons_to_try`]). Our choice, measured on the M3 monthly data (README,
 /// Benchmarks): with each history cut to its last 36 months the trial took sMAPE from 15.33 to

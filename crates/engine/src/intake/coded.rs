@@ -10,8 +10,10 @@
 //!
 //! Rule: the first record that reads as data is such a header when its first cell names a
 //! period and no item or quantity ("month", "Date", "Week starting"); its other non-empty
-//! cells, at least two, are whole numbers written with digits only that all differ; none of
-//! them reads as a calendar number (a year from 1900 to 2100, a year and month 202401, a date
+//! cells, at least two, all differ and are whole numbers written with digits only, or names
+//! that read as no number or period ("SKU-00123", "Frost cloth" beside "00124"), at least one
+//! of them a number (else the header rule takes the record); none of the numbers reads as a
+//! calendar number (a year from 1900 to 2100, a year and month 202401, a date
 //! 20240131: periods across, as in a month-by-year grid) and they are not a run 0, 1, 2, ...
 //! or 1, 2, 3, ... up to at most 53 (days of the month, hours, weekdays, weeks across: a
 //! calendar grid); and the next record starts with a period other than a plain number and
@@ -22,25 +24,46 @@
 
 use super::label::{parse_label, Family};
 use super::number::{is_missing, looks_number};
-use super::table::{header_says, whole_number, ITEM_WORDS, PERIOD_WORDS, QUANTITY_WORDS};
+use super::table::{
+    all_distinct, header_says, whole_number, ITEM_WORDS, PERIOD_WORDS, QUANTITY_WORDS,
+};
 use super::text::Record;
 
 /// The index in `candidates` of a header naming items by number codes, given the table's test
-/// of a data record; `None` when the first data-like record is not one.
+/// of a data record; `None` when neither the first data-like record (codes alone read as data)
+/// nor the record above it (codes beside names) is one.
 pub(crate) fn header_at(
     records: &[Record],
     candidates: &[usize],
     data_like: impl Fn(&Record) -> bool,
 ) -> Option<usize> {
     let k = candidates.iter().position(|&i| data_like(&records[i]))?;
-    let record = &records[candidates[k]];
-    let first = record.cells.first()?;
+    let coded_at = |h: usize| {
+        let next = candidates.get(h + 1).and_then(|&i| records.get(i));
+        next.is_some_and(|next| coded(&records[candidates[h]], next, &data_like))
+    };
+    if coded_at(k) {
+        Some(k)
+    } else {
+        k.checked_sub(1).filter(|&h| coded_at(h))
+    }
+}
+
+/// Whether `record` is a header of item codes over `next`, a row of data.
+fn coded(record: &Record, next: &Record, data_like: &impl Fn(&Record) -> bool) -> bool {
+    let Some(first) = record.cells.first() else {
+        return false;
+    };
+    let header_cells = item_cells(record);
     let codes = codes(record);
     let mut values: Vec<u64> = codes.iter().filter_map(|c| c.parse().ok()).collect();
     values.sort_unstable();
     values.dedup();
-    let next = records.get(*candidates.get(k + 1)?)?;
-    let (lead, cells) = next.cells.split_first()?;
+    // Names beside the codes ("00124" beside "Frost cloth"): cells that read as nothing else.
+    let named = |c: &&str| !looks_number(c) && parse_label(c).is_none();
+    let Some((lead, cells)) = next.cells.split_first() else {
+        return false;
+    };
     let dated_below = parse_label(lead).is_some_and(|l| l.family() != Family::Integer);
     let numbers_below = cells
         .iter()
@@ -48,16 +71,17 @@ pub(crate) fn header_at(
     let names_period = header_says(first, &PERIOD_WORDS)
         && !header_says(first, &ITEM_WORDS)
         && !header_says(first, &QUANTITY_WORDS);
-    let coded = names_period
-        && codes.len() >= 2
-        && codes.iter().all(|c| whole_number(c))
+    names_period
+        && header_cells.len() >= 2
+        && !codes.is_empty()
+        && header_cells.iter().all(|c| whole_number(c) || named(c))
+        && all_distinct(&header_cells)
         && values.len() == codes.len()
         && !codes.iter().any(|c| calendar_number(c))
         && !calendar_run(&values)
         && dated_below
         && numbers_below
-        && data_like(next);
-    coded.then_some(k)
+        && data_like(next)
 }
 
 /// A year from 1900 to 2100, a year and month (202401) or a date (20240131) written as digits.
@@ -85,13 +109,21 @@ fn calendar_run(values: &[u64]) -> bool {
         && values.iter().zip(start..).all(|(v, want)| *v == want)
 }
 
-/// The codes of a header found by [`header_at`]: its non-empty cells after the first.
-pub(crate) fn codes(header: &Record) -> Vec<&str> {
+/// A header's item cells: its non-empty cells after the first.
+fn item_cells(header: &Record) -> Vec<&str> {
     header
         .cells
         .iter()
         .skip(1)
         .map(String::as_str)
         .filter(|c| !c.is_empty())
+        .collect()
+}
+
+/// The codes of a header found by [`header_at`]: its item cells written as whole numbers.
+pub(crate) fn codes(header: &Record) -> Vec<&str> {
+    item_cells(header)
+        .into_iter()
+        .filter(|c| whole_number(c))
         .collect()
 }
