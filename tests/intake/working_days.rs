@@ -633,3 +633,80 @@ fn a_second_date_column_of_a_wide_table_is_named_as_such() {
         },
     );
 }
+
+// Rows every other week, every fourth week or every other month (a pay-run report, a
+// four-weekly accounting calendar, a bimonthly count) have no period here. A single column of
+// them was refused with "N periods without a row", as if rows were missing; a long table of
+// them was read as weeks, every other one "closed" with no sales (found on 2026-12-05). Now
+// both are refused at the second row, saying how often the rows come and what to write.
+#[test]
+fn rows_every_other_week_or_month_are_refused_as_a_period_of_their_own() {
+    let every = |days: i64, n: i64, items: &[&str]| {
+        let start = days_from_civil(2024, 1, 5);
+        let mut text = String::from(if items.len() > 1 {
+            "date,item,qty\n"
+        } else {
+            "date,qty\n"
+        });
+        for k in 0..n {
+            let (y, m, d) = civil_from_days(start + k * days);
+            for item in items {
+                let item = if items.len() > 1 {
+                    format!("{item},")
+                } else {
+                    String::new()
+                };
+                text.push_str(&format!("{y}-{m:02}-{d:02},{item}{}\n", 20 + k % 7));
+            }
+        }
+        text
+    };
+    for (text, second, every) in [
+        (
+            every(14, 30, &["Seed packets"]),
+            "2024-01-19",
+            "come every 2 weeks",
+        ),
+        (
+            every(28, 20, &["Seed packets"]),
+            "2024-02-02",
+            "come every 4 weeks",
+        ),
+        (
+            every(14, 30, &["Seed packets", "Frost cloth"]),
+            "2024-01-19",
+            "come every 2 weeks",
+        ),
+    ] {
+        let report = read(&text);
+        assert_eq!(report.errors.len(), 1, "{:?}", report.errors);
+        let e = &report.errors[0];
+        assert_eq!(
+            (e.row, e.text.as_str()),
+            (if text.starts_with("date,item") { 4 } else { 3 }, second)
+        );
+        assert!(e.message.contains(every), "{}", e.message);
+        assert!(e.message.contains("give one row per week"), "{}", e.message);
+    }
+    let mut bimonthly = String::from("month,qty\n");
+    for k in 0..24 {
+        bimonthly.push_str(&format!(
+            "{}-{:02},{}\n",
+            2022 + k / 6,
+            1 + 2 * (k % 6),
+            40 + k
+        ));
+    }
+    check(
+        &bimonthly,
+        Expect {
+            errors: vec![(3, "month", "2022-03")],
+            ..Expect::default()
+        },
+    );
+    // A slow seller of a daily long table, its sales a whole number of days apart, stays
+    // read as days without sales between.
+    let report = read(&every(9, 40, &["Seed packets", "Frost cloth"]));
+    assert!(report.errors.is_empty(), "{:?}", report.errors);
+    assert_eq!(report.frequency, Frequency::Daily);
+}

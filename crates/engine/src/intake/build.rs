@@ -539,6 +539,28 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
                 .collect();
         }
     }
+    if let (Layout::Long, Some(col), Some((p, _))) = (plan.layout, column.as_ref(), plan.period) {
+        // Every item's rows every few periods (every other week): no period holds them, and
+        // read as weeks every other one would be closed.
+        let mut named: Vec<Entry<'_>> = kept
+            .iter()
+            .zip(&col.periods)
+            .filter_map(|(row, p)| p.map(|period| Entry { period, row }))
+            .collect();
+        named.sort_by_key(|e| (e.period, e.row.line));
+        named.dedup_by_key(|e| e.period);
+        // Only at the cadences of such exports (every other or every fourth week, every other
+        // month): a slow seller's sales a whole number of days apart are its own, not a period.
+        let cadence = match b.out.frequency {
+            Some(Frequency::Weekly) => [2, 4].as_slice(),
+            Some(Frequency::Monthly) => [2].as_slice(),
+            _ => [].as_slice(),
+        };
+        let step = named.get(..2).map(|w| w[0].period.steps_to(w[1].period));
+        if step.is_some_and(|s| cadence.contains(&s)) && b.every_few_periods(&named, p) {
+            return b.finish();
+        }
+    }
     match (plan.layout, column) {
         (Layout::Long, column) => b.long(&kept, column.as_ref()),
         (Layout::Across, _) => b.across(&kept),
@@ -708,6 +730,9 @@ impl<'a> Builder<'a> {
         let frequency = self.out.frequency.map_or("", |f| f.as_str());
         let row = unique[named].row;
         let cell = self.period_text(row);
+        if self.every_few_periods(unique, column) {
+            return;
+        }
         self.error(
             row.line,
             column,
@@ -723,6 +748,51 @@ impl<'a> Builder<'a> {
                 unique.len()
             ),
         );
+    }
+
+    /// The error for rows that come every few periods, always as many (every other week,
+    /// every four weeks, every two months), at the second; true when given. Such rows hold
+    /// a period of their own, which no frequency here holds: read as the shorter periods
+    /// they would be totals beside empty or closed ones (`unique`: the first row of each
+    /// period named, in order).
+    fn every_few_periods(&mut self, unique: &[Entry<'a>], column: usize) -> bool {
+        let steps: Vec<i64> = unique
+            .windows(2)
+            .map(|w| w[0].period.steps_to(w[1].period))
+            .collect();
+        let Some(&step) = steps.first().filter(|s| **s > 1) else {
+            return false;
+        };
+        if steps.len() < 3 || steps.iter().any(|s| *s != step) {
+            return false;
+        }
+        let (first, last) = (unique[0].period, unique[unique.len() - 1].period);
+        let (one, many) = self
+            .out
+            .frequency
+            .map_or(("period", "periods"), |f| f.period_words());
+        let longer = match self.out.frequency {
+            Some(Frequency::Daily) => " (or per week)",
+            Some(Frequency::Weekly) => " (or per month)",
+            Some(Frequency::Monthly) => " (or per quarter)",
+            Some(Frequency::Quarterly) => " (or per year)",
+            _ => "",
+        };
+        let row = unique[1].row;
+        let cell = self.period_text(row);
+        self.error(
+            row.line,
+            column,
+            &cell,
+            format!(
+                "expected periods that follow each other: the rows, {first} to {last}, come \
+                 every {step} {many}, a period Morrowcast does not have, so nothing was read; \
+                 a row holding {step} {many}' sales cannot be split into {many} without making \
+                 figures up: give one row per {one}{longer} from your records, or, if the \
+                 {many} between the rows had no sales, rows with 0 for them"
+            ),
+        );
+        true
     }
 
     /// The warning naming an item's empty quantity cells (`cells` of them) read as gaps in
