@@ -551,13 +551,22 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         named.dedup_by_key(|e| e.period);
         // Only at the cadences of such exports (every other or every fourth week, every other
         // month): a slow seller's sales a whole number of days apart are its own, not a period.
+        // Quarters or years written as their first or last month come three or twelve months
+        // apart. And only for several items: one item's sales every other month are its own.
         let cadence = match b.out.frequency {
             Some(Frequency::Weekly) => [2, 4].as_slice(),
-            Some(Frequency::Monthly) => [2].as_slice(),
+            Some(Frequency::Monthly) => [2, 3, 12].as_slice(),
             _ => [].as_slice(),
         };
+        let items: HashSet<Option<String>> = kept
+            .iter()
+            .map(|row| long::item_key(row, &plan.item_columns))
+            .collect();
         let step = named.get(..2).map(|w| w[0].period.steps_to(w[1].period));
-        if step.is_some_and(|s| cadence.contains(&s)) && b.every_few_periods(&named, p) {
+        if items.len() >= 2
+            && step.is_some_and(|s| cadence.contains(&s))
+            && b.every_few_periods(&named, p)
+        {
             return b.finish();
         }
     }
@@ -780,18 +789,28 @@ impl<'a> Builder<'a> {
         };
         let row = unique[1].row;
         let cell = self.period_text(row);
-        self.error(
-            row.line,
-            column,
-            &cell,
-            format!(
+        // Months three or twelve apart are quarters or years, which are read when written so.
+        let written_longer = match (self.out.frequency, step) {
+            (Some(Frequency::Monthly), 3) => Some(("a quarter", "the quarter itself (2022-Q1)")),
+            (Some(Frequency::Monthly), 12) => Some(("a year", "the year itself (2022)")),
+            _ => None,
+        };
+        let message = match written_longer {
+            Some((what, write)) => format!(
+                "expected periods that follow each other: the rows, {first} to {last}, come \
+                 every {step} months, so nothing was read: if each row is {what}'s total, \
+                 write {write} or its first day, and it is read so; if the months between the \
+                 rows had no sales, give them rows with 0"
+            ),
+            None => format!(
                 "expected periods that follow each other: the rows, {first} to {last}, come \
                  every {step} {many}, a period Morrowcast does not have, so nothing was read; \
                  a row holding {step} {many}' sales cannot be split into {many} without making \
                  figures up: give one row per {one}{longer} from your records, or, if the \
                  {many} between the rows had no sales, rows with 0 for them"
             ),
-        );
+        };
+        self.error(row.line, column, &cell, message);
         true
     }
 

@@ -4,7 +4,8 @@
 //! Kept apart from: the choice of decimal mark for a whole file (that is [`super::mark`], fed by
 //! every value cell) and from what the numbers mean. A cell is read under one decimal mark; the
 //! other mark, spaces (also U+00A0, U+202F, U+2009) and the apostrophe are thousands separators,
-//! and groups must be well formed (1–3 digits, then groups of exactly 3), so "12,5" under a dot
+//! and groups must be well formed (1–3 digits not starting with 0, then groups of exactly 3),
+//! so "0,500" under a dot mark is an error rather than 500, and "12,5" under a dot
 //! mark is an error rather than 125.
 //!
 //! Stripped forms (one prefix and/or one suffix, with or without a space):
@@ -420,9 +421,10 @@ fn parse_core(core: &str, exponent: Option<&str>, mark: DecimalMark) -> Result<f
             let groups: Vec<&str> = whole
                 .split(|c: char| (if is_group_space(c) { ' ' } else { c }) == *kind)
                 .collect();
+            // A first group starting with 0 groups nothing: "0,500" is no 500, nor "012,345".
             let well_formed = groups.iter().enumerate().all(|(i, g)| {
                 let len_ok = if i == 0 {
-                    (1..=3).contains(&g.len())
+                    (1..=3).contains(&g.len()) && !g.starts_with('0')
                 } else {
                     g.len() == 3
                 };

@@ -39,7 +39,7 @@ impl TimeUnit {
     pub(crate) fn from_word(word: &str) -> Option<TimeUnit> {
         let w = word.trim().trim_end_matches('.').to_lowercase();
         let unit = match w.as_str() {
-            "d" | "day" | "days" | "dys" => TimeUnit::Day,
+            "d" | "day" | "days" | "dys" | "calendarday" | "calendardays" => TimeUnit::Day,
             "w" | "wk" | "wks" | "week" | "weeks" => TimeUnit::Week,
             "mo" | "mos" | "mth" | "mths" | "month" | "months" => TimeUnit::Month,
             "q" | "qtr" | "qtrs" | "quarter" | "quarters" => TimeUnit::Quarter,

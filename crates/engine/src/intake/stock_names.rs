@@ -17,13 +17,22 @@ use super::RowError;
 use std::collections::HashMap;
 
 /// A name without case, white space or punctuation; a name of digits alone also without its
-/// leading zeros.
+/// leading zeros. Digits parted by anything stay parted ("1.5 L" is not "15 L", "1.23" not
+/// "123").
 pub(crate) fn name_key(name: &str) -> String {
-    let key: String = name
-        .chars()
-        .filter(|c| c.is_alphanumeric())
-        .flat_map(char::to_lowercase)
-        .collect();
+    let mut key = String::new();
+    let mut parted = false;
+    for c in name.chars() {
+        if !c.is_alphanumeric() {
+            parted = !key.is_empty();
+            continue;
+        }
+        if parted && c.is_ascii_digit() && key.ends_with(|k: char| k.is_ascii_digit()) {
+            key.push('_');
+        }
+        parted = false;
+        key.extend(c.to_lowercase());
+    }
     if !key.is_empty() && key.chars().all(|c| c.is_ascii_digit()) {
         let trimmed = key.trim_start_matches('0');
         return if trimmed.is_empty() { "0" } else { trimmed }.to_string();
@@ -239,5 +248,9 @@ mod tests {
         assert_eq!(name_key("000"), "0");
         assert_eq!(name_key("0012-A"), "0012a");
         assert_eq!(name_key("Bulbe d'été"), "bulbedété");
+        assert_eq!(name_key("Terracotta pot 1.5 L"), "terracottapot1_5l");
+        assert_eq!(name_key("Terracotta pot 15 L"), "terracottapot15l");
+        assert_eq!(name_key("1.23"), "1_23");
+        assert_eq!(name_key("00 123"), "00_123");
     }
 }

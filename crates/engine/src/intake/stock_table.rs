@@ -7,21 +7,27 @@
 //! set of columns named in a header, so none of the history's layout guessing applies) and the
 //! Stock plan's arithmetic (crate::stock applies a row).
 //!
-//! Rules (our choices): the first non-blank record is the header; a column is known by its
-//! header, compared without case, spaces or punctuation ([`COLUMNS`]; "Qty on hand", "Lead
-//! time (days)"); a column with another header is left out with a warning, and a table
-//! without an on-hand column is warned of (no order can be suggested); the item column is
-//! required, and where several headers could name items ("SKU", "Description") the one whose
-//! names match the history's is read, the others left out, said; an empty cell (or `NA`,
-//! `n/a`, `null`) means "not given", so the file's default applies; an item named twice is an
-//! error at its second row; rows are matched to the history's items by name
-//! ([`super::stock_names`]); lead time, its spread and review period are periods of the
-//! history, or days, weeks, months, quarters or years named in the header or the cell,
-//! converted ([`super::period_units`]); quantities are units: a unit after a number is
-//! removed and said, a currency or percent is an error; a "1.234" or "1,234" is an error
-//! when no cell of the table shows the decimal mark (an on-hand figure a thousand times off
-//! orders that much); service targets are fractions (0.95) or percents (95, 95%); a row may
-//! give a service level or a fill rate, not both.
+//! Rules (our choices): the header is the line, of the first six, naming items with the most
+//! known columns (title and group lines above it left out, said); a column is known by its
+//! header, compared without case, spaces or punctuation but for `#` and `%` ([`COLUMNS`];
+//! "Qty on hand", "Lead time (days)"; "Stock #" is no stock); a column with another header is
+//! left out with a warning, a lead time in units no period count holds ("business days") is
+//! an error at the header, and a table without an on-hand or on-order column is warned of;
+//! of two columns giving one figure the one under its own name is read, the other left out,
+//! said (two alike: an error); the item column is required, and where several headers could
+//! name items ("SKU", "Description") the one whose names match the history's most is read
+//! (alike: an error); an empty cell (or `NA`, `n/a`, `null`) means "not given", so the file's
+//! default applies; an item named twice is an error at its second row; rows are matched to
+//! the history's items by name ([`super::stock_names`]); lead time, its spread and review
+//! period are periods of the history, or days, weeks, months, quarters or years named in the
+//! header or the cell, converted ([`super::period_units`]); a lead time of a year or more
+//! without a unit, or a spread above its lead time, is warned of; quantities are units: a
+//! unit of one or a measure after a number is removed and said, a package ("cases"), a
+//! currency or a percent is an error, and so is any unit but one of one in an order rule; a
+//! "1.234" or "1,234" is an error when no quantity of the table shows the decimal mark (an
+//! on-hand figure a thousand times off orders that much); service targets are fractions
+//! (0.95) or percents (95, 95%) from 50 % to below 100 %; a row may give a service level or a
+//! fill rate, not both.
 
 use super::build::{count, listing};
 use super::decode;
@@ -119,17 +125,10 @@ pub const COLUMNS: [(Field, &[&str]); 11] = [
         Field::OnOrder,
         &[
             "onorder",
-            "ordered",
-            "openorders",
-            "openorder",
             "incoming",
             "intransit",
             "inbound",
-            "onpo",
-            "openpo",
             "onpurchaseorder",
-            "purchaseorders",
-            "openpurchaseorders",
         ],
     ),
     (Field::LeadTime, &["leadtime", "lt", "supplierleadtime"]),
@@ -191,6 +190,15 @@ pub const COLUMNS: [(Field, &[&str]); 11] = [
 /// line's worth of notes); our choice.
 const TITLE_LINES: usize = 5;
 
+/// Units that hold several of the item: a count of them is no count of units.
+const PACKAGES: [&str; 12] = [
+    "box", "boxes", "case", "cases", "pack", "packs", "bag", "bags", "bottle", "bottles", "pairs",
+    "pallets",
+];
+
+/// Units that are one of the item, said only.
+const ONE_UNIT: [&str; 7] = ["pc", "pcs", "pce", "unit", "units", "ea", "each"];
+
 /// Words before or after a quantity column's name that say only that it counts units.
 const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
 
@@ -227,6 +235,14 @@ impl Field {
         matches!(self, Field::LeadTime | Field::LeadTimeSd | Field::Review)
     }
 
+    /// Whether the column is an order rule (order quantity, multiple, minimum).
+    fn counts_order_rules(self) -> bool {
+        matches!(
+            self,
+            Field::OrderQuantity | Field::OrderMultiple | Field::MinimumOrder
+        )
+    }
+
     /// Whether the column counts units of the item.
     fn counts_units(self) -> bool {
         matches!(
@@ -240,12 +256,13 @@ impl Field {
     }
 }
 
-/// A header cell without case, spaces, hyphens, underscores, dots, brackets, slashes, colons,
-/// number signs or percent signs.
+/// A header cell without case, spaces, hyphens, underscores, dots, brackets, slashes or
+/// colons. Number and percent signs stay: "Stock #" is an identifier and "Stock %" a share,
+/// neither a count on hand.
 fn normalise(header: &str) -> String {
     header
         .chars()
-        .filter(|c| !c.is_whitespace() && !"-_.()[]/:#%".contains(*c))
+        .filter(|c| !c.is_whitespace() && !"-_.()[]/:".contains(*c))
         .flat_map(char::to_lowercase)
         .collect()
 }
@@ -261,6 +278,14 @@ fn field_named(key: &str) -> Option<Field> {
 fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     let key = normalise(header);
     if let Some(f) = field_named(&key) {
+        return Some((f, None));
+    }
+    // "Service %", "Fill rate (%)": a target may say it is a percent.
+    if let Some(f) = key
+        .strip_suffix('%')
+        .and_then(field_named)
+        .filter(|f| matches!(f, Field::Service | Field::FillRate))
+    {
         return Some((f, None));
     }
     for (at, _) in key.char_indices().skip(1) {
@@ -304,6 +329,8 @@ struct Notes {
     /// Units removed from quantity cells, and how many cells had one.
     units: Vec<String>,
     unit_cells: usize,
+    /// Lead-time spreads above their lead time: "5 against 2 (row 3)".
+    spread_above: Vec<String>,
     /// Lead times or review periods written without a unit that come to a year or more:
     /// "\"21\" (row 2)".
     long: Vec<String>,
@@ -340,15 +367,28 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         .collect();
     // Title lines above the header ("Stock count, 30 June"): the header is the first of the
     // first few records with a column that names items.
+    // The header is the record, of the first few, with a column naming items and the most
+    // known columns: a line of groups above it ("Product,Warehouse,,Supplier") has fewer.
+    let known = |r: &super::text::Record| {
+        let fields: Vec<Field> = r
+            .cells
+            .iter()
+            .filter_map(|c| column_of(c))
+            .map(|(f, _)| f)
+            .collect();
+        if fields.contains(&Field::Item) {
+            fields.len()
+        } else {
+            0
+        }
+    };
     let titles = records
         .iter()
         .take(TITLE_LINES + 1)
-        .position(|r| {
-            r.cells
-                .iter()
-                .any(|c| matches!(column_of(c), Some((Field::Item, _))))
-        })
-        .unwrap_or(0);
+        .enumerate()
+        .max_by_key(|(i, r)| (known(r), std::cmp::Reverse(*i)))
+        .filter(|(_, r)| known(r) > 0)
+        .map_or(0, |(i, _)| i);
     if titles > 0 {
         let lines: Vec<String> = records[..titles]
             .iter()
@@ -377,40 +417,32 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
     let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> =
         header.cells.iter().map(|h| column_of(h)).collect();
-    let Some(item_column) = choose_item_column(
-        &mut columns,
-        &header.cells,
-        &rows,
-        &item_names,
-        &mut out.warnings,
-    ) else {
-        out.errors.push(RowError {
-            row: header.line,
-            column: String::new(),
-            text: header.cells.join(", "),
-            message: "the stock table needs a header with an \"item\" column (the names as in \
-                      the history) and columns such as \"on hand\" and \"on order\""
-                .into(),
-        });
-        return out;
-    };
+    let item_column =
+        match choose_item_column(&mut columns, &header, &rows, &item_names, &mut out.warnings) {
+            Ok(i) => i,
+            Err(e) => {
+                out.errors.push(e);
+                return out;
+            }
+        };
+    for (i, h) in header.cells.iter().enumerate() {
+        if let Some(message) = columns[i].is_none().then(|| unusable_time(h)).flatten() {
+            out.errors.push(RowError {
+                row: header.line,
+                column: h.clone(),
+                text: h.clone(),
+                message,
+            });
+        }
+    }
+    set_aside_second_spellings(&mut columns, &header, &mut out);
     let fields: Vec<Option<Field>> = columns.iter().map(|c| c.map(|(f, _)| f)).collect();
     for (i, h) in header.cells.iter().enumerate() {
-        let set_aside = matches!(column_of(h), Some((Field::Item, _)));
-        if fields[i].is_none() && !h.is_empty() && !set_aside {
+        let set_aside = column_of(h).is_some();
+        if fields[i].is_none() && !h.is_empty() && !set_aside && unusable_time(h).is_none() {
             out.warnings.push(format!(
                 "column \"{h}\" of the stock table is not one Morrowcast uses; it is left out"
             ));
-        }
-        if let Some(f) = fields[i] {
-            if f != Field::Item && fields[..i].contains(&Some(f)) {
-                out.errors.push(RowError {
-                    row: header.line,
-                    column: h.clone(),
-                    text: h.clone(),
-                    message: "this column is named twice in the header: keep one".into(),
-                });
-            }
         }
     }
     if !fields.contains(&Some(Field::OnHand)) {
@@ -551,6 +583,13 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             (None, Some(p)) => Target::fill_rate(p).ok(),
             (None, None) => None,
         };
+        if let (Some(sd), Some(lead)) = (row.lead_time_sd, row.lead_time) {
+            if sd > lead as f64 {
+                notes
+                    .spread_above
+                    .push(format!("{sd} against {lead} (row {})", r.line));
+            }
+        }
         if bad.is_empty() {
             read.push(ReadRow {
                 line: r.line,
@@ -569,48 +608,153 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     out
 }
 
+/// Where several columns give one field: the one under its own name ("On hand") is read and
+/// the others ("Stock", "In transit") are left out, said; two under the same kind of name
+/// are an error at the header ("on hand" twice).
+fn set_aside_second_spellings(
+    columns: &mut [Option<(Field, Option<TimeUnit>)>],
+    header: &super::text::Record,
+    out: &mut StockTable,
+) {
+    let own_name = |i: usize| {
+        let key = normalise(&header.cells[i]);
+        let key = QUANTITY_WORDS
+            .iter()
+            .find_map(|w| key.strip_prefix(w))
+            .unwrap_or(&key);
+        COLUMNS.iter().any(|(_, names)| key.starts_with(names[0]))
+    };
+    for (field, _) in COLUMNS.iter().filter(|(f, _)| *f != Field::Item) {
+        let at: Vec<usize> = (0..columns.len())
+            .filter(|&i| matches!(columns[i], Some((f, _)) if f == *field))
+            .collect();
+        if at.len() < 2 {
+            continue;
+        }
+        let own: Vec<usize> = at.iter().copied().filter(|&i| own_name(i)).collect();
+        match own.as_slice() {
+            [read] => {
+                for &i in at.iter().filter(|&&i| i != *read) {
+                    columns[i] = None;
+                    out.warnings.push(format!(
+                        "column \"{}\" of the stock table could give the same figure as \"{}\", \
+                         which is read; \"{}\" is left out (if its figures belong in \"{}\", \
+                         add them there)",
+                        header.cells[i], header.cells[*read], header.cells[i], header.cells[*read]
+                    ));
+                }
+            }
+            _ => {
+                for &i in &at[1..] {
+                    out.errors.push(RowError {
+                        row: header.line,
+                        column: header.cells[i].clone(),
+                        text: header.cells[i].clone(),
+                        message: format!(
+                            "this column gives the same figure as \"{}\": keep one",
+                            header.cells[at[0]]
+                        ),
+                    });
+                }
+            }
+        }
+    }
+}
+
+/// The message for a lead-time or review header in a unit of time that cannot be turned
+/// into the history's periods ("Lead time (business days)", "(hours)"): refused at the
+/// header, since leaving the column out would plan with the default lead time.
+fn unusable_time(header: &str) -> Option<String> {
+    let key = normalise(header);
+    let base = ["leadtimesd", "leadtime", "reviewperiod", "review"]
+        .into_iter()
+        .find(|b| key.starts_with(b))?;
+    let tail = &key[base.len()..];
+    let timeish = ["day", "hour", "week", "month", "year", "quarter"]
+        .iter()
+        .any(|w| tail.contains(w));
+    timeish.then(|| {
+        "a lead time or review in these units cannot be turned into the history's periods: \
+         write calendar days, weeks or months (\"Lead time (days)\"), or periods; for \
+         business days, the calendar days they span (10 business days are 14 days)"
+            .to_string()
+    })
+}
+
 /// The item column: the only one, or, where several headers could name items ("SKU" and
-/// "Description"), the one whose names match the most of the history's; the others are left
-/// out with a warning. `None` when no header names items.
+/// "Description"), the one whose names match the most of the history's, exact names before
+/// names matched without case or punctuation; the others are left out with a warning. An
+/// error at the header when no header names items, or when two match alike (which holds
+/// whose stock would be a guess).
 fn choose_item_column(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
-    header: &[String],
+    header: &super::text::Record,
     rows: &[super::text::Record],
     items: &[&str],
     warnings: &mut Vec<String>,
-) -> Option<usize> {
+) -> Result<usize, RowError> {
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
-    if candidates.len() <= 1 {
-        return candidates.first().copied();
-    }
-    let keys: HashSet<String> = items.iter().map(|n| name_key(n)).collect();
-    let matches = |i: usize| {
-        rows.iter()
-            .filter(|r| r.cells.get(i).is_some_and(|c| keys.contains(&name_key(c))))
-            .count()
+    let at_header = |message: String| RowError {
+        row: header.line,
+        column: String::new(),
+        text: header.cells.join(", "),
+        message,
     };
-    let scores: Vec<usize> = candidates.iter().map(|&i| matches(i)).collect();
-    let best = (0..candidates.len())
-        .rev()
-        .max_by_key(|&k| scores[k])
-        .map(|k| candidates[k])?;
+    match candidates.as_slice() {
+        [] => {
+            return Err(at_header(
+                "the stock table needs a header with an \"item\" column (the names as in the \
+                 history) and columns such as \"on hand\" and \"on order\""
+                    .into(),
+            ))
+        }
+        [one] => return Ok(*one),
+        _ => {}
+    }
+    let exact: HashSet<&str> = items.iter().copied().collect();
+    let keys: HashSet<String> = items.iter().map(|n| name_key(n)).collect();
+    let score = |i: usize| {
+        let cells = || rows.iter().filter_map(|r| r.cells.get(i));
+        (
+            cells().filter(|c| exact.contains(c.as_str())).count(),
+            cells().filter(|c| keys.contains(&name_key(c))).count(),
+        )
+    };
+    let scores: Vec<(usize, usize)> = candidates.iter().map(|&i| score(i)).collect();
+    let top = *scores.iter().max().expect("two candidates or more");
+    let best: Vec<usize> = (0..candidates.len())
+        .filter(|&k| scores[k] == top)
+        .map(|k| candidates[k])
+        .collect();
+    if best.len() > 1 && top != (0, 0) {
+        let names: Vec<String> = best
+            .iter()
+            .map(|&i| format!("\"{}\"", header.cells[i]))
+            .collect();
+        return Err(at_header(format!(
+            "{} could each name the items, and their names match the history's as often: keep \
+             the one that names them as the history does",
+            names.join(" and ")
+        )));
+    }
+    let best = best[0];
     for &i in candidates.iter().filter(|&&i| i != best) {
         columns[i] = None;
         warnings.push(format!(
             "column \"{}\" of the stock table could name the items too; they are read from \
              \"{}\", whose names match the history's ({} of {} rows against {}), and \"{}\" is \
              left out",
-            header[i],
-            header[best],
-            matches(best),
+            header.cells[i],
+            header.cells[best],
+            score(best).1,
             rows.len(),
-            matches(i),
-            header[i]
+            score(i).1,
+            header.cells[i]
         ));
     }
-    Some(best)
+    Ok(best)
 }
 
 /// One cell being read, with where it stands.
@@ -651,7 +795,9 @@ impl Reading {
             Some((number, unit)) if field.counts_periods() => (number, Some(unit)),
             _ => (at.text, at.header_unit),
         };
-        if (self.all_undecided || self.quantities_undecided && field.counts_units())
+        // A target is a fraction or a percent either way.
+        if (self.all_undecided && field.counts_periods()
+            || self.quantities_undecided && field.counts_units())
             && matches!(
                 evidence(text),
                 Evidence::AmbiguousDot | Evidence::AmbiguousComma
@@ -669,6 +815,26 @@ impl Reading {
         let mut number = parsed.value;
         match parsed.affix {
             None => {}
+            Some(a)
+                if field.counts_units()
+                    && is_unit(&a)
+                    && PACKAGES.contains(&a.to_lowercase().as_str()) =>
+            {
+                return Err(format!(
+                    "\"{a}\" holds more than one unit of the item: write the number of units \
+                     (10 cases of 12 are 120)"
+                ))
+            }
+            Some(a)
+                if field.counts_order_rules()
+                    && !ONE_UNIT.contains(&a.to_lowercase().as_str())
+                    && is_unit(&a) =>
+            {
+                return Err(format!(
+                    "an order rule in \"{a}\" may not count the units the history counts (a pack \
+                     of 40 L is one bag): write it in the history's units"
+                ))
+            }
             Some(a) if field.counts_units() && is_unit(&a) => {
                 notes.unit_cells += 1;
                 if !notes.units.contains(&a) {
@@ -839,6 +1005,29 @@ impl Notes {
                 },
             ));
         }
+        if !self.spread_above.is_empty() {
+            out.push(format!(
+                "{} of the stock table {} above {} lead time, a spread few lead times have: {}; \
+                 if {} in days or weeks, name the unit (\"Lead time sd (days)\")",
+                count(self.spread_above.len(), "lead-time spread"),
+                if self.spread_above.len() == 1 {
+                    "is"
+                } else {
+                    "are"
+                },
+                if self.spread_above.len() == 1 {
+                    "its"
+                } else {
+                    "their"
+                },
+                listing(&self.spread_above),
+                if self.spread_above.len() == 1 {
+                    "it counts"
+                } else {
+                    "they count"
+                },
+            ));
+        }
         if !self.units.is_empty() {
             let forms: Vec<String> = self.units.iter().map(|a| format!("\"{a}\"")).collect();
             out.push(format!(
@@ -959,7 +1148,7 @@ mod tests {
     #[test]
     fn quantities_are_units_not_money_and_unclear_separators_are_refused() {
         let t = check(
-            "Item,Qty on hand,On order (units)\nA,12 cases,\"1,200\"\nB,3.5,0\n",
+            "Item,Qty on hand,On order (units)\nA,12 pcs,\"1,200\"\nB,3.5,0\n",
             &[
                 StockRow {
                     on_hand: Some(12.0),
@@ -974,11 +1163,33 @@ mod tests {
             ],
             &[],
         );
-        assert!(warns(&t, &["removed units from 1 cell", "\"cases\""]));
+        assert!(warns(&t, &["removed units from 1 cell", "\"pcs\""]));
+        // Money, packages, and an order rule in a unit the history may not count, refused.
         check(
-            "item,on hand,on order\nA,$40,0\nB,5,12 EUR\n",
+            "item,on hand,on order,order multiple\nA,$40,0,\nB,5,12 EUR,\nSeed packets,12 \
+             cases,,\nGift card,4,0,40 L\n",
             &[],
-            &[(2, "on hand", "$40"), (3, "on order", "12 EUR")],
+            &[
+                (2, "on hand", "$40"),
+                (3, "on order", "12 EUR"),
+                (4, "on hand", "12 cases"),
+                (5, "order multiple", "40 L"),
+            ],
+        );
+        // A leading 0 groups no thousands, and a target is read either way.
+        check(
+            "item,on hand\nA,\"0,500\"\n",
+            &[row_with_on_hand("A", 0.5)],
+            &[],
+        );
+        check(
+            "item,on hand,service\nA,4,0.975\n",
+            &[StockRow {
+                on_hand: Some(4.0),
+                target: Some(Target::CycleService(0.975)),
+                ..row("A")
+            }],
+            &[],
         );
         // No cell shows the decimal mark: "1.234" on hand is refused, not guessed.
         let t = check(
@@ -1008,6 +1219,78 @@ mod tests {
             ],
             &[],
         );
+    }
+
+    // Found by a second probe (2026-12-05) of the rules above: identifiers and shares taken
+    // for stock, a second spelling refusing a table that read before, items given to the
+    // wrong row's item, a group line taken for the header, a lead time in business days left
+    // out for the default.
+    #[test]
+    fn columns_that_only_look_like_stock_are_not_read_as_it() {
+        let t = check("Stock #,Item,Stock %,Qty\nA-1,A,40,7\n", &[row("A")], &[]);
+        assert!(warns(&t, &["\"Stock #\"", "left out"]));
+        assert!(warns(&t, &["\"Stock %\"", "left out"]));
+        let t = check(
+            "Item,Stock,On hand,In transit,On order\nA,low,4,2,3\n",
+            &[StockRow {
+                on_hand: Some(4.0),
+                on_order: Some(3.0),
+                ..row("A")
+            }],
+            &[],
+        );
+        assert!(warns(&t, &["\"Stock\"", "\"On hand\", which is read"]));
+        assert!(warns(
+            &t,
+            &["\"In transit\"", "\"On order\", which is read"]
+        ));
+        // The same name twice: an error at the header (the table is not used while it has one).
+        check(
+            "item,on hand,On Hand\nA,4,5\n",
+            &[row_with_on_hand("A", 5.0)],
+            &[(1, "On Hand", "On Hand")],
+        );
+        // Two item columns matching alike: refused, not the leftmost taken.
+        check(
+            "Description,Item,on hand\nA,B,4\n",
+            &[],
+            &[(1, "", "Description, Item, on hand")],
+        );
+        // An exact name counts before one matched without case.
+        let t = check(
+            "Code,SKU,on hand\na,A,4\nb,B,5\n",
+            &[row_with_on_hand("A", 4.0), row_with_on_hand("B", 5.0)],
+            &[],
+        );
+        assert!(warns(&t, &["read from \"SKU\""]));
+        // Lead times in units that cannot be counted in periods: refused at the header.
+        check(
+            "item,Lead time (business days)\nA,10\n",
+            &[row("A")],
+            &[(1, "Lead time (business days)", "Lead time (business days)")],
+        );
+        let t = check(
+            "item,Lead time (calendar days),lead time sd\nA,60,5\n",
+            &[StockRow {
+                lead_time: Some(2),
+                lead_time_sd: Some(5.0),
+                ..row("A")
+            }],
+            &[],
+        );
+        assert!(warns(&t, &["spread", "5 against 2 (row 2)"]));
+        // A line of groups above the header.
+        let t = check(
+            "Product,Warehouse,,Supplier\nItem,On hand,On order,Lead time\nA,4,0,2\n",
+            &[StockRow {
+                on_hand: Some(4.0),
+                on_order: Some(0.0),
+                lead_time: Some(2),
+                ..row("A")
+            }],
+            &[],
+        );
+        assert!(warns(&t, &["1 line above", "(row 1)"]));
     }
 
     fn row_with_on_hand(item: &str, on_hand: f64) -> StockRow {
