@@ -951,13 +951,20 @@ fn items_numbered_in_the_header_are_read_by_their_codes() {
             ..Expect::default()
         },
     );
-    // Every code a year: not taken for codes.
-    check(
+    // Every code a year: not taken for codes; the error says the row looks like the header.
+    let report = check(
         "month,2023,2024\n2024-01,12,5\n2024-02,14,6\n",
         Expect {
             errors: vec![(1, "column 1", "month")],
             ..Expect::default()
         },
+    );
+    assert!(
+        report.errors[0]
+            .message
+            .contains("this row looks like the header"),
+        "{}",
+        report.errors[0].message
     );
     // Calendar numbers across are no codes (a review found a grid of days read as 31 items):
     // a run 1, 2, 3, ..., a year and month, and a single code stay refused at the first cell.

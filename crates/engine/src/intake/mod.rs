@@ -322,6 +322,7 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     report.warnings.extend(decoded.assumed.clone());
     report.errors.extend(decode::all_errors(&decoded));
     report.errors.sort_by_key(|e| e.row);
+    header_read_as_data(&mut report);
     report
 }
 
@@ -339,7 +340,29 @@ pub fn read(text: &str) -> IntakeReport {
     let mut report = read_text(text);
     report.errors.extend(decode::replacement_marks(text));
     report.errors.sort_by_key(|e| e.row);
+    header_read_as_data(&mut report);
     report
+}
+
+/// Without a header, a first row refused at a cell that only names a period ("month") is
+/// most likely the header itself, its other cells numbers or dates ("month,00123,1.50,2024"):
+/// its error says so and what to write.
+fn header_read_as_data(report: &mut IntakeReport) {
+    if report.has_header {
+        return;
+    }
+    let Some(first) = report.errors.first().map(|e| e.row) else {
+        return;
+    };
+    for e in report.errors.iter_mut().filter(|e| e.row == first) {
+        if table::header_is_only(&e.text, &table::PERIOD_WORDS) {
+            e.message.push_str(
+                "; this row looks like the header, read as data because its other cells read \
+                 as numbers or dates: give the items names with a word in them (\"Item \
+                 2024\")",
+            );
+        }
+    }
 }
 
 /// Whether an item whose last figure is at `last` ends before the file's last period `end`:
