@@ -136,6 +136,7 @@ mod period;
 mod period_units;
 mod regroup;
 mod shapes;
+mod stock_columns;
 mod stock_names;
 mod stock_table;
 mod table;

@@ -1,0 +1,385 @@
+//! The stock table's header: which column gives which figure. Headers are compared
+//! without case, spaces or punctuation (but for `#` and `%`), may name a unit of time
+//! ("Lead time (days)") or of count ("Qty on hand"); of two columns giving one figure the one
+//! under its own name is read; the item column is the one whose names match the history's.
+//!
+//! Kept apart from: reading the cells under the header (`stock_table`) and matching the
+//! rows to the history's items (`stock_names`, whose name key the item column's choice
+//! uses).
+
+use std::collections::HashSet;
+
+use super::period_units::TimeUnit;
+use super::stock_names::name_key;
+use super::stock_table::StockTable;
+use super::text::Record;
+use super::RowError;
+
+/// The known columns: (field, header spellings after [`normalise`]). A period column's header
+/// may end in a unit of time ("Lead time (days)", "lead time in weeks"), a quantity column's
+/// in a word for units ("On hand qty", "On order (units)").
+pub(crate) const COLUMNS: [(Field, &[&str]); 11] = [
+    (
+        Field::Item,
+        &[
+            "item",
+            "items",
+            "name",
+            "product",
+            "itemname",
+            "productname",
+            "sku",
+            "code",
+            "itemcode",
+            "productcode",
+            "itemno",
+            "itemnumber",
+            "article",
+            "description",
+        ],
+    ),
+    (
+        Field::OnHand,
+        &[
+            "onhand",
+            "stockonhand",
+            "soh",
+            "instock",
+            "stock",
+            "inventory",
+            "currentstock",
+            "stocklevel",
+        ],
+    ),
+    (
+        Field::OnOrder,
+        &[
+            "onorder",
+            "incoming",
+            "intransit",
+            "inbound",
+            "onpurchaseorder",
+        ],
+    ),
+    (Field::LeadTime, &["leadtime", "lt", "supplierleadtime"]),
+    (
+        Field::LeadTimeSd,
+        &[
+            "leadtimesd",
+            "leadtimestdev",
+            "leadtimestddev",
+            "leadtimestandarddeviation",
+            "leadtimespread",
+            "ltsd",
+        ],
+    ),
+    (
+        Field::Review,
+        &["review", "reviewperiod", "reviewinterval", "reviewcycle"],
+    ),
+    (
+        Field::Service,
+        &[
+            "service",
+            "servicelevel",
+            "cycleservicelevel",
+            "csl",
+            "servicetarget",
+            "serviceleveltarget",
+        ],
+    ),
+    (Field::FillRate, &["fillrate", "fillratetarget"]),
+    (
+        Field::OrderQuantity,
+        &[
+            "orderquantity",
+            "orderqty",
+            "reorderquantity",
+            "reorderqty",
+            "lotsize",
+        ],
+    ),
+    (
+        Field::OrderMultiple,
+        &[
+            "ordermultiple",
+            "packsize",
+            "casesize",
+            "casepack",
+            "multiple",
+            "orderincrement",
+        ],
+    ),
+    (
+        Field::MinimumOrder,
+        &["minimumorder", "minorder", "moq", "minimumorderquantity"],
+    ),
+];
+
+/// Words before or after a quantity column's name that say only that it counts units.
+pub(crate) const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
+
+/// A column's meaning.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum Field {
+    /// The item's name.
+    Item,
+    /// On hand.
+    OnHand,
+    /// On order.
+    OnOrder,
+    /// Lead time.
+    LeadTime,
+    /// Its standard deviation.
+    LeadTimeSd,
+    /// Review period.
+    Review,
+    /// Cycle service level.
+    Service,
+    /// Fill rate.
+    FillRate,
+    /// Order quantity.
+    OrderQuantity,
+    /// Order multiple.
+    OrderMultiple,
+    /// Minimum order.
+    MinimumOrder,
+}
+
+impl Field {
+    /// Whether the column counts periods (and may be written in days, weeks, ...).
+    pub(crate) fn counts_periods(self) -> bool {
+        matches!(self, Field::LeadTime | Field::LeadTimeSd | Field::Review)
+    }
+
+    /// Whether the column is an order rule (order quantity, multiple, minimum).
+    pub(crate) fn counts_order_rules(self) -> bool {
+        matches!(
+            self,
+            Field::OrderQuantity | Field::OrderMultiple | Field::MinimumOrder
+        )
+    }
+
+    /// Whether the column counts units of the item.
+    pub(crate) fn counts_units(self) -> bool {
+        matches!(
+            self,
+            Field::OnHand
+                | Field::OnOrder
+                | Field::OrderQuantity
+                | Field::OrderMultiple
+                | Field::MinimumOrder
+        )
+    }
+}
+
+/// A header cell without case, spaces, hyphens, underscores, dots, brackets, slashes or
+/// colons. Number and percent signs stay: "Stock #" is an identifier and "Stock %" a share,
+/// neither a count on hand.
+fn normalise(header: &str) -> String {
+    header
+        .chars()
+        .filter(|c| !c.is_whitespace() && !"-_.()[]/:".contains(*c))
+        .flat_map(char::to_lowercase)
+        .collect()
+}
+
+fn field_named(key: &str) -> Option<Field> {
+    COLUMNS
+        .iter()
+        .find(|(_, names)| names.contains(&key))
+        .map(|(f, _)| *f)
+}
+
+/// A column: its field, and the unit of time its header names, if any.
+pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
+    let key = normalise(header);
+    if let Some(f) = field_named(&key) {
+        return Some((f, None));
+    }
+    // "Service %", "Fill rate (%)": a target may say it is a percent.
+    if let Some(f) = key
+        .strip_suffix('%')
+        .and_then(field_named)
+        .filter(|f| matches!(f, Field::Service | Field::FillRate))
+    {
+        return Some((f, None));
+    }
+    for (at, _) in key.char_indices().skip(1) {
+        let (base, tail) = key.split_at(at);
+        let Some(field) = field_named(base) else {
+            continue;
+        };
+        let tail = tail
+            .strip_prefix("in")
+            .filter(|t| !t.is_empty())
+            .unwrap_or(tail);
+        if field.counts_periods() {
+            if matches!(tail, "period" | "periods") {
+                return Some((field, None));
+            }
+            if let Some(unit) = TimeUnit::from_word(tail) {
+                return Some((field, Some(unit)));
+            }
+        }
+        if field.counts_units() && QUANTITY_WORDS.contains(&tail) {
+            return Some((field, None));
+        }
+    }
+    // "Qty on hand", "Quantity on order".
+    QUANTITY_WORDS
+        .iter()
+        .find_map(|w| key.strip_prefix(w))
+        .and_then(field_named)
+        .filter(|f| f.counts_units())
+        .map(|f| (f, None))
+}
+
+/// Where several columns give one field: the one under its own name ("On hand") is read and
+/// the others ("Stock", "In transit") are left out, said; two under the same kind of name
+/// are an error at the header ("on hand" twice).
+pub(crate) fn set_aside_second_spellings(
+    columns: &mut [Option<(Field, Option<TimeUnit>)>],
+    header: &Record,
+    out: &mut StockTable,
+) {
+    let own_name = |i: usize| {
+        let key = normalise(&header.cells[i]);
+        let key = QUANTITY_WORDS
+            .iter()
+            .find_map(|w| key.strip_prefix(w))
+            .unwrap_or(&key);
+        COLUMNS.iter().any(|(_, names)| key.starts_with(names[0]))
+    };
+    for (field, _) in COLUMNS.iter().filter(|(f, _)| *f != Field::Item) {
+        let at: Vec<usize> = (0..columns.len())
+            .filter(|&i| matches!(columns[i], Some((f, _)) if f == *field))
+            .collect();
+        if at.len() < 2 {
+            continue;
+        }
+        let own: Vec<usize> = at.iter().copied().filter(|&i| own_name(i)).collect();
+        match own.as_slice() {
+            [read] => {
+                for &i in at.iter().filter(|&&i| i != *read) {
+                    columns[i] = None;
+                    out.warnings.push(format!(
+                        "column \"{}\" of the stock table could give the same figure as \"{}\", \
+                         which is read; \"{}\" is left out (if its figures belong in \"{}\", \
+                         add them there)",
+                        header.cells[i], header.cells[*read], header.cells[i], header.cells[*read]
+                    ));
+                }
+            }
+            _ => {
+                for &i in &at[1..] {
+                    out.errors.push(RowError {
+                        row: header.line,
+                        column: header.cells[i].clone(),
+                        text: header.cells[i].clone(),
+                        message: format!(
+                            "this column gives the same figure as \"{}\": keep one",
+                            header.cells[at[0]]
+                        ),
+                    });
+                }
+            }
+        }
+    }
+}
+
+/// The message for a lead-time or review header in a unit of time that cannot be turned
+/// into the history's periods ("Lead time (business days)", "(hours)"): refused at the
+/// header, since leaving the column out would plan with the default lead time.
+pub(crate) fn unusable_time(header: &str) -> Option<String> {
+    let key = normalise(header);
+    let base = ["leadtimesd", "leadtime", "reviewperiod", "review"]
+        .into_iter()
+        .find(|b| key.starts_with(b))?;
+    let tail = &key[base.len()..];
+    let timeish = ["day", "hour", "week", "month", "year", "quarter"]
+        .iter()
+        .any(|w| tail.contains(w));
+    timeish.then(|| {
+        "a lead time or review in these units cannot be turned into the history's periods: \
+         write calendar days, weeks or months (\"Lead time (days)\"), or periods; for \
+         business days, the calendar days they span (10 business days are 14 days)"
+            .to_string()
+    })
+}
+
+/// The item column: the only one, or, where several headers could name items ("SKU" and
+/// "Description"), the one whose names match the most of the history's, exact names before
+/// names matched without case or punctuation; the others are left out with a warning. An
+/// error at the header when no header names items, or when two match alike (which holds
+/// whose stock would be a guess).
+pub(crate) fn choose_item_column(
+    columns: &mut [Option<(Field, Option<TimeUnit>)>],
+    header: &Record,
+    rows: &[Record],
+    items: &[&str],
+    warnings: &mut Vec<String>,
+) -> Result<usize, RowError> {
+    let candidates: Vec<usize> = (0..columns.len())
+        .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
+        .collect();
+    let at_header = |message: String| RowError {
+        row: header.line,
+        column: String::new(),
+        text: header.cells.join(", "),
+        message,
+    };
+    match candidates.as_slice() {
+        [] => {
+            return Err(at_header(
+                "the stock table needs a header with an \"item\" column (the names as in the \
+                 history) and columns such as \"on hand\" and \"on order\""
+                    .into(),
+            ))
+        }
+        [one] => return Ok(*one),
+        _ => {}
+    }
+    let exact: HashSet<&str> = items.iter().copied().collect();
+    let keys: HashSet<String> = items.iter().map(|n| name_key(n)).collect();
+    let score = |i: usize| {
+        let cells = || rows.iter().filter_map(|r| r.cells.get(i));
+        (
+            cells().filter(|c| exact.contains(c.as_str())).count(),
+            cells().filter(|c| keys.contains(&name_key(c))).count(),
+        )
+    };
+    let scores: Vec<(usize, usize)> = candidates.iter().map(|&i| score(i)).collect();
+    let top = *scores.iter().max().expect("two candidates or more");
+    let best: Vec<usize> = (0..candidates.len())
+        .filter(|&k| scores[k] == top)
+        .map(|k| candidates[k])
+        .collect();
+    if best.len() > 1 && top != (0, 0) {
+        let names: Vec<String> = best
+            .iter()
+            .map(|&i| format!("\"{}\"", header.cells[i]))
+            .collect();
+        return Err(at_header(format!(
+            "{} could each name the items, and their names match the history's as often: keep \
+             the one that names them as the history does",
+            names.join(" and ")
+        )));
+    }
+    let best = best[0];
+    for &i in candidates.iter().filter(|&&i| i != best) {
+        columns[i] = None;
+        warnings.push(format!(
+            "column \"{}\" of the stock table could name the items too; they are read from \
+             \"{}\", whose names match the history's ({} of {} rows against {}), and \"{}\" is \
+             left out",
+            header.cells[i],
+            header.cells[best],
+            score(best).1,
+            rows.len(),
+            score(i).1,
+            header.cells[i]
+        ));
+    }
+    Ok(best)
+}
