@@ -18,7 +18,7 @@ use super::RowError;
 /// The known columns: (field, header spellings after [`normalise`]). A period column's header
 /// may end in a unit of time ("Lead time (days)", "lead time in weeks"), a quantity column's
 /// in a word for units ("On hand qty", "On order (units)").
-pub(crate) const COLUMNS: [(Field, &[&str]); 11] = [
+const COLUMNS: [(Field, &[&str]); 11] = [
     (
         Field::Item,
         &[
@@ -117,7 +117,7 @@ pub(crate) const COLUMNS: [(Field, &[&str]); 11] = [
 ];
 
 /// Words before or after a quantity column's name that say only that it counts units.
-pub(crate) const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
+const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
 
 /// A column's meaning.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

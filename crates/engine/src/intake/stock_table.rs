@@ -3,9 +3,11 @@
 //! rules). Read with the history's care: the same decoding, delimiter, quotes and decimal-mark
 //! rules, and every rejected cell an error with its row, column and text.
 //!
-//! Kept apart from: the history table's reading (the rest of intake; this table has a fixed
-//! set of columns named in a header, so none of the history's layout guessing applies) and the
-//! Stock plan's arithmetic (crate::stock applies a row).
+//! Kept apart from: the history table's reading (the rest of intake; this table has known
+//! columns named in a header, so none of the history's layout guessing applies; it is read
+//! against the history's period and item names, never changing them), which column gives
+//! which figure (`stock_columns`), matching names (`stock_names`), units of time
+//! (`period_units`), and the Stock plan's arithmetic (crate::stock applies a row).
 //!
 //! Rules (our choices): the header is the line, of the first six, naming items with the most
 //! known columns (title and group lines above it left out, said); a column is known by its
