@@ -117,7 +117,9 @@ const COLUMNS: [(Field, &[&str]); 11] = [
 ];
 
 /// Words before or after a quantity column's name that say only that it counts units.
-const QUANTITY_WORDS: [&str; 6] = ["quantity", "qty", "units", "unit", "pcs", "count"];
+const QUANTITY_WORDS: [&str; 8] = [
+    "quantity", "qty", "units", "unit", "pcs", "count", "ea", "each",
+];
 
 /// A column's meaning.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -194,7 +196,18 @@ fn field_named(key: &str) -> Option<Field> {
 /// A column: its field, and the unit of time its header names, if any.
 pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     let key = normalise(header);
-    if let Some(f) = field_named(&key) {
+    column_of_key(&key).or_else(|| {
+        // "Qty on hand", "Quantity on order (units)".
+        QUANTITY_WORDS
+            .iter()
+            .find_map(|w| key.strip_prefix(w))
+            .and_then(column_of_key)
+            .filter(|(f, _)| f.counts_units())
+    })
+}
+
+fn column_of_key(key: &str) -> Option<(Field, Option<TimeUnit>)> {
+    if let Some(f) = field_named(key) {
         return Some((f, None));
     }
     // "Service %", "Fill rate (%)": a target may say it is a percent.
@@ -226,13 +239,7 @@ pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
             return Some((field, None));
         }
     }
-    // "Qty on hand", "Quantity on order".
-    QUANTITY_WORDS
-        .iter()
-        .find_map(|w| key.strip_prefix(w))
-        .and_then(field_named)
-        .filter(|f| f.counts_units())
-        .map(|f| (f, None))
+    None
 }
 
 /// Where several columns give one field: the one under its own name ("On hand") is read and
@@ -296,8 +303,10 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
     let base = ["leadtimesd", "leadtime", "reviewperiod", "review"]
         .into_iter()
         .find(|b| key.starts_with(b))?;
+    // Only units no count of periods holds: a "Lead time (days) max" beside its minimum is
+    // left out as any other column is.
     let tail = &key[base.len()..];
-    let timeish = ["day", "hour", "week", "month", "year", "quarter"]
+    let timeish = ["business", "working", "workday", "hour", "hr"]
         .iter()
         .any(|w| tail.contains(w));
     timeish.then(|| {

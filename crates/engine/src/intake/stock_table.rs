@@ -899,6 +899,28 @@ mod tests {
             &[],
         );
         assert!(warns(&t, &["read from \"SKU\""]));
+        // Other systems' spellings with words for units of one.
+        check(
+            "item,Qty on hand (pcs),Qty on order (units)\nA,4,2\n",
+            &[StockRow {
+                on_hand: Some(4.0),
+                on_order: Some(2.0),
+                ..row("A")
+            }],
+            &[],
+        );
+        check(
+            "item,On hand (ea)\nA,4\n",
+            &[row_with_on_hand("A", 4.0)],
+            &[],
+        );
+        // A lead time's minimum and maximum in days are left out, not refused.
+        let t = check(
+            "item,Lead time (days) min,Lead time (days) max\nA,4,9\n",
+            &[row("A")],
+            &[],
+        );
+        assert!(warns(&t, &["\"Lead time (days) max\"", "left out"]));
         // Lead times in units that cannot be counted in periods: refused at the header.
         check(
             "item,Lead time (business days)\nA,10\n",
