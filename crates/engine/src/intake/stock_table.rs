@@ -116,6 +116,8 @@ struct Notes {
     unit_cells: usize,
     /// Lead-time spreads above their lead time: "5 against 2 (row 3)".
     spread_above: Vec<String>,
+    /// Rows with on hand and an empty on-order cell: "\"A\" (row 2)".
+    no_on_order: Vec<String>,
     /// Lead times or review periods written without a unit that come to a year or more:
     /// "\"21\" (row 2)".
     long: Vec<String>,
@@ -368,6 +370,12 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             (None, Some(p)) => Target::fill_rate(p).ok(),
             (None, None) => None,
         };
+        if row.on_hand.is_some() && row.on_order.is_none() && fields.contains(&Some(Field::OnOrder))
+        {
+            notes
+                .no_on_order
+                .push(format!("\"{}\" (row {})", row.item, r.line));
+        }
         if let (Some(sd), Some(lead)) = (row.lead_time_sd, row.lead_time) {
             if sd > lead as f64 {
                 notes
@@ -639,6 +647,18 @@ impl Notes {
                 } else {
                     "they count"
                 },
+            ));
+        }
+        if !self.no_on_order.is_empty() {
+            out.push(format!(
+                "{} of the stock table {} on hand but no on order, taken as 0: {}",
+                count(self.no_on_order.len(), "row"),
+                if self.no_on_order.len() == 1 {
+                    "gives"
+                } else {
+                    "give"
+                },
+                listing(&self.no_on_order)
             ));
         }
         if !self.spread_above.is_empty() {
@@ -975,6 +995,22 @@ mod tests {
         assert!(warns(&t, &["\"reorder point\"", "left out"]));
         let t = check("item,on hand\nA,4\n", &[row_with_on_hand("A", 4.0)], &[]);
         assert!(warns(&t, &["no on-order column", "taken as 0"]));
+        let t = check(
+            "item,on hand,on order\nA,4,n/a\nB,5,1\n",
+            &[
+                row_with_on_hand("A", 4.0),
+                StockRow {
+                    on_hand: Some(5.0),
+                    on_order: Some(1.0),
+                    ..row("B")
+                },
+            ],
+            &[],
+        );
+        assert!(warns(
+            &t,
+            &["1 row of the stock table gives on hand but no on order, taken as 0: \"A\" (row 2)"]
+        ));
         // Spellings of other systems.
         let t = check(
             "Item code,Item name,Qty on hand,Qty on order,Reorder qty,MOQ,Pack size\n\
