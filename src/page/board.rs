@@ -414,7 +414,7 @@ pub fn how_many(n: usize, (one, many): (&str, &str)) -> String {
 
 /// `n` periods in the file's own words ("1 month", "3 days").
 fn count(l: &LookBack, n: usize) -> String {
-    how_many(n, l.made_after.frequency().period_words())
+    l.made_after.frequency().periods(n)
 }
 
 /// The Look-back column's cell: what sold against the forecast and band of then, and whether

@@ -8,7 +8,6 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
-use morrowcast_engine::calendar::Frequency;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
@@ -21,11 +20,6 @@ use super::export::file_name;
 use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow, BoardStock};
-
-/// `n` of the item's periods in words ("2 months").
-fn periods(n: usize, frequency: Frequency) -> String {
-    how_many(n, frequency.period_words())
-}
 
 fn percent(v: f64) -> String {
     format!("{:.1}%", v * 100.0)
@@ -80,7 +74,7 @@ fn stock_cell(s: &BoardStock, key: SortKey) -> String {
             "{} ± {} in {}",
             units(s.demand_over_protection),
             units(s.sd_over_protection),
-            periods(s.protection_periods, s.frequency)
+            s.frequency.periods(s.protection_periods)
         ),
         SortKey::SafetyStock => units(s.safety_stock),
         SortKey::Level => format!(
@@ -110,9 +104,9 @@ fn stock_figures(f: &BoardStock) -> impl IntoView {
     };
     view! {
         <dl class="figures" id="item-stock-figures">
-            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {}, lead time {}", periods(f.review_period.unwrap_or(0), f.frequency), periods(f.lead_time, f.frequency)) } else { format!("continuous review, lead time {}", periods(f.lead_time, f.frequency)) }}</dd>
+            <dt>"Policy"</dt><dd>{if f.periodic { format!("review every {}, lead time {}", f.frequency.periods(f.review_period.unwrap_or(0)), f.frequency.periods(f.lead_time)) } else { format!("continuous review, lead time {}", f.frequency.periods(f.lead_time)) }}</dd>
             <dt>"Target"</dt><dd>{target}</dd>
-            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), periods(f.protection_periods, f.frequency), units(f.sd_over_protection), f.distribution)}</dd>
+            <dt>"Demand over protection"</dt><dd>{format!("{} in {} (spread {}, {} model)", units(f.demand_over_protection), f.frequency.periods(f.protection_periods), units(f.sd_over_protection), f.distribution)}</dd>
             <dt>"Safety stock"</dt><dd>{units(f.safety_stock)}</dd>
             <dt>{level}</dt><dd>{units(f.level_units)}</dd>
             <dt>"On hand, on order"</dt><dd>{match (f.on_hand, f.on_order) { (Some(h), Some(o)) => format!("{}, {}", units(h), units(o)), _ => "not given".into() }}</dd>

@@ -137,9 +137,7 @@ pub fn Headline() -> impl IntoView {
                 Some(Err(e)) => view! { <p class="lead problem" role="alert">{format!("This item cannot be forecast yet: {e}.")}</p> }.into_any(),
                 Some(Ok(plan)) => {
                     let method = state.shown.with(|s| s.as_ref().map(|s| s.plan.chosen.label()).unwrap_or_default());
-                    let (one, many) = plan.frequency().period_words();
-                    let h = plan.forecast.len();
-                    let h = format!("{h} {}", if h == 1 { one } else { many });
+                    let h = plan.frequency().periods(plan.forecast.len());
                     view! {
                         <h2 class="item-name" id="item-name">{plan.name.clone()}</h2>
                         <p class="lead">{format!("Forecast for the next {h} by {method}, with a {}% band.", plan.level.percent())}</p>

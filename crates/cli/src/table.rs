@@ -206,7 +206,7 @@ pub fn stock_header(
         None => "continuous review (reorder point)".to_string(),
         Some(r) => format!(
             "periodic review every {} (order-up-to level)",
-            periods(r, frequency)
+            frequency.periods(r)
         ),
     };
     let target = match settings.target() {
@@ -217,7 +217,7 @@ pub fn stock_header(
     let _ = writeln!(
         s,
         "Stock plan: {policy}; lead time {}{}; target {target}.",
-        periods(settings.lead_time(), frequency),
+        frequency.periods(settings.lead_time()),
         if settings.lead_time_sd() > 0.0 {
             format!(" (standard deviation {})", settings.lead_time_sd())
         } else {
@@ -235,12 +235,6 @@ pub fn stock_header(
         }
     );
     s
-}
-
-/// "1 month", "3 weeks": a count of the history's periods in words.
-fn periods(n: usize, frequency: Frequency) -> String {
-    let (one, many) = frequency.period_words();
-    format!("{n} {}", if n == 1 { one } else { many })
 }
 
 /// A rejected stock table: every error with its row, column and text.
@@ -280,7 +274,7 @@ pub fn stock(p: &ItemPlan, st: &stock::StockPlan, alerts: &[Alert]) -> String {
     let _ = writeln!(
         s,
         "demand over {}{}: {:.1} (spread {:.1}, {} model, from {} rolling origins)",
-        periods(st.protection_periods, frequency),
+        frequency.periods(st.protection_periods),
         match st.settings.review_period() {
             Some(r) => format!(" (lead time {} and review {r})", st.settings.lead_time()),
             None => format!(" (lead time {})", st.settings.lead_time()),

@@ -64,6 +64,12 @@ impl Frequency {
             Frequency::Undated => ("period", "periods"),
         }
     }
+
+    /// `n` periods in words: "1 month", "3 weeks".
+    pub fn periods(self, n: usize) -> String {
+        let (one, many) = self.period_words();
+        format!("{n} {}", if n == 1 { one } else { many })
+    }
 }
 
 impl fmt::Display for Frequency {

@@ -539,9 +539,23 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
                 .collect();
         }
     }
-    if let (Layout::Long, Some(col), Some((p, _))) = (plan.layout, column.as_ref(), plan.period) {
-        // Every item's rows every few periods (every other week): no period holds them, and
-        // read as weeks every other one would be closed.
+    // Every item's rows every few periods (every other week): no period holds them, and read
+    // as weeks every other one would be closed. Only at the cadences of such exports (every
+    // other or every fourth week, every other month): a slow seller's sales a whole number of
+    // days apart are its own, not a period. Quarters or years written as their first or last
+    // month come three or twelve months apart. And only for several items: one item's sales
+    // every other month are its own. (Daily files, the largest, skip the sort.)
+    let cadence = match b.out.frequency {
+        Some(Frequency::Weekly) => [2, 4].as_slice(),
+        Some(Frequency::Monthly) => [2, 3, 12].as_slice(),
+        _ => [].as_slice(),
+    };
+    if let (Layout::Long, Some(col), Some((p, _)), false) = (
+        plan.layout,
+        column.as_ref(),
+        plan.period,
+        cadence.is_empty(),
+    ) {
         let mut named: Vec<Entry<'_>> = kept
             .iter()
             .zip(&col.periods)
@@ -549,22 +563,16 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             .collect();
         named.sort_by_key(|e| (e.period, e.row.line));
         named.dedup_by_key(|e| e.period);
-        // Only at the cadences of such exports (every other or every fourth week, every other
-        // month): a slow seller's sales a whole number of days apart are its own, not a period.
-        // Quarters or years written as their first or last month come three or twelve months
-        // apart. And only for several items: one item's sales every other month are its own.
-        let cadence = match b.out.frequency {
-            Some(Frequency::Weekly) => [2, 4].as_slice(),
-            Some(Frequency::Monthly) => [2, 3, 12].as_slice(),
-            _ => [].as_slice(),
-        };
-        let items: HashSet<Option<String>> = kept
-            .iter()
-            .map(|row| long::item_key(row, &plan.item_columns))
-            .collect();
         let step = named.get(..2).map(|w| w[0].period.steps_to(w[1].period));
-        if items.len() >= 2
-            && step.is_some_and(|s| cadence.contains(&s))
+        let several_items = || {
+            kept.iter()
+                .map(|row| long::item_key(row, &plan.item_columns))
+                .collect::<HashSet<Option<String>>>()
+                .len()
+                >= 2
+        };
+        if step.is_some_and(|s| cadence.contains(&s))
+            && several_items()
             && b.every_few_periods(&named, p)
         {
             return b.finish();
@@ -717,6 +725,9 @@ impl<'a> Builder<'a> {
     /// made up. Named at the row beside the widest gap that stands apart (the first or last
     /// row when the gap cuts it off: a typed year), else the row after it.
     fn mostly_missing(&mut self, unique: &[Entry<'a>], missing: usize, column: usize) {
+        if self.every_few_periods(unique, column) {
+            return;
+        }
         let steps: Vec<i64> = unique
             .windows(2)
             .map(|w| w[0].period.steps_to(w[1].period))
@@ -739,9 +750,6 @@ impl<'a> Builder<'a> {
         let frequency = self.out.frequency.map_or("", |f| f.as_str());
         let row = unique[named].row;
         let cell = self.period_text(row);
-        if self.every_few_periods(unique, column) {
-            return;
-        }
         self.error(
             row.line,
             column,

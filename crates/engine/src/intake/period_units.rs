@@ -138,15 +138,9 @@ pub(crate) fn to_periods(
     };
     let (from, to) = (unit.length(), period.length());
     let exact = from.same_kind(to);
-    let ratio = if exact {
-        match (from, to) {
-            (Length::Days(a), Length::Days(b)) | (Length::Months(a), Length::Months(b)) => a / b,
-            _ => unreachable!("same kind"),
-        }
-    } else {
-        from.in_days() / to.in_days()
-    };
-    let periods = count * ratio;
+    // Within days and weeks, or within months, quarters and years, the mean month cancels
+    // exactly (30.4375 days is 487 / 16, so its small multiples are exact in binary).
+    let periods = count * (from.in_days() / to.in_days());
     if !whole {
         return Ok(Converted {
             periods,

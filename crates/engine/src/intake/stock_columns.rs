@@ -198,12 +198,15 @@ pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     let key = normalise(header);
     column_of_key(&key).or_else(|| {
         // "Qty on hand", "Quantity on order (units)".
-        QUANTITY_WORDS
-            .iter()
-            .find_map(|w| key.strip_prefix(w))
+        without_quantity_word(&key)
             .and_then(column_of_key)
             .filter(|(f, _)| f.counts_units())
     })
+}
+
+/// A header key without a word for counting before it ("qtyonhand" is "onhand").
+fn without_quantity_word(key: &str) -> Option<&str> {
+    QUANTITY_WORDS.iter().find_map(|w| key.strip_prefix(w))
 }
 
 fn column_of_key(key: &str) -> Option<(Field, Option<TimeUnit>)> {
@@ -252,10 +255,7 @@ pub(crate) fn set_aside_second_spellings(
 ) {
     let own_name = |i: usize| {
         let key = normalise(&header.cells[i]);
-        let key = QUANTITY_WORDS
-            .iter()
-            .find_map(|w| key.strip_prefix(w))
-            .unwrap_or(&key);
+        let key = without_quantity_word(&key).unwrap_or(&key);
         COLUMNS.iter().any(|(_, names)| key.starts_with(names[0]))
     };
     for (field, _) in COLUMNS.iter().filter(|(f, _)| *f != Field::Item) {
@@ -360,14 +360,13 @@ pub(crate) fn choose_item_column(
     };
     let scores: Vec<(usize, usize)> = candidates.iter().map(|&i| score(i)).collect();
     let top = *scores.iter().max().expect("two candidates or more");
-    let best: Vec<usize> = (0..candidates.len())
+    let tied: Vec<usize> = (0..candidates.len())
         .filter(|&k| scores[k] == top)
-        .map(|k| candidates[k])
         .collect();
-    if best.len() > 1 && top != (0, 0) {
-        let names: Vec<String> = best
+    if tied.len() > 1 && top != (0, 0) {
+        let names: Vec<String> = tied
             .iter()
-            .map(|&i| format!("\"{}\"", header.cells[i]))
+            .map(|&k| format!("\"{}\"", header.cells[candidates[k]]))
             .collect();
         return Err(at_header(format!(
             "{} could each name the items, and their names match the history's as often: keep \
@@ -375,20 +374,20 @@ pub(crate) fn choose_item_column(
             names.join(" and ")
         )));
     }
-    let best = best[0];
-    for &i in candidates.iter().filter(|&&i| i != best) {
+    let best = tied[0];
+    for (k, &i) in candidates.iter().enumerate().filter(|&(k, _)| k != best) {
         columns[i] = None;
         warnings.push(format!(
             "column \"{}\" of the stock table could name the items too; they are read from \
              \"{}\", whose names match the history's ({} of {} rows against {}), and \"{}\" is \
              left out",
             header.cells[i],
-            header.cells[best],
-            score(best).1,
+            header.cells[candidates[best]],
+            scores[best].1,
             rows.len(),
-            score(i).1,
+            scores[k].1,
             header.cells[i]
         ));
     }
-    Ok(best)
+    Ok(candidates[best])
 }

@@ -152,11 +152,9 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         .into_iter()
         .filter(|r| !r.is_blank())
         .collect();
-    // Title lines above the header ("Stock count, 30 June"): the header is the first of the
-    // first few records with a column that names items.
-    // The header is the record, of the first few, with a column naming items and the most
+    // Title lines above the header ("Stock count, 30 June"). The header is the record, of the first few, with a column naming items and the most
     // known columns: a line of groups above it ("Product,Warehouse,,Supplier") has fewer.
-    let known = |r: &super::text::Record| {
+    let known_columns = |r: &super::text::Record| {
         let fields: Vec<Field> = r
             .cells
             .iter()
@@ -172,9 +170,10 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let titles = records
         .iter()
         .take(TITLE_LINES + 1)
+        .map(known_columns)
         .enumerate()
-        .max_by_key(|(i, r)| (known(r), std::cmp::Reverse(*i)))
-        .filter(|(_, r)| known(r) > 0)
+        .max_by_key(|&(i, k)| (k, std::cmp::Reverse(i)))
+        .filter(|&(_, k)| k > 0)
         .map_or(0, |(i, _)| i);
     if titles > 0 {
         let lines: Vec<String> = records[..titles]
@@ -204,6 +203,9 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
     let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> =
         header.cells.iter().map(|h| column_of(h)).collect();
+    // Known headers, before the item column's choice and the second spellings set some aside
+    // (each with its own warning).
+    let known: Vec<bool> = columns.iter().map(Option::is_some).collect();
     let item_column =
         match choose_item_column(&mut columns, &header, &rows, &item_names, &mut out.warnings) {
             Ok(i) => i,
@@ -212,26 +214,24 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
                 return out;
             }
         };
+    set_aside_second_spellings(&mut columns, &header, &mut out);
     for (i, h) in header.cells.iter().enumerate() {
-        if let Some(message) = columns[i].is_none().then(|| unusable_time(h)).flatten() {
-            out.errors.push(RowError {
+        if known[i] || h.is_empty() {
+            continue;
+        }
+        match unusable_time(h) {
+            Some(message) => out.errors.push(RowError {
                 row: header.line,
                 column: h.clone(),
                 text: h.clone(),
                 message,
-            });
-        }
-    }
-    set_aside_second_spellings(&mut columns, &header, &mut out);
-    let fields: Vec<Option<Field>> = columns.iter().map(|c| c.map(|(f, _)| f)).collect();
-    for (i, h) in header.cells.iter().enumerate() {
-        let set_aside = column_of(h).is_some();
-        if fields[i].is_none() && !h.is_empty() && !set_aside && unusable_time(h).is_none() {
-            out.warnings.push(format!(
+            }),
+            None => out.warnings.push(format!(
                 "column \"{h}\" of the stock table is not one Morrowcast uses; it is left out"
-            ));
+            )),
         }
     }
+    let fields: Vec<Option<Field>> = columns.iter().map(|c| c.map(|(f, _)| f)).collect();
     if !fields.contains(&Some(Field::OnHand)) {
         out.warnings.push(
             "the stock table has no on-hand column (\"on hand\", \"stock on hand\", \"qty on \
@@ -439,7 +439,8 @@ impl Reading {
             Some((number, unit)) if field.counts_periods() => (number, Some(unit)),
             _ => (at.text, at.header_unit),
         };
-        // A target is a fraction or a percent either way.
+        // Lead times and quantities only: a target reads as a fraction or a percent either way
+        // (975 % is none).
         if (self.all_undecided && field.counts_periods()
             || self.quantities_undecided && field.counts_units())
             && matches!(
@@ -611,7 +612,7 @@ impl Notes {
                 columns.push(c);
             }
         }
-        let period = TimeUnit::of_period(frequency).map_or("periods", |u| u.name(2.0));
+        let (_, period) = frequency.period_words();
         for c in columns {
             let cells: Vec<String> = self
                 .converted
@@ -630,9 +631,8 @@ impl Notes {
             ));
         }
         if !self.long.is_empty() {
-            let (_, name) = frequency.period_words();
             out.push(format!(
-                "{} of the stock table, without a unit, {} a year or more in {name}, the \
+                "{} of the stock table, without a unit, {} a year or more in {period}, the \
                  history's periods: {}; if {} days or weeks, write the unit in the cell (\"21 \
                  days\") or the header (\"Lead time (days)\")",
                 count(self.long.len(), "lead time or review period"),
