@@ -73,6 +73,16 @@ pub(crate) fn count(n: usize, noun: &str) -> String {
     }
 }
 
+/// `one` for a count of 1, else `many`: a verb or pronoun agreeing with a count ("is" or
+/// "are", "it" or "they").
+pub(crate) fn agreeing<'w>(n: usize, one: &'w str, many: &'w str) -> &'w str {
+    if n == 1 {
+        one
+    } else {
+        many
+    }
+}
+
 /// "a, b, c and 4 more".
 pub(crate) fn listing(entries: &[String]) -> String {
     let shown = entries

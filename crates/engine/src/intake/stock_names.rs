@@ -11,7 +11,7 @@
 //! naming no item is left out, said (a "Total" row, an item the history does not hold); two
 //! rows that come to the same item are an error at the second.
 
-use super::build::{count, listing};
+use super::build::{agreeing, count, listing};
 use super::stock_table::StockRow;
 use super::RowError;
 use std::collections::HashMap;
@@ -128,8 +128,8 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
             "{} of the stock table {} an item as the history does but for case, spacing, \
              punctuation or leading zeros, and {} read as that item: {}",
             count(renamed.len(), "row"),
-            if renamed.len() == 1 { "names" } else { "name" },
-            if renamed.len() == 1 { "is" } else { "are" },
+            agreeing(renamed.len(), "names", "name"),
+            agreeing(renamed.len(), "is", "are"),
             listing(&renamed)
         ));
     }
@@ -138,11 +138,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
             "{} of the stock table could name more than one item of the history, so {} left \
              out (write the name exactly as in the history): {}",
             count(ambiguous.len(), "row"),
-            if ambiguous.len() == 1 {
-                "it is"
-            } else {
-                "they are"
-            },
+            agreeing(ambiguous.len(), "it is", "they are"),
             listing(&ambiguous)
         ));
     }
@@ -150,12 +146,8 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
         out.warnings.push(format!(
             "{} of the stock table {} no item of the history, so {} left out: {}",
             count(unknown.len(), "row"),
-            if unknown.len() == 1 { "names" } else { "name" },
-            if unknown.len() == 1 {
-                "it is"
-            } else {
-                "they are"
-            },
+            agreeing(unknown.len(), "names", "name"),
+            agreeing(unknown.len(), "it is", "they are"),
             listing(&unknown)
         ));
     }

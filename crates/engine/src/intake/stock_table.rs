@@ -31,7 +31,7 @@
 //! (0.95) or percents (95, 95%) from 50 % to below 100 %; a row may give a service level or a
 //! fill rate, not both.
 
-use super::build::{count, listing};
+use super::build::{agreeing, count, listing};
 use super::decode;
 use super::mark::{decide_mark, evidence, Evidence, Tally};
 use super::number::{is_missing, is_unit, parse_number, NumberError};
@@ -183,7 +183,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         out.warnings.push(format!(
             "{} above the stock table's header {} left out: {}",
             count(titles, "line"),
-            if titles == 1 { "is" } else { "are" },
+            agreeing(titles, "is", "are"),
             listing(&lines)
         ));
     }
@@ -636,28 +636,16 @@ impl Notes {
                  history's periods: {}; if {} days or weeks, write the unit in the cell (\"21 \
                  days\") or the header (\"Lead time (days)\")",
                 count(self.long.len(), "lead time or review period"),
-                if self.long.len() == 1 {
-                    "comes to"
-                } else {
-                    "come to"
-                },
+                agreeing(self.long.len(), "comes to", "come to"),
                 listing(&self.long),
-                if self.long.len() == 1 {
-                    "it counts"
-                } else {
-                    "they count"
-                },
+                agreeing(self.long.len(), "it counts", "they count"),
             ));
         }
         if !self.no_on_order.is_empty() {
             out.push(format!(
                 "{} of the stock table {} on hand but no on order, taken as 0: {}",
                 count(self.no_on_order.len(), "row"),
-                if self.no_on_order.len() == 1 {
-                    "gives"
-                } else {
-                    "give"
-                },
+                agreeing(self.no_on_order.len(), "gives", "give"),
                 listing(&self.no_on_order)
             ));
         }
@@ -666,22 +654,10 @@ impl Notes {
                 "{} of the stock table {} above {} lead time, a spread few lead times have: {}; \
                  if {} in days or weeks, name the unit (\"Lead time sd (days)\")",
                 count(self.spread_above.len(), "lead-time spread"),
-                if self.spread_above.len() == 1 {
-                    "is"
-                } else {
-                    "are"
-                },
-                if self.spread_above.len() == 1 {
-                    "its"
-                } else {
-                    "their"
-                },
+                agreeing(self.spread_above.len(), "is", "are"),
+                agreeing(self.spread_above.len(), "its", "their"),
                 listing(&self.spread_above),
-                if self.spread_above.len() == 1 {
-                    "it counts"
-                } else {
-                    "they count"
-                },
+                agreeing(self.spread_above.len(), "it counts", "they count"),
             ));
         }
         if !self.units.is_empty() {
