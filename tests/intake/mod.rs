@@ -9,5 +9,6 @@ mod last_period;
 mod misreads;
 mod robustness;
 mod sales_reports;
+mod till_exports;
 mod unnamed;
 mod working_days;

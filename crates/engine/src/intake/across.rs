@@ -246,6 +246,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         not_quantities: Vec::new(),
         of_items: Vec::new(),
         notes: Vec::new(),
+        details: Vec::new(),
         split: None,
     })
 }

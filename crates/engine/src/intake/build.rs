@@ -28,7 +28,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
-use super::shapes::names_no_demand;
+use super::shapes::{names_no_demand, SaleDetail};
 use super::table::{header_says, names_weeks, wide_row_error, OfAnother, Plan, Table};
 use super::text::Record;
 
@@ -356,9 +356,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         }
     }
     for &j in &plan.codes {
+        let why = if plan.details.is_empty() {
+            "they repeat, and each item has each period on one row"
+        } else {
+            "they repeat under a header naming items"
+        };
         b.out.warnings.push(format!(
-            "column \"{}\" holds whole numbers read as item codes, not as quantities: they \
-             repeat, and each item has each period on one row",
+            "column \"{}\" holds whole numbers read as item codes, not as quantities: {why}",
             table.column_name(j)
         ));
     }
@@ -402,6 +406,36 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         b.out.warnings.push(format!(
             "column \"{}\" was not used: {why}; to plan them as items, name the column \"item\"",
             table.column_name(j)
+        ));
+    }
+    for &(j, why) in &plan.details {
+        let mut words: Vec<&str> = table
+            .column(j, &rows)
+            .into_iter()
+            .map(str::trim)
+            .filter(|c| !c.is_empty())
+            .collect();
+        words.sort_unstable();
+        words.dedup();
+        let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
+        let more = if words.len() > 3 { ", ..." } else { "" };
+        let what = match why {
+            SaleDetail::Named => "its header names how or by whom a sale was rung up (a till, \
+                 cashier, payment or receipt), not what was sold"
+                .to_string(),
+            SaleDetail::OwnOnMostRows => format!(
+                "it holds a value of its own on most rows ({} different on {} rows), as \
+                 receipt or order numbers do, so it names sales, not items",
+                words.len(),
+                rows.len()
+            ),
+        };
+        b.out.warnings.push(format!(
+            "column \"{}\" ({}{more}) was not used: {what}; each item's rows of one period \
+             were added up across it (to plan each of its values apart, name the column \
+             \"store\")",
+            table.column_name(j),
+            shown.join(", ")
         ));
     }
     for &j in &plan.not_quantities {

@@ -12,7 +12,7 @@
 //! refused: its months fall in two calendar years, and read as calendar months the rows
 //! would be put in the wrong order.
 
-use super::label::{calendar_name, parse_label, year_of, Family};
+use super::label::{calendar_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
@@ -176,6 +176,9 @@ impl SplitPeriod {
             });
         }
         if split.how == YearPart::Month {
+            if let Some(error) = fiscal_order(table, rows, &split) {
+                return Err(error);
+            }
             split.day = others()
                 .filter(|j| *j != split.part && named(*j, &["day"]) && !is_part(*j))
                 .find(|j| {
@@ -384,5 +387,84 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             text: text.trim().to_string(),
             message,
         })
+    })
+}
+
+/// A year column that counts fiscal years though its header says only "Year": in file order,
+/// an item's months within one year go past December into January (Apr, ..., Dec, Jan, ...,
+/// Mar), as a fiscal year's do. Read as calendar years, January to March would be put a year
+/// away from their neighbours and the rows sorted into a wrong history, said only as rows out
+/// of order (a review's fiscal export, 2026-12-05). Which calendar year each month falls in
+/// depends on how the company names its fiscal years, so the table is refused at the first
+/// January-side row with how to write it. An item's rows are those sharing every cell with a
+/// letter outside the period's columns (its name), taken in file order whether the table
+/// runs item by item or period by period; a run is its rows in a row with one year. Only where
+/// some run turns over once, from November or December to January or February, and no run
+/// turns more than once (rows in no order at all: sorted, as before, and said).
+fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<RowError> {
+    let periods = split.columns();
+    let cell = |row: &Record, j: usize| row.cells.get(j).map_or("", |c| c.trim()).to_string();
+    let mut items: Vec<Vec<usize>> = Vec::new();
+    let mut item_of: std::collections::HashMap<Vec<String>, usize> =
+        std::collections::HashMap::new();
+    for (i, row) in rows.iter().enumerate() {
+        let name: Vec<String> = (0..table.width)
+            .filter(|j| !periods.contains(j))
+            .map(|j| cell(row, j))
+            .filter(|c| c.chars().any(char::is_alphabetic))
+            .collect();
+        let next = items.len();
+        let k = *item_of.entry(name).or_insert(next);
+        if k == next {
+            items.push(Vec::new());
+        }
+        items[k].push(i);
+    }
+    let month = |i: usize| match parse_label(
+        &split.label(|j| rows[i].cells.get(j).map_or("", String::as_str)),
+    ) {
+        Some(Label::Month { month, .. }) | Some(Label::Date { month, .. }) => {
+            Some(month).filter(|m| (1..=12).contains(m))
+        }
+        _ => None,
+    };
+    let mut turned_at: Option<usize> = None;
+    for item in &items {
+        for run in item.chunk_by(|a, b| cell(rows[*a], split.year) == cell(rows[*b], split.year)) {
+            // The run's months in the order they first appear, with the row of each.
+            let mut seen = [false; 13];
+            let months: Vec<(u32, usize)> = run
+                .iter()
+                .filter_map(|&i| Some((month(i)?, i)))
+                .filter(|(m, _)| !std::mem::replace(&mut seen[*m as usize], true))
+                .collect();
+            let turns: Vec<usize> = (1..months.len())
+                .filter(|&k| months[k].0 < months[k - 1].0)
+                .collect();
+            match turns.as_slice() {
+                [] => {}
+                [k] if months[*k - 1].0 >= 11
+                    && months[*k].0 <= 2
+                    && months.last().is_some_and(|last| last.0 < months[0].0) =>
+                {
+                    let at = months[*k].1;
+                    turned_at = Some(turned_at.map_or(at, |t: usize| t.min(at)));
+                }
+                _ => return None,
+            }
+        }
+    }
+    let row = rows[turned_at?];
+    let year = table.column_name(split.year);
+    Some(RowError {
+        row: row.line,
+        column: year.clone(),
+        text: split.label(|j| row.cells.get(j).map_or("", String::as_str)),
+        message: format!(
+            "expected calendar years in the column \"{year}\": here an item's months within one \
+             year run on past December into January, as a fiscal year's do, so the year is not \
+             the calendar year of every row; write each period as a calendar month (e.g. \
+             2024-01) or a date (if the year is the calendar year, put the rows in time order)"
+        ),
     })
 }

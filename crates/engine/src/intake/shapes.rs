@@ -87,6 +87,127 @@ pub(super) fn notes_columns(
     }
 }
 
+/// Header words of a column that says how, where at the counter or by whom a sale was rung
+/// up, not what was sold: a till or its operator, the payment, the receipt. Common practice
+/// in till and order exports, not a standard.
+const SALE_DETAIL_WORDS: [&str; 30] = [
+    "till",
+    "tills",
+    "register",
+    "checkout",
+    "terminal",
+    "pos",
+    "lane",
+    "cashier",
+    "operator",
+    "clerk",
+    "staff",
+    "employee",
+    "salesperson",
+    "seller",
+    "server",
+    "waiter",
+    "user",
+    "payment",
+    "tender",
+    "receipt",
+    "transaction",
+    "txn",
+    "invoice",
+    "ticket",
+    "basket",
+    "bill",
+    "order",
+    "voucher",
+    "shift",
+    "rep",
+];
+
+/// Words of a header beside a detail's word that still leave it a detail ("Till no", "Receipt
+/// ID", "Cashier code").
+const DETAIL_ID_WORDS: [&str; 6] = ["id", "code", "no", "nr", "number", "num"];
+
+/// Why a column was left out as a detail of the sale ([`sale_details`]).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum SaleDetail {
+    /// Its header names a till, cashier, payment or receipt ([`SALE_DETAIL_WORDS`]).
+    Named,
+    /// It holds a value of its own on most rows, as receipt or order numbers do.
+    OwnOnMostRows,
+}
+
+/// Of the text columns `item_columns` of a long table, those that tell how a sale was rung
+/// up rather than what was sold, beside another column that names the items (text, or
+/// numbers under an item's header, `named_numbers`): a header naming a till, cashier, payment
+/// or receipt and no item, store or place ("Till", "Cashier ID", "Payment"); or, under any
+/// header, a value of its own on more than half of at least 8 rows (receipt or order
+/// numbers) where the other columns' names repeat, unless its header names an item or place. Joined into the item's name they split
+/// each product into a history per till or cashier (a review's till export, 2026-12-05), or
+/// into items of one sale each; left out, each item's rows of a period are added up across
+/// them. Without another column naming the items they stay (`Date,Till,Qty` is one history per
+/// till, under the till's name).
+pub(super) fn sale_details(
+    table: &Table,
+    rows: &[&Record],
+    item_columns: &[usize],
+    named_numbers: &[usize],
+) -> Vec<(usize, SaleDetail)> {
+    let distinct = |columns: &[usize]| {
+        let mut keys: Vec<Vec<&str>> = rows
+            .iter()
+            .map(|r| {
+                columns
+                    .iter()
+                    .map(|&j| r.cells.get(j).map_or("", |c| c.trim()))
+                    .collect()
+            })
+            .collect();
+        keys.sort_unstable();
+        keys.dedup();
+        keys.len()
+    };
+    let named = |j: usize| {
+        let name = table.column_name(j);
+        let item_words: Vec<&str> = ITEM_WORDS
+            .iter()
+            .copied()
+            .filter(|w| !DETAIL_ID_WORDS.contains(w))
+            .collect();
+        table.header.is_some()
+            && header_says(&name, &SALE_DETAIL_WORDS)
+            && !header_says(&name, &item_words)
+    };
+    // A column the header names as the item's or a place's is read so, however its
+    // values fall.
+    let own_on_most_rows = |j: usize| {
+        rows.len() >= 8
+            && !header_says(&table.column_name(j), &ITEM_WORDS)
+            && distinct(&[j]) * 2 > rows.len()
+    };
+    let details: Vec<(usize, SaleDetail)> = item_columns
+        .iter()
+        .filter_map(|&j| {
+            if named(j) {
+                Some((j, SaleDetail::Named))
+            } else if own_on_most_rows(j) {
+                Some((j, SaleDetail::OwnOnMostRows))
+            } else {
+                None
+            }
+        })
+        .collect();
+    let mut others: Vec<usize> = item_columns
+        .iter()
+        .copied()
+        .filter(|j| !details.iter().any(|(k, _)| k == j))
+        .collect();
+    others.extend(named_numbers.iter().copied());
+    if others.is_empty() || distinct(&others) * 2 > rows.len() {
+        return Vec::new();
+    }
+    details
+}
+
 /// The error for a grid of one item's values with part of the calendar across the header
 /// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels): at
 /// least two of the number columns `numeric`, and more than half of them, headed by parts of

@@ -82,7 +82,9 @@ use super::period::{
     dotted_labels, dotted_month, dotted_months_close, dotted_week, integer_meaning, mostly,
     strong_family, IntegerMeaning,
 };
-use super::shapes::{calendar_grid, codes_recur, names_no_demand, notes_columns};
+use super::shapes::{
+    calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
+};
 use super::text::{mode_of, Record};
 use super::{Layout, RowError};
 
@@ -450,6 +452,10 @@ pub(crate) struct Plan {
     /// Text columns beside one row per period that note the periods ("ok", "promo", a
     /// supplier) rather than name items ([`notes_columns`]): not read; the report says so.
     pub notes: Vec<usize>,
+    /// Text columns of a long table that tell how a sale was rung up (a till, a cashier, a
+    /// receipt) beside the item's name ([`sale_details`]): not read, each item's rows of a
+    /// period added up across them; the report says so.
+    pub details: Vec<(usize, SaleDetail)>,
     /// Columns that make the period together with the period column, a year: a month,
     /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
     pub split: Option<SplitPeriod>,
@@ -634,9 +640,19 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     let named_numbers = named_items(table, &numeric);
     let notes = notes_columns(table, &rows, &item_columns, &named_numbers, &period_refs);
     item_columns.retain(|j| !notes.contains(j));
+    // A till, cashier, payment or receipt beside the item's name tells how it was sold, not
+    // what ([`sale_details`]): rows added up across it.
+    let details = match period {
+        Some(_) => sale_details(table, &rows, &item_columns, &named_numbers),
+        None => Vec::new(),
+    };
+    item_columns.retain(|j| !details.iter().any(|(k, _)| k == j));
     // Without an item column, number columns may name the items ([`codes_beside`],
     // [`numbered_by_header`]); one number column must stay for the quantities.
     let codes: Vec<usize> = match period {
+        // Beside a till or receipt left out, numbers under an item's header ("SKU") are the
+        // items, their rows added up across the till as the names' are.
+        Some(_) if !details.is_empty() && item_columns.is_empty() => named_numbers.clone(),
         Some((_, None)) if item_columns.is_empty() && numeric.len() >= 2 => {
             codes_beside(table, &rows, &numeric, &period_refs)
         }
@@ -815,6 +831,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         not_quantities,
         of_items,
         notes,
+        details,
         split,
     })
 }
