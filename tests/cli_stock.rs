@@ -326,3 +326,38 @@ fn a_stock_table_in_a_planners_words() {
         out.stderr
     );
 }
+
+/// One workbook as the history and the stock table (`tests/fixtures/workbooks/sales.xlsx`:
+/// a "Sales" and a "Stock" sheet): each read from its sheet, said; the work written carries
+/// the stock sheet's rows, named with their sheet.
+#[test]
+fn one_workbook_gives_the_history_and_the_stock_table() {
+    let book = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/workbooks/sales.xlsx"
+    );
+    let out = cli(&["stock", book, "--stock", book, "--json"], b"");
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let json = out.json();
+    let twine = item_named(&json, "Garden twine, 50 m");
+    assert_eq!(twine["on_hand"], 15.5);
+    assert_eq!(item_named(&json, "Frost cloth")["on_order"], 20.0);
+    let warnings = json["warnings"].to_string();
+    assert!(
+        warnings.contains("read the sheet \\\"Stock\\\""),
+        "{warnings}"
+    );
+    let work = cli(&["work", book, "--stock", book], b"");
+    assert_eq!(work.code, 0, "{}", work.stderr);
+    let written: serde_json::Value = serde_json::from_slice(&work.stdout).unwrap();
+    let expected = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/workbooks/stock.csv"
+    ))
+    .unwrap();
+    assert_eq!(written["stock_table"]["text"], expected.as_str());
+    assert_eq!(
+        written["stock_table"]["source"],
+        "sales.xlsx, sheet \u{201c}Stock\u{201d}"
+    );
+}

@@ -8,6 +8,7 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::intake;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
@@ -17,7 +18,7 @@ use super::board::{
 };
 use super::browser;
 use super::export::file_name;
-use super::panels::{chosen_file, dropped_file, read_local_file, TextField};
+use super::panels::{chosen_file, dropped_file, read_local_file, source_of, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
 use crate::worker::{BoardFigures, BoardRow, BoardStock};
 
@@ -360,16 +361,20 @@ pub fn StockPanel() -> impl IntoView {
     let dragging = RwSignal::new(false);
     let table_source = board.table_source;
     let take = move |file: web_sys::File| {
-        read_local_file(file, move |text, name| match text {
-            Some(text) => {
-                board.table_text.set(text);
-                table_source.set(name);
-            }
-            None => {
-                board.table_text.set(String::new());
-                table_source.set(format!("{name} (could not be read)"));
-            }
-        })
+        read_local_file(
+            file,
+            intake::stock_table_text,
+            move |read, name| match read {
+                Ok(file) => {
+                    table_source.set(source_of(&name, &file));
+                    board.table_text.set(file.text);
+                }
+                Err(why) => {
+                    board.table_text.set(String::new());
+                    table_source.set(format!("{name} (not read: {why})"));
+                }
+            },
+        )
     };
     let on_file = move |ev: leptos::ev::Event| {
         if let Some(file) = chosen_file(&ev) {
@@ -429,7 +434,7 @@ pub fn StockPanel() -> impl IntoView {
                 <div class="intake-actions">
                     <label class="file-button" for="stock-file">"Open a stock table…"</label>
                     <input id="stock-file" class="visually-hidden-file" type="file"
-                        accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values,text/plain"
+                        accept=".csv,.tsv,.txt,.xlsx,.xlsm,.ods,text/csv,text/tab-separated-values,text/plain,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,application/vnd.oasis.opendocument.spreadsheet"
                         on:change=on_file/>
                 </div>
                 <p class="source-line">"Stock table from: " <span id="stock-source">{move || table_source.get()}</span></p>

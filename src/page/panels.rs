@@ -17,21 +17,41 @@ use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
 use super::state::{IntakeState, PlanState, WorkNotice, WorkState, DEMO_SOURCE, LARGE_TEXT};
 use super::words;
 
-/// Reads a file locally as text; `done` gets the text (`None` when the browser could not read
-/// the file) and the file's name. The bytes are decoded by the engine (UTF-8, or UTF-16 with its
+/// Reads a file locally; `done` gets its text as `as_text` takes it from the bytes (a
+/// history's or a stock table's: a workbook's sheet for each), or why it could not be read,
+/// and the file's name. The bytes are decoded by the engine (UTF-8, or UTF-16 with its
 /// byte-order mark), not by the browser's `text()`, which would replace what it cannot read
 /// without a word; the engine's marks for such bytes are reported by the reader, line by line.
-pub(super) fn read_local_file(file: File, done: impl FnOnce(Option<String>, String) + 'static) {
+pub(super) fn read_local_file(
+    file: File,
+    as_text: fn(&[u8]) -> Result<intake::FileText, String>,
+    done: impl FnOnce(Result<intake::FileText, String>, String) + 'static,
+) {
     let name = file.name();
     spawn_local(async move {
         match JsFuture::from(file.array_buffer()).await {
             Ok(buffer) => {
                 let bytes = js_sys::Uint8Array::new(&buffer).to_vec();
-                done(Some(intake::decode_bytes(&bytes)), name)
+                done(as_text(&bytes), name)
             }
-            Err(_) => done(None, name),
+            Err(_) => done(
+                Err(
+                    "the browser could not read the file: choose it again, or paste its \
+                     contents"
+                        .to_string(),
+                ),
+                name,
+            ),
         }
     });
+}
+
+/// A file's source as the page names it: with the workbook's sheet read, if any.
+pub(super) fn source_of(name: &str, file: &intake::FileText) -> String {
+    match &file.sheet {
+        Some(sheet) => format!("{name}, sheet \u{201c}{sheet}\u{201d}"),
+        None => name.to_string(),
+    }
 }
 
 /// The file chosen in an `<input type=file>`; the input is emptied, so choosing the same
@@ -55,15 +75,20 @@ pub(super) fn dropped_file(ev: &leptos::ev::DragEvent) -> Option<File> {
 /// Reads a file locally: a work file (or a saved share link) opens its work; anything else
 /// is a history and goes in the Intake box.
 fn read_file(state: IntakeState, work: WorkState, file: File) {
-    read_local_file(file, move |text, name| match text {
-        Some(text) => {
-            if !work.open_text(&text, &format!("the work file {name}")) {
-                state.set_text(text, &name);
+    read_local_file(file, intake::history_text, move |read, name| match read {
+        Ok(file) => {
+            if !work.open_text(&file.text, &format!("the work file {name}")) {
+                state.set_text(file.text.clone(), &source_of(&name, &file));
+                // What was read of a workbook (its sheet, the others), or of UTF-16 text.
+                if let Some(note) = file.note {
+                    work.notice
+                        .set(Some(WorkNotice::Opened(format!("{name}: {note}."))));
+                }
             }
         }
         // The desk's text stays as it was: nothing of it is replaced by a failed read.
-        None => work.notice.set(Some(WorkNotice::Refused(format!(
-            "{name} could not be read, so nothing changed: choose it again, or paste its contents."
+        Err(why) => work.notice.set(Some(WorkNotice::Refused(format!(
+            "{name} could not be read, so nothing changed: {why}."
         )))),
     });
 }
@@ -138,7 +163,7 @@ pub fn IntakePanel() -> impl IntoView {
     view! {
         <section class="panel intake" id="intake" aria-labelledby="intake-title">
             <h2 id="intake-title">"Intake"</h2>
-            <p class="hint">"Sales history as a table: a period column and one or more value columns, one row per item and period, or one row per item with the periods across the top. CSV, TSV or plain text. A work file or a share link opens the whole desk."</p>
+            <p class="hint">"Sales history as a table: a period column and one or more value columns, one row per item and period, or one row per item with the periods across the top. CSV, TSV or plain text, or a workbook (.xlsx, .ods: its fullest sheet). A work file or a share link opens the whole desk."</p>
             {move || work.notice.get().map(|n| match n {
                 WorkNotice::Opened(m) => view! { <p class="notice" id="work-notice" role="status">{m}</p> }.into_any(),
                 WorkNotice::Refused(m) => view! { <p class="notice refused" id="work-notice" role="alert">{m}</p> }.into_any(),
@@ -205,7 +230,7 @@ pub fn IntakePanel() -> impl IntoView {
                     id="intake-file"
                     class="visually-hidden-file"
                     type="file"
-                    accept=".csv,.tsv,.txt,.json,text/csv,text/tab-separated-values,text/plain,application/json"
+                    accept=".csv,.tsv,.txt,.json,.xlsx,.xlsm,.ods,text/csv,text/tab-separated-values,text/plain,application/json,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,application/vnd.oasis.opendocument.spreadsheet"
                     on:change=on_file
                 />
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>

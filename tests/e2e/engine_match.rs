@@ -360,3 +360,100 @@ fn a_typing_error_is_ringed_where_the_outliers_alert_names_it() {
     );
     save_screenshot(browser, "outlier-ringed.png");
 }
+
+/// A workbook dropped on Intake's drop zone and on the stock table's, as a planner keeps sales
+/// and stock on two sheets of one file: the sales sheet's text fills the box (exactly the
+/// text `scripts/workbook_fixtures.py` works out), named with its sheet, the notice names
+/// the sheets not read, the items are planned, and the stock sheet gives the orders. An older
+/// .xls is refused in words, the desk kept.
+#[test]
+fn a_dropped_workbook_is_read_sheet_by_sheet() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let fixture = |name: &str| {
+        std::fs::read(format!(
+            "{}/tests/fixtures/workbooks/{name}",
+            env!("CARGO_MANIFEST_DIR")
+        ))
+        .expect("fixture")
+    };
+    let book = fixture("sales.xlsx");
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xlsx')); \
+         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
+           { dataTransfer: dt, bubbles: true, cancelable: true }));",
+        json!([book]),
+    );
+    browser.wait_for(
+        "the workbook's sheet as the source",
+        "return document.getElementById('intake-source').textContent === 'sales.xlsx, sheet \u{201c}Sales\u{201d}'",
+        WAIT,
+    );
+    let text = browser.js("return document.getElementById('intake-text').value");
+    let expected = String::from_utf8(fixture("sales_with_title.csv")).unwrap();
+    assert_eq!(text.as_str().unwrap_or(""), expected);
+    let notice = browser.js("return document.getElementById('work-notice').textContent");
+    let notice = notice.as_str().unwrap_or("");
+    assert!(
+        notice.contains("read the sheet \"Sales\"")
+            && notice.contains("not read: \"Read me\", \"Stock\""),
+        "{notice}"
+    );
+    wait_for_item(browser, "Seed packets");
+    browser.js("document.getElementById('work-notice').scrollIntoView()");
+    save_screenshot(browser, "workbook-dropped.png");
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xlsx')); \
+         const z = document.getElementById('stock-drop'); \
+         const ev = t => z.dispatchEvent(new DragEvent(t, { dataTransfer: dt, bubbles: true, cancelable: true })); \
+         ev('dragenter'); ev('dragover'); ev('drop');",
+        json!([book]),
+    );
+    browser.wait_for(
+        "the stock sheet as the stock table's source",
+        "return document.getElementById('stock-source').textContent === 'sales.xlsx, sheet \u{201c}Stock\u{201d}'",
+        WAIT,
+    );
+    let report = browser.wait_for(
+        "the stock table's report",
+        "const r = document.getElementById('stock-table-report'); return r && r.textContent.includes('Read 3 rows') && r.textContent",
+        WAIT,
+    );
+    let errors = browser.js("return document.getElementById('stock-table-errors').textContent");
+    assert_eq!(errors, json!(""), "{report}");
+    super::board::wait_until_planned(browser, 3);
+    let board = browser.js("return document.getElementById('item-board').textContent");
+    assert!(
+        !board.as_str().unwrap_or("").contains("needs on hand"),
+        "{board}"
+    );
+    browser.js("window.scrollTo(0, 0)");
+    save_screenshot(browser, "workbook-stock-sheet.png");
+    // An older binary workbook: refused, the desk as it was.
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xls')); \
+         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
+           { dataTransfer: dt, bubbles: true, cancelable: true }));",
+        json!([fixture("sales.xls")]),
+    );
+    let refused = browser.wait_for(
+        "the .xls refused in words",
+        "const n = document.getElementById('work-notice'); return n && n.textContent.includes('sales.xls could not be read') && n.textContent",
+        WAIT,
+    );
+    assert!(
+        refused
+            .as_str()
+            .unwrap_or("")
+            .contains(".xlsx, .ods or CSV"),
+        "{refused}"
+    );
+    let kept = browser.js("return document.getElementById('intake-text').value");
+    assert_eq!(kept.as_str().unwrap_or(""), expected);
+}

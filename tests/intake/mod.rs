@@ -11,4 +11,5 @@ mod robustness;
 mod sales_reports;
 mod till_exports;
 mod unnamed;
+mod workbooks;
 mod working_days;

@@ -186,9 +186,18 @@ pub fn stock_inputs(
     let table = match &sa.table {
         Some(path) => {
             let bytes = read_input(path, stdin)?;
+            // A workbook's sheet naming on hand, as the table is read from, so a work or link
+            // carries the rows read.
+            let (text, sheet) = match intake::stock_table_text(&bytes) {
+                Ok(file) => (file.text, file.sheet),
+                Err(_) => (String::new(), None),
+            };
             let text = SourcedText {
-                text: intake::decode_bytes(&bytes),
-                source: source_name(path),
+                text,
+                source: match sheet {
+                    Some(sheet) => format!("{}, sheet \u{201c}{sheet}\u{201d}", source_name(path)),
+                    None => source_name(path),
+                },
             };
             Some((intake::read_stock_table(&bytes, input.report()), text))
         }

@@ -15,6 +15,7 @@
 //! misread file without saying so. Lines are counted as the tokeniser counts them: LF, CRLF and
 //! a lone CR each end one.
 
+use super::workbook;
 use super::RowError;
 
 /// Most lines with undecodable bytes reported one by one; the rest are counted in one more
@@ -26,12 +27,36 @@ const MAX_REPORTED_LINES: usize = 20;
 pub(crate) struct Decoded {
     pub text: String,
     pub errors: Vec<RowError>,
-    /// What was assumed about the encoding, when anything was (UTF-16 without its mark).
+    /// What was assumed about the encoding, when anything was (UTF-16 without its mark), or
+    /// which sheet of a workbook was read.
     pub assumed: Option<String>,
+    /// The workbook's sheet read, for a front end naming its source.
+    pub sheet: Option<String>,
+    /// Why nothing could be read (a workbook that cannot be opened, or holds nothing); the
+    /// text is then empty and this is the only error.
+    pub refused: Option<String>,
 }
 
-/// Decodes `bytes` by the rules of this module's doc.
+/// Which sheet of a workbook to read: the one whose text `prefer` accepts, else the fullest
+/// ([`workbook::choose`]).
+pub(crate) struct SheetChoice<'a> {
+    pub prefer: &'a dyn Fn(&str) -> bool,
+}
+
+/// The fullest sheet.
+pub(crate) const FULLEST: SheetChoice<'static> = SheetChoice { prefer: &|_| false };
+
+/// Decodes `bytes` by the rules of this module's doc; a workbook's fullest sheet.
 pub(crate) fn decode(bytes: &[u8]) -> Decoded {
+    decode_choosing(bytes, &FULLEST)
+}
+
+/// Decodes `bytes`; a workbook (module [`super::workbook`]) gives the sheet `choice` picks,
+/// as comma-separated text.
+pub(crate) fn decode_choosing(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
+    if workbook::is_workbook(bytes) {
+        return from_workbook(bytes, choice);
+    }
     match bytes {
         [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
         [0xFE, 0xFF, rest @ ..] => decode_utf16(rest, false),
@@ -50,6 +75,34 @@ pub(crate) fn decode(bytes: &[u8]) -> Decoded {
             },
             None => decode_utf8(bytes),
         },
+    }
+}
+
+/// A workbook's chosen sheet as text, with a note of which; refused when it cannot be
+/// opened or no sheet holds anything.
+fn from_workbook(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
+    let refused = |why: String| Decoded {
+        text: String::new(),
+        errors: Vec::new(),
+        assumed: None,
+        sheet: None,
+        refused: Some(why),
+    };
+    let sheets = match workbook::sheets(bytes) {
+        Ok(sheets) => sheets,
+        Err(why) => return refused(why),
+    };
+    match workbook::choose(&sheets, choice.prefer) {
+        // A workbook never calculated has no figure in any formula cell: nothing to read.
+        Ok(sheet) if !sheet.unsaved.is_empty() => refused(workbook::unsaved(sheet)),
+        Ok(sheet) => Decoded {
+            text: sheet.text.clone(),
+            errors: Vec::new(),
+            assumed: Some(workbook::note(&sheets, sheet)),
+            sheet: Some(sheet.name.clone()),
+            refused: None,
+        },
+        Err(why) => refused(why),
     }
 }
 
@@ -115,6 +168,8 @@ fn decode_utf8(bytes: &[u8]) -> Decoded {
         text,
         errors,
         assumed: None,
+        sheet: None,
+        refused: None,
     }
 }
 
@@ -164,6 +219,8 @@ fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
         text,
         errors,
         assumed: None,
+        sheet: None,
+        refused: None,
     }
 }
 

@@ -143,6 +143,7 @@ mod table;
 mod text;
 mod totals;
 mod unfinished;
+mod workbook;
 
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
 pub use stock_table::{read_stock_table, StockRow, StockTable};
@@ -319,6 +320,16 @@ impl IntakeReport {
 /// panics, whatever the bytes.
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     let decoded = decode::decode(bytes);
+    if let Some(why) = decoded.refused {
+        let mut report = empty_report(Delimiter::Comma);
+        report.errors.push(RowError {
+            row: 1,
+            column: String::new(),
+            text: String::new(),
+            message: why,
+        });
+        return report;
+    }
     let mut report = read_text(&decoded.text);
     report.warnings.extend(decoded.assumed.clone());
     report.errors.extend(decode::all_errors(&decoded));
@@ -333,6 +344,44 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
 /// shows the text itself, such as the page's Intake box.
 pub fn decode_bytes(bytes: &[u8]) -> String {
     decode::decode(bytes).text
+}
+
+/// A file's text as Intake reads it, for a front end that shows the text itself (the page's
+/// box) and names its source.
+#[derive(Clone, Debug, PartialEq)]
+pub struct FileText {
+    /// The text: the file's own, or a workbook's sheet as comma-separated text.
+    pub text: String,
+    /// The workbook's sheet read, if the file is a workbook.
+    pub sheet: Option<String>,
+    /// What was read and how, in words (the sheet and the others not read), if anything
+    /// needs saying.
+    pub note: Option<String>,
+}
+
+impl FileText {
+    fn of(decoded: decode::Decoded) -> Result<FileText, String> {
+        match decoded.refused {
+            Some(why) => Err(why),
+            None => Ok(FileText {
+                text: decoded.text,
+                sheet: decoded.sheet,
+                note: decoded.assumed,
+            }),
+        }
+    }
+}
+
+/// A history file's text (a workbook's fullest sheet, [`read_bytes`]'s); `Err` with why and
+/// what to do when nothing can be read (a workbook that cannot be opened).
+pub fn history_text(bytes: &[u8]) -> Result<FileText, String> {
+    FileText::of(decode::decode(bytes))
+}
+
+/// A stock table file's text (a workbook's sheet naming on hand, else its fullest,
+/// [`read_stock_table`]'s); `Err` as [`history_text`].
+pub fn stock_table_text(bytes: &[u8]) -> Result<FileText, String> {
+    FileText::of(decode::decode_choosing(bytes, &stock_table::STOCK_SHEET))
 }
 
 /// Reads text into a report; every line holding U+FFFD (bytes another program could not read
@@ -397,11 +446,9 @@ fn ended_early(report: &IntakeReport) -> Option<String> {
     })
 }
 
-fn read_text(text: &str) -> IntakeReport {
-    let text = text::strip_bom(text);
-    let delimiter = text::sniff_delimiter(text).unwrap_or(Delimiter::Comma);
-    let tokens = text::tokenize(text, text::delimiter_char(delimiter));
-    let mut report = IntakeReport {
+/// A report of nothing read yet.
+fn empty_report(delimiter: Delimiter) -> IntakeReport {
+    IntakeReport {
         delimiter,
         decimal: DecimalMark::Dot,
         layout: Layout::Single,
@@ -414,7 +461,14 @@ fn read_text(text: &str) -> IntakeReport {
         has_header: false,
         empty_cells: 0,
         unfinished_last: None,
-    };
+    }
+}
+
+fn read_text(text: &str) -> IntakeReport {
+    let text = text::strip_bom(text);
+    let delimiter = text::sniff_delimiter(text).unwrap_or(Delimiter::Comma);
+    let tokens = text::tokenize(text, text::delimiter_char(delimiter));
+    let mut report = empty_report(delimiter);
     for line in &tokens.unclosed_quotes {
         report.errors.push(RowError {
             row: *line,

@@ -127,11 +127,42 @@ struct Notes {
 /// history it goes with (its period, for lead times written in days or weeks, and its items'
 /// names). Never panics.
 pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
-    let decoded = decode::decode(bytes);
+    let decoded = decode::decode_choosing(bytes, &STOCK_SHEET);
+    if let Some(why) = decoded.refused {
+        let mut table = StockTable::default();
+        table.errors.push(RowError {
+            row: 1,
+            column: String::new(),
+            text: String::new(),
+            message: why,
+        });
+        return table;
+    }
     let mut table = read_text(&decoded.text, history);
+    table.warnings.extend(decoded.assumed.clone());
     table.errors.extend(decode::all_errors(&decoded));
     table.errors.sort_by_key(|e| e.row);
     table
+}
+
+/// A workbook's sheet for the stock table: the one whose first lines name an on-hand column
+/// (a workbook may hold the sales and the stock on sheets of their own), else the fullest.
+pub(crate) const STOCK_SHEET: decode::SheetChoice<'static> = decode::SheetChoice {
+    prefer: &names_on_hand,
+};
+
+/// Whether a cell of the first lines of comma-separated `text` names on hand.
+fn names_on_hand(text: &str) -> bool {
+    let first = text
+        .lines()
+        .take(TITLE_LINES + 1)
+        .collect::<Vec<_>>()
+        .join("\n");
+    tokenize(&first, ',').records.iter().any(|r| {
+        r.cells
+            .iter()
+            .any(|c| column_of(c).is_some_and(|(f, _)| f == Field::OnHand))
+    })
 }
 
 fn read_text(text: &str, history: &IntakeReport) -> StockTable {
