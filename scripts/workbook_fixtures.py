@@ -139,7 +139,7 @@ def review_shapes():
     """Shapes a review found misread or refused unhelpfully (2026-12-05), each written as the
     libraries write them: formulas saved without results, a hidden backup sheet, one sheet per
     year, item names merged down their months, an OpenDocument time column, a line break in a
-    cell above a bad one, two stock counts."""
+    cell above a bad one, a chart sheet beside the sales, two stock counts."""
     import openpyxl
 
     def sales_sheet(ws, months, base=0):
@@ -194,6 +194,16 @@ def review_shapes():
     ws.append([dt.datetime(2024, 1, 1), "Seed\npackets", 4])
     ws.append([dt.datetime(2024, 2, 1), "Seed\npackets", "ten"])
     wb.save(f"{OUT}/line_break.xlsx")
+
+    from openpyxl.chart import LineChart, Reference
+
+    wb = openpyxl.Workbook()
+    sales_sheet(wb.active, MONTHS[:6])
+    wb.active.title = "Sales"
+    chart = LineChart()
+    chart.add_data(Reference(wb.active, min_col=3, min_row=1, max_row=7), titles_from_data=True)
+    wb.create_chartsheet("Chart").add_chart(chart)
+    wb.save(f"{OUT}/chart_sheet.xlsx")
 
     wb = openpyxl.Workbook()
     wb.active.title = "Count 2024-11"

@@ -364,7 +364,7 @@ pub fn StockPanel() -> impl IntoView {
         read_local_file(
             file,
             intake::stock_table_text,
-            move |read, name| match read {
+            move |read, name, _| match read {
                 Ok(file) => {
                     table_source.set(source_of(&name, &file));
                     board.table_text.set(file.text);

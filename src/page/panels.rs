@@ -14,7 +14,9 @@ use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
 use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
-use super::state::{IntakeState, PlanState, WorkNotice, WorkState, DEMO_SOURCE, LARGE_TEXT};
+use super::state::{
+    IntakeState, OpenWorkbook, PlanState, WorkNotice, WorkState, DEMO_SOURCE, LARGE_TEXT,
+};
 use super::words;
 
 /// Reads a file locally; `done` gets its text as `as_text` takes it from the bytes (a
@@ -25,14 +27,14 @@ use super::words;
 pub(super) fn read_local_file(
     file: File,
     as_text: fn(&[u8]) -> Result<intake::FileText, String>,
-    done: impl FnOnce(Result<intake::FileText, String>, String) + 'static,
+    done: impl FnOnce(Result<intake::FileText, String>, String, Vec<u8>) + 'static,
 ) {
     let name = file.name();
     spawn_local(async move {
         match JsFuture::from(file.array_buffer()).await {
             Ok(buffer) => {
                 let bytes = js_sys::Uint8Array::new(&buffer).to_vec();
-                done(as_text(&bytes), name)
+                done(as_text(&bytes), name, bytes)
             }
             Err(_) => done(
                 Err(
@@ -41,6 +43,7 @@ pub(super) fn read_local_file(
                         .to_string(),
                 ),
                 name,
+                Vec::new(),
             ),
         }
     });
@@ -75,22 +78,100 @@ pub(super) fn dropped_file(ev: &leptos::ev::DragEvent) -> Option<File> {
 /// Reads a file locally: a work file (or a saved share link) opens its work; anything else
 /// is a history and goes in the Intake box.
 fn read_file(state: IntakeState, work: WorkState, file: File) {
-    read_local_file(file, intake::history_text, move |read, name| match read {
-        Ok(file) => {
-            if !work.open_text(&file.text, &format!("the work file {name}")) {
-                state.set_text(file.text.clone(), &source_of(&name, &file));
-                // What was read of a workbook (its sheet, the others), or of UTF-16 text.
-                if let Some(note) = file.note {
-                    work.notice
-                        .set(Some(WorkNotice::Opened(format!("{name}: {note}."))));
+    read_local_file(
+        file,
+        intake::history_text,
+        move |read, name, bytes| match read {
+            Ok(file) => {
+                if !work.open_text(&file.text, &format!("the work file {name}")) {
+                    let sheet = file.sheet.clone();
+                    take_sheet(state, work, &name, file);
+                    offer_sheets(state, name, bytes, sheet);
                 }
             }
+            // The desk's text stays as it was: nothing of it is replaced by a failed read. A
+            // workbook whose sheet to read is unclear offers its sheets.
+            Err(why) => {
+                let choice = if offer_sheets(state, name.clone(), bytes, None) {
+                    " Or choose the sheet to read below the box."
+                } else {
+                    ""
+                };
+                work.notice.set(Some(WorkNotice::Refused(format!(
+                    "{name} could not be read, so nothing changed: {why}.{choice}"
+                ))));
+            }
+        },
+    );
+}
+
+/// Puts a file's text (a workbook's sheet) in the box, saying what was read of a workbook
+/// (its sheet, the others) or of UTF-16 text.
+fn take_sheet(state: IntakeState, work: WorkState, name: &str, file: intake::FileText) {
+    state.set_text(file.text.clone(), &source_of(name, &file));
+    if let Some(note) = file.note {
+        work.notice
+            .set(Some(WorkNotice::Opened(format!("{name}: {note}."))));
+    }
+}
+
+/// Keeps a workbook of two readable sheets or more for the sheet choice, `sheet` the one in
+/// the box (`None`: none of it, which sheet to read being unclear); whether it was kept.
+fn offer_sheets(state: IntakeState, file: String, bytes: Vec<u8>, sheet: Option<String>) -> bool {
+    let sheets = intake::workbook_sheets(&bytes);
+    let offered = sheets.len() >= 2;
+    if offered {
+        state.workbook.set(Some(OpenWorkbook {
+            file,
+            bytes: std::sync::Arc::new(bytes),
+            sheets,
+            sheet,
+        }));
+    }
+    offered
+}
+
+/// The choice of a workbook's sheet, under the source line while the box holds one of its
+/// sheets (or nothing of it, its sheet unclear): choosing reads that sheet into the box.
+#[component]
+fn SheetChoice() -> impl IntoView {
+    let state = expect_context::<IntakeState>();
+    let work = expect_context::<WorkState>();
+    let choose = move |ev: leptos::ev::Event| {
+        let name = event_target_value(&ev);
+        let Some(book) = state.workbook.get_untracked() else {
+            return;
+        };
+        match intake::history_text_of_sheet(&book.bytes, &name) {
+            Ok(file) => {
+                take_sheet(state, work, &book.file, file);
+                state.workbook.set(Some(OpenWorkbook {
+                    sheet: Some(name),
+                    ..book
+                }));
+            }
+            Err(why) => work
+                .notice
+                .set(Some(WorkNotice::Refused(format!("{}: {why}.", book.file)))),
         }
-        // The desk's text stays as it was: nothing of it is replaced by a failed read.
-        Err(why) => work.notice.set(Some(WorkNotice::Refused(format!(
-            "{name} could not be read, so nothing changed: {why}."
-        )))),
-    });
+    };
+    move || {
+        state.workbook.get().map(|book| {
+            let unclear = book.sheet.is_none();
+            view! {
+                <p class="field sheet-choice">
+                    <label for="sheet-choice">{format!("Sheet of {} to read", book.file)}</label>
+                    <select id="sheet-choice" on:change=choose>
+                        {unclear.then(|| view! { <option value="" selected=true disabled=true>"choose a sheet"</option> })}
+                        {book.sheets.iter().map(|s| {
+                            let selected = book.sheet.as_deref() == Some(s.as_str());
+                            view! { <option value=s.clone() selected=selected>{s.clone()}</option> }
+                        }).collect_view()}
+                    </select>
+                </p>
+            }
+        })
+    }
 }
 
 /// A paste of more than [`LARGE_TEXT`] into an empty box, or over all of it, goes straight to
@@ -236,6 +317,7 @@ pub fn IntakePanel() -> impl IntoView {
                 <button type="button" id="load-demo" on:click=load_demo>"Load the demo"</button>
             </div>
             <p class="source-line">"Reading: " <span id="intake-source">{move || state.source.with(|s| if s.is_empty() { "nothing yet".to_string() } else { s.clone() })}</span></p>
+            <SheetChoice/>
             <Show when=move || demo_missing.get()>
                 <p class="notice">"The demo data is not part of this build yet."</p>
             </Show>

@@ -434,6 +434,10 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     );
     browser.js("window.scrollTo(0, 0)");
     save_screenshot(browser, "workbook-stock-sheet.png");
+    // The workbook's sheets offered, the one read chosen.
+    let offered = browser.js("const s = document.getElementById('sheet-choice'); \
+         return [s.value, Array.from(s.options).map(o => o.value)]");
+    assert_eq!(offered, json!(["Sales", ["Read me", "Sales", "Stock"]]));
     // An older binary workbook: refused, the desk as it was.
     browser.js_args(
         "const dt = new DataTransfer(); \
@@ -456,4 +460,49 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     );
     let kept = browser.js("return document.getElementById('intake-text').value");
     assert_eq!(kept.as_str().unwrap_or(""), expected);
+    // One sheet per year: refused until a sheet is chosen, then that sheet is read.
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], 'year_sheets.xlsx')); \
+         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
+           { dataTransfer: dt, bubbles: true, cancelable: true }));",
+        json!([fixture("year_sheets.xlsx")]),
+    );
+    browser.wait_for(
+        "the sheets offered while which to read is unclear",
+        "const s = document.getElementById('sheet-choice'); \
+         return !!s && s.value === '' && s.options.length === 3 \
+           && document.getElementById('work-notice').textContent.includes('same header')",
+        WAIT,
+    );
+    browser.js("document.getElementById('work-notice').scrollIntoView()");
+    save_screenshot(browser, "workbook-sheet-choice.png");
+    browser.js(
+        "const s = document.getElementById('sheet-choice'); s.value = '2025'; \
+         s.dispatchEvent(new Event('change', { bubbles: true }));",
+    );
+    browser.wait_for(
+        "the chosen sheet read",
+        "return document.getElementById('intake-source').textContent === 'year_sheets.xlsx, sheet \u{201c}2025\u{201d}' \
+           && document.getElementById('sheet-choice').value === '2025'",
+        WAIT,
+    );
+    super::board::wait_until_planned(browser, 2);
+    let text = browser.js("return document.getElementById('intake-text').value");
+    assert!(
+        text.as_str()
+            .unwrap_or("")
+            .contains("2025-06-01,Frost cloth"),
+        "{text}"
+    );
+    // Typing in the box lets the workbook go.
+    browser.js(
+        "const t = document.getElementById('intake-text'); t.value = t.value + ' '; \
+         t.dispatchEvent(new Event('input', { bubbles: true }));",
+    );
+    browser.wait_for(
+        "the sheet choice gone",
+        "return document.getElementById('sheet-choice') === null",
+        WAIT,
+    );
 }

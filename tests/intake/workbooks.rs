@@ -5,7 +5,8 @@
 //! refused with what to do, never a panic.
 
 use morrowcast_engine::intake::{
-    history_text, read, read_bytes, read_stock_table, stock_table_text, FileText,
+    history_text, history_text_of_sheet, read, read_bytes, read_stock_table, stock_table_text,
+    workbook_sheets, FileText,
 };
 
 const DIR: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/workbooks/");
@@ -124,12 +125,26 @@ fn formulas_hidden_sheets_year_sheets_merged_cells_times_and_line_breaks() {
         .warnings
         .iter()
         .any(|w| w.contains("hidden, not read: \"Sales backup\"")));
-    // One sheet per year: which to read is the user's to say.
+    // One sheet per year: which to read is the user's to say, and then it is read.
     let why = history_text(&bytes("year_sheets.xlsx")).expect_err("two alike");
     assert!(
         why.contains("2 sheets with the same header (\"2024\", \"2025\")"),
         "{why}"
     );
+    assert_eq!(
+        workbook_sheets(&bytes("year_sheets.xlsx")),
+        ["2024", "2025"]
+    );
+    let chosen = history_text_of_sheet(&bytes("year_sheets.xlsx"), "2025").expect("asked");
+    assert_eq!(chosen.sheet.as_deref(), Some("2025"));
+    assert_eq!(
+        read(&chosen.text).items[0].periods[0].to_string(),
+        "2025-01"
+    );
+    let why =
+        history_text_of_sheet(&bytes("hidden_backup.xlsx"), "Sales backup").expect_err("hidden");
+    assert!(why.contains("those that can: \"Sales\""), "{why}");
+    assert!(workbook_sheets(&text("stock.csv").into_bytes()).is_empty());
     // Item names merged down their months: each month gets its item.
     assert_eq!(
         read_bytes(&bytes("merged_items.xlsx")).items,
@@ -144,6 +159,10 @@ fn formulas_hidden_sheets_year_sheets_merged_cells_times_and_line_breaks() {
     let r = read_bytes(&bytes("line_break.xlsx"));
     assert_eq!(r.items[0].name, "Seed packets");
     assert_eq!((r.errors[0].row, r.errors[0].text.as_str()), (3, "ten"));
+    // A chart sheet beside the sales holds no table: the sales are read.
+    let r = read_bytes(&bytes("chart_sheet.xlsx"));
+    assert!(r.errors.is_empty(), "{:#?}", r.errors);
+    assert_eq!(r.items.len(), 2);
     // Two stock counts naming on hand: which is today's is the user's to say.
     let why = stock_table_text(&bytes("two_counts.xlsx")).expect_err("two counts");
     assert!(

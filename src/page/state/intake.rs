@@ -31,6 +31,21 @@ pub struct IntakeState {
     /// The text before a period was left out of it, for putting it back; shown only while
     /// the text is still the one the leaving out wrote.
     pub left_out: RwSignal<Option<LeftOut>>,
+    /// The workbook the text was read from, kept for reading another of its sheets; any other
+    /// change of text lets it go.
+    pub workbook: RwSignal<Option<OpenWorkbook>>,
+}
+
+/// A workbook opened in Intake: its bytes (on this machine only, never written anywhere),
+/// the sheets that may be read and the one read.
+#[derive(Clone, Debug, PartialEq)]
+pub struct OpenWorkbook {
+    /// The file's name.
+    pub file: String,
+    pub bytes: std::sync::Arc<Vec<u8>>,
+    pub sheets: Vec<String>,
+    /// The sheet whose text is in the box; `None` when none was read (which is unclear).
+    pub sheet: Option<String>,
 }
 
 /// A period left out of the Intake text at the user's request, and what to put back.
@@ -107,6 +122,7 @@ impl IntakeState {
             version,
             reading,
             left_out: RwSignal::new(None),
+            workbook: RwSignal::new(None),
         }
     }
 
@@ -194,6 +210,7 @@ impl IntakeState {
     /// [`IntakeState::set_text`] are the only ways the text changes.
     pub fn set_typed(&self, text: String) {
         self.version.update(|v| *v += 1);
+        self.workbook.set(None);
         self.source.set("pasted text".into());
         self.text.set(text);
     }
@@ -201,6 +218,7 @@ impl IntakeState {
     /// Replaces the Intake text; the first item is chosen.
     pub fn set_text(&self, text: String, source: &str) {
         self.version.update(|v| *v += 1);
+        self.workbook.set(None);
         self.source.set(source.to_string());
         self.item.set(0);
         self.text.set(text);

@@ -15,7 +15,7 @@ mod plan;
 mod work;
 
 pub use board::BoardState;
-pub use intake::{IntakeState, DEMO_SOURCE, LARGE_TEXT};
+pub use intake::{IntakeState, OpenWorkbook, DEMO_SOURCE, LARGE_TEXT};
 pub use plan::PlanState;
 pub use work::{Keeping, WorkNotice, WorkState, NO_TABLE};
 

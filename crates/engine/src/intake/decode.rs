@@ -32,19 +32,25 @@ pub(crate) struct Decoded {
     pub assumed: Option<String>,
     /// The workbook's sheet read, for a front end naming its source.
     pub sheet: Option<String>,
+    /// The workbook's sheets that may be read, for a front end offering a choice.
+    pub sheets: Vec<String>,
     /// Why nothing could be read (a workbook that cannot be opened, or holds nothing); the
     /// text is then empty and this is the only error.
     pub refused: Option<String>,
 }
 
-/// Which sheet of a workbook to read: the one whose text `prefer` accepts, else the fullest
-/// ([`workbook::choose`]).
+/// Which sheet of a workbook to read: the one named, else the one whose text `prefer`
+/// accepts, else the fullest ([`workbook::choose`]).
 pub(crate) struct SheetChoice<'a> {
+    pub named: Option<&'a str>,
     pub prefer: &'a dyn Fn(&str) -> bool,
 }
 
 /// The fullest sheet.
-pub(crate) const FULLEST: SheetChoice<'static> = SheetChoice { prefer: &|_| false };
+pub(crate) const FULLEST: SheetChoice<'static> = SheetChoice {
+    named: None,
+    prefer: &|_| false,
+};
 
 /// Decodes `bytes` by the rules of this module's doc; a workbook's fullest sheet.
 pub(crate) fn decode(bytes: &[u8]) -> Decoded {
@@ -86,13 +92,18 @@ fn from_workbook(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
         errors: Vec::new(),
         assumed: None,
         sheet: None,
+        sheets: Vec::new(),
         refused: Some(why),
     };
     let sheets = match workbook::sheets(bytes) {
         Ok(sheets) => sheets,
         Err(why) => return refused(why),
     };
-    match workbook::choose(&sheets, choice.prefer) {
+    let chosen = match choice.named {
+        Some(name) => workbook::named(&sheets, name),
+        None => workbook::choose(&sheets, choice.prefer),
+    };
+    match chosen {
         // A workbook never calculated has no figure in any formula cell: nothing to read.
         Ok(sheet) if !sheet.unsaved.is_empty() => refused(workbook::unsaved(sheet)),
         Ok(sheet) => Decoded {
@@ -100,6 +111,10 @@ fn from_workbook(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
             errors: Vec::new(),
             assumed: Some(workbook::note(&sheets, sheet)),
             sheet: Some(sheet.name.clone()),
+            sheets: workbook::readable(&sheets)
+                .into_iter()
+                .map(str::to_string)
+                .collect(),
             refused: None,
         },
         Err(why) => refused(why),
@@ -169,6 +184,7 @@ fn decode_utf8(bytes: &[u8]) -> Decoded {
         errors,
         assumed: None,
         sheet: None,
+        sheets: Vec::new(),
         refused: None,
     }
 }
@@ -220,6 +236,7 @@ fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
         errors,
         assumed: None,
         sheet: None,
+        sheets: Vec::new(),
         refused: None,
     }
 }

@@ -354,6 +354,8 @@ pub struct FileText {
     pub text: String,
     /// The workbook's sheet read, if the file is a workbook.
     pub sheet: Option<String>,
+    /// The workbook's sheets that may be read (the one read among them), for a choice.
+    pub sheets: Vec<String>,
     /// What was read and how, in words (the sheet and the others not read), if anything
     /// needs saying.
     pub note: Option<String>,
@@ -366,6 +368,7 @@ impl FileText {
             None => Ok(FileText {
                 text: decoded.text,
                 sheet: decoded.sheet,
+                sheets: decoded.sheets,
                 note: decoded.assumed,
             }),
         }
@@ -376,6 +379,33 @@ impl FileText {
 /// what to do when nothing can be read (a workbook that cannot be opened).
 pub fn history_text(bytes: &[u8]) -> Result<FileText, String> {
     FileText::of(decode::decode(bytes))
+}
+
+/// A workbook's sheet `sheet` as a history's text, whichever the workbook would give; `Err`
+/// as [`history_text`], or when that sheet cannot be read.
+pub fn history_text_of_sheet(bytes: &[u8], sheet: &str) -> Result<FileText, String> {
+    let choice = decode::SheetChoice {
+        named: Some(sheet),
+        prefer: &|_| false,
+    };
+    FileText::of(decode::decode_choosing(bytes, &choice))
+}
+
+/// The sheets of the workbook in `bytes` that may be read (visible, readable, holding cells),
+/// in its order, for a front end offering a choice; empty for a file that is not a workbook
+/// or cannot be opened.
+pub fn workbook_sheets(bytes: &[u8]) -> Vec<String> {
+    if !workbook::is_workbook(bytes) {
+        return Vec::new();
+    }
+    workbook::sheets(bytes)
+        .map(|sheets| {
+            workbook::readable(&sheets)
+                .into_iter()
+                .map(str::to_string)
+                .collect()
+        })
+        .unwrap_or_default()
 }
 
 /// A stock table file's text (a workbook's sheet naming on hand, else its fullest,

@@ -148,6 +148,7 @@ pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
 /// A workbook's sheet for the stock table: the one whose first lines name an on-hand column
 /// (a workbook may hold the sales and the stock on sheets of their own), else the fullest.
 pub(crate) const STOCK_SHEET: decode::SheetChoice<'static> = decode::SheetChoice {
+    named: None,
     prefer: &names_on_hand,
 };
 

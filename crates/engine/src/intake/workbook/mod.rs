@@ -24,7 +24,7 @@ mod cells;
 
 use std::io::Cursor;
 
-use calamine::{Data, DataRef, Ods, Reader, SheetVisible, Xlsx, XlsxFormulaMetadata};
+use calamine::{Data, DataRef, Ods, Reader, SheetType, SheetVisible, Xlsx, XlsxFormulaMetadata};
 
 use cells::{cell_text, sheet_text};
 
@@ -105,13 +105,25 @@ pub(crate) fn sheets(bytes: &[u8]) -> Result<Vec<Sheet>, String> {
 /// An .xlsx workbook's sheets, read cell by cell: only the cells written are kept, so a
 /// stray cell far down or across costs nothing until the text is written.
 fn xlsx_sheets(mut book: Xlsx<Cursor<&[u8]>>) -> Result<Vec<Sheet>, String> {
-    let listed: Vec<(String, bool)> = book
+    let listed: Vec<(String, bool, bool)> = book
         .sheets_metadata()
         .iter()
-        .map(|s| (s.name.clone(), s.visible != SheetVisible::Visible))
+        .map(|s| {
+            let hidden = s.visible != SheetVisible::Visible;
+            (s.name.clone(), hidden, s.typ == SheetType::WorkSheet)
+        })
         .collect();
     let mut out = Vec::with_capacity(listed.len());
-    for (name, hidden) in listed {
+    for (name, hidden, table) in listed {
+        // A chart, dialog or macro sheet holds no cells: an empty sheet, not a damaged one.
+        if !table {
+            out.push(Sheet {
+                name,
+                hidden,
+                ..Sheet::default()
+            });
+            continue;
+        }
         let mut cells: Vec<(u32, u32, String)> = Vec::new();
         let mut unsaved = Vec::new();
         let unreadable = match book.worksheet_cells_reader(&name) {
@@ -283,6 +295,33 @@ pub(crate) fn choose(sheets: &[Sheet], prefer: impl Fn(&str) -> bool) -> Result<
         ));
     }
     Ok(fullest)
+}
+
+/// The sheet `name`, when it may be read (visible, readable, holding cells); `Err` saying
+/// which may.
+pub(crate) fn named<'s>(sheets: &'s [Sheet], name: &str) -> Result<&'s Sheet, String> {
+    sheets
+        .iter()
+        .find(|s| s.name == name && s.readable())
+        .ok_or_else(|| {
+            let names: Vec<String> = readable(sheets)
+                .iter()
+                .map(|s| format!("\"{s}\""))
+                .collect();
+            format!(
+                "the workbook has no sheet \"{name}\" that can be read; those that can: {}",
+                super::build::listing(&names)
+            )
+        })
+}
+
+/// The names of the sheets that may be read, in the workbook's order.
+pub(crate) fn readable(sheets: &[Sheet]) -> Vec<&str> {
+    sheets
+        .iter()
+        .filter(|s| s.readable())
+        .map(|s| s.name.as_str())
+        .collect()
 }
 
 /// What the report says of a sheet read: which, how its cells were taken, and which other
