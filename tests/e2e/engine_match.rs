@@ -381,13 +381,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
         .expect("fixture")
     };
     let book = fixture("sales.xlsx");
-    browser.js_args(
-        "const dt = new DataTransfer(); \
-         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xlsx')); \
-         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
-           { dataTransfer: dt, bubbles: true, cancelable: true }));",
-        json!([book]),
-    );
+    drop_on(browser, "drop-zone", &book, "sales.xlsx");
     browser.wait_for(
         "the workbook's sheet as the source",
         "return document.getElementById('intake-source').textContent === 'sales.xlsx, sheet \u{201c}Sales\u{201d}'",
@@ -406,14 +400,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     wait_for_item(browser, "Seed packets");
     browser.js("document.getElementById('work-notice').scrollIntoView()");
     save_screenshot(browser, "workbook-dropped.png");
-    browser.js_args(
-        "const dt = new DataTransfer(); \
-         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xlsx')); \
-         const z = document.getElementById('stock-drop'); \
-         const ev = t => z.dispatchEvent(new DragEvent(t, { dataTransfer: dt, bubbles: true, cancelable: true })); \
-         ev('dragenter'); ev('dragover'); ev('drop');",
-        json!([book]),
-    );
+    drop_on(browser, "stock-drop", &book, "sales.xlsx");
     browser.wait_for(
         "the stock sheet as the stock table's source",
         "return document.getElementById('stock-source').textContent === 'sales.xlsx, sheet \u{201c}Stock\u{201d}'",
@@ -439,13 +426,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
          return [s.value, Array.from(s.options).map(o => o.value)]");
     assert_eq!(offered, json!(["Sales", ["Read me", "Sales", "Stock"]]));
     // An older binary workbook: refused, the desk as it was.
-    browser.js_args(
-        "const dt = new DataTransfer(); \
-         dt.items.add(new File([new Uint8Array(arguments[0])], 'sales.xls')); \
-         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
-           { dataTransfer: dt, bubbles: true, cancelable: true }));",
-        json!([fixture("sales.xls")]),
-    );
+    drop_on(browser, "drop-zone", &fixture("sales.xls"), "sales.xls");
     let refused = browser.wait_for(
         "the .xls refused in words",
         "const n = document.getElementById('work-notice'); return n && n.textContent.includes('sales.xls could not be read') && n.textContent",
@@ -461,12 +442,11 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     let kept = browser.js("return document.getElementById('intake-text').value");
     assert_eq!(kept.as_str().unwrap_or(""), expected);
     // One sheet per year: refused until a sheet is chosen, then that sheet is read.
-    browser.js_args(
-        "const dt = new DataTransfer(); \
-         dt.items.add(new File([new Uint8Array(arguments[0])], 'year_sheets.xlsx')); \
-         document.getElementById('drop-zone').dispatchEvent(new DragEvent('drop', \
-           { dataTransfer: dt, bubbles: true, cancelable: true }));",
-        json!([fixture("year_sheets.xlsx")]),
+    drop_on(
+        browser,
+        "drop-zone",
+        &fixture("year_sheets.xlsx"),
+        "year_sheets.xlsx",
     );
     browser.wait_for(
         "the sheets offered while which to read is unclear",
@@ -504,5 +484,18 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
         "the sheet choice gone",
         "return document.getElementById('sheet-choice') === null",
         WAIT,
+    );
+}
+
+/// Drops a file of `bytes` named `name` on the drop zone `zone` (Intake's or the stock
+/// table's), as a drag from the desktop delivers it.
+fn drop_on(browser: &Browser, zone: &str, bytes: &[u8], name: &str) {
+    browser.js_args(
+        "const dt = new DataTransfer(); \
+         dt.items.add(new File([new Uint8Array(arguments[0])], arguments[1])); \
+         const z = document.getElementById(arguments[2]); \
+         const ev = t => z.dispatchEvent(new DragEvent(t, { dataTransfer: dt, bubbles: true, cancelable: true })); \
+         ev('dragenter'); ev('dragover'); ev('drop');",
+        json!([bytes, name, zone]),
     );
 }

@@ -408,9 +408,9 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             table.column_name(j)
         ));
     }
-    for &(j, why) in &plan.details {
+    for (j, why) in &plan.details {
         let mut words: Vec<&str> = table
-            .column(j, &rows)
+            .column(*j, &rows)
             .into_iter()
             .map(str::trim)
             .filter(|c| !c.is_empty())
@@ -420,21 +420,20 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
         let more = if words.len() > 3 { ", ..." } else { "" };
         let what = match why {
-            SaleDetail::Named => "its header names how or by whom a sale was rung up (a till, \
+            SaleDetail::Named(word) => format!(
+                "its header's \"{word}\" names how or by whom a sale was rung up (a till, \
                  cashier, payment or receipt), not what was sold"
-                .to_string(),
-            SaleDetail::OwnOnMostRows => format!(
-                "it holds a value of its own on most rows ({} different on {} rows), as \
-                 receipt or order numbers do, so it names sales, not items",
-                words.len(),
-                rows.len()
+            ),
+            SaleDetail::OwnOnMostRows(once, all) => format!(
+                "{once} of its {all} rows hold a code found on no other row, as receipt or \
+                 order numbers do, so it names sales, not items"
             ),
         };
         b.out.warnings.push(format!(
             "column \"{}\" ({}{more}) was not used: {what}; each item's rows of one period \
-             were added up across it (to plan each of its values apart, name the column \
-             \"store\")",
-            table.column_name(j),
+             were added up across it (if it names what was sold or where, call the column \
+             \"item\" or \"store\" and it is read so)",
+            table.column_name(*j),
             shown.join(", ")
         ));
     }

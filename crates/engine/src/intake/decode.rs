@@ -39,6 +39,17 @@ pub(crate) struct Decoded {
     pub refused: Option<String>,
 }
 
+/// The one error of a file refused whole (`Decoded::refused`): at its first row, naming no
+/// cell.
+pub(crate) fn refusal(why: String) -> RowError {
+    RowError {
+        row: 1,
+        column: String::new(),
+        text: String::new(),
+        message: why,
+    }
+}
+
 /// Which sheet of a workbook to read: the one named, else the one whose text `prefer`
 /// accepts, else the fullest ([`workbook::choose`]).
 pub(crate) struct SheetChoice<'a> {

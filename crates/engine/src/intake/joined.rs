@@ -399,8 +399,10 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
 /// January-side row with how to write it. An item's rows are those sharing every cell with a
 /// letter outside the period's columns (its name), taken in file order whether the table
 /// runs item by item or period by period; a run is its rows in a row with one year. Only where
-/// some run turns over once, from November or December to January or February, and no run
-/// turns more than once (rows in no order at all: sorted, as before, and said).
+/// some run turns over once, from November or December to January or February, no run turns
+/// more than once (rows in no order at all: sorted, as before, and said), and no run holds
+/// both ends of a calendar year in order (a review found one January added late to a calendar
+/// file refused: every year of a fiscal file that reaches January turns).
 fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<RowError> {
     let periods = split.columns();
     let cell = |row: &Record, j: usize| row.cells.get(j).map_or("", |c| c.trim()).to_string();
@@ -441,7 +443,12 @@ fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<
             let turns: Vec<usize> = (1..months.len())
                 .filter(|&k| months[k].0 < months[k - 1].0)
                 .collect();
+            let spans_new_year =
+                months.iter().any(|m| m.0 >= 11) && months.iter().any(|m| m.0 <= 2);
             match turns.as_slice() {
+                // A calendar year from January to December beside: the turn elsewhere is a
+                // row out of place (a January added late), not a fiscal year.
+                [] if spans_new_year => return None,
                 [] => {}
                 [k] if months[*k - 1].0 >= 11
                     && months[*k].0 <= 2

@@ -322,12 +322,7 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     let decoded = decode::decode(bytes);
     if let Some(why) = decoded.refused {
         let mut report = empty_report(Delimiter::Comma);
-        report.errors.push(RowError {
-            row: 1,
-            column: String::new(),
-            text: String::new(),
-            message: why,
-        });
+        report.errors.push(decode::refusal(why));
         return report;
     }
     let mut report = read_text(&decoded.text);

@@ -89,111 +89,122 @@ pub(super) fn notes_columns(
 
 /// Header words of a column that says how, where at the counter or by whom a sale was rung
 /// up, not what was sold: a till or its operator, the payment, the receipt. Common practice
-/// in till and order exports, not a standard.
-const SALE_DETAIL_WORDS: [&str; 30] = [
+/// in till exports, not a standard. Only words that name no product line: a review found
+/// "Basket", "Ticket", "Voucher", "Bill of materials", "Server rack", "Shift", "Rep", "Staff
+/// uniform", "Order type" and "Lane" heading products, variants or stores.
+const SALE_DETAIL_WORDS: [&str; 18] = [
     "till",
     "tills",
     "register",
     "checkout",
     "terminal",
     "pos",
-    "lane",
     "cashier",
+    "cashiers",
     "operator",
     "clerk",
-    "staff",
-    "employee",
     "salesperson",
     "seller",
-    "server",
     "waiter",
-    "user",
     "payment",
     "tender",
     "receipt",
     "transaction",
     "txn",
-    "invoice",
-    "ticket",
-    "basket",
-    "bill",
-    "order",
-    "voucher",
-    "shift",
-    "rep",
 ];
 
-/// Words of a header beside a detail's word that still leave it a detail ("Till no", "Receipt
-/// ID", "Cashier code").
-const DETAIL_ID_WORDS: [&str; 6] = ["id", "code", "no", "nr", "number", "num"];
+/// Words that may stand beside a detail's word in its header and leave it a detail ("Till
+/// no", "Receipt ID", "Cashier name", "Payment method").
+const DETAIL_OTHER_WORDS: [&str; 9] = [
+    "id", "code", "no", "nr", "number", "num", "name", "method", "type",
+];
 
 /// Why a column was left out as a detail of the sale ([`sale_details`]).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq, Eq)]
 pub(crate) enum SaleDetail {
-    /// Its header names a till, cashier, payment or receipt ([`SALE_DETAIL_WORDS`]).
-    Named,
-    /// It holds a value of its own on most rows, as receipt or order numbers do.
-    OwnOnMostRows,
+    /// Its header names a till, cashier, payment or receipt and nothing else
+    /// ([`SALE_DETAIL_WORDS`]): the word.
+    Named(String),
+    /// Most of its rows hold a code of their own (a digit, no space), as receipt or order
+    /// numbers do: how many rows of how many.
+    OwnOnMostRows(usize, usize),
 }
 
 /// Of the text columns `item_columns` of a long table, those that tell how a sale was rung
 /// up rather than what was sold, beside another column that names the items (text, or
-/// numbers under an item's header, `named_numbers`): a header naming a till, cashier, payment
-/// or receipt and no item, store or place ("Till", "Cashier ID", "Payment"); or, under any
-/// header, a value of its own on more than half of at least 8 rows (receipt or order
-/// numbers) where the other columns' names repeat, unless its header names an item or place. Joined into the item's name they split
-/// each product into a history per till or cashier (a review's till export, 2026-12-05), or
-/// into items of one sale each; left out, each item's rows of a period are added up across
-/// them. Without another column naming the items they stay (`Date,Till,Qty` is one history per
-/// till, under the till's name).
+/// numbers under an item's header, `named_numbers`) whose names repeat: a header naming
+/// only a till, cashier, payment or receipt ("Till", "Cashier ID", "Payment method"); or,
+/// under a header that names no item or place, a code of its own (a digit, no space) on
+/// more than half of at least 8 rows (single-line receipt numbers). Joined into the item's
+/// name they split each product into a history per till or cashier (a review's till export,
+/// 2026-12-05), or into items of one sale each; left out, each item's rows of a period are
+/// added up across them. A second review found product names of a long-tail catalogue
+/// ("Description", "Title" beside a category) taken for receipts when any different value
+/// counted: so only codes that stand once, and only these header words. Without another
+/// column naming the items they stay (`Date,Till,Qty` is one history per till).
 pub(super) fn sale_details(
     table: &Table,
     rows: &[&Record],
     item_columns: &[usize],
     named_numbers: &[usize],
 ) -> Vec<(usize, SaleDetail)> {
-    let distinct = |columns: &[usize]| {
-        let mut keys: Vec<Vec<&str>> = rows
-            .iter()
+    let keys = |columns: &[usize]| -> Vec<Vec<&str>> {
+        rows.iter()
             .map(|r| {
                 columns
                     .iter()
                     .map(|&j| r.cells.get(j).map_or("", |c| c.trim()))
                     .collect()
             })
-            .collect();
-        keys.sort_unstable();
-        keys.dedup();
-        keys.len()
+            .collect()
     };
-    let named = |j: usize| {
+    let distinct = |columns: &[usize]| {
+        let mut all = keys(columns);
+        all.sort_unstable();
+        all.dedup();
+        all.len()
+    };
+    let named = |j: usize| -> Option<String> {
         let name = table.column_name(j);
-        let item_words: Vec<&str> = ITEM_WORDS
+        let allowed: Vec<&str> = SALE_DETAIL_WORDS
             .iter()
+            .chain(DETAIL_OTHER_WORDS.iter())
             .copied()
-            .filter(|w| !DETAIL_ID_WORDS.contains(w))
             .collect();
-        table.header.is_some()
-            && header_says(&name, &SALE_DETAIL_WORDS)
-            && !header_says(&name, &item_words)
+        if table.header.is_none() || !header_is_only(&name, &allowed) {
+            return None;
+        }
+        header_words(&name)
+            .into_iter()
+            .find(|w| SALE_DETAIL_WORDS.iter().any(|d| w.eq_ignore_ascii_case(d)))
     };
-    // A column the header names as the item's or a place's is read so, however its
-    // values fall.
-    let own_on_most_rows = |j: usize| {
-        rows.len() >= 8
-            && !header_says(&table.column_name(j), &ITEM_WORDS)
-            && distinct(&[j]) * 2 > rows.len()
+    // Rows whose cell is a code (a digit, no space) found on no other row. A column the
+    // header names as the item's or a place's is read so, however its values fall.
+    let codes_once = |j: usize| -> usize {
+        if rows.len() < 8 || header_says(&table.column_name(j), &ITEM_WORDS) {
+            return 0;
+        }
+        let mut counts: std::collections::HashMap<&str, usize> = std::collections::HashMap::new();
+        for cell in keys(&[j]).into_iter().map(|k| k[0]) {
+            *counts.entry(cell).or_default() += 1;
+        }
+        counts
+            .iter()
+            .filter(|(cell, n)| {
+                **n == 1
+                    && cell.chars().any(|c| c.is_ascii_digit())
+                    && !cell.chars().any(char::is_whitespace)
+            })
+            .count()
     };
     let details: Vec<(usize, SaleDetail)> = item_columns
         .iter()
         .filter_map(|&j| {
-            if named(j) {
-                Some((j, SaleDetail::Named))
-            } else if own_on_most_rows(j) {
-                Some((j, SaleDetail::OwnOnMostRows))
-            } else {
-                None
+            if let Some(word) = named(j) {
+                return Some((j, SaleDetail::Named(word)));
             }
+            let once = codes_once(j);
+            (once * 2 > rows.len()).then_some((j, SaleDetail::OwnOnMostRows(once, rows.len())))
         })
         .collect();
     let mut others: Vec<usize> = item_columns

@@ -130,12 +130,7 @@ pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
     let decoded = decode::decode_choosing(bytes, &STOCK_SHEET);
     if let Some(why) = decoded.refused {
         let mut table = StockTable::default();
-        table.errors.push(RowError {
-            row: 1,
-            column: String::new(),
-            text: String::new(),
-            message: why,
-        });
+        table.errors.push(decode::refusal(why));
         return table;
     }
     let mut table = read_text(&decoded.text, history);
