@@ -31,6 +31,8 @@ fn tills_cashiers_payments_and_receipts_do_not_split_an_item() {
         ("Cashier", ["Wren", "Ash"]),
         ("Payment method", ["Cash", "Card"]),
         ("Cashier name", ["Moss", "Fern"]),
+        ("Sold by", ["Moss", "Fern"]),
+        ("Sales person", ["Moss", "Fern"]),
     ] {
         check(
             &rung_up(header, values),
@@ -213,6 +215,29 @@ fn a_fiscal_year_under_a_plain_year_is_refused() {
             errors: vec![(20, "Year", "2022 Jan")],
             ..Expect::default()
         },
+    );
+    // Newest first: read backwards, refused at the same January.
+    let newest_first: String = {
+        let text = fiscal(true);
+        let mut lines: Vec<&str> = text.lines().collect();
+        let header = lines.remove(0);
+        lines.reverse();
+        std::iter::once(header)
+            .chain(lines)
+            .map(|l| format!("{l}\n"))
+            .collect()
+    };
+    let r = check(
+        &newest_first,
+        Expect {
+            errors: vec![(4, "Year", "2023 Jan")],
+            ..Expect::default()
+        },
+    );
+    assert!(
+        r.errors.iter().any(|e| e.message.contains("fiscal year")),
+        "{:#?}",
+        r.errors
     );
     check(
         &fiscal(true),

@@ -402,7 +402,8 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
 /// some run turns over once, from November or December to January or February, no run turns
 /// more than once (rows in no order at all: sorted, as before, and said), and no run holds
 /// both ends of a calendar year in order (a review found one January added late to a calendar
-/// file refused: every year of a fiscal file that reaches January turns).
+/// file refused: every year of a fiscal file that reaches January turns). A run going newest
+/// first is read backwards (a review found fiscal years listed newest first misread).
 fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<RowError> {
     let periods = split.columns();
     let cell = |row: &Record, j: usize| row.cells.get(j).map_or("", |c| c.trim()).to_string();
@@ -435,11 +436,16 @@ fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<
         for run in item.chunk_by(|a, b| cell(rows[*a], split.year) == cell(rows[*b], split.year)) {
             // The run's months in the order they first appear, with the row of each.
             let mut seen = [false; 13];
-            let months: Vec<(u32, usize)> = run
+            let mut months: Vec<(u32, usize)> = run
                 .iter()
                 .filter_map(|&i| Some((month(i)?, i)))
                 .filter(|(m, _)| !std::mem::replace(&mut seen[*m as usize], true))
                 .collect();
+            // Newest first (an export listing the latest month at the top): read backwards.
+            let falls = months.windows(2).filter(|w| w[1].0 < w[0].0).count();
+            if falls * 2 > months.len() {
+                months.reverse();
+            }
             let turns: Vec<usize> = (1..months.len())
                 .filter(|&k| months[k].0 < months[k - 1].0)
                 .collect();

@@ -113,6 +113,14 @@ const SALE_DETAIL_WORDS: [&str; 18] = [
     "txn",
 ];
 
+/// Headers of two or three words naming who rang a sale up (the words of each, lower case).
+const DETAIL_PHRASES: [&[&str]; 4] = [
+    &["sales", "person"],
+    &["served", "by"],
+    &["sold", "by"],
+    &["rung", "up", "by"],
+];
+
 /// Words that may stand beside a detail's word in its header and leave it a detail ("Till
 /// no", "Receipt ID", "Cashier name", "Payment method").
 const DETAIL_OTHER_WORDS: [&str; 9] = [
@@ -133,7 +141,8 @@ pub(crate) enum SaleDetail {
 /// Of the text columns `item_columns` of a long table, those that tell how a sale was rung
 /// up rather than what was sold, beside another column that names the items (text, or
 /// numbers under an item's header, `named_numbers`) whose names repeat: a header naming
-/// only a till, cashier, payment or receipt ("Till", "Cashier ID", "Payment method"); or,
+/// only a till, cashier, payment or receipt ("Till", "Cashier ID", "Payment method", "Sold
+/// by"); or,
 /// under a header that names no item or place, a code of its own (a digit, no space) on
 /// more than half of at least 8 rows (single-line receipt numbers). Joined into the item's
 /// name they split each product into a history per till or cashier (a review's till export,
@@ -171,7 +180,21 @@ pub(super) fn sale_details(
             .chain(DETAIL_OTHER_WORDS.iter())
             .copied()
             .collect();
-        if table.header.is_none() || !header_is_only(&name, &allowed) {
+        table.header.as_ref()?;
+        let mut words: Vec<String> = header_words(&name)
+            .iter()
+            .map(|w| w.to_lowercase())
+            .collect();
+        while words
+            .last()
+            .is_some_and(|w| DETAIL_OTHER_WORDS.contains(&w.as_str()))
+        {
+            words.pop();
+        }
+        if DETAIL_PHRASES.iter().any(|phrase| words == *phrase) {
+            return Some(name.clone());
+        }
+        if !header_is_only(&name, &allowed) {
             return None;
         }
         header_words(&name)
