@@ -80,6 +80,34 @@ fn tills_cashiers_payments_and_receipts_do_not_split_an_item() {
             ..Expect::default()
         },
     );
+    // Receipts of several lines, each of one day, more receipts than days: sales, not items.
+    let mut text = String::from("Date,Ref,Item,Qty\n");
+    let mut codes = String::from("Date,Ref,Item,Qty\n");
+    for day in 1..=4 {
+        for receipt in 0..2 {
+            for item in ["Twine", "Rake"] {
+                text.push_str(&format!("2024-03-0{day},R-{day}{receipt},{item},1\n"));
+                // The same lines under codes that recur every day: product codes, kept.
+                codes.push_str(&format!("2024-03-0{day},P-{receipt},{item},1\n"));
+            }
+        }
+    }
+    check(
+        &text,
+        Expect {
+            items: Some(vec![
+                ("Twine", some(&[2.0, 2.0, 2.0, 2.0])),
+                ("Rake", some(&[2.0, 2.0, 2.0, 2.0])),
+            ]),
+            warned: vec![vec![
+                "column \"Ref\"",
+                "8 codes each stand on rows of one period only",
+            ]],
+            ..Expect::default()
+        },
+    );
+    let r = check(&codes, Expect::default());
+    assert_eq!(r.items.len(), 4, "{:#?}", r.warnings);
     // Product numbers under an item's header beside a till are the items.
     check(
         "Date,SKU,Till,Qty\n2024-03-01,1001,T1,2\n2024-03-01,1001,T2,3\n2024-03-01,1002,T1,1\n\

@@ -424,6 +424,10 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
                 "its header's \"{word}\" names how or by whom a sale was rung up (a till, \
                  cashier, payment or receipt), not what was sold"
             ),
+            SaleDetail::OnePeriodEach(codes, spanned) => format!(
+                "its {codes} codes each stand on rows of one period only ({spanned} periods), \
+                 as receipt or order numbers of several lines do, so it names sales, not items"
+            ),
             SaleDetail::OwnOnMostRows(once, all) => format!(
                 "{once} of its {all} rows hold a code found on no other row, as receipt or \
                  order numbers do, so it names sales, not items"

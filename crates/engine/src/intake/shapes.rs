@@ -136,6 +136,9 @@ pub(crate) enum SaleDetail {
     /// Most of its rows hold a code of their own (a digit, no space), as receipt or order
     /// numbers do: how many rows of how many.
     OwnOnMostRows(usize, usize),
+    /// Its values are codes each found in one period only, more of them than periods, as
+    /// receipts of several lines are: how many codes, in how many periods.
+    OnePeriodEach(usize, usize),
 }
 
 /// Of the text columns `item_columns` of a long table, those that tell how a sale was rung
@@ -144,7 +147,8 @@ pub(crate) enum SaleDetail {
 /// only a till, cashier, payment or receipt ("Till", "Cashier ID", "Payment method", "Sold
 /// by"); or,
 /// under a header that names no item or place, a code of its own (a digit, no space) on
-/// more than half of at least 8 rows (single-line receipt numbers). Joined into the item's
+/// more than half of at least 8 rows (single-line receipt numbers), or codes each found in
+/// one period only, more of them than periods (receipts of several lines). Joined into the item's
 /// name they split each product into a history per till or cashier (a review's till export,
 /// 2026-12-05), or into items of one sale each; left out, each item's rows of a period are
 /// added up across them. A second review found product names of a long-tail catalogue
@@ -156,6 +160,7 @@ pub(super) fn sale_details(
     rows: &[&Record],
     item_columns: &[usize],
     named_numbers: &[usize],
+    periods: &[&str],
 ) -> Vec<(usize, SaleDetail)> {
     let keys = |columns: &[usize]| -> Vec<Vec<&str>> {
         rows.iter()
@@ -220,6 +225,32 @@ pub(super) fn sale_details(
             })
             .count()
     };
+    // Codes (a digit, no space, nine in ten values at least) each on rows of one period,
+    // more of them than periods: receipts or orders of several lines, each of one day.
+    // Products recur over the periods; `None` where any value does.
+    let codes_per_period = |j: usize| -> Option<(usize, usize)> {
+        if rows.len() < 8
+            || periods.len() != rows.len()
+            || header_says(&table.column_name(j), &ITEM_WORDS)
+        {
+            return None;
+        }
+        let mut period_of: std::collections::HashMap<&str, &str> = std::collections::HashMap::new();
+        for (key, period) in keys(&[j]).into_iter().zip(periods) {
+            if *period_of.entry(key[0]).or_insert(period) != *period {
+                return None;
+            }
+        }
+        let code = |cell: &&str| {
+            cell.chars().any(|c| c.is_ascii_digit()) && !cell.chars().any(char::is_whitespace)
+        };
+        let codes = period_of.keys().filter(|c| code(c)).count();
+        let mut spanned: Vec<&str> = period_of.values().copied().collect();
+        spanned.sort_unstable();
+        spanned.dedup();
+        (codes * 10 >= period_of.len() * 9 && period_of.len() > spanned.len())
+            .then_some((period_of.len(), spanned.len()))
+    };
     let details: Vec<(usize, SaleDetail)> = item_columns
         .iter()
         .filter_map(|&j| {
@@ -227,7 +258,11 @@ pub(super) fn sale_details(
                 return Some((j, SaleDetail::Named(word)));
             }
             let once = codes_once(j);
-            (once * 2 > rows.len()).then_some((j, SaleDetail::OwnOnMostRows(once, rows.len())))
+            if once * 2 > rows.len() {
+                return Some((j, SaleDetail::OwnOnMostRows(once, rows.len())));
+            }
+            codes_per_period(j)
+                .map(|(codes, spanned)| (j, SaleDetail::OnePeriodEach(codes, spanned)))
         })
         .collect();
     let mut others: Vec<usize> = item_columns

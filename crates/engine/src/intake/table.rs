@@ -643,7 +643,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // A till, cashier, payment or receipt beside the item's name tells how it was sold, not
     // what ([`sale_details`]): rows added up across it.
     let details = match period {
-        Some(_) => sale_details(table, &rows, &item_columns, &named_numbers),
+        Some(_) => sale_details(table, &rows, &item_columns, &named_numbers, &period_refs),
         None => Vec::new(),
     };
     item_columns.retain(|j| !details.iter().any(|(k, _)| k == j));
