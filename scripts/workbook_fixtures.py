@@ -195,6 +195,31 @@ def review_shapes():
     ws.append([dt.datetime(2024, 2, 1), "Seed\npackets", "ten"])
     wb.save(f"{OUT}/line_break.xlsx")
 
+    # Display formats: money and percent shown, so written with their signs.
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Sales"
+    ws.append(["Month", "Units sold", "Takings", "Share"])
+    for k, m in enumerate(MONTHS[:6]):
+        ws.append([dt.datetime(m.year, m.month, 1), quantity(0, k), quantity(0, k) * 2.5, 0.125])
+        ws.cell(row=ws.max_row, column=3).number_format = '"$"#,##0.00'
+        ws.cell(row=ws.max_row, column=4).number_format = "0.0%"
+    wb.save(f"{OUT}/formats.xlsx")
+    with open(f"{OUT}/formats.csv", "w") as f:
+        lines = ["Month,Units sold,Takings,Share"]
+        lines += [
+            f"{m.isoformat()},{number(quantity(0, k))},${number(quantity(0, k) * 2.5)},12.5%"
+            for k, m in enumerate(MONTHS[:6])
+        ]
+        f.write("\n".join(lines) + "\n")
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Stock"
+    ws.append(["Item", "On hand", "On order"])
+    ws.append([ITEMS[0], 120, 0])
+    ws.cell(row=2, column=2).number_format = "[$€-407] #,##0"
+    wb.save(f"{OUT}/money_on_hand.xlsx")
+
     from openpyxl.chart import LineChart, Reference
 
     wb = openpyxl.Workbook()

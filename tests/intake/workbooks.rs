@@ -163,6 +163,24 @@ fn formulas_hidden_sheets_year_sheets_merged_cells_times_and_line_breaks() {
     let r = read_bytes(&bytes("chart_sheet.xlsx"));
     assert!(r.errors.is_empty(), "{:#?}", r.errors);
     assert_eq!(r.items.len(), 2);
+    // Money and percent formats written with their signs, so Intake sees them as the user
+    // does: a money column is no quantity, and a stock table refuses money as on hand.
+    let shown = history_text(&bytes("formats.xlsx")).expect("opens");
+    assert_eq!(shown.text, text("formats.csv"));
+    let r = read_bytes(&bytes("formats.xlsx"));
+    assert!(r
+        .warnings
+        .iter()
+        .any(|w| w.contains("\"Takings\"") && w.contains("money")));
+    let table = read_stock_table(
+        &bytes("money_on_hand.xlsx"),
+        &read_bytes(&bytes("sales.xlsx")),
+    );
+    let e = &table.errors[0];
+    assert_eq!(
+        (e.row, e.column.as_str(), e.text.as_str()),
+        (2, "On hand", "€120")
+    );
     // Two stock counts naming on hand: which is today's is the user's to say.
     let why = stock_table_text(&bytes("two_counts.xlsx")).expect_err("two counts");
     assert!(

@@ -2,8 +2,9 @@
 //! cells as comma-separated lines, one per sheet row.
 //!
 //! Kept apart from: opening the workbook and choosing the sheet (the parent module). Rules:
-//! - a number in full (15 significant digits, as a workbook shows at most), without its
-//!   display format, so a cell shown as money or a percent reads as its number;
+//! - a number in full (15 significant digits, as a workbook shows at most); of its display
+//!   format only a percent or currency sign is kept ("95%", "$40", [`shown_as`]), so a money
+//!   or percent column reads as one (an .xlsx file's formats; an .ods file's are not seen);
 //! - a date-formatted cell as a date (2024-03-01) and, with a time of day, "2024-03-01
 //!   14:30"; a time alone "14:30"; a duration as hours, minutes and seconds ("31:00:00"),
 //!   which no quantity column takes;
@@ -96,6 +97,61 @@ fn iso_duration(text: &str) -> Option<String> {
     }
     let seconds = seconds.round() as i64;
     Some(clock(seconds, seconds >= 86_400))
+}
+
+/// How a number cell's display format shows it, where that says what the number is: a
+/// percent (0.95 shown as 95%) or an amount of money (shown with a currency sign). Written
+/// so ("95%", "$40"), Intake's rules see what the user sees: a money or percent column is
+/// no quantity, and a stock table refuses money where it wants units.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub(super) enum Shown {
+    Percent,
+    Money(String),
+}
+
+/// What a display format's code (its first section, for positive numbers) shows a number
+/// as: a currency sign ($, €, £, ¥, ₹, or a "[$CHF-...]" locale tag) or a percent sign
+/// outside quoted text; `None` for any other format.
+pub(super) fn shown_as(code: &str) -> Option<Shown> {
+    let first = code.split(';').next().unwrap_or("");
+    if let Some(at) = first.find("[$") {
+        let sign: String = first[at + 2..]
+            .chars()
+            .take_while(|c| *c != '-' && *c != ']')
+            .collect();
+        if !sign.is_empty() {
+            return Some(Shown::Money(sign));
+        }
+    }
+    if let Some(sign) = ['$', '€', '£', '¥', '₹']
+        .into_iter()
+        .find(|c| first.contains(*c))
+    {
+        return Some(Shown::Money(sign.to_string()));
+    }
+    let mut quoted = false;
+    for c in first.chars() {
+        match c {
+            '"' => quoted = !quoted,
+            '%' if !quoted => return Some(Shown::Percent),
+            _ => {}
+        }
+    }
+    None
+}
+
+/// A number cell as its display format shows it ([`Shown`]); other cells as [`cell_text`].
+pub(super) fn shown_text(cell: &Data, shown: &Shown) -> String {
+    let value = match cell {
+        Data::Float(f) => *f,
+        Data::Int(i) => *i as f64,
+        other => return cell_text(other),
+    };
+    match shown {
+        Shown::Percent => format!("{}%", number_text(value * 100.0)),
+        Shown::Money(sign) if value < 0.0 => format!("-{sign}{}", number_text(-value)),
+        Shown::Money(sign) => format!("{sign}{}", number_text(value)),
+    }
 }
 
 /// A number with at most [`DIGITS`] significant digits, in plain decimals (no exponent), with
@@ -231,6 +287,36 @@ mod tests {
         check(Data::String("Seeds, early".into()), "Seeds, early");
         assert_eq!(quoted("Seeds, \"early\""), "\"Seeds, \"\"early\"\"\"");
         assert_eq!(quoted("Seeds"), "Seeds");
+    }
+
+    #[test]
+    fn money_and_percent_formats_are_written_as_shown() {
+        let money = |sign: &str| Some(Shown::Money(sign.to_string()));
+        for (code, shown) in [
+            ("General", None),
+            ("0.00", None),
+            ("#,##0", None),
+            ("0%", Some(Shown::Percent)),
+            ("0.00%", Some(Shown::Percent)),
+            ("\"$\"#,##0.00", money("$")),
+            ("[$€-407] #,##0.00", money("€")),
+            ("#,##0.00 [$CHF]", money("CHF")),
+            ("£#,##0;[Red]-£#,##0", money("£")),
+            ("0\" %\"", None),
+            ("yyyy-mm-dd", None),
+        ] {
+            assert_eq!(shown_as(code), shown, "{code}");
+        }
+        assert_eq!(shown_text(&Data::Float(0.955), &Shown::Percent), "95.5%");
+        assert_eq!(
+            shown_text(&Data::Float(40.0), &Shown::Money("$".into())),
+            "$40"
+        );
+        assert_eq!(shown_text(&Data::Int(-5), &Shown::Money("€".into())), "-€5");
+        assert_eq!(
+            shown_text(&Data::String("n/a".into()), &Shown::Percent),
+            "n/a"
+        );
     }
 
     /// Rows from the sheet's first, each up to its last filled cell, columns in place; a

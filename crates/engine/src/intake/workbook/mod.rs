@@ -26,7 +26,9 @@ use std::io::Cursor;
 
 use calamine::{Data, DataRef, Ods, Reader, SheetType, SheetVisible, Xlsx, XlsxFormulaMetadata};
 
-use cells::{cell_text, sheet_text};
+use std::collections::HashMap;
+
+use cells::{cell_text, sheet_text, shown_as, shown_text, Shown};
 
 /// A workbook's file starts with these: a zip archive (.xlsx, .xlsm, .ods) or an OLE compound
 /// file (.xls, and an .xlsx protected by a password).
@@ -124,6 +126,24 @@ fn xlsx_sheets(mut book: Xlsx<Cursor<&[u8]>>) -> Result<Vec<Sheet>, String> {
             });
             continue;
         }
+        // Cells whose display format shows money or a percent, from a first light pass.
+        let mut shown: HashMap<(u32, u32), Shown> = HashMap::new();
+        if let Ok(mut reader) = book.worksheet_cells_reader(&name) {
+            let styles: Vec<Option<Shown>> = reader
+                .styles()
+                .iter()
+                .map(|s| {
+                    s.number_format
+                        .as_ref()
+                        .and_then(|f| shown_as(&f.format_code))
+                })
+                .collect();
+            while let Ok(Some((row, column, style))) = reader.next_style_id() {
+                if let Some(Some(how)) = styles.get(style) {
+                    shown.insert((row, column), how.clone());
+                }
+            }
+        }
         let mut cells: Vec<(u32, u32, String)> = Vec::new();
         let mut unsaved = Vec::new();
         let unreadable = match book.worksheet_cells_reader(&name) {
@@ -143,7 +163,13 @@ fn xlsx_sheets(mut book: Xlsx<Cursor<&[u8]>>) -> Result<Vec<Sheet>, String> {
                                 unsaved.push((row + 1, column + 1, written.clone()));
                                 written
                             }
-                            (value, _) => cell_text(&Data::from(value.clone())),
+                            (value, _) => {
+                                let value = Data::from(value.clone());
+                                match shown.get(&(row, column)) {
+                                    Some(how) => shown_text(&value, how),
+                                    None => cell_text(&value),
+                                }
+                            }
                         };
                         if !text.is_empty() {
                             cells.push((row, column, text));
@@ -336,8 +362,8 @@ pub(crate) fn note(sheets: &[Sheet], read: &Sheet) -> String {
     };
     let mut note = format!(
         "read the sheet \"{}\" of the workbook, its cells as values (a formula's last result, \
-         dates as 2024-03-01, numbers without their display format: money or percent formats \
-         are not seen)",
+         dates as 2024-03-01, numbers in full, with a currency or percent sign where their \
+         format shows one)",
         read.name
     );
     if read.merged_down > 0 {
