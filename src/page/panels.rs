@@ -84,15 +84,17 @@ fn read_file(state: IntakeState, work: WorkState, file: File) {
         move |read, name, bytes| match read {
             Ok(file) => {
                 if !work.open_text(&file.text, &format!("the work file {name}")) {
-                    let sheet = file.sheet.clone();
+                    // The sheets the reading found: the workbook is not opened again.
+                    let (sheet, sheets) = (file.sheet.clone(), file.sheets.clone());
                     take_sheet(state, work, &name, file);
-                    offer_sheets(state, name, bytes, sheet);
+                    offer_sheets(state, name, bytes, sheets, sheet);
                 }
             }
             // The desk's text stays as it was: nothing of it is replaced by a failed read. A
             // workbook whose sheet to read is unclear offers its sheets.
             Err(why) => {
-                let choice = if offer_sheets(state, name.clone(), bytes, None) {
+                let sheets = intake::workbook_sheets(&bytes);
+                let choice = if offer_sheets(state, name.clone(), bytes, sheets, None) {
                     " Or choose the sheet to read below the box."
                 } else {
                     ""
@@ -115,10 +117,16 @@ fn take_sheet(state: IntakeState, work: WorkState, name: &str, file: intake::Fil
     }
 }
 
-/// Keeps a workbook of two readable sheets or more for the sheet choice, `sheet` the one in
-/// the box (`None`: none of it, which sheet to read being unclear); whether it was kept.
-fn offer_sheets(state: IntakeState, file: String, bytes: Vec<u8>, sheet: Option<String>) -> bool {
-    let sheets = intake::workbook_sheets(&bytes);
+/// Keeps a workbook of two readable sheets or more (`sheets`) for the sheet choice, `sheet`
+/// the one in the box (`None`: none of it, which sheet to read being unclear); whether it was
+/// kept.
+fn offer_sheets(
+    state: IntakeState,
+    file: String,
+    bytes: Vec<u8>,
+    sheets: Vec<String>,
+    sheet: Option<String>,
+) -> bool {
     let offered = sheets.len() >= 2;
     if offered {
         state.workbook.set(Some(OpenWorkbook {

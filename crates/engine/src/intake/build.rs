@@ -185,6 +185,21 @@ fn period_out_of_run(periods: &[Period]) -> Option<(usize, usize)> {
         })
 }
 
+/// A column's first three different values in sorted order, quoted, and ", ..." when it has
+/// more: how a warning shows what a column it left out holds.
+fn first_values(table: &Table, rows: &[&Record], column: usize) -> String {
+    let mut words: Vec<&str> = table
+        .column(column, rows)
+        .into_iter()
+        .filter(|c| !c.is_empty())
+        .collect();
+    words.sort_unstable();
+    words.dedup();
+    let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
+    let more = if words.len() > 3 { ", ..." } else { "" };
+    format!("{}{more}", shown.join(", "))
+}
+
 /// Each item's value cells as (index into `rows`, column), with whose values they are in a
 /// message: a value column in single and wide tables, the rows of one item in the value column
 /// of a long table (grouped as that layout groups them), a row in an across table.
@@ -381,26 +396,16 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         ));
     }
     for &j in &plan.notes {
-        let mut words: Vec<&str> = table
-            .column(j, &rows)
-            .into_iter()
-            .filter(|c| !c.trim().is_empty())
-            .collect();
-        words.sort_unstable();
-        words.dedup();
-        let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
-        let more = if words.len() > 3 { ", ..." } else { "" };
+        let words = first_values(table, &rows, j);
         let why = match plan.item_columns.first() {
             Some(&k) => format!(
                 "beside \"{}\", which names the items, it splits no item's period, so its words \
-                 ({}{more}) note the rows rather than name items",
+                 ({words}) note the rows rather than name items",
                 table.column_name(k),
-                shown.join(", ")
             ),
             None => format!(
-                "each period has one row, so its words ({}{more}) note the periods rather than \
-                 name items, and the table is read as one history",
-                shown.join(", ")
+                "each period has one row, so its words ({words}) note the periods rather than \
+                 name items, and the table is read as one history"
             ),
         };
         b.out.warnings.push(format!(
@@ -409,16 +414,6 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         ));
     }
     for (j, why) in &plan.details {
-        let mut words: Vec<&str> = table
-            .column(*j, &rows)
-            .into_iter()
-            .map(str::trim)
-            .filter(|c| !c.is_empty())
-            .collect();
-        words.sort_unstable();
-        words.dedup();
-        let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
-        let more = if words.len() > 3 { ", ..." } else { "" };
         let what = match why {
             SaleDetail::Named(word) => format!(
                 "its header's \"{word}\" names how or by whom a sale was rung up (a till, \
@@ -434,11 +429,11 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             ),
         };
         b.out.warnings.push(format!(
-            "column \"{}\" ({}{more}) was not used: {what}; each item's rows of one period \
-             were added up across it (if it names what was sold or where, call the column \
-             \"item\" or \"store\" and it is read so)",
+            "column \"{}\" ({}) was not used: {what}; each item's rows of one period were \
+             added up across it (if it names what was sold or where, call the column \"item\" \
+             or \"store\" and it is read so)",
             table.column_name(*j),
-            shown.join(", ")
+            first_values(table, &rows, *j)
         ));
     }
     for &j in &plan.not_quantities {

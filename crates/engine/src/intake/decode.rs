@@ -24,6 +24,7 @@ use super::RowError;
 const MAX_REPORTED_LINES: usize = 20;
 
 /// Decoded text and the lines whose bytes could not be decoded.
+#[derive(Default)]
 pub(crate) struct Decoded {
     pub text: String,
     pub errors: Vec<RowError>,
@@ -99,12 +100,8 @@ pub(crate) fn decode_choosing(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded
 /// opened or no sheet holds anything.
 fn from_workbook(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
     let refused = |why: String| Decoded {
-        text: String::new(),
-        errors: Vec::new(),
-        assumed: None,
-        sheet: None,
-        sheets: Vec::new(),
         refused: Some(why),
+        ..Decoded::default()
     };
     let sheets = match workbook::sheets(bytes) {
         Ok(sheets) => sheets,
@@ -119,14 +116,13 @@ fn from_workbook(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded {
         Ok(sheet) if !sheet.unsaved.is_empty() => refused(workbook::unsaved(sheet)),
         Ok(sheet) => Decoded {
             text: sheet.text.clone(),
-            errors: Vec::new(),
             assumed: Some(workbook::note(&sheets, sheet)),
             sheet: Some(sheet.name.clone()),
             sheets: workbook::readable(&sheets)
                 .into_iter()
                 .map(str::to_string)
                 .collect(),
-            refused: None,
+            ..Decoded::default()
         },
         Err(why) => refused(why),
     }
@@ -193,10 +189,7 @@ fn decode_utf8(bytes: &[u8]) -> Decoded {
     Decoded {
         text,
         errors,
-        assumed: None,
-        sheet: None,
-        sheets: Vec::new(),
-        refused: None,
+        ..Decoded::default()
     }
 }
 
@@ -245,10 +238,7 @@ fn decode_utf16(bytes: &[u8], little_endian: bool) -> Decoded {
     Decoded {
         text,
         errors,
-        assumed: None,
-        sheet: None,
-        sheets: Vec::new(),
-        refused: None,
+        ..Decoded::default()
     }
 }
 

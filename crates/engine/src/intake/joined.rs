@@ -406,12 +406,14 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
 /// first is read backwards (a review found fiscal years listed newest first misread).
 fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<RowError> {
     let periods = split.columns();
-    let cell = |row: &Record, j: usize| row.cells.get(j).map_or("", |c| c.trim()).to_string();
+    // Cells are trimmed when read, so they compare as they stand.
+    fn cell(row: &Record, j: usize) -> &str {
+        row.cells.get(j).map_or("", String::as_str)
+    }
     let mut items: Vec<Vec<usize>> = Vec::new();
-    let mut item_of: std::collections::HashMap<Vec<String>, usize> =
-        std::collections::HashMap::new();
+    let mut item_of: std::collections::HashMap<Vec<&str>, usize> = std::collections::HashMap::new();
     for (i, row) in rows.iter().enumerate() {
-        let name: Vec<String> = (0..table.width)
+        let name: Vec<&str> = (0..table.width)
             .filter(|j| !periods.contains(j))
             .map(|j| cell(row, j))
             .filter(|c| c.chars().any(char::is_alphabetic))
@@ -423,9 +425,7 @@ fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<
         }
         items[k].push(i);
     }
-    let month = |i: usize| match parse_label(
-        &split.label(|j| rows[i].cells.get(j).map_or("", String::as_str)),
-    ) {
+    let month = |i: usize| match parse_label(&split.label(|j| cell(rows[i], j))) {
         Some(Label::Month { month, .. }) | Some(Label::Date { month, .. }) => {
             Some(month).filter(|m| (1..=12).contains(m))
         }
@@ -472,7 +472,7 @@ fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<
     Some(RowError {
         row: row.line,
         column: year.clone(),
-        text: split.label(|j| row.cells.get(j).map_or("", String::as_str)),
+        text: split.label(|j| cell(row, j)),
         message: format!(
             "expected calendar years in the column \"{year}\": here an item's months within one \
              year run on past December into January, as a fiscal year's do, so the year is not \

@@ -9,6 +9,8 @@
 //! which ordinary tables it must leave alone, and `tests/intake/sales_reports.rs` holds both
 //! sides.
 
+use std::collections::HashMap;
+
 use super::label::{calendar_name, is_time_of_day, weekday_name, Family};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{
@@ -162,89 +164,61 @@ pub(super) fn sale_details(
     named_numbers: &[usize],
     periods: &[&str],
 ) -> Vec<(usize, SaleDetail)> {
-    let keys = |columns: &[usize]| -> Vec<Vec<&str>> {
-        rows.iter()
-            .map(|r| {
-                columns
-                    .iter()
-                    .map(|&j| r.cells.get(j).map_or("", |c| c.trim()))
-                    .collect()
-            })
-            .collect()
-    };
-    let distinct = |columns: &[usize]| {
-        let mut all = keys(columns);
-        all.sort_unstable();
-        all.dedup();
-        all.len()
-    };
+    let allowed: Vec<&str> = SALE_DETAIL_WORDS
+        .iter()
+        .chain(DETAIL_OTHER_WORDS.iter())
+        .copied()
+        .collect();
     let named = |j: usize| -> Option<String> {
-        let name = table.column_name(j);
-        let allowed: Vec<&str> = SALE_DETAIL_WORDS
-            .iter()
-            .chain(DETAIL_OTHER_WORDS.iter())
-            .copied()
-            .collect();
         table.header.as_ref()?;
-        let mut words: Vec<String> = header_words(&name)
-            .iter()
-            .map(|w| w.to_lowercase())
-            .collect();
-        while words
+        let name = table.column_name(j);
+        let words = header_words(&name);
+        let mut lower: Vec<String> = words.iter().map(|w| w.to_lowercase()).collect();
+        while lower
             .last()
             .is_some_and(|w| DETAIL_OTHER_WORDS.contains(&w.as_str()))
         {
-            words.pop();
+            lower.pop();
         }
-        if DETAIL_PHRASES.iter().any(|phrase| words == *phrase) {
+        if DETAIL_PHRASES.iter().any(|phrase| lower == *phrase) {
             return Some(name.clone());
         }
         if !header_is_only(&name, &allowed) {
             return None;
         }
-        header_words(&name)
+        words
             .into_iter()
             .find(|w| SALE_DETAIL_WORDS.iter().any(|d| w.eq_ignore_ascii_case(d)))
     };
-    // Rows whose cell is a code (a digit, no space) found on no other row. A column the
-    // header names as the item's or a place's is read so, however its values fall.
-    let codes_once = |j: usize| -> usize {
-        if rows.len() < 8 || header_says(&table.column_name(j), &ITEM_WORDS) {
-            return 0;
-        }
-        let mut counts: std::collections::HashMap<&str, usize> = std::collections::HashMap::new();
-        for cell in keys(&[j]).into_iter().map(|k| k[0]) {
+    // A column the header names as the item's or a place's is read so, however its values
+    // fall; and receipts need a few rows to show.
+    let may_be_receipts =
+        |j: usize| rows.len() >= 8 && !header_says(&table.column_name(j), &ITEM_WORDS);
+    // Rows whose cell is a code found on no other row.
+    let codes_once = |cells: &[&str]| -> usize {
+        let mut counts: HashMap<&str, usize> = HashMap::new();
+        for cell in cells {
             *counts.entry(cell).or_default() += 1;
         }
         counts
             .iter()
-            .filter(|(cell, n)| {
-                **n == 1
-                    && cell.chars().any(|c| c.is_ascii_digit())
-                    && !cell.chars().any(char::is_whitespace)
-            })
+            .filter(|(cell, n)| **n == 1 && is_code(cell))
             .count()
     };
-    // Codes (a digit, no space, nine in ten values at least) each on rows of one period,
-    // more of them than periods: receipts or orders of several lines, each of one day.
-    // Products recur over the periods; `None` where any value does.
-    let codes_per_period = |j: usize| -> Option<(usize, usize)> {
-        if rows.len() < 8
-            || periods.len() != rows.len()
-            || header_says(&table.column_name(j), &ITEM_WORDS)
-        {
+    // Codes (nine in ten values at least) each on rows of one period, more of them than
+    // periods: receipts or orders of several lines, each of one day. Products recur over
+    // the periods; `None` where any value does.
+    let codes_per_period = |cells: &[&str]| -> Option<(usize, usize)> {
+        if periods.len() != rows.len() {
             return None;
         }
-        let mut period_of: std::collections::HashMap<&str, &str> = std::collections::HashMap::new();
-        for (key, period) in keys(&[j]).into_iter().zip(periods) {
-            if *period_of.entry(key[0]).or_insert(period) != *period {
+        let mut period_of: HashMap<&str, &str> = HashMap::new();
+        for (cell, period) in cells.iter().zip(periods) {
+            if *period_of.entry(cell).or_insert(period) != *period {
                 return None;
             }
         }
-        let code = |cell: &&str| {
-            cell.chars().any(|c| c.is_ascii_digit()) && !cell.chars().any(char::is_whitespace)
-        };
-        let codes = period_of.keys().filter(|c| code(c)).count();
+        let codes = period_of.keys().filter(|c| is_code(c)).count();
         let mut spanned: Vec<&str> = period_of.values().copied().collect();
         spanned.sort_unstable();
         spanned.dedup();
@@ -257,11 +231,15 @@ pub(super) fn sale_details(
             if let Some(word) = named(j) {
                 return Some((j, SaleDetail::Named(word)));
             }
-            let once = codes_once(j);
+            if !may_be_receipts(j) {
+                return None;
+            }
+            let cells = table.column(j, rows);
+            let once = codes_once(&cells);
             if once * 2 > rows.len() {
                 return Some((j, SaleDetail::OwnOnMostRows(once, rows.len())));
             }
-            codes_per_period(j)
+            codes_per_period(&cells)
                 .map(|(codes, spanned)| (j, SaleDetail::OnePeriodEach(codes, spanned)))
         })
         .collect();
@@ -271,10 +249,30 @@ pub(super) fn sale_details(
         .filter(|j| !details.iter().any(|(k, _)| k == j))
         .collect();
     others.extend(named_numbers.iter().copied());
-    if others.is_empty() || distinct(&others) * 2 > rows.len() {
+    if others.is_empty() {
+        return Vec::new();
+    }
+    // The other columns' names must repeat: each row's joined key counted once.
+    let mut keys: Vec<Vec<&str>> = rows
+        .iter()
+        .map(|r| {
+            others
+                .iter()
+                .map(|&j| r.cells.get(j).map_or("", String::as_str))
+                .collect()
+        })
+        .collect();
+    keys.sort_unstable();
+    keys.dedup();
+    if keys.len() * 2 > rows.len() {
         return Vec::new();
     }
     details
+}
+
+/// A code as receipts and orders are numbered: a digit in it and no space.
+fn is_code(cell: &str) -> bool {
+    cell.chars().any(|c| c.is_ascii_digit()) && !cell.chars().any(char::is_whitespace)
 }
 
 /// The error for a grid of one item's values with part of the calendar across the header

@@ -126,24 +126,7 @@ fn xlsx_sheets(mut book: Xlsx<Cursor<&[u8]>>) -> Result<Vec<Sheet>, String> {
             });
             continue;
         }
-        // Cells whose display format shows money or a percent, from a first light pass.
-        let mut shown: HashMap<(u32, u32), Shown> = HashMap::new();
-        if let Ok(mut reader) = book.worksheet_cells_reader(&name) {
-            let styles: Vec<Option<Shown>> = reader
-                .styles()
-                .iter()
-                .map(|s| {
-                    s.number_format
-                        .as_ref()
-                        .and_then(|f| shown_as(&f.format_code))
-                })
-                .collect();
-            while let Ok(Some((row, column, style))) = reader.next_style_id() {
-                if let Some(Some(how)) = styles.get(style) {
-                    shown.insert((row, column), how.clone());
-                }
-            }
-        }
+        let shown = xlsx_shown(&mut book, &name);
         let mut cells: Vec<(u32, u32, String)> = Vec::new();
         let mut unsaved = Vec::new();
         let unreadable = match book.worksheet_cells_reader(&name) {
@@ -191,6 +174,29 @@ fn xlsx_sheets(mut book: Xlsx<Cursor<&[u8]>>) -> Result<Vec<Sheet>, String> {
         out.push(sheet);
     }
     Ok(out)
+}
+
+/// The cells of sheet `name` whose display format shows money or a percent ([`shown_as`]),
+/// from a light pass over their styles alone.
+fn xlsx_shown(book: &mut Xlsx<Cursor<&[u8]>>, name: &str) -> HashMap<(u32, u32), Shown> {
+    let mut shown = HashMap::new();
+    if let Ok(mut reader) = book.worksheet_cells_reader(name) {
+        let styles: Vec<Option<Shown>> = reader
+            .styles()
+            .iter()
+            .map(|s| {
+                s.number_format
+                    .as_ref()
+                    .and_then(|f| shown_as(&f.format_code))
+            })
+            .collect();
+        while let Ok(Some((row, column, style))) = reader.next_style_id() {
+            if let Some(Some(how)) = styles.get(style) {
+                shown.insert((row, column), how.clone());
+            }
+        }
+    }
+    shown
 }
 
 /// Gives each region merged down several rows its top cell's value on its other rows, in its
