@@ -8,20 +8,21 @@
 # DecompressionStream and starts it with init({ module_or_path: bytes }). Scripts still come
 # only from the page's own files (script-src 'self').
 #
-# Two boot modules: boot-HASH.js for the page (replacing trunk's loader in index.html) and
-# worker-HASH.js for the plan worker (named in index.html by <meta name="morrowcast-worker">,
-# which src/app/courier.rs reads). Trunk does not hash worker files, so the worker's glue is
+# Three boot modules: boot-HASH.js for the page (replacing trunk's loader in index.html),
+# worker-HASH.js for the plan worker and reader-HASH.js for the reading worker (each named in
+# index.html by a <meta name="morrowcast-worker"> or <meta name="morrowcast-reader">, which
+# src/page/courier.rs reads). Trunk does not hash worker files, so each worker's glue is
 # renamed with its hash too: a browser never mixes a cached worker with a newer page.
 set -euo pipefail
 dir=${TRUNK_STAGING_DIR:?run by trunk as a post_build hook}
 html="$dir/index.html"
-worker_wasm="$dir/morrowcast-worker_bg.wasm"
-worker_glue="$dir/morrowcast-worker.js"
-[ -f "$worker_wasm" ] && [ -f "$worker_glue" ] || {
-  echo "inline-wasm: the worker's files (morrowcast-worker.js, _bg.wasm) are missing" >&2
-  exit 1
-}
-app_wasm=$(ls "$dir"/*_bg.wasm | grep -v '/morrowcast-worker_bg.wasm$' | head -n 1 || true)
+for w in morrowcast-worker morrowcast-reader; do
+  [ -f "$dir/${w}_bg.wasm" ] && [ -f "$dir/$w.js" ] || {
+    echo "inline-wasm: the worker's files ($w.js, ${w}_bg.wasm) are missing" >&2
+    exit 1
+  }
+done
+app_wasm=$(ls "$dir"/*_bg.wasm | grep -v -e '/morrowcast-worker_bg.wasm$' -e '/morrowcast-reader_bg.wasm$' | head -n 1 || true)
 [ -n "$app_wasm" ] || { echo "inline-wasm: the page's .wasm is missing from $dir" >&2; exit 1; }
 app_glue=$(basename "${app_wasm%_bg.wasm}.js")
 [ -f "$dir/$app_glue" ] || { echo "inline-wasm: no glue $app_glue next to $app_wasm" >&2; exit 1; }
@@ -45,26 +46,37 @@ app_hash=$(sha256sum "$app_wasm" | cut -c1-16)
 boot="boot-$app_hash.js"
 boot_module "$app_glue" "$app_wasm" "the page's .wasm" > "$dir/$boot"
 
-worker_hash=$(cat "$worker_wasm" "$worker_glue" | sha256sum | cut -c1-16)
-worker_glue_name="morrowcast-worker-$worker_hash.js"
-worker_boot="worker-$worker_hash.js"
-mv "$worker_glue" "$dir/$worker_glue_name"
-boot_module "$worker_glue_name" "$worker_wasm" "the plan worker's .wasm" > "$dir/$worker_boot"
-# Both .wasm files stay in dist/ (never fetched) so their sizes can be measured there.
+# make_worker_boot NAME PREFIX WHAT: hashes the worker NAME's glue and .wasm, renames its glue with
+# the hash and writes its boot module PREFIX-HASH.js; sets made_boot and made_glue to their names.
+make_worker_boot() {
+  local hash
+  hash=$(cat "$dir/${1}_bg.wasm" "$dir/$1.js" | sha256sum | cut -c1-16)
+  made_glue="$1-$hash.js"
+  made_boot="$2-$hash.js"
+  mv "$dir/$1.js" "$dir/$made_glue"
+  boot_module "$made_glue" "$dir/${1}_bg.wasm" "$3" > "$dir/$made_boot"
+}
+make_worker_boot morrowcast-worker worker "the plan worker's .wasm"
+worker_boot=$made_boot worker_glue_name=$made_glue
+make_worker_boot morrowcast-reader reader "the reading worker's .wasm"
+reader_boot=$made_boot reader_glue_name=$made_glue
+# The .wasm files stay in dist/ (never fetched) so their sizes can be measured there.
 
 # Drop trunk's inline loader and the .wasm preloads (both fetch); load the boot module instead.
 perl -0pi -e '
   s{<script type="module"[^>]*>\s*import init.*?</script>}{}s;
   s{<link rel="preload"[^>]*\.wasm"[^>]*>}{}g;
   s{<link[^>]*href="[^"]*\.wasm"[^>]*>}{}g;
-  s{<link[^>]*href="[^"]*morrowcast-worker[^"]*"[^>]*>}{}g;
+  s{<link[^>]*href="[^"]*morrowcast-(?:worker|reader)[^"]*"[^>]*>}{}g;
 ' "$html"
-perl -0pi -e "s{</head>}{<meta name=\"morrowcast-worker\" content=\"./$worker_boot\">\n<script type=\"module\" src=\"./$boot\"></script>\n</head>}" "$html"
+perl -0pi -e "s{</head>}{<meta name=\"morrowcast-worker\" content=\"./$worker_boot\">\n<meta name=\"morrowcast-reader\" content=\"./$reader_boot\">\n<script type=\"module\" src=\"./$boot\"></script>\n</head>}" "$html"
 if grep -q 'import init' "$html"; then
   echo "inline-wasm: trunk's loader is still in index.html; update this script" >&2
   exit 1
 fi
 # The same app as one file that runs from disk (dist/morrowcast.html).
-bash "$(dirname "$0")/single-file.sh" "$dir" "$boot" "$app_glue" "$worker_boot" "$worker_glue_name"
+bash "$(dirname "$0")/single-file.sh" "$dir" "$boot" "$app_glue" "$worker_boot" "$worker_glue_name" \
+  "$reader_boot" "$reader_glue_name"
 echo "inline-wasm: $(basename "$app_wasm") ($(stat -c %s "$app_wasm") bytes) into $boot ($(stat -c %s "$dir/$boot") bytes);" \
-  "the worker's .wasm into $worker_boot ($(stat -c %s "$dir/$worker_boot") bytes)"
+  "the plan worker's .wasm into $worker_boot ($(stat -c %s "$dir/$worker_boot") bytes);" \
+  "the reading worker's .wasm into $reader_boot ($(stat -c %s "$dir/$reader_boot") bytes)"

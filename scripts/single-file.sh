@@ -5,19 +5,21 @@
 # Why one file: a page opened from disk may not load module scripts or workers from other
 # files (a file's origin is opaque), so everything is inside: the stylesheet, the icon (a
 # data: address), the page's module (its wasm-bindgen glue and boot code, with the .wasm
-# gzip + base64 inside, as scripts/inline-wasm.sh makes it) and the plan worker's module (the
-# same, carried in a data block the page starts as a data: worker, src/page/courier.rs).
+# gzip + base64 inside, as scripts/inline-wasm.sh makes it) and the two workers' modules (the
+# same, each carried in a data block the page starts as a data: worker, src/page/courier.rs;
+# the reading worker's only at the first large text or workbook).
 # Its Content-Security-Policy still forbids every connection; the inline script and style are
 # allowed by their SHA-256 hashes only.
 #
 # Called by scripts/inline-wasm.sh (the trunk post-build hook) with the staging directory and
-# the boot modules and glue it made: DIR PAGE_BOOT PAGE_GLUE WORKER_BOOT WORKER_GLUE.
+# the boot modules and glue it made: DIR PAGE_BOOT PAGE_GLUE WORKER_BOOT WORKER_GLUE READER_BOOT
+# READER_GLUE.
 set -euo pipefail
-[ $# -eq 5 ] || { echo "single-file: DIR PAGE_BOOT PAGE_GLUE WORKER_BOOT WORKER_GLUE" >&2; exit 1; }
-SF_DIR=$1 SF_PAGE_BOOT=$2 SF_PAGE_GLUE=$3 SF_WORKER_BOOT=$4 SF_WORKER_GLUE=$5
+[ $# -eq 7 ] || { echo "single-file: DIR PAGE_BOOT PAGE_GLUE WORKER_BOOT WORKER_GLUE READER_BOOT READER_GLUE" >&2; exit 1; }
+SF_DIR=$1 SF_PAGE_BOOT=$2 SF_PAGE_GLUE=$3 SF_WORKER_BOOT=$4 SF_WORKER_GLUE=$5 SF_READER_BOOT=$6 SF_READER_GLUE=$7
 SF_CSS=$(ls "$SF_DIR"/main-*.css | head -n 1)
 SF_ICON=$(ls "$SF_DIR"/favicon-*.svg | head -n 1)
-export SF_DIR SF_PAGE_BOOT SF_PAGE_GLUE SF_WORKER_BOOT SF_WORKER_GLUE SF_CSS SF_ICON
+export SF_DIR SF_PAGE_BOOT SF_PAGE_GLUE SF_WORKER_BOOT SF_WORKER_GLUE SF_READER_BOOT SF_READER_GLUE SF_CSS SF_ICON
 perl - <<'PERL'
 use strict;
 use warnings;
@@ -49,8 +51,9 @@ sub module_of {
 
 my $page = module_of($ENV{SF_PAGE_GLUE}, $ENV{SF_PAGE_BOOT});
 my $worker = module_of($ENV{SF_WORKER_GLUE}, $ENV{SF_WORKER_BOOT});
+my $reader = module_of($ENV{SF_READER_GLUE}, $ENV{SF_READER_BOOT});
 my $css = slurp($ENV{SF_CSS});
-for ([$page, 'script'], [$worker, 'script'], [$css, 'style']) {
+for ([$page, 'script'], [$worker, 'script'], [$reader, 'script'], [$css, 'style']) {
     my ($text, $tag) = @$_;
     die "single-file: a '</$tag' inside would end the element early\n" if $text =~ m{</$tag}i;
 }
@@ -63,7 +66,7 @@ my $html = slurp("$dir/index.html");
 $html =~ s{<link rel="stylesheet"[^>]*>}{}g;
 $html =~ s{<link rel="icon"[^>]*>}{}g;
 $html =~ s{<link rel="modulepreload"[^>]*>}{}g;
-$html =~ s{<meta name="morrowcast-worker"[^>]*>}{}g;
+$html =~ s{<meta name="morrowcast-(?:worker|reader)"[^>]*>}{}g;
 $html =~ s{<script type="module" src="[^"]*"></script>}{}g;
 my $script_src = $hash->($page);
 my $style_src = $hash->($css);
@@ -77,6 +80,7 @@ $html =~ s{worker-src blob:}{worker-src data:} or die "single-file: worker-src n
 my $inside = "<style>$css</style>\n"
     . "<link rel=\"icon\" href=\"data:image/svg+xml;base64,$icon\">\n"
     . "<script type=\"text/x-morrowcast-worker\" id=\"morrowcast-worker-source\">$worker</script>\n"
+    . "<script type=\"text/x-morrowcast-worker\" id=\"morrowcast-reader-source\">$reader</script>\n"
     . "<script type=\"module\">$page</script>\n";
 $html =~ s{</head>}{$inside</head>} or die "single-file: no </head>\n";
 die "single-file: a file reference is left in the page\n" if $html =~ m{(?:src|href)="\./}i;

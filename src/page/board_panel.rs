@@ -8,7 +8,6 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
-use morrowcast_engine::intake;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
@@ -20,6 +19,7 @@ use super::browser;
 use super::export::file_name;
 use super::panels::{chosen_file, dropped_file, read_local_file, source_of, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
+use crate::worker::reading::{BookWant, Refused};
 use crate::worker::{BoardFigures, BoardRow, BoardStock};
 
 fn percent(v: f64) -> String {
@@ -363,13 +363,14 @@ pub fn StockPanel() -> impl IntoView {
     let take = move |file: web_sys::File| {
         read_local_file(
             file,
-            intake::stock_table_text,
+            BookWant::StockTable,
+            move |name| table_source.set(format!("{name} (reading the workbook\u{2026})")),
             move |read, name, _| match read {
                 Ok(file) => {
                     table_source.set(source_of(&name, &file));
                     board.table_text.set(file.text);
                 }
-                Err(why) => {
+                Err(Refused { why, .. }) => {
                     board.table_text.set(String::new());
                     table_source.set(format!("{name} (not read: {why})"));
                 }

@@ -9,6 +9,7 @@
 use std::cell::RefCell;
 use std::rc::Rc;
 
+use crate::worker::reading::{ReadNews, ReadingWorker};
 use crate::worker::{Arrival, AskQueue, PlanAnswer, PlanAsk, PlanWorker, WorkerAsk, WorkerNews};
 use gloo_worker::{Spawnable, WorkerBridge};
 
@@ -16,9 +17,28 @@ use super::browser::{blob_url, now_ms};
 use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 
-/// Where the worker's boot module is named: index.html gets a `<meta name="...">` from
-/// scripts/inline-wasm.sh (its file name carries a hash, so a stale cached copy is never used).
-const WORKER_META: &str = "morrowcast-worker";
+/// One of the page's worker modules: where index.html names its boot module (a `<meta
+/// name="...">` from scripts/inline-wasm.sh; its file name carries a hash, so a stale cached
+/// copy is never used) and the id of the data block that carries the whole module in the
+/// single file (scripts/single-file.sh: a page opened from disk may load no other file).
+#[derive(Clone, Copy)]
+pub struct WorkerFile {
+    meta: &'static str,
+    inline_id: &'static str,
+}
+
+/// The plan worker (src/bin/morrowcast-worker.rs): plans and the board's rows.
+pub const PLAN_WORKER: WorkerFile = WorkerFile {
+    meta: "morrowcast-worker",
+    inline_id: "morrowcast-worker-source",
+};
+
+/// The reading worker (src/bin/morrowcast-reader.rs), started at the first large text or
+/// workbook.
+pub const READING_WORKER: WorkerFile = WorkerFile {
+    meta: "morrowcast-reader",
+    inline_id: "morrowcast-reader-source",
+};
 
 type Deliver = Rc<dyn Fn(PlanAnswer)>;
 type Report = Rc<dyn Fn(usize, usize)>;
@@ -44,45 +64,45 @@ pub struct Courier {
     inner: Rc<RefCell<Inner>>,
 }
 
-/// The id of the data block that carries the worker's whole module in the single file
-/// (scripts/single-file.sh): a page opened from disk may load no other file.
-const INLINE_WORKER_ID: &str = "morrowcast-worker-source";
-
 thread_local! {
-    /// The `data:` address of the inline worker's module, made once and kept (every worker of
-    /// the page starts from it).
-    static INLINE_WORKER: std::cell::OnceCell<Option<String>> = const { std::cell::OnceCell::new() };
+    /// The `data:` address of each inline worker module, by its block's id, made once and
+    /// kept (every worker of the kind starts from it).
+    static INLINE_WORKERS: RefCell<std::collections::HashMap<&'static str, Option<String>>> =
+        RefCell::new(std::collections::HashMap::new());
 }
 
-/// The `data:` address of the worker module the page carries inside itself, when it does.
+/// The `data:` address of a worker module the page carries inside itself, when it does.
 ///
 /// Why `data:` and not `blob:`: a page opened from disk has an opaque origin, and Chromium
 /// 156 refused a module worker from its `blob:` address ("Refused to cross-origin redirects
 /// of the top-level worker script"). A `data:` worker inherits the page's policy just as a
 /// `blob:` one does (CSP Level 3: local schemes), so `connect-src 'none'` still binds it.
-fn inline_worker() -> Option<String> {
-    INLINE_WORKER.with(|cell| {
-        cell.get_or_init(|| {
-            let doc = web_sys::window()?.document()?;
-            let code = doc.get_element_by_id(INLINE_WORKER_ID)?.text_content()?;
-            let encoded: String = js_sys::encode_uri_component(&code).into();
-            Some(format!("data:text/javascript,{encoded}"))
-        })
-        .clone()
+fn inline_worker(file: WorkerFile) -> Option<String> {
+    INLINE_WORKERS.with(|cells| {
+        cells
+            .borrow_mut()
+            .entry(file.inline_id)
+            .or_insert_with(|| {
+                let doc = web_sys::window()?.document()?;
+                let code = doc.get_element_by_id(file.inline_id)?.text_content()?;
+                let encoded: String = js_sys::encode_uri_component(&code).into();
+                Some(format!("data:text/javascript,{encoded}"))
+            })
+            .clone()
     })
 }
 
 /// The address a worker starts from: the page's own worker module (the single file), or a
 /// `blob:` module that imports the worker boot module index.html names (the served site).
-fn worker_address() -> Option<String> {
-    inline_worker().or_else(|| worker_blob(&worker_module()?))
+fn worker_address(file: WorkerFile) -> Option<String> {
+    inline_worker(file).or_else(|| worker_blob(&worker_module(file)?))
 }
 
-/// The worker's boot module as index.html names it, as an absolute address.
-fn worker_module() -> Option<String> {
+/// A worker's boot module as index.html names it, as an absolute address.
+fn worker_module(file: WorkerFile) -> Option<String> {
     let doc = web_sys::window()?.document()?;
     let meta = doc
-        .query_selector(&format!("meta[name=\"{WORKER_META}\"]"))
+        .query_selector(&format!("meta[name=\"{}\"]", file.meta))
         .ok()??;
     let path = meta.get_attribute("content")?;
     let base = doc.base_uri().ok()??;
@@ -124,7 +144,7 @@ fn module_workers_supported() -> bool {
     let _ = js_sys::Reflect::define_property(&options, &"type".into(), &descriptor);
     // An empty module: nothing runs, nothing is fetched. The single file starts its workers
     // from data: addresses (see [`inline_worker`]), the served page from blob: ones.
-    if inline_worker().is_some() {
+    if inline_worker(PLAN_WORKER).is_some() {
         if let Ok(w) =
             web_sys::Worker::new_with_options("data:text/javascript,", options.unchecked_ref())
         {
@@ -164,7 +184,7 @@ impl NoWorker {
 
 /// Whether the page can start its workers, and why not.
 pub fn can_start_workers() -> Result<(), NoWorker> {
-    if worker_module().is_none() && inline_worker().is_none() {
+    if worker_module(PLAN_WORKER).is_none() && inline_worker(PLAN_WORKER).is_none() {
         return Err(NoWorker::NotBuilt);
     }
     if !module_workers_supported() {
@@ -176,9 +196,23 @@ pub fn can_start_workers() -> Result<(), NoWorker> {
 /// Starts one plan worker under the page's policy (see [`worker_blob`]); `news` hears what it
 /// sends. `None` when the page names no worker module.
 pub fn spawn_worker(news: impl Fn(WorkerNews) + 'static) -> Option<WorkerBridge<PlanWorker>> {
-    let path = worker_address()?;
+    let path = worker_address(PLAN_WORKER)?;
     Some(
         PlanWorker::spawner()
+            .callback(news)
+            .with_loader(true)
+            .spawn(&path),
+    )
+}
+
+/// Starts the reading worker as [`spawn_worker`] starts a plan worker; `None` when the page
+/// names no reading worker module.
+pub fn spawn_reading_worker(
+    news: impl Fn(ReadNews) + 'static,
+) -> Option<WorkerBridge<ReadingWorker>> {
+    let path = worker_address(READING_WORKER)?;
+    Some(
+        ReadingWorker::spawner()
             .callback(news)
             .with_loader(true)
             .spawn(&path),
@@ -216,8 +250,8 @@ impl Courier {
                         done,
                         total,
                     } => Courier { inner }.progressed(ticket, done, total),
-                    // Board batches and readings go to other workers, never to this one.
-                    WorkerNews::Rows { .. } | WorkerNews::Read { .. } => {}
+                    // Board batches go to other workers, never to this one.
+                    WorkerNews::Rows { .. } => {}
                 }
             }
         })?;

@@ -13,35 +13,45 @@ use morrowcast_engine::{demo, intake};
 use wasm_bindgen_futures::JsFuture;
 use web_sys::{File, HtmlInputElement};
 
+use crate::worker::reading::{BookWant, Refused};
+
+use super::reader::read_workbook;
 use super::settings::{LEVEL_CHOICES, RANK_CHOICES};
 use super::state::{
     IntakeState, OpenWorkbook, PlanState, WorkNotice, WorkState, DEMO_SOURCE, LARGE_TEXT,
 };
 use super::words;
 
-/// Reads a file locally; `done` gets its text as `as_text` takes it from the bytes (a
-/// history's or a stock table's: a workbook's sheet for each), or why it could not be read,
-/// and the file's name. The bytes are decoded by the engine (UTF-8, or UTF-16 with its
+/// Reads a file locally; `done` gets its text (a workbook's sheet as `want` says, read in the
+/// workbook worker, after `reading` is told the file's name), or why it could not be read,
+/// with the file's name and bytes. Text is decoded by the engine (UTF-8, or UTF-16 with its
 /// byte-order mark), not by the browser's `text()`, which would replace what it cannot read
 /// without a word; the engine's marks for such bytes are reported by the reader, line by line.
 pub(super) fn read_local_file(
     file: File,
-    as_text: fn(&[u8]) -> Result<intake::FileText, String>,
-    done: impl FnOnce(Result<intake::FileText, String>, String, Vec<u8>) + 'static,
+    want: BookWant,
+    reading: impl FnOnce(&str) + 'static,
+    done: impl FnOnce(Result<intake::FileText, Refused>, String, Vec<u8>) + 'static,
 ) {
     let name = file.name();
     spawn_local(async move {
         match JsFuture::from(file.array_buffer()).await {
             Ok(buffer) => {
                 let bytes = js_sys::Uint8Array::new(&buffer).to_vec();
-                done(as_text(&bytes), name, bytes)
+                if intake::is_workbook(&bytes) {
+                    reading(&name);
+                    read_workbook(bytes.clone(), want, move |read| done(read, name, bytes));
+                } else {
+                    done(Ok(intake::text_file(&bytes)), name, bytes)
+                }
             }
             Err(_) => done(
-                Err(
-                    "the browser could not read the file: choose it again, or paste its \
-                     contents"
+                Err(Refused {
+                    why: "the browser could not read the file: choose it again, or paste its \
+                          contents"
                         .to_string(),
-                ),
+                    sheets: Vec::new(),
+                }),
                 name,
                 Vec::new(),
             ),
@@ -80,7 +90,8 @@ pub(super) fn dropped_file(ev: &leptos::ev::DragEvent) -> Option<File> {
 fn read_file(state: IntakeState, work: WorkState, file: File) {
     read_local_file(
         file,
-        intake::history_text,
+        BookWant::History,
+        move |name| reading_notice(work, name),
         move |read, name, bytes| match read {
             Ok(file) => {
                 if !work.open_text(&file.text, &format!("the work file {name}")) {
@@ -92,8 +103,7 @@ fn read_file(state: IntakeState, work: WorkState, file: File) {
             }
             // The desk's text stays as it was: nothing of it is replaced by a failed read. A
             // workbook whose sheet to read is unclear offers its sheets.
-            Err(why) => {
-                let sheets = intake::workbook_sheets(&bytes);
+            Err(Refused { why, sheets }) => {
                 let choice = if offer_sheets(state, name.clone(), bytes, sheets, None) {
                     " Or choose the sheet to read below the box."
                 } else {
@@ -105,6 +115,13 @@ fn read_file(state: IntakeState, work: WorkState, file: File) {
             }
         },
     );
+}
+
+/// Says that a workbook is being read (in its worker; a large one takes a while).
+fn reading_notice(work: WorkState, name: &str) {
+    work.notice.set(Some(WorkNotice::Opened(format!(
+        "Reading the workbook {name}\u{2026}"
+    ))));
 }
 
 /// Puts a file's text (a workbook's sheet) in the box, saying what was read of a workbook
@@ -150,18 +167,24 @@ fn SheetChoice() -> impl IntoView {
         let Some(book) = state.workbook.get_untracked() else {
             return;
         };
-        match intake::history_text_of_sheet(&book.bytes, &name) {
-            Ok(file) => {
-                take_sheet(state, work, &book.file, file);
-                state.workbook.set(Some(OpenWorkbook {
-                    sheet: Some(name),
-                    ..book
-                }));
-            }
-            Err(why) => work
-                .notice
-                .set(Some(WorkNotice::Refused(format!("{}: {why}.", book.file)))),
-        }
+        reading_notice(work, &book.file);
+        let bytes = book.bytes.as_ref().clone();
+        read_workbook(
+            bytes,
+            BookWant::Sheet(name.clone()),
+            move |read| match read {
+                Ok(file) => {
+                    take_sheet(state, work, &book.file, file);
+                    state.workbook.set(Some(OpenWorkbook {
+                        sheet: Some(name),
+                        ..book
+                    }));
+                }
+                Err(Refused { why, .. }) => work
+                    .notice
+                    .set(Some(WorkNotice::Refused(format!("{}: {why}.", book.file)))),
+            },
+        );
     };
     move || {
         state.workbook.get().map(|book| {

@@ -1,53 +1,165 @@
-//! The page's reader of large texts: Intake's reading of a table over the Intake state's
-//! `LARGE_TEXT` bytes runs in a worker of its own, so a pasted or opened file of thousands of
-//! items does not freeze the page while it is read.
+//! The page's side of the reading worker: Intake's reading of a table over the Intake state's
+//! `LARGE_TEXT` bytes, and every workbook, go to it (started at the first of them), so a
+//! pasted or opened file of thousands of items, or a large workbook, does not freeze the page.
 //!
-//! Kept apart from: what reading means (the engine's `intake::read`, the same function the page
-//! calls itself for smaller texts, so a report does not depend on where it was made) and the
-//! Intake state (state/intake.rs decides when to ask and which answer is current).
+//! Kept apart from: what reading means (src/worker/reading.rs, over the engine's
+//! `intake::read`, the same function the page calls itself for smaller texts, so a report does
+//! not depend on where it was made), the Intake state (state/intake.rs decides when to ask and
+//! which answer is current) and what the page does with a sheet's text (panels.rs,
+//! board_panel.rs). One worker answers in the order asked, so of two workbooks dropped one
+//! after the other the later one's text is the last to arrive.
 
 use std::cell::RefCell;
+use std::collections::HashMap;
 use std::rc::Rc;
 
 use gloo_worker::WorkerBridge;
-use morrowcast_engine::intake::IntakeReport;
+use leptos::prelude::*;
+use morrowcast_engine::intake::{FileText, IntakeReport};
 
-use super::courier::{can_start_workers, spawn_worker};
-use crate::worker::{PlanWorker, WorkerAsk, WorkerNews};
+use super::courier::{can_start_workers, spawn_reading_worker, NoWorker};
+use crate::worker::reading::{
+    BookAsk, BookWant, ReadAsk, ReadNews, ReadingWorker, Refused, READ_FAULT_PREFIX,
+};
 
 type Deliver = Rc<dyn Fn(u64, IntakeReport)>;
+type Done = Box<dyn FnOnce(Result<FileText, Refused>)>;
 
-/// The page's handle on its reading worker (started at the first large text); cheap to clone.
-#[derive(Clone)]
-pub struct Reader {
-    bridge: Rc<RefCell<Option<WorkerBridge<PlanWorker>>>>,
-    deliver: Deliver,
+/// The page's one reading worker and who waits for its answers.
+#[derive(Default)]
+struct Reading {
+    bridge: Option<WorkerBridge<ReadingWorker>>,
+    /// Where large texts' reports go (the Intake state's [`Reader`]).
+    texts: Option<Deliver>,
+    /// Each workbook's callback, by its ticket.
+    books: HashMap<u64, Done>,
+    next_book: u64,
+    /// Whether the page listens for the worker's faults yet (from its first start).
+    listening: bool,
 }
+
+thread_local! {
+    static READING: RefCell<Reading> = RefCell::new(Reading::default());
+}
+
+/// Sends `ask` to the reading worker, starting it first if need be; `Err` when it cannot be
+/// started (the page names no reading worker).
+fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
+    if reading.bridge.is_none() {
+        reading.bridge = spawn_reading_worker(arrived);
+        if !reading.listening {
+            reading.listening = true;
+            listen_for_faults();
+        }
+    }
+    let bridge = reading.bridge.as_ref().ok_or(NoWorker::NotBuilt)?;
+    bridge.send(ask);
+    Ok(())
+}
+
+fn arrived(news: ReadNews) {
+    match news {
+        ReadNews::Text { ticket, report } => {
+            let deliver = READING.with(|r| r.borrow().texts.clone());
+            // Outside the borrow: delivering updates the page, which may ask again at once.
+            if let Some(deliver) = deliver {
+                deliver(ticket, *report);
+            }
+        }
+        ReadNews::Workbook(answer) => {
+            let done = READING.with(|r| r.borrow_mut().books.remove(&answer.ticket));
+            if let Some(done) = done {
+                done(answer.read);
+            }
+        }
+    }
+}
+
+/// A fault of the reading worker (a panic thrown as an error naming it): every workbook it was
+/// reading is refused in words, and the next ask starts a new worker. A large text's reading
+/// is asked again at its next change.
+fn listen_for_faults() {
+    let listener = window_event_listener(leptos::ev::error, move |e| {
+        let message = e.message();
+        let Some(at) = message.find(READ_FAULT_PREFIX) else {
+            return;
+        };
+        e.prevent_default();
+        let detail = message[at + READ_FAULT_PREFIX.len()..].to_string();
+        let waiting: Vec<Done> = READING.with(|r| {
+            let mut r = r.borrow_mut();
+            r.bridge = None;
+            r.books.drain().map(|(_, done)| done).collect()
+        });
+        for done in waiting {
+            done(Err(Refused {
+                why: format!(
+                    "Morrowcast's workbook reader failed on it (a fault of ours: {detail}); save \
+                     the sheet with the sales as CSV and read that"
+                ),
+                sheets: Vec::new(),
+            }));
+        }
+    });
+    // The page lives as long as the tab.
+    std::mem::forget(listener);
+}
+
+/// The page's handle on the reading of large texts; cheap to clone.
+#[derive(Clone)]
+pub struct Reader;
 
 impl Reader {
     /// A reader whose answers go to `deliver` (with the ticket they were asked with); `None`
     /// when this page cannot start workers (the page then reads every text itself).
     pub fn new(deliver: impl Fn(u64, IntakeReport) + 'static) -> Option<Reader> {
         can_start_workers().ok()?;
-        Some(Reader {
-            bridge: Rc::new(RefCell::new(None)),
-            deliver: Rc::new(deliver),
-        })
+        READING.with(|r| r.borrow_mut().texts = Some(Rc::new(deliver)));
+        Some(Reader)
     }
 
     /// Asks for the report of `text`; an answer to an older ask still comes, with its ticket.
     pub fn read(&self, ticket: u64, text: String) {
-        let mut bridge = self.bridge.borrow_mut();
-        if bridge.is_none() {
-            let deliver = self.deliver.clone();
-            *bridge = spawn_worker(move |news| {
-                if let WorkerNews::Read { ticket, report } = news {
-                    deliver(ticket, *report);
-                }
-            });
+        READING.with(|r| {
+            let _ = send(&mut r.borrow_mut(), ReadAsk::Text { ticket, text });
+        });
+    }
+}
+
+/// Reads the workbook in `bytes` in the reading worker; `done` gets the text `want` names, or
+/// why there is none (and the sheets that could be read instead).
+pub fn read_workbook(
+    bytes: Vec<u8>,
+    want: BookWant,
+    done: impl FnOnce(Result<FileText, Refused>) + 'static,
+) {
+    let sent = can_start_workers().and_then(|()| {
+        READING.with(|r| {
+            let r = &mut *r.borrow_mut();
+            let ticket = r.next_book;
+            r.next_book += 1;
+            send(
+                r,
+                ReadAsk::Workbook(BookAsk {
+                    ticket,
+                    bytes,
+                    want,
+                }),
+            )
+            .map(|()| ticket)
+        })
+    });
+    // The answer comes in a later task of the page, so `done` is in place before it.
+    match sent {
+        Ok(ticket) => {
+            READING.with(|r| r.borrow_mut().books.insert(ticket, Box::new(done)));
         }
-        if let Some(b) = bridge.as_ref() {
-            b.send(WorkerAsk::Read { ticket, text });
-        }
+        Err(no) => done(Err(Refused {
+            why: format!(
+                "{}; save the sheet with the sales as CSV and read that",
+                no.words()
+            ),
+            sheets: Vec::new(),
+        })),
     }
 }

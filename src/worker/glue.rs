@@ -49,12 +49,6 @@ impl Worker for PlanWorker {
     fn received(&mut self, scope: &WorkerScope<Self>, ask: WorkerAsk, id: HandlerId) {
         let ask = match ask {
             WorkerAsk::Plan(ask) => ask,
-            WorkerAsk::Read { ticket, text } => {
-                ANSWERING.with(|a| a.set(ticket));
-                let report = Box::new(morrowcast_engine::intake::read(&text));
-                scope.respond(id, WorkerNews::Read { ticket, report });
-                return;
-            }
             WorkerAsk::Board(batch) => {
                 ANSWERING.with(|a| a.set(batch.ticket));
                 let t0 = now_ms();

@@ -13,8 +13,9 @@
 //! [`WorkerNews::Rows`] back ([`board`]: each item planned with its Stock plan, boiled down to
 //! its row).
 //!
-//! A text over 200 KB is read by a worker of its own ([`WorkerAsk::Read`], answered by
-//! [`WorkerNews::Read`] with the engine's intake report).
+//! A text over 200 KB and a workbook are read by a worker built apart ([`reading`]: its own
+//! wasm, loaded at the first of them), so this one holds neither Intake nor the workbook
+//! reader.
 //!
 //! Parts: [`protocol`] (the messages and the fault words), [`desk`] (the worker's whole logic,
 //! pure), [`queue`] (the page's side: tickets, one ask in flight, the newest waiting; pure), and
@@ -25,6 +26,7 @@ pub mod board;
 pub mod desk;
 pub mod protocol;
 pub mod queue;
+pub mod reading;
 
 #[cfg(target_arch = "wasm32")]
 mod glue;

@@ -6,7 +6,6 @@
 use serde::{Deserialize, Serialize};
 
 use morrowcast_engine::backtest::Candidate;
-use morrowcast_engine::intake::IntakeReport;
 
 use super::board::{BoardAsk, BoardRow};
 use morrowcast_engine::plan::ItemPlan;
@@ -37,11 +36,6 @@ pub fn parse_fault(message: &str) -> Option<(u64, &str)> {
 pub enum WorkerAsk {
     Plan(PlanAsk),
     Board(BoardAsk),
-    /// Intake's reading of a large text (the page reads small ones itself).
-    Read {
-        ticket: u64,
-        text: String,
-    },
 }
 
 /// One request to the worker.
@@ -93,11 +87,6 @@ pub enum WorkerNews {
     },
     /// Boxed: an answer is large, progress news small.
     Answer(Box<PlanAnswer>),
-    /// The report of a [`WorkerAsk::Read`].
-    Read {
-        ticket: u64,
-        report: Box<IntakeReport>,
-    },
     /// The rows of one [`BoardAsk`] batch, and the worker's time on it (milliseconds).
     Rows {
         ticket: u64,

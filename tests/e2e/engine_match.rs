@@ -489,7 +489,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
 
 /// Drops a file of `bytes` named `name` on the drop zone `zone` (Intake's or the stock
 /// table's), as a drag from the desktop delivers it.
-fn drop_on(browser: &Browser, zone: &str, bytes: &[u8], name: &str) {
+pub(super) fn drop_on(browser: &Browser, zone: &str, bytes: &[u8], name: &str) {
     browser.js_args(
         "const dt = new DataTransfer(); \
          dt.items.add(new File([new Uint8Array(arguments[0])], arguments[1])); \

@@ -6,6 +6,7 @@
 use serde_json::json;
 
 use super::board::wait_until_planned;
+use super::engine_match::drop_on;
 use super::keep::wait_until_kept;
 use super::page::{
     assert_work_notice, demo_link, forecast_table, open, open_file, open_file_in, open_link, paste,
@@ -83,6 +84,34 @@ fn the_single_file_opens_a_share_link() {
         json!("80")
     );
     wait_until_planned(browser, 6);
+}
+
+/// A workbook dropped on the single file is read by the reading worker the file carries
+/// inside itself (started from a data: address at the first workbook): the sales sheet fills
+/// the box and its items are planned, as on the served page.
+#[test]
+fn the_single_file_reads_a_dropped_workbook() {
+    let Some(page) = open_file((1366, 900), "") else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let book = std::fs::read(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/workbooks/sales.xlsx"
+    ))
+    .expect("fixture");
+    drop_on(browser, "drop-zone", &book, "sales.xlsx");
+    browser.wait_for(
+        "the workbook's sheet as the source",
+        "return document.getElementById('intake-source').textContent === 'sales.xlsx, sheet \u{201c}Sales\u{201d}'",
+        WAIT,
+    );
+    wait_until_planned(browser, 3);
+    let outside = browser.js(
+        "return performance.getEntriesByType('resource').map(e => e.name).filter(n => !n.startsWith('blob:') && !n.startsWith('data:'))",
+    );
+    assert_eq!(outside, json!([]), "loaded from outside the file");
 }
 
 /// The work kept in this browser survives closing the browser and starting it again (the same

@@ -5,8 +5,8 @@
 //! refused with what to do, never a panic.
 
 use morrowcast_engine::intake::{
-    history_text, history_text_of_sheet, read, read_bytes, read_stock_table, stock_table_text,
-    workbook_sheets, FileText,
+    history_text, history_text_of_sheet, is_workbook, read, read_bytes, read_stock_table,
+    read_stock_table_text, stock_table_text, text_file, workbook_sheets, FileText,
 };
 
 const DIR: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures/workbooks/");
@@ -187,4 +187,38 @@ fn formulas_hidden_sheets_year_sheets_merged_cells_times_and_line_breaks() {
         why.contains("(\"Count 2024-11\", \"Count 2024-12\")"),
         "{why}"
     );
+}
+
+/// A front end that reads workbooks apart (the page, in its reading worker) tells them by
+/// `is_workbook` and reads every other file with `text_file` and `read_stock_table_text`,
+/// which link no workbook reader: the same text, note and tables as the bytes' own readers.
+#[test]
+fn text_files_read_apart_read_as_through_the_workbook_aware_readers() {
+    let utf16: Vec<u8> = [0xFF, 0xFE]
+        .into_iter()
+        .chain(
+            text("stock.csv")
+                .encode_utf16()
+                .flat_map(|u| u.to_le_bytes()),
+        )
+        .collect();
+    for file in [
+        bytes("sales_plain.csv"),
+        bytes("stock.csv"),
+        utf16,
+        b"a\xffb\n".to_vec(),
+    ] {
+        assert!(!is_workbook(&file));
+        let apart = text_file(&file);
+        assert_eq!(Ok(apart.clone()), history_text(&file));
+        assert_eq!(Ok(apart.clone()), stock_table_text(&file));
+        let history = read(&text("sales_plain.csv"));
+        assert_eq!(
+            read_stock_table_text(&apart.text, &history),
+            read_stock_table(apart.text.as_bytes(), &history)
+        );
+    }
+    for book in ["sales.xlsx", "sales.ods", "sales.xls", "sales_csv.zip"] {
+        assert!(is_workbook(&bytes(book)), "{book}");
+    }
 }

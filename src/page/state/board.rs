@@ -8,7 +8,7 @@
 use std::collections::BTreeMap;
 
 use leptos::prelude::*;
-use morrowcast_engine::intake::{read_stock_table, StockTable};
+use morrowcast_engine::intake::{read_stock_table_text, StockTable};
 use morrowcast_engine::stock::{StockFieldError, StockText};
 
 use super::super::board::{ItemChange, BATCH};
@@ -66,8 +66,7 @@ impl BoardState {
         let table_text = RwSignal::new(String::new());
         let table = Memo::new(move |_| {
             table_text.with(|t| {
-                (!t.trim().is_empty())
-                    .then(|| intake.report.with(|r| read_stock_table(t.as_bytes(), r)))
+                (!t.trim().is_empty()).then(|| intake.report.with(|r| read_stock_table_text(t, r)))
             })
         });
         let table_source = RwSignal::new(super::NO_TABLE.to_string());

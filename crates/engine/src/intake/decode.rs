@@ -75,6 +75,13 @@ pub(crate) fn decode_choosing(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded
     if workbook::is_workbook(bytes) {
         return from_workbook(bytes, choice);
     }
+    decode_text(bytes)
+}
+
+/// Decodes `bytes` as text, whatever they hold (a workbook's bytes too: the caller has told
+/// them apart). Apart from [`decode_choosing`] so that a front end reading workbooks elsewhere
+/// (the page's workbook worker) links none of the workbook reader.
+pub(crate) fn decode_text(bytes: &[u8]) -> Decoded {
     match bytes {
         [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
         [0xFE, 0xFF, rest @ ..] => decode_utf16(rest, false),

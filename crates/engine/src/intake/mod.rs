@@ -146,7 +146,7 @@ mod unfinished;
 mod workbook;
 
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
-pub use stock_table::{read_stock_table, StockRow, StockTable};
+pub use stock_table::{read_stock_table, read_stock_table_text, StockRow, StockTable};
 pub use unfinished::UnfinishedPeriod;
 
 use crate::calendar::{Frequency, Period};
@@ -344,6 +344,7 @@ pub fn decode_bytes(bytes: &[u8]) -> String {
 /// A file's text as Intake reads it, for a front end that shows the text itself (the page's
 /// box) and names its source.
 #[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct FileText {
     /// The text: the file's own, or a workbook's sheet as comma-separated text.
     pub text: String,
@@ -367,6 +368,27 @@ impl FileText {
                 note: decoded.assumed,
             }),
         }
+    }
+}
+
+/// Whether `bytes` are a workbook or another archive (zip, OLE) rather than text: a front end
+/// that reads workbooks apart (the page, in a worker of their own) tells them apart with this
+/// and gives the rest to [`text_file`].
+pub fn is_workbook(bytes: &[u8]) -> bool {
+    workbook::is_workbook(bytes)
+}
+
+/// The text of a file that is not a workbook ([`is_workbook`]), as [`history_text`] and
+/// [`stock_table_text`] give it, without linking the workbook reader: UTF-8, or UTF-16 with
+/// or without its byte-order mark (said in the note); undecodable bytes become U+FFFD, which
+/// [`read`] reports by line.
+pub fn text_file(bytes: &[u8]) -> FileText {
+    let decoded = decode::decode_text(bytes);
+    FileText {
+        text: decoded.text,
+        sheet: None,
+        sheets: Vec::new(),
+        note: decoded.assumed,
     }
 }
 

@@ -127,7 +127,17 @@ struct Notes {
 /// history it goes with (its period, for lead times written in days or weeks, and its items'
 /// names). Never panics.
 pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
-    let decoded = decode::decode_choosing(bytes, &STOCK_SHEET);
+    from_decoded(decode::decode_choosing(bytes, &STOCK_SHEET), history)
+}
+
+/// Reads a stock table that is already text (the page's stock table box) as
+/// [`read_stock_table`] reads its bytes, without linking the workbook reader: a workbook's
+/// sheet reaches the page as text from its own worker.
+pub fn read_stock_table_text(text: &str, history: &IntakeReport) -> StockTable {
+    from_decoded(decode::decode_text(text.as_bytes()), history)
+}
+
+fn from_decoded(decoded: decode::Decoded, history: &IntakeReport) -> StockTable {
     if let Some(why) = decoded.refused {
         let mut table = StockTable::default();
         table.errors.push(decode::refusal(why));
