@@ -455,9 +455,46 @@ fn more_spellings_of_the_same_shapes() {
         ("Year,Qtr 1,Qtr 2,Qtr 3,Qtr 4", "Qtr 1"),
         ("Year,P1,P2,P3,P4", "P1"),
         ("Year,Jan.,Feb.,Mar.,Apr.", "Jan."),
+        ("Year,Month 1,Month 2,Month 3,Month 4", "Month 1"),
+        ("Year,Wk 1,Wk 2,Wk 3,Wk 4", "Wk 1"),
     ] {
         check(
             &format!("{header}\n2022,5,6,7,8\n2023,6,7,8,9\n"),
+            Expect {
+                errors: vec![(1, first, first)],
+                ..Expect::default()
+            },
+        );
+    }
+    // Numbered accounting periods across: refused as they are down a column (no calendar
+    // holds them), at the first cell.
+    check(
+        "Year,Period 1,Period 2,Period 3,Period 4\n2022,5,6,7,8\n2023,6,7,8,9\n",
+        Expect {
+            errors: vec![(2, "Period 1", "5")],
+            ..Expect::default()
+        },
+    );
+    // The same grids with counts of 1 to 4 (or 1 to 12) under their first part: that column
+    // had been taken for the year's quarter ("Qtr 1" names a quarter word), the next for the
+    // quantities and the rest left out with a warning, so a row's first-quarter sales became
+    // its quarter and its second-quarter sales its demand (a review's list, 2026-12-04).
+    for (header, first) in [
+        ("Item,Year,Qtr 1,Qtr 2,Qtr 3,Qtr 4", "Qtr 1"),
+        (
+            "Item,Year,Quarter 1,Quarter 2,Quarter 3,Quarter 4",
+            "Quarter 1",
+        ),
+        ("Item,Year,Q1,Q2,Q3,Q4", "Q1"),
+        ("Item,Year,M01,M02,M03,M04", "M01"),
+        ("Item,Year,Month 1,Month 2,Month 3,Month 4", "Month 1"),
+        ("Item,Year,Week 1,Week 2,Week 3,Week 4", "Week 1"),
+    ] {
+        check(
+            &format!(
+                "{header}\nTrowel,2023,3,1,4,2\nTrowel,2024,2,3,1,4\nRake,2023,1,2,2,3\n\
+                 Rake,2024,4,1,3,2\n"
+            ),
             Expect {
                 errors: vec![(1, first, first)],
                 ..Expect::default()

@@ -148,9 +148,18 @@ impl SplitPeriod {
                         .count(),
                 )
         };
+        // A header that is itself one numbered part ("Qtr 1", "Q1", "M01", "Week 1") heads
+        // that part's values in a grid with the calendar across, never the column of parts:
+        // taken for it, counts of 1 to 4 were read as quarters and the next column's sales as
+        // the demand.
+        let one_part = |j: usize, how: YearPart| {
+            let name = table.column_name(j);
+            let part = part_text(&name, how);
+            part != name.trim() && part.bytes().all(|b| b.is_ascii_digit())
+        };
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
-                .filter(|j| named(*j, how.words()) || period_named(*j))
+                .filter(|j| (named(*j, how.words()) && !one_part(*j, how)) || period_named(*j))
                 .map(|part| SplitPeriod {
                     year,
                     part,

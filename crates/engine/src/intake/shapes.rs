@@ -364,8 +364,8 @@ enum GridPart {
 
 /// The part of the calendar a header cell names as grids write them: month names (also with
 /// a dot, "Jan.", "Sept."), weekdays (also "Mo", "Tu"), times of day, and numbered parts
-/// "Q1", "W5", "Qtr 1", "Quarter 1", "1st Qtr", "M01", "P1" to "P13" (accounting periods),
-/// "H1", "H2". `None` for anything else.
+/// "Q1", "W5", "Qtr 1", "Quarter 1", "1st Qtr", "M01", "Month 1", "Week 1", "Wk 1", "P1" to
+/// "P13" and "Period 1" (accounting periods), "H1", "H2", "Half 1". `None` for anything else.
 fn grid_header(cell: &str) -> Option<GridPart> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
     let words: Vec<&str> = lower
@@ -402,9 +402,15 @@ fn grid_header(cell: &str) -> Option<GridPart> {
         .or_else(|| numbered("quarter", 4))
         .or(ordinal)
         .or_else(|| numbered("q", 4))
+        .or_else(|| numbered("week", 53))
+        .or_else(|| numbered("wk", 53))
         .or_else(|| numbered("w", 53))
+        .or_else(|| numbered("month", 12))
+        .or_else(|| numbered("mth", 12))
         .or_else(|| numbered("m", 12))
+        .or_else(|| numbered("period", 13))
         .or_else(|| numbered("p", 13))
+        .or_else(|| numbered("half", 2))
         .or_else(|| numbered("h", 2));
     if number.is_some() {
         return Some(GridPart::Year(number));
