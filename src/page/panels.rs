@@ -275,7 +275,7 @@ pub fn IntakePanel() -> impl IntoView {
     view! {
         <section class="panel intake" id="intake" aria-labelledby="intake-title">
             <h2 id="intake-title">"Intake"</h2>
-            <p class="hint">"Sales history as a table: a period column and one or more value columns, one row per item and period, or one row per item with the periods across the top. CSV, TSV or plain text, or a workbook (.xlsx, .ods: its fullest sheet). A work file or a share link opens the whole desk."</p>
+            <p class="hint">"Sales history as a table: a period column and one or more value columns, one row per item and period, or one row per item (or per item and year: Year, Jan ... Dec) with the periods across the top. CSV, TSV or plain text, or a workbook (.xlsx, .ods: its fullest sheet). A work file or a share link opens the whole desk."</p>
             {move || work.notice.get().map(|n| match n {
                 WorkNotice::Opened(m) => view! { <p class="notice" id="work-notice" role="status">{m}</p> }.into_any(),
                 WorkNotice::Refused(m) => view! { <p class="notice refused" id="work-notice" role="alert">{m}</p> }.into_any(),

@@ -27,7 +27,7 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
         Layout::Single => "one item in a single column of values",
         Layout::Wide => "one column per item",
         Layout::Long => "one row per item and period",
-        Layout::Across => "one row per item, periods across the top",
+        Layout::Across => "one row per item (or per item and year), periods across the top",
     };
     lines.push(format!(
         "Columns separated by {}, decimals written with a {}; layout: {layout}.",

@@ -127,6 +127,39 @@ fn pasted_table_shows_the_engines_numbers() {
     save_screenshot(browser, "paste-second-item.png");
 }
 
+/// Sales kept as a year down and its months across (`Item,Year,Jan,...,Dec`), pasted: the
+/// report says the layout, and the page plans each item as the engine does.
+#[test]
+fn a_year_down_with_its_months_across_is_planned() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let mut text = String::from("Item,Year,Jan,Feb,Mar,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec\n");
+    for (item, base) in [("Trowel", 20), ("Kneeling pad", 8)] {
+        for year in 2022..=2024 {
+            let months: Vec<String> = (1..=12)
+                .map(|m| {
+                    (base + (m * 7 + year) % 9 + if (4..=7).contains(&m) { 6 } else { 0 })
+                        .to_string()
+                })
+                .collect();
+            text.push_str(&format!("{item},{year},{}\n", months.join(",")));
+        }
+    }
+    paste(browser, &text);
+    wait_for_item(browser, "Trowel");
+    let report = browser.js("return document.getElementById('intake-report').textContent");
+    assert!(
+        report.as_str().unwrap_or("").contains("per item and year"),
+        "{report}"
+    );
+    assert_page_shows(browser, &engine_plan(&text, "Trowel"));
+    super::board::wait_until_planned(browser, 2);
+    save_screenshot(browser, "year-grid-pasted.png");
+}
+
 /// A file dropped on the drop zone (a DataTransfer holding a File, as a drag from the desktop
 /// delivers it) is read: its text fills the box, its name is the source, its plan is the
 /// engine's.

@@ -13,3 +13,4 @@ mod till_exports;
 mod unnamed;
 mod workbooks;
 mod working_days;
+mod year_grid;

@@ -475,26 +475,42 @@ fn more_spellings_of_the_same_shapes() {
             ..Expect::default()
         },
     );
-    // The same grids with counts of 1 to 4 (or 1 to 12) under their first part: that column
-    // had been taken for the year's quarter ("Qtr 1" names a quarter word), the next for the
-    // quantities and the rest left out with a warning, so a row's first-quarter sales became
-    // its quarter and its second-quarter sales its demand (a review's list, 2026-12-04).
+    // The same grids with counts of 1 to 4 under their first part and an item column: the
+    // first part's column had been taken for the year's quarter ("Qtr 1" names a quarter
+    // word), the next for the quantities and the rest left out with a warning, so a row's
+    // first-quarter sales became its quarter and its second-quarter sales its demand (a
+    // review's list, 2026-12-04). Now a year down with its quarters across is read; with some
+    // months only, or weeks, across, refused.
+    let grid = |header: &str| {
+        format!(
+            "{header}\nTrowel,2023,3,1,4,2\nTrowel,2024,2,3,1,4\nRake,2023,1,2,2,3\n\
+             Rake,2024,4,1,3,2\n"
+        )
+    };
+    for header in [
+        "Item,Year,Qtr 1,Qtr 2,Qtr 3,Qtr 4",
+        "Item,Year,Quarter 1,Quarter 2,Quarter 3,Quarter 4",
+        "Item,Year,Q1,Q2,Q3,Q4",
+        "Item,Year,1st Qtr,2nd Qtr,3rd Qtr,4th Qtr",
+    ] {
+        check(
+            &grid(header),
+            Expect {
+                items: Some(vec![
+                    ("Trowel", some(&[3.0, 1.0, 4.0, 2.0, 2.0, 3.0, 1.0, 4.0])),
+                    ("Rake", some(&[1.0, 2.0, 2.0, 3.0, 4.0, 1.0, 3.0, 2.0])),
+                ]),
+                ..Expect::default()
+            },
+        );
+    }
     for (header, first) in [
-        ("Item,Year,Qtr 1,Qtr 2,Qtr 3,Qtr 4", "Qtr 1"),
-        (
-            "Item,Year,Quarter 1,Quarter 2,Quarter 3,Quarter 4",
-            "Quarter 1",
-        ),
-        ("Item,Year,Q1,Q2,Q3,Q4", "Q1"),
         ("Item,Year,M01,M02,M03,M04", "M01"),
         ("Item,Year,Month 1,Month 2,Month 3,Month 4", "Month 1"),
         ("Item,Year,Week 1,Week 2,Week 3,Week 4", "Week 1"),
     ] {
         check(
-            &format!(
-                "{header}\nTrowel,2023,3,1,4,2\nTrowel,2024,2,3,1,4\nRake,2023,1,2,2,3\n\
-                 Rake,2024,4,1,3,2\n"
-            ),
+            &grid(header),
             Expect {
                 errors: vec![(1, first, first)],
                 ..Expect::default()

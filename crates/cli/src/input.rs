@@ -120,7 +120,8 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         None if report.layout == intake::Layout::Across => {
             return Err(format!(
                 "--leave-out-unfinished: {period} looks unfinished, but its figures are a \
-                 column (periods across the header), not rows: take its column out of the file"
+                 column (periods across the header) or cells of a year's row (months across), \
+                 not rows: take them out of the file"
             ))
         }
         None => {

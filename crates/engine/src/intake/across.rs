@@ -248,5 +248,6 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         notes: Vec::new(),
         details: Vec::new(),
         split: None,
+        grid: None,
     })
 }

@@ -36,6 +36,7 @@ mod across;
 mod long;
 mod readings;
 mod unnamed;
+mod year_grid;
 use super::{DecimalMark, Item, Layout, RowError};
 use crate::calendar::{Frequency, Period};
 
@@ -622,7 +623,10 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
     }
     match (plan.layout, column) {
         (Layout::Long, column) => b.long(&kept, column.as_ref()),
-        (Layout::Across, _) => b.across(&kept),
+        (Layout::Across, _) => match &plan.grid {
+            Some(grid) => b.year_grid(&kept, grid),
+            None => b.across(&kept),
+        },
         (_, Some(col)) => {
             let entries = kept
                 .iter()

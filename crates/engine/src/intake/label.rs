@@ -142,7 +142,7 @@ fn tokens(cell: &str) -> Option<(Vec<Token<'_>>, Vec<String>)> {
 }
 
 /// Month number of an English month name or abbreviation.
-fn month_name(word: &str) -> Option<u32> {
+pub(crate) fn month_name(word: &str) -> Option<u32> {
     const NAMES: [&str; 12] = [
         "january",
         "february",

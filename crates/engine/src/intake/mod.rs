@@ -144,6 +144,7 @@ mod text;
 mod totals;
 mod unfinished;
 mod workbook;
+mod year_grid;
 
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
 pub use stock_table::{read_stock_table, read_stock_table_text, StockRow, StockTable};

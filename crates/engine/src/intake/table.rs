@@ -86,6 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
+use super::year_grid::YearGrid;
 use super::{Layout, RowError};
 
 /// How far down a header or title line is looked for.
@@ -459,6 +460,9 @@ pub(crate) struct Plan {
     /// Columns that make the period together with the period column, a year: a month,
     /// quarter or week, and a day ([`SplitPeriod`]); each period is read from them joined.
     pub split: Option<SplitPeriod>,
+    /// A year down and months or quarters across ([`YearGrid`], layout across): each cell's
+    /// period is its row's year and its column's part.
+    pub grid: Option<YearGrid>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -552,6 +556,16 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         numeric.retain(|j| !split.columns().contains(j));
         item_columns.retain(|j| !split.columns().contains(j));
         period = Some((split.year(), None));
+    }
+    // Months or quarters across the header beside a year down and a column naming the items:
+    // read, a cell's period its row's year and its column's part ([`YearGrid`]).
+    if split.is_none() {
+        let periods: Vec<usize> = (0..roles.len())
+            .filter(|j| matches!(roles[*j], Role::Period(_)))
+            .collect();
+        if let Some(grid) = YearGrid::find(table, &rows, &numeric, &periods, &item_columns) {
+            return Ok(year_grid_plan(&roles, grid));
+        }
     }
     // Number columns headed by parts of what a row is (months over years, weekdays over
     // weeks) hold one item's values, the calendar across the header ([`calendar_grid`]).
@@ -833,7 +847,33 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         notes,
         details,
         split,
+        grid: None,
     })
+}
+
+/// The plan of a year grid ([`YearGrid`]): its items named by the columns left of the months,
+/// its values under the month or quarter columns, its row totals and what stands right of the
+/// months not read (said as columns naming no period).
+fn year_grid_plan(roles: &[Role], grid: YearGrid) -> Plan {
+    Plan {
+        layout: Layout::Across,
+        period: None,
+        item_columns: grid.items().to_vec(),
+        values: grid.part_columns(),
+        ignored: grid.ignored().to_vec(),
+        empty: (0..roles.len())
+            .filter(|j| roles[*j] == Role::Empty)
+            .collect(),
+        codes: Vec::new(),
+        row_numbers: Vec::new(),
+        calendar: Vec::new(),
+        not_quantities: Vec::new(),
+        of_items: Vec::new(),
+        notes: Vec::new(),
+        details: Vec::new(),
+        split: None,
+        grid: Some(grid),
+    }
 }
 
 /// Words of a header cell that name the item (or the store it is sold at), that name a

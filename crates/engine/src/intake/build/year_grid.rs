@@ -1,0 +1,167 @@
+//! Tables of a year down and its months or quarters across ([`crate::intake::Layout::Across`]
+//! with a [`YearGrid`]): each row is one item's year, each cell the period of that year and
+//! its column's part, read with the same number rules as any other layout (errors at the row,
+//! under the part's header). An item's rows may come in any order; a year given twice for one
+//! item is an error at the second row (adding them up could count one thing twice). Periods
+//! an item's history spans that no row or column holds (a year without a row, months without
+//! a column) are gaps, named in a warning; empty cells are said as in every layout.
+//!
+//! Kept apart from: finding such a table ([`crate::intake::year_grid`]) and the other layouts.
+
+use std::collections::HashMap;
+
+use super::Builder;
+use crate::calendar::Period;
+use crate::intake::label::year_of;
+use crate::intake::number::is_missing;
+use crate::intake::table::whole_number;
+use crate::intake::text::Record;
+use crate::intake::year_grid::YearGrid;
+use crate::intake::Item;
+
+/// One item's rows: its name, and each row with its year.
+struct ItemRows<'a> {
+    name: String,
+    rows: Vec<(i32, &'a Record)>,
+}
+
+impl<'a> Builder<'a> {
+    pub(super) fn year_grid(&mut self, kept: &[&'a Record], grid: &YearGrid) {
+        let across = grid.across();
+        let year_column = grid.year();
+        self.out.frequency = Some(across.frequency());
+        let example = across.period(2024, 1);
+        self.out.date_format = Some(format!(
+            "{} (e.g. {example}), from the year in column \"{}\" and the {} across the header",
+            across.words(),
+            self.table.column_name(year_column),
+            across.words()
+        ));
+        let item_columns = self.plan.item_columns.clone();
+        let mut items_rows: Vec<ItemRows<'a>> = Vec::new();
+        let mut index: HashMap<String, usize> = HashMap::new();
+        let mut seen: HashMap<(usize, i32), usize> = HashMap::new();
+        for &row in kept {
+            let name = item_columns
+                .iter()
+                .map(|j| row.cells.get(*j).map_or("", String::as_str))
+                .filter(|c| !is_missing(c))
+                .collect::<Vec<_>>()
+                .join(" / ");
+            if name.is_empty() {
+                self.no_item_name(row, &item_columns);
+                continue;
+            }
+            let cell = row.cells.get(year_column).map_or("", String::as_str);
+            let year = (whole_number(cell) && cell.len() == 4)
+                .then(|| year_of(cell))
+                .flatten();
+            let Some(year) = year else {
+                self.error(
+                    row.line,
+                    year_column,
+                    cell,
+                    format!(
+                        "expected a year of four digits (such as 2024): the {} across the \
+                         header are of this row's year",
+                        across.words()
+                    ),
+                );
+                continue;
+            };
+            let key = name.split_whitespace().collect::<Vec<_>>().join(" ");
+            let at = *index.entry(key).or_insert_with(|| {
+                items_rows.push(ItemRows {
+                    name: name.clone(),
+                    rows: Vec::new(),
+                });
+                items_rows.len() - 1
+            });
+            if let Some(first) = seen.get(&(at, year)) {
+                let message = format!(
+                    "expected each item's year on one row; \"{name}\" {year} is also on line \
+                     {first}: this row was not read (to add up several rows, use item, period, \
+                     quantity rows)"
+                );
+                self.error(row.line, year_column, cell, message);
+                continue;
+            }
+            seen.insert((at, year), row.line);
+            items_rows[at].rows.push((year, row));
+        }
+        let cells_of = |rows: &[(i32, &'a Record)]| -> Vec<(Period, &'a Record, usize)> {
+            rows.iter()
+                .flat_map(|&(year, row)| {
+                    grid.parts()
+                        .iter()
+                        .map(move |&(j, n)| (across.period(year, n), row, j))
+                })
+                .collect()
+        };
+        let all: Vec<Period> = items_rows
+            .iter()
+            .flat_map(|item| cells_of(&item.rows))
+            .map(|c| c.0)
+            .collect();
+        let (Some(&start), Some(&last)) = (all.iter().min(), all.iter().max()) else {
+            return;
+        };
+        let steps = start.steps_to(last);
+        if steps >= crate::intake::build::MAX_PERIODS {
+            // At the row of the latest year, as the across layout names its latest column.
+            let latest = items_rows
+                .iter()
+                .flat_map(|item| item.rows.iter())
+                .max_by_key(|(year, row)| (*year, row.line));
+            if let Some(&(_, row)) = latest {
+                let cell = row.cells.get(year_column).map_or("", String::as_str);
+                self.error(
+                    row.line,
+                    year_column,
+                    cell,
+                    format!(
+                        "expected years within {} {} of the first ({start}); check this \
+                         row's year",
+                        crate::intake::build::MAX_PERIODS,
+                        across.words()
+                    ),
+                );
+            }
+            return;
+        }
+        let len = steps as usize + 1;
+        let mut items: Vec<Item> = Vec::new();
+        for item in items_rows {
+            let Some(&(_, first_row)) = item.rows.first() else {
+                continue;
+            };
+            let cells = cells_of(&item.rows);
+            let Some(values) = self.item_values(&item.name, start, len, &cells) else {
+                continue;
+            };
+            // Periods inside the item's history that no cell holds: gaps, said.
+            let mut held = vec![false; len];
+            for (period, ..) in &cells {
+                held[start.steps_to(*period) as usize] = true;
+            }
+            let first = values.iter().position(Option::is_some).unwrap_or(0);
+            let last = values.iter().rposition(Option::is_some).unwrap_or(0);
+            let missing: Vec<String> = (first..=last)
+                .filter(|i| !held[*i])
+                .map(|i| start.offset(i as i64).to_string())
+                .collect();
+            if !self.take_slots(len, &item.name, first_row.line, item_columns[0]) {
+                continue;
+            }
+            self.out.gaps_filled += missing.len();
+            self.gap_warning(std::slice::from_ref(&item.name), &missing);
+            items.push(Item {
+                name: item.name,
+                periods: (0..len).map(|i| start.offset(i as i64)).collect(),
+                values,
+            });
+        }
+        self.after_the_last(&items);
+        self.out.items = items;
+    }
+}

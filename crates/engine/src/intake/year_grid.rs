@@ -1,0 +1,255 @@
+//! A year down and its months or quarters across: `Item,Year,Jan,Feb,...,Dec` with a row per
+//! item and year, the way many small shops keep their sales in a spreadsheet (common
+//! practice). Each cell's period is its row's year with its column's month or quarter.
+//!
+//! Kept apart from: finding the other layouts ([`super::table::plan`] asks [`YearGrid::find`]
+//! before it refuses other grids with the calendar across, [`super::shapes::calendar_grid`])
+//! and reading the cells (the builder's `year_grid`, with the same number, gap and error rules
+//! as every layout).
+//!
+//! Rule, by the header's words only: a column named as a year ("Year", "Yr") whose cells are
+//! mostly years of four digits; number columns headed by the twelve months (names, "Jan.",
+//! "M01", "Month 1") or the four quarters ("Q1", "Qtr 1", "Quarter 1", "1st Qtr"), all of one
+//! kind, each once, in calendar order; left of them, columns naming the items (text, or codes
+//! under a header naming items: "SKU"); right of them anything (a total, notes: not read,
+//! said), and a row total anywhere ("Total"). Anything else (a price among the months, a
+//! second date, months missing or in a fiscal year's order) is not this layout: such grids
+//! stay refused with what to write instead. Weeks, halves and numbered accounting periods
+//! across are not read (weeks 1 to 53 rarely stand as columns, and the others cannot be
+//! placed on the calendar).
+
+use super::label::{month_name, year_of};
+use super::table::{header_says, names_item, whole_number, Table};
+use super::text::Record;
+use crate::calendar::{Frequency, Period};
+
+/// What the columns across the header count within a year.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(crate) enum Across {
+    Months,
+    Quarters,
+}
+
+impl Across {
+    fn max(self) -> u32 {
+        match self {
+            Across::Months => 12,
+            Across::Quarters => 4,
+        }
+    }
+
+    /// The period of part `number` (1 to 12, or 1 to 4) of `year`.
+    pub(crate) fn period(self, year: i32, number: u32) -> Period {
+        match self {
+            Across::Months => Period::month(year, number),
+            Across::Quarters => Period::quarter(year, number),
+        }
+    }
+
+    pub(crate) fn frequency(self) -> Frequency {
+        match self {
+            Across::Months => Frequency::Monthly,
+            Across::Quarters => Frequency::Quarterly,
+        }
+    }
+
+    /// The parts in words, plural.
+    pub(crate) fn words(self) -> &'static str {
+        match self {
+            Across::Months => "months",
+            Across::Quarters => "quarters",
+        }
+    }
+}
+
+/// Header words of a row total beside the months: not a part of the year.
+const TOTAL_WORDS: [&str; 6] = ["total", "totals", "sum", "ytd", "annual", "full"];
+
+/// The columns of a year grid.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub(crate) struct YearGrid {
+    year: usize,
+    across: Across,
+    /// Each part column with its number within the year, in header order (calendar order).
+    parts: Vec<(usize, u32)>,
+    /// The columns naming the items: text columns and number columns of codes ("SKU") left of
+    /// the months, in header order.
+    items: Vec<usize>,
+    /// Columns not read: row totals, and whatever stands right of the last month or quarter
+    /// (a total, an average, notes).
+    ignored: Vec<usize>,
+}
+
+impl YearGrid {
+    /// Finds a year grid among the number columns `numeric` and the columns read as periods
+    /// `periods` (a column of years may be one), beside the text columns `texts` (see the
+    /// module doc); `None` when the table is not one.
+    pub(crate) fn find(
+        table: &Table,
+        rows: &[&Record],
+        numeric: &[usize],
+        periods: &[usize],
+        texts: &[usize],
+    ) -> Option<YearGrid> {
+        let header = table.header.as_ref()?;
+        if rows.is_empty() {
+            return None;
+        }
+        let cell = |j: usize| header.cells.get(j).map_or("", String::as_str);
+        let parts: Vec<(usize, Across, u32)> = numeric
+            .iter()
+            .filter_map(|&j| part_of_year(cell(j)).map(|(kind, n)| (j, kind, n)))
+            .collect();
+        let &(first_part, across, _) = parts.first()?;
+        let last_part = parts.last()?.0;
+        // The whole year in calendar order: with months missing from the header, every year
+        // of every item would have gaps to fill.
+        let whole_year = parts.iter().map(|p| p.2).eq(1..=across.max());
+        if parts.iter().any(|p| p.1 != across) || !whole_year {
+            return None;
+        }
+        let is_year = |j: usize| {
+            let years = table
+                .column(j, rows)
+                .iter()
+                .filter(|c| whole_number(c) && c.len() == 4 && year_of(c).is_some())
+                .count();
+            header_says(&table.column_name(j), &["year", "yr"]) && years * 2 > rows.len()
+        };
+        let mut others: Vec<usize> = numeric
+            .iter()
+            .chain(periods)
+            .chain(texts)
+            .copied()
+            .filter(|j| !parts.iter().any(|p| p.0 == *j))
+            .collect();
+        others.sort_unstable();
+        let year = others
+            .iter()
+            .copied()
+            .find(|j| *j < first_part && is_year(*j))?;
+        let (mut items, mut ignored) = (Vec::new(), Vec::new());
+        for j in others.into_iter().filter(|j| *j != year) {
+            if j > last_part || header_says(&table.column_name(j), &TOTAL_WORDS) {
+                ignored.push(j);
+            } else if periods.contains(&j) {
+                // Another column of periods (a date): not this layout.
+                return None;
+            } else if texts.contains(&j) || names_item(table, j) {
+                items.push(j);
+            } else {
+                // A number column among the months or before them that names no item (a
+                // price, a store number): not a layout to guess at.
+                return None;
+            }
+        }
+        if items.is_empty() {
+            return None;
+        }
+        Some(YearGrid {
+            year,
+            across,
+            parts: parts.into_iter().map(|(j, _, n)| (j, n)).collect(),
+            items,
+            ignored,
+        })
+    }
+
+    /// The year column.
+    pub(crate) fn year(&self) -> usize {
+        self.year
+    }
+
+    pub(crate) fn across(&self) -> Across {
+        self.across
+    }
+
+    /// The part columns with their numbers, in calendar order.
+    pub(crate) fn parts(&self) -> &[(usize, u32)] {
+        &self.parts
+    }
+
+    /// The part columns.
+    pub(crate) fn part_columns(&self) -> Vec<usize> {
+        self.parts.iter().map(|p| p.0).collect()
+    }
+
+    /// The columns naming the items.
+    pub(crate) fn items(&self) -> &[usize] {
+        &self.items
+    }
+
+    /// The columns not read.
+    pub(crate) fn ignored(&self) -> &[usize] {
+        &self.ignored
+    }
+}
+
+/// The month or quarter one header cell names, with its number: a month's name or
+/// abbreviation ("Jan", "Jan.", "Sept", "January"), "M01", "Month 1", "Mth 1"; "Q1", "Qtr 1",
+/// "Quarter 1", "1st Qtr". `None` for anything else.
+fn part_of_year(cell: &str) -> Option<(Across, u32)> {
+    let lower = cell.trim().trim_end_matches('.').to_lowercase();
+    if let Some(month) = month_name(&lower) {
+        return Some((Across::Months, month));
+    }
+    // Runs of letters and of digits: "M01" is "m", "01"; "1st Qtr" is "1", "st", "qtr".
+    let mut tokens: Vec<String> = Vec::new();
+    for c in lower.chars() {
+        let same = |t: &String| {
+            t.chars()
+                .last()
+                .is_some_and(|l| l.is_ascii_digit() == c.is_ascii_digit())
+        };
+        match tokens.last_mut() {
+            Some(t) if c.is_alphanumeric() && same(t) => t.push(c),
+            _ if c.is_alphanumeric() => tokens.push(c.to_string()),
+            // A break between tokens ("st qtr" is two).
+            _ => tokens.push(String::new()),
+        }
+    }
+    tokens.retain(|t| !t.is_empty());
+    let words: Vec<&str> = tokens.iter().map(String::as_str).collect();
+    let (kind, number) = match words.as_slice() {
+        ["m" | "month" | "mth", n] => (Across::Months, *n),
+        ["q" | "qtr" | "quarter", n] => (Across::Quarters, *n),
+        [n, "st" | "nd" | "rd" | "th", "qtr" | "quarter"] => (Across::Quarters, *n),
+        _ => return None,
+    };
+    let number: u32 = number
+        .bytes()
+        .all(|b| b.is_ascii_digit())
+        .then(|| number.parse().ok())??;
+    (1..=kind.max()).contains(&number).then_some((kind, number))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A header cell -> the part it names.
+    fn check(cell: &str, expected: Option<(Across, u32)>) {
+        assert_eq!(part_of_year(cell), expected, "{cell:?}");
+    }
+
+    #[test]
+    fn header_cells_name_months_and_quarters() {
+        use Across::{Months, Quarters};
+        check("Jan", Some((Months, 1)));
+        check("Sept.", Some((Months, 9)));
+        check("December", Some((Months, 12)));
+        check("M01", Some((Months, 1)));
+        check("Month 12", Some((Months, 12)));
+        check("Q4", Some((Quarters, 4)));
+        check("Qtr 2", Some((Quarters, 2)));
+        check("Quarter 3", Some((Quarters, 3)));
+        check("1st Qtr", Some((Quarters, 1)));
+        check("Q5", None);
+        check("M13", None);
+        check("Month", None);
+        check("W1", None);
+        check("P1", None);
+        check("Mar 2024", None);
+        check("May sales", None);
+    }
+}

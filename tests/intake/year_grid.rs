@@ -1,0 +1,198 @@
+//! A year down and its months or quarters across (`Item,Year,Jan,...,Dec`), the way many small
+//! shops keep sales in a spreadsheet: each cell read as its row's year and its column's month.
+//! Before, such tables were refused ("write one row per period"), and with counts of 1 to 4
+//! under "Qtr 1" they were misread (counts taken for quarters). Values below are worked out by
+//! hand from each table.
+
+use morrowcast_engine::calendar::Frequency;
+use morrowcast_engine::intake::Layout;
+
+use super::expect::{check, some, Expect};
+
+const MONTHS: &str = "Jan,Feb,Mar,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec";
+
+/// A row of twelve months from `first`, one more each month.
+fn year_of(first: u32) -> String {
+    (first..first + 12)
+        .map(|v| v.to_string())
+        .collect::<Vec<_>>()
+        .join(",")
+}
+
+#[test]
+fn months_across_a_year_down_are_read_month_by_month() {
+    // Rows out of year order, a category beside the item, a row total, the current year's
+    // months still to come left empty, and a year without a row for one item.
+    let text = format!(
+        "Product,Category,Year,{MONTHS},Total\n\
+         Trowel,Tools,2024,{},,,,,,,,40\n\
+         Trowel,Tools,2023,{},126\n\
+         Rake,Tools,2022,{},102\n\
+         Rake,Tools,2024,{},,,,,,,,15\n",
+        "6,7,8,9,10",
+        year_of(5),
+        year_of(3),
+        "1,2,3,4,5",
+    );
+    // Every item over the table's months (2022-01 to 2024-12), as in every table of periods
+    // across: Trowel's first year empty (before its first value), Rake's 2023 a gap.
+    let mut trowel: Vec<Option<f64>> = vec![None; 12];
+    trowel.extend((5..17).chain(6..11).map(|v| Some(f64::from(v))));
+    // June to December of 2024 are still to come for both: empty, left out when planned.
+    trowel.extend([None; 7]);
+    let mut rake: Vec<Option<f64>> = (3..15).map(|v| Some(f64::from(v))).collect();
+    rake.extend([None; 12]);
+    rake.extend(some(&[1.0, 2.0, 3.0, 4.0, 5.0]));
+    rake.extend([None; 7]);
+    let report = check(
+        &text,
+        Expect {
+            items: Some(vec![("Trowel / Tools", trowel), ("Rake / Tools", rake)]),
+            layout: Some(Layout::Across),
+            frequency: Some(Frequency::Monthly),
+            warned: vec![
+                vec!["\"Total\"", "not used"],
+                vec!["12 missing periods", "Rake / Tools", "2023-01"],
+                vec!["2024-06 to 2024-12", "still to come"],
+            ],
+            ..Expect::default()
+        },
+    );
+    for item in &report.items {
+        assert_eq!(item.periods[0].to_string(), "2022-01");
+        assert_eq!(item.periods.len(), 36);
+    }
+    assert_eq!(report.gaps_filled, 12);
+}
+
+#[test]
+fn quarters_and_numbered_months_across_are_read_too() {
+    check(
+        "Item,Year,Q1,Q2,Q3,Q4\nTrowel,2023,3,1,4,2\nTrowel,2024,2,3,1,4\n",
+        Expect {
+            items: Some(vec![(
+                "Trowel",
+                some(&[3.0, 1.0, 4.0, 2.0, 2.0, 3.0, 1.0, 4.0]),
+            )]),
+            frequency: Some(Frequency::Quarterly),
+            periods: Some(vec![
+                "2023-Q1", "2023-Q2", "2023-Q3", "2023-Q4", "2024-Q1", "2024-Q2", "2024-Q3",
+                "2024-Q4",
+            ]),
+            ..Expect::default()
+        },
+    );
+    let numbered: Vec<String> = (1..=12).map(|m| format!("M{m:02}")).collect();
+    check(
+        &format!(
+            "SKU,Item,Year,{}\n1001,Trowel,2024,{}\n",
+            numbered.join(","),
+            year_of(1)
+        ),
+        Expect {
+            items: Some(vec![(
+                "1001 / Trowel",
+                (1..=12).map(|v| Some(f64::from(v))).collect(),
+            )]),
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+}
+
+#[test]
+fn what_cannot_be_placed_is_refused_at_its_cell() {
+    // A year twice for one item: its second row is not added to the first.
+    check(
+        &format!(
+            "Item,Year,{MONTHS}\nTrowel,2024,{}\nTrowel,2024,{}\n",
+            year_of(1),
+            year_of(2)
+        ),
+        Expect {
+            errors: vec![(3, "Year", "2024")],
+            ..Expect::default()
+        },
+    );
+    // A year that is no year, a month that is no number.
+    check(
+        &format!(
+            "Item,Year,{MONTHS}\nTrowel,2O24,{}\nRake,2024,1,2,x,4,5,6,7,8,9,10,11,12\n\
+             Hoe,2024,{}\nSieve,2024,{}\n",
+            year_of(1),
+            year_of(2),
+            year_of(3)
+        ),
+        Expect {
+            errors: vec![(2, "Year", "2O24"), (3, "Mar", "x")],
+            ..Expect::default()
+        },
+    );
+}
+
+/// Grids this layout does not read stay refused with what to write instead: no item column,
+/// months missing from the header, months in a fiscal year's order, a price among the
+/// months, weeks across.
+#[test]
+fn other_grids_stay_refused() {
+    let fiscal = "Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec,Jan,Feb,Mar";
+    for (text, first) in [
+        (format!("Year,{MONTHS}\n2024,{}\n", year_of(1)), "Jan"),
+        (
+            "Item,Year,Jan,Feb,Mar\nTrowel,2024,5,6,7\nRake,2024,1,2,3\n".to_string(),
+            "Jan",
+        ),
+        (
+            format!("Item,Fiscal year,{fiscal}\nTrowel,2024,{}\n", year_of(1)),
+            "Apr",
+        ),
+        (
+            format!("Item,Year,Price,{MONTHS}\nTrowel,2024,4.5,{}\n", year_of(1)),
+            "Jan",
+        ),
+        (
+            "Item,Year,W1,W2,W3\nTrowel,2024,5,6,7\nRake,2024,1,2,3\n".to_string(),
+            "W1",
+        ),
+    ] {
+        check(
+            &text,
+            Expect {
+                errors: vec![(1, first, first)],
+                ..Expect::default()
+            },
+        );
+    }
+}
+
+/// What spreadsheets put beside such a grid: notes and a total right of the months (not
+/// read), a total row (left out as the items' total, as in every layout), item codes as
+/// numbers under "Item".
+#[test]
+fn what_stands_beside_the_months_is_said() {
+    let row = year_of(1);
+    let total = year_of(2)
+        .split(',')
+        .map(|v| (v.parse::<u32>().unwrap() * 2 - 2).to_string())
+        .collect::<Vec<_>>()
+        .join(",");
+    check(
+        &format!(
+            "Item,Year,{MONTHS},Notes\nTrowel,2023,{row},\nTrowel,2024,{row},promo\n\
+             Rake,2024,{row},\nTotal,2024,{total},\n"
+        ),
+        Expect {
+            warned: vec![vec!["\"Notes\"", "not used"], vec!["\"Total\"", "left out"]],
+            ..Expect::default()
+        },
+    );
+    let report = check(
+        &format!("Item,Year,{MONTHS}\n1001,2023,{row}\n1002,2023,{row}\n"),
+        Expect {
+            frequency: Some(Frequency::Monthly),
+            ..Expect::default()
+        },
+    );
+    let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(names, ["1001", "1002"]);
+}
