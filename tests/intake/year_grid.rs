@@ -5,7 +5,7 @@
 //! hand from each table.
 
 use morrowcast_engine::calendar::Frequency;
-use morrowcast_engine::intake::Layout;
+use morrowcast_engine::intake::{read, Layout};
 
 use super::expect::{check, some, Expect};
 
@@ -195,4 +195,80 @@ fn what_stands_beside_the_months_is_said() {
     );
     let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
     assert_eq!(names, ["1001", "1002"]);
+}
+
+/// What a review of this layout found read wrongly, each failing before its mend: item codes
+/// or a typo under "Year" taken for years (an item spread over centuries of gaps), figures
+/// under "Last year" or "Year total" taken for each item's year, a name written in two cases
+/// split into two items, annual totals under "Year" read as each item's own year.
+#[test]
+fn years_that_are_no_years_and_names_in_two_cases() {
+    let rows = |years: &[&str]| -> String {
+        years
+            .iter()
+            .enumerate()
+            .map(|(i, y)| format!("Trowel,{y},{}\n", year_of(i as u32 + 1)))
+            .collect()
+    };
+    // Codes 1001 to 1004 under "Year": not a year grid (refused as before, at the first).
+    let codes = check(
+        &format!(
+            "Item,Year,{MONTHS}\n{}",
+            rows(&["1001", "1002", "1003", "1004"])
+        ),
+        Expect {
+            errors: vec![(2, "Year", "1001")],
+            ..Expect::default()
+        },
+    );
+    assert!(codes.items.is_empty());
+    // One typo among years: refused at its cell, the rest read.
+    for (typo, years) in [
+        ("1005", ["2019", "2020", "2021", "1005"]),
+        ("1999", ["2021", "2022", "2023", "1999"]),
+        ("2042", ["2019", "2020", "2021", "2042"]),
+    ] {
+        let report = check(
+            &format!("Item,Year,{MONTHS}\n{}", rows(&years)),
+            Expect {
+                errors: vec![(5, "Year", typo)],
+                ..Expect::default()
+            },
+        );
+        assert_eq!(
+            report.items[0].values.iter().flatten().count(),
+            36,
+            "{typo}"
+        );
+    }
+    for header in ["Last year", "Prior year", "Year total", "Fiscal year"] {
+        let report = read(&format!(
+            "Item,{header},{MONTHS}\nTrowel,2023,{}\nSeed tray,2024,{}\n",
+            year_of(1),
+            year_of(2)
+        ));
+        assert_ne!(report.layout, Layout::Across, "{header}: {report:#?}");
+    }
+    check(
+        &format!(
+            "Item,Year,{MONTHS}\nTrowel,2023,{}\ntrowel ,2024,{}\n",
+            year_of(1),
+            year_of(13)
+        ),
+        Expect {
+            items: Some(vec![(
+                "Trowel",
+                (1..=24).map(|v| Some(f64::from(v))).collect(),
+            )]),
+            warned: vec![vec!["\"Trowel\"", "2 ways", "one item"]],
+            ..Expect::default()
+        },
+    );
+    let annual = read(&format!(
+        "Item,Year,{MONTHS}\nTrowel,1978,{}\nSeed tray,2011,{}\nKneeling pad,1990,{}\n",
+        year_of(1),
+        year_of(2),
+        year_of(3)
+    ));
+    assert_ne!(annual.layout, Layout::Across, "{annual:#?}");
 }

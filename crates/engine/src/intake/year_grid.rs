@@ -18,8 +18,10 @@
 //! across are not read (weeks 1 to 53 rarely stand as columns, and the others cannot be
 //! placed on the calendar).
 
+use std::collections::{HashMap, HashSet};
+
 use super::label::{month_name, year_of};
-use super::table::{header_says, names_item, whole_number, Table};
+use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
 use crate::calendar::{Frequency, Period};
 
@@ -108,13 +110,19 @@ impl YearGrid {
         if parts.iter().any(|p| p.1 != across) || !whole_year {
             return None;
         }
+        // A header naming the calendar year and nothing else: "Last year", "Prior year" and
+        // "Year total" hold figures, and a fiscal year's January may fall in either calendar
+        // year.
         let is_year = |j: usize| {
+            let name = table.column_name(j);
             let years = table
                 .column(j, rows)
                 .iter()
-                .filter(|c| whole_number(c) && c.len() == 4 && year_of(c).is_some())
+                .filter(|c| believable_year(c).is_some())
                 .count();
-            header_says(&table.column_name(j), &["year", "yr"]) && years * 2 > rows.len()
+            header_is_only(&name, &["year", "yr", "calendar"])
+                && header_says(&name, &["year", "yr"])
+                && years * 2 > rows.len()
         };
         let mut others: Vec<usize> = numeric
             .iter()
@@ -130,7 +138,14 @@ impl YearGrid {
             .find(|j| *j < first_part && is_year(*j))?;
         let (mut items, mut ignored) = (Vec::new(), Vec::new());
         for j in others.into_iter().filter(|j| *j != year) {
-            if j > last_part || header_says(&table.column_name(j), &TOTAL_WORDS) {
+            let name = table.column_name(j);
+            if header_says(&name, &TOTAL_WORDS) {
+                ignored.push(j);
+            } else if j > last_part && names_a_part(&name) {
+                // A month or quarter after the year's last ("Jan (next yr)"): not a column to
+                // leave out unread.
+                return None;
+            } else if j > last_part {
                 ignored.push(j);
             } else if periods.contains(&j) {
                 // Another column of periods (a date): not this layout.
@@ -143,7 +158,7 @@ impl YearGrid {
                 return None;
             }
         }
-        if items.is_empty() {
+        if items.is_empty() || !years_shared(rows, year, &items) {
             return None;
         }
         Some(YearGrid {
@@ -183,6 +198,57 @@ impl YearGrid {
     pub(crate) fn ignored(&self) -> &[usize] {
         &self.ignored
     }
+}
+
+/// Whether the items' rows share their years, as a report's rows do: with two items or more,
+/// some year is held by at least half of them. Each item in a year of its own ("1978",
+/// "2011", "1990") is a column of figures under a year's name (a review found annual totals
+/// under "Year" read as each item's own year).
+fn years_shared(rows: &[&Record], year: usize, items: &[usize]) -> bool {
+    let mut names: HashSet<String> = HashSet::new();
+    let mut held: HashMap<i32, HashSet<String>> = HashMap::new();
+    for row in rows {
+        let name: String = items
+            .iter()
+            .map(|j| {
+                row.cells
+                    .get(*j)
+                    .map_or("", String::as_str)
+                    .trim()
+                    .to_lowercase()
+            })
+            .collect::<Vec<_>>()
+            .join("/");
+        let Some(y) = row.cells.get(year).and_then(|c| believable_year(c)) else {
+            continue;
+        };
+        names.insert(name.clone());
+        held.entry(y).or_default().insert(name);
+    }
+    let most = held.values().map(HashSet::len).max().unwrap_or(0);
+    names.len() < 2 || most * 2 >= names.len()
+}
+
+/// The first and last years a year grid's rows may name (our choice: the window two-digit
+/// years are read in elsewhere, 1969 to 2068). Four digits outside it are codes or typos
+/// ("1001", "2204"): taken for years they had spread an item over centuries of gaps.
+const YEARS: std::ops::RangeInclusive<i32> = 1969..=2068;
+
+/// The year a year grid's cell names: four digits within [`YEARS`].
+pub(crate) fn believable_year(cell: &str) -> Option<i32> {
+    let cell = cell.trim();
+    (whole_number(cell) && cell.len() == 4)
+        .then(|| year_of(cell))
+        .flatten()
+        .filter(|y| YEARS.contains(y))
+}
+
+/// Whether a header mentions a month or a quarter anywhere ("Jan (next yr)", "Q1 2025").
+fn names_a_part(header: &str) -> bool {
+    header
+        .to_lowercase()
+        .split(|c: char| !c.is_alphanumeric())
+        .any(|w| month_name(w).is_some() || part_of_year(w).is_some())
 }
 
 /// The month or quarter one header cell names, with its number: a month's name or

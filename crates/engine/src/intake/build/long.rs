@@ -48,6 +48,25 @@ fn shown(spelling: &str) -> String {
 }
 
 impl<'a> Builder<'a> {
+    /// Says that an item's name is written in several ways (`spellings`: each form as written
+    /// and its lines) that differ only in white space or case, read as one item; in every
+    /// layout that gathers an item from several rows.
+    pub(super) fn spellings_said(&mut self, name: &str, spellings: &[(String, Vec<usize>)]) {
+        if spellings.len() < 2 {
+            return;
+        }
+        let forms: Vec<String> = spellings
+            .iter()
+            .map(|(s, l)| format!("{} ({})", shown(s), lines(l)))
+            .collect();
+        self.out.warnings.push(format!(
+            "\"{name}\" is written in {} ways that differ only in white space or case, read \
+             as one item: {}",
+            spellings.len(),
+            listing(&forms)
+        ));
+    }
+
     pub(super) fn long(&mut self, kept: &[&'a Record], column: Option<&PeriodColumn>) {
         let value_column = self.plan.values[0];
         let item_columns = self.plan.item_columns.clone();
@@ -128,18 +147,7 @@ impl<'a> Builder<'a> {
                 continue;
             };
             let zeros_written = rows.iter().any(|r| r.1 == Some(0.0));
-            if spellings.len() > 1 {
-                let forms: Vec<String> = spellings
-                    .iter()
-                    .map(|(s, l)| format!("{} ({})", shown(s), lines(l)))
-                    .collect();
-                self.out.warnings.push(format!(
-                    "\"{name}\" is written in {} ways that differ only in white space or case, \
-                     read as one item: {}",
-                    spellings.len(),
-                    listing(&forms)
-                ));
-            }
+            self.spellings_said(&name, &spellings);
             let periods: Vec<Period> = rows.iter().map(|r| r.0).collect();
             if let Some((odd, beside)) = period_out_of_run(&periods) {
                 let (odd, beside) = (&rows[odd], &rows[beside]);
@@ -559,7 +567,7 @@ fn item_runs(
 /// An item's name in column `j` (from its first row), its white space runs as one space.
 /// The item columns that name `row`'s item (a "no value" marker names nothing) and the name
 /// they make; `None` when none does.
-fn item_name(row: &Record, item_columns: &[usize]) -> Option<(Vec<usize>, String)> {
+pub(super) fn item_name(row: &Record, item_columns: &[usize]) -> Option<(Vec<usize>, String)> {
     let filled: Vec<usize> = item_columns
         .iter()
         .copied()
@@ -586,7 +594,7 @@ fn group_name(item: &LongItem<'_>, j: usize) -> String {
 
 /// The form in which names are compared: white space runs as one space, ends trimmed, lower
 /// case ("Oak  tray", "oak tray" and "OAK TRAY" are one item).
-fn name_key(name: &str) -> String {
+pub(super) fn name_key(name: &str) -> String {
     name.split_whitespace()
         .collect::<Vec<_>>()
         .join(" ")

@@ -1,8 +1,11 @@
 //! Tables of a year down and its months or quarters across ([`crate::intake::Layout::Across`]
 //! with a [`YearGrid`]): each row is one item's year, each cell the period of that year and
 //! its column's part, read with the same number rules as any other layout (errors at the row,
-//! under the part's header). An item's rows may come in any order; a year given twice for one
-//! item is an error at the second row (adding them up could count one thing twice). Periods
+//! under the part's header). An item's rows may come in any order; its name written in ways
+//! that differ only in white space or case is one item, said, as in long tables; a year given
+//! twice for one item is an error at the second row (adding them up could count one thing
+//! twice); a year outside 1969 to 2068, or standing more than five years from the table's
+//! others at its first or last, is an error at its cell (a code or a typo). Periods
 //! an item's history spans that no row or column holds (a year without a row, months without
 //! a column) are gaps, named in a warning; empty cells are said as in every layout.
 //!
@@ -10,19 +13,53 @@
 
 use std::collections::HashMap;
 
+use super::long::{item_name, name_key};
 use super::Builder;
 use crate::calendar::Period;
-use crate::intake::label::year_of;
-use crate::intake::number::is_missing;
-use crate::intake::table::whole_number;
 use crate::intake::text::Record;
-use crate::intake::year_grid::YearGrid;
+use crate::intake::year_grid::{believable_year, YearGrid};
 use crate::intake::Item;
 
-/// One item's rows: its name, and each row with its year.
+/// One item's rows: its name, each row with its year, and the ways its name is written (with
+/// their lines).
 struct ItemRows<'a> {
     name: String,
     rows: Vec<(i32, &'a Record)>,
+    spellings: Vec<(String, Vec<usize>)>,
+}
+
+/// A year standing apart from the table's others, and the nearest of those.
+struct Stray {
+    year: i32,
+    nearest: i32,
+}
+
+/// Most years a first or last year may stand from the next one before it is taken for a typo
+/// (our choice: a product off sale for longer is rare, a mistyped year common).
+const STRAY_GAP: i32 = 5;
+
+/// The table's first or last year when it stands more than [`STRAY_GAP`] years from the next
+/// (the last if both do: newer rows are typed by hand more often).
+fn stray_year(years: &[(i32, &Record)]) -> Option<Stray> {
+    let mut distinct: Vec<i32> = years.iter().map(|(y, _)| *y).collect();
+    distinct.sort_unstable();
+    distinct.dedup();
+    let n = distinct.len();
+    if n < 2 {
+        return None;
+    }
+    let (first, second) = (distinct[0], distinct[1]);
+    let (before_last, last) = (distinct[n - 2], distinct[n - 1]);
+    if last - before_last > STRAY_GAP {
+        return Some(Stray {
+            year: last,
+            nearest: before_last,
+        });
+    }
+    (second - first > STRAY_GAP).then_some(Stray {
+        year: first,
+        nearest: second,
+    })
 }
 
 impl<'a> Builder<'a> {
@@ -41,42 +78,46 @@ impl<'a> Builder<'a> {
         let mut items_rows: Vec<ItemRows<'a>> = Vec::new();
         let mut index: HashMap<String, usize> = HashMap::new();
         let mut seen: HashMap<(usize, i32), usize> = HashMap::new();
+        let mut years: Vec<(i32, &'a Record)> = Vec::new();
         for &row in kept {
-            let name = item_columns
-                .iter()
-                .map(|j| row.cells.get(*j).map_or("", String::as_str))
-                .filter(|c| !is_missing(c))
-                .collect::<Vec<_>>()
-                .join(" / ");
-            if name.is_empty() {
+            let Some((filled, name)) = item_name(row, &item_columns) else {
                 self.no_item_name(row, &item_columns);
                 continue;
-            }
+            };
             let cell = row.cells.get(year_column).map_or("", String::as_str);
-            let year = (whole_number(cell) && cell.len() == 4)
-                .then(|| year_of(cell))
-                .flatten();
-            let Some(year) = year else {
+            let Some(year) = believable_year(cell) else {
                 self.error(
                     row.line,
                     year_column,
                     cell,
                     format!(
-                        "expected a year of four digits (such as 2024): the {} across the \
-                         header are of this row's year",
+                        "expected a year of four digits from 1969 to 2068 (such as 2024): the \
+                         {} across the header are of this row's year",
                         across.words()
                     ),
                 );
                 continue;
             };
-            let key = name.split_whitespace().collect::<Vec<_>>().join(" ");
-            let at = *index.entry(key).or_insert_with(|| {
+            years.push((year, row));
+            // Names that differ only in white space or case are one item, as in long tables.
+            let at = *index.entry(name_key(&name)).or_insert_with(|| {
                 items_rows.push(ItemRows {
-                    name: name.clone(),
+                    name: name.split_whitespace().collect::<Vec<_>>().join(" "),
                     rows: Vec::new(),
+                    spellings: Vec::new(),
                 });
                 items_rows.len() - 1
             });
+            let written = filled
+                .iter()
+                .map(|j| row.as_written(*j))
+                .collect::<Vec<_>>()
+                .join(" / ");
+            let spellings = &mut items_rows[at].spellings;
+            match spellings.iter_mut().find(|(s, _)| *s == written) {
+                Some((_, lines)) => lines.push(row.line),
+                None => spellings.push((written, vec![row.line])),
+            }
             if let Some(first) = seen.get(&(at, year)) {
                 let message = format!(
                     "expected each item's year on one row; \"{name}\" {year} is also on line \
@@ -88,6 +129,27 @@ impl<'a> Builder<'a> {
             }
             seen.insert((at, year), row.line);
             items_rows[at].rows.push((year, row));
+        }
+        // A year far from the table's others, first or last, is a typo: read, it would
+        // spread its items over years of gaps.
+        if let Some(stray) = stray_year(&years) {
+            for item in &mut items_rows {
+                item.rows.retain(|(year, _)| *year != stray.year);
+            }
+            for (year, row) in years.iter().filter(|(y, _)| *y == stray.year) {
+                let cell = row.cells.get(year_column).map_or("", String::as_str);
+                self.error(
+                    row.line,
+                    year_column,
+                    cell,
+                    format!(
+                        "expected a year near the table's others ({year} is {} years from \
+                         {}, the nearest): check this row's year; the row was not read",
+                        (year - stray.nearest).abs(),
+                        stray.nearest
+                    ),
+                );
+            }
         }
         let cells_of = |rows: &[(i32, &'a Record)]| -> Vec<(Period, &'a Record, usize)> {
             rows.iter()
@@ -135,6 +197,7 @@ impl<'a> Builder<'a> {
             let Some(&(_, first_row)) = item.rows.first() else {
                 continue;
             };
+            self.spellings_said(&item.name, &item.spellings);
             let cells = cells_of(&item.rows);
             let Some(values) = self.item_values(&item.name, start, len, &cells) else {
                 continue;
