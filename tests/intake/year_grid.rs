@@ -132,7 +132,7 @@ fn what_cannot_be_placed_is_refused_at_its_cell() {
 
 /// Grids this layout does not read stay refused with what to write instead: no item column,
 /// months missing from the header, months in a fiscal year's order, a price among the
-/// months, weeks across.
+/// months, weeks across, no year at all.
 #[test]
 fn other_grids_stay_refused() {
     let fiscal = "Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec,Jan,Feb,Mar";
@@ -154,6 +154,16 @@ fn other_grids_stay_refused() {
             "Item,Year,W1,W2,W3\nTrowel,2024,5,6,7\nRake,2024,1,2,3\n".to_string(),
             "W1",
         ),
+        // One year's sheet without its year: had been refused at the item column, as periods
+        // written wrongly; now at the first month, saying to add the year.
+        (
+            format!(
+                "Item,{MONTHS}\nTrowel,{}\nRake,{}\n",
+                year_of(1),
+                year_of(3)
+            ),
+            "Jan",
+        ),
     ] {
         check(
             &text,
@@ -163,6 +173,39 @@ fn other_grids_stay_refused() {
             },
         );
     }
+    // Years under another name: refused, asking to name them if they are calendar years.
+    let season = read(&format!(
+        "Item,Season,{MONTHS}\nTrowel,2023,{}\n",
+        year_of(1)
+    ));
+    assert!(
+        season.errors[0]
+            .message
+            .contains("column \"Season\" holds years"),
+        "{season:#?}"
+    );
+    // A year named in German (from memory, as Intake's other period words): read.
+    check(
+        &format!(
+            "Artikel;Jahr;{}\nTrowel;2023;{}\n",
+            MONTHS.replace(',', ";"),
+            year_of(1).replace(',', ";")
+        ),
+        Expect {
+            items: Some(vec![(
+                "Trowel",
+                (1..=12).map(|v| Some(f64::from(v))).collect(),
+            )]),
+            ..Expect::default()
+        },
+    );
+    let without_year = read(&format!("Item,{MONTHS}\nTrowel,{}\n", year_of(1)));
+    assert!(
+        without_year.errors[0]
+            .message
+            .contains("add a column \"Year\""),
+        "{without_year:#?}"
+    );
 }
 
 /// What spreadsheets put beside such a grid: notes and a total right of the months (not

@@ -86,7 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
-use super::year_grid::YearGrid;
+use super::year_grid::{without_a_year, YearGrid};
 use super::{Layout, RowError};
 
 /// How far down a header or title line is looked for.
@@ -565,6 +565,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             .collect();
         if let Some(grid) = YearGrid::find(table, &rows, &numeric, &periods, &item_columns) {
             return Ok(year_grid_plan(&roles, grid));
+        }
+        if let Some(error) = without_a_year(table, &rows, &numeric, &periods, &item_columns) {
+            return Err(error);
         }
     }
     // Number columns headed by parts of what a row is (months over years, weekdays over

@@ -14,7 +14,9 @@
 //! under a header naming items: "SKU"); right of them anything (a total, notes: not read,
 //! said), and a row total anywhere ("Total"). Anything else (a price among the months, a
 //! second date, months missing or in a fiscal year's order) is not this layout: such grids
-//! stay refused with what to write instead. Weeks, halves and numbered accounting periods
+//! stay refused with what to write instead; the whole year's months across beside items with
+//! no year anywhere (`Item,Jan,...,Dec`) are refused saying to add the year
+//! ([`without_a_year`]). Weeks, halves and numbered accounting periods
 //! across are not read (weeks 1 to 53 rarely stand as columns, and the others cannot be
 //! placed on the calendar).
 
@@ -23,6 +25,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
+use super::RowError;
 use crate::calendar::{Frequency, Period};
 
 /// What the columns across the header count within a year.
@@ -93,23 +96,11 @@ impl YearGrid {
         periods: &[usize],
         texts: &[usize],
     ) -> Option<YearGrid> {
-        let header = table.header.as_ref()?;
         if rows.is_empty() {
             return None;
         }
-        let cell = |j: usize| header.cells.get(j).map_or("", String::as_str);
-        let parts: Vec<(usize, Across, u32)> = numeric
-            .iter()
-            .filter_map(|&j| part_of_year(cell(j)).map(|(kind, n)| (j, kind, n)))
-            .collect();
-        let &(first_part, across, _) = parts.first()?;
-        let last_part = parts.last()?.0;
-        // The whole year in calendar order: with months missing from the header, every year
-        // of every item would have gaps to fill.
-        let whole_year = parts.iter().map(|p| p.2).eq(1..=across.max());
-        if parts.iter().any(|p| p.1 != across) || !whole_year {
-            return None;
-        }
+        let (across, parts) = whole_year(table, numeric)?;
+        let (first_part, last_part) = (parts.first()?.0, parts.last()?.0);
         // A header naming the calendar year and nothing else: "Last year", "Prior year" and
         // "Year total" hold figures, and a fiscal year's January may fall in either calendar
         // year.
@@ -120,8 +111,8 @@ impl YearGrid {
                 .iter()
                 .filter(|c| believable_year(c).is_some())
                 .count();
-            header_is_only(&name, &["year", "yr", "calendar"])
-                && header_says(&name, &["year", "yr"])
+            (header_is_only(&name, &YEAR_WORDS) || header_is_only(&name, &["calendar", "year"]))
+                && header_says(&name, &YEAR_WORDS)
                 && years * 2 > rows.len()
         };
         let mut others: Vec<usize> = numeric
@@ -164,7 +155,7 @@ impl YearGrid {
         Some(YearGrid {
             year,
             across,
-            parts: parts.into_iter().map(|(j, _, n)| (j, n)).collect(),
+            parts,
             items,
             ignored,
         })
@@ -199,6 +190,93 @@ impl YearGrid {
         &self.ignored
     }
 }
+
+/// The number columns `numeric` headed by the whole year's months or quarters, each once, in
+/// calendar order, with their numbers; `None` when the header holds no such run. With months
+/// missing from the header, every year of every item would have gaps to fill.
+fn whole_year(table: &Table, numeric: &[usize]) -> Option<(Across, Vec<(usize, u32)>)> {
+    let header = table.header.as_ref()?;
+    let parts: Vec<(usize, Across, u32)> = numeric
+        .iter()
+        .filter_map(|&j| {
+            let cell = header.cells.get(j)?;
+            part_of_year(cell).map(|(kind, n)| (j, kind, n))
+        })
+        .collect();
+    let across = parts.first()?.1;
+    let whole = parts.iter().map(|p| p.2).eq(1..=across.max());
+    (whole && parts.iter().all(|p| p.1 == across))
+        .then(|| (across, parts.into_iter().map(|(j, _, n)| (j, n)).collect()))
+}
+
+/// The error for the whole year's months (or quarters) across the header beside columns naming
+/// items, with no column of years nor any other period: which year each figure is of is
+/// nowhere in the table (`Item,Jan,...,Dec`, one year's sheet). It had been refused at the
+/// item column as periods written wrongly. `None` for any other table.
+pub(crate) fn without_a_year(
+    table: &Table,
+    rows: &[&Record],
+    numeric: &[usize],
+    periods: &[usize],
+    texts: &[usize],
+) -> Option<RowError> {
+    let header = table.header.as_ref()?;
+    let (across, parts) = whole_year(table, numeric)?;
+    let first = parts.first()?.0;
+    let named_year = (0..table.width).any(|j| header_says(&table.column_name(j), &YEAR_WORDS));
+    if named_year || !texts.iter().any(|j| *j < first) {
+        return None;
+    }
+    // Years under another name ("Season", "Period", "FY"): calendar years or not, only the
+    // user knows.
+    let years_unnamed = numeric.iter().chain(periods).copied().find(|&j| {
+        j < first
+            && table
+                .column(j, rows)
+                .iter()
+                .filter(|c| believable_year(c).is_some())
+                .count()
+                * 2
+                > rows.len()
+    });
+    if !periods.is_empty() && years_unnamed.is_none() {
+        return None;
+    }
+    let layout = match across {
+        Across::Months => "Item,Year,Jan,Feb,...,Dec",
+        Across::Quarters => "Item,Year,Q1,Q2,Q3,Q4",
+    };
+    let name = table.column_name(first);
+    let message = match years_unnamed {
+        Some(j) => format!(
+            "expected a column named \"Year\" beside the {} across the header: column \"{}\" \
+             holds years, but its header does not say they are calendar years; if they are, \
+             name it \"Year\" ({layout}); a fiscal year's months cannot be placed (write \
+             calendar months or dates)",
+            across.words(),
+            table.column_name(j)
+        ),
+        None => format!(
+            "expected the year of the {} across the header; none is written: add a column \
+             \"Year\" with each row's year, left of the {} ({layout}), or write the year in \
+             each header (such as {name} 2024)",
+            across.words(),
+            across.words()
+        ),
+    };
+    Some(RowError {
+        row: header.line,
+        column: name.clone(),
+        text: name,
+        message,
+    })
+}
+
+/// Header words naming a calendar year: English, and (from memory) the German, French, Dutch,
+/// Spanish and Italian ones written in plain letters.
+const YEAR_WORDS: [&str; 9] = [
+    "year", "yr", "jahr", "annee", "année", "jaar", "ano", "año", "anno",
+];
 
 /// Whether the items' rows share their years, as a report's rows do: with two items or more,
 /// some year is held by at least half of them. Each item in a year of its own ("1978",
