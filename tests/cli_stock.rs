@@ -361,3 +361,77 @@ fn one_workbook_gives_the_history_and_the_stock_table() {
         "sales.xlsx, sheet \u{201c}Stock\u{201d}"
     );
 }
+
+/// A workbook whose sheet to read is unclear (one sheet per year, `year_sheets.xlsx`):
+/// refused, its sheets listed with how to name one; `--sheet` reads the one named, in every
+/// command reading FILE, and a work carries that sheet's rows named with it; `--stock-sheet`
+/// names the stock table's sheet. A sheet that is not there, or `--sheet` for a file that is
+/// no workbook, is refused in words.
+#[test]
+fn a_sheet_is_named_on_the_command_line() {
+    let fixture = |name: &str| {
+        format!(
+            "{}/tests/fixtures/workbooks/{name}",
+            env!("CARGO_MANIFEST_DIR")
+        )
+    };
+    let years = fixture("year_sheets.xlsx");
+    let unclear = cli(&["inspect", &years], b"");
+    assert!(
+        unclear.text().contains(
+            "the workbook's sheets that can be read: \"2024\", \"2025\"; --sheet NAME reads one"
+        ),
+        "{}",
+        unclear.text()
+    );
+    let chosen = cli(&["forecast", &years, "--sheet", "2025", "--json"], b"");
+    assert_eq!(chosen.code, 0, "{}", chosen.stderr);
+    let json = chosen.json();
+    // The 2025 sheet runs from January to June: the forecast starts in July 2025.
+    assert_eq!(json["items"][0]["forecast"][0]["period"], "2025-07");
+    let work = cli(&["work", &years, "--sheet", "2024"], b"");
+    assert_eq!(work.code, 0, "{}", work.stderr);
+    let written: serde_json::Value = serde_json::from_slice(&work.stdout).unwrap();
+    assert_eq!(
+        written["history"]["source"],
+        "year_sheets.xlsx, sheet \u{201c}2024\u{201d}"
+    );
+    assert!(written["history"]["text"]
+        .as_str()
+        .unwrap()
+        .contains("2024-01"));
+    let missing = cli(&["inspect", &years, "--sheet", "2026"], b"");
+    assert_ne!(missing.code, 0);
+    assert!(
+        missing.stderr.contains("no sheet \"2026\"") && missing.stderr.contains("\"2025\""),
+        "{}",
+        missing.stderr
+    );
+    let not_a_book = cli(&["inspect", &fixture("stock.csv"), "--sheet", "2025"], b"");
+    assert!(
+        not_a_book.stderr.contains("not a workbook"),
+        "{}",
+        not_a_book.stderr
+    );
+    let book = fixture("sales.xlsx");
+    let stock = cli(
+        &[
+            "stock",
+            &book,
+            "--stock",
+            &book,
+            "--stock-sheet",
+            "Stock",
+            "--json",
+        ],
+        b"",
+    );
+    assert_eq!(stock.code, 0, "{}", stock.stderr);
+    assert_eq!(item_named(&stock.json(), "Frost cloth")["on_order"], 20.0);
+    let alone = cli(&["stock", &book, "--stock-sheet", "Stock"], b"");
+    assert!(
+        alone.stderr.contains("give --stock TABLE too"),
+        "{}",
+        alone.stderr
+    );
+}

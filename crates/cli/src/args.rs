@@ -17,19 +17,20 @@ pub fn usage() -> String {
     format!(
         "\
 usage:
-  morrowcast inspect FILE [--json] [--leave-out-unfinished]
-  morrowcast forecast FILE [--item NAME]... [--horizon auto|H] [--season auto|none|N]
+  morrowcast inspect FILE [--sheet NAME] [--json] [--leave-out-unfinished]
+  morrowcast forecast FILE [--sheet NAME] [--item NAME]... [--horizon auto|H] [--season auto|none|N]
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
                       [--method auto|best|NAME] [--leave-out-unfinished] [--json]
-  morrowcast stock FILE [--stock TABLE] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
+  morrowcast stock FILE [--stock TABLE [--stock-sheet NAME]] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
                    [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
                    [forecast options] [--json]
   morrowcast look-back FILE [--periods N] [stock options] [forecast options] [--json]
   morrowcast link FILE [--item NAME] [--page ADDRESS] [--look-back N] [stock options] [forecast options]
   morrowcast work FILE [--item NAME] [--look-back N] [stock options] [forecast options]
   morrowcast demo            print the demo data (Fernhollow Garden Supply) as CSV
-FILE may be - for standard input, a work file, or a share link (or its fragment, #w1...): a
+FILE may be - for standard input, a workbook (.xlsx, .xlsm, .ods: its fullest sheet, or the one
+--sheet NAME names), a work file, or a share link (or its fragment, #w1...): a
 work brings its data, settings, stock inputs and item changes; options given replace its own.
 link prints a share link (the page's ADDRESS, default http://127.0.0.1:8080/, then a fragment
 carrying the data: whoever has the link has the data); work prints a work file. --item NAME
@@ -42,7 +43,8 @@ stock: lead time L and review period R in whole periods (L default 1; without --
 continuous review; none leaves it, --lead-time-sd or --order-quantity out, a work's own too); --service (cycle service level, default 95) and --fill-rate take a fraction
 (0.95) or a percent (95). --stock TABLE: a table with a header and a row per item: item, on
 hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
-quantity, order multiple, minimum order (each overrides the options for its item). Stock figures
+quantity, order multiple, minimum order (each overrides the options for its item); of a workbook,
+the sheet naming on hand, or the one --stock-sheet NAME names. Stock figures
 are estimates from past demand: your own policies, supplier terms and judgement decide the order.
 look-back: the plan of N periods ago (default a work's own Look-back, else 1; the history without
 its last N periods, the same settings) against what sold since: each period's forecast and band, and whether the reorder point
@@ -61,6 +63,8 @@ pub enum Command {
     Demo,
     Inspect {
         file: String,
+        /// `--sheet NAME`: the workbook's sheet to read.
+        sheet: Option<String>,
         json: bool,
         /// `--leave-out-unfinished`: the last period left out where it looks unfinished.
         leave_out: bool,
@@ -164,6 +168,8 @@ impl TypedStock {
 
 pub struct StockArgs {
     pub file: String,
+    /// `--sheet NAME`: FILE's sheet to read, FILE a workbook.
+    pub sheet: Option<String>,
     /// Items to plan, in the order given; empty: every item of the file.
     pub items: Vec<String>,
     pub json: bool,
@@ -173,6 +179,8 @@ pub struct StockArgs {
     pub stock: stock::StockSettings,
     /// The stock table's file (`-`: standard input), when given.
     pub table: Option<String>,
+    /// `--stock-sheet NAME`: the stock table's sheet to read, the table a workbook.
+    pub table_sheet: Option<String>,
     /// The settings as typed (for a work given as FILE).
     pub typed: TypedSettings,
     pub typed_stock: TypedStock,
@@ -180,6 +188,8 @@ pub struct StockArgs {
 
 pub struct ForecastArgs {
     pub file: String,
+    /// `--sheet NAME`: FILE's sheet to read, FILE a workbook.
+    pub sheet: Option<String>,
     /// Items to plan, in the order given; empty: every item of the file.
     pub items: Vec<String>,
     pub json: bool,
@@ -204,12 +214,20 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
         "demo" => Ok(Command::Demo),
         "inspect" => {
             let mut file = None;
+            let mut sheet = None;
             let mut json = false;
             let mut leave_out = false;
-            for a in rest {
+            let mut args = rest.iter();
+            while let Some(a) = args.next() {
                 match a.as_str() {
                     "--json" => json = true,
                     LEAVE_OUT => leave_out = true,
+                    "--sheet" => {
+                        let name = args.next().ok_or("--sheet needs a value")?;
+                        if sheet.replace(name.to_string()).is_some() {
+                            return Err("--sheet is given twice: give it once".to_string());
+                        }
+                    }
                     s if s.starts_with("--") => return Err(format!("inspect does not know {s}")),
                     s => {
                         if let Some(earlier) = &file {
@@ -224,6 +242,7 @@ pub fn parse(argv: &[String]) -> Result<Command, String> {
             let file = file.ok_or("inspect needs a FILE (or - for standard input)")?;
             Ok(Command::Inspect {
                 file,
+                sheet,
                 json,
                 leave_out,
             })
@@ -240,6 +259,7 @@ fn parse_forecast(rest: &[String]) -> Result<ForecastArgs, String> {
     let parsed = parse_item_command("forecast", rest, &mut |_, _| Ok(false))?;
     Ok(ForecastArgs {
         file: parsed.file,
+        sheet: parsed.sheet,
         items: parsed.items,
         json: parsed.json,
         leave_out: parsed.leave_out,
@@ -334,6 +354,7 @@ fn parse_stock(
     let mut fill_rate = None;
     let mut order_quantity = None;
     let mut table = None;
+    let mut table_sheet = None;
     let parsed = parse_item_command(command, rest, &mut |flag, value| {
         let slot = match flag {
             "--lead-time" => {
@@ -346,6 +367,7 @@ fn parse_stock(
             "--fill-rate" => &mut fill_rate,
             "--order-quantity" => &mut order_quantity,
             "--stock" => &mut table,
+            "--stock-sheet" => &mut table_sheet,
             _ => return more(flag, value),
         };
         *slot = Some(value.to_string());
@@ -416,8 +438,15 @@ fn parse_stock(
             .map_err(|e| e.to_string())?;
     }
     check_horizon(&parsed.settings, &stock)?;
+    if table_sheet.is_some() && table.is_none() {
+        return Err(
+            "--stock-sheet names a sheet of the stock table: give --stock TABLE too".into(),
+        );
+    }
     Ok(StockArgs {
         file: parsed.file,
+        sheet: parsed.sheet,
+        table_sheet,
         items: parsed.items,
         json: parsed.json,
         leave_out: parsed.leave_out,
@@ -444,6 +473,7 @@ pub fn check_horizon(settings: &PlanSettings, stock: &stock::StockSettings) -> R
 /// What the item commands share.
 struct ItemCommand {
     file: String,
+    sheet: Option<String>,
     items: Vec<String>,
     json: bool,
     leave_out: bool,
@@ -461,6 +491,7 @@ fn parse_item_command(
     extra: &mut dyn FnMut(&str, &str) -> Result<bool, String>,
 ) -> Result<ItemCommand, String> {
     let mut file = None;
+    let mut sheet = None;
     let mut items: Vec<String> = Vec::new();
     let mut json = false;
     let mut leave_out = false;
@@ -506,6 +537,7 @@ fn parse_item_command(
                 }
                 items.push(value.to_string());
             }
+            "--sheet" => sheet = Some(value.to_string()),
             "--horizon" => text.horizon = value.into(),
             "--season" => text.season = value.into(),
             "--holdout" => text.holdout = value.into(),
@@ -555,6 +587,7 @@ fn parse_item_command(
     .collect();
     Ok(ItemCommand {
         file,
+        sheet,
         items,
         json,
         leave_out,

@@ -77,8 +77,16 @@ impl Input {
 /// Reads FILE: a share link given as the argument itself (when no file has that name), or a
 /// file or standard input holding a work file, a share link or a history; with `leave_out`
 /// (`--leave-out-unfinished`), [`leave_out_unfinished`] then.
-pub fn read_any(file: &str, stdin: &mut dyn Read, leave_out: bool) -> Result<Input, String> {
-    let input = read_whole(file, stdin)?;
+pub fn read_any(
+    file: &str,
+    sheet: Option<&str>,
+    stdin: &mut dyn Read,
+    leave_out: bool,
+) -> Result<Input, String> {
+    let input = match sheet {
+        Some(sheet) => read_sheet(file, sheet, stdin)?,
+        None => read_whole(file, stdin)?,
+    };
     if leave_out {
         leave_out_unfinished(input)
     } else {
@@ -152,6 +160,19 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
     })
 }
 
+/// The sheet `sheet` of the workbook FILE (`--sheet`), as its history.
+fn read_sheet(file: &str, sheet: &str, stdin: &mut dyn Read) -> Result<Input, String> {
+    let bytes = read_input(file, stdin)?;
+    let text = intake::history_text_of_sheet(&bytes, sheet)
+        .map(|f| f.text)
+        .map_err(|why| format!("--sheet {}: {why}", crate::table::quoted(sheet)))?;
+    Ok(Input::History(
+        intake::read_bytes_of_sheet(&bytes, sheet),
+        text,
+        None,
+    ))
+}
+
 /// FILE read as it is (see [`read_any`]).
 fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
     let text = if file != "-" && !std::path::Path::new(file).exists() && Work::is_work(file) {
@@ -160,7 +181,17 @@ fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
         let bytes = read_input(file, stdin)?;
         let text = intake::decode_bytes(&bytes);
         if !Work::is_work(&text) {
-            return Ok(Input::History(intake::read_bytes(&bytes), text, None));
+            let mut report = intake::read_bytes(&bytes);
+            // A workbook whose sheet to read is unclear: its sheets, and how to name one.
+            let sheets = intake::workbook_sheets(&bytes);
+            if report.items.is_empty() && sheets.len() >= 2 {
+                let names: Vec<String> = sheets.iter().map(|s| crate::table::quoted(s)).collect();
+                report.warnings.push(format!(
+                    "the workbook's sheets that can be read: {}; --sheet NAME reads one",
+                    names.join(", ")
+                ));
+            }
+            return Ok(Input::History(report, text, None));
         }
         text
     };
@@ -183,16 +214,19 @@ pub fn stock_inputs(
             "FILE and --stock TABLE cannot both be standard input: name one as a file".into(),
         );
     }
-    let input = read_any(&sa.file, stdin, sa.leave_out)?;
+    let input = read_any(&sa.file, sa.sheet.as_deref(), stdin, sa.leave_out)?;
     let table = match &sa.table {
         Some(path) => {
             let bytes = read_input(path, stdin)?;
-            // A workbook's sheet naming on hand, as the table is read from, so a work or link
-            // carries the rows read.
-            let (text, sheet) = match intake::stock_table_text(&bytes) {
-                Ok(file) => (file.text, file.sheet),
-                Err(_) => (String::new(), None),
+            // A workbook's sheet naming on hand (or the one --stock-sheet names), as the table
+            // is read from, so a work or link carries the rows read.
+            let file = match &sa.table_sheet {
+                Some(sheet) => intake::history_text_of_sheet(&bytes, sheet).map_err(|why| {
+                    format!("--stock-sheet {}: {why}", crate::table::quoted(sheet))
+                })?,
+                None => intake::stock_table_text(&bytes).unwrap_or_default(),
             };
+            let (text, sheet) = (file.text, file.sheet);
             let text = SourcedText {
                 text,
                 source: match sheet {
@@ -200,7 +234,11 @@ pub fn stock_inputs(
                     None => source_name(path),
                 },
             };
-            Some((intake::read_stock_table(&bytes, input.report()), text))
+            let read = match &sa.table_sheet {
+                Some(sheet) => intake::read_stock_table_of_sheet(&bytes, sheet, input.report()),
+                None => intake::read_stock_table(&bytes, input.report()),
+            };
+            Some((read, text))
         }
         None => None,
     };

@@ -61,13 +61,15 @@ pub fn run(
         }
         Command::Inspect {
             file,
+            sheet,
             json,
             leave_out,
-        } => match read_any(&file, stdin, leave_out) {
+        } => match read_any(&file, sheet.as_deref(), stdin, leave_out) {
             Ok(input) => inspect(&mut console, input.report(), json),
             Err(message) => console.fail_input(&message),
         },
-        Command::Forecast(fa) => match read_any(&fa.file, stdin, fa.leave_out) {
+        Command::Forecast(fa) => match read_any(&fa.file, fa.sheet.as_deref(), stdin, fa.leave_out)
+        {
             Ok(input) => {
                 let settings = match input.settings(&fa.typed, &fa.settings) {
                     Ok(s) => s,
@@ -139,7 +141,10 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     let mut work = match input {
         Input::Work(w, _) => *w,
         Input::History(_, text, left_out) => {
-            let source = source_name(&sa.file);
+            let source = match &sa.sheet {
+                Some(sheet) => format!("{}, sheet \u{201c}{sheet}\u{201d}", source_name(&sa.file)),
+                None => source_name(&sa.file),
+            };
             let source = match left_out {
                 Some(period) => SourcedText::named_without(&source, &period),
                 None => source,

@@ -58,6 +58,16 @@ pub(crate) struct SheetChoice<'a> {
     pub prefer: &'a dyn Fn(&str) -> bool,
 }
 
+impl<'a> SheetChoice<'a> {
+    /// The sheet named `sheet`, whatever the workbook would give.
+    pub(crate) fn named(sheet: &'a str) -> SheetChoice<'a> {
+        SheetChoice {
+            named: Some(sheet),
+            prefer: &|_| false,
+        }
+    }
+}
+
 /// The fullest sheet.
 pub(crate) const FULLEST: SheetChoice<'static> = SheetChoice {
     named: None,

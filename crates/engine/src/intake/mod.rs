@@ -147,7 +147,9 @@ mod workbook;
 mod year_grid;
 
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
-pub use stock_table::{read_stock_table, read_stock_table_text, StockRow, StockTable};
+pub use stock_table::{
+    read_stock_table, read_stock_table_of_sheet, read_stock_table_text, StockRow, StockTable,
+};
 pub use unfinished::UnfinishedPeriod;
 
 use crate::calendar::{Frequency, Period};
@@ -320,7 +322,33 @@ impl IntakeReport {
 /// every line holding bytes that are not text is an error (see the `decode` module). Never
 /// panics, whatever the bytes.
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
-    let decoded = decode::decode(bytes);
+    report_of(decode::decode(bytes))
+}
+
+/// Reads the sheet `sheet` of the workbook in `bytes` as [`read_bytes`] reads the sheet it
+/// chooses (for a front end letting the user name it: the command line's `--sheet`); a
+/// refusal when that sheet cannot be read, or `bytes` are no workbook.
+pub fn read_bytes_of_sheet(bytes: &[u8], sheet: &str) -> IntakeReport {
+    if !workbook::is_workbook(bytes) {
+        let mut report = empty_report(Delimiter::Comma);
+        report.errors.push(decode::refusal(not_a_workbook(sheet)));
+        return report;
+    }
+    report_of(decode::decode_choosing(
+        bytes,
+        &decode::SheetChoice::named(sheet),
+    ))
+}
+
+/// Why a sheet was named for a file that is no workbook.
+fn not_a_workbook(sheet: &str) -> String {
+    format!(
+        "the sheet \"{sheet}\" was asked for, but the file is not a workbook (.xlsx, .xlsm or \
+         .ods): read it without naming a sheet"
+    )
+}
+
+fn report_of(decoded: decode::Decoded) -> IntakeReport {
     if let Some(why) = decoded.refused {
         let mut report = empty_report(Delimiter::Comma);
         report.errors.push(decode::refusal(why));
@@ -344,7 +372,7 @@ pub fn decode_bytes(bytes: &[u8]) -> String {
 
 /// A file's text as Intake reads it, for a front end that shows the text itself (the page's
 /// box) and names its source.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, Default, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct FileText {
     /// The text: the file's own, or a workbook's sheet as comma-separated text.
@@ -402,11 +430,13 @@ pub fn history_text(bytes: &[u8]) -> Result<FileText, String> {
 /// A workbook's sheet `sheet` as a history's text, whichever the workbook would give; `Err`
 /// as [`history_text`], or when that sheet cannot be read.
 pub fn history_text_of_sheet(bytes: &[u8], sheet: &str) -> Result<FileText, String> {
-    let choice = decode::SheetChoice {
-        named: Some(sheet),
-        prefer: &|_| false,
-    };
-    FileText::of(decode::decode_choosing(bytes, &choice))
+    if !workbook::is_workbook(bytes) {
+        return Err(not_a_workbook(sheet));
+    }
+    FileText::of(decode::decode_choosing(
+        bytes,
+        &decode::SheetChoice::named(sheet),
+    ))
 }
 
 /// The sheets of the workbook in `bytes` that may be read (visible, readable, holding cells),
