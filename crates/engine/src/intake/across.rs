@@ -27,7 +27,7 @@ use super::number::looks_number;
 use super::period::{dotted_month, integer_meaning, mostly, strong_family, IntegerMeaning};
 use super::table::{header_says, names_item, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
 use super::text::Record;
-use super::{Layout, RowError};
+use super::RowError;
 
 /// The number of item columns when `record` is a header across, else `None`.
 fn item_columns(record: &Record) -> Option<usize> {
@@ -233,21 +233,5 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             empty.push(j);
         }
     }
-    Ok(Plan {
-        layout: Layout::Across,
-        period: None,
-        item_columns,
-        values,
-        ignored,
-        empty,
-        codes: Vec::new(),
-        row_numbers: Vec::new(),
-        calendar: Vec::new(),
-        not_quantities: Vec::new(),
-        of_items: Vec::new(),
-        notes: Vec::new(),
-        details: Vec::new(),
-        split: None,
-        grid: None,
-    })
+    Ok(Plan::across(item_columns, values, ignored, empty))
 }

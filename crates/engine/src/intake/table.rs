@@ -858,24 +858,47 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
 /// its values under the month or quarter columns, its row totals and what stands right of the
 /// months not read (said as columns naming no period).
 fn year_grid_plan(roles: &[Role], grid: YearGrid) -> Plan {
+    let empty = (0..roles.len())
+        .filter(|j| roles[*j] == Role::Empty)
+        .collect();
     Plan {
-        layout: Layout::Across,
-        period: None,
-        item_columns: grid.items().to_vec(),
-        values: grid.part_columns(),
-        ignored: grid.ignored().to_vec(),
-        empty: (0..roles.len())
-            .filter(|j| roles[*j] == Role::Empty)
-            .collect(),
-        codes: Vec::new(),
-        row_numbers: Vec::new(),
-        calendar: Vec::new(),
-        not_quantities: Vec::new(),
-        of_items: Vec::new(),
-        notes: Vec::new(),
-        details: Vec::new(),
-        split: None,
-        grid: Some(grid),
+        grid: Some(grid.clone()),
+        ..Plan::across(
+            grid.items().to_vec(),
+            grid.part_columns(),
+            grid.ignored().to_vec(),
+            empty,
+        )
+    }
+}
+
+impl Plan {
+    /// A plan of periods across the header: the items named by `item_columns`, the values
+    /// under `values`, the columns `ignored` said as not read, the `empty` ones; no other
+    /// role (a table across has no period column, codes, notes or details).
+    pub(crate) fn across(
+        item_columns: Vec<usize>,
+        values: Vec<usize>,
+        ignored: Vec<usize>,
+        empty: Vec<usize>,
+    ) -> Plan {
+        Plan {
+            layout: Layout::Across,
+            period: None,
+            item_columns,
+            values,
+            ignored,
+            empty,
+            codes: Vec::new(),
+            row_numbers: Vec::new(),
+            calendar: Vec::new(),
+            not_quantities: Vec::new(),
+            of_items: Vec::new(),
+            notes: Vec::new(),
+            details: Vec::new(),
+            split: None,
+            grid: None,
+        }
     }
 }
 

@@ -75,6 +75,7 @@ impl<'a> Builder<'a> {
             across.words()
         ));
         let item_columns = self.plan.item_columns.clone();
+        let year_cell = |row: &'a Record| row.cells.get(year_column).map_or("", String::as_str);
         let mut items_rows: Vec<ItemRows<'a>> = Vec::new();
         let mut index: HashMap<String, usize> = HashMap::new();
         let mut seen: HashMap<(usize, i32), usize> = HashMap::new();
@@ -84,7 +85,7 @@ impl<'a> Builder<'a> {
                 self.no_item_name(row, &item_columns);
                 continue;
             };
-            let cell = row.cells.get(year_column).map_or("", String::as_str);
+            let cell = year_cell(row);
             let Some(year) = believable_year(cell) else {
                 self.error(
                     row.line,
@@ -137,11 +138,10 @@ impl<'a> Builder<'a> {
                 item.rows.retain(|(year, _)| *year != stray.year);
             }
             for (year, row) in years.iter().filter(|(y, _)| *y == stray.year) {
-                let cell = row.cells.get(year_column).map_or("", String::as_str);
                 self.error(
                     row.line,
                     year_column,
-                    cell,
+                    year_cell(row),
                     format!(
                         "expected a year near the table's others ({year} is {} years from \
                          {}, the nearest): check this row's year; the row was not read",
@@ -168,29 +168,9 @@ impl<'a> Builder<'a> {
         let (Some(&start), Some(&last)) = (all.iter().min(), all.iter().max()) else {
             return;
         };
+        // Years run 1969 to 2068 (`believable_year`): at most 1,200 months, far within the
+        // builder's longest run (`MAX_PERIODS`), so no span is refused here.
         let steps = start.steps_to(last);
-        if steps >= crate::intake::build::MAX_PERIODS {
-            // At the row of the latest year, as the across layout names its latest column.
-            let latest = items_rows
-                .iter()
-                .flat_map(|item| item.rows.iter())
-                .max_by_key(|(year, row)| (*year, row.line));
-            if let Some(&(_, row)) = latest {
-                let cell = row.cells.get(year_column).map_or("", String::as_str);
-                self.error(
-                    row.line,
-                    year_column,
-                    cell,
-                    format!(
-                        "expected years within {} {} of the first ({start}); check this \
-                         row's year",
-                        crate::intake::build::MAX_PERIODS,
-                        across.words()
-                    ),
-                );
-            }
-            return;
-        }
         let len = steps as usize + 1;
         let mut items: Vec<Item> = Vec::new();
         for item in items_rows {
