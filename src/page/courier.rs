@@ -1,5 +1,7 @@
 //! The page's side of the plan worker: sends asks, keeps at most one in flight, and hands the
-//! newest answer to the page's state.
+//! newest answer to the page's state; and how the page starts any of its workers (the plan
+//! worker, the reading worker of reader.rs) under its policy, from the module index.html or
+//! the single file names.
 //!
 //! Kept apart from: what the worker computes (src/worker) and how answers are shown. Only this
 //! file and the worker serialise in the browser (gloo-worker's bincode codec). The rules of
@@ -159,6 +161,12 @@ fn module_workers_supported() -> bool {
     seen.get()
 }
 
+/// Whether the page names the worker module `file` (built by scripts/inline-wasm.sh, or
+/// carried inside the single file).
+pub fn names_worker(file: WorkerFile) -> bool {
+    worker_module(file).is_some() || inline_worker(file).is_some()
+}
+
 /// Why the page has no worker to compute with.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum NoWorker {
@@ -184,7 +192,7 @@ impl NoWorker {
 
 /// Whether the page can start its workers, and why not.
 pub fn can_start_workers() -> Result<(), NoWorker> {
-    if worker_module(PLAN_WORKER).is_none() && inline_worker(PLAN_WORKER).is_none() {
+    if !names_worker(PLAN_WORKER) {
         return Err(NoWorker::NotBuilt);
     }
     if !module_workers_supported() {

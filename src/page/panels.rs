@@ -23,7 +23,7 @@ use super::state::{
 use super::words;
 
 /// Reads a file locally; `done` gets its text (a workbook's sheet as `want` says, read in the
-/// workbook worker, after `reading` is told the file's name), or why it could not be read,
+/// reading worker, after `reading` is told the file's name), or why it could not be read,
 /// with the file's name and bytes. Text is decoded by the engine (UTF-8, or UTF-16 with its
 /// byte-order mark), not by the browser's `text()`, which would replace what it cannot read
 /// without a word; the engine's marks for such bytes are reported by the reader, line by line.

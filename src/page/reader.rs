@@ -15,9 +15,11 @@ use std::rc::Rc;
 
 use gloo_worker::WorkerBridge;
 use leptos::prelude::*;
-use morrowcast_engine::intake::{FileText, IntakeReport};
+use morrowcast_engine::intake::{self, FileText, IntakeReport, RowError};
 
-use super::courier::{can_start_workers, spawn_reading_worker, NoWorker};
+use super::courier::{
+    can_start_workers, names_worker, spawn_reading_worker, NoWorker, READING_WORKER,
+};
 use crate::worker::reading::{
     BookAsk, BookWant, ReadAsk, ReadNews, ReadingWorker, Refused, READ_FAULT_PREFIX,
 };
@@ -31,6 +33,8 @@ struct Reading {
     bridge: Option<WorkerBridge<ReadingWorker>>,
     /// Where large texts' reports go (the Intake state's [`Reader`]).
     texts: Option<Deliver>,
+    /// The ticket of the large text asked about last and not answered yet.
+    text_asked: Option<u64>,
     /// Each workbook's callback, by its ticket.
     books: HashMap<u64, Done>,
     next_book: u64,
@@ -45,6 +49,9 @@ thread_local! {
 /// Sends `ask` to the reading worker, starting it first if need be; `Err` when it cannot be
 /// started (the page names no reading worker).
 fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
+    if !names_worker(READING_WORKER) {
+        return Err(NoWorker::NotBuilt);
+    }
     if reading.bridge.is_none() {
         reading.bridge = spawn_reading_worker(arrived);
         if !reading.listening {
@@ -60,7 +67,13 @@ fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
 fn arrived(news: ReadNews) {
     match news {
         ReadNews::Text { ticket, report } => {
-            let deliver = READING.with(|r| r.borrow().texts.clone());
+            let deliver = READING.with(|r| {
+                let mut r = r.borrow_mut();
+                if r.text_asked == Some(ticket) {
+                    r.text_asked = None;
+                }
+                r.texts.clone()
+            });
             // Outside the borrow: delivering updates the page, which may ask again at once.
             if let Some(deliver) = deliver {
                 deliver(ticket, *report);
@@ -76,8 +89,8 @@ fn arrived(news: ReadNews) {
 }
 
 /// A fault of the reading worker (a panic thrown as an error naming it): every workbook it was
-/// reading is refused in words, and the next ask starts a new worker. A large text's reading
-/// is asked again at its next change.
+/// reading is refused in words, the large text it was reading gets a report of one error
+/// saying so (else the page would wait for it), and the next ask starts a new worker.
 fn listen_for_faults() {
     let listener = window_event_listener(leptos::ev::error, move |e| {
         let message = e.message();
@@ -86,19 +99,30 @@ fn listen_for_faults() {
         };
         e.prevent_default();
         let detail = message[at + READ_FAULT_PREFIX.len()..].to_string();
-        let waiting: Vec<Done> = READING.with(|r| {
+        let (waiting, text, deliver) = READING.with(|r| {
             let mut r = r.borrow_mut();
             r.bridge = None;
-            r.books.drain().map(|(_, done)| done).collect()
+            let waiting: Vec<Done> = r.books.drain().map(|(_, done)| done).collect();
+            (waiting, r.text_asked.take(), r.texts.clone())
         });
+        let fault = format!("Morrowcast's reading worker stopped (a fault of ours: {detail})");
         for done in waiting {
             done(Err(Refused {
-                why: format!(
-                    "Morrowcast's workbook reader failed on it (a fault of ours: {detail}); save \
-                     the sheet with the sales as CSV and read that"
-                ),
+                why: format!("{fault}; save the sheet as CSV and read that"),
                 sheets: Vec::new(),
             }));
+        }
+        if let (Some(ticket), Some(deliver)) = (text, deliver) {
+            let mut report = intake::read("");
+            report.errors.push(RowError {
+                row: 1,
+                column: String::new(),
+                text: String::new(),
+                message: format!(
+                    "{fault} while reading this text; change the text to read it again"
+                ),
+            });
+            deliver(ticket, report);
         }
     });
     // The page lives as long as the tab.
@@ -114,6 +138,9 @@ impl Reader {
     /// when this page cannot start workers (the page then reads every text itself).
     pub fn new(deliver: impl Fn(u64, IntakeReport) + 'static) -> Option<Reader> {
         can_start_workers().ok()?;
+        if !names_worker(READING_WORKER) {
+            return None;
+        }
         READING.with(|r| r.borrow_mut().texts = Some(Rc::new(deliver)));
         Some(Reader)
     }
@@ -121,7 +148,10 @@ impl Reader {
     /// Asks for the report of `text`; an answer to an older ask still comes, with its ticket.
     pub fn read(&self, ticket: u64, text: String) {
         READING.with(|r| {
-            let _ = send(&mut r.borrow_mut(), ReadAsk::Text { ticket, text });
+            let mut r = r.borrow_mut();
+            if send(&mut r, ReadAsk::Text { ticket, text }).is_ok() {
+                r.text_asked = Some(ticket);
+            }
         });
     }
 }
@@ -155,10 +185,7 @@ pub fn read_workbook(
             READING.with(|r| r.borrow_mut().books.insert(ticket, Box::new(done)));
         }
         Err(no) => done(Err(Refused {
-            why: format!(
-                "{}; save the sheet with the sales as CSV and read that",
-                no.words()
-            ),
+            why: format!("{}; save the sheet as CSV and read that", no.words()),
             sheets: Vec::new(),
         })),
     }

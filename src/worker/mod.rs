@@ -1,5 +1,5 @@
-//! The plan worker: what crosses between the page and its Web Worker, the work done there, and
-//! the page's queue of asks.
+//! The page's Web Workers: the plan worker (what crosses between the page and it, the work
+//! done there, the page's queue of asks) and the reading worker ([`reading`]).
 //!
 //! Kept apart from: the DOM (the worker has none) and the command line's JSON contract
 //! (crates/cli/src/wire.rs). The page sends a [`PlanAsk`] (the chosen item's series, the
@@ -18,9 +18,10 @@
 //! reader.
 //!
 //! Parts: [`protocol`] (the messages and the fault words), [`desk`] (the worker's whole logic,
-//! pure), [`queue`] (the page's side: tickets, one ask in flight, the newest waiting; pure), and
-//! the gloo-worker glue (wasm only), which only times the desk and passes messages. The pure
-//! parts are tested natively.
+//! pure), [`board`] (a batch of the board's items to rows; pure), [`queue`] (the page's side:
+//! tickets, one ask in flight, the newest waiting; pure), [`reading`] (the reading worker's
+//! messages and answers, pure, and its glue), and the plan worker's gloo-worker glue (wasm
+//! only), which only times the desk and passes messages. The pure parts are tested natively.
 
 pub mod board;
 pub mod desk;

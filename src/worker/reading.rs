@@ -2,9 +2,10 @@
 //! (.xlsx, .xlsm, .ods) read into a sheet's text, beside the page, in a Web Worker built apart
 //! that the page starts at its first large text or workbook.
 //!
-//! Kept apart from: what reading means (the engine's `intake::read`, `history_text`,
-//! `stock_table_text` and `history_text_of_sheet`, the same functions the page and the command
-//! line call) and the plan worker (plans and the board's rows). Why a worker of its own: Intake
+//! Kept apart from: what reading means (the engine's `intake::read`, which the page calls
+//! itself for small texts, and `history_text`, `stock_table_text` and
+//! `history_text_of_sheet`, which the command line calls too) and the plan worker (plans and
+//! the board's rows). Why a worker of its own: Intake
 //! and the workbook reader (calamine with its zip and XML readers and the encodings' tables)
 //! are a large part of the wasm; the plan worker, loaded at start, then holds neither, the
 //! page not the workbook reader; and a large text or workbook is read without freezing the

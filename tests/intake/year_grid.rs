@@ -315,3 +315,80 @@ fn years_that_are_no_years_and_names_in_two_cases() {
     ));
     assert_ne!(annual.layout, Layout::Across, "{annual:#?}");
 }
+
+/// What a reading of the code found (helper-51's review), each failing before its mend: this
+/// year's sheet with its months still to come empty (those columns had no role and the grid
+/// was refused), a text column named with a total's word left of the months ("Full name":
+/// dropped from the names), a text column among the months (joined to every name), a
+/// grand total row with its year left blank (an error), "Year total" right of the months
+/// hiding that no year is written.
+#[test]
+fn what_the_code_review_found() {
+    check(
+        &format!(
+            "Item,Year,{MONTHS}\nTrowel,2024,5,6,7,8,9,10,11,12,13,,,\n\
+             Rake,2024,1,2,3,4,5,6,7,8,9,,,\n"
+        ),
+        Expect {
+            items: Some(vec![
+                (
+                    "Trowel",
+                    (5..=13)
+                        .map(|v| Some(f64::from(v)))
+                        .chain([None; 3])
+                        .collect(),
+                ),
+                (
+                    "Rake",
+                    (1..=9)
+                        .map(|v| Some(f64::from(v)))
+                        .chain([None; 3])
+                        .collect(),
+                ),
+            ]),
+            warned: vec![vec!["2024-10 to 2024-12", "still to come"]],
+            ..Expect::default()
+        },
+    );
+    let report = check(
+        &format!(
+            "Full name,Year,{MONTHS}\nTrowel,2024,{}\nRake,2024,{}\n",
+            year_of(1),
+            year_of(2)
+        ),
+        Expect {
+            layout: Some(Layout::Across),
+            ..Expect::default()
+        },
+    );
+    let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(names, ["Trowel", "Rake"]);
+    let among = read(&format!(
+        "Item,Year,Jan,Feb,Mar,Note,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec\n\
+         Trowel,2024,1,2,3,promo,4,5,6,7,8,9,10,11,12\n"
+    ));
+    assert_ne!(among.layout, Layout::Across, "{among:#?}");
+    check(
+        &format!(
+            "Item,Year,{MONTHS}\nTrowel,2024,{}\nRake,2024,{}\nGrand total,,{}\n",
+            year_of(1),
+            year_of(1),
+            (1..=12)
+                .map(|v| (2 * v).to_string())
+                .collect::<Vec<_>>()
+                .join(",")
+        ),
+        Expect {
+            warned: vec![vec!["row 4", "Grand total", "names a total and no year"]],
+            ..Expect::default()
+        },
+    );
+    let without = read(&format!(
+        "Item,{MONTHS},Year total\nTrowel,{},78\n",
+        year_of(1)
+    ));
+    assert!(
+        without.errors[0].message.contains("add a column \"Year\""),
+        "{without:#?}"
+    );
+}

@@ -229,10 +229,7 @@ pub fn stock_inputs(
             let (text, sheet) = (file.text, file.sheet);
             let text = SourcedText {
                 text,
-                source: match sheet {
-                    Some(sheet) => format!("{}, sheet \u{201c}{sheet}\u{201d}", source_name(path)),
-                    None => source_name(path),
-                },
+                source: source_of(path, sheet.as_deref()),
             };
             let read = match &sa.table_sheet {
                 Some(sheet) => intake::read_stock_table_of_sheet(&bytes, sheet, input.report()),
@@ -272,6 +269,15 @@ pub fn source_name(path: &str) -> String {
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_else(|| path.to_string())
+}
+
+/// A file's name as a work names its source, with the workbook's sheet read, if any
+/// ("sales.xlsx, sheet “2025”", as the page names it).
+pub fn source_of(path: &str, sheet: Option<&str>) -> String {
+    match sheet {
+        Some(sheet) => format!("{}, sheet \u{201c}{sheet}\u{201d}", source_name(path)),
+        None => source_name(path),
+    }
 }
 
 /// Reads a file, or standard input for "-", as bytes (the engine decodes them).

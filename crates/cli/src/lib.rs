@@ -26,7 +26,7 @@ use morrowcast_engine::stock::StockSettings;
 use morrowcast_engine::{demo, intake, order, plan, series};
 use morrowcast_work::{SourcedText, Work, LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
 
-use input::{read_any, source_name, stock_inputs, Input, Table};
+use input::{read_any, source_of, stock_inputs, Input, Table};
 
 use args::{Command, ForecastArgs, LinkArgs, LookBackArgs, StockArgs, Written};
 use wire::{
@@ -141,10 +141,7 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     let mut work = match input {
         Input::Work(w, _) => *w,
         Input::History(_, text, left_out) => {
-            let source = match &sa.sheet {
-                Some(sheet) => format!("{}, sheet \u{201c}{sheet}\u{201d}", source_name(&sa.file)),
-                None => source_name(&sa.file),
-            };
+            let source = source_of(&sa.file, sa.sheet.as_deref());
             let source = match left_out {
                 Some(period) => SourcedText::named_without(&source, &period),
                 None => source,

@@ -90,7 +90,7 @@ pub(crate) fn decode_choosing(bytes: &[u8], choice: &SheetChoice<'_>) -> Decoded
 
 /// Decodes `bytes` as text, whatever they hold (a workbook's bytes too: the caller has told
 /// them apart). Apart from [`decode_choosing`] so that a front end reading workbooks elsewhere
-/// (the page's workbook worker) links none of the workbook reader.
+/// (the page, in its reading worker) links none of the workbook reader.
 pub(crate) fn decode_text(bytes: &[u8]) -> Decoded {
     match bytes {
         [0xFF, 0xFE, rest @ ..] => decode_utf16(rest, true),
@@ -111,6 +111,21 @@ pub(crate) fn decode_text(bytes: &[u8]) -> Decoded {
             None => decode_utf8(bytes),
         },
     }
+}
+
+/// The sheet `sheet` of the workbook in `bytes` as text (a front end letting the user name
+/// it); refused when that sheet cannot be read, or `bytes` are no workbook.
+pub(crate) fn decode_sheet(bytes: &[u8], sheet: &str) -> Decoded {
+    if !workbook::is_workbook(bytes) {
+        return Decoded {
+            refused: Some(format!(
+                "the sheet \"{sheet}\" was asked for, but the file is not a workbook (.xlsx, \
+                 .xlsm or .ods): read it without naming a sheet"
+            )),
+            ..Decoded::default()
+        };
+    }
+    from_workbook(bytes, &SheetChoice::named(sheet))
 }
 
 /// A workbook's chosen sheet as text, with a note of which; refused when it cannot be

@@ -329,23 +329,7 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
 /// chooses (for a front end letting the user name it: the command line's `--sheet`); a
 /// refusal when that sheet cannot be read, or `bytes` are no workbook.
 pub fn read_bytes_of_sheet(bytes: &[u8], sheet: &str) -> IntakeReport {
-    if !workbook::is_workbook(bytes) {
-        let mut report = empty_report(Delimiter::Comma);
-        report.errors.push(decode::refusal(not_a_workbook(sheet)));
-        return report;
-    }
-    report_of(decode::decode_choosing(
-        bytes,
-        &decode::SheetChoice::named(sheet),
-    ))
-}
-
-/// Why a sheet was named for a file that is no workbook.
-fn not_a_workbook(sheet: &str) -> String {
-    format!(
-        "the sheet \"{sheet}\" was asked for, but the file is not a workbook (.xlsx, .xlsm or \
-         .ods): read it without naming a sheet"
-    )
+    report_of(decode::decode_sheet(bytes, sheet))
 }
 
 fn report_of(decoded: decode::Decoded) -> IntakeReport {
@@ -401,7 +385,7 @@ impl FileText {
 }
 
 /// Whether `bytes` are a workbook or another archive (zip, OLE) rather than text: a front end
-/// that reads workbooks apart (the page, in a worker of their own) tells them apart with this
+/// that reads workbooks apart (the page, in its reading worker) tells them apart with this
 /// and gives the rest to [`text_file`].
 pub fn is_workbook(bytes: &[u8]) -> bool {
     workbook::is_workbook(bytes)
@@ -430,13 +414,7 @@ pub fn history_text(bytes: &[u8]) -> Result<FileText, String> {
 /// A workbook's sheet `sheet` as a history's text, whichever the workbook would give; `Err`
 /// as [`history_text`], or when that sheet cannot be read.
 pub fn history_text_of_sheet(bytes: &[u8], sheet: &str) -> Result<FileText, String> {
-    if !workbook::is_workbook(bytes) {
-        return Err(not_a_workbook(sheet));
-    }
-    FileText::of(decode::decode_choosing(
-        bytes,
-        &decode::SheetChoice::named(sheet),
-    ))
+    FileText::of(decode::decode_sheet(bytes, sheet))
 }
 
 /// The sheets of the workbook in `bytes` that may be read (visible, readable, holding cells),

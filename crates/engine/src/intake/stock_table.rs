@@ -131,13 +131,10 @@ pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
 }
 
 /// Reads the sheet `sheet` of the workbook in `bytes` as a stock table, as
-/// [`read_stock_table`] reads the sheet it chooses; refused when that sheet cannot be read (a
-/// file that is no workbook: [`super::history_text_of_sheet`] says why first).
+/// [`read_stock_table`] reads the sheet it chooses; refused when that sheet cannot be read,
+/// or `bytes` are no workbook.
 pub fn read_stock_table_of_sheet(bytes: &[u8], sheet: &str, history: &IntakeReport) -> StockTable {
-    from_decoded(
-        decode::decode_choosing(bytes, &decode::SheetChoice::named(sheet)),
-        history,
-    )
+    from_decoded(decode::decode_sheet(bytes, sheet), history)
 }
 
 /// Reads a stock table that is already text (the page's stock table box) as

@@ -86,7 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
-use super::year_grid::{without_a_year, YearGrid};
+use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
 
 /// How far down a header or title line is looked for.
@@ -560,13 +560,23 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // Months or quarters across the header beside a year down and a column naming the items:
     // read, a cell's period its row's year and its column's part ([`YearGrid`]).
     if split.is_none() {
-        let periods: Vec<usize> = (0..roles.len())
-            .filter(|j| matches!(roles[*j], Role::Period(_)))
-            .collect();
-        if let Some(grid) = YearGrid::find(table, &rows, &numeric, &periods, &item_columns) {
+        let of_role = |role: fn(&Role) -> bool| -> Vec<usize> {
+            (0..roles.len()).filter(|j| role(&roles[*j])).collect()
+        };
+        let (periods, empty) = (
+            of_role(|r| matches!(r, Role::Period(_))),
+            of_role(|r| *r == Role::Empty),
+        );
+        let columns = Columns {
+            numeric: &numeric,
+            periods: &periods,
+            texts: &item_columns,
+            empty: &empty,
+        };
+        if let Some(grid) = YearGrid::find(table, &rows, &columns) {
             return Ok(year_grid_plan(&roles, grid));
         }
-        if let Some(error) = without_a_year(table, &rows, &numeric, &periods, &item_columns) {
+        if let Some(error) = without_a_year(table, &rows, &columns) {
             return Err(error);
         }
     }
@@ -858,8 +868,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
 /// its values under the month or quarter columns, its row totals and what stands right of the
 /// months not read (said as columns naming no period).
 fn year_grid_plan(roles: &[Role], grid: YearGrid) -> Plan {
+    // Months still to come, all empty, are the grid's values all the same.
     let empty = (0..roles.len())
-        .filter(|j| roles[*j] == Role::Empty)
+        .filter(|j| roles[*j] == Role::Empty && !grid.part_columns().contains(j))
         .collect();
     Plan {
         grid: Some(grid.clone()),

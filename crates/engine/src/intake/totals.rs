@@ -38,7 +38,7 @@ pub(crate) struct Total {
 
 /// Whether a name is nothing but a total's: "Total", "All items", "Grand total", "Total
 /// sales", "All stores" ("All-purpose compost" and "Total Garden feed" are items' names).
-fn total_name(name: &str) -> bool {
+pub(crate) fn total_name(name: &str) -> bool {
     // Grand totals as other programs and languages write them.
     const NAMES: [&str; 22] = [
         "total",

@@ -89,17 +89,17 @@ impl YearGrid {
     /// Finds a year grid among the number columns `numeric` and the columns read as periods
     /// `periods` (a column of years may be one), beside the text columns `texts` (see the
     /// module doc); `None` when the table is not one.
-    pub(crate) fn find(
-        table: &Table,
-        rows: &[&Record],
-        numeric: &[usize],
-        periods: &[usize],
-        texts: &[usize],
-    ) -> Option<YearGrid> {
+    pub(crate) fn find(table: &Table, rows: &[&Record], columns: &Columns) -> Option<YearGrid> {
+        let &Columns {
+            numeric,
+            periods,
+            texts,
+            ..
+        } = columns;
         if rows.is_empty() {
             return None;
         }
-        let (across, parts) = whole_year(table, numeric)?;
+        let (across, parts) = whole_year(table, columns)?;
         let (first_part, last_part) = (parts.first()?.0, parts.last()?.0);
         // A header naming the calendar year and nothing else: "Last year", "Prior year" and
         // "Year total" hold figures, and a fiscal year's January may fall in either calendar
@@ -111,9 +111,7 @@ impl YearGrid {
                 .iter()
                 .filter(|c| believable_year(c).is_some())
                 .count();
-            (header_is_only(&name, &YEAR_WORDS) || header_is_only(&name, &["calendar", "year"]))
-                && header_says(&name, &YEAR_WORDS)
-                && years * 2 > rows.len()
+            header_is_only(&name, &YEAR_WORDS) && years * 2 > rows.len()
         };
         let mut others: Vec<usize> = numeric
             .iter()
@@ -130,7 +128,7 @@ impl YearGrid {
         let (mut items, mut ignored) = (Vec::new(), Vec::new());
         for j in others.into_iter().filter(|j| *j != year) {
             let name = table.column_name(j);
-            if header_says(&name, &TOTAL_WORDS) {
+            if numeric.contains(&j) && header_says(&name, &TOTAL_WORDS) {
                 ignored.push(j);
             } else if j > last_part && names_a_part(&name) {
                 // A month or quarter after the year's last ("Jan (next yr)"): not a column to
@@ -141,11 +139,11 @@ impl YearGrid {
             } else if periods.contains(&j) {
                 // Another column of periods (a date): not this layout.
                 return None;
-            } else if texts.contains(&j) || names_item(table, j) {
+            } else if j < first_part && (texts.contains(&j) || names_item(table, j)) {
                 items.push(j);
             } else {
-                // A number column among the months or before them that names no item (a
-                // price, a store number): not a layout to guess at.
+                // A number column before the months that names no item (a price, a store
+                // number), or anything among them: not a layout to guess at.
                 return None;
             }
         }
@@ -191,12 +189,20 @@ impl YearGrid {
     }
 }
 
-/// The number columns `numeric` headed by the whole year's months or quarters, each once, in
-/// calendar order, with their numbers; `None` when the header holds no such run. With months
-/// missing from the header, every year of every item would have gaps to fill.
-fn whole_year(table: &Table, numeric: &[usize]) -> Option<(Across, Vec<(usize, u32)>)> {
+/// The number (or empty) columns headed by the whole year's months or quarters, each once,
+/// in calendar order, with their numbers; `None` when the header holds no such run. With
+/// months missing from the header, every year of every item would have gaps to fill. Empty
+/// ones count: a sheet of this year alone has its months still to come empty.
+fn whole_year(table: &Table, columns: &Columns) -> Option<(Across, Vec<(usize, u32)>)> {
     let header = table.header.as_ref()?;
-    let parts: Vec<(usize, Across, u32)> = numeric
+    let mut candidates: Vec<usize> = columns
+        .numeric
+        .iter()
+        .chain(columns.empty)
+        .copied()
+        .collect();
+    candidates.sort_unstable();
+    let parts: Vec<(usize, Across, u32)> = candidates
         .iter()
         .filter_map(|&j| {
             let cell = header.cells.get(j)?;
@@ -216,14 +222,22 @@ fn whole_year(table: &Table, numeric: &[usize]) -> Option<(Across, Vec<(usize, u
 pub(crate) fn without_a_year(
     table: &Table,
     rows: &[&Record],
-    numeric: &[usize],
-    periods: &[usize],
-    texts: &[usize],
+    columns: &Columns,
 ) -> Option<RowError> {
+    let &Columns {
+        numeric,
+        periods,
+        texts,
+        ..
+    } = columns;
     let header = table.header.as_ref()?;
-    let (across, parts) = whole_year(table, numeric)?;
+    let (across, parts) = whole_year(table, columns)?;
     let first = parts.first()?.0;
-    let named_year = (0..table.width).any(|j| header_says(&table.column_name(j), &YEAR_WORDS));
+    // A year named left of the months (a total's "Year total" right of them names none).
+    let named_year = (0..first).any(|j| {
+        let name = table.column_name(j);
+        header_says(&name, &YEAR_WORDS) && !header_says(&name, &TOTAL_WORDS)
+    });
     if named_year || !texts.iter().any(|j| *j < first) {
         return None;
     }
@@ -247,6 +261,8 @@ pub(crate) fn without_a_year(
         Across::Quarters => "Item,Year,Q1,Q2,Q3,Q4",
     };
     let name = table.column_name(first);
+    // At the column the error is about: the one holding years, else the first month.
+    let at = years_unnamed.unwrap_or(first);
     let message = match years_unnamed {
         Some(j) => format!(
             "expected a column named \"Year\" beside the {} across the header: column \"{}\" \
@@ -264,12 +280,26 @@ pub(crate) fn without_a_year(
             across.words()
         ),
     };
+    let column = table.column_name(at);
     Some(RowError {
         row: header.line,
-        column: name.clone(),
-        text: name,
+        column: column.clone(),
+        text: column,
         message,
     })
+}
+
+/// The columns of a table by their role, as [`super::table::plan`] found them: what a year
+/// grid is made of.
+pub(crate) struct Columns<'c> {
+    /// Columns of numbers (quantities, codes, years).
+    pub numeric: &'c [usize],
+    /// Columns read as periods (a column of years may be one).
+    pub periods: &'c [usize],
+    /// Columns of text (item names).
+    pub texts: &'c [usize],
+    /// Columns with no cell filled.
+    pub empty: &'c [usize],
 }
 
 /// Header words naming a calendar year: English, and (from memory) the German, French, Dutch,
@@ -357,12 +387,14 @@ fn part_of_year(cell: &str) -> Option<(Across, u32)> {
     let (kind, number) = match words.as_slice() {
         ["m" | "month" | "mth", n] => (Across::Months, *n),
         ["q" | "qtr" | "quarter", n] => (Across::Quarters, *n),
-        [n, "st" | "nd" | "rd" | "th", "qtr" | "quarter"] => (Across::Quarters, *n),
+        [n @ ("1" | "2" | "3" | "4"), suffix, "qtr" | "quarter"]
+            if ["st", "nd", "rd", "th"][n.parse::<usize>().ok()? - 1] == *suffix =>
+        {
+            (Across::Quarters, *n)
+        }
         _ => return None,
     };
-    let number: u32 = number
-        .bytes()
-        .all(|b| b.is_ascii_digit())
+    let number: u32 = (number.len() <= 2 && number.bytes().all(|b| b.is_ascii_digit()))
         .then(|| number.parse().ok())??;
     (1..=kind.max()).contains(&number).then_some((kind, number))
 }
@@ -389,6 +421,8 @@ mod tests {
         check("Quarter 3", Some((Quarters, 3)));
         check("1st Qtr", Some((Quarters, 1)));
         check("Q5", None);
+        check("3st Qtr", None);
+        check("Q001", None);
         check("M13", None);
         check("Month", None);
         check("W1", None);

@@ -17,6 +17,7 @@ use super::long::{item_name, name_key};
 use super::Builder;
 use crate::calendar::Period;
 use crate::intake::text::Record;
+use crate::intake::totals::total_name;
 use crate::intake::year_grid::{believable_year, YearGrid};
 use crate::intake::Item;
 
@@ -86,6 +87,16 @@ impl<'a> Builder<'a> {
                 continue;
             };
             let cell = year_cell(row);
+            // A total row with its year left blank ("Grand total,,..."): the items' total, as
+            // the other layouts leave out a total item; said.
+            if cell.trim().is_empty() && total_name(&name) {
+                self.out.warnings.push(format!(
+                    "row {} (\"{name}\") names a total and no year: not read, as the items' \
+                     total",
+                    row.line
+                ));
+                continue;
+            }
             let Some(year) = believable_year(cell) else {
                 self.error(
                     row.line,
@@ -99,7 +110,6 @@ impl<'a> Builder<'a> {
                 );
                 continue;
             };
-            years.push((year, row));
             // Names that differ only in white space or case are one item, as in long tables.
             let at = *index.entry(name_key(&name)).or_insert_with(|| {
                 items_rows.push(ItemRows {
@@ -109,16 +119,6 @@ impl<'a> Builder<'a> {
                 });
                 items_rows.len() - 1
             });
-            let written = filled
-                .iter()
-                .map(|j| row.as_written(*j))
-                .collect::<Vec<_>>()
-                .join(" / ");
-            let spellings = &mut items_rows[at].spellings;
-            match spellings.iter_mut().find(|(s, _)| *s == written) {
-                Some((_, lines)) => lines.push(row.line),
-                None => spellings.push((written, vec![row.line])),
-            }
             if let Some(first) = seen.get(&(at, year)) {
                 let message = format!(
                     "expected each item's year on one row; \"{name}\" {year} is also on line \
@@ -129,6 +129,17 @@ impl<'a> Builder<'a> {
                 continue;
             }
             seen.insert((at, year), row.line);
+            years.push((year, row));
+            let written = filled
+                .iter()
+                .map(|j| row.as_written(*j))
+                .collect::<Vec<_>>()
+                .join(" / ");
+            let spellings = &mut items_rows[at].spellings;
+            match spellings.iter_mut().find(|(s, _)| *s == written) {
+                Some((_, lines)) => lines.push(row.line),
+                None => spellings.push((written, vec![row.line])),
+            }
             items_rows[at].rows.push((year, row));
         }
         // A year far from the table's others, first or last, is a typo: read, it would
