@@ -363,10 +363,10 @@ fn what_the_code_review_found() {
     );
     let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
     assert_eq!(names, ["Trowel", "Rake"]);
-    let among = read(&format!(
+    let among = read(
         "Item,Year,Jan,Feb,Mar,Note,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec\n\
-         Trowel,2024,1,2,3,promo,4,5,6,7,8,9,10,11,12\n"
-    ));
+         Trowel,2024,1,2,3,promo,4,5,6,7,8,9,10,11,12\n",
+    );
     assert_ne!(among.layout, Layout::Across, "{among:#?}");
     check(
         &format!(
