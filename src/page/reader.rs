@@ -7,16 +7,20 @@
 //! not depend on where it was made), the Intake state (state/intake.rs decides when to ask and
 //! which answer is current) and what the page does with a sheet's text (panels.rs,
 //! board_panel.rs). One worker answers in the order asked, so of two workbooks dropped one
-//! after the other the later one's text is the last to arrive.
+//! after the other the later one's text is the last to arrive. A worker that faults, or leaves
+//! an ask unanswered for [`SILENCE`], is given up in words ([`stopped`]); the next ask starts
+//! a new one.
 
 use std::cell::RefCell;
 use std::collections::HashMap;
 use std::rc::Rc;
+use std::time::Duration;
 
 use gloo_worker::WorkerBridge;
 use leptos::prelude::*;
 use morrowcast_engine::intake::{self, FileText, IntakeReport, RowError};
 
+use super::browser;
 use super::courier::{
     can_start_workers, names_worker, spawn_reading_worker, NoWorker, READING_WORKER,
 };
@@ -60,9 +64,45 @@ fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
         }
     }
     let bridge = reading.bridge.as_ref().ok_or(NoWorker::NotBuilt)?;
-    bridge.send(ask);
+    let silent_drill = browser::drill().as_deref() == Some("reader-silent");
+    let is_still_waiting: Box<dyn Fn(&Reading) -> bool> = match &ask {
+        ReadAsk::Text { ticket, .. } => {
+            let ticket = *ticket;
+            Box::new(move |r| r.text_asked == Some(ticket))
+        }
+        ReadAsk::Workbook(book) => {
+            let ticket = book.ticket;
+            Box::new(move |r| r.books.contains_key(&ticket))
+        }
+    };
+    // The page's `#drill=reader-silent` never sends (a worker that did not start looks so to
+    // the page), so a test sees the silence said.
+    if !silent_drill {
+        bridge.send(ask);
+    }
+    let silence = if silent_drill { DRILL_SILENCE } else { SILENCE };
+    set_timeout(
+        move || {
+            if READING.with(|r| is_still_waiting(&r.borrow())) {
+                stopped(format!(
+                    "Morrowcast's reading worker did not answer within {} s (it may not have \
+                     started in this browser, or the file is too large to read here)",
+                    silence.as_secs()
+                ));
+            }
+        },
+        silence,
+    );
     Ok(())
 }
+
+/// How long an ask may go unanswered before the reading worker is given up (our choice: the
+/// largest text Intake takes, 64 MB, is read in well under a minute; a workbook of 65,760
+/// rows took under a second natively).
+const SILENCE: Duration = Duration::from_secs(120);
+
+/// The same under `#drill=reader-silent`, so the test need not wait two minutes.
+const DRILL_SILENCE: Duration = Duration::from_secs(2);
 
 fn arrived(news: ReadNews) {
     match news {
@@ -88,9 +128,8 @@ fn arrived(news: ReadNews) {
     }
 }
 
-/// A fault of the reading worker (a panic thrown as an error naming it): every workbook it was
-/// reading is refused in words, the large text it was reading gets a report of one error
-/// saying so (else the page would wait for it), and the next ask starts a new worker.
+/// A fault of the reading worker (a panic thrown as an error naming it) stops it
+/// ([`stopped`]).
 fn listen_for_faults() {
     let listener = window_event_listener(leptos::ev::error, move |e| {
         let message = e.message();
@@ -98,35 +137,41 @@ fn listen_for_faults() {
             return;
         };
         e.prevent_default();
-        let detail = message[at + READ_FAULT_PREFIX.len()..].to_string();
-        let (waiting, text, deliver) = READING.with(|r| {
-            let mut r = r.borrow_mut();
-            r.bridge = None;
-            let waiting: Vec<Done> = r.books.drain().map(|(_, done)| done).collect();
-            (waiting, r.text_asked.take(), r.texts.clone())
-        });
-        let fault = format!("Morrowcast's reading worker stopped (a fault of ours: {detail})");
-        for done in waiting {
-            done(Err(Refused {
-                why: format!("{fault}; save the sheet as CSV and read that"),
-                sheets: Vec::new(),
-            }));
-        }
-        if let (Some(ticket), Some(deliver)) = (text, deliver) {
-            let mut report = intake::read("");
-            report.errors.push(RowError {
-                row: 1,
-                column: String::new(),
-                text: String::new(),
-                message: format!(
-                    "{fault} while reading this text; change the text to read it again"
-                ),
-            });
-            deliver(ticket, report);
-        }
+        let detail = &message[at + READ_FAULT_PREFIX.len()..];
+        stopped(format!(
+            "Morrowcast's reading worker stopped (a fault of ours: {detail})"
+        ));
     });
     // The page lives as long as the tab.
     std::mem::forget(listener);
+}
+
+/// The reading worker is given up (a fault, or silence), `why` in words: every workbook it was
+/// reading is refused saying so, the large text it was reading gets a report of one error
+/// (else the page would wait for it), and the next ask starts a new worker.
+fn stopped(why: String) {
+    let (waiting, text, deliver) = READING.with(|r| {
+        let mut r = r.borrow_mut();
+        r.bridge = None;
+        let waiting: Vec<Done> = r.books.drain().map(|(_, done)| done).collect();
+        (waiting, r.text_asked.take(), r.texts.clone())
+    });
+    for done in waiting {
+        done(Err(Refused {
+            why: format!("{why}; save the sheet as CSV and read that"),
+            sheets: Vec::new(),
+        }));
+    }
+    if let (Some(ticket), Some(deliver)) = (text, deliver) {
+        let mut report = intake::read("");
+        report.errors.push(RowError {
+            row: 1,
+            column: String::new(),
+            text: String::new(),
+            message: format!("{why} while reading this text; change the text to read it again"),
+        });
+        deliver(ticket, report);
+    }
 }
 
 /// The page's handle on the reading of large texts; cheap to clone.

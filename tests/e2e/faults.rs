@@ -3,7 +3,8 @@
 //!
 //! Kept apart from: how faults are caused. The page has two drills for this (src/app/browser.rs
 //! `drill`): `#drill=page-fault` panics in the page after it has drawn, `#drill=worker-fault`
-//! makes the worker panic on its first plan, `#drill=worker-silent` makes it never answer it.
+//! makes the worker panic on its first plan, `#drill=worker-silent` makes it never answer it,
+//! `#drill=reader-silent` sends the reading worker nothing.
 //! No input is known to panic; the drills stand in.
 
 use super::page::{open_at, save_screenshot, wait_for_item, WAIT};
@@ -87,6 +88,37 @@ fn a_silent_worker_is_reported_and_replaced() {
         "the progress indicator stays up"
     );
     browser.js("document.getElementById('level-80').click()");
+    wait_for_item(browser, "Seed packets");
+}
+
+/// A reading worker that never answers (`#drill=reader-silent`: the page sends it nothing) is
+/// given up after its silence limit (2 s under the drill, 120 s otherwise, src/page/reader.rs):
+/// the dropped workbook is refused saying so, the desk kept, instead of "Reading the
+/// workbook…" for ever (a code review found it so).
+#[test]
+fn a_silent_reading_worker_is_said() {
+    let Some(page) = open_at((1366, 768), "#drill=reader-silent") else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let book = std::fs::read(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/fixtures/workbooks/sales.xlsx"
+    ))
+    .expect("fixture");
+    super::engine_match::drop_on(browser, "drop-zone", &book, "sales.xlsx");
+    let said = browser.wait_for(
+        "the silent reading worker said",
+        "const n = document.getElementById('work-notice'); \
+         return n && n.textContent.includes('did not answer') && n.textContent",
+        WAIT,
+    );
+    let said = said.as_str().unwrap_or("");
+    assert!(
+        said.contains("sales.xlsx could not be read") && said.contains("within 2 s"),
+        "{said}"
+    );
     wait_for_item(browser, "Seed packets");
 }
 
