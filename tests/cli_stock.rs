@@ -360,6 +360,11 @@ fn one_workbook_gives_the_history_and_the_stock_table() {
         written["stock_table"]["source"],
         "sales.xlsx, sheet \u{201c}Stock\u{201d}"
     );
+    // The history's source names its sheet too, as the page names it.
+    assert_eq!(
+        written["history"]["source"],
+        "sales.xlsx, sheet \u{201c}Sales\u{201d}"
+    );
 }
 
 /// A workbook whose sheet to read is unclear (one sheet per year, `year_sheets.xlsx`):

@@ -15,11 +15,11 @@ use morrowcast_work::{SourcedText, Work};
 
 use crate::args::{self, StockArgs};
 
-/// What FILE held: a sales history (its report, its text and the period `--leave-out-unfinished`
-/// left out of it), or a work (a work file or a share link, FILE itself or its content) with
+/// What FILE held: a sales history (its report, its text, the period `--leave-out-unfinished`
+/// left out of it and the workbook's sheet it was read from), or a work (a work file or a share link, FILE itself or its content) with
 /// its data, settings, stock inputs and item changes.
 pub enum Input {
-    History(intake::IntakeReport, String, Option<String>),
+    History(intake::IntakeReport, String, Option<String>, Option<String>),
     Work(Box<Work>, intake::IntakeReport),
 }
 
@@ -100,7 +100,7 @@ pub fn read_any(
 /// looked unfinished. For a work, its history's text is the one changed.
 fn leave_out_unfinished(input: Input) -> Result<Input, String> {
     let (report, text) = match &input {
-        Input::History(report, text, _) => (report, text.as_str()),
+        Input::History(report, text, ..) => (report, text.as_str()),
         Input::Work(work, report) => (report, work.history.text.as_str()),
     };
     let Some(found) = &report.unfinished_last else {
@@ -151,7 +151,7 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
         ),
     );
     Ok(match input {
-        Input::History(..) => Input::History(report, without, Some(period)),
+        Input::History(.., sheet) => Input::History(report, without, Some(period), sheet),
         Input::Work(mut work, _) => {
             work.history.text = without;
             work.history.source = SourcedText::named_without(&work.history.source, &period);
@@ -163,14 +163,9 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
 /// The sheet `sheet` of the workbook FILE (`--sheet`), as its history.
 fn read_sheet(file: &str, sheet: &str, stdin: &mut dyn Read) -> Result<Input, String> {
     let bytes = read_input(file, stdin)?;
-    let text = intake::history_text_of_sheet(&bytes, sheet)
-        .map(|f| f.text)
-        .map_err(|why| format!("--sheet {}: {why}", crate::table::quoted(sheet)))?;
-    Ok(Input::History(
-        intake::read_bytes_of_sheet(&bytes, sheet),
-        text,
-        None,
-    ))
+    let (report, read) = intake::read_bytes_and_text(&bytes, Some(sheet));
+    let text = read.map_err(|why| format!("--sheet {}: {why}", crate::table::quoted(sheet)))?;
+    Ok(Input::History(report, text.text, None, text.sheet))
 }
 
 /// FILE read as it is (see [`read_any`]).
@@ -179,19 +174,32 @@ fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
         file.to_string()
     } else {
         let bytes = read_input(file, stdin)?;
-        let text = intake::decode_bytes(&bytes);
+        // A workbook is never a work: its sheet is decoded once, with the report.
+        let text = if intake::is_workbook(&bytes) {
+            String::new()
+        } else {
+            intake::decode_bytes(&bytes)
+        };
         if !Work::is_work(&text) {
-            let mut report = intake::read_bytes(&bytes);
-            // A workbook whose sheet to read is unclear: its sheets, and how to name one.
-            let sheets = intake::workbook_sheets(&bytes);
-            if report.items.is_empty() && sheets.len() >= 2 {
-                let names: Vec<String> = sheets.iter().map(|s| crate::table::quoted(s)).collect();
-                report.warnings.push(format!(
-                    "the workbook's sheets that can be read: {}; --sheet NAME reads one",
-                    names.join(", ")
-                ));
-            }
-            return Ok(Input::History(report, text, None));
+            let (mut report, read) = intake::read_bytes_and_text(&bytes, None);
+            let (text, sheet) = match read {
+                Ok(file) => (file.text, file.sheet),
+                Err(_) => {
+                    // A workbook whose sheet to read is unclear: its sheets, and how to name
+                    // one.
+                    let sheets = intake::workbook_sheets(&bytes);
+                    if sheets.len() >= 2 {
+                        let names: Vec<String> =
+                            sheets.iter().map(|s| crate::table::quoted(s)).collect();
+                        report.warnings.push(format!(
+                            "the workbook's sheets that can be read: {}; --sheet NAME reads one",
+                            names.join(", ")
+                        ));
+                    }
+                    (String::new(), None)
+                }
+            };
+            return Ok(Input::History(report, text, None, sheet));
         }
         text
     };

@@ -140,8 +140,8 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     }
     let mut work = match input {
         Input::Work(w, _) => *w,
-        Input::History(_, text, left_out) => {
-            let source = source_of(&sa.file, sa.sheet.as_deref());
+        Input::History(_, text, left_out, sheet) => {
+            let source = source_of(&sa.file, sheet.as_deref());
             let source = match left_out {
                 Some(period) => SourcedText::named_without(&source, &period),
                 None => source,

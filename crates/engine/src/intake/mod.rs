@@ -325,11 +325,29 @@ pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
     report_of(decode::decode(bytes))
 }
 
-/// Reads the sheet `sheet` of the workbook in `bytes` as [`read_bytes`] reads the sheet it
-/// chooses (for a front end letting the user name it: the command line's `--sheet`); a
-/// refusal when that sheet cannot be read, or `bytes` are no workbook.
-pub fn read_bytes_of_sheet(bytes: &[u8], sheet: &str) -> IntakeReport {
-    report_of(decode::decode_sheet(bytes, sheet))
+/// Reads `bytes` as [`read_bytes`] does, or the workbook sheet `sheet` names, and gives the
+/// text read with it (a workbook's sheet, named), decoding once: for a front end that keeps the
+/// text (the command line's works and links carry it; `--sheet` names the sheet). `Err` with
+/// why beside the report's refusal when nothing could be read (that sheet not there, a file
+/// that is no workbook).
+pub fn read_bytes_and_text(
+    bytes: &[u8],
+    sheet: Option<&str>,
+) -> (IntakeReport, Result<FileText, String>) {
+    let decoded = match sheet {
+        Some(sheet) => decode::decode_sheet(bytes, sheet),
+        None => decode::decode(bytes),
+    };
+    let file = match &decoded.refused {
+        Some(why) => Err(why.clone()),
+        None => Ok(FileText {
+            text: decoded.text.clone(),
+            sheet: decoded.sheet.clone(),
+            sheets: decoded.sheets.clone(),
+            note: decoded.assumed.clone(),
+        }),
+    };
+    (report_of(decoded), file)
 }
 
 fn report_of(decoded: decode::Decoded) -> IntakeReport {
