@@ -228,20 +228,23 @@ pub fn stock_inputs(
             let bytes = read_input(path, stdin)?;
             // A workbook's sheet naming on hand (or the one --stock-sheet names), as the table
             // is read from, so a work or link carries the rows read.
-            let file = match &sa.table_sheet {
-                Some(sheet) => intake::history_text_of_sheet(&bytes, sheet).map_err(|why| {
-                    format!("--stock-sheet {}: {why}", crate::table::quoted(sheet))
-                })?,
-                None => intake::stock_table_text(&bytes).unwrap_or_default(),
+            let (read, file) = intake::read_stock_table_and_text(
+                &bytes,
+                sa.table_sheet.as_deref(),
+                input.report(),
+            );
+            let file = match (&sa.table_sheet, file) {
+                (Some(sheet), Err(why)) => {
+                    return Err(format!(
+                        "--stock-sheet {}: {why}",
+                        crate::table::quoted(sheet)
+                    ))
+                }
+                (_, file) => file.unwrap_or_default(),
             };
-            let (text, sheet) = (file.text, file.sheet);
             let text = SourcedText {
-                text,
-                source: source_of(path, sheet.as_deref()),
-            };
-            let read = match &sa.table_sheet {
-                Some(sheet) => intake::read_stock_table_of_sheet(&bytes, sheet, input.report()),
-                None => intake::read_stock_table(&bytes, input.report()),
+                text: file.text,
+                source: source_of(path, file.sheet.as_deref()),
             };
             Some((read, text))
         }

@@ -148,7 +148,7 @@ mod year_grid;
 
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
 pub use stock_table::{
-    read_stock_table, read_stock_table_of_sheet, read_stock_table_text, StockRow, StockTable,
+    read_stock_table, read_stock_table_and_text, read_stock_table_text, StockRow, StockTable,
 };
 pub use unfinished::UnfinishedPeriod;
 
@@ -338,15 +338,7 @@ pub fn read_bytes_and_text(
         Some(sheet) => decode::decode_sheet(bytes, sheet),
         None => decode::decode(bytes),
     };
-    let file = match &decoded.refused {
-        Some(why) => Err(why.clone()),
-        None => Ok(FileText {
-            text: decoded.text.clone(),
-            sheet: decoded.sheet.clone(),
-            sheets: decoded.sheets.clone(),
-            note: decoded.assumed.clone(),
-        }),
-    };
+    let file = FileText::copied(&decoded);
     (report_of(decoded), file)
 }
 
@@ -390,13 +382,18 @@ pub struct FileText {
 
 impl FileText {
     fn of(decoded: decode::Decoded) -> Result<FileText, String> {
-        match decoded.refused {
-            Some(why) => Err(why),
+        FileText::copied(&decoded)
+    }
+
+    /// The text of `decoded`, kept beside its reading (which takes `decoded` itself).
+    fn copied(decoded: &decode::Decoded) -> Result<FileText, String> {
+        match &decoded.refused {
+            Some(why) => Err(why.clone()),
             None => Ok(FileText {
-                text: decoded.text,
-                sheet: decoded.sheet,
-                sheets: decoded.sheets,
-                note: decoded.assumed,
+                text: decoded.text.clone(),
+                sheet: decoded.sheet.clone(),
+                sheets: decoded.sheets.clone(),
+                note: decoded.assumed.clone(),
             }),
         }
     }

@@ -130,11 +130,22 @@ pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
     from_decoded(decode::decode_choosing(bytes, &STOCK_SHEET), history)
 }
 
-/// Reads the sheet `sheet` of the workbook in `bytes` as a stock table, as
-/// [`read_stock_table`] reads the sheet it chooses; refused when that sheet cannot be read,
-/// or `bytes` are no workbook.
-pub fn read_stock_table_of_sheet(bytes: &[u8], sheet: &str, history: &IntakeReport) -> StockTable {
-    from_decoded(decode::decode_sheet(bytes, sheet), history)
+/// Reads a stock table from bytes as [`read_stock_table`] does, or from the workbook sheet
+/// `sheet` names, and gives the text read with it (a workbook's sheet, named), decoding once:
+/// for a front end that keeps the text (the command line's works and links carry it;
+/// `--stock-sheet` names the sheet). `Err` with why beside the table's refusal when nothing
+/// could be read.
+pub fn read_stock_table_and_text(
+    bytes: &[u8],
+    sheet: Option<&str>,
+    history: &IntakeReport,
+) -> (StockTable, Result<super::FileText, String>) {
+    let decoded = match sheet {
+        Some(sheet) => decode::decode_sheet(bytes, sheet),
+        None => decode::decode_choosing(bytes, &STOCK_SHEET),
+    };
+    let file = super::FileText::copied(&decoded);
+    (from_decoded(decoded, history), file)
 }
 
 /// Reads a stock table that is already text (the page's stock table box) as
