@@ -184,6 +184,13 @@ fn other_grids_stay_refused() {
             .contains("column \"Season\" holds years"),
         "{season:#?}"
     );
+    // A year named in capitals beyond ASCII (from memory, as Intake's other period words):
+    // read, as lower case is.
+    let upper = read(&format!(
+        "Article,ANNÉE,{MONTHS}\nTrowel,2023,{}\n",
+        year_of(1)
+    ));
+    assert_eq!(upper.layout, Layout::Across, "{upper:#?}");
     // A year named in German (from memory, as Intake's other period words): read.
     check(
         &format!(

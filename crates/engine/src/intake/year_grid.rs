@@ -105,7 +105,8 @@ impl YearGrid {
         // "Year total" hold figures, and a fiscal year's January may fall in either calendar
         // year.
         let is_year = |j: usize| {
-            let name = table.column_name(j);
+            // Lower case first: the header words match ASCII case only ("ANNÉE", "AÑO").
+            let name = table.column_name(j).to_lowercase();
             let years = table
                 .column(j, rows)
                 .iter()
@@ -235,7 +236,7 @@ pub(crate) fn without_a_year(
     let first = parts.first()?.0;
     // A year named left of the months (a total's "Year total" right of them names none).
     let named_year = (0..first).any(|j| {
-        let name = table.column_name(j);
+        let name = table.column_name(j).to_lowercase();
         header_says(&name, &YEAR_WORDS) && !header_says(&name, &TOTAL_WORDS)
     });
     if named_year || !texts.iter().any(|j| *j < first) {
