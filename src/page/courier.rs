@@ -13,7 +13,9 @@ use std::rc::Rc;
 
 use crate::worker::reading::{ReadNews, ReadingWorker};
 use crate::worker::{Arrival, AskQueue, PlanAnswer, PlanAsk, PlanWorker, WorkerAsk, WorkerNews};
-use gloo_worker::{Spawnable, WorkerBridge};
+use gloo_worker::{Worker, WorkerBridge, WorkerSpawner};
+use serde::de::DeserializeOwned;
+use serde::Serialize;
 
 use super::browser::{blob_url, now_ms};
 use wasm_bindgen::prelude::*;
@@ -204,13 +206,7 @@ pub fn can_start_workers() -> Result<(), NoWorker> {
 /// Starts one plan worker under the page's policy (see [`worker_blob`]); `news` hears what it
 /// sends. `None` when the page names no worker module.
 pub fn spawn_worker(news: impl Fn(WorkerNews) + 'static) -> Option<WorkerBridge<PlanWorker>> {
-    let path = worker_address(PLAN_WORKER)?;
-    Some(
-        PlanWorker::spawner()
-            .callback(news)
-            .with_loader(true)
-            .spawn(&path),
-    )
+    spawn(PLAN_WORKER, news)
 }
 
 /// Starts the reading worker as [`spawn_worker`] starts a plan worker; `None` when the page
@@ -218,9 +214,20 @@ pub fn spawn_worker(news: impl Fn(WorkerNews) + 'static) -> Option<WorkerBridge<
 pub fn spawn_reading_worker(
     news: impl Fn(ReadNews) + 'static,
 ) -> Option<WorkerBridge<ReadingWorker>> {
-    let path = worker_address(READING_WORKER)?;
+    spawn(READING_WORKER, news)
+}
+
+/// Starts the worker `W` from its module `file` under the page's policy, as an ES-module
+/// worker (gloo-worker's loader); `None` when the page names no such module.
+fn spawn<W>(file: WorkerFile, news: impl Fn(W::Output) + 'static) -> Option<WorkerBridge<W>>
+where
+    W: Worker + 'static,
+    W::Input: Serialize + DeserializeOwned,
+    W::Output: Serialize + DeserializeOwned,
+{
+    let path = worker_address(file)?;
     Some(
-        ReadingWorker::spawner()
+        WorkerSpawner::<W>::new()
             .callback(news)
             .with_loader(true)
             .spawn(&path),

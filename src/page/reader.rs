@@ -65,16 +65,7 @@ fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
     }
     let bridge = reading.bridge.as_ref().ok_or(NoWorker::NotBuilt)?;
     let silent_drill = browser::drill().as_deref() == Some("reader-silent");
-    let is_still_waiting: Box<dyn Fn(&Reading) -> bool> = match &ask {
-        ReadAsk::Text { ticket, .. } => {
-            let ticket = *ticket;
-            Box::new(move |r| r.text_asked == Some(ticket))
-        }
-        ReadAsk::Workbook(book) => {
-            let ticket = book.ticket;
-            Box::new(move |r| r.books.contains_key(&ticket))
-        }
-    };
+    let awaited = Awaited::of(&ask);
     // The page's `#drill=reader-silent` never sends (a worker that did not start looks so to
     // the page), so a test sees the silence said.
     if !silent_drill {
@@ -83,7 +74,7 @@ fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
     let silence = if silent_drill { DRILL_SILENCE } else { SILENCE };
     set_timeout(
         move || {
-            if READING.with(|r| is_still_waiting(&r.borrow())) {
+            if READING.with(|r| awaited.is_awaited(&r.borrow())) {
                 stopped(format!(
                     "Morrowcast's reading worker did not answer within {} s (it may not have \
                      started in this browser, or the file is too large to read here)",
@@ -94,6 +85,29 @@ fn send(reading: &mut Reading, ask: ReadAsk) -> Result<(), NoWorker> {
         silence,
     );
     Ok(())
+}
+
+/// An ask by its kind and ticket, to tell later whether its answer is still awaited.
+#[derive(Clone, Copy)]
+enum Awaited {
+    Text(u64),
+    Workbook(u64),
+}
+
+impl Awaited {
+    fn of(ask: &ReadAsk) -> Awaited {
+        match ask {
+            ReadAsk::Text { ticket, .. } => Awaited::Text(*ticket),
+            ReadAsk::Workbook(book) => Awaited::Workbook(book.ticket),
+        }
+    }
+
+    fn is_awaited(self, reading: &Reading) -> bool {
+        match self {
+            Awaited::Text(ticket) => reading.text_asked == Some(ticket),
+            Awaited::Workbook(ticket) => reading.books.contains_key(&ticket),
+        }
+    }
 }
 
 /// How long an ask may go unanswered before the reading worker is given up (our choice: the

@@ -406,14 +406,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     };
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
-    let fixture = |name: &str| {
-        std::fs::read(format!(
-            "{}/tests/fixtures/workbooks/{name}",
-            env!("CARGO_MANIFEST_DIR")
-        ))
-        .expect("fixture")
-    };
-    let book = fixture("sales.xlsx");
+    let book = workbooks_fixture("sales.xlsx");
     drop_on(browser, "drop-zone", &book, "sales.xlsx");
     browser.wait_for(
         "the workbook's sheet as the source",
@@ -421,7 +414,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
         WAIT,
     );
     let text = browser.js("return document.getElementById('intake-text').value");
-    let expected = String::from_utf8(fixture("sales_with_title.csv")).unwrap();
+    let expected = String::from_utf8(workbooks_fixture("sales_with_title.csv")).unwrap();
     assert_eq!(text.as_str().unwrap_or(""), expected);
     let notice = browser.js("return document.getElementById('work-notice').textContent");
     let notice = notice.as_str().unwrap_or("");
@@ -459,7 +452,12 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
          return [s.value, Array.from(s.options).map(o => o.value)]");
     assert_eq!(offered, json!(["Sales", ["Read me", "Sales", "Stock"]]));
     // An older binary workbook: refused, the desk as it was.
-    drop_on(browser, "drop-zone", &fixture("sales.xls"), "sales.xls");
+    drop_on(
+        browser,
+        "drop-zone",
+        &workbooks_fixture("sales.xls"),
+        "sales.xls",
+    );
     let refused = browser.wait_for(
         "the .xls refused in words",
         "const n = document.getElementById('work-notice'); return n && n.textContent.includes('sales.xls could not be read') && n.textContent",
@@ -478,7 +476,7 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
     drop_on(
         browser,
         "drop-zone",
-        &fixture("year_sheets.xlsx"),
+        &workbooks_fixture("year_sheets.xlsx"),
         "year_sheets.xlsx",
     );
     browser.wait_for(
@@ -518,6 +516,16 @@ fn a_dropped_workbook_is_read_sheet_by_sheet() {
         "return document.getElementById('sheet-choice') === null",
         WAIT,
     );
+}
+
+/// The bytes of the fixture `name` of tests/fixtures/workbooks (written by
+/// scripts/workbook_fixtures.py).
+pub(super) fn workbooks_fixture(name: &str) -> Vec<u8> {
+    std::fs::read(format!(
+        "{}/tests/fixtures/workbooks/{name}",
+        env!("CARGO_MANIFEST_DIR")
+    ))
+    .expect("fixture")
 }
 
 /// Drops a file of `bytes` named `name` on the drop zone `zone` (Intake's or the stock

@@ -102,11 +102,7 @@ fn a_silent_reading_worker_is_said() {
     };
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
-    let book = std::fs::read(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/workbooks/sales.xlsx"
-    ))
-    .expect("fixture");
+    let book = super::engine_match::workbooks_fixture("sales.xlsx");
     super::engine_match::drop_on(browser, "drop-zone", &book, "sales.xlsx");
     let said = browser.wait_for(
         "the silent reading worker said",

@@ -96,11 +96,7 @@ fn the_single_file_reads_a_dropped_workbook() {
     };
     let browser = &page.browser;
     wait_for_item(browser, "Seed packets");
-    let book = std::fs::read(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/tests/fixtures/workbooks/sales.xlsx"
-    ))
-    .expect("fixture");
+    let book = super::engine_match::workbooks_fixture("sales.xlsx");
     drop_on(browser, "drop-zone", &book, "sales.xlsx");
     browser.wait_for(
         "the workbook's sheet as the source",

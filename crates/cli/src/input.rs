@@ -162,10 +162,32 @@ fn leave_out_unfinished(input: Input) -> Result<Input, String> {
 
 /// The sheet `sheet` of the workbook FILE (`--sheet`), as its history.
 fn read_sheet(file: &str, sheet: &str, stdin: &mut dyn Read) -> Result<Input, String> {
-    let bytes = read_input(file, stdin)?;
-    let (report, read) = intake::read_bytes_and_text(&bytes, Some(sheet));
-    let text = read.map_err(|why| format!("--sheet {}: {why}", crate::table::quoted(sheet)))?;
-    Ok(Input::History(report, text.text, None, text.sheet))
+    history(&read_input(file, stdin)?, Some(sheet))
+}
+
+/// `bytes` read as a history: the workbook's sheet `sheet` names (`--sheet`; refused when it
+/// cannot be read), else what Intake chooses (a workbook whose sheet to read is unclear: its
+/// refusal in the report, with the sheets that can be read and how to name one).
+fn history(bytes: &[u8], sheet: Option<&str>) -> Result<Input, String> {
+    let (mut report, read) = intake::read_bytes_and_text(bytes, sheet);
+    let (text, sheet_read) = match (read, sheet) {
+        (Ok(file), _) => (file.text, file.sheet),
+        (Err(why), Some(sheet)) => {
+            return Err(format!("--sheet {}: {why}", crate::table::quoted(sheet)))
+        }
+        (Err(_), None) => {
+            let sheets = intake::workbook_sheets(bytes);
+            if sheets.len() >= 2 {
+                let names: Vec<String> = sheets.iter().map(|s| crate::table::quoted(s)).collect();
+                report.warnings.push(format!(
+                    "the workbook's sheets that can be read: {}; --sheet NAME reads one",
+                    names.join(", ")
+                ));
+            }
+            (String::new(), None)
+        }
+    };
+    Ok(Input::History(report, text, None, sheet_read))
 }
 
 /// FILE read as it is (see [`read_any`]).
@@ -181,25 +203,7 @@ fn read_whole(file: &str, stdin: &mut dyn Read) -> Result<Input, String> {
             intake::decode_bytes(&bytes)
         };
         if !Work::is_work(&text) {
-            let (mut report, read) = intake::read_bytes_and_text(&bytes, None);
-            let (text, sheet) = match read {
-                Ok(file) => (file.text, file.sheet),
-                Err(_) => {
-                    // A workbook whose sheet to read is unclear: its sheets, and how to name
-                    // one.
-                    let sheets = intake::workbook_sheets(&bytes);
-                    if sheets.len() >= 2 {
-                        let names: Vec<String> =
-                            sheets.iter().map(|s| crate::table::quoted(s)).collect();
-                        report.warnings.push(format!(
-                            "the workbook's sheets that can be read: {}; --sheet NAME reads one",
-                            names.join(", ")
-                        ));
-                    }
-                    (String::new(), None)
-                }
-            };
-            return Ok(Input::History(report, text, None, sheet));
+            return history(&bytes, None);
         }
         text
     };

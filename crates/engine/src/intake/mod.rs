@@ -322,7 +322,7 @@ impl IntakeReport {
 /// every line holding bytes that are not text is an error (see the `decode` module). Never
 /// panics, whatever the bytes.
 pub fn read_bytes(bytes: &[u8]) -> IntakeReport {
-    report_of(decode::decode(bytes))
+    report_of(&decode::decode(bytes))
 }
 
 /// Reads `bytes` as [`read_bytes`] does, or the workbook sheet `sheet` names, and gives the
@@ -338,19 +338,19 @@ pub fn read_bytes_and_text(
         Some(sheet) => decode::decode_sheet(bytes, sheet),
         None => decode::decode(bytes),
     };
-    let file = FileText::copied(&decoded);
-    (report_of(decoded), file)
+    let report = report_of(&decoded);
+    (report, FileText::of(decoded))
 }
 
-fn report_of(decoded: decode::Decoded) -> IntakeReport {
-    if let Some(why) = decoded.refused {
+fn report_of(decoded: &decode::Decoded) -> IntakeReport {
+    if let Some(why) = &decoded.refused {
         let mut report = empty_report(Delimiter::Comma);
-        report.errors.push(decode::refusal(why));
+        report.errors.push(decode::refusal(why.clone()));
         return report;
     }
     let mut report = read_text(&decoded.text);
     report.warnings.extend(decoded.assumed.clone());
-    report.errors.extend(decode::all_errors(&decoded));
+    report.errors.extend(decode::all_errors(decoded));
     report.errors.sort_by_key(|e| e.row);
     header_read_as_data(&mut report);
     report
@@ -381,19 +381,15 @@ pub struct FileText {
 }
 
 impl FileText {
+    /// The text `decoded` holds; `Err` with why when nothing could be read.
     fn of(decoded: decode::Decoded) -> Result<FileText, String> {
-        FileText::copied(&decoded)
-    }
-
-    /// The text of `decoded`, kept beside its reading (which takes `decoded` itself).
-    fn copied(decoded: &decode::Decoded) -> Result<FileText, String> {
-        match &decoded.refused {
-            Some(why) => Err(why.clone()),
+        match decoded.refused {
+            Some(why) => Err(why),
             None => Ok(FileText {
-                text: decoded.text.clone(),
-                sheet: decoded.sheet.clone(),
-                sheets: decoded.sheets.clone(),
-                note: decoded.assumed.clone(),
+                text: decoded.text,
+                sheet: decoded.sheet,
+                sheets: decoded.sheets,
+                note: decoded.assumed,
             }),
         }
     }
@@ -411,13 +407,8 @@ pub fn is_workbook(bytes: &[u8]) -> bool {
 /// or without its byte-order mark (said in the note); undecodable bytes become U+FFFD, which
 /// [`read`] reports by line.
 pub fn text_file(bytes: &[u8]) -> FileText {
-    let decoded = decode::decode_text(bytes);
-    FileText {
-        text: decoded.text,
-        sheet: None,
-        sheets: Vec::new(),
-        note: decoded.assumed,
-    }
+    // Decoding text refuses nothing (only a workbook can be refused whole).
+    FileText::of(decode::decode_text(bytes)).unwrap_or_default()
 }
 
 /// A history file's text (a workbook's fullest sheet, [`read_bytes`]'s); `Err` with why and

@@ -127,7 +127,7 @@ struct Notes {
 /// history it goes with (its period, for lead times written in days or weeks, and its items'
 /// names). Never panics.
 pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
-    from_decoded(decode::decode_choosing(bytes, &STOCK_SHEET), history)
+    from_decoded(&decode::decode_choosing(bytes, &STOCK_SHEET), history)
 }
 
 /// Reads a stock table from bytes as [`read_stock_table`] does, or from the workbook sheet
@@ -144,26 +144,26 @@ pub fn read_stock_table_and_text(
         Some(sheet) => decode::decode_sheet(bytes, sheet),
         None => decode::decode_choosing(bytes, &STOCK_SHEET),
     };
-    let file = super::FileText::copied(&decoded);
-    (from_decoded(decoded, history), file)
+    let table = from_decoded(&decoded, history);
+    (table, super::FileText::of(decoded))
 }
 
 /// Reads a stock table that is already text (the page's stock table box) as
 /// [`read_stock_table`] reads its bytes, without linking the workbook reader: a workbook's
 /// sheet reaches the page as text from its own worker.
 pub fn read_stock_table_text(text: &str, history: &IntakeReport) -> StockTable {
-    from_decoded(decode::decode_text(text.as_bytes()), history)
+    from_decoded(&decode::decode_text(text.as_bytes()), history)
 }
 
-fn from_decoded(decoded: decode::Decoded, history: &IntakeReport) -> StockTable {
-    if let Some(why) = decoded.refused {
+fn from_decoded(decoded: &decode::Decoded, history: &IntakeReport) -> StockTable {
+    if let Some(why) = &decoded.refused {
         let mut table = StockTable::default();
-        table.errors.push(decode::refusal(why));
+        table.errors.push(decode::refusal(why.clone()));
         return table;
     }
     let mut table = read_text(&decoded.text, history);
     table.warnings.extend(decoded.assumed.clone());
-    table.errors.extend(decode::all_errors(&decoded));
+    table.errors.extend(decode::all_errors(decoded));
     table.errors.sort_by_key(|e| e.row);
     table
 }
