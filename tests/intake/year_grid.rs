@@ -399,3 +399,33 @@ fn what_the_code_review_found() {
         "{without:#?}"
     );
 }
+
+/// A figure column under a header that mentions a year ("Last year", "Prior year") left of
+/// the whole year's months, with no year anywhere: the year of the months is not written.
+/// With one row the table had been read as a long table of January's figure alone (each other
+/// column warned as not used), with two as periods written wrongly in the item column.
+#[test]
+fn last_years_figures_name_no_year_for_the_months() {
+    for (rows, header) in [(1, "Last year"), (2, "Last year"), (2, "Prior year total")] {
+        let text = format!(
+            "Item,{header},{MONTHS}\nTrowel,120,{}\n{}",
+            year_of(1),
+            if rows == 2 {
+                format!("Rake,80,{}\n", year_of(3))
+            } else {
+                String::new()
+            }
+        );
+        let report = check(
+            &text,
+            Expect {
+                errors: vec![(1, "Jan", "Jan")],
+                ..Expect::default()
+            },
+        );
+        assert!(
+            report.errors[0].message.contains("add a column \"Year\""),
+            "{text}: {report:#?}"
+        );
+    }
+}

@@ -234,11 +234,11 @@ pub(crate) fn without_a_year(
     let header = table.header.as_ref()?;
     let (across, parts) = whole_year(table, columns)?;
     let first = parts.first()?.0;
-    // A year named left of the months (a total's "Year total" right of them names none).
-    let named_year = (0..first).any(|j| {
-        let name = table.column_name(j).to_lowercase();
-        header_says(&name, &YEAR_WORDS) && !header_says(&name, &TOTAL_WORDS)
-    });
+    // A year named left of the months, by a header naming it and nothing else: "Last year"
+    // or "Year total" hold figures (a review found `Item,Last year,Jan,...,Dec` of one row
+    // read as a long table of January's figure).
+    let named_year =
+        (0..first).any(|j| header_is_only(&table.column_name(j).to_lowercase(), &YEAR_WORDS));
     if named_year || !texts.iter().any(|j| *j < first) {
         return None;
     }
