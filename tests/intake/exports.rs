@@ -381,6 +381,61 @@ fn a_fiscal_year_beside_months_is_refused() {
     }
 }
 
+// A year and its part named in German, French, Dutch, Spanish or Italian (the words from
+// memory, as Intake's other period words): `Artikel;Jahr;Monat;Menge` had been read as
+// yearly, every month of a year summed into it (warned only as "calendar details" and rows
+// summed); now one period as in English. A fiscal year's months under "Jahr" are refused
+// as under "Year".
+#[test]
+fn a_year_and_its_part_named_in_other_languages_make_one_period() {
+    for (header, first, frequency) in [
+        ("Artikel;Jahr;Monat;Menge", "2023-11", Frequency::Monthly),
+        ("Article;ANNÉE;Mois;Quantité", "2023-11", Frequency::Monthly),
+        ("Artikel;Jaar;Maand;Aantal", "2023-11", Frequency::Monthly),
+        ("Producto;Año;Mes;Cantidad", "2023-11", Frequency::Monthly),
+        ("Articolo;Anno;Mese;Quantità", "2023-11", Frequency::Monthly),
+        (
+            "Artikel;Jahr;Quartal;Menge",
+            "2023-Q3",
+            Frequency::Quarterly,
+        ),
+        (
+            "Article;Année;Trimestre;Quantité",
+            "2023-Q3",
+            Frequency::Quarterly,
+        ),
+        ("Artikel;Jahr;KW;Menge", "2023-W51", Frequency::Weekly),
+    ] {
+        // The last two parts of 2023 and the first of 2024 (ISO 2023 has 52 weeks).
+        let part = |n: u32| match frequency {
+            Frequency::Quarterly => n - 8,
+            Frequency::Weekly => n + 40,
+            _ => n,
+        };
+        let text = format!(
+            "{header}\nKelle;2023;{};5\nKelle;2023;{};6\nKelle;2024;{};7\n",
+            part(11),
+            part(12),
+            1
+        );
+        let report = check(
+            &text,
+            Expect {
+                items: Some(vec![("Kelle", some(&[5.0, 6.0, 7.0]))]),
+                frequency: Some(frequency),
+                ..Expect::default()
+            },
+        );
+        assert_eq!(report.items[0].periods[0].to_string(), first, "{header}");
+    }
+    let fiscal =
+        read("Artikel;Jahr;Monat;Menge\nKelle;2023;Nov;5\nKelle;2023;Dec;6\nKelle;2023;Jan;7\n");
+    assert!(
+        fiscal.errors[0].message.contains("fiscal year"),
+        "{fiscal:#?}"
+    );
+}
+
 // Without the header's words nothing is joined: a period named otherwise stays as before.
 #[test]
 fn a_year_beside_other_numbers_is_not_joined() {

@@ -31,6 +31,7 @@ use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::{names_no_demand, SaleDetail};
 use super::table::{header_says, names_weeks, wide_row_error, OfAnother, Plan, Table};
 use super::text::Record;
+use super::words::MONTH_WORDS;
 
 mod across;
 mod long;
@@ -543,9 +544,11 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             });
         let col = read_periods_anchored(&cells, meaning, anchor, series.as_deref());
         // Week.year is written the same way: said where no header names months.
-        let months = [
-            "month", "months", "monthly", "mth", "monat", "mois", "maand", "mes", "mese",
-        ];
+        let months: Vec<&str> = MONTH_WORDS
+            .iter()
+            .chain(&["months", "monthly"])
+            .copied()
+            .collect();
         if meaning == Some(super::period::IntegerMeaning::DottedMonths)
             && (table.header.is_none() || !header_says(&table.column_name(p), &months))
         {

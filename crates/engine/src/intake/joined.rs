@@ -16,6 +16,7 @@ use super::label::{calendar_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
+use super::words::{MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS};
 use super::RowError;
 
 /// The part of a year a column beside a year column counts.
@@ -37,9 +38,9 @@ impl YearPart {
     /// Header words that name this part of a year.
     fn words(self) -> &'static [&'static str] {
         match self {
-            YearPart::Month => &["month", "mth"],
-            YearPart::Quarter => &["quarter", "qtr"],
-            YearPart::Week => &super::table::WEEK_WORDS,
+            YearPart::Month => &MONTH_WORDS,
+            YearPart::Quarter => &QUARTER_WORDS,
+            YearPart::Week => &WEEK_WORDS,
         }
     }
 
@@ -100,10 +101,13 @@ impl SplitPeriod {
         };
         // Headers that name only the part ("Month", "Month no"), not an item that holds the
         // word ("Year planner", "Month end").
-        let named = |j: usize, words: &[&str]| header_is_only(&table.column_name(j), words);
+        // Lower case first: the words match ASCII case only ("ANNÉE").
+        let named =
+            |j: usize, words: &[&str]| header_is_only(&table.column_name(j).to_lowercase(), words);
+        let year_or_fiscal: Vec<&str> = YEAR_WORDS.iter().chain(&FISCAL_WORDS).copied().collect();
         let year_named = |j: usize| {
-            named(j, &["year", "yr", "fiscal", "financial"])
-                && header_says(&table.column_name(j), &["year", "yr"])
+            named(j, &year_or_fiscal)
+                && header_says(&table.column_name(j).to_lowercase(), &YEAR_WORDS)
         };
         let is_part = |j: usize| YearPart::ALL.iter().any(|part| named(j, part.words()));
         // Most cells, not all: one bad cell is an error at its row, not another layout.

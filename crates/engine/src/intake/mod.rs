@@ -143,6 +143,7 @@ mod table;
 mod text;
 mod totals;
 mod unfinished;
+mod words;
 mod workbook;
 mod year_grid;
 

@@ -86,6 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
+use super::words::{WEEK_WORDS, YEAR_WORDS};
 use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
 
@@ -1176,35 +1177,10 @@ fn numbers_rows(table: &Table, j: usize, rows: &[&Record]) -> bool {
 /// "promo code", "customer count").
 const OTHER_WORDS: [&str; 6] = ["price", "cost", "count", "promo", "promotion", "discount"];
 
-/// Header words that name weeks, in the languages of [`PERIOD_WORDS`] ("KW": German
-/// Kalenderwoche).
-pub(super) const WEEK_WORDS: [&str; 16] = [
-    "week",
-    "weeks",
-    "weekly",
-    "wk",
-    "wks",
-    "kw",
-    "woche",
-    "wochen",
-    "kalenderwoche",
-    "kalenderwochen",
-    "semaine",
-    "semaines",
-    "semana",
-    "semanas",
-    "settimana",
-    "settimane",
-];
-
 /// Whether column `j` is headed by weeks and nothing else ("Week", "Wk no", "Year/Week",
 /// "Week ending", "Calendar week", "KW").
 pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
-    const BESIDE: [&str; 12] = [
-        "year",
-        "jahr",
-        "jaar",
-        "anno",
+    const BESIDE: [&str; 8] = [
         "period",
         "sales",
         "ending",
@@ -1215,7 +1191,12 @@ pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
         "iso",
     ];
     let name = table.column_name(j);
-    let allowed: Vec<&str> = WEEK_WORDS.iter().chain(&BESIDE).copied().collect();
+    let allowed: Vec<&str> = WEEK_WORDS
+        .iter()
+        .chain(&YEAR_WORDS)
+        .chain(&BESIDE)
+        .copied()
+        .collect();
     table.header.is_some() && header_is_only(&name, &allowed) && header_says(&name, &WEEK_WORDS)
 }
 

@@ -25,6 +25,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
+use super::words::YEAR_WORDS;
 use super::RowError;
 use crate::calendar::{Frequency, Period};
 
@@ -302,12 +303,6 @@ pub(crate) struct Columns<'c> {
     /// Columns with no cell filled.
     pub empty: &'c [usize],
 }
-
-/// Header words naming a calendar year: English, and (from memory) the German, French, Dutch,
-/// Spanish and Italian ones written in plain letters.
-const YEAR_WORDS: [&str; 9] = [
-    "year", "yr", "jahr", "annee", "année", "jaar", "ano", "año", "anno",
-];
 
 /// Whether the items' rows share their years, as a report's rows do: with two items or more,
 /// some year is held by at least half of them. Each item in a year of its own ("1978",
