@@ -436,6 +436,52 @@ fn a_year_and_its_part_named_in_other_languages_make_one_period() {
     );
 }
 
+// A year read as the period beside a column left unread that holds parts of a year under a
+// header not known as a month's ("Mon", "M", "Q", "Bucket"; 1 to 12, Jan to Dec): each item's
+// months of a year had been summed into one yearly figure, said only as a column not used and
+// rows summed. Now an error at that column saying how to name it. One row per item and year
+// beside such numbers (a rank) is read as before.
+#[test]
+fn parts_of_a_year_under_an_unknown_header_are_not_summed_into_years() {
+    for (header, parts) in [
+        ("Item,Year,Mon,Qty", ["1", "2", "3"]),
+        ("Item,Year,M,Qty", ["1", "2", "3"]),
+        ("Item,Yr,Bucket,Qty", ["1", "2", "3"]),
+        ("Item,Year,Mon,Qty", ["Jan", "Feb", "Mar"]),
+    ] {
+        let mut text = format!("{header}\n");
+        for year in [2023, 2024] {
+            for (i, part) in parts.iter().enumerate() {
+                text.push_str(&format!("Trowel,{year},{part},{}\n", i + 5));
+            }
+        }
+        let column = header.split(',').nth(2).unwrap();
+        let report = check(
+            &text,
+            Expect {
+                errors: vec![(2, column, parts[0])],
+                ..Expect::default()
+            },
+        );
+        // Month names there were refused already, as months without their years.
+        assert!(
+            report.errors[0].message.contains("name the column Month") || parts[0] == "Jan",
+            "{header}: {report:#?}"
+        );
+    }
+    check(
+        "Item,Year,Rank,Qty\nTrowel,2023,1,50\nTrowel,2024,2,60\nRake,2023,2,40\nRake,2024,1,70\n",
+        Expect {
+            items: Some(vec![
+                ("Trowel", some(&[50.0, 60.0])),
+                ("Rake", some(&[40.0, 70.0])),
+            ]),
+            frequency: Some(Frequency::Yearly),
+            ..Expect::default()
+        },
+    );
+}
+
 // Without the header's words nothing is joined: a period named otherwise stays as before.
 #[test]
 fn a_year_beside_other_numbers_is_not_joined() {

@@ -35,6 +35,7 @@ use super::words::MONTH_WORDS;
 
 mod across;
 mod long;
+mod parts_in_years;
 mod readings;
 mod unnamed;
 mod year_grid;
@@ -571,7 +572,10 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
         col
     });
     if let (Some(col), Some((p, _)), None) = (column.as_ref(), plan.period, plan.split) {
-        if let Some(error) = weeks_read_as_months(table, p, col.frequency, &kept) {
+        let error = weeks_read_as_months(table, p, col.frequency, &kept).or_else(|| {
+            parts_in_years::parts_summed_into_years(table, plan, col.frequency, &kept, &col.periods)
+        });
+        if let Some(error) = error {
             b.out.errors.push(error);
             return b.finish();
         }
