@@ -16,7 +16,9 @@ use super::label::{calendar_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
-use super::words::{MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS};
+use super::words::{
+    numbered_part, NumberedPart, MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS,
+};
 use super::RowError;
 
 /// The part of a year a column beside a year column counts.
@@ -44,21 +46,21 @@ impl YearPart {
         }
     }
 
-    /// Words a part's number is written after in a cell ("Qtr 1", "Week 1", "M01").
-    fn prefixes(self) -> &'static [&'static str] {
-        match self {
-            YearPart::Month => &["month", "mth", "m"],
-            YearPart::Quarter => &["quarter", "qtr", "q"],
-            YearPart::Week => &["week", "wk", "w"],
-        }
-    }
-
     /// What a cell of this part is written as, for a refusal.
     fn forms(self) -> &'static str {
         match self {
             YearPart::Month => "a month: 1 to 12 or a month name such as Jan or January",
             YearPart::Quarter => "a quarter: 1 to 4 or Q1 to Q4",
             YearPart::Week => "an ISO week: 1 to 53 or W1 to W53",
+        }
+    }
+
+    /// The same part, as a cell names it by its number ("Qtr 1").
+    fn numbered(self) -> NumberedPart {
+        match self {
+            YearPart::Month => NumberedPart::Month,
+            YearPart::Quarter => NumberedPart::Quarter,
+            YearPart::Week => NumberedPart::Week,
         }
     }
 
@@ -267,13 +269,21 @@ impl SplitPeriod {
 }
 
 /// A part cell as the joined label takes it: a number written after its part's word ("Qtr 1",
-/// "Quarter 2", "Week 1", "Wk 1", "M01", "Month 1") becomes the number, and a month cell
+/// "Quarter 2", "Week 1", "Wk 1", "M01", "Month 1"; [`numbered_part`]) becomes the number, and a month cell
 /// holding one month name beside a number or a full stop ("Jan.", "01-Jan") the name. A
 /// review found each of these beside a year read as yearly items, "Qtr 1" to "Qtr 4",
 /// without a word.
 fn part_text(cell: &str, how: YearPart) -> String {
     let cell = cell.trim();
-    // Runs of letters and runs of digits: "M01" is "M", "01"; "01-Jan" is "01", "Jan".
+    if let Some((part, number)) = numbered_part(cell) {
+        if part == how.numbered() {
+            return number.to_string();
+        }
+    }
+    if how != YearPart::Month {
+        return cell.to_string();
+    }
+    // Runs of letters and runs of digits: "01-Jan" is "01", "Jan".
     let mut tokens: Vec<String> = Vec::new();
     for c in cell.chars() {
         let kind = |c: char| (c.is_ascii_digit(), c.is_alphabetic());
@@ -285,21 +295,9 @@ fn part_text(cell: &str, how: YearPart) -> String {
     }
     tokens.retain(|t| !t.is_empty());
     let digits = |t: &str| t.bytes().all(|b| b.is_ascii_digit());
-    match tokens.as_slice() {
-        [word, number]
-            if digits(number) && how.prefixes().iter().any(|p| word.eq_ignore_ascii_case(p)) =>
-        {
-            number.clone()
-        }
-        _ if how == YearPart::Month => {
-            let names: Vec<&String> = tokens.iter().filter(|t| !digits(t)).collect();
-            match names.as_slice() {
-                [name] if tokens.len() <= 2 && calendar_name(name) && !digits(name) => {
-                    (*name).clone()
-                }
-                _ => cell.to_string(),
-            }
-        }
+    let names: Vec<&String> = tokens.iter().filter(|t| !digits(t)).collect();
+    match names.as_slice() {
+        [name] if tokens.len() <= 2 && calendar_name(name) => (*name).clone(),
         _ => cell.to_string(),
     }
 }

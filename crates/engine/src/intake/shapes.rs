@@ -18,6 +18,7 @@ use super::table::{
     Table, ITEM_WORDS,
 };
 use super::text::Record;
+use super::words::numbered_part;
 use super::RowError;
 
 /// Header words of a text column that notes rows rather than names items ("Comment",
@@ -368,25 +369,6 @@ enum GridPart {
 /// "P13" and "Period 1" (accounting periods), "H1", "H2", "Half 1". `None` for anything else.
 fn grid_header(cell: &str) -> Option<GridPart> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
-    let words: Vec<&str> = lower
-        .split(|c: char| !c.is_alphanumeric())
-        .filter(|w| !w.is_empty())
-        .collect();
-    let numbered = |prefix: &str, max: u32| {
-        lower
-            .strip_prefix(prefix)
-            .map(str::trim)
-            .filter(|n| !n.is_empty() && n.len() <= 2 && n.bytes().all(|b| b.is_ascii_digit()))
-            .and_then(|n| n.parse::<u32>().ok())
-            .filter(|n| (1..=max).contains(n))
-    };
-    let ordinal = match words.as_slice() {
-        [n, "qtr" | "quarter"] => ["1st", "2nd", "3rd", "4th"]
-            .iter()
-            .position(|o| o == n)
-            .map(|i| i as u32 + 1),
-        _ => None,
-    };
     // Weekdays as grids shorten them too ("Mo", "Tu").
     let two_letters = matches!(
         lower.as_str(),
@@ -398,22 +380,8 @@ fn grid_header(cell: &str) -> Option<GridPart> {
     if is_time_of_day(&lower) {
         return Some(GridPart::Day);
     }
-    let number = numbered("qtr", 4)
-        .or_else(|| numbered("quarter", 4))
-        .or(ordinal)
-        .or_else(|| numbered("q", 4))
-        .or_else(|| numbered("week", 53))
-        .or_else(|| numbered("wk", 53))
-        .or_else(|| numbered("w", 53))
-        .or_else(|| numbered("month", 12))
-        .or_else(|| numbered("mth", 12))
-        .or_else(|| numbered("m", 12))
-        .or_else(|| numbered("period", 13))
-        .or_else(|| numbered("p", 13))
-        .or_else(|| numbered("half", 2))
-        .or_else(|| numbered("h", 2));
-    if number.is_some() {
-        return Some(GridPart::Year(number));
+    if let Some((_, number)) = numbered_part(&lower) {
+        return Some(GridPart::Year(Some(number)));
     }
     (calendar_name(&lower) || lower == "sept").then_some(GridPart::Year(None))
 }

@@ -1,7 +1,9 @@
-//! The header words Intake knows for the calendar's years, quarters, months and weeks, in one
-//! place: English and (from memory) the common German, French, Dutch, Spanish and Italian ones
-//! written in plain letters. Matched as whole words of a header, any ASCII case; callers that
-//! may meet capitals beyond ASCII ("ANNÉE") lower-case the header first.
+//! The words Intake knows for the calendar's years, quarters, months and weeks, in one place:
+//! the header words, English and (from memory) the common German, French, Dutch, Spanish and
+//! Italian ones written in plain letters, matched as whole words of a header in any ASCII case
+//! (callers that may meet capitals beyond ASCII, "ANNÉE", lower-case the header first); and
+//! the one rule for a part of the year named by a word and its number ("Qtr 1", "M01", "1st
+//! Qtr", [`numbered_part`]), which grids' headers and a part column's cells are read by.
 //!
 //! Kept apart from: what a column under such a header holds (the readers decide that from
 //! its cells) and the words for periods in general ([`super::table::PERIOD_WORDS`]).
@@ -37,3 +39,131 @@ pub(super) const WEEK_WORDS: [&str; 16] = [
     "settimana",
     "settimane",
 ];
+
+/// A part of the year counted by its number within the year.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub(super) enum NumberedPart {
+    Month,
+    Quarter,
+    /// An ISO 8601 week.
+    Week,
+    Half,
+    /// An accounting period (1 to 13), which no calendar places.
+    Period,
+}
+
+impl NumberedPart {
+    /// How many there are in a year.
+    fn count(self) -> u32 {
+        match self {
+            NumberedPart::Month => 12,
+            NumberedPart::Quarter => 4,
+            NumberedPart::Week => 53,
+            NumberedPart::Half => 2,
+            NumberedPart::Period => 13,
+        }
+    }
+
+    /// The words its number is written after ("Qtr 1", "M01", "Wk 5").
+    fn prefixes(self) -> &'static [&'static str] {
+        match self {
+            NumberedPart::Month => &["month", "mth", "m"],
+            NumberedPart::Quarter => &["quarter", "qtr", "q"],
+            NumberedPart::Week => &["week", "wk", "w"],
+            NumberedPart::Half => &["half", "h"],
+            NumberedPart::Period => &["period", "p"],
+        }
+    }
+
+    const ALL: [NumberedPart; 5] = [
+        NumberedPart::Month,
+        NumberedPart::Quarter,
+        NumberedPart::Week,
+        NumberedPart::Half,
+        NumberedPart::Period,
+    ];
+}
+
+/// The part of the year one cell names by a word and its number, with the number: "M01",
+/// "Month 1", "Mth 1", "Q1", "Qtr 1", "Quarter 1", "1st Qtr", "W5", "Wk 5", "Week 5", "H1",
+/// "Half 1", "P1", "Period 13" (any case; a space, a dot or nothing between). The number has
+/// one or two digits and lies within the part's count (an ordinal's suffix must agree with
+/// it). `None` for anything else: a month's name is not numbered ([`super::label::month_name`]).
+pub(super) fn numbered_part(cell: &str) -> Option<(NumberedPart, u32)> {
+    let lower = cell.trim().to_lowercase();
+    // Runs of letters and of digits: "M01" is "m", "01"; "1st Qtr" is "1", "st", "qtr".
+    let mut tokens: Vec<String> = Vec::new();
+    let mut broken = true;
+    for c in lower.chars() {
+        if !c.is_alphanumeric() {
+            broken = true;
+            continue;
+        }
+        match tokens.last_mut() {
+            Some(t)
+                if !broken && t.ends_with(|l: char| l.is_ascii_digit() == c.is_ascii_digit()) =>
+            {
+                t.push(c)
+            }
+            _ => tokens.push(c.to_string()),
+        }
+        broken = false;
+    }
+    let words: Vec<&str> = tokens.iter().map(String::as_str).collect();
+    let (part, number) = match words.as_slice() {
+        [word, n] => (
+            NumberedPart::ALL
+                .into_iter()
+                .find(|part| part.prefixes().contains(word))?,
+            *n,
+        ),
+        [n @ ("1" | "2" | "3" | "4"), suffix, "qtr" | "quarter"]
+            if ["st", "nd", "rd", "th"][n.parse::<usize>().ok()? - 1] == *suffix =>
+        {
+            (NumberedPart::Quarter, *n)
+        }
+        _ => return None,
+    };
+    let number: u32 = (number.len() <= 2 && number.bytes().all(|b| b.is_ascii_digit()))
+        .then(|| number.parse().ok())??;
+    (1..=part.count())
+        .contains(&number)
+        .then_some((part, number))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::NumberedPart::{Half, Month, Period, Quarter, Week};
+    use super::*;
+
+    /// A cell -> the numbered part it names.
+    fn check(cell: &str, expected: Option<(NumberedPart, u32)>) {
+        assert_eq!(numbered_part(cell), expected, "{cell:?}");
+    }
+
+    #[test]
+    fn cells_name_numbered_parts_of_the_year() {
+        check("M01", Some((Month, 1)));
+        check("Month 12", Some((Month, 12)));
+        check("mth.3", Some((Month, 3)));
+        check("Q4", Some((Quarter, 4)));
+        check("Qtr 1", Some((Quarter, 1)));
+        check("QUARTER 2", Some((Quarter, 2)));
+        check("1st Qtr", Some((Quarter, 1)));
+        check("3rd quarter", Some((Quarter, 3)));
+        check("W53", Some((Week, 53)));
+        check("Wk 5", Some((Week, 5)));
+        check("H2", Some((Half, 2)));
+        check("P13", Some((Period, 13)));
+        check("Period 1", Some((Period, 1)));
+        // Beyond the part's count, three digits, a wrong ordinal, more words, a name.
+        check("Q5", None);
+        check("M13", None);
+        check("M001", None);
+        check("2st Qtr", None);
+        check("Qtr 1 total", None);
+        check("Jan", None);
+        check("Q", None);
+        check("Item 1", None);
+    }
+}

@@ -25,7 +25,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
-use super::words::YEAR_WORDS;
+use super::words::{numbered_part, NumberedPart, YEAR_WORDS};
 use super::RowError;
 use crate::calendar::{Frequency, Period};
 
@@ -363,36 +363,11 @@ fn part_of_year(cell: &str) -> Option<(Across, u32)> {
     if let Some(month) = month_name(&lower) {
         return Some((Across::Months, month));
     }
-    // Runs of letters and of digits: "M01" is "m", "01"; "1st Qtr" is "1", "st", "qtr".
-    let mut tokens: Vec<String> = Vec::new();
-    for c in lower.chars() {
-        let same = |t: &String| {
-            t.chars()
-                .last()
-                .is_some_and(|l| l.is_ascii_digit() == c.is_ascii_digit())
-        };
-        match tokens.last_mut() {
-            Some(t) if c.is_alphanumeric() && same(t) => t.push(c),
-            _ if c.is_alphanumeric() => tokens.push(c.to_string()),
-            // A break between tokens ("st qtr" is two).
-            _ => tokens.push(String::new()),
-        }
+    match numbered_part(&lower)? {
+        (NumberedPart::Month, n) => Some((Across::Months, n)),
+        (NumberedPart::Quarter, n) => Some((Across::Quarters, n)),
+        _ => None,
     }
-    tokens.retain(|t| !t.is_empty());
-    let words: Vec<&str> = tokens.iter().map(String::as_str).collect();
-    let (kind, number) = match words.as_slice() {
-        ["m" | "month" | "mth", n] => (Across::Months, *n),
-        ["q" | "qtr" | "quarter", n] => (Across::Quarters, *n),
-        [n @ ("1" | "2" | "3" | "4"), suffix, "qtr" | "quarter"]
-            if ["st", "nd", "rd", "th"][n.parse::<usize>().ok()? - 1] == *suffix =>
-        {
-            (Across::Quarters, *n)
-        }
-        _ => return None,
-    };
-    let number: u32 = (number.len() <= 2 && number.bytes().all(|b| b.is_ascii_digit()))
-        .then(|| number.parse().ok())??;
-    (1..=kind.max()).contains(&number).then_some((kind, number))
 }
 
 #[cfg(test)]
