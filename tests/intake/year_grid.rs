@@ -429,3 +429,28 @@ fn last_years_figures_name_no_year_for_the_months() {
         );
     }
 }
+
+/// Last year's figures beside the year's own column ("Last year", "Vorjahr" is not among the
+/// words) are not read, said; the grid is read (it had been refused as a calendar grid).
+#[test]
+fn last_years_figures_beside_the_year_are_not_read() {
+    for header in ["Item,Year,Last year", "Item,Prior year total,Year"] {
+        let first_year = if header.ends_with("Year") {
+            "120,2024"
+        } else {
+            "2024,120"
+        };
+        check(
+            &format!("{header},{MONTHS}\nTrowel,{first_year},{}\n", year_of(1)),
+            Expect {
+                layout: Some(Layout::Across),
+                items: Some(vec![(
+                    "Trowel",
+                    (1..=12).map(|v| Some(f64::from(v))).collect(),
+                )]),
+                warned: vec![vec!["was not used", "another year's figures"]],
+                ..Expect::default()
+            },
+        );
+    }
+}

@@ -461,6 +461,12 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
     }
     for &j in &plan.ignored {
         let why = match (plan.layout, plan.period) {
+            // A year grid's total, another year's figures ("Last year") or notes.
+            (Layout::Across, _) if plan.grid.is_some() => {
+                "it is neither a month or quarter of the row's year nor an item's name (a total, \
+                 another year's figures, notes)"
+                    .to_string()
+            }
             (Layout::Across, _) => "its header names no period".to_string(),
             (Layout::Long, _) => format!(
                 "a long table reads one item, one period and one quantity column, and the \

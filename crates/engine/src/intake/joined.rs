@@ -12,12 +12,14 @@
 //! refused: its months fall in two calendar years, and read as calendar months the rows
 //! would be put in the wrong order.
 
+use std::collections::HashSet;
+
 use super::label::{calendar_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::words::{
-    numbered_part, NumberedPart, MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS,
+    numbered_part, NumberedPart, DAY_WORDS, MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS,
 };
 use super::RowError;
 
@@ -103,14 +105,10 @@ impl SplitPeriod {
         };
         // Headers that name only the part ("Month", "Month no"), not an item that holds the
         // word ("Year planner", "Month end").
-        // Lower case first: the words match ASCII case only ("ANNÉE").
-        let named =
-            |j: usize, words: &[&str]| header_is_only(&table.column_name(j).to_lowercase(), words);
+        let named = |j: usize, words: &[&str]| header_is_only(&table.column_name(j), words);
         let year_or_fiscal: Vec<&str> = YEAR_WORDS.iter().chain(&FISCAL_WORDS).copied().collect();
-        let year_named = |j: usize| {
-            named(j, &year_or_fiscal)
-                && header_says(&table.column_name(j).to_lowercase(), &YEAR_WORDS)
-        };
+        let year_named =
+            |j: usize| named(j, &year_or_fiscal) && header_says(&table.column_name(j), &YEAR_WORDS);
         let is_part = |j: usize| YearPart::ALL.iter().any(|part| named(j, part.words()));
         // Most cells, not all: one bad cell is an error at its row, not another layout.
         let most = |good: usize| !rows.is_empty() && good * 2 > rows.len();
@@ -163,9 +161,23 @@ impl SplitPeriod {
             let part = part_text(&name, how);
             part != name.trim() && part.bytes().all(|b| b.is_ascii_digit())
         };
+        // One part on every row of several years ("Weeks" 52, "Mes" 12) counts something
+        // about each year (the weeks open), not which part a row is: joined, a year's total
+        // had been read as its last week or month (a review).
+        let distinct = |j: usize| {
+            table
+                .column(j, rows)
+                .iter()
+                .map(|c| c.trim())
+                .filter(|c| !c.is_empty())
+                .collect::<HashSet<&str>>()
+                .len()
+        };
+        let varies = |j: usize| distinct(j) >= 2 || distinct(year) <= 1;
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
                 .filter(|j| (named(*j, how.words()) && !one_part(*j, how)) || period_named(*j))
+                .filter(|j| varies(*j))
                 .map(|part| SplitPeriod {
                     year,
                     part,
@@ -195,7 +207,7 @@ impl SplitPeriod {
                 return Err(error);
             }
             split.day = others()
-                .filter(|j| *j != split.part && named(*j, &["day"]) && !is_part(*j))
+                .filter(|j| *j != split.part && named(*j, &DAY_WORDS) && !is_part(*j))
                 .find(|j| {
                     let with_day = SplitPeriod {
                         day: Some(*j),

@@ -86,7 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
-use super::words::{WEEK_WORDS, YEAR_WORDS};
+use super::words::{PART_SHORT_FORMS, WEEK_WORDS, YEAR_WORDS};
 use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
 
@@ -916,8 +916,10 @@ impl Plan {
 
 /// Words of a header cell that name the item (or the store it is sold at), that name a
 /// period, and that name a quantity, for tables whose item codes are numbers (common practice
-/// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`).
-pub(super) const ITEM_WORDS: [&str; 22] = [
+/// in exported tables: `series,t,value`, `sku,week,units`, `date,store,item,sales`). With
+/// (from memory) the German, French, Dutch, Spanish and Italian words for article, product,
+/// store and customer: a review found store numbers under "Filiale" summed across.
+pub(super) const ITEM_WORDS: [&str; 40] = [
     "item",
     "plu",
     "ean",
@@ -940,6 +942,24 @@ pub(super) const ITEM_WORDS: [&str; 22] = [
     "branch",
     "warehouse",
     "customer",
+    "artikel",
+    "articulo",
+    "artículo",
+    "articolo",
+    "produkt",
+    "produit",
+    "producto",
+    "prodotto",
+    "filiale",
+    "magasin",
+    "tienda",
+    "winkel",
+    "negozio",
+    "lager",
+    "kunde",
+    "client",
+    "cliente",
+    "klant",
 ];
 /// Words naming a period in a header, English and (from memory) the common German, French,
 /// Dutch, Spanish and Italian ones written in plain letters: under "Monat" the German
@@ -982,8 +1002,10 @@ pub(super) const PERIOD_WORDS: [&str; 34] = [
     "weekly",
     "anno",
 ];
-pub(super) const QUANTITY_WORDS: [&str; 10] = [
+/// With (from memory) the German, French, Dutch, Spanish and Italian words for sales.
+pub(super) const QUANTITY_WORDS: [&str; 16] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
+    "absatz", "verkauf", "ventes", "verkoop", "ventas", "vendite",
 ];
 /// Whether a cell is a whole number written with digits only.
 pub(super) fn whole_number(cell: &str) -> bool {
@@ -1206,7 +1228,14 @@ pub(super) fn names_weeks(table: &Table, j: usize) -> bool {
 pub(super) fn header_says(name: &str, words: &[&str]) -> bool {
     header_words(name)
         .iter()
-        .any(|word| words.iter().any(|w| word.eq_ignore_ascii_case(w)))
+        .any(|word| words.iter().any(|w| same_word(word, w)))
+}
+
+/// Whether a header's word is `listed` (a word of a list, in lower case) in any case, capitals
+/// beyond ASCII too ("ANNÉE" is "année"). The header is never lower-cased as a whole first: its
+/// words split where a lower-case letter meets a capital ("MonthNo").
+fn same_word(word: &str, listed: &str) -> bool {
+    word.eq_ignore_ascii_case(listed) || (!word.is_ascii() && word.to_lowercase() == listed)
 }
 
 /// Words that may stand beside a period word in a header that names nothing else ("Month
@@ -1218,7 +1247,7 @@ const FILLER_WORDS: [&str; 7] = ["no", "nr", "num", "number", "of", "the", "cale
 /// or "Month end" (an item's name) do not count.
 pub(super) fn header_is_only(name: &str, words: &[&str]) -> bool {
     let all = header_words(name);
-    let is = |word: &str, list: &[&str]| list.iter().any(|w| word.eq_ignore_ascii_case(w));
+    let is = |word: &str, list: &[&str]| list.iter().any(|w| same_word(word, w));
     all.iter().any(|w| is(w, words))
         && all
             .iter()
@@ -1266,15 +1295,78 @@ fn named_items(table: &Table, numeric: &[usize]) -> Vec<usize> {
 }
 
 /// Header words that name a count of goods: the surest names of a quantity.
-const UNIT_WORDS: [&str; 11] = [
-    "qty", "quantity", "units", "pcs", "pieces", "count", "sold", "demand", "volume", "orders",
+/// With (from memory) the German, French, Dutch, Spanish and Italian ones: a review found
+/// "Menge" passed over for a month column beside it.
+const UNIT_WORDS: [&str; 28] = [
+    "qty",
+    "quantity",
+    "units",
+    "pcs",
+    "pieces",
+    "count",
+    "sold",
+    "demand",
+    "volume",
+    "orders",
     "stk",
+    "menge",
+    "anzahl",
+    "stück",
+    "stueck",
+    "quantité",
+    "quantite",
+    "qté",
+    "qte",
+    "aantal",
+    "stuks",
+    "cantidad",
+    "unidades",
+    "uds",
+    "quantità",
+    "quantita",
+    "qtà",
+    "pezzi",
 ];
 /// Header words that name money or a size, never the quantity ordered ("Net sales", "RRP",
 /// "Bag size (L)", "Amount").
-const MONEY_WORDS: [&str; 16] = [
-    "price", "cost", "rrp", "net", "gross", "revenue", "turnover", "takings", "value", "amount",
-    "margin", "discount", "size", "weight", "eur", "usd",
+/// With (from memory) the German, French, Dutch, Spanish and Italian ones for price, amount,
+/// revenue and cost: a review found "Umsatz" (revenue) read as the demand.
+const MONEY_WORDS: [&str; 35] = [
+    "price",
+    "cost",
+    "rrp",
+    "net",
+    "gross",
+    "revenue",
+    "turnover",
+    "takings",
+    "value",
+    "amount",
+    "margin",
+    "discount",
+    "size",
+    "weight",
+    "eur",
+    "usd",
+    "preis",
+    "betrag",
+    "umsatz",
+    "kosten",
+    "prix",
+    "montant",
+    "coût",
+    "cout",
+    "precio",
+    "importe",
+    "coste",
+    "prezzo",
+    "importo",
+    "costo",
+    "fatturato",
+    "prijs",
+    "bedrag",
+    "omzet",
+    "kostprijs",
 ];
 
 /// Words that stand beside a money word in a header that names money and nothing else ("Unit
@@ -1461,6 +1553,7 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
             values.iter().position(|j| {
                 !says(*j, &ITEM_WORDS)
                     && !says(*j, &PERIOD_WORDS)
+                    && !header_is_only(&table.column_name(*j), &PART_SHORT_FORMS)
                     && !says(*j, &OTHER_WORDS)
                     && !not_demand(*j)
             })

@@ -1,7 +1,7 @@
 //! The words Intake knows for the calendar's years, quarters, months and weeks, in one place:
 //! the header words, English and (from memory) the common German, French, Dutch, Spanish and
-//! Italian ones written in plain letters, matched as whole words of a header in any ASCII case
-//! (callers that may meet capitals beyond ASCII, "ANNÉE", lower-case the header first); and
+//! Italian ones, in lower case, matched as whole words of a header in any case
+//! ([`super::table::header_says`]); and
 //! the one rule for a part of the year named by a word and its number ("Qtr 1", "M01", "1st
 //! Qtr", [`numbered_part`]), which grids' headers and a part column's cells are read by.
 //!
@@ -9,9 +9,22 @@
 //! its cells) and the words for periods in general ([`super::table::PERIOD_WORDS`]).
 
 /// Header words naming a calendar year.
-pub(super) const YEAR_WORDS: [&str; 9] = [
-    "year", "yr", "jahr", "annee", "année", "jaar", "ano", "año", "anno",
+pub(super) const YEAR_WORDS: [&str; 10] = [
+    "year",
+    "yr",
+    "jahr",
+    "kalenderjahr",
+    "annee",
+    "année",
+    "jaar",
+    "ano",
+    "año",
+    "anno",
 ];
+
+/// Header words naming the day of a month beside a year and a month ("Day", "Tag", "Jour",
+/// "Dag", "Día", "Giorno"): only there, since "tag" and "dag" name other things in English.
+pub(super) const DAY_WORDS: [&str; 7] = ["day", "tag", "jour", "dag", "dia", "día", "giorno"];
 
 /// Header words naming the month of a year ("Month", "Monat", "Mois", "Maand", "Mes",
 /// "Mese").
@@ -38,6 +51,17 @@ pub(super) const WEEK_WORDS: [&str; 16] = [
     "semanas",
     "settimana",
     "settimane",
+];
+
+/// Short forms a header may name a month, quarter or week by that Intake does not join with
+/// a year ("Mon", "Mnth", "M"; "Q", "Qr"; "W"): never the quantity, and a column of them
+/// beside years alone is refused (`build/parts_in_years.rs`).
+pub(super) const MONTH_SHORT_FORMS: [&str; 6] = ["mon", "mo", "mnth", "mnt", "mos", "m"];
+pub(super) const QUARTER_SHORT_FORMS: [&str; 3] = ["q", "qr", "qtrs"];
+pub(super) const WEEK_SHORT_FORMS: [&str; 1] = ["w"];
+/// All of them.
+pub(super) const PART_SHORT_FORMS: [&str; 10] = [
+    "mon", "mo", "mnth", "mnt", "mos", "m", "q", "qr", "qtrs", "w",
 ];
 
 /// A part of the year counted by its number within the year.

@@ -81,8 +81,8 @@ pub(crate) struct YearGrid {
     /// The columns naming the items: text columns and number columns of codes ("SKU") left of
     /// the months, in header order.
     items: Vec<usize>,
-    /// Columns not read: row totals, and whatever stands right of the last month or quarter
-    /// (a total, an average, notes).
+    /// Columns not read: row totals, last year's figures ("Last year"), and whatever stands
+    /// right of the last month or quarter (a total, an average, notes).
     ignored: Vec<usize>,
 }
 
@@ -106,8 +106,7 @@ impl YearGrid {
         // "Year total" hold figures, and a fiscal year's January may fall in either calendar
         // year.
         let is_year = |j: usize| {
-            // Lower case first: the header words match ASCII case only ("ANNÉE", "AÑO").
-            let name = table.column_name(j).to_lowercase();
+            let name = table.column_name(j);
             let years = table
                 .column(j, rows)
                 .iter()
@@ -130,7 +129,11 @@ impl YearGrid {
         let (mut items, mut ignored) = (Vec::new(), Vec::new());
         for j in others.into_iter().filter(|j| *j != year) {
             let name = table.column_name(j);
-            if numeric.contains(&j) && header_says(&name, &TOTAL_WORDS) {
+            // A total, or last year's figures ("Last year", "Prior year") beside the year.
+            let figures_of_a_year = j < first_part
+                && header_says(&name, &YEAR_WORDS)
+                && !header_is_only(&name, &YEAR_WORDS);
+            if numeric.contains(&j) && (header_says(&name, &TOTAL_WORDS) || figures_of_a_year) {
                 ignored.push(j);
             } else if j > last_part && names_a_part(&name) {
                 // A month or quarter after the year's last ("Jan (next yr)"): not a column to
@@ -238,8 +241,7 @@ pub(crate) fn without_a_year(
     // A year named left of the months, by a header naming it and nothing else: "Last year"
     // or "Year total" hold figures (a review found `Item,Last year,Jan,...,Dec` of one row
     // read as a long table of January's figure).
-    let named_year =
-        (0..first).any(|j| header_is_only(&table.column_name(j).to_lowercase(), &YEAR_WORDS));
+    let named_year = (0..first).any(|j| header_is_only(&table.column_name(j), &YEAR_WORDS));
     if named_year || !texts.iter().any(|j| *j < first) {
         return None;
     }

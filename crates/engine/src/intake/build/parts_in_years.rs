@@ -1,10 +1,16 @@
-//! A year read as the period beside a column left unread whose cells are parts of a year:
-//! `Item,Year,Mon,Qty` with "Mon" holding 1 to 12 (or Jan to Dec), its header not one Intake
-//! knows as a month's ([`super::super::words`]). Read so, each item's months of a year were
-//! summed into one yearly figure, said only as a column not used and rows summed: a year's
-//! demand planned as one period. Now an error at that column saying how to name it.
+//! A year read as the period beside a column left unread that counts the year's months,
+//! quarters or weeks: `Item,Year,Mon,Qty` with "Mon" holding 1 to 12 (or Jan to Dec), its
+//! header a short form Intake does not join ("Mon", "Mnth", "M"), or "Month" beside a year
+//! column whose header is not read as the calendar year ("Sales year", "FY"). Read so, each
+//! item's months of a year were summed into one yearly figure, said only as a column not used
+//! and rows summed: a year's demand planned as one period. Now an error at that column saying
+//! what to name.
 //!
-//! Kept apart from: the columns named as a year's part, which are joined into one period
+//! The header decides which part a column may be, never its numbers alone: store, line or
+//! pack numbers of 1 to 12 beside yearly rows are read as before (a review found a rule by
+//! the cells alone refusing 38 ordinary yearly tables).
+//!
+//! Kept apart from: the columns joined with a year into one period
 //! ([`super::super::joined`]), and the summing of repeated rows itself ([`super::long`]).
 
 use std::collections::HashMap;
@@ -12,14 +18,76 @@ use std::collections::HashMap;
 use super::long::item_key;
 use crate::calendar::{Frequency, Period};
 use crate::intake::label::month_name;
-use crate::intake::table::{whole_number, Plan, Table};
+use crate::intake::table::{header_is_only, whole_number, Plan, Table};
 use crate::intake::text::Record;
+use crate::intake::words::{
+    MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_SHORT_FORMS,
+    WEEK_WORDS,
+};
 use crate::intake::RowError;
 
+/// A part of the year a column's header may name, with the short forms not joined with a
+/// year ("Mon", "Mnth", "M"; "Q", "Qr"; "W") beside the words that are.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Part {
+    Month,
+    Quarter,
+    Week,
+}
+
+impl Part {
+    const ALL: [Part; 3] = [Part::Month, Part::Quarter, Part::Week];
+
+    fn short_forms(self) -> &'static [&'static str] {
+        match self {
+            Part::Month => &MONTH_SHORT_FORMS,
+            Part::Quarter => &QUARTER_SHORT_FORMS,
+            Part::Week => &WEEK_SHORT_FORMS,
+        }
+    }
+
+    fn words(self) -> &'static [&'static str] {
+        match self {
+            Part::Month => &MONTH_WORDS,
+            Part::Quarter => &QUARTER_WORDS,
+            Part::Week => &WEEK_WORDS,
+        }
+    }
+
+    fn count(self) -> u32 {
+        match self {
+            Part::Month => 12,
+            Part::Quarter => 4,
+            Part::Week => 53,
+        }
+    }
+
+    fn name(self) -> &'static str {
+        match self {
+            Part::Month => "Month",
+            Part::Quarter => "Quarter",
+            Part::Week => "Week",
+        }
+    }
+
+    /// Whether a cell is one of this part: 1 to its count, or a month's name.
+    fn holds(self, cell: &str) -> bool {
+        let cell = cell.trim_end_matches('.');
+        (self == Part::Month && month_name(cell).is_some())
+            || (whole_number(cell)
+                && cell.len() <= 2
+                && cell
+                    .parse::<u32>()
+                    .is_ok_and(|n| (1..=self.count()).contains(&n)))
+    }
+}
+
 /// The error for the first unread column (calendar details or a long table's extra column)
-/// whose filled cells are all month names or whole numbers from 1 to 53 and that tells one
-/// item's rows of one year apart in at least half of the (item, year) pairs on several rows;
-/// `None` unless the periods are years. `periods` are the rows' periods, as `rows`.
+/// whose header names a part of the year (a word or a short form, [`Part`]), whose filled
+/// cells are at least three in four that part (a "Total" or "n/a" among them does not hide
+/// it), and that tells one item's rows of one year apart in at least half of the (item,
+/// year) pairs on several rows; `None` unless the periods are years. `periods` are the rows'
+/// periods, as `rows`.
 pub(super) fn parts_summed_into_years(
     table: &Table,
     plan: &Plan,
@@ -27,20 +95,29 @@ pub(super) fn parts_summed_into_years(
     rows: &[&Record],
     periods: &[Option<Period>],
 ) -> Option<RowError> {
-    if frequency != Frequency::Yearly || plan.split.is_some() {
+    if frequency != Frequency::Yearly || plan.split.is_some() || table.header.is_none() {
         return None;
     }
     let (year, _) = plan.period?;
     let mut unread: Vec<usize> = plan.calendar.iter().chain(&plan.ignored).copied().collect();
     unread.sort_unstable();
     unread.into_iter().find_map(|j| {
+        let name = table.column_name(j);
+        let (part, named) = Part::ALL.into_iter().find_map(|part| {
+            if header_is_only(&name, part.words()) {
+                Some((part, true))
+            } else {
+                header_is_only(&name, part.short_forms()).then_some((part, false))
+            }
+        })?;
         let cells = table.column(j, rows);
         let filled: Vec<&str> = cells
             .iter()
             .map(|c| c.trim())
             .filter(|c| !c.is_empty())
             .collect();
-        if filled.is_empty() || !filled.iter().all(|c| part_of_a_year(c)) {
+        let parts = filled.iter().filter(|c| part.holds(c)).count();
+        if filled.is_empty() || parts * 4 < filled.len() * 3 {
             return None;
         }
         let mut groups: HashMap<(Option<String>, Period), Vec<&str>> = HashMap::new();
@@ -60,33 +137,42 @@ pub(super) fn parts_summed_into_years(
         if several.is_empty() || apart * 2 < several.len() {
             return None;
         }
-        let name = table.column_name(j);
-        let row = rows.first()?;
+        let (row, text) = rows
+            .iter()
+            .zip(&cells)
+            .find(|(_, c)| part.holds(c.trim()))
+            .map(|(row, c)| (row.line, c.trim().to_string()))?;
+        let year_name = table.column_name(year);
+        let part_name = part.name();
+        let what = if named {
+            // The part is named: the year's header is what is not read as a calendar year.
+            format!(
+                "column \"{name}\" names the {} of each row, but column \"{year_name}\" is read \
+                 as years alone, its header not naming the calendar year: if it is the calendar \
+                 year, name it Year (Item,Year,{part_name},Qty); a fiscal year's {}s cannot be \
+                 placed (write calendar months or dates)",
+                part_name.to_lowercase(),
+                part_name.to_lowercase()
+            )
+        } else {
+            format!(
+                "column \"{name}\" holds {}s (such as \"{text}\") beside the year in column \
+                 \"{year_name}\", but its header is not one read as the {}: if they are, name \
+                 it {part_name} (Item,Year,{part_name},Qty); if it counts something else, name \
+                 it so",
+                part_name.to_lowercase(),
+                part_name.to_lowercase()
+            )
+        };
         Some(RowError {
-            row: row.line,
-            column: name.clone(),
-            text: filled[0].to_string(),
+            row,
+            column: name,
+            text,
             message: format!(
-                "expected each row's period in one column, or a year beside a column named \
-                 Month, Quarter or Week: column \"{name}\" holds parts of a year (such as \
-                 \"{}\") that tell one item's rows of a year apart, beside the year in column \
-                 \"{}\", and read so each year's rows would be summed into one yearly figure; \
-                 if they are months, name the column Month (Item,Year,Month,Qty), if quarters \
-                 Quarter, if weeks Week; if the column names something else, take it out of \
-                 the file or name it \"store\" to plan each separately",
-                filled[0],
-                table.column_name(year)
+                "expected a year and its {} read as one period: {what}; read as it is, each \
+                 item's rows of a year would be summed into one yearly figure",
+                part_name.to_lowercase()
             ),
         })
     })
-}
-
-/// A month's name ("Jan", "Jan.", "January") or a whole number from 1 to 53 (a month,
-/// quarter or week within a year).
-fn part_of_a_year(cell: &str) -> bool {
-    let cell = cell.trim_end_matches('.');
-    month_name(cell).is_some()
-        || (whole_number(cell)
-            && cell.len() <= 2
-            && cell.parse::<u32>().is_ok_and(|n| (1..=53).contains(&n)))
 }
