@@ -12,14 +12,15 @@
 //! refused: its months fall in two calendar years, and read as calendar months the rows
 //! would be put in the wrong order.
 
-use std::collections::HashSet;
+use std::collections::{HashMap, HashSet};
 
 use super::label::{calendar_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::words::{
-    numbered_part, NumberedPart, DAY_WORDS, MONTH_WORDS, QUARTER_WORDS, WEEK_WORDS, YEAR_WORDS,
+    month_in_other_languages, numbered_part, NumberedPart, DAY_WORDS, MONTH_SHORT_FORMS,
+    MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_SHORT_FORMS, WEEK_WORDS, YEAR_WORDS,
 };
 use super::RowError;
 
@@ -54,6 +55,15 @@ impl YearPart {
             YearPart::Month => "a month: 1 to 12 or a month name such as Jan or January",
             YearPart::Quarter => "a quarter: 1 to 4 or Q1 to Q4",
             YearPart::Week => "an ISO week: 1 to 53 or W1 to W53",
+        }
+    }
+
+    /// Short forms of its header words ("Mon", "Q", "W"), joined only over parts written out.
+    fn short_forms(self) -> &'static [&'static str] {
+        match self {
+            YearPart::Month => &MONTH_SHORT_FORMS,
+            YearPart::Quarter => &QUARTER_SHORT_FORMS,
+            YearPart::Week => &WEEK_SHORT_FORMS,
         }
     }
 
@@ -152,6 +162,19 @@ impl SplitPeriod {
                         .count(),
                 )
         };
+        // A short form ("Mon", "M", "Q", "W") over parts written out ("Jan.", "Q1"), not
+        // numbers, which under it could count anything: a review found "Jan." under "Mon"
+        // beside a year made an item of each month.
+        let short_named = |j: usize, how: YearPart| {
+            named(j, how.short_forms())
+                && most(
+                    table
+                        .column(j, rows)
+                        .iter()
+                        .filter(|c| c.chars().any(char::is_alphabetic))
+                        .count(),
+                )
+        };
         // A header that is itself one numbered part ("Qtr 1", "Q1", "M01", "Week 1") heads
         // that part's values in a grid with the calendar across, never the column of parts:
         // taken for it, counts of 1 to 4 were read as quarters and the next column's sales as
@@ -161,22 +184,27 @@ impl SplitPeriod {
             let part = part_text(&name, how);
             part != name.trim() && part.bytes().all(|b| b.is_ascii_digit())
         };
-        // One part on every row of several years ("Weeks" 52, "Mes" 12) counts something
-        // about each year (the weeks open), not which part a row is: joined, a year's total
-        // had been read as its last week or month (a review).
-        let distinct = |j: usize| {
-            table
-                .column(j, rows)
-                .iter()
-                .map(|c| c.trim())
-                .filter(|c| !c.is_empty())
-                .collect::<HashSet<&str>>()
-                .len()
+        // A part column tells the rows of a year apart: where no year holds two different
+        // parts on its rows ("Weeks" 52 or 53 beside each item's year, "Mes" 12), it counts
+        // something about each year (the weeks open), not which part a row is; joined, a year's
+        // total had been read as its last week or month (a review).
+        let varies = |j: usize| {
+            let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
+            for row in rows {
+                let cell = |k: usize| row.cells.get(k).map_or("", |c| c.trim());
+                if !cell(j).is_empty() {
+                    parts.entry(cell(year)).or_default().insert(cell(j));
+                }
+            }
+            parts.len() <= 1 || parts.values().any(|p| p.len() >= 2)
         };
-        let varies = |j: usize| distinct(j) >= 2 || distinct(year) <= 1;
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
-                .filter(|j| (named(*j, how.words()) && !one_part(*j, how)) || period_named(*j))
+                .filter(|j| {
+                    (named(*j, how.words()) && !one_part(*j, how))
+                        || period_named(*j)
+                        || short_named(*j, how)
+                })
                 .filter(|j| varies(*j))
                 .map(|part| SplitPeriod {
                     year,
@@ -310,6 +338,10 @@ fn part_text(cell: &str, how: YearPart) -> String {
     let names: Vec<&String> = tokens.iter().filter(|t| !digits(t)).collect();
     match names.as_slice() {
         [name] if tokens.len() <= 2 && calendar_name(name) => (*name).clone(),
+        // "Mär", "janv.", "mei": the month's number, as no period label reads them.
+        [name] if tokens.len() <= 2 => {
+            month_in_other_languages(name).map_or_else(|| cell.to_string(), |m| m.to_string())
+        }
         _ => cell.to_string(),
     }
 }

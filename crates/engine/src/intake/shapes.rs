@@ -22,10 +22,11 @@ use super::words::numbered_part;
 use super::RowError;
 
 /// Header words of a text column that notes rows rather than names items ("Comment",
-/// "Supplier", "Promo"): common practice in sales exports. Only these: a column under any
+/// "Supplier", "Promo"): common practice in sales exports; with (from memory) the German,
+/// French, Dutch, Spanish and Italian ones ("Bemerkung": a review found it split items). Only these: a column under any
 /// other name ("Model", "Style") may name items even where each period has one row (a
 /// low-volume product line).
-const NOTE_WORDS: [&str; 22] = [
+const NOTE_WORDS: [&str; 40] = [
     "comment",
     "comments",
     "note",
@@ -48,6 +49,24 @@ const NOTE_WORDS: [&str; 22] = [
     "campaign",
     "explanation",
     "annotation",
+    "bemerkung",
+    "bemerkungen",
+    "kommentar",
+    "notiz",
+    "hinweis",
+    "lieferant",
+    "aktion",
+    "remarque",
+    "commentaire",
+    "fournisseur",
+    "opmerking",
+    "leverancier",
+    "nota",
+    "notas",
+    "comentario",
+    "proveedor",
+    "commento",
+    "fornitore",
 ];
 
 /// Of the text columns `item_columns`, those that note the periods rather than name items:
@@ -386,10 +405,10 @@ fn grid_header(cell: &str) -> Option<GridPart> {
     (calendar_name(&lower) || lower == "sept").then_some(GridPart::Year(None))
 }
 
-/// Header words that name a stock level, goods coming in or going back, or a share: figures
-/// beside the sales, never the demand itself ("Stock on hand", "Units in stock", "Closing
-/// bal.", "Qty available", "Received", "Return qty", "Share").
-const STOCK_WORDS: [&str; 24] = [
+/// Header words that name a stock level, goods coming in or going back, a share or a rank:
+/// figures beside the sales, never the demand itself ("Stock on hand", "Units in stock",
+/// "Closing bal.", "Qty available", "Received", "Return qty", "Share", "Rank").
+const STOCK_WORDS: [&str; 26] = [
     "stock",
     "inventory",
     "inv",
@@ -414,6 +433,8 @@ const STOCK_WORDS: [&str; 24] = [
     "share",
     "percent",
     "pct",
+    "rank",
+    "ranking",
 ];
 
 /// Words that stand beside a [`STOCK_WORDS`] word in a header that names such a figure and

@@ -53,6 +53,47 @@ pub(super) const WEEK_WORDS: [&str; 16] = [
     "settimane",
 ];
 
+/// The month a German, French, Dutch, Spanish or Italian month's name or abbreviation names
+/// (from memory; lower case, a final dot left off: "märz", "mär", "mrz", "janv", "mei",
+/// "ene", "gen"), read only in a month column beside a year, where nothing else is meant.
+/// English names are [`super::label::month_name`]'s.
+pub(super) fn month_in_other_languages(word: &str) -> Option<u32> {
+    const MONTHS: [&[&str]; 12] = [
+        &[
+            "januar", "jänner", "janvier", "janv", "januari", "enero", "ene", "gennaio", "gen",
+        ],
+        &[
+            "februar", "février", "fevrier", "févr", "fevr", "februari", "febrero", "febbraio",
+        ],
+        &[
+            "märz", "maerz", "mär", "mrz", "mars", "maart", "mrt", "marzo",
+        ],
+        &["avril", "avr", "abril", "abr", "aprile"],
+        &["mai", "mei", "mayo", "maggio", "mag"],
+        &["juni", "juin", "junio", "giugno", "giu"],
+        &["juli", "juillet", "juil", "julio", "luglio", "lug"],
+        &["août", "aout", "augustus", "agosto", "ago"],
+        &["septembre", "septiembre", "setiembre", "settembre", "set"],
+        &["oktober", "okt", "octobre", "octubre", "ottobre", "ott"],
+        &["novembre", "noviembre"],
+        &[
+            "dezember",
+            "dez",
+            "décembre",
+            "decembre",
+            "déc",
+            "diciembre",
+            "dic",
+            "dicembre",
+        ],
+    ];
+    let word = word.trim().trim_end_matches('.').to_lowercase();
+    MONTHS
+        .iter()
+        .position(|names| names.contains(&word.as_str()))
+        .map(|i| i as u32 + 1)
+}
+
 /// Short forms a header may name a month, quarter or week by that Intake does not join with
 /// a year ("Mon", "Mnth", "M"; "Q", "Qr"; "W"): never the quantity, and a column of them
 /// beside years alone is refused (`build/parts_in_years.rs`).
@@ -189,5 +230,28 @@ mod tests {
         check("Jan", None);
         check("Q", None);
         check("Item 1", None);
+    }
+
+    #[test]
+    fn month_names_in_other_languages() {
+        for (word, month) in [
+            ("Mär", 3),
+            ("märz", 3),
+            ("Mrz", 3),
+            ("janv.", 1),
+            ("Févr.", 2),
+            ("mei", 5),
+            ("Okt", 10),
+            ("Dez", 12),
+            ("ene", 1),
+            ("Ago", 8),
+            ("gen", 1),
+            ("Dicembre", 12),
+        ] {
+            assert_eq!(month_in_other_languages(word), Some(month), "{word}");
+        }
+        // English ones are the general reader's; words that are no month stay none.
+        assert_eq!(month_in_other_languages("March"), None);
+        assert_eq!(month_in_other_languages("Kelle"), None);
     }
 }
