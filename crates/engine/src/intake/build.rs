@@ -567,7 +567,13 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             ));
         }
         for (i, message) in &col.errors {
-            b.error(kept[*i].line, p, cells[*i], message.clone());
+            match plan
+                .split
+                .and_then(|split| split.part_at_fault(table, kept[*i]))
+            {
+                Some((part, text, message)) => b.error(kept[*i].line, part, text, message),
+                None => b.error(kept[*i].line, p, cells[*i], message.clone()),
+            }
         }
         b.out.warnings.extend(col.warnings.iter().cloned());
         b.out.frequency = Some(col.frequency);

@@ -14,13 +14,14 @@
 
 use std::collections::{HashMap, HashSet};
 
-use super::label::{calendar_name, parse_label, year_of, Family, Label};
+use super::label::{calendar_name, month_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::words::{
-    month_in_other_languages, numbered_part, NumberedPart, DAY_WORDS, MONTH_SHORT_FORMS,
-    MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_SHORT_FORMS, WEEK_WORDS, YEAR_WORDS,
+    month_in_other_languages, numbered_part, NumberedPart, DAY_WORDS, DAY_WORDS_BESIDE_THEIR_YEAR,
+    MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_PART_WORDS,
+    WEEK_SHORT_FORMS, YEAR_WORDS,
 };
 use super::RowError;
 
@@ -45,7 +46,7 @@ impl YearPart {
         match self {
             YearPart::Month => &MONTH_WORDS,
             YearPart::Quarter => &QUARTER_WORDS,
-            YearPart::Week => &WEEK_WORDS,
+            YearPart::Week => &WEEK_PART_WORDS,
         }
     }
 
@@ -55,6 +56,15 @@ impl YearPart {
             YearPart::Month => "a month: 1 to 12 or a month name such as Jan or January",
             YearPart::Quarter => "a quarter: 1 to 4 or Q1 to Q4",
             YearPart::Week => "an ISO week: 1 to 53 or W1 to W53",
+        }
+    }
+
+    /// How many there are in a year (ISO years have up to 53 weeks).
+    fn count(self) -> u32 {
+        match self {
+            YearPart::Month => 12,
+            YearPart::Quarter => 4,
+            YearPart::Week => 53,
         }
     }
 
@@ -162,18 +172,40 @@ impl SplitPeriod {
                         .count(),
                 )
         };
-        // A short form ("Mon", "M", "Q", "W") over parts written out ("Jan.", "Q1"), not
-        // numbers, which under it could count anything: a review found "Jan." under "Mon"
-        // beside a year made an item of each month.
+        // A short form ("Mon", "M", "Q", "W") over parts written out, not numbers, which
+        // under it could count anything: month names ("Jan.": a review found them under "Mon"
+        // beside a year made an item of each month), or codes ("Q1", "W05") of which some
+        // year holds most of its parts ("W1", "W2" width classes and "Q1", "Q2" grades had
+        // been read as weeks and quarters, the others filled as closed).
         let short_named = |j: usize, how: YearPart| {
-            named(j, how.short_forms())
-                && most(
-                    table
-                        .column(j, rows)
-                        .iter()
-                        .filter(|c| c.chars().any(char::is_alphabetic))
-                        .count(),
-                )
+            if !named(j, how.short_forms()) {
+                return false;
+            }
+            let cells = table.column(j, rows);
+            let month_names = cells
+                .iter()
+                .filter(|c| {
+                    let word = c.trim().trim_end_matches('.');
+                    month_name(word).is_some() || month_in_other_languages(word).is_some()
+                })
+                .count();
+            if how == YearPart::Month && most(month_names) {
+                return true;
+            }
+            let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
+            for row in rows {
+                let cell = |k: usize| row.cells.get(k).map_or("", |c| c.trim());
+                if cell(j).chars().any(char::is_alphabetic) {
+                    parts.entry(cell(year)).or_default().insert(cell(j));
+                }
+            }
+            let fullest = parts.values().map(HashSet::len).max().unwrap_or(0);
+            most(
+                cells
+                    .iter()
+                    .filter(|c| c.chars().any(char::is_alphabetic))
+                    .count(),
+            ) && fullest * 2 > how.count() as usize
         };
         // A header that is itself one numbered part ("Qtr 1", "Q1", "M01", "Week 1") heads
         // that part's values in a grid with the calendar across, never the column of parts:
@@ -234,8 +266,22 @@ impl SplitPeriod {
             if let Some(error) = fiscal_order(table, rows, &split) {
                 return Err(error);
             }
+            // "Day" and the words no English header means otherwise; "Tag", "Dag" and "Dia"
+            // (a shelf tag, a pot's diameter in English files: a review found them read as
+            // days) only beside a year named in their own language.
+            let year_name = table.column_name(year);
+            let day_words: Vec<&str> = DAY_WORDS
+                .iter()
+                .copied()
+                .chain(
+                    DAY_WORDS_BESIDE_THEIR_YEAR
+                        .iter()
+                        .filter(|(_, years)| header_says(&year_name, years))
+                        .map(|(day, _)| *day),
+                )
+                .collect();
             split.day = others()
-                .filter(|j| *j != split.part && named(*j, &DAY_WORDS) && !is_part(*j))
+                .filter(|j| *j != split.part && named(*j, &day_words) && !is_part(*j))
                 .find(|j| {
                     let with_day = SplitPeriod {
                         day: Some(*j),
@@ -284,6 +330,36 @@ impl SplitPeriod {
             (None, Some(n), YearPart::Week) => format!("{year}-W{n:02}"),
             (None, None, _) => format!("{year} {part}"),
         }
+    }
+
+    /// Where a row's period fails to read because of its part, not its year: the part column,
+    /// its cell and the error to give, when the year is a year and the part cell is no
+    /// number and no month name (a month word not known, "Jän.", "fév."; a review found such
+    /// rows refused at the year's column with the joined text). `None` otherwise: the
+    /// period reader's own error, at the year's column, names the joined label.
+    pub(crate) fn part_at_fault<'r>(
+        &self,
+        table: &Table,
+        row: &'r Record,
+    ) -> Option<(usize, &'r str, String)> {
+        let cell = |j: usize| row.cells.get(j).map_or("", |c| c.trim());
+        let year = cell(self.year);
+        if !(whole_number(year) && year_of(year).is_some()) {
+            return None;
+        }
+        let part = part_text(cell(self.part), self.how);
+        let named_month = self.how == YearPart::Month && month_name(&part).is_some();
+        (!whole_number(&part) && !named_month).then(|| {
+            (
+                self.part,
+                cell(self.part),
+                format!(
+                    "expected {} beside the year in column \"{}\"",
+                    self.how.forms(),
+                    table.column_name(self.year)
+                ),
+            )
+        })
     }
 
     /// [`SplitPeriod::label`] of each of `rows`.

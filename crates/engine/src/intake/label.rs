@@ -202,6 +202,7 @@ pub(crate) fn weekday_name(lower: &str) -> bool {
     WEEKDAYS
         .iter()
         .any(|day| lower == *day || (lower.len() >= 3 && day.starts_with(lower)))
+        || super::words::weekday_in_other_languages(lower)
 }
 
 /// Whether a cell is a time of day alone ("09:15", "1:30 PM"): a till's time column.
@@ -484,6 +485,9 @@ mod tests {
         for cell in [
             "Jan", "january", "Sept", "Mon", "Thurs", "SUNDAY", "Q1", "q4", "W1", "W53", "09:15",
             "9:30 am", "13:00:00",
+            // German, French, Dutch, Spanish and Italian weekdays (from memory), "Mo" as
+            // German writes Monday.
+            "Mo", "Di", "lun.", "mié", "zaterdag", "giovedì",
         ] {
             assert!(calendar_name(cell), "{cell}");
         }
@@ -493,7 +497,7 @@ mod tests {
             "Q5",
             "W54",
             "W",
-            "Mo",
+            "Mx",
             "2024",
             "Q1 2024",
             "25:00",

@@ -1558,6 +1558,13 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
                     && !not_demand(*j)
             })
         })
+        // A short form ("Q") before money or a stock level: a review found "Price" read as
+        // the demand beside "Q" once short forms were passed over above.
+        .or_else(|| {
+            values.iter().position(|j| {
+                header_is_only(&table.column_name(*j), &PART_SHORT_FORMS) && !not_demand(*j)
+            })
+        })
         .unwrap_or(0)
 }
 

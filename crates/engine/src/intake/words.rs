@@ -22,9 +22,17 @@ pub(super) const YEAR_WORDS: [&str; 10] = [
     "anno",
 ];
 
-/// Header words naming the day of a month beside a year and a month ("Day", "Tag", "Jour",
-/// "Dag", "Día", "Giorno"): only there, since "tag" and "dag" name other things in English.
-pub(super) const DAY_WORDS: [&str; 7] = ["day", "tag", "jour", "dag", "dia", "día", "giorno"];
+/// Header words naming the day of a month beside a year and a month ("Day", "Jour", "Día",
+/// "Giorno"): only there.
+pub(super) const DAY_WORDS: [&str; 4] = ["day", "jour", "día", "giorno"];
+
+/// Day words that name other things in English files ("Tag", a shelf tag; "Dia", a
+/// diameter), each with the year words of its own language: a day only beside such a year.
+pub(super) const DAY_WORDS_BESIDE_THEIR_YEAR: [(&str, &[&str]); 3] = [
+    ("tag", &["jahr", "kalenderjahr"]),
+    ("dag", &["jaar"]),
+    ("dia", &["ano", "año"]),
+];
 
 /// Header words naming the month of a year ("Month", "Monat", "Mois", "Maand", "Mes",
 /// "Mese").
@@ -32,6 +40,20 @@ pub(super) const MONTH_WORDS: [&str; 7] = ["month", "mth", "monat", "mois", "maa
 
 /// Header words naming the quarter of a year ("Quarter", "Quartal", "Trimestre", "Kwartaal").
 pub(super) const QUARTER_WORDS: [&str; 5] = ["quarter", "qtr", "quartal", "trimestre", "kwartaal"];
+
+/// Of those, the ones naming one week of a year, which a week column beside a year is joined
+/// under: not the plurals, which count weeks ("Weeks" 52: the weeks open; a review found it
+/// read as each year's week 52).
+pub(super) const WEEK_PART_WORDS: [&str; 8] = [
+    "week",
+    "wk",
+    "kw",
+    "woche",
+    "kalenderwoche",
+    "semaine",
+    "semana",
+    "settimana",
+];
 
 /// Header words that name weeks ("KW": German Kalenderwoche).
 pub(super) const WEEK_WORDS: [&str; 16] = [
@@ -60,10 +82,12 @@ pub(super) const WEEK_WORDS: [&str; 16] = [
 pub(super) fn month_in_other_languages(word: &str) -> Option<u32> {
     const MONTHS: [&[&str]; 12] = [
         &[
-            "januar", "jänner", "janvier", "janv", "januari", "enero", "ene", "gennaio", "gen",
+            "januar", "jänner", "jän", "janvier", "janv", "januari", "enero", "ene", "gennaio",
+            "gen",
         ],
         &[
-            "februar", "février", "fevrier", "févr", "fevr", "februari", "febrero", "febbraio",
+            "februar", "février", "fevrier", "févr", "fevr", "fév", "fev", "februari", "febrero",
+            "febbraio",
         ],
         &[
             "märz", "maerz", "mär", "mrz", "mars", "maart", "mrt", "marzo",
@@ -92,6 +116,86 @@ pub(super) fn month_in_other_languages(word: &str) -> Option<u32> {
         .iter()
         .position(|names| names.contains(&word.as_str()))
         .map(|i| i as u32 + 1)
+}
+
+/// Whether a word (lower case, a final dot left off) is a weekday's name or abbreviation in
+/// German, French, Dutch, Spanish or Italian (from memory: "Montag", "Mo", "lun", "mié",
+/// "zo"): a column of them beside the dates is a calendar detail, not items (a review found
+/// "Mo / Kelle", "Di / Kelle" planned as items). English ones are
+/// [`super::label::weekday_name`]'s.
+pub(super) fn weekday_in_other_languages(word: &str) -> bool {
+    const WEEKDAYS: [&str; 68] = [
+        "montag",
+        "dienstag",
+        "mittwoch",
+        "donnerstag",
+        "freitag",
+        "samstag",
+        "sonnabend",
+        "sonntag",
+        "mo",
+        "di",
+        "mi",
+        "do",
+        "fr",
+        "sa",
+        "so",
+        "lundi",
+        "mardi",
+        "mercredi",
+        "jeudi",
+        "vendredi",
+        "samedi",
+        "dimanche",
+        "lun",
+        "mer",
+        "jeu",
+        "ven",
+        "sam",
+        "dim",
+        "maandag",
+        "dinsdag",
+        "woensdag",
+        "donderdag",
+        "vrijdag",
+        "zaterdag",
+        "zondag",
+        "ma",
+        "wo",
+        "vr",
+        "za",
+        "zo",
+        "lunes",
+        "martes",
+        "miércoles",
+        "miercoles",
+        "jueves",
+        "viernes",
+        "sábado",
+        "sabado",
+        "domingo",
+        "mié",
+        "jue",
+        "vie",
+        "sáb",
+        "lunedì",
+        "lunedi",
+        "martedì",
+        "martedi",
+        "mercoledì",
+        "mercoledi",
+        "giovedì",
+        "giovedi",
+        "venerdì",
+        "venerdi",
+        "sabato",
+        "domenica",
+        "gio",
+        "sab",
+        "dom",
+    ];
+    let word = word.trim().trim_end_matches('.').to_lowercase();
+    WEEKDAYS.contains(&word.as_str())
 }
 
 /// Short forms a header may name a month, quarter or week by that Intake does not join with
@@ -133,7 +237,7 @@ impl NumberedPart {
     fn prefixes(self) -> &'static [&'static str] {
         match self {
             NumberedPart::Month => &["month", "mth", "m"],
-            NumberedPart::Quarter => &["quarter", "qtr", "q"],
+            NumberedPart::Quarter => &["quarter", "qtr", "q", "trim"],
             NumberedPart::Week => &["week", "wk", "w"],
             NumberedPart::Half => &["half", "h"],
             NumberedPart::Period => &["period", "p"],
@@ -151,9 +255,9 @@ impl NumberedPart {
 
 /// The part of the year one cell names by a word and its number, with the number: "M01",
 /// "Month 1", "Mth 1", "Q1", "Qtr 1", "Quarter 1", "1st Qtr", "W5", "Wk 5", "Week 5", "H1",
-/// "Half 1", "P1", "Period 13" (any case; a space, a dot or nothing between). The number has
-/// one or two digits and lies within the part's count (an ordinal's suffix must agree with
-/// it). `None` for anything else: a month's name is not numbered ([`super::label::month_name`]).
+/// "Half 1", "P1", "Period 13", "1. Quartal", "Trim. 2" (any case; a space, a dot or nothing
+/// between). The number has one or two digits and lies within the part's count (an
+/// ordinal's suffix must agree with it). `None` for anything else: a month's name is not numbered ([`super::label::month_name`]).
 pub(super) fn numbered_part(cell: &str) -> Option<(NumberedPart, u32)> {
     let lower = cell.trim().to_lowercase();
     // Runs of letters and of digits: "M01" is "m", "01"; "1st Qtr" is "1", "st", "qtr".
@@ -175,18 +279,21 @@ pub(super) fn numbered_part(cell: &str) -> Option<(NumberedPart, u32)> {
         broken = false;
     }
     let words: Vec<&str> = tokens.iter().map(String::as_str).collect();
+    let prefixed = |word: &str| {
+        NumberedPart::ALL
+            .into_iter()
+            .find(|part| part.prefixes().contains(&word))
+    };
     let (part, number) = match words.as_slice() {
-        [word, n] => (
-            NumberedPart::ALL
-                .into_iter()
-                .find(|part| part.prefixes().contains(word))?,
-            *n,
-        ),
+        [word, n] if prefixed(word).is_some() => (prefixed(word)?, *n),
         [n @ ("1" | "2" | "3" | "4"), suffix, "qtr" | "quarter"]
             if ["st", "nd", "rd", "th"][n.parse::<usize>().ok()? - 1] == *suffix =>
         {
             (NumberedPart::Quarter, *n)
         }
+        // The number first, as German, French, Dutch, Spanish and Italian write it ("1.
+        // Quartal", "1 trimestre", "1e kwartaal" is not read).
+        [n, "quartal" | "trimestre" | "kwartaal" | "quarter"] => (NumberedPart::Quarter, *n),
         _ => return None,
     };
     let number: u32 = (number.len() <= 2 && number.bytes().all(|b| b.is_ascii_digit()))
@@ -221,6 +328,8 @@ mod tests {
         check("H2", Some((Half, 2)));
         check("P13", Some((Period, 13)));
         check("Period 1", Some((Period, 1)));
+        check("1. Quartal", Some((Quarter, 1)));
+        check("Trim. 4", Some((Quarter, 4)));
         // Beyond the part's count, three digits, a wrong ordinal, more words, a name.
         check("Q5", None);
         check("M13", None);

@@ -25,7 +25,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
-use super::words::{numbered_part, NumberedPart, YEAR_WORDS};
+use super::words::{month_in_other_languages, numbered_part, NumberedPart, YEAR_WORDS};
 use super::RowError;
 use crate::calendar::{Frequency, Period};
 
@@ -70,6 +70,13 @@ impl Across {
 
 /// Header words of a row total beside the months: not a part of the year.
 const TOTAL_WORDS: [&str; 6] = ["total", "totals", "sum", "ytd", "annual", "full"];
+
+/// Header words of figures left of the months that are no month's sales and name no item:
+/// last year's ("Vorjahr", "LY", "PY"), a budget or target, a change, a rank (a review found
+/// such grids refused as calendar grids).
+const FIGURES_BESIDE_THE_YEAR: [&str; 9] = [
+    "vorjahr", "ly", "py", "budget", "target", "plan", "yoy", "forecast", "rank",
+];
 
 /// The columns of a year grid.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -131,8 +138,8 @@ impl YearGrid {
             let name = table.column_name(j);
             // A total, or last year's figures ("Last year", "Prior year") beside the year.
             let figures_of_a_year = j < first_part
-                && header_says(&name, &YEAR_WORDS)
-                && !header_is_only(&name, &YEAR_WORDS);
+                && ((header_says(&name, &YEAR_WORDS) && !header_is_only(&name, &YEAR_WORDS))
+                    || header_says(&name, &FIGURES_BESIDE_THE_YEAR));
             if numeric.contains(&j) && (header_says(&name, &TOTAL_WORDS) || figures_of_a_year) {
                 ignored.push(j);
             } else if j > last_part && names_a_part(&name) {
@@ -362,7 +369,10 @@ fn names_a_part(header: &str) -> bool {
 /// "Quarter 1", "1st Qtr". `None` for anything else.
 fn part_of_year(cell: &str) -> Option<(Across, u32)> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
-    if let Some(month) = month_name(&lower) {
+    // English names, or (a year column beside all twelve in order makes them months) the
+    // other languages' ("Januar", "févr.": a review found a German grid read as a long table
+    // of January's figures).
+    if let Some(month) = month_name(&lower).or_else(|| month_in_other_languages(&lower)) {
         return Some((Across::Months, month));
     }
     match numbered_part(&lower)? {

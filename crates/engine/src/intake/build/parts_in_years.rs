@@ -8,7 +8,8 @@
 //!
 //! The header decides which part a column may be, never its numbers alone: store, line or
 //! pack numbers of 1 to 12 beside yearly rows are read as before (a review found a rule by
-//! the cells alone refusing 38 ordinary yearly tables).
+//! the cells alone refusing 38 ordinary yearly tables); under a short form, some item's year
+//! must hold most of the year's parts (widths under "W", grades under "Q" are none).
 //!
 //! Kept apart from: the columns joined with a year into one period
 //! ([`super::super::joined`]), and the summing of repeated rows itself ([`super::long`]).
@@ -135,6 +136,17 @@ pub(super) fn parts_summed_into_years(
             .filter(|g| g.iter().any(|c| *c != g[0]))
             .count();
         if several.is_empty() || apart * 2 < several.len() {
+            return None;
+        }
+        // Under a short form, most of a year's parts on some item's rows: "W" widths of 30, 45
+        // and 50, "M" lengths or "Q" grades are no weeks, months or quarters (a review found
+        // them refused).
+        let fullest = several
+            .iter()
+            .map(|g| g.iter().collect::<std::collections::HashSet<_>>().len())
+            .max()
+            .unwrap_or(0);
+        if !named && fullest * 2 <= part.count() as usize {
             return None;
         }
         let (row, text) = rows
