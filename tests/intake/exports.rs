@@ -759,6 +759,14 @@ fn what_the_second_review_of_the_year_parts_found() {
             },
         );
     }
+    // Sales by weekday each year: no history of years (Monday's column had been read).
+    check(
+        "Item,Year,Mon,Tue,Wed,Thu,Fri,Sat,Sun\nTrowel,2023,1,2,3,4,5,6,7\nTrowel,2024,2,3,4,5,6,7,8\n",
+        Expect {
+            errors: vec![(1, "Mon", "Mon")],
+            ..Expect::default()
+        },
+    );
     check(
         "Artikel;Jahr;Monat;Menge\nKelle;2023;Dez.;13\nKelle;2024;Jän.;14\nKelle;2024;Feb.;12\n",
         Expect {

@@ -299,7 +299,7 @@ fn is_code(cell: &str) -> bool {
 /// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels): at
 /// least two of the number columns `numeric`, and more than half of them, headed by parts of
 /// what a row is ([`grid_header`]): parts of a year over rows of plain years (no month column
-/// beside, `split`), weekdays over rows of ISO weeks ("2024-W01"; weekly dates or week
+/// beside, `split`), weekdays over rows of ISO weeks or of years ("2024-W01"; weekly dates or week
 /// numbers are not told from other rows here, so those grids pass as items), times of day
 /// over rows of dates; numbered parts ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
 /// would be an item of its own with a value a year, forecast by the year; so the table is
@@ -332,9 +332,11 @@ pub(super) fn calendar_grid(
             .any(|j| roles[j] == Role::Period(f))
     };
     let (weeks, days) = (family(Family::Week), family(Family::Date));
+    // Weekdays across rows of years too: sales by weekday each year are no history of
+    // years (a review found Monday's column read as each year's demand, the others unread).
     let fits = |part: &GridPart| match part {
         GridPart::Year(_) => years,
-        GridPart::Week => weeks,
+        GridPart::Week => weeks || years,
         GridPart::Day => days,
     };
     let named: Vec<usize> = parts
