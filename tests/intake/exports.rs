@@ -759,6 +759,45 @@ fn what_the_second_review_of_the_year_parts_found() {
             },
         );
     }
+    // Headers neither rule knew, each year's months summed into it before: "Month of year",
+    // "Kalendermonat", "Mois n°" are joined; "MM" beside "YYYY", "Trim." and "Mnd" (short
+    // forms) refused at their column; "Periode" (numbered periods) refused as "Period" is.
+    let twelve = |header: &str| {
+        let sep = if header.contains(';') { ';' } else { ',' };
+        let mut text = format!("{header}\n");
+        for year in [2023, 2024] {
+            for month in 1..=12 {
+                text.push_str(&format!("Kelle{sep}{year}{sep}{month}{sep}{}\n", month + 2));
+            }
+        }
+        text
+    };
+    for header in [
+        "Item,Year,Month of year,Qty",
+        "Artikel;Jahr;Kalendermonat;Menge",
+        "Produit;Année;Mois n°;Quantité",
+    ] {
+        check(
+            &twelve(header),
+            Expect {
+                frequency: Some(Frequency::Monthly),
+                ..Expect::default()
+            },
+        );
+    }
+    for (header, column) in [
+        ("Item,YYYY,MM,Qty", "MM"),
+        ("Artikel;Jaar;Mnd;Aantal", "Mnd"),
+        ("Artikel;Jahr;Periode;Menge", "Periode"),
+    ] {
+        check(
+            &twelve(header),
+            Expect {
+                errors: vec![(2, column, "1")],
+                ..Expect::default()
+            },
+        );
+    }
     // Sales by weekday each year: no history of years (Monday's column had been read).
     check(
         "Item,Year,Mon,Tue,Wed,Thu,Fri,Sat,Sun\nTrowel,2023,1,2,3,4,5,6,7\nTrowel,2024,2,3,4,5,6,7,8\n",

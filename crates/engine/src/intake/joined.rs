@@ -129,7 +129,13 @@ impl SplitPeriod {
         let year_or_fiscal: Vec<&str> = YEAR_WORDS.iter().chain(&FISCAL_WORDS).copied().collect();
         let year_named =
             |j: usize| named(j, &year_or_fiscal) && header_says(&table.column_name(j), &YEAR_WORDS);
-        let is_part = |j: usize| YearPart::ALL.iter().any(|part| named(j, part.words()));
+        // The part's word, the year's beside it allowed ("Month of year", "Week of year").
+        let names_the_part = |j: usize, how: YearPart| {
+            let with_year: Vec<&str> = how.words().iter().chain(&YEAR_WORDS).copied().collect();
+            header_is_only(&table.column_name(j), &with_year)
+                && header_says(&table.column_name(j), how.words())
+        };
+        let is_part = |j: usize| YearPart::ALL.iter().any(|part| names_the_part(j, *part));
         // Most cells, not all: one bad cell is an error at its row, not another layout.
         let most = |good: usize| !rows.is_empty() && good * 2 > rows.len();
         let years: Vec<usize> = match period {
@@ -233,7 +239,7 @@ impl SplitPeriod {
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
             others()
                 .filter(|j| {
-                    (named(*j, how.words()) && !one_part(*j, how))
+                    (names_the_part(*j, how) && !one_part(*j, how))
                         || period_named(*j)
                         || short_named(*j, how)
                 })
@@ -424,7 +430,8 @@ fn part_text(cell: &str, how: YearPart) -> String {
 
 /// Header words of a column counting periods within a year that no calendar holds: halves
 /// and numbered (fiscal) periods.
-const UNPLACED_PART_WORDS: [&str; 4] = ["half", "semester", "period", "fiscal"];
+const UNPLACED_PART_WORDS: [&str; 6] =
+    ["half", "semester", "period", "periode", "periodo", "fiscal"];
 
 /// Whether every cell is a whole number from 1 to 53: periods or weeks counted within a year.
 fn numbered_within_a_year(filled: &[(usize, &str)]) -> bool {
@@ -446,7 +453,7 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .find(|part| header_is_only(&name, part.words()));
         let unplaced = part.is_none()
             && header_is_only(&name, &UNPLACED_PART_WORDS)
-            && header_says(&name, &["half", "semester", "period"]);
+            && header_says(&name, &["half", "semester", "period", "periode", "periodo"]);
         if part.is_none() && !unplaced {
             return None;
         }

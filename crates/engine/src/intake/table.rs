@@ -1240,7 +1240,10 @@ fn same_word(word: &str, listed: &str) -> bool {
 
 /// Words that may stand beside a period word in a header that names nothing else ("Month
 /// no", "Week number", "Year of sale").
-const FILLER_WORDS: [&str; 7] = ["no", "nr", "num", "number", "of", "the", "calendar"];
+/// With (from memory) the German, French, Spanish and Italian ones ("Mois n°", "Mes nº").
+const FILLER_WORDS: [&str; 12] = [
+    "no", "nr", "num", "number", "of", "the", "calendar", "n", "nº", "nummer", "numero", "número",
+];
 
 /// Whether header cell `name` names only what `words` name: at least one of them, and every
 /// other word a number or a filler ("Month no", "Month (1-12)"), so "Year planner", "Day lily"

@@ -9,9 +9,10 @@
 //! its cells) and the words for periods in general ([`super::table::PERIOD_WORDS`]).
 
 /// Header words naming a calendar year.
-pub(super) const YEAR_WORDS: [&str; 10] = [
+pub(super) const YEAR_WORDS: [&str; 11] = [
     "year",
     "yr",
+    "yyyy",
     "jahr",
     "kalenderjahr",
     "annee",
@@ -36,7 +37,17 @@ pub(super) const DAY_WORDS_BESIDE_THEIR_YEAR: [(&str, &[&str]); 3] = [
 
 /// Header words naming the month of a year ("Month", "Monat", "Mois", "Maand", "Mes",
 /// "Mese").
-pub(super) const MONTH_WORDS: [&str; 7] = ["month", "mth", "monat", "mois", "maand", "mes", "mese"];
+pub(super) const MONTH_WORDS: [&str; 9] = [
+    "month",
+    "mth",
+    "monat",
+    "kalendermonat",
+    "monatsnr",
+    "mois",
+    "maand",
+    "mes",
+    "mese",
+];
 
 /// Header words naming the quarter of a year ("Quarter", "Quartal", "Trimestre", "Kwartaal").
 pub(super) const QUARTER_WORDS: [&str; 5] = ["quarter", "qtr", "quartal", "trimestre", "kwartaal"];
@@ -201,12 +212,13 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
 /// Short forms a header may name a month, quarter or week by that Intake does not join with
 /// a year ("Mon", "Mnth", "M"; "Q", "Qr"; "W"): never the quantity, and a column of them
 /// beside years alone is refused (`build/parts_in_years.rs`).
-pub(super) const MONTH_SHORT_FORMS: [&str; 6] = ["mon", "mo", "mnth", "mnt", "mos", "m"];
-pub(super) const QUARTER_SHORT_FORMS: [&str; 3] = ["q", "qr", "qtrs"];
+pub(super) const MONTH_SHORT_FORMS: [&str; 8] =
+    ["mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd"];
+pub(super) const QUARTER_SHORT_FORMS: [&str; 5] = ["q", "qr", "qtrs", "trim", "quart"];
 pub(super) const WEEK_SHORT_FORMS: [&str; 1] = ["w"];
 /// All of them.
-pub(super) const PART_SHORT_FORMS: [&str; 10] = [
-    "mon", "mo", "mnth", "mnt", "mos", "m", "q", "qr", "qtrs", "w",
+pub(super) const PART_SHORT_FORMS: [&str; 14] = [
+    "mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd", "q", "qr", "qtrs", "trim", "quart", "w",
 ];
 
 /// A part of the year counted by its number within the year.
