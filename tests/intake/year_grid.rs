@@ -430,8 +430,9 @@ fn last_years_figures_name_no_year_for_the_months() {
     }
 }
 
-/// Last year's figures beside the year's own column ("Last year", "Vorjahr" is not among the
-/// words) are not read, said; the grid is read (it had been refused as a calendar grid).
+/// Last year's figures beside the year's own column ("Last year", "LY", "Vorjahr") are not
+/// read, said; the grid is read ("Last year" had made it refused as a calendar grid; "Prior
+/// year total" was left out before as a total, now said as another year's figures).
 #[test]
 fn last_years_figures_beside_the_year_are_not_read() {
     for header in ["Item,Year,Last year", "Item,Prior year total,Year"] {

@@ -3,7 +3,8 @@
 //! `year,week,sales`, `year,month,day,sales`: common ways to keep sales, common practice).
 //! Each row's period is read from its cells joined into one label the period reader takes
 //! ("2023-07", "2023 Jul", "2023-Q3", "2023-W07", "2023-07-14"), so the reader's rules and
-//! errors hold unchanged; an error shows the joined text at the year column.
+//! errors hold unchanged; an error shows the joined text at the year column, or the part's
+//! own cell at its column where the part is what does not read ([`SplitPeriod::part_at_fault`]).
 //!
 //! Kept apart from: the other column roles ([`super::table`] calls [`SplitPeriod::find`]
 //! first, so that month names are not taken for items) and reading labels
@@ -19,11 +20,12 @@ use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::words::{
-    month_in_other_languages, numbered_part, NumberedPart, DAY_WORDS, DAY_WORDS_BESIDE_THEIR_YEAR,
-    MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_PART_WORDS,
-    WEEK_SHORT_FORMS, YEAR_WORDS,
+    month_in_other_languages, numbered_part, runs, NumberedPart, DAY_WORDS,
+    DAY_WORDS_BESIDE_THEIR_YEAR, MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS,
+    QUARTER_WORDS, WEEK_PART_WORDS, WEEK_SHORT_FORMS, YEAR_WORDS,
 };
 use super::RowError;
+use crate::calendar::iso_weeks_in_year;
 
 /// The part of a year a column beside a year column counts.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -39,10 +41,10 @@ pub(crate) enum YearPart {
 impl YearPart {
     /// The finest first: beside a year, a week column with a month column makes weeks (the
     /// month then a calendar detail).
-    const ALL: [YearPart; 3] = [YearPart::Week, YearPart::Month, YearPart::Quarter];
+    pub(crate) const ALL: [YearPart; 3] = [YearPart::Week, YearPart::Month, YearPart::Quarter];
 
     /// Header words that name this part of a year.
-    fn words(self) -> &'static [&'static str] {
+    pub(crate) fn words(self) -> &'static [&'static str] {
         match self {
             YearPart::Month => &MONTH_WORDS,
             YearPart::Quarter => &QUARTER_WORDS,
@@ -60,7 +62,7 @@ impl YearPart {
     }
 
     /// How many there are in a year (ISO years have up to 53 weeks).
-    fn count(self) -> u32 {
+    pub(crate) fn count(self) -> u32 {
         match self {
             YearPart::Month => 12,
             YearPart::Quarter => 4,
@@ -68,12 +70,23 @@ impl YearPart {
         }
     }
 
-    /// Short forms of its header words ("Mon", "Q", "W"), joined only over parts written out.
-    fn short_forms(self) -> &'static [&'static str] {
+    /// Short forms of its header words ("Mon", "Q", "W"): joined only over parts written
+    /// out ("Jan.", "Q1"); numbers under them beside plain years are refused
+    /// (`build/parts_in_years.rs`).
+    pub(crate) fn short_forms(self) -> &'static [&'static str] {
         match self {
             YearPart::Month => &MONTH_SHORT_FORMS,
             YearPart::Quarter => &QUARTER_SHORT_FORMS,
             YearPart::Week => &WEEK_SHORT_FORMS,
+        }
+    }
+
+    /// Its name as a header should give it, for a refusal ("Month").
+    pub(crate) fn name(self) -> &'static str {
+        match self {
+            YearPart::Month => "Month",
+            YearPart::Quarter => "Quarter",
+            YearPart::Week => "Week",
         }
     }
 
@@ -94,6 +107,14 @@ impl YearPart {
             YearPart::Week => Family::Week,
         }
     }
+}
+
+/// Whether a header is a short form of a part of the year ("Mon", "Q", "W";
+/// [`YearPart::short_forms`]).
+pub(crate) fn names_a_short_form(name: &str) -> bool {
+    YearPart::ALL
+        .iter()
+        .any(|part| header_is_only(name, part.short_forms()))
 }
 
 /// Words that make a year a fiscal one.
@@ -169,7 +190,7 @@ impl SplitPeriod {
         // "Q1"): tried as each, after the columns named as the part.
         // Only text ("Jan", "Q1"): numbers under "Period" (1 to 13) could be any of them.
         let period_named = |j: usize| {
-            named(j, &["period"])
+            named(j, &PERIOD_PART_WORDS)
                 && most(
                     table
                         .column(j, rows)
@@ -223,15 +244,16 @@ impl SplitPeriod {
             part != name.trim() && part.bytes().all(|b| b.is_ascii_digit())
         };
         // A part column tells the rows of a year apart: where no year holds two different
-        // parts on its rows ("Weeks" 52 or 53 beside each item's year, "Mes" 12), it counts
-        // something about each year (the weeks open), not which part a row is; joined, a year's
-        // total had been read as its last week or month (a review).
-        let varies = |j: usize| {
+        // parts on its rows ("Weeks open" 52 or 53 beside each item's year, "Months" 12), it
+        // counts something about each year, not which part a row is; joined, a year's total
+        // had been read as its last week or month (a review). One row a year in different
+        // months (2022-03, 2023-07) is then read as yearly, each year's total the row's.
+        let varies = |k: usize| {
             let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
             for row in rows {
-                let cell = |k: usize| row.cells.get(k).map_or("", |c| c.trim());
-                if !cell(j).is_empty() {
-                    parts.entry(cell(year)).or_default().insert(cell(j));
+                let cell = |c: usize| row.cells.get(c).map_or("", |t| t.trim());
+                if !cell(k).is_empty() {
+                    parts.entry(cell(year)).or_default().insert(cell(k));
                 }
             }
             parts.len() <= 1 || parts.values().any(|p| p.len() >= 2)
@@ -340,7 +362,7 @@ impl SplitPeriod {
 
     /// Where a row's period fails to read because of its part, not its year: the part column,
     /// its cell and the error to give, when the year is a year and the part cell is no
-    /// number and no month name (a month word not known, "Jän.", "fév."; a review found such
+    /// number within the part's count and no month name (a month word not known, "Jän.", "fév."; a review found such
     /// rows refused at the year's column with the joined text). `None` otherwise: the
     /// period reader's own error, at the year's column, names the joined label.
     pub(crate) fn part_at_fault<'r>(
@@ -355,17 +377,38 @@ impl SplitPeriod {
         }
         let part = part_text(cell(self.part), self.how);
         let named_month = self.how == YearPart::Month && month_name(&part).is_some();
-        (!whole_number(&part) && !named_month).then(|| {
-            (
-                self.part,
-                cell(self.part),
-                format!(
-                    "expected {} beside the year in column \"{}\"",
-                    self.how.forms(),
-                    table.column_name(self.year)
-                ),
-            )
-        })
+        let number = whole_number(&part)
+            .then(|| part.parse::<u32>().ok())
+            .flatten();
+        let at_part = |message: String| Some((self.part, cell(self.part), message));
+        let year_name = table.column_name(self.year);
+        match number {
+            // A number beyond the part's count ("13", "Q5") is the part's fault too.
+            Some(n) if n == 0 || n > self.how.count() => at_part(format!(
+                "expected {} beside the year in column \"{year_name}\"",
+                self.how.forms()
+            )),
+            // Week 53 of a year of 52 ISO weeks.
+            Some(n) if self.how == YearPart::Week => {
+                let weeks = year_of(year).map_or(53, iso_weeks_in_year);
+                (n > weeks).then(|| {
+                    (
+                        self.part,
+                        cell(self.part),
+                        format!(
+                            "expected an ISO week of {year} beside the year in column \
+                             \"{year_name}\": {year} has {weeks} ISO weeks"
+                        ),
+                    )
+                })
+            }
+            Some(_) => None,
+            None if named_month => None,
+            None => at_part(format!(
+                "expected {} beside the year in column \"{year_name}\"",
+                self.how.forms()
+            )),
+        }
     }
 
     /// [`SplitPeriod::label`] of each of `rows`.
@@ -405,17 +448,7 @@ fn part_text(cell: &str, how: YearPart) -> String {
     if how != YearPart::Month {
         return cell.to_string();
     }
-    // Runs of letters and runs of digits: "01-Jan" is "01", "Jan".
-    let mut tokens: Vec<String> = Vec::new();
-    for c in cell.chars() {
-        let kind = |c: char| (c.is_ascii_digit(), c.is_alphabetic());
-        match tokens.last_mut() {
-            Some(t) if t.chars().last().is_some_and(|l| kind(l) == kind(c)) => t.push(c),
-            _ if c.is_alphanumeric() => tokens.push(c.to_string()),
-            _ => tokens.push(String::new()),
-        }
-    }
-    tokens.retain(|t| !t.is_empty());
+    let tokens = runs(cell);
     let digits = |t: &str| t.bytes().all(|b| b.is_ascii_digit());
     let names: Vec<&String> = tokens.iter().filter(|t| !digits(t)).collect();
     match names.as_slice() {
@@ -429,9 +462,14 @@ fn part_text(cell: &str, how: YearPart) -> String {
 }
 
 /// Header words of a column counting periods within a year that no calendar holds: halves
-/// and numbered (fiscal) periods.
+/// and numbered (fiscal) periods; "fiscal" may stand beside them ("Fiscal period").
+const UNPLACED_PARTS: [&str; 5] = ["half", "semester", "period", "periode", "periodo"];
 const UNPLACED_PART_WORDS: [&str; 6] =
     ["half", "semester", "period", "periode", "periodo", "fiscal"];
+
+/// Header words of a period column that may hold a month or a quarter written out ("Jan",
+/// "Q1" under "Period").
+const PERIOD_PART_WORDS: [&str; 3] = ["period", "periode", "periodo"];
 
 /// Whether every cell is a whole number from 1 to 53: periods or weeks counted within a year.
 fn numbered_within_a_year(filled: &[(usize, &str)]) -> bool {
@@ -453,7 +491,7 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .find(|part| header_is_only(&name, part.words()));
         let unplaced = part.is_none()
             && header_is_only(&name, &UNPLACED_PART_WORDS)
-            && header_says(&name, &["half", "semester", "period", "periode", "periodo"]);
+            && header_says(&name, &UNPLACED_PARTS);
         if part.is_none() && !unplaced {
             return None;
         }
@@ -549,7 +587,7 @@ fn fiscal_order(table: &Table, rows: &[&Record], split: &SplitPeriod) -> Option<
         row.cells.get(j).map_or("", String::as_str)
     }
     let mut items: Vec<Vec<usize>> = Vec::new();
-    let mut item_of: std::collections::HashMap<Vec<&str>, usize> = std::collections::HashMap::new();
+    let mut item_of: HashMap<Vec<&str>, usize> = HashMap::new();
     for (i, row) in rows.iter().enumerate() {
         let name: Vec<&str> = (0..table.width)
             .filter(|j| !periods.contains(j))

@@ -18,7 +18,7 @@ use super::table::{
     Table, ITEM_WORDS,
 };
 use super::text::Record;
-use super::words::numbered_part;
+use super::words::{month_in_other_languages, numbered_part};
 use super::RowError;
 
 /// Header words of a text column that notes rows rather than names items ("Comment",
@@ -353,6 +353,16 @@ pub(super) fn calendar_grid(
         })
         .collect();
     let counting = numbers.iter().enumerate().all(|(i, n)| *n == i as u32 + 1);
+    // Months named only in another language ("Mars", "Mai", "Set", "Gen" are items' names
+    // too) make a grid only as half a year or more: a review found four such items refused.
+    let foreign = named.iter().any(|j| {
+        let cell = table.column_name(*j).to_lowercase();
+        let word = cell.trim().trim_end_matches('.');
+        !calendar_name(word) && month_in_other_languages(word).is_some()
+    });
+    if foreign && named.len() < 6 {
+        return None;
+    }
     let &first = named.first()?;
     (counting && named.len() >= 2 && named.len() * 2 > numeric.len()).then(|| RowError {
         row: header.line,
@@ -404,7 +414,10 @@ fn grid_header(cell: &str) -> Option<GridPart> {
     if let Some((_, number)) = numbered_part(&lower) {
         return Some(GridPart::Year(Some(number)));
     }
-    (calendar_name(&lower) || lower == "sept").then_some(GridPart::Year(None))
+    // Months in German, French, Dutch, Spanish or Italian too ("Januar", "janv."): a review
+    // found `Jahr;Januar;...;Dezember` over rows of years read as twelve yearly items.
+    (calendar_name(&lower) || lower == "sept" || month_in_other_languages(&lower).is_some())
+        .then_some(GridPart::Year(None))
 }
 
 /// Header words that name a stock level, goods coming in or going back, a share or a rank:

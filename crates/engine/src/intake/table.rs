@@ -75,7 +75,7 @@
 //! `year,quarter,sales`; [`SplitPeriod`]), found before any other rule so that month names
 //! are not taken for items.
 
-use super::joined::SplitPeriod;
+use super::joined::{names_a_short_form, SplitPeriod};
 use super::label::{calendar_name, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
 use super::period::{
@@ -86,7 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
-use super::words::{PART_SHORT_FORMS, WEEK_WORDS, YEAR_WORDS};
+use super::words::{weekday_shortened_in_other_languages, WEEKDAY_WORDS, WEEK_WORDS, YEAR_WORDS};
 use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
 
@@ -966,7 +966,7 @@ pub(super) const ITEM_WORDS: [&str; 40] = [
 /// month.year labels ("03.2020") had been read as the numbers 3.202 of an item, silently;
 /// named as a period they are an error that says how to write them. Words that name things in
 /// English too ("tag", "dag", "data") are left out.
-pub(super) const PERIOD_WORDS: [&str; 34] = [
+pub(super) const PERIOD_WORDS: [&str; 44] = [
     "t",
     "period",
     "time",
@@ -1001,6 +1001,16 @@ pub(super) const PERIOD_WORDS: [&str; 34] = [
     "monthly",
     "weekly",
     "anno",
+    "mes",
+    "ano",
+    "año",
+    "annee",
+    "année",
+    "yyyy",
+    "kalenderjahr",
+    "kalendermonat",
+    "monatsnr",
+    "periodo",
 ];
 /// With (from memory) the German, French, Dutch, Spanish and Italian words for sales.
 pub(super) const QUANTITY_WORDS: [&str; 16] = [
@@ -1064,7 +1074,16 @@ fn calendar_columns(
                 .into_iter()
                 .filter(|c| !c.is_empty())
                 .collect();
-            let named = cells.iter().filter(|c| calendar_name(c)).count();
+            // Weekdays shortened in other languages ("Mo", "Di", "lun.") only under a header
+            // naming the weekday: alone, two letters are as often a country or a state.
+            let weekday_header =
+                table.header.is_some() && header_says(&table.column_name(j), &WEEKDAY_WORDS);
+            let named = cells
+                .iter()
+                .filter(|c| {
+                    calendar_name(c) || (weekday_header && weekday_shortened_in_other_languages(c))
+                })
+                .count();
             !cells.is_empty() && named * 2 > cells.len()
         })
         .collect()
@@ -1512,9 +1531,12 @@ pub(super) fn names_order_number(name: &str) -> bool {
 /// first whose header names a count of goods ([`UNIT_WORDS`]: "Qty", "Pcs", "Count"), else
 /// one named a quantity ([`QUANTITY_WORDS`]: "sales"), neither naming money or a size
 /// ([`MONEY_WORDS`], a currency sign) nor a stock level or running total ([`names_no_demand`]:
-/// "Units in stock"); else the first whose header names no item, period, other thing, money or
-/// stock; else the first (`date,item,store,sales` reads "sales", not the store
-/// numbers; `Date,Item,Unit price,Count` reads "Count"; the rest are reported as not used).
+/// "Units in stock"); else the first whose header names no item, period, short form of a
+/// year's part ("Mon", "Q"), other thing, money or stock; else the first short form that
+/// names no money ("Q" beside "Price"; a column of a year's parts among them is refused later,
+/// `build/parts_in_years.rs`); else the first (`date,item,store,sales` reads "sales", not the
+/// store numbers; `Date,Item,Unit price,Count` reads "Count"; the rest are reported as not
+/// used).
 fn quantity_among(table: &Table, values: &[usize]) -> usize {
     let says = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
     if table.header.is_none() {
@@ -1556,7 +1578,7 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
             values.iter().position(|j| {
                 !says(*j, &ITEM_WORDS)
                     && !says(*j, &PERIOD_WORDS)
-                    && !header_is_only(&table.column_name(*j), &PART_SHORT_FORMS)
+                    && !names_a_short_form(&table.column_name(*j))
                     && !says(*j, &OTHER_WORDS)
                     && !not_demand(*j)
             })
@@ -1564,9 +1586,9 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
         // A short form ("Q") before money or a stock level: a review found "Price" read as
         // the demand beside "Q" once short forms were passed over above.
         .or_else(|| {
-            values.iter().position(|j| {
-                header_is_only(&table.column_name(*j), &PART_SHORT_FORMS) && !not_demand(*j)
-            })
+            values
+                .iter()
+                .position(|j| names_a_short_form(&table.column_name(*j)) && !not_demand(*j))
         })
         .unwrap_or(0)
 }

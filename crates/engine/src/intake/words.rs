@@ -129,13 +129,12 @@ pub(super) fn month_in_other_languages(word: &str) -> Option<u32> {
         .map(|i| i as u32 + 1)
 }
 
-/// Whether a word (lower case, a final dot left off) is a weekday's name or abbreviation in
-/// German, French, Dutch, Spanish or Italian (from memory: "Montag", "Mo", "lun", "mié",
-/// "zo"): a column of them beside the dates is a calendar detail, not items (a review found
-/// "Mo / Kelle", "Di / Kelle" planned as items). English ones are
+/// Whether a word (any case, a final dot left off) is a weekday's full name in German,
+/// French, Dutch, Spanish or Italian (from memory: "Montag", "lundi", "miércoles"): a column
+/// of them beside the dates is a calendar detail, not items. English ones are
 /// [`super::label::weekday_name`]'s.
 pub(super) fn weekday_in_other_languages(word: &str) -> bool {
-    const WEEKDAYS: [&str; 68] = [
+    const WEEKDAYS: [&str; 42] = [
         "montag",
         "dienstag",
         "mittwoch",
@@ -144,13 +143,6 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
         "samstag",
         "sonnabend",
         "sonntag",
-        "mo",
-        "di",
-        "mi",
-        "do",
-        "fr",
-        "sa",
-        "so",
         "lundi",
         "mardi",
         "mercredi",
@@ -158,12 +150,6 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
         "vendredi",
         "samedi",
         "dimanche",
-        "lun",
-        "mer",
-        "jeu",
-        "ven",
-        "sam",
-        "dim",
         "maandag",
         "dinsdag",
         "woensdag",
@@ -171,11 +157,6 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
         "vrijdag",
         "zaterdag",
         "zondag",
-        "ma",
-        "wo",
-        "vr",
-        "za",
-        "zo",
         "lunes",
         "martes",
         "miércoles",
@@ -185,10 +166,6 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
         "sábado",
         "sabado",
         "domingo",
-        "mié",
-        "jue",
-        "vie",
-        "sáb",
         "lunedì",
         "lunedi",
         "martedì",
@@ -199,27 +176,73 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
         "giovedi",
         "venerdì",
         "venerdi",
-        "sabato",
         "domenica",
-        "gio",
-        "sab",
-        "dom",
     ];
     let word = word.trim().trim_end_matches('.').to_lowercase();
     WEEKDAYS.contains(&word.as_str())
 }
 
-/// Short forms a header may name a month, quarter or week by that Intake does not join with
-/// a year ("Mon", "Mnth", "M"; "Q", "Qr"; "W"): never the quantity, and a column of them
-/// beside years alone is refused (`build/parts_in_years.rs`).
+/// Whether a word is a weekday shortened in one of those languages ("Mo", "Di", "lun.",
+/// "mié", "zo"): read so only under a header naming the weekday ([`WEEKDAY_WORDS`]), since
+/// alone two letters are as often a country or a state ("FR", "MA"; a review found them
+/// taken for weekdays). A review found "Mo / Kelle", "Di / Kelle" planned as items before.
+pub(super) fn weekday_shortened_in_other_languages(word: &str) -> bool {
+    const SHORT: [&str; 33] = [
+        "mo", "di", "mi", "do", "fr", "sa", "so", "lun", "mar", "mer", "jeu", "ven", "sam", "dim",
+        "ma", "wo", "vr", "za", "zo", "mié", "mie", "jue", "vie", "sáb", "sab", "dom", "gio", "lu",
+        "me", "je", "ve", "ju", "sá",
+    ];
+    let word = word.trim().trim_end_matches('.').to_lowercase();
+    SHORT.contains(&word.as_str()) || weekday_in_other_languages(&word)
+}
+
+/// Header words naming a weekday column, said anywhere in the header ("Weekday", "Day of
+/// week", "Wochentag", "Jour", "Día").
+pub(super) const WEEKDAY_WORDS: [&str; 10] = [
+    "weekday",
+    "day",
+    "wochentag",
+    "tag",
+    "jour",
+    "dag",
+    "weekdag",
+    "dia",
+    "día",
+    "giorno",
+];
+
+/// Short forms a header may name a month, quarter or week by ("Mon", "Mnth", "MM"; "Q",
+/// "Trim"; "W"): joined with a year only over parts written out ("Jan.", "Q1"), never over
+/// numbers, which under them beside plain years are refused (`build/parts_in_years.rs`);
+/// passed over as the quantity unless nothing but money is left.
 pub(super) const MONTH_SHORT_FORMS: [&str; 8] =
     ["mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd"];
 pub(super) const QUARTER_SHORT_FORMS: [&str; 5] = ["q", "qr", "qtrs", "trim", "quart"];
 pub(super) const WEEK_SHORT_FORMS: [&str; 1] = ["w"];
-/// All of them.
-pub(super) const PART_SHORT_FORMS: [&str; 14] = [
-    "mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd", "q", "qr", "qtrs", "trim", "quart", "w",
-];
+
+/// The runs of digits and of other letters or digits in a cell, anything else a break: "M01"
+/// is "M", "01"; "1st Qtr" is "1", "st", "Qtr"; "01-Jan" is "01", "Jan". How a part's word and
+/// its number are told apart, here and in a part column's cells (`joined.rs`).
+pub(super) fn runs(cell: &str) -> Vec<String> {
+    let mut tokens: Vec<String> = Vec::new();
+    let mut broken = true;
+    for c in cell.chars() {
+        if !c.is_alphanumeric() {
+            broken = true;
+            continue;
+        }
+        match tokens.last_mut() {
+            Some(t)
+                if !broken && t.ends_with(|l: char| l.is_ascii_digit() == c.is_ascii_digit()) =>
+            {
+                t.push(c)
+            }
+            _ => tokens.push(c.to_string()),
+        }
+        broken = false;
+    }
+    tokens
+}
 
 /// A part of the year counted by its number within the year.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -271,25 +294,7 @@ impl NumberedPart {
 /// between). The number has one or two digits and lies within the part's count (an
 /// ordinal's suffix must agree with it). `None` for anything else: a month's name is not numbered ([`super::label::month_name`]).
 pub(super) fn numbered_part(cell: &str) -> Option<(NumberedPart, u32)> {
-    let lower = cell.trim().to_lowercase();
-    // Runs of letters and of digits: "M01" is "m", "01"; "1st Qtr" is "1", "st", "qtr".
-    let mut tokens: Vec<String> = Vec::new();
-    let mut broken = true;
-    for c in lower.chars() {
-        if !c.is_alphanumeric() {
-            broken = true;
-            continue;
-        }
-        match tokens.last_mut() {
-            Some(t)
-                if !broken && t.ends_with(|l: char| l.is_ascii_digit() == c.is_ascii_digit()) =>
-            {
-                t.push(c)
-            }
-            _ => tokens.push(c.to_string()),
-        }
-        broken = false;
-    }
+    let tokens = runs(&cell.trim().to_lowercase());
     let words: Vec<&str> = tokens.iter().map(String::as_str).collect();
     let prefixed = |word: &str| {
         NumberedPart::ALL

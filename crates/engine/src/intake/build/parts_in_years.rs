@@ -1,94 +1,51 @@
-//! A year read as the period beside a column left unread that counts the year's months,
-//! quarters or weeks: `Item,Year,Mon,Qty` with "Mon" holding 1 to 12 (or Jan to Dec), its
-//! header a short form Intake does not join ("Mon", "Mnth", "M"), or "Month" beside a year
-//! column whose header is not read as the calendar year ("Sales year", "FY"). Read so, each
-//! item's months of a year were summed into one yearly figure, said only as a column not used
-//! and rows summed: a year's demand planned as one period. Now an error at that column saying
-//! what to name.
+//! A year read as the period beside a column that counts the year's months, quarters or
+//! weeks: `Item,Year,Mon,Qty` with "Mon" holding 1 to 12, its header a short form
+//! ("Mon", "Mnth", "M", "MM"; [`YearPart::short_forms`]) whose numbers are not joined with a
+//! year, or a part's word ("Month") beside a year column whose header is not read as the
+//! calendar year ("Sales year", "FY"). Read so, each item's months of a year were summed into
+//! one yearly figure, said only as a column not used and rows summed: a year's demand
+//! planned as one period. Now an error at that column saying what to name.
 //!
 //! The header decides which part a column may be, never its numbers alone: store, line or
 //! pack numbers of 1 to 12 beside yearly rows are read as before (a review found a rule by
 //! the cells alone refusing 38 ordinary yearly tables); under a short form, some item's year
-//! must hold most of the year's parts (widths under "W", grades under "Q" are none).
+//! must hold most of the year's parts (widths under "W", grades under "Q" are none). The
+//! column read as the quantity is looked at too (`Item,Year,Mon,Revenue`: "Mon" had been
+//! the quantity, money passed over).
 //!
 //! Kept apart from: the columns joined with a year into one period
-//! ([`super::super::joined`]), and the summing of repeated rows itself ([`super::long`]).
+//! ([`super::super::joined`], whose [`YearPart`] names the parts), and the summing of repeated
+//! rows itself ([`super::long`]).
 
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 
 use super::long::item_key;
 use crate::calendar::{Frequency, Period};
+use crate::intake::joined::YearPart;
 use crate::intake::label::month_name;
 use crate::intake::table::{header_is_only, whole_number, Plan, Table};
 use crate::intake::text::Record;
-use crate::intake::words::{
-    MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS, QUARTER_WORDS, WEEK_SHORT_FORMS,
-    WEEK_WORDS,
-};
+use crate::intake::words::{month_in_other_languages, YEAR_WORDS};
 use crate::intake::RowError;
 
-/// A part of the year a column's header may name, with the short forms not joined with a
-/// year ("Mon", "Mnth", "M"; "Q", "Qr"; "W") beside the words that are.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-enum Part {
-    Month,
-    Quarter,
-    Week,
+/// Whether a cell is one of `part`: 1 to its count, or (months) a month's name.
+fn holds(part: YearPart, cell: &str) -> bool {
+    let cell = cell.trim_end_matches('.');
+    let named_month = month_name(cell).is_some() || month_in_other_languages(cell).is_some();
+    (part == YearPart::Month && named_month)
+        || (whole_number(cell)
+            && cell.len() <= 2
+            && cell
+                .parse::<u32>()
+                .is_ok_and(|n| (1..=part.count()).contains(&n)))
 }
 
-impl Part {
-    const ALL: [Part; 3] = [Part::Month, Part::Quarter, Part::Week];
-
-    fn short_forms(self) -> &'static [&'static str] {
-        match self {
-            Part::Month => &MONTH_SHORT_FORMS,
-            Part::Quarter => &QUARTER_SHORT_FORMS,
-            Part::Week => &WEEK_SHORT_FORMS,
-        }
-    }
-
-    fn words(self) -> &'static [&'static str] {
-        match self {
-            Part::Month => &MONTH_WORDS,
-            Part::Quarter => &QUARTER_WORDS,
-            Part::Week => &WEEK_WORDS,
-        }
-    }
-
-    fn count(self) -> u32 {
-        match self {
-            Part::Month => 12,
-            Part::Quarter => 4,
-            Part::Week => 53,
-        }
-    }
-
-    fn name(self) -> &'static str {
-        match self {
-            Part::Month => "Month",
-            Part::Quarter => "Quarter",
-            Part::Week => "Week",
-        }
-    }
-
-    /// Whether a cell is one of this part: 1 to its count, or a month's name.
-    fn holds(self, cell: &str) -> bool {
-        let cell = cell.trim_end_matches('.');
-        (self == Part::Month && month_name(cell).is_some())
-            || (whole_number(cell)
-                && cell.len() <= 2
-                && cell
-                    .parse::<u32>()
-                    .is_ok_and(|n| (1..=self.count()).contains(&n)))
-    }
-}
-
-/// The error for the first unread column (calendar details or a long table's extra column)
-/// whose header names a part of the year (a word or a short form, [`Part`]), whose filled
-/// cells are at least three in four that part (a "Total" or "n/a" among them does not hide
-/// it), and that tells one item's rows of one year apart in at least half of the (item,
-/// year) pairs on several rows; `None` unless the periods are years. `periods` are the rows'
-/// periods, as `rows`.
+/// The error for the first column not read as a period (calendar details, a long table's
+/// extra column, or the column read as the quantity) whose header names a part of the year
+/// (a word or a short form), whose filled cells are at least three in four that part (a
+/// "Total" or "n/a" among them does not hide it), and that tells one item's rows of one year
+/// apart in at least half of the (item, year) pairs on several rows; `None` unless the
+/// periods are years. `periods` are the rows' periods, as `rows`.
 pub(super) fn parts_summed_into_years(
     table: &Table,
     plan: &Plan,
@@ -100,11 +57,18 @@ pub(super) fn parts_summed_into_years(
         return None;
     }
     let (year, _) = plan.period?;
-    let mut unread: Vec<usize> = plan.calendar.iter().chain(&plan.ignored).copied().collect();
+    let mut unread: Vec<usize> = plan
+        .calendar
+        .iter()
+        .chain(&plan.ignored)
+        .chain(&plan.values)
+        .copied()
+        .collect();
     unread.sort_unstable();
+    unread.dedup();
     unread.into_iter().find_map(|j| {
         let name = table.column_name(j);
-        let (part, named) = Part::ALL.into_iter().find_map(|part| {
+        let (part, named) = YearPart::ALL.into_iter().find_map(|part| {
             if header_is_only(&name, part.words()) {
                 Some((part, true))
             } else {
@@ -117,7 +81,7 @@ pub(super) fn parts_summed_into_years(
             .map(|c| c.trim())
             .filter(|c| !c.is_empty())
             .collect();
-        let parts = filled.iter().filter(|c| part.holds(c)).count();
+        let parts = filled.iter().filter(|c| holds(part, c)).count();
         if filled.is_empty() || parts * 4 < filled.len() * 3 {
             return None;
         }
@@ -143,7 +107,7 @@ pub(super) fn parts_summed_into_years(
         // them refused).
         let fullest = several
             .iter()
-            .map(|g| g.iter().collect::<std::collections::HashSet<_>>().len())
+            .map(|g| g.iter().collect::<HashSet<_>>().len())
             .max()
             .unwrap_or(0);
         if !named && fullest * 2 <= part.count() as usize {
@@ -152,28 +116,30 @@ pub(super) fn parts_summed_into_years(
         let (row, text) = rows
             .iter()
             .zip(&cells)
-            .find(|(_, c)| part.holds(c.trim()))
+            .find(|(_, c)| holds(part, c.trim()))
             .map(|(row, c)| (row.line, c.trim().to_string()))?;
         let year_name = table.column_name(year);
-        let part_name = part.name();
-        let what = if named {
+        let (part_name, lower) = (part.name(), part.name().to_lowercase());
+        let what = if !named {
+            format!(
+                "column \"{name}\" holds {lower}s (such as \"{text}\") beside the year in column \
+                 \"{year_name}\", but its header is not one read as the {lower}: if they are, name \
+                 it {part_name} (Item,Year,{part_name},Qty); if it counts something else, name \
+                 it so"
+            )
+        } else if !header_is_only(&year_name, &YEAR_WORDS) {
             // The part is named: the year's header is what is not read as a calendar year.
             format!(
-                "column \"{name}\" names the {} of each row, but column \"{year_name}\" is read \
-                 as years alone, its header not naming the calendar year: if it is the calendar \
-                 year, name it Year (Item,Year,{part_name},Qty); a fiscal year's {}s cannot be \
-                 placed (write calendar months or dates)",
-                part_name.to_lowercase(),
-                part_name.to_lowercase()
+                "column \"{name}\" names the {lower} of each row, but column \"{year_name}\" is \
+                 read as years alone, its header not naming the calendar year: if it is the \
+                 calendar year, name it Year (Item,Year,{part_name},Qty); a fiscal year's \
+                 {lower}s cannot be placed (write calendar months or dates)"
             )
         } else {
             format!(
-                "column \"{name}\" holds {}s (such as \"{text}\") beside the year in column \
-                 \"{year_name}\", but its header is not one read as the {}: if they are, name \
-                 it {part_name} (Item,Year,{part_name},Qty); if it counts something else, name \
-                 it so",
-                part_name.to_lowercase(),
-                part_name.to_lowercase()
+                "column \"{name}\" names the {lower} of each row beside the year in column \
+                 \"{year_name}\", but the two do not read as one period: write each row's \
+                 period in one column (such as 2024-03)"
             )
         };
         Some(RowError {
@@ -181,9 +147,8 @@ pub(super) fn parts_summed_into_years(
             column: name,
             text,
             message: format!(
-                "expected a year and its {} read as one period: {what}; read as it is, each \
-                 item's rows of a year would be summed into one yearly figure",
-                part_name.to_lowercase()
+                "expected a year and its {lower} read as one period: {what}; read as it is, \
+                 each item's rows of a year would be summed into one yearly figure"
             ),
         })
     })
