@@ -25,7 +25,7 @@ use super::words::{
     QUARTER_WORDS, WEEK_PART_WORDS, WEEK_SHORT_FORMS, YEAR_WORDS,
 };
 use super::RowError;
-use crate::calendar::iso_weeks_in_year;
+use crate::calendar::{iso_weeks_in_year, Frequency, Period};
 
 /// The part of a year a column beside a year column counts.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -78,6 +78,33 @@ impl YearPart {
             YearPart::Month => &MONTH_SHORT_FORMS,
             YearPart::Quarter => &QUARTER_SHORT_FORMS,
             YearPart::Week => &WEEK_SHORT_FORMS,
+        }
+    }
+
+    /// Its name, plural, in the report's words ("months").
+    pub(crate) fn plural(self) -> &'static str {
+        match self {
+            YearPart::Month => "months",
+            YearPart::Quarter => "quarters",
+            YearPart::Week => "weeks",
+        }
+    }
+
+    /// The period of part `number` (1 to its count) of `year`.
+    pub(crate) fn period(self, year: i32, number: u32) -> Period {
+        match self {
+            YearPart::Month => Period::month(year, number),
+            YearPart::Quarter => Period::quarter(year, number),
+            YearPart::Week => Period::iso_week(year, number),
+        }
+    }
+
+    /// The frequency of its periods.
+    pub(crate) fn frequency(self) -> Frequency {
+        match self {
+            YearPart::Month => Frequency::Monthly,
+            YearPart::Quarter => Frequency::Quarterly,
+            YearPart::Week => Frequency::Weekly,
         }
     }
 

@@ -22,51 +22,12 @@
 
 use std::collections::{HashMap, HashSet};
 
+use super::joined::YearPart;
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
 use super::words::{month_in_other_languages, numbered_part, NumberedPart, YEAR_WORDS};
 use super::RowError;
-use crate::calendar::{Frequency, Period};
-
-/// What the columns across the header count within a year.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub(crate) enum Across {
-    Months,
-    Quarters,
-}
-
-impl Across {
-    fn max(self) -> u32 {
-        match self {
-            Across::Months => 12,
-            Across::Quarters => 4,
-        }
-    }
-
-    /// The period of part `number` (1 to 12, or 1 to 4) of `year`.
-    pub(crate) fn period(self, year: i32, number: u32) -> Period {
-        match self {
-            Across::Months => Period::month(year, number),
-            Across::Quarters => Period::quarter(year, number),
-        }
-    }
-
-    pub(crate) fn frequency(self) -> Frequency {
-        match self {
-            Across::Months => Frequency::Monthly,
-            Across::Quarters => Frequency::Quarterly,
-        }
-    }
-
-    /// The parts in words, plural.
-    pub(crate) fn words(self) -> &'static str {
-        match self {
-            Across::Months => "months",
-            Across::Quarters => "quarters",
-        }
-    }
-}
 
 /// Header words of a row total beside the months: not a part of the year.
 const TOTAL_WORDS: [&str; 6] = ["total", "totals", "sum", "ytd", "annual", "full"];
@@ -82,7 +43,7 @@ const FIGURES_BESIDE_THE_YEAR: [&str; 9] = [
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub(crate) struct YearGrid {
     year: usize,
-    across: Across,
+    across: YearPart,
     /// Each part column with its number within the year, in header order (calendar order).
     parts: Vec<(usize, u32)>,
     /// The columns naming the items: text columns and number columns of codes ("SKU") left of
@@ -176,7 +137,7 @@ impl YearGrid {
         self.year
     }
 
-    pub(crate) fn across(&self) -> Across {
+    pub(crate) fn across(&self) -> YearPart {
         self.across
     }
 
@@ -205,7 +166,7 @@ impl YearGrid {
 /// in calendar order, with their numbers; `None` when the header holds no such run. With
 /// months missing from the header, every year of every item would have gaps to fill. Empty
 /// ones count: a sheet of this year alone has its months still to come empty.
-fn whole_year(table: &Table, columns: &Columns) -> Option<(Across, Vec<(usize, u32)>)> {
+fn whole_year(table: &Table, columns: &Columns) -> Option<(YearPart, Vec<(usize, u32)>)> {
     let header = table.header.as_ref()?;
     let mut candidates: Vec<usize> = columns
         .numeric
@@ -214,7 +175,7 @@ fn whole_year(table: &Table, columns: &Columns) -> Option<(Across, Vec<(usize, u
         .copied()
         .collect();
     candidates.sort_unstable();
-    let parts: Vec<(usize, Across, u32)> = candidates
+    let parts: Vec<(usize, YearPart, u32)> = candidates
         .iter()
         .filter_map(|&j| {
             let cell = header.cells.get(j)?;
@@ -222,7 +183,7 @@ fn whole_year(table: &Table, columns: &Columns) -> Option<(Across, Vec<(usize, u
         })
         .collect();
     let across = parts.first()?.1;
-    let whole = parts.iter().map(|p| p.2).eq(1..=across.max());
+    let whole = parts.iter().map(|p| p.2).eq(1..=across.count());
     (whole && parts.iter().all(|p| p.1 == across))
         .then(|| (across, parts.into_iter().map(|(j, _, n)| (j, n)).collect()))
 }
@@ -267,9 +228,10 @@ pub(crate) fn without_a_year(
     if !periods.is_empty() && years_unnamed.is_none() {
         return None;
     }
+    // Weeks across are never a year grid ([`part_of_year`] names months and quarters).
     let layout = match across {
-        Across::Months => "Item,Year,Jan,Feb,...,Dec",
-        Across::Quarters => "Item,Year,Q1,Q2,Q3,Q4",
+        YearPart::Quarter => "Item,Year,Q1,Q2,Q3,Q4",
+        _ => "Item,Year,Jan,Feb,...,Dec",
     };
     let name = table.column_name(first);
     // At the column the error is about: the one holding years, else the first month.
@@ -280,15 +242,15 @@ pub(crate) fn without_a_year(
              holds years, but its header does not say they are calendar years; if they are, \
              name it \"Year\" ({layout}); a fiscal year's months cannot be placed (write \
              calendar months or dates)",
-            across.words(),
+            across.plural(),
             table.column_name(j)
         ),
         None => format!(
             "expected the year of the {} across the header; none is written: add a column \
              \"Year\" with each row's year, left of the {} ({layout}), or write the year in \
              each header (such as {name} 2024)",
-            across.words(),
-            across.words()
+            across.plural(),
+            across.plural()
         ),
     };
     let column = table.column_name(at);
@@ -367,17 +329,17 @@ fn names_a_part(header: &str) -> bool {
 /// The month or quarter one header cell names, with its number: a month's name or
 /// abbreviation ("Jan", "Jan.", "Sept", "January"), "M01", "Month 1", "Mth 1"; "Q1", "Qtr 1",
 /// "Quarter 1", "1st Qtr". `None` for anything else.
-fn part_of_year(cell: &str) -> Option<(Across, u32)> {
+fn part_of_year(cell: &str) -> Option<(YearPart, u32)> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
     // English names, or (a year column beside all twelve in order makes them months) the
     // other languages' ("Januar", "févr.": a review found a German grid read as a long table
     // of January's figures).
     if let Some(month) = month_name(&lower).or_else(|| month_in_other_languages(&lower)) {
-        return Some((Across::Months, month));
+        return Some((YearPart::Month, month));
     }
     match numbered_part(&lower)? {
-        (NumberedPart::Month, n) => Some((Across::Months, n)),
-        (NumberedPart::Quarter, n) => Some((Across::Quarters, n)),
+        (NumberedPart::Month, n) => Some((YearPart::Month, n)),
+        (NumberedPart::Quarter, n) => Some((YearPart::Quarter, n)),
         _ => None,
     }
 }
@@ -387,13 +349,13 @@ mod tests {
     use super::*;
 
     /// A header cell -> the part it names.
-    fn check(cell: &str, expected: Option<(Across, u32)>) {
+    fn check(cell: &str, expected: Option<(YearPart, u32)>) {
         assert_eq!(part_of_year(cell), expected, "{cell:?}");
     }
 
     #[test]
     fn header_cells_name_months_and_quarters() {
-        use Across::{Months, Quarters};
+        use YearPart::{Month as Months, Quarter as Quarters};
         check("Jan", Some((Months, 1)));
         check("Sept.", Some((Months, 9)));
         check("December", Some((Months, 12)));

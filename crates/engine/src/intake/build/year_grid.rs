@@ -71,9 +71,9 @@ impl<'a> Builder<'a> {
         let example = across.period(2024, 1);
         self.out.date_format = Some(format!(
             "{} (e.g. {example}), from the year in column \"{}\" and the {} across the header",
-            across.words(),
+            across.plural(),
             self.table.column_name(year_column),
-            across.words()
+            across.plural()
         ));
         let item_columns = self.plan.item_columns.clone();
         let year_cell = |row: &'a Record| row.cells.get(year_column).map_or("", String::as_str);
@@ -105,7 +105,7 @@ impl<'a> Builder<'a> {
                     format!(
                         "expected a year of four digits from 1969 to 2068 (such as 2024): the \
                          {} across the header are of this row's year",
-                        across.words()
+                        across.plural()
                     ),
                 );
                 continue;
