@@ -893,6 +893,113 @@ fn what_the_second_review_of_the_year_parts_found() {
     );
 }
 
+// What a fourth review found (helper-55, 363 more made-up files, English tables first),
+// each failing before its mend: "Q" passed over as the quantity for any other number column
+// ("Temp"); grades, sizes and model numbers under "Q", "M", "MM", "Mo" beside yearly rows
+// refused as a year's parts (now only where some item's year holds all of them); "YoY" left
+// of a year grid's months (its capitals split the word); one weekday's column read as each
+// week's demand beside a year and its week or beside week dates; English two-letter
+// weekdays under "Day" planned as items; "Target", "Plan", "Forecast" read as the demand
+// beside "Actual" or planned as items in a wide table; "MM" read as the quantity beside
+// "Kilos".
+#[test]
+fn what_the_fourth_review_found() {
+    check(
+        "Date,Item,Q,Temp\n2024-03-04,Trowel,9,25\n2024-03-05,Trowel,7,21\n2024-03-06,Trowel,8,22\n",
+        Expect {
+            items: Some(vec![("Trowel", some(&[9.0, 7.0, 8.0]))]),
+            ..Expect::default()
+        },
+    );
+    let mut grades = "Item,Year,Q,Qty\n".to_string();
+    for year in [2021, 2022] {
+        for grade in 1..=3 {
+            grades.push_str(&format!("Trowel,{year},{grade},{}\n", grade * 10));
+        }
+    }
+    check(
+        &grades,
+        Expect {
+            items: Some(vec![("Trowel", some(&[60.0, 60.0]))]),
+            frequency: Some(Frequency::Yearly),
+            ..Expect::default()
+        },
+    );
+    let mut weeks = "Item,Year,W,Qty\n".to_string();
+    for week in 1..=30 {
+        weeks.push_str(&format!("Trowel,2024,{week},{}\n", week + 3));
+    }
+    check(
+        &weeks,
+        Expect {
+            errors: vec![(2, "W", "1")],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Item,Year,YoY,Jan,Feb,Mar,Apr,May,Jun,Jul,Aug,Sep,Oct,Nov,Dec\n\
+         Trowel,2023,5,1,2,3,4,5,6,7,8,9,10,11,12\n",
+        Expect {
+            layout: Some(Layout::Across),
+            warned: vec![vec!["\"YoY\"", "was not used"]],
+            ..Expect::default()
+        },
+    );
+    for text in [
+        "Item,Year,Week,Mon,Tue,Wed,Thu,Fri,Sat,Sun\nTrowel,2024,1,3,9,9,9,5,8,2\nTrowel,2024,2,4,2,9,3,7,2,7\n",
+        "Item,Week,Mon,Tue,Wed,Thu,Fri,Sat,Sun\nTrowel,2024-01-01,3,9,9,9,5,8,2\nTrowel,2024-01-08,4,2,9,3,7,2,7\n",
+    ] {
+        check(
+            text,
+            Expect {
+                errors: vec![(1, "Mon", "Mon")],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Date,Day,Sales\n2024-03-04,Mo,5\n2024-03-05,Tu,6\n2024-03-06,We,7\n2024-03-07,Th,8\n",
+        Expect {
+            items: Some(vec![("Sales", some(&[5.0, 6.0, 7.0, 8.0]))]),
+            warned: vec![vec!["\"Day\"", "calendar details"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Date,Item,Target,Actual\n2024-03-04,Trowel,10,9\n2024-03-05,Trowel,10,7\n2024-03-06,Trowel,10,8\n",
+        Expect {
+            items: Some(vec![("Trowel", some(&[9.0, 7.0, 8.0]))]),
+            ..Expect::default()
+        },
+    );
+    check(
+        "Month,Trowel,Rake,Plan\n2024-01,5,6,12\n2024-02,7,8,14\n2024-03,6,7,13\n",
+        Expect {
+            items: Some(vec![
+                ("Trowel", some(&[5.0, 7.0, 6.0])),
+                ("Rake", some(&[6.0, 8.0, 7.0])),
+            ]),
+            warned: vec![vec!["\"Plan\"", "a plan", "not used"]],
+            ..Expect::default()
+        },
+    );
+    check(
+        "Item,YYYY,MM,Kilos\nPala,2023,11,5\nPala,2023,12,6\nPala,2024,1,7\nPala,2024,2,8\n",
+        Expect {
+            warned: vec![vec!["\"MM\" was not used", "\"Kilos\""]],
+            ..Expect::default()
+        },
+    );
+    // Two-letter states as a wide table's items stay items.
+    check(
+        "Year,MA,MI,MO,NY\n2021,10,20,30,1\n2022,11,21,31,2\n",
+        Expect {
+            layout: Some(Layout::Wide),
+            ..Expect::default()
+        },
+    );
+}
+
 // Without the header's words nothing is joined: a period named otherwise stays as before.
 #[test]
 fn a_year_beside_other_numbers_is_not_joined() {

@@ -806,7 +806,7 @@ fn rates_shares_and_units_per_case_are_not_the_demand() {
                 ("Slug pellets", some(&[53.0, 50.0, 58.0])),
                 ("Fleece", some(&[140.0, 130.0, 150.0])),
             ]),
-            warned: vec![vec!["\"Sell-through rate\"", "a rate, a share or a rank", "not used"]],
+            warned: vec![vec!["\"Sell-through rate\"", "a rate, a share, a rank or a plan", "not used"]],
             ..Expect::default()
         },
     );

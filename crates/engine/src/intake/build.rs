@@ -451,7 +451,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
                 format!("the money of the item in column \"{other}\", not a quantity")
             }
             None if names_no_demand(&name) => "a stock level, goods received or returned, a \
-                 running total, a rate, a share or a rank, not the demand"
+                 running total, a rate, a share, a rank or a plan, not the demand"
                 .to_string(),
             None => "a price, an amount of money or an order number, not a quantity".to_string(),
         };

@@ -81,6 +81,31 @@ impl YearPart {
         }
     }
 
+    /// How many different ones a year's data must hold for a column under a short form ("Q",
+    /// "M", "W") to be taken for this part: all the months or quarters (grades "Q1" to "Q3",
+    /// sizes 1 to 8 or model numbers under such headers are as common: a review found them
+    /// read or refused as quarters and months), and more than half the weeks (nothing else
+    /// under "W" runs to 27).
+    pub(crate) fn whole_year(self) -> usize {
+        match self {
+            YearPart::Week => 27,
+            _ => self.count() as usize,
+        }
+    }
+
+    /// Whether a cell is one of this part by number or name: 1 to its count, or (months) a
+    /// month's name in English or another language.
+    pub(crate) fn holds(self, cell: &str) -> bool {
+        let cell = cell.trim().trim_end_matches('.');
+        let named_month = month_name(cell).is_some() || month_in_other_languages(cell).is_some();
+        (self == YearPart::Month && named_month)
+            || (whole_number(cell)
+                && cell.len() <= 2
+                && cell
+                    .parse::<u32>()
+                    .is_ok_and(|n| (1..=self.count()).contains(&n)))
+    }
+
     /// Its name, plural, in the report's words ("months").
     pub(crate) fn plural(self) -> &'static str {
         match self {
@@ -136,12 +161,23 @@ impl YearPart {
     }
 }
 
-/// Whether a header is a short form of a part of the year ("Mon", "Q", "W";
-/// [`YearPart::short_forms`]).
-pub(crate) fn names_a_short_form(name: &str) -> bool {
-    YearPart::ALL
-        .iter()
-        .any(|part| header_is_only(name, part.short_forms()))
+/// Whether column `j` is headed by a short form of a part of the year of two letters or more
+/// ("MM", "Mon", "Wk") and every filled cell is one of that part: a column of months or
+/// weeks, never the quantity (a review found "MM" read as the quantity beside "Kilos"). A
+/// single letter ("M", "Q", "W") is as often the quantity, over small counts too (a review
+/// found "Temp" read beside them when they were passed over).
+pub(crate) fn short_form_of_parts(table: &Table, rows: &[&Record], j: usize) -> bool {
+    let name = table.column_name(j);
+    if name.trim().chars().count() < 2 {
+        return false;
+    }
+    YearPart::ALL.into_iter().any(|part| {
+        header_is_only(&name, part.short_forms()) && {
+            let cells = table.column(j, rows);
+            let mut filled = cells.iter().filter(|c| !c.trim().is_empty()).peekable();
+            filled.peek().is_some() && filled.all(|c| part.holds(c))
+        }
+    })
 }
 
 /// Words that make a year a fiscal one.
@@ -229,7 +265,7 @@ impl SplitPeriod {
         // A short form ("Mon", "M", "Q", "W") over parts written out, not numbers, which
         // under it could count anything: month names ("Jan.": a review found them under "Mon"
         // beside a year made an item of each month), or codes ("Q1", "W05") of which some
-        // year holds most of its parts ("W1", "W2" width classes and "Q1", "Q2" grades had
+        // year holds all its parts ("W1", "W2" width classes and "Q1" to "Q3" grades had
         // been read as weeks and quarters, the others filled as closed).
         let short_named = |j: usize, how: YearPart| {
             if !named(j, how.short_forms()) {
@@ -259,7 +295,7 @@ impl SplitPeriod {
                     .iter()
                     .filter(|c| c.chars().any(char::is_alphabetic))
                     .count(),
-            ) && fullest * 2 > how.count() as usize
+            ) && fullest >= how.whole_year()
         };
         // A header that is itself one numbered part ("Qtr 1", "Q1", "M01", "Week 1") heads
         // that part's values in a grid with the calendar across, never the column of parts:

@@ -336,7 +336,10 @@ pub(super) fn calendar_grid(
     // years (a review found Monday's column read as each year's demand, the others unread).
     let fits = |part: &GridPart| match part {
         GridPart::Year(_) => years,
-        GridPart::Week => weeks || years,
+        // Beside a year and its week or month, or dates of weeks, too (`Item,Year,Week,Mon,
+        // ...,Sun`, `Item,Week,Mon,...`): a review found one weekday's column read as each
+        // week's demand.
+        GridPart::Week => weeks || years || split || days,
         GridPart::Day => days,
     };
     let named: Vec<usize> = parts
@@ -400,7 +403,9 @@ enum GridPart {
 /// "P13" and "Period 1" (accounting periods), "H1", "H2", "Half 1". `None` for anything else.
 fn grid_header(cell: &str) -> Option<GridPart> {
     let lower = cell.trim().trim_end_matches('.').to_lowercase();
-    // Weekdays as grids shorten them too ("Mo", "Tu").
+    // Weekdays as grids shorten them too ("Mo", "Tu"), in English only: other languages'
+    // two letters are as often states or names in a wide table's header ("MA", "MI", "Sam",
+    // "Dom"; a review found them refused as weekday grids).
     let two_letters = matches!(
         lower.as_str(),
         "mo" | "tu" | "we" | "th" | "fr" | "sa" | "su"
@@ -420,10 +425,11 @@ fn grid_header(cell: &str) -> Option<GridPart> {
         .then_some(GridPart::Year(None))
 }
 
-/// Header words that name a stock level, goods coming in or going back, a share or a rank:
-/// figures beside the sales, never the demand itself ("Stock on hand", "Units in stock",
-/// "Closing bal.", "Qty available", "Received", "Return qty", "Share", "Rank").
-const STOCK_WORDS: [&str; 26] = [
+/// Header words that name a stock level, goods coming in or going back, a share, a rank or a
+/// plan: figures beside the sales, never the demand itself ("Stock on hand", "Units in
+/// stock", "Closing bal.", "Qty available", "Received", "Return qty", "Share", "Rank",
+/// "Target", "Forecast"; a review found "Target" read beside "Actual").
+const STOCK_WORDS: [&str; 32] = [
     "stock",
     "inventory",
     "inv",
@@ -450,6 +456,12 @@ const STOCK_WORDS: [&str; 26] = [
     "pct",
     "rank",
     "ranking",
+    "plan",
+    "planned",
+    "target",
+    "forecast",
+    "fcst",
+    "budget",
 ];
 
 /// Words that stand beside a [`STOCK_WORDS`] word in a header that names such a figure and

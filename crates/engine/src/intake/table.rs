@@ -75,7 +75,7 @@
 //! `year,quarter,sales`; [`SplitPeriod`]), found before any other rule so that month names
 //! are not taken for items.
 
-use super::joined::{names_a_short_form, SplitPeriod};
+use super::joined::{short_form_of_parts, SplitPeriod};
 use super::label::{calendar_name, Family};
 use super::number::{holds_currency_sign, is_missing, looks_number};
 use super::period::{
@@ -86,7 +86,7 @@ use super::shapes::{
     calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
 };
 use super::text::{mode_of, Record};
-use super::words::{weekday_shortened_in_other_languages, WEEKDAY_WORDS, WEEK_WORDS, YEAR_WORDS};
+use super::words::{weekday_shortened, WEEKDAY_WORDS, WEEK_WORDS, YEAR_WORDS};
 use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
 
@@ -833,7 +833,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         });
     }
     let layout = if long {
-        let quantity = quantity_among(table, &values);
+        let quantity = quantity_among(table, &rows, &values);
         values.swap(0, quantity);
         ignored.extend(values.drain(1..));
         Layout::Long
@@ -1013,9 +1013,9 @@ pub(super) const PERIOD_WORDS: [&str; 44] = [
     "periodo",
 ];
 /// With (from memory) the German, French, Dutch, Spanish and Italian words for sales.
-pub(super) const QUANTITY_WORDS: [&str; 16] = [
+pub(super) const QUANTITY_WORDS: [&str; 18] = [
     "sales", "units", "qty", "quantity", "demand", "value", "amount", "volume", "sold", "orders",
-    "absatz", "verkauf", "ventes", "verkoop", "ventas", "vendite",
+    "absatz", "verkauf", "ventes", "verkoop", "ventas", "vendite", "actual", "actuals",
 ];
 /// Whether a cell is a whole number written with digits only.
 pub(super) fn whole_number(cell: &str) -> bool {
@@ -1080,9 +1080,7 @@ fn calendar_columns(
                 table.header.is_some() && header_says(&table.column_name(j), &WEEKDAY_WORDS);
             let named = cells
                 .iter()
-                .filter(|c| {
-                    calendar_name(c) || (weekday_header && weekday_shortened_in_other_languages(c))
-                })
+                .filter(|c| calendar_name(c) || (weekday_header && weekday_shortened(c)))
                 .count();
             !cells.is_empty() && named * 2 > cells.len()
         })
@@ -1319,7 +1317,9 @@ fn named_items(table: &Table, numeric: &[usize]) -> Vec<usize> {
 /// Header words that name a count of goods: the surest names of a quantity.
 /// With (from memory) the German, French, Dutch, Spanish and Italian ones: a review found
 /// "Menge" passed over for a month column beside it.
-const UNIT_WORDS: [&str; 28] = [
+const UNIT_WORDS: [&str; 30] = [
+    "kilos",
+    "kg",
     "qty",
     "quantity",
     "units",
@@ -1531,13 +1531,13 @@ pub(super) fn names_order_number(name: &str) -> bool {
 /// first whose header names a count of goods ([`UNIT_WORDS`]: "Qty", "Pcs", "Count"), else
 /// one named a quantity ([`QUANTITY_WORDS`]: "sales"), neither naming money or a size
 /// ([`MONEY_WORDS`], a currency sign) nor a stock level or running total ([`names_no_demand`]:
-/// "Units in stock"); else the first whose header names no item, period, short form of a
-/// year's part ("Mon", "Q"), other thing, money or stock; else the first short form that
-/// names no money ("Q" beside "Price"; a column of a year's parts among them is refused later,
-/// `build/parts_in_years.rs`); else the first (`date,item,store,sales` reads "sales", not the
-/// store numbers; `Date,Item,Unit price,Count` reads "Count"; the rest are reported as not
-/// used).
-fn quantity_among(table: &Table, values: &[usize]) -> usize {
+/// "Units in stock"); else the first whose header names no item, period, other thing, money or
+/// stock, nor a short form over a year's parts only ([`short_form_of_parts`]: "MM" over 1 to
+/// 12; "Q" or "M" is read: a review found "Temp" read beside them once every short form was
+/// passed over); else the first
+/// (`date,item,store,sales` reads "sales", not the store numbers; `Date,Item,Unit price,Count`
+/// reads "Count"; the rest are reported as not used).
+fn quantity_among(table: &Table, rows: &[&Record], values: &[usize]) -> usize {
     let says = |j: usize, words: &[&str]| header_says(&table.column_name(j), words);
     if table.header.is_none() {
         return 0;
@@ -1578,17 +1578,10 @@ fn quantity_among(table: &Table, values: &[usize]) -> usize {
             values.iter().position(|j| {
                 !says(*j, &ITEM_WORDS)
                     && !says(*j, &PERIOD_WORDS)
-                    && !names_a_short_form(&table.column_name(*j))
                     && !says(*j, &OTHER_WORDS)
                     && !not_demand(*j)
+                    && !short_form_of_parts(table, rows, *j)
             })
-        })
-        // A short form ("Q") before money or a stock level: a review found "Price" read as
-        // the demand beside "Q" once short forms were passed over above.
-        .or_else(|| {
-            values
-                .iter()
-                .position(|j| names_a_short_form(&table.column_name(*j)) && !not_demand(*j))
         })
         .unwrap_or(0)
 }

@@ -182,15 +182,16 @@ pub(super) fn weekday_in_other_languages(word: &str) -> bool {
     WEEKDAYS.contains(&word.as_str())
 }
 
-/// Whether a word is a weekday shortened in one of those languages ("Mo", "Di", "lun.",
-/// "mié", "zo"): read so only under a header naming the weekday ([`WEEKDAY_WORDS`]), since
-/// alone two letters are as often a country or a state ("FR", "MA"; a review found them
-/// taken for weekdays). A review found "Mo / Kelle", "Di / Kelle" planned as items before.
-pub(super) fn weekday_shortened_in_other_languages(word: &str) -> bool {
-    const SHORT: [&str; 33] = [
-        "mo", "di", "mi", "do", "fr", "sa", "so", "lun", "mar", "mer", "jeu", "ven", "sam", "dim",
-        "ma", "wo", "vr", "za", "zo", "mié", "mie", "jue", "vie", "sáb", "sab", "dom", "gio", "lu",
-        "me", "je", "ve", "ju", "sá",
+/// Whether a word is a weekday shortened to two or three letters in English or one of those
+/// languages ("Mo", "Tu", "Di", "lun.", "mié", "zo"): read so only under a header naming the
+/// weekday ([`WEEKDAY_WORDS`]), since alone two letters are as often a country or a state
+/// ("FR", "MA"; a review found them taken for weekdays). Reviews found "Mo / Kelle", "Di /
+/// Kelle" and "Mo", "Tu" ... planned as items before.
+pub(super) fn weekday_shortened(word: &str) -> bool {
+    const SHORT: [&str; 37] = [
+        "tu", "we", "th", "su", "mo", "di", "mi", "do", "fr", "sa", "so", "lun", "mar", "mer",
+        "jeu", "ven", "sam", "dim", "ma", "wo", "vr", "za", "zo", "mié", "mie", "jue", "vie",
+        "sáb", "sab", "dom", "gio", "lu", "me", "je", "ve", "ju", "sá",
     ];
     let word = word.trim().trim_end_matches('.').to_lowercase();
     SHORT.contains(&word.as_str()) || weekday_in_other_languages(&word)
@@ -212,9 +213,9 @@ pub(super) const WEEKDAY_WORDS: [&str; 10] = [
 ];
 
 /// Short forms a header may name a month, quarter or week by ("Mon", "Mnth", "MM"; "Q",
-/// "Trim"; "W"): joined with a year only over parts written out ("Jan.", "Q1"), never over
-/// numbers, which under them beside plain years are refused (`build/parts_in_years.rs`);
-/// passed over as the quantity unless nothing but money is left.
+/// "Trim"; "W"): joined with a year only over parts written out ("Jan.", or codes "Q1" of
+/// which some year holds all), never over numbers, which under them beside plain years are
+/// refused where some item's year holds all the year's parts (`build/parts_in_years.rs`).
 pub(super) const MONTH_SHORT_FORMS: [&str; 8] =
     ["mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd"];
 pub(super) const QUARTER_SHORT_FORMS: [&str; 5] = ["q", "qr", "qtrs", "trim", "quart"];

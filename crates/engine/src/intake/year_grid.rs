@@ -98,9 +98,11 @@ impl YearGrid {
         for j in others.into_iter().filter(|j| *j != year) {
             let name = table.column_name(j);
             // A total, or last year's figures ("Last year", "Prior year") beside the year.
+            // Whole words of the header in lower case too: "YoY" splits at its capitals.
+            let lower = name.to_lowercase();
             let figures_of_a_year = j < first_part
                 && ((header_says(&name, &YEAR_WORDS) && !header_is_only(&name, &YEAR_WORDS))
-                    || header_says(&name, &FIGURES_BESIDE_THE_YEAR));
+                    || header_says(&lower, &FIGURES_BESIDE_THE_YEAR));
             if numeric.contains(&j) && (header_says(&name, &TOTAL_WORDS) || figures_of_a_year) {
                 ignored.push(j);
             } else if j > last_part && names_a_part(&name) {

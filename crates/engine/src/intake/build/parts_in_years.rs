@@ -9,7 +9,8 @@
 //! The header decides which part a column may be, never its numbers alone: store, line or
 //! pack numbers of 1 to 12 beside yearly rows are read as before (a review found a rule by
 //! the cells alone refusing 38 ordinary yearly tables); under a short form, some item's year
-//! must hold most of the year's parts (widths under "W", grades under "Q" are none). The
+//! must hold all the year's parts ([`YearPart::whole_year`]; widths under "W", grades under
+//! "Q" are none). The
 //! column read as the quantity is looked at too (`Item,Year,Mon,Revenue`: "Mon" had been
 //! the quantity, money passed over).
 //!
@@ -22,23 +23,10 @@ use std::collections::{HashMap, HashSet};
 use super::long::item_key;
 use crate::calendar::{Frequency, Period};
 use crate::intake::joined::YearPart;
-use crate::intake::label::month_name;
-use crate::intake::table::{header_is_only, whole_number, Plan, Table};
+use crate::intake::table::{header_is_only, Plan, Table};
 use crate::intake::text::Record;
-use crate::intake::words::{month_in_other_languages, YEAR_WORDS};
+use crate::intake::words::YEAR_WORDS;
 use crate::intake::RowError;
-
-/// Whether a cell is one of `part`: 1 to its count, or (months) a month's name.
-fn holds(part: YearPart, cell: &str) -> bool {
-    let cell = cell.trim_end_matches('.');
-    let named_month = month_name(cell).is_some() || month_in_other_languages(cell).is_some();
-    (part == YearPart::Month && named_month)
-        || (whole_number(cell)
-            && cell.len() <= 2
-            && cell
-                .parse::<u32>()
-                .is_ok_and(|n| (1..=part.count()).contains(&n)))
-}
 
 /// The error for the first column not read as a period (calendar details, a long table's
 /// extra column, or the column read as the quantity) whose header names a part of the year
@@ -81,7 +69,7 @@ pub(super) fn parts_summed_into_years(
             .map(|c| c.trim())
             .filter(|c| !c.is_empty())
             .collect();
-        let parts = filled.iter().filter(|c| holds(part, c)).count();
+        let parts = filled.iter().filter(|c| part.holds(c)).count();
         if filled.is_empty() || parts * 4 < filled.len() * 3 {
             return None;
         }
@@ -102,21 +90,21 @@ pub(super) fn parts_summed_into_years(
         if several.is_empty() || apart * 2 < several.len() {
             return None;
         }
-        // Under a short form, most of a year's parts on some item's rows: "W" widths of 30, 45
-        // and 50, "M" lengths or "Q" grades are no weeks, months or quarters (a review found
-        // them refused).
+        // Under a short form, all of a year's parts on some item's rows: "W" widths of 30, 45
+        // and 50, "M" lengths, "Q" grades or "Mo" model numbers are no weeks, months or
+        // quarters (reviews found them refused).
         let fullest = several
             .iter()
             .map(|g| g.iter().collect::<HashSet<_>>().len())
             .max()
             .unwrap_or(0);
-        if !named && fullest * 2 <= part.count() as usize {
+        if !named && fullest < part.whole_year() {
             return None;
         }
         let (row, text) = rows
             .iter()
             .zip(&cells)
-            .find(|(_, c)| holds(part, c.trim()))
+            .find(|(_, c)| part.holds(c.trim()))
             .map(|(row, c)| (row.line, c.trim().to_string()))?;
         let year_name = table.column_name(year);
         let (part_name, lower) = (part.name(), part.name().to_lowercase());
