@@ -14,3 +14,4 @@ mod unnamed;
 mod workbooks;
 mod working_days;
 mod year_grid;
+mod year_parts;
