@@ -621,6 +621,27 @@ fn what_the_fourth_review_found() {
             ..Expect::default()
         },
     );
+    // A stock level, a plan or a rank alone is no demand: refused at its header (the stock
+    // on hand of `Date,Item,On hand` had been planned as sales without a word).
+    for (text, column) in [
+        (
+            "Date,Item,On hand\n2024-03-04,Trowel,40\n2024-03-05,Trowel,38\n",
+            "On hand",
+        ),
+        (
+            "Month,Item,Plan\n2024-01,Trowel,40\n2024-02,Trowel,38\n",
+            "Plan",
+        ),
+        ("Month,Rank\n2024-01,1\n2024-02,2\n", "Rank"),
+    ] {
+        check(
+            text,
+            Expect {
+                errors: vec![(1, column, column)],
+                ..Expect::default()
+            },
+        );
+    }
     // Two-letter states as a wide table's items stay items.
     check(
         "Year,MA,MI,MO,NY\n2021,10,20,30,1\n2022,11,21,31,2\n",

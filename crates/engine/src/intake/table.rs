@@ -832,6 +832,28 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
             },
         });
     }
+    // A stock level, a plan or a rank is never the demand, even as the only number column:
+    // read so, `Date,Item,On hand` had planned the stock on hand as sales, without a word (a
+    // review).
+    if let (Some(header), Some(&first)) = (&table.header, values.first()) {
+        if values
+            .iter()
+            .all(|j| names_no_demand(&table.column_name(*j)))
+        {
+            let name = table.column_name(first);
+            return Err(RowError {
+                row: header.line,
+                column: name.clone(),
+                text: name.clone(),
+                message: format!(
+                    "expected a column of the quantities sold; \"{name}\" names a stock level, \
+                     goods received or returned, a running total, a rate, a share, a rank or a \
+                     plan, not the demand: add the quantities sold (such as a column \"Qty\"), \
+                     or rename the column if it holds them"
+                ),
+            });
+        }
+    }
     let layout = if long {
         let quantity = quantity_among(table, &rows, &values);
         values.swap(0, quantity);
