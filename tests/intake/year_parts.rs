@@ -642,6 +642,21 @@ fn what_the_fourth_review_found() {
             },
         );
     }
+    // Money alone is read as the quantities (one number column always stays) but said;
+    // "value" is not (it names quantities as often).
+    check(
+        "Date,Item,Revenue\n2024-03-04,Trowel,40\n2024-03-05,Trowel,38\n",
+        Expect {
+            items: Some(vec![("Trowel", some(&[40.0, 38.0]))]),
+            warned: vec![vec!["\"Revenue\"", "names money"]],
+            ..Expect::default()
+        },
+    );
+    let value = read("series,t,value\nA,1,5\nA,2,6\n");
+    assert!(
+        value.warnings.iter().all(|w| !w.contains("names money")),
+        "{value:#?}"
+    );
     // Two-letter states as a wide table's items stay items.
     check(
         "Year,MA,MI,MO,NY\n2021,10,20,30,1\n2022,11,21,31,2\n",

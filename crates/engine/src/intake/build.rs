@@ -29,7 +29,9 @@ use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::{names_no_demand, SaleDetail};
-use super::table::{header_says, names_weeks, wide_row_error, OfAnother, Plan, Table};
+use super::table::{
+    header_is_only, header_says, names_money, names_weeks, wide_row_error, OfAnother, Plan, Table,
+};
 use super::text::Record;
 use super::words::MONTH_WORDS;
 
@@ -438,6 +440,21 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             table.column_name(*j),
             first_values(table, &rows, *j)
         ));
+    }
+    // Money as the quantities: one number column always stays (a price list planned is
+    // still the user's call), but never without a word ("Value" and "Amount" name
+    // quantities as often, `series,t,value`, and are not said).
+    if let (Some(&q), Layout::Long | Layout::Single, true) =
+        (plan.values.first(), plan.layout, table.header.is_some())
+    {
+        let name = table.column_name(q);
+        if names_money(&name) && !header_is_only(&name, &["value", "values", "amount"]) {
+            b.out.warnings.push(format!(
+                "the quantities were read from column \"{name}\", whose header names money: if \
+                 it holds money rather than the quantities sold, the forecasts and stock figures \
+                 are in money (add a column of the quantities sold)"
+            ));
+        }
     }
     for &j in &plan.not_quantities {
         let name = table.column_name(j);
