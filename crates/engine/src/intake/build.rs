@@ -28,7 +28,7 @@ use std::collections::{HashMap, HashSet};
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
-use super::shapes::{names_no_demand, SaleDetail};
+use super::shapes::{names_no_demand, SaleDetail, NO_DEMAND};
 use super::table::{
     header_is_only, header_says, names_money, names_weeks, wide_row_error, OfAnother, Plan, Table,
 };
@@ -467,9 +467,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             Some((_, OfAnother::Money, other)) => {
                 format!("the money of the item in column \"{other}\", not a quantity")
             }
-            None if names_no_demand(&name) => "a stock level, goods received or returned, a \
-                 running total, a rate, a share, a rank or a plan, not the demand"
-                .to_string(),
+            None if names_no_demand(&name) => NO_DEMAND.to_string(),
             None => "a price, an amount of money or an order number, not a quantity".to_string(),
         };
         b.out

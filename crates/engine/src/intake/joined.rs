@@ -20,7 +20,7 @@ use super::period::{integer_meaning, IntegerMeaning};
 use super::table::{header_is_only, header_says, whole_number, Table};
 use super::text::Record;
 use super::words::{
-    month_in_other_languages, numbered_part, runs, NumberedPart, DAY_WORDS,
+    month_in_other_languages, month_named, numbered_part, runs, NumberedPart, DAY_WORDS,
     DAY_WORDS_BESIDE_THEIR_YEAR, MONTH_SHORT_FORMS, MONTH_WORDS, QUARTER_SHORT_FORMS,
     QUARTER_WORDS, WEEK_PART_WORDS, WEEK_SHORT_FORMS, YEAR_WORDS,
 };
@@ -97,8 +97,7 @@ impl YearPart {
     /// month's name in English or another language.
     pub(crate) fn holds(self, cell: &str) -> bool {
         let cell = cell.trim().trim_end_matches('.');
-        let named_month = month_name(cell).is_some() || month_in_other_languages(cell).is_some();
-        (self == YearPart::Month && named_month)
+        (self == YearPart::Month && month_named(cell).is_some())
             || (whole_number(cell)
                 && cell.len() <= 2
                 && cell
@@ -178,6 +177,24 @@ pub(crate) fn short_form_of_parts(table: &Table, rows: &[&Record], j: usize) -> 
             filled.peek().is_some() && filled.all(|c| part.holds(c))
         }
     })
+}
+
+/// The different cells of column `part` on each year's rows (the year as written in column
+/// `year`), of the cells `keep` takes, trimmed.
+fn parts_by_year<'r>(
+    rows: &[&'r Record],
+    year: usize,
+    part: usize,
+    keep: impl Fn(&str) -> bool,
+) -> HashMap<&'r str, HashSet<&'r str>> {
+    let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
+    for row in rows {
+        let cell = |k: usize| row.cells.get(k).map_or("", |c| c.trim());
+        if keep(cell(part)) {
+            parts.entry(cell(year)).or_default().insert(cell(part));
+        }
+    }
+    parts
 }
 
 /// Words that make a year a fiscal one.
@@ -272,24 +289,15 @@ impl SplitPeriod {
                 return false;
             }
             let cells = table.column(j, rows);
-            let month_names = cells
-                .iter()
-                .filter(|c| {
-                    let word = c.trim().trim_end_matches('.');
-                    month_name(word).is_some() || month_in_other_languages(word).is_some()
-                })
-                .count();
+            let month_names = cells.iter().filter(|c| month_named(c).is_some()).count();
             if how == YearPart::Month && most(month_names) {
                 return true;
             }
-            let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
-            for row in rows {
-                let cell = |k: usize| row.cells.get(k).map_or("", |c| c.trim());
-                if cell(j).chars().any(char::is_alphabetic) {
-                    parts.entry(cell(year)).or_default().insert(cell(j));
-                }
-            }
-            let fullest = parts.values().map(HashSet::len).max().unwrap_or(0);
+            let fullest = parts_by_year(rows, year, j, |c| c.chars().any(char::is_alphabetic))
+                .values()
+                .map(HashSet::len)
+                .max()
+                .unwrap_or(0);
             most(
                 cells
                     .iter()
@@ -312,13 +320,7 @@ impl SplitPeriod {
         // had been read as its last week or month (a review). One row a year in different
         // months (2022-03, 2023-07) is then read as yearly, each year's total the row's.
         let varies = |k: usize| {
-            let mut parts: HashMap<&str, HashSet<&str>> = HashMap::new();
-            for row in rows {
-                let cell = |c: usize| row.cells.get(c).map_or("", |t| t.trim());
-                if !cell(k).is_empty() {
-                    parts.entry(cell(year)).or_default().insert(cell(k));
-                }
-            }
+            let parts = parts_by_year(rows, year, k, |c| !c.is_empty());
             parts.len() <= 1 || parts.values().any(|p| p.len() >= 2)
         };
         let Some(mut split) = YearPart::ALL.into_iter().find_map(|how| {
@@ -424,10 +426,11 @@ impl SplitPeriod {
     }
 
     /// Where a row's period fails to read because of its part, not its year: the part column,
-    /// its cell and the error to give, when the year is a year and the part cell is no
-    /// number within the part's count and no month name (a month word not known, "Jän.", "fév."; a review found such
-    /// rows refused at the year's column with the joined text). `None` otherwise: the
-    /// period reader's own error, at the year's column, names the joined label.
+    /// its cell and the error to give, when the year is a year and the part cell is no number
+    /// within the part's count (or week 53 of a year of 52) and no month name (a month word
+    /// not known, "Febr"; a review found such rows refused at the year's column with the
+    /// joined text). `None` otherwise: the period reader's own error, at the year's column,
+    /// names the joined label.
     pub(crate) fn part_at_fault<'r>(
         &self,
         table: &Table,
@@ -443,35 +446,32 @@ impl SplitPeriod {
         let number = whole_number(&part)
             .then(|| part.parse::<u32>().ok())
             .flatten();
-        let at_part = |message: String| Some((self.part, cell(self.part), message));
         let year_name = table.column_name(self.year);
-        match number {
-            // A number beyond the part's count ("13", "Q5") is the part's fault too.
-            Some(n) if n == 0 || n > self.how.count() => at_part(format!(
+        let expected = || {
+            format!(
                 "expected {} beside the year in column \"{year_name}\"",
                 self.how.forms()
-            )),
+            )
+        };
+        let message = match number {
+            // A number beyond the part's count ("13", "Q5") is the part's fault too.
+            Some(n) if n == 0 || n > self.how.count() => expected(),
             // Week 53 of a year of 52 ISO weeks.
             Some(n) if self.how == YearPart::Week => {
                 let weeks = year_of(year).map_or(53, iso_weeks_in_year);
-                (n > weeks).then(|| {
-                    (
-                        self.part,
-                        cell(self.part),
-                        format!(
-                            "expected an ISO week of {year} beside the year in column \
-                             \"{year_name}\": {year} has {weeks} ISO weeks"
-                        ),
-                    )
-                })
+                if n <= weeks {
+                    return None;
+                }
+                format!(
+                    "expected an ISO week of {year} beside the year in column \"{year_name}\": \
+                     {year} has {weeks} ISO weeks"
+                )
             }
-            Some(_) => None,
-            None if named_month => None,
-            None => at_part(format!(
-                "expected {} beside the year in column \"{year_name}\"",
-                self.how.forms()
-            )),
-        }
+            Some(_) => return None,
+            None if named_month => return None,
+            None => expected(),
+        };
+        Some((self.part, cell(self.part), message))
     }
 
     /// [`SplitPeriod::label`] of each of `rows`.
@@ -497,8 +497,9 @@ impl SplitPeriod {
 }
 
 /// A part cell as the joined label takes it: a number written after its part's word ("Qtr 1",
-/// "Quarter 2", "Week 1", "Wk 1", "M01", "Month 1"; [`numbered_part`]) becomes the number, and a month cell
-/// holding one month name beside a number or a full stop ("Jan.", "01-Jan") the name. A
+/// "Quarter 2", "Week 1", "Wk 1", "M01", "Month 1"; [`numbered_part`]) becomes the number,
+/// and a month cell holding one month name beside a number or a full stop ("Jan.", "01-Jan")
+/// the name (another language's, "Mär", its number). A
 /// review found each of these beside a year read as yearly items, "Qtr 1" to "Qtr 4",
 /// without a word.
 fn part_text(cell: &str, how: YearPart) -> String {
@@ -527,8 +528,6 @@ fn part_text(cell: &str, how: YearPart) -> String {
 /// Header words of a column counting periods within a year that no calendar holds: halves
 /// and numbered (fiscal) periods; "fiscal" may stand beside them ("Fiscal period").
 const UNPLACED_PARTS: [&str; 5] = ["half", "semester", "period", "periode", "periodo"];
-const UNPLACED_PART_WORDS: [&str; 6] =
-    ["half", "semester", "period", "periode", "periodo", "fiscal"];
 
 /// Header words of a period column that may hold a month or a quarter written out ("Jan",
 /// "Q1" under "Period").
@@ -553,7 +552,7 @@ fn unread_part(table: &Table, rows: &[&Record], year: usize) -> Option<RowError>
             .into_iter()
             .find(|part| header_is_only(&name, part.words()));
         let unplaced = part.is_none()
-            && header_is_only(&name, &UNPLACED_PART_WORDS)
+            && header_is_only(&name, &[&UNPLACED_PARTS[..], &["fiscal"]].concat())
             && header_says(&name, &UNPLACED_PARTS);
         if part.is_none() && !unplaced {
             return None;

@@ -84,8 +84,8 @@
 //!   cell short; parts of what a row is across the header (months, quarters or accounting
 //!   periods over rows of plain years, weekdays over rows of ISO weeks, times over rows of
 //!   dates) are a grid, refused at the header; a column naming a stock level, goods
-//!   on order, received or returned, a running total, a rate, a share, a rank or a plan is no item and no quantity
-//!   ("Qty on hand", "YTD Units", "Mix %"); a text column named as a note ("Comment",
+//!   on order, received or returned, a running total, a rate, a share, a rank or a plan is
+//!   no item and no quantity, and alone it is refused ("Qty on hand", "YTD Units", "Mix %"); a text column named as a note ("Comment",
 //!   "Supplier") beside one row per period, or beside an item column whose items it splits in
 //!   no period, is left out; number columns are read as item codes without a header word
 //!   saying so only where at least half the periods stand on several rows and the rows are not stacked

@@ -23,9 +23,9 @@ use super::RowError;
 
 /// Header words of a text column that notes rows rather than names items ("Comment",
 /// "Supplier", "Promo"): common practice in sales exports; with (from memory) the German,
-/// French, Dutch, Spanish and Italian ones ("Bemerkung": a review found it split items). Only these: a column under any
-/// other name ("Model", "Style") may name items even where each period has one row (a
-/// low-volume product line).
+/// French, Dutch, Spanish and Italian ones ("Bemerkung": a review found it split items). Only
+/// these: a column under any other name ("Model", "Style") may name items even where each
+/// period has one row (a low-volume product line).
 const NOTE_WORDS: [&str; 40] = [
     "comment",
     "comments",
@@ -299,9 +299,9 @@ fn is_code(cell: &str) -> bool {
 /// (`Year,Jan,Feb,...,Dec` over a row per year; `Week,Mon,...,Sun` over ISO week labels): at
 /// least two of the number columns `numeric`, and more than half of them, headed by parts of
 /// what a row is ([`grid_header`]): parts of a year over rows of plain years (no month column
-/// beside, `split`), weekdays over rows of ISO weeks or of years ("2024-W01"; weekly dates or week
-/// numbers are not told from other rows here, so those grids pass as items), times of day
-/// over rows of dates; numbered parts ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
+/// beside, `split`), weekdays over rows of ISO weeks ("2024-W01"), of week dates, of years, or
+/// of a year and its week or month (week numbers alone are not told from other rows here,
+/// so those grids pass as items), times of day over rows of dates; numbered parts ("P1", "M01", "Qtr 1") counting 1, 2, 3, ... across. Read as a table of items, each month
 /// would be an item of its own with a value a year, forecast by the year; so the table is
 /// refused at its first such header cell, as [`super::across`] refuses the same grid turned
 /// round. `None` otherwise: beside monthly rows "W1", "W2" are warehouses and "April", "May"
@@ -332,13 +332,11 @@ pub(super) fn calendar_grid(
             .any(|j| roles[j] == Role::Period(f))
     };
     let (weeks, days) = (family(Family::Week), family(Family::Date));
-    // Weekdays across rows of years too: sales by weekday each year are no history of
-    // years (a review found Monday's column read as each year's demand, the others unread).
     let fits = |part: &GridPart| match part {
         GridPart::Year(_) => years,
-        // Beside a year and its week or month, or dates of weeks, too (`Item,Year,Week,Mon,
-        // ...,Sun`, `Item,Week,Mon,...`): a review found one weekday's column read as each
-        // week's demand.
+        // Weekdays across rows of years, of a year and its week or month, or of week dates
+        // too (`Item,Year,Mon,...,Sun`, `Item,Year,Week,Mon,...`, `Item,Week,Mon,...`):
+        // reviews found one weekday's column read as each period's demand.
         GridPart::Week => weeks || years || split || days,
         GridPart::Day => days,
     };
@@ -498,6 +496,10 @@ const SHARE_OF: [&str; 10] = [
     "sales", "units", "qty", "quantity", "revenue", "turnover", "total", "volume", "value",
     "category",
 ];
+
+/// What a column [`names_no_demand`] names, in the report's words.
+pub(super) const NO_DEMAND: &str = "a stock level, goods received or returned, a running \
+     total, a rate, a share, a rank or a plan, not the demand";
 
 /// Whether a header names a stock level, goods received or returned, a running total or a
 /// share, and nothing else ([`STOCK_WORDS`], [`RUNNING_WORDS`] with their companions, "to

@@ -83,7 +83,7 @@ use super::period::{
     strong_family, IntegerMeaning,
 };
 use super::shapes::{
-    calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail,
+    calendar_grid, codes_recur, names_no_demand, notes_columns, sale_details, SaleDetail, NO_DEMAND,
 };
 use super::text::{mode_of, Record};
 use super::words::{weekday_shortened, WEEKDAY_WORDS, WEEK_WORDS, YEAR_WORDS};
@@ -846,10 +846,9 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
                 column: name.clone(),
                 text: name.clone(),
                 message: format!(
-                    "expected a column of the quantities sold; \"{name}\" names a stock level, \
-                     goods received or returned, a running total, a rate, a share, a rank or a \
-                     plan, not the demand: add the quantities sold (such as a column \"Qty\"), \
-                     or rename the column if it holds them"
+                    "expected a column of the quantities sold; \"{name}\" names {NO_DEMAND}: add \
+                     the quantities sold (such as a column \"Qty\"), or rename the column if it \
+                     holds them"
                 ),
             });
         }

@@ -1,12 +1,15 @@
-//! The words Intake knows for the calendar's years, quarters, months and weeks, in one place:
-//! the header words, English and (from memory) the common German, French, Dutch, Spanish and
-//! Italian ones, in lower case, matched as whole words of a header in any case
-//! ([`super::table::header_says`]); and
-//! the one rule for a part of the year named by a word and its number ("Qtr 1", "M01", "1st
-//! Qtr", [`numbered_part`]), which grids' headers and a part column's cells are read by.
+//! The words Intake knows for the calendar's years, quarters, months, weeks and days, in one
+//! place: the header words, English and (from memory) the common German, French, Dutch,
+//! Spanish and Italian ones, in lower case, matched as whole words of a header in any case
+//! ([`super::table::header_says`]), and their short forms ("Mon", "Q"); month and weekday
+//! names in those languages; and the one rule for a part of the year named by a word and its
+//! number ("Qtr 1", "M01", "1st Qtr", [`numbered_part`], over [`runs`]), which grids' headers
+//! and a part column's cells are read by.
 //!
 //! Kept apart from: what a column under such a header holds (the readers decide that from
 //! its cells) and the words for periods in general ([`super::table::PERIOD_WORDS`]).
+
+use super::label::month_name;
 
 /// Header words naming a calendar year.
 pub(super) const YEAR_WORDS: [&str; 11] = [
@@ -52,20 +55,6 @@ pub(super) const MONTH_WORDS: [&str; 9] = [
 /// Header words naming the quarter of a year ("Quarter", "Quartal", "Trimestre", "Kwartaal").
 pub(super) const QUARTER_WORDS: [&str; 5] = ["quarter", "qtr", "quartal", "trimestre", "kwartaal"];
 
-/// Of those, the ones naming one week of a year, which a week column beside a year is joined
-/// under: not the plurals, which count weeks ("Weeks" 52: the weeks open; a review found it
-/// read as each year's week 52).
-pub(super) const WEEK_PART_WORDS: [&str; 8] = [
-    "week",
-    "wk",
-    "kw",
-    "woche",
-    "kalenderwoche",
-    "semaine",
-    "semana",
-    "settimana",
-];
-
 /// Header words that name weeks ("KW": German Kalenderwoche).
 pub(super) const WEEK_WORDS: [&str; 16] = [
     "week",
@@ -84,6 +73,20 @@ pub(super) const WEEK_WORDS: [&str; 16] = [
     "semanas",
     "settimana",
     "settimane",
+];
+
+/// Of those, the ones naming one week of a year, which a week column beside a year is joined
+/// under: not the plurals, which count weeks ("Weeks" 52: the weeks open; a review found it
+/// read as each year's week 52).
+pub(super) const WEEK_PART_WORDS: [&str; 8] = [
+    "week",
+    "wk",
+    "kw",
+    "woche",
+    "kalenderwoche",
+    "semaine",
+    "semana",
+    "settimana",
 ];
 
 /// The month a German, French, Dutch, Spanish or Italian month's name or abbreviation names
@@ -127,6 +130,14 @@ pub(super) fn month_in_other_languages(word: &str) -> Option<u32> {
         .iter()
         .position(|names| names.contains(&word.as_str()))
         .map(|i| i as u32 + 1)
+}
+
+/// The month a month's name or abbreviation names, in English ([`super::label::month_name`])
+/// or another of these languages (a final dot left off: "Jan.", "Mär", "janv."): the one test
+/// for a month written out, in a month column's cells and a year grid's headers.
+pub(super) fn month_named(word: &str) -> Option<u32> {
+    let word = word.trim().trim_end_matches('.');
+    month_name(word).or_else(|| month_in_other_languages(word))
 }
 
 /// Whether a word (any case, a final dot left off) is a weekday's full name in German,
@@ -214,8 +225,9 @@ pub(super) const WEEKDAY_WORDS: [&str; 10] = [
 
 /// Short forms a header may name a month, quarter or week by ("Mon", "Mnth", "MM"; "Q",
 /// "Trim"; "W"): joined with a year only over parts written out ("Jan.", or codes "Q1" of
-/// which some year holds all), never over numbers, which under them beside plain years are
-/// refused where some item's year holds all the year's parts (`build/parts_in_years.rs`).
+/// which some year holds enough, [`super::joined::YearPart::whole_year`]), never over
+/// numbers, which under them beside plain years are refused where some item's year holds as
+/// many (`build/parts_in_years.rs`).
 pub(super) const MONTH_SHORT_FORMS: [&str; 8] =
     ["mon", "mo", "mnth", "mnt", "mos", "m", "mm", "mnd"];
 pub(super) const QUARTER_SHORT_FORMS: [&str; 5] = ["q", "qr", "qtrs", "trim", "quart"];
@@ -293,7 +305,8 @@ impl NumberedPart {
 /// "Month 1", "Mth 1", "Q1", "Qtr 1", "Quarter 1", "1st Qtr", "W5", "Wk 5", "Week 5", "H1",
 /// "Half 1", "P1", "Period 13", "1. Quartal", "Trim. 2" (any case; a space, a dot or nothing
 /// between). The number has one or two digits and lies within the part's count (an
-/// ordinal's suffix must agree with it). `None` for anything else: a month's name is not numbered ([`super::label::month_name`]).
+/// ordinal's suffix must agree with it). `None` for anything else: a month's name is not
+/// numbered ([`month_named`]).
 pub(super) fn numbered_part(cell: &str) -> Option<(NumberedPart, u32)> {
     let tokens = runs(&cell.trim().to_lowercase());
     let words: Vec<&str> = tokens.iter().map(String::as_str).collect();

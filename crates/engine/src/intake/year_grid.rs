@@ -26,7 +26,7 @@ use super::joined::YearPart;
 use super::label::{month_name, year_of};
 use super::table::{header_is_only, header_says, names_item, whole_number, Table};
 use super::text::Record;
-use super::words::{month_in_other_languages, numbered_part, NumberedPart, YEAR_WORDS};
+use super::words::{month_named, numbered_part, NumberedPart, YEAR_WORDS};
 use super::RowError;
 
 /// Header words of a row total beside the months: not a part of the year.
@@ -336,7 +336,7 @@ fn part_of_year(cell: &str) -> Option<(YearPart, u32)> {
     // English names, or (a year column beside all twelve in order makes them months) the
     // other languages' ("Januar", "févr.": a review found a German grid read as a long table
     // of January's figures).
-    if let Some(month) = month_name(&lower).or_else(|| month_in_other_languages(&lower)) {
+    if let Some(month) = month_named(&lower) {
         return Some((YearPart::Month, month));
     }
     match numbered_part(&lower)? {
