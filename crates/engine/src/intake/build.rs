@@ -39,6 +39,7 @@ mod across;
 mod long;
 mod parts_in_years;
 mod readings;
+pub(crate) use readings::PLACE_WORDS;
 mod unnamed;
 mod year_grid;
 use super::{DecimalMark, Item, Layout, RowError};
@@ -87,6 +88,11 @@ pub(crate) fn agreeing<'w>(n: usize, one: &'w str, many: &'w str) -> &'w str {
         many
     }
 }
+
+/// How an item's name joins its cells when several columns name items (a code and a
+/// description, a store and an item): the long, across and year-grid layouts name items so,
+/// totals.rs and the stock table's matching (stock_names.rs) split or build names by it.
+pub(crate) const PART_JOIN: &str = " / ";
 
 /// "a, b, c and 4 more".
 pub(crate) fn listing(entries: &[String]) -> String {

@@ -1,17 +1,19 @@
 //! The stock table's header: which column gives which figure. Headers are compared
 //! without case, spaces or punctuation (but for `#` and `%`), may name a unit of time
 //! ("Lead time (days)") or of count ("Qty on hand"); of two columns giving one figure the one
-//! under its own name is read; the item column is the one whose names match the history's.
+//! under its own name is read; the item column is the one (or the columns joined, as the
+//! history joins a code and a description, or a store and a product) whose names match the
+//! history's.
 //!
 //! Kept apart from: reading the cells under the header (`stock_table`) and matching the
-//! rows to the history's items (`stock_names`, whose name key the item column's choice
+//! rows to the history's items (`stock_names`, whose lookup the item column's choice
 //! uses).
 
-use std::collections::HashSet;
-
+use super::build::{PART_JOIN, PLACE_WORDS};
 use super::period_units::TimeUnit;
-use super::stock_names::name_key;
+use super::stock_names::{Found, ItemNames};
 use super::stock_table::StockTable;
+use super::table::header_is_only;
 use super::text::Record;
 use super::RowError;
 
@@ -196,12 +198,24 @@ fn field_named(key: &str) -> Option<Field> {
 /// A column: its field, and the unit of time its header names, if any.
 pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     let key = normalise(header);
-    column_of_key(&key).or_else(|| {
-        // "Qty on hand", "Quantity on order (units)".
-        without_quantity_word(&key)
-            .and_then(column_of_key)
-            .filter(|(f, _)| f.counts_units())
-    })
+    column_of_key(&key)
+        .or_else(|| {
+            // "Qty on hand", "Quantity on order (units)".
+            without_quantity_word(&key)
+                .and_then(column_of_key)
+                .filter(|(f, _)| f.counts_units())
+        })
+        .or_else(|| names_place(header).then_some((Field::Item, None)))
+}
+
+/// Whether a header names only a place ("Store", "Branch no", "Warehouse code"): a part of
+/// the item where the history names items by a place and a product ("Oak Lane / Seed
+/// packets"), so a candidate item column ([`choose_item_columns`] joins it to the product's
+/// where that names the history's items).
+fn names_place(header: &str) -> bool {
+    let mut allowed = PLACE_WORDS.to_vec();
+    allowed.extend(["name", "code", "id"]);
+    header_is_only(header, &allowed)
 }
 
 /// A header key without a word for counting before it ("qtyonhand" is "onhand").
@@ -317,18 +331,19 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
     })
 }
 
-/// The item column: the only one, or, where several headers could name items ("SKU" and
-/// "Description"), the one whose names match the most of the history's, exact names before
-/// names matched without case or punctuation; the others are left out with a warning. An
-/// error at the header when no header names items, or when two match alike (which holds
-/// whose stock would be a guess).
-pub(crate) fn choose_item_column(
+/// The item columns: the only one, or, where several headers could name items ("SKU" and
+/// "Description"), the one, or several joined as the history joins its own ([`row_item`]),
+/// whose names match the most of the history's (`stock_names::ItemNames::find`), and of those
+/// alike the most exactly, then without case or punctuation; the others are left out with a
+/// warning. An error at the header when no header names items, or when two match alike
+/// (which holds whose stock would be a guess).
+pub(crate) fn choose_item_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
     items: &[&str],
     warnings: &mut Vec<String>,
-) -> Result<usize, RowError> {
+) -> Result<Vec<usize>, RowError> {
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
@@ -346,48 +361,106 @@ pub(crate) fn choose_item_column(
                     .into(),
             ))
         }
-        [one] => return Ok(*one),
+        [one] => return Ok(vec![*one]),
         _ => {}
     }
-    let exact: HashSet<&str> = items.iter().copied().collect();
-    let keys: HashSet<String> = items.iter().map(|n| name_key(n)).collect();
-    let score = |i: usize| {
-        let cells = || rows.iter().filter_map(|r| r.cells.get(i));
-        (
-            cells().filter(|c| exact.contains(c.as_str())).count(),
-            cells().filter(|c| keys.contains(&name_key(c))).count(),
-        )
+    let names = ItemNames::new(items);
+    // Each column alone, then every arrangement of two or more (the history may join a store
+    // and a product in either order); a handful of item headers at most: past four, only
+    // all of them in the header's order.
+    let mut choices: Vec<Vec<usize>> = Vec::new();
+    if candidates.len() <= 4 {
+        arrangements(&candidates, &mut Vec::new(), &mut choices);
+    } else {
+        choices.extend(candidates.iter().map(|&i| vec![i]));
+        choices.push(candidates.clone());
+    }
+    // (rows matched in any way, exactly, exactly or by key): the most rows first, then the
+    // closest (a code alone matching every row by a part beats the code and a description
+    // joined where a few descriptions are spelt otherwise).
+    let score = |chosen: &[usize]| {
+        let mut s = (0, 0, 0);
+        for r in rows {
+            match names.find(&row_item(r, chosen)) {
+                Found::Exact(_) => s = (s.0 + 1, s.1 + 1, s.2 + 1),
+                Found::Key(_) => s = (s.0 + 1, s.1, s.2 + 1),
+                Found::Part(_) => s.0 += 1,
+                Found::Several(_) | Found::Nowhere => {}
+            }
+        }
+        s
     };
-    let scores: Vec<(usize, usize)> = candidates.iter().map(|&i| score(i)).collect();
-    let top = *scores.iter().max().expect("two candidates or more");
-    let tied: Vec<usize> = (0..candidates.len())
+    let scores: Vec<(usize, usize, usize)> = choices.iter().map(|c| score(c)).collect();
+    let top = *scores.iter().max().expect("two choices or more");
+    // Of choices that name the rows alike, the fewest columns (a column of empty cells
+    // joined to another changes no name).
+    let fewest = (0..choices.len())
         .filter(|&k| scores[k] == top)
+        .map(|k| choices[k].len())
+        .min()
+        .unwrap_or(1);
+    let tied: Vec<usize> = (0..choices.len())
+        .filter(|&k| scores[k] == top && choices[k].len() == fewest)
         .collect();
-    if tied.len() > 1 && top != (0, 0) {
-        let names: Vec<String> = tied
+    let named = |chosen: &[usize]| {
+        let quoted: Vec<String> = chosen
             .iter()
-            .map(|&k| format!("\"{}\"", header.cells[candidates[k]]))
+            .map(|&i| format!("\"{}\"", header.cells[i]))
             .collect();
+        match quoted.as_slice() {
+            [one] => one.clone(),
+            [rest @ .., last] => format!("{} and {last} joined", rest.join(", ")),
+            [] => String::new(),
+        }
+    };
+    if tied.len() > 1 && top != (0, 0, 0) {
+        let names: Vec<String> = tied.iter().map(|&k| named(&choices[k])).collect();
         return Err(at_header(format!(
             "{} could each name the items, and their names match the history's as often: keep \
              the one that names them as the history does",
             names.join(" and ")
         )));
     }
-    let best = tied[0];
-    for (k, &i) in candidates.iter().enumerate().filter(|&(k, _)| k != best) {
+    let best = &choices[tied[0]];
+    for &i in candidates.iter().filter(|i| !best.contains(i)) {
         columns[i] = None;
         warnings.push(format!(
             "column \"{}\" of the stock table could name the items too; they are read from \
-             \"{}\", whose names match the history's ({} of {} rows against {}), and \"{}\" is \
+             {}, whose names match the history's ({} of {} rows against {}), and \"{}\" is \
              left out",
             header.cells[i],
-            header.cells[candidates[best]],
-            scores[best].1,
+            named(best),
+            top.0,
             rows.len(),
-            scores[k].1,
+            score(&[i]).0,
             header.cells[i]
         ));
     }
-    Ok(candidates[best])
+    Ok(best.clone())
+}
+
+/// Every arrangement of some of `from` (each once, in every order) after `prefix`, into
+/// `out`.
+fn arrangements(from: &[usize], prefix: &mut Vec<usize>, out: &mut Vec<Vec<usize>>) {
+    for &i in from {
+        if prefix.contains(&i) {
+            continue;
+        }
+        prefix.push(i);
+        out.push(prefix.clone());
+        arrangements(from, prefix, out);
+        prefix.pop();
+    }
+}
+
+/// A row's item under the item columns `chosen`: their cells that hold something, joined as
+/// the history joins its item columns (`build::PART_JOIN`); empty when none does.
+pub(crate) fn row_item(row: &Record, chosen: &[usize]) -> String {
+    chosen
+        .iter()
+        .filter_map(|&i| row.cells.get(i))
+        .filter(|c| !c.is_empty())
+        .map(String::as_str)
+        .collect::<Vec<_>>()
+        .join(PART_JOIN)
 }

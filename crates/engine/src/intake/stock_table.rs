@@ -17,8 +17,9 @@
 //! an error at the header, and a table without an on-hand or on-order column is warned of;
 //! of two columns giving one figure the one under its own name is read, the other left out,
 //! said (two alike: an error); the item column is required, and where several headers could
-//! name items ("SKU", "Description") the one whose names match the history's most is read
-//! (alike: an error); an empty cell (or `NA`, `n/a`, `null`) means "not given", so the file's
+//! name items ("SKU", "Description", "Store") the one, or the run of them joined as the
+//! history joins its item columns, whose names match the history's most is read (alike: an
+//! error); an empty cell (or `NA`, `n/a`, `null`) means "not given", so the file's
 //! default applies; an item named twice is an error at its second row; rows are matched to
 //! the history's items by name ([`super::stock_names`]); lead time, its spread and review
 //! period are periods of the history, or days, weeks, months, quarters or years named in the
@@ -37,7 +38,7 @@ use super::mark::{decide_mark, evidence, Evidence, Tally};
 use super::number::{is_missing, is_unit, parse_number, NumberError};
 use super::period_units::{split_unit, to_periods, TimeUnit};
 use super::stock_columns::{
-    choose_item_column, column_of, set_aside_second_spellings, unusable_time, Field,
+    choose_item_columns, column_of, row_item, set_aside_second_spellings, unusable_time, Field,
 };
 use super::stock_names::{match_rows, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
@@ -261,8 +262,8 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     // Known headers, before the item column's choice and the second spellings set some aside
     // (each with its own warning).
     let known: Vec<bool> = columns.iter().map(Option::is_some).collect();
-    let item_column =
-        match choose_item_column(&mut columns, &header, &rows, &item_names, &mut out.warnings) {
+    let item_columns =
+        match choose_item_columns(&mut columns, &header, &rows, &item_names, &mut out.warnings) {
             Ok(i) => i,
             Err(e) => {
                 out.errors.push(e);
@@ -363,18 +364,18 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
                 });
             }
         }
-        let item = r.cells.get(item_column).cloned().unwrap_or_default();
+        let item = row_item(&r, &item_columns);
         if item.is_empty() {
             bad.push(RowError {
                 row: r.line,
-                column: column_name(item_column),
+                column: column_name(item_columns[0]),
                 text: String::new(),
                 message: "the item name is missing".into(),
             });
         } else if seen.contains(&item) {
             bad.push(RowError {
                 row: r.line,
-                column: column_name(item_column),
+                column: column_name(item_columns[0]),
                 text: item.clone(),
                 message: "this item has a row above already: give one row per item".into(),
             });
@@ -415,7 +416,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             (Some(_), Some(_)) => {
                 bad.push(RowError {
                     row: r.line,
-                    column: column_name(item_column),
+                    column: column_name(item_columns[0]),
                     text: row.item.clone(),
                     message: "this row gives both a service level and a fill rate: keep one".into(),
                 });
@@ -441,7 +442,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         if bad.is_empty() {
             read.push(ReadRow {
                 line: r.line,
-                column: column_name(item_column),
+                column: column_name(item_columns[0]),
                 row,
             });
         } else {
@@ -1007,6 +1008,103 @@ mod tests {
             on_hand: Some(on_hand),
             ..row(item)
         }
+    }
+
+    #[test]
+    fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
+        // The history joins a code and a description ("FG-1 / Birch trellis").
+        let coded = super::super::read(
+            "month,code,description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,Rain \
+             barrel,4\n2024-02,FG-1,Birch trellis,5\n2024-02,FG-2,Rain barrel,6\n",
+        );
+        let (trellis, barrel) = ("FG-1 / Birch trellis", "FG-2 / Rain barrel");
+        // The code alone, as stock tables commonly name items: read as that item, said.
+        let t = check_against(
+            &coded,
+            "Item code,On hand\nFG-1,5\nfg-2,6\n",
+            &[
+                row_with_on_hand(trellis, 5.0),
+                row_with_on_hand(barrel, 6.0),
+            ],
+            &[],
+        );
+        assert!(warns(
+            &t,
+            &[
+                "2 rows",
+                "one part",
+                "\"FG-1\" (row 2) as \"FG-1 / Birch trellis\""
+            ]
+        ));
+        // Both columns, as the history has them: joined, nothing to say about the names.
+        let t = check_against(
+            &coded,
+            "Code,Description,On hand\nFG-1,Birch trellis,5\nFG-2,Rain barrel,6\n",
+            &[
+                row_with_on_hand(trellis, 5.0),
+                row_with_on_hand(barrel, 6.0),
+            ],
+            &[],
+        );
+        assert!(
+            !warns(&t, &["one part"]) && !warns(&t, &["left out"]),
+            "{t:?}"
+        );
+        // A few descriptions spelt otherwise: the code alone matches more rows, and is read.
+        let t = check_against(
+            &coded,
+            "Code,Description,On hand\nFG-1,Birch trelis,5\nFG-2,Rain barrel,6\n",
+            &[
+                row_with_on_hand(trellis, 5.0),
+                row_with_on_hand(barrel, 6.0),
+            ],
+            &[],
+        );
+        assert!(warns(
+            &t,
+            &[
+                "\"Description\"",
+                "read from \"Code\"",
+                "(2 of 2 rows against 1)"
+            ]
+        ));
+        // The history names items by store and product; so does the stock table, in either
+        // order.
+        let stores = super::super::read(
+            "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Mill Road,Seed \
+             packets,4\n2024-01,Oak Lane,Willow basket,2\n2024-02,Oak Lane,Seed packets,5\n\
+             2024-02,Mill Road,Seed packets,6\n2024-02,Oak Lane,Willow basket,1\n",
+        );
+        let expected = [
+            row_with_on_hand("Oak Lane / Seed packets", 5.0),
+            row_with_on_hand("Mill Road / Seed packets", 6.0),
+        ];
+        for text in [
+            "Store,Item,On hand\nOak Lane,Seed packets,5\nMill Road,Seed packets,6\n",
+            "Item,Branch,On hand\nSeed packets,Oak Lane,5\nSeed packets,Mill Road,6\n",
+        ] {
+            check_against(&stores, text, &expected, &[]);
+        }
+        // A product alone where two stores sell it could be either: left out, said; where one
+        // store sells it, that store's, said.
+        let t = check_against(
+            &stores,
+            "Item,On hand\nSeed packets,11\nWillow basket,3\n",
+            &[row_with_on_hand("Oak Lane / Willow basket", 3.0)],
+            &[],
+        );
+        assert!(warns(
+            &t,
+            &["could name more than one item", "\"Seed packets\" (row 2)"]
+        ));
+        assert!(warns(&t, &["one part", "\"Willow basket\" (row 3)"]));
+        // A second item column left empty changes no name: the first is read, not refused as
+        // matching alike.
+        check(
+            "Item,Description,on hand\nA,,4\n",
+            &[row_with_on_hand("A", 4.0)],
+            &[],
+        );
     }
 
     #[test]

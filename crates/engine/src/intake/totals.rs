@@ -21,6 +21,7 @@
 
 use std::collections::BTreeMap;
 
+use super::build::PART_JOIN;
 use super::Item;
 use crate::calendar::Period;
 
@@ -105,7 +106,7 @@ pub(crate) fn named_like_totals(items: &[Item]) -> Vec<usize> {
     items
         .iter()
         .enumerate()
-        .filter(|(_, item)| item.name.split(" / ").any(total_name) || subtotal_name(&item.name))
+        .filter(|(_, item)| item.name.split(PART_JOIN).any(total_name) || subtotal_name(&item.name))
         .map(|(i, _)| i)
         .collect()
 }
@@ -178,7 +179,7 @@ struct Subtotal {
 fn subtotals(items: &[Item]) -> Vec<Subtotal> {
     let parts: Vec<Vec<&str>> = items
         .iter()
-        .map(|i| i.name.split(" / ").collect())
+        .map(|i| i.name.split(PART_JOIN).collect())
         .collect();
     let mut found = Vec::new();
     for (i, own) in parts.iter().enumerate() {

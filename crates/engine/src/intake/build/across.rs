@@ -10,7 +10,7 @@
 
 use std::collections::HashMap;
 
-use super::{period_out_of_run, Builder};
+use super::{period_out_of_run, Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::{dotted_month, mostly, read_periods, strong_family, IntegerMeaning};
@@ -116,7 +116,7 @@ impl<'a> Builder<'a> {
                 .map(|j| row.cells.get(*j).map_or("", String::as_str))
                 .filter(|c| !is_missing(c))
                 .collect::<Vec<_>>()
-                .join(" / ");
+                .join(PART_JOIN);
             if name.is_empty() {
                 self.no_item_name(row, &item_columns);
                 continue;

@@ -11,7 +11,7 @@
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
-use super::{count, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS};
+use super::{count, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
@@ -82,7 +82,7 @@ impl<'a> Builder<'a> {
                 .iter()
                 .map(|j| row.as_written(*j))
                 .collect::<Vec<_>>()
-                .join(" / ");
+                .join(PART_JOIN);
             // Names that differ only in white space or case are one item.
             let key = name_key(&name);
             let next_position = items.get(&key).map_or(1, |i| i.rows.len() as i64 + 1);
@@ -577,7 +577,7 @@ pub(super) fn item_name(row: &Record, item_columns: &[usize]) -> Option<(Vec<usi
         .iter()
         .map(|j| row.cells[*j].as_str())
         .collect::<Vec<_>>()
-        .join(" / ");
+        .join(PART_JOIN);
     (!filled.is_empty()).then_some((filled, name))
 }
 

@@ -14,7 +14,7 @@
 use std::collections::HashMap;
 
 use super::long::{item_name, name_key};
-use super::Builder;
+use super::{Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::text::Record;
 use crate::intake::totals::total_name;
@@ -134,7 +134,7 @@ impl<'a> Builder<'a> {
                 .iter()
                 .map(|j| row.as_written(*j))
                 .collect::<Vec<_>>()
-                .join(" / ");
+                .join(PART_JOIN);
             let spellings = &mut items_rows[at].spellings;
             match spellings.iter_mut().find(|(s, _)| *s == written) {
                 Some((_, lines)) => lines.push(row.line),
