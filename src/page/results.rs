@@ -213,8 +213,8 @@ pub fn Ranking() -> impl IntoView {
             <h2 id="ranking-title">"Backtest ranking"</h2>
             <p class="hint">{move || state.plan.with(|p| match p {
                 Some(Ok(p)) => format!(
-                    "Each method was fitted on the training part and scored on the last {} periods (pooled over {} origin(s)), ranked by {}.{} Pick a row to show that method in the Look-ahead and the Error ledger.",
-                    p.backtest.holdout_demand.len(), p.backtest.origins_used, p.backtest.rank_by.key().to_uppercase(),
+                    "Each method was fitted on the training part and scored on the last {} periods (pooled over {}), ranked by {}.{} Pick a row to show that method in the Look-ahead and the Error ledger.",
+                    p.backtest.holdout_demand.len(), words::counted(p.backtest.origins_used, "origin", "origins"), p.backtest.rank_by.key().to_uppercase(),
                     words::combination_choice(&p.chosen)),
                 _ => String::new(),
             })}</p>

@@ -64,15 +64,15 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
     }
     if report.gaps_filled > 0 {
         lines.push(format!(
-            "{} missing period(s) found; they are filled by straight-line interpolation and named in the notes.",
-            report.gaps_filled
+            "{} found; they are filled by straight-line interpolation and named in the notes.",
+            counted(report.gaps_filled, "missing period", "missing periods")
         ));
     }
     lines.extend(report.warnings.iter().cloned());
     if !report.errors.is_empty() {
         lines.push(format!(
-            "{} problem(s) found; the list below says where. Fix the text in the box and it is read again.",
-            report.errors.len()
+            "{} found; the list below says where. Fix the text in the box and it is read again.",
+            counted(report.errors.len(), "problem", "problems")
         ));
     }
     lines
@@ -80,6 +80,11 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
 
 /// Said above a forecast made while Intake found problems (a cell, a row or a line it could not
 /// read): what could not be read is left out until fixed.
+/// "1 problem", "3 problems".
+pub fn counted(n: usize, one: &str, many: &str) -> String {
+    format!("{n} {}", if n == 1 { one } else { many })
+}
+
 pub fn unread_cells_note(count: usize) -> String {
     let problems = if count == 1 {
         "1 problem".to_string()

@@ -126,9 +126,14 @@ pub fn plan(p: &ItemPlan) -> String {
     }
     let _ = writeln!(
         s,
-        "\nBacktest ranking by {} ({} origin(s), holdout {} periods)",
+        "\nBacktest ranking by {} ({} origin{}, holdout {} periods)",
         p.backtest.rank_by.key(),
         p.backtest.origins_used,
+        if p.backtest.origins_used == 1 {
+            ""
+        } else {
+            "s"
+        },
         p.backtest.holdout_demand.len()
     );
     let _ = writeln!(
