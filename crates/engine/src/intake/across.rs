@@ -22,10 +22,12 @@
 //! rows each hold two dates is not periods across), and it or one of the two after it is data
 //! (a bad cell in the first row keeps it from reading as data: it is reported at its cell).
 
+use super::frame::Table;
+use super::headers::{header_says, ITEM_WORDS, PERIOD_WORDS};
 use super::label::{calendar_name, parse_label, Family};
 use super::number::looks_number;
 use super::period::{dotted_month, integer_meaning, mostly, strong_family, IntegerMeaning};
-use super::table::{header_says, names_item, whole_number, Plan, Table, ITEM_WORDS, PERIOD_WORDS};
+use super::table::{names_item, whole_number, Plan};
 use super::text::Record;
 use super::RowError;
 

@@ -25,13 +25,13 @@
 
 use std::collections::{HashMap, HashSet};
 
+use super::frame::{wide_row_error, Table};
+use super::headers::{header_is_only, header_says, names_money, OfAnother};
 use super::label::TimeKey;
 use super::number::{is_missing, parse_number};
 use super::period::{read_periods_anchored, WeekAnchor};
 use super::shapes::{names_no_demand, SaleDetail, NO_DEMAND};
-use super::table::{
-    header_is_only, header_says, names_money, names_weeks, wide_row_error, OfAnother, Plan, Table,
-};
+use super::table::{names_weeks, Plan};
 use super::text::Record;
 use super::words::MONTH_WORDS;
 

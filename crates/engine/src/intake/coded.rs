@@ -22,11 +22,11 @@
 //! period), and a header of calendar numbers is refused at its first cell, not read as items
 //! (a review of 2026-12-03 found `month,1,2,...,31` over months read as 31 items "1".."31").
 
+use super::frame::all_distinct;
+use super::headers::{header_says, ITEM_WORDS, PERIOD_WORDS, QUANTITY_WORDS};
 use super::label::{parse_label, Family};
 use super::number::{is_missing, looks_number};
-use super::table::{
-    all_distinct, header_says, whole_number, ITEM_WORDS, PERIOD_WORDS, QUANTITY_WORDS,
-};
+use super::table::whole_number;
 use super::text::Record;
 
 /// The index in `candidates` of a header naming items by number codes, given the table's test

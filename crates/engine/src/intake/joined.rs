@@ -15,9 +15,11 @@
 
 use std::collections::{HashMap, HashSet};
 
+use super::frame::Table;
+use super::headers::{header_is_only, header_says};
 use super::label::{calendar_name, month_name, parse_label, year_of, Family, Label};
 use super::period::{integer_meaning, IntegerMeaning};
-use super::table::{header_is_only, header_says, whole_number, Table};
+use super::table::whole_number;
 use super::text::Record;
 use super::words::{
     month_in_other_languages, month_named, numbered_part, runs, NumberedPart, DAY_WORDS,

@@ -125,6 +125,9 @@ mod build;
 mod coded;
 mod dates;
 mod decode;
+mod frame;
+mod headers;
+mod item_codes;
 mod joined;
 mod label;
 mod leave_out;
@@ -468,7 +471,7 @@ fn header_read_as_data(report: &mut IntakeReport) {
         return;
     };
     for e in report.errors.iter_mut().filter(|e| e.row == first) {
-        if table::header_is_only(&e.text, &table::PERIOD_WORDS) {
+        if headers::header_is_only(&e.text, &headers::PERIOD_WORDS) {
             e.message.push_str(
                 "; this row looks like the header, read as data because its other cells read \
                  as numbers or dates: give the items names with a word in them (\"Item \
@@ -542,7 +545,7 @@ fn read_text(text: &str) -> IntakeReport {
                 .to_string(),
         });
     }
-    let mut table = table::shape(tokens.records);
+    let mut table = frame::shape(tokens.records);
     table.comma_delimited = delimiter == Delimiter::Comma;
     for title in &table.titles {
         let words: Vec<&str> = title
@@ -608,7 +611,7 @@ fn read_text(text: &str) -> IntakeReport {
             table
                 .rows
                 .iter()
-                .filter_map(|row| table::wide_row_error(&table, row)),
+                .filter_map(|row| frame::wide_row_error(&table, row)),
         );
         if !report.errors.is_empty() {
             return report;

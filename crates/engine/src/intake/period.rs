@@ -342,7 +342,7 @@ impl WeekAnchor {
     /// span ("Week (Mon to Sun)") or says something else ("Sales date (from till)"), which a
     /// review found moved every week.
     pub(crate) fn of_header(name: &str) -> WeekAnchor {
-        use super::table::{header_is_only, header_says};
+        use super::headers::{header_is_only, header_says};
         use super::words::WEEK_WORDS;
         let allowed: Vec<&str> = WEEK_WORDS
             .iter()

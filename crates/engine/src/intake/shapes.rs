@@ -11,12 +11,11 @@
 
 use std::collections::HashMap;
 
+use super::frame::{all_distinct, Table};
+use super::headers::{header_is_only, header_says, header_words, ITEM_WORDS};
 use super::label::{calendar_name, is_time_of_day, weekday_name, Family};
 use super::period::{integer_meaning, IntegerMeaning};
-use super::table::{
-    all_distinct, columns_of, header_is_only, header_says, header_words, once_per_period, Role,
-    Table, ITEM_WORDS,
-};
+use super::table::{columns_of, once_per_period, Role};
 use super::text::Record;
 use super::words::{month_in_other_languages, numbered_part};
 use super::RowError;

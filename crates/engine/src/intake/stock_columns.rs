@@ -10,10 +10,10 @@
 //! uses).
 
 use super::build::{PART_JOIN, PLACE_WORDS};
+use super::headers::header_is_only;
 use super::period_units::TimeUnit;
 use super::stock_names::{Found, ItemNames};
 use super::stock_table::StockTable;
-use super::table::header_is_only;
 use super::text::Record;
 use super::RowError;
 

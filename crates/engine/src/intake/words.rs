@@ -1,13 +1,13 @@
 //! The words Intake knows for the calendar's years, quarters, months, weeks and days, in one
 //! place: the header words, English and (from memory) the common German, French, Dutch,
 //! Spanish and Italian ones, in lower case, matched as whole words of a header in any case
-//! ([`super::table::header_says`]), and their short forms ("Mon", "Q"); month and weekday
+//! ([`super::headers::header_says`]), and their short forms ("Mon", "Q"); month and weekday
 //! names in those languages; and the one rule for a part of the year named by a word and its
 //! number ("Qtr 1", "M01", "1st Qtr", [`numbered_part`], over [`runs`]), which grids' headers
 //! and a part column's cells are read by.
 //!
 //! Kept apart from: what a column under such a header holds (the readers decide that from
-//! its cells) and the words for periods in general ([`super::table::PERIOD_WORDS`]).
+//! its cells) and the words for periods in general ([`super::headers::PERIOD_WORDS`]).
 
 use super::label::month_name;
 

@@ -22,9 +22,11 @@
 
 use std::collections::{HashMap, HashSet};
 
+use super::frame::Table;
+use super::headers::{header_is_only, header_says};
 use super::joined::YearPart;
 use super::label::{month_name, year_of};
-use super::table::{header_is_only, header_says, names_item, whole_number, Table};
+use super::table::{names_item, whole_number};
 use super::text::Record;
 use super::words::{month_named, numbered_part, NumberedPart, YEAR_WORDS};
 use super::RowError;

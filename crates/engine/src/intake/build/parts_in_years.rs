@@ -22,8 +22,10 @@ use std::collections::{HashMap, HashSet};
 
 use super::long::item_key;
 use crate::calendar::{Frequency, Period};
+use crate::intake::frame::Table;
+use crate::intake::headers::header_is_only;
 use crate::intake::joined::YearPart;
-use crate::intake::table::{header_is_only, Plan, Table};
+use crate::intake::table::Plan;
 use crate::intake::text::Record;
 use crate::intake::words::YEAR_WORDS;
 use crate::intake::RowError;

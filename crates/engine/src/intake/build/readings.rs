@@ -22,7 +22,7 @@ use std::collections::{BTreeMap, HashMap, HashSet};
 use super::unnamed::{classify, prefix, ItemRows, Unnamed, LONG_TABLE};
 use super::{count, joined, listing, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
-use crate::intake::table::header_says;
+use crate::intake::headers::header_says;
 
 /// Header words naming a place items are sold at (common practice in exported tables).
 pub(crate) const PLACE_WORDS: [&str; 12] = [
