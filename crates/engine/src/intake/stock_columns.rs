@@ -331,19 +331,30 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
     })
 }
 
+/// The item columns a stock table is read by ([`choose_item_columns`]).
+pub(crate) struct ItemColumns {
+    /// The columns whose cells, joined ([`row_item`]), name each row's item.
+    pub read: Vec<usize>,
+    /// Columns that could have named the items, are left out, and hold parts of the
+    /// history's names (a "Store" beside the "Item" read): a row matched by one part must
+    /// agree with them (`stock_names::ReadRow::beside`).
+    pub beside: Vec<usize>,
+}
+
 /// The item columns: the only one, or, where several headers could name items ("SKU" and
-/// "Description"), the one, or several joined as the history joins its own ([`row_item`]),
-/// whose names match the most of the history's (`stock_names::ItemNames::find`), and of those
-/// alike the most exactly, then without case or punctuation; the others are left out with a
-/// warning. An error at the header when no header names items, or when two match alike
-/// (which holds whose stock would be a guess).
+/// "Description", "Store" and "Item"), the one, or several joined in any order as the history
+/// joins its own ([`row_item`]), whose names match the most of the history's in full (exactly
+/// or by key; `stock_names::ItemNames::find`), then the most exactly, then the most by one
+/// part; the others are left out with a warning. An error at the header when no header names
+/// items, or when two choices match alike and name the rows differently (which holds whose
+/// stock would be a guess).
 pub(crate) fn choose_item_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
     items: &[&str],
     warnings: &mut Vec<String>,
-) -> Result<Vec<usize>, RowError> {
+) -> Result<ItemColumns, RowError> {
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
@@ -361,30 +372,38 @@ pub(crate) fn choose_item_columns(
                     .into(),
             ))
         }
-        [one] => return Ok(vec![*one]),
+        [one] => {
+            return Ok(ItemColumns {
+                read: vec![*one],
+                beside: Vec::new(),
+            })
+        }
         _ => {}
     }
     let names = ItemNames::new(items);
     // Each column alone, then every arrangement of two or more (the history may join a store
-    // and a product in either order); a handful of item headers at most: past four, only
-    // all of them in the header's order.
+    // and a product in either order); past five item headers, each alone, every two in
+    // either order, and all in the header's order.
     let mut choices: Vec<Vec<usize>> = Vec::new();
-    if candidates.len() <= 4 {
+    if candidates.len() <= 5 {
         arrangements(&candidates, &mut Vec::new(), &mut choices);
     } else {
         choices.extend(candidates.iter().map(|&i| vec![i]));
+        for &i in &candidates {
+            choices.extend(candidates.iter().filter(|&&j| j != i).map(|&j| vec![i, j]));
+        }
         choices.push(candidates.clone());
     }
-    // (rows matched in any way, exactly, exactly or by key): the most rows first, then the
-    // closest (a code alone matching every row by a part beats the code and a description
-    // joined where a few descriptions are spelt otherwise).
+    // (rows matched in full, exactly, by one part): a part never outweighs a name matched in
+    // full (a "Willow basket" sold only in one store must not take the "Store" and "Item"
+    // joined that name every row).
     let score = |chosen: &[usize]| {
         let mut s = (0, 0, 0);
         for r in rows {
             match names.find(&row_item(r, chosen)) {
-                Found::Exact(_) => s = (s.0 + 1, s.1 + 1, s.2 + 1),
-                Found::Key(_) => s = (s.0 + 1, s.1, s.2 + 1),
-                Found::Part(_) => s.0 += 1,
+                Found::Exact(_) => s = (s.0 + 1, s.1 + 1, s.2),
+                Found::Key(_) => s.0 += 1,
+                Found::Part(_) => s.2 += 1,
                 Found::Several(_) | Found::Nowhere => {}
             }
         }
@@ -413,7 +432,10 @@ pub(crate) fn choose_item_columns(
             [] => String::new(),
         }
     };
-    if tied.len() > 1 && top != (0, 0, 0) {
+    // Two columns naming every row alike ("SKU" beside a copy, "Code") are one choice.
+    let alike = |a: &[usize], b: &[usize]| rows.iter().all(|r| row_item(r, a) == row_item(r, b));
+    let first = &choices[tied[0]];
+    if top != (0, 0, 0) && tied.iter().any(|&k| !alike(first, &choices[k])) {
         let names: Vec<String> = tied.iter().map(|&k| named(&choices[k])).collect();
         return Err(at_header(format!(
             "{} could each name the items, and their names match the history's as often: keep \
@@ -421,7 +443,15 @@ pub(crate) fn choose_item_columns(
             names.join(" and ")
         )));
     }
-    let best = &choices[tied[0]];
+    // Nothing matches: every item column joined, so each row's unknown name is said whole
+    // ("Central DC / Seed packets") rather than one column's repeating as "a row above".
+    let best = if top == (0, 0, 0) {
+        candidates.clone()
+    } else {
+        first.clone()
+    };
+    let matched = |s: (usize, usize, usize)| s.0 + s.2;
+    let mut beside = Vec::new();
     for &i in candidates.iter().filter(|i| !best.contains(i)) {
         columns[i] = None;
         warnings.push(format!(
@@ -429,14 +459,24 @@ pub(crate) fn choose_item_columns(
              {}, whose names match the history's ({} of {} rows against {}), and \"{}\" is \
              left out",
             header.cells[i],
-            named(best),
-            top.0,
+            named(&best),
+            matched(top),
             rows.len(),
-            score(&[i]).0,
+            matched(score(&[i])),
             header.cells[i]
         ));
+        // A column speaks of the history's items when it holds a part of their names, or
+        // names a place where the history joins one (a "Store" of another store than the
+        // history's); a bin "Location" beside codes and descriptions does not.
+        let speaks = rows
+            .iter()
+            .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)))
+            || (names.has_shared_place() && names_place(&header.cells[i]));
+        if speaks {
+            beside.push(i);
+        }
     }
-    Ok(best.clone())
+    Ok(ItemColumns { read: best, beside })
 }
 
 /// Every arrangement of some of `from` (each once, in every order) after `prefix`, into

@@ -19,7 +19,8 @@
 use super::build::{agreeing, count, listing, PART_JOIN};
 use super::stock_table::StockRow;
 use super::RowError;
-use std::collections::HashMap;
+use std::cmp::Ordering;
+use std::collections::{HashMap, HashSet};
 
 /// A name without case, white space or punctuation; a name of digits alone also without its
 /// leading zeros. Digits parted by anything stay parted ("1.5 L" is not "15 L", "1.23" not
@@ -63,32 +64,79 @@ pub(crate) enum Found {
 pub(crate) struct ItemNames<'a> {
     exact: HashMap<&'a str, usize>,
     by_key: HashMap<String, Vec<usize>>,
+    /// The keys of the parts that name one item each (see [`ItemNames::new`]).
     by_part: HashMap<String, Vec<usize>>,
+    /// Each item's parts' keys, where the history joins its names from columns.
+    parts: Vec<Vec<String>>,
+    /// Every part's key of every item.
+    any_part: HashSet<String>,
+    /// See [`ItemNames::has_shared_place`].
+    shared_place: bool,
 }
 
 impl<'a> ItemNames<'a> {
+    /// Indexes `names`. Parts only where the history joined its names from columns: every
+    /// name has two parts or more (the fewest any has are the places; a name with more has its
+    /// last parts taken as one, a description holding " / "). Of those places, a part is
+    /// looked up only in one whose every item's part differs (a code, a description): a
+    /// store, a category or a product sold in two stores names no item alone.
     pub(crate) fn new(names: &'a [&'a str]) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
-        let mut by_part: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, n) in names.iter().enumerate() {
             by_key.entry(name_key(n)).or_default().push(i);
-            let parts: Vec<&str> = n.split(PART_JOIN).map(str::trim).collect();
-            if parts.len() < 2 {
+        }
+        let split: Vec<Vec<&str>> = names
+            .iter()
+            .map(|n| n.split(PART_JOIN).map(str::trim).collect())
+            .collect();
+        let places = split.iter().map(Vec::len).min().unwrap_or(1);
+        let parts: Vec<Vec<String>> = split
+            .iter()
+            .map(|s| match s.len().cmp(&places) {
+                _ if places < 2 => Vec::new(),
+                Ordering::Less | Ordering::Equal => s.iter().map(|p| name_key(p)).collect(),
+                Ordering::Greater => {
+                    let mut keys: Vec<String> =
+                        s[..places - 1].iter().map(|p| name_key(p)).collect();
+                    keys.push(name_key(&s[places - 1..].join(PART_JOIN)));
+                    keys
+                }
+            })
+            .collect();
+        let mut by_part: HashMap<String, Vec<usize>> = HashMap::new();
+        let mut shared_place = false;
+        for place in 0..places.max(1) {
+            let at: Vec<(usize, &String)> = parts
+                .iter()
+                .enumerate()
+                .filter_map(|(i, p)| p.get(place).map(|k| (i, k)))
+                .collect();
+            let distinct: HashSet<&String> = at.iter().map(|(_, k)| *k).collect();
+            if distinct.len() < at.len() {
+                shared_place = true;
                 continue;
             }
-            for part in parts.into_iter().filter(|p| !p.is_empty()) {
-                let items = by_part.entry(name_key(part)).or_default();
-                if items.last() != Some(&i) {
-                    items.push(i);
-                }
+            for (i, key) in at.into_iter().filter(|(_, k)| !k.is_empty()) {
+                by_part.entry(key.clone()).or_default().push(i);
             }
         }
+        let any_part = parts.iter().flatten().cloned().collect();
         ItemNames {
             exact,
             by_key,
             by_part,
+            parts,
+            any_part,
+            shared_place,
         }
+    }
+
+    /// Whether the history's names join a place whose parts repeat across items (a store
+    /// selling several products, a category), so a stock table's store column speaks of them
+    /// even where its stores are not the history's.
+    pub(crate) fn has_shared_place(&self) -> bool {
+        self.shared_place
     }
 
     /// Where `name` is found: exactly, else by its key, else by a part's key.
@@ -110,6 +158,18 @@ impl<'a> ItemNames<'a> {
             ),
         }
     }
+
+    /// Whether `cell` is a part of some item's joined name (a column holding such cells
+    /// speaks of the history's items: [`ReadRow::beside`]).
+    pub(crate) fn is_a_part(&self, cell: &str) -> bool {
+        self.any_part.contains(&name_key(cell))
+    }
+
+    /// Whether `cell` is item `index`'s name or one of its parts.
+    fn agrees(&self, index: usize, cell: &str, name: &str) -> bool {
+        let key = name_key(cell);
+        key == name_key(name) || self.parts[index].contains(&key)
+    }
 }
 
 /// A row read, with the line it stands on and its item column's header.
@@ -117,6 +177,10 @@ pub(crate) struct ReadRow {
     pub line: usize,
     pub column: String,
     pub row: StockRow,
+    /// The row's cells (header, text) in columns that could have named the items, were left
+    /// out, and hold parts of the history's names (a "Store" beside the "Item" read): a row
+    /// matched by one part must agree with them.
+    pub beside: Vec<(String, String)>,
 }
 
 /// What matching left: the rows of the history's items, under the history's names, and what
@@ -128,64 +192,102 @@ pub(crate) struct Matched {
     pub errors: Vec<RowError>,
 }
 
-/// Matches `read` to the history's item names `items`.
+/// Matches `read` to the history's item names `items`: rows naming an item exactly or by key
+/// first, then rows naming one by a part, which give way to them.
 pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
     let names = ItemNames::new(items);
     let mut out = Matched::default();
-    let (mut renamed, mut by_part, mut unknown, mut ambiguous) =
-        (Vec::new(), Vec::new(), Vec::new(), Vec::new());
-    // The line that first took each item.
+    let (mut renamed, mut by_part, mut unknown, mut ambiguous, mut disagree, mut second) = (
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+    );
+    let found: Vec<Found> = read.iter().map(|r| names.find(&r.row.item)).collect();
+    // The line that first took each item, and each row's item.
     let mut taken: Vec<Option<usize>> = vec![None; items.len()];
-    for ReadRow {
-        line,
-        column,
-        mut row,
-    } in read
-    {
-        let index = match names.find(&row.item) {
-            Found::Exact(i) | Found::Key(i) | Found::Part(i) => i,
-            Found::Nowhere => {
-                unknown.push(format!("\"{}\" (row {line})", row.item));
-                continue;
-            }
-            Found::Several(several) => {
-                let names: Vec<String> = several
+    let mut chosen: Vec<Option<usize>> = vec![None; read.len()];
+    // Whether that row named it in full (exactly or by key): a row naming it by a part gives
+    // way.
+    let mut in_full = vec![false; items.len()];
+    for by_a_part in [false, true] {
+        for (k, r) in read.iter().enumerate() {
+            let line = r.line;
+            let index = match (&found[k], by_a_part) {
+                (Found::Exact(i) | Found::Key(i), false) | (Found::Part(i), true) => *i,
+                (Found::Nowhere, false) => {
+                    unknown.push(format!("\"{}\" (row {line})", r.row.item));
+                    continue;
+                }
+                (Found::Several(several), false) => {
+                    let names: Vec<String> = several
+                        .iter()
+                        .map(|&i| format!("\"{}\"", items[i]))
+                        .collect();
+                    ambiguous.push(format!(
+                        "\"{}\" (row {line}) could be {}",
+                        r.row.item,
+                        names.join(" or ")
+                    ));
+                    continue;
+                }
+                _ => continue,
+            };
+            if by_a_part {
+                let against = r
+                    .beside
                     .iter()
-                    .map(|&i| format!("\"{}\"", items[i]))
-                    .collect();
-                ambiguous.push(format!(
-                    "\"{}\" (row {line}) could be {}",
-                    row.item,
-                    names.join(" or ")
-                ));
+                    .find(|(_, cell)| !cell.is_empty() && !names.agrees(index, cell, items[index]));
+                if let Some((header, cell)) = against {
+                    disagree.push(format!(
+                        "\"{}\" (row {line}) would be \"{}\", but its \"{header}\" says \"{cell}\"",
+                        r.row.item, items[index]
+                    ));
+                    continue;
+                }
+                if let (Some(first), true) = (taken[index], in_full[index]) {
+                    second.push(format!(
+                        "\"{}\" (row {line}) would be \"{}\", which row {first} names",
+                        r.row.item, items[index]
+                    ));
+                    continue;
+                }
+            }
+            if let Some(first) = taken[index] {
+                out.errors.push(RowError {
+                    row: line,
+                    column: r.column.clone(),
+                    text: r.row.item.clone(),
+                    message: format!(
+                        "this row and row {first} both name the history's \"{}\" (names are \
+                         matched without case, spacing or punctuation, and by one part of a \
+                         joined name): keep one",
+                        items[index]
+                    ),
+                });
                 continue;
             }
-        };
-        if let Some(first) = taken[index] {
-            out.errors.push(RowError {
-                row: line,
-                column,
-                text: row.item.clone(),
-                message: format!(
-                    "this row and row {first} both name the history's \"{}\" (names are matched \
-                     without case, spacing or punctuation, and by one part of a joined name): \
-                     keep one",
-                    items[index]
-                ),
-            });
-            continue;
-        }
-        taken[index] = Some(line);
-        if row.item != items[index] {
-            let pair = format!("\"{}\" (row {line}) as \"{}\"", row.item, items[index]);
-            if name_key(&row.item) == name_key(items[index]) {
-                renamed.push(pair);
-            } else {
-                by_part.push(pair);
+            taken[index] = Some(line);
+            in_full[index] = !by_a_part;
+            chosen[k] = Some(index);
+            if r.row.item != items[index] {
+                let pair = format!("\"{}\" (row {line}) as \"{}\"", r.row.item, items[index]);
+                if by_a_part {
+                    by_part.push(pair);
+                } else {
+                    renamed.push(pair);
+                }
             }
-            row.item = items[index].to_string();
         }
-        out.rows.push(row);
+    }
+    for (r, index) in read.into_iter().zip(chosen) {
+        if let Some(index) = index {
+            let mut row = r.row;
+            row.item = items[index].to_string();
+            out.rows.push(row);
+        }
     }
     if !renamed.is_empty() {
         out.warnings.push(format!(
@@ -205,6 +307,27 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
             agreeing(by_part.len(), "names", "name"),
             agreeing(by_part.len(), "is", "are"),
             listing(&by_part)
+        ));
+    }
+    if !disagree.is_empty() {
+        out.warnings.push(format!(
+            "{} of the stock table {} an item by one part of the history's name, but another \
+             of {} columns names another, so {} left out: {}",
+            count(disagree.len(), "row"),
+            agreeing(disagree.len(), "names", "name"),
+            agreeing(disagree.len(), "its", "their"),
+            agreeing(disagree.len(), "it is", "they are"),
+            listing(&disagree)
+        ));
+    }
+    if !second.is_empty() {
+        out.warnings.push(format!(
+            "{} of the stock table {} by one part an item another row names in full, so {} \
+             left out: {}",
+            count(second.len(), "row"),
+            agreeing(second.len(), "names", "name"),
+            agreeing(second.len(), "it is", "they are"),
+            listing(&second)
         ));
     }
     if !ambiguous.is_empty() {
@@ -245,6 +368,7 @@ mod tests {
                     item: n.to_string(),
                     ..StockRow::default()
                 },
+                beside: Vec::new(),
             })
             .collect();
         let m = match_rows(read, items);
@@ -309,35 +433,92 @@ mod tests {
     }
 
     #[test]
-    fn a_part_of_a_joined_name_matches_where_it_is_one_items() {
-        let items = ["FG-1 / Birch trellis", "Oak / Seed", "Mill / Seed", "Mill"];
+    fn a_part_of_a_joined_name_matches_where_its_place_names_one_item_each() {
+        // Codes name one item each; two items share a description: only codes are looked up.
+        let coded = [
+            "FG-1 / Birch trellis",
+            "FG-2 / Rain barrel",
+            "FG-3 / Rain barrel",
+        ];
         check(
-            &["fg 1", "Seed", "Oak"],
-            &items,
+            &["fg 1", "Rain barrel", "Birch trellis"],
+            &coded,
             &[
                 "FG-1 / Birch trellis",
-                "Oak / Seed",
-                "warning: 2 rows of the stock table name an item by one part of the history's \
-                 name for it (the history joins two columns into its items' names), and are \
-                 read as that item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\", \"Oak\" \
-                 (row 4) as \"Oak / Seed\"",
-                "warning: 1 row of the stock table could name more than one item of the history, \
-                 so it is left out (write the name exactly as in the history): \"Seed\" (row 3) \
-                 could be \"Oak / Seed\" or \"Mill / Seed\"",
+                "warning: 1 row of the stock table names an item by one part of the history's \
+                 name for it (the history joins two columns into its items' names), and is read \
+                 as that item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\"",
+                "warning: 2 rows of the stock table name no item of the history",
             ],
         );
-        // A whole name before a part ("Mill" is an item); two rows for one item by its two
-        // parts: an error at the second.
+        // A part gives way to a row naming the item in full; two rows by parts are an error.
         check(
-            &["Mill", "FG-1", "Birch trellis"],
-            &items,
+            &["FG-1", "FG-1 / Birch trellis"],
+            &coded,
             &[
-                "Mill",
+                "FG-1 / Birch trellis",
+                "warning: 1 row of the stock table names by one part an item another row names \
+                 in full, so it is left out: \"FG-1\" (row 2) would be \"FG-1 / Birch \
+                 trellis\", which row 3 names",
+            ],
+        );
+        let unique = ["FG-1 / Birch trellis", "FG-2 / Rain barrel"];
+        check(
+            &["FG-1", "Birch trellis"],
+            &unique,
+            &[
                 "FG-1 / Birch trellis",
                 "warning: 1 row of the stock table names an item by one part",
-                "error 4 Birch trellis: this row and row 3 both name the history's \"FG-1 / \
+                "error 3 Birch trellis: this row and row 2 both name the history's \"FG-1 / \
                  Birch trellis\"",
             ],
+        );
+        // Stores and products both repeat: neither names an item alone.
+        let stores = ["Oak / Seed", "Mill / Seed", "Oak / Frost"];
+        check(
+            &["Seed", "Oak", "Frost"],
+            &stores,
+            &["warning: 3 rows of the stock table name no item of the history"],
+        );
+        // Names of one column, a few holding " / ", are not split; a description holding
+        // " / " in joined names is one part.
+        check(
+            &["Bark mulch"],
+            &["Bark mulch / 50 L", "Compost", "Trowel"],
+            &["warning: 1 row of the stock table names no item"],
+        );
+        check(
+            &["Hose 1/2 in / 15 m", "FG-2"],
+            &["FG-1 / Hose 1/2 in / 15 m", "FG-2 / Trowel", "FG-3 / Rake"],
+            &[
+                "FG-1 / Hose 1/2 in / 15 m",
+                "FG-2 / Trowel",
+                "warning: 2 rows of the stock table name an item by one part",
+            ],
+        );
+    }
+
+    #[test]
+    fn a_row_matched_by_a_part_agrees_with_the_columns_beside_it() {
+        let items = ["Oak / Seed", "Mill / Frost"];
+        let row = |line: usize, item: &str, store: &str| ReadRow {
+            line,
+            column: "Item".into(),
+            row: StockRow {
+                item: item.into(),
+                ..StockRow::default()
+            },
+            beside: vec![("Store".into(), store.into())],
+        };
+        let m = match_rows(vec![row(2, "Seed", "Oak"), row(3, "Frost", "Oak")], &items);
+        let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
+        assert_eq!(kept, ["Oak / Seed"]);
+        assert!(
+            m.warnings.iter().any(|w| w.contains(
+                "\"Frost\" (row 3) would be \"Mill / Frost\", but its \"Store\" says \"Oak\""
+            )),
+            "{:?}",
+            m.warnings
         );
     }
 

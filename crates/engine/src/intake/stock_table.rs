@@ -364,18 +364,18 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
                 });
             }
         }
-        let item = row_item(&r, &item_columns);
+        let item = row_item(&r, &item_columns.read);
         if item.is_empty() {
             bad.push(RowError {
                 row: r.line,
-                column: column_name(item_columns[0]),
+                column: column_name(item_columns.read[0]),
                 text: String::new(),
                 message: "the item name is missing".into(),
             });
         } else if seen.contains(&item) {
             bad.push(RowError {
                 row: r.line,
-                column: column_name(item_columns[0]),
+                column: column_name(item_columns.read[0]),
                 text: item.clone(),
                 message: "this item has a row above already: give one row per item".into(),
             });
@@ -416,7 +416,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             (Some(_), Some(_)) => {
                 bad.push(RowError {
                     row: r.line,
-                    column: column_name(item_columns[0]),
+                    column: column_name(item_columns.read[0]),
                     text: row.item.clone(),
                     message: "this row gives both a service level and a fill rate: keep one".into(),
                 });
@@ -440,10 +440,19 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             }
         }
         if bad.is_empty() {
+            let beside = item_columns
+                .beside
+                .iter()
+                .map(|&i| {
+                    let cell = r.cells.get(i).cloned().unwrap_or_default();
+                    (column_name(i), cell)
+                })
+                .collect();
             read.push(ReadRow {
                 line: r.line,
-                column: column_name(item_columns[0]),
+                column: column_name(item_columns.read[0]),
                 row,
+                beside,
             });
         } else {
             out.errors.extend(bad);
@@ -1050,24 +1059,21 @@ mod tests {
             !warns(&t, &["one part"]) && !warns(&t, &["left out"]),
             "{t:?}"
         );
-        // A few descriptions spelt otherwise: the code alone matches more rows, and is read.
+        // A description spelt otherwise: the two joined still name the most rows in full;
+        // that row names no item (the code alone would, but its description says otherwise).
         let t = check_against(
             &coded,
             "Code,Description,On hand\nFG-1,Birch trelis,5\nFG-2,Rain barrel,6\n",
-            &[
-                row_with_on_hand(trellis, 5.0),
-                row_with_on_hand(barrel, 6.0),
-            ],
+            &[row_with_on_hand(barrel, 6.0)],
             &[],
         );
-        assert!(warns(
-            &t,
-            &[
-                "\"Description\"",
-                "read from \"Code\"",
-                "(2 of 2 rows against 1)"
-            ]
-        ));
+        assert!(
+            warns(
+                &t,
+                &["no item of the history", "\"FG-1 / Birch trelis\" (row 2)"]
+            ),
+            "{t:?}"
+        );
         // The history names items by store and product; so does the stock table, in either
         // order.
         let stores = super::super::read(
@@ -1085,19 +1091,64 @@ mod tests {
         ] {
             check_against(&stores, text, &expected, &[]);
         }
-        // A product alone where two stores sell it could be either: left out, said; where one
-        // store sells it, that store's, said.
+        // A product alone names no item where a product is sold in two stores, even one
+        // that only one store sells (the stock of a store's list without its store column, or
+        // of the whole chain, is no one store's).
         let t = check_against(
             &stores,
             "Item,On hand\nSeed packets,11\nWillow basket,3\n",
-            &[row_with_on_hand("Oak Lane / Willow basket", 3.0)],
+            &[],
             &[],
         );
-        assert!(warns(
-            &t,
-            &["could name more than one item", "\"Seed packets\" (row 2)"]
-        ));
-        assert!(warns(&t, &["one part", "\"Willow basket\" (row 3)"]));
+        assert!(warns(&t, &["2 rows", "name no item"]), "{t:?}");
+        // Where every store sells products of its own, a product names its item; a "Store"
+        // beside it that says another store leaves the row out.
+        let own = super::super::read(
+            "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Oak Lane,Willow \
+             basket,1\n2024-01,Mill Road,Frost cloth,4\n2024-02,Oak Lane,Seed packets,5\n\
+             2024-02,Oak Lane,Willow basket,2\n2024-02,Mill Road,Frost cloth,6\n",
+        );
+        let t = check_against(
+            &own,
+            "Store,Item,On hand\nOak Lane,Frost cloth,7\n",
+            &[],
+            &[],
+        );
+        assert!(
+            warns(&t, &["\"Frost cloth\" (row 2) would be \"Mill Road / Frost cloth\", but its \"Store\" says \"Oak Lane\""]),
+            "{t:?}"
+        );
+        check_against(
+            &own,
+            "Item,On hand\nFrost cloth,7\n",
+            &[row_with_on_hand("Mill Road / Frost cloth", 7.0)],
+            &[],
+        );
+        // One store's history; a list of another store's stock is not its stock (the store
+        // column, left out for matching no name, still speaks against each row).
+        let one_store = super::super::read(
+            "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Oak Lane,Frost \
+             cloth,1\n2024-02,Oak Lane,Seed packets,5\n2024-02,Oak Lane,Frost cloth,2\n",
+        );
+        let t = check_against(
+            &one_store,
+            "Store,Item,On hand\nMill Road,Seed packets,7\nMill Road,Frost cloth,8\n",
+            &[],
+            &[],
+        );
+        assert!(
+            warns(&t, &["2 rows", "but its \"Store\" says \"Mill Road\""]),
+            "{t:?}"
+        );
+        // No column names any item: every item column joined names each row in the warning,
+        // not one column's repeats as "a row above".
+        let t = check_against(
+            &stores,
+            "Warehouse,Item,On hand\nCentral,Seed packets,7\nCentral,Frost cloth,8\n",
+            &[],
+            &[],
+        );
+        assert!(warns(&t, &["\"Central / Seed packets\" (row 2)"]), "{t:?}");
         // A second item column left empty changes no name: the first is read, not refused as
         // matching alike.
         check(
