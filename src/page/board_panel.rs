@@ -8,6 +8,7 @@
 
 use leptos::prelude::*;
 use morrowcast_engine::alerts::AlertKind;
+use morrowcast_engine::calendar::Frequency;
 use morrowcast_engine::settings::{Choice, SeasonChoice};
 use morrowcast_engine::stock::{read_lead_time, StockField, StockText, Target, TargetKind};
 
@@ -339,6 +340,19 @@ fn StockSetting(
     set: fn(&mut StockText, String),
 ) -> impl IntoView {
     let board = expect_context::<BoardState>();
+    let intake = expect_context::<IntakeState>();
+    // A figure in periods says what a period is in this history ("; here a period is a week").
+    let counts_periods = matches!(
+        field,
+        StockField::LeadTime | StockField::LeadTimeSd | StockField::ReviewPeriod
+    );
+    let hint_after = Signal::derive(move || {
+        intake.report.with(|r| match r.frequency {
+            _ if !counts_periods => String::new(),
+            Frequency::Undated => String::new(),
+            f => format!("; here a period is a {}", f.period_words().0),
+        })
+    });
     let error = Signal::derive(move || {
         board.stock_errors.with(|e| {
             e.iter()
@@ -347,7 +361,7 @@ fn StockSetting(
         })
     });
     view! {
-        <TextField id label hint error
+        <TextField id label hint error hint_after
             value=Signal::derive(move || board.stock_form.with(get))
             on_input=Callback::new(move |v| board.stock_form.update(|f| set(f, v)))/>
     }

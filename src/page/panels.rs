@@ -401,6 +401,9 @@ pub(super) fn TextField(
     #[prop(into)] value: Signal<String>,
     #[prop(into)] error: Signal<Option<String>>,
     on_input: Callback<String>,
+    /// Words after the hint that follow the data ("; here a period is a week").
+    #[prop(optional, into)]
+    hint_after: Signal<String>,
 ) -> impl IntoView {
     let hint_id = format!("{id}-hint");
     view! {
@@ -416,7 +419,7 @@ pub(super) fn TextField(
                 prop:value=move || value.get()
                 on:input=move |ev| on_input.run(event_target_value(&ev))
             />
-            <p class="hint" id=hint_id>{hint}</p>
+            <p class="hint" id=hint_id>{hint}{hint_after}</p>
             {move || error.get().map(|m| view! { <p class="field-error" role="alert">{m}</p> })}
         </div>
     }

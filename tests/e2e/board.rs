@@ -164,6 +164,12 @@ fn the_board_plans_every_item_and_saves_the_command_lines_order_plan() {
     wait_for_item(browser, "Seed packets");
     // The demo's six items are on the board first.
     wait_until_planned(browser, 6);
+    // A figure in periods says what a period is in this history.
+    let hint = browser.js("return document.getElementById('lead-time-hint').textContent");
+    assert_eq!(
+        hint,
+        json!("periods from ordering to receiving; here a period is a month")
+    );
     let text = many_items();
     paste(browser, &text);
     wait_until_planned(browser, 12);

@@ -305,6 +305,10 @@ pub struct IntakeReport {
     /// The last period, when its demand is so far below the periods before that it looks
     /// unfinished (data taken before it ended); a warning says why. Its figures are as read.
     pub unfinished_last: Option<UnfinishedPeriod>,
+    /// The headers of the columns whose cells name the items, in the order their cells are
+    /// joined with " / " ("Code", "Description" make "FG-1001 / Birch trellis"); empty where
+    /// the header names the items. A stock table matches its rows by these.
+    pub item_columns: Vec<String>,
 }
 
 impl IntakeReport {
@@ -527,6 +531,7 @@ fn empty_report(delimiter: Delimiter) -> IntakeReport {
         has_header: false,
         empty_cells: 0,
         unfinished_last: None,
+        item_columns: Vec::new(),
     }
 }
 
@@ -625,6 +630,11 @@ fn read_text(text: &str) -> IntakeReport {
         }
     };
     report.layout = plan.layout;
+    report.item_columns = plan
+        .item_columns
+        .iter()
+        .map(|&j| table.column_name(j))
+        .collect();
     if let Some(header) = table.header.as_ref().filter(|_| table.coded) {
         report.warnings.push(format!(
             "the header names the items by numbers ({}): read as item codes, not as a row of \

@@ -10,7 +10,7 @@
 //! uses).
 
 use super::build::{PART_JOIN, PLACE_WORDS};
-use super::headers::header_is_only;
+use super::headers::{header_is_only, header_says};
 use super::period_units::TimeUnit;
 use super::stock_names::{Found, ItemNames};
 use super::stock_table::StockTable;
@@ -215,7 +215,7 @@ pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
 fn names_place(header: &str) -> bool {
     let mut allowed = PLACE_WORDS.to_vec();
     allowed.extend(["name", "code", "id"]);
-    header_is_only(header, &allowed)
+    header_says(header, &PLACE_WORDS) && header_is_only(header, &allowed)
 }
 
 /// A header key without a word for counting before it ("qtyonhand" is "onhand").
@@ -335,10 +335,9 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
 pub(crate) struct ItemColumns {
     /// The columns whose cells, joined ([`row_item`]), name each row's item.
     pub read: Vec<usize>,
-    /// Columns that could have named the items, are left out, and hold parts of the
-    /// history's names (a "Store" beside the "Item" read): a row matched by one part must
-    /// agree with them (`stock_names::ReadRow::beside`).
-    pub beside: Vec<usize>,
+    /// Columns left out that speak of the history's items, each with whether strictly
+    /// (`stock_names::Beside`): a row matched by part must agree with them.
+    pub beside: Vec<(usize, bool)>,
 }
 
 /// The item columns: the only one, or, where several headers could name items ("SKU" and
@@ -352,9 +351,52 @@ pub(crate) fn choose_item_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
-    items: &[&str],
+    history: (&[&str], &[String]),
     warnings: &mut Vec<String>,
 ) -> Result<ItemColumns, RowError> {
+    let (items, item_headers) = history;
+    let names = ItemNames::new(items, item_headers.len());
+    let read = read_columns(columns, header, rows, &names, warnings)?;
+    let beside = witnesses(columns, header, rows, &read, &names, item_headers);
+    Ok(ItemColumns { read, beside })
+}
+
+/// The columns left out (`columns` `None`, not `read`) that speak of the history's items:
+/// strictly where the header names a place and so does one of the history's item columns
+/// (`item_headers`); else where some cell is a part of the history's names.
+fn witnesses(
+    columns: &[Option<(Field, Option<TimeUnit>)>],
+    header: &Record,
+    rows: &[Record],
+    read: &[usize],
+    names: &ItemNames,
+    item_headers: &[String],
+) -> Vec<(usize, bool)> {
+    let history_place = item_headers.iter().any(|h| names_place(h));
+    (0..header.cells.len())
+        .filter(|&i| columns.get(i).is_some_and(Option::is_none) && !read.contains(&i))
+        .filter(|&i| !header.cells[i].is_empty())
+        .filter_map(|i| {
+            let h = &header.cells[i];
+            // A store of another name is another store; a description in other words may
+            // still be the item's.
+            let strict = history_place && names_place(h);
+            let speaks = rows
+                .iter()
+                .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)));
+            (strict || speaks).then_some((i, strict))
+        })
+        .collect()
+}
+
+/// [`choose_item_columns`]'s choice of the columns read.
+fn read_columns(
+    columns: &mut [Option<(Field, Option<TimeUnit>)>],
+    header: &Record,
+    rows: &[Record],
+    names: &ItemNames,
+    warnings: &mut Vec<String>,
+) -> Result<Vec<usize>, RowError> {
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
@@ -372,15 +414,9 @@ pub(crate) fn choose_item_columns(
                     .into(),
             ))
         }
-        [one] => {
-            return Ok(ItemColumns {
-                read: vec![*one],
-                beside: Vec::new(),
-            })
-        }
+        [one] => return Ok(vec![*one]),
         _ => {}
     }
-    let names = ItemNames::new(items);
     // Each column alone, then every arrangement of two or more (the history may join a store
     // and a product in either order); past five item headers, each alone, every two in
     // either order, and all in the header's order.
@@ -432,8 +468,18 @@ pub(crate) fn choose_item_columns(
             [] => String::new(),
         }
     };
-    // Two columns naming every row alike ("SKU" beside a copy, "Code") are one choice.
-    let alike = |a: &[usize], b: &[usize]| rows.iter().all(|r| row_item(r, a) == row_item(r, b));
+    // Two choices giving every row the same item ("SKU" beside a copy; a code and a
+    // description of a history that joins a category too) are one choice.
+    let item_of = |r: &Record, chosen: &[usize]| match names.find(&row_item(r, chosen)) {
+        Found::Exact(i) | Found::Key(i) | Found::Part(i) => Some(i),
+        Found::Several(_) | Found::Nowhere => None,
+    };
+    let alike = |a: &[usize], b: &[usize]| {
+        rows.iter().all(|r| {
+            let (x, y) = (item_of(r, a), item_of(r, b));
+            x == y && (x.is_some() || row_item(r, a) == row_item(r, b))
+        })
+    };
     let first = &choices[tied[0]];
     if top != (0, 0, 0) && tied.iter().any(|&k| !alike(first, &choices[k])) {
         let names: Vec<String> = tied.iter().map(|&k| named(&choices[k])).collect();
@@ -451,7 +497,6 @@ pub(crate) fn choose_item_columns(
         first.clone()
     };
     let matched = |s: (usize, usize, usize)| s.0 + s.2;
-    let mut beside = Vec::new();
     for &i in candidates.iter().filter(|i| !best.contains(i)) {
         columns[i] = None;
         warnings.push(format!(
@@ -465,18 +510,8 @@ pub(crate) fn choose_item_columns(
             matched(score(&[i])),
             header.cells[i]
         ));
-        // A column speaks of the history's items when it holds a part of their names, or
-        // names a place where the history joins one (a "Store" of another store than the
-        // history's); a bin "Location" beside codes and descriptions does not.
-        let speaks = rows
-            .iter()
-            .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)))
-            || (names.has_shared_place() && names_place(&header.cells[i]));
-        if speaks {
-            beside.push(i);
-        }
     }
-    Ok(ItemColumns { read: best, beside })
+    Ok(best)
 }
 
 /// Every arrangement of some of `from` (each once, in every order) after `prefix`, into

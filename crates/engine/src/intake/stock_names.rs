@@ -7,19 +7,24 @@
 //!
 //! Rules (our choices): a row naming an item exactly is that item's; otherwise a row whose
 //! name has the same key ([`name_key`]) as exactly one item is that item's, said in a warning
-//! naming both spellings; otherwise, where the history joined two columns into its items'
-//! names ("FG-1001 / Birch trellis", a code and a description, or a store and an item), a row
-//! whose key is that of one part of exactly one item's name is that item's, said in a warning
-//! too (a stock table commonly names items by their code alone); a key, or a part, shared by
-//! several items matches none (said, left out); a row naming no item is left out, said (a
-//! "Total" row, an item the history does not hold); two rows that come to the same item are an
-//! error at the second. [`ItemNames::find`] is the one lookup: the item column's choice
-//! (`stock_columns`) scores columns by it too.
+//! naming both spellings. Where the history joins columns into its items' names (its report's
+//! `item_columns`: "FG-1001 / Birch trellis", a code and a description, or a store and a
+//! product), a name may match by its parts (said in a warning too; a stock table commonly
+//! names items by their code alone): all of them by their keys ("Oak Lane / 123" for "Oak
+//! Lane / 00123"), some of them in the history's order ("Branch 3 / FG-1001" of a branch, a
+//! code and a description), or one, only in a place where every item's part differs (codes,
+//! unshared descriptions; never a store, a category or a product two stores sell). A row
+//! matched by part must agree with the columns beside it that speak of the history's items
+//! ([`Beside`]: a store column naming another store leaves it out) and gives way to a row
+//! naming the item in full. A key or parts shared by several items match none (said, left
+//! out); a row naming no item is left out, said (a "Total" row, an item the history does not
+//! hold); two rows that come to the same item in full, or both by part, are an error at the
+//! second. [`ItemNames::find`] is the one lookup: the item columns' choice (`stock_columns`)
+//! scores columns by it too.
 
 use super::build::{agreeing, count, listing, PART_JOIN};
 use super::stock_table::StockRow;
 use super::RowError;
-use std::cmp::Ordering;
 use std::collections::{HashMap, HashSet};
 
 /// A name without case, white space or punctuation; a name of digits alone also without its
@@ -53,7 +58,7 @@ pub(crate) enum Found {
     Exact(usize),
     /// The same key ([`name_key`]) as this item alone.
     Key(usize),
-    /// The key of one part of this item's joined name, and of no other item's.
+    /// Some of this item's parts, and no other item's.
     Part(usize),
     /// The key, or a part's key, of these items: none is taken.
     Several(Vec<usize>),
@@ -66,47 +71,45 @@ pub(crate) struct ItemNames<'a> {
     by_key: HashMap<String, Vec<usize>>,
     /// The keys of the parts that name one item each (see [`ItemNames::new`]).
     by_part: HashMap<String, Vec<usize>>,
+    /// Items by the keys of their parts in two places or more ([`places_key`]): all of them
+    /// ("Oak Lane / 123" for "Oak Lane / 00123"), or some ("Branch 3 / FG-1001" for
+    /// "Branch 3 / FG-1001 / Birch trellis").
+    by_places: HashMap<String, Vec<usize>>,
+    /// How many places the history's names join (0 where they are not joined).
+    places: usize,
     /// Each item's parts' keys, where the history joins its names from columns.
     parts: Vec<Vec<String>>,
     /// Every part's key of every item.
     any_part: HashSet<String>,
-    /// See [`ItemNames::has_shared_place`].
-    shared_place: bool,
 }
 
 impl<'a> ItemNames<'a> {
-    /// Indexes `names`. Parts only where the history joined its names from columns: every
-    /// name has two parts or more (the fewest any has are the places; a name with more has its
-    /// last parts taken as one, a description holding " / "). Of those places, a part is
-    /// looked up only in one whose every item's part differs (a code, a description): a
-    /// store, a category or a product sold in two stores names no item alone.
-    pub(crate) fn new(names: &'a [&'a str]) -> ItemNames<'a> {
+    /// Indexes `names`, read from `joined` columns each (the history's `item_columns`). Parts
+    /// only where the history joined two or more columns, and only of names that split into
+    /// as many parts (a name holding " / " in a cell, or with an empty cell, has its parts'
+    /// places unknown: matched in full only). Of those places, a part is looked up only in
+    /// one whose every item's part differs (a code, a description): a store, a category or a
+    /// product sold in two stores names no item alone.
+    pub(crate) fn new(names: &'a [&'a str], joined: usize) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, n) in names.iter().enumerate() {
             by_key.entry(name_key(n)).or_default().push(i);
         }
-        let split: Vec<Vec<&str>> = names
+        let places = if joined >= 2 { joined } else { 0 };
+        let parts: Vec<Vec<String>> = names
             .iter()
-            .map(|n| n.split(PART_JOIN).map(str::trim).collect())
-            .collect();
-        let places = split.iter().map(Vec::len).min().unwrap_or(1);
-        let parts: Vec<Vec<String>> = split
-            .iter()
-            .map(|s| match s.len().cmp(&places) {
-                _ if places < 2 => Vec::new(),
-                Ordering::Less | Ordering::Equal => s.iter().map(|p| name_key(p)).collect(),
-                Ordering::Greater => {
-                    let mut keys: Vec<String> =
-                        s[..places - 1].iter().map(|p| name_key(p)).collect();
-                    keys.push(name_key(&s[places - 1..].join(PART_JOIN)));
-                    keys
+            .map(|n| {
+                let split: Vec<&str> = n.split(PART_JOIN).map(str::trim).collect();
+                if places > 0 && split.len() == places {
+                    split.iter().map(|p| name_key(p)).collect()
+                } else {
+                    Vec::new()
                 }
             })
             .collect();
         let mut by_part: HashMap<String, Vec<usize>> = HashMap::new();
-        let mut shared_place = false;
-        for place in 0..places.max(1) {
+        for place in 0..places {
             let at: Vec<(usize, &String)> = parts
                 .iter()
                 .enumerate()
@@ -114,11 +117,20 @@ impl<'a> ItemNames<'a> {
                 .collect();
             let distinct: HashSet<&String> = at.iter().map(|(_, k)| *k).collect();
             if distinct.len() < at.len() {
-                shared_place = true;
                 continue;
             }
             for (i, key) in at.into_iter().filter(|(_, k)| !k.is_empty()) {
                 by_part.entry(key.clone()).or_default().push(i);
+            }
+        }
+        let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
+        for chosen in place_sets(places) {
+            for (i, p) in parts.iter().enumerate().filter(|(_, p)| !p.is_empty()) {
+                let keys: Vec<&str> = chosen.iter().map(|&at| p[at].as_str()).collect();
+                by_places
+                    .entry(places_key(&chosen, &keys))
+                    .or_default()
+                    .push(i);
             }
         }
         let any_part = parts.iter().flatten().cloned().collect();
@@ -126,17 +138,11 @@ impl<'a> ItemNames<'a> {
             exact,
             by_key,
             by_part,
+            by_places,
+            places,
             parts,
             any_part,
-            shared_place,
         }
-    }
-
-    /// Whether the history's names join a place whose parts repeat across items (a store
-    /// selling several products, a category), so a stock table's store column speaks of them
-    /// even where its stores are not the history's.
-    pub(crate) fn has_shared_place(&self) -> bool {
-        self.shared_place
     }
 
     /// Where `name` is found: exactly, else by its key, else by a part's key.
@@ -150,13 +156,34 @@ impl<'a> ItemNames<'a> {
             [i] => one(*i),
             _ => Found::Several(items.to_vec()),
         };
-        match self.by_key.get(&key) {
-            Some(items) => several(items, Found::Key),
-            None => several(
+        if let Some(items) = self.by_key.get(&key) {
+            return several(items, Found::Key);
+        }
+        let asked: Vec<String> = name.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
+        if asked.len() < 2 {
+            return several(
                 self.by_part.get(&key).map_or(&[][..], Vec::as_slice),
                 Found::Part,
-            ),
+            );
         }
+        // Parts in two places or more: every place (a name as the history's but for a part's
+        // case or leading zeros), else as many places in the history's order.
+        let keys: Vec<&str> = asked.iter().map(String::as_str).collect();
+        let mut found: Vec<usize> = Vec::new();
+        for chosen in place_sets(self.places).filter(|c| c.len() == keys.len()) {
+            for &i in self
+                .by_places
+                .get(&places_key(&chosen, &keys))
+                .into_iter()
+                .flatten()
+            {
+                if !found.contains(&i) {
+                    found.push(i);
+                }
+            }
+        }
+        let whole = keys.len() == self.places;
+        several(&found, if whole { Found::Key } else { Found::Part })
     }
 
     /// Whether `cell` is a part of some item's joined name (a column holding such cells
@@ -172,15 +199,42 @@ impl<'a> ItemNames<'a> {
     }
 }
 
+/// The sets of two places or more among `places` (each in increasing order); past four
+/// places only all of them.
+fn place_sets(places: usize) -> impl Iterator<Item = Vec<usize>> {
+    let every = (1u32 << places.min(31)).saturating_sub(1);
+    (1u32..=every)
+        .filter(move |mask| mask.count_ones() >= 2 && (places <= 4 || *mask == every))
+        .map(move |mask| (0..places).filter(|at| mask & (1 << at) != 0).collect())
+}
+
+/// The key of parts' keys `keys` in places `chosen`.
+fn places_key(chosen: &[usize], keys: &[&str]) -> String {
+    let at: Vec<String> = chosen.iter().map(usize::to_string).collect();
+    format!("{}\u{1f}{}", at.join(","), keys.join("\u{1f}"))
+}
+
 /// A row read, with the line it stands on and its item column's header.
 pub(crate) struct ReadRow {
     pub line: usize,
     pub column: String,
     pub row: StockRow,
-    /// The row's cells (header, text) in columns that could have named the items, were left
-    /// out, and hold parts of the history's names (a "Store" beside the "Item" read): a row
-    /// matched by one part must agree with them.
-    pub beside: Vec<(String, String)>,
+    /// The row's cells in columns left out that speak of the history's items (`stock_columns::
+    /// witnesses`): a row matched by part must agree with them.
+    pub beside: Vec<Beside>,
+}
+
+/// A cell beside a row's item, in a column left out that speaks of the history's items.
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) struct Beside {
+    pub header: String,
+    pub cell: String,
+    /// The column is one of the history's item columns by its header ("Store" beside
+    /// "Store"), or names a place where the history joins one: a cell that is not a part of
+    /// the item names another. Otherwise it only holds some of the history's parts: a cell
+    /// speaks against the item only when it is another item's part (a bin "B-00-2" or a
+    /// supplier's wording names nothing).
+    pub strict: bool,
 }
 
 /// What matching left: the rows of the history's items, under the history's names, and what
@@ -194,8 +248,8 @@ pub(crate) struct Matched {
 
 /// Matches `read` to the history's item names `items`: rows naming an item exactly or by key
 /// first, then rows naming one by a part, which give way to them.
-pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
-    let names = ItemNames::new(items);
+pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], joined: usize) -> Matched {
+    let names = ItemNames::new(items, joined);
     let mut out = Matched::default();
     let (mut renamed, mut by_part, mut unknown, mut ambiguous, mut disagree, mut second) = (
         Vec::new(),
@@ -236,14 +290,15 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
                 _ => continue,
             };
             if by_a_part {
-                let against = r
-                    .beside
-                    .iter()
-                    .find(|(_, cell)| !cell.is_empty() && !names.agrees(index, cell, items[index]));
-                if let Some((header, cell)) = against {
+                let against = r.beside.iter().find(|b| {
+                    !b.cell.is_empty()
+                        && !names.agrees(index, &b.cell, items[index])
+                        && (b.strict || names.is_a_part(&b.cell))
+                });
+                if let Some(b) = against {
                     disagree.push(format!(
-                        "\"{}\" (row {line}) would be \"{}\", but its \"{header}\" says \"{cell}\"",
-                        r.row.item, items[index]
+                        "\"{}\" (row {line}) would be \"{}\", but its \"{}\" says \"{}\"",
+                        r.row.item, items[index], b.header, b.cell
                     ));
                     continue;
                 }
@@ -262,7 +317,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
                     text: r.row.item.clone(),
                     message: format!(
                         "this row and row {first} both name the history's \"{}\" (names are \
-                         matched without case, spacing or punctuation, and by one part of a \
+                         matched without case, spacing or punctuation, and by part of a \
                          joined name): keep one",
                         items[index]
                     ),
@@ -301,8 +356,8 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
     }
     if !by_part.is_empty() {
         out.warnings.push(format!(
-            "{} of the stock table {} an item by one part of the history's name for it (the \
-             history joins two columns into its items' names), and {} read as that item: {}",
+            "{} of the stock table {} an item by part of the history's name for it (the \
+             history joins columns into its items' names), and {} read as that item: {}",
             count(by_part.len(), "row"),
             agreeing(by_part.len(), "names", "name"),
             agreeing(by_part.len(), "is", "are"),
@@ -311,7 +366,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
     }
     if !disagree.is_empty() {
         out.warnings.push(format!(
-            "{} of the stock table {} an item by one part of the history's name, but another \
+            "{} of the stock table {} an item by part of the history's name, but another \
              of {} columns names another, so {} left out: {}",
             count(disagree.len(), "row"),
             agreeing(disagree.len(), "names", "name"),
@@ -322,7 +377,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str]) -> Matched {
     }
     if !second.is_empty() {
         out.warnings.push(format!(
-            "{} of the stock table {} by one part an item another row names in full, so {} \
+            "{} of the stock table {} by part an item another row names in full, so {} \
              left out: {}",
             count(second.len(), "row"),
             agreeing(second.len(), "names", "name"),
@@ -358,6 +413,11 @@ mod tests {
     /// Rows named `names` (on lines 2, 3, ...) against `items`: the kept rows' names, then
     /// each warning and error.
     fn check(names: &[&str], items: &[&str], expected: &[&str]) {
+        check_joined(names, items, 1, expected);
+    }
+
+    /// [`check`] against items named by `joined` columns.
+    fn check_joined(names: &[&str], items: &[&str], joined: usize, expected: &[&str]) {
         let read = names
             .iter()
             .enumerate()
@@ -371,7 +431,7 @@ mod tests {
                 beside: Vec::new(),
             })
             .collect();
-        let m = match_rows(read, items);
+        let m = match_rows(read, items, joined);
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
         got.extend(m.warnings.iter().map(|w| format!("warning: {w}")));
         got.extend(
@@ -440,60 +500,97 @@ mod tests {
             "FG-2 / Rain barrel",
             "FG-3 / Rain barrel",
         ];
-        check(
+        check_joined(
             &["fg 1", "Rain barrel", "Birch trellis"],
             &coded,
+            2,
             &[
                 "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names an item by one part of the history's \
-                 name for it (the history joins two columns into its items' names), and is read \
+                "warning: 1 row of the stock table names an item by part of the history's \
+                 name for it (the history joins columns into its items' names), and is read \
                  as that item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\"",
                 "warning: 2 rows of the stock table name no item of the history",
             ],
         );
         // A part gives way to a row naming the item in full; two rows by parts are an error.
-        check(
+        check_joined(
             &["FG-1", "FG-1 / Birch trellis"],
             &coded,
+            2,
             &[
                 "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names by one part an item another row names \
+                "warning: 1 row of the stock table names by part an item another row names \
                  in full, so it is left out: \"FG-1\" (row 2) would be \"FG-1 / Birch \
                  trellis\", which row 3 names",
             ],
         );
         let unique = ["FG-1 / Birch trellis", "FG-2 / Rain barrel"];
-        check(
+        check_joined(
             &["FG-1", "Birch trellis"],
             &unique,
+            2,
             &[
                 "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names an item by one part",
+                "warning: 1 row of the stock table names an item by part",
                 "error 3 Birch trellis: this row and row 2 both name the history's \"FG-1 / \
                  Birch trellis\"",
             ],
         );
         // Stores and products both repeat: neither names an item alone.
         let stores = ["Oak / Seed", "Mill / Seed", "Oak / Frost"];
-        check(
+        check_joined(
             &["Seed", "Oak", "Frost"],
             &stores,
+            2,
             &["warning: 3 rows of the stock table name no item of the history"],
         );
-        // Names of one column, a few holding " / ", are not split; a description holding
-        // " / " in joined names is one part.
+        // Names of one column holding " / " are never split.
         check(
             &["Bark mulch"],
-            &["Bark mulch / 50 L", "Compost", "Trowel"],
+            &["Bark mulch / 50 L", "Basil pot / 1 L", "Trowel / steel"],
             &["warning: 1 row of the stock table names no item"],
         );
-        check(
+        // A cell holding " / " leaves its name's places unknown: that item is matched in full
+        // only, the others by parts still.
+        check_joined(
             &["Hose 1/2 in / 15 m", "FG-2"],
             &["FG-1 / Hose 1/2 in / 15 m", "FG-2 / Trowel", "FG-3 / Rake"],
+            2,
             &[
-                "FG-1 / Hose 1/2 in / 15 m",
                 "FG-2 / Trowel",
-                "warning: 2 rows of the stock table name an item by one part",
+                "warning: 1 row of the stock table names an item by part",
+                "warning: 1 row of the stock table names no item",
+            ],
+        );
+    }
+
+    #[test]
+    fn parts_in_several_places_match_by_their_keys() {
+        // A branch, a code of digits and a description joined.
+        let items = [
+            "Oak / 00123 / Trowel",
+            "Mill / 00123 / Trowel",
+            "Oak / 00456 / Rake",
+        ];
+        check_joined(
+            &[
+                "Mill / 123 / trowel",
+                "Oak / 123",
+                "Oak / Rake",
+                "00123",
+                "Trowel / Oak",
+            ],
+            &items,
+            3,
+            &[
+                "Mill / 00123 / Trowel",
+                "Oak / 00123 / Trowel",
+                "Oak / 00456 / Rake",
+                "warning: 1 row of the stock table names an item as the history does but for \
+                 case, spacing, punctuation or leading zeros, and is read as that item: \"Mill \
+                 / 123 / trowel\" (row 2) as \"Mill / 00123 / Trowel\"",
+                "warning: 2 rows of the stock table name an item by part",
+                "warning: 2 rows of the stock table name no item",
             ],
         );
     }
@@ -508,9 +605,17 @@ mod tests {
                 item: item.into(),
                 ..StockRow::default()
             },
-            beside: vec![("Store".into(), store.into())],
+            beside: vec![Beside {
+                header: "Store".into(),
+                cell: store.into(),
+                strict: true,
+            }],
         };
-        let m = match_rows(vec![row(2, "Seed", "Oak"), row(3, "Frost", "Oak")], &items);
+        let m = match_rows(
+            vec![row(2, "Seed", "Oak"), row(3, "Frost", "Oak")],
+            &items,
+            2,
+        );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["Oak / Seed"]);
         assert!(

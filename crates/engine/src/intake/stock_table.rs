@@ -40,7 +40,7 @@ use super::period_units::{split_unit, to_periods, TimeUnit};
 use super::stock_columns::{
     choose_item_columns, column_of, row_item, set_aside_second_spellings, unusable_time, Field,
 };
-use super::stock_names::{match_rows, ReadRow};
+use super::stock_names::{match_rows, Beside, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
 use super::{DecimalMark, Delimiter, IntakeReport, RowError};
 use crate::calendar::Frequency;
@@ -262,14 +262,19 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     // Known headers, before the item column's choice and the second spellings set some aside
     // (each with its own warning).
     let known: Vec<bool> = columns.iter().map(Option::is_some).collect();
-    let item_columns =
-        match choose_item_columns(&mut columns, &header, &rows, &item_names, &mut out.warnings) {
-            Ok(i) => i,
-            Err(e) => {
-                out.errors.push(e);
-                return out;
-            }
-        };
+    let item_columns = match choose_item_columns(
+        &mut columns,
+        &header,
+        &rows,
+        (&item_names, &history.item_columns),
+        &mut out.warnings,
+    ) {
+        Ok(i) => i,
+        Err(e) => {
+            out.errors.push(e);
+            return out;
+        }
+    };
     set_aside_second_spellings(&mut columns, &header, &mut out);
     for (i, h) in header.cells.iter().enumerate() {
         if known[i] || h.is_empty() {
@@ -443,9 +448,10 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
             let beside = item_columns
                 .beside
                 .iter()
-                .map(|&i| {
-                    let cell = r.cells.get(i).cloned().unwrap_or_default();
-                    (column_name(i), cell)
+                .map(|&(i, strict)| Beside {
+                    header: column_name(i),
+                    cell: r.cells.get(i).cloned().unwrap_or_default(),
+                    strict,
                 })
                 .collect();
             read.push(ReadRow {
@@ -459,7 +465,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         }
     }
     out.warnings.extend(notes.warnings(history.frequency));
-    let matched = match_rows(read, &item_names);
+    let matched = match_rows(read, &item_names, history.item_columns.len());
     out.rows = matched.rows;
     out.warnings.extend(matched.warnings);
     out.errors.extend(matched.errors);
@@ -1041,7 +1047,7 @@ mod tests {
             &t,
             &[
                 "2 rows",
-                "one part",
+                "by part of",
                 "\"FG-1\" (row 2) as \"FG-1 / Birch trellis\""
             ]
         ));
@@ -1056,7 +1062,7 @@ mod tests {
             &[],
         );
         assert!(
-            !warns(&t, &["one part"]) && !warns(&t, &["left out"]),
+            !warns(&t, &["by part of"]) && !warns(&t, &["left out"]),
             "{t:?}"
         );
         // A description spelt otherwise: the two joined still name the most rows in full;
