@@ -198,21 +198,29 @@ fn field_named(key: &str) -> Option<Field> {
 /// A column: its field, and the unit of time its header names, if any.
 pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     let key = normalise(header);
-    column_of_key(&key)
-        .or_else(|| {
-            // "Qty on hand", "Quantity on order (units)".
-            without_quantity_word(&key)
-                .and_then(column_of_key)
-                .filter(|(f, _)| f.counts_units())
-        })
-        .or_else(|| names_place(header).then_some((Field::Item, None)))
+    column_of_key(&key).or_else(|| {
+        // "Qty on hand", "Quantity on order (units)".
+        without_quantity_word(&key)
+            .and_then(column_of_key)
+            .filter(|(f, _)| f.counts_units())
+    })
 }
 
-/// Whether a header names only a place ("Store", "Branch no", "Warehouse code"): a part of
-/// the item where the history names items by a place and a product ("Oak Lane / Seed
-/// packets"), so a candidate item column ([`choose_item_columns`] joins it to the product's
-/// where that names the history's items).
-fn names_place(header: &str) -> bool {
+/// Whether a stock table's header names a part of the items the history joins (`item_headers`,
+/// its report's `item_columns`): one of them ("Garden centre" beside "Garden centre"), or a
+/// place where one of them names a place ("Branch" beside "Store"). Such a column may be read
+/// with the item column (joined as the history joins them, [`choose_item_columns`]); beside
+/// a history of items named alone, a "Location" or "Site" is no item (a bin, a depot number).
+pub(crate) fn names_a_history_part(header: &str, item_headers: &[String]) -> bool {
+    item_headers.len() >= 2
+        && (item_headers
+            .iter()
+            .any(|h| normalise(h) == normalise(header))
+            || (names_place(header) && item_headers.iter().any(|h| names_place(h))))
+}
+
+/// Whether a header names only a place ("Store", "Branch no", "Warehouse code").
+pub(crate) fn names_place(header: &str) -> bool {
     let mut allowed = PLACE_WORDS.to_vec();
     allowed.extend(["name", "code", "id"]);
     header_says(header, &PLACE_WORDS) && header_is_only(header, &allowed)
@@ -355,15 +363,16 @@ pub(crate) fn choose_item_columns(
     warnings: &mut Vec<String>,
 ) -> Result<ItemColumns, RowError> {
     let (items, item_headers) = history;
-    let names = ItemNames::new(items, item_headers.len());
-    let read = read_columns(columns, header, rows, &names, warnings)?;
+    let names = ItemNames::new(items, item_headers);
+    let read = read_columns(columns, header, rows, (&names, item_headers), warnings)?;
     let beside = witnesses(columns, header, rows, &read, &names, item_headers);
     Ok(ItemColumns { read, beside })
 }
 
 /// The columns left out (`columns` `None`, not `read`) that speak of the history's items:
-/// strictly where the header names a place and so does one of the history's item columns
-/// (`item_headers`); else where some cell is a part of the history's names.
+/// strictly where the header names a part the history joins as a group's ([`ItemNames`]:
+/// a store, a region) and no column read does (a bin "Location" beside a "Store" read is
+/// no store); else where some cell is a part of the history's names.
 fn witnesses(
     columns: &[Option<(Field, Option<TimeUnit>)>],
     header: &Record,
@@ -372,15 +381,13 @@ fn witnesses(
     names: &ItemNames,
     item_headers: &[String],
 ) -> Vec<(usize, bool)> {
-    let history_place = item_headers.iter().any(|h| names_place(h));
+    let names_group = |h: &str| names.names_a_group(h, item_headers);
+    let read_group = read.iter().any(|&i| names_group(&header.cells[i]));
     (0..header.cells.len())
         .filter(|&i| columns.get(i).is_some_and(Option::is_none) && !read.contains(&i))
         .filter(|&i| !header.cells[i].is_empty())
         .filter_map(|i| {
-            let h = &header.cells[i];
-            // A store of another name is another store; a description in other words may
-            // still be the item's.
-            let strict = history_place && names_place(h);
+            let strict = !read_group && names_group(&header.cells[i]);
             let speaks = rows
                 .iter()
                 .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)));
@@ -394,9 +401,10 @@ fn read_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
-    names: &ItemNames,
+    history: (&ItemNames, &[String]),
     warnings: &mut Vec<String>,
 ) -> Result<Vec<usize>, RowError> {
+    let (names, item_headers) = history;
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
@@ -433,11 +441,27 @@ fn read_columns(
     // (rows matched in full, exactly, by one part): a part never outweighs a name matched in
     // full (a "Willow basket" sold only in one store must not take the "Store" and "Item"
     // joined that name every row).
+    // Last, how many of the choice's headers are the history's own in the history's order
+    // ("Branch", "Code" over "Code", "Branch" where numbers cross).
+    let in_order = |chosen: &[usize]| {
+        let at: Vec<usize> = chosen
+            .iter()
+            .filter_map(|&i| {
+                let h = normalise(&header.cells[i]);
+                item_headers.iter().position(|g| normalise(g) == h)
+            })
+            .collect();
+        if at.windows(2).all(|w| w[0] < w[1]) {
+            at.len()
+        } else {
+            0
+        }
+    };
     let score = |chosen: &[usize]| {
-        let mut s = (0, 0, 0);
+        let mut s = (0, 0, 0, in_order(chosen));
         for r in rows {
             match names.find(&row_item(r, chosen)) {
-                Found::Exact(_) => s = (s.0 + 1, s.1 + 1, s.2),
+                Found::Exact(_) => (s.0, s.1) = (s.0 + 1, s.1 + 1),
                 Found::Key(_) => s.0 += 1,
                 Found::Part(_) => s.2 += 1,
                 Found::Several(_) | Found::Nowhere => {}
@@ -445,7 +469,7 @@ fn read_columns(
         }
         s
     };
-    let scores: Vec<(usize, usize, usize)> = choices.iter().map(|c| score(c)).collect();
+    let scores: Vec<(usize, usize, usize, usize)> = choices.iter().map(|c| score(c)).collect();
     let top = *scores.iter().max().expect("two choices or more");
     // Of choices that name the rows alike, the fewest columns (a column of empty cells
     // joined to another changes no name).
@@ -477,11 +501,13 @@ fn read_columns(
     let alike = |a: &[usize], b: &[usize]| {
         rows.iter().all(|r| {
             let (x, y) = (item_of(r, a), item_of(r, b));
-            x == y && (x.is_some() || row_item(r, a) == row_item(r, b))
+            // A row naming no item either way ("Total") tells the choices no apart.
+            x == y
         })
     };
     let first = &choices[tied[0]];
-    if top != (0, 0, 0) && tied.iter().any(|&k| !alike(first, &choices[k])) {
+    let nothing = (top.0, top.1, top.2) == (0, 0, 0);
+    if !nothing && tied.iter().any(|&k| !alike(first, &choices[k])) {
         let names: Vec<String> = tied.iter().map(|&k| named(&choices[k])).collect();
         return Err(at_header(format!(
             "{} could each name the items, and their names match the history's as often: keep \
@@ -491,12 +517,12 @@ fn read_columns(
     }
     // Nothing matches: every item column joined, so each row's unknown name is said whole
     // ("Central DC / Seed packets") rather than one column's repeating as "a row above".
-    let best = if top == (0, 0, 0) {
+    let best = if nothing {
         candidates.clone()
     } else {
         first.clone()
     };
-    let matched = |s: (usize, usize, usize)| s.0 + s.2;
+    let matched = |s: (usize, usize, usize, usize)| s.0 + s.2;
     for &i in candidates.iter().filter(|i| !best.contains(i)) {
         columns[i] = None;
         warnings.push(format!(

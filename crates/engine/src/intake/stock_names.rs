@@ -22,7 +22,9 @@
 //! second. [`ItemNames::find`] is the one lookup: the item columns' choice (`stock_columns`)
 //! scores columns by it too.
 
+use super::build::PLACE_WORDS;
 use super::build::{agreeing, count, listing, PART_JOIN};
+use super::headers::header_says;
 use super::stock_table::StockRow;
 use super::RowError;
 use std::collections::{HashMap, HashSet};
@@ -77,45 +79,61 @@ pub(crate) struct ItemNames<'a> {
     by_places: HashMap<String, Vec<usize>>,
     /// How many places the history's names join (0 where they are not joined).
     places: usize,
-    /// Each item's parts' keys, where the history joins its names from columns.
+    /// The places of groups of items: a store, a region, a category ([`names_group`]).
+    groups: Vec<usize>,
+    /// Each item's parts' keys, where its name splits into the history's places.
     parts: Vec<Vec<String>>,
+    /// The pieces' keys of the names that do not (a cell holding " / ", an empty cell):
+    /// such an item may hold any part asked for.
+    unplaced: Vec<(usize, HashSet<String>)>,
     /// Every part's key of every item.
     any_part: HashSet<String>,
+    /// The items holding each part's key in any place: a part that names none alone but
+    /// several is said to be theirs ("could be ...").
+    holding: HashMap<String, Vec<usize>>,
 }
 
 impl<'a> ItemNames<'a> {
-    /// Indexes `names`, read from `joined` columns each (the history's `item_columns`). Parts
-    /// only where the history joined two or more columns, and only of names that split into
-    /// as many parts (a name holding " / " in a cell, or with an empty cell, has its parts'
-    /// places unknown: matched in full only). Of those places, a part is looked up only in
-    /// one whose every item's part differs (a code, a description): a store, a category or a
-    /// product sold in two stores names no item alone.
-    pub(crate) fn new(names: &'a [&'a str], joined: usize) -> ItemNames<'a> {
+    /// Indexes `names`, read from the history's item columns headed `headers` (the report's
+    /// `item_columns`). Parts only where the history joined two or more columns; a name that
+    /// splits into as many parts has them in places, any other (a name holding " / " in a
+    /// cell, or with an empty cell) only pieces, which may hold whatever is asked for. A part
+    /// alone is looked up only in a place whose every item's part differs and that is no
+    /// group's (a code, a description; never a store, a region, a category or a product sold
+    /// in two stores); parts in several places only with one of them no group's.
+    pub(crate) fn new(names: &'a [&'a str], headers: &[String]) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, n) in names.iter().enumerate() {
             by_key.entry(name_key(n)).or_default().push(i);
         }
-        let places = if joined >= 2 { joined } else { 0 };
-        let parts: Vec<Vec<String>> = names
-            .iter()
-            .map(|n| {
-                let split: Vec<&str> = n.split(PART_JOIN).map(str::trim).collect();
-                if places > 0 && split.len() == places {
-                    split.iter().map(|p| name_key(p)).collect()
-                } else {
-                    Vec::new()
+        let places = if headers.len() >= 2 { headers.len() } else { 0 };
+        let mut parts: Vec<Vec<String>> = Vec::new();
+        let mut unplaced = Vec::new();
+        for (i, n) in names.iter().enumerate() {
+            let split: Vec<String> = n.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
+            if places > 0 && split.len() == places {
+                parts.push(split);
+            } else {
+                if places > 0 {
+                    unplaced.push((i, split.into_iter().collect()));
                 }
-            })
-            .collect();
+                parts.push(Vec::new());
+            }
+        }
         let mut by_part: HashMap<String, Vec<usize>> = HashMap::new();
-        for place in 0..places {
+        let mut groups = Vec::new();
+        for (place, header) in headers.iter().enumerate().take(places) {
             let at: Vec<(usize, &String)> = parts
                 .iter()
                 .enumerate()
                 .filter_map(|(i, p)| p.get(place).map(|k| (i, k)))
                 .collect();
             let distinct: HashSet<&String> = at.iter().map(|(_, k)| *k).collect();
+            if names_group(header) {
+                groups.push(place);
+                continue;
+            }
             if distinct.len() < at.len() {
                 continue;
             }
@@ -124,7 +142,7 @@ impl<'a> ItemNames<'a> {
             }
         }
         let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
-        for chosen in place_sets(places) {
+        for chosen in place_sets(places).filter(|c| c.iter().any(|at| !groups.contains(at))) {
             for (i, p) in parts.iter().enumerate().filter(|(_, p)| !p.is_empty()) {
                 let keys: Vec<&str> = chosen.iter().map(|&at| p[at].as_str()).collect();
                 by_places
@@ -133,19 +151,36 @@ impl<'a> ItemNames<'a> {
                     .push(i);
             }
         }
-        let any_part = parts.iter().flatten().cloned().collect();
+        let any_part = parts
+            .iter()
+            .flatten()
+            .chain(unplaced.iter().flat_map(|(_, pieces)| pieces))
+            .cloned()
+            .collect();
+        let mut holding: HashMap<String, Vec<usize>> = HashMap::new();
+        for (i, p) in parts.iter().enumerate() {
+            for key in p {
+                let items = holding.entry(key.clone()).or_default();
+                if items.last() != Some(&i) {
+                    items.push(i);
+                }
+            }
+        }
         ItemNames {
             exact,
             by_key,
             by_part,
             by_places,
             places,
+            groups,
             parts,
+            unplaced,
             any_part,
+            holding,
         }
     }
 
-    /// Where `name` is found: exactly, else by its key, else by a part's key.
+    /// Where `name` is found: exactly, else by its key, else by its parts.
     pub(crate) fn find(&self, name: &str) -> Found {
         if let Some(&i) = self.exact.get(name) {
             return Found::Exact(i);
@@ -160,30 +195,52 @@ impl<'a> ItemNames<'a> {
             return several(items, Found::Key);
         }
         let asked: Vec<String> = name.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
-        if asked.len() < 2 {
-            return several(
-                self.by_part.get(&key).map_or(&[][..], Vec::as_slice),
-                Found::Part,
-            );
-        }
-        // Parts in two places or more: every place (a name as the history's but for a part's
-        // case or leading zeros), else as many places in the history's order.
         let keys: Vec<&str> = asked.iter().map(String::as_str).collect();
         let mut found: Vec<usize> = Vec::new();
-        for chosen in place_sets(self.places).filter(|c| c.len() == keys.len()) {
-            for &i in self
-                .by_places
-                .get(&places_key(&chosen, &keys))
-                .into_iter()
-                .flatten()
-            {
-                if !found.contains(&i) {
-                    found.push(i);
+        if keys.len() < 2 {
+            found.extend(self.by_part.get(&key).into_iter().flatten());
+        } else {
+            // Parts in two places or more: every place (a name as the history's but for a
+            // part's case or leading zeros), else as many places in the history's order.
+            for chosen in place_sets(self.places).filter(|c| c.len() == keys.len()) {
+                for &i in self
+                    .by_places
+                    .get(&places_key(&chosen, &keys))
+                    .into_iter()
+                    .flatten()
+                {
+                    if !found.contains(&i) {
+                        found.push(i);
+                    }
                 }
+            }
+        }
+        if found.is_empty() {
+            // A part of several items, none of them by it alone (a code two stores sell).
+            return match self.holding.get(&key) {
+                Some(items) if keys.len() < 2 && items.len() > 1 => Found::Several(items.clone()),
+                _ => Found::Nowhere,
+            };
+        }
+        // A name not split into places may hold the same parts: then which is a guess.
+        for (i, pieces) in &self.unplaced {
+            if keys.iter().all(|k| pieces.contains(*k)) && !found.contains(i) {
+                found.push(*i);
             }
         }
         let whole = keys.len() == self.places;
         several(&found, if whole { Found::Key } else { Found::Part })
+    }
+
+    /// Whether a stock table's `header` names one of the history's groups (`headers`: the
+    /// history's item columns): the same header, or one mentioning a place where the group's
+    /// header names one ("Branch", "Garden centre", "Shop ref" beside "Store").
+    pub(crate) fn names_a_group(&self, header: &str, headers: &[String]) -> bool {
+        self.groups.iter().any(|&g| {
+            let h = &headers[g];
+            name_key(h) == name_key(header)
+                || (header_says(h, &PLACE_WORDS) && header_says(header, &PLACE_WORDS))
+        })
     }
 
     /// Whether `cell` is a part of some item's joined name (a column holding such cells
@@ -192,11 +249,38 @@ impl<'a> ItemNames<'a> {
         self.any_part.contains(&name_key(cell))
     }
 
-    /// Whether `cell` is item `index`'s name or one of its parts.
-    fn agrees(&self, index: usize, cell: &str, name: &str) -> bool {
+    /// Whether `cell` is item `index`'s name or one of its parts; `at_group`: its part in a
+    /// group's place (a store column's cell against the item's store).
+    fn agrees(&self, index: usize, cell: &str, name: &str, at_group: bool) -> bool {
         let key = name_key(cell);
-        key == name_key(name) || self.parts[index].contains(&key)
+        if key == name_key(name) {
+            return true;
+        }
+        match (self.parts[index].as_slice(), at_group) {
+            ([], _) => self
+                .unplaced
+                .iter()
+                .any(|(i, pieces)| *i == index && pieces.contains(&key)),
+            (parts, true) => self.groups.iter().any(|&g| parts[g] == key),
+            (parts, false) => parts.contains(&key),
+        }
     }
+}
+
+/// Whether a history's item column is a group's: it mentions a place ("Store", "Region",
+/// "Garden centre") or a category ("Category", "Department"), which many items share.
+fn names_group(header: &str) -> bool {
+    const GROUP_WORDS: [&str; 8] = [
+        "category",
+        "categories",
+        "department",
+        "dept",
+        "group",
+        "family",
+        "class",
+        "section",
+    ];
+    header_says(header, &PLACE_WORDS) || header_says(header, &GROUP_WORDS)
 }
 
 /// The sets of two places or more among `places` (each in increasing order); past four
@@ -248,8 +332,8 @@ pub(crate) struct Matched {
 
 /// Matches `read` to the history's item names `items`: rows naming an item exactly or by key
 /// first, then rows naming one by a part, which give way to them.
-pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], joined: usize) -> Matched {
-    let names = ItemNames::new(items, joined);
+pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String]) -> Matched {
+    let names = ItemNames::new(items, headers);
     let mut out = Matched::default();
     let (mut renamed, mut by_part, mut unknown, mut ambiguous, mut disagree, mut second) = (
         Vec::new(),
@@ -292,7 +376,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], joined: usize) -> M
             if by_a_part {
                 let against = r.beside.iter().find(|b| {
                     !b.cell.is_empty()
-                        && !names.agrees(index, &b.cell, items[index])
+                        && !names.agrees(index, &b.cell, items[index], b.strict)
                         && (b.strict || names.is_a_part(&b.cell))
                 });
                 if let Some(b) = against {
@@ -431,7 +515,8 @@ mod tests {
                 beside: Vec::new(),
             })
             .collect();
-        let m = match_rows(read, items, joined);
+        let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
+        let m = match_rows(read, items, &headers);
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
         got.extend(m.warnings.iter().map(|w| format!("warning: {w}")));
         got.extend(
@@ -509,7 +594,11 @@ mod tests {
                 "warning: 1 row of the stock table names an item by part of the history's \
                  name for it (the history joins columns into its items' names), and is read \
                  as that item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\"",
-                "warning: 2 rows of the stock table name no item of the history",
+                "warning: 1 row of the stock table could name more than one item of the \
+                 history, so it is left out (write the name exactly as in the history): \
+                 \"Rain barrel\" (row 3) could be \"FG-2 / Rain barrel\" or \"FG-3 / Rain \
+                 barrel\"",
+                "warning: 1 row of the stock table names no item of the history",
             ],
         );
         // A part gives way to a row naming the item in full; two rows by parts are an error.
@@ -542,7 +631,13 @@ mod tests {
             &["Seed", "Oak", "Frost"],
             &stores,
             2,
-            &["warning: 3 rows of the stock table name no item of the history"],
+            &[
+                "warning: 2 rows of the stock table could name more than one item of the \
+                 history, so they are left out (write the name exactly as in the history): \
+                 \"Seed\" (row 2) could be \"Oak / Seed\" or \"Mill / Seed\", \"Oak\" (row 3) \
+                 could be \"Oak / Seed\" or \"Oak / Frost\"",
+                "warning: 1 row of the stock table names no item of the history",
+            ],
         );
         // Names of one column holding " / " are never split.
         check(
@@ -590,7 +685,10 @@ mod tests {
                  case, spacing, punctuation or leading zeros, and is read as that item: \"Mill \
                  / 123 / trowel\" (row 2) as \"Mill / 00123 / Trowel\"",
                 "warning: 2 rows of the stock table name an item by part",
-                "warning: 2 rows of the stock table name no item",
+                "warning: 1 row of the stock table could name more than one item of the \
+                 history, so it is left out (write the name exactly as in the history): \
+                 \"00123\" (row 5)",
+                "warning: 1 row of the stock table names no item",
             ],
         );
     }
@@ -611,10 +709,11 @@ mod tests {
                 strict: true,
             }],
         };
+        let headers = ["Store".to_string(), "Item".to_string()];
         let m = match_rows(
             vec![row(2, "Seed", "Oak"), row(3, "Frost", "Oak")],
             &items,
-            2,
+            &headers,
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["Oak / Seed"]);

@@ -38,7 +38,8 @@ use super::mark::{decide_mark, evidence, Evidence, Tally};
 use super::number::{is_missing, is_unit, parse_number, NumberError};
 use super::period_units::{split_unit, to_periods, TimeUnit};
 use super::stock_columns::{
-    choose_item_columns, column_of, row_item, set_aside_second_spellings, unusable_time, Field,
+    choose_item_columns, column_of, names_a_history_part, row_item, set_aside_second_spellings,
+    unusable_time, Field,
 };
 use super::stock_names::{match_rows, Beside, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
@@ -257,8 +258,17 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     };
     let rows: Vec<_> = records.collect();
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
-    let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> =
-        header.cells.iter().map(|h| column_of(h)).collect();
+    // A header naming a part the history joins into its items' names ("Store" beside a
+    // history by store and product) may name the items too.
+    let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> = header
+        .cells
+        .iter()
+        .map(|h| {
+            column_of(h).or_else(|| {
+                names_a_history_part(h, &history.item_columns).then_some((Field::Item, None))
+            })
+        })
+        .collect();
     // Known headers, before the item column's choice and the second spellings set some aside
     // (each with its own warning).
     let known: Vec<bool> = columns.iter().map(Option::is_some).collect();
@@ -465,7 +475,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         }
     }
     out.warnings.extend(notes.warnings(history.frequency));
-    let matched = match_rows(read, &item_names, history.item_columns.len());
+    let matched = match_rows(read, &item_names, &history.item_columns);
     out.rows = matched.rows;
     out.warnings.extend(matched.warnings);
     out.errors.extend(matched.errors);
@@ -1106,7 +1116,17 @@ mod tests {
             &[],
             &[],
         );
-        assert!(warns(&t, &["2 rows", "name no item"]), "{t:?}");
+        assert!(
+            warns(
+                &t,
+                &["could name more than one item", "\"Seed packets\" (row 2)"]
+            ),
+            "{t:?}"
+        );
+        assert!(
+            warns(&t, &["no item of the history", "\"Willow basket\" (row 3)"]),
+            "{t:?}"
+        );
         // Where every store sells products of its own, a product names its item; a "Store"
         // beside it that says another store leaves the row out.
         let own = super::super::read(
@@ -1155,6 +1175,44 @@ mod tests {
             &[],
         );
         assert!(warns(&t, &["\"Central / Seed packets\" (row 2)"]), "{t:?}");
+        // Items numbered alone: a "Site" of small numbers beside them is no item column.
+        let numbered = super::super::read("month,item no,units\n2024-01,1,3\n2024-01,2,4\n2024-01,3,5\n2024-02,1,3\n2024-02,2,4\n2024-02,3,5\n");
+        check_against(
+            &numbered,
+            "Site,Item no,On hand\n3,1,10\n1,2,20\n",
+            &[row_with_on_hand("1", 10.0), row_with_on_hand("2", 20.0)],
+            &[],
+        );
+        // Branch and code numbers that cross: the history's own headers in its order decide.
+        let crossed = super::super::read(
+            "month,branch,code,description,units\n2024-01,5,12,Hand trowel,3\n2024-01,5,305,\
+             Dibber,1\n2024-01,12,5,Hand fork,2\n2024-01,12,305,Dibber,4\n2024-02,5,12,Hand \
+             trowel,3\n2024-02,5,305,Dibber,1\n2024-02,12,5,Hand fork,2\n2024-02,12,305,\
+             Dibber,4\n",
+        );
+        let names: Vec<&str> = crossed.items.iter().map(|i| i.name.as_str()).collect();
+        assert_eq!(names[0], "Hand trowel / 5 / 12", "{names:?}");
+        check_against(
+            &crossed,
+            "Branch,Code,On hand\n5,12,7\n12,5,8\n",
+            &[
+                row_with_on_hand("Hand trowel / 5 / 12", 7.0),
+                row_with_on_hand("Hand fork / 12 / 5", 8.0),
+            ],
+            &[],
+        );
+        // A store column under another header than the history's, of another store: its
+        // rows are no store's of the history.
+        let t = check_against(
+            &own,
+            "Garden centre,Item,On hand\nHarbour Street,Frost cloth,7\n",
+            &[],
+            &[],
+        );
+        assert!(
+            warns(&t, &["but its \"Garden centre\" says \"Harbour Street\""]),
+            "{t:?}"
+        );
         // A second item column left empty changes no name: the first is read, not refused as
         // matching alike.
         check(
