@@ -9,6 +9,7 @@ mod last_period;
 mod misreads;
 mod robustness;
 mod sales_reports;
+mod stock_matching;
 mod till_exports;
 mod unnamed;
 mod workbooks;
