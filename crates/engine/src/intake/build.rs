@@ -39,7 +39,6 @@ mod across;
 mod long;
 mod parts_in_years;
 mod readings;
-pub(crate) use readings::PLACE_WORDS;
 mod unnamed;
 mod year_grid;
 use super::{DecimalMark, Item, Layout, RowError};

@@ -9,8 +9,7 @@
 //! rows to the history's items (`stock_names`, whose lookup the item column's choice
 //! uses).
 
-use super::build::{PART_JOIN, PLACE_WORDS};
-use super::headers::{header_is_only, header_says};
+use super::build::PART_JOIN;
 use super::period_units::TimeUnit;
 use super::stock_names::{Found, ItemNames};
 use super::stock_table::StockTable;
@@ -206,24 +205,16 @@ pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     })
 }
 
-/// Whether a stock table's header names a part of the items the history joins (`item_headers`,
-/// its report's `item_columns`): one of them ("Garden centre" beside "Garden centre"), or a
-/// place where one of them names a place ("Branch" beside "Store"). Such a column may be read
-/// with the item column (joined as the history joins them, [`choose_item_columns`]); beside
-/// a history of items named alone, a "Location" or "Site" is no item (a bin, a depot number).
+/// Whether a stock table's header is one of the history's item columns' (`item_headers`, its
+/// report's `item_columns`, two or more): "Store" beside a history by store and product. Such
+/// a column may be read with the item column, joined as the history joins them
+/// ([`choose_item_columns`]); a "Branch" or "Location" under another header is not (a review
+/// found aisle numbers under "Location" read as a history's store numbers).
 pub(crate) fn names_a_history_part(header: &str, item_headers: &[String]) -> bool {
     item_headers.len() >= 2
-        && (item_headers
+        && item_headers
             .iter()
             .any(|h| normalise(h) == normalise(header))
-            || (names_place(header) && item_headers.iter().any(|h| names_place(h))))
-}
-
-/// Whether a header names only a place ("Store", "Branch no", "Warehouse code").
-pub(crate) fn names_place(header: &str) -> bool {
-    let mut allowed = PLACE_WORDS.to_vec();
-    allowed.extend(["name", "code", "id"]);
-    header_says(header, &PLACE_WORDS) && header_is_only(header, &allowed)
 }
 
 /// A header key without a word for counting before it ("qtyonhand" is "onhand").
@@ -339,6 +330,22 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
     })
 }
 
+/// The history's place of the one item column `chosen`, where its header is one of the
+/// history's item columns' (`item_headers`).
+pub(crate) fn place_of(
+    header: &Record,
+    chosen: &[usize],
+    item_headers: &[String],
+) -> Option<usize> {
+    match chosen {
+        [one] => {
+            let h = normalise(header.cells.get(*one)?);
+            item_headers.iter().position(|g| normalise(g) == h)
+        }
+        _ => None,
+    }
+}
+
 /// The item columns a stock table is read by ([`choose_item_columns`]).
 pub(crate) struct ItemColumns {
     /// The columns whose cells, joined ([`row_item`]), name each row's item.
@@ -352,9 +359,11 @@ pub(crate) struct ItemColumns {
 /// "Description", "Store" and "Item"), the one, or several joined in any order as the history
 /// joins its own ([`row_item`]), whose names match the most of the history's in full (exactly
 /// or by key; `stock_names::ItemNames::find`), then the most exactly, then the most by one
-/// part; the others are left out with a warning. An error at the header when no header names
-/// items, or when two choices match alike and name the rows differently (which holds whose
-/// stock would be a guess).
+/// part, then the history's own headers in its order; the others are left out with a warning.
+/// A header is an item column by an item word, or by being one of the history's item
+/// columns' (`names_a_history_part`). An error at the header when no header names items, or
+/// when two choices match alike and give the rows different items (which holds whose stock
+/// would be a guess).
 pub(crate) fn choose_item_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
@@ -364,30 +373,34 @@ pub(crate) fn choose_item_columns(
 ) -> Result<ItemColumns, RowError> {
     let (items, item_headers) = history;
     let names = ItemNames::new(items, item_headers);
+    let candidates: Vec<usize> = (0..columns.len())
+        .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
+        .collect();
     let read = read_columns(columns, header, rows, (&names, item_headers), warnings)?;
-    let beside = witnesses(columns, header, rows, &read, &names, item_headers);
+    let beside = witnesses(columns, header, rows, &read, &candidates, &names);
     Ok(ItemColumns { read, beside })
 }
 
-/// The columns left out (`columns` `None`, not `read`) that speak of the history's items:
-/// strictly where the header names a part the history joins as a group's ([`ItemNames`]:
-/// a store, a region) and no column read does (a bin "Location" beside a "Store" read is
-/// no store); else where some cell is a part of the history's names.
+/// The columns left out (`columns` `None`, not `read`) that speak of the history's items,
+/// where a part of a name names an item alone (`ItemNames::parts_name_items`): strictly the
+/// columns that could have named the items (`candidates`: a "Code" beside the "Description"
+/// read), else those where some cell is a part of the history's names.
 fn witnesses(
     columns: &[Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
     read: &[usize],
+    candidates: &[usize],
     names: &ItemNames,
-    item_headers: &[String],
 ) -> Vec<(usize, bool)> {
-    let names_group = |h: &str| names.names_a_group(h, item_headers);
-    let read_group = read.iter().any(|&i| names_group(&header.cells[i]));
+    if !names.parts_name_items() {
+        return Vec::new();
+    }
     (0..header.cells.len())
         .filter(|&i| columns.get(i).is_some_and(Option::is_none) && !read.contains(&i))
         .filter(|&i| !header.cells[i].is_empty())
         .filter_map(|i| {
-            let strict = !read_group && names_group(&header.cells[i]);
+            let strict = candidates.contains(&i);
             let speaks = rows
                 .iter()
                 .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)));
@@ -460,7 +473,7 @@ fn read_columns(
     let score = |chosen: &[usize]| {
         let mut s = (0, 0, 0, in_order(chosen));
         for r in rows {
-            match names.find(&row_item(r, chosen)) {
+            match names.find(&row_item(r, chosen), place_of(header, chosen, item_headers)) {
                 Found::Exact(_) => (s.0, s.1) = (s.0 + 1, s.1 + 1),
                 Found::Key(_) => s.0 += 1,
                 Found::Part(_) => s.2 += 1,
@@ -494,7 +507,9 @@ fn read_columns(
     };
     // Two choices giving every row the same item ("SKU" beside a copy; a code and a
     // description of a history that joins a category too) are one choice.
-    let item_of = |r: &Record, chosen: &[usize]| match names.find(&row_item(r, chosen)) {
+    let item_of = |r: &Record, chosen: &[usize]| match names
+        .find(&row_item(r, chosen), place_of(header, chosen, item_headers))
+    {
         Found::Exact(i) | Found::Key(i) | Found::Part(i) => Some(i),
         Found::Several(_) | Found::Nowhere => None,
     };

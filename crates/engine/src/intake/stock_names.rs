@@ -8,23 +8,22 @@
 //! Rules (our choices): a row naming an item exactly is that item's; otherwise a row whose
 //! name has the same key ([`name_key`]) as exactly one item is that item's, said in a warning
 //! naming both spellings. Where the history joins columns into its items' names (its report's
-//! `item_columns`: "FG-1001 / Birch trellis", a code and a description, or a store and a
-//! product), a name may match by its parts (said in a warning too; a stock table commonly
-//! names items by their code alone): all of them by their keys ("Oak Lane / 123" for "Oak
-//! Lane / 00123"), some of them in the history's order ("Branch 3 / FG-1001" of a branch, a
-//! code and a description), or one, only in a place where every item's part differs (codes,
-//! unshared descriptions; never a store, a category or a product two stores sell). A row
-//! matched by part must agree with the columns beside it that speak of the history's items
-//! ([`Beside`]: a store column naming another store leaves it out) and gives way to a row
-//! naming the item in full. A key or parts shared by several items match none (said, left
-//! out); a row naming no item is left out, said (a "Total" row, an item the history does not
-//! hold); two rows that come to the same item in full, or both by part, are an error at the
-//! second. [`ItemNames::find`] is the one lookup: the item columns' choice (`stock_columns`)
-//! scores columns by it too.
+//! `item_columns`), a name given in all their parts matches by the parts' keys ("Oak Lane /
+//! 123" for "Oak Lane / 00123"); and only where every joined column names each item on its own
+//! (a code and a description, no two items sharing either, every name split into them), a
+//! part, or some parts in the history's order, name the item (said; a stock table commonly
+//! names items by their code alone), a single part under the history's own header only in that
+//! column's place. A row matched by part must agree with the columns beside it that speak of
+//! the history's items ([`Beside`]: a new code beside an old description is no old item) and
+//! gives way to a row naming the item in full; two rows naming one item by parts are both left
+//! out. A key or parts several items share match none (said, left out); a row naming no item is
+//! left out, said (a "Total" row, an item the history does not hold); two rows that come to the
+//! same item in full are an error at the second. Four probing reviews found every rule that
+//! guessed which joined column is a store, a category or a code misplacing stock somewhere, so
+//! none does. [`ItemNames::find`] is the one lookup: the item columns' choice
+//! (`stock_columns`) scores columns by it too.
 
-use super::build::PLACE_WORDS;
 use super::build::{agreeing, count, listing, PART_JOIN};
-use super::headers::header_says;
 use super::stock_table::StockRow;
 use super::RowError;
 use std::collections::{HashMap, HashSet};
@@ -71,36 +70,35 @@ pub(crate) enum Found {
 pub(crate) struct ItemNames<'a> {
     exact: HashMap<&'a str, usize>,
     by_key: HashMap<String, Vec<usize>>,
-    /// The keys of the parts that name one item each (see [`ItemNames::new`]).
-    by_part: HashMap<String, Vec<usize>>,
     /// Items by the keys of their parts in two places or more ([`places_key`]): all of them
-    /// ("Oak Lane / 123" for "Oak Lane / 00123"), or some ("Branch 3 / FG-1001" for
-    /// "Branch 3 / FG-1001 / Birch trellis").
+    /// ("Oak Lane / 123" for "Oak Lane / 00123"), and where a part names an item alone
+    /// ([`ItemNames::parts_name_items`]) some of them too.
     by_places: HashMap<String, Vec<usize>>,
+    /// Where a part names an item alone, the items by each part's key, in each place.
+    by_part: Vec<HashMap<String, Vec<usize>>>,
     /// How many places the history's names join (0 where they are not joined).
     places: usize,
-    /// The places of groups of items: a store, a region, a category ([`names_group`]).
-    groups: Vec<usize>,
+    /// Whether every column the history joins names each item on its own (see `new`).
+    alone: bool,
     /// Each item's parts' keys, where its name splits into the history's places.
     parts: Vec<Vec<String>>,
-    /// The pieces' keys of the names that do not (a cell holding " / ", an empty cell):
-    /// such an item may hold any part asked for.
-    unplaced: Vec<(usize, HashSet<String>)>,
     /// Every part's key of every item.
     any_part: HashSet<String>,
-    /// The items holding each part's key in any place: a part that names none alone but
-    /// several is said to be theirs ("could be ...").
+    /// The items holding each part's key in any place: a part of several items is said to be
+    /// theirs ("could be ...").
     holding: HashMap<String, Vec<usize>>,
 }
 
 impl<'a> ItemNames<'a> {
     /// Indexes `names`, read from the history's item columns headed `headers` (the report's
-    /// `item_columns`). Parts only where the history joined two or more columns; a name that
-    /// splits into as many parts has them in places, any other (a name holding " / " in a
-    /// cell, or with an empty cell) only pieces, which may hold whatever is asked for. A part
-    /// alone is looked up only in a place whose every item's part differs and that is no
-    /// group's (a code, a description; never a store, a region, a category or a product sold
-    /// in two stores); parts in several places only with one of them no group's.
+    /// `item_columns`). Where the history joins two columns or more, a name given in all its
+    /// parts matches by their keys. A part, or some of the parts, name an item only where
+    /// every joined column names each item on its own: every name splits into as many parts
+    /// and no two items share a part in any place (a code and a description). A history by
+    /// store and product, by category, or with an empty cell or a cell holding " / " is
+    /// matched in full only: a store, a category or a product of several stores names no
+    /// item, and reviews found every narrower rule (group words, place headers, agreeing
+    /// columns) putting stock on another item in cases it did not foresee.
     pub(crate) fn new(names: &'a [&'a str], headers: &[String]) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
@@ -108,41 +106,25 @@ impl<'a> ItemNames<'a> {
             by_key.entry(name_key(n)).or_default().push(i);
         }
         let places = if headers.len() >= 2 { headers.len() } else { 0 };
-        let mut parts: Vec<Vec<String>> = Vec::new();
-        let mut unplaced = Vec::new();
-        for (i, n) in names.iter().enumerate() {
-            let split: Vec<String> = n.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
-            if places > 0 && split.len() == places {
-                parts.push(split);
-            } else {
-                if places > 0 {
-                    unplaced.push((i, split.into_iter().collect()));
+        let parts: Vec<Vec<String>> = names
+            .iter()
+            .map(|n| {
+                let split: Vec<String> = n.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
+                if places > 0 && split.len() == places {
+                    split
+                } else {
+                    Vec::new()
                 }
-                parts.push(Vec::new());
-            }
-        }
-        let mut by_part: HashMap<String, Vec<usize>> = HashMap::new();
-        let mut groups = Vec::new();
-        for (place, header) in headers.iter().enumerate().take(places) {
-            let at: Vec<(usize, &String)> = parts
-                .iter()
-                .enumerate()
-                .filter_map(|(i, p)| p.get(place).map(|k| (i, k)))
-                .collect();
-            let distinct: HashSet<&String> = at.iter().map(|(_, k)| *k).collect();
-            if names_group(header) {
-                groups.push(place);
-                continue;
-            }
-            if distinct.len() < at.len() {
-                continue;
-            }
-            for (i, key) in at.into_iter().filter(|(_, k)| !k.is_empty()) {
-                by_part.entry(key.clone()).or_default().push(i);
-            }
-        }
+            })
+            .collect();
+        let placed = places > 0 && parts.iter().all(|p| !p.is_empty());
+        let alone = placed
+            && (0..places).all(|at| {
+                let keys: HashSet<&String> = parts.iter().map(|p| &p[at]).collect();
+                keys.len() == parts.len() && !keys.contains(&String::new())
+            });
         let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
-        for chosen in place_sets(places).filter(|c| c.iter().any(|at| !groups.contains(at))) {
+        for chosen in place_sets(places).filter(|c| alone || c.len() == places) {
             for (i, p) in parts.iter().enumerate().filter(|(_, p)| !p.is_empty()) {
                 let keys: Vec<&str> = chosen.iter().map(|&at| p[at].as_str()).collect();
                 by_places
@@ -151,37 +133,43 @@ impl<'a> ItemNames<'a> {
                     .push(i);
             }
         }
-        let any_part = parts
-            .iter()
-            .flatten()
-            .chain(unplaced.iter().flat_map(|(_, pieces)| pieces))
-            .cloned()
-            .collect();
+        let mut by_part: Vec<HashMap<String, Vec<usize>>> = vec![HashMap::new(); places];
         let mut holding: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, p) in parts.iter().enumerate() {
-            for key in p {
+            for (at, key) in p.iter().enumerate() {
+                if alone {
+                    by_part[at].entry(key.clone()).or_default().push(i);
+                }
                 let items = holding.entry(key.clone()).or_default();
                 if items.last() != Some(&i) {
                     items.push(i);
                 }
             }
         }
+        let any_part = parts.iter().flatten().cloned().collect();
         ItemNames {
             exact,
             by_key,
-            by_part,
             by_places,
+            by_part,
             places,
-            groups,
+            alone,
             parts,
-            unplaced,
             any_part,
             holding,
         }
     }
 
-    /// Where `name` is found: exactly, else by its key, else by its parts.
-    pub(crate) fn find(&self, name: &str) -> Found {
+    /// Whether a part of the history's names names an item alone (see `new`): then a stock
+    /// row matched by part must agree with the item columns left out beside it.
+    pub(crate) fn parts_name_items(&self) -> bool {
+        self.alone
+    }
+
+    /// Where `name` is found: exactly, else by its key, else by its parts; a single part
+    /// only in the place `at` where the stock table's column is the history's (its header
+    /// "Product" beside the history's "Product": a category "Seeds" there is no product).
+    pub(crate) fn find(&self, name: &str, at: Option<usize>) -> Found {
         if let Some(&i) = self.exact.get(name) {
             return Found::Exact(i);
         }
@@ -198,10 +186,18 @@ impl<'a> ItemNames<'a> {
         let keys: Vec<&str> = asked.iter().map(String::as_str).collect();
         let mut found: Vec<usize> = Vec::new();
         if keys.len() < 2 {
-            found.extend(self.by_part.get(&key).into_iter().flatten());
+            for (place, by_key) in self.by_part.iter().enumerate() {
+                if at.is_none_or(|a| a == place) {
+                    for &i in by_key.get(&key).into_iter().flatten() {
+                        if !found.contains(&i) {
+                            found.push(i);
+                        }
+                    }
+                }
+            }
         } else {
-            // Parts in two places or more: every place (a name as the history's but for a
-            // part's case or leading zeros), else as many places in the history's order.
+            // Every place (a name as the history's but for a part's case or leading zeros),
+            // else, where parts name items, as many places in the history's order.
             for chosen in place_sets(self.places).filter(|c| c.len() == keys.len()) {
                 for &i in self
                     .by_places
@@ -216,31 +212,14 @@ impl<'a> ItemNames<'a> {
             }
         }
         if found.is_empty() {
-            // A part of several items, none of them by it alone (a code two stores sell).
+            // A part of several items (a product two stores sell) is said to be theirs.
             return match self.holding.get(&key) {
                 Some(items) if keys.len() < 2 && items.len() > 1 => Found::Several(items.clone()),
                 _ => Found::Nowhere,
             };
         }
-        // A name not split into places may hold the same parts: then which is a guess.
-        for (i, pieces) in &self.unplaced {
-            if keys.iter().all(|k| pieces.contains(*k)) && !found.contains(i) {
-                found.push(*i);
-            }
-        }
         let whole = keys.len() == self.places;
         several(&found, if whole { Found::Key } else { Found::Part })
-    }
-
-    /// Whether a stock table's `header` names one of the history's groups (`headers`: the
-    /// history's item columns): the same header, or one mentioning a place where the group's
-    /// header names one ("Branch", "Garden centre", "Shop ref" beside "Store").
-    pub(crate) fn names_a_group(&self, header: &str, headers: &[String]) -> bool {
-        self.groups.iter().any(|&g| {
-            let h = &headers[g];
-            name_key(h) == name_key(header)
-                || (header_says(h, &PLACE_WORDS) && header_says(header, &PLACE_WORDS))
-        })
     }
 
     /// Whether `cell` is a part of some item's joined name (a column holding such cells
@@ -249,38 +228,11 @@ impl<'a> ItemNames<'a> {
         self.any_part.contains(&name_key(cell))
     }
 
-    /// Whether `cell` is item `index`'s name or one of its parts; `at_group`: its part in a
-    /// group's place (a store column's cell against the item's store).
-    fn agrees(&self, index: usize, cell: &str, name: &str, at_group: bool) -> bool {
+    /// Whether `cell` is item `index`'s name or one of its parts.
+    fn agrees(&self, index: usize, cell: &str, name: &str) -> bool {
         let key = name_key(cell);
-        if key == name_key(name) {
-            return true;
-        }
-        match (self.parts[index].as_slice(), at_group) {
-            ([], _) => self
-                .unplaced
-                .iter()
-                .any(|(i, pieces)| *i == index && pieces.contains(&key)),
-            (parts, true) => self.groups.iter().any(|&g| parts[g] == key),
-            (parts, false) => parts.contains(&key),
-        }
+        key == name_key(name) || self.parts[index].contains(&key)
     }
-}
-
-/// Whether a history's item column is a group's: it mentions a place ("Store", "Region",
-/// "Garden centre") or a category ("Category", "Department"), which many items share.
-fn names_group(header: &str) -> bool {
-    const GROUP_WORDS: [&str; 8] = [
-        "category",
-        "categories",
-        "department",
-        "dept",
-        "group",
-        "family",
-        "class",
-        "section",
-    ];
-    header_says(header, &PLACE_WORDS) || header_says(header, &GROUP_WORDS)
 }
 
 /// The sets of two places or more among `places` (each in increasing order); past four
@@ -306,6 +258,8 @@ pub(crate) struct ReadRow {
     /// The row's cells in columns left out that speak of the history's items (`stock_columns::
     /// witnesses`): a row matched by part must agree with them.
     pub beside: Vec<Beside>,
+    /// The history's place of the one item column read, where its header is the history's.
+    pub place: Option<usize>,
 }
 
 /// A cell beside a row's item, in a column left out that speaks of the history's items.
@@ -313,11 +267,11 @@ pub(crate) struct ReadRow {
 pub(crate) struct Beside {
     pub header: String,
     pub cell: String,
-    /// The column is one of the history's item columns by its header ("Store" beside
-    /// "Store"), or names a place where the history joins one: a cell that is not a part of
-    /// the item names another. Otherwise it only holds some of the history's parts: a cell
-    /// speaks against the item only when it is another item's part (a bin "B-00-2" or a
-    /// supplier's wording names nothing).
+    /// The column could name the items (a "Code" left out beside the "Description" read): a
+    /// cell that is not a part of the item names another (a new code beside an old
+    /// description). Otherwise it only holds some of the history's parts: a cell speaks
+    /// against the item only when it is another item's part (a bin "B-00-2" or a supplier's
+    /// wording names nothing).
     pub strict: bool,
 }
 
@@ -343,7 +297,11 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String])
         Vec::new(),
         Vec::new(),
     );
-    let found: Vec<Found> = read.iter().map(|r| names.find(&r.row.item)).collect();
+    let mut clash: Vec<String> = Vec::new();
+    let found: Vec<Found> = read
+        .iter()
+        .map(|r| names.find(&r.row.item, r.place))
+        .collect();
     // The line that first took each item, and each row's item.
     let mut taken: Vec<Option<usize>> = vec![None; items.len()];
     let mut chosen: Vec<Option<usize>> = vec![None; read.len()];
@@ -376,7 +334,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String])
             if by_a_part {
                 let against = r.beside.iter().find(|b| {
                     !b.cell.is_empty()
-                        && !names.agrees(index, &b.cell, items[index], b.strict)
+                        && !names.agrees(index, &b.cell, items[index])
                         && (b.strict || names.is_a_part(&b.cell))
                 });
                 if let Some(b) = against {
@@ -389,6 +347,19 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String])
                 if let (Some(first), true) = (taken[index], in_full[index]) {
                     second.push(format!(
                         "\"{}\" (row {line}) would be \"{}\", which row {first} names",
+                        r.row.item, items[index]
+                    ));
+                    continue;
+                }
+                // Two rows naming one item by parts ("Seeds", a category of one item, and
+                // "Seed packets"): which figure is its is a guess, so neither is read.
+                if let Some(first) = taken[index] {
+                    if let Some(earlier) = chosen.iter().position(|c| *c == Some(index)) {
+                        chosen[earlier] = None;
+                        by_part.retain(|p: &String| !p.contains(&format!("(row {first})")));
+                    }
+                    clash.push(format!(
+                        "\"{}\" (row {line}) and row {first} would both be \"{}\"",
                         r.row.item, items[index]
                     ));
                     continue;
@@ -469,6 +440,15 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String])
             listing(&second)
         ));
     }
+    if !clash.is_empty() {
+        out.warnings.push(format!(
+            "{} of the stock table {} by part an item another row names by part too, so both \
+             are left out (write the name as in the history): {}",
+            count(clash.len(), "row"),
+            agreeing(clash.len(), "names", "name"),
+            listing(&clash)
+        ));
+    }
     if !ambiguous.is_empty() {
         out.warnings.push(format!(
             "{} of the stock table could name more than one item of the history, so {} left \
@@ -513,6 +493,7 @@ mod tests {
                     ..StockRow::default()
                 },
                 beside: Vec::new(),
+                place: None,
             })
             .collect();
         let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
@@ -578,66 +559,69 @@ mod tests {
     }
 
     #[test]
-    fn a_part_of_a_joined_name_matches_where_its_place_names_one_item_each() {
-        // Codes name one item each; two items share a description: only codes are looked up.
-        let coded = [
-            "FG-1 / Birch trellis",
-            "FG-2 / Rain barrel",
-            "FG-3 / Rain barrel",
-        ];
+    fn a_part_names_an_item_only_where_every_joined_column_names_each_item() {
+        // Codes and descriptions each name every item: a part matches.
+        let unique = ["FG-1 / Birch trellis", "FG-2 / Rain barrel"];
         check_joined(
-            &["fg 1", "Rain barrel", "Birch trellis"],
-            &coded,
+            &["fg 1", "Rain barrel"],
+            &unique,
             2,
             &[
                 "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names an item by part of the history's \
-                 name for it (the history joins columns into its items' names), and is read \
-                 as that item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\"",
-                "warning: 1 row of the stock table could name more than one item of the \
-                 history, so it is left out (write the name exactly as in the history): \
-                 \"Rain barrel\" (row 3) could be \"FG-2 / Rain barrel\" or \"FG-3 / Rain \
-                 barrel\"",
-                "warning: 1 row of the stock table names no item of the history",
+                "FG-2 / Rain barrel",
+                "warning: 2 rows of the stock table name an item by part of the history's name \
+                 for it (the history joins columns into its items' names), and are read as that \
+                 item: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\", \"Rain barrel\" (row 3) as \
+                 \"FG-2 / Rain barrel\"",
             ],
         );
-        // A part gives way to a row naming the item in full; two rows by parts are an error.
+        // A part gives way to a row naming the item in full; two rows by parts are both left
+        // out.
         check_joined(
             &["FG-1", "FG-1 / Birch trellis"],
-            &coded,
+            &unique,
             2,
             &[
                 "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names by part an item another row names \
-                 in full, so it is left out: \"FG-1\" (row 2) would be \"FG-1 / Birch \
-                 trellis\", which row 3 names",
+                "warning: 1 row of the stock table names by part an item another row names in \
+                 full, so it is left out: \"FG-1\" (row 2) would be \"FG-1 / Birch trellis\", \
+                 which row 3 names",
             ],
         );
-        let unique = ["FG-1 / Birch trellis", "FG-2 / Rain barrel"];
         check_joined(
             &["FG-1", "Birch trellis"],
             &unique,
             2,
             &[
-                "FG-1 / Birch trellis",
-                "warning: 1 row of the stock table names an item by part",
-                "error 3 Birch trellis: this row and row 2 both name the history's \"FG-1 / \
-                 Birch trellis\"",
+                "warning: 1 row of the stock table names by part an item another row names by \
+               part too, so both are left out",
             ],
         );
-        // Stores and products both repeat: neither names an item alone.
-        let stores = ["Oak / Seed", "Mill / Seed", "Oak / Frost"];
+        // Two items share a description: no part names an item, a shared one is said.
+        let shared = [
+            "FG-1 / Birch trellis",
+            "FG-2 / Rain barrel",
+            "FG-3 / Rain barrel",
+        ];
         check_joined(
-            &["Seed", "Oak", "Frost"],
-            &stores,
+            &["fg 1", "Rain barrel"],
+            &shared,
             2,
             &[
-                "warning: 2 rows of the stock table could name more than one item of the \
-                 history, so they are left out (write the name exactly as in the history): \
-                 \"Seed\" (row 2) could be \"Oak / Seed\" or \"Mill / Seed\", \"Oak\" (row 3) \
-                 could be \"Oak / Seed\" or \"Oak / Frost\"",
-                "warning: 1 row of the stock table names no item of the history",
+                "warning: 1 row of the stock table could name more than one item of the \
+                 history, so it is left out (write the name exactly as in the history): \
+                 \"Rain barrel\" (row 3) could be \"FG-2 / Rain barrel\" or \"FG-3 / Rain \
+                 barrel\"",
+                "warning: 1 row of the stock table names no item of the history, so it is left \
+                 out: \"fg 1\" (row 2)",
             ],
+        );
+        // Stores and products repeat: a product alone names no item.
+        check_joined(
+            &["Frost"],
+            &["Oak / Seed", "Mill / Seed", "Oak / Frost"],
+            2,
+            &["warning: 1 row of the stock table names no item"],
         );
         // Names of one column holding " / " are never split.
         check(
@@ -645,14 +629,37 @@ mod tests {
             &["Bark mulch / 50 L", "Basil pot / 1 L", "Trowel / steel"],
             &["warning: 1 row of the stock table names no item"],
         );
-        // A cell holding " / " leaves its name's places unknown: that item is matched in full
-        // only, the others by parts still.
+    }
+
+    #[test]
+    fn parts_in_several_places_match_by_their_keys() {
+        // A store repeats: only every part together names an item, by their keys.
+        let stores = [
+            "Oak / 00123 / Trowel",
+            "Mill / 00123 / Trowel",
+            "Oak / 00456 / Rake",
+        ];
         check_joined(
-            &["Hose 1/2 in / 15 m", "FG-2"],
-            &["FG-1 / Hose 1/2 in / 15 m", "FG-2 / Trowel", "FG-3 / Rake"],
-            2,
+            &["Mill / 123 / trowel", "Oak / 123"],
+            &stores,
+            3,
             &[
-                "FG-2 / Trowel",
+                "Mill / 00123 / Trowel",
+                "warning: 1 row of the stock table names an item as the history does but for \
+                 case, spacing, punctuation or leading zeros, and is read as that item: \"Mill \
+                 / 123 / trowel\" (row 2) as \"Mill / 00123 / Trowel\"",
+                "warning: 1 row of the stock table names no item of the history, so it is left \
+                 out: \"Oak / 123\" (row 3)",
+            ],
+        );
+        // Every place names each item: some parts in the history's order do too.
+        let unique = ["S1 / 00123 / Trowel", "S2 / 00456 / Rake"];
+        check_joined(
+            &["S1 / 123", "Rake / 456"],
+            &unique,
+            3,
+            &[
+                "S1 / 00123 / Trowel",
                 "warning: 1 row of the stock table names an item by part",
                 "warning: 1 row of the stock table names no item",
             ],
@@ -660,42 +667,8 @@ mod tests {
     }
 
     #[test]
-    fn parts_in_several_places_match_by_their_keys() {
-        // A branch, a code of digits and a description joined.
-        let items = [
-            "Oak / 00123 / Trowel",
-            "Mill / 00123 / Trowel",
-            "Oak / 00456 / Rake",
-        ];
-        check_joined(
-            &[
-                "Mill / 123 / trowel",
-                "Oak / 123",
-                "Oak / Rake",
-                "00123",
-                "Trowel / Oak",
-            ],
-            &items,
-            3,
-            &[
-                "Mill / 00123 / Trowel",
-                "Oak / 00123 / Trowel",
-                "Oak / 00456 / Rake",
-                "warning: 1 row of the stock table names an item as the history does but for \
-                 case, spacing, punctuation or leading zeros, and is read as that item: \"Mill \
-                 / 123 / trowel\" (row 2) as \"Mill / 00123 / Trowel\"",
-                "warning: 2 rows of the stock table name an item by part",
-                "warning: 1 row of the stock table could name more than one item of the \
-                 history, so it is left out (write the name exactly as in the history): \
-                 \"00123\" (row 5)",
-                "warning: 1 row of the stock table names no item",
-            ],
-        );
-    }
-
-    #[test]
     fn a_row_matched_by_a_part_agrees_with_the_columns_beside_it() {
-        let items = ["Oak / Seed", "Mill / Frost"];
+        let items = ["FG-1 / Seed", "FG-2 / Frost"];
         let row = |line: usize, item: &str, store: &str| ReadRow {
             line,
             column: "Item".into(),
@@ -704,22 +677,23 @@ mod tests {
                 ..StockRow::default()
             },
             beside: vec![Beside {
-                header: "Store".into(),
+                header: "Code".into(),
                 cell: store.into(),
                 strict: true,
             }],
+            place: None,
         };
-        let headers = ["Store".to_string(), "Item".to_string()];
+        let headers = ["Code".to_string(), "Item".to_string()];
         let m = match_rows(
-            vec![row(2, "Seed", "Oak"), row(3, "Frost", "Oak")],
+            vec![row(2, "Seed", "FG-1"), row(3, "Frost", "FG-9")],
             &items,
             &headers,
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
-        assert_eq!(kept, ["Oak / Seed"]);
+        assert_eq!(kept, ["FG-1 / Seed"]);
         assert!(
             m.warnings.iter().any(|w| w.contains(
-                "\"Frost\" (row 3) would be \"Mill / Frost\", but its \"Store\" says \"Oak\""
+                "\"Frost\" (row 3) would be \"FG-2 / Frost\", but its \"Code\" says \"FG-9\""
             )),
             "{:?}",
             m.warnings

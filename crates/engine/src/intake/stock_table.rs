@@ -38,8 +38,8 @@ use super::mark::{decide_mark, evidence, Evidence, Tally};
 use super::number::{is_missing, is_unit, parse_number, NumberError};
 use super::period_units::{split_unit, to_periods, TimeUnit};
 use super::stock_columns::{
-    choose_item_columns, column_of, names_a_history_part, row_item, set_aside_second_spellings,
-    unusable_time, Field,
+    choose_item_columns, column_of, names_a_history_part, place_of, row_item,
+    set_aside_second_spellings, unusable_time, Field,
 };
 use super::stock_names::{match_rows, Beside, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
@@ -469,6 +469,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
                 column: column_name(item_columns.read[0]),
                 row,
                 beside,
+                place: place_of(&header, &item_columns.read, &history.item_columns),
             });
         } else {
             out.errors.extend(bad);
@@ -1037,11 +1038,12 @@ mod tests {
 
     #[test]
     fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
-        // The history joins a code and a description ("FG-1 / Birch trellis").
+        // The history joins a code and a description, each naming every item on its own.
         let coded = super::super::read(
             "month,code,description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,Rain \
              barrel,4\n2024-02,FG-1,Birch trellis,5\n2024-02,FG-2,Rain barrel,6\n",
         );
+        assert_eq!(coded.item_columns, ["code", "description"]);
         let (trellis, barrel) = ("FG-1 / Birch trellis", "FG-2 / Rain barrel");
         // The code alone, as stock tables commonly name items: read as that item, said.
         let t = check_against(
@@ -1057,7 +1059,7 @@ mod tests {
             &t,
             &[
                 "2 rows",
-                "by part of",
+                "by part",
                 "\"FG-1\" (row 2) as \"FG-1 / Birch trellis\""
             ]
         ));
@@ -1072,11 +1074,11 @@ mod tests {
             &[],
         );
         assert!(
-            !warns(&t, &["by part of"]) && !warns(&t, &["left out"]),
+            !warns(&t, &["by part"]) && !warns(&t, &["left out"]),
             "{t:?}"
         );
         // A description spelt otherwise: the two joined still name the most rows in full;
-        // that row names no item (the code alone would, but its description says otherwise).
+        // that row names no item.
         let t = check_against(
             &coded,
             "Code,Description,On hand\nFG-1,Birch trelis,5\nFG-2,Rain barrel,6\n",
@@ -1090,8 +1092,28 @@ mod tests {
             ),
             "{t:?}"
         );
+        // A new code beside an old description is no old item: the "Code" left out speaks
+        // against the description read.
+        let t = check_against(
+            &coded,
+            "Code,Description,On hand\nFG-9,Rain barrel,7\n",
+            &[],
+            &[],
+        );
+        assert!(warns(&t, &["but its \"Code\" says \"FG-9\""]), "{t:?}");
+        // A category of one item under the history's "Product" header names no product.
+        let categories = super::super::read(
+            "month,category,product,units\n2024-01,Seeds,Seed packets,3\n2024-01,Covers,Frost \
+             cloth,4\n2024-02,Seeds,Seed packets,5\n2024-02,Covers,Frost cloth,6\n",
+        );
+        check_against(
+            &categories,
+            "Product,On hand\nSeeds,40\nFrost cloth,6\n",
+            &[row_with_on_hand("Covers / Frost cloth", 6.0)],
+            &[],
+        );
         // The history names items by store and product; so does the stock table, in either
-        // order.
+        // order, under the history's headers.
         let stores = super::super::read(
             "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Mill Road,Seed \
              packets,4\n2024-01,Oak Lane,Willow basket,2\n2024-02,Oak Lane,Seed packets,5\n\
@@ -1103,13 +1125,13 @@ mod tests {
         ];
         for text in [
             "Store,Item,On hand\nOak Lane,Seed packets,5\nMill Road,Seed packets,6\n",
-            "Item,Branch,On hand\nSeed packets,Oak Lane,5\nSeed packets,Mill Road,6\n",
+            "Item,Store,On hand\nSeed packets,Oak Lane,5\nSeed packets,Mill Road,6\n",
         ] {
             check_against(&stores, text, &expected, &[]);
         }
-        // A product alone names no item where a product is sold in two stores, even one
-        // that only one store sells (the stock of a store's list without its store column, or
-        // of the whole chain, is no one store's).
+        // A product alone names no item of a history by store and product, even one only
+        // one store sells (a chain's list, or one store's without its store column, is no one
+        // store's); one two stores sell is said to be either.
         let t = check_against(
             &stores,
             "Item,On hand\nSeed packets,11\nWillow basket,3\n",
@@ -1127,92 +1149,37 @@ mod tests {
             warns(&t, &["no item of the history", "\"Willow basket\" (row 3)"]),
             "{t:?}"
         );
-        // Where every store sells products of its own, a product names its item; a "Store"
-        // beside it that says another store leaves the row out.
-        let own = super::super::read(
-            "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Oak Lane,Willow \
-             basket,1\n2024-01,Mill Road,Frost cloth,4\n2024-02,Oak Lane,Seed packets,5\n\
-             2024-02,Oak Lane,Willow basket,2\n2024-02,Mill Road,Frost cloth,6\n",
-        );
-        let t = check_against(
-            &own,
-            "Store,Item,On hand\nOak Lane,Frost cloth,7\n",
-            &[],
-            &[],
-        );
-        assert!(
-            warns(&t, &["\"Frost cloth\" (row 2) would be \"Mill Road / Frost cloth\", but its \"Store\" says \"Oak Lane\""]),
-            "{t:?}"
-        );
-        check_against(
-            &own,
-            "Item,On hand\nFrost cloth,7\n",
-            &[row_with_on_hand("Mill Road / Frost cloth", 7.0)],
-            &[],
-        );
-        // One store's history; a list of another store's stock is not its stock (the store
-        // column, left out for matching no name, still speaks against each row).
-        let one_store = super::super::read(
-            "month,store,item,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Oak Lane,Frost \
-             cloth,1\n2024-02,Oak Lane,Seed packets,5\n2024-02,Oak Lane,Frost cloth,2\n",
-        );
-        let t = check_against(
-            &one_store,
-            "Store,Item,On hand\nMill Road,Seed packets,7\nMill Road,Frost cloth,8\n",
-            &[],
-            &[],
-        );
-        assert!(
-            warns(&t, &["2 rows", "but its \"Store\" says \"Mill Road\""]),
-            "{t:?}"
-        );
-        // No column names any item: every item column joined names each row in the warning,
-        // not one column's repeats as "a row above".
+        // Another store's list under the history's own headers: its rows name no item.
         let t = check_against(
             &stores,
-            "Warehouse,Item,On hand\nCentral,Seed packets,7\nCentral,Frost cloth,8\n",
+            "Store,Item,On hand\nHarbour Street,Willow basket,7\n",
             &[],
             &[],
         );
-        assert!(warns(&t, &["\"Central / Seed packets\" (row 2)"]), "{t:?}");
+        assert!(
+            warns(&t, &["\"Harbour Street / Willow basket\" (row 2)"]),
+            "{t:?}"
+        );
         // Items numbered alone: a "Site" of small numbers beside them is no item column.
-        let numbered = super::super::read("month,item no,units\n2024-01,1,3\n2024-01,2,4\n2024-01,3,5\n2024-02,1,3\n2024-02,2,4\n2024-02,3,5\n");
+        let numbered = super::super::read(
+            "month,item no,units\n2024-01,1,3\n2024-01,2,4\n2024-01,3,5\n2024-02,1,3\n2024-02,2,\
+             4\n2024-02,3,5\n",
+        );
         check_against(
             &numbered,
             "Site,Item no,On hand\n3,1,10\n1,2,20\n",
             &[row_with_on_hand("1", 10.0), row_with_on_hand("2", 20.0)],
             &[],
         );
-        // Branch and code numbers that cross: the history's own headers in its order decide.
-        let crossed = super::super::read(
-            "month,branch,code,description,units\n2024-01,5,12,Hand trowel,3\n2024-01,5,305,\
-             Dibber,1\n2024-01,12,5,Hand fork,2\n2024-01,12,305,Dibber,4\n2024-02,5,12,Hand \
-             trowel,3\n2024-02,5,305,Dibber,1\n2024-02,12,5,Hand fork,2\n2024-02,12,305,\
-             Dibber,4\n",
-        );
-        let names: Vec<&str> = crossed.items.iter().map(|i| i.name.as_str()).collect();
-        assert_eq!(names[0], "Hand trowel / 5 / 12", "{names:?}");
-        check_against(
-            &crossed,
-            "Branch,Code,On hand\n5,12,7\n12,5,8\n",
-            &[
-                row_with_on_hand("Hand trowel / 5 / 12", 7.0),
-                row_with_on_hand("Hand fork / 12 / 5", 8.0),
-            ],
-            &[],
-        );
-        // A store column under another header than the history's, of another store: its
-        // rows are no store's of the history.
+        // No column names any item: every item column joined names each row in the warning,
+        // not one column's repeats as "a row above".
         let t = check_against(
-            &own,
-            "Garden centre,Item,On hand\nHarbour Street,Frost cloth,7\n",
+            &stores,
+            "Item,Description,On hand\nSeed trays,Black,7\nSeed trays,Green,8\n",
             &[],
             &[],
         );
-        assert!(
-            warns(&t, &["but its \"Garden centre\" says \"Harbour Street\""]),
-            "{t:?}"
-        );
+        assert!(warns(&t, &["\"Seed trays / Black\" (row 2)"]), "{t:?}");
         // A second item column left empty changes no name: the first is read, not refused as
         // matching alike.
         check(
