@@ -87,6 +87,9 @@ pub(crate) struct ItemNames<'a> {
     /// The items holding each part's key in any place: a part of several items is said to be
     /// theirs ("could be ...").
     holding: HashMap<String, Vec<usize>>,
+    /// The items holding each part as written: a part written as one item writes it names
+    /// that item, whatever another's key ("123" is not "0123", "Planter" not "PLANTER").
+    written: HashMap<String, Vec<usize>>,
 }
 
 impl<'a> ItemNames<'a> {
@@ -146,6 +149,17 @@ impl<'a> ItemNames<'a> {
                 }
             }
         }
+        let mut written: HashMap<String, Vec<usize>> = HashMap::new();
+        if places > 0 {
+            for (i, n) in names.iter().enumerate() {
+                for piece in n.split(PART_JOIN).map(str::trim) {
+                    let items = written.entry(piece.to_string()).or_default();
+                    if items.last() != Some(&i) {
+                        items.push(i);
+                    }
+                }
+            }
+        }
         let any_part = parts.iter().flatten().cloned().collect();
         ItemNames {
             exact,
@@ -157,6 +171,7 @@ impl<'a> ItemNames<'a> {
             parts,
             any_part,
             holding,
+            written,
         }
     }
 
@@ -180,7 +195,7 @@ impl<'a> ItemNames<'a> {
             _ => Found::Several(items.to_vec()),
         };
         if let Some(items) = self.by_key.get(&key) {
-            return several(items, Found::Key);
+            return several(&self.as_written(name, items.clone()), Found::Key);
         }
         let asked: Vec<String> = name.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
         let keys: Vec<&str> = asked.iter().map(String::as_str).collect();
@@ -218,8 +233,21 @@ impl<'a> ItemNames<'a> {
                 _ => Found::Nowhere,
             };
         }
+        let found = self.as_written(name, found);
         let whole = keys.len() == self.places;
         several(&found, if whole { Found::Key } else { Found::Part })
+    }
+
+    /// Of the items `found` for `name`, those that write each of its parts written as some
+    /// item writes one: such a part names those items, not one whose part has only its key
+    /// ("123" beside the items "0123" and "123"; "FG1001" beside "FG-1001" and "FG1001").
+    fn as_written(&self, name: &str, mut found: Vec<usize>) -> Vec<usize> {
+        for piece in name.split(PART_JOIN).map(str::trim) {
+            if let Some(writers) = self.written.get(piece) {
+                found.retain(|i| writers.contains(i));
+            }
+        }
+        found
     }
 
     /// Whether `cell` is a part of some item's joined name (a column holding such cells
@@ -230,6 +258,10 @@ impl<'a> ItemNames<'a> {
 
     /// Whether `cell` is item `index`'s name or one of its parts.
     fn agrees(&self, index: usize, cell: &str, name: &str) -> bool {
+        // Written exactly as another item's part and not as this one's: another item's.
+        if let Some(writers) = self.written.get(cell.trim()) {
+            return writers.contains(&index);
+        }
         let key = name_key(cell);
         key == name_key(name) || self.parts[index].contains(&key)
     }
@@ -628,6 +660,50 @@ mod tests {
             &["Bark mulch"],
             &["Bark mulch / 50 L", "Basil pot / 1 L", "Trowel / steel"],
             &["warning: 1 row of the stock table names no item"],
+        );
+    }
+
+    #[test]
+    fn a_part_written_as_another_item_writes_it_is_that_items() {
+        // "123" and "0123" are two codes, "FG1001" and "FG-1001" too: a name in all its parts
+        // by their keys is not the item whose part only has the key.
+        let items = [
+            "0123 / Pot 12 cm",
+            "123 / Pot 13 cm",
+            "FG-1001 / Birch trellis",
+            "FG1001 / Birch trellis kit",
+        ];
+        check_joined(
+            &[
+                "123 / Pot 12 cm",
+                "FG1001 / Birch trellis",
+                "0123 / pot 12 CM",
+            ],
+            &items,
+            2,
+            &[
+                "0123 / Pot 12 cm",
+                "warning: 1 row of the stock table names an item as the history does but for \
+                 case",
+                "warning: 2 rows of the stock table name no item of the history, so they are \
+                 left out: \"123 / Pot 12 cm\" (row 2), \"FG1001 / Birch trellis\" (row 3)",
+            ],
+        );
+        // "Planter" is one item's description and, by its key, another's code.
+        let planters = [
+            "FG-2002 / Planter",
+            "PLANTER / Cedar planter box",
+            "FG-2003 / Birch trellis",
+        ];
+        check_joined(
+            &["Planter", "planter"],
+            &planters,
+            2,
+            &[
+                "FG-2002 / Planter",
+                "warning: 1 row of the stock table names an item by part",
+                "warning: 1 row of the stock table could name more than one item",
+            ],
         );
     }
 
