@@ -384,7 +384,8 @@ pub(crate) fn choose_item_columns(
 /// The columns left out (`columns` `None`, not `read`) that speak of the history's items,
 /// where a part of a name names an item alone (`ItemNames::parts_name_items`): strictly the
 /// columns that could have named the items (`candidates`: a "Code" beside the "Description"
-/// read), else those where some cell is a part of the history's names.
+/// read) and those whose cells are half or more the history's parts (an "Item description"),
+/// else those where some cell is a part of the history's names.
 fn witnesses(
     columns: &[Option<(Field, Option<TimeUnit>)>],
     header: &Record,
@@ -400,11 +401,16 @@ fn witnesses(
         .filter(|&i| columns.get(i).is_some_and(Option::is_none) && !read.contains(&i))
         .filter(|&i| !header.cells[i].is_empty())
         .filter_map(|i| {
-            let strict = candidates.contains(&i);
-            let speaks = rows
+            let filled: Vec<&str> = rows
                 .iter()
-                .any(|r| r.cells.get(i).is_some_and(|c| names.is_a_part(c)));
-            (strict || speaks).then_some((i, strict))
+                .filter_map(|r| r.cells.get(i).map(String::as_str))
+                .filter(|c| !c.is_empty())
+                .collect();
+            let parts = filled.iter().filter(|c| names.is_a_part(c)).count();
+            // Half its cells or more the history's parts: an item column under a header of
+            // its own ("Item description"), as strict as a named one.
+            let strict = candidates.contains(&i) || (parts > 0 && parts * 2 >= filled.len());
+            (strict || parts > 0).then_some((i, strict))
         })
         .collect()
 }

@@ -1101,6 +1101,19 @@ mod tests {
             &[],
         );
         assert!(warns(&t, &["but its \"Code\" says \"FG-9\""]), "{t:?}");
+        // A column under a header of its own holding the history's descriptions speaks as an
+        // item column: a new item's row ("Oak bench", its code one punctuation mark from an
+        // old one) is no old item.
+        let t = check_against(
+            &coded,
+            "Code,Item description,On hand\nFG2,Oak bench,2\nFG-1,Birch trellis,5\n",
+            &[row_with_on_hand(trellis, 5.0)],
+            &[],
+        );
+        assert!(
+            warns(&t, &["but its \"Item description\" says \"Oak bench\""]),
+            "{t:?}"
+        );
         // A category of one item under the history's "Product" header names no product.
         let categories = super::super::read(
             "month,category,product,units\n2024-01,Seeds,Seed packets,3\n2024-01,Covers,Frost \
