@@ -205,16 +205,17 @@ pub(crate) fn column_of(header: &str) -> Option<(Field, Option<TimeUnit>)> {
     })
 }
 
-/// Whether a stock table's header is one of the history's item columns' (`item_headers`, its
-/// report's `item_columns`, two or more): "Store" beside a history by store and product. Such
-/// a column may be read with the item column, joined as the history joins them
-/// ([`choose_item_columns`]); a "Branch" or "Location" under another header is not (a review
-/// found aisle numbers under "Location" read as a history's store numbers).
-pub(crate) fn names_a_history_part(header: &str, item_headers: &[String]) -> bool {
-    item_headers.len() >= 2
-        && item_headers
-            .iter()
-            .any(|h| normalise(h) == normalise(header))
+/// Which of the history's item columns (`item_headers`, its report's `item_columns`, two or
+/// more) a stock table's header is, if any: "Store" beside a history by store and product.
+/// Such a column may be read with the item column, joined as the history joins them
+/// ([`choose_item_columns`]), and a single one is looked up in its own place
+/// (`ItemNames::find`); a "Branch" or "Location" under another header is not (a review found
+/// aisle numbers under "Location" read as a history's store numbers).
+pub(crate) fn history_column(header: &str, item_headers: &[String]) -> Option<usize> {
+    let h = normalise(header);
+    (item_headers.len() >= 2)
+        .then(|| item_headers.iter().position(|g| normalise(g) == h))
+        .flatten()
 }
 
 /// A header key without a word for counting before it ("qtyonhand" is "onhand").
@@ -330,26 +331,13 @@ pub(crate) fn unusable_time(header: &str) -> Option<String> {
     })
 }
 
-/// The history's place of the one item column `chosen`, where its header is one of the
-/// history's item columns' (`item_headers`).
-pub(crate) fn place_of(
-    header: &Record,
-    chosen: &[usize],
-    item_headers: &[String],
-) -> Option<usize> {
-    match chosen {
-        [one] => {
-            let h = normalise(header.cells.get(*one)?);
-            item_headers.iter().position(|g| normalise(g) == h)
-        }
-        _ => None,
-    }
-}
-
 /// The item columns a stock table is read by ([`choose_item_columns`]).
 pub(crate) struct ItemColumns {
     /// The columns whose cells, joined ([`row_item`]), name each row's item.
     pub read: Vec<usize>,
+    /// The history's place of the one column read, where its header is the history's
+    /// ([`place_of`]).
+    pub place: Option<usize>,
     /// Columns left out that speak of the history's items, each with whether strictly
     /// (`stock_names::Beside`): a row matched by part must agree with them.
     pub beside: Vec<(usize, bool)>,
@@ -368,17 +356,30 @@ pub(crate) fn choose_item_columns(
     columns: &mut [Option<(Field, Option<TimeUnit>)>],
     header: &Record,
     rows: &[Record],
-    history: (&[&str], &[String]),
+    history: (&ItemNames, &[String]),
     warnings: &mut Vec<String>,
 ) -> Result<ItemColumns, RowError> {
-    let (items, item_headers) = history;
-    let names = ItemNames::new(items, item_headers);
+    let (names, item_headers) = history;
     let candidates: Vec<usize> = (0..columns.len())
         .filter(|&i| matches!(columns[i], Some((Field::Item, _))))
         .collect();
-    let read = read_columns(columns, header, rows, (&names, item_headers), warnings)?;
-    let beside = witnesses(columns, header, rows, &read, &candidates, &names);
-    Ok(ItemColumns { read, beside })
+    let read = read_columns(columns, header, rows, (names, item_headers), warnings)?;
+    let beside = witnesses(columns, header, rows, &read, &candidates, names);
+    let place = place_of(header, &read, item_headers);
+    Ok(ItemColumns {
+        read,
+        beside,
+        place,
+    })
+}
+
+/// The history's place of the one item column `chosen`, where its header is one of the
+/// history's item columns' ([`history_column`]).
+fn place_of(header: &Record, chosen: &[usize], item_headers: &[String]) -> Option<usize> {
+    match chosen {
+        [one] => history_column(header.cells.get(*one)?, item_headers),
+        _ => None,
+    }
 }
 
 /// The columns left out (`columns` `None`, not `read`) that speak of the history's items,
@@ -465,10 +466,7 @@ fn read_columns(
     let in_order = |chosen: &[usize]| {
         let at: Vec<usize> = chosen
             .iter()
-            .filter_map(|&i| {
-                let h = normalise(&header.cells[i]);
-                item_headers.iter().position(|g| normalise(g) == h)
-            })
+            .filter_map(|&i| history_column(&header.cells[i], item_headers))
             .collect();
         if at.windows(2).all(|w| w[0] < w[1]) {
             at.len()
@@ -478,8 +476,9 @@ fn read_columns(
     };
     let score = |chosen: &[usize]| {
         let mut s = (0, 0, 0, in_order(chosen));
+        let place = place_of(header, chosen, item_headers);
         for r in rows {
-            match names.find(&row_item(r, chosen), place_of(header, chosen, item_headers)) {
+            match names.find(&row_item(r, chosen), place) {
                 Found::Exact(_) => (s.0, s.1) = (s.0 + 1, s.1 + 1),
                 Found::Key(_) => s.0 += 1,
                 Found::Part(_) => s.2 += 1,
@@ -513,18 +512,20 @@ fn read_columns(
     };
     // Two choices giving every row the same item ("SKU" beside a copy; a code and a
     // description of a history that joins a category too) are one choice.
-    let item_of = |r: &Record, chosen: &[usize]| match names
-        .find(&row_item(r, chosen), place_of(header, chosen, item_headers))
+    let item_of = |r: &Record, chosen: &[usize], place: Option<usize>| match names
+        .find(&row_item(r, chosen), place)
     {
         Found::Exact(i) | Found::Key(i) | Found::Part(i) => Some(i),
         Found::Several(_) | Found::Nowhere => None,
     };
     let alike = |a: &[usize], b: &[usize]| {
-        rows.iter().all(|r| {
-            let (x, y) = (item_of(r, a), item_of(r, b));
-            // A row naming no item either way ("Total") tells the choices no apart.
-            x == y
-        })
+        let (at_a, at_b) = (
+            place_of(header, a, item_headers),
+            place_of(header, b, item_headers),
+        );
+        // A row naming no item either way ("Total") tells the choices no apart.
+        rows.iter()
+            .all(|r| item_of(r, a, at_a) == item_of(r, b, at_b))
     };
     let first = &choices[tied[0]];
     let nothing = (top.0, top.1, top.2) == (0, 0, 0);

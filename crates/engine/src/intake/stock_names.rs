@@ -143,20 +143,14 @@ impl<'a> ItemNames<'a> {
                 if alone {
                     by_part[at].entry(key.clone()).or_default().push(i);
                 }
-                let items = holding.entry(key.clone()).or_default();
-                if items.last() != Some(&i) {
-                    items.push(i);
-                }
+                hold(&mut holding, key, i);
             }
         }
         let mut written: HashMap<String, Vec<usize>> = HashMap::new();
         if places > 0 {
             for (i, n) in names.iter().enumerate() {
                 for piece in n.split(PART_JOIN).map(str::trim) {
-                    let items = written.entry(piece.to_string()).or_default();
-                    if items.last() != Some(&i) {
-                        items.push(i);
-                    }
+                    hold(&mut written, piece, i);
                 }
             }
         }
@@ -267,6 +261,14 @@ impl<'a> ItemNames<'a> {
     }
 }
 
+/// Item `i` among the holders of `part` in `by`, once (an item may hold a part in two places).
+fn hold(by: &mut HashMap<String, Vec<usize>>, part: &str, i: usize) {
+    let items = by.entry(part.to_string()).or_default();
+    if items.last() != Some(&i) {
+        items.push(i);
+    }
+}
+
 /// The sets of two places or more among `places` (each in increasing order); past four
 /// places only all of them.
 fn place_sets(places: usize) -> impl Iterator<Item = Vec<usize>> {
@@ -316,30 +318,20 @@ pub(crate) struct Matched {
     pub errors: Vec<RowError>,
 }
 
-/// Matches `read` to the history's item names `items`: rows naming an item exactly or by key
-/// first, then rows naming one by a part, which give way to them.
-pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String]) -> Matched {
-    let names = ItemNames::new(items, headers);
+/// Matches `read` to the history's item names `items` (indexed as `names`): rows naming an
+/// item exactly or by key first, then rows naming one by a part, which give way to them.
+pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) -> Matched {
     let mut out = Matched::default();
-    let (mut renamed, mut by_part, mut unknown, mut ambiguous, mut disagree, mut second) = (
-        Vec::new(),
-        Vec::new(),
-        Vec::new(),
-        Vec::new(),
-        Vec::new(),
-        Vec::new(),
-    );
-    let mut clash: Vec<String> = Vec::new();
+    let (mut unknown, mut ambiguous, mut disagree, mut second, mut clash) =
+        (Vec::new(), Vec::new(), Vec::new(), Vec::new(), Vec::new());
     let found: Vec<Found> = read
         .iter()
         .map(|r| names.find(&r.row.item, r.place))
         .collect();
-    // The line that first took each item, and each row's item.
+    let in_full = |k: usize| matches!(found[k], Found::Exact(_) | Found::Key(_));
+    // The row that first took each item, and each row's item.
     let mut taken: Vec<Option<usize>> = vec![None; items.len()];
     let mut chosen: Vec<Option<usize>> = vec![None; read.len()];
-    // Whether that row named it in full (exactly or by key): a row naming it by a part gives
-    // way.
-    let mut in_full = vec![false; items.len()];
     for by_a_part in [false, true] {
         for (k, r) in read.iter().enumerate() {
             let line = r.line;
@@ -376,51 +368,55 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], headers: &[String])
                     ));
                     continue;
                 }
-                if let (Some(first), true) = (taken[index], in_full[index]) {
-                    second.push(format!(
-                        "\"{}\" (row {line}) would be \"{}\", which row {first} names",
-                        r.row.item, items[index]
-                    ));
-                    continue;
-                }
-                // Two rows naming one item by parts ("Seeds", a category of one item, and
-                // "Seed packets"): which figure is its is a guess, so neither is read.
                 if let Some(first) = taken[index] {
-                    if let Some(earlier) = chosen.iter().position(|c| *c == Some(index)) {
-                        chosen[earlier] = None;
-                        by_part.retain(|p: &String| !p.contains(&format!("(row {first})")));
+                    let first_line = read[first].line;
+                    if in_full(first) {
+                        second.push(format!(
+                            "\"{}\" (row {line}) would be \"{}\", which row {first_line} names",
+                            r.row.item, items[index]
+                        ));
+                    } else {
+                        // Two rows naming one item by parts ("Seeds", a category of one item,
+                        // and "Seed packets"): which figure is its is a guess, so neither is
+                        // read.
+                        chosen[first] = None;
+                        clash.push(format!(
+                            "\"{}\" (row {line}) and row {first_line} would both be \"{}\"",
+                            r.row.item, items[index]
+                        ));
                     }
-                    clash.push(format!(
-                        "\"{}\" (row {line}) and row {first} would both be \"{}\"",
-                        r.row.item, items[index]
-                    ));
                     continue;
                 }
-            }
-            if let Some(first) = taken[index] {
+            } else if let Some(first) = taken[index] {
                 out.errors.push(RowError {
                     row: line,
                     column: r.column.clone(),
                     text: r.row.item.clone(),
                     message: format!(
-                        "this row and row {first} both name the history's \"{}\" (names are \
+                        "this row and row {} both name the history's \"{}\" (names are \
                          matched without case, spacing or punctuation, and by part of a \
                          joined name): keep one",
-                        items[index]
+                        read[first].line, items[index]
                     ),
                 });
                 continue;
             }
-            taken[index] = Some(line);
-            in_full[index] = !by_a_part;
+            taken[index] = Some(k);
             chosen[k] = Some(index);
-            if r.row.item != items[index] {
-                let pair = format!("\"{}\" (row {line}) as \"{}\"", r.row.item, items[index]);
-                if by_a_part {
-                    by_part.push(pair);
-                } else {
-                    renamed.push(pair);
-                }
+        }
+    }
+    // What each row read under another name than the history's was read as, said.
+    let (mut renamed, mut by_part) = (Vec::new(), Vec::new());
+    for (k, (r, index)) in read.iter().zip(&chosen).enumerate() {
+        if let Some(&index) = index.as_ref().filter(|&&i| r.row.item != items[i]) {
+            let pair = format!(
+                "\"{}\" (row {}) as \"{}\"",
+                r.row.item, r.line, items[index]
+            );
+            if in_full(k) {
+                renamed.push(pair);
+            } else {
+                by_part.push(pair);
             }
         }
     }
@@ -529,7 +525,7 @@ mod tests {
             })
             .collect();
         let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
-        let m = match_rows(read, items, &headers);
+        let m = match_rows(read, items, &ItemNames::new(items, &headers));
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
         got.extend(m.warnings.iter().map(|w| format!("warning: {w}")));
         got.extend(
@@ -763,7 +759,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "Seed", "FG-1"), row(3, "Frost", "FG-9")],
             &items,
-            &headers,
+            &ItemNames::new(&items, &headers),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-1 / Seed"]);

@@ -38,10 +38,10 @@ use super::mark::{decide_mark, evidence, Evidence, Tally};
 use super::number::{is_missing, is_unit, parse_number, NumberError};
 use super::period_units::{split_unit, to_periods, TimeUnit};
 use super::stock_columns::{
-    choose_item_columns, column_of, names_a_history_part, place_of, row_item,
-    set_aside_second_spellings, unusable_time, Field,
+    choose_item_columns, column_of, history_column, row_item, set_aside_second_spellings,
+    unusable_time, Field,
 };
-use super::stock_names::{match_rows, Beside, ReadRow};
+use super::stock_names::{match_rows, Beside, ItemNames, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
 use super::{DecimalMark, Delimiter, IntakeReport, RowError};
 use crate::calendar::Frequency;
@@ -258,15 +258,16 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     };
     let rows: Vec<_> = records.collect();
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
+    // The history's names indexed once, for the item columns' choice and the rows' matching.
+    let names = ItemNames::new(&item_names, &history.item_columns);
     // A header naming a part the history joins into its items' names ("Store" beside a
     // history by store and product) may name the items too.
     let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> = header
         .cells
         .iter()
         .map(|h| {
-            column_of(h).or_else(|| {
-                names_a_history_part(h, &history.item_columns).then_some((Field::Item, None))
-            })
+            column_of(h)
+                .or_else(|| history_column(h, &history.item_columns).map(|_| (Field::Item, None)))
         })
         .collect();
     // Known headers, before the item column's choice and the second spellings set some aside
@@ -276,7 +277,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
         &mut columns,
         &header,
         &rows,
-        (&item_names, &history.item_columns),
+        (&names, &history.item_columns),
         &mut out.warnings,
     ) {
         Ok(i) => i,
@@ -469,14 +470,14 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
                 column: column_name(item_columns.read[0]),
                 row,
                 beside,
-                place: place_of(&header, &item_columns.read, &history.item_columns),
+                place: item_columns.place,
             });
         } else {
             out.errors.extend(bad);
         }
     }
     out.warnings.extend(notes.warnings(history.frequency));
-    let matched = match_rows(read, &item_names, &history.item_columns);
+    let matched = match_rows(read, &item_names, &names);
     out.rows = matched.rows;
     out.warnings.extend(matched.warnings);
     out.errors.extend(matched.errors);
