@@ -349,7 +349,7 @@ pub(crate) struct ItemColumns {
 /// or by key; `stock_names::ItemNames::find`), then the most exactly, then the most by one
 /// part, then the history's own headers in its order; the others are left out with a warning.
 /// A header is an item column by an item word, or by being one of the history's item
-/// columns' (`names_a_history_part`). An error at the header when no header names items, or
+/// columns' ([`history_column`]). An error at the header when no header names items, or
 /// when two choices match alike and give the rows different items (which holds whose stock
 /// would be a guess).
 pub(crate) fn choose_item_columns(
