@@ -32,11 +32,13 @@ fn fixed_opt(v: Option<f64>, decimals: usize) -> String {
 }
 
 /// A canvas that redraws whenever its data changes, its text summary beside it, and a button
-/// that saves it as PNG.
+/// that saves it as PNG. `absent`: said instead when a plan has no data for this chart (the
+/// overlay of a forecast without a season), so the caption never stands over a blank.
 fn chart_figure<T>(
     id: &'static str,
     caption: &'static str,
     file_part: &'static str,
+    absent: &'static str,
     data: Memo<Option<T>>,
     summary: fn(&T) -> String,
     draw: fn(&Area<'_, PageCanvas>, &T) -> Result<(), ChartError>,
@@ -74,7 +76,13 @@ where
             );
         }
     });
-    let text = move || data.with(|d| d.as_ref().map(summary).unwrap_or_default());
+    let text = move || {
+        data.with(|d| match d {
+            Some(d) => summary(d),
+            None if state.plan.with(|p| matches!(p, Some(Ok(_)))) => absent.to_string(),
+            None => String::new(),
+        })
+    };
     let save = move |_| {
         if let Some(el) = canvas.get() {
             let item = state.plan.with(|p| {
@@ -187,7 +195,7 @@ pub fn LookAheadPanel() -> impl IntoView {
     view! {
         <section class="panel" id="look-ahead" aria-labelledby="look-ahead-title">
             <h2 id="look-ahead-title">"Look-ahead"</h2>
-            {chart_figure("look-ahead-chart", "Demand, the fit, the holdout forecast and the forecast with its band", "look-ahead", data, chart::look_ahead_summary, chart::draw_look_ahead)}
+            {chart_figure("look-ahead-chart", "Demand, the fit, the holdout forecast and the forecast with its band", "look-ahead", "", data, chart::look_ahead_summary, chart::draw_look_ahead)}
             <div class="table-wrap">
                 <table class="quiet-table" id="forecast-table">
                     <caption>{move || state.shown.with(|s| s.as_ref().map(|s| format!("Forecast by {} with its {}% band", s.plan.chosen.label(), s.plan.level.percent())).unwrap_or_default())}</caption>
@@ -320,7 +328,7 @@ pub fn ErrorLedger() -> impl IntoView {
                     </tbody>
                 </table>
             </div>
-            {chart_figure("tracking-chart", "Tracking signal against its limits", "tracking-signal", tracking, chart::tracking_summary, chart::draw_tracking)}
+            {chart_figure("tracking-chart", "Tracking signal against its limits", "tracking-signal", "", tracking, chart::tracking_summary, chart::draw_tracking)}
             <button type="button" id="export-ledger" on:click=export_ledger>"Save the Error ledger as CSV"</button>
         </section>
     }
@@ -370,10 +378,10 @@ pub fn PatternView() -> impl IntoView {
                 <li>{move || with_plan(&|_, p| Some(words::demand_words(&p.demand)))}</li>
             </ul>
             <SeasonChoices/>
-            {chart_figure("history-chart", "History, period by period", "history", history, chart::history_summary, chart::draw_history)}
+            {chart_figure("history-chart", "History, period by period", "history", "", history, chart::history_summary, chart::draw_history)}
             <div class="chart-pair">
-                {chart_figure("overlay-chart", "Seasonal overlay: one line per year", "seasonal-overlay", overlay, chart::overlay_summary, chart::draw_overlay)}
-                {chart_figure("acf-chart", "Autocorrelation by lag, with the season test's threshold", "autocorrelation", acf, chart::autocorrelation_summary, chart::draw_autocorrelation)}
+                {chart_figure("overlay-chart", "Seasonal overlay: one line per year", "seasonal-overlay", "No season in this forecast, so no years to lay over each other; a season length chosen above or under Settings draws them.", overlay, chart::overlay_summary, chart::draw_overlay)}
+                {chart_figure("acf-chart", "Autocorrelation by lag, with the season test's threshold", "autocorrelation", "", acf, chart::autocorrelation_summary, chart::draw_autocorrelation)}
             </div>
         </section>
     }

@@ -6,7 +6,7 @@
 //! e = F - D, forecast minus demand; a positive error is an over-forecast.
 
 use morrowcast_engine::backtest::{Candidate, COMBINATION_ANCHORS};
-use morrowcast_engine::intake::{IntakeReport, Layout, RowError};
+use morrowcast_engine::intake::{list_in_words, IntakeReport, Layout, RowError};
 use morrowcast_engine::methods::MethodKind;
 use morrowcast_engine::patterns::{
     DemandClass, DemandVerdict, SeasonSource, SeasonVerdict, TrendDirection, TrendVerdict,
@@ -47,7 +47,9 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
     }
     let n = report.items.len();
     if n > 0 {
-        let names: Vec<&str> = report.items.iter().map(|i| i.name.as_str()).collect();
+        // A file of thousands of items would fill the column with names: the first few
+        // are named, the item chooser and the board hold the rest.
+        let names: Vec<String> = report.items.iter().map(|i| i.name.clone()).collect();
         // Each item's history, from its first figure to its last (empty cells outside it
         // are left out, as the notes say).
         let longest = report
@@ -59,7 +61,7 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
         lines.push(format!(
             "{n} item{} ({}), up to {longest} periods each.",
             if n == 1 { "" } else { "s" },
-            names.join(", ")
+            list_in_words(&names)
         ));
     }
     if report.gaps_filled > 0 {
@@ -425,6 +427,23 @@ mod tests {
         assert_eq!(
             row_error_line(&e),
             "Row 5, column \"units\": found \"12x\". Type a number."
+        );
+    }
+
+    #[test]
+    fn many_items_are_named_up_to_eight() {
+        let names: Vec<String> = (1..=10).map(|i| format!("Pot {i}")).collect();
+        let mut text = format!("month,{}\n", names.join(","));
+        for m in 1..=6 {
+            text.push_str(&format!("2024-{m:02}{}\n", ",5".repeat(names.len())));
+        }
+        let r = morrowcast_engine::intake::read(&text);
+        let lines = intake_lines(&text, &r);
+        assert!(
+            lines.iter().any(|l| l.starts_with(
+                "10 items (Pot 1, Pot 2, Pot 3, Pot 4, Pot 5, Pot 6, Pot 7, Pot 8 and 2 more), up to 6"
+            )),
+            "{lines:?}"
         );
     }
 

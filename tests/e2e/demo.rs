@@ -234,6 +234,20 @@ fn season_choices_switch_the_season_off_and_back() {
     );
     let field = browser.js("return document.getElementById('season').value");
     assert_eq!(field.as_str(), Some("1"));
+    // Without a season the overlay says why, rather than a caption over a blank and a button
+    // that would save an empty picture.
+    let overlay = browser.wait_for(
+        "the overlay's reason",
+        "const p = document.getElementById('overlay-chart-summary'); \
+         return p && p.textContent.startsWith('No season in this forecast') ? p.textContent : ''",
+        WAIT,
+    );
+    assert!(overlay.as_str().unwrap_or("").contains("Settings"));
+    let button = browser.js(
+        "return getComputedStyle(document.querySelector('#overlay-chart').closest('figure') \
+         .querySelector('button')).display",
+    );
+    assert_eq!(button.as_str(), Some("none"));
     browser.js("document.getElementById('season-auto').click()");
     browser.wait_for(
         "the detected season again",

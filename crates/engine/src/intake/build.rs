@@ -109,7 +109,7 @@ pub(crate) fn listing(entries: &[String]) -> String {
 }
 
 /// "a", "a and b", "a, b and c"; past [`LISTED`] entries, "a, b, ... and N more".
-pub(crate) fn joined(entries: &[String]) -> String {
+pub fn joined(entries: &[String]) -> String {
     match entries {
         [] => String::new(),
         [one] => one.clone(),
