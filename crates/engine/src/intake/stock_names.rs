@@ -14,8 +14,11 @@
 //! part, or some parts in the history's order, name the item (said; a stock table commonly
 //! names items by their code alone), a single part under the history's own header only in that
 //! column's place. A row matched by part must agree with the columns beside it that speak of
-//! the history's items ([`Beside`]: a new code beside an old description is no old item) and
-//! gives way to a row naming the item in full; two rows naming one item by parts are both left
+//! the history's items ([`Beside`]: a new code beside an old description is no old item), and
+//! once such a column has named another item on some row, a row whose cell there is empty has
+//! nothing to check it and is left out too (the column read may be another numbering whose
+//! values are the history's codes of other items); it gives way to a row naming the item in
+//! full; two rows naming one item by parts are both left
 //! out. A key or parts several items share match none (said, left out); a row naming no item is
 //! left out, said (a "Total" row, an item the history does not hold); two rows that come to the
 //! same item in full are an error at the second. Four probing reviews found every rule that
@@ -324,6 +327,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
     let mut out = Matched::default();
     let (mut unknown, mut ambiguous, mut disagree, mut second, mut clash) =
         (Vec::new(), Vec::new(), Vec::new(), Vec::new(), Vec::new());
+    let mut disagreed_strictly = false;
     let found: Vec<Found> = read
         .iter()
         .map(|r| names.find(&r.row.item, r.place))
@@ -362,6 +366,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
                         && (b.strict || names.is_a_part(&b.cell))
                 });
                 if let Some(b) = against {
+                    disagreed_strictly |= b.strict;
                     disagree.push(format!(
                         "\"{}\" (row {line}) would be \"{}\", but its \"{}\" says \"{}\"",
                         r.row.item, items[index], b.header, b.cell
@@ -403,6 +408,31 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
             }
             taken[index] = Some(k);
             chosen[k] = Some(index);
+        }
+    }
+    // Where an item column left out names other items than the column read on some rows (a
+    // wholesaler's numbers that are the history's codes of other items), the column read may
+    // not follow the history's naming at all: a row matched by its part alone, that column's
+    // cell empty, has nothing to check it and is left out too (review 56 found such rows
+    // landing on the item whose code the wholesaler's number happened to be).
+    let mut unchecked = Vec::new();
+    if disagreed_strictly {
+        for (k, r) in read.iter().enumerate() {
+            let strict: Vec<&Beside> = r.beside.iter().filter(|b| b.strict).collect();
+            if let Some(index) = chosen[k].filter(|_| {
+                !in_full(k) && !strict.is_empty() && strict.iter().all(|b| b.cell.is_empty())
+            }) {
+                chosen[k] = None;
+                let headers: Vec<String> =
+                    strict.iter().map(|b| format!("\"{}\"", b.header)).collect();
+                unchecked.push(format!(
+                    "\"{}\" (row {}) would be \"{}\", its {} empty",
+                    r.row.item,
+                    r.line,
+                    items[index],
+                    headers.join(" and ")
+                ));
+            }
         }
     }
     // What each row read under another name than the history's was read as, said.
@@ -456,6 +486,17 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
             agreeing(disagree.len(), "its", "their"),
             agreeing(disagree.len(), "it is", "they are"),
             listing(&disagree)
+        ));
+    }
+    if !unchecked.is_empty() {
+        out.warnings.push(format!(
+            "{} of the stock table {} an item by part of the history's name with nothing \
+             beside to check it, while other rows' columns name other items than the parts \
+             read, so {} left out (fill in the empty cell): {}",
+            count(unchecked.len(), "row"),
+            agreeing(unchecked.len(), "names", "name"),
+            agreeing(unchecked.len(), "it is", "they are"),
+            listing(&unchecked)
         ));
     }
     if !second.is_empty() {
