@@ -10,6 +10,7 @@ mod misreads;
 mod robustness;
 mod sales_reports;
 mod stock_matching;
+mod stock_table;
 mod till_exports;
 mod unnamed;
 mod workbooks;
