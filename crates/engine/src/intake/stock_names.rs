@@ -811,6 +811,31 @@ mod tests {
             "{:?}",
             m.warnings
         );
+        // Once the "Code" beside names another item, a row with it empty is not taken on
+        // its part alone: the column read may be another numbering altogether.
+        let items = ["FG-1 / Seed", "FG-2 / Frost", "FG-3 / Twine"];
+        let m = match_rows(
+            vec![row(2, "FG-2", "Seed"), row(3, "FG-3", "")],
+            &items,
+            &ItemNames::new(&items, &headers),
+        );
+        assert!(m.rows.is_empty(), "{:?}", m.rows);
+        assert!(
+            m.warnings
+                .iter()
+                .any(|w| w
+                    .contains("\"FG-3\" (row 3) would be \"FG-3 / Twine\", its \"Code\" empty")),
+            "{:?}",
+            m.warnings
+        );
+        // Where no row disagrees, an empty cell beside is no reason to leave a row out.
+        let m = match_rows(
+            vec![row(2, "FG-2", "Frost"), row(3, "FG-3", "")],
+            &items,
+            &ItemNames::new(&items, &headers),
+        );
+        let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
+        assert_eq!(kept, ["FG-2 / Frost", "FG-3 / Twine"]);
     }
 
     #[test]
