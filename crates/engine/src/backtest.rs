@@ -270,6 +270,28 @@ impl Seasons {
         self.accepted.or(self.trial)
     }
 
+    /// The training a rolling origin must keep for every member of `candidate` to fit with its
+    /// season: one season for the seasonal naive method (it repeats the last one), two for the
+    /// rest (classical indices and the Holt-Winters start each take two); `None` without a
+    /// season. Where the seasonal naive method is the only member with a season (a season on
+    /// trial beside the Theta models fitted without one), asking two seasons left a history of
+    /// 30 months 6 origins, and the band's t quantile on 3 errors at step 4 made it 0 to 400
+    /// for an item selling 20 to 80.
+    pub fn training_for(self, candidate: &Candidate) -> Option<usize> {
+        candidate
+            .members()
+            .iter()
+            .filter_map(|kind| {
+                let m = self.for_method(*kind)?;
+                Some(if *kind == MethodKind::SeasonalNaive {
+                    m
+                } else {
+                    2 * m
+                })
+            })
+            .max()
+    }
+
     /// The longest season a member of `candidate` is fitted with.
     pub fn for_candidate(self, candidate: &Candidate) -> Option<usize> {
         candidate
