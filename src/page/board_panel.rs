@@ -20,6 +20,7 @@ use super::browser;
 use super::export::file_name;
 use super::panels::{chosen_file, dropped_file, read_local_file, source_of, TextField};
 use super::state::{BoardState, IntakeState, PlanState};
+use super::words;
 use crate::worker::reading::{BookWant, Refused};
 use crate::worker::{BoardFigures, BoardRow, BoardStock};
 
@@ -119,7 +120,7 @@ fn stock_figures(f: &BoardStock) -> impl IntoView {
             }}</dd>
             <dt>"Expected service"</dt><dd>{format!("cycle service level {}, fill rate {}", percent(f.cycle_service_level), percent(f.fill_rate))}</dd>
         </dl>
-        <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
+        <ul class="plain notes">{f.notes.iter().map(|n| view! { <li>{words::as_sentence(n)}</li> }).collect_view()}</ul>
     }
 }
 
@@ -457,7 +458,7 @@ pub fn StockPanel() -> impl IntoView {
                 <div id="stock-table-report" aria-live="polite">
                     {move || board.table.with(|t| t.as_ref().map(|t| view! {
                         <p class="hint">{format!("Read {} for items of the history.", how_many(t.rows.len(), ("row", "rows")))}</p>
-                        <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}</ul>
+                        <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{words::as_sentence(w)}</li> }).collect_view()}</ul>
                         <ol class="row-errors" id="stock-table-errors">{t.errors.iter().map(|e| view! { <li>{super::words::row_error_line(e)}</li> }).collect_view()}</ol>
                     }))}
                 </div>

@@ -266,7 +266,7 @@ pub fn Ranking() -> impl IntoView {
             </div>
             <ul class="plain notes">
                 {move || state.plan.with(|p| match p {
-                    Some(Ok(p)) => p.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view().into_any(),
+                    Some(Ok(p)) => p.notes.iter().map(|n| view! { <li>{words::as_sentence(n)}</li> }).collect_view().into_any(),
                     _ => ().into_any(),
                 })}
             </ul>

@@ -70,7 +70,7 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
             counted(report.gaps_filled, "missing period", "missing periods")
         ));
     }
-    lines.extend(report.warnings.iter().cloned());
+    lines.extend(report.warnings.iter().map(|w| as_sentence(w)));
     if !report.errors.is_empty() {
         lines.push(format!(
             "{} found; the list below says where. Fix the text in the box and it is read again.",
@@ -78,6 +78,16 @@ pub fn intake_lines(text: &str, report: &IntakeReport) -> Vec<String> {
         ));
     }
     lines
+}
+
+/// An engine note as a sentence of its own on the page: its first letter raised (the engine
+/// writes notes to follow "note: " on the command line, so most start in lower case).
+pub fn as_sentence(note: &str) -> String {
+    let mut chars = note.chars();
+    match chars.next() {
+        Some(first) => first.to_uppercase().chain(chars).collect(),
+        None => String::new(),
+    }
 }
 
 /// Said above a forecast made while Intake found problems (a cell, a row or a line it could not
@@ -445,6 +455,17 @@ mod tests {
             )),
             "{lines:?}"
         );
+    }
+
+    #[test]
+    fn notes_read_as_sentences() {
+        assert_eq!(as_sentence("the season test"), "The season test");
+        assert_eq!(
+            as_sentence("Holt-Winters additive"),
+            "Holt-Winters additive"
+        );
+        assert_eq!(as_sentence("étang"), "Étang");
+        assert_eq!(as_sentence(""), "");
     }
 
     #[test]
