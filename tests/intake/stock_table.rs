@@ -282,6 +282,48 @@ fn row_with_on_hand(item: &str, on_hand: f64) -> StockRow {
 }
 
 #[test]
+fn parts_are_the_historys_own_cells_not_its_names_cut_at_the_joiner() {
+    // A description holding " / " and an item without one: the history keeps each item's
+    // cells, so the codes still name the items alone (cutting the names at " / " gave three
+    // parts and one, and switched part matching off for the whole history).
+    let coded = read(
+        "month,code,description,units\n2024-01,HK-13,Hose repair kit / 13 mm,3\n\
+         2024-01,HK-19,Hose repair kit / 19 mm,4\n2024-01,FG-7,,5\n\
+         2024-02,HK-13,Hose repair kit / 13 mm,3\n2024-02,HK-19,Hose repair kit / 19 mm,4\n\
+         2024-02,FG-7,,5\n",
+    );
+    let names: Vec<&str> = coded.items.iter().map(|i| i.name.as_str()).collect();
+    assert_eq!(
+        names,
+        [
+            "HK-13 / Hose repair kit / 13 mm",
+            "HK-19 / Hose repair kit / 19 mm",
+            "FG-7"
+        ]
+    );
+    assert_eq!(coded.items[0].parts, ["HK-13", "Hose repair kit / 13 mm"]);
+    assert_eq!(coded.items[2].parts, ["FG-7", ""]);
+    check_against(
+        &coded,
+        "Code,On hand\nHK-19,6\nFG-7,7\nHK-13,5\n",
+        &[
+            row_with_on_hand("HK-19 / Hose repair kit / 19 mm", 6.0),
+            row_with_on_hand("FG-7", 7.0),
+            row_with_on_hand("HK-13 / Hose repair kit / 13 mm", 5.0),
+        ],
+        &[],
+    );
+    // The description as written, " / " and all, is one part; a piece of it names nothing.
+    let t = check_against(
+        &coded,
+        "Description,On hand\nHose repair kit / 13 mm,5\n13 mm,8\n",
+        &[row_with_on_hand("HK-13 / Hose repair kit / 13 mm", 5.0)],
+        &[],
+    );
+    assert!(warns(&t, &["\"13 mm\" (row 3)", "no item"]));
+}
+
+#[test]
 fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
     // The history joins a code and a description, each naming every item on its own.
     let coded = read(

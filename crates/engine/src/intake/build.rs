@@ -93,6 +93,25 @@ pub(crate) fn agreeing<'w>(n: usize, one: &'w str, many: &'w str) -> &'w str {
 /// totals.rs and the stock table's matching (stock_names.rs) split or build names by it.
 pub(crate) const PART_JOIN: &str = " / ";
 
+/// A row's cells in the item columns, in their order, white space runs made one space and ""
+/// for an empty cell ([`Item::parts`]); none where fewer than two columns name items.
+pub(crate) fn item_parts(row: &Record, item_columns: &[usize]) -> Vec<String> {
+    if item_columns.len() < 2 {
+        return Vec::new();
+    }
+    item_columns
+        .iter()
+        .map(|j| {
+            let cell = row.cells.get(*j).map_or("", String::as_str);
+            if is_missing(cell) {
+                String::new()
+            } else {
+                cell.split_whitespace().collect::<Vec<_>>().join(" ")
+            }
+        })
+        .collect()
+}
+
 /// "a, b, c and 4 more".
 pub(crate) fn listing(entries: &[String]) -> String {
     let shown = entries
@@ -1155,6 +1174,7 @@ impl<'a> Builder<'a> {
                 name,
                 periods,
                 values,
+                parts: Vec::new(),
             });
         }
         self.out.warnings.extend(names.repeats());

@@ -256,6 +256,15 @@ pub struct Item {
     pub periods: Vec<Period>,
     /// Its values; `None` for a gap.
     pub values: Vec<Option<f64>>,
+    /// Where the history joins several columns into item names (the report's
+    /// `item_columns`), the item's cell in each, in their order ("" for an empty one); empty
+    /// otherwise. The stock table's matching reads parts from here, not by cutting the name
+    /// at " / ", which a description may hold too.
+    #[cfg_attr(
+        feature = "serde",
+        serde(default, skip_serializing_if = "Vec::is_empty")
+    )]
+    pub parts: Vec<String>,
 }
 
 impl Item {

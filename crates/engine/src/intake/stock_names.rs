@@ -10,7 +10,9 @@
 //! naming both spellings. Where the history joins columns into its items' names (its report's
 //! `item_columns`), a name given in all their parts matches by the parts' keys ("Oak Lane /
 //! 123" for "Oak Lane / 00123"); and only where every joined column names each item on its own
-//! (a code and a description, no two items sharing either, every name split into them), a
+//! (a code and a description, no two items sharing a filled cell of either; the parts are
+//! the history's own cells, [`super::Item::parts`], so a description holding " / " or an
+//! empty one is no obstacle), a cell holding " / " read whole first, a
 //! part, or some parts in the history's order, name the item (said; a stock table commonly
 //! names items by their code alone), a single part under the history's own header only in that
 //! column's place. A row matched by part must agree with the columns beside it that speak of
@@ -99,39 +101,65 @@ impl<'a> ItemNames<'a> {
     /// Indexes `names`, read from the history's item columns headed `headers` (the report's
     /// `item_columns`). Where the history joins two columns or more, a name given in all its
     /// parts matches by their keys. A part, or some of the parts, name an item only where
-    /// every joined column names each item on its own: every name splits into as many parts
-    /// and no two items share a part in any place (a code and a description). A history by
-    /// store and product, by category, or with an empty cell or a cell holding " / " is
-    /// matched in full only: a store, a category or a product of several stores names no
+    /// every joined column names each item on its own: no two items share a filled cell in
+    /// any place (a code and a description; an empty description is no part). A history by
+    /// store and product or by category is matched in full only: a store, a category or a product of several stores names no
     /// item, and reviews found every narrower rule (group words, place headers, agreeing
     /// columns) putting stock on another item in cases it did not foresee.
-    pub(crate) fn new(names: &'a [&'a str], headers: &[String]) -> ItemNames<'a> {
+    ///
+    /// `cells`: each item's own cells in the joined columns ([`super::Item::parts`]), where
+    /// the history kept them; a name without them is cut at " / " instead.
+    pub(crate) fn new(
+        names: &'a [&'a str],
+        cells: &[Vec<String>],
+        headers: &[String],
+    ) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, n) in names.iter().enumerate() {
             by_key.entry(name_key(n)).or_default().push(i);
         }
         let places = if headers.len() >= 2 { headers.len() } else { 0 };
-        let parts: Vec<Vec<String>> = names
+        // Each item's parts as written: its own cells, else its name cut at " / ".
+        let written_parts: Vec<Vec<String>> = names
             .iter()
-            .map(|n| {
-                let split: Vec<String> = n.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
-                if places > 0 && split.len() == places {
-                    split
+            .enumerate()
+            .map(
+                |(i, n)| match cells.get(i).filter(|c| places > 0 && c.len() == places) {
+                    Some(c) => c.clone(),
+                    None => n.split(PART_JOIN).map(|p| p.trim().to_string()).collect(),
+                },
+            )
+            .collect();
+        let parts: Vec<Vec<String>> = written_parts
+            .iter()
+            .map(|w| {
+                if places > 0 && w.len() == places {
+                    w.iter().map(|p| name_key(p)).collect()
                 } else {
                     Vec::new()
                 }
             })
             .collect();
         let placed = places > 0 && parts.iter().all(|p| !p.is_empty());
+        // An empty cell (an item without a description) is no part: it names nothing and
+        // shares nothing; the filled cells of each column must still each be one item's.
         let alone = placed
             && (0..places).all(|at| {
-                let keys: HashSet<&String> = parts.iter().map(|p| &p[at]).collect();
-                keys.len() == parts.len() && !keys.contains(&String::new())
+                let filled: Vec<&String> = parts
+                    .iter()
+                    .map(|p| &p[at])
+                    .filter(|k| !k.is_empty())
+                    .collect();
+                let keys: HashSet<&String> = filled.iter().copied().collect();
+                keys.len() == filled.len()
             });
         let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
         for chosen in place_sets(places).filter(|c| alone || c.len() == places) {
             for (i, p) in parts.iter().enumerate().filter(|(_, p)| !p.is_empty()) {
+                if chosen.iter().any(|&at| p[at].is_empty()) {
+                    continue;
+                }
                 let keys: Vec<&str> = chosen.iter().map(|&at| p[at].as_str()).collect();
                 by_places
                     .entry(places_key(&chosen, &keys))
@@ -142,7 +170,7 @@ impl<'a> ItemNames<'a> {
         let mut by_part: Vec<HashMap<String, Vec<usize>>> = vec![HashMap::new(); places];
         let mut holding: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, p) in parts.iter().enumerate() {
-            for (at, key) in p.iter().enumerate() {
+            for (at, key) in p.iter().enumerate().filter(|(_, k)| !k.is_empty()) {
                 if alone {
                     by_part[at].entry(key.clone()).or_default().push(i);
                 }
@@ -151,13 +179,18 @@ impl<'a> ItemNames<'a> {
         }
         let mut written: HashMap<String, Vec<usize>> = HashMap::new();
         if places > 0 {
-            for (i, n) in names.iter().enumerate() {
-                for piece in n.split(PART_JOIN).map(str::trim) {
+            for (i, w) in written_parts.iter().enumerate() {
+                for piece in w.iter().filter(|p| !p.is_empty()) {
                     hold(&mut written, piece, i);
                 }
             }
         }
-        let any_part = parts.iter().flatten().cloned().collect();
+        let any_part = parts
+            .iter()
+            .flatten()
+            .filter(|k| !k.is_empty())
+            .cloned()
+            .collect();
         ItemNames {
             exact,
             by_key,
@@ -194,7 +227,18 @@ impl<'a> ItemNames<'a> {
         if let Some(items) = self.by_key.get(&key) {
             return several(&self.as_written(name, items.clone()), Found::Key);
         }
-        let asked: Vec<String> = name.split(PART_JOIN).map(|p| name_key(p.trim())).collect();
+        // A cell holding " / " may be one part as written (a description "Hose repair kit /
+        // 13 mm"): read whole first, cut at " / " only where that names nothing.
+        let whole_is_a_part =
+            name.contains(PART_JOIN)
+                && self.by_part.iter().enumerate().any(|(place, by_key)| {
+                    at.is_none_or(|a| a == place) && by_key.contains_key(&key)
+                });
+        let asked: Vec<String> = if whole_is_a_part {
+            vec![key.clone()]
+        } else {
+            name.split(PART_JOIN).map(|p| name_key(p.trim())).collect()
+        };
         let keys: Vec<&str> = asked.iter().map(String::as_str).collect();
         let mut found: Vec<usize> = Vec::new();
         if keys.len() < 2 {
@@ -566,7 +610,7 @@ mod tests {
             })
             .collect();
         let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
-        let m = match_rows(read, items, &ItemNames::new(items, &headers));
+        let m = match_rows(read, items, &ItemNames::new(items, &[], &headers));
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
         got.extend(m.warnings.iter().map(|w| format!("warning: {w}")));
         got.extend(
@@ -800,7 +844,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "Seed", "FG-1"), row(3, "Frost", "FG-9")],
             &items,
-            &ItemNames::new(&items, &headers),
+            &ItemNames::new(&items, &[], &headers),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-1 / Seed"]);
@@ -817,7 +861,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "FG-2", "Seed"), row(3, "FG-3", "")],
             &items,
-            &ItemNames::new(&items, &headers),
+            &ItemNames::new(&items, &[], &headers),
         );
         assert!(m.rows.is_empty(), "{:?}", m.rows);
         assert!(
@@ -832,7 +876,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "FG-2", "Frost"), row(3, "FG-3", "")],
             &items,
-            &ItemNames::new(&items, &headers),
+            &ItemNames::new(&items, &[], &headers),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-2 / Frost", "FG-3 / Twine"]);

@@ -384,6 +384,7 @@ mod tests {
                 .map(|i| Period::year(start + i as i32))
                 .collect(),
             values: values.to_vec(),
+            parts: Vec::new(),
         }
     }
 

@@ -419,6 +419,7 @@ mod tests {
             name: format!("item of {len}"),
             periods: (0..len).map(|k| last.offset(k - len + 1)).collect(),
             values: values.to_vec(),
+            parts: Vec::new(),
         }
     }
 
@@ -487,11 +488,13 @@ mod tests {
                 name: "a".into(),
                 periods: (0..4).map(|k| Period::month(2024, 9).offset(k)).collect(),
                 values: some(&[30.0, 30.0, 30.0, 30.0]),
+                parts: Vec::new(),
             },
             Item {
                 name: "b".into(),
                 periods: (0..3).map(|k| Period::month(2024, 9).offset(k)).collect(),
                 values: some(&[900.0, 900.0, 0.0]),
+                parts: Vec::new(),
             },
         ];
         assert_eq!(last_period(&built, false), None);

@@ -10,7 +10,7 @@
 
 use std::collections::HashMap;
 
-use super::{period_out_of_run, Builder, PART_JOIN};
+use super::{item_parts, period_out_of_run, Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::{dotted_month, mostly, read_periods, strong_family, IntegerMeaning};
@@ -143,6 +143,7 @@ impl<'a> Builder<'a> {
                 name,
                 periods: (0..len).map(|i| start.offset(i as i64)).collect(),
                 values,
+                parts: item_parts(row, &item_columns),
             });
         }
         let names: Vec<String> = items.iter().map(|i| i.name.clone()).collect();

@@ -11,7 +11,9 @@
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
-use super::{count, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS, PART_JOIN};
+use super::{
+    count, item_parts, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS, PART_JOIN,
+};
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
 use crate::intake::period::PeriodColumn;
@@ -28,6 +30,8 @@ struct LongItem<'a> {
     spelled: HashMap<String, usize>,
     /// The item columns its first row fills.
     filled: Vec<usize>,
+    /// Its first row's cells in the item columns ([`Item::parts`]).
+    parts: Vec<String>,
 }
 
 /// A spelling in quotes, with tabs and white space other than the plain space made visible.
@@ -110,6 +114,7 @@ impl<'a> Builder<'a> {
                     spellings: Vec::new(),
                     spelled: HashMap::new(),
                     filled: filled.clone(),
+                    parts: item_parts(row, &item_columns),
                 }
             });
             item.rows.push((period, value, row));
@@ -141,6 +146,7 @@ impl<'a> Builder<'a> {
                 name,
                 mut rows,
                 spellings,
+                parts,
                 ..
             }) = items.remove(&key)
             else {
@@ -314,6 +320,7 @@ impl<'a> Builder<'a> {
                 name,
                 periods,
                 values,
+                parts,
             });
         }
         if !out_of_order.is_empty() {

@@ -14,7 +14,7 @@
 use std::collections::HashMap;
 
 use super::long::{item_name, name_key};
-use super::{Builder, PART_JOIN};
+use super::{item_parts, Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::text::Record;
 use crate::intake::totals::total_name;
@@ -213,6 +213,7 @@ impl<'a> Builder<'a> {
                 name: item.name,
                 periods: (0..len).map(|i| start.offset(i as i64)).collect(),
                 values,
+                parts: item_parts(first_row, &item_columns),
             });
         }
         self.after_the_last(&items);
