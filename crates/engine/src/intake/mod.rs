@@ -260,10 +260,9 @@ pub struct Item {
     /// `item_columns`), the item's cell in each, in their order ("" for an empty one); empty
     /// otherwise. The stock table's matching reads parts from here, not by cutting the name
     /// at " / ", which a description may hold too.
-    #[cfg_attr(
-        feature = "serde",
-        serde(default, skip_serializing_if = "Vec::is_empty")
-    )]
+    // Always written: the worker's codec (bincode) reads fields by position, so one skipped
+    // when empty would misread every field after it.
+    #[cfg_attr(feature = "serde", serde(default))]
     pub parts: Vec<String>,
 }
 
