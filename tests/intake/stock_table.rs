@@ -393,12 +393,12 @@ fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
     // old one) is no old item.
     let t = check_against(
         &coded,
-        "Code,Item description,On hand\nFG2,Oak bench,2\nFG-1,Birch trellis,5\n",
+        "Code,Title,On hand\nFG2,Oak bench,2\nFG-1,Birch trellis,5\n",
         &[row_with_on_hand(trellis, 5.0)],
         &[],
     );
     assert!(
-        warns(&t, &["but its \"Item description\" says \"Oak bench\""]),
+        warns(&t, &["but its \"Title\" says \"Oak bench\""]),
         "{t:?}"
     );
     // A category of one item under the history's "Product" header names no product.
@@ -572,6 +572,15 @@ fn rows_columns_and_defaults() {
             on_hand: Some(12.5),
             lead_time_sd: Some(0.5),
             target: Some(Target::FillRate(0.98)),
+            ..row("Gift card")
+        }],
+        &[],
+    );
+    // "Item description" alone names the items (a seventh probe found it refused).
+    check(
+        "Item description,On hand\nGift card,4\n",
+        &[StockRow {
+            on_hand: Some(4.0),
             ..row("Gift card")
         }],
         &[],

@@ -37,6 +37,8 @@ const COLUMNS: [(Field, &[&str]); 11] = [
             "itemnumber",
             "article",
             "description",
+            "itemdescription",
+            "productdescription",
         ],
     ),
     (
