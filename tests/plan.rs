@@ -7,6 +7,9 @@ use morrowcast_engine::plan::{
 };
 use morrowcast_engine::settings::{Choice, PlanSettings, SeasonChoice};
 
+use morrowcast_engine::calendar::Period;
+use morrowcast_engine::series::Series;
+
 use crate::support::monthly;
 
 fn seasonal(n: usize) -> Vec<f64> {
@@ -125,6 +128,55 @@ fn a_season_rejected_on_three_years_is_tried_in_the_backtest() {
     .unwrap();
     assert_eq!(long.seasons.accepted_length(), Some(12));
     assert_eq!(long.seasons.trial_length(), None);
+}
+
+/// (history, the length on trial): a rejected calendar season goes on trial from one season
+/// of backtest training up to 12 periods, from two for a 52-week season.
+fn check_trial(series: &Series, expected: Option<usize>) {
+    let p = plan_item(series, &PlanSettings::default()).unwrap();
+    assert_eq!(p.season.length, None, "{}", p.season.reason);
+    assert_eq!(p.seasons.trial_length(), expected, "{:?}", p.notes);
+}
+
+#[test]
+fn a_season_goes_on_trial_from_one_season_of_training() {
+    // 30 months with a summer peak over a rise: the test rejects it; the trial (30 >= holdout
+    // 10 + 12 + 2) puts the seasonal naive method in the backtest, and the rest it cannot fit
+    // are named in one note.
+    let summer: Vec<Option<f64>> = (0..30)
+        .map(|t| {
+            let m = (t % 12) as f64;
+            let noise = ((t * 7919) % 11) as f64 - 5.0;
+            Some(
+                (40.0
+                    + 15.0 * (std::f64::consts::TAU * (m - 3.0) / 12.0).sin()
+                    + 0.8 * t as f64
+                    + noise)
+                    .round(),
+            )
+        })
+        .collect();
+    let s = monthly(summer);
+    check_trial(&s, Some(12));
+    let p = plan_item(&s, &PlanSettings::default()).unwrap();
+    assert!(
+        p.notes.iter().any(|n| n.starts_with(
+            "Holt-Winters additive; Holt-Winters multiplicative; Holt-Winters additive, damped"
+        ) && n.contains("could not be tried with the 12-period season")),
+        "{:?}",
+        p.notes
+    );
+    // Its band rests on origins from one season of training: no step wider than 5 times the
+    // history's range (two seasons of training left 6 origins and a band of 0 to 400).
+    let top = p.forecast.iter().map(|f| f.band.high).fold(0.0, f64::max);
+    assert!(top < 250.0, "{:?}", p.forecast);
+    // Two years of weeks with a season the test rejects: 52 weeks need two seasons of
+    // training, so nothing goes on trial.
+    let weeks: Vec<Option<f64>> = (0..104)
+        .map(|t| Some(20.0 + ((t * 7919) % 13) as f64 + if t % 52 < 8 { 2.0 } else { 0.0 }))
+        .collect();
+    let weekly = Series::new("Test item", Period::iso_week(2023, 1), weeks).unwrap();
+    check_trial(&weekly, None);
 }
 
 #[test]

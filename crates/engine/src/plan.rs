@@ -197,9 +197,16 @@ impl ItemPlan {
 /// 14.48; on the whole histories (4 to 10 seasons) it cost 0.15.
 pub const TRIAL_BELOW_SEASONS: usize = 4;
 
+/// The longest season put on trial with one season of backtest training ([`seasons_to_try`]);
+/// longer ones (52 weeks) still need two. Our choice: the one-season trial was measured on
+/// monthly and quarterly series only (M3 has no weekly ones), and a year of weekly sales
+/// repeated by the seasonal naive method carries a year of weekly noise.
+pub const ONE_SEASON_TRIAL_UP_TO: usize = 12;
+
 /// The seasons the methods are fitted with: the accepted one, or, when the test rejected the
 /// calendar's season (`choice` automatic) and the backtest's earliest training part (of its
-/// three origins, one period apart) still holds one such season, that season on trial for the
+/// three origins, one period apart) still holds one such season (two for seasons longer than
+/// [`ONE_SEASON_TRIAL_UP_TO`]), that season on trial for the
 /// seasonal methods ([`Seasons::on_trial`]). Why: the test's threshold is strict on few
 /// seasons, so two or three years of a clear 12-month season can fail it; the backtest then
 /// decides on the holdout, and a note shows how the seasonal methods did. From one season,
@@ -221,7 +228,14 @@ fn seasons_to_try(
         .filter(|_| {
             verdict.source == SeasonSource::Calendar && verdict.full_seasons < TRIAL_BELOW_SEASONS
         })
-        .filter(|m| length >= holdout + m + 2);
+        .filter(|&m| {
+            let training = if m <= ONE_SEASON_TRIAL_UP_TO {
+                m + 2
+            } else {
+                2 * m
+            };
+            length >= holdout + training
+        });
     Seasons::on_trial(trial)
 }
 
