@@ -274,9 +274,10 @@ impl Seasons {
     /// season: one season for the seasonal naive method (it repeats the last one), two for the
     /// rest (classical indices and the Holt-Winters start each take two); `None` without a
     /// season. Where the seasonal naive method is the only member with a season (a season on
-    /// trial beside the Theta models fitted without one), asking two seasons left a history of
-    /// 30 months 6 origins, and the band's t quantile on 3 errors at step 4 made it 0 to 400
-    /// for an item selling 20 to 80.
+    /// trial beside the Theta models fitted without one), two seasons left the band few
+    /// origins and its t quantile few errors: on the M3 series cut to 36 months the 95 % band
+    /// held 97.8 % with MSIS 13.85 before, 97.7 % and 13.52 after; 12 quarters 96.1 % and
+    /// 18.76, 95.9 % and 18.17 (README, Benchmarks).
     pub fn training_for(self, candidate: &Candidate) -> Option<usize> {
         candidate
             .members()

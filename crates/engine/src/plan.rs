@@ -197,23 +197,15 @@ impl ItemPlan {
 /// 14.48; on the whole histories (4 to 10 seasons) it cost 0.15.
 pub const TRIAL_BELOW_SEASONS: usize = 4;
 
-/// The longest season put on trial with one season of backtest training ([`seasons_to_try`]);
-/// longer ones (52 weeks) still need two. Our choice: the one-season trial was measured on
-/// monthly and quarterly series only (M3 has no weekly ones), and a year of weekly sales
-/// repeated by the seasonal naive method carries a year of weekly noise.
-pub const ONE_SEASON_TRIAL_UP_TO: usize = 12;
-
 /// The seasons the methods are fitted with: the accepted one, or, when the test rejected the
-/// calendar's season (`choice` automatic) and the backtest's earliest training part (of its
-/// three origins, one period apart) still holds one such season (two for seasons longer than
-/// [`ONE_SEASON_TRIAL_UP_TO`]), that season on trial for the
-/// seasonal methods ([`Seasons::on_trial`]). Why: the test's threshold is strict on few
-/// seasons, so two or three years of a clear 12-month season can fail it; the backtest then
-/// decides on the holdout, and a note shows how the seasonal methods did. From one season,
-/// not two (2026-12-05): on 24 to 35 months only the seasonal naive method fits at the
-/// origins, and on the M3 monthly series cut to 24, 27, 30 and 33 months that took sMAPE
-/// from 16.08, 15.91, 15.58 and 15.57 to 15.33, 15.12, 15.00 and 15.03, MSIS at 95 % lower or
-/// within 0.06 (with [`crate::backtest::Seasons::training_for`]; README, Benchmarks).
+/// calendar's season (`choice` automatic) and the backtest's earliest training part still holds
+/// two such seasons, that season on trial for the seasonal methods ([`Seasons::on_trial`]).
+/// Why: the test's threshold is strict on few seasons, so three years of a clear 12-month
+/// season can fail it; the backtest then decides on the holdout, and a note shows how the
+/// seasonal methods did. Tried on 2026-12-05 and not kept: the trial from one season of
+/// training (24-35 months), which gained on the M3 series cut short but, a review of 66 and
+/// 750 invented shop series found, lowered reorder points just before a season's rise and
+/// brought a one-off spike back a year later (README, Benchmarks).
 fn seasons_to_try(
     verdict: &SeasonVerdict,
     choice: SeasonChoice,
@@ -228,14 +220,7 @@ fn seasons_to_try(
         .filter(|_| {
             verdict.source == SeasonSource::Calendar && verdict.full_seasons < TRIAL_BELOW_SEASONS
         })
-        .filter(|&m| {
-            let training = if m <= ONE_SEASON_TRIAL_UP_TO {
-                m + 2
-            } else {
-                2 * m
-            };
-            length >= holdout + training
-        });
+        .filter(|m| length >= holdout + 2 * m);
     Seasons::on_trial(trial)
 }
 
@@ -408,23 +393,8 @@ fn plan_inner(
             source,
         })?,
     };
-    // With a season on trial on a history of under three seasons, the seasonal methods that
-    // need two seasons of training cannot fit at the backtest's origins: one sentence says so,
-    // not one each (whose "this item has 18" would name the training part, not the item).
-    let (untried, skipped): (Vec<_>, Vec<_>) = bt.skipped.iter().partition(|s| {
-        seasons.trial_length().is_some()
-            && matches!(s.candidate, Candidate::Method(k) if k.needs_season())
-    });
-    for s in skipped {
+    for s in &bt.skipped {
         notes.push(format!("{} left out: {}", s.candidate.label(), s.reason));
-    }
-    if let (Some(m), false) = (seasons.trial_length(), untried.is_empty()) {
-        let names: Vec<String> = untried.iter().map(|s| s.candidate.label()).collect();
-        notes.push(format!(
-            "{} could not be tried with the {m}-period season: the backtest's training part \
-             holds less than the two seasons they need",
-            names.join("; ")
-        ));
     }
     let wanted =
         choose(&bt, settings.choice(), &demand).ok_or_else(|| PlanError::NotCandidate {
