@@ -161,6 +161,25 @@ fn inspect_rejects_with_row_column_text_and_exit_2() {
 }
 
 #[test]
+fn forecast_json_names_a_season_on_trial() {
+    // 40 months of a summer peak over a rise (made up for this check): the season test
+    // rejects it, and the seasonal methods are tried with it in the backtest.
+    let mut text = String::from("month,units\n");
+    for t in 0..40usize {
+        let m = (t % 12) as f64;
+        let noise = ((t * 7919) % 11) as f64 - 5.0;
+        let peak = 15.0 * (std::f64::consts::TAU * (m - 3.0) / 12.0).sin();
+        let value = (40.0 + peak + 0.8 * t as f64 + noise).round();
+        text.push_str(&format!("{}-{:02},{value}\n", 2022 + t / 12, t % 12 + 1));
+    }
+    let out = cli(&["forecast", "-", "--json"], text.as_bytes());
+    assert_eq!(out.code, 0, "{}", out.stderr);
+    let item = &out.json()["items"][0];
+    assert_eq!(item["season_length"], 1);
+    assert_eq!(item["season_on_trial"], 12);
+}
+
+#[test]
 fn forecast_json_has_the_contract_fields() {
     let out = cli(
         &[
@@ -191,6 +210,8 @@ fn forecast_json_has_the_contract_fields() {
     }
     assert_eq!(item["name"], "Frost cloth");
     assert_eq!(item["season_length"], 12);
+    // Five years: the season is accepted, nothing is on trial.
+    assert_eq!(item["season_on_trial"], serde_json::Value::Null);
     let rank = &item["ranking"][0];
     for key in ["method", "mape", "rmse", "bias", "mase", "mad"] {
         assert!(rank.get(key).is_some(), "ranking misses {key}");

@@ -144,6 +144,10 @@ pub struct PlanJson {
     pub name: String,
     /// Accepted season length; 1 when no season was accepted.
     pub season_length: usize,
+    /// The season length the seasonal methods were tried with in the backtest where the test
+    /// rejected the calendar's season on a short history (null otherwise; the notes say how
+    /// they ranked).
+    pub season_on_trial: Option<usize>,
     pub trend: &'static str,
     pub demand_class: &'static str,
     pub evidence: EvidenceJson,
@@ -230,6 +234,7 @@ impl From<&ItemPlan> for PlanJson {
         PlanJson {
             name: p.name.clone(),
             season_length: p.season.length.unwrap_or(1),
+            season_on_trial: p.seasons.trial_length(),
             trend: p.trend.direction.as_str(),
             demand_class: p.demand.class.as_str(),
             evidence: EvidenceJson {
