@@ -359,7 +359,14 @@ pub fn PatternView() -> impl IntoView {
             let plan = p.as_ref()?.as_ref().ok()?;
             state
                 .planned
-                .with(|s| model::overlay(s.as_ref()?, &plan.history, plan.season.length))
+                // A season on trial that the chosen forecast follows is drawn too.
+                .with(|s| {
+                    let season = plan
+                        .season
+                        .length
+                        .or(plan.seasons.for_candidate(&plan.chosen));
+                    model::overlay(s.as_ref()?, &plan.history, season)
+                })
         })
     });
     let acf = Memo::new(move |_| {

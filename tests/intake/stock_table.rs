@@ -283,32 +283,28 @@ fn row_with_on_hand(item: &str, on_hand: f64) -> StockRow {
 
 #[test]
 fn parts_are_the_historys_own_cells_not_its_names_cut_at_the_joiner() {
-    // A description holding " / " and an item without one: the history keeps each item's
-    // cells, so the codes still name the items alone (cutting the names at " / " gave three
-    // parts and one, and switched part matching off for the whole history).
+    // A description holding " / ": the history keeps each item's cells, so the codes still
+    // name the items alone (cutting the names at " / " gave three parts and switched part
+    // matching off for the whole history).
     let coded = read(
         "month,code,description,units\n2024-01,HK-13,Hose repair kit / 13 mm,3\n\
-         2024-01,HK-19,Hose repair kit / 19 mm,4\n2024-01,FG-7,,5\n\
-         2024-02,HK-13,Hose repair kit / 13 mm,3\n2024-02,HK-19,Hose repair kit / 19 mm,4\n\
-         2024-02,FG-7,,5\n",
+         2024-01,HK-19,Hose repair kit / 19 mm,4\n2024-02,HK-13,Hose repair kit / 13 mm,3\n\
+         2024-02,HK-19,Hose repair kit / 19 mm,4\n",
     );
     let names: Vec<&str> = coded.items.iter().map(|i| i.name.as_str()).collect();
     assert_eq!(
         names,
         [
             "HK-13 / Hose repair kit / 13 mm",
-            "HK-19 / Hose repair kit / 19 mm",
-            "FG-7"
+            "HK-19 / Hose repair kit / 19 mm"
         ]
     );
     assert_eq!(coded.items[0].parts, ["HK-13", "Hose repair kit / 13 mm"]);
-    assert_eq!(coded.items[2].parts, ["FG-7", ""]);
     check_against(
         &coded,
-        "Code,On hand\nHK-19,6\nFG-7,7\nHK-13,5\n",
+        "Code,On hand\nHK-19,6\nHK-13,5\n",
         &[
             row_with_on_hand("HK-19 / Hose repair kit / 19 mm", 6.0),
-            row_with_on_hand("FG-7", 7.0),
             row_with_on_hand("HK-13 / Hose repair kit / 13 mm", 5.0),
         ],
         &[],
@@ -321,6 +317,15 @@ fn parts_are_the_historys_own_cells_not_its_names_cut_at_the_joiner() {
         &[],
     );
     assert!(warns(&t, &["\"13 mm\" (row 3)", "no item"]));
+    // An empty cell keeps parts from naming items: a category written once over its
+    // products leaves the cells below empty, and "Tools" must not take the trowel's stock.
+    let grouped = read(
+        "Category,Product,2024-01,2024-02\nTools,Trowel,3,4\n,Rake,2,2\nSeeds,Basil,5,6\n\
+         ,Parsley,1,1\n",
+    );
+    assert_eq!(grouped.items[1].parts, ["", "Rake"]);
+    let t = check_against(&grouped, "Category,On hand\nTools,40\nSeeds,25\n", &[], &[]);
+    assert!(warns(&t, &["\"Tools\" (row 2)"]), "{t:?}");
 }
 
 #[test]

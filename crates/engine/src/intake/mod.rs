@@ -262,7 +262,6 @@ pub struct Item {
     /// at " / ", which a description may hold too.
     // Always written: the worker's codec (bincode) reads fields by position, so one skipped
     // when empty would misread every field after it.
-    #[cfg_attr(feature = "serde", serde(default))]
     pub parts: Vec<String>,
 }
 

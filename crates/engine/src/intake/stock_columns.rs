@@ -387,7 +387,7 @@ fn place_of(header: &Record, chosen: &[usize], item_headers: &[String]) -> Optio
 /// The columns left out (`columns` `None`, not `read`) that speak of the history's items,
 /// where a part of a name names an item alone (`ItemNames::parts_name_items`): strictly the
 /// columns that could have named the items (`candidates`: a "Code" beside the "Description"
-/// read) and those whose cells are half or more the history's parts (an "Item description"),
+/// read) and those whose cells are half or more the history's parts (a "Title" of descriptions),
 /// else those where some cell is a part of the history's names.
 fn witnesses(
     columns: &[Option<(Field, Option<TimeUnit>)>],
@@ -411,7 +411,7 @@ fn witnesses(
                 .collect();
             let parts = filled.iter().filter(|c| names.is_a_part(c)).count();
             // Half its cells or more the history's parts: an item column under a header of
-            // its own ("Item description"), as strict as a named one.
+            // its own ("Title" over descriptions), as strict as a named one.
             let strict = candidates.contains(&i) || (parts > 0 && parts * 2 >= filled.len());
             (strict || parts > 0).then_some((i, strict))
         })

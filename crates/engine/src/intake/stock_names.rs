@@ -10,10 +10,8 @@
 //! naming both spellings. Where the history joins columns into its items' names (its report's
 //! `item_columns`), a name given in all their parts matches by the parts' keys ("Oak Lane /
 //! 123" for "Oak Lane / 00123"); and only where every joined column names each item on its own
-//! (a code and a description, no two items sharing a filled cell of either; the parts are
-//! the history's own cells, [`super::Item::parts`], so a description holding " / " or an
-//! empty one is no obstacle), a cell holding " / " read whole first, a
-//! part, or some parts in the history's order, name the item (said; a stock table commonly
+//! (a code and a description, no two items sharing either, no cell empty), a part, or some
+//! parts in the history's order, name the item (said; a stock table commonly
 //! names items by their code alone), a single part under the history's own header only in that
 //! column's place. A row matched by part must agree with the columns beside it that speak of
 //! the history's items ([`Beside`]: a new code beside an old description is no old item), and
@@ -23,7 +21,9 @@
 //! full; two rows naming one item by parts are both left
 //! out. A key or parts several items share match none (said, left out); a row naming no item is
 //! left out, said (a "Total" row, an item the history does not hold); two rows that come to the
-//! same item in full are an error at the second. Four probing reviews found every rule that
+//! same item in full are an error at the second. The parts are the history's own cells
+//! ([`super::Item::parts`]), so a description holding " / " is one part, and a stock cell
+//! holding " / " is read whole first. Four probing reviews found every rule that
 //! guessed which joined column is a store, a category or a code misplacing stock somewhere, so
 //! none does. [`ItemNames::find`] is the one lookup: the item columns' choice
 //! (`stock_columns`) scores columns by it too.
@@ -85,7 +85,8 @@ pub(crate) struct ItemNames<'a> {
     places: usize,
     /// Whether every column the history joins names each item on its own (see `new`).
     alone: bool,
-    /// Each item's parts' keys, where its name splits into the history's places.
+    /// Each item's parts' keys: its own cells ([`super::Item::parts`]), else its name cut at
+    /// " / " where that gives the history's places.
     parts: Vec<Vec<String>>,
     /// Every part's key of every item.
     any_part: HashSet<String>,
@@ -101,9 +102,9 @@ impl<'a> ItemNames<'a> {
     /// Indexes `names`, read from the history's item columns headed `headers` (the report's
     /// `item_columns`). Where the history joins two columns or more, a name given in all its
     /// parts matches by their keys. A part, or some of the parts, name an item only where
-    /// every joined column names each item on its own: no two items share a filled cell in
-    /// any place (a code and a description; an empty description is no part). A history by
-    /// store and product or by category is matched in full only: a store, a category or a product of several stores names no
+    /// every joined column names each item on its own: no two items share a cell in any place
+    /// and none is empty (a code and a description). A history by store and product, by
+    /// category, or with an empty cell is matched in full only: a store, a category or a product of several stores names no
     /// item, and reviews found every narrower rule (group words, place headers, agreeing
     /// columns) putting stock on another item in cases it did not foresee.
     ///
@@ -142,17 +143,14 @@ impl<'a> ItemNames<'a> {
             })
             .collect();
         let placed = places > 0 && parts.iter().all(|p| !p.is_empty());
-        // An empty cell (an item without a description) is no part: it names nothing and
-        // shares nothing; the filled cells of each column must still each be one item's.
+        // An empty cell keeps parts from naming items: in a grouped export a store or a
+        // category is written once over its items, and its empty cells below mean "the same"
+        // (a review traced a category's stock onto its first product where empty cells were
+        // taken for no part), which no count can tell from an item without a description.
         let alone = placed
             && (0..places).all(|at| {
-                let filled: Vec<&String> = parts
-                    .iter()
-                    .map(|p| &p[at])
-                    .filter(|k| !k.is_empty())
-                    .collect();
-                let keys: HashSet<&String> = filled.iter().copied().collect();
-                keys.len() == filled.len()
+                let keys: HashSet<&String> = parts.iter().map(|p| &p[at]).collect();
+                keys.len() == parts.len() && !keys.contains(&String::new())
             });
         let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
         for chosen in place_sets(places).filter(|c| alone || c.len() == places) {
@@ -410,7 +408,9 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
                         && (b.strict || names.is_a_part(&b.cell))
                 });
                 if let Some(b) = against {
-                    disagreed_strictly |= b.strict;
+                    // Only a cell naming another item says the column read may be another
+                    // numbering; a new code beside names nothing.
+                    disagreed_strictly |= b.strict && names.is_a_part(&b.cell);
                     disagree.push(format!(
                         "\"{}\" (row {line}) would be \"{}\", but its \"{}\" says \"{}\"",
                         r.row.item, items[index], b.header, b.cell
@@ -872,6 +872,14 @@ mod tests {
             "{:?}",
             m.warnings
         );
+        // A new code beside names nothing: the column read is not thereby in doubt.
+        let m = match_rows(
+            vec![row(2, "FG-2", "FG-20"), row(3, "FG-3", "")],
+            &items,
+            &ItemNames::new(&items, &[], &headers),
+        );
+        let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
+        assert_eq!(kept, ["FG-3 / Twine"]);
         // Where no row disagrees, an empty cell beside is no reason to leave a row out.
         let m = match_rows(
             vec![row(2, "FG-2", "Frost"), row(3, "FG-3", "")],
