@@ -128,7 +128,7 @@ pub(crate) fn listing(entries: &[String]) -> String {
 }
 
 /// "a", "a and b", "a, b and c"; past [`LISTED`] entries, "a, b, ... and N more".
-pub fn joined(entries: &[String]) -> String {
+pub fn list_in_words(entries: &[String]) -> String {
     match entries {
         [] => String::new(),
         [one] => one.clone(),
@@ -141,7 +141,7 @@ pub fn joined(entries: &[String]) -> String {
 pub(crate) fn lines(numbers: &[usize]) -> String {
     let numbers: Vec<String> = numbers.iter().map(usize::to_string).collect();
     let noun = if numbers.len() == 1 { "line" } else { "lines" };
-    format!("{noun} {}", joined(&numbers))
+    format!("{noun} {}", list_in_words(&numbers))
 }
 
 struct Builder<'a> {
@@ -1338,8 +1338,8 @@ impl Names {
                 let names: Vec<String> = columns.iter().map(|(_, n)| format!("\"{n}\"")).collect();
                 format!(
                     "columns {} are headed \"{base}\"; they are read as {}",
-                    joined(&numbers),
-                    joined(&names)
+                    list_in_words(&numbers),
+                    list_in_words(&names)
                 )
             })
             .collect()

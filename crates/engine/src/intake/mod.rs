@@ -150,9 +150,8 @@ mod words;
 mod workbook;
 mod year_grid;
 
-/// "a", "a and b", "a, b and c"; past eight entries "a, b, ... and N more": the one
-/// rule for listing names in a sentence, the page's too.
-pub use build::joined as list_in_words;
+// The one rule for listing names in a sentence, the page's too.
+pub use build::list_in_words;
 pub use leave_out::{leave_out_rows, leave_out_unfinished, LeaveOutError};
 pub use stock_table::{
     read_stock_table, read_stock_table_and_text, read_stock_table_text, StockRow, StockTable,

@@ -112,7 +112,7 @@ impl<'a> ItemNames<'a> {
     /// the history kept them; a name without them is cut at " / " instead.
     pub(crate) fn new(
         names: &'a [&'a str],
-        cells: &[Vec<String>],
+        cells: &[&[String]],
         headers: &[String],
     ) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
@@ -127,7 +127,7 @@ impl<'a> ItemNames<'a> {
             .enumerate()
             .map(
                 |(i, n)| match cells.get(i).filter(|c| places > 0 && c.len() == places) {
-                    Some(c) => c.clone(),
+                    Some(c) => c.to_vec(),
                     None => n.split(PART_JOIN).map(|p| p.trim().to_string()).collect(),
                 },
             )

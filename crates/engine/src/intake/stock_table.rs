@@ -259,7 +259,7 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let rows: Vec<_> = records.collect();
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
     // The history's names indexed once, for the item columns' choice and the rows' matching.
-    let item_cells: Vec<Vec<String>> = history.items.iter().map(|i| i.parts.clone()).collect();
+    let item_cells: Vec<&[String]> = history.items.iter().map(|i| i.parts.as_slice()).collect();
     let names = ItemNames::new(&item_names, &item_cells, &history.item_columns);
     // A header naming a part the history joins into its items' names ("Store" beside a
     // history by store and product) may name the items too.

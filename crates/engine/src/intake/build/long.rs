@@ -490,8 +490,8 @@ impl<'a> Builder<'a> {
                 "\"{}\" ({}; {} empty; as in {})",
                 item.name,
                 lines(&numbers),
-                super::joined(&empty),
-                super::joined(&alike)
+                super::list_in_words(&empty),
+                super::list_in_words(&alike)
             ));
         }
         if !found.is_empty() {

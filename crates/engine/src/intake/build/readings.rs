@@ -20,7 +20,7 @@
 use std::collections::{BTreeMap, HashMap, HashSet};
 
 use super::unnamed::{classify, prefix, ItemRows, Unnamed, LONG_TABLE};
-use super::{count, joined, listing, MAX_PERIODS};
+use super::{count, list_in_words, listing, MAX_PERIODS};
 use crate::calendar::{Frequency, Period};
 use crate::intake::headers::header_says;
 
@@ -395,7 +395,7 @@ pub(super) fn closed_warning(closed: &[Period], no_row: &str) -> Option<String> 
          periods have rows), {} read as closed: no sales (0) for each item selling before and \
          after them: {}",
         unnamed_count(closed, no_row),
-        joined(&names),
+        list_in_words(&names),
         were(closed),
         listing(&ranges(closed))
     ))
