@@ -107,6 +107,7 @@ fn fixture_work() -> Work {
         changes,
         open_item: Some("Frost cloth".into()),
         look_back: 0,
+        stock_read_by: None,
     }
 }
 
@@ -254,8 +255,8 @@ fn newer_formats_strange_fields_and_bad_changes_are_named() {
     let file = fixture("work-v1.json");
     check("#w2.eJwDAAAAAAE", Read::Newer(2));
     check(
-        &file.replacen("\"morrowcast_work\": 1", "\"morrowcast_work\": 3", 1),
-        Read::Newer(3),
+        &file.replacen("\"morrowcast_work\": 1", "\"morrowcast_work\": 4", 1),
+        Read::Newer(4),
     );
     // Version 2 is version 1 and the Look-back; version 1 does not carry one.
     let looking_back = |version: u64, periods: usize| {
@@ -284,6 +285,40 @@ fn newer_formats_strange_fields_and_bad_changes_are_named() {
     check(
         &looking_back(2, 30),
         Read::Unreadable("look_back takes 0 to 24"),
+    );
+    // Version 3 is version 2 and the stock table's reading by one column, only beside a
+    // stock table.
+    let read_by = |version: u64| {
+        file.replacen(
+            "\"morrowcast_work\": 1",
+            &format!("\"morrowcast_work\": {version}"),
+            1,
+        )
+        .replacen(
+            "\"open_item\"",
+            "\"stock_table_read_by\": \"Code\",\n  \"open_item\"",
+            1,
+        )
+    };
+    check(
+        &read_by(3),
+        Read::Opens(Box::new(Work {
+            stock_read_by: Some("Code".into()),
+            ..fixture_work()
+        })),
+    );
+    check(
+        &read_by(2),
+        Read::Unreadable("stock_table_read_by is a field of version 3"),
+    );
+    let without_table = Work {
+        stock_read_by: Some("Code".into()),
+        stock_table: None,
+        ..fixture_work()
+    };
+    check(
+        &without_table.to_file_text(),
+        Read::Unreadable("stock_table_read_by says how to read a stock table"),
     );
     check(
         &file.replacen("\"open_item\"", "\"opened_item\"", 1),
@@ -586,4 +621,55 @@ fn a_work_carries_the_look_back_to_the_command_line() {
         "{}",
         bad.stderr
     );
+}
+
+#[test]
+fn a_work_carries_the_choice_to_read_the_stock_table_by_one_column() {
+    // Two codes share a description: a stock table by code is left out unless chosen.
+    let mut text = "month,Code,Description,units\n".to_string();
+    for month in 1..=9 {
+        for (code, description, units) in [
+            ("FG-1", "Birch trellis", 3 + month % 2),
+            ("FG-2", "Rain barrel", 4 + month % 3),
+            ("FG-9", "Birch trellis", 5 + month % 2),
+        ] {
+            text.push_str(&format!("2024-{month:02},{code},{description},{units}\n"));
+        }
+    }
+    let history = table_file("shared-description.csv", &text);
+    let table = table_file("by-code.csv", "Code,On hand\nFG-9,60\nFG-1,50\n");
+    let plain = cli(&["stock", &history, "--stock", &table], b"");
+    assert_eq!(plain.code, 0, "{}", plain.stderr);
+    assert!(
+        plain
+            .text()
+            .contains("to read those 2 rows by \"Code\" alone, give --stock-by \"Code\""),
+        "{}",
+        plain.text()
+    );
+    assert!(!plain.text().contains("on hand 60"), "{}", plain.text());
+    let chosen = cli(
+        &["stock", &history, "--stock", &table, "--stock-by", "Code"],
+        b"",
+    );
+    assert!(chosen.text().contains("on hand 60"), "{}", chosen.text());
+    // The work keeps the choice as taken (version 3); `--stock-by none` takes it back.
+    let written = cli(
+        &["work", &history, "--stock", &table, "--stock-by", "code"],
+        b"",
+    );
+    assert_eq!(written.code, 0, "{}", written.stderr);
+    assert!(
+        written.text().contains("\"stock_table_read_by\": \"Code\"")
+            && written.text().contains("\"morrowcast_work\": 3"),
+        "{}",
+        written.text()
+    );
+    let file = table_file("read-by-work.json", &written.text());
+    let again = cli(&["stock", &file], b"");
+    assert!(again.text().contains("on hand 50"), "{}", again.text());
+    let undone = cli(&["stock", &file, "--stock-by", "none"], b"");
+    assert!(!undone.text().contains("on hand 50"), "{}", undone.text());
+    let unchosen = cli(&["work", &history, "--stock", &table], b"");
+    assert!(!unchosen.text().contains("stock_table_read_by"));
 }

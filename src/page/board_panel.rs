@@ -382,10 +382,13 @@ pub fn StockPanel() -> impl IntoView {
             move |name| table_source.set(format!("{name} (reading the workbook\u{2026})")),
             move |read, name, _| match read {
                 Ok(file) => {
+                    // A choice to read by one column was made of the table it replaces.
+                    board.table_read_by.set(None);
                     table_source.set(source_of(&name, &file));
                     board.table_text.set(file.text);
                 }
                 Err(Refused { why, .. }) => {
+                    board.table_read_by.set(None);
                     board.table_text.set(String::new());
                     table_source.set(format!("{name} (not read: {why})"));
                 }
@@ -460,11 +463,40 @@ pub fn StockPanel() -> impl IntoView {
                         <p class="hint">{format!("Read {} for items of the history.", how_many(t.rows.len(), ("row", "rows")))}</p>
                         <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{words::as_sentence(w)}</li> }).collect_view()}</ul>
                         <ol class="row-errors" id="stock-table-errors">{t.errors.iter().map(|e| view! { <li>{super::words::row_error_line(e)}</li> }).collect_view()}</ol>
+                        <ReadByChoice offered=t.could_read_by.clone() taken=t.read_by.clone()/>
                     }))}
                 </div>
             </div>
         </section>
     }
+}
+
+/// The choice to read the stock table's rows by one column of the history's joined names
+/// alone (a code), offered where rows naming items by it were left out, and taken back.
+#[component]
+fn ReadByChoice(offered: Option<(String, usize)>, taken: Option<String>) -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let offer = offered.map(|(column, rows)| {
+        let label = format!(
+            "Read {} by \u{201c}{column}\u{201d} alone",
+            if rows == 1 { "that row".to_string() } else { format!("those {rows} rows") }
+        );
+        view! {
+            <p class="read-by">
+                <button type="button" id="stock-read-by"
+                    on:click=move |_| board.table_read_by.set(Some(column.clone()))>{label}</button>
+                " if the stock table counts the history\u{2019}s own items (not another store\u{2019}s, not a category\u{2019}s total)"
+            </p>
+        }
+    });
+    let undo = taken.map(|column| view! {
+        <p class="read-by">
+            {format!("Rows naming an item by \u{201c}{column}\u{201d} alone are read as that item, as chosen. ")}
+            <button type="button" id="stock-read-in-full" class="quiet"
+                on:click=move |_| board.table_read_by.set(None)>"Read by full names only"</button>
+        </p>
+    });
+    view! { {offer} {undo} }
 }
 
 /// The open item's Stock plan, from its board row, with the board's changes for it alone.

@@ -35,6 +35,7 @@ pub fn SharePanel() -> impl IntoView {
         plan.form.track();
         board.stock_form.track();
         board.table_text.track();
+        board.table_read_by.track();
         board.changes.track();
         if first.is_some() {
             link.set(None);

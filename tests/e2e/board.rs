@@ -689,3 +689,81 @@ fn an_item_whose_data_ends_early_gets_no_stock_figures_and_says_why() {
         json!(true)
     );
 }
+
+/// Two codes sharing a description: a stock table by code is left out with the reason and
+/// the choice; chosen, the rows give orders and the work file keeps the choice; taken back,
+/// they are left out again.
+#[test]
+fn a_stock_table_by_code_is_read_alone_when_chosen() {
+    let Some(page) = open((1366, 900)) else {
+        return;
+    };
+    let browser = &page.browser;
+    wait_for_item(browser, "Seed packets");
+    let mut history = "month,Code,Description,units\n".to_string();
+    for month in 0..24 {
+        let (year, m) = (2023 + month / 12, month % 12 + 1);
+        for (code, description, units) in [
+            ("FG-1", "Birch trellis", 12 + month % 3),
+            ("FG-2", "Rain barrel", 8 + month % 4),
+            ("FG-9", "Birch trellis", 20 + month % 5),
+        ] {
+            history.push_str(&format!("{year}-{m:02},{code},{description},{units}\n"));
+        }
+    }
+    paste(browser, &history);
+    wait_until_planned(browser, 3);
+    drop_stock_table(
+        browser,
+        "Code,On hand,On order\nFG-1,30,0\nFG-2,5,0\nFG-9,2,0\n",
+        "by-code.csv",
+    );
+    let offer = browser.wait_for(
+        "the choice to read the rows by code",
+        "const b = document.getElementById('stock-read-by'); return b && b.textContent",
+        WAIT,
+    );
+    assert_eq!(
+        offer,
+        json!("Read those 3 rows by \u{201c}Code\u{201d} alone")
+    );
+    let report = browser.js("return document.getElementById('stock-table-report').textContent");
+    assert!(
+        report.as_str().unwrap_or("").contains(
+            "as \"Birch trellis\" is the \"Description\" of \"FG-1 / Birch trellis\" and \
+             \"FG-9 / Birch trellis\""
+        ),
+        "{report}"
+    );
+    wait_until_planned(browser, 3);
+    assert!(column(browser, "Order today")
+        .iter()
+        .all(|o| o == "needs on hand"));
+    browser.js("document.getElementById('stock-read-by').click()");
+    browser.wait_for(
+        "the choice taken",
+        "return !!document.getElementById('stock-read-in-full')",
+        WAIT,
+    );
+    wait_until_planned(browser, 3);
+    let names = shown_names(browser);
+    let orders = column(browser, "Order today");
+    let scarce = names
+        .iter()
+        .position(|n| n == "FG-9 / Birch trellis")
+        .unwrap();
+    assert_ne!(orders[scarce], "needs on hand", "{orders:?}");
+    save_screenshot(browser, "stock-read-by-code.png");
+    let (_, work) = saved_by(browser, "save-work");
+    assert!(work.contains("\"stock_table_read_by\": \"Code\""), "{work}");
+    browser.js("document.getElementById('stock-read-in-full').click()");
+    browser.wait_for(
+        "the choice offered again",
+        "return !!document.getElementById('stock-read-by')",
+        WAIT,
+    );
+    wait_until_planned(browser, 3);
+    assert!(column(browser, "Order today")
+        .iter()
+        .all(|o| o == "needs on hand"));
+}

@@ -3,7 +3,9 @@
 //! (`intake::stock_table`, `stock_names`, `stock_columns`; moved here from the module's own
 //! tests to keep it readable at one sitting).
 
-use morrowcast_engine::intake::{read, read_stock_table, IntakeReport, StockRow, StockTable};
+use morrowcast_engine::intake::{
+    read, read_stock_table, read_stock_table_text, IntakeReport, StockRow, StockTable,
+};
 use morrowcast_engine::stock::Target;
 
 /// A monthly history of the items the tests name.
@@ -329,6 +331,83 @@ fn parts_are_the_historys_own_cells_not_its_names_cut_at_the_joiner() {
 }
 
 #[test]
+fn a_code_naming_each_item_once_is_read_alone_only_as_chosen() {
+    // Two codes share a description: part matching is off, so a stock table by code is left
+    // out, with the reason and the choice; chosen, the codes are read, the check beside kept.
+    let shared = read(
+        "month,Code,Description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,Rain \
+         barrel,4\n2024-01,FG-9,Birch trellis,5\n2024-02,FG-1,Birch trellis,3\n\
+         2024-02,FG-2,Rain barrel,4\n2024-02,FG-9,Birch trellis,5\n",
+    );
+    let by_code = "Code,On hand\nFG-9,6\nfg 1,5\nFG-7,2\n";
+    let t = check_against(&shared, by_code, &[], &[]);
+    assert_eq!(t.could_read_by, Some(("Code".to_string(), 2)));
+    assert_eq!(t.read_by, None);
+    assert!(warns(
+        &t,
+        &[
+            "2 rows of the stock table name an item by its \"Code\" alone and are left out",
+            "\"Birch trellis\" is the \"Description\" of \"FG-1 / Birch trellis\" and \
+             \"FG-9 / Birch trellis\"",
+            "\"FG-9\" (row 2), \"fg 1\" (row 3)"
+        ]
+    ));
+    assert!(warns(&t, &["\"FG-7\" (row 4)", "no item"]), "{t:?}");
+    let chosen = read_stock_table_text(by_code, &shared, Some("code"));
+    assert_eq!(chosen.errors, []);
+    assert_eq!(
+        chosen.rows,
+        [
+            row_with_on_hand("FG-9 / Birch trellis", 6.0),
+            row_with_on_hand("FG-1 / Birch trellis", 5.0)
+        ]
+    );
+    assert_eq!(chosen.read_by.as_deref(), Some("Code"));
+    assert_eq!(chosen.could_read_by, None);
+    assert!(warns(&chosen, &["as chosen", "\"Code\" alone"]));
+    // A description beside that names another item still leaves the row out.
+    let crossed = read_stock_table_text(
+        "Code,Description,On hand\nFG-2,Birch trellis,6\nFG-1,Birch trellis,5\n",
+        &shared,
+        Some("Code"),
+    );
+    assert_eq!(
+        crossed.rows,
+        [row_with_on_hand("FG-1 / Birch trellis", 5.0)],
+        "{crossed:?}"
+    );
+    // A column that does not name each item once, or is no column of the history's names,
+    // is not taken, said; a history whose columns each name every item needs no choice.
+    for (asked, why) in [
+        (
+            "Description",
+            "\"Description\" does not name each of the history's items once",
+        ),
+        (
+            "Store",
+            "the history's item names join \"Code\" and \"Description\"",
+        ),
+    ] {
+        let t = read_stock_table_text("Description,On hand\nRain barrel,4\n", &shared, Some(asked));
+        assert_eq!((t.rows.len(), t.read_by.as_deref()), (0, None), "{asked}");
+        assert!(warns(&t, &["not read by", why]), "{t:?}");
+    }
+    let unique = read(
+        "month,Code,Description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,Rain \
+         barrel,4\n",
+    );
+    let t = read_stock_table_text("Code,On hand\nFG-2,4\n", &unique, Some("Code"));
+    assert_eq!(t.rows, [row_with_on_hand("FG-2 / Rain barrel", 4.0)]);
+    assert!(!warns(&t, &["chosen"]), "{t:?}");
+    // An empty description keeps parts from naming items; the codes may still be chosen.
+    let blank =
+        read("month,Code,Description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,,4\n");
+    let t = check_against(&blank, "Code,On hand\nFG-1,4\n", &[], &[]);
+    assert!(warns(&t, &["as \"FG-2\" has no \"Description\""]), "{t:?}");
+    assert_eq!(t.could_read_by, Some(("Code".to_string(), 1)));
+}
+
+#[test]
 fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
     // The history joins a code and a description, each naming every item on its own.
     let coded = read(
@@ -451,7 +530,13 @@ fn items_named_by_joined_columns_match_by_the_join_or_by_one_part() {
         "{t:?}"
     );
     assert!(
-        warns(&t, &["no item of the history", "\"Willow basket\" (row 3)"]),
+        warns(
+            &t,
+            &[
+                "names an item by part of the history's name alone",
+                "\"Willow basket\" (row 3)"
+            ]
+        ),
         "{t:?}"
     );
     // Another store's list under the history's own headers: its rows name no item.

@@ -214,7 +214,7 @@ fn text_files_read_apart_read_as_through_the_workbook_aware_readers() {
         assert_eq!(Ok(apart.clone()), stock_table_text(&file));
         let history = read(&text("sales_plain.csv"));
         assert_eq!(
-            read_stock_table_text(&apart.text, &history),
+            read_stock_table_text(&apart.text, &history, None),
             read_stock_table(apart.text.as_bytes(), &history)
         );
     }

@@ -22,7 +22,7 @@ usage:
                       [--holdout auto|K] [--level P] [--rank-by mape|rmse|bias|mase]
                       [--band mad|horizon] [--tracking-limit L] [--origins R]
                       [--method auto|best|NAME] [--leave-out-unfinished] [--json]
-  morrowcast stock FILE [--stock TABLE [--stock-sheet NAME]] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
+  morrowcast stock FILE [--stock TABLE [--stock-sheet NAME] [--stock-by COLUMN|none]] [--item NAME]... [--lead-time L] [--lead-time-sd S|none]
                    [--review R|none] [--service P | --fill-rate P] [--order-quantity Q|none]
                    [forecast options] [--json]
   morrowcast look-back FILE [--periods N] [stock options] [forecast options] [--json]
@@ -44,7 +44,9 @@ continuous review; none leaves it, --lead-time-sd or --order-quantity out, a wor
 (0.95) or a percent (95). --stock TABLE: a table with a header and a row per item: item, on
 hand, on order, and optionally lead time, lead time sd, review, service, fill rate, order
 quantity, order multiple, minimum order (each overrides the options for its item); of a workbook,
-the sheet naming on hand, or the one --stock-sheet NAME names. Stock figures
+the sheet naming on hand, or the one --stock-sheet NAME names. --stock-by COLUMN: where the
+history joins columns into its items' names and COLUMN (a code) names each item once, a stock
+row naming an item by it alone is read as that item (said; none: not, a work's own too). Stock figures
 are estimates from past demand: your own policies, supplier terms and judgement decide the order.
 look-back: the plan of N periods ago (default a work's own Look-back, else 1; the history without
 its last N periods, the same settings) against what sold since: each period's forecast and band, and whether the reorder point
@@ -181,6 +183,9 @@ pub struct StockArgs {
     pub table: Option<String>,
     /// `--stock-sheet NAME`: the stock table's sheet to read, the table a workbook.
     pub table_sheet: Option<String>,
+    /// `--stock-by COLUMN`: the history's item column to read the stock rows by alone;
+    /// `Some(None)` for `none` (not, whatever a work says); `None` when not given.
+    pub read_by: Option<Option<String>>,
     /// The settings as typed (for a work given as FILE).
     pub typed: TypedSettings,
     pub typed_stock: TypedStock,
@@ -355,6 +360,7 @@ fn parse_stock(
     let mut order_quantity = None;
     let mut table = None;
     let mut table_sheet = None;
+    let mut read_by = None;
     let parsed = parse_item_command(command, rest, &mut |flag, value| {
         let slot = match flag {
             "--lead-time" => {
@@ -368,6 +374,7 @@ fn parse_stock(
             "--order-quantity" => &mut order_quantity,
             "--stock" => &mut table,
             "--stock-sheet" => &mut table_sheet,
+            "--stock-by" => &mut read_by,
             _ => return more(flag, value),
         };
         *slot = Some(value.to_string());
@@ -443,10 +450,12 @@ fn parse_stock(
             "--stock-sheet names a sheet of the stock table: give --stock TABLE too".into(),
         );
     }
+    let read_by = read_by.map(|c| Some(c).filter(|c| !c.trim().eq_ignore_ascii_case("none")));
     Ok(StockArgs {
         file: parsed.file,
         sheet: parsed.sheet,
         table_sheet,
+        read_by,
         items: parsed.items,
         json: parsed.json,
         leave_out: parsed.leave_out,

@@ -227,6 +227,11 @@ pub fn stock_inputs(
         );
     }
     let input = read_any(&sa.file, sa.sheet.as_deref(), stdin, sa.leave_out)?;
+    // The column to read the stock rows by alone: the option's, else the work's own.
+    let read_by = match &sa.read_by {
+        Some(given) => given.clone(),
+        None => input.work().and_then(|w| w.stock_read_by.clone()),
+    };
     let table = match &sa.table {
         Some(path) => {
             let bytes = read_input(path, stdin)?;
@@ -236,6 +241,7 @@ pub fn stock_inputs(
                 &bytes,
                 sa.table_sheet.as_deref(),
                 input.report(),
+                read_by.as_deref(),
             );
             let file = match (&sa.table_sheet, file) {
                 (Some(sheet), Err(why)) => {
@@ -268,7 +274,7 @@ pub fn stock_inputs(
     args::check_horizon(&settings, &stock_settings)?;
     let table = table.or_else(|| {
         work.stock_table.as_ref().map(|t| {
-            let read = intake::read_stock_table(t.text.as_bytes(), input.report());
+            let read = intake::read_stock_table_text(&t.text, input.report(), read_by.as_deref());
             (read, t.clone())
         })
     });

@@ -151,6 +151,7 @@ fn link(console: &mut Console<'_>, la: &LinkArgs, stdin: &mut dyn Read) -> u8 {
     };
     work.settings = sa.typed.over(&work.settings);
     work.stock = sa.typed_stock.over(&work.stock);
+    work.stock_read_by = table.as_ref().and_then(|(t, _)| t.read_by.clone());
     work.stock_table = table.map(|(_, t)| t);
     work.open_item = open.or(work.open_item);
     work.look_back = la.look_back.unwrap_or(work.look_back);
@@ -365,6 +366,18 @@ fn stock_table_warnings(
             return Err(2);
         }
         warnings.extend(table.warnings.iter().cloned());
+        if let Some((column, rows)) = &table.could_read_by {
+            warnings.push(format!(
+                "to read {} by {} alone, give --stock-by {}",
+                if *rows == 1 {
+                    "that row".to_string()
+                } else {
+                    format!("those {rows} rows")
+                },
+                table::quoted(column),
+                table::quoted(column)
+            ));
+        }
     }
     Ok(warnings)
 }

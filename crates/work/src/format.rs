@@ -1,5 +1,5 @@
-//! The work file's JSON, versions 1 and 2 (2 = 1 and `look_back`, written only when a work has
-//! one): every name of the format is in this file (README, "Work file format", documents it).
+//! The work file's JSON, versions 1 to 3 (2 = 1 and `look_back`, 3 = 2 and
+//! `stock_table_read_by`, each written only when a work has it): every name of the format is in this file (README, "Work file format", documents it).
 //! The share link carries the same JSON.
 //!
 //! Kept apart from: the link's packing (link.rs) and the engine's own types, which are never
@@ -37,6 +37,10 @@ struct WorkJson {
     /// Version 2: the Look-back's periods; left out when 0.
     #[serde(default, skip_serializing_if = "is_off")]
     look_back: usize,
+    /// Version 3: the history's item column the stock table's rows are read by alone, as
+    /// the person chose; left out when none.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    stock_table_read_by: Option<String>,
 }
 
 fn is_off(periods: &usize) -> bool {
@@ -45,7 +49,9 @@ fn is_off(periods: &usize) -> bool {
 
 /// The version a work is written in: the first that holds all it carries.
 fn version_for(work: &Work) -> u64 {
-    if work.look_back > 0 {
+    if work.stock_read_by.is_some() {
+        3
+    } else if work.look_back > 0 {
         2
     } else {
         1
@@ -194,6 +200,7 @@ pub fn to_json(work: &Work, pretty: bool) -> String {
             .collect(),
         open_item: work.open_item.clone(),
         look_back: work.look_back,
+        stock_table_read_by: work.stock_read_by.clone(),
     };
     let written = if pretty {
         serde_json::to_string_pretty(&json)
@@ -284,6 +291,16 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
         return Err(unreadable(format!(
             "look_back is a field of version 2, and this work says version {version}"
         )));
+    }
+    if json.stock_table_read_by.is_some() && version < 3 {
+        return Err(unreadable(format!(
+            "stock_table_read_by is a field of version 3, and this work says version {version}"
+        )));
+    }
+    if json.stock_table_read_by.is_some() && json.stock_table.is_none() {
+        return Err(unreadable(
+            "stock_table_read_by says how to read a stock table, and this work has none",
+        ));
     }
     if json.look_back > MOST_PERIODS_SHOWN {
         return Err(unreadable(format!(
@@ -389,5 +406,6 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
         changes,
         open_item: json.open_item,
         look_back: json.look_back,
+        stock_read_by: json.stock_table_read_by,
     })
 }

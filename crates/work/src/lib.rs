@@ -28,9 +28,10 @@ pub use change::ItemChange;
 pub use link::{LINK_KEPT_BY_BROWSERS, LINK_KEPT_BY_MAIL};
 
 /// The newest version of the work format this build reads and writes. Version 2 adds the
-/// Look-back (`look_back`) and is written only for a work that has one, so a work without it
-/// stays version 1 and opens in builds that read only that.
-pub const WORK_VERSION: u64 = 2;
+/// Look-back (`look_back`), version 3 the stock table's reading by one column
+/// (`stock_table_read_by`); each is written only for a work that has it, so a work without
+/// them stays version 1 and opens in builds that read only that.
+pub const WORK_VERSION: u64 = 3;
 
 /// A text as given, with where it came from ("the demo", a file name, "pasted text").
 #[derive(Clone, Debug, PartialEq)]
@@ -71,6 +72,9 @@ pub struct Work {
     /// The periods the Item board's Look-back looks back over (0: none), at most
     /// [`morrowcast_engine::lookback::MOST_PERIODS_SHOWN`].
     pub look_back: usize,
+    /// The history's item column (its header) the stock table's rows are read by alone, as
+    /// the person chose (the engine's `StockTable::could_read_by`); only with a stock table.
+    pub stock_read_by: Option<String>,
 }
 
 impl Work {
@@ -84,6 +88,7 @@ impl Work {
             changes: BTreeMap::new(),
             open_item: None,
             look_back: 0,
+            stock_read_by: None,
         }
     }
 

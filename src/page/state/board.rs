@@ -31,6 +31,9 @@ pub struct BoardState {
     /// The stock table's text (empty: none given), and its reading.
     pub table_text: RwSignal<String>,
     pub table: Memo<Option<StockTable>>,
+    /// The history's item column the person chose to read the stock rows by alone (the
+    /// table's `could_read_by`); `None`: by the history's full names.
+    pub table_read_by: RwSignal<Option<String>>,
     /// Where the stock table came from (a file name, "pasted text", "none given").
     pub table_source: RwSignal<String>,
     /// The board's own changes per item name.
@@ -64,9 +67,15 @@ impl BoardState {
         let stock_errors =
             Memo::new(move |_| stock_form.with(|f| f.check().err().unwrap_or_default()));
         let table_text = RwSignal::new(String::new());
+        let table_read_by = RwSignal::new(None::<String>);
         let table = Memo::new(move |_| {
+            let read_by = table_read_by.get();
             table_text.with(|t| {
-                (!t.trim().is_empty()).then(|| intake.report.with(|r| read_stock_table_text(t, r)))
+                (!t.trim().is_empty()).then(|| {
+                    intake
+                        .report
+                        .with(|r| read_stock_table_text(t, r, read_by.as_deref()))
+                })
             })
         });
         let table_source = RwSignal::new(super::NO_TABLE.to_string());
@@ -258,6 +267,7 @@ impl BoardState {
             stock_errors,
             table_text,
             table,
+            table_read_by,
             changes,
             look_back,
             table_source,

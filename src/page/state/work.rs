@@ -124,6 +124,7 @@ impl WorkState {
             board.stock_form.track();
             board.table_text.track();
             board.table_source.track();
+            board.table_read_by.track();
             board.changes.track();
             board.look_back.track();
             if !work.keeping.get_untracked().writes() {
@@ -413,6 +414,11 @@ impl WorkState {
                 })
             }),
             look_back: self.board.look_back.get_untracked(),
+            // The choice as taken (a column that no longer names each item once is not kept).
+            stock_read_by: self
+                .board
+                .table
+                .with_untracked(|t| t.as_ref().and_then(|t| t.read_by.clone())),
         }
     }
 
@@ -437,6 +443,7 @@ impl WorkState {
                 self.board.table_source.set(NO_TABLE.into());
             }
         }
+        self.board.table_read_by.set(work.stock_read_by);
         self.board.changes.set(work.changes);
         self.board.look_back.set(work.look_back);
         self.pending_item.set(work.open_item);

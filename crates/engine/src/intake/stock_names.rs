@@ -25,7 +25,10 @@
 //! ([`super::Item::parts`]), so a description holding " / " is one part, and a stock cell
 //! holding " / " is read whole first. Four probing reviews found every rule that
 //! guessed which joined column is a store, a category or a code misplacing stock somewhere, so
-//! none does. [`ItemNames::find`] is the one lookup: the item columns' choice
+//! none does: where one column names each item once but another does not (two codes of one
+//! description), rows naming items by that column alone are left out, said with the reason,
+//! and offered to the person ([`Matched::could_read_by`]), who may choose to read by it
+//! ([`ItemNames::new`]'s `read_by`). [`ItemNames::find`] is the one lookup: the item columns' choice
 //! (`stock_columns`) scores columns by it too.
 
 use super::build::{agreeing, count, listing, PART_JOIN};
@@ -75,6 +78,16 @@ pub(crate) enum Found {
 pub(crate) struct ItemNames<'a> {
     exact: HashMap<&'a str, usize>,
     by_key: HashMap<String, Vec<usize>>,
+    /// The history's item columns' headers, one per place.
+    headers: Vec<String>,
+    /// Per place, each item by its part's key there, where every item has one and no two
+    /// share it (a code): a part there could name an item alone, were the person to choose it.
+    sole: Vec<Option<HashMap<String, usize>>>,
+    /// The place the person chose to read parts in alone (see `new`).
+    chosen: Option<usize>,
+    /// Why parts do not name items alone, in words: a cell two items share, or an item's
+    /// empty cell.
+    why_not_alone: Option<String>,
     /// Items by the keys of their parts in two places or more ([`places_key`]): all of them
     /// ("Oak Lane / 123" for "Oak Lane / 00123"), and where a part names an item alone
     /// ([`ItemNames::parts_name_items`]) some of them too.
@@ -110,10 +123,17 @@ impl<'a> ItemNames<'a> {
     ///
     /// `cells`: each item's own cells in the joined columns ([`super::Item::parts`]), where
     /// the history kept them; a name without them is cut at " / " instead.
+    ///
+    /// `read_by`: a place the person chose to read a part in alone (a stock table by code
+    /// beside a history whose descriptions two codes share). Taken only where that column
+    /// names each item once (no two items share a cell there, none is empty) and the parts do
+    /// not name items already: the choice says the stock table numbers items as the history
+    /// does there, which no count can tell from a store of one item.
     pub(crate) fn new(
         names: &'a [&'a str],
         cells: &[&[String]],
         headers: &[String],
+        read_by: Option<usize>,
     ) -> ItemNames<'a> {
         let exact = names.iter().enumerate().map(|(i, n)| (*n, i)).collect();
         let mut by_key: HashMap<String, Vec<usize>> = HashMap::new();
@@ -147,11 +167,22 @@ impl<'a> ItemNames<'a> {
         // category is written once over its items, and its empty cells below mean "the same"
         // (a review traced a category's stock onto its first product where empty cells were
         // taken for no part), which no count can tell from an item without a description.
-        let alone = placed
-            && (0..places).all(|at| {
-                let keys: HashSet<&String> = parts.iter().map(|p| &p[at]).collect();
-                keys.len() == parts.len() && !keys.contains(&String::new())
-            });
+        let sole: Vec<Option<HashMap<String, usize>>> = (0..places)
+            .map(|at| {
+                let mut keys = HashMap::new();
+                for (i, p) in parts.iter().enumerate() {
+                    if !placed || p[at].is_empty() || keys.insert(p[at].clone(), i).is_some() {
+                        return None;
+                    }
+                }
+                Some(keys)
+            })
+            .collect();
+        let alone = placed && sole.iter().all(Option::is_some);
+        let chosen = read_by.filter(|&at| !alone && sole.get(at).is_some_and(Option::is_some));
+        let why_not_alone = (placed && !alone)
+            .then(|| why_not_alone(names, &parts, &written_parts, headers, &sole))
+            .flatten();
         let mut by_places: HashMap<String, Vec<usize>> = HashMap::new();
         for chosen in place_sets(places).filter(|c| alone || c.len() == places) {
             for (i, p) in parts.iter().enumerate().filter(|(_, p)| !p.is_empty()) {
@@ -169,7 +200,7 @@ impl<'a> ItemNames<'a> {
         let mut holding: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, p) in parts.iter().enumerate() {
             for (at, key) in p.iter().enumerate().filter(|(_, k)| !k.is_empty()) {
-                if alone {
+                if alone || chosen == Some(at) {
                     by_part[at].entry(key.clone()).or_default().push(i);
                 }
                 hold(&mut holding, key, i);
@@ -190,6 +221,10 @@ impl<'a> ItemNames<'a> {
             .cloned()
             .collect();
         ItemNames {
+            headers: headers.to_vec(),
+            sole,
+            chosen,
+            why_not_alone,
             exact,
             by_key,
             by_places,
@@ -206,7 +241,33 @@ impl<'a> ItemNames<'a> {
     /// Whether a part of the history's names names an item alone (see `new`): then a stock
     /// row matched by part must agree with the item columns left out beside it.
     pub(crate) fn parts_name_items(&self) -> bool {
-        self.alone
+        self.alone || self.chosen.is_some()
+    }
+
+    /// The header of the place the person chose to read parts in alone, where it was taken.
+    pub(crate) fn chosen_header(&self) -> Option<&str> {
+        self.chosen.map(|at| self.headers[at].as_str())
+    }
+
+    /// Whether place `at` names each of the history's items once (a code), so a part there
+    /// alone could be chosen to name an item.
+    pub(crate) fn names_each_item_once(&self, at: usize) -> bool {
+        self.sole.get(at).is_some_and(Option::is_some)
+    }
+
+    /// Where parts do not name items alone, the place in which `name` is one item's part in
+    /// a column naming each item once (in `at` alone, where the stock table's column is the
+    /// history's): the rows a choice to read by that column would read.
+    fn sole_place_of(&self, name: &str, at: Option<usize>) -> Option<usize> {
+        if self.parts_name_items() {
+            return None;
+        }
+        let key = name_key(name);
+        self.sole.iter().enumerate().find_map(|(place, keys)| {
+            keys.as_ref()
+                .filter(|k| at.is_none_or(|a| a == place) && k.contains_key(&key))
+                .map(|_| place)
+        })
     }
 
     /// Where `name` is found: exactly, else by its key, else by its parts; a single part
@@ -306,6 +367,48 @@ impl<'a> ItemNames<'a> {
     }
 }
 
+/// Headers quoted and joined: "\"Code\" and \"Description\"".
+fn quoted_together(headers: &[String]) -> String {
+    let quoted: Vec<String> = headers.iter().map(|h| format!("\"{h}\"")).collect();
+    super::build::list_in_words(&quoted)
+}
+
+/// Why parts do not name items alone ([`ItemNames::new`]), in words: in the first place not
+/// naming each item once, an item without a cell there, or a cell two items or more share
+/// (as the first of them writes it).
+fn why_not_alone(
+    names: &[&str],
+    parts: &[Vec<String>],
+    written: &[Vec<String>],
+    headers: &[String],
+    sole: &[Option<HashMap<String, usize>>],
+) -> Option<String> {
+    let at = sole.iter().position(Option::is_none)?;
+    let header = headers.get(at)?;
+    if let Some(i) = parts.iter().position(|p| p[at].is_empty()) {
+        return Some(format!("\"{}\" has no \"{header}\"", names[i]));
+    }
+    let mut first: HashMap<&str, usize> = HashMap::new();
+    for (i, p) in parts.iter().enumerate() {
+        if let Some(&j) = first.get(p[at].as_str()) {
+            let sharing: Vec<String> = (0..parts.len())
+                .filter(|&k| parts[k][at] == p[at])
+                .map(|k| format!("\"{}\"", names[k]))
+                .collect();
+            let cell = written
+                .get(j)
+                .and_then(|w| w.get(at))
+                .map_or("", String::as_str);
+            return Some(format!(
+                "\"{cell}\" is the \"{header}\" of {}",
+                super::build::list_in_words(&sharing)
+            ));
+        }
+        first.insert(p[at].as_str(), i);
+    }
+    None
+}
+
 /// Item `i` among the holders of `part` in `by`, once (an item may hold a part in two places).
 fn hold(by: &mut HashMap<String, Vec<usize>>, part: &str, i: usize) {
     let items = by.entry(part.to_string()).or_default();
@@ -361,6 +464,9 @@ pub(crate) struct Matched {
     pub rows: Vec<StockRow>,
     pub warnings: Vec<String>,
     pub errors: Vec<RowError>,
+    /// The column naming each item once by which rows left out name items alone, and how
+    /// many: the person may choose to read them by it ([`ItemNames::new`]'s `read_by`).
+    pub could_read_by: Option<(String, usize)>,
 }
 
 /// Matches `read` to the history's item names `items` (indexed as `names`): rows naming an
@@ -370,6 +476,10 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
     let (mut unknown, mut ambiguous, mut disagree, mut second, mut clash) =
         (Vec::new(), Vec::new(), Vec::new(), Vec::new(), Vec::new());
     let mut disagreed_strictly = false;
+    // Rows left out naming an item by a part alone: by place where that column names each
+    // item once (a choice could read them), else together.
+    let mut by_sole: Vec<Vec<String>> = vec![Vec::new(); names.headers.len()];
+    let mut part_alone = Vec::new();
     let found: Vec<Found> = read
         .iter()
         .map(|r| names.find(&r.row.item, r.place))
@@ -384,7 +494,14 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
             let index = match (&found[k], by_a_part) {
                 (Found::Exact(i) | Found::Key(i), false) | (Found::Part(i), true) => *i,
                 (Found::Nowhere, false) => {
-                    unknown.push(format!("\"{}\" (row {line})", r.row.item));
+                    let listed = format!("\"{}\" (row {line})", r.row.item);
+                    match names.sole_place_of(&r.row.item, r.place) {
+                        Some(at) => by_sole[at].push(listed),
+                        None if !names.parts_name_items() && names.is_a_part(&r.row.item) => {
+                            part_alone.push(listed)
+                        }
+                        None => unknown.push(listed),
+                    }
                     continue;
                 }
                 (Found::Several(several), false) => {
@@ -571,6 +688,44 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
             listing(&ambiguous)
         ));
     }
+    // The column most rows name items by alone is offered; rows by another join the rest.
+    let offered = (0..by_sole.len())
+        .filter(|&at| !by_sole[at].is_empty())
+        .max_by_key(|&at| (by_sole[at].len(), std::cmp::Reverse(at)));
+    for at in (0..by_sole.len()).filter(|&at| Some(at) != offered) {
+        part_alone.append(&mut by_sole[at]);
+    }
+    let why = names
+        .why_not_alone
+        .as_deref()
+        .unwrap_or("two items share a part");
+    if let Some(at) = offered {
+        let header = &names.headers[at];
+        let rows = &by_sole[at];
+        out.could_read_by = Some((header.clone(), rows.len()));
+        out.warnings.push(format!(
+            "{} of the stock table {} an item by its \"{header}\" alone and {} left out: \
+             the history names its items by {} together, and as {why}, a part alone is not \
+             taken to name an item; \"{header}\" names each item once, so you may choose to \
+             read the rows by it, if the stock table counts the history's own items: {}",
+            count(rows.len(), "row"),
+            agreeing(rows.len(), "names", "name"),
+            agreeing(rows.len(), "is", "are"),
+            quoted_together(&names.headers),
+            listing(rows)
+        ));
+    }
+    if !part_alone.is_empty() {
+        out.warnings.push(format!(
+            "{} of the stock table {} an item by part of the history's name alone, which is \
+             not read as naming it while {why}, so {} left out (write the name as the history \
+             does): {}",
+            count(part_alone.len(), "row"),
+            agreeing(part_alone.len(), "names", "name"),
+            agreeing(part_alone.len(), "it is", "they are"),
+            listing(&part_alone)
+        ));
+    }
     if !unknown.is_empty() {
         out.warnings.push(format!(
             "{} of the stock table {} no item of the history, so {} left out: {}",
@@ -610,7 +765,7 @@ mod tests {
             })
             .collect();
         let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
-        let m = match_rows(read, items, &ItemNames::new(items, &[], &headers));
+        let m = match_rows(read, items, &ItemNames::new(items, &[], &headers, None));
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
         got.extend(m.warnings.iter().map(|w| format!("warning: {w}")));
         got.extend(
@@ -725,16 +880,50 @@ mod tests {
                  history, so it is left out (write the name exactly as in the history): \
                  \"Rain barrel\" (row 3) could be \"FG-2 / Rain barrel\" or \"FG-3 / Rain \
                  barrel\"",
-                "warning: 1 row of the stock table names no item of the history, so it is left \
-                 out: \"fg 1\" (row 2)",
+                "warning: 1 row of the stock table names an item by its \"column 0\" alone and \
+                 is left out: the history names its items by \"column 0\" and \"column 1\" \
+                 together, and as \"Rain barrel\" is the \"column 1\" of \"FG-2 / Rain \
+                 barrel\" and \"FG-3 / Rain barrel\", a part alone is not taken to name an \
+                 item; \"column 0\" names each item once, so you may choose to read the rows by \
+                 it, if the stock table counts the history's own items: \"fg 1\" (row 2)",
             ],
         );
-        // Stores and products repeat: a product alone names no item.
+        // Chosen, the codes name their items alone; the descriptions still do not.
+        let read = ["fg 1", "Rain barrel"]
+            .iter()
+            .enumerate()
+            .map(|(i, n)| ReadRow {
+                line: i + 2,
+                column: "item".into(),
+                row: StockRow {
+                    item: n.to_string(),
+                    ..StockRow::default()
+                },
+                beside: Vec::new(),
+                place: None,
+            })
+            .collect();
+        let headers = ["column 0".to_string(), "column 1".to_string()];
+        let chosen = ItemNames::new(&shared, &[], &headers, Some(0));
+        assert_eq!(chosen.chosen_header(), Some("column 0"));
+        let m = match_rows(read, &shared, &chosen);
+        assert_eq!(m.rows.len(), 1);
+        assert_eq!(m.rows[0].item, "FG-1 / Birch trellis");
+        assert_eq!(m.could_read_by, None);
+        // A column that does not name each item once cannot be chosen.
+        let refused = ItemNames::new(&shared, &[], &headers, Some(1));
+        assert_eq!(refused.chosen_header(), None);
+        assert!(!refused.parts_name_items());
+        // Stores and products repeat: a product alone names no item, said as a part.
         check_joined(
             &["Frost"],
             &["Oak / Seed", "Mill / Seed", "Oak / Frost"],
             2,
-            &["warning: 1 row of the stock table names no item"],
+            &[
+                "warning: 1 row of the stock table names an item by part of the history's name \
+               alone, which is not read as naming it while \"Oak\" is the \"column 0\" of \
+               \"Oak / Seed\" and \"Oak / Frost\"",
+            ],
         );
         // Names of one column holding " / " are never split.
         check(
@@ -844,7 +1033,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "Seed", "FG-1"), row(3, "Frost", "FG-9")],
             &items,
-            &ItemNames::new(&items, &[], &headers),
+            &ItemNames::new(&items, &[], &headers, None),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-1 / Seed"]);
@@ -861,7 +1050,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "FG-2", "Seed"), row(3, "FG-3", "")],
             &items,
-            &ItemNames::new(&items, &[], &headers),
+            &ItemNames::new(&items, &[], &headers, None),
         );
         assert!(m.rows.is_empty(), "{:?}", m.rows);
         assert!(
@@ -876,7 +1065,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "FG-2", "FG-20"), row(3, "FG-3", "")],
             &items,
-            &ItemNames::new(&items, &[], &headers),
+            &ItemNames::new(&items, &[], &headers, None),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-3 / Twine"]);
@@ -884,7 +1073,7 @@ mod tests {
         let m = match_rows(
             vec![row(2, "FG-2", "Frost"), row(3, "FG-3", "")],
             &items,
-            &ItemNames::new(&items, &[], &headers),
+            &ItemNames::new(&items, &[], &headers, None),
         );
         let kept: Vec<&str> = m.rows.iter().map(|r| r.item.as_str()).collect();
         assert_eq!(kept, ["FG-2 / Frost", "FG-3 / Twine"]);

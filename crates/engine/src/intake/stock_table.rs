@@ -83,6 +83,12 @@ pub struct StockTable {
     pub warnings: Vec<String>,
     /// Every rejected cell or row with its row, column and text.
     pub errors: Vec<RowError>,
+    /// A column of the history's joined item names that names each item once (a code), and
+    /// how many rows left out name an item by it alone: the person may choose to read the
+    /// rows by it (`read_by` of the reading functions).
+    pub could_read_by: Option<(String, usize)>,
+    /// The history's item column the rows were read by alone, as chosen.
+    pub read_by: Option<String>,
 }
 
 impl StockTable {
@@ -129,41 +135,52 @@ struct Notes {
 /// history it goes with (its period, for lead times written in days or weeks, and its items'
 /// names). Never panics.
 pub fn read_stock_table(bytes: &[u8], history: &IntakeReport) -> StockTable {
-    from_decoded(&decode::decode_choosing(bytes, &STOCK_SHEET), history)
+    from_decoded(&decode::decode_choosing(bytes, &STOCK_SHEET), history, None)
 }
 
 /// Reads a stock table from bytes as [`read_stock_table`] does, or from the workbook sheet
 /// `sheet` names, and gives the text read with it (a workbook's sheet, named), decoding once:
 /// for a front end that keeps the text (the command line's works and links carry it;
 /// `--stock-sheet` names the sheet). `Err` with why beside the table's refusal when nothing
-/// could be read.
+/// could be read. `read_by`: the history's item column (its header) the person chose to read
+/// the rows by alone ([`StockTable::could_read_by`]).
 pub fn read_stock_table_and_text(
     bytes: &[u8],
     sheet: Option<&str>,
     history: &IntakeReport,
+    read_by: Option<&str>,
 ) -> (StockTable, Result<super::FileText, String>) {
     let decoded = match sheet {
         Some(sheet) => decode::decode_sheet(bytes, sheet),
         None => decode::decode_choosing(bytes, &STOCK_SHEET),
     };
-    let table = from_decoded(&decoded, history);
+    let table = from_decoded(&decoded, history, read_by);
     (table, super::FileText::of(decoded))
 }
 
 /// Reads a stock table that is already text (the page's stock table box) as
 /// [`read_stock_table`] reads its bytes, without linking the workbook reader: a workbook's
-/// sheet reaches the page as text from its own worker.
-pub fn read_stock_table_text(text: &str, history: &IntakeReport) -> StockTable {
-    from_decoded(&decode::decode_text(text.as_bytes()), history)
+/// sheet reaches the page as text from its own worker. `read_by` as for
+/// [`read_stock_table_and_text`].
+pub fn read_stock_table_text(
+    text: &str,
+    history: &IntakeReport,
+    read_by: Option<&str>,
+) -> StockTable {
+    from_decoded(&decode::decode_text(text.as_bytes()), history, read_by)
 }
 
-fn from_decoded(decoded: &decode::Decoded, history: &IntakeReport) -> StockTable {
+fn from_decoded(
+    decoded: &decode::Decoded,
+    history: &IntakeReport,
+    read_by: Option<&str>,
+) -> StockTable {
     if let Some(why) = &decoded.refused {
         let mut table = StockTable::default();
         table.errors.push(decode::refusal(why.clone()));
         return table;
     }
-    let mut table = read_text(&decoded.text, history);
+    let mut table = read_text(&decoded.text, history, read_by);
     table.warnings.extend(decoded.assumed.clone());
     table.errors.extend(decode::all_errors(decoded));
     table.errors.sort_by_key(|e| e.row);
@@ -191,7 +208,7 @@ fn names_on_hand(text: &str) -> bool {
     })
 }
 
-fn read_text(text: &str, history: &IntakeReport) -> StockTable {
+fn read_text(text: &str, history: &IntakeReport, read_by: Option<&str>) -> StockTable {
     let mut out = StockTable::default();
     let text = strip_bom(text);
     let delimiter = sniff_delimiter(text).unwrap_or(Delimiter::Comma);
@@ -260,7 +277,29 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
     // The history's names indexed once, for the item columns' choice and the rows' matching.
     let item_cells: Vec<&[String]> = history.items.iter().map(|i| i.parts.as_slice()).collect();
-    let names = ItemNames::new(&item_names, &item_cells, &history.item_columns);
+    let read_by_place = read_by.and_then(|h| history_column(h, &history.item_columns));
+    let names = ItemNames::new(
+        &item_names,
+        &item_cells,
+        &history.item_columns,
+        read_by_place,
+    );
+    if let Some(asked) = read_by {
+        match names.chosen_header() {
+            Some(header) => {
+                out.read_by = Some(header.to_string());
+                out.warnings.push(format!(
+                    "as chosen, a row naming an item by its \"{header}\" alone is read as \
+                     that item (\"{header}\" names each of the history's items once)"
+                ));
+            }
+            // Every column names each item alone: parts are read without the choice.
+            None if names.parts_name_items() => {}
+            None => out
+                .warnings
+                .push(not_read_by(asked, read_by_place, &names, history)),
+        }
+    }
     // A header naming a part the history joins into its items' names ("Store" beside a
     // history by store and product) may name the items too.
     let mut columns: Vec<Option<(Field, Option<TimeUnit>)>> = header
@@ -479,10 +518,39 @@ fn read_text(text: &str, history: &IntakeReport) -> StockTable {
     }
     out.warnings.extend(notes.warnings(history.frequency));
     let matched = match_rows(read, &item_names, &names);
+    out.could_read_by = matched.could_read_by;
     out.rows = matched.rows;
     out.warnings.extend(matched.warnings);
     out.errors.extend(matched.errors);
     out
+}
+
+/// Why the choice to read the rows by the history's column `asked` alone was not taken.
+fn not_read_by(
+    asked: &str,
+    place: Option<usize>,
+    names: &ItemNames,
+    history: &IntakeReport,
+) -> String {
+    let why = match place {
+        None if history.item_columns.len() < 2 => {
+            "the history names its items by one column".to_string()
+        }
+        None => format!(
+            "the history's item names join {}, not \"{asked}\"",
+            history
+                .item_columns
+                .iter()
+                .map(|h| format!("\"{h}\""))
+                .collect::<Vec<_>>()
+                .join(" and ")
+        ),
+        Some(at) if !names.names_each_item_once(at) => {
+            format!("\"{asked}\" does not name each of the history's items once")
+        }
+        Some(_) => "it cannot be taken".to_string(),
+    };
+    format!("the rows are not read by \"{asked}\" alone as chosen: {why}")
 }
 
 /// One cell being read, with where it stands.
