@@ -311,6 +311,10 @@ fn newer_formats_strange_fields_and_bad_changes_are_named() {
         &read_by(2),
         Read::Unreadable("stock_table_read_by is a field of version 3"),
     );
+    check(
+        &read_by(3).replacen("\"Code\"", "\" \"", 1),
+        Read::Unreadable("stock_table_read_by names a column"),
+    );
     let without_table = Work {
         stock_read_by: Some("Code".into()),
         stock_table: None,
@@ -672,4 +676,22 @@ fn a_work_carries_the_choice_to_read_the_stock_table_by_one_column() {
     assert!(!undone.text().contains("on hand 50"), "{}", undone.text());
     let unchosen = cli(&["work", &history, "--stock", &table], b"");
     assert!(!unchosen.text().contains("stock_table_read_by"));
+    // A new table for the work is read without the choice made of the work's own.
+    let other = table_file("by-code-again.csv", "Code,On hand\nFG-9,70\n");
+    let replaced = cli(&["stock", &file, "--stock", &other], b"");
+    assert!(
+        !replaced.text().contains("on hand 70"),
+        "{}",
+        replaced.text()
+    );
+    assert!(replaced.text().contains("--stock-by \"Code\""));
+    let no_table = cli(&["stock", &history, "--stock-by", "Code"], b"");
+    assert_eq!(no_table.code, 2);
+    assert!(
+        no_table
+            .stderr
+            .contains("--stock-by says how to read a stock table"),
+        "{}",
+        no_table.stderr
+    );
 }

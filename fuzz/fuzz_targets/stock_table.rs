@@ -10,14 +10,18 @@ use morrowcast_engine::stock::{StockSettings, Target};
 
 /// A weekly history (lead times in days and months both convert, or are refused) of items
 /// named like the table's likely rows; and a long one naming its items by a store, a code and
-/// a description joined ("Oak / 00123 / Seed packets"), so rows match by parts too.
-const HISTORIES: [&str; 2] = [
+/// a description joined ("Oak / 00123 / Seed packets"), so rows match by parts too; and one
+/// whose codes name each item once beside a shared description, read by code as chosen too.
+const HISTORIES: [&str; 3] = [
     "week,A,a-1,A1,00123,Seed packets\n2024-W01,1,2,3,4,5\n2024-W02,1,2,3,4,5\n",
     "week,store,code,description,units\n2024-W01,Oak,FG-00123,Seed packets,1\n\
      2024-W01,Mill,FG-00123,Seed packets,2\n2024-W01,Oak,A-1,Trowel / steel,3\n\
      2024-W01,Oak,B2,A1,4\n2024-W02,Oak,FG-00123,Seed packets,1\n\
      2024-W02,Mill,FG-00123,Seed packets,2\n2024-W02,Oak,A-1,Trowel / steel,3\n\
      2024-W02,Oak,B2,A1,4\n",
+    "week,code,description,units\n2024-W01,A-1,Seed packets,1\n2024-W01,00123,Seed packets,2\n\
+     2024-W01,B2,A1,3\n2024-W02,A-1,Seed packets,1\n2024-W02,00123,Seed packets,2\n\
+     2024-W02,B2,A1,3\n",
 ];
 
 fuzz_target!(|data: &[u8]| {
@@ -27,7 +31,12 @@ fuzz_target!(|data: &[u8]| {
 });
 
 fn check(data: &[u8], history: &intake::IntakeReport) {
-    let table = read_stock_table(data, history);
+    check_table(read_stock_table(data, history), data);
+    let (chosen, _) = intake::read_stock_table_and_text(data, None, history, Some("code"));
+    check_table(chosen, data);
+}
+
+fn check_table(table: intake::StockTable, data: &[u8]) {
     // An upper bound on the lines (CR LF counts twice; lone CR ends a line too).
     let lines = data.iter().filter(|b| **b == b'\n' || **b == b'\r').count() + 1;
     for e in &table.errors {

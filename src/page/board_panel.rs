@@ -216,6 +216,7 @@ pub fn ItemBoard() -> impl IntoView {
                 class:done=move || { board.planned.get() >= board.total.get() }></progress>
             <p class="estimates" id="board-estimates">{ESTIMATES_WORDS}</p>
             <super::unfinished::UnfinishedNotice id="board-unfinished-last"/>
+            <StockRowsNotice/>
             <div class="board-tools">
                 <div class="field inline">
                     <label for="board-filter">"Find items"</label>
@@ -382,13 +383,10 @@ pub fn StockPanel() -> impl IntoView {
             move |name| table_source.set(format!("{name} (reading the workbook\u{2026})")),
             move |read, name, _| match read {
                 Ok(file) => {
-                    // A choice to read by one column was made of the table it replaces.
-                    board.table_read_by.set(None);
                     table_source.set(source_of(&name, &file));
                     board.table_text.set(file.text);
                 }
                 Err(Refused { why, .. }) => {
-                    board.table_read_by.set(None);
                     board.table_text.set(String::new());
                     table_source.set(format!("{name} (not read: {why})"));
                 }
@@ -463,7 +461,7 @@ pub fn StockPanel() -> impl IntoView {
                         <p class="hint">{format!("Read {} for items of the history.", how_many(t.rows.len(), ("row", "rows")))}</p>
                         <ul class="plain warnings">{t.warnings.iter().map(|w| view! { <li>{words::as_sentence(w)}</li> }).collect_view()}</ul>
                         <ol class="row-errors" id="stock-table-errors">{t.errors.iter().map(|e| view! { <li>{super::words::row_error_line(e)}</li> }).collect_view()}</ol>
-                        <ReadByChoice offered=t.could_read_by.clone() taken=t.read_by.clone()/>
+                        <ReadByChoice at="stock" offered=t.could_read_by.clone() taken=t.read_by.clone()/>
                     }))}
                 </div>
             </div>
@@ -471,10 +469,40 @@ pub fn StockPanel() -> impl IntoView {
     }
 }
 
-/// The choice to read the stock table's rows by one column of the history's joined names
-/// alone (a code), offered where rows naming items by it were left out, and taken back.
+/// Above the board, where a stock table is read but has no row for some items: how many it
+/// covers, where its notes say why, and the choice to read by one column where offered (the
+/// rows left out are otherwise said only beside the table, below the board).
 #[component]
-fn ReadByChoice(offered: Option<(String, usize)>, taken: Option<String>) -> impl IntoView {
+fn StockRowsNotice() -> impl IntoView {
+    let board = expect_context::<BoardState>();
+    let intake = expect_context::<IntakeState>();
+    move || {
+        let items = intake.report.with(|r| r.items.len());
+        board.table.with(|t| {
+            let t = t.as_ref().filter(|t| t.errors.is_empty() && t.rows.len() < items)?;
+            let (offered, taken) = (t.could_read_by.clone(), t.read_by.clone());
+            Some(view! {
+                <div class="notice caution" id="board-stock-rows">
+                    <p>{format!(
+                        "The stock table has rows for {} of {items} items; the others show \u{201c}needs on hand\u{201d}. Its notes under Stock plan say which rows were left out and why.",
+                        t.rows.len()
+                    )}</p>
+                    <ReadByChoice at="board" offered taken/>
+                </div>
+            })
+        })
+    }
+}
+
+/// The choice to read the stock table's rows by one column of the history's joined names
+/// alone (a code), offered where rows naming items by it were left out, and taken back; `at`
+/// begins its buttons' ids (it stands beside the table and above the board).
+#[component]
+fn ReadByChoice(
+    at: &'static str,
+    offered: Option<(String, usize)>,
+    taken: Option<String>,
+) -> impl IntoView {
     let board = expect_context::<BoardState>();
     let offer = offered.map(|(column, rows)| {
         let label = format!(
@@ -483,8 +511,8 @@ fn ReadByChoice(offered: Option<(String, usize)>, taken: Option<String>) -> impl
         );
         view! {
             <p class="read-by">
-                <button type="button" id="stock-read-by"
-                    on:click=move |_| board.table_read_by.set(Some(column.clone()))>{label}</button>
+                <button type="button" id=format!("{at}-read-by")
+                    on:click=move |_| board.table_read_by.set(Some((column.clone(), board.table_text.get_untracked())))>{label}</button>
                 " if the stock table counts the history\u{2019}s own items (not another store\u{2019}s, not a category\u{2019}s total)"
             </p>
         }
@@ -492,7 +520,7 @@ fn ReadByChoice(offered: Option<(String, usize)>, taken: Option<String>) -> impl
     let undo = taken.map(|column| view! {
         <p class="read-by">
             {format!("Rows naming an item by \u{201c}{column}\u{201d} alone are read as that item, as chosen. ")}
-            <button type="button" id="stock-read-in-full" class="quiet"
+            <button type="button" id=format!("{at}-read-in-full") class="quiet"
                 on:click=move |_| board.table_read_by.set(None)>"Read by full names only"</button>
         </p>
     });

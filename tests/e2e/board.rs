@@ -739,6 +739,20 @@ fn a_stock_table_by_code_is_read_alone_when_chosen() {
     assert!(column(browser, "Order today")
         .iter()
         .all(|o| o == "needs on hand"));
+    // The board says so above its rows, with the same choice.
+    let above = browser
+        .js("const e = document.getElementById('board-stock-rows'); return e && e.textContent");
+    assert!(
+        above
+            .as_str()
+            .unwrap_or("")
+            .contains("The stock table has rows for 0 of 3 items"),
+        "{above}"
+    );
+    assert_eq!(
+        browser.js("return document.getElementById('board-read-by').textContent"),
+        offer
+    );
     browser.js("document.getElementById('stock-read-by').click()");
     browser.wait_for(
         "the choice taken",
@@ -753,6 +767,10 @@ fn a_stock_table_by_code_is_read_alone_when_chosen() {
         .position(|n| n == "FG-9 / Birch trellis")
         .unwrap();
     assert_ne!(orders[scarce], "needs on hand", "{orders:?}");
+    assert_eq!(
+        browser.js("return document.getElementById('board-stock-rows')"),
+        json!(null)
+    );
     save_screenshot(browser, "stock-read-by-code.png");
     let (_, work) = saved_by(browser, "save-work");
     assert!(work.contains("\"stock_table_read_by\": \"Code\""), "{work}");
@@ -766,4 +784,17 @@ fn a_stock_table_by_code_is_read_alone_when_chosen() {
     assert!(column(browser, "Order today")
         .iter()
         .all(|o| o == "needs on hand"));
+    // A choice is made of one table: edited, the table is read by full names again.
+    browser.js("document.getElementById('board-read-by').click()");
+    browser.wait_for(
+        "the choice taken from above the board",
+        "return !!document.getElementById('stock-read-in-full')",
+        WAIT,
+    );
+    set_field(browser, "stock-table", "Code,On hand,On order\nFG-9,3,0\n");
+    browser.wait_for(
+        "the choice offered for the edited table",
+        "const b = document.getElementById('stock-read-by'); return !!b && b.textContent.includes('that row')",
+        WAIT,
+    );
 }

@@ -349,7 +349,8 @@ fn a_code_naming_each_item_once_is_read_alone_only_as_chosen() {
             "2 rows of the stock table name an item by its \"Code\" alone and are left out",
             "\"Birch trellis\" is the \"Description\" of \"FG-1 / Birch trellis\" and \
              \"FG-9 / Birch trellis\"",
-            "\"FG-9\" (row 2), \"fg 1\" (row 3)"
+            "each row as: \"FG-9\" (row 2) as \"FG-9 / Birch trellis\", \"fg 1\" (row 3) as \
+             \"FG-1 / Birch trellis\""
         ]
     ));
     assert!(warns(&t, &["\"FG-7\" (row 4)", "no item"]), "{t:?}");
@@ -392,6 +393,32 @@ fn a_code_naming_each_item_once_is_read_alone_only_as_chosen() {
         assert_eq!((t.rows.len(), t.read_by.as_deref()), (0, None), "{asked}");
         assert!(warns(&t, &["not read by", why]), "{t:?}");
     }
+    // Chosen, a store beside under no header still speaks: Mill Road's list by product does
+    // not give Oak Lane its kneeling pad.
+    let stores = read(
+        "month,Store,Product,units\n2024-01,Oak Lane,Seed packets,3\n2024-01,Oak Lane,Kneeling \
+         pad,4\n2024-01,Mill Road,Willow basket,5\n",
+    );
+    let t = read_stock_table_text(
+        ",Product,On hand\nMill Road,Willow basket,7\nMill Road,Kneeling pad,8\n",
+        &stores,
+        Some("Product"),
+    );
+    assert_eq!(
+        t.rows,
+        [row_with_on_hand("Mill Road / Willow basket", 7.0)],
+        "{t:?}"
+    );
+    assert!(
+        warns(
+            &t,
+            &[
+                "\"Kneeling pad\" (row 3)",
+                "its \"column 1\" says \"Mill Road\""
+            ]
+        ),
+        "{t:?}"
+    );
     let unique = read(
         "month,Code,Description,units\n2024-01,FG-1,Birch trellis,3\n2024-01,FG-2,Rain \
          barrel,4\n",

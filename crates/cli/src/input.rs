@@ -227,11 +227,20 @@ pub fn stock_inputs(
         );
     }
     let input = read_any(&sa.file, sa.sheet.as_deref(), stdin, sa.leave_out)?;
-    // The column to read the stock rows by alone: the option's, else the work's own.
-    let read_by = match &sa.read_by {
-        Some(given) => given.clone(),
-        None => input.work().and_then(|w| w.stock_read_by.clone()),
+    // The column to read the stock rows by alone: the option's, else, for the work's own
+    // table, the work's (a choice made of one table is not carried to another).
+    let read_by = match (&sa.read_by, &sa.table) {
+        (Some(given), _) => given.clone(),
+        (None, Some(_)) => None,
+        (None, None) => input.work().and_then(|w| w.stock_read_by.clone()),
     };
+    let has_table = sa.table.is_some() || input.work().is_some_and(|w| w.stock_table.is_some());
+    if matches!(sa.read_by, Some(Some(_))) && !has_table {
+        return Err(
+            "--stock-by says how to read a stock table: give --stock TABLE, or a work with one"
+                .into(),
+        );
+    }
     let table = match &sa.table {
         Some(path) => {
             let bytes = read_input(path, stdin)?;

@@ -297,6 +297,15 @@ pub fn from_json(text: &str) -> Result<Work, WorkError> {
             "stock_table_read_by is a field of version 3, and this work says version {version}"
         )));
     }
+    if json
+        .stock_table_read_by
+        .as_deref()
+        .is_some_and(|c| c.trim().is_empty() || c.trim().eq_ignore_ascii_case("none"))
+    {
+        return Err(unreadable(
+            "stock_table_read_by names a column of the history's item names; found none",
+        ));
+    }
     if json.stock_table_read_by.is_some() && json.stock_table.is_none() {
         return Err(unreadable(
             "stock_table_read_by says how to read a stock table, and this work has none",

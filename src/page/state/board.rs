@@ -32,8 +32,9 @@ pub struct BoardState {
     pub table_text: RwSignal<String>,
     pub table: Memo<Option<StockTable>>,
     /// The history's item column the person chose to read the stock rows by alone (the
-    /// table's `could_read_by`); `None`: by the history's full names.
-    pub table_read_by: RwSignal<Option<String>>,
+    /// table's `could_read_by`), with the table text it was chosen for: an edited or new
+    /// table is read by full names again. `None`: by the history's full names.
+    pub table_read_by: RwSignal<Option<(String, String)>>,
     /// Where the stock table came from (a file name, "pasted text", "none given").
     pub table_source: RwSignal<String>,
     /// The board's own changes per item name.
@@ -67,10 +68,14 @@ impl BoardState {
         let stock_errors =
             Memo::new(move |_| stock_form.with(|f| f.check().err().unwrap_or_default()));
         let table_text = RwSignal::new(String::new());
-        let table_read_by = RwSignal::new(None::<String>);
+        let table_read_by = RwSignal::new(None::<(String, String)>);
         let table = Memo::new(move |_| {
-            let read_by = table_read_by.get();
             table_text.with(|t| {
+                let read_by = table_read_by.with(|c| {
+                    c.as_ref()
+                        .filter(|(_, chosen_for)| chosen_for == t)
+                        .map(|(column, _)| column.clone())
+                });
                 (!t.trim().is_empty()).then(|| {
                     intake
                         .report

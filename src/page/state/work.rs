@@ -393,6 +393,12 @@ impl WorkState {
     /// The desk as it is now.
     pub fn current(&self) -> Work {
         let table = self.board.table_text.get_untracked();
+        // The choice of the table as it is (its column checked again when the work opens).
+        let stock_read_by = self.board.table_read_by.with_untracked(|c| {
+            c.as_ref()
+                .filter(|(_, chosen_for)| *chosen_for == table && !table.trim().is_empty())
+                .map(|(column, _)| column.clone())
+        });
         Work {
             history: SourcedText {
                 text: self.intake.text.get_untracked(),
@@ -414,11 +420,7 @@ impl WorkState {
                 })
             }),
             look_back: self.board.look_back.get_untracked(),
-            // The choice as taken (a column that no longer names each item once is not kept).
-            stock_read_by: self
-                .board
-                .table
-                .with_untracked(|t| t.as_ref().and_then(|t| t.read_by.clone())),
+            stock_read_by,
         }
     }
 
@@ -433,6 +435,11 @@ impl WorkState {
         self.plan.picked.set(None);
         self.plan.form.set(work.settings);
         self.board.stock_form.set(work.stock);
+        // Set before the text, so the table is never read once without the work's choice.
+        let read_by = work
+            .stock_read_by
+            .zip(work.stock_table.as_ref().map(|t| t.text.clone()));
+        self.board.table_read_by.set(read_by);
         match work.stock_table {
             Some(t) => {
                 self.board.table_text.set(t.text);
@@ -443,7 +450,6 @@ impl WorkState {
                 self.board.table_source.set(NO_TABLE.into());
             }
         }
-        self.board.table_read_by.set(work.stock_read_by);
         self.board.changes.set(work.changes);
         self.board.look_back.set(work.look_back);
         self.pending_item.set(work.open_item);

@@ -401,8 +401,10 @@ fn witnesses(
         return Vec::new();
     }
     (0..header.cells.len())
+        // A column without a header speaks too: a store written beside a list by product
+        // under no header names the list's store (review 59: Mill Road's list took Oak Lane's
+        // item by product once parts named items).
         .filter(|&i| columns.get(i).is_some_and(Option::is_none) && !read.contains(&i))
-        .filter(|&i| !header.cells[i].is_empty())
         .filter_map(|i| {
             let filled: Vec<&str> = rows
                 .iter()

@@ -257,16 +257,17 @@ impl<'a> ItemNames<'a> {
 
     /// Where parts do not name items alone, the place in which `name` is one item's part in
     /// a column naming each item once (in `at` alone, where the stock table's column is the
-    /// history's): the rows a choice to read by that column would read.
-    fn sole_place_of(&self, name: &str, at: Option<usize>) -> Option<usize> {
+    /// history's), and that item: what a choice to read by that column would read.
+    fn sole_place_of(&self, name: &str, at: Option<usize>) -> Option<(usize, usize)> {
         if self.parts_name_items() {
             return None;
         }
         let key = name_key(name);
         self.sole.iter().enumerate().find_map(|(place, keys)| {
             keys.as_ref()
-                .filter(|k| at.is_none_or(|a| a == place) && k.contains_key(&key))
-                .map(|_| place)
+                .filter(|_| at.is_none_or(|a| a == place))
+                .and_then(|k| k.get(&key))
+                .map(|&item| (place, item))
         })
     }
 
@@ -478,7 +479,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
     let mut disagreed_strictly = false;
     // Rows left out naming an item by a part alone: by place where that column names each
     // item once (a choice could read them), else together.
-    let mut by_sole: Vec<Vec<String>> = vec![Vec::new(); names.headers.len()];
+    let mut by_sole: Vec<Vec<(String, usize)>> = vec![Vec::new(); names.headers.len()];
     let mut part_alone = Vec::new();
     let found: Vec<Found> = read
         .iter()
@@ -493,14 +494,21 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
             let line = r.line;
             let index = match (&found[k], by_a_part) {
                 (Found::Exact(i) | Found::Key(i), false) | (Found::Part(i), true) => *i,
+                (Found::Nowhere | Found::Several(_), false)
+                    if names.sole_place_of(&r.row.item, r.place).is_some() =>
+                {
+                    // What the choice would read it as, so the person can judge each row.
+                    if let Some((at, item)) = names.sole_place_of(&r.row.item, r.place) {
+                        by_sole[at].push((format!("\"{}\" (row {line})", r.row.item), item));
+                    }
+                    continue;
+                }
                 (Found::Nowhere, false) => {
                     let listed = format!("\"{}\" (row {line})", r.row.item);
-                    match names.sole_place_of(&r.row.item, r.place) {
-                        Some(at) => by_sole[at].push(listed),
-                        None if !names.parts_name_items() && names.is_a_part(&r.row.item) => {
-                            part_alone.push(listed)
-                        }
-                        None => unknown.push(listed),
+                    if !names.parts_name_items() && names.is_a_part(&r.row.item) {
+                        part_alone.push(listed);
+                    } else {
+                        unknown.push(listed);
                     }
                     continue;
                 }
@@ -693,7 +701,7 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
         .filter(|&at| !by_sole[at].is_empty())
         .max_by_key(|&at| (by_sole[at].len(), std::cmp::Reverse(at)));
     for at in (0..by_sole.len()).filter(|&at| Some(at) != offered) {
-        part_alone.append(&mut by_sole[at]);
+        part_alone.extend(by_sole[at].iter().map(|(listed, _)| listed.clone()));
     }
     let why = names
         .why_not_alone
@@ -701,18 +709,22 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
         .unwrap_or("two items share a part");
     if let Some(at) = offered {
         let header = &names.headers[at];
-        let rows = &by_sole[at];
+        let rows: Vec<String> = by_sole[at]
+            .iter()
+            .map(|(listed, item)| format!("{listed} as \"{}\"", items[*item]))
+            .collect();
         out.could_read_by = Some((header.clone(), rows.len()));
         out.warnings.push(format!(
             "{} of the stock table {} an item by its \"{header}\" alone and {} left out: \
              the history names its items by {} together, and as {why}, a part alone is not \
              taken to name an item; \"{header}\" names each item once, so you may choose to \
-             read the rows by it, if the stock table counts the history's own items: {}",
+             read the rows by it, if the stock table counts the history's own items (not \
+             another store's, not a category's total), each row as: {}",
             count(rows.len(), "row"),
             agreeing(rows.len(), "names", "name"),
             agreeing(rows.len(), "is", "are"),
             quoted_together(&names.headers),
-            listing(rows)
+            listing(&rows)
         ));
     }
     if !part_alone.is_empty() {
@@ -885,7 +897,8 @@ mod tests {
                  together, and as \"Rain barrel\" is the \"column 1\" of \"FG-2 / Rain \
                  barrel\" and \"FG-3 / Rain barrel\", a part alone is not taken to name an \
                  item; \"column 0\" names each item once, so you may choose to read the rows by \
-                 it, if the stock table counts the history's own items: \"fg 1\" (row 2)",
+                 it, if the stock table counts the history's own items (not another store's, not \
+                 a category's total), each row as: \"fg 1\" (row 2) as \"FG-1 / Birch trellis\"",
             ],
         );
         // Chosen, the codes name their items alone; the descriptions still do not.

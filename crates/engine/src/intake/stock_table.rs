@@ -536,15 +536,17 @@ fn not_read_by(
         None if history.item_columns.len() < 2 => {
             "the history names its items by one column".to_string()
         }
-        None => format!(
-            "the history's item names join {}, not \"{asked}\"",
-            history
+        None => {
+            let joined: Vec<String> = history
                 .item_columns
                 .iter()
                 .map(|h| format!("\"{h}\""))
-                .collect::<Vec<_>>()
-                .join(" and ")
-        ),
+                .collect();
+            format!(
+                "the history's item names join {}, not \"{asked}\"",
+                super::build::list_in_words(&joined)
+            )
+        }
         Some(at) if !names.names_each_item_once(at) => {
             format!("\"{asked}\" does not name each of the history's items once")
         }
