@@ -336,6 +336,69 @@ fn calendar_details_in_company() {
     );
 }
 
+// A report writes its store or category once over its rows: the rows below were items
+// without their store, and the same product at two stores one item (refused across, summed in
+// a long table). Each empty cell reads as the group above, said; a code column never does,
+// nor a column that writes a group twice (an empty store there is no store: web sales).
+#[test]
+fn a_group_written_once_over_its_rows_names_each_row() {
+    check(
+        "Store,Product,2024-01,2024-02,2024-03\nOak Lane,Trowel,3,4,3\n,Rake,2,2,3\n,Hoe,1,1,1\n\
+         Mill Road,Trowel,5,6,5\n,Rake,1,1,2\n",
+        Expect {
+            items: Some(vec![
+                ("Oak Lane / Trowel", some(&[3.0, 4.0, 3.0])),
+                ("Oak Lane / Rake", some(&[2.0, 2.0, 3.0])),
+                ("Oak Lane / Hoe", some(&[1.0, 1.0, 1.0])),
+                ("Mill Road / Trowel", some(&[5.0, 6.0, 5.0])),
+                ("Mill Road / Rake", some(&[1.0, 1.0, 2.0])),
+            ]),
+            warned: vec![vec![
+                "the column \"Store\" is written once over its rows: 3 rows with it empty are \
+                 read as the Store above: row 3 as \"Oak Lane\", row 4 as \"Oak Lane\", row 6 \
+                 as \"Mill Road\"",
+            ]],
+            ..Expect::default()
+        },
+    );
+    // A row that filled would repeat another (a total over the stores, its store empty) says
+    // the empty cell is no store: left as written.
+    check(
+        "Store,Item,2024-01,2024-02\n1,Trowel,1,2\n2,Trowel,101,102\n,Trowel,102,104\n",
+        Expect {
+            items: Some(vec![
+                ("1 / Trowel", some(&[1.0, 2.0])),
+                ("2 / Trowel", some(&[101.0, 102.0])),
+                ("Trowel", some(&[102.0, 104.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    // A code left empty is no code.
+    check(
+        "Code,Description,2024-01,2024-02\nFG-1,Birch trellis,3,4\n,Rain barrel,2,2\n",
+        Expect {
+            items: Some(vec![
+                ("FG-1 / Birch trellis", some(&[3.0, 4.0])),
+                ("Rain barrel", some(&[2.0, 2.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    // A store written on every row: the empty one is web sales, no store.
+    check(
+        "Store,Product,2024-01,2024-02\nOak Lane,Trowel,3,4\nOak Lane,Rake,2,2\n,Rake,7,7\n",
+        Expect {
+            items: Some(vec![
+                ("Oak Lane / Trowel", some(&[3.0, 4.0])),
+                ("Oak Lane / Rake", some(&[2.0, 2.0])),
+                ("Rake", some(&[7.0, 7.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+}
+
 // A store cell left empty on a few rows made those rows an item of their own ("Milk" beside
 // "North / Milk" and "South / Milk") without a word; now a warning names them, their lines and
 // the empty column. A product without a variant among variants of others is not warned about.

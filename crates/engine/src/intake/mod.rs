@@ -148,6 +148,7 @@ mod totals;
 mod unfinished;
 mod words;
 mod workbook;
+mod written_once;
 mod year_grid;
 
 // The one rule for listing names in a sentence, the page's too.
@@ -651,6 +652,9 @@ fn read_text(text: &str) -> IntakeReport {
             coded::codes(header).join(", ")
         ));
     }
+    // A store or category written once over its rows names each row's group.
+    written_once::fill(&mut table, &plan, &mut report.warnings);
+    let rows = table.fitting_rows();
     let mut tally = mark::Tally::default();
     for &j in &plan.values {
         for cell in table.column(j, &rows) {

@@ -1,0 +1,144 @@
+//!Group columns written once over their rows: a report names a store or a category on the
+//! first row of its group and leaves the cell empty below it ("Oak Lane, Trowel" then
+//! ", Rake"). Read as written, the rows below lose their group: "Rake" of two stores became
+//! one item (a long table summed both stores' sales into it; an across table refused the
+//! second row). Each empty cell of such a column is read as the group above it, said.
+//!
+//! Kept apart from: choosing the item columns ([`super::table`]) and building the items
+//! (`build`), which read the filled table as any other; and the stock table, whose own empty
+//! cells are matched as written (`stock_names`).
+//!
+//! Rule (our choice): a column of the joined item names (two or more) other than the last,
+//! whose header names a group (a place items are sold at, or a category, department, group,
+//! family, section, class, range, supplier, vendor or brand; English words, common practice
+//! in exported reports), that writes no group twice, whose first row with an item is filled,
+//! and which has empty cells below filled ones, on rows whose other item cells are filled (a
+//! row of no item at all is no item of the group). A column writing a group twice (a long
+//! table by period and store, a report repeating its store) is left as written: there an
+//! empty cell is no group (web sales) or a row of its own, as reviews found. A code column is never filled: an empty code is no code, and
+//! filling it would give an item another's code.
+
+use super::frame::Table;
+use super::headers::header_says;
+use super::number::is_missing;
+use super::table::Plan;
+use crate::intake::build::{count, listing};
+use std::collections::{HashMap, HashSet};
+
+/// Header words naming a group of items written once over them.
+const GROUP_WORDS: [&str; 23] = [
+    "store",
+    "shop",
+    "branch",
+    "location",
+    "site",
+    "outlet",
+    "depot",
+    "warehouse",
+    "centre",
+    "center",
+    "nursery",
+    "region",
+    "category",
+    "department",
+    "dept",
+    "group",
+    "family",
+    "section",
+    "class",
+    "range",
+    "supplier",
+    "vendor",
+    "brand",
+];
+
+/// Fills the empty cells of each group column written once over its rows (see the module)
+/// with the group above them, and says so in `warnings`.
+pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
+    let joined = &plan.item_columns;
+    if joined.len() < 2 {
+        return;
+    }
+    let Some(header) = table.header.clone() else {
+        return;
+    };
+    for &j in &joined[..joined.len() - 1] {
+        let named = header.cells.get(j).map_or("", String::as_str);
+        if !header_says(named, &GROUP_WORDS) {
+            continue;
+        }
+        let others: Vec<usize> = joined.iter().copied().filter(|&o| o != j).collect();
+        let filled = |cells: &[String], at: usize| cells.get(at).is_some_and(|c| !is_missing(c));
+        // Written once: no group written twice. A column that writes its group on every row
+        // (a long table by period and store, a report repeating the store) leaves a cell
+        // empty for no group ("web sales"), or for a row of its own.
+        let mut groups = HashSet::new();
+        let once =
+            table.rows.iter().filter(|r| filled(&r.cells, j)).all(|r| {
+                groups.insert(r.cells[j].split_whitespace().collect::<Vec<_>>().join(" "))
+            });
+        if !once {
+            continue;
+        }
+        // The rows to fill, with their group: none where the first row with an item has no
+        // group (the column is not written once).
+        let mut above: Option<&str> = None;
+        let mut fills: Vec<(usize, String)> = Vec::new();
+        for (i, row) in table.rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
+            if filled(&row.cells, j) {
+                above = Some(row.cells[j].as_str());
+            } else if others.iter().any(|&o| filled(&row.cells, o)) {
+                match above {
+                    Some(group) => fills.push((i, group.to_string())),
+                    None => {
+                        fills.clear();
+                        break;
+                    }
+                }
+            }
+        }
+        // A filled row that would repeat another row (a total over the stores, its store cell
+        // empty, under the last store's row of that item) says the empty cell is no group.
+        let key = |cells: &[String], group: Option<&str>| -> Vec<String> {
+            (0..cells.len())
+                .filter(|c| !plan.values.contains(c))
+                .map(|c| match group {
+                    Some(g) if c == j => g.to_string(),
+                    _ => cells[c].split_whitespace().collect::<Vec<_>>().join(" "),
+                })
+                .collect()
+        };
+        let filling: HashMap<usize, &str> = fills.iter().map(|(i, g)| (*i, g.as_str())).collect();
+        let mut rows_of: HashMap<Vec<String>, usize> = HashMap::new();
+        for (i, r) in table.rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
+            *rows_of
+                .entry(key(&r.cells, filling.get(&i).copied()))
+                .or_default() += 1;
+        }
+        let repeats = fills
+            .iter()
+            .any(|(i, g)| rows_of[&key(&table.rows[*i].cells, Some(g))] > 1);
+        if repeats {
+            continue;
+        }
+        let mut read_as: Vec<String> = Vec::new();
+        for (i, group) in fills {
+            let row = &mut table.rows[i];
+            if row.cells.len() <= j {
+                row.cells.resize(j + 1, String::new());
+            }
+            read_as.push(format!("row {} as \"{group}\"", row.line));
+            row.cells[j] = group;
+        }
+        if read_as.is_empty() {
+            continue;
+        }
+        warnings.push(format!(
+            "the column \"{named}\" is written once over its rows: {} with it empty {} read as \
+             the {named} above: {}",
+            count(read_as.len(), "row"),
+            if read_as.len() == 1 { "is" } else { "are" },
+            listing(&read_as)
+        ));
+    }
+}
