@@ -328,6 +328,29 @@ fn parts_are_the_historys_own_cells_not_its_names_cut_at_the_joiner() {
     assert_eq!(grouped.items[1].parts, ["Tools", "Rake"]);
     let t = check_against(&grouped, "Category,On hand\nTools,40\nSeeds,25\n", &[], &[]);
     assert!(warns(&t, &["\"Tools\" (row 2) could be"]), "{t:?}");
+    // A stock table writing its store once, as the history does, is read the same way.
+    let stores = read(
+        "Store,Product,2024-01,2024-02\nOak Lane,Trowel,3,4\n,Rake,2,2\nMill Road,Trowel,5,6\n\
+         ,Rake,1,1\n",
+    );
+    let t = check_against(
+        &stores,
+        "Store,Product,On hand\nOak Lane,Trowel,10\n,Rake,4\nMill Road,Trowel,7\n,Rake,2\n",
+        &[
+            row_with_on_hand("Oak Lane / Trowel", 10.0),
+            row_with_on_hand("Oak Lane / Rake", 4.0),
+            row_with_on_hand("Mill Road / Trowel", 7.0),
+            row_with_on_hand("Mill Road / Rake", 2.0),
+        ],
+        &[],
+    );
+    assert!(
+        warns(
+            &t,
+            &["the stock table's column \"Store\" is written once over its rows"]
+        ),
+        "{t:?}"
+    );
     // An empty cell keeps parts from naming items: where the category is written on every
     // row, an empty one is no category, and "Tools" must not take the trowel's stock.
     let repeated = read(

@@ -273,7 +273,7 @@ fn read_text(text: &str, history: &IntakeReport, read_by: Option<&str>) -> Stock
         });
         return out;
     };
-    let rows: Vec<_> = records.collect();
+    let mut rows: Vec<_> = records.collect();
     let item_names: Vec<&str> = history.items.iter().map(|i| i.name.as_str()).collect();
     // The history's names indexed once, for the item columns' choice and the rows' matching.
     let item_cells: Vec<&[String]> = history.items.iter().map(|i| i.parts.as_slice()).collect();
@@ -326,6 +326,12 @@ fn read_text(text: &str, history: &IntakeReport, read_by: Option<&str>) -> Stock
             return out;
         }
     };
+    // A store written once over its rows, as the history's may be (`written_once`).
+    out.warnings.extend(super::written_once::fill_stock_rows(
+        &header,
+        &mut rows,
+        &item_columns.read,
+    ));
     set_aside_second_spellings(&mut columns, &header, &mut out);
     for (i, h) in header.cells.iter().enumerate() {
         if known[i] || h.is_empty() {

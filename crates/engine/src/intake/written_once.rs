@@ -13,7 +13,8 @@
 //! family, section, class, range, supplier, vendor or brand; English words, common practice
 //! in exported reports), that writes no group twice, whose first row with an item is filled,
 //! and which has empty cells below filled ones, on rows whose other item cells are filled (a
-//! row of no item at all is no item of the group). A column writing a group twice (a long
+//! row of no item at all is no item of the group, nor a total's row); truly empty cells
+//! only ("n/a" says none); two groups or more receiving rows. A column writing a group twice (a long
 //! table by period and store, a report repeating its store) is left as written: there an
 //! empty cell is no group (web sales) or a row of its own, as reviews found. A code column is never filled: an empty code is no code, and
 //! filling it would give an item another's code.
@@ -22,6 +23,8 @@ use super::frame::Table;
 use super::headers::header_says;
 use super::number::is_missing;
 use super::table::Plan;
+use super::text::Record;
+use super::totals::total_name;
 use crate::intake::build::{count, listing};
 use std::collections::{HashMap, HashSet};
 
@@ -52,16 +55,65 @@ const GROUP_WORDS: [&str; 23] = [
     "brand",
 ];
 
-/// Fills the empty cells of each group column written once over its rows (see the module)
-/// with the group above them, and says so in `warnings`.
+/// Fills the empty cells of each group column of the history written once over its rows
+/// (see the module) with the group above them, and says so in `warnings`.
 pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
-    let joined = &plan.item_columns;
-    if joined.len() < 2 {
-        return;
-    }
     let Some(header) = table.header.clone() else {
         return;
     };
+    // The columns that tell rows apart (items, periods), not those read as nothing.
+    let not_telling: Vec<usize> = plan
+        .ignored
+        .iter()
+        .chain(&plan.empty)
+        .chain(&plan.row_numbers)
+        .chain(&plan.calendar)
+        .chain(&plan.not_quantities)
+        .chain(&plan.notes)
+        .copied()
+        .chain(plan.of_items.iter().map(|(c, _, _)| *c))
+        .chain(plan.details.iter().map(|(c, _)| *c))
+        .chain(plan.values.iter().copied())
+        .collect();
+    let telling = |c: usize| !not_telling.contains(&c);
+    warnings.extend(fill_rows(
+        &header,
+        &mut table.rows,
+        &plan.item_columns,
+        &telling,
+        "the column",
+    ));
+}
+
+/// [`fill`] for the stock table's rows, whose item columns `joined` are read joined as the
+/// history's: its group written once as the history's is read the same way.
+pub(crate) fn fill_stock_rows(
+    header: &Record,
+    rows: &mut [Record],
+    joined: &[usize],
+) -> Vec<String> {
+    fill_rows(
+        header,
+        rows,
+        joined,
+        &|c| joined.contains(&c),
+        "the stock table's column",
+    )
+}
+
+/// The rule on `rows` under `header`, the items named by the columns `joined`; `telling`:
+/// whether a column tells rows apart; `column` names a column in words. Gives the warnings.
+fn fill_rows(
+    header: &Record,
+    rows: &mut [Record],
+    joined: &[usize],
+    telling: &dyn Fn(usize) -> bool,
+    column: &str,
+) -> Vec<String> {
+    let mut warnings = Vec::new();
+    if joined.len() < 2 {
+        return warnings;
+    }
     for &j in &joined[..joined.len() - 1] {
         let named = header.cells.get(j).map_or("", String::as_str);
         if !header_says(named, &GROUP_WORDS) {
@@ -73,21 +125,33 @@ pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
         // (a long table by period and store, a report repeating the store) leaves a cell
         // empty for no group ("web sales"), or for a row of its own.
         let mut groups = HashSet::new();
-        let once =
-            table.rows.iter().filter(|r| filled(&r.cells, j)).all(|r| {
-                groups.insert(r.cells[j].split_whitespace().collect::<Vec<_>>().join(" "))
-            });
+        let once = rows
+            .iter()
+            .filter(|r| filled(&r.cells, j))
+            .all(|r| groups.insert(r.cells[j].split_whitespace().collect::<Vec<_>>().join(" ")));
         if !once {
             continue;
         }
         // The rows to fill, with their group: none where the first row with an item has no
-        // group (the column is not written once).
+        // group (the column is not written once). Only a truly empty cell is filled ("n/a"
+        // says no group), and never a total's row ("All products" under the last store is
+        // the report's, not the store's).
         let mut above: Option<&str> = None;
         let mut fills: Vec<(usize, String)> = Vec::new();
-        for (i, row) in table.rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
+        for (i, row) in rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
+            let rest: Vec<&str> = others
+                .iter()
+                .filter_map(|&o| row.cells.get(o).map(String::as_str))
+                .filter(|c| !is_missing(c))
+                .collect();
             if filled(&row.cells, j) {
                 above = Some(row.cells[j].as_str());
-            } else if others.iter().any(|&o| filled(&row.cells, o)) {
+            } else if rest.is_empty()
+                || total_name(&rest.join(" "))
+                || !row.cells.get(j).is_none_or(|c| c.trim().is_empty())
+            {
+                continue;
+            } else {
                 match above {
                     Some(group) => fills.push((i, group.to_string())),
                     None => {
@@ -97,11 +161,19 @@ pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
                 }
             }
         }
-        // A filled row that would repeat another row (a total over the stores, its store cell
-        // empty, under the last store's row of that item) says the empty cell is no group.
+        // Two groups or more receive rows: one group with empty cells below it may as well be
+        // a group beside rows of none (a supplier's products, then products of no supplier).
+        let receiving: HashSet<&str> = fills.iter().map(|(_, g)| g.as_str()).collect();
+        if receiving.len() < 2 {
+            continue;
+        }
+        // A filled row that would repeat another (a total over the stores, its store cell
+        // empty, under the last store's row of that item; a web sale under the last store's
+        // row of that product and month) says the empty cell is no group. Compared: the
+        // columns that tell rows apart (items, periods), not those read as nothing.
         let key = |cells: &[String], group: Option<&str>| -> Vec<String> {
             (0..cells.len())
-                .filter(|c| !plan.values.contains(c))
+                .filter(|&c| telling(c))
                 .map(|c| match group {
                     Some(g) if c == j => g.to_string(),
                     _ => cells[c].split_whitespace().collect::<Vec<_>>().join(" "),
@@ -110,20 +182,20 @@ pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
         };
         let filling: HashMap<usize, &str> = fills.iter().map(|(i, g)| (*i, g.as_str())).collect();
         let mut rows_of: HashMap<Vec<String>, usize> = HashMap::new();
-        for (i, r) in table.rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
+        for (i, r) in rows.iter().enumerate().filter(|(_, r)| !r.is_blank()) {
             *rows_of
                 .entry(key(&r.cells, filling.get(&i).copied()))
                 .or_default() += 1;
         }
         let repeats = fills
             .iter()
-            .any(|(i, g)| rows_of[&key(&table.rows[*i].cells, Some(g))] > 1);
+            .any(|(i, g)| rows_of[&key(&rows[*i].cells, Some(g))] > 1);
         if repeats {
             continue;
         }
         let mut read_as: Vec<String> = Vec::new();
         for (i, group) in fills {
-            let row = &mut table.rows[i];
+            let row = &mut rows[i];
             if row.cells.len() <= j {
                 row.cells.resize(j + 1, String::new());
             }
@@ -134,11 +206,12 @@ pub(crate) fn fill(table: &mut Table, plan: &Plan, warnings: &mut Vec<String>) {
             continue;
         }
         warnings.push(format!(
-            "the column \"{named}\" is written once over its rows: {} with it empty {} read as \
+            "{column} \"{named}\" is written once over its rows: {} with it empty {} read as \
              the {named} above: {}",
             count(read_as.len(), "row"),
             if read_as.len() == 1 { "is" } else { "are" },
             listing(&read_as)
         ));
     }
+    warnings
 }
