@@ -218,6 +218,56 @@ fn store_subtotals_are_left_out() {
     );
 }
 
+// A report's store row, its product cell empty, sums the store's products: it was planned as
+// an item beside them without a word (review60 13b). Left out as their subtotal, said; with
+// the store written once over its rows too. A store row that does not add up stays an item.
+#[test]
+fn a_groups_own_row_over_its_items_is_their_subtotal() {
+    for text in [
+        "Store,Product,2024-01,2024-02,2024-03\nOak Lane,,5,6,6\nOak Lane,Trowel,3,4,3\n\
+         Oak Lane,Rake,2,2,3\nMill Road,,6,7,7\nMill Road,Trowel,5,6,5\nMill Road,Rake,1,1,2\n",
+        "Store,Product,2024-01,2024-02,2024-03\nOak Lane,,5,6,6\n,Trowel,3,4,3\n,Rake,2,2,3\n\
+         Mill Road,,6,7,7\n,Trowel,5,6,5\n,Rake,1,1,2\n",
+    ] {
+        check(
+            text,
+            Expect {
+                items: Some(vec![
+                    ("Oak Lane / Trowel", some(&[3.0, 4.0, 3.0])),
+                    ("Oak Lane / Rake", some(&[2.0, 2.0, 3.0])),
+                    ("Mill Road / Trowel", some(&[5.0, 6.0, 5.0])),
+                    ("Mill Road / Rake", some(&[1.0, 1.0, 2.0])),
+                ]),
+                warned: vec![
+                    vec![
+                        "\"Oak Lane\" equals the sum of the 2 items",
+                        "subtotal",
+                        "left out",
+                    ],
+                    vec![
+                        "\"Mill Road\" equals the sum of the 2 items",
+                        "subtotal",
+                        "left out",
+                    ],
+                ],
+                ..Expect::default()
+            },
+        );
+    }
+    check(
+        "Store,Product,2024-01,2024-02,2024-03\nOak Lane,,9,6,6\nOak Lane,Trowel,3,4,3\n\
+         Oak Lane,Rake,2,2,3\n",
+        Expect {
+            items: Some(vec![
+                ("Oak Lane", some(&[9.0, 6.0, 6.0])),
+                ("Oak Lane / Trowel", some(&[3.0, 4.0, 3.0])),
+                ("Oak Lane / Rake", some(&[2.0, 2.0, 3.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+}
+
 // From a fourth review (interactions of the day's rules): a price or an order number beside
 // the quantities of a single or wide table had been planned as an item, silently.
 #[test]

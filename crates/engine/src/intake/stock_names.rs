@@ -369,7 +369,7 @@ impl<'a> ItemNames<'a> {
 }
 
 /// Headers quoted and joined: "\"Code\" and \"Description\"".
-fn quoted_together(headers: &[String]) -> String {
+pub(crate) fn quoted_together(headers: &[String]) -> String {
     let quoted: Vec<String> = headers.iter().map(|h| format!("\"{h}\"")).collect();
     super::build::list_in_words(&quoted)
 }

@@ -41,7 +41,7 @@ use super::stock_columns::{
     choose_item_columns, column_of, history_column, row_item, set_aside_second_spellings,
     unusable_time, Field,
 };
-use super::stock_names::{match_rows, Beside, ItemNames, ReadRow};
+use super::stock_names::{match_rows, quoted_together, Beside, ItemNames, ReadRow};
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
 use super::{DecimalMark, Delimiter, IntakeReport, RowError};
 use crate::calendar::Frequency;
@@ -542,17 +542,10 @@ fn not_read_by(
         None if history.item_columns.len() < 2 => {
             "the history names its items by one column".to_string()
         }
-        None => {
-            let joined: Vec<String> = history
-                .item_columns
-                .iter()
-                .map(|h| format!("\"{h}\""))
-                .collect();
-            format!(
-                "the history's item names join {}, not \"{asked}\"",
-                super::build::list_in_words(&joined)
-            )
-        }
+        None => format!(
+            "the history's item names join {}, not \"{asked}\"",
+            quoted_together(&history.item_columns)
+        ),
         Some(at) if !names.names_each_item_once(at) => {
             format!("\"{asked}\" does not name each of the history's items once")
         }

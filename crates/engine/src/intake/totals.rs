@@ -8,8 +8,9 @@
 //! Subtotals too: an item with a total's name in one part of its joined name ("All stores /
 //! Oak tray") that equals the sum of the items differing from it in that part only ("North /
 //! Oak tray", "South / Oak tray"), or with a total's word in its name ("Garden subtotal",
-//! "Total Inventory") that equals the sum of the items just before it, is left out the same
-//! way.
+//! "Total Inventory") that equals the sum of the items just before it, or a group's own row
+//! with its lower cells empty ("Oak Lane" and no product) that equals the sum of the items
+//! filling them ("Oak Lane / Trowel", "Oak Lane / Rake"), is left out the same way.
 //!
 //! Kept apart from: reading the table ([`super::build`] makes the items; this only looks at
 //! them once built). The rule: at least two other items (or one, beside an item named as a
@@ -209,6 +210,28 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
                     );
                 }
             }
+        }
+        // A group's own row, its lower cells empty ("Oak Lane" with no product, over "Oak
+        // Lane / Trowel" and "Oak Lane / Rake": a report's store row): the items agreeing with
+        // its filled cells and filling its empty ones. Before, such a row was planned as an
+        // item beside its products without a word (a probe of 2026-12-05, review60 13b).
+        let cells = &items[i].parts;
+        if cells.iter().any(String::is_empty) && cells.iter().any(|c| !c.is_empty()) {
+            groups.push(
+                (0..items.len())
+                    .filter(|&j| {
+                        j != i
+                            && items[j].parts.len() == cells.len()
+                            && cells.iter().zip(&items[j].parts).all(|(own, other)| {
+                                if own.is_empty() {
+                                    !other.is_empty()
+                                } else {
+                                    own == other
+                                }
+                            })
+                    })
+                    .collect(),
+            );
         }
         // A row or column named with a total's word under the items it adds up ("Garden
         // subtotal", "Total Inventory", "Tools totals" below their group): the run of items
