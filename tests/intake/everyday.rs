@@ -424,6 +424,22 @@ fn a_group_written_once_over_its_rows_names_each_row() {
             ..Expect::default()
         },
     );
+    // A region over stores, both written once.
+    check(
+        "Region,Store,Product,2024-01,2024-02\nNorth,Oak Lane,Trowel,3,4\n,,Rake,2,2\n\
+         ,Mill Road,Trowel,5,6\n,,Rake,1,1\nSouth,Station kiosk,Trowel,4,4\n,,Rake,1,2\n",
+        Expect {
+            items: Some(vec![
+                ("North / Oak Lane / Trowel", some(&[3.0, 4.0])),
+                ("North / Oak Lane / Rake", some(&[2.0, 2.0])),
+                ("North / Mill Road / Trowel", some(&[5.0, 6.0])),
+                ("North / Mill Road / Rake", some(&[1.0, 1.0])),
+                ("South / Station kiosk / Trowel", some(&[4.0, 4.0])),
+                ("South / Station kiosk / Rake", some(&[1.0, 2.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
     // A code left empty is no code.
     check(
         "Code,Description,2024-01,2024-02\nFG-1,Birch trellis,3,4\n,Rain barrel,2,2\n",

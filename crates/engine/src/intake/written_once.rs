@@ -114,7 +114,9 @@ fn fill_rows(
     if joined.len() < 2 {
         return warnings;
     }
-    for &j in &joined[..joined.len() - 1] {
+    // Innermost first: a store filled before its region tells apart the rows the region's
+    // own filling would otherwise find alike (two stores' "Rake" under one region).
+    for &j in joined[..joined.len() - 1].iter().rev() {
         let named = header.cells.get(j).map_or("", String::as_str);
         if !header_says(named, &GROUP_WORDS) {
             continue;
