@@ -673,9 +673,14 @@ fn a_work_carries_the_choice_to_read_the_stock_table_by_one_column() {
     let again = cli(&["stock", &file], b"");
     assert!(again.text().contains("on hand 50"), "{}", again.text());
     let undone = cli(&["stock", &file, "--stock-by", "none"], b"");
+    assert_eq!(undone.code, 0, "{}", undone.stderr);
     assert!(!undone.text().contains("on hand 50"), "{}", undone.text());
     let unchosen = cli(&["work", &history, "--stock", &table], b"");
-    assert!(!unchosen.text().contains("stock_table_read_by"));
+    assert_eq!(unchosen.code, 0, "{}", unchosen.stderr);
+    assert!(
+        unchosen.text().contains("\"stock_table\"")
+            && !unchosen.text().contains("stock_table_read_by")
+    );
     // A new table for the work is read without the choice made of the work's own.
     let other = table_file("by-code-again.csv", "Code,On hand\nFG-9,70\n");
     let replaced = cli(&["stock", &file, "--stock", &other], b"");

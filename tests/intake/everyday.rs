@@ -387,8 +387,8 @@ fn calendar_details_in_company() {
 }
 
 // A report writes its store or category once over its rows: the rows below were items
-// without their store, and the same product at two stores one item (refused across, summed in
-// a long table). Each empty cell reads as the group above, said; a code column never does,
+// without their store, and the same product at two stores refused as one item. Each empty
+// cell reads as the group above, said; a code column never does ("Vendor SKU" neither),
 // nor a column that writes a group twice (an empty store there is no store: web sales).
 #[test]
 fn a_group_written_once_over_its_rows_names_each_row() {
@@ -436,6 +436,20 @@ fn a_group_written_once_over_its_rows_names_each_row() {
                 ("North / Mill Road / Rake", some(&[1.0, 1.0])),
                 ("South / Station kiosk / Trowel", some(&[4.0, 4.0])),
                 ("South / Station kiosk / Rake", some(&[1.0, 2.0])),
+            ]),
+            ..Expect::default()
+        },
+    );
+    // A code beside a group word is a code: never filled.
+    check(
+        "Vendor SKU,Description,2024-01,2024-02\nSUP-100,Birch trellis,3,4\n,Rain barrel,2,2\n\
+         SUP-200,Kneeling pad,1,1\n,Hose,5,5\n",
+        Expect {
+            items: Some(vec![
+                ("SUP-100 / Birch trellis", some(&[3.0, 4.0])),
+                ("Rain barrel", some(&[2.0, 2.0])),
+                ("SUP-200 / Kneeling pad", some(&[1.0, 1.0])),
+                ("Hose", some(&[5.0, 5.0])),
             ]),
             ..Expect::default()
         },

@@ -400,13 +400,20 @@ fn a_code_naming_each_item_once_is_read_alone_only_as_chosen() {
     assert!(warns(&chosen, &["as chosen", "\"Code\" alone"]));
     // A description beside that names another item still leaves the row out.
     let crossed = read_stock_table_text(
-        "Code,Description,On hand\nFG-2,Birch trellis,6\nFG-1,Birch trellis,5\n",
+        "Code,Title,On hand\nFG-2,Birch trellis,6\nFG-1,Birch trellis,5\n",
         &shared,
         Some("Code"),
     );
     assert_eq!(
         crossed.rows,
         [row_with_on_hand("FG-1 / Birch trellis", 5.0)],
+        "{crossed:?}"
+    );
+    assert!(
+        warns(
+            &crossed,
+            &["\"FG-2\" (row 2) would be \"FG-2 / Rain barrel\", but its \"Title\" says \"Birch trellis\""]
+        ),
         "{crossed:?}"
     );
     // A column that does not name each item once, or is no column of the history's names,

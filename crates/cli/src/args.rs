@@ -450,6 +450,12 @@ fn parse_stock(
             "--stock-sheet names a sheet of the stock table: give --stock TABLE too".into(),
         );
     }
+    if read_by
+        .as_deref()
+        .is_some_and(|c: &str| c.trim().is_empty())
+    {
+        return Err("--stock-by takes a column of the history's item names, or none".into());
+    }
     let read_by = read_by.map(|c| Some(c).filter(|c| !c.trim().eq_ignore_ascii_case("none")));
     Ok(StockArgs {
         file: parsed.file,

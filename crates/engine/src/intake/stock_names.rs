@@ -179,7 +179,8 @@ impl<'a> ItemNames<'a> {
             })
             .collect();
         let alone = placed && sole.iter().all(Option::is_some);
-        let chosen = read_by.filter(|&at| !alone && sole.get(at).is_some_and(Option::is_some));
+        let read_by_place =
+            read_by.filter(|&at| !alone && sole.get(at).is_some_and(Option::is_some));
         let why_not_alone = (placed && !alone)
             .then(|| why_not_alone(names, &parts, &written_parts, headers, &sole))
             .flatten();
@@ -200,7 +201,7 @@ impl<'a> ItemNames<'a> {
         let mut holding: HashMap<String, Vec<usize>> = HashMap::new();
         for (i, p) in parts.iter().enumerate() {
             for (at, key) in p.iter().enumerate().filter(|(_, k)| !k.is_empty()) {
-                if alone || chosen == Some(at) {
+                if alone || read_by_place == Some(at) {
                     by_part[at].entry(key.clone()).or_default().push(i);
                 }
                 hold(&mut holding, key, i);
@@ -223,7 +224,7 @@ impl<'a> ItemNames<'a> {
         ItemNames {
             headers: headers.to_vec(),
             sole,
-            chosen,
+            chosen: read_by_place,
             why_not_alone,
             exact,
             by_key,

@@ -294,7 +294,7 @@ fn read_text(text: &str, history: &IntakeReport, read_by: Option<&str>) -> Stock
                 ));
             }
             // Every column names each item alone: parts are read without the choice.
-            None if names.parts_name_items() => {}
+            None if names.parts_name_items() && read_by_place.is_some() => {}
             None => out
                 .warnings
                 .push(not_read_by(asked, read_by_place, &names, history)),

@@ -215,8 +215,10 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
         // Lane / Trowel" and "Oak Lane / Rake": a report's store row): the items agreeing with
         // its filled cells and filling its empty ones. Before, such a row was planned as an
         // item beside its products without a word (a probe of 2026-12-05, review60 13b).
+        // Its first cell filled (the group): an item without a code in front of its
+        // description, or without a store, is no group's row.
         let cells = &items[i].parts;
-        if cells.iter().any(String::is_empty) && cells.iter().any(|c| !c.is_empty()) {
+        if cells.first().is_some_and(|c| !c.is_empty()) && cells.iter().any(String::is_empty) {
             groups.push(
                 (0..items.len())
                     .filter(|&j| {

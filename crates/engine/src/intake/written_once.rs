@@ -5,8 +5,10 @@
 //! second row). Each empty cell of such a column is read as the group above it, said.
 //!
 //! Kept apart from: choosing the item columns ([`super::table`]) and building the items
-//! (`build`), which read the filled table as any other; and the stock table, whose own empty
-//! cells are matched as written (`stock_names`).
+//! (`build`), which read the filled table as any other; the stock table's reading calls
+//! [`fill_stock_rows`] on its own joined item columns, so a stock table written once matches
+//! a history read so. Not mended here: a long table whose group column has empty cells is
+//! not given that column as an item column at all (its rows are summed, warned).
 //!
 //! Rule (our choice): a column of the joined item names (two or more) other than the last,
 //! whose header names a group (a place items are sold at, or a category, department, group,
@@ -27,6 +29,20 @@ use super::text::Record;
 use super::totals::total_name;
 use crate::intake::build::{count, listing};
 use std::collections::{HashMap, HashSet};
+
+/// Header words naming an item's own number beside a group word ("Vendor SKU", "Vendor part
+/// no"): such a column numbers items, and is never filled; so is one naming an item and a
+/// number ("Supplier item code"). Not "code", "no" or "id" with the group alone: "Branch no"
+/// and "Store ID" name the group, "Product group" too.
+const CODE_WORDS: [&str; 5] = ["sku", "ean", "upc", "gtin", "part"];
+const ITEM_NOUNS: [&str; 3] = ["item", "product", "article"];
+const NUMBER_NOUNS: [&str; 6] = ["code", "no", "nr", "number", "id", "ref"];
+
+/// Whether a header beside a group word names an item's own number (see [`CODE_WORDS`]).
+fn names_an_items_number(named: &str) -> bool {
+    header_says(named, &CODE_WORDS)
+        || header_says(named, &ITEM_NOUNS) && header_says(named, &NUMBER_NOUNS)
+}
 
 /// Header words naming a group of items written once over them.
 const GROUP_WORDS: [&str; 23] = [
@@ -118,7 +134,9 @@ fn fill_rows(
     // own filling would otherwise find alike (two stores' "Rake" under one region).
     for &j in joined[..joined.len() - 1].iter().rev() {
         let named = header.cells.get(j).map_or("", String::as_str);
-        if !header_says(named, &GROUP_WORDS) {
+        // "Vendor SKU", "Supplier item code": an item's number, never filled (an empty code
+        // is no code).
+        if !header_says(named, &GROUP_WORDS) || names_an_items_number(named) {
             continue;
         }
         let others: Vec<usize> = joined.iter().copied().filter(|&o| o != j).collect();
@@ -130,7 +148,7 @@ fn fill_rows(
         let once = rows
             .iter()
             .filter(|r| filled(&r.cells, j))
-            .all(|r| groups.insert(r.cells[j].split_whitespace().collect::<Vec<_>>().join(" ")));
+            .all(|r| groups.insert(spaced(&r.cells[j])));
         if !once {
             continue;
         }
@@ -177,8 +195,8 @@ fn fill_rows(
             (0..cells.len())
                 .filter(|&c| telling(c))
                 .map(|c| match group {
-                    Some(g) if c == j => g.to_string(),
-                    _ => cells[c].split_whitespace().collect::<Vec<_>>().join(" "),
+                    Some(g) if c == j => spaced(g),
+                    _ => spaced(&cells[c]),
                 })
                 .collect()
         };
@@ -216,4 +234,9 @@ fn fill_rows(
         ));
     }
     warnings
+}
+
+/// A cell with its runs of white space made one space, as the builders compare names.
+fn spaced(cell: &str) -> String {
+    cell.split_whitespace().collect::<Vec<_>>().join(" ")
 }
