@@ -254,6 +254,23 @@ fn a_groups_own_row_over_its_items_is_their_subtotal() {
             },
         );
     }
+    // Over one product: kept, and said.
+    check(
+        "Store,Product,2024-01,2024-02,2024-03\nMill Road,,5,6,5\nMill Road,Trowel,5,6,5\n\
+         Oak Lane,Rake,2,2,3\n",
+        Expect {
+            items: Some(vec![
+                ("Mill Road", some(&[5.0, 6.0, 5.0])),
+                ("Mill Road / Trowel", some(&[5.0, 6.0, 5.0])),
+                ("Oak Lane / Rake", some(&[2.0, 2.0, 3.0])),
+            ]),
+            warned: vec![vec![
+                "\"Mill Road\" equals \"Mill Road / Trowel\" in each of the 3 periods",
+                "planned as an item",
+            ]],
+            ..Expect::default()
+        },
+    );
     check(
         "Store,Product,2024-01,2024-02,2024-03\nOak Lane,,9,6,6\nOak Lane,Trowel,3,4,3\n\
          Oak Lane,Rake,2,2,3\n",

@@ -130,6 +130,20 @@ pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
     for sub in subs {
         items.remove(sub.index);
     }
+    // A group's own row over one item only, equal to it ("Mill Road" over "Mill Road /
+    // Trowel"): its total or a coincidence; kept, and said.
+    for i in 0..items.len() {
+        if let Some([only]) = group_row_items(items, i).as_deref() {
+            if let Some(compared) = adds_up(&items[i], &[&items[*only]]) {
+                warnings.push(format!(
+                    "\"{}\" equals \"{}\" in each of the {compared} periods with demand: if it \
+                     is its group's total, take it out of the file, or its demand is ordered \
+                     twice; it is planned as an item",
+                    items[i].name, items[*only].name
+                ));
+            }
+        }
+    }
     let total = total_among(items);
     for i in named_like_totals(items) {
         if total.is_none_or(|t| t.index != i) {
@@ -211,29 +225,10 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
                 }
             }
         }
-        // A group's own row, its lower cells empty ("Oak Lane" with no product, over "Oak
-        // Lane / Trowel" and "Oak Lane / Rake": a report's store row): the items agreeing with
-        // its filled cells and filling its empty ones. Before, such a row was planned as an
-        // item beside its products without a word (a probe of 2026-12-05, review60 13b).
-        // Its first cell filled (the group): an item without a code in front of its
-        // description, or without a store, is no group's row.
-        let cells = &items[i].parts;
-        if cells.first().is_some_and(|c| !c.is_empty()) && cells.iter().any(String::is_empty) {
-            groups.push(
-                (0..items.len())
-                    .filter(|&j| {
-                        j != i
-                            && items[j].parts.len() == cells.len()
-                            && cells.iter().zip(&items[j].parts).all(|(own, other)| {
-                                if own.is_empty() {
-                                    !other.is_empty()
-                                } else {
-                                    own == other
-                                }
-                            })
-                    })
-                    .collect(),
-            );
+        // A group's own row over its items (see `group_row_items`). Before, such a row was
+        // planned as an item beside its products without a word (review60 13b).
+        if let Some(group) = group_row_items(items, i) {
+            groups.push(group);
         }
         // A row or column named with a total's word under the items it adds up ("Garden
         // subtotal", "Total Inventory", "Tools totals" below their group): the run of items
@@ -264,6 +259,32 @@ fn subtotals(items: &[Item]) -> Vec<Subtotal> {
         }
     }
     found
+}
+
+/// Where item `i` is a group's own row, its first cell (the group) filled and some later
+/// ones empty ("Oak Lane" with no product, a report's store row), the items agreeing with its
+/// filled cells and filling its empty ones ("Oak Lane / Trowel", "Oak Lane / Rake"). An item
+/// without a store or a code in front is no group's row.
+fn group_row_items(items: &[Item], i: usize) -> Option<Vec<usize>> {
+    let cells = &items[i].parts;
+    if cells.first().is_none_or(|c| c.is_empty()) || !cells.iter().any(String::is_empty) {
+        return None;
+    }
+    Some(
+        (0..items.len())
+            .filter(|&j| {
+                j != i
+                    && items[j].parts.len() == cells.len()
+                    && cells.iter().zip(&items[j].parts).all(|(own, other)| {
+                        if own.is_empty() {
+                            !other.is_empty()
+                        } else {
+                            own == other
+                        }
+                    })
+            })
+            .collect(),
+    )
 }
 
 /// Whether a name reads as a group's subtotal: it holds "subtotal", or ends with "total",
