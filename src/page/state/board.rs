@@ -22,6 +22,15 @@ use crate::worker::{parse_fault, BoardAsk, BoardItem, BoardRow};
 /// the main thread).
 const FLUSH_MS: u64 = 200;
 
+/// The column of a choice to read the stock table by (`BoardState::table_read_by`) where it
+/// was made of the table `text`: an edited or new table is read by full names again.
+pub(super) fn read_by_for(choice: &Option<(String, String)>, text: &str) -> Option<String> {
+    choice
+        .as_ref()
+        .filter(|(_, chosen_for)| chosen_for == text)
+        .map(|(column, _)| column.clone())
+}
+
 /// The board's signals; `Copy`, handed around by context.
 #[derive(Clone, Copy)]
 pub struct BoardState {
@@ -71,11 +80,7 @@ impl BoardState {
         let table_read_by = RwSignal::new(None::<(String, String)>);
         let table = Memo::new(move |_| {
             table_text.with(|t| {
-                let read_by = table_read_by.with(|c| {
-                    c.as_ref()
-                        .filter(|(_, chosen_for)| chosen_for == t)
-                        .map(|(column, _)| column.clone())
-                });
+                let read_by = table_read_by.with(|c| read_by_for(c, t));
                 (!t.trim().is_empty()).then(|| {
                     intake
                         .report

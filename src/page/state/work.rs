@@ -19,6 +19,7 @@ use morrowcast_work::{SourcedText, Work};
 
 use super::super::board::how_many;
 use super::super::{browser, keep};
+use super::board::read_by_for;
 use super::{BoardState, IntakeState, PlanState, DEMO_SOURCE};
 
 /// The pause after the last change before the desk is written (our choice: typing a number
@@ -394,11 +395,11 @@ impl WorkState {
     pub fn current(&self) -> Work {
         let table = self.board.table_text.get_untracked();
         // The choice of the table as it is (its column checked again when the work opens).
-        let stock_read_by = self.board.table_read_by.with_untracked(|c| {
-            c.as_ref()
-                .filter(|(_, chosen_for)| *chosen_for == table && !table.trim().is_empty())
-                .map(|(column, _)| column.clone())
-        });
+        let stock_read_by = self
+            .board
+            .table_read_by
+            .with_untracked(|c| read_by_for(c, &table))
+            .filter(|_| !table.trim().is_empty());
         Work {
             history: SourcedText {
                 text: self.intake.text.get_untracked(),

@@ -41,8 +41,12 @@ mod parts_in_years;
 mod readings;
 mod unnamed;
 mod year_grid;
+
 use super::{DecimalMark, Item, Layout, RowError};
 use crate::calendar::{Frequency, Period};
+/// Header words naming a place items are sold at (the long layout's readings per place; the
+/// group columns written once).
+pub(crate) use readings::PLACE_WORDS;
 
 /// Longest run of periods one item may span (about 270 years of days).
 pub(crate) const MAX_PERIODS: i64 = 100_000;
@@ -93,6 +97,12 @@ pub(crate) fn agreeing<'w>(n: usize, one: &'w str, many: &'w str) -> &'w str {
 /// totals.rs and the stock table's matching (stock_names.rs) split or build names by it.
 pub(crate) const PART_JOIN: &str = " / ";
 
+/// A cell or name with its runs of white space made one space and its ends trimmed: the form
+/// in which the builders keep names and cells ("Oak  Lane" is "Oak Lane").
+pub(crate) fn spaced(text: &str) -> String {
+    text.split_whitespace().collect::<Vec<_>>().join(" ")
+}
+
 /// A row's cells in the item columns, in their order, white space runs made one space and ""
 /// for an empty cell ([`Item::parts`]); none where fewer than two columns name items.
 pub(crate) fn item_parts(row: &Record, item_columns: &[usize]) -> Vec<String> {
@@ -106,7 +116,7 @@ pub(crate) fn item_parts(row: &Record, item_columns: &[usize]) -> Vec<String> {
             if is_missing(cell) {
                 String::new()
             } else {
-                cell.split_whitespace().collect::<Vec<_>>().join(" ")
+                spaced(cell)
             }
         })
         .collect()

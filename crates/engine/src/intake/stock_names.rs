@@ -493,17 +493,19 @@ pub(crate) fn match_rows(read: Vec<ReadRow>, items: &[&str], names: &ItemNames) 
     for by_a_part in [false, true] {
         for (k, r) in read.iter().enumerate() {
             let line = r.line;
+            // A row left out that a choice to read by one column would read, and as what.
+            let offered = match (&found[k], by_a_part) {
+                (Found::Nowhere | Found::Several(_), false) => {
+                    names.sole_place_of(&r.row.item, r.place)
+                }
+                _ => None,
+            };
+            if let Some((at, item)) = offered {
+                by_sole[at].push((format!("\"{}\" (row {line})", r.row.item), item));
+                continue;
+            }
             let index = match (&found[k], by_a_part) {
                 (Found::Exact(i) | Found::Key(i), false) | (Found::Part(i), true) => *i,
-                (Found::Nowhere | Found::Several(_), false)
-                    if names.sole_place_of(&r.row.item, r.place).is_some() =>
-                {
-                    // What the choice would read it as, so the person can judge each row.
-                    if let Some((at, item)) = names.sole_place_of(&r.row.item, r.place) {
-                        by_sole[at].push((format!("\"{}\" (row {line})", r.row.item), item));
-                    }
-                    continue;
-                }
                 (Found::Nowhere, false) => {
                     let listed = format!("\"{}\" (row {line})", r.row.item);
                     if !names.parts_name_items() && names.is_a_part(&r.row.item) {
@@ -761,9 +763,9 @@ mod tests {
         check_joined(names, items, 1, expected);
     }
 
-    /// [`check`] against items named by `joined` columns.
-    fn check_joined(names: &[&str], items: &[&str], joined: usize, expected: &[&str]) {
-        let read = names
+    /// Rows named `names`, on lines 2, 3, ..., with nothing beside them.
+    fn read_rows(names: &[&str]) -> Vec<ReadRow> {
+        names
             .iter()
             .enumerate()
             .map(|(i, n)| ReadRow {
@@ -776,7 +778,12 @@ mod tests {
                 beside: Vec::new(),
                 place: None,
             })
-            .collect();
+            .collect()
+    }
+
+    /// [`check`] against items named by `joined` columns.
+    fn check_joined(names: &[&str], items: &[&str], joined: usize, expected: &[&str]) {
+        let read = read_rows(names);
         let headers: Vec<String> = (0..joined).map(|k| format!("column {k}")).collect();
         let m = match_rows(read, items, &ItemNames::new(items, &[], &headers, None));
         let mut got: Vec<String> = m.rows.iter().map(|r| r.item.clone()).collect();
@@ -903,24 +910,10 @@ mod tests {
             ],
         );
         // Chosen, the codes name their items alone; the descriptions still do not.
-        let read = ["fg 1", "Rain barrel"]
-            .iter()
-            .enumerate()
-            .map(|(i, n)| ReadRow {
-                line: i + 2,
-                column: "item".into(),
-                row: StockRow {
-                    item: n.to_string(),
-                    ..StockRow::default()
-                },
-                beside: Vec::new(),
-                place: None,
-            })
-            .collect();
         let headers = ["column 0".to_string(), "column 1".to_string()];
         let chosen = ItemNames::new(&shared, &[], &headers, Some(0));
         assert_eq!(chosen.chosen_header(), Some("column 0"));
-        let m = match_rows(read, &shared, &chosen);
+        let m = match_rows(read_rows(&["fg 1", "Rain barrel"]), &shared, &chosen);
         assert_eq!(m.rows.len(), 1);
         assert_eq!(m.rows[0].item, "FG-1 / Birch trellis");
         assert_eq!(m.could_read_by, None);

@@ -27,7 +27,7 @@ use super::number::is_missing;
 use super::table::Plan;
 use super::text::Record;
 use super::totals::total_name;
-use crate::intake::build::{count, listing};
+use crate::intake::build::{count, listing, spaced, PLACE_WORDS};
 use std::collections::{HashMap, HashSet};
 
 /// Header words naming an item's own number beside a group word ("Vendor SKU", "Vendor part
@@ -44,20 +44,9 @@ fn names_an_items_number(named: &str) -> bool {
         || header_says(named, &ITEM_NOUNS) && header_says(named, &NUMBER_NOUNS)
 }
 
-/// Header words naming a group of items written once over them.
-const GROUP_WORDS: [&str; 23] = [
-    "store",
-    "shop",
-    "branch",
-    "location",
-    "site",
-    "outlet",
-    "depot",
-    "warehouse",
-    "centre",
-    "center",
-    "nursery",
-    "region",
+/// Header words naming a group of items written once over them, beside the places items are
+/// sold at (`PLACE_WORDS`, the long layout's list).
+const GROUP_WORDS: [&str; 11] = [
     "category",
     "department",
     "dept",
@@ -136,7 +125,8 @@ fn fill_rows(
         let named = header.cells.get(j).map_or("", String::as_str);
         // "Vendor SKU", "Supplier item code": an item's number, never filled (an empty code
         // is no code).
-        if !header_says(named, &GROUP_WORDS) || names_an_items_number(named) {
+        let names_a_group = header_says(named, &PLACE_WORDS) || header_says(named, &GROUP_WORDS);
+        if !names_a_group || names_an_items_number(named) {
             continue;
         }
         let others: Vec<usize> = joined.iter().copied().filter(|&o| o != j).collect();
@@ -234,9 +224,4 @@ fn fill_rows(
         ));
     }
     warnings
-}
-
-/// A cell with its runs of white space made one space, as the builders compare names.
-fn spaced(cell: &str) -> String {
-    cell.split_whitespace().collect::<Vec<_>>().join(" ")
 }

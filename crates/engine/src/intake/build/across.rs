@@ -10,7 +10,7 @@
 
 use std::collections::HashMap;
 
-use super::{item_parts, period_out_of_run, Builder, PART_JOIN};
+use super::{item_parts, period_out_of_run, spaced, Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::number::is_missing;
 use crate::intake::period::{dotted_month, mostly, read_periods, strong_family, IntegerMeaning};
@@ -121,7 +121,7 @@ impl<'a> Builder<'a> {
                 self.no_item_name(row, &item_columns);
                 continue;
             }
-            let key = name.split_whitespace().collect::<Vec<_>>().join(" ");
+            let key = spaced(&name);
             if let Some(first) = seen.get(&key) {
                 let message = format!(
                     "expected each item on one row; \"{name}\" is also on line {first}: this row \

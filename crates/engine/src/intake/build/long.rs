@@ -12,7 +12,8 @@ use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
 use super::{
-    count, item_parts, lines, listing, period_out_of_run, Builder, LongRow, MAX_PERIODS, PART_JOIN,
+    count, item_parts, lines, listing, period_out_of_run, spaced, Builder, LongRow, MAX_PERIODS,
+    PART_JOIN,
 };
 use crate::calendar::Period;
 use crate::intake::number::{is_missing, MAX_MAGNITUDE};
@@ -595,8 +596,7 @@ pub(super) fn item_key(row: &Record, item_columns: &[usize]) -> Option<String> {
 }
 
 fn group_name(item: &LongItem<'_>, j: usize) -> String {
-    let cell = item.rows[0].2.cells.get(j).map_or("", String::as_str);
-    cell.split_whitespace().collect::<Vec<_>>().join(" ")
+    spaced(item.rows[0].2.cells.get(j).map_or("", String::as_str))
 }
 
 /// The form in which names are compared: white space runs as one space, ends trimmed, lower

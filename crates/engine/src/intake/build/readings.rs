@@ -25,7 +25,7 @@ use crate::calendar::{Frequency, Period};
 use crate::intake::headers::header_says;
 
 /// Header words naming a place items are sold at (common practice in exported tables).
-const PLACE_WORDS: [&str; 12] = [
+pub(crate) const PLACE_WORDS: [&str; 12] = [
     "store",
     "shop",
     "branch",

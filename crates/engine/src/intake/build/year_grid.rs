@@ -14,7 +14,7 @@
 use std::collections::HashMap;
 
 use super::long::{item_name, name_key};
-use super::{item_parts, Builder, PART_JOIN};
+use super::{item_parts, spaced, Builder, PART_JOIN};
 use crate::calendar::Period;
 use crate::intake::text::Record;
 use crate::intake::totals::total_name;
@@ -113,7 +113,7 @@ impl<'a> Builder<'a> {
             // Names that differ only in white space or case are one item, as in long tables.
             let at = *index.entry(name_key(&name)).or_insert_with(|| {
                 items_rows.push(ItemRows {
-                    name: name.split_whitespace().collect::<Vec<_>>().join(" "),
+                    name: spaced(&name),
                     rows: Vec::new(),
                     spellings: Vec::new(),
                 });
