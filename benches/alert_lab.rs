@@ -13,6 +13,10 @@
 //!
 //! Run: `cargo bench --bench alert_lab [-- --count 200] [--outliers]` (about a minute each).
 
+// Native only: the rule that sorts go through morrowcast_engine::sorting (clippy.toml) keeps
+// the wasm small and does not bind benchmarks and tests.
+#![allow(clippy::disallowed_methods)]
+
 use morrowcast_engine::alerts::{alerts, lean_over, outlier_cut, outliers, AlertKind};
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::plan::{plan_item, ItemPlan};

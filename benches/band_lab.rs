@@ -16,6 +16,10 @@
 //!
 //! Run: `cargo bench --bench band_lab [-- --subset YEARLY --limit 200]` (a few minutes).
 
+// Native only: the rule that sorts go through morrowcast_engine::sorting (clippy.toml) keeps
+// the wasm small and does not bind benchmarks and tests.
+#![allow(clippy::disallowed_methods)]
+
 use std::collections::BTreeMap;
 
 use morrowcast_engine::backtest;

@@ -11,6 +11,10 @@
 //! The series are synthetic (level, trend, multiplicative season, noise) from a seeded
 //! generator: benchmark input only, never a check value.
 
+// Native only: the rule that sorts go through morrowcast_engine::sorting (clippy.toml) keeps
+// the wasm small and does not bind benchmarks and tests.
+#![allow(clippy::disallowed_methods)]
+
 use std::fmt::Write;
 use std::time::Instant;
 

@@ -24,6 +24,10 @@
 //! Run: `cargo bench --bench stock_lab [-- --count 300]` (about a minute). The README records
 //! what it showed.
 
+// Native only: the rule that sorts go through morrowcast_engine::sorting (clippy.toml) keeps
+// the wasm small and does not bind benchmarks and tests.
+#![allow(clippy::disallowed_methods)]
+
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::plan::plan_item;
 use morrowcast_engine::series::Series;

@@ -9,6 +9,7 @@ use std::cmp::Ordering;
 use morrowcast_engine::alerts::AlertKind;
 use morrowcast_engine::calendar::Period;
 use morrowcast_engine::lookback::{LookBack, LookBackTally, Outcome, StockCheck};
+use morrowcast_engine::sorting;
 use morrowcast_engine::stock::Target;
 
 use crate::worker::{BoardFigures, BoardRow};
@@ -127,7 +128,7 @@ fn text(row: &BoardRow, key: SortKey) -> String {
 /// either direction, and ties keep the file's order.
 pub fn sort_rows(rows: &mut [&BoardRow], key: SortKey, descending: bool) {
     let by_file = |a: &BoardRow, b: &BoardRow| a.index.cmp(&b.index);
-    rows.sort_by(|a, b| {
+    sorting::sort_by(rows, |a, b| {
         // Items without figures go last whatever the column (but by name they sort as names,
         // and by the Look-back as their Look-back: it stands without today's figures).
         let failed_last = b.figures.is_ok().cmp(&a.figures.is_ok());

@@ -10,6 +10,7 @@ use std::io::Read;
 
 use morrowcast_engine::intake;
 use morrowcast_engine::settings::PlanSettings;
+use morrowcast_engine::sorting;
 use morrowcast_engine::stock::StockSettings;
 use morrowcast_work::{SourcedText, Work};
 
@@ -327,7 +328,7 @@ fn read_input(file: &str, stdin: &mut dyn Read) -> Result<Vec<u8>, String> {
 /// "lines 2 to 4, 9, 12 and 3 more" (a long table's rows of one period lie apart).
 fn skipped_lines(rows: &[usize]) -> String {
     let mut sorted = rows.to_vec();
-    sorted.sort_unstable();
+    sorting::sort(&mut sorted);
     sorted.dedup();
     let mut runs: Vec<String> = Vec::new();
     let mut i = 0;

@@ -18,6 +18,7 @@
 //! holdout forecasts are those of the model the criterion picks at each origin, from the fits
 //! made there anyway.
 
+use crate::sorting;
 use std::fmt;
 
 use crate::accuracy::{self, ledger, mase_scale, LedgerRow, Measures};
@@ -615,14 +616,14 @@ pub fn run_observed(
 
 /// Sorts best first; unavailable scores last; ties keep the candidate order (simpler first).
 fn sort_ranking(scored: &mut [Scored], rank_by: RankBy) {
-    scored.sort_by(
-        |a, b| match (rank_by.score(&a.measures), rank_by.score(&b.measures)) {
+    sorting::sort_by(scored, |a, b| {
+        match (rank_by.score(&a.measures), rank_by.score(&b.measures)) {
             (Some(x), Some(y)) => x.total_cmp(&y),
             (Some(_), None) => std::cmp::Ordering::Less,
             (None, Some(_)) => std::cmp::Ordering::Greater,
             (None, None) => a.measures.rmse.total_cmp(&b.measures.rmse),
-        },
-    );
+        }
+    });
 }
 
 /// The training ends of the rolling origins used for empirical bands: the `max_origins` latest
@@ -649,7 +650,7 @@ pub fn band_origins(
         }
         partial += 1;
     }
-    ends.sort_unstable();
+    sorting::sort(&mut ends);
     ends
 }
 

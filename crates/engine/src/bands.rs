@@ -15,6 +15,7 @@
 //!
 //! z = Φ⁻¹(1 - (1 - level)/2) from statrs. Bands of non-negative demand stop at zero.
 
+use crate::sorting;
 use std::fmt;
 
 use statrs::distribution::{ContinuousCDF, Normal, StudentsT};
@@ -277,7 +278,7 @@ fn own_quantile(errors: &[f64], level: Level) -> Option<f64> {
         return None;
     }
     let mut sizes: Vec<f64> = errors.iter().map(|e| e.abs()).collect();
-    sizes.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut sizes, f64::total_cmp);
     let rank = ((k + 1.0) * p).ceil() as usize;
     sizes.get(rank.clamp(1, sizes.len()) - 1).copied()
 }

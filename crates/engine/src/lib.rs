@@ -54,4 +54,5 @@ pub mod patterns;
 pub mod plan;
 pub mod series;
 pub mod settings;
+pub mod sorting;
 pub mod stock;

@@ -15,6 +15,7 @@ use morrowcast_engine::backtest::RankBy;
 use morrowcast_engine::bands::BandMethod;
 use morrowcast_engine::lookback::MOST_PERIODS_SHOWN;
 use morrowcast_engine::settings::{Choice, SeasonChoice, SettingsText};
+use morrowcast_engine::sorting;
 use morrowcast_engine::stock::{read_lead_time, StockText, Target, TargetKind};
 use serde::{Deserialize, Serialize};
 
@@ -184,11 +185,8 @@ pub fn to_json(work: &Work, pretty: bool) -> String {
             order_quantity: k.order_quantity.clone(),
         },
         stock_table: work.stock_table.as_ref().map(text_json),
-        item_changes: work
-            .changes
-            .iter()
-            .filter(|(_, c)| !c.is_empty())
-            .map(|(name, c)| {
+        item_changes: sorting::map_of(work.changes.iter().filter(|(_, c)| !c.is_empty()).map(
+            |(name, c)| {
                 let change = ChangeJson {
                     lead_time: c.lead_time,
                     target: c.target.map(target_json),
@@ -196,8 +194,8 @@ pub fn to_json(work: &Work, pretty: bool) -> String {
                     method: c.method.as_ref().map(choice_key),
                 };
                 (name.clone(), change)
-            })
-            .collect(),
+            },
+        )),
         open_item: work.open_item.clone(),
         look_back: work.look_back,
         stock_table_read_by: work.stock_read_by.clone(),

@@ -15,6 +15,7 @@ pub use outliers::{
 use crate::calendar::Frequency;
 use crate::plan::ItemPlan;
 use crate::series::Series;
+use crate::sorting;
 
 /// What an alert is about (for filtering; the reason says the rest).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
@@ -132,7 +133,7 @@ pub fn bias_limit(n: usize) -> Option<f64> {
 
 /// The median of `values`; `None` when empty.
 fn median(mut values: Vec<f64>) -> Option<f64> {
-    values.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut values, f64::total_cmp);
     crate::bands::quantile_sorted(&values, 0.5)
 }
 

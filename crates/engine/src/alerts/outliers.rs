@@ -6,6 +6,7 @@
 
 use crate::plan::ItemPlan;
 use crate::series::Series;
+use crate::sorting;
 
 /// Modified z-score beyond which a one-step error is an outlier: 3.5 (Iglewicz & Hoaglin 1993,
 /// "How to detect and handle outliers"), with z = 0.6745 (e - median) / MAD over the errors;
@@ -89,7 +90,7 @@ pub fn spread_power(pairs: &[(f64, f64)]) -> f64 {
     }
     let floor = size_floor(pairs);
     let mut sorted = pairs.to_vec();
-    sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
+    sorting::sort_by(&mut sorted, |a, b| a.0.total_cmp(&b.0));
     let (low, high) = (&sorted[..third], &sorted[sorted.len() - third..]);
     let median_of = |part: &[(f64, f64)], pick: &dyn Fn(&(f64, f64)) -> f64| {
         super::median(part.iter().map(pick).collect()).unwrap_or(0.0)

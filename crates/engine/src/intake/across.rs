@@ -30,6 +30,7 @@ use super::period::{dotted_month, integer_meaning, mostly, strong_family, Intege
 use super::table::{names_item, whole_number, Plan};
 use super::text::Record;
 use super::RowError;
+use crate::sorting;
 
 /// The number of item columns when `record` is a header across, else `None`.
 fn item_columns(record: &Record) -> Option<usize> {
@@ -64,7 +65,7 @@ fn item_columns(record: &Record) -> Option<usize> {
         || (labels.iter().all(|c| c.len() == 4 && whole_number(c))
             && integer_meaning(&labels, true) == Some(IntegerMeaning::Years));
     let mut distinct = labels.clone();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let mostly = labels.len() * 2 > rest.len();
     (lead >= 1 && labels.len() >= 2 && periods && mostly && distinct.len() == labels.len())
@@ -195,7 +196,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     // and the table is a grid of those items' values (refused below).
     let names = table.column(0, &rows);
     let mut distinct = names.clone();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let unique_names = distinct.len() == names.len();
     let details: Vec<usize> = item_columns

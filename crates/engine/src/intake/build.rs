@@ -23,6 +23,7 @@
 //! [`SLOTS_PER_ROW`] slots per row read; an item that would pass that is an error, not read.
 //! So reading takes time and memory proportional to the text.
 
+use crate::sorting;
 use std::collections::{HashMap, HashSet};
 
 use super::frame::{wide_row_error, Table};
@@ -232,7 +233,7 @@ fn first_values(table: &Table, rows: &[&Record], column: usize) -> String {
         .into_iter()
         .filter(|c| !c.is_empty())
         .collect();
-    words.sort_unstable();
+    sorting::sort(&mut words);
     words.dedup();
     let shown: Vec<String> = words.iter().take(3).map(|w| format!("\"{w}\"")).collect();
     let more = if words.len() > 3 { ", ..." } else { "" };
@@ -336,7 +337,7 @@ fn closed_places(present: &[bool], start: Period) -> Vec<usize> {
             .map(|(t, _)| t)
             .collect();
     let mut places: Vec<usize> = closed.iter().map(|t| t % season).collect();
-    places.sort_unstable();
+    sorting::sort(&mut places);
     places.dedup();
     if 2 * places.len() >= season {
         return Vec::new();
@@ -672,7 +673,7 @@ pub(crate) fn build(table: &Table, plan: &Plan, mark: DecimalMark, ambiguous_dot
             .zip(&col.periods)
             .filter_map(|(row, p)| p.map(|period| Entry { period, row }))
             .collect();
-        named.sort_by_key(|e| (e.period, e.row.line));
+        sorting::sort_by_key(&mut named, |e| (e.period, e.row.line));
         named.dedup_by_key(|e| e.period);
         let step = named.get(..2).map(|w| w[0].period.steps_to(w[1].period));
         let several_items = || {
@@ -958,7 +959,7 @@ impl<'a> Builder<'a> {
             rest.into_iter().partition(|p| *p > last);
         if !inner.is_empty() {
             let cells = inner.len();
-            inner.sort();
+            sorting::sort(&mut inner);
             inner.dedup();
             let periods: Vec<String> = inner.iter().map(Period::to_string).collect();
             self.empty_cells_read_as_gaps(name, cells, &periods);
@@ -984,7 +985,7 @@ impl<'a> Builder<'a> {
             return;
         }
         let n = cells.len();
-        cells.sort();
+        sorting::sort(&mut cells);
         cells.dedup();
         let (side, meaning) = if end == "first" {
             (
@@ -1021,7 +1022,7 @@ impl<'a> Builder<'a> {
             ahead.extend(beyond);
             self.outside_the_history(&name, within, last, "last");
         }
-        ahead.sort();
+        sorting::sort(&mut ahead);
         ahead.dedup();
         if !ahead.is_empty() {
             self.out.warnings.push(format!(
@@ -1069,7 +1070,7 @@ impl<'a> Builder<'a> {
                 odd.row.line, odd.period, beside.row.line, beside.period
             ));
         }
-        entries.sort_by_key(|e| e.period);
+        sorting::sort_by_key(&mut entries, |e| e.period);
         let period_column = self.plan.period.map_or(0, |(p, _)| p);
         let mut unique: Vec<Entry<'a>> = Vec::with_capacity(entries.len());
         // Rows of a day already taken whose time of day tells them apart: added to it. The

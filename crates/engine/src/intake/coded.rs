@@ -28,6 +28,7 @@ use super::label::{parse_label, Family};
 use super::number::{is_missing, looks_number};
 use super::table::whole_number;
 use super::text::Record;
+use crate::sorting;
 
 /// The index in `candidates` of a header naming items by number codes, given the table's test
 /// of a data record; `None` when neither the first data-like record (codes alone read as data)
@@ -57,7 +58,7 @@ fn coded(record: &Record, next: &Record, data_like: &impl Fn(&Record) -> bool) -
     let header_cells = item_cells(record);
     let codes = codes(record);
     let mut values: Vec<u64> = codes.iter().filter_map(|c| c.parse().ok()).collect();
-    values.sort_unstable();
+    sorting::sort(&mut values);
     values.dedup();
     // Names beside the codes ("00124" beside "Frost cloth"): cells that read as nothing else.
     let named = |c: &&str| !looks_number(c) && parse_label(c).is_none();

@@ -19,6 +19,7 @@ use super::label::Label;
 use crate::calendar::{
     civil_from_days, days_from_civil, days_in_month, is_valid_date, Frequency, Period,
 };
+use crate::sorting;
 
 /// The day number of a two-way date (`a/b/year`) read day-first or month-first; `None` when
 /// that reading is no date.
@@ -33,7 +34,7 @@ pub(crate) fn two_way_days(label: Label, day_first: bool) -> Option<i64> {
 /// The frequency implied by a set of dates (day numbers); see the module doc.
 pub(crate) fn infer_frequency(days: &[i64]) -> Frequency {
     let mut distinct = days.to_vec();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let civil: Vec<(i32, u32, u32)> = distinct.iter().map(|d| civil_from_days(*d)).collect();
     let Some(&(_, _, first_day)) = civil.first() else {

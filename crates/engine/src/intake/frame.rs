@@ -31,6 +31,7 @@
 use super::number::{is_missing, looks_number};
 use super::text::{mode_of, Record};
 use super::RowError;
+use crate::sorting;
 
 /// How far down a header or title line is looked for.
 const HEADER_SEARCH: usize = 6;
@@ -133,7 +134,7 @@ pub(crate) fn wide_row_error(table: &Table, row: &Record) -> Option<RowError> {
 /// widen the table and pass unreported.
 fn mode_preferring_narrow(widths: &[usize]) -> (usize, usize) {
     let mut sorted = widths.to_vec();
-    sorted.sort_unstable();
+    sorting::sort(&mut sorted);
     let mut best = (0usize, 0usize);
     for run in sorted.chunk_by(|a, b| a == b) {
         if run.len() > best.1 {
@@ -146,7 +147,7 @@ fn mode_preferring_narrow(widths: &[usize]) -> (usize, usize) {
 pub(super) fn all_distinct(cells: &[&str]) -> bool {
     let mut filled: Vec<&str> = cells.iter().copied().filter(|c| !c.is_empty()).collect();
     let count = filled.len();
-    filled.sort_unstable();
+    sorting::sort(&mut filled);
     filled.dedup();
     count >= 2 && filled.len() == count
 }

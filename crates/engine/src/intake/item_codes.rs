@@ -10,6 +10,7 @@ use super::period::integer_meaning;
 use super::shapes::codes_recur;
 use super::table::{columns_of, named_items, once_per_period, whole_number, PeriodColumn};
 use super::text::Record;
+use crate::sorting;
 
 /// Beside text item columns `names` and a period column (`periods`, its cells), the number
 /// columns whose header names an item or store ([`named_items`]) that the items need: where the
@@ -143,7 +144,7 @@ fn distinct_rows(columns: &[Vec<&str>]) -> usize {
     let mut keys: Vec<Vec<&str>> = (0..rows)
         .map(|i| columns.iter().map(|c| c[i]).collect())
         .collect();
-    keys.sort_unstable();
+    sorting::sort(&mut keys);
     keys.dedup();
     keys.len()
 }

@@ -8,6 +8,7 @@
 //! nothing is left out and the error says why: rows can be the only ones showing the date
 //! order or the decimal mark, and leaving them out would read the rest otherwise, unsaid.
 
+use crate::sorting;
 use std::fmt;
 
 use super::{read, text, Delimiter, IntakeReport};
@@ -50,7 +51,7 @@ pub fn leave_out_rows(text: &str, rows: &[usize]) -> String {
     // At least the text's lines (a CRLF counts twice here): the last record's end.
     let lines_of_text = body.split(['\n', '\r']).count() + 1;
     let mut wanted = rows.to_vec();
-    wanted.sort_unstable();
+    sorting::sort(&mut wanted);
     for (i, record) in records.iter().enumerate() {
         if wanted.binary_search(&record.line).is_ok() {
             let end = records.get(i + 1).map_or(lines_of_text, |next| next.line);

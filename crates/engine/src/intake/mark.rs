@@ -5,6 +5,7 @@
 
 use super::number::parse_number;
 use super::{DecimalMark, Delimiter};
+use crate::sorting;
 
 /// What one cell says about the file's decimal mark.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -154,7 +155,7 @@ pub(crate) fn thousands_dots(cells: &[&str]) -> Vec<(usize, f64, f64)> {
     if others.len() < 3 {
         return Vec::new();
     }
-    others.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut others, f64::total_cmp);
     let median = others[others.len() / 2];
     cells
         .iter()

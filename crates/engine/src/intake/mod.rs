@@ -161,6 +161,7 @@ pub use unfinished::UnfinishedPeriod;
 
 use crate::calendar::{Frequency, Period};
 use crate::series::{Series, SeriesError};
+use crate::sorting;
 
 /// The field separator found.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -369,7 +370,7 @@ fn report_of(decoded: &decode::Decoded) -> IntakeReport {
     let mut report = read_text(&decoded.text);
     report.warnings.extend(decoded.assumed.clone());
     report.errors.extend(decode::all_errors(decoded));
-    report.errors.sort_by_key(|e| e.row);
+    sorting::sort_by_key(&mut report.errors, |e| e.row);
     header_read_as_data(&mut report);
     report
 }
@@ -469,7 +470,7 @@ pub fn stock_table_text(bytes: &[u8]) -> Result<FileText, String> {
 pub fn read(text: &str) -> IntakeReport {
     let mut report = read_text(text);
     report.errors.extend(decode::replacement_marks(text));
-    report.errors.sort_by_key(|e| e.row);
+    sorting::sort_by_key(&mut report.errors, |e| e.row);
     header_read_as_data(&mut report);
     report
 }
@@ -689,6 +690,6 @@ fn read_text(text: &str) -> IntakeReport {
     // After the reading's own notes: it speaks of the items they describe.
     report.warnings.extend(unfinished_warning);
     report.errors.extend(built.errors);
-    report.errors.sort_by_key(|e| e.row);
+    sorting::sort_by_key(&mut report.errors, |e| e.row);
     report
 }

@@ -23,6 +23,7 @@
 //! Kept apart from: the frequency dates imply by their steps ([`super::dates`]) and how the
 //! period reader uses what is found here ([`super::regroup`]).
 
+use crate::sorting;
 use std::collections::{BTreeMap, BTreeSet};
 
 use super::dates::{date_period, gcd, infer_frequency};
@@ -98,7 +99,7 @@ pub(crate) fn one_a_month(
     days: &[Option<i64>],
     series: Option<&[Option<String>]>,
 ) -> Option<OneAMonth> {
-    let distinct: BTreeSet<i64> = days.iter().flatten().copied().collect();
+    let distinct: BTreeSet<i64> = sorting::set_of(days.iter().flatten().copied());
     let (from_end, lo) = best_window(&distinct)?;
     let place = |d: i64| place_in_month(d, from_end);
     let in_window = |d: i64| (lo..=lo + MONTH_DAY_SPREAD).contains(&place(d));
@@ -130,10 +131,7 @@ pub(crate) fn one_a_month(
             })
             .or_insert(d);
     }
-    let anchors: Vec<i64> = chosen
-        .values()
-        .copied()
-        .collect::<BTreeSet<_>>()
+    let anchors: Vec<i64> = sorting::set_of(chosen.values().copied())
         .into_iter()
         .collect();
     let off: Vec<i64> = distinct
@@ -163,10 +161,7 @@ pub(crate) fn one_a_month(
     if infer_frequency(&anchors) == Frequency::Weekly && !sparse_weeks {
         return None;
     }
-    let mut months: Vec<i64> = anchors
-        .iter()
-        .map(|d| month(*d))
-        .collect::<BTreeSet<_>>()
+    let mut months: Vec<i64> = sorting::set_of(anchors.iter().map(|d| month(*d)))
         .into_iter()
         .collect();
     let mut step = months.windows(2).fold(0, |g, w| gcd(g, w[1] - w[0]));

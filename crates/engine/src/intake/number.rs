@@ -34,6 +34,7 @@
 //! one of them never turns a column of quantities into item names.
 
 use super::DecimalMark;
+use crate::sorting;
 
 /// A number read from a cell, with the currency symbol or unit removed from it, if any.
 #[derive(Clone, Debug, PartialEq)]
@@ -408,7 +409,7 @@ fn parse_core(core: &str, exponent: Option<&str>, mark: DecimalMark) -> Result<f
             .filter(|c| !c.is_ascii_digit())
             .map(|c| if is_group_space(c) { ' ' } else { c })
             .collect();
-        kinds.sort_unstable();
+        sorting::sort(&mut kinds);
         kinds.dedup();
         kinds
     };

@@ -16,6 +16,7 @@ use super::dates::{date_period, infer_frequency, two_way_days};
 use super::label::Label;
 use super::month_days::one_a_month;
 use crate::calendar::{civil_from_days, Frequency};
+use crate::sorting;
 
 /// The decided order of two-way dates.
 pub(crate) struct Order {
@@ -151,7 +152,7 @@ fn is_regular(days: &[i64]) -> bool {
         .iter()
         .map(|d| date_period(*d, frequency).ordinal())
         .collect();
-    ordinals.sort_unstable();
+    sorting::sort(&mut ordinals);
     ordinals.dedup();
     ordinals.windows(2).all(|w| w[1] - w[0] == 1)
 }

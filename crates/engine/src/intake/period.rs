@@ -32,6 +32,7 @@
 //!   to that size are filled, with a warning listing them. For dates the frequency is then
 //!   inferred again from the dates kept.
 
+use crate::sorting;
 use std::ops::RangeInclusive;
 
 use super::dates::{date_period, infer_frequency, two_way_days};
@@ -146,10 +147,10 @@ pub(crate) fn integer_meaning(cells: &[&str], in_row_order: bool) -> Option<Inte
 /// do, even with a typo far away; scattered quantities do not.
 pub(crate) fn close(values: &[i64], step: i64) -> bool {
     let mut distinct = values.to_vec();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let mut steps: Vec<i64> = distinct.windows(2).map(|w| w[1] - w[0]).collect();
-    steps.sort_unstable();
+    sorting::sort(&mut steps);
     steps
         .get(steps.len().saturating_sub(1) / 2)
         .is_none_or(|s| *s <= step)
@@ -251,7 +252,7 @@ pub(crate) fn dotted_labels(cells: &[&str]) -> bool {
     match keys {
         Some(keys) if keys.len() >= 3 => {
             let mut distinct = keys;
-            distinct.sort_unstable();
+            sorting::sort(&mut distinct);
             distinct.dedup();
             distinct.len() >= 3 && close(&distinct, 1)
         }
@@ -711,7 +712,7 @@ pub(super) const WEEKDAY_NAMES: [&str; 7] = [
 /// holiday beside one), a slow item sold on some Saturdays.
 fn off_weekday(days: &[Option<i64>]) -> Vec<(usize, i64)> {
     let mut distinct: Vec<i64> = days.iter().flatten().copied().collect();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     if distinct.len() < 8 {
         return Vec::new();
@@ -778,7 +779,7 @@ fn typo_gap_floor(frequency: Frequency) -> usize {
 /// The periods far from all the others (the module doc's rule), as (index, what was expected).
 pub(crate) fn stray_periods(periods: &[Option<Period>]) -> Vec<(usize, String)> {
     let mut distinct: Vec<Period> = periods.iter().flatten().copied().collect();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let Some(first) = distinct.first() else {
         return Vec::new();
@@ -835,7 +836,7 @@ fn majority_family(labels: &[Option<Label>]) -> Option<Family> {
             None => counts.push((label.family(), 1)),
         }
     }
-    counts.sort_by_key(|(f, n)| (std::cmp::Reverse(*n), *f));
+    sorting::sort_by_key(&mut counts, |(f, n)| (std::cmp::Reverse(*n), *f));
     counts.first().map(|(f, _)| *f)
 }
 

@@ -17,6 +17,7 @@
 //! ([`super::period`]), which asks [`regroup`] before it looks for stray periods, so that a
 //! closed season's gap is counted in months, not days.
 
+use crate::sorting;
 use std::collections::{BTreeMap, BTreeSet};
 
 use super::dates::{date_period, gcd};
@@ -76,12 +77,12 @@ pub(crate) fn regroup(
     )];
     // Without an item column (one row per period), a date off the pattern in a period that
     // has its row cannot be added to it: refused at its row, below.
-    let taken: BTreeSet<Period> = days
-        .iter()
-        .flatten()
-        .filter(|d| !found.off.contains(d) && !found.misplaced.contains(d))
-        .map(|d| date_period(*d, by))
-        .collect();
+    let taken: BTreeSet<Period> = sorting::set_of(
+        days.iter()
+            .flatten()
+            .filter(|d| !found.off.contains(d) && !found.misplaced.contains(d))
+            .map(|d| date_period(*d, by)),
+    );
     let refused =
         |d: i64| series.is_none() && found.off.contains(&d) && taken.contains(&date_period(d, by));
     // A date off the pattern in the first days of a period whose dates fall at its end (or
@@ -91,14 +92,11 @@ pub(crate) fn regroup(
     // Each item's periods held by its dates on the pattern: a date off it in a period
     // without one (a typo, 06-03 for 06-30) is read into that period as before.
     let key_of = |i: usize| series.and_then(|s| s.get(i)).and_then(|k| k.as_deref());
-    let held: BTreeSet<(Option<&str>, Period)> = days
-        .iter()
-        .enumerate()
-        .filter_map(|(i, d)| {
+    let held: BTreeSet<(Option<&str>, Period)> =
+        sorting::set_of(days.iter().enumerate().filter_map(|(i, d)| {
             let d = (*d)?;
             (!found.off.contains(&d)).then(|| (key_of(i), date_period(d, by)))
-        })
-        .collect();
+        }));
     let filed_off = |i: usize, d: i64| {
         let (y, m, day) = civil_from_days(d);
         let within = crate::intake::month_days::MONTH_DAY_SPREAD + 1;
@@ -231,7 +229,7 @@ fn weeks_of_items(
     let mut usual: BTreeMap<&str, u32> = BTreeMap::new();
     let mut moved: Vec<(i64, i64)> = Vec::new();
     for (key, dates) in by_item.iter_mut() {
-        dates.sort_unstable();
+        sorting::sort(dates);
         dates.dedup();
         if dates.len() < 2 {
             continue;
@@ -241,7 +239,7 @@ fn weeks_of_items(
         // off the item's weekday in the week of the usual day it stands in for.
         let week = |d: i64| (stands_for(d, day) + 3).div_euclid(7);
         let mut weeks: Vec<i64> = dates.iter().map(|d| week(*d)).collect();
-        weeks.sort_unstable();
+        sorting::sort(&mut weeks);
         weeks.dedup();
         if weeks.len() < dates.len() {
             return None;
@@ -265,7 +263,7 @@ fn weeks_of_items(
     if regular + irregular < 2 || long_enough < 1 || irregular > regular || weekdays.len() < 2 {
         return None;
     }
-    weekdays.sort_by_key(|(w, n)| (std::cmp::Reverse(*n), *w));
+    sorting::sort_by_key(&mut weekdays, |(w, n)| (std::cmp::Reverse(*n), *w));
     // Each row's date as the day of its own item's weekday it stands for.
     let placed: Vec<Option<i64>> = days
         .iter()
@@ -301,7 +299,7 @@ fn weeks_of_items(
         each.join(", ")
     )];
     if !moved.is_empty() {
-        moved.sort_unstable();
+        sorting::sort(&mut moved);
         moved.dedup();
         let said: Vec<String> = moved
             .iter()
@@ -409,7 +407,7 @@ fn leave_out_unfinished_week(
         )
     };
     let mut names: Vec<&str> = waiting.iter().map(|w| WEEKDAY_NAMES[*w as usize]).collect();
-    names.sort_unstable();
+    sorting::sort(&mut names);
     names.dedup();
     Some(format!(
         "the last week, {last_week}, was left out ({rows} row(s)): the file ends on {} {}, \

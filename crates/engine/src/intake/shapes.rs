@@ -9,6 +9,7 @@
 //! which ordinary tables it must leave alone, and `tests/intake/sales_reports.rs` holds both
 //! sides.
 
+use crate::sorting;
 use std::collections::HashMap;
 
 use super::frame::{all_distinct, Table};
@@ -239,7 +240,7 @@ pub(super) fn sale_details(
         }
         let codes = period_of.keys().filter(|c| is_code(c)).count();
         let mut spanned: Vec<&str> = period_of.values().copied().collect();
-        spanned.sort_unstable();
+        sorting::sort(&mut spanned);
         spanned.dedup();
         (codes * 10 >= period_of.len() * 9 && period_of.len() > spanned.len())
             .then_some((period_of.len(), spanned.len()))
@@ -281,7 +282,7 @@ pub(super) fn sale_details(
                 .collect()
         })
         .collect();
-    keys.sort_unstable();
+    sorting::sort(&mut keys);
     keys.dedup();
     if keys.len() * 2 > rows.len() {
         return Vec::new();
@@ -576,7 +577,7 @@ pub(super) fn names_no_demand(name: &str) -> bool {
 /// rows on average; a code changing within most runs.
 pub(super) fn codes_recur(codes: &[&str], periods: &[&str]) -> bool {
     let mut sorted = periods.to_vec();
-    sorted.sort_unstable();
+    sorting::sort(&mut sorted);
     let distinct = sorted.chunk_by(|a, b| a == b).count();
     let repeating = sorted
         .chunk_by(|a, b| a == b)

@@ -45,6 +45,7 @@ use super::stock_names::{match_rows, quoted_together, Beside, ItemNames, ReadRow
 use super::text::{delimiter_char, sniff_delimiter, strip_bom, tokenize};
 use super::{DecimalMark, Delimiter, IntakeReport, RowError};
 use crate::calendar::Frequency;
+use crate::sorting;
 use crate::stock::{service_fraction_of, Target, MAX_PERIODS};
 use std::collections::HashSet;
 
@@ -183,7 +184,7 @@ fn from_decoded(
     let mut table = read_text(&decoded.text, history, read_by);
     table.warnings.extend(decoded.assumed.clone());
     table.errors.extend(decode::all_errors(decoded));
-    table.errors.sort_by_key(|e| e.row);
+    sorting::sort_by_key(&mut table.errors, |e| e.row);
     table
 }
 

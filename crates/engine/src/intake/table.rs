@@ -74,6 +74,7 @@ use super::text::Record;
 use super::words::{weekday_shortened, WEEKDAY_WORDS, WEEK_WORDS, YEAR_WORDS};
 use super::year_grid::{without_a_year, Columns, YearGrid};
 use super::{Layout, RowError};
+use crate::sorting;
 
 /// A period column's index and, when it holds whole numbers, how they are read.
 pub(crate) type PeriodColumn = (usize, Option<IntegerMeaning>);
@@ -403,7 +404,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
         values.retain(|j| !named_periods.contains(j));
         calendar.extend(named_periods);
     }
-    calendar.sort_unstable();
+    sorting::sort(&mut calendar);
     // Beside the quantities of a single or wide table, a price or an order number is no item
     // (`Date,Unit price,Sales units`); a long table chooses its quantity by the same words.
     let value_names: Vec<String> = values.iter().map(|j| table.column_name(*j)).collect();
@@ -522,7 +523,7 @@ pub(crate) fn plan(table: &Table) -> Result<Plan, RowError> {
     } else {
         Layout::Wide
     };
-    ignored.sort_unstable();
+    sorting::sort(&mut ignored);
     let empty = (0..roles.len())
         .filter(|j| roles[*j] == Role::Empty)
         .collect();
@@ -614,7 +615,7 @@ pub(super) fn once_per_period(columns: &[Vec<&str>], periods: &[&str]) -> bool {
         .map(|i| (columns.iter().map(|c| c[i]).collect(), periods[i]))
         .collect();
     let count = pairs.len();
-    pairs.sort_unstable();
+    sorting::sort(&mut pairs);
     pairs.dedup();
     pairs.len() == count
 }

@@ -25,6 +25,7 @@
 //! from, so that later steps can say when two spellings of one name differ only in spaces.
 
 use super::Delimiter;
+use crate::sorting;
 
 /// One record of raw cells and where it starts.
 #[derive(Clone, Debug, PartialEq)]
@@ -305,7 +306,7 @@ pub(crate) fn sniff_delimiter(text: &str) -> Option<Delimiter> {
 /// empty.
 pub(crate) fn mode_of(values: &[usize]) -> (usize, usize) {
     let mut sorted = values.to_vec();
-    sorted.sort_unstable();
+    sorting::sort(&mut sorted);
     let mut best = (0usize, 0usize);
     let mut i = 0;
     while i < sorted.len() {

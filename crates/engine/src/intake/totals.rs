@@ -20,6 +20,7 @@
 //! within 10^-9 of the period's sum (sums of decimals written in the file are not exact in
 //! binary).
 
+use crate::sorting;
 use std::collections::BTreeMap;
 
 use super::build::PART_JOIN;
@@ -126,7 +127,7 @@ pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
             items[sub.index].name, sub.group, sub.compared
         ));
     }
-    subs.sort_by_key(|s| std::cmp::Reverse(s.index));
+    sorting::sort_by_key(&mut subs, |s| std::cmp::Reverse(s.index));
     for sub in subs {
         items.remove(sub.index);
     }
@@ -334,12 +335,13 @@ fn adds_up(total: &Item, group: &[&Item]) -> Option<usize> {
             }
         }
     }
-    let at: BTreeMap<Period, Option<f64>> = total
-        .periods
-        .iter()
-        .copied()
-        .zip(total.values.iter().copied())
-        .collect();
+    let at: BTreeMap<Period, Option<f64>> = sorting::map_of(
+        total
+            .periods
+            .iter()
+            .copied()
+            .zip(total.values.iter().copied()),
+    );
     if sums.keys().any(|p| !at.contains_key(p)) {
         return None;
     }
@@ -394,12 +396,12 @@ pub(crate) fn total_among(items: &[Item]) -> Option<Total> {
         if item.periods.len() != sums.len() {
             return false;
         }
-        let at: BTreeMap<&Period, f64> = item
-            .periods
-            .iter()
-            .zip(&item.values)
-            .filter_map(|(p, v)| v.map(|v| (p, v)))
-            .collect();
+        let at: BTreeMap<&Period, f64> = sorting::map_of(
+            item.periods
+                .iter()
+                .zip(&item.values)
+                .filter_map(|(p, v)| v.map(|v| (p, v))),
+        );
         compared.iter().all(|(p, sum)| {
             at.get(p)
                 .is_some_and(|v| (2.0 * v - sum).abs() <= 1e-9 * sum.abs().max(1.0))

@@ -51,6 +51,7 @@
 //! README's figures) false warnings 0-1 % for steady demand, 1-3 % for volatile, 6 % for
 //! a few lumpy items.
 
+use crate::sorting;
 use statrs::distribution::{DiscreteCDF, Poisson};
 
 use super::Item;
@@ -145,7 +146,7 @@ fn sums(rows: &[(usize, Vec<f64>)], width: usize) -> Vec<f64> {
 
 fn median_of_three(values: &[f64]) -> f64 {
     let mut sorted = values.to_vec();
-    sorted.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut sorted, f64::total_cmp);
     sorted[sorted.len() / 2]
 }
 

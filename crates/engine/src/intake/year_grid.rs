@@ -20,6 +20,7 @@
 //! across are not read (weeks 1 to 53 rarely stand as columns, and the others cannot be
 //! placed on the calendar).
 
+use crate::sorting;
 use std::collections::{HashMap, HashSet};
 
 use super::frame::Table;
@@ -91,7 +92,7 @@ impl YearGrid {
             .copied()
             .filter(|j| !parts.iter().any(|p| p.0 == *j))
             .collect();
-        others.sort_unstable();
+        sorting::sort(&mut others);
         let year = others
             .iter()
             .copied()
@@ -178,7 +179,7 @@ fn whole_year(table: &Table, columns: &Columns) -> Option<(YearPart, Vec<(usize,
         .chain(columns.empty)
         .copied()
         .collect();
-    candidates.sort_unstable();
+    sorting::sort(&mut candidates);
     let parts: Vec<(usize, YearPart, u32)> = candidates
         .iter()
         .filter_map(|&j| {

@@ -11,6 +11,7 @@
 //! small and the test too eager to call a trend. A seasonal variant (Hirsch, Slack & Smith 1982)
 //! compares only like season positions; it is not used here.
 
+use crate::sorting;
 use statrs::distribution::{ContinuousCDF, Normal};
 
 /// Two-sided significance level below which a trend is called.
@@ -70,7 +71,7 @@ fn s_statistic(values: &[f64]) -> i64 {
     // -0.0 + 0.0 is 0.0: the two zeros are one value (a tie), as the comparison in S has them.
     let values: Vec<f64> = values.iter().map(|v| v + 0.0).collect();
     let mut sorted: Vec<f64> = values.clone();
-    sorted.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut sorted, f64::total_cmp);
     sorted.dedup();
     let rank = |v: f64| sorted.partition_point(|x| x.total_cmp(&v).is_lt());
     // tree[i] counts earlier values by rank (1-based Fenwick indexing).
@@ -170,7 +171,7 @@ fn s_variance(values: &[f64]) -> f64 {
         t * (t - 1.0) * (2.0 * t + 5.0)
     };
     let mut sorted = values.to_vec();
-    sorted.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut sorted, f64::total_cmp);
     let mut ties = 0.0;
     let mut start = 0;
     while start < sorted.len() {

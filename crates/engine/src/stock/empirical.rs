@@ -13,6 +13,7 @@
 //! Kept apart from: the normal model ([`super::normal`]) and where the scenarios come from
 //! ([`super::item`]).
 
+use crate::sorting;
 use statrs::distribution::{ContinuousCDF, Gamma};
 use statrs::function::gamma::ln_gamma;
 
@@ -295,7 +296,7 @@ pub fn empirical_figures(
             found: sorted.len(),
         });
     }
-    sorted.sort_by(f64::total_cmp);
+    sorting::sort_by(&mut sorted, f64::total_cmp);
     let n = sorted.len();
     let (lowest, highest) = (sorted[0], sorted[n - 1]);
     let held_share =

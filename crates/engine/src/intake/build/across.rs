@@ -8,6 +8,7 @@
 //!
 //! Kept apart from: finding such a table ([`crate::intake::across`]) and the other layouts.
 
+use crate::sorting;
 use std::collections::HashMap;
 
 use super::{item_parts, period_out_of_run, spaced, Builder, PART_JOIN};
@@ -59,7 +60,7 @@ impl<'a> Builder<'a> {
                 beside.0
             ));
         }
-        columns.sort_by_key(|(p, j)| (*p, *j));
+        sorting::sort_by_key(&mut columns, |(p, j)| (*p, *j));
         let mut unique: Vec<(Period, usize)> = Vec::with_capacity(columns.len());
         for (period, j) in columns {
             match unique.last() {

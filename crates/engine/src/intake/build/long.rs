@@ -8,6 +8,7 @@
 //!
 //! Kept apart from: single and wide tables (in [`super`]), where a repeated period is an error.
 
+use crate::sorting;
 use std::collections::{HashMap, HashSet};
 
 use super::readings::{place_column, ItemPeriods, Reading, Readings};
@@ -164,7 +165,7 @@ impl<'a> Builder<'a> {
                     odd.2.line, odd.0, beside.2.line, beside.0
                 ));
             }
-            rows.sort_by_key(|r| r.0);
+            sorting::sort_by_key(&mut rows, |r| r.0);
             let mut merged: Vec<(Period, Option<f64>, Vec<&'a Record>)> = Vec::new();
             for (period, value, row) in rows {
                 match merged.last_mut() {
@@ -479,7 +480,7 @@ impl<'a> Builder<'a> {
             if alike.is_empty() {
                 continue;
             }
-            alike.sort();
+            sorting::sort(&mut alike);
             alike.dedup();
             let empty: Vec<String> = item_columns
                 .iter()
@@ -533,7 +534,7 @@ fn item_runs(
         .map(|(k, key)| {
             let item = &items[key];
             let mut periods: Vec<Period> = item.rows.iter().map(|r| r.0).collect();
-            periods.sort_unstable();
+            sorting::sort(&mut periods);
             periods.dedup();
             let (Some(&first), Some(&last)) = (periods.first(), periods.last()) else {
                 return ItemRun {

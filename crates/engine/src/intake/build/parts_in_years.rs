@@ -18,6 +18,7 @@
 //! ([`super::super::joined`], whose [`YearPart`] names the parts), and the summing of repeated
 //! rows itself ([`super::long`]).
 
+use crate::sorting;
 use std::collections::{HashMap, HashSet};
 
 use super::long::item_key;
@@ -54,7 +55,7 @@ pub(super) fn parts_summed_into_years(
         .chain(&plan.values)
         .copied()
         .collect();
-    unread.sort_unstable();
+    sorting::sort(&mut unread);
     unread.dedup();
     unread.into_iter().find_map(|j| {
         let name = table.column_name(j);

@@ -17,6 +17,7 @@
 //! Kept apart from: the arithmetic of the readings (`unnamed`) and the items' own runs
 //! (`long`); this module words the warnings about them.
 
+use crate::sorting;
 use std::collections::{BTreeMap, HashMap, HashSet};
 
 use super::unnamed::{classify, prefix, ItemRows, Unnamed, LONG_TABLE};
@@ -275,7 +276,7 @@ fn unnamed_periods<'a>(
     let (mut without_row, mut zero_rows, mut zero_line) = (0usize, 0usize, None::<usize>);
     for item in items {
         let mut periods: Vec<usize> = item.periods.iter().map(|p| index(*p)).collect();
-        periods.sort_unstable();
+        sorting::sort(&mut periods);
         periods.dedup();
         let (Some(&a), Some(&b)) = (periods.first(), periods.last()) else {
             continue;
@@ -379,7 +380,7 @@ fn were(list: &[Period]) -> &'static str {
 pub(super) fn closed_warning(closed: &[Period], no_row: &str) -> Option<String> {
     let first = closed.first()?;
     let mut places: Vec<usize> = closed.iter().filter_map(|p| p.season_position()).collect();
-    places.sort_unstable();
+    sorting::sort(&mut places);
     places.dedup();
     let names: Vec<String> = places
         .iter()

@@ -11,6 +11,7 @@
 //!
 //! Kept apart from: finding such a table ([`crate::intake::year_grid`]) and the other layouts.
 
+use crate::sorting;
 use std::collections::HashMap;
 
 use super::long::{item_name, name_key};
@@ -43,7 +44,7 @@ const STRAY_GAP: i32 = 5;
 /// (the last if both do: newer rows are typed by hand more often).
 fn stray_year(years: &[(i32, &Record)]) -> Option<Stray> {
     let mut distinct: Vec<i32> = years.iter().map(|(y, _)| *y).collect();
-    distinct.sort_unstable();
+    sorting::sort(&mut distinct);
     distinct.dedup();
     let n = distinct.len();
     if n < 2 {

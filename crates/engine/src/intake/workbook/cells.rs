@@ -13,6 +13,7 @@
 //! - a line break inside a cell as a space (a wrapped name in one cell is one name, and each
 //!   sheet row stays one line, so error rows are the sheet's).
 
+use crate::sorting;
 use calamine::Data;
 
 /// Most significant digits a workbook keeps and shows (common practice of spreadsheet
@@ -187,7 +188,7 @@ pub(super) fn sheet_text(
     name: &str,
     mut cells: Vec<(u32, u32, String)>,
 ) -> Result<(String, usize), String> {
-    cells.sort_by_key(|&(row, column, _)| (row, column));
+    sorting::sort_by_key(&mut cells, |&(row, column, _)| (row, column));
     let first_column = cells.iter().map(|c| c.1).min().unwrap_or(0);
     let mut text = String::new();
     let mut broken = 0;
