@@ -131,18 +131,44 @@ pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
     for sub in subs {
         items.remove(sub.index);
     }
-    // A group's own row over one item only, equal to it ("Mill Road" over "Mill Road /
-    // Trowel"): its total or a coincidence; kept, and said.
+    // A group's own row left among its items: over one item only and equal to it ("Mill
+    // Road" over "Mill Road / Trowel"), its total or a coincidence; not their sum ("Oak Lane"
+    // over "Oak Lane / Trowel" and "Oak Lane / Rake", a total with rounding or an item left
+    // out, or sales of no product): kept as an item, and said either way, since a total
+    // planned as an item orders its items' demand twice.
     for i in 0..items.len() {
-        if let Some([only]) = group_row_items(items, i).as_deref() {
-            if let Some(compared) = adds_up(&items[i], &[&items[*only]]) {
-                warnings.push(format!(
-                    "\"{}\" equals \"{}\" in each of the {compared} periods with demand: if it \
-                     is its group's total, take it out of the file, or its demand is ordered \
-                     twice; it is planned as an item",
-                    items[i].name, items[*only].name
-                ));
-            }
+        let Some(group) = group_row_items(items, i).filter(|g| !g.is_empty()) else {
+            continue;
+        };
+        let equal = match group.as_slice() {
+            [only] => adds_up(&items[i], &[&items[*only]]),
+            _ => None,
+        };
+        if let Some(compared) = equal {
+            warnings.push(format!(
+                "\"{}\" equals \"{}\" in each of the {compared} periods with demand: if it \
+                 is its group's total, take it out of the file, or its demand is ordered \
+                 twice; it is planned as an item",
+                items[i].name, items[group[0]].name
+            ));
+        } else {
+            let shown: Vec<String> = group
+                .iter()
+                .take(3)
+                .map(|j| format!("\"{}\"", items[*j].name))
+                .collect();
+            let more = if group.len() > 3 { ", ..." } else { "" };
+            warnings.push(format!(
+                "\"{}\" lacks the rest of its name beside {} {} that {} it ({}{more}) and is \
+                 not their sum in every period: it is planned as an item of its own; if it \
+                 is their total or holds their sales too, correct the file, or that demand is \
+                 ordered twice",
+                items[i].name,
+                group.len(),
+                if group.len() == 1 { "item" } else { "items" },
+                if group.len() == 1 { "has" } else { "have" },
+                shown.join(", ")
+            ));
         }
     }
     let total = total_among(items);
