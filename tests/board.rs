@@ -16,7 +16,7 @@ use morrowcast_engine::stock::{StockText, Target};
 use serde_json::Value;
 
 use crate::support::{
-    cli, item_named, table_file, wide_ending_early, with_a_new_item, within_count,
+    cli, close, item_named, table_file, wide_ending_early, with_a_new_item, within_count,
 };
 
 const STOCK_TABLE: &str = "item,on_hand,on_order,lead_time\nPotting mix 40 L,120,30,2\n";
@@ -158,6 +158,48 @@ fn the_order_plan_carries_the_command_lines_figures() {
     let csv_text = order_plan_csv(&refs, |name| name == "Potting mix 40 L");
     compare(&csv_text, &run.json());
     assert!(csv_text.contains(",yes,"), "the changed item is marked");
+}
+
+// The board's "Bias (holdout)" and "Tracking signal (holdout)" are one calculation, the
+// item's Error ledger's at its end (the command line's `ledger`): the bias had been the
+// backtest's, pooled over three origins, beside the ledger's tracking signal (a review's
+// bird seed: -11.7 beside -6.6, with a ledger bias of -40.9 and MAD of 6.2).
+#[test]
+fn the_boards_bias_and_tracking_signal_are_the_error_ledgers() {
+    let demo = morrowcast_engine::demo::demo_csv();
+    let rows = board_rows(&demo, &StockText::default(), None);
+    let run = cli(&["forecast", "-", "--json"], demo.as_bytes()).json();
+    for row in &rows {
+        let figures = row.figures.as_ref().expect("the demo's items are planned");
+        let item = run["items"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|i| i["name"] == row.name.as_str())
+            .expect("the command line plans the item");
+        let last = item["ledger"].as_array().unwrap().last().unwrap();
+        let bias = last["bias"].as_f64().unwrap();
+        assert!(
+            close(figures.bias, bias, 1e-9),
+            "{}: bias {} against {bias}",
+            row.name,
+            figures.bias
+        );
+        let tracking = last["tracking_signal"].as_f64();
+        assert_eq!(
+            figures.tracking_signal.is_some(),
+            tracking.is_some(),
+            "{}",
+            row.name
+        );
+        if let (Some(ours), Some(theirs)) = (figures.tracking_signal, tracking) {
+            assert!(
+                close(ours, theirs, 1e-9),
+                "{}: {ours} against {theirs}",
+                row.name
+            );
+        }
+    }
 }
 
 #[test]
@@ -357,6 +399,33 @@ fn filters_by_text_and_by_alert() {
     assert_eq!(names(by("", AlertFilter::Failed)), ["Hose reel"]);
     assert_eq!(names(by("", AlertFilter::Kind(Outliers))), ["Trowel"]);
     assert_eq!(names(by("seed", AlertFilter::Kind(Bias))), ["Seed drill"]);
+    // Methods by the start of a word, in full or as the row shows them: "hose" is no part
+    // of "chosen" (a review found every AICc row under it).
+    let mut aicc = rows(&[
+        ("Trowel", Some(Some(0.5)), &[]),
+        ("Seed tray", Some(Some(0.5)), &[]),
+    ]);
+    if let Ok(f) = &mut aicc[0].figures {
+        f.method = "Exponential smoothing chosen by AICc".into();
+        f.method_short = f.method.clone();
+    }
+    if let Ok(f) = &mut aicc[1].figures {
+        f.method = "Combination of Theta + SES".into();
+        f.method_short = "Combination of 2".into();
+    }
+    let found = |text: &str| -> Vec<&str> {
+        let filter = by(text, AlertFilter::All);
+        aicc.iter()
+            .filter(|row| filter.passes(row))
+            .map(|row| row.name.as_str())
+            .collect()
+    };
+    assert!(found("hose").is_empty());
+    assert_eq!(found("chosen"), ["Trowel"]);
+    assert_eq!(found("aicc"), ["Trowel"]);
+    assert_eq!(found("Combination of 2"), ["Seed tray"]);
+    assert_eq!(found("theta"), ["Seed tray"]);
+    assert!(found("heta").is_empty());
     for f in [
         AlertFilter::All,
         AlertFilter::Any,

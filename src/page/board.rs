@@ -234,16 +234,30 @@ impl AlertFilter {
     }
 }
 
+/// Whether `needle` stands in `text` where a word starts (at the start, or after a character
+/// that is not a letter or digit).
+fn at_a_word_start(text: &str, needle: &str) -> bool {
+    text.match_indices(needle).any(|(at, _)| {
+        text[..at]
+            .chars()
+            .next_back()
+            .is_none_or(|c| !c.is_alphanumeric())
+    })
+}
+
 impl Filter {
     /// Whether a row passes.
     pub fn passes(&self, row: &BoardRow) -> bool {
         let needle = self.text.trim().to_lowercase();
+        // A method by the start of a word of its name, as the row shows it or in full:
+        // anywhere inside a word, "hose" found "chosen" in every AICc row (a review).
         let text_ok = needle.is_empty()
             || row.name.to_lowercase().contains(&needle)
-            || row
-                .figures
-                .as_ref()
-                .is_ok_and(|f| f.method.to_lowercase().contains(&needle));
+            || row.figures.as_ref().is_ok_and(|f| {
+                [&f.method, &f.method_short]
+                    .iter()
+                    .any(|m| at_a_word_start(&m.to_lowercase(), &needle))
+            });
         let alert_ok = match (self.alert, &row.figures) {
             (AlertFilter::All, _) => true,
             (AlertFilter::Any, Ok(f)) => !f.alerts.is_empty() || f.stock.is_err(),

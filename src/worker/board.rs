@@ -64,8 +64,10 @@ pub struct BoardFigures {
     pub method: String,
     /// The same, short enough for a narrow column (a combination by its number of members).
     pub method_short: String,
-    /// Holdout MASE and bias of the chosen method.
+    /// The chosen method's MASE in the backtest (pooled over its origins, as the ranking).
     pub mase: Option<f64>,
+    /// The chosen method's bias (sum of errors) over the holdout of its Error ledger, the one
+    /// the tracking signal divides by the ledger's MAD.
     pub bias: f64,
     /// The tracking signal at the end of the holdout, and whether it is beyond its limit.
     pub tracking_signal: Option<f64>,
@@ -192,7 +194,11 @@ impl BoardFigures {
                 Candidate::Method(_) => plan.chosen.label(),
             },
             mase: scored.and_then(|s| s.measures.mase),
-            bias: scored.map_or(0.0, |s| s.measures.bias),
+            // The Error ledger's, as the tracking signal beside it (its bias over its MAD):
+            // the backtest's bias pooled over its origins had stood beside the ledger's
+            // tracking signal, two columns no one could reconcile (a review: -11.7 beside
+            // -6.6 with a ledger's MAD of 6.2).
+            bias: last.map_or_else(|| scored.map_or(0.0, |s| s.measures.bias), |r| r.bias),
             tracking_signal,
             tracking_beyond: last.is_some_and(|r| r.out_of_limits),
             history: plan.history.len(),
