@@ -267,6 +267,31 @@ fn a_short_history_is_an_error_with_a_message() {
     assert!(PlanSettings::default().with_horizon(Some(0)).is_err());
 }
 
+// A holdout asked for the whole file that a short item cannot give takes the automatic one
+// there, said; before, the item was refused and its row lost its forecast and alerts (a
+// review: a new item of 8 months under a holdout of 6). An item long enough keeps the asked.
+#[test]
+fn a_holdout_too_long_for_a_short_item_falls_back_to_the_automatic_one_said() {
+    let six = PlanSettings::default().with_holdout(Some(6)).unwrap();
+    let values =
+        |n: usize| -> Vec<Option<f64>> { (0..n).map(|t| Some(20.0 + (t % 3) as f64)).collect() };
+    for (n, held, said) in [(8, 2, true), (9, 6, false), (24, 6, false)] {
+        let p = plan_item(&monthly(values(n)), &six).unwrap();
+        assert_eq!(p.ledger.len(), held, "{n} periods");
+        let note = p.notes.iter().find(|n| n.contains("too few to hold out"));
+        assert_eq!(note.is_some(), said, "{n} periods: {:?}", p.notes);
+        if said {
+            assert_eq!(
+                note.unwrap(),
+                "8 periods are too few to hold out the 6 asked for (that needs at least 9): \
+                 held out 2, as the automatic holdout would"
+            );
+        }
+    }
+    // Too short even for the automatic holdout: refused as before.
+    assert!(plan_item(&monthly(values(3)), &six).is_err());
+}
+
 #[test]
 fn intermittent_demand_gets_intermittent_methods_and_no_mape() {
     let values: Vec<Option<f64>> = (0..48)

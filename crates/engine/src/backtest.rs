@@ -351,7 +351,7 @@ impl fmt::Display for BacktestError {
             BacktestError::TooShort { length, holdout } => write!(
                 f,
                 "{length} periods are too few to hold out {holdout}: give at least {} periods or a shorter holdout",
-                holdout + 3
+                holdout + LEAST_TRAINING
             ),
             BacktestError::NoCandidate => write!(f, "no method could be fitted to this item's history"),
         }
@@ -359,6 +359,9 @@ impl fmt::Display for BacktestError {
 }
 
 impl std::error::Error for BacktestError {}
+
+/// The fewest periods a backtest trains on before its holdout.
+pub const LEAST_TRAINING: usize = 3;
 
 /// The default holdout length: the last full season (the accepted season length, else the
 /// calendar's), at least one period and at most a third of the data; 1/5 of the data when no
@@ -456,7 +459,7 @@ pub fn run_observed(
 ) -> Result<Backtest, BacktestError> {
     let n = history.len();
     let k = settings.holdout.max(1);
-    if n < k + 3 {
+    if n < k + LEAST_TRAINING {
         return Err(BacktestError::TooShort {
             length: n,
             holdout: k,

@@ -390,9 +390,25 @@ fn plan_inner(
             recent.len()
         ));
     }
-    let holdout = settings.holdout().unwrap_or_else(|| {
-        backtest::default_holdout(recent.len(), m.or(frequency.natural_season()))
-    });
+    let automatic = || backtest::default_holdout(recent.len(), m.or(frequency.natural_season()));
+    // A holdout asked for the whole file that one short item cannot give (a new item's 8
+    // months under a holdout of 6) takes the automatic one there, said: refused, the item
+    // lost its forecast, its alerts and its row's figures (a review), and the planner has no
+    // holdout per item to mend it with.
+    let holdout = match settings.holdout() {
+        Some(asked) if recent.len() < asked + backtest::LEAST_TRAINING => {
+            let held = automatic();
+            notes.push(format!(
+                "{} periods are too few to hold out the {asked} asked for (that needs at least \
+                 {}): held out {held}, as the automatic holdout would",
+                recent.len(),
+                asked + backtest::LEAST_TRAINING
+            ));
+            held
+        }
+        Some(asked) => asked,
+        None => automatic(),
+    };
     let seasons = seasons_to_try(&season, settings.season(), recent.len(), holdout);
     let candidates = settings
         .methods()
