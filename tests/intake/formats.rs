@@ -264,7 +264,21 @@ fn long_layout_sums_duplicate_rows_with_a_warning() {
     assert!(r.errors.is_empty(), "{:?}", r.errors);
     assert_eq!(r.items[0].values, some(&[5.0, 1.0]));
     assert!(
-        warned(&r, &["summed", "\"A\" 2024-01", "lines 2 and 3"]),
+        warned(&r, &["summed", "\"A\" 2024-01", "lines 2 and 3, total 5)"]),
+        "{:?}",
+        r.warnings
+    );
+    // Lines alike in every cell: likelier a line entered twice, said so (a review).
+    let r = read("item;month;qty\nA;2024-01;2\nA;2024-01;2\nA;2024-02;1\n");
+    assert_eq!(r.items[0].values, some(&[4.0, 1.0]));
+    assert!(
+        warned(
+            &r,
+            &[
+                "\"A\" 2024-01 (lines 2 and 3, total 4; the lines are identical: if one was \
+                 entered twice, delete it)"
+            ]
+        ),
         "{:?}",
         r.warnings
     );
