@@ -426,11 +426,32 @@ fn filters_by_text_and_by_alert() {
     assert_eq!(found("Combination of 2"), ["Seed tray"]);
     assert_eq!(found("theta"), ["Seed tray"]);
     assert!(found("heta").is_empty());
+    // The holdout's tracking signal beyond its limit, which no alert repeats.
+    let mut marked = rows(&[
+        ("Trowel", Some(Some(0.5)), &[]),
+        ("Seed tray", Some(Some(0.5)), &[]),
+    ]);
+    for (row, beyond) in marked.iter_mut().zip([true, false]) {
+        if let Ok(f) = &mut row.figures {
+            f.tracking_beyond = beyond;
+        }
+    }
+    let beyond = by("", AlertFilter::TrackingBeyond);
+    let shown: Vec<&str> = marked
+        .iter()
+        .filter(|row| beyond.passes(row))
+        .map(|row| row.name.as_str())
+        .collect();
+    assert_eq!(shown, ["Trowel"]);
+    assert!(names(by("", AlertFilter::TrackingBeyond))
+        .iter()
+        .all(|n| *n != "Hose reel"));
     for f in [
         AlertFilter::All,
         AlertFilter::Any,
         AlertFilter::Failed,
         AlertFilter::Kind(WideBand),
+        AlertFilter::TrackingBeyond,
     ] {
         assert_eq!(AlertFilter::from_key(f.key()), f);
     }

@@ -206,6 +206,10 @@ pub enum AlertFilter {
     Kind(AlertKind),
     /// Items whose stock level of then fell short in the Look-back.
     ShortStock,
+    /// Items whose holdout tracking signal (the board's column) is beyond its limit: no alert
+    /// repeats it, so "items with an alert" leaves them out (a review missed a large order's
+    /// item so).
+    TrackingBeyond,
 }
 
 impl AlertFilter {
@@ -217,6 +221,7 @@ impl AlertFilter {
             AlertFilter::Failed => "failed",
             AlertFilter::Kind(k) => k.key(),
             AlertFilter::ShortStock => "short-stock",
+            AlertFilter::TrackingBeyond => "tracking-beyond",
         }
     }
 
@@ -226,6 +231,7 @@ impl AlertFilter {
             "any" => AlertFilter::Any,
             "failed" => AlertFilter::Failed,
             "short-stock" => AlertFilter::ShortStock,
+            "tracking-beyond" => AlertFilter::TrackingBeyond,
             _ => AlertKind::ALL
                 .into_iter()
                 .find(|k| k.key() == key)
@@ -265,6 +271,8 @@ impl Filter {
             (AlertFilter::Failed, Ok(f)) => f.stock.is_err(),
             (AlertFilter::Kind(k), Ok(f)) => f.alerts.iter().any(|a| a.kind == k),
             (AlertFilter::Kind(_), Err(_)) => false,
+            (AlertFilter::TrackingBeyond, Ok(f)) => f.tracking_beyond,
+            (AlertFilter::TrackingBeyond, Err(_)) => false,
             (AlertFilter::ShortStock, _) => matches!(
                 &row.look_back,
                 Some(Ok(l)) if l.stock.covered() == Some(false)

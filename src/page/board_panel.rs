@@ -238,6 +238,7 @@ pub fn ItemBoard() -> impl IntoView {
                         {AlertKind::ALL.into_iter().map(|k| view! {
                             <option value=k.key()>{format!("alert: {}", k.title().to_lowercase())}</option>
                         }).collect_view()}
+                        <option value="tracking-beyond">"tracking signal (holdout) beyond its limit"</option>
                         <option value="short-stock">"Look-back: stock level fell short"</option>
                     </select>
                 </div>
