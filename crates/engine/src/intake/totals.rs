@@ -23,7 +23,7 @@
 use crate::sorting;
 use std::collections::BTreeMap;
 
-use super::build::PART_JOIN;
+use super::build::{agreeing, count, listing, PART_JOIN};
 use super::Item;
 use crate::calendar::Period;
 
@@ -152,22 +152,18 @@ pub(crate) fn set_aside(items: &mut Vec<Item>, warnings: &mut Vec<String>) {
                 items[i].name, items[group[0]].name
             ));
         } else {
-            let shown: Vec<String> = group
+            let named: Vec<String> = group
                 .iter()
-                .take(3)
                 .map(|j| format!("\"{}\"", items[*j].name))
                 .collect();
-            let more = if group.len() > 3 { ", ..." } else { "" };
             warnings.push(format!(
-                "\"{}\" lacks the rest of its name beside {} {} that {} it ({}{more}) and is \
-                 not their sum in every period: it is planned as an item of its own; if it \
-                 is their total or holds their sales too, correct the file, or that demand is \
-                 ordered twice",
+                "\"{}\" lacks the rest of its name beside {} that {} it ({}) and is not their \
+                 sum in every period: it is planned as an item of its own; if it is their total \
+                 or holds their sales too, correct the file, or that demand is ordered twice",
                 items[i].name,
-                group.len(),
-                if group.len() == 1 { "item" } else { "items" },
-                if group.len() == 1 { "has" } else { "have" },
-                shown.join(", ")
+                count(group.len(), "item"),
+                agreeing(group.len(), "has", "have"),
+                listing(&named)
             ));
         }
     }
